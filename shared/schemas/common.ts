@@ -1,0 +1,58 @@
+import { z } from "zod";
+
+export const roleSchema = z.enum(["analyst", "cro", "treasury", "regulator", "admin"]);
+export type Role = z.infer<typeof roleSchema>;
+
+export const regimeSchema = z.enum(["basel", "us", "eu", "frtb"]);
+export type RegimeId = z.infer<typeof regimeSchema>;
+
+export const pnlBasisSchema = z.enum(["actual", "hypothetical", "max"]);
+export type PnlBasis = z.infer<typeof pnlBasisSchema>;
+
+export const portfolioLevelSchema = z.enum(["top", "desk"]);
+export type PortfolioLevel = z.infer<typeof portfolioLevelSchema>;
+
+/** ISO business date, YYYY-MM-DD, and a real calendar day. */
+export const isoDateSchema = z
+  .string()
+  .regex(/^\d{4}-\d{2}-\d{2}$/, "Use the date format YYYY-MM-DD")
+  .refine((s) => {
+    const d = new Date(`${s}T00:00:00Z`);
+    return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
+  }, "Not a real calendar date");
+
+export const entityCodeSchema = z
+  .string()
+  .trim()
+  .min(2, "At least 2 characters")
+  .max(20, "At most 20 characters")
+  .regex(/^[A-Z0-9][A-Z0-9-]*$/, "Capital letters, digits and hyphens only");
+
+export const portfolioCodeSchema = z
+  .string()
+  .trim()
+  .min(2, "At least 2 characters")
+  .max(40, "At most 40 characters")
+  .regex(/^[A-Z0-9][A-Z0-9_-]*$/, "Capital letters, digits, hyphens and underscores only");
+
+export const currencySchema = z
+  .string()
+  .trim()
+  .regex(/^[A-Z]{3}$/, "A three-letter ISO 4217 code such as EUR");
+
+/** Free text shown on screen and in packs: one line, no control characters. */
+export const plainNameSchema = z
+  .string()
+  .trim()
+  .min(1, "Required")
+  .max(120, "At most 120 characters")
+  .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), "No line breaks or control characters");
+
+export const apiErrorSchema = z.object({
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    details: z.unknown().optional(),
+  }),
+});
+export type ApiErrorBody = z.infer<typeof apiErrorSchema>;

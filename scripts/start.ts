@@ -1,0 +1,61 @@
+/**
+ * `npm start`: private MariaDB up → migrations → demo seed (once) → client build → mail sink →
+ * API and client on http://127.0.0.1:PORT.
+ */
+import path from "node:path";
+import { appCredentials, ensureDatabase, startPrivateDb, stopPrivateDb } from "./lib/mariadb";
+import { startMailSink } from "./lib/mail-sink";
+import { runBin } from "./lib/run";
+
+async function main() {
+  const creds = appCredentials();
+  const { config } = await import("../server/config");
+  console.log(`[db] starting the private MariaDB on 127.0.0.1:${config.db.port}…`);
+  const db = await startPrivateDb(config.db.port);
+  await ensureDatabase(db, config.db.name, creds);
+
+  const { migrateUp } = await import("../server/db/migrator");
+  const { seedDemo } = await import("../server/db/seeder");
+  const migrated = await migrateUp();
+  console.log(`[db] migrations: ${migrated.length ? migrated.join(", ") : "up to date"}`);
+  const seeded = await seedDemo();
+  if (seeded.length) console.log(`[db] demo data seeded: ${seeded.join(", ")}`);
+
+  console.log("[client] building…");
+  if ((await runBin("vite", ["build", "--logLevel", "warn"])) !== 0) throw new Error("The client build failed.");
+
+  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
+  const { createApp } = await import("../server/app");
+  const server = createApp({ serveClient: true }).listen(config.port, "127.0.0.1");
+  await new Promise<void>((resolve, reject) => {
+    server.once("listening", () => resolve());
+    server.once("error", (err: NodeJS.ErrnoException) =>
+      reject(err.code === "EADDRINUSE" ? new Error(`Port ${config.port} is in use; set PORT to a free port.`) : err),
+    );
+  });
+
+  const { DEMO_USERS } = await import("../seeders/20261201-0001-larkspur-foundation");
+  console.log(`\nQuartermark is running on http://127.0.0.1:${config.port}`);
+  console.log(`Mail sink on 127.0.0.1:${mail.port} (messages kept in .data/mail/)`);
+  if (!config.isProduction) {
+    console.log(`\nDemo sign-ins (password: ${config.demoPassword === "quartermark-demo" ? "quartermark-demo" : "$DEMO_PASSWORD"}):`);
+    for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(10)} ${u.email}`);
+  }
+  console.log("\nPress Ctrl+C to stop.");
+
+  const shutdown = async () => {
+    server.close();
+    await mail.close();
+    const { sequelize } = await import("../server/db/sequelize");
+    await sequelize.close();
+    if (db.startedHere) await stopPrivateDb(config.db.port);
+    process.exit(0);
+  };
+  process.once("SIGINT", shutdown);
+  process.once("SIGTERM", shutdown);
+}
+
+main().catch((err) => {
+  console.error(`\n[start] ${err instanceof Error ? err.message : String(err)}`);
+  process.exit(1);
+});

@@ -1,0 +1,87 @@
+import express, { type RequestHandler } from "express";
+import helmet from "helmet";
+import cookieParser from "cookie-parser";
+import { randomUUID } from "node:crypto";
+import { existsSync } from "node:fs";
+import path from "node:path";
+import { config } from "./config";
+import { errorMiddleware, ForbiddenError, NotFoundError } from "./errors";
+import { sessionMiddleware } from "./modules/auth/session.middleware";
+import { authRouter, DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from "./modules/auth/auth.router";
+import { healthRouter } from "./modules/health/health.router";
+import { usersRouter } from "./modules/users/users.router";
+import { entitiesRouter } from "./modules/entities/entities.router";
+import { assignmentsRouter } from "./modules/assignments/assignments.router";
+import { auditRouter } from "./modules/audit/audit.router";
+
+export interface AppOptions {
+  signInLimits?: SignInLimits;
+  /** Serve the built client from dist/client (when it exists). */
+  serveClient?: boolean;
+}
+
+const requestId: RequestHandler = (req, res, next) => {
+  req.requestId = randomUUID();
+  res.setHeader("X-Request-Id", req.requestId);
+  next();
+};
+
+function hostOf(url: string): string | null {
+  return URL.canParse(url) ? new URL(url).host : null;
+}
+
+/** Refuses state-changing requests that another site's page sent (SameSite=Strict is the first line). */
+const sameOriginOnly: RequestHandler = (req, _res, next) => {
+  if (req.method === "GET" || req.method === "HEAD" || req.method === "OPTIONS") return next();
+  if (req.get("sec-fetch-site") === "cross-site") return next(new ForbiddenError("Cross-site requests are refused.", "cross_origin"));
+  const origin = req.get("origin");
+  if (origin && origin !== "null") {
+    if (hostOf(origin) !== req.get("host")) return next(new ForbiddenError("Cross-origin requests are refused.", "cross_origin"));
+  } else if (origin === "null") {
+    return next(new ForbiddenError("Cross-origin requests are refused.", "cross_origin"));
+  }
+  next();
+};
+
+/** Builds the Express app: middleware, routers, error handler. Listening is server/index.ts's job. */
+export function createApp(options: AppOptions = {}) {
+  const app = express();
+  app.disable("x-powered-by");
+  app.set("trust proxy", "loopback");
+  app.use(requestId);
+  // Over plain http on loopback (development), asking the browser to upgrade to https would break every asset.
+  app.use(
+    helmet({
+      contentSecurityPolicy: { directives: { upgradeInsecureRequests: config.cookieSecure ? [] : null } },
+      strictTransportSecurity: config.cookieSecure,
+    }),
+  );
+  app.use(express.json({ limit: "1mb" }));
+  app.use(cookieParser());
+  app.use(sameOriginOnly);
+  app.use(sessionMiddleware);
+  app.use((_req, res, next) => {
+    res.setHeader("Cache-Control", "no-store");
+    next();
+  });
+
+  app.use(healthRouter());
+  app.use(authRouter(options.signInLimits ?? DEFAULT_SIGN_IN_LIMITS));
+  app.use(entitiesRouter());
+  app.use(usersRouter());
+  app.use(assignmentsRouter());
+  app.use(auditRouter());
+
+  app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
+
+  if (options.serveClient && existsSync(path.join(config.clientDir, "index.html"))) {
+    app.use(express.static(config.clientDir, { index: false, maxAge: "1h" }));
+    app.get("/{*splat}", (_req, res) => {
+      res.setHeader("Cache-Control", "no-cache");
+      res.sendFile(path.join(config.clientDir, "index.html"));
+    });
+  }
+
+  app.use(errorMiddleware);
+  return app;
+}

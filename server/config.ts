@@ -1,0 +1,73 @@
+import { z } from "zod";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { randomBytes } from "node:crypto";
+import path from "node:path";
+
+/** The only place that reads process.env: parsed once, then frozen. */
+const projectRoot = path.resolve(import.meta.dirname, "..");
+const dataDir = path.join(projectRoot, ".data");
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  DB_HOST: z.string().default("127.0.0.1"),
+  DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
+  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("quartermark"),
+  DB_USER: z.string().optional(),
+  DB_PASSWORD: z.string().optional(),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  JWT_SECRET: z.string().min(32, "JWT_SECRET must be at least 32 characters").optional(),
+  DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
+  COOKIE_SECURE: z.enum(["true", "false"]).optional(),
+  LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
+});
+
+function readDbCredentials(): { user: string; password: string } | null {
+  const file = path.join(dataDir, "db-credentials.json");
+  if (!existsSync(file)) return null;
+  return JSON.parse(readFileSync(file, "utf8"));
+}
+
+/** JWT_SECRET from the environment, else generated once into .data/ and reused. */
+function jwtSecret(fromEnv: string | undefined): string {
+  if (fromEnv) return fromEnv;
+  const file = path.join(dataDir, "jwt-secret");
+  if (existsSync(file)) return readFileSync(file, "utf8").trim();
+  const secret = randomBytes(48).toString("base64url");
+  mkdirSync(dataDir, { recursive: true });
+  writeFileSync(file, secret, { mode: 0o600 });
+  return secret;
+}
+
+function loadConfig() {
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`).join("\n");
+    throw new Error(`Invalid environment:\n${lines}`);
+  }
+  const env = parsed.data;
+  const creds = readDbCredentials();
+  return Object.freeze({
+    nodeEnv: env.NODE_ENV,
+    isProduction: env.NODE_ENV === "production",
+    port: env.PORT,
+    projectRoot,
+    dataDir,
+    clientDir: path.join(projectRoot, "dist", "client"),
+    db: Object.freeze({
+      host: env.DB_HOST,
+      port: env.DB_PORT,
+      name: env.DB_NAME,
+      user: env.DB_USER ?? creds?.user ?? "quartermark",
+      password: env.DB_PASSWORD ?? creds?.password ?? "",
+    }),
+    smtpPort: env.SMTP_PORT,
+    jwtSecret: jwtSecret(env.JWT_SECRET),
+    demoPassword: env.DEMO_PASSWORD,
+    cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
+    logLevel: env.LOG_LEVEL,
+  });
+}
+
+export const config = loadConfig();
+export type Config = typeof config;

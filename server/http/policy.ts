@@ -1,0 +1,47 @@
+import type { Role } from "../../shared/schemas/common";
+
+/**
+ * Who may call what: the single authority for access on the server. Every route the app
+ * registers must appear here (registration throws otherwise), and the access tests walk this
+ * table for every role.
+ *   "public"    — no session needed
+ *   "signed-in" — any active user
+ *   Role[]      — only these roles
+ */
+export type Access = "public" | "signed-in" | readonly Role[];
+
+const STAFF: readonly Role[] = ["analyst", "cro", "treasury", "admin"];
+
+export const POLICY = {
+  "GET /api/health": "public",
+  "POST /api/auth/login": "public",
+  "POST /api/auth/logout": "signed-in",
+  "GET /api/auth/me": "signed-in",
+
+  // Entities: every role reads (a regulator only the entities assigned to them); admin changes.
+  "GET /api/entities": "signed-in",
+  "POST /api/entities": ["admin"],
+  "PATCH /api/entities/:code": ["admin"],
+  "GET /api/entities/:code/portfolios": STAFF,
+  "POST /api/entities/:code/portfolios": ["admin"],
+  "PATCH /api/entities/:code/portfolios/:portfolio": ["admin"],
+  "GET /api/entities/:code/holidays": STAFF,
+  "POST /api/entities/:code/holidays": ["admin"],
+  "DELETE /api/entities/:code/holidays/:date": ["admin"],
+
+  // Users, assignments and the audit log are the administrator's.
+  "GET /api/users": ["admin"],
+  "POST /api/users": ["admin"],
+  "PATCH /api/users/:id": ["admin"],
+  "POST /api/users/:id/password": ["admin"],
+  "GET /api/regulator-assignments": ["admin"],
+  "POST /api/regulator-assignments": ["admin"],
+  "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
+  "GET /api/audit-events": ["admin"],
+} as const satisfies Record<string, Access>;
+
+export type RouteKey = keyof typeof POLICY;
+
+export function accessFor(key: string): Access | undefined {
+  return (POLICY as Record<string, Access>)[key];
+}

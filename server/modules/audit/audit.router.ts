@@ -1,0 +1,12 @@
+import { createGuardedRouter } from "../../http/routes";
+import { parseInput } from "../../errors";
+import { auditQuerySchema } from "../../../shared/schemas/admin";
+import { listAuditEvents } from "./audit.service";
+
+export function auditRouter() {
+  const r = createGuardedRouter();
+  r.get("/api/audit-events", async (req, res) => {
+    res.json(await listAuditEvents(parseInput(auditQuerySchema, req.query, "query")));
+  });
+  return r.router;
+}

@@ -1,0 +1,51 @@
+import { Op, type Transaction, type WhereOptions } from "sequelize";
+import { AuditEventModel } from "../../models/audit-event";
+import type { Actor } from "../../http/context";
+import type { AuditEvent, AuditQuery } from "../../../shared/schemas/admin";
+
+/** Writes one audit event: who, what, on which target, from where, before and after. */
+export async function recordAudit(
+  actor: Actor,
+  action: string,
+  target: string | null,
+  change: { before?: unknown; after?: unknown } = {},
+  transaction?: Transaction,
+): Promise<void> {
+  await AuditEventModel.create(
+    {
+      actorUserId: actor.user?.id ?? null,
+      actorEmail: actor.user?.email ?? null,
+      action,
+      target: target ? target.slice(0, 190) : null,
+      ip: actor.ip,
+      requestId: actor.requestId,
+      beforeJson: change.before === undefined ? null : JSON.stringify(change.before),
+      afterJson: change.after === undefined ? null : JSON.stringify(change.after),
+    },
+    { transaction },
+  );
+}
+
+function toAuditEvent(row: AuditEventModel): AuditEvent {
+  return {
+    id: Number(row.id),
+    at: row.at.toISOString(),
+    actorEmail: row.actorEmail,
+    action: row.action,
+    target: row.target,
+    ip: row.ip,
+    before: row.beforeJson ? JSON.parse(row.beforeJson) : null,
+    after: row.afterJson ? JSON.parse(row.afterJson) : null,
+  };
+}
+
+export async function listAuditEvents(query: AuditQuery): Promise<{ items: AuditEvent[]; total: number }> {
+  const where: WhereOptions = query.action ? { action: { [Op.like]: `${query.action.replace(/[%_\\]/g, "\\$&")}%` } } : {};
+  const { rows, count } = await AuditEventModel.findAndCountAll({
+    where,
+    order: [["id", "DESC"]],
+    limit: query.limit,
+    offset: query.offset,
+  });
+  return { items: rows.map(toAuditEvent), total: count };
+}

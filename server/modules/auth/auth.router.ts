@@ -1,0 +1,57 @@
+import { rateLimit } from "express-rate-limit";
+import { createGuardedRouter } from "../../http/routes";
+import { actorOf, signedInActor } from "../../http/context";
+import { parseInput, TooManyRequestsError } from "../../errors";
+import { loginBodySchema } from "../../../shared/schemas/auth";
+import { signIn, signOut } from "./auth.service";
+import { clearSessionCookie, setSessionCookie } from "./session.middleware";
+
+export interface SignInLimits {
+  windowMs: number;
+  perAccount: number;
+  perAddress: number;
+}
+
+export const DEFAULT_SIGN_IN_LIMITS: SignInLimits = { windowMs: 15 * 60 * 1000, perAccount: 5, perAddress: 30 };
+
+export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
+  const r = createGuardedRouter();
+  // Only failed attempts count; the message is the same whichever limit was reached.
+  const tooMany = () => new TooManyRequestsError("Too many sign-in attempts. Wait 15 minutes and try again.");
+  const perAddress = rateLimit({
+    windowMs: limits.windowMs,
+    limit: limits.perAddress,
+    skipSuccessfulRequests: true,
+    standardHeaders: "draft-8",
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(tooMany()),
+  });
+  const perAccount = rateLimit({
+    windowMs: limits.windowMs,
+    limit: limits.perAccount,
+    skipSuccessfulRequests: true,
+    standardHeaders: false,
+    legacyHeaders: false,
+    keyGenerator: (req) => `account:${String(req.body?.email ?? "").trim().toLowerCase()}`,
+    handler: (_req, _res, next) => next(tooMany()),
+  });
+
+  r.post("/api/auth/login", perAddress, perAccount, async (req, res) => {
+    const body = parseInput(loginBodySchema, req.body, "sign-in form");
+    const { user, token } = await signIn(body, actorOf(req));
+    setSessionCookie(res, token);
+    res.json({ user });
+  });
+
+  r.post("/api/auth/logout", async (req, res) => {
+    await signOut(signedInActor(req));
+    clearSessionCookie(res);
+    res.status(204).end();
+  });
+
+  r.get("/api/auth/me", (req, res) => {
+    res.json({ user: signedInActor(req).user });
+  });
+
+  return r.router;
+}

@@ -1,0 +1,55 @@
+import bcrypt from "bcryptjs";
+import { UserModel } from "../../models/user";
+import { UnauthorizedError } from "../../errors";
+import { recordAudit } from "../audit/audit.service";
+import type { Actor } from "../../http/context";
+import type { LoginBody, SessionUser } from "../../../shared/schemas/auth";
+import { signSessionToken, verifySessionToken } from "./tokens";
+
+export const BCRYPT_COST = 12;
+
+// Compared against when the e-mail is unknown, so a wrong e-mail costs as long as a wrong password.
+const DUMMY_HASH = bcrypt.hashSync("quartermark-timing-equaliser", BCRYPT_COST);
+
+const WRONG_CREDENTIALS = "The e-mail address or password is not correct.";
+
+export function toSessionUser(user: UserModel): SessionUser {
+  return { id: user.id, email: user.email, name: user.name, role: user.role };
+}
+
+export async function hashPassword(password: string): Promise<string> {
+  return bcrypt.hash(password, BCRYPT_COST);
+}
+
+/** Checks the credentials, records the attempt, and issues a session token. */
+export async function signIn(credentials: LoginBody, actor: Actor): Promise<{ user: SessionUser; token: string }> {
+  const user = await UserModel.findOne({ where: { email: credentials.email } });
+  const passwordMatches = await bcrypt.compare(credentials.password, user?.passwordHash ?? DUMMY_HASH);
+  if (!user || !passwordMatches || user.disabled) {
+    const reason = !user ? "unknown e-mail" : user.disabled ? "account disabled" : "wrong password";
+    await recordAudit(actor, "auth.sign_in_failed", credentials.email, { after: { reason } });
+    throw new UnauthorizedError(WRONG_CREDENTIALS);
+  }
+  user.lastSignInAt = new Date();
+  await user.save();
+  const sessionUser = toSessionUser(user);
+  await recordAudit({ ...actor, user: sessionUser }, "auth.sign_in", user.email);
+  return { user: sessionUser, token: signSessionToken(user.id, user.tokenVersion) };
+}
+
+/** Ends every session of the user at once by raising the token version. */
+export async function signOut(actor: Actor & { user: SessionUser }): Promise<void> {
+  await UserModel.increment("tokenVersion", { by: 1, where: { id: actor.user.id } });
+  await recordAudit(actor, "auth.sign_out", actor.user.email);
+}
+
+/** The user behind a session token, or why there is none. */
+export async function resolveSession(token: string): Promise<{ user: SessionUser } | { reason: string }> {
+  const verified = verifySessionToken(token);
+  if (!verified.ok) return { reason: verified.reason };
+  const user = await UserModel.findByPk(verified.userId);
+  if (!user) return { reason: "user no longer exists" };
+  if (user.disabled) return { reason: "account disabled" };
+  if (user.tokenVersion !== verified.tokenVersion) return { reason: "session revoked" };
+  return { user: toSessionUser(user) };
+}

@@ -1,0 +1,59 @@
+import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
+import { parseInput } from "../../errors";
+import {
+  createEntityBodySchema,
+  createHolidayBodySchema,
+  createPortfolioBodySchema,
+  entityParamSchema,
+  holidayParamSchema,
+  portfolioParamSchema,
+  updateEntityBodySchema,
+  updatePortfolioBodySchema,
+} from "../../../shared/schemas/admin";
+import * as entities from "./entities.service";
+
+export function entitiesRouter() {
+  const r = createGuardedRouter();
+
+  r.get("/api/entities", async (req, res) => {
+    res.json(await entities.listEntities(signedInActor(req).user));
+  });
+  r.post("/api/entities", async (req, res) => {
+    res.status(201).json(await entities.createEntity(parseInput(createEntityBodySchema, req.body), signedInActor(req)));
+  });
+  r.patch("/api/entities/:code", async (req, res) => {
+    const { code } = parseInput(entityParamSchema, req.params, "address");
+    res.json(await entities.updateEntity(code, parseInput(updateEntityBodySchema, req.body), signedInActor(req)));
+  });
+
+  r.get("/api/entities/:code/portfolios", async (req, res) => {
+    const { code } = parseInput(entityParamSchema, req.params, "address");
+    res.json(await entities.listPortfolios(code, signedInActor(req).user));
+  });
+  r.post("/api/entities/:code/portfolios", async (req, res) => {
+    const { code } = parseInput(entityParamSchema, req.params, "address");
+    res.status(201).json(await entities.createPortfolio(code, parseInput(createPortfolioBodySchema, req.body), signedInActor(req)));
+  });
+  r.patch("/api/entities/:code/portfolios/:portfolio", async (req, res) => {
+    const { code, portfolio } = parseInput(portfolioParamSchema, req.params, "address");
+    const { name } = parseInput(updatePortfolioBodySchema, req.body);
+    res.json(await entities.renamePortfolio(code, portfolio, name, signedInActor(req)));
+  });
+
+  r.get("/api/entities/:code/holidays", async (req, res) => {
+    const { code } = parseInput(entityParamSchema, req.params, "address");
+    res.json(await entities.listHolidays(code, signedInActor(req).user));
+  });
+  r.post("/api/entities/:code/holidays", async (req, res) => {
+    const { code } = parseInput(entityParamSchema, req.params, "address");
+    res.status(201).json(await entities.addHoliday(code, parseInput(createHolidayBodySchema, req.body), signedInActor(req)));
+  });
+  r.delete("/api/entities/:code/holidays/:date", async (req, res) => {
+    const { code, date } = parseInput(holidayParamSchema, req.params, "address");
+    await entities.removeHoliday(code, date, signedInActor(req));
+    res.status(204).end();
+  });
+
+  return r.router;
+}

@@ -1,0 +1,172 @@
+import { UniqueConstraintError } from "sequelize";
+import { EntityModel } from "../../models/entity";
+import { PortfolioModel } from "../../models/portfolio";
+import { HolidayModel } from "../../models/holiday";
+import { RegulatorAssignmentModel } from "../../models/regulator-assignment";
+import { ConflictError, NotFoundError } from "../../errors";
+import { recordAudit } from "../audit/audit.service";
+import { sequelize } from "../../db/sequelize";
+import { getRegime } from "../../../shared/backtest/regimes";
+import type { Actor } from "../../http/context";
+import type { SessionUser } from "../../../shared/schemas/auth";
+import type {
+  CreateEntityBody,
+  CreateHolidayBody,
+  CreatePortfolioBody,
+  Entity,
+  Holiday,
+  Portfolio,
+  UpdateEntityBody,
+} from "../../../shared/schemas/admin";
+
+type SignedIn = Actor & { user: SessionUser };
+
+export function toEntity(row: EntityModel): Entity {
+  return {
+    code: row.code,
+    name: row.name,
+    regime: row.regime,
+    pnlBasis: row.pnlBasis,
+    currency: row.currency,
+    qualitativeAddend: row.qualitativeAddend,
+    supervisorName: row.supervisorName,
+    supervisorEmails: row.supervisorEmails,
+  };
+}
+
+const toPortfolio = (row: PortfolioModel): Portfolio => ({ code: row.code, name: row.name, level: row.level });
+const toHoliday = (row: HolidayModel): Holiday => ({ date: row.date, name: row.name });
+
+/** The entity by code, or 404. Regulators only find the entities assigned to them. */
+export async function findEntity(code: string, viewer?: SessionUser): Promise<EntityModel> {
+  const row = await EntityModel.findOne({ where: { code } });
+  if (!row) throw new NotFoundError(`No entity with code ${code}.`);
+  if (viewer?.role === "regulator") {
+    const assigned = await RegulatorAssignmentModel.findOne({ where: { userId: viewer.id, entityId: row.id } });
+    if (!assigned) throw new NotFoundError(`No entity with code ${code}.`);
+  }
+  return row;
+}
+
+export async function listEntities(viewer: SessionUser): Promise<Entity[]> {
+  if (viewer.role === "regulator") {
+    const assignments = await RegulatorAssignmentModel.findAll({
+      where: { userId: viewer.id },
+      include: [{ model: EntityModel, as: "entity" }],
+    });
+    return assignments
+      .map((a) => (a as unknown as { entity: EntityModel }).entity)
+      .sort((a, b) => a.code.localeCompare(b.code))
+      .map(toEntity);
+  }
+  const rows = await EntityModel.findAll({ order: [["code", "ASC"]] });
+  return rows.map(toEntity);
+}
+
+export async function createEntity(input: CreateEntityBody, actor: SignedIn): Promise<Entity> {
+  try {
+    return await sequelize.transaction(async (transaction) => {
+      const row = await EntityModel.create(
+        {
+          code: input.code,
+          name: input.name,
+          regime: input.regime,
+          // Each rule set has its own default basis for counting exceptions (REFERENCE.md §2).
+          pnlBasis: input.pnlBasis ?? getRegime(input.regime).defaultPnlBasis,
+          currency: input.currency,
+          qualitativeAddend: input.qualitativeAddend ?? 0,
+          supervisorName: input.supervisorName ?? null,
+          supervisorEmails: input.supervisorEmails ?? [],
+        },
+        { transaction },
+      );
+      const entity = toEntity(row);
+      await recordAudit(actor, "entity.create", entity.code, { after: entity }, transaction);
+      return entity;
+    });
+  } catch (err) {
+    if (err instanceof UniqueConstraintError) throw new ConflictError(`An entity with the code ${input.code} already exists.`);
+    throw err;
+  }
+}
+
+export async function updateEntity(code: string, change: UpdateEntityBody, actor: SignedIn): Promise<Entity> {
+  return sequelize.transaction(async (transaction) => {
+    const row = await EntityModel.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!row) throw new NotFoundError(`No entity with code ${code}.`);
+    const before = toEntity(row);
+    if (change.name !== undefined) row.name = change.name;
+    if (change.regime !== undefined) row.regime = change.regime;
+    if (change.pnlBasis !== undefined) row.pnlBasis = change.pnlBasis;
+    if (change.currency !== undefined) row.currency = change.currency;
+    if (change.qualitativeAddend !== undefined) row.qualitativeAddend = change.qualitativeAddend;
+    if (change.supervisorName !== undefined) row.supervisorName = change.supervisorName;
+    if (change.supervisorEmails !== undefined) row.supervisorEmails = change.supervisorEmails;
+    await row.save({ transaction });
+    const entity = toEntity(row);
+    await recordAudit(actor, "entity.update", code, { before, after: entity }, transaction);
+    return entity;
+  });
+}
+
+export async function listPortfolios(code: string, viewer: SessionUser): Promise<Portfolio[]> {
+  const entity = await findEntity(code, viewer);
+  const rows = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["level", "DESC"], ["code", "ASC"]] });
+  return rows.map(toPortfolio);
+}
+
+export async function createPortfolio(code: string, input: CreatePortfolioBody, actor: SignedIn): Promise<Portfolio> {
+  const entity = await findEntity(code);
+  if (await PortfolioModel.findOne({ where: { code: input.code } })) {
+    throw new ConflictError(`A portfolio with the code ${input.code} already exists.`);
+  }
+  return sequelize.transaction(async (transaction) => {
+    const row = await PortfolioModel.create({ entityId: entity.id, code: input.code, name: input.name, level: input.level }, { transaction });
+    const portfolio = toPortfolio(row);
+    await recordAudit(actor, "portfolio.create", `${code}/${portfolio.code}`, { after: portfolio }, transaction);
+    return portfolio;
+  });
+}
+
+export async function renamePortfolio(code: string, portfolioCode: string, name: string, actor: SignedIn): Promise<Portfolio> {
+  const entity = await findEntity(code);
+  return sequelize.transaction(async (transaction) => {
+    const row = await PortfolioModel.findOne({ where: { entityId: entity.id, code: portfolioCode }, transaction, lock: transaction.LOCK.UPDATE });
+    if (!row) throw new NotFoundError(`No portfolio ${portfolioCode} in entity ${code}.`);
+    const before = toPortfolio(row);
+    row.name = name;
+    await row.save({ transaction });
+    const portfolio = toPortfolio(row);
+    await recordAudit(actor, "portfolio.update", `${code}/${portfolioCode}`, { before, after: portfolio }, transaction);
+    return portfolio;
+  });
+}
+
+export async function listHolidays(code: string, viewer: SessionUser): Promise<Holiday[]> {
+  const entity = await findEntity(code, viewer);
+  const rows = await HolidayModel.findAll({ where: { entityId: entity.id }, order: [["date", "ASC"]] });
+  return rows.map(toHoliday);
+}
+
+export async function addHoliday(code: string, input: CreateHolidayBody, actor: SignedIn): Promise<Holiday> {
+  const entity = await findEntity(code);
+  if (await HolidayModel.findOne({ where: { entityId: entity.id, date: input.date } })) {
+    throw new ConflictError(`${input.date} is already a holiday in the ${code} calendar.`);
+  }
+  return sequelize.transaction(async (transaction) => {
+    const row = await HolidayModel.create({ entityId: entity.id, date: input.date, name: input.name }, { transaction });
+    const holiday = toHoliday(row);
+    await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
+    return holiday;
+  });
+}
+
+export async function removeHoliday(code: string, date: string, actor: SignedIn): Promise<void> {
+  const entity = await findEntity(code);
+  const row = await HolidayModel.findOne({ where: { entityId: entity.id, date } });
+  if (!row) throw new NotFoundError(`${date} is not a holiday in the ${code} calendar.`);
+  await sequelize.transaction(async (transaction) => {
+    await row.destroy({ transaction });
+    await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
+  });
+}

@@ -1,0 +1,26 @@
+import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
+import { parseInput } from "../../errors";
+import { createUserBodySchema, resetPasswordBodySchema, updateUserBodySchema, userIdParamSchema } from "../../../shared/schemas/admin";
+import { createUser, listUsers, resetPassword, updateUser } from "./users.service";
+
+export function usersRouter() {
+  const r = createGuardedRouter();
+  r.get("/api/users", async (_req, res) => {
+    res.json(await listUsers());
+  });
+  r.post("/api/users", async (req, res) => {
+    res.status(201).json(await createUser(parseInput(createUserBodySchema, req.body), signedInActor(req)));
+  });
+  r.patch("/api/users/:id", async (req, res) => {
+    const { id } = parseInput(userIdParamSchema, req.params, "address");
+    res.json(await updateUser(id, parseInput(updateUserBodySchema, req.body), signedInActor(req)));
+  });
+  r.post("/api/users/:id/password", async (req, res) => {
+    const { id } = parseInput(userIdParamSchema, req.params, "address");
+    const { password } = parseInput(resetPasswordBodySchema, req.body);
+    await resetPassword(id, password, signedInActor(req));
+    res.status(204).end();
+  });
+  return r.router;
+}

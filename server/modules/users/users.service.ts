@@ -1,0 +1,82 @@
+import { UserModel } from "../../models/user";
+import { ConflictError, NotFoundError, ForbiddenError } from "../../errors";
+import { recordAudit } from "../audit/audit.service";
+import { hashPassword } from "../auth/auth.service";
+import { sequelize } from "../../db/sequelize";
+import type { Actor } from "../../http/context";
+import type { SessionUser } from "../../../shared/schemas/auth";
+import type { CreateUserBody, UpdateUserBody, User } from "../../../shared/schemas/admin";
+
+type AdminActor = Actor & { user: SessionUser };
+
+function toUser(row: UserModel): User {
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    disabled: row.disabled,
+    createdAt: row.createdAt.toISOString(),
+    lastSignInAt: row.lastSignInAt ? row.lastSignInAt.toISOString() : null,
+  };
+}
+
+/** The audit trail keeps what changed, never a password hash. */
+function auditView(u: User) {
+  return { email: u.email, name: u.name, role: u.role, disabled: u.disabled };
+}
+
+async function findUser(id: number): Promise<UserModel> {
+  const user = await UserModel.findByPk(id);
+  if (!user) throw new NotFoundError(`No user with id ${id}.`);
+  return user;
+}
+
+export async function listUsers(): Promise<User[]> {
+  const rows = await UserModel.findAll({ order: [["email", "ASC"]] });
+  return rows.map(toUser);
+}
+
+export async function createUser(input: CreateUserBody, actor: AdminActor): Promise<User> {
+  if (await UserModel.findOne({ where: { email: input.email } })) {
+    throw new ConflictError(`A user with the e-mail ${input.email} already exists.`);
+  }
+  const passwordHash = await hashPassword(input.password);
+  return sequelize.transaction(async (transaction) => {
+    const row = await UserModel.create({ email: input.email, name: input.name, role: input.role, passwordHash, lastSignInAt: null }, { transaction });
+    const user = toUser(row);
+    await recordAudit(actor, "user.create", user.email, { after: auditView(user) }, transaction);
+    return user;
+  });
+}
+
+/** Role and status changes revoke the user's sessions at once (token version). */
+export async function updateUser(id: number, change: UpdateUserBody, actor: AdminActor): Promise<User> {
+  if (id === actor.user.id && (change.disabled === true || (change.role && change.role !== "admin"))) {
+    throw new ForbiddenError("You cannot disable your own account or remove your own admin role.", "self_lockout");
+  }
+  return sequelize.transaction(async (transaction) => {
+    const row = await UserModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!row) throw new NotFoundError(`No user with id ${id}.`);
+    const before = auditView(toUser(row));
+    const revokes = (change.role !== undefined && change.role !== row.role) || (change.disabled !== undefined && change.disabled !== row.disabled);
+    if (change.name !== undefined) row.name = change.name;
+    if (change.role !== undefined) row.role = change.role;
+    if (change.disabled !== undefined) row.disabled = change.disabled;
+    if (revokes) row.tokenVersion = row.tokenVersion + 1;
+    await row.save({ transaction });
+    const user = toUser(row);
+    await recordAudit(actor, "user.update", user.email, { before, after: auditView(user) }, transaction);
+    return user;
+  });
+}
+
+export async function resetPassword(id: number, password: string, actor: AdminActor): Promise<void> {
+  const row = await findUser(id);
+  row.passwordHash = await hashPassword(password);
+  row.tokenVersion = row.tokenVersion + 1;
+  await sequelize.transaction(async (transaction) => {
+    await row.save({ transaction });
+    await recordAudit(actor, "user.reset_password", row.email, {}, transaction);
+  });
+}

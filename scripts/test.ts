@@ -55,7 +55,8 @@ async function main(): Promise<number> {
     if (existsSync(resultsFile)) {
       const r = JSON.parse(readFileSync(resultsFile, "utf8"));
       passed = r.numPassedTests ?? 0;
-      failed = (r.numFailedTests ?? 0) + (r.numFailedTestSuites ?? 0);
+      // A file that fails to load has no failed test of its own: count it once.
+      failed = (r.numFailedTests ?? 0) || (r.numFailedTestSuites ?? 0);
       skipped = (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
     } else {
       failed = 1;

@@ -111,7 +111,8 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
 
 export async function listPortfolios(code: string, viewer: SessionUser): Promise<Portfolio[]> {
   const entity = await findEntity(code, viewer);
-  const rows = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["level", "DESC"], ["code", "ASC"]] });
+  // ENUM order: top (1) before desk (2).
+  const rows = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["level", "ASC"], ["code", "ASC"]] });
   return rows.map(toPortfolio);
 }
 

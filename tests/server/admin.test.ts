@@ -1,0 +1,180 @@
+import request from "supertest";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { sequelize } from "../../server/db/sequelize";
+import { AuditEventModel } from "../../server/models/audit-event";
+import { EntityModel } from "../../server/models/entity";
+import { HolidayModel } from "../../server/models/holiday";
+import { PortfolioModel } from "../../server/models/portfolio";
+import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
+import { UserModel } from "../../server/models/user";
+import { createTestEntity, createTestUser, sessionCookieFor, signIn, testApp, unique } from "./helpers";
+
+const app = testApp();
+let admin: string;
+let adminEmail: string;
+
+beforeAll(async () => {
+  const user = await createTestUser("admin");
+  adminEmail = user.email;
+  admin = await sessionCookieFor(user.id);
+});
+afterAll(() => sequelize.close());
+
+describe("managing users", () => {
+  it("when an admin creates a user, then the row exists, the password is hashed with cost 12, and the audit log holds the change without it", async () => {
+    const email = `new-${unique()}@larkspur.test`;
+    const res = await request(app)
+      .post("/api/users")
+      .set("Cookie", admin)
+      .send({ email, name: "Nadia Fern", role: "analyst", password: "a long enough password" });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ email, name: "Nadia Fern", role: "analyst", disabled: false, lastSignInAt: null });
+    const row = await UserModel.findOne({ where: { email } });
+    expect(row!.passwordHash).toMatch(/^\$2[aby]\$12\$/);
+    const audit = await AuditEventModel.findOne({ where: { action: "user.create", target: email } });
+    expect(audit!.actorEmail).toBe(adminEmail);
+    expect(audit!.ip).toMatch(/127\.0\.0\.1/);
+    expect(audit!.afterJson).not.toMatch(/\$2[aby]\$/);
+    expect(JSON.parse(audit!.afterJson!)).toEqual({ email, name: "Nadia Fern", role: "analyst", disabled: false });
+    // The new user can sign in with that password.
+    await signIn(app, email, "a long enough password");
+  });
+
+  it("when the e-mail already exists, then 409 and no second row", async () => {
+    const existing = await createTestUser("cro");
+    const res = await request(app).post("/api/users").set("Cookie", admin).send({ email: existing.email, name: "X", role: "cro", password: "a long enough password" });
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toContain(existing.email);
+    expect(await UserModel.count({ where: { email: existing.email } })).toBe(1);
+  });
+
+  it("when the body smuggles extra fields such as tokenVersion, then 422 and nothing is created", async () => {
+    const email = `smuggle-${unique()}@larkspur.test`;
+    const res = await request(app).post("/api/users").set("Cookie", admin).send({ email, name: "X", role: "analyst", password: "a long enough password", tokenVersion: 99 });
+    expect(res.status).toBe(422);
+    expect(await UserModel.count({ where: { email } })).toBe(0);
+  });
+
+  it("when an admin changes a role, then the audit log keeps before and after", async () => {
+    const user = await createTestUser("analyst");
+    const res = await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ role: "cro" });
+    expect(res.status).toBe(200);
+    expect(res.body.role).toBe("cro");
+    const audit = await AuditEventModel.findOne({ where: { action: "user.update", target: user.email } });
+    expect(JSON.parse(audit!.beforeJson!).role).toBe("analyst");
+    expect(JSON.parse(audit!.afterJson!).role).toBe("cro");
+  });
+
+  it("when an admin resets a password, then the old one stops working and the new one works", async () => {
+    const user = await createTestUser("treasury");
+    await request(app).post(`/api/users/${user.id}/password`).set("Cookie", admin).send({ password: "brand new passphrase" }).expect(204);
+    expect((await request(app).post("/api/auth/login").send({ email: user.email, password: "correct horse battery staple" })).status).toBe(401);
+    await signIn(app, user.email, "brand new passphrase");
+  });
+
+  it("when an admin tries to disable their own account, then 403 and they stay enabled", async () => {
+    const self = await createTestUser("admin");
+    const cookie = await sessionCookieFor(self.id);
+    const res = await request(app).patch(`/api/users/${self.id}`).set("Cookie", cookie).send({ disabled: true });
+    expect(res.status).toBe(403);
+    expect((await UserModel.findByPk(self.id))!.disabled).toBe(false);
+  });
+});
+
+describe("managing entities, portfolios and calendars", () => {
+  it("when an entity is created without a P&L basis, then it takes its rule set's default (US: actual; REFERENCE.md §2)", async () => {
+    const code = `T-${unique().toUpperCase()}`;
+    const res = await request(app)
+      .post("/api/entities")
+      .set("Cookie", admin)
+      .send({ code, name: "Test Securities", regime: "us", currency: "USD", supervisorEmails: ["desk@sup.test"] });
+    expect(res.status).toBe(201);
+    expect(res.body).toEqual({ code, name: "Test Securities", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: ["desk@sup.test"] });
+    const row = await EntityModel.findOne({ where: { code } });
+    expect(row!.pnlBasis).toBe("actual");
+    expect(await AuditEventModel.count({ where: { action: "entity.create", target: code } })).toBe(1);
+  });
+
+  it("when the EU rule set is chosen without a basis, then the higher of actual and hypothetical is used (EBA Q&A 2016_2759)", async () => {
+    const code = `T-${unique().toUpperCase()}`;
+    const res = await request(app).post("/api/entities").set("Cookie", admin).send({ code, name: "EU Test", regime: "eu", currency: "EUR" });
+    expect(res.body.pnlBasis).toBe("max");
+  });
+
+  it("when the code is malformed or the currency unknown-shaped, then 422 names the field and nothing is stored", async () => {
+    const res = await request(app).post("/api/entities").set("Cookie", admin).send({ code: "bad code", name: "X", regime: "eu", currency: "euro" });
+    expect(res.status).toBe(422);
+    expect(Object.keys(res.body.error.details.fields)).toEqual(expect.arrayContaining(["code", "currency"]));
+    expect(await EntityModel.count({ where: { code: "bad code" } })).toBe(0);
+  });
+
+  it("when an entity code is taken, then 409", async () => {
+    const entity = await createTestEntity();
+    const res = await request(app).post("/api/entities").set("Cookie", admin).send({ code: entity.code, name: "Again", regime: "eu", currency: "EUR" });
+    expect(res.status).toBe(409);
+  });
+
+  it("when an admin edits the qualitative addend, then it is stored as a decimal and read back as a number", async () => {
+    const entity = await createTestEntity();
+    const res = await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.25 });
+    expect(res.status).toBe(200);
+    expect(res.body.qualitativeAddend).toBe(0.25);
+    expect((await EntityModel.findByPk(entity.id))!.qualitativeAddend).toBe(0.25);
+  });
+
+  it("when portfolios are added, then they list top of house first and a duplicate code is refused", async () => {
+    const entity = await createTestEntity();
+    await request(app).post(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin).send({ code: `${entity.code}-D1`, name: "Desk one", level: "desk" }).expect(201);
+    await request(app).post(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin).send({ code: `${entity.code}-TOP`, name: "Whole book", level: "top" }).expect(201);
+    const dup = await request(app).post(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin).send({ code: `${entity.code}-D1`, name: "Again", level: "desk" });
+    expect(dup.status).toBe(409);
+    const list = await request(app).get(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin);
+    expect(list.body.map((p: { code: string }) => p.code)).toEqual([`${entity.code}-TOP`, `${entity.code}-D1`]);
+    expect(await PortfolioModel.count({ where: { entityId: entity.id } })).toBe(2);
+  });
+
+  it("when holidays are added and removed, then the calendar in the database follows and an impossible date is refused", async () => {
+    const entity = await createTestEntity();
+    await request(app).post(`/api/entities/${entity.code}/holidays`).set("Cookie", admin).send({ date: "2027-12-27", name: "Substitute day" }).expect(201);
+    const bad = await request(app).post(`/api/entities/${entity.code}/holidays`).set("Cookie", admin).send({ date: "2027-02-30", name: "Nope" });
+    expect(bad.status).toBe(422);
+    expect(await HolidayModel.count({ where: { entityId: entity.id } })).toBe(1);
+    await request(app).delete(`/api/entities/${entity.code}/holidays/2027-12-27`).set("Cookie", admin).expect(204);
+    expect(await HolidayModel.count({ where: { entityId: entity.id } })).toBe(0);
+  });
+});
+
+describe("regulator assignments", () => {
+  it("when a regulator is assigned one entity, then they see only that entity and another entity answers 404", async () => {
+    const regulator = await createTestUser("regulator");
+    const mine = await createTestEntity();
+    const other = await createTestEntity();
+    await request(app).post("/api/regulator-assignments").set("Cookie", admin).send({ userId: regulator.id, entityCode: mine.code }).expect(201);
+    expect(await RegulatorAssignmentModel.count({ where: { userId: regulator.id } })).toBe(1);
+    const cookie = await sessionCookieFor(regulator.id);
+    const list = await request(app).get("/api/entities").set("Cookie", cookie);
+    expect(list.body.map((e: { code: string }) => e.code)).toEqual([mine.code]);
+    expect(other.code).not.toBe(mine.code);
+  });
+
+  it("when a non-regulator is assigned, then 400 explains why", async () => {
+    const analyst = await createTestUser("analyst");
+    const entity = await createTestEntity();
+    const res = await request(app).post("/api/regulator-assignments").set("Cookie", admin).send({ userId: analyst.id, entityCode: entity.code });
+    expect(res.status).toBe(400);
+    expect(res.body.error.message).toMatch(/not a regulator/);
+  });
+});
+
+describe("the audit log screen's API", () => {
+  it("when filtered by action, then only those events come back, newest first", async () => {
+    const user = await createTestUser("analyst");
+    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed once" }).expect(200);
+    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed twice" }).expect(200);
+    const res = await request(app).get("/api/audit-events?action=user.update&limit=200").set("Cookie", admin);
+    expect(res.status).toBe(200);
+    expect(res.body.items.every((e: { action: string }) => e.action === "user.update")).toBe(true);
+    const mine = res.body.items.filter((e: { target: string }) => e.target === user.email);
+    expect(mine.map((e: { after: { name: string } }) => e.after.name)).toEqual(["Renamed twice", "Renamed once"]);
+  });
+});

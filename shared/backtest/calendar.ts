@@ -1,0 +1,91 @@
+import { EngineInputError } from "./errors";
+
+/**
+ * Business-day arithmetic on YYYY-MM-DD strings in UTC: a business day is a weekday that is not
+ * in the entity's holiday set. No time zones, no Date objects leak out.
+ */
+
+const MS_PER_DAY = 86_400_000;
+const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** Days since 1970-01-01 for a YYYY-MM-DD string. */
+export function dayNumber(date: string): number {
+  const m = ISO_DATE.exec(date);
+  if (m) {
+    const y = Number(m[1]);
+    const mo = Number(m[2]) - 1;
+    const d = Number(m[3]);
+    const ms = Date.UTC(y, mo, d);
+    const check = new Date(ms);
+    if (check.getUTCFullYear() === y && check.getUTCMonth() === mo && check.getUTCDate() === d) return ms / MS_PER_DAY;
+  }
+  throw new EngineInputError(`"${String(date)}" is not a real date written YYYY-MM-DD`, { date: String(date) });
+}
+
+export function fromDayNumber(day: number): string {
+  return new Date(day * MS_PER_DAY).toISOString().slice(0, 10);
+}
+
+/** 0 = Sunday … 6 = Saturday. 1970-01-01 was a Thursday. */
+function weekdayOf(day: number): number {
+  return (((day + 4) % 7) + 7) % 7;
+}
+
+function isBusinessDayNumber(day: number, holidays: ReadonlySet<string>): boolean {
+  const wd = weekdayOf(day);
+  if (wd === 0 || wd === 6) return false;
+  return holidays.size === 0 || !holidays.has(fromDayNumber(day));
+}
+
+export function isBusinessDay(date: string, holidays: ReadonlySet<string> = new Set()): boolean {
+  return isBusinessDayNumber(dayNumber(date), holidays);
+}
+
+/**
+ * Business days d with from < d ≤ to (the days still to come after `from`, up to and including
+ * `to`). Negative when `to` is before `from`.
+ */
+export function businessDaysBetween(from: string, to: string, holidays: ReadonlySet<string> = new Set()): number {
+  const a = dayNumber(from);
+  const b = dayNumber(to);
+  if (b < a) return -businessDaysBetween(to, from, holidays);
+  // Whole weeks hold five weekdays each; walk only the remainder, then take holidays out.
+  const span = b - a;
+  const weeks = Math.floor(span / 7);
+  let count = weeks * 5;
+  for (let d = a + weeks * 7 + 1; d <= b; d++) {
+    const wd = weekdayOf(d);
+    if (wd !== 0 && wd !== 6) count++;
+  }
+  for (const h of holidays) {
+    if (!ISO_DATE.test(h)) continue;
+    const d = dayNumber(h);
+    if (d > a && d <= b) {
+      const wd = weekdayOf(d);
+      if (wd !== 0 && wd !== 6) count--;
+    }
+  }
+  return count;
+}
+
+/**
+ * The n-th business day after `date` (n > 0), before it (n < 0), or `date` itself (n = 0).
+ */
+export function addBusinessDays(date: string, n: number, holidays: ReadonlySet<string> = new Set()): string {
+  if (!Number.isInteger(n)) throw new EngineInputError(`A number of business days must be a whole number, got ${n}`);
+  let day = dayNumber(date);
+  const step = n >= 0 ? 1 : -1;
+  let left = Math.abs(n);
+  while (left > 0) {
+    day += step;
+    if (isBusinessDayNumber(day, holidays)) left--;
+  }
+  return fromDayNumber(day);
+}
+
+/** The first business day on or after `date`. */
+export function nextBusinessDayOnOrAfter(date: string, holidays: ReadonlySet<string> = new Set()): string {
+  let day = dayNumber(date);
+  while (!isBusinessDayNumber(day, holidays)) day++;
+  return fromDayNumber(day);
+}

@@ -1,0 +1,187 @@
+import type { PnlBasis } from "../schemas/common";
+import { binomialPmf } from "./binomial";
+import { addBusinessDays, businessDaysBetween } from "./calendar";
+import { capitalAddOnFromInputs, capitalInputsAt, type CapitalInputs } from "./capital";
+import { EngineInputError } from "./errors";
+import { classifyDay, countedFromBasis } from "./exceptions";
+import { getRegime, plusFactorFor, zoneFor, type RegimeRules } from "./regimes";
+import type { BacktestOptions, Observation, Zone } from "./types";
+import { assertIsoDate, validateObservations, varFieldFor, windowAt } from "./window";
+
+/**
+ * Roll-off and forecast (DESIGN.md §4). Each exception leaves the window 250 observations after it
+ * entered; future observation dates are the entity's business days (weekdays minus holidays) after
+ * the last observation in the window. New exceptions are modelled on the counted series as
+ * Binomial(h, 1 − confidence) for the h business days still to come; for the `max` basis this adds
+ * them to the higher count, a slight overstatement of the chance of leaving the green zone.
+ */
+
+interface ScoredDay {
+  index: number;
+  date: string;
+  actual: boolean;
+  hypothetical: boolean;
+}
+
+interface Context {
+  rules: RegimeRules;
+  basis: PnlBasis;
+  windowSize: number;
+  confidence: number;
+  start: number;
+  end: number;
+  /** Non-excluded exception days in the window, in date order. */
+  days: ScoredDay[];
+}
+
+function context(observations: readonly Observation[], opts: BacktestOptions): Context {
+  validateObservations(observations);
+  assertIsoDate(opts.asOf, "asOf");
+  const rules = getRegime(opts.regime);
+  const basis = opts.pnlBasis ?? rules.defaultPnlBasis;
+  const windowSize = opts.windowSize ?? 250;
+  const confidence = opts.confidence ?? 0.99;
+  const field = varFieldFor(confidence);
+  const excluded = new Set(opts.excludedDates ?? []);
+  const b = windowAt(observations, opts.asOf, windowSize);
+  const days: ScoredDay[] = [];
+  for (let i = b.startIndex; i <= b.endIndex; i++) {
+    const o = observations[i];
+    if (excluded.has(o.date)) continue;
+    const d = classifyDay(o.actualPnl, o.hypotheticalPnl, o[field] ?? null, rules.missingCountsAsException);
+    const actual = d.actual && basis !== "hypothetical";
+    const hypothetical = d.hypothetical && basis !== "actual";
+    if (actual || hypothetical) days.push({ index: i, date: o.date, actual, hypothetical });
+  }
+  return { rules, basis, windowSize, confidence, start: b.startIndex, end: b.endIndex, days };
+}
+
+function countOf(days: readonly ScoredDay[], basis: PnlBasis): number {
+  let a = 0;
+  let h = 0;
+  for (const d of days) {
+    if (d.actual) a++;
+    if (d.hypothetical) h++;
+  }
+  return countedFromBasis(a, h, basis);
+}
+
+export interface RollOff {
+  /** Date of the exception. */
+  date: string;
+  actual: boolean;
+  hypothetical: boolean;
+  /** First date on which it is no longer inside the window (projected on the business-day calendar). */
+  leavesOn: string;
+  /** Counted exceptions, zone and plus factor once it has left, if no new exception occurs. */
+  countAfter: number;
+  zoneAfter: Zone;
+  plusFactorAfter: number;
+}
+
+function rollOffsOf(observations: readonly Observation[], c: Context, holidays: ReadonlySet<string>): RollOff[] {
+  if (c.end < 0) return [];
+  const last = observations[c.end].date;
+  return c.days.map((d, k) => {
+    const ahead = d.index + c.windowSize - c.end; // observations still to come before it drops out
+    const leavesOn = d.index + c.windowSize <= c.end ? observations[d.index + c.windowSize].date : addBusinessDays(last, ahead, holidays);
+    const countAfter = countOf(c.days.slice(k + 1), c.basis);
+    return {
+      date: d.date,
+      actual: d.actual,
+      hypothetical: d.hypothetical,
+      leavesOn,
+      countAfter,
+      zoneAfter: zoneFor(countAfter, c.rules, c.windowSize),
+      plusFactorAfter: plusFactorFor(countAfter, c.rules, c.windowSize),
+    };
+  });
+}
+
+/** For each counted exception inside the current window: the date it leaves, and the count after. */
+export function rollOffs(observations: readonly Observation[], opts: BacktestOptions, holidays: ReadonlySet<string> = new Set()): RollOff[] {
+  return rollOffsOf(observations, context(observations, opts), holidays);
+}
+
+export interface ForecastOptions extends BacktestOptions {
+  /** The future date D. */
+  date: string;
+  holidays?: ReadonlySet<string>;
+}
+
+export interface ForecastResult {
+  asOf: string;
+  date: string;
+  /** Counted exceptions still inside the window at D. */
+  knownRemaining: number;
+  /** Business days after the last observation up to and including D (at most the window). */
+  newDays: number;
+  /** P(counted = k at D) for k = knownRemaining … knownRemaining + newDays. */
+  distribution: { exceptions: number; probability: number }[];
+  zones: Record<Zone, number>;
+  /** If no new exception occurs. */
+  ifNoNewException: { counted: number; zone: Zone; plusFactor: number; addOn: number | null };
+  /** Σ P(k) × add-on(k) with today's VaR / sVaR figures; null when there is no capital input. */
+  expectedAddOn: number | null;
+  rollOffs: RollOff[];
+}
+
+export function forecastAt(observations: readonly Observation[], opts: ForecastOptions): ForecastResult {
+  assertIsoDate(opts.date, "date");
+  if (opts.date < opts.asOf) throw new EngineInputError(`The forecast date ${opts.date} is before the as-of date ${opts.asOf}`, { date: opts.date });
+  const holidays = opts.holidays ?? new Set<string>();
+  const c = context(observations, opts);
+  const last = c.end >= 0 ? observations[c.end].date : opts.asOf;
+  const h = Math.max(0, businessDaysBetween(last, opts.date, holidays));
+  const newDays = Math.min(h, c.windowSize);
+  // The window at D keeps the last (windowSize − h) observations we already have.
+  const firstKept = c.end - (c.windowSize - newDays) + 1;
+  const knownRemaining = countOf(c.days.filter((d) => d.index >= firstKept), c.basis);
+
+  let inputs: CapitalInputs | null = null;
+  try {
+    inputs = capitalInputsAt(observations, opts.regime, opts.asOf);
+  } catch (e) {
+    if (!(e instanceof EngineInputError)) throw e;
+  }
+  const addOnByPlus = new Map<number, number>();
+  const addOnFor = (count: number): number | null => {
+    if (!inputs) return null;
+    const pf = plusFactorFor(count, c.rules, c.windowSize);
+    let v = addOnByPlus.get(pf);
+    if (v === undefined) {
+      v = capitalAddOnFromInputs(inputs, opts.regime, pf, opts.qualitativeAddend ?? 0);
+      addOnByPlus.set(pf, v);
+    }
+    return v;
+  };
+
+  const p = 1 - c.confidence;
+  const distribution: { exceptions: number; probability: number }[] = [];
+  const zones: Record<Zone, number> = { green: 0, yellow: 0, red: 0 };
+  let expectedAddOn: number | null = inputs ? 0 : null;
+  for (let x = 0; x <= newDays; x++) {
+    const probability = binomialPmf(x, newDays, p);
+    const exceptions = knownRemaining + x;
+    distribution.push({ exceptions, probability });
+    zones[zoneFor(exceptions, c.rules, c.windowSize)] += probability;
+    if (expectedAddOn !== null) expectedAddOn += probability * (addOnFor(exceptions) ?? 0);
+  }
+
+  return {
+    asOf: opts.asOf,
+    date: opts.date,
+    knownRemaining,
+    newDays,
+    distribution,
+    zones,
+    ifNoNewException: {
+      counted: knownRemaining,
+      zone: zoneFor(knownRemaining, c.rules, c.windowSize),
+      plusFactor: plusFactorFor(knownRemaining, c.rules, c.windowSize),
+      addOn: addOnFor(knownRemaining),
+    },
+    expectedAddOn,
+    rollOffs: rollOffsOf(observations, c, holidays),
+  };
+}

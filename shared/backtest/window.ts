@@ -1,0 +1,140 @@
+import { EngineInputError } from "./errors";
+import type { Observation } from "./types";
+
+const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+
+/** True for a real calendar date written YYYY-MM-DD. */
+export function isIsoDate(value: unknown): value is string {
+  if (typeof value !== "string") return false;
+  const m = ISO_DATE.exec(value);
+  if (!m) return false;
+  const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
+  return d.getUTCFullYear() === Number(m[1]) && d.getUTCMonth() === Number(m[2]) - 1 && d.getUTCDate() === Number(m[3]);
+}
+
+const NUMERIC_FIELDS = [
+  "actualPnl",
+  "hypotheticalPnl",
+  "var99",
+  "var975",
+  "svar99",
+  "var10d",
+  "svar10d",
+  "es975",
+  "ses",
+  "rtpl",
+] as const;
+
+/**
+ * Checks what the engine relies on: real ISO dates, strictly increasing (so no duplicates), and
+ * every amount either null/absent or a finite number. Throws EngineInputError naming the date.
+ */
+export function validateObservations(observations: readonly Observation[]): void {
+  let previous = "";
+  for (let i = 0; i < observations.length; i++) {
+    const o = observations[i];
+    if (!isIsoDate(o.date)) {
+      throw new EngineInputError(`Observation ${i + 1} has date "${String(o.date)}"; use a real date written YYYY-MM-DD`, {
+        date: String(o.date),
+        field: "date",
+      });
+    }
+    if (o.date === previous) {
+      throw new EngineInputError(`Duplicate observation for ${o.date}: each business date may appear once`, { date: o.date, field: "date" });
+    }
+    if (o.date < previous) {
+      throw new EngineInputError(`Observations are not in date order: ${o.date} comes after ${previous}`, { date: o.date, field: "date" });
+    }
+    for (const field of NUMERIC_FIELDS) {
+      const v = o[field];
+      if (v !== null && v !== undefined && !(typeof v === "number" && Number.isFinite(v))) {
+        throw new EngineInputError(`Observation for ${o.date} has ${field} = ${String(v)}; expected a finite number or empty`, {
+          date: o.date,
+          field,
+        });
+      }
+    }
+    previous = o.date;
+  }
+}
+
+export function assertIsoDate(value: string, what: string): void {
+  if (!isIsoDate(value)) throw new EngineInputError(`${what} "${String(value)}" is not a real date written YYYY-MM-DD`, { field: what });
+}
+
+/** Index of the last observation dated on or before `asOf`, or −1 (dates sorted). */
+export function lastIndexOnOrBefore(observations: readonly { date: string }[], asOf: string): number {
+  let lo = 0;
+  let hi = observations.length - 1;
+  let found = -1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (observations[mid].date <= asOf) {
+      found = mid;
+      lo = mid + 1;
+    } else hi = mid - 1;
+  }
+  return found;
+}
+
+export interface WindowBounds {
+  /** Index of the first observation in the window (inclusive); startIndex > endIndex when empty. */
+  startIndex: number;
+  /** Index of the last observation in the window (inclusive), −1 when none is on or before asOf. */
+  endIndex: number;
+  observations: number;
+  complete: boolean;
+}
+
+/** DESIGN.md §4: the last `windowSize` observations dated on or before `asOf`. */
+export function windowAt(observations: readonly { date: string }[], asOf: string, windowSize = 250): WindowBounds {
+  if (!Number.isInteger(windowSize) || windowSize < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
+  const endIndex = lastIndexOnOrBefore(observations, asOf);
+  const startIndex = Math.max(0, endIndex - windowSize + 1);
+  const count = endIndex < 0 ? 0 : endIndex - startIndex + 1;
+  return { startIndex: endIndex < 0 ? 0 : startIndex, endIndex, observations: count, complete: count >= windowSize };
+}
+
+/** Which VaR column backs a confidence level. */
+export function varFieldFor(confidence: number): "var99" | "var975" {
+  if (confidence === 0.99) return "var99";
+  if (confidence === 0.975) return "var975";
+  throw new EngineInputError(`Confidence ${confidence} is not supported; use 0.99 (var_99) or 0.975 (var_975)`, { field: "confidence" });
+}
+
+/**
+ * Column-oriented copy of a portfolio's series for the hot paths: missing values become NaN,
+ * so `-pnl > var` is simply false for them.
+ */
+export interface ObservationSeries {
+  dates: string[];
+  actual: Float64Array;
+  hypothetical: Float64Array;
+  /** The VaR at the confidence level the series was built for. */
+  var: Float64Array;
+  /** True when any of the three columns has a missing value. */
+  hasMissing: boolean;
+}
+
+export function toSeries(observations: readonly Observation[], confidence = 0.99): ObservationSeries {
+  validateObservations(observations);
+  const field = varFieldFor(confidence);
+  const n = observations.length;
+  const dates = new Array<string>(n);
+  const actual = new Float64Array(n);
+  const hypothetical = new Float64Array(n);
+  const v = new Float64Array(n);
+  let hasMissing = false;
+  for (let i = 0; i < n; i++) {
+    const o = observations[i];
+    dates[i] = o.date;
+    const a = o.actualPnl;
+    const h = o.hypotheticalPnl;
+    const r = o[field];
+    if (a == null || h == null || r == null) hasMissing = true;
+    actual[i] = a == null ? NaN : a;
+    hypothetical[i] = h == null ? NaN : h;
+    v[i] = r == null ? NaN : r;
+  }
+  return { dates, actual, hypothetical, var: v, hasMissing };
+}

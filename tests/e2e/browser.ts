@@ -1,0 +1,61 @@
+import { chromium, type BrowserContext, type Page } from "playwright-core";
+import { mkdtempSync, mkdirSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import type { AddressInfo } from "node:net";
+import type { Server } from "node:http";
+import { createApp } from "../../server/app";
+
+export const screenshotDir = path.resolve(import.meta.dirname, "..", "..", "test-results", "screenshots");
+
+/** Debian's Chromium, headless, launched as STACK.md says (a persistent context in a fresh dir). */
+export async function launchBrowser(): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
+  const userDataDir = mkdtempSync(path.join(tmpdir(), "qm-chromium-"));
+  const context = await chromium.launchPersistentContext(userDataDir, {
+    executablePath: "/usr/bin/chromium",
+    headless: true,
+    viewport: { width: 1360, height: 900 },
+    args: [
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+      "--disable-dev-shm-usage",
+    ],
+  });
+  return {
+    context,
+    close: async () => {
+      await context.close();
+      rmSync(userDataDir, { recursive: true, force: true });
+    },
+  };
+}
+
+/** The real app (API + built client) on an ephemeral loopback port. */
+export async function startAppServer(): Promise<{ baseUrl: string; close: () => Promise<void> }> {
+  const server: Server = createApp({ serveClient: true }).listen(0, "127.0.0.1");
+  await new Promise<void>((resolve) => server.once("listening", () => resolve()));
+  const { port } = server.address() as AddressInfo;
+  return { baseUrl: `http://127.0.0.1:${port}`, close: () => new Promise<void>((r) => server.close(() => r())) };
+}
+
+/** Collects console errors and failed page scripts, so a journey can assert there were none. */
+export function watchConsole(page: Page): string[] {
+  const errors: string[] = [];
+  page.on("console", (msg) => {
+    if (msg.type() === "error") errors.push(msg.text());
+  });
+  page.on("pageerror", (err) => errors.push(err.message));
+  return errors;
+}
+
+export async function keepScreenshot(page: Page, name: string): Promise<string> {
+  mkdirSync(screenshotDir, { recursive: true });
+  const file = path.join(screenshotDir, `${name}.png`);
+  await page.screenshot({ path: file, fullPage: true });
+  return file;
+}

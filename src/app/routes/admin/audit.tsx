@@ -1,0 +1,90 @@
+import { useEffect, useState, type FormEvent } from "react";
+import { Link, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { useQuery, type QueryClient } from "@tanstack/react-query";
+import { paths } from "@/config/paths";
+import { AUDIT_PAGE_SIZE, auditQueries, type AuditPageParams } from "@/features/admin/api/audit-queries";
+import { AuditTable } from "@/features/admin/components/audit-table";
+import { Button } from "@/components/ui/button";
+import { FormMessage, TextField } from "@/components/ui/field";
+import { isApiError } from "@/lib/api-client";
+
+function pageParams(search: URLSearchParams): AuditPageParams {
+  const page = Math.max(1, Math.floor(Number(search.get("page") ?? "1")) || 1);
+  const action = search.get("action")?.trim() || undefined;
+  return { page, action };
+}
+
+export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
+  await queryClient.ensureQueryData(auditQueries.page(pageParams(new URL(request.url).searchParams)));
+  return null;
+};
+
+export default function AuditRoute() {
+  const [search] = useSearchParams();
+  const navigate = useNavigate();
+  const params = pageParams(search);
+  const { data, error, isFetching, isPlaceholderData } = useQuery(auditQueries.page(params));
+  const [action, setAction] = useState(params.action ?? "");
+  useEffect(() => setAction(params.action ?? ""), [params.action]);
+
+  const total = data?.total ?? 0;
+  const pages = Math.max(1, Math.ceil(total / AUDIT_PAGE_SIZE));
+  const first = total === 0 ? 0 : (params.page - 1) * AUDIT_PAGE_SIZE + 1;
+  const last = Math.min(total, params.page * AUDIT_PAGE_SIZE);
+  const knownActions = [...new Set(data?.items.map((e) => e.action) ?? [])].sort();
+
+  function filter(e: FormEvent) {
+    e.preventDefault();
+    navigate(paths.adminAudit.href({ action: action.trim() || undefined }));
+  }
+
+  return (
+    <section aria-labelledby="audit-title" className="flex flex-col gap-3">
+      <div className="flex items-baseline justify-between gap-4">
+        <h1 id="audit-title">Audit log</h1>
+        <p className="figures text-sm text-ink-muted" aria-live="polite">
+          {total === 0 ? "No events" : `${first.toLocaleString("en-GB")}–${last.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}`}
+          {isFetching && " · loading…"}
+        </p>
+      </div>
+      <p className="text-sm text-ink-muted">Every sign-in, failed sign-in and administrative change, newest first. Entries cannot be edited.</p>
+      <form onSubmit={filter} className="flex flex-wrap items-end gap-2" role="search" aria-label="Filter the audit log">
+        <TextField label="Action" list="audit-actions" value={action} onChange={(e) => setAction(e.target.value)} className="w-64" placeholder="e.g. user.create" />
+        <datalist id="audit-actions">
+          {knownActions.map((a) => (
+            <option key={a} value={a} />
+          ))}
+        </datalist>
+        <Button type="submit" variant="secondary">
+          Filter
+        </Button>
+        {params.action && (
+          <Link to={paths.adminAudit.href()} className="pb-2 text-sm">
+            Clear filter
+          </Link>
+        )}
+      </form>
+      <FormMessage>{error ? (isApiError(error) ? error.message : "The audit log could not load.") : undefined}</FormMessage>
+      <div className={isPlaceholderData ? "opacity-60" : undefined}>
+        <AuditTable events={data?.items ?? []} filtered={Boolean(params.action)} />
+      </div>
+      {pages > 1 && (
+        <nav aria-label="Audit log pages" className="flex items-center gap-4 text-sm">
+          {params.page > 1 ? (
+            <Link to={paths.adminAudit.href({ action: params.action, page: params.page - 1 })}>Newer</Link>
+          ) : (
+            <span className="text-ink-faint">Newer</span>
+          )}
+          <span className="figures text-ink-muted">
+            Page {params.page} of {pages}
+          </span>
+          {params.page < pages ? (
+            <Link to={paths.adminAudit.href({ action: params.action, page: params.page + 1 })}>Older</Link>
+          ) : (
+            <span className="text-ink-faint">Older</span>
+          )}
+        </nav>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,105 @@
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { cn } from "@/lib/cn";
+
+const control =
+  "block w-full h-8.5 rounded-sm border bg-paper-raised px-2.5 text-sm text-ink placeholder:text-ink-faint " +
+  "focus:outline-2 focus:outline-offset-0 focus:outline-accent";
+
+type Common = { label: string; error?: string; hint?: ReactNode; className?: string };
+
+function describedBy(hintId: string | undefined, errorId: string | undefined) {
+  const ids = [hintId, errorId].filter(Boolean).join(" ");
+  return ids || undefined;
+}
+
+function FieldShell({
+  id,
+  label,
+  error,
+  hint,
+  hintId,
+  errorId,
+  className,
+  children,
+}: Common & { id: string; hintId?: string; errorId?: string; children: ReactNode }) {
+  return (
+    <div className={cn("flex flex-col gap-1", className)}>
+      <label htmlFor={id} className="text-xs font-medium text-ink-soft">
+        {label}
+      </label>
+      {children}
+      {hint && !error && (
+        <p id={hintId} className="text-2xs text-ink-muted">
+          {hint}
+        </p>
+      )}
+      {error && (
+        <p id={errorId} className="text-xs text-danger">
+          {error}
+        </p>
+      )}
+    </div>
+  );
+}
+
+export function TextField({ label, error, hint, className, id: givenId, ...input }: Common & InputHTMLAttributes<HTMLInputElement>) {
+  const autoId = useId();
+  const id = givenId ?? autoId;
+  const errorId = error ? `${id}-error` : undefined;
+  const hintId = hint && !error ? `${id}-hint` : undefined;
+  return (
+    <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
+      <input
+        id={id}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hintId, errorId)}
+        className={cn(control, error ? "border-danger" : "border-rule-strong", input.type === "number" && "figures text-right")}
+        {...input}
+      />
+    </FieldShell>
+  );
+}
+
+export function SelectField({
+  label,
+  error,
+  hint,
+  className,
+  id: givenId,
+  children,
+  ...select
+}: Common & SelectHTMLAttributes<HTMLSelectElement>) {
+  const autoId = useId();
+  const id = givenId ?? autoId;
+  const errorId = error ? `${id}-error` : undefined;
+  const hintId = hint && !error ? `${id}-hint` : undefined;
+  return (
+    <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
+      <select
+        id={id}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hintId, errorId)}
+        className={cn(control, "pr-7", error ? "border-danger" : "border-rule-strong")}
+        {...select}
+      >
+        {children}
+      </select>
+    </FieldShell>
+  );
+}
+
+/** A form-level message (the server's answer, or what blocks the form). */
+export function FormMessage({ children, tone = "error" }: { children?: ReactNode; tone?: "error" | "done" }) {
+  if (!children) return null;
+  return (
+    <p
+      role={tone === "error" ? "alert" : "status"}
+      className={cn(
+        "border-l-2 px-3 py-1.5 text-sm",
+        tone === "error" ? "border-danger bg-danger-soft text-danger" : "border-accent bg-accent-soft text-ink",
+      )}
+    >
+      {children}
+    </p>
+  );
+}

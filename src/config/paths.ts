@@ -1,0 +1,75 @@
+import type { Role } from "@shared/schemas/common";
+
+export const allRoles: readonly Role[] = ["analyst", "cro", "treasury", "regulator", "admin"];
+const adminOnly: readonly Role[] = ["admin"];
+
+export type AppPath = {
+  /** The route pattern as React Router reads it. */
+  readonly path: string;
+  /** Who may open it; `null` means anyone, signed in or not. */
+  readonly roles: readonly Role[] | null;
+  /** Short label for navigation and page titles. */
+  readonly label: string;
+};
+
+/** Every URL of the client, in one table. Build links with the `href` helpers, never by hand. */
+export const paths = {
+  signIn: {
+    path: "/sign-in",
+    roles: null,
+    label: "Sign in",
+    href: (redirectTo?: string) =>
+      redirectTo && redirectTo !== "/" ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : "/sign-in",
+  },
+  overview: { path: "/", roles: allRoles, label: "Overview", href: () => "/" },
+  adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
+  adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
+  adminEntity: {
+    path: "/admin/entities/:code",
+    roles: adminOnly,
+    label: "Entity",
+    href: (code: string) => `/admin/entities/${encodeURIComponent(code)}`,
+  },
+  adminAssignments: {
+    path: "/admin/assignments",
+    roles: adminOnly,
+    label: "Regulator access",
+    href: () => "/admin/assignments",
+  },
+  adminAudit: {
+    path: "/admin/audit",
+    roles: adminOnly,
+    label: "Audit log",
+    href: (q?: { action?: string; page?: number }) => {
+      const s = new URLSearchParams();
+      if (q?.action) s.set("action", q.action);
+      if (q?.page && q.page > 1) s.set("page", String(q.page));
+      const qs = s.toString();
+      return qs ? `/admin/audit?${qs}` : "/admin/audit";
+    },
+  },
+} as const satisfies Record<string, AppPath & { href: (...args: never[]) => string }>;
+
+export type PathKey = keyof typeof paths;
+
+/** Navigation entries in display order; each shows only for the roles of its path. */
+export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = [
+  { key: "overview", group: "main" },
+  { key: "adminUsers", group: "admin" },
+  { key: "adminEntities", group: "admin" },
+  { key: "adminAssignments", group: "admin" },
+  { key: "adminAudit", group: "admin" },
+];
+
+export function mayOpen(key: PathKey, role: Role | undefined): boolean {
+  const roles = paths[key].roles;
+  if (roles === null) return true;
+  return role !== undefined && roles.includes(role);
+}
+
+/** Only same-site paths are followed after sign-in (no `//host` or absolute URLs). */
+export function safeRedirect(target: string | null | undefined): string {
+  if (!target || !target.startsWith("/") || target.startsWith("//") || target.startsWith("/\\")) return "/";
+  if (target.startsWith(paths.signIn.path)) return "/";
+  return target;
+}

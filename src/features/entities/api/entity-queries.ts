@@ -1,0 +1,80 @@
+import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import {
+  entityListSchema,
+  entitySchema,
+  holidayListSchema,
+  holidaySchema,
+  portfolioListSchema,
+  portfolioSchema,
+  type CreateEntityBody,
+  type CreateHolidayBody,
+  type CreatePortfolioBody,
+  type UpdateEntityBody,
+} from "@shared/schemas/admin";
+import { api } from "@/lib/api-client";
+
+const base = (code: string) => `/api/entities/${encodeURIComponent(code)}`;
+
+export const entityQueries = {
+  root: () => ["entities"] as const,
+  all: () => queryOptions({ queryKey: [...entityQueries.root(), "list"] as const, queryFn: () => api.get("/api/entities", entityListSchema) }),
+  portfolios: (code: string) =>
+    queryOptions({
+      queryKey: [...entityQueries.root(), "detail", code, "portfolios"] as const,
+      queryFn: () => api.get(`${base(code)}/portfolios`, portfolioListSchema),
+    }),
+  holidays: (code: string) =>
+    queryOptions({
+      queryKey: [...entityQueries.root(), "detail", code, "holidays"] as const,
+      queryFn: () => api.get(`${base(code)}/holidays`, holidayListSchema),
+    }),
+};
+
+export function useCreateEntity() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: CreateEntityBody) => api.post("/api/entities", body, entitySchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.all().queryKey }),
+  });
+}
+
+export function useUpdateEntity(code: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: UpdateEntityBody) => api.patch(base(code), body, entitySchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.all().queryKey }),
+  });
+}
+
+export function useCreatePortfolio(code: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: CreatePortfolioBody) => api.post(`${base(code)}/portfolios`, body, portfolioSchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.portfolios(code).queryKey }),
+  });
+}
+
+export function useRenamePortfolio(code: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ portfolio, name }: { portfolio: string; name: string }) =>
+      api.patch(`${base(code)}/portfolios/${encodeURIComponent(portfolio)}`, { name }, portfolioSchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.portfolios(code).queryKey }),
+  });
+}
+
+export function useAddHoliday(code: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: CreateHolidayBody) => api.post(`${base(code)}/holidays`, body, holidaySchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.holidays(code).queryKey }),
+  });
+}
+
+export function useRemoveHoliday(code: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (date: string) => api.del(`${base(code)}/holidays/${encodeURIComponent(date)}`),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.holidays(code).queryKey }),
+  });
+}

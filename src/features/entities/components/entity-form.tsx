@@ -1,0 +1,197 @@
+import { useRef, useState, type FormEvent } from "react";
+import { createEntityBodySchema, updateEntityBodySchema, type Entity } from "@shared/schemas/admin";
+import type { PnlBasis, RegimeId } from "@shared/schemas/common";
+import { Button } from "@/components/ui/button";
+import { FormMessage, SelectField, TextField } from "@/components/ui/field";
+import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { focusFirstInvalid, splitList, validate, type FieldErrors } from "@/lib/form";
+import { useCreateEntity, useUpdateEntity } from "../api/entity-queries";
+import { defaultPnlBasis, pnlBasisIds, pnlBasisLabels, ruleSetIds, ruleSetLabels } from "../rule-sets";
+
+type Values = {
+  code: string;
+  name: string;
+  regime: RegimeId;
+  pnlBasis: PnlBasis;
+  currency: string;
+  qualitativeAddend: string;
+  supervisorName: string;
+  supervisorEmails: string;
+};
+
+const blank: Values = {
+  code: "",
+  name: "",
+  regime: "eu",
+  pnlBasis: defaultPnlBasis.eu,
+  currency: "",
+  qualitativeAddend: "0",
+  supervisorName: "",
+  supervisorEmails: "",
+};
+
+function valuesOf(e: Entity): Values {
+  return {
+    code: e.code,
+    name: e.name,
+    regime: e.regime,
+    pnlBasis: e.pnlBasis,
+    currency: e.currency,
+    qualitativeAddend: String(e.qualitativeAddend),
+    supervisorName: e.supervisorName ?? "",
+    supervisorEmails: e.supervisorEmails.join(", "),
+  };
+}
+
+/** Form text → API body; `undefined` addend means "not a number" and is reported beside the field. */
+function toBody(v: Values) {
+  const addend = v.qualitativeAddend.trim() === "" ? 0 : Number(v.qualitativeAddend);
+  return {
+    code: v.code.trim().toUpperCase(),
+    name: v.name,
+    regime: v.regime,
+    pnlBasis: v.pnlBasis,
+    currency: v.currency.trim().toUpperCase(),
+    qualitativeAddend: Number.isFinite(addend) ? addend : undefined,
+    supervisorName: v.supervisorName.trim() === "" ? null : v.supervisorName,
+    supervisorEmails: splitList(v.supervisorEmails),
+  };
+}
+
+type Props = { mode: "create"; onCreated?: (e: Entity) => void } | { mode: "edit"; entity: Entity };
+
+export function EntityForm(props: Props) {
+  const editing = props.mode === "edit" ? props.entity : undefined;
+  const create = useCreateEntity();
+  const update = useUpdateEntity(editing?.code ?? "");
+  const mutation = editing ? update : create;
+  const formRef = useRef<HTMLFormElement>(null);
+  const [values, setValues] = useState<Values>(editing ? valuesOf(editing) : blank);
+  const [pnlTouched, setPnlTouched] = useState(Boolean(editing));
+  const [errors, setErrors] = useState<FieldErrors>({});
+  const [done, setDone] = useState<string>();
+
+  const set = (k: keyof Values) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [k]: e.target.value }));
+
+  function setRegime(regime: RegimeId) {
+    // The P&L basis follows the rule set's default until someone picks one on purpose.
+    setValues((v) => ({ ...v, regime, pnlBasis: pnlTouched ? v.pnlBasis : defaultPnlBasis[regime] }));
+  }
+
+  function fail(next: FieldErrors) {
+    setErrors(next);
+    focusFirstInvalid(formRef.current);
+  }
+
+  function submit(e: FormEvent) {
+    e.preventDefault();
+    setDone(undefined);
+    mutation.reset();
+    const body = toBody(values);
+    const addendError = body.qualitativeAddend === undefined ? { qualitativeAddend: "Enter a number between 0 and 1, such as 0.25" } : {};
+
+    if (!editing) {
+      const r = validate(createEntityBodySchema, body);
+      if (!r.ok || addendError.qualitativeAddend) return fail({ ...(r.ok ? {} : r.errors), ...addendError });
+      setErrors({});
+      create.mutate(r.data, {
+        onSuccess: (entity) => {
+          setValues(blank);
+          setPnlTouched(false);
+          setDone(`${entity.code} added. Open it to add portfolios and its holiday calendar.`);
+          if (props.mode === "create") props.onCreated?.(entity);
+        },
+        onError: (err) => fail(fieldErrorsOf(err)),
+      });
+      return;
+    }
+
+    // Send only what changed, so the audit log shows exactly what was edited.
+    const { code: _code, ...rest } = body;
+    const before = toBody(valuesOf(editing));
+    const changed = Object.fromEntries(
+      Object.entries(rest).filter(([k, v]) => JSON.stringify(v) !== JSON.stringify(before[k as keyof typeof before])),
+    );
+    if (addendError.qualitativeAddend) return fail(addendError);
+    if (Object.keys(changed).length === 0) {
+      setErrors({});
+      setDone("Nothing has changed.");
+      return;
+    }
+    const r = validate(updateEntityBodySchema, changed);
+    if (!r.ok) return fail(r.errors);
+    setErrors({});
+    update.mutate(r.data, {
+      onSuccess: () => setDone("Changes saved."),
+      onError: (err) => fail(fieldErrorsOf(err)),
+    });
+  }
+
+  const formError =
+    isApiError(mutation.error) && Object.keys(fieldErrorsOf(mutation.error)).length === 0 ? mutation.error.message : undefined;
+  const titleId = editing ? "edit-entity-title" : "create-entity-title";
+
+  return (
+    <form ref={formRef} onSubmit={submit} noValidate aria-labelledby={titleId} className="flex flex-col gap-3">
+      <h2 id={titleId}>{editing ? "Entity settings" : "Add an entity"}</h2>
+      <FormMessage>{formError}</FormMessage>
+      <FormMessage tone="done">{done}</FormMessage>
+      <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-4">
+        {!editing && (
+          <TextField label="Code" name="code" value={values.code} onChange={set("code")} error={errors.code} hint="e.g. LKS-EU; cannot change later" />
+        )}
+        <TextField label="Name" name="name" value={values.name} onChange={set("name")} error={errors.name} className={editing ? "lg:col-span-2" : ""} />
+        <SelectField label="Rule set" name="regime" value={values.regime} onChange={(e) => setRegime(e.target.value as RegimeId)} error={errors.regime}>
+          {ruleSetIds.map((r) => (
+            <option key={r} value={r}>
+              {ruleSetLabels[r]}
+            </option>
+          ))}
+        </SelectField>
+        <SelectField
+          label="P&L basis for the count"
+          name="pnlBasis"
+          value={values.pnlBasis}
+          onChange={(e) => {
+            setPnlTouched(true);
+            set("pnlBasis")(e);
+          }}
+          error={errors.pnlBasis}
+          hint={`Default for ${ruleSetLabels[values.regime]}: ${pnlBasisLabels[defaultPnlBasis[values.regime]].toLowerCase()}`}
+        >
+          {pnlBasisIds.map((b) => (
+            <option key={b} value={b}>
+              {pnlBasisLabels[b]}
+            </option>
+          ))}
+        </SelectField>
+        <TextField label="Currency" name="currency" value={values.currency} onChange={set("currency")} error={errors.currency} hint="ISO 4217, e.g. EUR" maxLength={3} />
+        <TextField
+          label="Qualitative addend"
+          name="qualitativeAddend"
+          inputMode="decimal"
+          value={values.qualitativeAddend}
+          onChange={set("qualitativeAddend")}
+          error={errors.qualitativeAddend}
+          hint="Set by the supervisor, 0 to 1; added to the multiplier"
+          className="figures"
+        />
+        <TextField label="Supervisor" name="supervisorName" value={values.supervisorName} onChange={set("supervisorName")} error={errors.supervisorName} hint="Optional" />
+        <TextField
+          label="Supervisor contact e-mails"
+          name="supervisorEmails"
+          value={values.supervisorEmails}
+          onChange={set("supervisorEmails")}
+          error={errors.supervisorEmails}
+          hint="Separate with commas; filing packs go to these addresses"
+          className={editing ? "lg:col-span-2" : "lg:col-span-2"}
+        />
+      </div>
+      <div>
+        <Button type="submit" disabled={mutation.isPending}>
+          {mutation.isPending ? "Saving…" : editing ? "Save changes" : "Add entity"}
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,112 @@
+import type { z } from "zod";
+import { apiErrorSchema } from "@shared/schemas/common";
+
+/** Every failure of a call to our API, whatever its cause, arrives as one of these. */
+export class ApiError extends Error {
+  readonly status: number;
+  readonly code: string;
+  readonly details: unknown;
+
+  constructor(status: number, code: string, message: string, details?: unknown) {
+    super(message);
+    this.name = "ApiError";
+    this.status = status;
+    this.code = code;
+    this.details = details;
+  }
+}
+
+export function isApiError(e: unknown): e is ApiError {
+  return e instanceof ApiError;
+}
+
+/**
+ * Per-field messages from an error's details: either a `fields` map `{ name: "message" }` or a
+ * zod treeified error `{ properties: { name: { errors: [...] } } }`.
+ */
+export function fieldErrorsOf(e: unknown): Record<string, string> {
+  if (!isApiError(e) || typeof e.details !== "object" || e.details === null) return {};
+  const d = e.details as Record<string, unknown>;
+  const out: Record<string, string> = {};
+  if (typeof d.fields === "object" && d.fields !== null) {
+    for (const [k, v] of Object.entries(d.fields as Record<string, unknown>)) {
+      if (typeof v === "string") out[k] = v;
+      else if (Array.isArray(v) && typeof v[0] === "string") out[k] = v[0];
+    }
+  }
+  if (typeof d.properties === "object" && d.properties !== null) {
+    for (const [k, v] of Object.entries(d.properties as Record<string, unknown>)) {
+      const errors = (v as { errors?: unknown } | null)?.errors;
+      if (Array.isArray(errors) && typeof errors[0] === "string" && !out[k]) out[k] = errors[0];
+    }
+  }
+  return out;
+}
+
+type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
+
+async function request<S extends z.ZodType | undefined>(
+  method: Method,
+  path: string,
+  body: unknown,
+  schema: S,
+): Promise<S extends z.ZodType ? z.output<S> : void> {
+  const headers: Record<string, string> = { Accept: "application/json" };
+  const init: RequestInit = { method, headers, credentials: "same-origin" };
+  if (body !== undefined) {
+    headers["Content-Type"] = "application/json";
+    init.body = JSON.stringify(body);
+  }
+
+  let res: Response;
+  try {
+    res = await fetch(path, init);
+  } catch {
+    throw new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again.");
+  }
+
+  const text = await res.text();
+  let json: unknown = undefined;
+  if (text.length > 0) {
+    try {
+      json = JSON.parse(text);
+    } catch {
+      json = undefined;
+    }
+  }
+
+  if (!res.ok) {
+    const parsed = apiErrorSchema.safeParse(json);
+    if (parsed.success) {
+      const { code, message, details } = parsed.data.error;
+      throw new ApiError(res.status, code, message, details);
+    }
+    throw new ApiError(res.status, "http_error", `The server answered ${res.status} ${res.statusText || ""}`.trim() + ".");
+  }
+
+  if (!schema) return undefined as never;
+  const parsed = schema.safeParse(json);
+  if (!parsed.success) {
+    // The server and this client disagree on a payload: say so rather than show wrong figures.
+    throw new ApiError(res.status, "unexpected_response", `The server's answer to ${method} ${path} did not have the expected shape.`, parsed.error.issues);
+  }
+  return parsed.data as never;
+}
+
+export const api = {
+  get: <S extends z.ZodType>(path: string, schema: S) => request("GET", path, undefined, schema),
+  post: <S extends z.ZodType | undefined = undefined>(path: string, body?: unknown, schema?: S) =>
+    request("POST", path, body, schema as S),
+  patch: <S extends z.ZodType | undefined = undefined>(path: string, body: unknown, schema?: S) =>
+    request("PATCH", path, body, schema as S),
+  del: (path: string) => request("DELETE", path, undefined, undefined),
+};
+
+
+/** Builds a query string, leaving out empty values. */
+export function withQuery(path: string, params: Record<string, string | number | undefined | null>): string {
+  const qs = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) if (v !== undefined && v !== null && v !== "") qs.set(k, String(v));
+  const s = qs.toString();
+  return s ? `${path}?${s}` : path;
+}

@@ -1,0 +1,87 @@
+import { screen, waitFor } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { fakeApi, signedOut } from "./support/fake-api";
+import { renderApp } from "./support/render-app";
+
+describe("sign-in", () => {
+  it("when the e-mail is left empty, then the field says so beside it and nothing is sent", async () => {
+    const api = fakeApi({ "GET /api/auth/me": signedOut });
+    const user = userEvent.setup();
+    renderApp("/sign-in");
+
+    await user.click(await screen.findByRole("button", { name: "Sign in" }));
+
+    const email = screen.getByLabelText("E-mail");
+    expect(email).toHaveAttribute("aria-invalid", "true");
+    expect(email).toHaveAccessibleDescription("Enter a valid e-mail address");
+    expect(api.callsTo("POST", "/api/auth/login")).toHaveLength(0);
+  });
+
+  it("when the server answers 401, then its message is shown for the whole form", async () => {
+    const api = fakeApi({
+      "GET /api/auth/me": signedOut,
+      "POST /api/auth/login": { status: 401, body: { error: { code: "invalid_credentials", message: "E-mail or password is not right." } } },
+    });
+    const user = userEvent.setup();
+    renderApp("/sign-in");
+
+    await user.type(await screen.findByLabelText("E-mail"), "analyst@larkspur.test");
+    await user.type(screen.getByLabelText("Password"), "wrong password");
+    await user.click(screen.getByRole("button", { name: "Sign in" }));
+
+    expect(await screen.findByRole("alert")).toHaveTextContent("E-mail or password is not right.");
+    expect(api.callsTo("POST", "/api/auth/login")[0].body).toEqual({ email: "analyst@larkspur.test", password: "wrong password" });
+    expect(screen.getByRole("button", { name: "Sign in" })).toBeEnabled();
+  });
+
+  it("when there were too many attempts (429), then the server's message says to wait", async () => {
+    fakeApi({
+      "GET /api/auth/me": signedOut,
+      "POST /api/auth/login": { status: 429, body: { error: { code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." } } },
+    });
+    const user = userEvent.setup();
+    renderApp("/sign-in");
+
+    await user.type(await screen.findByLabelText("E-mail"), "cro@larkspur.test");
+    await user.type(screen.getByLabelText("Password"), "anything");
+    await user.click(screen.getByRole("button", { name: "Sign in" }));
+
+    expect(await screen.findByRole("alert")).toHaveTextContent("Try again in 15 minutes.");
+  });
+
+  it("when the password is over 72 bytes, then the field refuses it before anything is sent", async () => {
+    const api = fakeApi({ "GET /api/auth/me": signedOut });
+    const user = userEvent.setup();
+    renderApp("/sign-in");
+
+    await user.type(await screen.findByLabelText("E-mail"), "admin@larkspur.test");
+    await user.type(screen.getByLabelText("Password"), "x".repeat(73));
+    await user.click(screen.getByRole("button", { name: "Sign in" }));
+
+    expect(screen.getByLabelText("Password")).toHaveAccessibleDescription(/limited to 72 bytes/);
+    expect(api.callsTo("POST", "/api/auth/login")).toHaveLength(0);
+  });
+
+  it("when sign-in succeeds, then the reader lands where they were going", async () => {
+    let signedIn = false;
+    fakeApi({
+      "GET /api/auth/me": () => (signedIn ? { status: 200, body: { user } } : signedOut),
+      "POST /api/auth/login": () => {
+        signedIn = true;
+        return { status: 200, body: { user } };
+      },
+      "GET /api/entities": { status: 200, body: [] },
+    });
+    const user = { id: 1, email: "treasury@larkspur.test", name: "Tom Treasury", role: "treasury" };
+    const ue = userEvent.setup();
+    const { router } = renderApp("/sign-in?redirectTo=%2F");
+
+    await ue.type(await screen.findByLabelText("E-mail"), "treasury@larkspur.test");
+    await ue.type(screen.getByLabelText("Password"), "quartermark-demo");
+    await ue.click(screen.getByRole("button", { name: "Sign in" }));
+
+    expect(await screen.findByRole("heading", { name: "Overview" })).toBeInTheDocument();
+    await waitFor(() => expect(router.state.location.pathname).toBe("/"));
+    expect(screen.getByText("Tom Treasury")).toBeInTheDocument();
+  });
+});

@@ -29,7 +29,10 @@ export function fieldErrorsOf(e: unknown): Record<string, string> {
   const d = e.details as Record<string, unknown>;
   const out: Record<string, string> = {};
   if (typeof d.fields === "object" && d.fields !== null) {
-    for (const [k, v] of Object.entries(d.fields as Record<string, unknown>)) {
+    for (const [path, v] of Object.entries(d.fields as Record<string, unknown>)) {
+      // "supervisorEmails.2" belongs beside the supervisorEmails field; "_" is about the whole form.
+      const k = path.split(".")[0];
+      if (!k || k === "_" || out[k]) continue;
       if (typeof v === "string") out[k] = v;
       else if (Array.isArray(v) && typeof v[0] === "string") out[k] = v[0];
     }

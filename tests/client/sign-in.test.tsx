@@ -1,6 +1,6 @@
 import { screen, waitFor } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedOut } from "./support/fake-api";
+import { fakeApi, signedInAs, signedOut } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 describe("sign-in", () => {
@@ -83,5 +83,14 @@ describe("sign-in", () => {
     expect(await screen.findByRole("heading", { name: "Overview" })).toBeInTheDocument();
     await waitFor(() => expect(router.state.location.pathname).toBe("/"));
     expect(screen.getByText("Tom Treasury")).toBeInTheDocument();
+  });
+
+  it("when someone is already signed in, then the page says who and still lets another person sign in", async () => {
+    fakeApi({ "GET /api/auth/me": signedInAs("cro", "Cora Rowe") });
+    renderApp("/sign-in");
+
+    expect(await screen.findByText(/You are signed in as Cora Rowe \(Chief risk officer\)/)).toBeInTheDocument();
+    expect(screen.getByRole("link", { name: "Continue as Cora" })).toHaveAttribute("href", "/");
+    expect(screen.getByLabelText("E-mail")).toBeInTheDocument();
   });
 });

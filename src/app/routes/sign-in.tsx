@@ -1,15 +1,15 @@
-import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
-import type { QueryClient } from "@tanstack/react-query";
+import { Link, useNavigate, useSearchParams } from "react-router-dom";
+import { useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import { safeRedirect } from "@/config/paths";
+import { roleLabels } from "@/lib/role-labels";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
 import { QuartermarkMark } from "@/components/ui/mark";
 import { CAUTION } from "../caution";
 
-export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
-  const user = await queryClient.ensureQueryData(authQueries.me());
-  // Already signed in: go straight on.
-  if (user) throw redirect(safeRedirect(new URL(request.url).searchParams.get("redirectTo")));
+// Someone already signed in may stay here to sign in as another person (the demo has one user per role).
+export const clientLoader = (queryClient: QueryClient) => async () => {
+  await queryClient.ensureQueryData(authQueries.me());
   return null;
 };
 
@@ -27,6 +27,7 @@ export default function SignInRoute() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const redirectTo = safeRedirect(params.get("redirectTo"));
+  const { data: current } = useSuspenseQuery(authQueries.me());
 
   return (
     <div className="flex min-h-screen flex-col">
@@ -43,7 +44,14 @@ export default function SignInRoute() {
             <h1 id="sign-in-title" className="mb-4 text-base">
               Sign in
             </h1>
-            {redirectTo !== "/" && <p className="mb-4 text-sm text-ink-muted">Sign in to continue to the page you asked for.</p>}
+            {current ? (
+              <p className="mb-4 text-sm text-ink-muted">
+                You are signed in as {current.name} ({roleLabels[current.role]}).{" "}
+                <Link to={redirectTo}>Continue as {current.name.split(" ")[0]}</Link>, or sign in below as someone else.
+              </p>
+            ) : (
+              redirectTo !== "/" && <p className="mb-4 text-sm text-ink-muted">Sign in to continue to the page you asked for.</p>
+            )}
             <SignInForm onSignedIn={() => navigate(redirectTo, { replace: true })} />
           </div>
           <details className="mt-8 border-t border-rule pt-3 text-sm text-ink-soft">

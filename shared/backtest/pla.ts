@@ -34,16 +34,19 @@ export function ksStatistic(x: readonly number[], y: readonly number[]): number 
   const b = Float64Array.from(y).sort();
   let i = 0;
   let j = 0;
-  let d = 0;
-  while (i < a.length && j < b.length) {
+  const na = a.length;
+  const nb = b.length;
+  // Work in whole numbers (i·nb − j·na) and divide once, so a gap of exactly 0.12 stays 0.12.
+  let widest = 0;
+  while (i < na && j < nb) {
     // Step past every copy of the next pooled value on both sides before comparing the CDFs.
     const v = a[i] <= b[j] ? a[i] : b[j];
-    while (i < a.length && a[i] === v) i++;
-    while (j < b.length && b[j] === v) j++;
-    const gap = Math.abs(i / a.length - j / b.length);
-    if (gap > d) d = gap;
+    while (i < na && a[i] === v) i++;
+    while (j < nb && b[j] === v) j++;
+    const gap = Math.abs(i * nb - j * na);
+    if (gap > widest) widest = gap;
   }
-  return d;
+  return widest / (na * nb);
 }
 
 /** Equalities at a threshold fall to amber (MAR32.42). An undefined correlation is red. */

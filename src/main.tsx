@@ -7,7 +7,7 @@ import "@fontsource/ibm-plex-sans/500.css";
 import "@fontsource/ibm-plex-sans/600.css";
 import "./index.css";
 import { createAppRouter } from "./app/router";
-import { createQueryClient } from "./lib/query-client";
+import { createQueryClient } from "./app/query-client";
 
 const queryClient = createQueryClient();
 const router = createAppRouter(queryClient);

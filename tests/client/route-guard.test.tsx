@@ -34,3 +34,17 @@ describe("route guard", () => {
     expect(screen.getByRole("link", { name: "Go to the overview" })).toHaveAttribute("href", "/");
   });
 });
+
+describe("session ending mid-use", () => {
+  it("when the API answers 401 to a screen's data, then the reader is sent to sign-in with the way back", async () => {
+    fakeApi({
+      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/users": { status: 401, body: { error: { code: "unauthorized", message: "Sign in to continue." } } },
+    });
+
+    const { router } = renderApp("/admin/users");
+
+    expect(await screen.findByRole("heading", { name: "Sign in" })).toBeInTheDocument();
+    expect(new URLSearchParams(router.state.location.search).get("redirectTo")).toBe("/admin/users");
+  });
+});

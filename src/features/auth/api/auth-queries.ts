@@ -25,6 +25,8 @@ export const authQueries = {
 export function useLogin() {
   const queryClient = useQueryClient();
   return useMutation({
+    // Keyed under "auth" so a 401 here reads as "wrong credentials", not as "session ended".
+    mutationKey: [...authQueries.all(), "login"],
     mutationFn: (body: LoginBody) => api.post("/api/auth/login", body, meResponseSchema),
     onSuccess: ({ user }) => {
       // Nothing cached for a previous user may survive into this session.
@@ -37,6 +39,7 @@ export function useLogin() {
 export function useLogout() {
   const queryClient = useQueryClient();
   return useMutation({
+    mutationKey: [...authQueries.all(), "logout"],
     mutationFn: () => api.post("/api/auth/logout"),
     onSuccess: () => {
       queryClient.clear();

@@ -157,7 +157,7 @@ export function EntityForm(props: Props) {
             set("pnlBasis")(e);
           }}
           error={errors.pnlBasis}
-          hint={`Default for ${ruleSetLabels[values.regime]}: ${pnlBasisLabels[defaultPnlBasis[values.regime]].toLowerCase()}`}
+          hint={`Default for ${ruleSetLabels[values.regime]}: ${pnlBasisLabels[defaultPnlBasis[values.regime]]}`}
         >
           {pnlBasisIds.map((b) => (
             <option key={b} value={b}>

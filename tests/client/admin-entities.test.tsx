@@ -1,0 +1,123 @@
+import { screen, within } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { fakeApi, signedInAs } from "./support/fake-api";
+import { renderApp } from "./support/render-app";
+
+const entity = {
+  code: "LKS-UK",
+  name: "Larkspur Bank plc",
+  regime: "frtb",
+  pnlBasis: "max",
+  currency: "GBP",
+  qualitativeAddend: 0.25,
+  supervisorName: "Prudential desk",
+  supervisorEmails: ["desk@supervisor.test"],
+};
+
+describe("Admin › Entities", () => {
+  it("lists entities with the rule set in words and the addend as a right-aligned figure", async () => {
+    fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/entities": { status: 200, body: [entity] } });
+    renderApp("/admin/entities");
+
+    const table = await screen.findByRole("table", { name: "Legal entities" });
+    const row = within(table).getAllByRole("row")[1];
+    expect(within(row).getByRole("link", { name: "LKS-UK" })).toHaveAttribute("href", "/admin/entities/LKS-UK");
+    expect(within(row).getByText("FRTB IMA")).toBeInTheDocument();
+    expect(within(row).getByText("0.25")).toHaveClass("text-right", "figures");
+  });
+
+  it("when the rule set changes, then the P&L basis follows that rule set's default until chosen by hand", async () => {
+    const api = fakeApi({
+      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [] },
+      "POST /api/entities": ({ body }) => ({ status: 201, body: { qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], ...(body as object) } }),
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/entities");
+
+    expect(await screen.findByText("No entities yet")).toBeInTheDocument();
+    const ruleSet = screen.getByLabelText("Rule set");
+    const basis = screen.getByLabelText("P&L basis for the count");
+    await user.selectOptions(ruleSet, "us");
+    expect(basis).toHaveValue("actual");
+    await user.selectOptions(ruleSet, "basel");
+    expect(basis).toHaveValue("max");
+
+    await user.selectOptions(basis, "hypothetical");
+    await user.selectOptions(ruleSet, "us");
+    expect(basis).toHaveValue("hypothetical");
+
+    await user.type(screen.getByLabelText("Code"), "lks-us");
+    await user.type(screen.getByLabelText("Name"), "Larkspur Securities LLC");
+    await user.type(screen.getByLabelText("Currency"), "usd");
+    await user.type(screen.getByLabelText("Supervisor contact e-mails"), "one@sup.test, two@sup.test");
+    await user.click(screen.getByRole("button", { name: "Add entity" }));
+
+    expect(await screen.findByText(/LKS-US added/)).toBeInTheDocument();
+    expect(api.callsTo("POST", "/api/entities")[0].body).toEqual({
+      code: "LKS-US",
+      name: "Larkspur Securities LLC",
+      regime: "us",
+      pnlBasis: "hypothetical",
+      currency: "USD",
+      qualitativeAddend: 0,
+      supervisorName: null,
+      supervisorEmails: ["one@sup.test", "two@sup.test"],
+    });
+  });
+
+  it("when a contact e-mail is not valid, then the message stands beside that field and nothing is sent", async () => {
+    const api = fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/entities": { status: 200, body: [] } });
+    const user = userEvent.setup();
+    renderApp("/admin/entities");
+
+    await user.type(await screen.findByLabelText("Code"), "LKS-EU");
+    await user.type(screen.getByLabelText("Name"), "Larkspur Markets SA");
+    await user.type(screen.getByLabelText("Currency"), "EUR");
+    await user.type(screen.getByLabelText("Supervisor contact e-mails"), "desk@sup.test, not-an-address");
+    await user.click(screen.getByRole("button", { name: "Add entity" }));
+
+    expect(screen.getByLabelText("Supervisor contact e-mails")).toHaveAccessibleDescription("Each contact must be a valid e-mail address");
+    expect(api.callsTo("POST", "/api/entities")).toHaveLength(0);
+  });
+
+  it("the entity page lists holidays by date and portfolios top of house first", async () => {
+    fakeApi({
+      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [entity] },
+      "GET /api/entities/LKS-UK/portfolios": {
+        status: 200,
+        body: [
+          { code: "LKS-UK-RATES", name: "Rates", level: "desk" },
+          { code: "LKS-UK", name: "Larkspur Bank plc", level: "top" },
+        ],
+      },
+      "GET /api/entities/LKS-UK/holidays": {
+        status: 200,
+        body: [
+          { date: "2026-12-28", name: "Boxing Day (substitute)" },
+          { date: "2026-12-25", name: "Christmas Day" },
+        ],
+      },
+    });
+    renderApp("/admin/entities/LKS-UK");
+
+    const holidays = await screen.findByRole("table", { name: "Holidays of LKS-UK" });
+    const holidayRows = within(holidays).getAllByRole("row").slice(1);
+    expect(holidayRows.map((r) => (r as HTMLTableRowElement).cells[0].textContent)).toEqual(["2026-12-25 (Fri)", "2026-12-28 (Mon)"]);
+    const portfolios = screen.getByRole("table", { name: "Portfolios of LKS-UK" });
+    const levels = within(portfolios).getAllByRole("row").slice(1).map((r) => (r as HTMLTableRowElement).cells[2].textContent);
+    expect(levels).toEqual(["Top of house", "Trading desk"]);
+  });
+
+  it("when the entity code does not exist, then the page says so", async () => {
+    fakeApi({
+      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [entity] },
+      "GET /api/entities/NOPE/portfolios": { status: 200, body: [] },
+      "GET /api/entities/NOPE/holidays": { status: 200, body: [] },
+    });
+    renderApp("/admin/entities/NOPE");
+    expect(await screen.findByText("There is no entity with the code NOPE.")).toBeInTheDocument();
+  });
+});

@@ -13,6 +13,9 @@ import { usersRouter } from "./modules/users/users.router";
 import { entitiesRouter } from "./modules/entities/entities.router";
 import { assignmentsRouter } from "./modules/assignments/assignments.router";
 import { auditRouter } from "./modules/audit/audit.router";
+import { uploadsRouter } from "./modules/uploads/uploads.router";
+import { observationsRouter } from "./modules/observations/observations.router";
+import { findingsRouter } from "./modules/findings/findings.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -71,6 +74,9 @@ export function createApp(options: AppOptions = {}) {
   app.use(usersRouter());
   app.use(assignmentsRouter());
   app.use(auditRouter());
+  app.use(uploadsRouter());
+  app.use(observationsRouter());
+  app.use(findingsRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

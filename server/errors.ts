@@ -1,6 +1,7 @@
 import type { ErrorRequestHandler } from "express";
 import { ZodError, type ZodType, z } from "zod";
 import { BaseError, ConnectionError, ForeignKeyConstraintError, UniqueConstraintError } from "sequelize";
+import multer from "multer";
 import { logger } from "./logger";
 
 /** Every failure a service means to report: status, a stable code and a sentence for a person. */
@@ -73,8 +74,45 @@ export function parseInput<S extends ZodType>(schema: S, value: unknown, where =
   return result.data;
 }
 
+const MULTER_MESSAGES: Record<string, [number, string]> = {
+  LIMIT_FILE_SIZE: [413, "The file is larger than the 25 MB limit. Split it into smaller files."],
+  LIMIT_FILE_COUNT: [400, "Send one file at a time."],
+  LIMIT_UNEXPECTED_FILE: [400, 'Send exactly one file, in the form field "file".'],
+  LIMIT_FIELD_COUNT: [400, 'Only the form field "file" is accepted.'],
+  LIMIT_PART_COUNT: [400, 'Send exactly one file, in the form field "file", and nothing else.'],
+};
+
+// Driver codes that mean the database went away mid-request (MariaDB connector / server).
+const LOST_CONNECTION = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "EPIPE",
+  "ER_CONNECTION_KILLED",
+  "ER_SOCKET_UNEXPECTED_CLOSE",
+  "ER_CMD_CONNECTION_CLOSED",
+  "ER_CONNECTION_ALREADY_CLOSED",
+  "ER_GET_CONNECTION_TIMEOUT",
+  "ER_SERVER_SHUTDOWN",
+  "ER_QUERY_INTERRUPTED",
+  "ER_CONNECTION_TIMEOUT",
+  "ER_CLOSING_POOL",
+]);
+
+function lostConnection(err: unknown): boolean {
+  const chain = [err, (err as { parent?: unknown })?.parent, (err as { original?: unknown })?.original];
+  return chain.some((e) => {
+    const x = e as { code?: string; errno?: number; fatal?: boolean } | undefined;
+    return !!x && ((x.code !== undefined && LOST_CONNECTION.has(x.code)) || x.errno === 1927 || x.errno === 1053 || x.errno === 2006 || x.errno === 2013);
+  });
+}
+
 function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
+  if (err instanceof multer.MulterError) {
+    const [status, message] = MULTER_MESSAGES[err.code] ?? [400, err.message];
+    return new AppError(status, status === 413 ? "payload_too_large" : "bad_upload", message);
+  }
+  if (lostConnection(err)) return new ServiceUnavailableError();
   if (err instanceof ZodError) return new ValidationError(err);
   if (err instanceof ConnectionError) return new ServiceUnavailableError();
   if (err instanceof UniqueConstraintError) return new ConflictError("A record with the same key already exists.");

@@ -135,6 +135,7 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
       `--log-error=${logFile}`,
       "--innodb-buffer-pool-size=256M",
       "--max-connections=200",
+      "--max-allowed-packet=128M",
       "--local-infile=1",
       "--character-set-server=utf8mb4",
       "--collation-server=utf8mb4_unicode_ci",

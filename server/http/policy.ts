@@ -38,6 +38,18 @@ export const POLICY = {
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
   "GET /api/audit-events": ["admin"],
+
+  // Daily data: analysts bring it in; the CRO reads it to understand the figures.
+  "GET /api/uploads/template.csv": ["analyst", "cro", "admin"],
+  "POST /api/uploads": ["analyst"],
+  "GET /api/uploads": ["analyst", "cro"],
+  "GET /api/uploads/:id": ["analyst", "cro"],
+  "GET /api/uploads/:id/rows": ["analyst", "cro"],
+  "POST /api/uploads/:id/commit": ["analyst"],
+  "DELETE /api/uploads/:id": ["analyst"],
+  "GET /api/portfolios/:code/observations": ["analyst", "cro"],
+  "GET /api/findings": ["analyst", "cro"],
+  "PUT /api/findings/:id": ["analyst"],
 } as const satisfies Record<string, Access>;
 
 export type RouteKey = keyof typeof POLICY;

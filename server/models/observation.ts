@@ -1,0 +1,63 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { sequelize } from "../db/sequelize";
+
+/**
+ * One version of one portfolio's business day. A restatement adds a version and clears
+ * is_current on the old one; the database allows one current version per day. Bulk writes go
+ * through server/modules/observations/observations.repository.ts (multi-row INSERTs).
+ */
+export class ObservationModel extends Model<InferAttributes<ObservationModel>, InferCreationAttributes<ObservationModel>> {
+  declare id: CreationOptional<number>;
+  declare portfolioId: number;
+  declare businessDate: string;
+  declare version: number;
+  declare isCurrent: boolean;
+  declare actualPnl: number | null;
+  declare hypotheticalPnl: number | null;
+  declare var99: number | null;
+  declare var975: number | null;
+  declare svar99: number | null;
+  declare var10d: number | null;
+  declare svar10d: number | null;
+  declare es975: number | null;
+  declare ses: number | null;
+  declare rtpl: number | null;
+  declare uploadId: number;
+  declare createdBy: number;
+  declare createdAt: CreationOptional<Date>;
+}
+
+// DECIMAL comes back as a string: convert here, once.
+const money = (attribute: keyof InferAttributes<ObservationModel>, field: string) => ({
+  type: DataTypes.DECIMAL(20, 2),
+  allowNull: true,
+  field,
+  get(this: ObservationModel) {
+    const raw = this.getDataValue(attribute) as unknown;
+    return raw === null || raw === undefined ? null : Number(raw);
+  },
+});
+
+ObservationModel.init(
+  {
+    id: { type: DataTypes.BIGINT, primaryKey: true, autoIncrement: true },
+    portfolioId: { type: DataTypes.INTEGER, allowNull: false },
+    businessDate: { type: DataTypes.DATEONLY, allowNull: false },
+    version: { type: DataTypes.INTEGER, allowNull: false },
+    isCurrent: { type: DataTypes.BOOLEAN, allowNull: false },
+    actualPnl: money("actualPnl", "actual_pnl"),
+    hypotheticalPnl: money("hypotheticalPnl", "hypothetical_pnl"),
+    var99: money("var99", "var_99"),
+    var975: money("var975", "var_975"),
+    svar99: money("svar99", "svar_99"),
+    var10d: money("var10d", "var_10d"),
+    svar10d: money("svar10d", "svar_10d"),
+    es975: money("es975", "es_975"),
+    ses: money("ses", "ses"),
+    rtpl: money("rtpl", "rtpl"),
+    uploadId: { type: DataTypes.INTEGER, allowNull: false },
+    createdBy: { type: DataTypes.INTEGER, allowNull: false },
+    createdAt: DataTypes.DATE(3),
+  },
+  { sequelize, tableName: "observations", updatedAt: false },
+);

@@ -1,0 +1,25 @@
+import { PortfolioModel } from "../../models/portfolio";
+import { NotFoundError } from "../../errors";
+import { loadSeries } from "./observations.repository";
+import type { ObservationDto } from "../../../shared/schemas/upload";
+
+/** The current version of each stored day of one portfolio. */
+export async function listObservations(code: string, range: { from?: string; to?: string }): Promise<ObservationDto[]> {
+  const portfolio = await PortfolioModel.findOne({ where: { code } });
+  if (!portfolio) throw new NotFoundError(`No portfolio ${code}.`);
+  const series = await loadSeries(portfolio.id, range.from, range.to);
+  return series.map((o) => ({
+    date: o.date,
+    actualPnl: o.actualPnl,
+    hypotheticalPnl: o.hypotheticalPnl,
+    var99: o.var99,
+    var975: o.var975 ?? null,
+    svar99: o.svar99 ?? null,
+    var10d: o.var10d ?? null,
+    svar10d: o.svar10d ?? null,
+    es975: o.es975 ?? null,
+    ses: o.ses ?? null,
+    rtpl: o.rtpl ?? null,
+    version: o.version,
+  }));
+}

@@ -1,0 +1,53 @@
+import multer from "multer";
+import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
+import { BadRequestError, parseInput } from "../../errors";
+import { uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import * as uploads from "./uploads.service";
+
+/** Size of the largest daily data file accepted (about 300,000 rows). */
+export const UPLOAD_MAX_BYTES = 25 * 1024 * 1024;
+
+// Every limit set (multer defaults to unlimited); mounted on the upload route only.
+const single = multer({
+  storage: multer.memoryStorage(),
+  preservePath: true, // keep folders in the name so that such a name is refused, not silently cut
+  limits: { fileSize: UPLOAD_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
+}).single("file");
+
+export function uploadsRouter() {
+  const r = createGuardedRouter();
+
+  r.get("/api/uploads/template.csv", (_req, res) => {
+    res.setHeader("Content-Type", "text/csv; charset=utf-8");
+    res.setHeader("Content-Disposition", 'attachment; filename="quartermark-daily-template.csv"');
+    res.send(uploads.templateCsv());
+  });
+
+  r.post("/api/uploads", single, async (req, res) => {
+    if (!req.file) throw new BadRequestError('Attach the CSV file in the form field "file".');
+    res.status(201).json(await uploads.previewUpload({ originalName: req.file.originalname, bytes: req.file.buffer }, signedInActor(req)));
+  });
+
+  r.get("/api/uploads", async (_req, res) => {
+    res.json(await uploads.listUploads());
+  });
+  r.get("/api/uploads/:id", async (req, res) => {
+    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    res.json(await uploads.getUpload(id));
+  });
+  r.get("/api/uploads/:id/rows", async (req, res) => {
+    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    res.json(await uploads.getUploadRows(id, parseInput(uploadRowsQuerySchema, req.query, "query")));
+  });
+  r.post("/api/uploads/:id/commit", async (req, res) => {
+    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    res.json(await uploads.commitUpload(id, signedInActor(req)));
+  });
+  r.delete("/api/uploads/:id", async (req, res) => {
+    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    await uploads.discardUpload(id, signedInActor(req));
+    res.status(204).end();
+  });
+  return r.router;
+}

@@ -1,0 +1,332 @@
+import { createHash } from "node:crypto";
+import { Op, UniqueConstraintError } from "sequelize";
+import { sequelize } from "../../db/sequelize";
+import { UploadModel } from "../../models/upload";
+import { UserModel } from "../../models/user";
+import { PortfolioModel } from "../../models/portfolio";
+import { EntityModel } from "../../models/entity";
+import { HolidayModel } from "../../models/holiday";
+import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
+import { recordAudit } from "../audit/audit.service";
+import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type StoredDay } from "../observations/observations.repository";
+import { refreshFindings } from "../findings/findings.service";
+import { CsvFileError, decodeCsvBytes, parseObservationCsv, serialiseObservationCsv, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
+import { AMOUNT_COLUMNS, ALL_COLUMNS, type AmountColumn, type CommitResult, type RowError, type UploadPreview, type UploadRowsPage, type UploadSummary } from "../../../shared/schemas/upload";
+import type { Actor } from "../../http/context";
+import type { SessionUser } from "../../../shared/schemas/auth";
+import Papa from "papaparse";
+
+type SignedIn = Actor & { user: SessionUser };
+
+/** How many row errors a preview returns (all are counted; the rows endpoint pages through them). */
+export const PREVIEW_ERROR_CAP = 200;
+const STORED_ERROR_CAP = 20_000;
+
+export interface IncomingFile {
+  originalName: string;
+  bytes: Buffer;
+}
+
+function assertPlainFileName(name: string): string {
+  if (/[/\\]/.test(name) || name.includes("..") || /[\u0000-\u001f]/.test(name)) {
+    throw new BadRequestError("The file name must be a plain name without folders.");
+  }
+  if (!/\.csv$/i.test(name)) throw new AppError(415, "unsupported_media_type", "Only .csv files are accepted.");
+  return name.slice(0, 255);
+}
+
+/** Every portfolio a file may name, with its entity's holiday calendar. */
+async function loadReferenceData(): Promise<CsvReferenceData & { ids: Map<string, number> }> {
+  const portfolios = await PortfolioModel.findAll({ include: [{ model: EntityModel, as: "entity" }] });
+  const holidays = await HolidayModel.findAll();
+  const byEntity = new Map<number, Map<string, string>>();
+  for (const h of holidays) {
+    if (!byEntity.has(h.entityId)) byEntity.set(h.entityId, new Map());
+    byEntity.get(h.entityId)!.set(h.date, h.name);
+  }
+  const ref = new Map<string, { entityCode: string; holidays: ReadonlyMap<string, string> }>();
+  const ids = new Map<string, number>();
+  for (const p of portfolios) {
+    const entity = (p as unknown as { entity: EntityModel }).entity;
+    ref.set(p.code, { entityCode: entity.code, holidays: byEntity.get(entity.id) ?? new Map() });
+    ids.set(p.code, p.id);
+  }
+  return { portfolios: ref, ids };
+}
+
+function parseFile(bytes: Buffer, ref: CsvReferenceData) {
+  try {
+    return parseObservationCsv(decodeCsvBytes(bytes), ref);
+  } catch (err) {
+    if (err instanceof CsvFileError) throw new AppError(err.status, err.status === 415 ? "unsupported_media_type" : "invalid_file", err.message, { errors: err.errors });
+    throw err;
+  }
+}
+
+const sameValues = (a: Record<AmountColumn, number | null>, b: Record<AmountColumn, number | null>) =>
+  AMOUNT_COLUMNS.every((c) => (a[c] ?? null) === (b[c] ?? null));
+
+function valuesOf(row: ParsedRow): Record<AmountColumn, number | null> {
+  const v = {} as Record<AmountColumn, number | null>;
+  for (const c of AMOUNT_COLUMNS) v[c] = row[c] ?? null;
+  return v;
+}
+
+/** Sorts valid rows into new days, restatements (a changed day) and unchanged days. */
+function classify(rows: ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>) {
+  const inserts: NewVersion[] = [];
+  const retire: number[] = [];
+  let fresh = 0;
+  let restated = 0;
+  let unchanged = 0;
+  for (const row of rows) {
+    const portfolioId = ids.get(row.portfolio)!;
+    const values = valuesOf(row);
+    const current = stored.get(`${portfolioId}|${row.date}`);
+    if (!current) {
+      fresh++;
+      inserts.push({ portfolioId, date: row.date, version: 1, values });
+    } else if (sameValues(current.values, values)) {
+      unchanged++;
+    } else {
+      restated++;
+      retire.push(current.id);
+      inserts.push({ portfolioId, date: row.date, version: current.version + 1, values });
+    }
+  }
+  return { inserts, retire, fresh, restated, unchanged };
+}
+
+function dateRange(rows: ParsedRow[]): { from: string; to: string } | null {
+  if (rows.length === 0) return null;
+  let from = rows[0].date;
+  let to = rows[0].date;
+  for (const r of rows) {
+    if (r.date < from) from = r.date;
+    if (r.date > to) to = r.date;
+  }
+  return { from, to };
+}
+
+async function findCommittedTwin(sha256: string, exceptId?: number): Promise<UploadModel | null> {
+  return UploadModel.findOne({ where: { committedSha256: sha256, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}) } });
+}
+
+function duplicateError(twin: UploadModel): ConflictError {
+  return new ConflictError(
+    `This exact file was already committed as upload #${twin.id} (${twin.fileName}, ${twin.committedAt?.toISOString().slice(0, 16).replace("T", " ")} UTC).`,
+    { uploadId: twin.id },
+  );
+}
+
+async function toPreview(row: UploadModel): Promise<UploadPreview> {
+  const uploader = await UserModel.findByPk(row.uploadedBy);
+  const summary = row.summaryJson
+    ? (JSON.parse(row.summaryJson) as { portfolios: string[]; from: string | null; to: string | null; errorCount: number })
+    : null;
+  const errors = row.errorsJson ? (JSON.parse(row.errorsJson) as RowError[]) : [];
+  return {
+    id: row.id,
+    status: row.status,
+    fileName: row.fileName,
+    sha256: row.sha256,
+    rows: row.rowCount,
+    valid: row.validCount,
+    invalid: row.invalidCount,
+    newRows: row.newCount,
+    restatements: row.restatedCount,
+    unchanged: row.unchangedCount,
+    errors: errors.slice(0, PREVIEW_ERROR_CAP),
+    errorCount: summary?.errorCount ?? errors.length,
+    portfolios: summary?.portfolios ?? [],
+    from: summary?.from ?? null,
+    to: summary?.to ?? null,
+    uploadedBy: uploader?.email ?? "unknown",
+    uploadedAt: row.createdAt.toISOString(),
+    committedAt: row.committedAt ? row.committedAt.toISOString() : null,
+    inserted: row.insertedCount,
+  };
+}
+
+/** Portfolio ids the preview named (from its summary), sorted. */
+function previewPortfolioIds(upload: UploadModel, ids: ReadonlyMap<string, number>): number[] {
+  const codes: string[] = upload.summaryJson ? JSON.parse(upload.summaryJson).portfolios : [];
+  return [...new Set(codes.map((c) => ids.get(c)).filter((v): v is number => v !== undefined))].sort((a, b) => a - b);
+}
+
+/** Checks a file and keeps it as a preview: nothing reaches the observations yet. */
+export async function previewUpload(file: IncomingFile, actor: SignedIn): Promise<UploadPreview> {
+  const fileName = assertPlainFileName(file.originalName);
+  const sha256 = createHash("sha256").update(file.bytes).digest("hex");
+  const twin = await findCommittedTwin(sha256);
+  if (twin) throw duplicateError(twin);
+
+  const ref = await loadReferenceData();
+  const parsed = parseFile(file.bytes, ref);
+  const range = dateRange(parsed.rows);
+  const portfolioCodes = [...new Set(parsed.rows.map((r) => r.portfolio))].sort();
+  const stored = range ? await loadCurrentDays(portfolioCodes.map((c) => ref.ids.get(c)!), range.from, range.to) : new Map();
+  const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored);
+  const invalid = parsed.invalidLines.size;
+
+  const row = await sequelize.transaction(async (transaction) => {
+    const created = await UploadModel.create(
+      {
+        fileName,
+        sha256,
+        committedSha256: null,
+        sizeBytes: file.bytes.length,
+        content: file.bytes,
+        uploadedBy: actor.user.id,
+        status: "preview",
+        rowCount: parsed.totalRows,
+        validCount: parsed.totalRows - invalid,
+        invalidCount: invalid,
+        newCount: fresh,
+        restatedCount: restated,
+        unchangedCount: unchanged,
+        insertedCount: null,
+        errorsJson: JSON.stringify(parsed.errors.slice(0, STORED_ERROR_CAP)),
+        summaryJson: JSON.stringify({ portfolios: portfolioCodes, from: range?.from ?? null, to: range?.to ?? null, errorCount: parsed.errors.length }),
+        committedAt: null,
+      },
+      { transaction },
+    );
+    await recordAudit(actor, "upload.preview", `upload #${created.id}`, { after: { fileName, sha256, rows: parsed.totalRows, invalid, restated } }, transaction);
+    return created;
+  });
+  return toPreview(row);
+}
+
+/**
+ * Writes a clean preview's rows in one transaction: restated days get a new version and keep
+ * the old one; the same file can be committed only once (unique committed_sha256).
+ */
+export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
+  const ref = await loadReferenceData();
+  let touchedPortfolios: number[] = [];
+  const result = await sequelize.transaction(async (transaction) => {
+    const upload = await UploadModel.scope("withContent").findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!upload) throw new NotFoundError(`No upload #${id}.`);
+    if (upload.status === "committed") throw new ConflictError(`Upload #${id} is already committed.`);
+    if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
+    // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
+    const lockedIds = previewPortfolioIds(upload, ref.ids);
+    if (lockedIds.length) {
+      await sequelize.query("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id FOR UPDATE", { replacements: { ids: lockedIds }, transaction });
+    }
+    if (upload.invalidCount > 0) {
+      throw new AppError(422, "preview_has_errors", `Upload #${id} has ${upload.invalidCount} invalid row(s). Fix the file and upload it again; nothing was written.`);
+    }
+    const twin = await findCommittedTwin(upload.sha256, id);
+    if (twin) throw duplicateError(twin);
+
+    // Re-check against today's reference data: a portfolio or holiday may have changed since the preview.
+    const parsed = parseFile(upload.content!, ref);
+    if (parsed.errors.length) {
+      throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
+    }
+    const range = dateRange(parsed.rows);
+    const portfolioIds = [...new Set(parsed.rows.map((r) => ref.ids.get(r.portfolio)!))];
+    touchedPortfolios = portfolioIds;
+    const stored = range ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true) : new Map();
+    const { inserts, retire, restated, unchanged } = classify(parsed.rows, ref.ids, stored);
+
+    await retireVersions(retire, transaction);
+    await insertVersions(inserts, upload.id, actor.user.id, transaction);
+
+    upload.status = "committed";
+    upload.committedSha256 = upload.sha256;
+    upload.committedAt = new Date();
+    upload.insertedCount = inserts.length;
+    upload.restatedCount = restated;
+    upload.unchangedCount = unchanged;
+    upload.newCount = inserts.length - restated;
+    try {
+      await upload.save({ transaction });
+    } catch (err) {
+      if (err instanceof UniqueConstraintError) {
+        const other = await findCommittedTwin(upload.sha256, id);
+        throw other ? duplicateError(other) : new ConflictError("This exact file was committed by someone else a moment ago.");
+      }
+      throw err;
+    }
+    await recordAudit(actor, "upload.commit", `upload #${id}`, { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } }, transaction);
+    return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };
+  });
+  await refreshFindings(touchedPortfolios);
+  return result;
+}
+
+export async function discardUpload(id: number, actor: SignedIn): Promise<void> {
+  await sequelize.transaction(async (transaction) => {
+    const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!upload) throw new NotFoundError(`No upload #${id}.`);
+    if (upload.status !== "preview") throw new ConflictError(`Upload #${id} is ${upload.status}; only a preview can be discarded.`);
+    upload.status = "discarded";
+    upload.content = null;
+    await upload.save({ transaction });
+    await recordAudit(actor, "upload.discard", `upload #${id}`, {}, transaction);
+  });
+}
+
+export async function listUploads(): Promise<UploadSummary[]> {
+  const rows = await UploadModel.findAll({ order: [["id", "DESC"]], limit: 200 });
+  const previews = await Promise.all(rows.map(toPreview));
+  return previews.map(({ errors: _errors, ...rest }) => rest);
+}
+
+export async function getUpload(id: number): Promise<UploadPreview> {
+  const row = await UploadModel.findByPk(id);
+  if (!row) throw new NotFoundError(`No upload #${id}.`);
+  return toPreview(row);
+}
+
+/** A page of the uploaded file's rows as text, each with its errors: the preview table. */
+export async function getUploadRows(id: number, query: { offset: number; limit: number; invalidOnly: boolean }): Promise<UploadRowsPage> {
+  const upload = await UploadModel.scope("withContent").findByPk(id);
+  if (!upload) throw new NotFoundError(`No upload #${id}.`);
+  if (!upload.content) throw new ConflictError(`Upload #${id} was discarded; its rows are no longer kept.`);
+  const text = decodeCsvBytes(upload.content);
+  const data = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: false }).data;
+  const columns = (data[0] ?? []).map((h) => h.trim().toLowerCase());
+  const errors = upload.errorsJson ? (JSON.parse(upload.errorsJson) as RowError[]) : [];
+  const byLine = new Map<number, RowError[]>();
+  for (const e of errors) {
+    if (!byLine.has(e.line)) byLine.set(e.line, []);
+    byLine.get(e.line)!.push(e);
+  }
+  const lines: { line: number; cells: Record<string, string>; errors: RowError[] }[] = [];
+  for (let i = 1; i < data.length; i++) {
+    const cells = data[i];
+    if (cells.length === 1 && cells[0].trim() === "") continue;
+    const line = i + 1;
+    const lineErrors = byLine.get(line) ?? [];
+    if (query.invalidOnly && lineErrors.length === 0) continue;
+    const record: Record<string, string> = {};
+    columns.forEach((c, j) => {
+      record[c] = cells[j] ?? "";
+    });
+    lines.push({ line, cells: record, errors: lineErrors });
+  }
+  return { columns, rows: lines.slice(query.offset, query.offset + query.limit), total: lines.length };
+}
+
+/** The header and two example rows an analyst can fill in. */
+export function templateCsv(): string {
+  const example = (date: string, a: number, h: number) => ({
+    portfolio: "LKS-EU-TOTAL",
+    date,
+    actual_pnl: a,
+    hypothetical_pnl: h,
+    var_99: 4200000,
+    var_975: 3500000,
+    svar_99: 9800000,
+    var_10d: null,
+    svar_10d: null,
+    es_975: null,
+    ses: null,
+    rtpl: null,
+  });
+  return serialiseObservationCsv([example("2026-09-29", -1250000.5, -1180000), example("2026-09-30", 860000, 910250.25)], ALL_COLUMNS);
+}

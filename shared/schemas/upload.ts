@@ -1,0 +1,168 @@
+import { z } from "zod";
+import { isoDateSchema } from "./common";
+
+/** The daily data file: required and optional columns, in the order the template writes them. */
+export const REQUIRED_COLUMNS = ["portfolio", "date", "actual_pnl", "hypothetical_pnl", "var_99"] as const;
+export const OPTIONAL_COLUMNS = ["var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses", "rtpl"] as const;
+export const ALL_COLUMNS = [...REQUIRED_COLUMNS, ...OPTIONAL_COLUMNS] as const;
+export type CsvColumn = (typeof ALL_COLUMNS)[number];
+export const AMOUNT_COLUMNS = ALL_COLUMNS.filter((c) => c !== "portfolio" && c !== "date") as AmountColumn[];
+export type AmountColumn = Exclude<CsvColumn, "portfolio" | "date">;
+
+/** Risk measures must be positive; P&L may have any sign; SES may be zero. */
+const POSITIVE: ReadonlySet<AmountColumn> = new Set(["var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975"]);
+
+// Plain decimal with a dot, optional minus: no exponent, no thousands separator, no NaN or Infinity.
+const AMOUNT = /^-?\d{1,17}(\.\d{1,8})?$/;
+
+/** One amount cell: empty means "not reported" (null). Stored to the cent (DECIMAL(20,2)). */
+function amountCell(column: AmountColumn) {
+  return z.string().transform((raw, ctx) => {
+    const s = raw.trim();
+    if (s === "") return null;
+    if (!AMOUNT.test(s)) {
+      let message = `"${s.slice(0, 30)}" is not a plain decimal amount (digits, optional minus, dot for decimals)`;
+      if (/^-?[\d,]+(\.\d+)?$/.test(s) && s.includes(",")) message = `"${s}" uses a thousands separator; write it without commas`;
+      else if (/e/i.test(s) && !Number.isNaN(Number(s))) message = `"${s}" is written with an exponent; write the plain amount`;
+      else if (/^-?(nan|inf(inity)?)$/i.test(s)) message = `"${s}" is not a number`;
+      ctx.addIssue({ code: "custom", message });
+      return z.NEVER;
+    }
+    const value = Math.round(Number(s) * 100) / 100;
+    if (POSITIVE.has(column) && !(value > 0)) {
+      ctx.addIssue({ code: "custom", message: `${column} must be a positive amount (VaR is reported as a loss amount above zero)` });
+      return z.NEVER;
+    }
+    if (column === "ses" && value < 0) {
+      ctx.addIssue({ code: "custom", message: "ses cannot be negative" });
+      return z.NEVER;
+    }
+    return value;
+  });
+}
+
+const amountShape = Object.fromEntries(AMOUNT_COLUMNS.map((c) => [c, amountCell(c).optional()])) as {
+  [K in AmountColumn]: z.ZodOptional<ReturnType<typeof amountCell>>;
+};
+
+/** One CSV row, as text cells keyed by column, parsed into typed values. */
+export const observationRowSchema = z.object({
+  portfolio: z
+    .string()
+    .trim()
+    .min(1, "portfolio is empty")
+    .max(40, "portfolio code is longer than 40 characters")
+    .transform((s) => s.toUpperCase()),
+  date: z.string().trim().min(1, "date is empty").pipe(isoDateSchema),
+  ...amountShape,
+});
+export type ObservationRow = z.output<typeof observationRowSchema>;
+
+export const rowErrorSchema = z.object({ line: z.number().int(), column: z.string(), message: z.string() });
+export type RowError = z.infer<typeof rowErrorSchema>;
+
+export const uploadStatusSchema = z.enum(["preview", "committed", "discarded"]);
+
+export const uploadPreviewSchema = z.object({
+  id: z.number().int(),
+  status: uploadStatusSchema,
+  fileName: z.string(),
+  sha256: z.string(),
+  rows: z.number().int(),
+  valid: z.number().int(),
+  invalid: z.number().int(),
+  /** Rows that add a day not stored before. */
+  newRows: z.number().int(),
+  /** Rows that change a day already stored (a new version; the old one is kept). */
+  restatements: z.number().int(),
+  /** Rows identical to what is stored: nothing to write. */
+  unchanged: z.number().int(),
+  errors: z.array(rowErrorSchema),
+  errorCount: z.number().int(),
+  portfolios: z.array(z.string()),
+  from: z.string().nullable(),
+  to: z.string().nullable(),
+  uploadedBy: z.string(),
+  uploadedAt: z.string(),
+  committedAt: z.string().nullable(),
+  inserted: z.number().int().nullable(),
+});
+export type UploadPreview = z.infer<typeof uploadPreviewSchema>;
+export const uploadListSchema = z.array(uploadPreviewSchema.omit({ errors: true }));
+export type UploadSummary = z.infer<typeof uploadListSchema>[number];
+
+export const commitResultSchema = z.object({
+  id: z.number().int(),
+  status: z.literal("committed"),
+  inserted: z.number().int(),
+  restated: z.number().int(),
+  unchanged: z.number().int(),
+});
+export type CommitResult = z.infer<typeof commitResultSchema>;
+
+export const uploadRowsQuerySchema = z.object({
+  offset: z.coerce.number().int().min(0).default(0),
+  limit: z.coerce.number().int().min(1).max(500).default(100),
+  invalidOnly: z.enum(["true", "false"]).default("false").transform((s) => s === "true"),
+});
+export const uploadRowSchema = z.object({
+  line: z.number().int(),
+  cells: z.record(z.string(), z.string()),
+  errors: z.array(rowErrorSchema),
+});
+export const uploadRowsPageSchema = z.object({ columns: z.array(z.string()), rows: z.array(uploadRowSchema), total: z.number().int() });
+export type UploadRowsPage = z.infer<typeof uploadRowsPageSchema>;
+
+export const uploadIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
+
+// ---- observations read back ----
+export const observationsQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
+export const observationSchema = z.object({
+  date: z.string(),
+  actualPnl: z.number().nullable(),
+  hypotheticalPnl: z.number().nullable(),
+  var99: z.number().nullable(),
+  var975: z.number().nullable(),
+  svar99: z.number().nullable(),
+  var10d: z.number().nullable(),
+  svar10d: z.number().nullable(),
+  es975: z.number().nullable(),
+  ses: z.number().nullable(),
+  rtpl: z.number().nullable(),
+  version: z.number().int(),
+});
+export type ObservationDto = z.infer<typeof observationSchema>;
+export const observationListSchema = z.array(observationSchema);
+export const portfolioCodeParamSchema = z.object({ code: z.string().trim().min(1).max(40).transform((s) => s.toUpperCase()) });
+
+// ---- data-quality findings ----
+export const findingKindSchema = z.enum(["missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"]);
+export type FindingKind = z.infer<typeof findingKindSchema>;
+export const findingStatusSchema = z.enum(["open", "resolved", "explained"]);
+export const findingSchema = z.object({
+  id: z.number().int(),
+  entity: z.string(),
+  portfolio: z.string(),
+  kind: findingKindSchema,
+  from: z.string(),
+  to: z.string(),
+  detail: z.string(),
+  status: findingStatusSchema,
+  note: z.string().nullable(),
+  closedBy: z.string().nullable(),
+  closedAt: z.string().nullable(),
+  version: z.number().int(),
+});
+export type Finding = z.infer<typeof findingSchema>;
+export const findingListSchema = z.array(findingSchema);
+export const findingsQuerySchema = z.object({
+  entity: z.string().max(20).optional(),
+  portfolio: z.string().max(40).optional(),
+  status: findingStatusSchema.optional(),
+});
+export const closeFindingBodySchema = z.strictObject({
+  status: z.enum(["resolved", "explained"]),
+  note: z.string().trim().min(3, "Say in a few words how it was resolved or why it is acceptable").max(2000),
+  version: z.number().int().positive(),
+});
+export type CloseFindingBody = z.infer<typeof closeFindingBodySchema>;

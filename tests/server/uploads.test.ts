@@ -1,0 +1,191 @@
+import request from "supertest";
+import { afterAll, describe, expect, it } from "vitest";
+import { sequelize } from "../../server/db/sequelize";
+import { ObservationModel } from "../../server/models/observation";
+import { UploadModel } from "../../server/models/upload";
+import { AuditEventModel } from "../../server/models/audit-event";
+import { testApp } from "./helpers";
+import { csvFor, HEADER, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
+
+const app = testApp();
+afterAll(() => sequelize.close());
+
+async function observationCount(portfolioId: number) {
+  return ObservationModel.count({ where: { portfolioId } });
+}
+
+describe("uploading daily data", () => {
+  it("when a clean file is uploaded, then the preview counts the rows and nothing is written until commit", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const dates = weekdays("2026-11-02", 10);
+    const res = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ status: "preview", rows: 10, valid: 10, invalid: 0, newRows: 10, restatements: 0, errors: [], portfolios: [portfolio.code], from: dates[0], to: dates[9] });
+    expect(res.body.sha256).toMatch(/^[0-9a-f]{64}$/);
+    expect(await observationCount(portfolio.id)).toBe(0);
+
+    const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.status).toBe(200);
+    expect(commit.body).toEqual({ id: res.body.id, status: "committed", inserted: 10, restated: 0, unchanged: 0 });
+    expect(await observationCount(portfolio.id)).toBe(10);
+    const stored = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: dates[3] } });
+    expect(stored).toMatchObject({ version: 1, isCurrent: true, actualPnl: -301, hypotheticalPnl: -270, var99: 1003 });
+    expect((await UploadModel.findByPk(res.body.id))!.status).toBe("committed");
+    expect(await AuditEventModel.count({ where: { action: "upload.commit", target: `upload #${res.body.id}` } })).toBe(1);
+
+    const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations?from=${dates[2]}&to=${dates[4]}`).set("Cookie", cookie);
+    expect(read.status).toBe(200);
+    expect(read.body.map((o: { date: string }) => o.date)).toEqual(dates.slice(2, 5));
+    expect(read.body[1]).toMatchObject({ actualPnl: -301, hypotheticalPnl: -270, var99: 1003, var975: null, version: 1 });
+  });
+
+  it("when a file restates stored days, then each changed day gets a new version, the old one is kept, and unchanged days are skipped", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const dates = weekdays("2026-10-05", 5);
+    const first = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
+    await request(app).post(`/api/uploads/${first.body.id}/commit`).set("Cookie", cookie).expect(200);
+
+    const changed = csvFor(portfolio.code, dates, (i) => (i === 2 ? "-999.5,-90.25,1500" : `${-100 * i - 1},${-90 * i},${1000 + i}`));
+    const second = await uploadCsv(app, cookie, changed, "restated.csv");
+    expect(second.body).toMatchObject({ rows: 5, newRows: 0, restatements: 1, unchanged: 4 });
+    const commit = await request(app).post(`/api/uploads/${second.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.body).toMatchObject({ inserted: 1, restated: 1, unchanged: 4 });
+
+    const versions = await ObservationModel.findAll({ where: { portfolioId: portfolio.id, businessDate: dates[2] }, order: [["version", "ASC"]] });
+    expect(versions.map((v) => [v.version, v.isCurrent, v.actualPnl])).toEqual([
+      [1, false, -201],
+      [2, true, -999.5],
+    ]);
+    const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations`).set("Cookie", cookie);
+    expect(read.body[2]).toMatchObject({ date: dates[2], actualPnl: -999.5, hypotheticalPnl: -90.25, var99: 1500, version: 2 });
+  });
+
+  it("when the same file is uploaded again after commit, then 409 names the earlier upload and nothing is stored", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const csv = csvFor(portfolio.code, weekdays("2026-09-07", 3));
+    const first = await uploadCsv(app, cookie, csv);
+    await request(app).post(`/api/uploads/${first.body.id}/commit`).set("Cookie", cookie).expect(200);
+    const before = await UploadModel.count();
+    const again = await uploadCsv(app, cookie, csv, "same-again.csv");
+    expect(again.status).toBe(409);
+    expect(again.body.error.message).toContain(`#${first.body.id}`);
+    expect(await UploadModel.count()).toBe(before);
+  });
+
+  it("when two identical previews are committed at once, then exactly one commits and the other is told it is a duplicate", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const csv = csvFor(portfolio.code, weekdays("2026-08-03", 50));
+    const [a, b] = await Promise.all([uploadCsv(app, cookie, csv, "a.csv"), uploadCsv(app, cookie, csv, "b.csv")]);
+    expect([a.status, b.status]).toEqual([201, 201]);
+    const results = await Promise.all([
+      request(app).post(`/api/uploads/${a.body.id}/commit`).set("Cookie", cookie),
+      request(app).post(`/api/uploads/${b.body.id}/commit`).set("Cookie", cookie),
+    ]);
+    expect(results.map((r) => r.status).sort()).toEqual([200, 409]);
+    expect(results.find((r) => r.status === 409)!.body.error.message).toMatch(/already committed/);
+    expect(await observationCount(portfolio.id)).toBe(50);
+  });
+
+  it("when a preview is discarded, then it cannot be committed and nothing was written", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const res = await uploadCsv(app, cookie, csvFor(portfolio.code, weekdays("2026-07-06", 2)));
+    await request(app).delete(`/api/uploads/${res.body.id}`).set("Cookie", cookie).expect(204);
+    const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.status).toBe(409);
+    expect(await observationCount(portfolio.id)).toBe(0);
+    expect((await UploadModel.scope("withContent").findByPk(res.body.id))!.content).toBeNull();
+  });
+
+  it("when the template is downloaded, then it has every column in order and its example rows parse", async () => {
+    const { cookie } = await ingestFixture();
+    const res = await request(app).get("/api/uploads/template.csv").set("Cookie", cookie);
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toMatch(/text\/csv/);
+    expect(res.text.split("\n")[0]).toBe("portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,svar_99,var_10d,svar_10d,es_975,ses,rtpl");
+  });
+
+  it("when the preview rows are paged with invalidOnly, then only rows with errors come back, each with its messages", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const csv = `${HEADER}\n${portfolio.code},2026-11-02,-1,-1,10\n${portfolio.code},2026-11-03,-1,-1,-10\n${portfolio.code},2026-11-04,-1,-1,10\n`;
+    const res = await uploadCsv(app, cookie, csv);
+    const page = await request(app).get(`/api/uploads/${res.body.id}/rows?invalidOnly=true`).set("Cookie", cookie);
+    expect(page.status).toBe(200);
+    expect(page.body.total).toBe(1);
+    expect(page.body.rows[0]).toMatchObject({ line: 3, cells: { var_99: "-10" }, errors: [{ line: 3, column: "var_99" }] });
+  });
+});
+
+describe("bad input ends in a clear error and nothing written", () => {
+  async function expectPreviewError(content: string | Buffer, line: number, column: string, message: RegExp) {
+    const { portfolio, cookie } = await ingestFixture();
+    const text = typeof content === "string" ? content.replaceAll("PF", portfolio.code) : content;
+    const res = await uploadCsv(app, cookie, text);
+    expect(res.status).toBe(201);
+    expect(res.body.invalid).toBeGreaterThan(0);
+    expect(res.body.errors).toEqual(expect.arrayContaining([expect.objectContaining({ line, column, message: expect.stringMatching(message) })]));
+    const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.status).toBe(422);
+    expect(commit.body.error.message).toMatch(/Fix the file/);
+    expect(await observationCount(portfolio.id)).toBe(0);
+  }
+
+  it("a byte-order mark and CRLF line ends are accepted", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const csv = `\uFEFF${HEADER}\r\n${portfolio.code},2026-11-02,-5,-4,10\r\n${portfolio.code},2026-11-03,-5,-4,10\r\n`;
+    const res = await uploadCsv(app, cookie, csv);
+    expect(res.body).toMatchObject({ rows: 2, valid: 2, invalid: 0 });
+  });
+
+  it("an unclosed quote", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5,-4,10\nPF,2026-11-03,"-5,-4,10\nPF,2026-11-04,-5,-4,10\n`, 3, "—", /never closed/));
+  it("NaN", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,NaN,-4,10\n`, 2, "actual_pnl", /not a number/));
+  it("1e308", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,1e308,-4,10\n`, 2, "actual_pnl", /exponent/));
+  it("1,234.5 (quoted, with a thousands separator)", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,"1,234.5",-4,10\n`, 2, "actual_pnl", /thousands separator/));
+  it("a negative VaR", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5,-4,-10\n`, 2, "var_99", /positive/));
+  it("a weekend date", () => expectPreviewError(`${HEADER}\nPF,2026-11-07,-5,-4,10\n`, 2, "date", /Saturday, not a business day/));
+  it("a holiday of the entity's calendar", () => expectPreviewError(`${HEADER}\nPF,2026-12-25,-5,-4,10\n`, 2, "date", /holiday .*Christmas Day/));
+  it("an impossible date", () => expectPreviewError(`${HEADER}\nPF,2026-02-30,-5,-4,10\n`, 2, "date", /real calendar date/));
+  it("the same date twice in the file", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5,-4,10\nPF,2026-11-02,-6,-4,10\n`, 3, "date", /already appears on line 2/));
+  it("an unknown portfolio", () => expectPreviewError(`${HEADER}\nNOPE-${Date.now()},2026-11-02,-5,-4,10\n`, 2, "portfolio", /Unknown portfolio/));
+  it("a row with too few fields", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5\n`, 2, "—", /Expected 5 fields/));
+
+  async function expectFileRejected(content: string | Buffer, status: number, message: RegExp, fileName = "daily.csv") {
+    const { portfolio, cookie } = await ingestFixture();
+    const before = await UploadModel.count();
+    const res = await uploadCsv(app, cookie, typeof content === "string" ? content.replaceAll("PF", portfolio.code) : content, fileName);
+    expect(res.status).toBe(status);
+    expect(res.body.error.message).toMatch(message);
+    expect(await UploadModel.count()).toBe(before);
+    expect(await observationCount(portfolio.id)).toBe(0);
+    return res;
+  }
+
+  it("an unknown column", async () => {
+    const res = await expectFileRejected(`${HEADER},colour\nPF,2026-11-02,-5,-4,10,red\n`, 422, /header row/);
+    expect(res.body.error.details.errors).toEqual([expect.objectContaining({ line: 1, column: "colour", message: expect.stringMatching(/Unknown column/) })]);
+  });
+  it("a missing column", async () => {
+    const res = await expectFileRejected(`portfolio,date,actual_pnl,var_99\nPF,2026-11-02,-5,10\n`, 422, /header row/);
+    expect(res.body.error.details.errors).toEqual([expect.objectContaining({ column: "hypothetical_pnl", message: expect.stringMatching(/missing/) })]);
+  });
+  it("a __proto__ header", async () => {
+    const res = await expectFileRejected(`${HEADER},__proto__\nPF,2026-11-02,-5,-4,10,{}\n`, 422, /header row/);
+    expect(res.body.error.details.errors[0].column).toBe("__proto__");
+    expect(({} as Record<string, unknown>).polluted).toBeUndefined();
+  });
+  it("a binary file renamed .csv", () => expectFileRejected(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0x00, 0x00, 0x00, 0x0d]), 415, /not a text CSV/));
+  it("an empty file", () => expectFileRejected(Buffer.alloc(0), 422, /empty/));
+  it("a header with no rows", () => expectFileRejected(`${HEADER}\n`, 422, /no data rows/));
+  it("a file that is not .csv", () => expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 415, /Only \.csv/, "daily.xlsx"));
+  it("a path in the file name", () => expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 400, /plain name/, "../../etc/daily.csv"));
+  it("a file over the limit", () => expectFileRejected(Buffer.alloc(25 * 1024 * 1024 + 10, 0x41), 413, /25 MB/));
+
+  it("two files at once, or an unexpected field", async () => {
+    const { cookie } = await ingestFixture();
+    const two = await request(app).post("/api/uploads").set("Cookie", cookie).attach("file", Buffer.from("a"), "a.csv").attach("file", Buffer.from("b"), "b.csv");
+    expect(two.status).toBe(400);
+    const field = await request(app).post("/api/uploads").set("Cookie", cookie).field("note", "hi").attach("file", Buffer.from("a"), "a.csv");
+    expect(field.status).toBe(400);
+    const wrongName = await request(app).post("/api/uploads").set("Cookie", cookie).attach("upload", Buffer.from("a"), "a.csv");
+    expect(wrongName.status).toBe(400);
+  });
+});

@@ -31,14 +31,21 @@ function weekdayOf(day: number): number {
   return (((day + 4) % 7) + 7) % 7;
 }
 
-function isBusinessDayNumber(day: number, holidays: ReadonlySet<string>): boolean {
+/** The holiday set as day numbers, built once per call rather than formatting a string per day tested. */
+function holidayDays(holidays: ReadonlySet<string>): Set<number> {
+  const out = new Set<number>();
+  for (const h of holidays) if (ISO_DATE.test(h)) out.add(dayNumber(h));
+  return out;
+}
+
+function isBusinessDayNumber(day: number, holidays: ReadonlySet<number>): boolean {
   const wd = weekdayOf(day);
   if (wd === 0 || wd === 6) return false;
-  return holidays.size === 0 || !holidays.has(fromDayNumber(day));
+  return holidays.size === 0 || !holidays.has(day);
 }
 
 export function isBusinessDay(date: string, holidays: ReadonlySet<string> = new Set()): boolean {
-  return isBusinessDayNumber(dayNumber(date), holidays);
+  return isBusinessDayNumber(dayNumber(date), holidayDays(holidays));
 }
 
 /**
@@ -73,19 +80,36 @@ export function businessDaysBetween(from: string, to: string, holidays: Readonly
  */
 export function addBusinessDays(date: string, n: number, holidays: ReadonlySet<string> = new Set()): string {
   if (!Number.isInteger(n)) throw new EngineInputError(`A number of business days must be a whole number, got ${n}`);
+  const off = holidayDays(holidays);
   let day = dayNumber(date);
   const step = n >= 0 ? 1 : -1;
   let left = Math.abs(n);
   while (left > 0) {
     day += step;
-    if (isBusinessDayNumber(day, holidays)) left--;
+    if (isBusinessDayNumber(day, off)) left--;
   }
   return fromDayNumber(day);
 }
 
+/**
+ * The business days 1..count after `date` in one walk: element j − 1 is addBusinessDays(date, j).
+ * Used to project many future observation dates at once.
+ */
+export function nextBusinessDays(date: string, count: number, holidays: ReadonlySet<string> = new Set()): string[] {
+  const off = holidayDays(holidays);
+  const out: string[] = [];
+  let day = dayNumber(date);
+  while (out.length < count) {
+    day++;
+    if (isBusinessDayNumber(day, off)) out.push(fromDayNumber(day));
+  }
+  return out;
+}
+
 /** The first business day on or after `date`. */
 export function nextBusinessDayOnOrAfter(date: string, holidays: ReadonlySet<string> = new Set()): string {
+  const off = holidayDays(holidays);
   let day = dayNumber(date);
-  while (!isBusinessDayNumber(day, holidays)) day++;
+  while (!isBusinessDayNumber(day, off)) day++;
   return fromDayNumber(day);
 }

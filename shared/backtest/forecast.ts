@@ -1,6 +1,6 @@
 import type { PnlBasis } from "../schemas/common";
 import { binomialPmf } from "./binomial";
-import { addBusinessDays, businessDaysBetween } from "./calendar";
+import { businessDaysBetween, nextBusinessDays } from "./calendar";
 import { capitalAddOnFromInputs, capitalInputsAt, type CapitalInputs } from "./capital";
 import { EngineInputError } from "./errors";
 import { classifyDay, countedFromBasis } from "./exceptions";
@@ -82,9 +82,12 @@ export interface RollOff {
 function rollOffsOf(observations: readonly Observation[], c: Context, holidays: ReadonlySet<string>): RollOff[] {
   if (c.end < 0) return [];
   const last = observations[c.end].date;
+  // It leaves with the (index + windowSize − end)-th future observation; project those dates once.
+  const furthest = c.days.length ? c.days[c.days.length - 1].index + c.windowSize - c.end : 0;
+  const future = nextBusinessDays(last, furthest, holidays);
   return c.days.map((d, k) => {
-    const ahead = d.index + c.windowSize - c.end; // observations still to come before it drops out
-    const leavesOn = d.index + c.windowSize <= c.end ? observations[d.index + c.windowSize].date : addBusinessDays(last, ahead, holidays);
+    const ahead = d.index + c.windowSize - c.end;
+    const leavesOn = future[ahead - 1];
     const countAfter = countOf(c.days.slice(k + 1), c.basis);
     return {
       date: d.date,

@@ -30,7 +30,16 @@ export interface RollingRegimeArrays {
   counted: CountArray;
   /** Index into ZONE_CODES. */
   zone: Uint8Array;
-  plusFactor: Float64Array;
+  /**
+   * Plus factor in hundredths (every published step is a whole number of hundredths); read it
+   * with plusFactorAt. One byte per date keeps the hot path close to the bare loop.
+   */
+  plusFactorHundredths: Uint8Array;
+}
+
+/** The plus factor at index i, exactly as in the regime's table (65 / 100 === 0.65). */
+export function plusFactorAt(r: RollingRegimeArrays, i: number): number {
+  return r.plusFactorHundredths[i] / 100;
 }
 
 export interface RollingArrays {
@@ -51,6 +60,69 @@ function newCounts(n: number, windowSize: number): CountArray {
   return windowSize < 32768 ? new Int16Array(n) : new Int32Array(n);
 }
 
+/** Carves many equal-length arrays out of one allocation (one per call instead of one per array). */
+class Arena {
+  private offset = 0;
+  private readonly buffer: ArrayBuffer;
+  constructor(
+    private readonly n: number,
+    countArrays: number,
+    byteArrays: number,
+    private readonly wide: boolean,
+  ) {
+    const countBytes = wide ? 4 : 2;
+    // Counts first (aligned), then the one-byte arrays.
+    this.buffer = new ArrayBuffer(n * (countArrays * countBytes + byteArrays));
+  }
+  counts(): CountArray {
+    const a = this.wide ? new Int32Array(this.buffer, this.offset, this.n) : new Int16Array(this.buffer, this.offset, this.n);
+    this.offset += a.byteLength;
+    return a;
+  }
+  bytes(): Uint8Array {
+    const a = new Uint8Array(this.buffer, this.offset, this.n);
+    this.offset += this.n;
+    return a;
+  }
+}
+
+interface LookupTables {
+  zone: Uint8Array;
+  plusHundredths: Uint8Array;
+}
+
+const lookupCache = new Map<string, LookupTables>();
+
+/** Zone code and plus factor by count 0..w for one rule set and window (REFERENCE.md §2). */
+function lookupTables(regime: RegimeId, w: number): LookupTables {
+  const key = `${regime}:${w}`;
+  let t = lookupCache.get(key);
+  if (!t) {
+    const rules = getRegime(regime);
+    t = { zone: new Uint8Array(w + 1), plusHundredths: new Uint8Array(w + 1) };
+    for (let k = 0; k <= w; k++) {
+      t.zone[k] = ZONE_CODES.indexOf(zoneFor(k, rules, w));
+      const pf = plusFactorFor(k, rules, w);
+      const hundredths = Math.round(pf * 100);
+      if (hundredths / 100 !== pf || hundredths > 255) throw new Error(`Plus factor ${pf} of ${regime} is not a whole number of hundredths`);
+      t.plusHundredths[k] = hundredths;
+    }
+    // Rule sets whose tables coincide get the very same table object, so their outputs are shared.
+    t = { zone: internTable(t.zone), plusHundredths: internTable(t.plusHundredths) };
+    lookupCache.set(key, t);
+  }
+  return t;
+}
+
+const tablesByContent = new Map<string, Uint8Array>();
+function internTable(table: Uint8Array): Uint8Array {
+  const key = table.join(",");
+  const found = tablesByContent.get(key);
+  if (found) return found;
+  tablesByContent.set(key, table);
+  return table;
+}
+
 let hitScratchA = new Uint8Array(0);
 let hitScratchH = new Uint8Array(0);
 
@@ -63,13 +135,13 @@ function scratch(n: number): [Uint8Array, Uint8Array] {
 }
 
 /** The common case: no missing-value rule in play and no exclusions. */
-function countPlain(s: ObservationSeries, w: number): Variant {
+function countPlain(s: ObservationSeries, w: number, arena: Arena): Variant {
   const n = s.dates.length;
   const { actual: pa, hypothetical: ph, var: pv } = s;
   const [ha, hh] = scratch(n);
-  const ca = newCounts(n, w);
-  const ch = newCounts(n, w);
-  const cm = newCounts(n, w);
+  const ca = arena.counts();
+  const ch = arena.counts();
+  const cm = arena.counts();
   let a = 0;
   let h = 0;
   for (let i = 0; i < n; i++) {
@@ -170,15 +242,68 @@ function excludedMask(dates: readonly string[], excludedDates: Iterable<string> 
   return any ? mask : null;
 }
 
+interface LookupOutput {
+  table: Uint8Array;
+  out: Uint8Array;
+}
+
+/** Writes up to three lookups per pass over the counts. */
+function writeLookups(counted: CountArray, outputs: readonly LookupOutput[]): void {
+  const n = counted.length;
+  for (let o = 0; o < outputs.length; o += 3) {
+    const left = outputs.length - o;
+    const t0 = outputs[o].table;
+    const o0 = outputs[o].out;
+    if (left >= 3) {
+      const t1 = outputs[o + 1].table;
+      const o1 = outputs[o + 1].out;
+      const t2 = outputs[o + 2].table;
+      const o2 = outputs[o + 2].out;
+      for (let i = 0; i < n; i++) {
+        const c = counted[i];
+        o0[i] = t0[c];
+        o1[i] = t1[c];
+        o2[i] = t2[c];
+      }
+    } else if (left === 2) {
+      const t1 = outputs[o + 1].table;
+      const o1 = outputs[o + 1].out;
+      for (let i = 0; i < n; i++) {
+        const c = counted[i];
+        o0[i] = t0[c];
+        o1[i] = t1[c];
+      }
+    } else {
+      for (let i = 0; i < n; i++) o0[i] = t0[counted[i]];
+    }
+  }
+}
+
 /**
- * Rolling counts, zones and plus factors for several rule sets over one series. Requests without
- * exclusions share one pass over the data.
+ * Rolling counts, zones and plus factors for several rule sets over one series (O(n)).
+ * Requests without exclusions share one counting pass; zone and plus factor are table lookups by
+ * count, and rule sets that count the same series with the same table (Basel 2.5 and the EU have
+ * identical steps, all four share the 5/10 zone boundaries at 250) share one output array, filled
+ * in one pass per counted series. The arrays are read-only views and may be shared between entries.
  */
 export function rollingArrays(series: ObservationSeries, requests: readonly RollingRequest[], windowSize = STANDARD_WINDOW): RollingArrays {
   const n = series.dates.length;
   const w = windowSize;
+  if (!Number.isInteger(w) || w < 1) throw new RangeError(`windowSize must be a positive integer, got ${w}`);
+  const arena = new Arena(n, 3, 2 * requests.length, w >= 32768);
   let plain: Variant | null = null;
   let frtbPlain: Variant | null = null;
+
+  // Outputs keyed by (counted array, table): one array per distinct lookup.
+  const groups = new Map<CountArray, Map<Uint8Array, Uint8Array>>();
+  const outputFor = (counted: CountArray, table: Uint8Array): Uint8Array => {
+    let byTable = groups.get(counted);
+    if (!byTable) groups.set(counted, (byTable = new Map()));
+    let out = byTable.get(table);
+    if (!out) byTable.set(table, (out = arena.bytes()));
+    return out;
+  };
+
   const out: RollingRegimeArrays[] = [];
   for (const req of requests) {
     const rules = getRegime(req.regime);
@@ -188,24 +313,21 @@ export function rollingArrays(series: ObservationSeries, requests: readonly Roll
     let variant: Variant;
     if (mask) variant = countGeneral(series, w, missingCounts, mask);
     else if (missingCounts) variant = frtbPlain ??= countGeneral(series, w, true, null);
-    else variant = plain ??= countPlain(series, w);
+    else variant = plain ??= countPlain(series, w, arena);
     const counted = countedFor(variant, basis, n, w);
-
-    // Lookup tables by count: zone code and plus factor (REFERENCE.md §2).
-    const zoneTable = new Uint8Array(w + 1);
-    const plusTable = new Float64Array(w + 1);
-    for (let k = 0; k <= w; k++) {
-      zoneTable[k] = ZONE_CODES.indexOf(zoneFor(k, rules, w));
-      plusTable[k] = plusFactorFor(k, rules, w);
-    }
-    const zone = new Uint8Array(n);
-    const plusFactor = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      const c = counted[i];
-      zone[i] = zoneTable[c];
-      plusFactor[i] = plusTable[c];
-    }
-    out.push({ regime: rules.id, pnlBasis: basis, actual: variant.actual, hypothetical: variant.hypothetical, counted, zone, plusFactor });
+    const tables = lookupTables(rules.id, w);
+    out.push({
+      regime: rules.id,
+      pnlBasis: basis,
+      actual: variant.actual,
+      hypothetical: variant.hypothetical,
+      counted,
+      zone: outputFor(counted, tables.zone),
+      plusFactorHundredths: outputFor(counted, tables.plusHundredths),
+    });
+  }
+  for (const [counted, byTable] of groups) {
+    writeLookups(counted, [...byTable].map(([table, o]) => ({ table, out: o })));
   }
   return { dates: series.dates, windowSize: w, regimes: out };
 }

@@ -1,15 +1,29 @@
 import { EngineInputError } from "./errors";
 import type { Observation } from "./types";
 
-const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
+/** Digits at positions [from, from + length) of s as a number, or −1 if any is not a digit. */
+function digits(s: string, from: number, length: number): number {
+  let v = 0;
+  for (let i = from; i < from + length; i++) {
+    const c = s.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return -1;
+    v = v * 10 + c;
+  }
+  return v;
+}
 
-/** True for a real calendar date written YYYY-MM-DD. */
+const DAYS_IN_MONTH = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
+
+/** True for a real calendar date written YYYY-MM-DD (checked by hand: this runs once per observation). */
 export function isIsoDate(value: unknown): value is string {
-  if (typeof value !== "string") return false;
-  const m = ISO_DATE.exec(value);
-  if (!m) return false;
-  const d = new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3])));
-  return d.getUTCFullYear() === Number(m[1]) && d.getUTCMonth() === Number(m[2]) - 1 && d.getUTCDate() === Number(m[3]);
+  if (typeof value !== "string" || value.length !== 10) return false;
+  if (value.charCodeAt(4) !== 45 || value.charCodeAt(7) !== 45) return false;
+  const y = digits(value, 0, 4);
+  const m = digits(value, 5, 2);
+  const d = digits(value, 8, 2);
+  if (y < 0 || m < 1 || m > 12 || d < 1) return false;
+  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+  return d <= (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1]);
 }
 
 const NUMERIC_FIELDS = [

@@ -46,6 +46,7 @@ export const plainNameSchema = z
   .trim()
   .min(1, "Required")
   .max(120, "At most 120 characters")
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), "No line breaks or control characters");
 
 export const apiErrorSchema = z.object({

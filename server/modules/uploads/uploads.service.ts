@@ -28,6 +28,7 @@ export interface IncomingFile {
 }
 
 function assertPlainFileName(name: string): string {
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
   if (/[/\\]/.test(name) || name.includes("..") || /[\u0000-\u001f]/.test(name)) {
     throw new BadRequestError("The file name must be a plain name without folders.");
   }

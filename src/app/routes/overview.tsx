@@ -4,6 +4,7 @@ import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
 import { EntityOverviewTable } from "@/features/entities/components/entity-overview-table";
+import { PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   await queryClient.ensureQueryData(entityQueries.all());
@@ -30,6 +31,7 @@ export default function OverviewRoute() {
   const role = user!.role;
   return (
     <section aria-labelledby="overview-title" className="flex flex-col gap-4">
+        <PageTitle>Overview</PageTitle>
       <div className="flex items-baseline justify-between gap-4">
         <h1 id="overview-title">Overview</h1>
         <p className="figures text-sm text-ink-muted">

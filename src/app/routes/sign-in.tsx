@@ -6,6 +6,7 @@ import { authQueries } from "@/features/auth/api/auth-queries";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
 import { QuartermarkMark } from "@/components/ui/mark";
 import { CAUTION } from "../caution";
+import { PageTitle } from "@/components/ui/page-title";
 
 // Someone already signed in may stay here to sign in as another person (the demo has one user per role).
 export const clientLoader = (queryClient: QueryClient) => async () => {
@@ -32,6 +33,7 @@ export default function SignInRoute() {
   return (
     <div className="flex min-h-screen flex-col">
       <main className="flex flex-1 items-start justify-center px-6 pt-[12vh]">
+        <PageTitle>Sign in</PageTitle>
         <div className="w-full max-w-sm">
           <div className="mb-6 flex items-center gap-2.5">
             <QuartermarkMark className="size-7" />

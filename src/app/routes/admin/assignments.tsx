@@ -4,6 +4,7 @@ import { assignmentQueries } from "@/features/admin/api/assignment-queries";
 import { userQueries } from "@/features/admin/api/user-queries";
 import { AssignmentsPanel } from "@/features/admin/components/assignments-panel";
 import { entityQueries } from "@/features/entities/api/entity-queries";
+import { PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   await Promise.all([
@@ -20,6 +21,7 @@ export default function AssignmentsRoute() {
   const { data: entities } = useSuspenseQuery(entityQueries.all());
   return (
     <section aria-labelledby="assignments-title" className="flex flex-col gap-3">
+        <PageTitle>Regulator access</PageTitle>
       <h1 id="assignments-title">Regulator access</h1>
       <p className="text-sm text-ink-muted">
         A regulator user sees only the filed packs of the entities granted here. Removing access takes effect on their next

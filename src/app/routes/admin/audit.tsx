@@ -7,6 +7,7 @@ import { AuditTable } from "@/features/admin/components/audit-table";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { isApiError } from "@/lib/api-client";
+import { PageTitle } from "@/components/ui/page-title";
 
 function pageParams(search: URLSearchParams): AuditPageParams {
   const page = Math.max(1, Math.floor(Number(search.get("page") ?? "1")) || 1);
@@ -40,6 +41,7 @@ export default function AuditRoute() {
 
   return (
     <section aria-labelledby="audit-title" className="flex flex-col gap-3">
+        <PageTitle>Audit log</PageTitle>
       <div className="flex items-baseline justify-between gap-4">
         <h1 id="audit-title">Audit log</h1>
         <p className="figures text-sm text-ink-muted" aria-live="polite">

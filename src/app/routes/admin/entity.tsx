@@ -7,6 +7,7 @@ import { EntityForm } from "@/features/entities/components/entity-form";
 import { HolidaysPanel } from "@/features/entities/components/holidays-panel";
 import { PortfoliosPanel } from "@/features/entities/components/portfolios-panel";
 import { ruleSetLabels } from "@/features/entities/rule-sets";
+import { PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   const code = params.code ?? "";
@@ -29,6 +30,7 @@ export default function EntityRoute() {
 
   return (
     <div className="flex flex-col gap-8">
+      <PageTitle>{`${entity.code} · Entities`}</PageTitle>
       <div>
         <p className="text-sm">
           <Link to={paths.adminEntities.href()}>Entities</Link>

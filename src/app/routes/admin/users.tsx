@@ -4,6 +4,7 @@ import { authQueries } from "@/features/auth/api/auth-queries";
 import { userQueries } from "@/features/admin/api/user-queries";
 import { CreateUserForm } from "@/features/admin/components/create-user-form";
 import { UsersTable } from "@/features/admin/components/users-table";
+import { PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   await queryClient.ensureQueryData(userQueries.all());
@@ -17,6 +18,7 @@ export default function UsersRoute() {
   return (
     <div className="flex flex-col gap-8">
       <section aria-labelledby="users-title" className="flex flex-col gap-3">
+        <PageTitle>Users</PageTitle>
         <div className="flex items-baseline justify-between gap-4">
           <h1 id="users-title">Users</h1>
           <p className="figures text-sm text-ink-muted">

@@ -130,8 +130,11 @@ function toAppError(err: unknown): AppError {
 /** The one error path: every failure leaves as { error: { code, message, details? } }. */
 export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
   const appError = toAppError(err);
-  if (appError.status >= 500) {
+  if (appError.status === 500) {
     logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: ${(err as Error)?.stack ?? String(err)}`);
+  } else if (appError.status === 503) {
+    const cause = err as { code?: string; parent?: { code?: string } };
+    logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: database unavailable (${cause?.parent?.code ?? cause?.code ?? "no code"})`);
   }
   if (res.headersSent) return;
   res.status(appError.status).json({

@@ -1,0 +1,70 @@
+import { screen, within } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { fakeApi, signedInAs, type Call } from "./support/fake-api";
+import { renderApp } from "./support/render-app";
+
+function event(id: number, action: string) {
+  return {
+    id,
+    at: "2026-03-31T17:45:00.000Z",
+    actorEmail: "admin@larkspur.test",
+    action,
+    target: "LKS-EU",
+    ip: "10.1.2.3",
+    before: { qualitativeAddend: 0 },
+    after: { qualitativeAddend: 0.25 },
+  };
+}
+
+describe("Admin › Audit log", () => {
+  it("shows who did what, when, from where, with before and after in a details element", async () => {
+    fakeApi({
+      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/audit-events": { status: 200, body: { items: [event(1, "entity.update")], total: 1 } },
+    });
+    renderApp("/admin/audit");
+
+    const table = await screen.findByRole("table", { name: "Audit events, newest first" });
+    const row = within(table).getAllByRole("row")[1];
+    expect(within(row).getByText("31 Mar 2026, 17:45 UTC")).toBeInTheDocument();
+    expect(within(row).getByText("admin@larkspur.test")).toBeInTheDocument();
+    expect(within(row).getByText("entity.update")).toBeInTheDocument();
+    expect(within(row).getByText("10.1.2.3")).toBeInTheDocument();
+    expect(within(row).getByText('{"qualitativeAddend":0.25}').closest("details")).not.toBeNull();
+  });
+
+  it("pages through the log and filters by action, asking the server for that slice", async () => {
+    const asked: Call[] = [];
+    fakeApi({
+      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/audit-events": (call) => {
+        asked.push(call);
+        const q = new URLSearchParams(call.search);
+        if (q.get("action") === "auth.sign_in_failed") return { status: 200, body: { items: [], total: 0 } };
+        const offset = Number(q.get("offset"));
+        return { status: 200, body: { items: [event(offset + 1, offset ? "user.update" : "user.create")], total: 120 } };
+      },
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/audit");
+
+    expect(await screen.findByText("1–50 of 120")).toBeInTheDocument();
+    await user.click(screen.getByRole("link", { name: "Older" }));
+    expect(await screen.findByText("user.update")).toBeInTheDocument();
+    expect(screen.getByText("Page 2 of 3")).toBeInTheDocument();
+    expect(new URLSearchParams(asked.at(-1)!.search).get("offset")).toBe("50");
+
+    await user.type(screen.getByLabelText("Action"), "auth.sign_in_failed");
+    await user.click(screen.getByRole("button", { name: "Filter" }));
+    expect(await screen.findByText("No events with this action")).toBeInTheDocument();
+    const last = new URLSearchParams(asked.at(-1)!.search);
+    expect(last.get("action")).toBe("auth.sign_in_failed");
+    expect(last.get("offset")).toBe("0");
+  });
+
+  it("when nothing has been recorded, then the empty state says what will appear", async () => {
+    fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/audit-events": { status: 200, body: { items: [], total: 0 } } });
+    renderApp("/admin/audit");
+    expect(await screen.findByText("No events recorded yet")).toBeInTheDocument();
+  });
+});

@@ -1,4 +1,5 @@
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
+import { REGIMES } from "@shared/backtest/regimes";
 
 export const ruleSetLabels: Record<RegimeId, string> = {
   basel: "Basel 2.5",
@@ -13,16 +14,10 @@ export const pnlBasisLabels: Record<PnlBasis, string> = {
   max: "Higher of actual and hypothetical",
 };
 
-/**
- * The P&L basis a new entity starts with (DESIGN.md §4: Basel 2.5 max, US actual, EU max, FRTB max).
- * Only a form default; the count itself is computed by the engine in shared/backtest.
- */
-export const defaultPnlBasis: Record<RegimeId, PnlBasis> = {
-  basel: "max",
-  us: "actual",
-  eu: "max",
-  frtb: "max",
-};
+/** The P&L basis a new entity starts with, read from the engine's rule sets (one source of truth). */
+export const defaultPnlBasis = Object.fromEntries(
+  (Object.keys(REGIMES) as RegimeId[]).map((id) => [id, REGIMES[id].defaultPnlBasis]),
+) as Record<RegimeId, PnlBasis>;
 
 export const ruleSetIds = Object.keys(ruleSetLabels) as RegimeId[];
 export const pnlBasisIds = Object.keys(pnlBasisLabels) as PnlBasis[];

@@ -1,0 +1,43 @@
+/** Who is who in the invented Larkspur daily data (DESIGN.md §9): one entity turns yellow after a stress episode, one FRTB desk sits amber on P&L attribution. */
+import { generateDeskedRows, generatePortfolioRows, type DemoRow, type PortfolioSpec } from "./daily-data";
+
+export const DEMO_YEARS = 3;
+
+export const SCENARIO: Record<string, { top: PortfolioSpec; desks?: PortfolioSpec[] }> = {
+  "LKS-EU": { top: { code: "LKS-EU-TOTAL", seed: 1106, dailyVol: 3_200_000 } },
+  // A stress episode about four months ago: the historical-simulation VaR learns late, exceptions bunch.
+  "LKS-US": { top: { code: "LKS-US-TOTAL", seed: 2202, dailyVol: 4_500_000, stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 } } },
+  "LKS-AP": { top: { code: "LKS-AP-TOTAL", seed: 3303, dailyVol: 2_100_000 } },
+  "LKS-UK": {
+    top: { code: "LKS-UK-TOTAL", seed: 4404, dailyVol: 0 },
+    desks: [
+      { code: "LKS-UK-RATES", seed: 4413, dailyVol: 1_800_000, rtplLoading: 0.97, withEs: true },
+      { code: "LKS-UK-FX", seed: 4416, dailyVol: 1_200_000, rtplLoading: 0.96, withEs: true },
+      // The risk model misses part of this desk's basis risk: RTPL follows HPL only loosely.
+      { code: "LKS-UK-CREDIT", seed: 4433, dailyVol: 1_000_000, rtplLoading: 0.75, withEs: true },
+      { code: "LKS-UK-EQUITIES", seed: 4444, dailyVol: 1_500_000, rtplLoading: 0.95, withEs: true },
+    ],
+  },
+};
+
+/** Business days (weekdays minus holidays) ending on the last one strictly before `today`. */
+export function demoDates(today: string, holidays: ReadonlySet<string>, years = DEMO_YEARS): string[] {
+  const dates: string[] = [];
+  const d = new Date(`${today}T00:00:00Z`);
+  const start = new Date(d);
+  start.setUTCFullYear(start.getUTCFullYear() - years);
+  d.setUTCDate(d.getUTCDate() - 1);
+  while (d >= start) {
+    const iso = d.toISOString().slice(0, 10);
+    const wd = d.getUTCDay();
+    if (wd !== 0 && wd !== 6 && !holidays.has(iso)) dates.push(iso);
+    d.setUTCDate(d.getUTCDate() - 1);
+  }
+  return dates.reverse();
+}
+
+export function demoRowsFor(entityCode: string, dates: string[]): DemoRow[] {
+  const spec = SCENARIO[entityCode];
+  if (!spec) return [];
+  return spec.desks ? generateDeskedRows(spec.top, spec.desks, dates) : generatePortfolioRows(spec.top, dates);
+}

@@ -45,7 +45,8 @@ function isBusinessDayNumber(day: number, holidays: ReadonlySet<number>): boolea
 }
 
 export function isBusinessDay(date: string, holidays: ReadonlySet<string> = new Set()): boolean {
-  return isBusinessDayNumber(dayNumber(date), holidayDays(holidays));
+  const wd = weekdayOf(dayNumber(date));
+  return wd !== 0 && wd !== 6 && !holidays.has(date);
 }
 
 /**

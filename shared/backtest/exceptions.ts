@@ -2,7 +2,7 @@ import type { PnlBasis, RegimeId } from "../schemas/common";
 import { binomialCdf } from "./binomial";
 import { EngineInputError } from "./errors";
 import { getRegime, multiplierFor, plusFactorFor, zoneBoundariesFor, zoneFor, type RegimeRules } from "./regimes";
-import { plusFactorAt, rollingArrays, ZONE_CODES } from "./rolling";
+import { plusFactorAt, rollingArrays, zoneAt } from "./rolling";
 import { christoffersenIndependence, conditionalCoverage, kupiecPof } from "./statistics";
 import type { BacktestOptions, Observation, PnlSeriesName, TestOutcome, Zone } from "./types";
 import { assertIsoDate, toSeries, validateObservations, varFieldFor, windowAt } from "./window";
@@ -249,7 +249,7 @@ export function rollingBacktest(observations: readonly Observation[], opts: Roll
       actual: r.actual[i],
       hypothetical: r.hypothetical[i],
       counted: r.counted[i],
-      zone: ZONE_CODES[r.zone[i]],
+      zone: zoneAt(r, i),
       plusFactor: plusFactorAt(r, i),
       complete: i + 1 >= windowSize,
     });

@@ -1,5 +1,5 @@
 import type { PnlBasis, RegimeId } from "../schemas/common";
-import { getRegime, plusFactorFor, STANDARD_WINDOW, zoneFor } from "./regimes";
+import { getRegime, plusFactorFor, STANDARD_WINDOW, zoneFor, type RegimeRules } from "./regimes";
 import type { Zone } from "./types";
 import type { ObservationSeries } from "./window";
 
@@ -28,18 +28,22 @@ export interface RollingRegimeArrays {
   hypothetical: CountArray;
   /** Counted exceptions after the basis and approved exclusions. */
   counted: CountArray;
-  /** Index into ZONE_CODES. */
-  zone: Uint8Array;
   /**
-   * Plus factor in hundredths (every published step is a whole number of hundredths); read it
-   * with plusFactorAt. One byte per date keeps the hot path close to the bare loop.
+   * Zone and plus factor at each date in one 16-bit code: low byte the index into ZONE_CODES,
+   * high byte the plus factor in hundredths (every published step is a whole number of them).
+   * Read with zoneAt / plusFactorAt. Two bytes per date keep the hot path close to the bare loop.
    */
-  plusFactorHundredths: Uint8Array;
+  levels: Uint16Array;
+}
+
+/** The zone at index i. */
+export function zoneAt(r: RollingRegimeArrays, i: number): Zone {
+  return ZONE_CODES[r.levels[i] & 0xff];
 }
 
 /** The plus factor at index i, exactly as in the regime's table (65 / 100 === 0.65). */
 export function plusFactorAt(r: RollingRegimeArrays, i: number): number {
-  return r.plusFactorHundredths[i] / 100;
+  return (r.levels[i] >> 8) / 100;
 }
 
 export interface RollingArrays {
@@ -67,62 +71,53 @@ class Arena {
   constructor(
     private readonly n: number,
     countArrays: number,
-    byteArrays: number,
+    levelArrays: number,
     private readonly wide: boolean,
   ) {
-    const countBytes = wide ? 4 : 2;
-    // Counts first (aligned), then the one-byte arrays.
-    this.buffer = new ArrayBuffer(n * (countArrays * countBytes + byteArrays));
+    // Counts first (4-byte ones keep the 2-byte level arrays aligned), then the level arrays.
+    this.buffer = new ArrayBuffer(n * (countArrays * (wide ? 4 : 2) + levelArrays * 2));
   }
   counts(): CountArray {
     const a = this.wide ? new Int32Array(this.buffer, this.offset, this.n) : new Int16Array(this.buffer, this.offset, this.n);
     this.offset += a.byteLength;
     return a;
   }
-  bytes(): Uint8Array {
-    const a = new Uint8Array(this.buffer, this.offset, this.n);
-    this.offset += this.n;
+  levels(): Uint16Array {
+    const a = new Uint16Array(this.buffer, this.offset, this.n);
+    this.offset += a.byteLength;
     return a;
   }
 }
 
-interface LookupTables {
-  zone: Uint8Array;
-  plusHundredths: Uint8Array;
-}
+const levelTables = new Map<string, Uint16Array>();
+const levelTablesByContent = new Map<string, Uint16Array>();
 
-const lookupCache = new Map<string, LookupTables>();
-
-/** Zone code and plus factor by count 0..w for one rule set and window (REFERENCE.md §2). */
-function lookupTables(regime: RegimeId, w: number): LookupTables {
+/**
+ * Level code (zone | plus factor in hundredths << 8) by count 0..w for one rule set and window
+ * (REFERENCE.md §2). Rule sets whose tables coincide get the very same table object, so their
+ * outputs can be shared.
+ */
+function levelTable(regime: RegimeId, w: number): Uint16Array {
   const key = `${regime}:${w}`;
-  let t = lookupCache.get(key);
+  let t = levelTables.get(key);
   if (!t) {
     const rules = getRegime(regime);
-    t = { zone: new Uint8Array(w + 1), plusHundredths: new Uint8Array(w + 1) };
+    t = new Uint16Array(w + 1);
     for (let k = 0; k <= w; k++) {
-      t.zone[k] = ZONE_CODES.indexOf(zoneFor(k, rules, w));
       const pf = plusFactorFor(k, rules, w);
       const hundredths = Math.round(pf * 100);
       if (hundredths / 100 !== pf || hundredths > 255) throw new Error(`Plus factor ${pf} of ${regime} is not a whole number of hundredths`);
-      t.plusHundredths[k] = hundredths;
+      t[k] = (hundredths << 8) | ZONE_CODES.indexOf(zoneFor(k, rules, w));
     }
-    // Rule sets whose tables coincide get the very same table object, so their outputs are shared.
-    t = { zone: internTable(t.zone), plusHundredths: internTable(t.plusHundredths) };
-    lookupCache.set(key, t);
+    const content = t.join(",");
+    t = levelTablesByContent.get(content) ?? t;
+    levelTablesByContent.set(content, t);
+    levelTables.set(key, t);
   }
   return t;
 }
 
-const tablesByContent = new Map<string, Uint8Array>();
-function internTable(table: Uint8Array): Uint8Array {
-  const key = table.join(",");
-  const found = tablesByContent.get(key);
-  if (found) return found;
-  tablesByContent.set(key, table);
-  return table;
-}
-
+// Hit flags of the plain pass, reused between calls (the counts are what is returned).
 let hitScratchA = new Uint8Array(0);
 let hitScratchH = new Uint8Array(0);
 
@@ -134,16 +129,50 @@ function scratch(n: number): [Uint8Array, Uint8Array] {
   return [hitScratchA, hitScratchH];
 }
 
-/** The common case: no missing-value rule in play and no exclusions. */
-function countPlain(s: ObservationSeries, w: number, arena: Arena): Variant {
+/** Level outputs filled during the counting pass itself (each with its table). */
+interface FusedOutputs {
+  max0: LookupOutput;
+  max1: LookupOutput;
+  actual0: LookupOutput;
+}
+
+let dummyLevels = new Uint16Array(0);
+const dummyTables = new Map<number, Uint16Array>();
+
+/** A write-only sink for fused slots nobody asked for. */
+function dummyOutput(n: number, w: number): LookupOutput {
+  if (dummyLevels.length < n) dummyLevels = new Uint16Array(n);
+  let table = dummyTables.get(w);
+  if (!table) dummyTables.set(w, (table = new Uint16Array(w + 1)));
+  return { table, out: dummyLevels };
+}
+
+/**
+ * The common case: no missing-value rule in play and no exclusions. One pass computes the hits,
+ * the sliding counts of both series and their maximum, and writes the level codes of up to two
+ * rule sets counting the maximum and one counting actual P&L (a table lookup only when the count
+ * changes, which is rare).
+ */
+function countPlain(s: ObservationSeries, w: number, arena: Arena, fused: FusedOutputs): Variant {
   const n = s.dates.length;
   const { actual: pa, hypothetical: ph, var: pv } = s;
   const [ha, hh] = scratch(n);
   const ca = arena.counts();
   const ch = arena.counts();
   const cm = arena.counts();
+  const tm0 = fused.max0.table;
+  const om0 = fused.max0.out;
+  const tm1 = fused.max1.table;
+  const om1 = fused.max1.out;
+  const ta0 = fused.actual0.table;
+  const oa0 = fused.actual0.out;
   let a = 0;
   let h = 0;
+  let lastMax = -1;
+  let lastActual = -1;
+  let m0 = 0;
+  let m1 = 0;
+  let a0 = 0;
   for (let i = 0; i < n; i++) {
     const v = pv[i];
     // Exception: the loss strictly exceeds VaR (DESIGN.md §4); NaN (missing) compares false.
@@ -159,7 +188,20 @@ function countPlain(s: ObservationSeries, w: number, arena: Arena): Variant {
     }
     ca[i] = a;
     ch[i] = h;
-    cm[i] = a > h ? a : h;
+    const m = a > h ? a : h;
+    cm[i] = m;
+    if (m !== lastMax) {
+      lastMax = m;
+      m0 = tm0[m];
+      m1 = tm1[m];
+    }
+    if (a !== lastActual) {
+      lastActual = a;
+      a0 = ta0[a];
+    }
+    om0[i] = m0;
+    om1[i] = m1;
+    oa0[i] = a0;
   }
   return { actual: ca, hypothetical: ch, netActual: ca, netHypothetical: ch, max: cm };
 }
@@ -243,91 +285,116 @@ function excludedMask(dates: readonly string[], excludedDates: Iterable<string> 
 }
 
 interface LookupOutput {
-  table: Uint8Array;
-  out: Uint8Array;
+  table: Uint16Array;
+  out: Uint16Array;
 }
 
-/** Writes up to three lookups per pass over the counts. */
-function writeLookups(counted: CountArray, outputs: readonly LookupOutput[]): void {
-  const n = counted.length;
-  for (let o = 0; o < outputs.length; o += 3) {
-    const left = outputs.length - o;
-    const t0 = outputs[o].table;
-    const o0 = outputs[o].out;
-    if (left >= 3) {
-      const t1 = outputs[o + 1].table;
-      const o1 = outputs[o + 1].out;
-      const t2 = outputs[o + 2].table;
-      const o2 = outputs[o + 2].out;
-      for (let i = 0; i < n; i++) {
-        const c = counted[i];
-        o0[i] = t0[c];
-        o1[i] = t1[c];
-        o2[i] = t2[c];
-      }
-    } else if (left === 2) {
-      const t1 = outputs[o + 1].table;
-      const o1 = outputs[o + 1].out;
-      for (let i = 0; i < n; i++) {
-        const c = counted[i];
-        o0[i] = t0[c];
-        o1[i] = t1[c];
-      }
-    } else {
-      for (let i = 0; i < n; i++) o0[i] = t0[counted[i]];
+/** Fills one level array from its counts (a table lookup only when the count changes). */
+function writeLookup(counted: CountArray, { table, out }: LookupOutput): void {
+  let last = -1;
+  let code = 0;
+  for (let i = 0; i < counted.length; i++) {
+    const c = counted[i];
+    if (c !== last) {
+      last = c;
+      code = table[c];
     }
+    out[i] = code;
   }
 }
 
 /**
  * Rolling counts, zones and plus factors for several rule sets over one series (O(n)).
- * Requests without exclusions share one counting pass; zone and plus factor are table lookups by
- * count, and rule sets that count the same series with the same table (Basel 2.5 and the EU have
- * identical steps, all four share the 5/10 zone boundaries at 250) share one output array, filled
- * in one pass per counted series. The arrays are read-only views and may be shared between entries.
+ * Requests without exclusions share one counting pass; zone and plus factor are a table lookup
+ * by count, and rule sets that count the same series with the same table (Basel 2.5 and the EU
+ * have identical steps) share one output array, filled in one pass per counted series. The
+ * arrays are read-only views and may be shared between entries.
  */
 export function rollingArrays(series: ObservationSeries, requests: readonly RollingRequest[], windowSize = STANDARD_WINDOW): RollingArrays {
   const n = series.dates.length;
   const w = windowSize;
   if (!Number.isInteger(w) || w < 1) throw new RangeError(`windowSize must be a positive integer, got ${w}`);
-  const arena = new Arena(n, 3, 2 * requests.length, w >= 32768);
-  let plain: Variant | null = null;
-  let frtbPlain: Variant | null = null;
+  const arena = new Arena(n, 3, requests.length, w >= 32768);
 
-  // Outputs keyed by (counted array, table): one array per distinct lookup.
-  const groups = new Map<CountArray, Map<Uint8Array, Uint8Array>>();
-  const outputFor = (counted: CountArray, table: Uint8Array): Uint8Array => {
-    let byTable = groups.get(counted);
-    if (!byTable) groups.set(counted, (byTable = new Map()));
-    let out = byTable.get(table);
-    if (!out) byTable.set(table, (out = arena.bytes()));
-    return out;
-  };
-
-  const out: RollingRegimeArrays[] = [];
-  for (const req of requests) {
+  interface Resolved {
+    rules: RegimeRules;
+    basis: PnlBasis;
+    table: Uint16Array;
+    kind: "plain" | "missing" | "masked";
+    mask: Uint8Array | null;
+  }
+  const resolved: Resolved[] = requests.map((req) => {
     const rules = getRegime(req.regime);
-    const basis = req.pnlBasis ?? rules.defaultPnlBasis;
-    const missingCounts = rules.missingCountsAsException && series.hasMissing;
     const mask = excludedMask(series.dates, req.excludedDates);
+    const missingCounts = rules.missingCountsAsException && series.hasMissing;
+    return {
+      rules,
+      basis: req.pnlBasis ?? rules.defaultPnlBasis,
+      table: levelTable(rules.id, w),
+      kind: mask ? "masked" : missingCounts ? "missing" : "plain",
+      mask,
+    };
+  });
+
+  // Level arrays of the plain pass, one per distinct (basis, table); the first few are fused into it.
+  const plainLevels = new Map<string, LookupOutput>();
+  const tableIds = new Map<Uint16Array, number>();
+  const plainKey = (r: Resolved): string => {
+    let id = tableIds.get(r.table);
+    if (id === undefined) tableIds.set(r.table, (id = tableIds.size));
+    return `${r.basis}:${id}`;
+  };
+  let plain: Variant | null = null;
+  if (resolved.some((r) => r.kind === "plain")) {
+    const maxOutputs: LookupOutput[] = [];
+    const actualOutputs: LookupOutput[] = [];
+    for (const r of resolved) {
+      if (r.kind !== "plain") continue;
+      const key = plainKey(r);
+      if (plainLevels.has(key)) continue;
+      const o = { table: r.table, out: arena.levels() };
+      plainLevels.set(key, o);
+      if (r.basis === "max") maxOutputs.push(o);
+      else if (r.basis === "actual") actualOutputs.push(o);
+    }
+    const dummy = dummyOutput(n, w);
+    plain = countPlain(series, w, arena, {
+      max0: maxOutputs[0] ?? dummy,
+      max1: maxOutputs[1] ?? dummy,
+      actual0: actualOutputs[0] ?? dummy,
+    });
+    const fused = new Set([maxOutputs[0], maxOutputs[1], actualOutputs[0]]);
+    for (const r of resolved) {
+      if (r.kind !== "plain") continue;
+      const o = plainLevels.get(plainKey(r))!;
+      if (!fused.has(o)) {
+        writeLookup(countedFor(plain, r.basis, n, w), o);
+        fused.add(o);
+      }
+    }
+  }
+
+  let withMissing: Variant | null = null;
+  const out: RollingRegimeArrays[] = [];
+  for (const r of resolved) {
     let variant: Variant;
-    if (mask) variant = countGeneral(series, w, missingCounts, mask);
-    else if (missingCounts) variant = frtbPlain ??= countGeneral(series, w, true, null);
-    else variant = plain ??= countPlain(series, w, arena);
-    const counted = countedFor(variant, basis, n, w);
-    const tables = lookupTables(rules.id, w);
+    let levels: Uint16Array;
+    if (r.kind === "plain") {
+      variant = plain!;
+      levels = plainLevels.get(plainKey(r))!.out;
+    } else {
+      variant = r.kind === "masked" ? countGeneral(series, w, r.rules.missingCountsAsException && series.hasMissing, r.mask) : (withMissing ??= countGeneral(series, w, true, null));
+      levels = arena.levels();
+      writeLookup(countedFor(variant, r.basis, n, w), { table: r.table, out: levels });
+    }
     out.push({
-      regime: rules.id,
-      pnlBasis: basis,
+      regime: r.rules.id,
+      pnlBasis: r.basis,
       actual: variant.actual,
       hypothetical: variant.hypothetical,
-      counted,
-      zone: outputFor(counted, tables.zone),
-      plusFactorHundredths: outputFor(counted, tables.plusHundredths),
+      counted: countedFor(variant, r.basis, n, w),
+      levels,
     });
-  }
-  for (const [counted, byTable] of groups) {
-    writeLookups(counted, [...byTable].map(([table, o]) => ({ table, out: o })));
   }
   return { dates: series.dates, windowSize: w, regimes: out };
 }

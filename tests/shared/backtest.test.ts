@@ -1,6 +1,8 @@
 import fc from "fast-check";
 import { EngineInputError } from "../../shared/backtest/errors";
 import { backtestAt, rollingBacktest } from "../../shared/backtest/exceptions";
+import { plusFactorAt, rollingArrays, zoneAt, type RollingRequest } from "../../shared/backtest/rolling";
+import { toSeries } from "../../shared/backtest/window";
 import type { Observation } from "../../shared/backtest/types";
 import { buildSeries } from "./build-observations";
 
@@ -195,6 +197,49 @@ describe("rolling backtest", () => {
         },
       ),
       { numRuns: 150 },
+    );
+  });
+
+  it("when several rule sets and bases are computed in one pass, then each equals its own backtest at every date (cross-check of the shared pass)", () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.record({ pnl: fc.integer({ min: -30, max: 10 }), hyp: fc.integer({ min: -30, max: 10 }), gap: fc.integer({ min: 0, max: 30 }) }), { minLength: 1, maxLength: 50 }),
+        fc.integer({ min: 1, max: 15 }),
+        fc.boolean(),
+        (days, windowSize, withGaps) => {
+          const obs = buildSeries({ days: days.length, var99: 20 }).map((o, i) => ({
+            ...o,
+            actualPnl: withGaps && days[i].gap === 0 ? null : days[i].pnl,
+            hypotheticalPnl: days[i].hyp,
+          }));
+          const excludedDates = [obs[0].date];
+          const requests: RollingRequest[] = [
+            { regime: "basel" },
+            { regime: "us" },
+            { regime: "eu" },
+            { regime: "frtb" },
+            { regime: "eu", pnlBasis: "hypothetical" },
+            { regime: "us", pnlBasis: "max" },
+            { regime: "basel", pnlBasis: "actual" },
+            { regime: "frtb", pnlBasis: "actual", excludedDates },
+          ];
+          const result = rollingArrays(toSeries(obs), requests, windowSize);
+          requests.forEach((req, k) => {
+            const r = result.regimes[k];
+            obs.forEach((o, i) => {
+              const at = backtestAt(obs, { ...req, asOf: o.date, windowSize });
+              expect([r.actual[i], r.hypothetical[i], r.counted[i], zoneAt(r, i), plusFactorAt(r, i)]).toEqual([
+                at.exceptions.actual,
+                at.exceptions.hypothetical,
+                at.exceptions.counted,
+                at.zone,
+                at.plusFactor,
+              ]);
+            });
+          });
+        },
+      ),
+      { numRuns: 60 },
     );
   });
 

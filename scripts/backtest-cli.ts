@@ -1,0 +1,272 @@
+/**
+ * Batch backtest from a CSV file (`npm run backtest -- --file data.csv --regime eu --as-of 2026-09-30`).
+ * Prints, per portfolio, the window, exception counts, zone, plus factor, multiplier and the
+ * statistical tests, as a table or (with --json) as JSON. Exit code 1 on bad input.
+ */
+import { readFileSync } from "node:fs";
+import { resolve } from "node:path";
+import { pathToFileURL } from "node:url";
+import Papa from "papaparse";
+import { EngineInputError } from "../shared/backtest/errors";
+import { backtestAt, type BacktestResult } from "../shared/backtest/exceptions";
+import { getRegime } from "../shared/backtest/regimes";
+import type { Observation } from "../shared/backtest/types";
+import { ENGINE_VERSION } from "../shared/backtest/version";
+import { isIsoDate } from "../shared/backtest/window";
+import type { PnlBasis, RegimeId } from "../shared/schemas/common";
+
+export interface CliIo {
+  readFile(path: string): string;
+  stdout(text: string): void;
+  stderr(text: string): void;
+}
+
+const defaultIo: CliIo = {
+  readFile: (path) => readFileSync(path, "utf8"),
+  stdout: (text) => process.stdout.write(text),
+  stderr: (text) => process.stderr.write(text),
+};
+
+export const USAGE = `Backtest every portfolio in a CSV file at one as-of date.
+
+Usage:
+  npm run backtest -- --file data.csv --regime eu --as-of 2026-09-30 [--basis max] [--json]
+
+Options:
+  --file PATH      CSV with a header row (any order): portfolio, date, actual_pnl,
+                   hypothetical_pnl, var_99; optional var_975, svar_99, var_10d, svar_10d,
+                   es_975, ses, rtpl. Dates YYYY-MM-DD, amounts with a dot decimal; an empty
+                   amount is a missing value.
+  --regime ID      basel | us | eu | frtb
+  --as-of DATE     the window is the last 250 observations on or before this date
+  --basis BASIS    actual | hypothetical | max (default: the rule set's own basis)
+  --json           print JSON instead of a table
+  --help           show this text
+`;
+
+const REQUIRED = ["portfolio", "date", "actual_pnl", "hypothetical_pnl", "var_99"] as const;
+const OPTIONAL = ["var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses", "rtpl"] as const;
+const AMOUNT_FIELDS: Record<string, keyof Observation> = {
+  actual_pnl: "actualPnl",
+  hypothetical_pnl: "hypotheticalPnl",
+  var_99: "var99",
+  var_975: "var975",
+  svar_99: "svar99",
+  var_10d: "var10d",
+  svar_10d: "svar10d",
+  es_975: "es975",
+  ses: "ses",
+  rtpl: "rtpl",
+};
+const NOT_NEGATIVE = new Set(["var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses"]);
+const AMOUNT = /^-?\d+(\.\d+)?$/;
+const REGIME_IDS: readonly RegimeId[] = ["basel", "us", "eu", "frtb"];
+const BASES: readonly PnlBasis[] = ["actual", "hypothetical", "max"];
+const MAX_ERRORS_SHOWN = 20;
+
+class CliInputError extends Error {}
+
+interface CliOptions {
+  file: string;
+  regime: RegimeId;
+  asOf: string;
+  basis?: PnlBasis;
+  json: boolean;
+}
+
+function parseArgs(argv: readonly string[]): CliOptions | "help" {
+  const values: Record<string, string> = {};
+  let json = false;
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i];
+    if (arg === "--help" || arg === "-h") return "help";
+    if (arg === "--json") {
+      json = true;
+      continue;
+    }
+    const m = /^--(file|regime|as-of|basis)(?:=(.*))?$/.exec(arg);
+    if (!m) throw new CliInputError(`Unknown argument "${arg}". Run with --help to see the options.`);
+    const value = m[2] ?? argv[++i];
+    if (value === undefined || value === "" || (m[2] === undefined && value.startsWith("--"))) {
+      throw new CliInputError(`--${m[1]} needs a value.`);
+    }
+    values[m[1]] = value;
+  }
+  if (!values.file) throw new CliInputError("--file is required. Run with --help to see the options.");
+  if (!values.regime) throw new CliInputError(`--regime is required: one of ${REGIME_IDS.join(", ")}.`);
+  if (!REGIME_IDS.includes(values.regime as RegimeId)) {
+    throw new CliInputError(`Unknown rule set "${values.regime}": use one of ${REGIME_IDS.join(", ")}.`);
+  }
+  if (!values["as-of"]) throw new CliInputError("--as-of is required (YYYY-MM-DD).");
+  if (!isIsoDate(values["as-of"])) throw new CliInputError(`--as-of "${values["as-of"]}" is not a real date written YYYY-MM-DD.`);
+  if (values.basis !== undefined && !BASES.includes(values.basis as PnlBasis)) {
+    throw new CliInputError(`Unknown P&L basis "${values.basis}": use one of ${BASES.join(", ")}.`);
+  }
+  return { file: values.file, regime: values.regime as RegimeId, asOf: values["as-of"], basis: values.basis as PnlBasis | undefined, json };
+}
+
+/** Reads the CSV into observations grouped by portfolio (in date order), or throws with every row error. */
+export function parseObservationsCsv(text: string): Map<string, Observation[]> {
+  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy" });
+  const rows = parsed.data;
+  if (rows.length === 0) throw new CliInputError("The file is empty: expected a header row and data rows.");
+  const header = rows[0].map((h) => h.trim().toLowerCase());
+  const known = new Set<string>([...REQUIRED, ...OPTIONAL]);
+  const unknown = header.filter((h) => !known.has(h));
+  if (unknown.length) {
+    throw new CliInputError(
+      `Unknown column${unknown.length > 1 ? "s" : ""} ${unknown.map((h) => `"${h}"`).join(", ")}. Allowed: ${[...REQUIRED, ...OPTIONAL].join(", ")}.`,
+    );
+  }
+  const duplicated = header.filter((h, i) => header.indexOf(h) !== i);
+  if (duplicated.length) throw new CliInputError(`Column "${duplicated[0]}" appears more than once in the header.`);
+  const missing = REQUIRED.filter((h) => !header.includes(h));
+  if (missing.length) throw new CliInputError(`Missing required column${missing.length > 1 ? "s" : ""}: ${missing.join(", ")}.`);
+
+  const errors: string[] = [];
+  const byPortfolio = new Map<string, Observation[]>();
+  for (let r = 1; r < rows.length; r++) {
+    const line = r + 1;
+    const cells = rows[r];
+    if (cells.length !== header.length) {
+      errors.push(`line ${line}: expected ${header.length} values, found ${cells.length}`);
+      continue;
+    }
+    const cell = (name: string): string => (cells[header.indexOf(name)] ?? "").trim();
+    const portfolio = cell("portfolio");
+    const date = cell("date");
+    if (!portfolio) errors.push(`line ${line}, column portfolio: empty`);
+    if (!isIsoDate(date)) errors.push(`line ${line}, column date: "${date}" is not a real date written YYYY-MM-DD`);
+    const obs: Observation = { date, actualPnl: null, hypotheticalPnl: null, var99: null };
+    for (const name of header) {
+      const field = AMOUNT_FIELDS[name];
+      if (!field) continue;
+      const raw = cell(name);
+      if (raw === "") continue;
+      if (!AMOUNT.test(raw)) {
+        errors.push(`line ${line}, column ${name}: "${raw}" is not an amount (digits, optional minus sign, dot decimal)`);
+        continue;
+      }
+      const value = Number(raw);
+      if (!Number.isFinite(value)) {
+        errors.push(`line ${line}, column ${name}: "${raw}" is out of range`);
+        continue;
+      }
+      if (NOT_NEGATIVE.has(name) && value < 0) {
+        errors.push(`line ${line}, column ${name}: a risk measure is reported as a positive amount, got ${raw}`);
+        continue;
+      }
+      (obs as unknown as Record<string, number>)[field] = value;
+    }
+    if (!portfolio) continue;
+    let list = byPortfolio.get(portfolio);
+    if (!list) byPortfolio.set(portfolio, (list = []));
+    list.push(obs);
+  }
+  for (const e of parsed.errors) errors.push(`line ${(e.row ?? 0) + 1}: ${e.message}`);
+  if (errors.length) {
+    const shown = errors.slice(0, MAX_ERRORS_SHOWN).map((e) => `  ${e}`);
+    if (errors.length > MAX_ERRORS_SHOWN) shown.push(`  … and ${errors.length - MAX_ERRORS_SHOWN} more`);
+    throw new CliInputError(`The file has ${errors.length} problem${errors.length > 1 ? "s" : ""}:\n${shown.join("\n")}`);
+  }
+  if (byPortfolio.size === 0) throw new CliInputError("The file has a header but no data rows.");
+  for (const list of byPortfolio.values()) list.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
+  return byPortfolio;
+}
+
+const fmt = (x: number, digits: number): string => x.toFixed(digits);
+const pValue = (p: number): string => (p < 0.0001 ? "<0.0001" : p.toFixed(4));
+
+function table(results: Array<{ portfolio: string; result: BacktestResult }>): string {
+  const head = ["Portfolio", "Window", "Obs", "Actual", "Hypo", "Counted", "Excl", "Zone", "Plus", "Mult", "Kupiec p", "Indep p", "CondCov p"];
+  const body = results.map(({ portfolio, result: r }) => [
+    portfolio,
+    r.window.start ? `${r.window.start}..${r.window.end}` : "(none)",
+    `${r.window.observations}${r.window.complete ? "" : "*"}`,
+    String(r.exceptions.actual),
+    String(r.exceptions.hypothetical),
+    String(r.exceptions.counted),
+    String(r.exceptions.excluded),
+    r.zoneLabel,
+    fmt(r.plusFactor, 2),
+    fmt(r.multiplier, 2),
+    pValue(r.tests.kupiec.pValue),
+    pValue(r.tests.independence.pValue),
+    pValue(r.tests.conditionalCoverage.pValue),
+  ]);
+  const widths = head.map((h, c) => Math.max(h.length, ...body.map((row) => row[c].length)));
+  const left = new Set([0, 1, 7]);
+  const line = (cells: string[]): string => cells.map((v, c) => (left.has(c) ? v.padEnd(widths[c]) : v.padStart(widths[c]))).join("  ").trimEnd();
+  return [line(head), widths.map((w) => "-".repeat(w)).join("  "), ...body.map(line)].join("\n");
+}
+
+function notes(results: Array<{ portfolio: string; result: BacktestResult }>): string[] {
+  const out: string[] = [];
+  for (const { portfolio, result: r } of results) {
+    out.push(`${portfolio} (tests on ${r.testedSeries} P&L): ${r.tests.kupiec.verdict} ${r.tests.independence.verdict}`);
+    if (!r.window.complete) out.push(`${portfolio}: only ${r.window.observations} observations — provisional.`);
+    if (r.dataGaps.length) out.push(`${portfolio}: ${r.dataGaps.length} day(s) with a missing value (first ${r.dataGaps[0]}) — data gaps block sign-off.`);
+  }
+  return out;
+}
+
+/** The whole command, with its input and output passed in so tests can run it. Returns the exit code. */
+export function runBacktestCli(argv: readonly string[], io: CliIo = defaultIo): number {
+  try {
+    const opts = parseArgs(argv);
+    if (opts === "help") {
+      io.stdout(USAGE);
+      return 0;
+    }
+    let text: string;
+    try {
+      text = io.readFile(opts.file);
+    } catch (e) {
+      throw new CliInputError(`Cannot read ${opts.file}: ${(e as Error).message}`);
+    }
+    const portfolios = parseObservationsCsv(text);
+    const rules = getRegime(opts.regime);
+    const results = [...portfolios.keys()].sort().map((portfolio) => {
+      try {
+        return { portfolio, result: backtestAt(portfolios.get(portfolio)!, { regime: opts.regime, pnlBasis: opts.basis, asOf: opts.asOf }) };
+      } catch (e) {
+        if (e instanceof EngineInputError) throw new CliInputError(`Portfolio ${portfolio}: ${e.message}`);
+        throw e;
+      }
+    });
+    if (opts.json) {
+      const payload = {
+        engineVersion: ENGINE_VERSION,
+        regime: rules.id,
+        asOf: opts.asOf,
+        portfolios: results.map(({ portfolio, result }) => ({ portfolio, ...result })),
+      };
+      io.stdout(`${JSON.stringify(payload, null, 2)}\n`);
+      return 0;
+    }
+    const basis = opts.basis ?? rules.defaultPnlBasis;
+    io.stdout(
+      [
+        `${rules.label} backtest as of ${opts.asOf} (P&L basis ${basis}; ${rules.citation})`,
+        "",
+        table(results),
+        "",
+        ...notes(results),
+        ...(results.some((x) => !x.result.window.complete) ? ["* fewer than 250 observations: provisional."] : []),
+        "Decision support only: the supervisor, the applicable rules and the approved model documentation govern.",
+        "",
+      ].join("\n"),
+    );
+    return 0;
+  } catch (e) {
+    if (e instanceof CliInputError) {
+      io.stderr(`backtest: ${e.message}\n`);
+      return 1;
+    }
+    throw e;
+  }
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(resolve(process.argv[1])).href) {
+  process.exitCode = runBacktestCli(process.argv.slice(2));
+}

@@ -93,9 +93,13 @@ export const DEMO_ASSIGNMENTS: Record<string, string[]> = {
   "regulator2@larkspur.test": ["LKS-US"],
 };
 
+/** The fixed-date holiday in each year, where it falls on a weekday (a weekend holiday changes no business day). */
 function holidayDates(monthDay: string, fromYear: number, toYear: number): string[] {
   const dates: string[] = [];
-  for (let y = fromYear; y <= toYear; y++) dates.push(`${y}-${monthDay}`);
+  for (let y = fromYear; y <= toYear; y++) {
+    const weekday = new Date(`${y}-${monthDay}T00:00:00Z`).getUTCDay();
+    if (weekday !== 0 && weekday !== 6) dates.push(`${y}-${monthDay}`);
+  }
   return dates;
 }
 

@@ -15,7 +15,8 @@ export function createSeeder() {
         down: async () => (await import(pathToFileURL(file!).href)).down?.(),
       }),
     },
-    storage: new SequelizeStorage({ sequelize, tableName: "SequelizeData" }),
+    // Its own model name too: two storages under one model name would read each other's table.
+    storage: new SequelizeStorage({ sequelize, modelName: "SequelizeData", tableName: "SequelizeData" }),
     logger: undefined,
   });
 }

@@ -17,6 +17,7 @@ export const POLICY = {
   "POST /api/auth/login": "public",
   "POST /api/auth/logout": "signed-in",
   "GET /api/auth/me": "signed-in",
+  "GET /api/auth/session": "public",
 
   // Entities: every role reads (a regulator only the entities assigned to them); admin changes.
   "GET /api/entities": "signed-in",

@@ -25,3 +25,6 @@ export const sessionUserSchema = z.object({
 export type SessionUser = z.infer<typeof sessionUserSchema>;
 
 export const meResponseSchema = z.object({ user: sessionUserSchema });
+
+/** The session probe: always 200, with the user or null, so a first visit logs no error. */
+export const sessionResponseSchema = z.object({ user: sessionUserSchema.nullable() });

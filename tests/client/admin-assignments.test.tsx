@@ -14,7 +14,7 @@ describe("Admin › Regulator access", () => {
   it("grants a regulator access to an entity and removes it again", async () => {
     let assignments = [{ userId: 5, email: regulator.email, name: regulator.name, entityCode: "LKS-EU" }];
     const api = fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: [regulator, analyst] },
       "GET /api/entities": { status: 200, body: entities },
       "GET /api/regulator-assignments": () => ({ status: 200, body: assignments }),
@@ -50,7 +50,7 @@ describe("Admin › Regulator access", () => {
 
   it("when no regulator has access, then the empty state says how to grant it", async () => {
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: [regulator] },
       "GET /api/entities": { status: 200, body: entities },
       "GET /api/regulator-assignments": { status: 200, body: [] },

@@ -19,7 +19,7 @@ function event(id: number, action: string) {
 describe("Admin › Audit log", () => {
   it("shows who did what, when, from where, with before and after in a details element", async () => {
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/audit-events": { status: 200, body: { items: [event(1, "entity.update")], total: 1 } },
     });
     renderApp("/admin/audit");
@@ -36,7 +36,7 @@ describe("Admin › Audit log", () => {
   it("pages through the log and filters by action, asking the server for that slice", async () => {
     const asked: Call[] = [];
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/audit-events": (call) => {
         asked.push(call);
         const q = new URLSearchParams(call.search);
@@ -63,7 +63,7 @@ describe("Admin › Audit log", () => {
   });
 
   it("when nothing has been recorded, then the empty state says what will appear", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/audit-events": { status: 200, body: { items: [], total: 0 } } });
+    fakeApi({ "GET /api/auth/session": signedInAs("admin"), "GET /api/audit-events": { status: 200, body: { items: [], total: 0 } } });
     renderApp("/admin/audit");
     expect(await screen.findByText("No events recorded yet")).toBeInTheDocument();
   });

@@ -16,7 +16,7 @@ const entity = {
 
 describe("Admin › Entities", () => {
   it("lists entities with the rule set in words and the addend as a right-aligned figure", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/entities": { status: 200, body: [entity] } });
+    fakeApi({ "GET /api/auth/session": signedInAs("admin"), "GET /api/entities": { status: 200, body: [entity] } });
     renderApp("/admin/entities");
 
     const table = await screen.findByRole("table", { name: "Legal entities" });
@@ -28,7 +28,7 @@ describe("Admin › Entities", () => {
 
   it("when the rule set changes, then the P&L basis follows that rule set's default until chosen by hand", async () => {
     const api = fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/entities": { status: 200, body: [] },
       "POST /api/entities": ({ body }) => ({ status: 201, body: { qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], ...(body as object) } }),
     });
@@ -67,7 +67,7 @@ describe("Admin › Entities", () => {
   });
 
   it("when a contact e-mail is not valid, then the message stands beside that field and nothing is sent", async () => {
-    const api = fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/entities": { status: 200, body: [] } });
+    const api = fakeApi({ "GET /api/auth/session": signedInAs("admin"), "GET /api/entities": { status: 200, body: [] } });
     const user = userEvent.setup();
     renderApp("/admin/entities");
 
@@ -83,7 +83,7 @@ describe("Admin › Entities", () => {
 
   it("the entity page lists holidays by date and portfolios top of house first", async () => {
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/entities": { status: 200, body: [entity] },
       "GET /api/entities/LKS-UK/portfolios": {
         status: 200,
@@ -112,7 +112,7 @@ describe("Admin › Entities", () => {
 
   it("when the entity code does not exist, then the page says so", async () => {
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/entities": { status: 200, body: [entity] },
       "GET /api/entities/NOPE/portfolios": { status: 200, body: [] },
       "GET /api/entities/NOPE/holidays": { status: 200, body: [] },

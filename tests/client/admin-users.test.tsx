@@ -11,7 +11,7 @@ const users = [
 
 describe("Admin › Users", () => {
   it("lists the users the server returns with role, status and last sign-in", async () => {
-    fakeApi({ "GET /api/auth/me": { status: 200, body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } } }, "GET /api/users": { status: 200, body: users } });
+    fakeApi({ "GET /api/auth/session": { status: 200, body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } } }, "GET /api/users": { status: 200, body: users } });
     renderApp("/admin/users");
 
     const table = await screen.findByRole("table", { name: "Users" });
@@ -31,7 +31,7 @@ describe("Admin › Users", () => {
   });
 
   it("when there are no users, then the empty state says to add the first one", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("admin"), "GET /api/users": { status: 200, body: [] } });
+    fakeApi({ "GET /api/auth/session": signedInAs("admin"), "GET /api/users": { status: 200, body: [] } });
     renderApp("/admin/users");
 
     expect(await screen.findByText("No users yet")).toBeInTheDocument();
@@ -41,7 +41,7 @@ describe("Admin › Users", () => {
 
   it("when a new user's e-mail is already taken (409), then the server's message is shown and the list stays", async () => {
     const api = fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: users },
       "POST /api/users": { status: 409, body: { error: { code: "conflict", message: "A user with this e-mail already exists." } } },
     });
@@ -64,7 +64,7 @@ describe("Admin › Users", () => {
 
   it("when the server rejects a field (422 with details.fields), then the message appears beside that field", async () => {
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: users },
       "POST /api/users": { status: 422, body: { error: { code: "validation", message: "Check the highlighted fields.", details: { fields: { email: "This domain is not allowed" } } } } },
     });

@@ -7,7 +7,7 @@ const adminLinks = ["Users", "Entities", "Regulator access", "Audit log"];
 
 describe("navigation by role", () => {
   it("shows the administration links to an administrator", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("admin", "Ada Admin"), "GET /api/entities": { status: 200, body: [] } });
+    fakeApi({ "GET /api/auth/session": signedInAs("admin", "Ada Admin"), "GET /api/entities": { status: 200, body: [] } });
     renderApp("/");
 
     const nav = await screen.findByRole("navigation", { name: "Main" });
@@ -17,7 +17,7 @@ describe("navigation by role", () => {
   });
 
   it.each(["analyst", "cro", "treasury", "regulator"] as const)("hides the administration links from %s", async (role) => {
-    fakeApi({ "GET /api/auth/me": signedInAs(role), "GET /api/entities": { status: 200, body: [] } });
+    fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: [] } });
     renderApp("/");
 
     const nav = await screen.findByRole("navigation", { name: "Main" });
@@ -28,7 +28,7 @@ describe("navigation by role", () => {
   it("signing out ends the session on the server and returns to sign-in", async () => {
     let session = true;
     const api = fakeApi({
-      "GET /api/auth/me": () => (session ? signedInAs("analyst") : signedOut),
+      "GET /api/auth/session": () => (session ? signedInAs("analyst") : signedOut),
       "POST /api/auth/logout": () => {
         session = false;
         return { status: 204 };
@@ -46,7 +46,7 @@ describe("navigation by role", () => {
   });
 
   it("every screen carries the caution that figures are decision support", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("cro"), "GET /api/entities": { status: 200, body: [] } });
+    fakeApi({ "GET /api/auth/session": signedInAs("cro"), "GET /api/entities": { status: 200, body: [] } });
     renderApp("/");
     expect(await screen.findByText(/Figures are decision support\./)).toBeInTheDocument();
   });

@@ -3,8 +3,8 @@ import { fakeApi, signedInAs, signedOut } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 describe("route guard", () => {
-  it("when /api/auth/me answers 401, then a protected page sends the reader to sign-in and remembers the way back", async () => {
-    const api = fakeApi({ "GET /api/auth/me": signedOut });
+  it("when nobody is signed in, then a protected page sends the reader to sign-in and remembers the way back", async () => {
+    const api = fakeApi({ "GET /api/auth/session": signedOut });
 
     const { router } = renderApp("/admin/users?x=1");
 
@@ -16,7 +16,7 @@ describe("route guard", () => {
   });
 
   it("when the signed-in role may not open a page, then it says so instead of showing it", async () => {
-    const api = fakeApi({ "GET /api/auth/me": signedInAs("analyst") });
+    const api = fakeApi({ "GET /api/auth/session": signedInAs("analyst") });
 
     renderApp("/admin/audit");
 
@@ -26,7 +26,7 @@ describe("route guard", () => {
   });
 
   it("when the address matches no screen, then a not-found page offers the way back", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("cro") });
+    fakeApi({ "GET /api/auth/session": signedInAs("cro") });
 
     renderApp("/no/such/page");
 
@@ -38,7 +38,7 @@ describe("route guard", () => {
 describe("session ending mid-use", () => {
   it("when the API answers 401 to a screen's data, then the reader is sent to sign-in with the way back", async () => {
     fakeApi({
-      "GET /api/auth/me": signedInAs("admin"),
+      "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 401, body: { error: { code: "unauthorized", message: "Sign in to continue." } } },
     });
 

@@ -5,7 +5,7 @@ import { renderApp } from "./support/render-app";
 
 describe("sign-in", () => {
   it("when the e-mail is left empty, then the field says so beside it and nothing is sent", async () => {
-    const api = fakeApi({ "GET /api/auth/me": signedOut });
+    const api = fakeApi({ "GET /api/auth/session": signedOut });
     const user = userEvent.setup();
     renderApp("/sign-in");
 
@@ -19,7 +19,7 @@ describe("sign-in", () => {
 
   it("when the server answers 401, then its message is shown for the whole form", async () => {
     const api = fakeApi({
-      "GET /api/auth/me": signedOut,
+      "GET /api/auth/session": signedOut,
       "POST /api/auth/login": { status: 401, body: { error: { code: "invalid_credentials", message: "E-mail or password is not right." } } },
     });
     const user = userEvent.setup();
@@ -36,7 +36,7 @@ describe("sign-in", () => {
 
   it("when there were too many attempts (429), then the server's message says to wait", async () => {
     fakeApi({
-      "GET /api/auth/me": signedOut,
+      "GET /api/auth/session": signedOut,
       "POST /api/auth/login": { status: 429, body: { error: { code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." } } },
     });
     const user = userEvent.setup();
@@ -50,7 +50,7 @@ describe("sign-in", () => {
   });
 
   it("when the password is over 72 bytes, then the field refuses it before anything is sent", async () => {
-    const api = fakeApi({ "GET /api/auth/me": signedOut });
+    const api = fakeApi({ "GET /api/auth/session": signedOut });
     const user = userEvent.setup();
     renderApp("/sign-in");
 
@@ -65,7 +65,7 @@ describe("sign-in", () => {
   it("when sign-in succeeds, then the reader lands where they were going", async () => {
     let signedIn = false;
     fakeApi({
-      "GET /api/auth/me": () => (signedIn ? { status: 200, body: { user } } : signedOut),
+      "GET /api/auth/session": () => (signedIn ? { status: 200, body: { user } } : signedOut),
       "POST /api/auth/login": () => {
         signedIn = true;
         return { status: 200, body: { user } };
@@ -86,7 +86,7 @@ describe("sign-in", () => {
   });
 
   it("when someone is already signed in, then the page says who and still lets another person sign in", async () => {
-    fakeApi({ "GET /api/auth/me": signedInAs("cro", "Cora Rowe") });
+    fakeApi({ "GET /api/auth/session": signedInAs("cro", "Cora Rowe") });
     renderApp("/sign-in");
 
     expect(await screen.findByText(/You are signed in as Cora Rowe \(Chief risk officer\)/)).toBeInTheDocument();

@@ -144,3 +144,13 @@ describe("sign-in rate limits", () => {
     expect(res.status).toBe(429);
   });
 });
+
+describe("the session probe", () => {
+  it("when nobody is signed in, then 200 with user null; when signed in, then the user", async () => {
+    expect((await request(app).get("/api/auth/session")).body).toEqual({ user: null });
+    const user = await createTestUser("treasury");
+    const res = await request(app).get("/api/auth/session").set("Cookie", await sessionCookieFor(user.id));
+    expect(res.status).toBe(200);
+    expect(res.body.user).toMatchObject({ id: user.id, role: "treasury" });
+  });
+});

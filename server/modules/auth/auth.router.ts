@@ -53,5 +53,10 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
     res.json({ user: signedInActor(req).user });
   });
 
+  // The client's "who is signed in?" probe: 200 either way (no 401 noise on a first visit).
+  r.get("/api/auth/session", (req, res) => {
+    res.json({ user: req.user ?? null });
+  });
+
   return r.router;
 }

@@ -36,7 +36,8 @@ export function fakeApi(routes: Record<string, Handler>) {
   };
 }
 
-export const signedOut: Reply = { status: 401, body: { error: { code: "unauthenticated", message: "Sign in first." } } };
+/** What the session probe answers when nobody is signed in. */
+export const signedOut: Reply = { status: 200, body: { user: null } };
 
 export function signedInAs(role: "admin" | "analyst" | "cro" | "treasury" | "regulator", name = "Test Person"): Reply {
   return { status: 200, body: { user: { id: 7, email: `${role}@larkspur.test`, name, role } } };

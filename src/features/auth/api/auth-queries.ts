@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import { meResponseSchema, type LoginBody, type SessionUser } from "@shared/schemas/auth";
-import { api, isApiError } from "@/lib/api-client";
+import { meResponseSchema, sessionResponseSchema, type LoginBody, type SessionUser } from "@shared/schemas/auth";
+import { api } from "@/lib/api-client";
 
 export const authQueries = {
   all: () => ["auth"] as const,
@@ -9,13 +9,8 @@ export const authQueries = {
     queryOptions({
       queryKey: [...authQueries.all(), "me"] as const,
       queryFn: async (): Promise<SessionUser | null> => {
-        try {
-          const { user } = await api.get("/api/auth/me", meResponseSchema);
-          return user;
-        } catch (e) {
-          if (isApiError(e) && e.status === 401) return null;
-          throw e;
-        }
+        const { user } = await api.get("/api/auth/session", sessionResponseSchema);
+        return user;
       },
       // Changes only through sign-in and sign-out, which write it themselves.
       staleTime: Infinity,

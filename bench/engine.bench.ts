@@ -14,7 +14,7 @@ import { toSeries, type ObservationSeries } from "../shared/backtest/window";
 const PORTFOLIOS = 100;
 const DAYS = 5000;
 const WINDOW = 250;
-const RUNS = 31;
+const RUNS = 61;
 const WARMUP = 8;
 const FORECAST_RUNS = 51;
 

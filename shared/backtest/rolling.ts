@@ -180,11 +180,13 @@ function countPlain(s: ObservationSeries, w: number, arena: Arena, fused: FusedO
     const xh = -ph[i] > v ? 1 : 0;
     ha[i] = xa;
     hh[i] = xh;
-    a += xa;
-    h += xh;
+    // The day w observations back leaves the window as this one enters.
     if (i >= w) {
-      a -= ha[i - w];
-      h -= hh[i - w];
+      a += xa - ha[i - w];
+      h += xh - hh[i - w];
+    } else {
+      a += xa;
+      h += xh;
     }
     ca[i] = a;
     ch[i] = h;

@@ -179,6 +179,7 @@ export function backtestAt(observations: readonly Observation[], opts: BacktestO
     basis === "max" ? (netHypothetical > netActual ? "hypothetical" : "actual") : basis;
   const testsBySeries = { actual: runTests(hitsActual, p), hypothetical: runTests(hitsHypothetical, p) };
   const n = bounds.observations;
+  // A short (provisional) window is zoned with the full window's table and flagged complete: false.
   const zone = zoneFor(counted, rules, windowSize);
 
   return {

@@ -16,6 +16,8 @@ import { auditRouter } from "./modules/audit/audit.router";
 import { uploadsRouter } from "./modules/uploads/uploads.router";
 import { observationsRouter } from "./modules/observations/observations.router";
 import { findingsRouter } from "./modules/findings/findings.router";
+import { backtestRouter } from "./modules/backtest/backtest.router";
+import { reviewsRouter } from "./modules/exceptions/reviews.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -77,6 +79,8 @@ export function createApp(options: AppOptions = {}) {
   app.use(uploadsRouter());
   app.use(observationsRouter());
   app.use(findingsRouter());
+  app.use(backtestRouter());
+  app.use(reviewsRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

@@ -106,6 +106,16 @@ function lostConnection(err: unknown): boolean {
   });
 }
 
+/** Two writers collided on the same row: a unique key taken a moment ago, or a deadlock the database broke. */
+export function isWriteConflict(err: unknown): boolean {
+  if (err instanceof UniqueConstraintError) return true;
+  const chain = [err, (err as { parent?: unknown })?.parent, (err as { original?: unknown })?.original];
+  return chain.some((e) => {
+    const x = e as { errno?: number; code?: string } | undefined;
+    return !!x && (x.errno === 1213 || x.errno === 1205 || x.code === "ER_LOCK_DEADLOCK" || x.code === "ER_LOCK_WAIT_TIMEOUT");
+  });
+}
+
 function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
   if (err instanceof multer.MulterError) {
@@ -116,6 +126,7 @@ function toAppError(err: unknown): AppError {
   if (err instanceof ZodError) return new ValidationError(err);
   if (err instanceof ConnectionError) return new ServiceUnavailableError();
   if (err instanceof UniqueConstraintError) return new ConflictError("A record with the same key already exists.");
+  if (isWriteConflict(err)) return new ConflictError("Someone else was changing the same record at the same moment. Reload and try again.");
   if (err instanceof ForeignKeyConstraintError) return new ConflictError("This record is still referenced by others.");
   if (err instanceof BaseError && /ECONNREFUSED|connect|Connection/i.test(err.message)) return new ServiceUnavailableError();
   const e = err as { type?: string; status?: number; message?: string };

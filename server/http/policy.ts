@@ -51,6 +51,15 @@ export const POLICY = {
   "GET /api/portfolios/:code/observations": ["analyst", "cro"],
   "GET /api/findings": ["analyst", "cro"],
   "PUT /api/findings/:id": ["analyst"],
+
+  // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
+  "GET /api/overview": ["analyst", "cro"],
+  "GET /api/portfolios/:code/backtest": ["analyst", "cro"],
+  "GET /api/portfolios/:code/rolling": ["analyst", "cro"],
+  "PUT /api/portfolios/:code/exceptions/:date/review": ["analyst"],
+  "PUT /api/portfolios/:code/exceptions/:date/decision": ["cro"],
+  "POST /api/portfolios/:code/exceptions/:date/evidence": ["analyst"],
+  "GET /api/evidence/:id": ["analyst", "cro"],
 } as const satisfies Record<string, Access>;
 
 export type RouteKey = keyof typeof POLICY;

@@ -1,0 +1,163 @@
+import { z } from "zod";
+import { isoDateSchema, pnlBasisSchema, regimeSchema } from "./common";
+
+export const exceptionCauseSchema = z.enum(["market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"]);
+export type ExceptionCause = z.infer<typeof exceptionCauseSchema>;
+export const exclusionStatusSchema = z.enum(["none", "requested", "approved", "rejected"]);
+export type ExclusionStatus = z.infer<typeof exclusionStatusSchema>;
+export const zoneSchema = z.enum(["green", "yellow", "red"]);
+
+// ---- requests ----
+export const backtestQuerySchema = z.object({ asOf: isoDateSchema.optional() });
+export const rollingQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
+export const exceptionParamSchema = z.object({
+  code: z.string().trim().min(1).max(40).transform((s) => s.toUpperCase()),
+  date: isoDateSchema,
+});
+
+/** The analyst's review of one exception; `version` is the one they saw (0 or absent for a first review). */
+export const reviewBodySchema = z.strictObject({
+  cause: exceptionCauseSchema,
+  narrative: z.string().trim().min(10, "Explain the exception in at least a sentence (10 characters or more)").max(4000),
+  exclusion: z.boolean(),
+  version: z.number().int().min(0).optional(),
+});
+export type ReviewBody = z.infer<typeof reviewBodySchema>;
+
+/** The CRO records what the supervisor decided about an exclusion request. */
+export const decisionBodySchema = z.strictObject({
+  decision: z.enum(["approved", "rejected"]),
+  reference: z.string().trim().min(1, "Give the supervisor's reference for the decision").max(120),
+  decidedOn: isoDateSchema,
+  version: z.number().int().positive(),
+});
+export type DecisionBody = z.infer<typeof decisionBodySchema>;
+
+// ---- responses ----
+export const evidenceSchema = z.object({
+  id: z.number().int(),
+  fileName: z.string(),
+  contentType: z.string(),
+  sizeBytes: z.number().int(),
+  sha256: z.string(),
+  uploadedBy: z.string(),
+  uploadedAt: z.string(),
+});
+export type Evidence = z.infer<typeof evidenceSchema>;
+
+export const reviewSchema = z.object({
+  date: z.string(),
+  cause: exceptionCauseSchema,
+  narrative: z.string(),
+  exclusionStatus: exclusionStatusSchema,
+  decisionReference: z.string().nullable(),
+  decisionDate: z.string().nullable(),
+  decidedBy: z.string().nullable(),
+  reviewedBy: z.string(),
+  reviewedAt: z.string(),
+  version: z.number().int(),
+  evidence: z.array(evidenceSchema),
+});
+export type Review = z.infer<typeof reviewSchema>;
+
+const testOutcomeSchema = z.object({ statistic: z.number(), pValue: z.number(), reject: z.boolean(), verdict: z.string() });
+const seriesTestsSchema = z.object({ kupiec: testOutcomeSchema, independence: testOutcomeSchema, conditionalCoverage: testOutcomeSchema });
+
+export const exceptionDaySchema = z.object({
+  date: z.string(),
+  actualPnl: z.number().nullable(),
+  hypotheticalPnl: z.number().nullable(),
+  var99: z.number().nullable(),
+  actual: z.boolean(),
+  hypothetical: z.boolean(),
+  excluded: z.boolean(),
+  missing: z.boolean(),
+  excessActual: z.number().nullable(),
+  excessHypothetical: z.number().nullable(),
+  review: reviewSchema.nullable(),
+});
+export type ExceptionDayDto = z.infer<typeof exceptionDaySchema>;
+
+export const rollOffSchema = z.object({
+  date: z.string(),
+  actual: z.boolean(),
+  hypothetical: z.boolean(),
+  leavesOn: z.string(),
+  countAfter: z.number().int(),
+  zoneAfter: zoneSchema,
+  plusFactorAfter: z.number(),
+});
+export type RollOffDto = z.infer<typeof rollOffSchema>;
+
+export const deskResultSchema = z.object({
+  portfolio: z.string(),
+  name: z.string(),
+  backtest: z.object({
+    window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int(), complete: z.boolean() }),
+    at99: z.object({ actual: z.number().int(), hypothetical: z.number().int(), count: z.number().int(), limit: z.number().int(), fails: z.boolean() }),
+    at975: z.object({ actual: z.number().int(), hypothetical: z.number().int(), count: z.number().int(), limit: z.number().int(), fails: z.boolean() }),
+    passes: z.boolean(),
+  }),
+  pla: z.object({ spearman: z.number(), ks: z.number(), zone: z.enum(["green", "amber", "red"]), observations: z.number().int() }).nullable(),
+  plaUnavailable: z.string().nullable(),
+});
+export type DeskResult = z.infer<typeof deskResultSchema>;
+
+export const backtestResponseSchema = z.object({
+  portfolio: z.object({ code: z.string(), name: z.string(), level: z.enum(["top", "desk"]) }),
+  entity: z.object({ code: z.string(), name: z.string(), currency: z.string() }),
+  regime: regimeSchema,
+  pnlBasis: pnlBasisSchema,
+  asOf: z.string(),
+  latestDate: z.string(),
+  window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int(), complete: z.boolean() }),
+  exceptions: z.object({ actual: z.number().int(), hypothetical: z.number().int(), counted: z.number().int(), excluded: z.number().int() }),
+  zone: zoneSchema,
+  zoneLabel: z.string(),
+  plusFactor: z.number(),
+  multiplier: z.number(),
+  expected: z.number(),
+  tests: z.object({ cumulativeProbability: z.number() }).and(seriesTestsSchema),
+  testsBySeries: z.object({ actual: seriesTestsSchema, hypothetical: seriesTestsSchema }),
+  testedSeries: z.enum(["actual", "hypothetical"]),
+  exceptionDays: z.array(exceptionDaySchema),
+  dataGaps: z.array(z.string()),
+  provisionalBoundaries: z.boolean(),
+  rollOffs: z.array(rollOffSchema),
+  desks: z.array(deskResultSchema),
+  engineVersion: z.string(),
+});
+export type BacktestResponse = z.infer<typeof backtestResponseSchema>;
+
+export const rollingRowSchema = z.object({
+  date: z.string(),
+  actual: z.number().int(),
+  hypothetical: z.number().int(),
+  counted: z.number().int(),
+  zone: zoneSchema,
+  plusFactor: z.number(),
+  complete: z.boolean(),
+});
+export const rollingResponseSchema = z.array(rollingRowSchema);
+export type RollingRowDto = z.infer<typeof rollingRowSchema>;
+
+export const overviewItemSchema = z.object({
+  entity: z.string(),
+  name: z.string(),
+  regime: regimeSchema,
+  currency: z.string(),
+  portfolio: z.string().nullable(),
+  asOf: z.string().nullable(),
+  complete: z.boolean(),
+  zone: zoneSchema.nullable(),
+  zoneLabel: z.string().nullable(),
+  counted: z.number().int().nullable(),
+  plusFactor: z.number().nullable(),
+  multiplier: z.number().nullable(),
+  addOn: z.number().nullable(),
+  nextRollOff: rollOffSchema.nullable(),
+  openReviews: z.number().int(),
+  openFindings: z.number().int(),
+});
+export type OverviewItem = z.infer<typeof overviewItemSchema>;
+export const overviewResponseSchema = z.array(overviewItemSchema);

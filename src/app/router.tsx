@@ -60,6 +60,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           ...screen(queryClient, null, () => import("./routes/app-layout")),
           children: [
             { index: true, ...screen(queryClient, "overview", () => import("./routes/overview")) },
+            { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
             { path: relative(paths.adminUsers.path), ...screen(queryClient, "adminUsers", () => import("./routes/admin/users")) },
             { path: relative(paths.adminEntities.path), ...screen(queryClient, "adminEntities", () => import("./routes/admin/entities")) },
             { path: relative(paths.adminEntity.path), ...screen(queryClient, "adminEntity", () => import("./routes/admin/entity")) },

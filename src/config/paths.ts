@@ -2,6 +2,7 @@ import type { Role } from "@shared/schemas/common";
 
 export const allRoles: readonly Role[] = ["analyst", "cro", "treasury", "regulator", "admin"];
 const adminOnly: readonly Role[] = ["admin"];
+const dataReaders: readonly Role[] = ["analyst", "cro"];
 
 export type AppPath = {
   /** The route pattern as React Router reads it. */
@@ -22,6 +23,20 @@ export const paths = {
       redirectTo && redirectTo !== "/" ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : "/sign-in",
   },
   overview: { path: "/", roles: allRoles, label: "Overview", href: () => "/" },
+  data: {
+    path: "/data",
+    roles: dataReaders,
+    label: "Data",
+    /** `upload` opens that upload's preview; findings default to open ones, `status: "all"` shows every status. */
+    href: (q?: { upload?: number; entity?: string; status?: "open" | "resolved" | "explained" | "all" }) => {
+      const s = new URLSearchParams();
+      if (q?.upload) s.set("upload", String(q.upload));
+      if (q?.entity) s.set("entity", q.entity);
+      if (q?.status && q.status !== "open") s.set("status", q.status);
+      const qs = s.toString();
+      return qs ? `/data?${qs}` : "/data";
+    },
+  },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
   adminEntity: {
@@ -55,6 +70,7 @@ export type PathKey = keyof typeof paths;
 /** Navigation entries in display order; each shows only for the roles of its path. */
 export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = [
   { key: "overview", group: "main" },
+  { key: "data", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },
   { key: "adminAssignments", group: "admin" },

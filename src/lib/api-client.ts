@@ -102,6 +102,8 @@ export const api = {
     request("POST", path, body, schema as S),
   patch: <S extends z.ZodType | undefined = undefined>(path: string, body: unknown, schema?: S) =>
     request("PATCH", path, body, schema as S),
+  put: <S extends z.ZodType | undefined = undefined>(path: string, body: unknown, schema?: S) =>
+    request("PUT", path, body, schema as S),
   del: (path: string) => request("DELETE", path, undefined, undefined),
 };
 

@@ -1,0 +1,61 @@
+import { keepPreviousData, queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { commitResultSchema, uploadListSchema, uploadPreviewSchema, uploadRowsPageSchema } from "@shared/schemas/upload";
+import { api, withQuery } from "@/lib/api-client";
+import { findingQueries } from "./finding-queries";
+
+/** The empty file with the header row and two example days; a plain download. */
+export const TEMPLATE_URL = "/api/uploads/template.csv";
+
+/** Rows of the file shown per page of the preview table (the server allows up to 500). */
+export const PREVIEW_PAGE_SIZE = 100;
+
+export type UploadRowsParams = { offset: number; limit: number; invalidOnly: boolean };
+
+export const uploadQueries = {
+  root: () => ["uploads"] as const,
+  list: () =>
+    queryOptions({
+      queryKey: [...uploadQueries.root(), "list"] as const,
+      queryFn: () => api.get("/api/uploads", uploadListSchema),
+      staleTime: 10_000,
+    }),
+  detail: (id: number) =>
+    queryOptions({
+      queryKey: [...uploadQueries.root(), "detail", id] as const,
+      queryFn: () => api.get(`/api/uploads/${id}`, uploadPreviewSchema),
+    }),
+  rows: (id: number, { offset, limit, invalidOnly }: UploadRowsParams) =>
+    queryOptions({
+      queryKey: [...uploadQueries.root(), "detail", id, "rows", { offset, limit, invalidOnly }] as const,
+      queryFn: () => api.get(withQuery(`/api/uploads/${id}/rows`, { offset, limit, invalidOnly: String(invalidOnly) }), uploadRowsPageSchema),
+      placeholderData: keepPreviousData,
+      // A file's rows never change once uploaded.
+      staleTime: Infinity,
+    }),
+};
+
+/** The first page a preview opens on: only the rows with errors when there are any. */
+export function firstRowsPage(invalid: number): UploadRowsParams {
+  return { offset: 0, limit: PREVIEW_PAGE_SIZE, invalidOnly: invalid > 0 };
+}
+
+export function useCommitUpload() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => api.post(`/api/uploads/${id}/commit`, undefined, commitResultSchema),
+    // Committed rows change the history and can open or close data-quality findings.
+    onSuccess: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: uploadQueries.root() }),
+        queryClient.invalidateQueries({ queryKey: findingQueries.root() }),
+      ]),
+  });
+}
+
+export function useDiscardUpload() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => api.del(`/api/uploads/${id}`),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: uploadQueries.root() }),
+  });
+}

@@ -1,0 +1,153 @@
+import { useId, useState, type ReactNode } from "react";
+import type { CommitResult, UploadPreview } from "@shared/schemas/upload";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/field";
+import { isApiError } from "@/lib/api-client";
+import { formatDateTime } from "@/lib/format";
+import { cn } from "@/lib/cn";
+import { firstRowsPage, useCommitUpload, useDiscardUpload } from "../api/upload-queries";
+import { formatCount, plural, shortSha, uploadStatusLabels } from "../words";
+import { PreviewRowsTable } from "./preview-rows-table";
+
+function Figure({ label, value, tone }: { label: string; value: number; tone?: "bad" }) {
+  return (
+    <div className="flex flex-col">
+      <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
+      <dd className={cn("figures text-right text-base font-medium", tone === "bad" && value > 0 ? "text-danger" : "text-ink")}>
+        {tone === "bad" && value > 0 && (
+          <span aria-hidden="true" className="mr-1 text-xs">
+            ▲
+          </span>
+        )}
+        {formatCount(value)}
+      </dd>
+    </div>
+  );
+}
+
+function Fact({ label, children }: { label: string; children: ReactNode }) {
+  return (
+    <div className="flex flex-col">
+      <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
+      <dd className="text-sm">{children}</dd>
+    </div>
+  );
+}
+
+function Fingerprint({ sha256 }: { sha256: string }) {
+  const [copied, setCopied] = useState<"yes" | "no">();
+  async function copy() {
+    try {
+      await navigator.clipboard.writeText(sha256);
+      setCopied("yes");
+    } catch {
+      setCopied("no");
+    }
+  }
+  return (
+    <span className="inline-flex flex-wrap items-baseline gap-x-2">
+      <code className="text-xs" title={sha256}>
+        {shortSha(sha256)}…
+      </code>
+      <Button variant="quiet" size="sm" className="h-auto!" onClick={copy} aria-label="Copy the full SHA-256 of the file">
+        Copy
+      </Button>
+      <span role="status" className="text-2xs text-ink-muted">
+        {copied === "yes" ? "Copied" : ""}
+      </span>
+      {copied === "no" && <code className="text-2xs break-all select-all">{sha256}</code>}
+    </span>
+  );
+}
+
+function committedLine(r: CommitResult): string {
+  return `Upload #${r.id} is committed: ${plural(r.inserted, "new day", "new days")} written, ${plural(r.restated, "day", "days")} restated (earlier versions kept), ${formatCount(r.unchanged)} unchanged.`;
+}
+
+/** One upload: its figures, its rows with the errors in place, and what may be done with it. */
+export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { preview: UploadPreview; canChange: boolean; onDiscarded: () => void }) {
+  const commit = useCommitUpload();
+  const discard = useDiscardUpload();
+  const [askDiscard, setAskDiscard] = useState(false);
+  const blockedId = useId();
+  const p = preview;
+  const pending = p.status === "preview";
+  const busy = commit.isPending || discard.isPending;
+  const actionError = commit.error ?? discard.error;
+  const range = p.from && p.to ? (p.from === p.to ? p.from : `${p.from} to ${p.to}`) : "—";
+
+  return (
+    <section aria-labelledby="preview-title" className="flex flex-col gap-3 border-t border-rule pt-4">
+      <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
+        <h2 id="preview-title">
+          Upload #{p.id} <span className="font-normal text-ink-soft">· {p.fileName}</span>
+        </h2>
+        <span className={cn("text-xs font-medium", pending ? "text-accent" : "text-ink-muted")}>{uploadStatusLabels[p.status]}</span>
+        <span className="text-xs text-ink-muted">
+          by {p.uploadedBy}, {formatDateTime(p.uploadedAt)}
+          {p.committedAt && ` · committed ${formatDateTime(p.committedAt)}`}
+        </span>
+      </div>
+
+      <dl aria-label="Summary of the file" className="flex flex-wrap gap-x-8 gap-y-2 border-y border-rule py-2">
+        <Figure label="Rows" value={p.rows} />
+        <Figure label="Valid" value={p.valid} />
+        <Figure label="With errors" value={p.invalid} tone="bad" />
+        <Figure label="New days" value={p.newRows} />
+        <Figure label="Restatements" value={p.restatements} />
+        <Figure label="Unchanged" value={p.unchanged} />
+        <Fact label="Portfolios">{p.portfolios.length > 0 ? p.portfolios.join(", ") : "—"}</Fact>
+        <Fact label="Business dates">
+          <span className="figures">{range}</span>
+        </Fact>
+        <Fact label="SHA-256">
+          <Fingerprint sha256={p.sha256} />
+        </Fact>
+      </dl>
+
+      {p.invalid > 0 && (
+        <p className="text-sm text-ink-soft">
+          {plural(p.invalid, "row has", "rows have")} {plural(p.errorCount, "problem", "problems")} in total; each is written under its cell below.
+        </p>
+      )}
+
+      {commit.data && <FormMessage tone="done">{committedLine(commit.data)}</FormMessage>}
+      <FormMessage>{actionError ? (isApiError(actionError) ? actionError.message : "The change could not be saved.") : undefined}</FormMessage>
+
+      {canChange && pending && (
+        <div className="flex flex-wrap items-center gap-3">
+          <Button disabled={p.invalid > 0 || busy} aria-describedby={p.invalid > 0 ? blockedId : undefined} onClick={() => commit.mutate(p.id)}>
+            {commit.isPending ? "Committing…" : `Commit ${formatCount(p.valid)} ${p.valid === 1 ? "row" : "rows"}`}
+          </Button>
+          {askDiscard ? (
+            <span className="flex items-center gap-2 text-sm">
+              Discard this preview? Nothing of it is kept.
+              <Button variant="danger" size="sm" disabled={busy} onClick={() => discard.mutate(p.id, { onSuccess: onDiscarded })}>
+                {discard.isPending ? "Discarding…" : "Yes, discard"}
+              </Button>
+              <Button variant="quiet" size="sm" onClick={() => setAskDiscard(false)}>
+                Keep it
+              </Button>
+            </span>
+          ) : (
+            <Button variant="secondary" disabled={busy} onClick={() => setAskDiscard(true)}>
+              Discard
+            </Button>
+          )}
+          {p.invalid > 0 && (
+            <p id={blockedId} className="basis-full text-sm text-danger">
+              Nothing can be committed while {plural(p.invalid, "row has", "rows have")} errors. Fix them in the file and upload it again.
+            </p>
+          )}
+        </div>
+      )}
+      {!canChange && pending && <p className="text-sm text-ink-muted">This preview waits for an analyst to commit or discard it.</p>}
+
+      {p.status === "discarded" ? (
+        <p className="text-sm text-ink-muted">This preview was discarded; its rows are no longer kept and nothing of it was written.</p>
+      ) : (
+        <PreviewRowsTable key={p.id} uploadId={p.id} initial={firstRowsPage(p.invalid)} />
+      )}
+    </section>
+  );
+}

@@ -127,6 +127,25 @@ describe("Data › data-quality findings", () => {
     expect(await screen.findByText("No open findings")).toBeInTheDocument();
   });
 
+  it("a long list is read fifty at a time and narrowed to one kind on the page", async () => {
+    const many = Array.from({ length: 60 }, (_, i) => finding(i + 1, { kind: i < 55 ? "stale_var" : "outlier" }));
+    fakeApi(routes(() => ({ status: 200, body: many })));
+    const user = userEvent.setup();
+    renderApp("/data");
+
+    const rows = () => within(screen.getByRole("table", { name: "Data-quality findings" })).getAllByRole("row").length - 1;
+    expect(await screen.findByText("1–50 of 60")).toBeInTheDocument();
+    expect(rows()).toBe(50);
+    await user.click(screen.getByRole("button", { name: "Next 50" }));
+    expect(screen.getByText("51–60 of 60")).toBeInTheDocument();
+    expect(rows()).toBe(10);
+
+    await user.selectOptions(screen.getByLabelText("What"), "outlier");
+    expect(screen.getByText("60 open · 5 outlier", { exact: false })).toBeInTheDocument();
+    expect(rows()).toBe(5);
+    expect(screen.queryByRole("navigation", { name: "Pages of findings" })).not.toBeInTheDocument();
+  });
+
   it("the chief risk officer reads the findings with their notes but cannot close them", async () => {
     fakeApi(
       routes(

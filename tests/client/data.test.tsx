@@ -160,6 +160,8 @@ describe("Data › upload preview", () => {
     const table = screen.getByRole("table", { name: "Rows of the uploaded file" });
     const lines = () => within(table).getAllByRole("row").slice(1).map((r) => (r as HTMLTableRowElement).cells[0].textContent);
     expect(lines()).toEqual(["3", "2"]);
+    // Clean amounts read with separators; the cell with the problem keeps the file's text.
+    expect(within(table).getByRole("cell", { name: "310,000.00" })).toBeInTheDocument();
     await user.click(within(table).getByRole("button", { name: /Line/ }));
     expect(lines()).toEqual(["2", "3"]);
 

@@ -39,6 +39,9 @@ export function firstRowsPage(invalid: number): UploadRowsParams {
   return { offset: 0, limit: PREVIEW_PAGE_SIZE, invalidOnly: invalid > 0 };
 }
 
+/** Everything about uploads except the rows of a file, which never change once uploaded (and are gone after a discard). */
+const allButRows = { queryKey: uploadQueries.root(), predicate: (q: { queryKey: readonly unknown[] }) => q.queryKey[3] !== "rows" };
+
 export function useCommitUpload() {
   const queryClient = useQueryClient();
   return useMutation({
@@ -46,7 +49,7 @@ export function useCommitUpload() {
     // Committed rows change the history and can open or close data-quality findings.
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: uploadQueries.root() }),
+        queryClient.invalidateQueries(allButRows),
         queryClient.invalidateQueries({ queryKey: findingQueries.root() }),
       ]),
   });
@@ -56,6 +59,6 @@ export function useDiscardUpload() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: number) => api.del(`/api/uploads/${id}`),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: uploadQueries.root() }),
+    onSuccess: () => queryClient.invalidateQueries(allButRows),
   });
 }

@@ -1,6 +1,6 @@
 import { Fragment, useId, useRef, useState, type FormEvent } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { closeFindingBodySchema, type Finding } from "@shared/schemas/upload";
+import { closeFindingBodySchema, findingKindSchema, type Finding, type FindingKind } from "@shared/schemas/upload";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
@@ -12,6 +12,9 @@ import { findingQueries, useCloseFinding, type FindingFilters } from "../api/fin
 import { findingKindLabels, findingStatusLabels, formatCount } from "../words";
 
 type Closing = "resolved" | "explained";
+
+/** Findings drawn per page; the server sends the whole list for the filter. */
+const FINDINGS_PAGE = 50;
 
 function CloseFindingForm({
   finding,
@@ -108,7 +111,14 @@ export function FindingsPanel({
   const [open, setOpen] = useState<{ id: number; as: Closing } | null>(null);
   const [notice, setNotice] = useState<string>();
   const [conflict, setConflict] = useState<string>();
-  const list = findings ?? [];
+  const [kind, setKind] = useState<FindingKind | "">("");
+  const filterKey = `${filters.entity ?? ""}|${filters.status ?? ""}|${kind}`;
+  const [paging, setPaging] = useState({ key: filterKey, page: 0 });
+  const page = paging.key === filterKey ? paging.page : 0;
+  const all = findings ?? [];
+  const matching = kind ? all.filter((f) => f.kind === kind) : all;
+  const pages = Math.max(1, Math.ceil(matching.length / FINDINGS_PAGE));
+  const list = matching.slice(page * FINDINGS_PAGE, (page + 1) * FINDINGS_PAGE);
   const columns = canClose ? 8 : 7;
 
   const statusWord = filters.status ? findingStatusLabels[filters.status].toLowerCase() : "";
@@ -119,7 +129,8 @@ export function FindingsPanel({
       <div className="flex flex-wrap items-baseline justify-between gap-4">
         <h2 id="findings-title">Data-quality findings</h2>
         <p className="figures text-sm text-ink-muted" aria-live="polite">
-          {findings ? `${formatCount(list.length)} ${statusWord || "in all"}${where}` : ""}
+          {findings ? `${formatCount(all.length)} ${statusWord || "in all"}${where}` : ""}
+          {findings && kind ? ` · ${formatCount(matching.length)} ${findingKindLabels[kind].toLowerCase()}` : ""}
           {isFetching && " · loading…"}
         </p>
       </div>
@@ -147,11 +158,21 @@ export function FindingsPanel({
           <option value="explained">Explained</option>
           <option value="all">Any status</option>
         </SelectField>
+        <SelectField label="What" value={kind} onChange={(e) => setKind(findingKindSchema.safeParse(e.target.value).data ?? "")} className="w-56">
+          <option value="">Every kind</option>
+          {findingKindSchema.options.map((k) => (
+            <option key={k} value={k}>
+              {findingKindLabels[k]}
+            </option>
+          ))}
+        </SelectField>
       </div>
       <FormMessage tone="done">{notice}</FormMessage>
       <FormMessage>{conflict}</FormMessage>
       <FormMessage>{error ? (isApiError(error) ? error.message : "The findings could not load.") : undefined}</FormMessage>
-      {findings && list.length === 0 ? (
+      {findings && all.length > 0 && matching.length === 0 ? (
+        <EmptyState title={`No ${findingKindLabels[kind as FindingKind].toLowerCase()} findings here`}>Choose “Every kind” to see the other findings.</EmptyState>
+      ) : findings && list.length === 0 ? (
         filters.status === "open" ? (
           <EmptyState title={`No open findings${where}`}>
             The stored data has no gaps, stale VaR, one-sided days or outliers to look at. New checks run after the next commit; choose “Any
@@ -255,6 +276,19 @@ export function FindingsPanel({
               ))}
             </tbody>
           </Table>
+          {pages > 1 && (
+            <nav aria-label="Pages of findings" className="mt-2 flex items-center gap-3 text-sm">
+              <Button variant="secondary" size="sm" disabled={page === 0} onClick={() => setPaging({ key: filterKey, page: page - 1 })}>
+                Previous {FINDINGS_PAGE}
+              </Button>
+              <span className="figures text-ink-muted">
+                {formatCount(page * FINDINGS_PAGE + 1)}–{formatCount(page * FINDINGS_PAGE + list.length)} of {formatCount(matching.length)}
+              </span>
+              <Button variant="secondary" size="sm" disabled={page + 1 >= pages} onClick={() => setPaging({ key: filterKey, page: page + 1 })}>
+                Next {FINDINGS_PAGE}
+              </Button>
+            </nav>
+          )}
         </div>
       ) : null}
     </section>

@@ -30,6 +30,13 @@ const portfolioOrDate: FilterFn<FileRow> = (row, _columnId, value: string) => {
   return `${row.original.cells.portfolio ?? ""} ${row.original.cells.date ?? ""}`.toLowerCase().includes(q);
 };
 
+/** A plain decimal as written, with thousands separators and its own decimals (string work: no rounding). */
+function groupThousands(text: string): string {
+  const m = /^(-?)(\d+)(\.\d+)?$/.exec(text.trim());
+  if (!m) return text;
+  return `${m[1]}${m[2].replace(/\B(?=(\d{3})+(?!\d))/g, ",")}${m[3] ?? ""}`;
+}
+
 function ErrorMarker() {
   return (
     <span aria-hidden="true" className="mr-1 inline-flex size-3.5 items-center justify-center rounded-full bg-danger text-[0.6rem] leading-none font-bold text-paper-raised">
@@ -70,7 +77,8 @@ function columnsFor(fileColumns: string[]): ColumnDef<FileRow>[] {
       cell: ({ row, getValue }) => {
         const problems = row.original.errors.filter((e) => e.column === c);
         const value = String(getValue());
-        if (problems.length === 0) return value === "" ? <span className="text-ink-faint">—</span> : value;
+        // Clean amounts read with separators; a cell with a problem shows exactly what the file says.
+        if (problems.length === 0) return value === "" ? <span className="text-ink-faint">—</span> : numeric ? groupThousands(value) : value;
         return (
           <div className="flex flex-col gap-0.5 whitespace-normal">
             <span className={cn("whitespace-nowrap", numeric && "text-right")}>
@@ -177,7 +185,7 @@ export function PreviewRowsTable({ uploadId, initial }: { uploadId: number; init
           {params.invalidOnly ? "Every row passed the checks. Clear “Only rows with errors” to read them all." : "Add one line per portfolio and day below the header row and upload again."}
         </EmptyState>
       ) : data ? (
-        <div className={cn("max-h-[32rem] overflow-y-auto border-b border-rule", isPlaceholderData && "opacity-60")}>
+        <div className={cn("max-h-[32rem] overflow-y-auto border-b border-rule [&_thead_th]:sticky [&_thead_th]:top-0 [&_thead_th]:z-10 [&_thead_th]:bg-paper", isPlaceholderData && "opacity-60")}>
           <DataTable
             table={table}
             caption="Rows of the uploaded file"

@@ -60,6 +60,8 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           ...screen(queryClient, null, () => import("./routes/app-layout")),
           children: [
             { index: true, ...screen(queryClient, "overview", () => import("./routes/overview")) },
+            { path: relative(paths.backtestIndex.path), ...screen(queryClient, "backtestIndex", () => import("./routes/backtest/index")) },
+            { path: relative(paths.backtest.path), ...screen(queryClient, "backtest", () => import("./routes/backtest/portfolio")) },
             { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
             { path: relative(paths.adminUsers.path), ...screen(queryClient, "adminUsers", () => import("./routes/admin/users")) },
             { path: relative(paths.adminEntities.path), ...screen(queryClient, "adminEntities", () => import("./routes/admin/entities")) },

@@ -37,6 +37,20 @@ export const paths = {
       return qs ? `/data?${qs}` : "/data";
     },
   },
+  backtestIndex: { path: "/backtest", roles: dataReaders, label: "Backtest", href: () => "/backtest" },
+  backtest: {
+    path: "/backtest/:portfolio",
+    roles: dataReaders,
+    label: "Backtest",
+    /** `asOf` (YYYY-MM-DD) backtests an earlier date; `exception` opens that exception's review. */
+    href: (portfolio: string, q?: { asOf?: string; exception?: string }) => {
+      const s = new URLSearchParams();
+      if (q?.asOf) s.set("asOf", q.asOf);
+      if (q?.exception) s.set("exception", q.exception);
+      const qs = s.toString();
+      return `/backtest/${encodeURIComponent(portfolio)}${qs ? `?${qs}` : ""}`;
+    },
+  },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
   adminEntity: {
@@ -70,6 +84,7 @@ export type PathKey = keyof typeof paths;
 /** Navigation entries in display order; each shows only for the roles of its path. */
 export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = [
   { key: "overview", group: "main" },
+  { key: "backtestIndex", group: "main" },
   { key: "data", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },

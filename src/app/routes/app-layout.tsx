@@ -30,7 +30,7 @@ export function MainNavigation({ user }: { user: SessionUser }) {
       <ul className="flex items-center gap-5">
         {main.map((n) => (
           <li key={n.key}>
-            <NavLink to={paths[n.key].path} end className={link}>
+            <NavLink to={paths[n.key].path} end={paths[n.key].path === "/"} className={link}>
               {paths[n.key].label}
             </NavLink>
           </li>

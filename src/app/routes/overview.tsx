@@ -1,27 +1,48 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { useSuspenseQuery } from "@tanstack/react-query";
+import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
 import { EntityOverviewTable } from "@/features/entities/components/entity-overview-table";
+import { overviewQueries } from "@/features/overview/api/overview-queries";
+import { StandingTable } from "@/features/overview/components/standing-table";
 import { PageTitle } from "@/components/ui/page-title";
 
+/** Only the reporting office and the CRO read the live figures; the others see the entity list. */
+const readsFigures = (role: Role | undefined) => role === "analyst" || role === "cro";
+
 export const clientLoader = (queryClient: QueryClient) => async () => {
-  await queryClient.ensureQueryData(entityQueries.all());
+  const user = await queryClient.ensureQueryData(authQueries.me());
+  await Promise.all([
+    queryClient.ensureQueryData(entityQueries.all()),
+    readsFigures(user?.role) ? queryClient.ensureQueryData(overviewQueries.list()) : undefined,
+  ]);
   return null;
 };
 
 function FiguresNote({ role }: { role: string }) {
   const next =
-    role === "analyst"
-      ? "Daily data upload comes with the Data screen."
-      : role === "admin"
-        ? "Set up each entity's portfolios and holiday calendar so the daily data has somewhere to land."
-        : "They appear here once the reporting team has loaded the daily data.";
+    role === "admin"
+      ? "Set up each entity's portfolios and holiday calendar so the daily data has somewhere to land."
+      : "Approved figures reach you through the quarter's signed-off snapshots.";
   return (
     <p className="text-sm text-ink-muted">
-      Zones, exception counts, multipliers and capital add-ons appear here once daily VaR and P&amp;L data is loaded. {next}
+      The live zones, exception counts and multipliers are for the reporting office and the chief risk officer until the quarter is signed off. {next}
     </p>
+  );
+}
+
+function Standing() {
+  const { data: items } = useSuspenseQuery(overviewQueries.list());
+  return (
+    <>
+      <p className="text-sm text-ink-muted">
+        Each entity's top-of-house portfolio on its latest day of data. Open an entity for its backtest, the exceptions to explain and the roll-off
+        calendar.
+      </p>
+      <StandingTable items={items} backtestHref={(p) => paths.backtest.href(p)} findingsHref={(entity) => paths.data.href({ entity })} />
+    </>
   );
 }
 
@@ -31,15 +52,21 @@ export default function OverviewRoute() {
   const role = user!.role;
   return (
     <section aria-labelledby="overview-title" className="flex flex-col gap-4">
-        <PageTitle>Overview</PageTitle>
+      <PageTitle>Overview</PageTitle>
       <div className="flex items-baseline justify-between gap-4">
         <h1 id="overview-title">Overview</h1>
         <p className="figures text-sm text-ink-muted">
           {entities.length} {entities.length === 1 ? "entity" : "entities"}
         </p>
       </div>
-      {entities.length > 0 && <FiguresNote role={role} />}
-      <EntityOverviewTable entities={entities} role={role} addEntityHref={role === "admin" ? paths.adminEntities.href() : undefined} />
+      {readsFigures(role) ? (
+        <Standing />
+      ) : (
+        <>
+          {entities.length > 0 && <FiguresNote role={role} />}
+          <EntityOverviewTable entities={entities} role={role} addEntityHref={role === "admin" ? paths.adminEntities.href() : undefined} />
+        </>
+      )}
     </section>
   );
 }

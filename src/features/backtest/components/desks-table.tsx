@@ -1,0 +1,61 @@
+import type { DeskResult } from "@shared/schemas/backtest";
+import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { ZoneBadge } from "@/components/ui/zone-badge";
+import { cn } from "@/lib/cn";
+
+function Count({ count, limit, fails }: { count: number; limit: number; fails: boolean }) {
+  return (
+    <span className={cn(fails && "font-semibold text-danger")}>
+      {count} <span className="text-ink-muted">/ {limit}</span>
+    </span>
+  );
+}
+
+/** FRTB (MAR32): each trading desk's backtest at 99% and 97.5% and its P&L attribution test. */
+export function DesksTable({ desks }: { desks: DeskResult[] }) {
+  if (desks.length === 0) return null;
+  return (
+    <section aria-labelledby="desks-title" className="flex flex-col gap-2">
+      <h3 id="desks-title" className="text-sm font-semibold">
+        Trading desks: backtesting and P&amp;L attribution
+      </h3>
+      <p className="text-xs text-ink-muted">
+        A desk fails backtesting above 12 exceptions at 99% or above 30 at 97.5% in 250 days. The P&amp;L attribution test compares hypothetical with
+        risk-theoretical P&amp;L.
+      </p>
+      <Table caption="Trading desks">
+        <thead>
+          <tr>
+            <Th>Desk</Th>
+            <Th numeric>99% exceptions / limit</Th>
+            <Th numeric>97.5% exceptions / limit</Th>
+            <Th>Backtesting</Th>
+            <Th numeric>PLA Spearman</Th>
+            <Th numeric>PLA KS</Th>
+            <Th>PLA zone</Th>
+          </tr>
+        </thead>
+        <tbody>
+          {desks.map((d) => (
+            <Tr key={d.portfolio}>
+              <Td>
+                <span className="font-medium">{d.name}</span>
+                <span className="figures block text-2xs text-ink-muted">{d.portfolio}</span>
+              </Td>
+              <Td numeric>
+                <Count {...d.backtest.at99} />
+              </Td>
+              <Td numeric>
+                <Count {...d.backtest.at975} />
+              </Td>
+              <Td>{d.backtest.passes ? "Passes" : <span className="font-medium text-danger">Fails</span>}</Td>
+              <Td numeric>{d.pla ? d.pla.spearman.toFixed(3) : "—"}</Td>
+              <Td numeric>{d.pla ? d.pla.ks.toFixed(3) : "—"}</Td>
+              <Td>{d.pla ? <ZoneBadge zone={d.pla.zone} regime="frtb" /> : <span className="text-xs text-ink-muted">{d.plaUnavailable}</span>}</Td>
+            </Tr>
+          ))}
+        </tbody>
+      </Table>
+    </section>
+  );
+}

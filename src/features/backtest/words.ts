@@ -1,0 +1,79 @@
+import type { ExceptionCause, ExceptionDayDto, ExclusionStatus } from "@shared/schemas/backtest";
+import type { PnlBasis, RegimeId } from "@shared/schemas/common";
+
+/** An amount in whole currency units with thousands separators, e.g. "−1,204,330 USD". */
+export function formatAmount(value: number | null | undefined, currency?: string): string {
+  if (value === null || value === undefined) return "—";
+  const digits = Math.abs(value).toLocaleString("en-GB", { maximumFractionDigits: 0 });
+  const sign = Math.round(value) < 0 ? "−" : "";
+  return currency ? `${sign}${digits} ${currency}` : `${sign}${digits}`;
+}
+
+/** Plus factor and multiplier as the rules print them: two places. */
+export function formatFactor(value: number | null | undefined): string {
+  if (value === null || value === undefined) return "—";
+  return value.toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+}
+
+/** A probability as a percentage with two places: 0.99237 → "99.24%". */
+export function formatPercent(p: number): string {
+  return `${(p * 100).toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}%`;
+}
+
+/** A p-value with four places; below that, "< 0.0001". */
+export function formatPValue(p: number): string {
+  if (p < 0.0001) return "< 0.0001";
+  return p.toLocaleString("en-GB", { minimumFractionDigits: 4, maximumFractionDigits: 4 });
+}
+
+export function formatStatistic(s: number): string {
+  return s.toLocaleString("en-GB", { minimumFractionDigits: 3, maximumFractionDigits: 3 });
+}
+
+export const causeLabels: Record<ExceptionCause, string> = {
+  market_move: "Market move",
+  model_limitation: "Model limitation",
+  data_issue: "Data issue",
+  intraday_trading: "Intraday trading",
+  pricing: "Pricing",
+  other: "Other",
+};
+export const causeIds = Object.keys(causeLabels) as ExceptionCause[];
+
+export const exclusionStatusLabels: Record<ExclusionStatus, string> = {
+  none: "Explained",
+  requested: "Exclusion requested",
+  approved: "Excluded by the supervisor",
+  rejected: "Exclusion refused",
+};
+
+/** One word for where an exception's review stands, for the table and the overview. */
+export function reviewStatusOf(day: Pick<ExceptionDayDto, "review">): string {
+  if (!day.review) return "Not reviewed";
+  return exclusionStatusLabels[day.review.exclusionStatus];
+}
+
+/** Which P&L series breached VaR on the day. */
+export function seriesOf(day: Pick<ExceptionDayDto, "actual" | "hypothetical">): string {
+  if (day.actual && day.hypothetical) return "Both";
+  if (day.actual) return "Actual";
+  if (day.hypothetical) return "Hypothetical";
+  return "—";
+}
+
+export const basisLabels: Record<PnlBasis, string> = {
+  actual: "actual P&L",
+  hypothetical: "hypothetical P&L",
+  max: "the higher of actual and hypothetical",
+};
+
+export const regimeLabels: Record<RegimeId, string> = {
+  basel: "Basel 2.5",
+  us: "US market risk rule",
+  eu: "EU CRR",
+  frtb: "FRTB IMA",
+};
+
+export function plural(n: number, one: string, many: string): string {
+  return `${n.toLocaleString("en-GB")} ${n === 1 ? one : many}`;
+}

@@ -1,0 +1,123 @@
+import type { OverviewItem } from "@shared/schemas/backtest";
+import { Link } from "react-router-dom";
+import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { ZoneBadge } from "@/components/ui/zone-badge";
+import { cn } from "@/lib/cn";
+
+function amount(value: number, currency: string): string {
+  const digits = Math.abs(value).toLocaleString("en-GB", { maximumFractionDigits: 0 });
+  return `${Math.round(value) < 0 ? "−" : ""}${digits} ${currency}`;
+}
+const factor = (v: number) => v.toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+
+/**
+ * One dense row per entity, in the order a reader asks: zone and count first, then what it costs,
+ * then what rolls off next and what work is open. Every figure is the server's.
+ */
+export function StandingTable({
+  items,
+  backtestHref,
+  findingsHref,
+}: {
+  items: OverviewItem[];
+  backtestHref: (portfolio: string) => string;
+  findingsHref: (entity: string) => string;
+}) {
+  if (items.length === 0) {
+    return (
+      <EmptyState title="No legal entities are set up yet">
+        An administrator adds the entities and their portfolios; they appear here as soon as they exist.
+      </EmptyState>
+    );
+  }
+  return (
+    <Table caption="Where each entity stands">
+      <thead>
+        <tr>
+          <Th>Entity</Th>
+          <Th>Zone</Th>
+          <Th numeric>Counted exceptions</Th>
+          <Th numeric>Plus factor</Th>
+          <Th numeric>Multiplier</Th>
+          <Th numeric>Capital add-on</Th>
+          <Th>As of</Th>
+          <Th>Next roll-off</Th>
+          <Th numeric>Open reviews</Th>
+          <Th numeric>Open findings</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {items.map((e) => {
+          const href = e.portfolio ? backtestHref(e.portfolio) : null;
+          const noData = e.zone === null;
+          return (
+            <Tr key={e.entity} data-entity={e.entity}>
+              <Td>
+                {href ? (
+                  <Link to={href} className="font-medium">
+                    {e.entity}
+                  </Link>
+                ) : (
+                  <span className="font-medium">{e.entity}</span>
+                )}
+                <span className="block text-xs text-ink-muted">{e.name}</span>
+              </Td>
+              {noData ? (
+                <Td colSpan={7} className="text-sm text-ink-muted">
+                  {e.portfolio ? "No daily data yet: an analyst uploads it under Data." : "No portfolio set up yet."}
+                </Td>
+              ) : (
+                <>
+                  <Td>
+                    <ZoneBadge zone={e.zone!} regime={e.regime} />
+                  </Td>
+                  <Td numeric>
+                    {e.counted}
+                    {!e.complete && <span className="block text-2xs text-ink-muted">provisional</span>}
+                  </Td>
+                  <Td numeric>{factor(e.plusFactor!)}</Td>
+                  <Td numeric className="font-medium">
+                    {factor(e.multiplier!)}
+                  </Td>
+                  <Td numeric className="whitespace-nowrap">
+                    {e.addOn === null ? <span className="text-ink-muted" title="No capital input (VaR/sVaR or ES) in the data">—</span> : amount(e.addOn, e.currency)}
+                  </Td>
+                  <Td className="figures whitespace-nowrap">{e.asOf}</Td>
+                  <Td className="whitespace-nowrap">
+                    {e.nextRollOff ? (
+                      <span className="flex items-center gap-2">
+                        <span className="figures">{e.nextRollOff.leavesOn}</span>
+                        <span className="text-xs text-ink-muted">then {e.nextRollOff.countAfter}</span>
+                        <ZoneBadge zone={e.nextRollOff.zoneAfter} regime={e.regime} />
+                      </span>
+                    ) : (
+                      <span className="text-ink-muted">None in the window</span>
+                    )}
+                  </Td>
+                </>
+              )}
+              <Td numeric>
+                {e.openReviews > 0 && href ? (
+                  <Link to={`${href}#exceptions`} aria-label={`${e.openReviews} open reviews for ${e.entity}`} className="font-medium">
+                    {e.openReviews}
+                  </Link>
+                ) : (
+                  <span className={cn(e.openReviews === 0 && "text-ink-muted")}>{e.openReviews}</span>
+                )}
+              </Td>
+              <Td numeric>
+                {e.openFindings > 0 ? (
+                  <Link to={findingsHref(e.entity)} aria-label={`${e.openFindings} open findings for ${e.entity}`} className="font-medium">
+                    {e.openFindings}
+                  </Link>
+                ) : (
+                  <span className="text-ink-muted">0</span>
+                )}
+              </Td>
+            </Tr>
+          );
+        })}
+      </tbody>
+    </Table>
+  );
+}

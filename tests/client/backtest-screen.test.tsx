@@ -1,0 +1,215 @@
+import { configure, screen, waitFor, within } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { backtestAt, rollingBacktest } from "@shared/backtest/exceptions";
+import { rollOffs } from "@shared/backtest/forecast";
+import type { BacktestOptions, Observation } from "@shared/backtest/types";
+import type { Review } from "@shared/schemas/backtest";
+import { fakeApi, signedInAs, type Reply } from "./support/fake-api";
+import { renderApp } from "./support/render-app";
+
+// The fixture is the engine's own answer for a small invented series (DESIGN.md §4; the engine's
+// figures are checked against BCBS 1996 Table 2 in tests/shared); the screen must show it unchanged.
+
+/** 270 weekdays from 2025-01-06 with VaR 1,000,000; losses beyond VaR on the chosen days. */
+function invent(): Observation[] {
+  const out: Observation[] = [];
+  const d = new Date(Date.UTC(2025, 0, 6));
+  const actualHits = new Set([30, 75, 140, 190, 215, 230, 262]);
+  const hypotheticalHits = new Set([75, 190, 262]);
+  let i = 0;
+  while (out.length < 270) {
+    const wd = d.getUTCDay();
+    if (wd !== 0 && wd !== 6) {
+      const swing = ((i * 37) % 11) * 50_000 - 250_000;
+      out.push({
+        date: d.toISOString().slice(0, 10),
+        actualPnl: actualHits.has(i) ? -1_000_000 - 20_000 * (i % 7) - 1 : swing,
+        hypotheticalPnl: hypotheticalHits.has(i) ? -1_100_000 : swing * 0.9,
+        var99: 1_000_000,
+      });
+      i++;
+    }
+    d.setUTCDate(d.getUTCDate() + 1);
+  }
+  return out;
+}
+
+const observations = invent();
+const asOf = observations.at(-1)!.date;
+const opts: BacktestOptions = { regime: "us", pnlBasis: "actual", asOf };
+const engine = backtestAt(observations, opts);
+
+function backtestBody(reviews: Record<string, Review> = {}) {
+  return {
+    ...engine,
+    portfolio: { code: "LKS-US-TOTAL", name: "Larkspur Securities — total trading", level: "top" },
+    entity: { code: "LKS-US", name: "Larkspur Securities LLC", currency: "USD" },
+    latestDate: asOf,
+    exceptionDays: engine.exceptionDays.map((d) => ({ ...d, review: reviews[d.date] ?? null })),
+    rollOffs: rollOffs(observations, opts),
+    desks: [],
+    engineVersion: "test",
+  };
+}
+
+const entities = [{ code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [] }];
+
+function routes(role: "analyst" | "cro", body: unknown, extra: Record<string, Reply | ((c: { body: unknown }) => Reply)> = {}) {
+  return {
+    "GET /api/auth/session": signedInAs(role),
+    "GET /api/entities": { status: 200, body: entities },
+    "GET /api/entities/LKS-US/portfolios": { status: 200, body: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities — total trading", level: "top" }] },
+    "GET /api/portfolios/LKS-US-TOTAL/backtest": { status: 200, body },
+    "GET /api/portfolios/LKS-US-TOTAL/rolling": { status: 200, body: rollingBacktest(observations, { regime: "us", pnlBasis: "actual" }) },
+    "GET /api/portfolios/LKS-US-TOTAL/observations": {
+      status: 200,
+      body: observations.map((o) => ({ ...o, var975: null, svar99: null, var10d: null, svar10d: null, es975: null, ses: null, rtpl: null, version: 1 })),
+    },
+    ...extra,
+  };
+}
+
+function review(date: string, over: Partial<Review> = {}): Review {
+  return {
+    date,
+    cause: "market_move",
+    narrative: "Rates sold off after the payrolls surprise; the curve moved four standard deviations.",
+    exclusionStatus: "none",
+    decisionReference: null,
+    decisionDate: null,
+    decidedBy: null,
+    reviewedBy: "Theo Marchetti",
+    reviewedAt: "2026-01-05T10:00:00.000Z",
+    version: 3,
+    evidence: [],
+    ...over,
+  };
+}
+
+// A whole screen with two charts renders slowly in jsdom.
+describe("Backtest screen", { timeout: 20_000 }, () => {
+  // The screen and its charts are lazy modules; load them once so each test waits only for the fake server.
+  beforeAll(async () => {
+    await Promise.all([
+      import("@/app/routes/app-layout"),
+      import("@/app/routes/backtest/portfolio"),
+      import("@/features/backtest/components/charts"),
+    ]);
+    // A full backtest screen is a big render in jsdom; give it longer than the default second.
+    configure({ asyncUtilTimeout: 4000 });
+  }, 30_000);
+
+  it("shows exactly the engine's counted exceptions, zone, plus factor, multiplier and window dates", async () => {
+    fakeApi(routes("analyst", backtestBody()));
+    renderApp("/backtest/LKS-US-TOTAL");
+
+    const standing = await screen.findByRole("region", { name: "Where we stand" });
+    expect(within(standing).getByTestId("counted")).toHaveTextContent(String(engine.exceptions.counted));
+    expect(within(standing).getByTestId("plus-factor")).toHaveTextContent(engine.plusFactor.toFixed(2));
+    expect(within(standing).getByTestId("multiplier")).toHaveTextContent(engine.multiplier.toFixed(2));
+    expect(within(standing).getByTestId("window-dates")).toHaveTextContent(`${engine.window.start} to ${engine.window.end}`);
+    const zoneName = engine.zone[0].toUpperCase() + engine.zone.slice(1);
+    expect(within(standing).getByText(zoneName)).toBeInTheDocument();
+    // Sanity on the invented series: seven actual exceptions in the last 250 days, US rule → yellow.
+    expect(engine.exceptions.counted).toBe(7);
+    expect(engine.zone).toBe("yellow");
+
+    const table = screen.getByRole("table", { name: "Exceptions in the window" });
+    expect(within(table).getAllByRole("row")).toHaveLength(engine.exceptionDays.length + 1);
+    expect(screen.getByRole("table", { name: "Roll-off calendar" })).toBeInTheDocument();
+    expect(await screen.findByRole("figure", { name: /Daily actual P&L against −VaR/ })).toBeInTheDocument();
+    expect(await screen.findByRole("figure", { name: /Counted exceptions in the trailing window/ })).toBeInTheDocument();
+  });
+
+  it("when the portfolio has no data yet, then the screen says an analyst uploads it under Data", async () => {
+    fakeApi(routes("analyst", undefined, { "GET /api/portfolios/LKS-US-TOTAL/backtest": { status: 404, body: { error: { code: "no_data", message: "No daily data" } } } }));
+    renderApp("/backtest/LKS-US-TOTAL");
+    expect(await screen.findByText("No daily data for LKS-US-TOTAL yet")).toBeInTheDocument();
+    expect(within(screen.getByRole("main")).getByRole("link", { name: "Data" })).toHaveAttribute("href", "/data");
+  });
+
+  it("the analyst's review is sent with the version seen; a 409 shows the review that now stands, and the next save builds on it", async () => {
+    const day = engine.exceptionDays[0].date;
+    const theirs = review(day, { version: 4, reviewedBy: "Ana Other", cause: "pricing", narrative: "A stale curve mark on the swaption book caused it." });
+    let puts = 0;
+    const api = fakeApi(
+      routes("analyst", backtestBody({ [day]: review(day) }), {
+        [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`]: ({ body }) => {
+          puts++;
+          return puts === 1
+            ? { status: 409, body: { error: { code: "stale_version", message: "Someone else saved first", details: { current: theirs } } } }
+            : { status: 200, body: { ...theirs, ...(body as object), version: 5 } };
+        },
+      }),
+    );
+    const user = userEvent.setup();
+    renderApp(`/backtest/LKS-US-TOTAL?exception=${day}`);
+
+    const form = await screen.findByRole("form", { name: `Review of the exception of ${day}` });
+    const narrative = within(form).getByLabelText("What happened");
+    await user.clear(narrative);
+    await user.type(narrative, "Payrolls surprise; the model's lookback missed the jump.");
+    await user.click(within(form).getByRole("checkbox", { name: /Ask the supervisor to disregard this exception/ }));
+    await user.click(within(form).getByRole("button", { name: "Save review" }));
+
+    const puts1 = api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`);
+    expect(puts1[0].body).toEqual({ cause: "market_move", narrative: "Payrolls surprise; the model's lookback missed the jump.", exclusion: true, version: 3 });
+    const alert = await within(form).findByRole("alert");
+    expect(alert).toHaveTextContent("Ana Other saved this review");
+    expect(alert).toHaveTextContent("A stale curve mark on the swaption book caused it.");
+    expect(within(form).getByLabelText("What happened")).toHaveValue("Payrolls surprise; the model's lookback missed the jump.");
+
+    await user.click(within(form).getByRole("button", { name: "Save review" }));
+    await waitFor(() => expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`)).toHaveLength(2));
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`)[1].body).toMatchObject({ version: 4 });
+    expect(await within(form).findByText("Review saved (version 5).")).toBeInTheDocument();
+  });
+
+  it("the CRO's decision form appears only for an exception whose exclusion is requested, and sends the review's version", async () => {
+    const [requested, explained] = engine.exceptionDays.map((d) => d.date);
+    const api = fakeApi(
+      routes("cro", backtestBody({ [requested]: review(requested, { exclusionStatus: "requested", version: 2 }), [explained]: review(explained) }), {
+        [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`]: ({ body }) => ({
+          status: 200,
+          body: review(requested, { exclusionStatus: "approved", decisionReference: "SUP-2026-014", decisionDate: "2026-01-20", decidedBy: "Cora Ruiz", version: 3, ...(body as object) }),
+        }),
+      }),
+    );
+    const user = userEvent.setup();
+    renderApp("/backtest/LKS-US-TOTAL");
+
+    await user.click(await screen.findByRole("button", { name: `Review the exception of ${explained}` }));
+    expect(await screen.findByRole("heading", { name: new RegExp(`Exception of ${explained}`) })).toBeInTheDocument();
+    expect(screen.queryByRole("form", { name: "Supervisor's decision on the exclusion" })).not.toBeInTheDocument();
+    expect(screen.queryByRole("form", { name: /Review of the exception/ })).not.toBeInTheDocument();
+
+    await user.click(screen.getByRole("button", { name: `Review the exception of ${requested}` }));
+    const form = await screen.findByRole("form", { name: "Supervisor's decision on the exclusion" });
+    await user.click(within(form).getByRole("radio", { name: /Approved/ }));
+    await user.type(within(form).getByLabelText("Supervisor's reference"), "SUP-2026-014");
+    await user.type(within(form).getByLabelText("Decided on"), "2026-01-20");
+    await user.click(within(form).getByRole("button", { name: "Record decision" }));
+
+    await waitFor(() => expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`)).toHaveLength(1));
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`)[0].body).toEqual({
+      decision: "approved",
+      reference: "SUP-2026-014",
+      decidedOn: "2026-01-20",
+      version: 2,
+    });
+    // After the decision the figures are read again from the server.
+    await waitFor(() => expect(api.callsTo("GET", "/api/portfolios/LKS-US-TOTAL/backtest").length).toBeGreaterThan(1));
+  });
+
+  it("changing the as-of date asks the engine for that date", async () => {
+    const api = fakeApi(routes("analyst", backtestBody()));
+    const user = userEvent.setup();
+    renderApp("/backtest/LKS-US-TOTAL");
+    const input = await screen.findByLabelText("As of");
+    expect(input).toHaveValue(asOf);
+    await user.clear(input);
+    await user.type(input, "2025-11-28");
+    await user.click(screen.getByRole("button", { name: "Show" }));
+    await waitFor(() => expect(api.calls.some((c) => c.path === "/api/portfolios/LKS-US-TOTAL/backtest" && c.search === "?asOf=2025-11-28")).toBe(true));
+  });
+});

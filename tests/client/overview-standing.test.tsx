@@ -1,0 +1,72 @@
+import { screen, within } from "@testing-library/react";
+import { fakeApi, signedInAs } from "./support/fake-api";
+import { renderApp } from "./support/render-app";
+
+const entities = [
+  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [] },
+];
+
+// Figures as the server's engine would return them; the screen only formats them.
+const item = {
+  entity: "LKS-US",
+  name: "Larkspur Securities LLC",
+  regime: "us",
+  currency: "USD",
+  portfolio: "LKS-US-TOTAL",
+  asOf: "2026-11-30",
+  complete: true,
+  zone: "yellow",
+  zoneLabel: "yellow",
+  counted: 7,
+  plusFactor: 0.65,
+  multiplier: 3.65,
+  addOn: 48_215_003.4,
+  nextRollOff: { date: "2026-02-11", leavesOn: "2027-02-08", actual: true, hypothetical: false, countAfter: 6, zoneAfter: "yellow", plusFactorAfter: 0.5 },
+  openReviews: 3,
+  openFindings: 2,
+};
+
+describe("Overview", () => {
+  it("for an analyst, each entity's row shows its zone by name, counted exceptions, multiplier and capital add-on with the currency", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      "GET /api/entities": { status: 200, body: entities },
+      "GET /api/overview": { status: 200, body: [item] },
+    });
+    renderApp("/");
+
+    const table = await screen.findByRole("table", { name: "Where each entity stands" });
+    const row = within(table).getAllByRole("row")[1];
+    const cells = within(row).getAllByRole("cell");
+    expect(within(cells[1]).getByText("Yellow")).toBeInTheDocument();
+    expect(within(row).getByText("7")).toHaveClass("text-right", "figures");
+    expect(within(row).getByText("3.65")).toBeInTheDocument();
+    expect(within(row).getByText("0.65")).toBeInTheDocument();
+    expect(within(row).getByText("48,215,003 USD")).toBeInTheDocument();
+    expect(within(row).getByText("2027-02-08")).toBeInTheDocument();
+    expect(within(cells[7]).getByText("Yellow")).toBeInTheDocument();
+    expect(within(row).getByRole("link", { name: "LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL");
+    expect(within(row).getByRole("link", { name: "3 open reviews for LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL#exceptions");
+    expect(within(row).getByRole("link", { name: "2 open findings for LKS-US" })).toHaveAttribute("href", "/data?entity=LKS-US");
+  });
+
+  it("when the window is short, then the count says provisional; an FRTB entity's middle zone reads Amber", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      "GET /api/entities": { status: 200, body: entities },
+      "GET /api/overview": { status: 200, body: [{ ...item, regime: "frtb", currency: "GBP", complete: false, nextRollOff: null, addOn: null }] },
+    });
+    renderApp("/");
+    const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
+    expect(within(row).getByText("provisional")).toBeInTheDocument();
+    expect(within(row).getByText("Amber")).toBeInTheDocument();
+    expect(within(row).getByText("None in the window")).toBeInTheDocument();
+  });
+
+  it("treasury's overview lists the entities and never asks for the live figures", async () => {
+    const api = fakeApi({ "GET /api/auth/session": signedInAs("treasury"), "GET /api/entities": { status: 200, body: entities } });
+    renderApp("/");
+    expect(await screen.findByRole("table", { name: "Legal entities and their backtesting rules" })).toBeInTheDocument();
+    expect(api.callsTo("GET", "/api/overview")).toHaveLength(0);
+  });
+});

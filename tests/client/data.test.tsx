@@ -1,4 +1,4 @@
-import { act, screen, within } from "@testing-library/react";
+import { act, fireEvent, screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { vi } from "vitest";
 import { fakeApi, signedInAs } from "./support/fake-api";
@@ -317,6 +317,22 @@ describe("Data › sending a file", () => {
     const alert = await screen.findByRole("alert", { name: "This file is already in" });
     expect(alert).toHaveTextContent("This exact file was committed as upload #12 on 2026-03-30.");
     expect(within(alert).getByRole("link", { name: "Open upload #12" })).toHaveAttribute("href", "/data?upload=12");
+  });
+
+  it("dropping one file on the panel sends it; dropping two is refused", async () => {
+    stubXhr();
+    fakeApi({ ...baseRoutes(), "GET /api/uploads": { status: 200, body: [] } });
+    renderApp("/data");
+
+    const zone = (await screen.findByText("Drop a CSV file here, or")).parentElement!;
+    fireEvent.drop(zone, { dataTransfer: { files: [csv("a.csv"), csv("b.csv")] } });
+    expect(await screen.findByRole("alert", { name: "The file was not accepted" })).toHaveTextContent("2 files were dropped; upload one file at a time.");
+    expect(FakeXhr.last).toBeUndefined();
+
+    fireEvent.drop(zone, { dataTransfer: { files: [csv("a.csv")] } });
+    await vi.waitFor(() => expect(FakeXhr.last).toBeDefined());
+    expect((FakeXhr.last!.body!.get("file") as File).name).toBe("a.csv");
+    expect(await screen.findByRole("progressbar", { name: "Sending a.csv" })).toBeInTheDocument();
   });
 
   it("a file that is not .csv is refused before anything is sent", async () => {

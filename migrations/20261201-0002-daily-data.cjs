@@ -52,8 +52,8 @@ module.exports = {
       created_at: now(),
     });
     await qi.addIndex("observations", ["portfolio_id", "business_date", "version"], { unique: true, name: "observations_version" });
-    await qi.addIndex("observations", ["portfolio_id", "is_current", "business_date"], { name: "observations_current" });
-    // At most one current version per portfolio and day, enforced by the database itself.
+    // At most one current version per portfolio and day, enforced by the database itself; the same
+    // index serves every read of the current series (WHERE portfolio_id = ? AND current_day …).
     await qi.sequelize.query(
       "ALTER TABLE observations ADD COLUMN current_day DATE AS (IF(is_current, business_date, NULL)) PERSISTENT, " +
         "ADD UNIQUE INDEX observations_one_current (portfolio_id, current_day)",

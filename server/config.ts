@@ -3,8 +3,16 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import path from "node:path";
 
+/** The folder with the project's package.json, found upwards from here (server/ under tsx, dist/server/ when bundled). */
+function findProjectRoot(from: string): string {
+  for (let dir = from; ; dir = path.dirname(dir)) {
+    if (existsSync(path.join(dir, "package.json")) && existsSync(path.join(dir, "migrations"))) return dir;
+    if (path.dirname(dir) === dir) return path.resolve(from, "..");
+  }
+}
+
 /** The only place that reads process.env: parsed once, then frozen. */
-const projectRoot = path.resolve(import.meta.dirname, "..");
+const projectRoot = findProjectRoot(import.meta.dirname);
 const dataDir = path.join(projectRoot, ".data");
 
 const envSchema = z.object({

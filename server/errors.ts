@@ -75,7 +75,7 @@ export function parseInput<S extends ZodType>(schema: S, value: unknown, where =
 }
 
 const MULTER_MESSAGES: Record<string, [number, string]> = {
-  LIMIT_FILE_SIZE: [413, "The file is larger than the 25 MB limit. Split it into smaller files."],
+  LIMIT_FILE_SIZE: [413, "The file is larger than the 16 MB limit. Split it into smaller files."],
   LIMIT_FILE_COUNT: [400, "Send one file at a time."],
   LIMIT_UNEXPECTED_FILE: [400, 'Send exactly one file, in the form field "file".'],
   LIMIT_FIELD_COUNT: [400, 'Only the form field "file" is accepted.'],

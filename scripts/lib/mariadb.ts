@@ -133,7 +133,10 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
       "--user=root",
       "--skip-name-resolve",
       `--log-error=${logFile}`,
-      "--innodb-buffer-pool-size=256M",
+      "--innodb-buffer-pool-size=1G",
+      // A larger redo log lets a 100,000-row commit run without stalling on checkpoints.
+      "--innodb-log-file-size=512M",
+      "--innodb-log-buffer-size=64M",
       "--max-connections=200",
       "--max-allowed-packet=128M",
       "--local-infile=1",

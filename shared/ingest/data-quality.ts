@@ -26,13 +26,13 @@ function isWeekday(day: number): boolean {
 }
 
 /** Groups a sorted list of day numbers into runs of consecutive business days. */
-function runs(days: number[], holidays: ReadonlySet<string>): [number, number][] {
+function runs(days: number[], holidays: ReadonlySet<number>): [number, number][] {
   const out: [number, number][] = [];
   for (const d of days) {
     const last = out[out.length - 1];
     if (last) {
       let next = last[1] + 1;
-      while (!isWeekday(next) || holidays.has(fromDayNumber(next))) next++;
+      while (!isWeekday(next) || holidays.has(next)) next++;
       if (next === d) {
         last[1] = d;
         continue;
@@ -55,11 +55,12 @@ export function findDataQualityIssues(series: readonly QualityInput[], holidays:
 
   // Missing business days between the first and the last reported day.
   const present = new Set(series.map((o) => dayNumber(o.date)));
+  const holidayDays = new Set([...holidays].map(dayNumber));
   const missing: number[] = [];
   for (let d = dayNumber(series[0].date); d <= dayNumber(series[series.length - 1].date); d++) {
-    if (isWeekday(d) && !holidays.has(fromDayNumber(d)) && !present.has(d)) missing.push(d);
+    if (isWeekday(d) && !holidayDays.has(d) && !present.has(d)) missing.push(d);
   }
-  for (const [a, b] of runs(missing, holidays)) {
+  for (const [a, b] of runs(missing, holidayDays)) {
     const from = fromDayNumber(a);
     const to = fromDayNumber(b);
     findings.push({ kind: "missing_day", from, to, detail: `No data for business day${a === b ? "" : "s"} ${span(from, to)}` });

@@ -1,8 +1,11 @@
 import Papa from "papaparse";
 import {
   ALL_COLUMNS,
+  AMOUNT_COLUMNS,
+  POSITIVE_COLUMNS,
   REQUIRED_COLUMNS,
-  observationRowSchema,
+  observationCellsSchema,
+  type AmountColumn,
   type CsvColumn,
   type ObservationRow,
   type RowError,
@@ -42,6 +45,48 @@ export class CsvFileError extends Error {
 }
 
 const KNOWN: ReadonlySet<string> = new Set(ALL_COLUMNS);
+const AMOUNTS: ReadonlySet<string> = new Set(AMOUNT_COLUMNS);
+
+/**
+ * Rows of cells. Without a quote character anywhere, a CSV is plain lines of comma-separated
+ * cells and a split is exact (and several times faster); otherwise papaparse handles quoting.
+ */
+export function splitCsv(text: string): { data: string[][]; errors: Papa.ParseError[] } {
+  if (!text.includes('"')) return { data: text.split(/\r\n|\n|\r/).map((l) => l.split(",")), errors: [] };
+  const parsed = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: false });
+  return { data: parsed.data, errors: parsed.errors };
+}
+
+/** Every row has the same shape (all amount columns, null when absent): fast and predictable. */
+function newRow(line: number, portfolio: string, date: string): ParsedRow {
+  return {
+    line,
+    portfolio,
+    date,
+    actual_pnl: null,
+    hypothetical_pnl: null,
+    var_99: null,
+    var_975: null,
+    svar_99: null,
+    var_10d: null,
+    svar_10d: null,
+    es_975: null,
+    ses: null,
+    rtpl: null,
+  };
+}
+
+/** Why a cell failed its pattern, in words a person can act on. */
+function describeCell(column: string, raw: string): string {
+  const s = raw.trim();
+  if (column === "portfolio") return s === "" ? "portfolio is empty" : `"${s.slice(0, 40)}" is not a portfolio code (letters, digits, - and _; at most 40)`;
+  if (column === "date") return s === "" ? "date is empty" : `"${s.slice(0, 20)}" is not a date written YYYY-MM-DD`;
+  if (/^-?[\d,]+(\.\d+)?$/.test(s) && s.includes(",")) return `"${s}" uses a thousands separator; write it without commas`;
+  if (/^-?(nan|inf(inity)?)$/i.test(s)) return `"${s}" is not a number`;
+  if (/e/i.test(s) && !Number.isNaN(Number(s))) return `"${s}" is written with an exponent; write the plain amount`;
+  if (/^\s|\s$/.test(raw) && /^(-?\d{1,17}(\.\d{1,8})?)?$/.test(s)) return `"${raw}" has spaces around the amount`;
+  return `"${s.slice(0, 30)}" is not a plain decimal amount (digits, optional minus, dot for decimals)`;
+}
 const WEEKDAYS = ["Sunday", "Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday"];
 
 /** Text of an uploaded file, or why it is not a text CSV at all. */
@@ -83,7 +128,7 @@ function checkHeader(header: string[]): CsvColumn[] {
  */
 export function parseObservationCsv(text: string, ref: CsvReferenceData): ParsedCsv {
   if (text.trim() === "") throw new CsvFileError("The file is empty.");
-  const parsed = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: false });
+  const parsed = splitCsv(text);
   const data = parsed.data;
   const columns = checkHeader(data[0] ?? []);
   if (data.slice(1).every((r) => r.length === 1 && r[0].trim() === "")) {
@@ -105,7 +150,10 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData): Parsed
   }
 
   const rows: ParsedRow[] = [];
-  const firstLineOf = new Map<string, number>();
+  // Dates repeat across portfolios: each is checked against the calendar once.
+  const dayOf = new Map<string, number>();
+  const firstLineOf = new Map<string, Map<string, number>>();
+  const amountAt = columns.map((c) => (AMOUNTS.has(c) ? (c as AmountColumn) : null));
   let totalRows = 0;
   for (let i = 1; i < data.length; i++) {
     const cells = data[i];
@@ -119,18 +167,51 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData): Parsed
     }
     const record: Record<string, string> = {};
     for (let c = 0; c < columns.length; c++) record[columns[c]] = cells[c];
-    const result = observationRowSchema.safeParse(record);
-    if (!result.success) {
-      for (const issue of result.error.issues) fail(line, String(issue.path[0] ?? "—"), issue.message);
+    const checked = observationCellsSchema.safeParse(record);
+    if (!checked.success) {
+      const seenColumns = new Set<string>();
+      for (const issue of checked.error.issues) {
+        const column = String(issue.path[0] ?? "—");
+        if (seenColumns.has(column)) continue;
+        seenColumns.add(column);
+        fail(line, column, AMOUNTS.has(column) || column === "portfolio" || column === "date" ? describeCell(column, record[column] ?? "") : issue.message);
+      }
       continue;
     }
-    const row = result.data;
+    const row = newRow(line, record.portfolio.trim().toUpperCase(), record.date.trim());
+    let bad = false;
+    for (let c = 0; c < columns.length; c++) {
+      const column = amountAt[c];
+      if (column === null) continue;
+      const text = cells[c].trim();
+      if (text === "") continue; // not reported: stays null
+      const value = Math.round(Number(text) * 100) / 100; // stored to the cent, DECIMAL(20,2)
+      if (POSITIVE_COLUMNS.has(column) && !(value > 0)) {
+        fail(line, column, `${column} must be a positive amount (VaR is reported as a loss amount above zero)`);
+        bad = true;
+      } else if (column === "ses" && value < 0) {
+        fail(line, column, "ses cannot be negative");
+        bad = true;
+      }
+      row[column] = value;
+    }
+    let day = dayOf.get(row.date);
+    if (day === undefined) {
+      try {
+        day = dayNumber(row.date);
+      } catch {
+        fail(line, "date", `${row.date} is not a real calendar date`);
+        continue;
+      }
+      dayOf.set(row.date, day);
+    }
+    if (bad) continue;
     const portfolio = ref.portfolios.get(row.portfolio);
     if (!portfolio) {
       fail(line, "portfolio", `Unknown portfolio "${row.portfolio}"; an admin adds portfolios under Admin › Entities`);
       continue;
     }
-    const weekday = ((dayNumber(row.date) + 4) % 7 + 7) % 7;
+    const weekday = (((day + 4) % 7) + 7) % 7;
     if (weekday === 0 || weekday === 6) {
       fail(line, "date", `${row.date} is a ${WEEKDAYS[weekday]}, not a business day`);
       continue;
@@ -140,14 +221,15 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData): Parsed
       fail(line, "date", `${row.date} is a holiday in the ${portfolio.entityCode} calendar (${holiday})`);
       continue;
     }
-    const key = `${row.portfolio}|${row.date}`;
-    const first = firstLineOf.get(key);
+    let seen = firstLineOf.get(row.portfolio);
+    if (!seen) firstLineOf.set(row.portfolio, (seen = new Map()));
+    const first = seen.get(row.date);
     if (first !== undefined) {
       fail(line, "date", `${row.portfolio} on ${row.date} already appears on line ${first}`);
       continue;
     }
-    firstLineOf.set(key, line);
-    rows.push({ ...row, line });
+    seen.set(row.date, line);
+    rows.push(row);
   }
   errors.sort((a, b) => a.line - b.line);
   return { columns, rows: rows.filter((r) => !invalidLines.has(r.line)), errors, totalRows, invalidLines };

@@ -177,7 +177,7 @@ describe("bad input ends in a clear error and nothing written", () => {
   it("a header with no rows", () => expectFileRejected(`${HEADER}\n`, 422, /no data rows/));
   it("a file that is not .csv", () => expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 415, /Only \.csv/, "daily.xlsx"));
   it("a path in the file name", () => expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 400, /plain name/, "../../etc/daily.csv"));
-  it("a file over the limit", () => expectFileRejected(Buffer.alloc(25 * 1024 * 1024 + 10, 0x41), 413, /25 MB/));
+  it("a file over the limit", () => expectFileRejected(Buffer.alloc(16 * 1024 * 1024 + 10, 0x41), 413, /16 MB/));
 
   it("two files at once, or an unexpected field", async () => {
     const { cookie } = await ingestFixture();

@@ -7,7 +7,7 @@ import { HolidayModel } from "../../models/holiday";
 import { UserModel } from "../../models/user";
 import { ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import { loadSeries } from "../observations/observations.repository";
+import { loadQualitySeries } from "../observations/observations.repository";
 import { findDataQualityIssues } from "../../../shared/ingest/data-quality";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
@@ -25,7 +25,7 @@ export async function refreshFindings(portfolioIds: number[]): Promise<void> {
     const portfolio = await PortfolioModel.findByPk(portfolioId);
     if (!portfolio) continue;
     const holidays = new Set((await HolidayModel.findAll({ where: { entityId: portfolio.entityId } })).map((h) => h.date));
-    const found = findDataQualityIssues(await loadSeries(portfolioId), holidays);
+    const found = findDataQualityIssues(await loadQualitySeries(portfolioId), holidays);
     await sequelize.transaction(async (transaction) => {
       const existing = await DataFindingModel.findAll({ where: { portfolioId }, transaction, lock: transaction.LOCK.UPDATE });
       const byKey = new Map(existing.map((f) => [`${f.kind}|${f.dateFrom}`, f]));

@@ -5,8 +5,8 @@ import { BadRequestError, parseInput } from "../../errors";
 import { uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
 import * as uploads from "./uploads.service";
 
-/** Size of the largest daily data file accepted (about 300,000 rows). */
-export const UPLOAD_MAX_BYTES = 25 * 1024 * 1024;
+/** Size of the largest daily data file accepted (about 200,000 rows; the server runs with a 256 MB heap). */
+export const UPLOAD_MAX_BYTES = 16 * 1024 * 1024;
 
 // Every limit set (multer defaults to unlimited); mounted on the upload route only.
 const single = multer({

@@ -10,11 +10,10 @@ import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../e
 import { recordAudit } from "../audit/audit.service";
 import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type StoredDay } from "../observations/observations.repository";
 import { refreshFindings } from "../findings/findings.service";
-import { CsvFileError, decodeCsvBytes, parseObservationCsv, serialiseObservationCsv, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
+import { CsvFileError, decodeCsvBytes, parseObservationCsv, serialiseObservationCsv, splitCsv, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
 import { AMOUNT_COLUMNS, ALL_COLUMNS, type AmountColumn, type CommitResult, type RowError, type UploadPreview, type UploadRowsPage, type UploadSummary } from "../../../shared/schemas/upload";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import Papa from "papaparse";
 
 type SignedIn = Actor & { user: SessionUser };
 
@@ -64,14 +63,8 @@ function parseFile(bytes: Buffer, ref: CsvReferenceData) {
   }
 }
 
-const sameValues = (a: Record<AmountColumn, number | null>, b: Record<AmountColumn, number | null>) =>
-  AMOUNT_COLUMNS.every((c) => (a[c] ?? null) === (b[c] ?? null));
-
-function valuesOf(row: ParsedRow): Record<AmountColumn, number | null> {
-  const v = {} as Record<AmountColumn, number | null>;
-  for (const c of AMOUNT_COLUMNS) v[c] = row[c] ?? null;
-  return v;
-}
+const sameValues = (stored: Record<AmountColumn, number | null>, row: ParsedRow) =>
+  AMOUNT_COLUMNS.every((c) => (stored[c] ?? null) === (row[c] ?? null));
 
 /** Sorts valid rows into new days, restatements (a changed day) and unchanged days. */
 function classify(rows: ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>) {
@@ -82,17 +75,16 @@ function classify(rows: ParsedRow[], ids: Map<string, number>, stored: Map<strin
   let unchanged = 0;
   for (const row of rows) {
     const portfolioId = ids.get(row.portfolio)!;
-    const values = valuesOf(row);
-    const current = stored.get(`${portfolioId}|${row.date}`);
+    const current = stored.size ? stored.get(`${portfolioId}|${row.date}`) : undefined;
     if (!current) {
       fresh++;
-      inserts.push({ portfolioId, date: row.date, version: 1, values });
-    } else if (sameValues(current.values, values)) {
+      inserts.push({ portfolioId, version: 1, row });
+    } else if (sameValues(current.values, row)) {
       unchanged++;
     } else {
       restated++;
       retire.push(current.id);
-      inserts.push({ portfolioId, date: row.date, version: current.version + 1, values });
+      inserts.push({ portfolioId, version: current.version + 1, row });
     }
   }
   return { inserts, retire, fresh, restated, unchanged };
@@ -289,7 +281,7 @@ export async function getUploadRows(id: number, query: { offset: number; limit: 
   if (!upload) throw new NotFoundError(`No upload #${id}.`);
   if (!upload.content) throw new ConflictError(`Upload #${id} was discarded; its rows are no longer kept.`);
   const text = decodeCsvBytes(upload.content);
-  const data = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: false }).data;
+  const data = splitCsv(text).data;
   const columns = (data[0] ?? []).map((h) => h.trim().toLowerCase());
   const errors = upload.errorsJson ? (JSON.parse(upload.errorsJson) as RowError[]) : [];
   const byLine = new Map<number, RowError[]>();

@@ -2,6 +2,7 @@ import type { ErrorRequestHandler } from "express";
 import { ZodError, type ZodType, z } from "zod";
 import { BaseError, ConnectionError, ForeignKeyConstraintError, UniqueConstraintError } from "sequelize";
 import multer from "multer";
+import { UPLOAD_MAX_LABEL } from "../shared/schemas/upload";
 import { logger } from "./logger";
 
 /** Every failure a service means to report: status, a stable code and a sentence for a person. */
@@ -75,7 +76,7 @@ export function parseInput<S extends ZodType>(schema: S, value: unknown, where =
 }
 
 const MULTER_MESSAGES: Record<string, [number, string]> = {
-  LIMIT_FILE_SIZE: [413, "The file is larger than the 16 MB limit. Split it into smaller files."],
+  LIMIT_FILE_SIZE: [413, `The file is larger than the ${UPLOAD_MAX_LABEL} limit. Split it into smaller files.`],
   LIMIT_FILE_COUNT: [400, "Send one file at a time."],
   LIMIT_UNEXPECTED_FILE: [400, 'Send exactly one file, in the form field "file".'],
   LIMIT_FIELD_COUNT: [400, 'Only the form field "file" is accepted.'],

@@ -9,6 +9,10 @@ export type CsvColumn = (typeof ALL_COLUMNS)[number];
 export const AMOUNT_COLUMNS = ALL_COLUMNS.filter((c) => c !== "portfolio" && c !== "date") as AmountColumn[];
 export type AmountColumn = Exclude<CsvColumn, "portfolio" | "date">;
 
+/** The largest daily data file accepted: about 200,000 rows (the server runs with a 256 MB heap). */
+export const UPLOAD_MAX_BYTES = 16 * 1024 * 1024;
+export const UPLOAD_MAX_LABEL = "16 MB";
+
 /** Risk measures must be positive; P&L may have any sign; SES may be zero. */
 export const POSITIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set(["var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975"]);
 

@@ -2,11 +2,9 @@ import multer from "multer";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
-import { uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
 import * as uploads from "./uploads.service";
 
-/** Size of the largest daily data file accepted (about 200,000 rows; the server runs with a 256 MB heap). */
-export const UPLOAD_MAX_BYTES = 16 * 1024 * 1024;
 
 // Every limit set (multer defaults to unlimited); mounted on the upload route only.
 const single = multer({

@@ -1,12 +1,10 @@
 import { useState } from "react";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { apiErrorSchema } from "@shared/schemas/common";
-import { uploadPreviewSchema, type UploadPreview } from "@shared/schemas/upload";
+import { UPLOAD_MAX_BYTES, UPLOAD_MAX_LABEL, uploadPreviewSchema, type UploadPreview } from "@shared/schemas/upload";
 import { ApiError } from "@/lib/api-client";
 import { uploadQueries } from "./upload-queries";
 
-/** The server's limit on one daily data file (server/modules/uploads: UPLOAD_MAX_BYTES). */
-export const UPLOAD_MAX_BYTES = 25 * 1024 * 1024;
 
 export type UploadProgress =
   | { phase: "sending"; loaded: number; total: number }
@@ -67,7 +65,7 @@ export function sendUpload(file: File, onProgress: (p: UploadProgress) => void =
 /** Refuses before sending what the server would refuse anyway, so a wrong 200 MB file does not travel. */
 export function checkBeforeSending(file: File): ApiError | null {
   if (!/\.csv$/i.test(file.name)) return new ApiError(415, "unsupported_media_type", `${file.name} is not a .csv file. Save the data as CSV (comma-separated) and choose it again.`);
-  if (file.size > UPLOAD_MAX_BYTES) return new ApiError(413, "too_large", `${file.name} is larger than the 25 MB a single upload may be. Split it by portfolio or by month.`);
+  if (file.size > UPLOAD_MAX_BYTES) return new ApiError(413, "too_large", `${file.name} is larger than the ${UPLOAD_MAX_LABEL} a single upload may be. Split it by portfolio or by month.`);
   if (file.size === 0) return new ApiError(422, "invalid_file", `${file.name} is empty. Start from the template, which has the header row.`);
   return null;
 }

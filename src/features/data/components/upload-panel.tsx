@@ -1,5 +1,5 @@
 import { useId, useRef, useState, type DragEvent } from "react";
-import type { UploadPreview } from "@shared/schemas/upload";
+import { UPLOAD_MAX_LABEL, type UploadPreview } from "@shared/schemas/upload";
 import { ProgressBar } from "@/components/ui/progress-bar";
 import { cn } from "@/lib/cn";
 import { ApiError } from "@/lib/api-client";
@@ -98,7 +98,7 @@ export function UploadPanel({ onUploaded, uploadHref }: { onUploaded: (preview: 
             Choose a CSV file
           </label>
           <p id={hintId} className="text-2xs text-ink-muted">
-            One file, at most 25 MB. Columns as in the template; nothing is stored until you commit the preview.
+            One file, at most {UPLOAD_MAX_LABEL}. Columns as in the template; nothing is stored until you commit the preview.
           </p>
         </div>
         <div aria-live="polite" className="min-h-9">

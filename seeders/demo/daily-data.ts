@@ -113,34 +113,49 @@ export type DemoRow = Partial<Record<CsvColumn, string | number | null>>;
 
 const money = (x: number) => Math.round(x * 100) / 100;
 
-/** Risk measures from a rolling historical simulation on the book's own hypothetical P&L. */
-function rowsFor(code: string, book: SimulatedBook, dates: string[], withEs: boolean, withRtpl: boolean, stressSample: Float64Array): DemoRow[] {
+/**
+ * The book's size from day to day (positions are traded): a slow cycle, a faster one and a little
+ * noise, from its own seeded stream so that the P&L draws stay the same.
+ */
+function positionsFor(seed: number, total: number): Float64Array {
+  const rand = seededRandom(seed ^ 0x0b00c);
+  const out = new Float64Array(total);
+  for (let t = 0; t < total; t++) out[t] = 1 + 0.06 * Math.sin(t / 37) + 0.025 * Math.sin(t / 5.3) + 0.01 * normal(rand);
+  return out;
+}
+
+/**
+ * Risk measures from a rolling historical simulation: today's positions revalued on the last 250
+ * days' moves (so VaR moves with the book every day, as it does in life).
+ */
+function rowsFor(code: string, seed: number, book: SimulatedBook, dates: string[], withEs: boolean, withRtpl: boolean, stressSample: Float64Array): DemoRow[] {
   const rows: DemoRow[] = [];
   const scratch = new Float64Array(250);
   const total = book.hpl.length;
   const offset = total - dates.length;
   const sVarBase = kthLoss(stressSample, 0, 250, 3, scratch);
+  const position = positionsFor(seed, total);
   for (let i = 0; i < dates.length; i++) {
     const t = offset + i;
+    const size = position[t];
     // 99%: the 3rd worst of 250 days; 97.5%: the 7th worst (common practice for a 250-day HS), with the margin.
-    const var99 = VAR_MARGIN * kthLoss(book.hpl, t - 250, t, 3, scratch);
-    const var975 = VAR_MARGIN * kthLoss(book.hpl, t - 250, t, 7, scratch);
-    const position = 1 + 0.08 * Math.sin(t / 40);
+    const var99 = VAR_MARGIN * size * kthLoss(book.hpl, t - 250, t, 3, scratch);
+    const var975 = VAR_MARGIN * size * kthLoss(book.hpl, t - 250, t, 7, scratch);
     const row: DemoRow = {
       portfolio: code,
       date: dates[i],
-      actual_pnl: money(book.apl[t]),
-      hypothetical_pnl: money(book.hpl[t]),
+      actual_pnl: money(book.apl[t] * size),
+      hypothetical_pnl: money(book.hpl[t] * size),
       var_99: money(var99),
       var_975: money(var975),
-      svar_99: money(Math.max(sVarBase * position, var99 * 1.1)),
+      svar_99: money(Math.max(sVarBase * size, var99 * 1.1)),
     };
     if (withEs) {
-      const es = meanOfWorst(book.hpl, t - 250, t, 6, scratch);
+      const es = size * meanOfWorst(book.hpl, t - 250, t, 6, scratch);
       row.es_975 = money(es);
       row.ses = money(es * (0.15 + 0.02 * Math.sin(t / 17)));
     }
-    if (withRtpl) row.rtpl = money(book.rtpl[t]);
+    if (withRtpl) row.rtpl = money(book.rtpl[t] * size);
     rows.push(row);
   }
   return rows;
@@ -157,7 +172,7 @@ function stressSampleFor(spec: PortfolioSpec): Float64Array {
 /** Daily rows of one portfolio on the given business dates (oldest first). */
 export function generatePortfolioRows(spec: PortfolioSpec, dates: string[]): DemoRow[] {
   const book = simulateBook(spec, dates.length + WARM_UP);
-  return rowsFor(spec.code, book, dates, spec.withEs ?? false, spec.rtplLoading !== undefined, stressSampleFor(spec));
+  return rowsFor(spec.code, spec.seed, book, dates, spec.withEs ?? false, spec.rtplLoading !== undefined, stressSampleFor(spec));
 }
 
 /**
@@ -176,7 +191,7 @@ export function generateDeskedRows(top: { code: string; seed: number }, desks: P
     }
   }
   const topVol = Math.sqrt(desks.reduce((s, d) => s + d.dailyVol ** 2, 0));
-  const rows = rowsFor(top.code, sum, dates, true, true, stressSampleFor({ code: top.code, seed: top.seed, dailyVol: topVol }));
-  desks.forEach((d, i) => rows.push(...rowsFor(d.code, books[i], dates, true, true, stressSampleFor(d))));
+  const rows = rowsFor(top.code, top.seed, sum, dates, true, true, stressSampleFor({ code: top.code, seed: top.seed, dailyVol: topVol }));
+  desks.forEach((d, i) => rows.push(...rowsFor(d.code, d.seed, books[i], dates, true, true, stressSampleFor(d))));
   return rows;
 }

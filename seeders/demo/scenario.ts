@@ -3,11 +3,19 @@ import { generateDeskedRows, generatePortfolioRows, type DemoRow, type Portfolio
 
 export const DEMO_YEARS = 3;
 
-export const SCENARIO: Record<string, { top: PortfolioSpec; desks?: PortfolioSpec[] }> = {
-  "LKS-EU": { top: { code: "LKS-EU-TOTAL", seed: 1106, dailyVol: 3_200_000 } },
+interface EntityScenario {
+  top: PortfolioSpec;
+  desks?: PortfolioSpec[];
+  /** Data problems for the Data screen to find: a business day never sent, a P&L never sent (days before the last). */
+  missingDayBeforeEnd?: number;
+  blankHypotheticalBeforeEnd?: number;
+}
+
+export const SCENARIO: Record<string, EntityScenario> = {
+  "LKS-EU": { top: { code: "LKS-EU-TOTAL", seed: 1106, dailyVol: 3_200_000 }, missingDayBeforeEnd: 12 },
   // A stress episode about four months ago: the historical-simulation VaR learns late, exceptions bunch.
   "LKS-US": { top: { code: "LKS-US-TOTAL", seed: 2202, dailyVol: 4_500_000, stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 } } },
-  "LKS-AP": { top: { code: "LKS-AP-TOTAL", seed: 3303, dailyVol: 2_100_000 } },
+  "LKS-AP": { top: { code: "LKS-AP-TOTAL", seed: 3303, dailyVol: 2_100_000 }, blankHypotheticalBeforeEnd: 7 },
   "LKS-UK": {
     top: { code: "LKS-UK-TOTAL", seed: 4404, dailyVol: 0 },
     desks: [
@@ -39,5 +47,14 @@ export function demoDates(today: string, holidays: ReadonlySet<string>, years = 
 export function demoRowsFor(entityCode: string, dates: string[]): DemoRow[] {
   const spec = SCENARIO[entityCode];
   if (!spec) return [];
-  return spec.desks ? generateDeskedRows(spec.top, spec.desks, dates) : generatePortfolioRows(spec.top, dates);
+  let rows = spec.desks ? generateDeskedRows(spec.top, spec.desks, dates) : generatePortfolioRows(spec.top, dates);
+  if (spec.missingDayBeforeEnd !== undefined) {
+    const gone = dates[dates.length - 1 - spec.missingDayBeforeEnd];
+    rows = rows.filter((r) => r.date !== gone);
+  }
+  if (spec.blankHypotheticalBeforeEnd !== undefined) {
+    const blank = dates[dates.length - 1 - spec.blankHypotheticalBeforeEnd];
+    rows = rows.map((r) => (r.date === blank ? { ...r, hypothetical_pnl: null } : r));
+  }
+  return rows;
 }

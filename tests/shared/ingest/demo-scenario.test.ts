@@ -4,6 +4,7 @@ import { parseObservationCsv, serialiseObservationCsv } from "../../../shared/in
 import { backtestAt } from "../../../shared/backtest/exceptions";
 import { plaTest } from "../../../shared/backtest/pla";
 import type { Observation } from "../../../shared/backtest/types";
+import { findDataQualityIssues } from "../../../shared/ingest/data-quality";
 import type { RegimeId } from "../../../shared/schemas/common";
 
 const REGIME: Record<string, RegimeId> = { "LKS-EU": "eu", "LKS-US": "us", "LKS-AP": "basel", "LKS-UK": "frtb" };
@@ -59,6 +60,16 @@ describe.each(["2026-12-01", "2027-05-14"])("the invented Larkspur demo data see
       }),
     );
     expect(zones).toEqual({ "LKS-UK-RATES": "green", "LKS-UK-FX": "green", "LKS-UK-CREDIT": "amber", "LKS-UK-EQUITIES": "green" });
+  });
+
+  it("leaves exactly two data problems for the Data screen: a missing day for LKS-EU and a VaR without hypothetical P&L for LKS-AP; VaR moves every day", () => {
+    const kinds = (entity: string) => {
+      const { out } = seriesByPortfolio(entity, today);
+      return [...out.values()].flatMap((s) => findDataQualityIssues(s, new Set()).map((f) => f.kind));
+    };
+    expect(kinds("LKS-EU")).toEqual(["missing_day"]);
+    expect(kinds("LKS-AP")).toEqual(["var_without_pnl"]);
+    expect(kinds("LKS-US")).toEqual([]); // in particular no stale VaR: the positions change daily
   });
 
   it("is the same every time it is generated (seeded)", () => {

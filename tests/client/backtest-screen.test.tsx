@@ -201,6 +201,35 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     await waitFor(() => expect(api.callsTo("GET", "/api/portfolios/LKS-US-TOTAL/backtest").length).toBeGreaterThan(1));
   });
 
+  it("evidence uploads as the form field \"file\" and is listed as a download once the server has it", async () => {
+    const day = engine.exceptionDays[1].date;
+    const file = { id: 41, fileName: "desk-note.txt", contentType: "text/plain", sizeBytes: 1_480, sha256: "ab".repeat(32), uploadedBy: "Theo Marchetti", uploadedAt: "2026-01-05T11:00:00.000Z" };
+    let received = false;
+    const api = fakeApi(
+      routes("analyst", undefined, {
+        "GET /api/portfolios/LKS-US-TOTAL/backtest": () => ({ status: 200, body: backtestBody({ [day]: review(day, { evidence: received ? [file] : [] }) }) }),
+        [`POST /api/portfolios/LKS-US-TOTAL/exceptions/${day}/evidence`]: () => {
+          received = true;
+          return { status: 201, body: review(day, { evidence: [file] }) };
+        },
+      }),
+    );
+    const fetchStub = vi.mocked(globalThis.fetch);
+    const user = userEvent.setup();
+    renderApp(`/backtest/LKS-US-TOTAL?exception=${day}`);
+
+    await user.upload(await screen.findByLabelText("Attach a file"), new File(["Desk head's note on the payrolls day."], "desk-note.txt", { type: "text/plain" }));
+    await user.click(screen.getByRole("button", { name: "Upload" }));
+
+    await waitFor(() => expect(api.callsTo("POST", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/evidence`)).toHaveLength(1));
+    const init = fetchStub.mock.calls.find(([url]) => String(url).endsWith("/evidence"))![1]!;
+    expect(((init.body as FormData).get("file") as File).name).toBe("desk-note.txt");
+    // The upload's success refetches the backtest; the file then appears with a download link.
+    const link = await screen.findByRole("link", { name: "desk-note.txt" });
+    expect(link).toHaveAttribute("href", "/api/evidence/41");
+    expect(link).toHaveAttribute("download", "desk-note.txt");
+  });
+
   it("changing the as-of date asks the engine for that date", async () => {
     const api = fakeApi(routes("analyst", backtestBody()));
     const user = userEvent.setup();

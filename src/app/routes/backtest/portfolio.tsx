@@ -101,7 +101,9 @@ function WhatNext({ bt, code, role }: { bt: BacktestResponse; code: string; role
   const unreviewed = bt.exceptionDays.filter((d) => d.review === null).length;
   const requested = bt.exceptionDays.filter((d) => d.review?.exclusionStatus === "requested").length;
   const todo =
-    role === "analyst"
+    bt.exceptionDays.length === 0
+      ? "Nothing to explain."
+      : role === "analyst"
       ? unreviewed > 0
         ? `${plural(unreviewed, "exception is", "exceptions are")} waiting for an explanation.`
         : "Every exception in the window is explained."
@@ -151,14 +153,22 @@ function AsOfForm({ bt }: { bt: BacktestResponse }) {
         <label htmlFor="as-of" className="text-xs font-medium text-ink-soft">
           As of
         </label>
+        {/* A text field rather than the browser's date picker, so the date reads YYYY-MM-DD whatever the browser's locale. */}
         <input
           id="as-of"
-          type="date"
+          type="text"
+          inputMode="numeric"
+          pattern="[0-9]{4}-[0-9]{2}-[0-9]{2}"
+          placeholder="YYYY-MM-DD"
           value={value}
-          max={bt.latestDate}
-          onChange={(e) => setValue(e.target.value)}
-          className="figures h-8 rounded-sm border border-rule-strong bg-paper-raised px-2 text-sm focus:outline-2 focus:outline-accent"
+          onChange={(e) => setValue(e.target.value.trim())}
+          aria-describedby="as-of-hint"
+          aria-invalid={value !== "" && !isoDate.test(value) ? true : undefined}
+          className="figures h-8 w-28 rounded-sm border border-rule-strong bg-paper-raised px-2 text-sm focus:outline-2 focus:outline-accent aria-invalid:border-danger"
         />
+        <span id="as-of-hint" className="sr-only">
+          A business date, YYYY-MM-DD, on or before {bt.latestDate}
+        </span>
       </div>
       <Button type="submit" variant="secondary" size="sm" className="mb-0.5">
         Show

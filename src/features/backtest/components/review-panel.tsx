@@ -343,7 +343,7 @@ function CroDecisionForm({ code, review, date, alsoInvalidate }: { code: string;
       </fieldset>
       <div className="flex flex-wrap gap-4">
         <TextField label="Supervisor's reference" value={reference} onChange={(e) => setReference(e.target.value)} error={errors.reference} className="w-64" />
-        <TextField label="Decided on" type="date" value={decidedOn} onChange={(e) => setDecidedOn(e.target.value)} error={errors.decidedOn} className="w-44" />
+        <TextField label="Decided on" placeholder="YYYY-MM-DD" inputMode="numeric" value={decidedOn} onChange={(e) => setDecidedOn(e.target.value)} error={errors.decidedOn} className="w-44" />
       </div>
       <div>
         <Button type="submit" disabled={record.isPending}>
@@ -383,23 +383,29 @@ export function ReviewPanel({
           {day.excluded && " · excluded from the count"}
         </p>
       </div>
-      {role === "analyst" ? (
-        <AnalystReviewForm key={day.date} code={code} day={day} alsoInvalidate={alsoInvalidate} />
-      ) : review ? (
-        <ReviewRecord review={review} />
-      ) : (
-        <p className="text-sm text-ink-muted">Not reviewed yet. An analyst explains the exception here and may ask the supervisor to disregard it.</p>
-      )}
-      {role === "analyst" && review && review.exclusionStatus !== "none" && (
-        <p className="max-w-2xl border-l-2 border-rule-strong pl-3 text-sm text-ink-soft">
-          {exclusionStatusLabels[review.exclusionStatus]}
-          {review.exclusionStatus === "requested"
-            ? ": the CRO records the supervisor's decision here once it arrives."
-            : ` (${review.decisionReference ?? "no reference"}, ${review.decisionDate ?? "—"}${review.decidedBy ? `, recorded by ${review.decidedBy}` : ""}).`}
-        </p>
-      )}
-      <EvidencePanel code={code} day={day} canUpload={role === "analyst"} alsoInvalidate={alsoInvalidate} />
-      {role === "cro" && review?.exclusionStatus === "requested" && <CroDecisionForm key={day.date} code={code} review={review} date={day.date} alsoInvalidate={alsoInvalidate} />}
+      <div className="grid gap-6 lg:grid-cols-2">
+        <div className="flex flex-col gap-4">
+          {role === "analyst" ? (
+            <AnalystReviewForm key={day.date} code={code} day={day} alsoInvalidate={alsoInvalidate} />
+          ) : review ? (
+            <ReviewRecord review={review} />
+          ) : (
+            <p className="text-sm text-ink-muted">Not reviewed yet. An analyst explains the exception here and may ask the supervisor to disregard it.</p>
+          )}
+          {role === "analyst" && review && review.exclusionStatus !== "none" && (
+            <p className="max-w-2xl border-l-2 border-rule-strong pl-3 text-sm text-ink-soft">
+              {exclusionStatusLabels[review.exclusionStatus]}
+              {review.exclusionStatus === "requested"
+                ? ": the CRO records the supervisor's decision here once it arrives."
+                : ` (${review.decisionReference ?? "no reference"}, ${review.decisionDate ?? "—"}${review.decidedBy ? `, recorded by ${review.decidedBy}` : ""}).`}
+            </p>
+          )}
+        </div>
+        <div className="flex flex-col gap-5 lg:border-l lg:border-rule lg:pl-6">
+          <EvidencePanel code={code} day={day} canUpload={role === "analyst"} alsoInvalidate={alsoInvalidate} />
+          {role === "cro" && review?.exclusionStatus === "requested" && <CroDecisionForm key={day.date} code={code} review={review} date={day.date} alsoInvalidate={alsoInvalidate} />}
+        </div>
+      </div>
     </section>
   );
 }

@@ -27,6 +27,7 @@ export function RollingChart({ rows, regime, asOf, width }: { rows: RollingRowDt
     <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
       <figcaption id={titleId} className="text-sm font-medium text-ink">
         Counted exceptions in the trailing window, over the whole history
+        <span className="ml-2 text-xs font-normal text-ink-muted">dashed line: as of {asOf}</span>
       </figcaption>
       <p id={summaryId} className="sr-only">
         {rows.length} dates from {rows[0]?.date ?? "—"} to {rows.at(-1)?.date ?? "—"}. {band("green")} below {b.yellowFrom}, {band("yellow")} from{" "}
@@ -35,7 +36,7 @@ export function RollingChart({ rows, regime, asOf, width }: { rows: RollingRowDt
       </p>
       <div style={{ height: 220 }} className="w-full">
         <ResponsiveContainer width={width ?? "100%"} height={220} initialDimension={{ width: width ?? 960, height: 220 }}>
-          <LineChart data={rows} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
+          <LineChart data={rows} margin={{ top: 22, right: 16, bottom: 18, left: 8 }}>
             <ReferenceArea y1={0} y2={b.yellowFrom - 0.5} fill={bands.green} fillOpacity={0.09} stroke="none" ifOverflow="hidden"
               label={{ value: band("green"), position: "insideTopRight", fill: bands.green, fontSize: 11 }} />
             <ReferenceArea y1={b.yellowFrom - 0.5} y2={b.redFrom - 0.5} fill={bands.yellow} fillOpacity={0.1} stroke="none" ifOverflow="hidden"
@@ -51,7 +52,7 @@ export function RollingChart({ rows, regime, asOf, width }: { rows: RollingRowDt
               label={{ value: "As-of date", position: "insideBottom", offset: -10, fill: muted, fontSize: 11 }} />
             <YAxis domain={[0, top]} allowDecimals={false} tick={{ fill: muted, fontSize: 11 }} tickLine={false} axisLine={false} width={56}
               label={{ value: "Exceptions", angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }} />
-            <ReferenceLine x={asOf} stroke={ink} strokeDasharray="3 3" label={{ value: `As of ${asOf}`, position: "top", fill: ink, fontSize: 11 }} />
+            <ReferenceLine x={asOf} stroke={ink} strokeDasharray="3 3" />
             <Tooltip
               formatter={(value) => [String(value), "Counted exceptions"]}
               labelStyle={{ color: ink, fontWeight: 600 }}

@@ -16,8 +16,8 @@ function SeriesTable({ caption, results }: { caption: string; results: SeriesTes
       <thead>
         <tr>
           <Th>Test</Th>
-          <Th numeric>Statistic</Th>
-          <Th numeric>p-value</Th>
+          <Th numeric className="whitespace-nowrap">Statistic</Th>
+          <Th numeric className="whitespace-nowrap">p-value</Th>
           <Th>At 5% significance</Th>
         </tr>
       </thead>
@@ -26,7 +26,7 @@ function SeriesTable({ caption, results }: { caption: string; results: SeriesTes
           const r = results[t.key];
           return (
             <Tr key={t.key}>
-              <Td className="w-1/4">
+              <Td className="w-80">
                 <span className="font-medium">{t.name}</span>
                 <span className="block text-xs text-ink-muted">{t.asks}</span>
               </Td>
@@ -55,7 +55,7 @@ export function TestsPanel({ bt }: { bt: BacktestResponse }) {
         What the statistics say about the model
       </h3>
       {both ? (
-        <div className="grid gap-4 xl:grid-cols-2">
+        <div className="flex flex-col gap-4">
           <div className="flex flex-col gap-1">
             <h4 className="text-xs font-semibold text-ink-soft">On actual P&amp;L</h4>
             <SeriesTable caption="Statistical tests on actual P&L" results={bt.testsBySeries.actual} />

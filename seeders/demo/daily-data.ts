@@ -54,6 +54,16 @@ export interface PortfolioSpec {
 export const VAR_MARGIN = 1.2;
 
 const WARM_UP = 260; // days simulated before the first reported one, so the first VaR has its 250 days
+/**
+ * Every book is simulated over the same number of days and the last ones are reported, so the
+ * story counted back from the last day does not depend on how many holidays the calendar has.
+ */
+const SIMULATED_DAYS = 1000 + WARM_UP;
+
+function simulatedLength(reported: number): number {
+  if (reported + WARM_UP > SIMULATED_DAYS) throw new Error(`The demo generator reports at most ${SIMULATED_DAYS - WARM_UP} days`);
+  return SIMULATED_DAYS;
+}
 
 /** k-th largest loss (k from 1) among the values, as a positive amount. */
 function kthLoss(values: Float64Array, from: number, to: number, k: number, scratch: Float64Array): number {
@@ -171,7 +181,7 @@ function stressSampleFor(spec: PortfolioSpec): Float64Array {
 
 /** Daily rows of one portfolio on the given business dates (oldest first). */
 export function generatePortfolioRows(spec: PortfolioSpec, dates: string[]): DemoRow[] {
-  const book = simulateBook(spec, dates.length + WARM_UP);
+  const book = simulateBook(spec, simulatedLength(dates.length));
   return rowsFor(spec.code, spec.seed, book, dates, spec.withEs ?? false, spec.rtplLoading !== undefined, stressSampleFor(spec));
 }
 
@@ -180,7 +190,7 @@ export function generatePortfolioRows(spec: PortfolioSpec, dates: string[]): Dem
  * the same historical simulation on that sum. Returns the top rows and each desk's rows.
  */
 export function generateDeskedRows(top: { code: string; seed: number }, desks: PortfolioSpec[], dates: string[]): DemoRow[] {
-  const total = dates.length + WARM_UP;
+  const total = simulatedLength(dates.length);
   const books = desks.map((d) => simulateBook(d, total));
   const sum: SimulatedBook = { hpl: new Float64Array(total), apl: new Float64Array(total), rtpl: new Float64Array(total), sigma: new Float64Array(total) };
   for (const b of books) {

@@ -14,7 +14,7 @@ interface EntityScenario {
 export const SCENARIO: Record<string, EntityScenario> = {
   "LKS-EU": { top: { code: "LKS-EU-TOTAL", seed: 1106, dailyVol: 3_200_000 }, missingDayBeforeEnd: 12 },
   // A stress episode about four months ago: the historical-simulation VaR learns late, exceptions bunch.
-  "LKS-US": { top: { code: "LKS-US-TOTAL", seed: 2202, dailyVol: 4_500_000, stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 } } },
+  "LKS-US": { top: { code: "LKS-US-TOTAL", seed: 2203, dailyVol: 4_500_000, stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 } } },
   "LKS-AP": { top: { code: "LKS-AP-TOTAL", seed: 3303, dailyVol: 2_100_000 }, blankHypotheticalBeforeEnd: 7 },
   "LKS-UK": {
     top: { code: "LKS-UK-TOTAL", seed: 4404, dailyVol: 0 },
@@ -22,7 +22,7 @@ export const SCENARIO: Record<string, EntityScenario> = {
       { code: "LKS-UK-RATES", seed: 4413, dailyVol: 1_800_000, rtplLoading: 0.97, withEs: true },
       { code: "LKS-UK-FX", seed: 4416, dailyVol: 1_200_000, rtplLoading: 0.96, withEs: true },
       // The risk model misses part of this desk's basis risk: RTPL follows HPL only loosely.
-      { code: "LKS-UK-CREDIT", seed: 4433, dailyVol: 1_000_000, rtplLoading: 0.75, withEs: true },
+      { code: "LKS-UK-CREDIT", seed: 4433, dailyVol: 1_000_000, rtplLoading: 0.78, withEs: true },
       { code: "LKS-UK-EQUITIES", seed: 4444, dailyVol: 1_500_000, rtplLoading: 0.95, withEs: true },
     ],
   },

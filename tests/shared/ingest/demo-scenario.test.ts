@@ -1,4 +1,4 @@
-import { describe, expect, it } from "vitest";
+import { beforeEach, describe, expect, it } from "vitest";
 import { demoDates, demoRowsFor, SCENARIO } from "../../../seeders/demo/scenario";
 import { parseObservationCsv, serialiseObservationCsv } from "../../../shared/ingest/parse-csv";
 import { backtestAt } from "../../../shared/backtest/exceptions";
@@ -9,8 +9,12 @@ import type { RegimeId } from "../../../shared/schemas/common";
 
 const REGIME: Record<string, RegimeId> = { "LKS-EU": "eu", "LKS-US": "us", "LKS-AP": "basel", "LKS-UK": "frtb" };
 
+// A calendar like the seed's (fixed-date holidays on weekdays) must not change the story.
+const SEED_LIKE_HOLIDAYS = new Set(["2024-01-01", "2024-07-04", "2024-12-25", "2025-01-01", "2025-06-19", "2025-07-04", "2025-12-25", "2026-01-01", "2026-06-19", "2027-01-01"]);
+let holidays: ReadonlySet<string> = new Set();
+
 function seriesByPortfolio(entity: string, today: string) {
-  const dates = demoDates(today, new Set());
+  const dates = demoDates(today, holidays);
   const csv = serialiseObservationCsv(demoRowsFor(entity, dates));
   const portfolios = new Map(
     [SCENARIO[entity].top, ...(SCENARIO[entity].desks ?? [])].map((p) => [p.code, { entityCode: entity, holidays: new Map<string, string>() }]),
@@ -27,9 +31,17 @@ function seriesByPortfolio(entity: string, today: string) {
 
 // The demo story of DESIGN.md §9, checked with the engine for two different "today"s: the
 // generator works relative to the last business day, so the story holds whenever it is seeded.
-describe.each(["2026-12-01", "2027-05-14"])("the invented Larkspur demo data seeded on %s", (today) => {
+describe.each([
+  ["2026-12-01", "no holidays"],
+  ["2027-05-14", "no holidays"],
+  ["2026-12-01", "seed-like holidays"],
+])("the invented Larkspur demo data seeded on %s with %s", (today, calendar) => {
+  beforeEach(() => {
+    holidays = calendar === "no holidays" ? new Set() : SEED_LIKE_HOLIDAYS;
+  });
+
   it("has three years of business days ending the day before the seed runs", () => {
-    const dates = demoDates(today, new Set());
+    const dates = demoDates(today, holidays);
     expect(dates.length).toBeGreaterThan(770);
     expect(dates[dates.length - 1] < today).toBe(true);
   });
@@ -65,7 +77,7 @@ describe.each(["2026-12-01", "2027-05-14"])("the invented Larkspur demo data see
   it("leaves exactly two data problems for the Data screen: a missing day for LKS-EU and a VaR without hypothetical P&L for LKS-AP; VaR moves every day", () => {
     const kinds = (entity: string) => {
       const { out } = seriesByPortfolio(entity, today);
-      return [...out.values()].flatMap((s) => findDataQualityIssues(s, new Set()).map((f) => f.kind));
+      return [...out.values()].flatMap((s) => findDataQualityIssues(s, holidays).map((f) => f.kind));
     };
     expect(kinds("LKS-EU")).toEqual(["missing_day"]);
     expect(kinds("LKS-AP")).toEqual(["var_without_pnl"]);
@@ -73,7 +85,7 @@ describe.each(["2026-12-01", "2027-05-14"])("the invented Larkspur demo data see
   });
 
   it("is the same every time it is generated (seeded)", () => {
-    const dates = demoDates(today, new Set());
+    const dates = demoDates(today, holidays);
     expect(serialiseObservationCsv(demoRowsFor("LKS-EU", dates))).toBe(serialiseObservationCsv(demoRowsFor("LKS-EU", dates)));
   });
 });

@@ -13,7 +13,10 @@ module.exports = {
       // Set only once committed: the unique index makes "the same file twice" impossible, even at once.
       committed_sha256: { type: DataTypes.CHAR(64), allowNull: true, unique: true },
       size_bytes: { type: DataTypes.INTEGER, allowNull: false },
+      // The uploaded file, gzip-compressed (server/modules/uploads/stored-bytes.ts).
       content: { type: DataTypes.BLOB("long"), allowNull: true },
+      // The preview's valid rows, already checked and converted, so the commit need not parse the file again (gzip).
+      checked_rows: { type: DataTypes.BLOB("long"), allowNull: true },
       uploaded_by: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" } },
       status: { type: DataTypes.ENUM("preview", "committed", "discarded"), allowNull: false },
       row_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },

@@ -241,3 +241,40 @@ export function serialiseObservationCsv(rows: Partial<Record<CsvColumn, string |
   for (const r of rows) lines.push(columns.map((c) => (r[c] === null || r[c] === undefined ? "" : String(r[c]))).join(","));
   return `${lines.join("\n")}\n`;
 }
+
+/**
+ * The valid rows of a preview in a compact form (line, portfolio, date, then every amount column
+ * in ALL_COLUMNS order; empty for null) for the commit to read back without parsing the file again.
+ */
+export function serialiseCheckedRows(rows: readonly ParsedRow[]): string {
+  const out: string[] = [];
+  for (const r of rows) {
+    let line = `${r.line},${r.portfolio},${r.date}`;
+    for (const c of AMOUNT_COLUMNS) line += `,${r[c] ?? ""}`;
+    out.push(line);
+  }
+  return out.join("\n");
+}
+
+/**
+ * Reads checked rows back. The cells were validated at preview; what can have changed since is
+ * the reference data, so each row's portfolio and business day are checked again.
+ */
+export function readCheckedRows(text: string, ref: CsvReferenceData): { rows: ParsedRow[]; errors: RowError[] } {
+  const rows: ParsedRow[] = [];
+  const errors: RowError[] = [];
+  if (text === "") return { rows, errors };
+  for (const line of text.split("\n")) {
+    const cells = line.split(",");
+    const row = newRow(Number(cells[0]), cells[1], cells[2]);
+    for (let c = 0; c < AMOUNT_COLUMNS.length; c++) {
+      const v = cells[3 + c];
+      if (v !== "") row[AMOUNT_COLUMNS[c]] = Number(v);
+    }
+    const portfolio = ref.portfolios.get(row.portfolio);
+    if (!portfolio) errors.push({ line: row.line, column: "portfolio", message: `Portfolio "${row.portfolio}" no longer exists` });
+    else if (portfolio.holidays.has(row.date)) errors.push({ line: row.line, column: "date", message: `${row.date} has since become a holiday in the ${portfolio.entityCode} calendar` });
+    else rows.push(row);
+  }
+  return { rows, errors };
+}

@@ -4,6 +4,7 @@ import { sequelize } from "../../server/db/sequelize";
 import { ObservationModel } from "../../server/models/observation";
 import { UploadModel } from "../../server/models/upload";
 import { AuditEventModel } from "../../server/models/audit-event";
+import { HolidayModel } from "../../server/models/holiday";
 import { testApp } from "./helpers";
 import { csvFor, HEADER, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
 
@@ -84,6 +85,18 @@ describe("uploading daily data", () => {
     expect(results.map((r) => r.status).sort()).toEqual([200, 409]);
     expect(results.find((r) => r.status === 409)!.body.error.message).toMatch(/already committed/);
     expect(await observationCount(portfolio.id)).toBe(50);
+  });
+
+  it("when a day of the preview becomes a holiday before the commit, then the commit is refused with 409 and nothing is written", async () => {
+    const { portfolio, entity, cookie } = await ingestFixture();
+    const dates = weekdays("2026-06-01", 5);
+    const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
+    expect(preview.body.invalid).toBe(0);
+    await HolidayModel.create({ entityId: entity.id, date: dates[2], name: "Unplanned closure" });
+    const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.status).toBe(409);
+    expect(commit.body.error.message).toMatch(/reference data changed/);
+    expect(await observationCount(portfolio.id)).toBe(0);
   });
 
   it("when a preview is discarded, then it cannot be committed and nothing was written", async () => {

@@ -10,7 +10,18 @@ import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../e
 import { recordAudit } from "../audit/audit.service";
 import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type StoredDay } from "../observations/observations.repository";
 import { refreshFindings } from "../findings/findings.service";
-import { CsvFileError, decodeCsvBytes, parseObservationCsv, serialiseObservationCsv, splitCsv, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
+import { packBytes, unpackBytes } from "./stored-bytes";
+import {
+  CsvFileError,
+  decodeCsvBytes,
+  parseObservationCsv,
+  readCheckedRows,
+  serialiseCheckedRows,
+  serialiseObservationCsv,
+  splitCsv,
+  type CsvReferenceData,
+  type ParsedRow,
+} from "../../../shared/ingest/parse-csv";
 import { AMOUNT_COLUMNS, ALL_COLUMNS, type AmountColumn, type CommitResult, type RowError, type UploadPreview, type UploadRowsPage, type UploadSummary } from "../../../shared/schemas/upload";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
@@ -169,7 +180,8 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         sha256,
         committedSha256: null,
         sizeBytes: file.bytes.length,
-        content: file.bytes,
+        content: packBytes(file.bytes),
+        checkedRows: invalid === 0 ? packBytes(serialiseCheckedRows(parsed.rows)) : null,
         uploadedBy: actor.user.id,
         status: "preview",
         rowCount: parsed.totalRows,
@@ -215,7 +227,9 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     if (twin) throw duplicateError(twin);
 
     // Re-check against today's reference data: a portfolio or holiday may have changed since the preview.
-    const parsed = parseFile(upload.content!, ref);
+    const parsed = upload.checkedRows
+      ? readCheckedRows(unpackBytes(upload.checkedRows).toString("utf8"), ref)
+      : parseFile(unpackBytes(upload.content!), ref);
     if (parsed.errors.length) {
       throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
     }
@@ -229,6 +243,7 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await insertVersions(inserts, upload.id, actor.user.id, transaction);
 
     upload.status = "committed";
+    upload.checkedRows = null; // the file itself is kept with the batch it produced
     upload.committedSha256 = upload.sha256;
     upload.committedAt = new Date();
     upload.insertedCount = inserts.length;
@@ -258,6 +273,7 @@ export async function discardUpload(id: number, actor: SignedIn): Promise<void> 
     if (upload.status !== "preview") throw new ConflictError(`Upload #${id} is ${upload.status}; only a preview can be discarded.`);
     upload.status = "discarded";
     upload.content = null;
+    upload.checkedRows = null;
     await upload.save({ transaction });
     await recordAudit(actor, "upload.discard", `upload #${id}`, {}, transaction);
   });
@@ -280,7 +296,7 @@ export async function getUploadRows(id: number, query: { offset: number; limit: 
   const upload = await UploadModel.scope("withContent").findByPk(id);
   if (!upload) throw new NotFoundError(`No upload #${id}.`);
   if (!upload.content) throw new ConflictError(`Upload #${id} was discarded; its rows are no longer kept.`);
-  const text = decodeCsvBytes(upload.content);
+  const text = decodeCsvBytes(unpackBytes(upload.content));
   const data = splitCsv(text).data;
   const columns = (data[0] ?? []).map((h) => h.trim().toLowerCase());
   const errors = upload.errorsJson ? (JSON.parse(upload.errorsJson) as RowError[]) : [];

@@ -10,6 +10,7 @@ import { forecastAt } from "../shared/backtest/forecast";
 import { rollingArrays, type RollingRequest } from "../shared/backtest/rolling";
 import type { Observation } from "../shared/backtest/types";
 import { toSeries, type ObservationSeries } from "../shared/backtest/window";
+import { normal, seededRandom } from "../seeders/demo/daily-data";
 
 const PORTFOLIOS = 100;
 const DAYS = 5000;
@@ -18,29 +19,12 @@ const RUNS = 61;
 const WARMUP = 8;
 const FORECAST_RUNS = 51;
 
-/** mulberry32: small, fast, deterministic. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-function normal(rand: () => number): number {
-  const u = Math.max(rand(), 1e-12);
-  return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * rand());
-}
-
 const dates: string[] = [];
 for (let i = 0, d = "2007-01-02"; i < DAYS; i++, d = addBusinessDays(d, 1)) dates.push(d);
 
 /** Volatility clusters (GARCH(1,1)), fat-ish tails, and a VaR that is slightly off for some portfolios. */
 function generatePortfolio(p: number): ObservationSeries {
-  const rand = prng(0x9e3779b9 ^ (p * 7919));
+  const rand = seededRandom(0x9e3779b9 ^ (p * 7919));
   const actual = new Float64Array(DAYS);
   const hypothetical = new Float64Array(DAYS);
   const v = new Float64Array(DAYS);

@@ -19,7 +19,8 @@ export function seededRandom(seed: number): () => number {
   };
 }
 
-function normal(rand: () => number): number {
+/** A standard normal draw (Box–Muller). */
+export function normal(rand: () => number): number {
   const u = Math.max(rand(), 1e-12);
   return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * rand());
 }

@@ -4,7 +4,9 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import type { AddressInfo } from "node:net";
 import type { Server } from "node:http";
+import { afterAll, beforeAll } from "vitest";
 import { createApp } from "../../server/app";
+import { sequelize } from "../../server/db/sequelize";
 
 export const screenshotDir = path.resolve(import.meta.dirname, "..", "..", "test-results", "screenshots");
 
@@ -58,4 +60,25 @@ export async function keepScreenshot(page: Page, name: string): Promise<string> 
   const file = path.join(screenshotDir, `${name}.png`);
   await page.screenshot({ path: file, fullPage: true });
   return file;
+}
+
+/**
+ * The app and a browser for one test file: started before its tests, closed after them (with
+ * the database pool). `before` runs first, e.g. to load the rows the journeys need.
+ */
+export function browserSuite(before?: () => Promise<void>) {
+  const suite = {} as { app: Awaited<ReturnType<typeof startAppServer>>; context: BrowserContext };
+  let browser: Awaited<ReturnType<typeof launchBrowser>> | undefined;
+  beforeAll(async () => {
+    await before?.();
+    suite.app = await startAppServer();
+    browser = await launchBrowser();
+    suite.context = browser.context;
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await suite.app?.close();
+    await sequelize.close();
+  });
+  return suite;
 }

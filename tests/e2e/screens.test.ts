@@ -1,15 +1,11 @@
 import request from "supertest";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import type { BrowserContext, Page } from "playwright-core";
-import { sequelize } from "../../server/db/sequelize";
+import { describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
 import { createApp } from "../../server/app";
 import { createTestUser, sessionCookieFor, TEST_PASSWORD } from "../server/helpers";
 import { HEADER, ingestFixture, uploadCsv, weekdays } from "../server/ingest-helpers";
-import { keepScreenshot, launchBrowser, startAppServer, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, watchConsole } from "./browser";
 
-let app: Awaited<ReturnType<typeof startAppServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let context: BrowserContext;
 let fixture: Awaited<ReturnType<typeof ingestFixture>>;
 
 /** 300 business days with six exceptions, brought in through the API like an analyst would. */
@@ -27,31 +23,21 @@ async function loadBook() {
 }
 
 async function signInAs(page: Page, email: string) {
-  await page.goto(`${app.baseUrl}/sign-in`);
+  await page.goto(`${suite.app.baseUrl}/sign-in`);
   await page.getByLabel(/e-mail/i).fill(email);
   await page.getByLabel(/password/i).fill(TEST_PASSWORD);
   await page.getByRole("button", { name: /^sign in$/i }).click();
   await page.getByRole("heading", { name: /overview/i }).waitFor({ timeout: 15_000 });
 }
 
-beforeAll(async () => {
-  await loadBook();
-  app = await startAppServer();
-  browser = await launchBrowser();
-  context = browser.context;
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-  await sequelize.close();
-});
+const suite = browserSuite(loadBook);
 
 describe("the analyst's screens in a real browser", () => {
   it("when the analyst opens the Backtest screen of a portfolio with six exceptions, then it shows the yellow zone by name, with no console errors", async () => {
-    const page = await context.newPage();
+    const page = await suite.context.newPage();
     const errors = watchConsole(page);
     await signInAs(page, fixture.analyst.email);
-    await page.goto(`${app.baseUrl}/backtest/${fixture.portfolio.code}`);
+    await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
     await page.getByText(/yellow/i).first().waitFor({ timeout: 20_000 });
     await page.waitForLoadState("networkidle");
     await keepScreenshot(page, "backtest-analyst");
@@ -60,10 +46,10 @@ describe("the analyst's screens in a real browser", () => {
   });
 
   it("when the analyst opens the Data screen, then the upload panel and the history are there, with no console errors", async () => {
-    const page = await context.newPage();
+    const page = await suite.context.newPage();
     const errors = watchConsole(page);
     await signInAs(page, fixture.analyst.email);
-    await page.goto(`${app.baseUrl}/data`);
+    await page.goto(`${suite.app.baseUrl}/data`);
     await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
     await page.waitForLoadState("networkidle");
     await keepScreenshot(page, "data-analyst");
@@ -74,13 +60,13 @@ describe("the analyst's screens in a real browser", () => {
   it("when treasury opens the Backtest address, then the page says it is not for their role and no figures are fetched", async () => {
     const treasury = await createTestUser("treasury");
     await sessionCookieFor(treasury.id);
-    const page = await context.newPage();
+    const page = await suite.context.newPage();
     const backtestCalls: string[] = [];
     page.on("request", (r) => {
       if (r.url().includes("/backtest")) backtestCalls.push(r.url());
     });
     await signInAs(page, treasury.email);
-    await page.goto(`${app.baseUrl}/backtest/${fixture.portfolio.code}`);
+    await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
     await page.getByText(/not available for your role/i).waitFor({ timeout: 15_000 });
     await keepScreenshot(page, "backtest-treasury-refused");
     expect(backtestCalls.filter((u) => u.includes("/api/"))).toEqual([]);

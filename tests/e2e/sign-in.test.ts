@@ -1,39 +1,24 @@
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { existsSync, statSync } from "node:fs";
-import type { BrowserContext } from "playwright-core";
-import { sequelize } from "../../server/db/sequelize";
 import { createTestUser, TEST_PASSWORD } from "../server/helpers";
-import { keepScreenshot, launchBrowser, startAppServer, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, watchConsole } from "./browser";
 
-let app: Awaited<ReturnType<typeof startAppServer>>;
-let browser: Awaited<ReturnType<typeof launchBrowser>>;
-let context: BrowserContext;
-
-beforeAll(async () => {
-  app = await startAppServer();
-  browser = await launchBrowser();
-  context = browser.context;
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.close();
-  await sequelize.close();
-});
+const suite = browserSuite();
 
 describe("signing in through the real page", () => {
   it("when an analyst signs in, then the Overview appears with no console errors, and a screenshot is kept", async () => {
     const user = await createTestUser("analyst", { name: "Edda Journey" });
-    const page = await context.newPage();
+    const page = await suite.context.newPage();
     const errors = watchConsole(page);
 
-    await page.goto(`${app.baseUrl}/`);
+    await page.goto(`${suite.app.baseUrl}/`);
     await page.waitForURL(/\/sign-in/);
     await page.getByLabel(/e-mail/i).fill(user.email);
     await page.getByLabel(/password/i).fill(TEST_PASSWORD);
     await page.getByRole("button", { name: /sign in/i }).click();
 
     await page.getByRole("heading", { name: /overview/i }).waitFor({ timeout: 15_000 });
-    expect(page.url()).toBe(`${app.baseUrl}/`);
+    expect(page.url()).toBe(`${suite.app.baseUrl}/`);
     await expect(page.getByText("Edda Journey").first().isVisible()).resolves.toBe(true);
     // Cookies only: nothing of the session in browser storage.
     const stored = await page.evaluate(() => JSON.stringify({ ...localStorage }) + JSON.stringify({ ...sessionStorage }));
@@ -47,9 +32,9 @@ describe("signing in through the real page", () => {
 
   it("when the password is wrong, then the page says so and stays on sign-in", async () => {
     const user = await createTestUser("cro");
-    const page = await context.newPage();
+    const page = await suite.context.newPage();
     const errors = watchConsole(page);
-    await page.goto(`${app.baseUrl}/sign-in`);
+    await page.goto(`${suite.app.baseUrl}/sign-in`);
     await page.getByLabel(/e-mail/i).fill(user.email);
     await page.getByLabel(/password/i).fill("not the password");
     await page.getByRole("button", { name: /sign in/i }).click();

@@ -10,7 +10,7 @@ import {
   type ObservationRow,
   type RowError,
 } from "../schemas/upload";
-import { dayNumber } from "../backtest/calendar";
+import { dayNumber, fromDayNumber } from "../backtest/calendar";
 
 /** What the parser needs to know about the portfolios a file may name. */
 export interface CsvReferenceData {
@@ -242,34 +242,54 @@ export function serialiseObservationCsv(rows: Partial<Record<CsvColumn, string |
   return `${lines.join("\n")}\n`;
 }
 
+const ROW_BYTES = 4 + 4 + 4 + 8 * AMOUNT_COLUMNS.length; // line, portfolio index, day number, amounts (NaN = not reported)
+
 /**
- * The valid rows of a preview in a compact form (line, portfolio, date, then every amount column
- * in ALL_COLUMNS order; empty for null) for the commit to read back without parsing the file again.
+ * The valid rows of a preview in a compact binary form — a small JSON header naming the
+ * portfolios, then fixed-size records — for the commit to read back without parsing the file again.
  */
-export function serialiseCheckedRows(rows: readonly ParsedRow[]): string {
-  const out: string[] = [];
+export function encodeCheckedRows(rows: readonly ParsedRow[]): Uint8Array {
+  const portfolios: string[] = [];
+  const indexOf = new Map<string, number>();
+  for (const r of rows) if (!indexOf.has(r.portfolio)) indexOf.set(r.portfolio, portfolios.push(r.portfolio) - 1);
+  const header = new TextEncoder().encode(JSON.stringify({ portfolios }));
+  const out = new Uint8Array(4 + header.length + rows.length * ROW_BYTES);
+  const view = new DataView(out.buffer);
+  view.setUint32(0, header.length, true);
+  out.set(header, 4);
+  let at = 4 + header.length;
+  const dayOf = new Map<string, number>();
   for (const r of rows) {
-    let line = `${r.line},${r.portfolio},${r.date}`;
-    for (const c of AMOUNT_COLUMNS) line += `,${r[c] ?? ""}`;
-    out.push(line);
+    let day = dayOf.get(r.date);
+    if (day === undefined) dayOf.set(r.date, (day = dayNumber(r.date)));
+    view.setUint32(at, r.line, true);
+    view.setUint32(at + 4, indexOf.get(r.portfolio)!, true);
+    view.setInt32(at + 8, day, true);
+    for (let c = 0; c < AMOUNT_COLUMNS.length; c++) view.setFloat64(at + 12 + 8 * c, r[AMOUNT_COLUMNS[c]] ?? Number.NaN, true);
+    at += ROW_BYTES;
   }
-  return out.join("\n");
+  return out;
 }
 
 /**
  * Reads checked rows back. The cells were validated at preview; what can have changed since is
- * the reference data, so each row's portfolio and business day are checked again.
+ * the reference data, so each row's portfolio and holiday calendar are checked again.
  */
-export function readCheckedRows(text: string, ref: CsvReferenceData): { rows: ParsedRow[]; errors: RowError[] } {
+export function decodeCheckedRows(bytes: Uint8Array, ref: CsvReferenceData): { rows: ParsedRow[]; errors: RowError[] } {
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const headerLength = view.getUint32(0, true);
+  const { portfolios } = JSON.parse(new TextDecoder().decode(bytes.subarray(4, 4 + headerLength))) as { portfolios: string[] };
   const rows: ParsedRow[] = [];
   const errors: RowError[] = [];
-  if (text === "") return { rows, errors };
-  for (const line of text.split("\n")) {
-    const cells = line.split(",");
-    const row = newRow(Number(cells[0]), cells[1], cells[2]);
+  const dateOf = new Map<number, string>();
+  for (let at = 4 + headerLength; at + ROW_BYTES <= bytes.byteLength; at += ROW_BYTES) {
+    const day = view.getInt32(at + 8, true);
+    let date = dateOf.get(day);
+    if (date === undefined) dateOf.set(day, (date = fromDayNumber(day)));
+    const row = newRow(view.getUint32(at, true), portfolios[view.getUint32(at + 4, true)], date);
     for (let c = 0; c < AMOUNT_COLUMNS.length; c++) {
-      const v = cells[3 + c];
-      if (v !== "") row[AMOUNT_COLUMNS[c]] = Number(v);
+      const v = view.getFloat64(at + 12 + 8 * c, true);
+      if (!Number.isNaN(v)) row[AMOUNT_COLUMNS[c]] = v;
     }
     const portfolio = ref.portfolios.get(row.portfolio);
     if (!portfolio) errors.push({ line: row.line, column: "portfolio", message: `Portfolio "${row.portfolio}" no longer exists` });

@@ -1,4 +1,4 @@
-import { Op, type WhereOptions } from "sequelize";
+import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { DataFindingModel } from "../../models/data-finding";
 import { PortfolioModel } from "../../models/portfolio";
@@ -7,7 +7,7 @@ import { HolidayModel } from "../../models/holiday";
 import { UserModel } from "../../models/user";
 import { ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import { loadQualitySeries } from "../observations/observations.repository";
+import { loadQualitySeries, type QualityDay } from "../observations/observations.repository";
 import { findDataQualityIssues } from "../../../shared/ingest/data-quality";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
@@ -15,18 +15,31 @@ import type { CloseFindingBody, Finding } from "../../../shared/schemas/upload";
 
 type SignedIn = Actor & { user: SessionUser };
 
+/** What a commit already holds in memory: each portfolio's current days inside the span it wrote. */
+export interface KnownSpan {
+  from: string;
+  to: string;
+  days: ReadonlyMap<number, QualityDay[]>;
+}
+
 /**
  * Re-runs the data-quality checks on each portfolio's current series and brings the stored
  * findings in line: new problems open, problems the data no longer shows are resolved by it,
- * and what a person resolved or explained keeps their note.
+ * and what a person resolved or explained keeps their note. A commit passes its transaction (so
+ * findings change with the data, atomically) and the days it already holds (read only the rest).
  */
-export async function refreshFindings(portfolioIds: number[]): Promise<void> {
+export async function refreshFindings(portfolioIds: number[], options: { transaction?: Transaction; known?: KnownSpan } = {}): Promise<void> {
+  const { known } = options;
   for (const portfolioId of portfolioIds) {
-    const portfolio = await PortfolioModel.findByPk(portfolioId);
+    const portfolio = await PortfolioModel.findByPk(portfolioId, { transaction: options.transaction });
     if (!portfolio) continue;
-    const holidays = new Set((await HolidayModel.findAll({ where: { entityId: portfolio.entityId } })).map((h) => h.date));
-    const found = findDataQualityIssues(await loadQualitySeries(portfolioId), holidays);
-    await sequelize.transaction(async (transaction) => {
+    const holidays = new Set((await HolidayModel.findAll({ where: { entityId: portfolio.entityId }, transaction: options.transaction })).map((h) => h.date));
+    const inside = known?.days.get(portfolioId);
+    const series = known && inside
+      ? [...(await loadQualitySeries(portfolioId, known, options.transaction)), ...inside].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
+      : await loadQualitySeries(portfolioId, undefined, options.transaction);
+    const found = findDataQualityIssues(series, holidays);
+    const apply = async (transaction: Transaction) => {
       const existing = await DataFindingModel.findAll({ where: { portfolioId }, transaction, lock: transaction.LOCK.UPDATE });
       const byKey = new Map(existing.map((f) => [`${f.kind}|${f.dateFrom}`, f]));
       const seen = new Set<string>();
@@ -50,7 +63,8 @@ export async function refreshFindings(portfolioIds: number[]): Promise<void> {
           );
         }
       }
-    });
+    };
+    await (options.transaction ? apply(options.transaction) : sequelize.transaction(apply));
   }
 }
 

@@ -114,12 +114,23 @@ export async function loadSeries(portfolioId: number, from?: string, to?: string
   }));
 }
 
-/** The four columns the data-quality checks read, for one portfolio's current series (sorted). */
-export async function loadQualitySeries(portfolioId: number): Promise<{ date: string; actualPnl: number | null; hypotheticalPnl: number | null; var99: number | null }[]> {
+export interface QualityDay {
+  date: string;
+  actualPnl: number | null;
+  hypotheticalPnl: number | null;
+  var99: number | null;
+}
+
+/**
+ * The four columns the data-quality checks read, for one portfolio's current series (sorted);
+ * with `outside`, only the days before or after that span (the caller knows the days inside it).
+ */
+export async function loadQualitySeries(portfolioId: number, outside?: { from: string; to: string }, transaction?: Transaction): Promise<QualityDay[]> {
+  const span = outside ? " AND (current_day < :from OR current_day > :to)" : "";
   const rows = await sequelize.query<{ d: string; a: unknown; h: unknown; v: unknown }>(
     `SELECT DATE_FORMAT(current_day, '%Y-%m-%d') AS d, actual_pnl AS a, hypothetical_pnl AS h, var_99 AS v
-       FROM observations WHERE portfolio_id = :pid AND current_day IS NOT NULL ORDER BY current_day`,
-    { replacements: { pid: portfolioId }, type: QueryTypes.SELECT },
+       FROM observations WHERE portfolio_id = :pid AND current_day IS NOT NULL${span} ORDER BY current_day`,
+    { replacements: { pid: portfolioId, from: outside?.from, to: outside?.to }, type: QueryTypes.SELECT, transaction },
   );
   return rows.map((r) => ({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v) }));
 }

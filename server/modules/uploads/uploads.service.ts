@@ -8,15 +8,15 @@ import { EntityModel } from "../../models/entity";
 import { HolidayModel } from "../../models/holiday";
 import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type StoredDay } from "../observations/observations.repository";
+import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type QualityDay, type StoredDay } from "../observations/observations.repository";
 import { refreshFindings } from "../findings/findings.service";
 import { packBytes, unpackBytes } from "./stored-bytes";
 import {
   CsvFileError,
   decodeCsvBytes,
   parseObservationCsv,
-  readCheckedRows,
-  serialiseCheckedRows,
+  decodeCheckedRows,
+  encodeCheckedRows,
   serialiseObservationCsv,
   splitCsv,
   type CsvReferenceData,
@@ -101,6 +101,24 @@ function classify(rows: ParsedRow[], ids: Map<string, number>, stored: Map<strin
   return { inserts, retire, fresh, restated, unchanged };
 }
 
+/** Each portfolio's current days inside the committed span once the commit is written: stored days, overwritten by the file's. */
+function currentDaysInSpan(rows: ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>): Map<number, QualityDay[]> {
+  const byKey = new Map<string, QualityDay & { pid: number }>();
+  for (const day of stored.values()) {
+    byKey.set(`${day.portfolioId}|${day.date}`, { pid: day.portfolioId, date: day.date, actualPnl: day.values.actual_pnl, hypotheticalPnl: day.values.hypothetical_pnl, var99: day.values.var_99 });
+  }
+  for (const r of rows) {
+    const pid = ids.get(r.portfolio)!;
+    byKey.set(`${pid}|${r.date}`, { pid, date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null });
+  }
+  const out = new Map<number, QualityDay[]>();
+  for (const { pid, ...day } of byKey.values()) {
+    if (!out.has(pid)) out.set(pid, []);
+    out.get(pid)!.push(day);
+  }
+  return out;
+}
+
 function dateRange(rows: ParsedRow[]): { from: string; to: string } | null {
   if (rows.length === 0) return null;
   let from = rows[0].date;
@@ -181,7 +199,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         committedSha256: null,
         sizeBytes: file.bytes.length,
         content: packBytes(file.bytes),
-        checkedRows: invalid === 0 ? packBytes(serialiseCheckedRows(parsed.rows)) : null,
+        checkedRows: invalid === 0 ? packBytes(Buffer.from(encodeCheckedRows(parsed.rows))) : null,
         uploadedBy: actor.user.id,
         status: "preview",
         rowCount: parsed.totalRows,
@@ -209,7 +227,6 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
  */
 export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
   const ref = await loadReferenceData();
-  let touchedPortfolios: number[] = [];
   const result = await sequelize.transaction(async (transaction) => {
     const upload = await UploadModel.scope("withContent").findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
@@ -228,19 +245,20 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
 
     // Re-check against today's reference data: a portfolio or holiday may have changed since the preview.
     const parsed = upload.checkedRows
-      ? readCheckedRows(unpackBytes(upload.checkedRows).toString("utf8"), ref)
+      ? decodeCheckedRows(unpackBytes(upload.checkedRows), ref)
       : parseFile(unpackBytes(upload.content!), ref);
     if (parsed.errors.length) {
       throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
     }
     const range = dateRange(parsed.rows);
     const portfolioIds = [...new Set(parsed.rows.map((r) => ref.ids.get(r.portfolio)!))];
-    touchedPortfolios = portfolioIds;
     const stored = range ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true) : new Map();
     const { inserts, retire, restated, unchanged } = classify(parsed.rows, ref.ids, stored);
 
     await retireVersions(retire, transaction);
     await insertVersions(inserts, upload.id, actor.user.id, transaction);
+    // The findings change with the data, in the same transaction; the days in the span are in memory.
+    if (range) await refreshFindings(portfolioIds, { transaction, known: { ...range, days: currentDaysInSpan(parsed.rows, ref.ids, stored) } });
 
     upload.status = "committed";
     upload.checkedRows = null; // the file itself is kept with the batch it produced
@@ -262,7 +280,6 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await recordAudit(actor, "upload.commit", `upload #${id}`, { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } }, transaction);
     return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };
   });
-  await refreshFindings(touchedPortfolios);
   return result;
 }
 

@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { parseObservationCsv, serialiseObservationCsv, CsvFileError } from "../../../shared/ingest/parse-csv";
+import { parseObservationCsv, serialiseObservationCsv, CsvFileError, decodeCheckedRows, encodeCheckedRows } from "../../../shared/ingest/parse-csv";
 import { ALL_COLUMNS, REQUIRED_COLUMNS } from "../../../shared/schemas/upload";
 
 const ref = {
@@ -78,6 +78,26 @@ describe("parsing generated daily files (property-based, fast-check)", () => {
       }),
       { numRuns: 300 },
     );
+  });
+
+  it("when a preview's checked rows are encoded and decoded, then the commit sees exactly the rows the preview accepted", () => {
+    fc.assert(
+      fc.property(fc.uniqueArray(validRow, { minLength: 1, maxLength: 40, selector: (r) => `${r.portfolio}|${r.date}` }), (rows) => {
+        const business = rows.filter((r) => isBusinessDay(r.portfolio, r.date));
+        fc.pre(business.length > 0);
+        const parsed = parseObservationCsv(serialiseObservationCsv(business), ref);
+        const back = decodeCheckedRows(encodeCheckedRows(parsed.rows), ref);
+        expect(back.errors).toEqual([]);
+        expect(back.rows).toEqual(parsed.rows);
+      }),
+      { numRuns: 100 },
+    );
+  });
+
+  it("when a day became a holiday after the preview, then decoding the checked rows reports it", () => {
+    const parsed = parseObservationCsv("portfolio,date,actual_pnl,hypothetical_pnl,var_99\nBOOK-B,2026-12-25,-1,-1,10\n", ref);
+    const later = { portfolios: new Map([["BOOK-B", { entityCode: "E2", holidays: new Map([["2026-12-25", "Christmas Day"]]) }]]) };
+    expect(decodeCheckedRows(encodeCheckedRows(parsed.rows), later).errors).toEqual([expect.objectContaining({ line: 2, column: "date" })]);
   });
 
   it("the template's columns are exactly the columns the parser knows", () => {

@@ -3,6 +3,7 @@ import { ZodError, type ZodType, z } from "zod";
 import { BaseError, ConnectionError, ForeignKeyConstraintError, UniqueConstraintError } from "sequelize";
 import multer from "multer";
 import { UPLOAD_MAX_LABEL } from "../shared/schemas/upload";
+import { EngineInputError } from "../shared/backtest/errors";
 import { logger } from "./logger";
 
 /** Every failure a service means to report: status, a stable code and a sentence for a person. */
@@ -124,6 +125,8 @@ function toAppError(err: unknown): AppError {
     return new AppError(status, status === 413 ? "payload_too_large" : "bad_upload", message);
   }
   if (lostConnection(err)) return new ServiceUnavailableError();
+  // The engine refuses inputs it cannot compute on (e.g. a forecast date before the as-of date).
+  if (err instanceof EngineInputError) return new AppError(422, "cannot_compute", err.message);
   if (err instanceof ZodError) return new ValidationError(err);
   if (err instanceof ConnectionError) return new ServiceUnavailableError();
   if (err instanceof UniqueConstraintError) return new ConflictError("A record with the same key already exists.");

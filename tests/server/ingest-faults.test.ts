@@ -34,11 +34,11 @@ async function killCommitConnection(deadlineMs: number): Promise<boolean> {
 describe("the database goes away in the middle of a commit", () => {
   it("when the commit's connection is killed mid-batch, then the API answers 503 with a clear message and no row of the batch remains", async () => {
     const { portfolio, cookie, analyst } = await ingestFixture();
-    // 9,000 weekdays: several 2,000-row INSERT batches, so the kill lands between or inside them.
-    const dates = weekdays("1991-01-01", 9000);
+    // 30,000 weekdays: three 10,000-row INSERT batches, so the kill lands between or inside them.
+    const dates = weekdays("1911-01-02", 30000);
     const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
     expect(preview.status).toBe(201);
-    expect(preview.body.valid).toBe(9000);
+    expect(preview.body.valid).toBe(30000);
 
     const [commit, killed] = await Promise.all([
       request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie),
@@ -58,7 +58,7 @@ describe("the database goes away in the middle of a commit", () => {
     // The pool recovers and the same preview commits whole.
     const retry = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
     expect(retry.status).toBe(200);
-    expect(retry.body.inserted).toBe(9000);
-    expect(await ObservationModel.count({ where: { portfolioId: portfolio.id, createdBy: analyst.id } })).toBe(9000);
+    expect(retry.body.inserted).toBe(30000);
+    expect(await ObservationModel.count({ where: { portfolioId: portfolio.id, createdBy: analyst.id } })).toBe(30000);
   });
 });

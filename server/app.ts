@@ -25,7 +25,8 @@ export interface AppOptions {
   serveClient?: boolean;
 }
 
-const requestId: RequestHandler = (req, res, next) => {
+/** Every request gets an id, sent back as X-Request-Id and written beside any 500 in the log. */
+export const requestId: RequestHandler = (req, res, next) => {
   req.requestId = randomUUID();
   res.setHeader("X-Request-Id", req.requestId);
   next();

@@ -1,5 +1,5 @@
 import request from "supertest";
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it, vi } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { UserModel } from "../../server/models/user";
 import { createTestUser, sessionCookieFor, testApp, unique } from "./helpers";
@@ -48,5 +48,40 @@ describe("HTTP hardening", () => {
     expect(res.status).toBe(400);
     expect(res.body.error.message).toBe("The request body is not valid JSON.");
     expect(JSON.stringify(res.body)).not.toMatch(/at .*\.ts:\d+/);
+  });
+});
+
+describe("the one error path", () => {
+  it("when a handler throws or rejects, then a JSON 500 with the request id and no stack trace, the error is logged with that id, and the process keeps serving", async () => {
+    const { default: express } = await import("express");
+    const { errorMiddleware } = await import("../../server/errors");
+    const { requestId } = await import("../../server/app");
+    const broken = express();
+    broken.use(requestId);
+    broken.get("/throws", () => {
+      throw new Error("secret internals at /srv/app.ts:42");
+    });
+    broken.get("/rejects", async () => {
+      await Promise.reject(new TypeError("cannot read x of undefined"));
+    });
+    broken.get("/fine", (_req, res) => {
+      res.json({ ok: true });
+    });
+    broken.use(errorMiddleware);
+
+    const logged: string[] = [];
+    const spy = vi.spyOn(console, "error").mockImplementation((m: unknown) => void logged.push(String(m)));
+    try {
+      for (const path of ["/throws", "/rejects"]) {
+        const res = await request(broken).get(path);
+        expect(res.status).toBe(500);
+        expect(res.body.error).toEqual({ code: "internal_error", message: expect.stringContaining("request id"), requestId: res.headers["x-request-id"] });
+        expect(JSON.stringify(res.body)).not.toMatch(/secret internals|TypeError|\.ts:\d+/);
+        expect(logged.some((l) => l.includes(res.headers["x-request-id"]))).toBe(true);
+      }
+    } finally {
+      spy.mockRestore();
+    }
+    expect((await request(broken).get("/fine")).body).toEqual({ ok: true });
   });
 });

@@ -54,7 +54,8 @@ export function findDataQualityIssues(series: readonly QualityInput[], holidays:
   if (series.length === 0) return findings;
 
   // Missing business days between the first and the last reported day.
-  const present = new Set(series.map((o) => dayNumber(o.date)));
+  const present = new Set<number>();
+  for (const o of series) present.add(dayNumber(o.date));
   const holidayDays = new Set([...holidays].map(dayNumber));
   const missing: number[] = [];
   for (let d = dayNumber(series[0].date); d <= dayNumber(series[series.length - 1].date); d++) {

@@ -103,20 +103,25 @@ function classify(rows: ParsedRow[], ids: Map<string, number>, stored: Map<strin
 
 /** Each portfolio's current days inside the committed span once the commit is written: stored days, overwritten by the file's. */
 function currentDaysInSpan(rows: ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>): Map<number, QualityDay[]> {
-  const byKey = new Map<string, QualityDay & { pid: number }>();
+  const byPortfolio = new Map<number, Map<string, QualityDay>>();
+  const daysOf = (pid: number) => {
+    let days = byPortfolio.get(pid);
+    if (!days) byPortfolio.set(pid, (days = new Map()));
+    return days;
+  };
   for (const day of stored.values()) {
-    byKey.set(`${day.portfolioId}|${day.date}`, { pid: day.portfolioId, date: day.date, actualPnl: day.values.actual_pnl, hypotheticalPnl: day.values.hypothetical_pnl, var99: day.values.var_99 });
+    daysOf(day.portfolioId).set(day.date, { date: day.date, actualPnl: day.values.actual_pnl, hypotheticalPnl: day.values.hypothetical_pnl, var99: day.values.var_99 });
   }
+  let lastCode = "";
+  let days: Map<string, QualityDay> | undefined;
   for (const r of rows) {
-    const pid = ids.get(r.portfolio)!;
-    byKey.set(`${pid}|${r.date}`, { pid, date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null });
+    if (r.portfolio !== lastCode) {
+      lastCode = r.portfolio;
+      days = daysOf(ids.get(r.portfolio)!);
+    }
+    days!.set(r.date, { date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null });
   }
-  const out = new Map<number, QualityDay[]>();
-  for (const { pid, ...day } of byKey.values()) {
-    if (!out.has(pid)) out.set(pid, []);
-    out.get(pid)!.push(day);
-  }
-  return out;
+  return new Map([...byPortfolio].map(([pid, m]) => [pid, [...m.values()]]));
 }
 
 function dateRange(rows: ParsedRow[]): { from: string; to: string } | null {

@@ -195,32 +195,34 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData): Parsed
       }
       row[column] = value;
     }
+    // Every problem of the row is reported, not only the first.
     let day = dayOf.get(row.date);
     if (day === undefined) {
       try {
         day = dayNumber(row.date);
+        dayOf.set(row.date, day);
       } catch {
         fail(line, "date", `${row.date} is not a real calendar date`);
-        continue;
+        bad = true;
       }
-      dayOf.set(row.date, day);
     }
-    if (bad) continue;
     const portfolio = ref.portfolios.get(row.portfolio);
     if (!portfolio) {
       fail(line, "portfolio", `Unknown portfolio "${row.portfolio}"; an admin adds portfolios under Admin › Entities`);
-      continue;
+      bad = true;
     }
-    const weekday = (((day + 4) % 7) + 7) % 7;
-    if (weekday === 0 || weekday === 6) {
-      fail(line, "date", `${row.date} is a ${WEEKDAYS[weekday]}, not a business day`);
-      continue;
+    if (day !== undefined) {
+      const weekday = (((day + 4) % 7) + 7) % 7;
+      const holiday = portfolio?.holidays.get(row.date);
+      if (weekday === 0 || weekday === 6) {
+        fail(line, "date", `${row.date} is a ${WEEKDAYS[weekday]}, not a business day`);
+        bad = true;
+      } else if (holiday) {
+        fail(line, "date", `${row.date} is a holiday in the ${portfolio!.entityCode} calendar (${holiday})`);
+        bad = true;
+      }
     }
-    const holiday = portfolio.holidays.get(row.date);
-    if (holiday) {
-      fail(line, "date", `${row.date} is a holiday in the ${portfolio.entityCode} calendar (${holiday})`);
-      continue;
-    }
+    if (bad) continue;
     let seen = firstLineOf.get(row.portfolio);
     if (!seen) firstLineOf.set(row.portfolio, (seen = new Map()));
     const first = seen.get(row.date);

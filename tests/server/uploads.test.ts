@@ -202,3 +202,13 @@ describe("bad input ends in a clear error and nothing written", () => {
     expect(wrongName.status).toBe(400);
   });
 });
+
+describe("a row with several problems", () => {
+  it("when a row has an unknown portfolio and a negative VaR, then both problems are listed against their cells", async () => {
+    const { cookie } = await ingestFixture();
+    const res = await uploadCsv(app, cookie, `${HEADER}\nNOPE-${Date.now()},2026-11-02,-1,-1,-5\n`);
+    expect(res.status).toBe(201);
+    expect(res.body.invalid).toBe(1);
+    expect(res.body.errors.map((e: { column: string }) => e.column).sort()).toEqual(["portfolio", "var_99"]);
+  });
+});

@@ -143,7 +143,7 @@ function toAppError(err: unknown): AppError {
 }
 
 /** The one error path: every failure leaves as { error: { code, message, details? } }. */
-export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
+export const errorMiddleware: ErrorRequestHandler = (err, req, res, next) => {
   const appError = toAppError(err);
   if (appError.status === 500) {
     logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: ${(err as Error)?.stack ?? String(err)}`);
@@ -151,7 +151,7 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, _next) => {
     const cause = err as { code?: string; parent?: { code?: string } };
     logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: database unavailable (${cause?.parent?.code ?? cause?.code ?? "no code"})`);
   }
-  if (res.headersSent) return;
+  if (res.headersSent) return next(err); // Express closes the half-sent response
   res.status(appError.status).json({
     error: {
       code: appError.code,

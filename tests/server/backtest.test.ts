@@ -110,6 +110,13 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
       .set("Cookie", book.cookie)
       .send({ cause: "data_issue", narrative: "Changed my mind about this one entirely.", exclusion: false, version: 2 });
     expect(withdraw.status).toBe(409);
+    // Nor can the approved explanation be rewritten.
+    const rewrite = await request(app)
+      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
+      .set("Cookie", book.cookie)
+      .send({ cause: "market_move", narrative: "On reflection it was simply a market move.", exclusion: true, version: 2 });
+    expect(rewrite.status).toBe(409);
+    expect((await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } }))!.cause).toBe("data_issue");
   });
 
   it("when two analysts save the same review at once from the same version, then one wins and the other gets 409 with the current review", async () => {

@@ -2,7 +2,7 @@ import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { DataFindingModel } from "../../server/models/data-finding";
-import { testApp } from "./helpers";
+import { createTestUser, sessionCookieFor, testApp } from "./helpers";
 import { HEADER, ingestFixture, uploadCsv } from "./ingest-helpers";
 
 const app = testApp();
@@ -68,5 +68,22 @@ describe("data-quality findings", () => {
     const row = await DataFindingModel.findByPk(finding.id);
     expect(row!.status).toBe("explained");
     expect(row!.note).toBe("Office closed for a local holiday");
+  });
+});
+
+describe("findings follow the data and the calendar", () => {
+  it("when a cleared gap comes back through a restatement of the calendar, then the finding opens again", async () => {
+    const { portfolio, entity, cookie } = await ingestFixture();
+    const P = portfolio.code;
+    await commitCsv(cookie, [HEADER, `${P},2026-11-02,-1,-1,100`, `${P},2026-11-04,-1,-1,101`].join("\n"));
+    const admin = await createTestUser("admin");
+    const adminCookie = await sessionCookieFor(admin.id);
+    // Declaring 3 Nov a holiday clears the gap; removing it again brings the gap back.
+    await request(app).post(`/api/entities/${entity.code}/holidays`).set("Cookie", adminCookie).send({ date: "2026-11-03", name: "Closure" }).expect(201);
+    let finding = await DataFindingModel.findOne({ where: { portfolioId: portfolio.id, kind: "missing_day" } });
+    expect(finding!.status).toBe("resolved");
+    await request(app).delete(`/api/entities/${entity.code}/holidays/2026-11-03`).set("Cookie", adminCookie).expect(204);
+    finding = await DataFindingModel.findOne({ where: { portfolioId: portfolio.id, kind: "missing_day" } });
+    expect(finding).toMatchObject({ status: "open", note: null, dateFrom: "2026-11-03" });
   });
 });

@@ -43,13 +43,17 @@ export async function signOut(actor: Actor & { user: SessionUser }): Promise<voi
   await recordAudit(actor, "auth.sign_out", actor.user.email);
 }
 
-/** The user behind a session token, or why there is none. */
-export async function resolveSession(token: string): Promise<{ user: SessionUser } | { reason: string }> {
+/**
+ * The user behind a session token, or why there is none. `genuine` says the token was ours
+ * (signature, issuer and audience verified) but no longer valid: worth an audit event; forged or
+ * malformed tokens are only logged, so nobody can fill the audit log with garbage cookies.
+ */
+export async function resolveSession(token: string): Promise<{ user: SessionUser } | { reason: string; genuine: boolean }> {
   const verified = verifySessionToken(token);
-  if (!verified.ok) return { reason: verified.reason };
+  if (!verified.ok) return { reason: verified.reason, genuine: /expired/i.test(verified.reason) };
   const user = await UserModel.findByPk(verified.userId);
-  if (!user) return { reason: "user no longer exists" };
-  if (user.disabled) return { reason: "account disabled" };
-  if (user.tokenVersion !== verified.tokenVersion) return { reason: "session revoked" };
+  if (!user) return { reason: "user no longer exists", genuine: true };
+  if (user.disabled) return { reason: "account disabled", genuine: true };
+  if (user.tokenVersion !== verified.tokenVersion) return { reason: "session revoked", genuine: true };
   return { user: toSessionUser(user) };
 }

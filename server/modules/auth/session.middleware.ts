@@ -1,8 +1,20 @@
 import type { RequestHandler, Response } from "express";
 import { config } from "../../config";
+import { logger } from "../../logger";
 import { recordAudit } from "../audit/audit.service";
 import { resolveSession } from "./auth.service";
 import { SESSION_COOKIE, SESSION_TTL_SECONDS } from "./tokens";
+
+// Forged or malformed cookies are audited once per address and minute, and logged otherwise,
+// so the failure is on record without letting anyone fill the audit log.
+const lastForgeryAudit = new Map<string, number>();
+function firstForgeryThisMinute(ip: string): boolean {
+  const now = Date.now();
+  if ((lastForgeryAudit.get(ip) ?? 0) > now - 60_000) return false;
+  if (lastForgeryAudit.size > 10_000) lastForgeryAudit.clear();
+  lastForgeryAudit.set(ip, now);
+  return true;
+}
 
 /** Attaches req.user when the session cookie is valid; a bad token is logged and ignored here (guards answer 401). */
 export const sessionMiddleware: RequestHandler = async (req, res, next) => {
@@ -14,9 +26,13 @@ export const sessionMiddleware: RequestHandler = async (req, res, next) => {
     return next();
   }
   clearSessionCookie(res);
-  await recordAudit({ user: null, ip: req.ip ?? null, requestId: req.requestId }, "auth.session_rejected", null, {
-    after: { reason: session.reason, path: req.path },
-  });
+  if (session.genuine || firstForgeryThisMinute(req.ip ?? "unknown")) {
+    await recordAudit({ user: null, ip: req.ip ?? null, requestId: req.requestId }, "auth.session_rejected", null, {
+      after: { reason: session.reason, path: req.path },
+    });
+  } else {
+    logger.info(`[${req.requestId}] rejected a forged session cookie again (${session.reason}) from ${req.ip}`);
+  }
   next();
 };
 

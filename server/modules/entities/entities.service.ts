@@ -1,4 +1,5 @@
-import { UniqueConstraintError } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
+import { refreshFindings } from "../findings/findings.service";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { HolidayModel } from "../../models/holiday";
@@ -143,6 +144,12 @@ export async function renamePortfolio(code: string, portfolioCode: string, name:
   });
 }
 
+/** Locks the entity's portfolios in id order: calendar changes and upload commits take turns. */
+async function lockEntityPortfolios(entityId: number, transaction: Transaction): Promise<number[]> {
+  const rows = await PortfolioModel.findAll({ where: { entityId }, order: [["id", "ASC"]], transaction, lock: transaction.LOCK.UPDATE });
+  return rows.map((p) => p.id);
+}
+
 export async function listHolidays(code: string, viewer: SessionUser): Promise<Holiday[]> {
   const entity = await findEntity(code, viewer);
   const rows = await HolidayModel.findAll({ where: { entityId: entity.id }, order: [["date", "ASC"]] });
@@ -155,9 +162,11 @@ export async function addHoliday(code: string, input: CreateHolidayBody, actor: 
     throw new ConflictError(`${input.date} is already a holiday in the ${code} calendar.`);
   }
   return sequelize.transaction(async (transaction) => {
+    const portfolioIds = await lockEntityPortfolios(entity.id, transaction);
     const row = await HolidayModel.create({ entityId: entity.id, date: input.date, name: input.name }, { transaction });
     const holiday = toHoliday(row);
     await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
+    await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday
     return holiday;
   });
 }
@@ -167,7 +176,9 @@ export async function removeHoliday(code: string, date: string, actor: SignedIn)
   const row = await HolidayModel.findOne({ where: { entityId: entity.id, date } });
   if (!row) throw new NotFoundError(`${date} is not a holiday in the ${code} calendar.`);
   await sequelize.transaction(async (transaction) => {
+    const portfolioIds = await lockEntityPortfolios(entity.id, transaction);
     await row.destroy({ transaction });
     await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
+    await refreshFindings(portfolioIds, { transaction }); // the day is a business day again: data may be missing
   });
 }

@@ -6,6 +6,9 @@ import { ObservationModel } from "../../models/observation";
 import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { findPortfolio } from "../backtest/portfolio-context";
+import type { Transaction } from "sequelize";
+import type { PortfolioModel } from "../../models/portfolio";
+import type { EntityModel } from "../../models/entity";
 import { reviewsByDate } from "./reviews.read";
 import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
@@ -37,14 +40,12 @@ async function currentReview(portfolioId: number, date: string): Promise<Review 
   return (await reviewsByDate(portfolioId, [date])).get(date) ?? null;
 }
 
-/** Only a day that is an exception on the current data can be reviewed. */
-async function assertExceptionDay(code: string, date: string) {
-  const { portfolio, entity } = await findPortfolio(code);
-  const day = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date, isCurrent: true } });
+/** Only a day that is an exception on the current data can be reviewed (read under the portfolio lock). */
+async function assertExceptionDay(code: string, date: string, portfolio: PortfolioModel, entity: EntityModel, transaction: Transaction) {
+  const day = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date, isCurrent: true }, transaction });
   if (!day) throw new NotFoundError(`${code} has no data for ${date}.`);
   const c = classifyDay(day.actualPnl, day.hypotheticalPnl, day.var99, getRegime(entity.regime).missingCountsAsException);
   if (!c.actual && !c.hypothetical) throw new AppError(422, "not_an_exception", `${date} is not an exception day for ${code}: the loss did not exceed VaR.`);
-  return { portfolio, entity };
 }
 
 /**
@@ -52,10 +53,12 @@ async function assertExceptionDay(code: string, date: string) {
  * a second writer who saw an older review get 409 with the current one.
  */
 export async function saveReview(code: string, date: string, body: ReviewBody, actor: SignedIn): Promise<Review> {
-  const { portfolio } = await assertExceptionDay(code, date);
+  const { portfolio, entity } = await findPortfolio(code);
   await sequelize.transaction(async (transaction) => {
-    // Lock the portfolio row first so that two first reviews of one day queue instead of deadlocking.
+    // Lock the portfolio row first: two first reviews of one day queue instead of deadlocking, and
+    // an upload restating the day waits (or is waited for) before the day is judged an exception.
     await sequelize.query("SELECT id FROM portfolios WHERE id = :id FOR UPDATE", { replacements: { id: portfolio.id }, transaction });
+    await assertExceptionDay(code, date, portfolio, entity, transaction);
     const row = await ExceptionReviewModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date }, transaction, lock: transaction.LOCK.UPDATE });
     const seen = body.version ?? 0;
     if ((row?.version ?? 0) !== seen) {
@@ -68,8 +71,9 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
     let exclusionStatus: ExclusionStatus = row?.exclusionStatus ?? "none";
     if (body.exclusion && (exclusionStatus === "none" || exclusionStatus === "rejected")) exclusionStatus = "requested";
     if (!body.exclusion && exclusionStatus === "requested") exclusionStatus = "none";
-    if (!body.exclusion && exclusionStatus === "approved") {
-      throw new ConflictError("The supervisor approved disregarding this exception; only the CRO can change a recorded decision.");
+    if (exclusionStatus === "approved") {
+      // The supervisor approved this explanation: neither the request nor its grounds change quietly.
+      throw new ConflictError("The supervisor approved disregarding this exception on the recorded explanation; it can no longer be changed here.");
     }
     if (row) {
       await row.update({ cause: body.cause, narrative: body.narrative, exclusionStatus, reviewedBy: actor.user.id, version: row.version + 1 }, { transaction });

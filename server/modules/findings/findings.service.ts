@@ -50,6 +50,9 @@ export async function refreshFindings(portfolioIds: number[], options: { transac
         const stored = byKey.get(key);
         if (!stored) {
           fresh.push({ portfolioId, kind: f.kind, dateFrom: f.from, dateTo: f.to, detail: f.detail.slice(0, 500), note: null, closedBy: null, closedAt: null });
+        } else if (stored.status === "resolved" && stored.closedBy === null) {
+          // The data had cleared it and now shows it again: open once more.
+          await stored.update({ status: "open", note: null, closedAt: null, dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
         } else if (stored.dateTo !== f.to || stored.detail !== f.detail) {
           await stored.update({ dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
         }

@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { Op, UniqueConstraintError } from "sequelize";
+import { Op, UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { UploadModel } from "../../models/upload";
 import { UserModel } from "../../models/user";
@@ -47,9 +47,9 @@ function assertPlainFileName(name: string): string {
 }
 
 /** Every portfolio a file may name, with its entity's holiday calendar. */
-async function loadReferenceData(): Promise<CsvReferenceData & { ids: Map<string, number> }> {
-  const portfolios = await PortfolioModel.findAll({ include: [{ model: EntityModel, as: "entity" }] });
-  const holidays = await HolidayModel.findAll();
+async function loadReferenceData(transaction?: Transaction): Promise<CsvReferenceData & { ids: Map<string, number> }> {
+  const portfolios = await PortfolioModel.findAll({ include: [{ model: EntityModel, as: "entity" }], transaction });
+  const holidays = await HolidayModel.findAll({ transaction });
   const byEntity = new Map<number, Map<string, string>>();
   for (const h of holidays) {
     if (!byEntity.has(h.entityId)) byEntity.set(h.entityId, new Map());
@@ -231,14 +231,14 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
  * the old one; the same file can be committed only once (unique committed_sha256).
  */
 export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
-  const ref = await loadReferenceData();
+  const idsBefore = (await loadReferenceData()).ids;
   const result = await sequelize.transaction(async (transaction) => {
     const upload = await UploadModel.scope("withContent").findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
     if (upload.status === "committed") throw new ConflictError(`Upload #${id} is already committed.`);
     if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
     // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
-    const lockedIds = previewPortfolioIds(upload, ref.ids);
+    const lockedIds = previewPortfolioIds(upload, idsBefore);
     if (lockedIds.length) {
       await sequelize.query("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id FOR UPDATE", { replacements: { ids: lockedIds }, transaction });
     }
@@ -248,7 +248,8 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     const twin = await findCommittedTwin(upload.sha256, id);
     if (twin) throw duplicateError(twin);
 
-    // Re-check against today's reference data: a portfolio or holiday may have changed since the preview.
+    // Re-check against today's reference data, read after the locks (holiday changes take the same locks).
+    const ref = await loadReferenceData(transaction);
     const parsed = upload.checkedRows
       ? decodeCheckedRows(unpackBytes(upload.checkedRows), ref)
       : parseFile(unpackBytes(upload.content!), ref);

@@ -72,10 +72,13 @@ export async function updateUser(id: number, change: UpdateUserBody, actor: Admi
 }
 
 export async function resetPassword(id: number, password: string, actor: AdminActor): Promise<void> {
-  const row = await findUser(id);
-  row.passwordHash = await hashPassword(password);
-  row.tokenVersion = row.tokenVersion + 1;
+  await findUser(id);
+  const passwordHash = await hashPassword(password); // slow on purpose: outside the transaction
   await sequelize.transaction(async (transaction) => {
+    const row = await UserModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!row) throw new NotFoundError(`No user with id ${id}.`);
+    row.passwordHash = passwordHash;
+    row.tokenVersion = row.tokenVersion + 1; // from the locked row: every older session ends
     await row.save({ transaction });
     await recordAudit(actor, "user.reset_password", row.email, {}, transaction);
   });

@@ -1,4 +1,5 @@
 import { EngineInputError } from "./errors";
+import { dayNumber, fromDayNumber } from "./calendar";
 import type { Observation } from "./types";
 
 /** Digits at positions [from, from + length) of s as a number, or −1 if any is not a digit. */
@@ -151,4 +152,28 @@ export function toSeries(observations: readonly Observation[], confidence = 0.99
     v[i] = r == null ? NaN : r;
   }
   return { dates, actual, hypothetical, var: v, hasMissing };
+}
+
+/**
+ * The series with a placeholder (every value null) for each business day between its first and
+ * last date that has no row at all. Under FRTB such a day counts as an exception like any day with
+ * P&L or VaR missing (MAR32.5(2)); the caller applies it where the rule set says so.
+ */
+export function withMissingBusinessDays(observations: readonly Observation[], holidays: ReadonlySet<string>): Observation[] {
+  if (observations.length < 2) return [...observations];
+  const out: Observation[] = [];
+  let previous = dayNumber(observations[0].date);
+  out.push(observations[0]);
+  for (let i = 1; i < observations.length; i++) {
+    const current = dayNumber(observations[i].date);
+    for (let d = previous + 1; d < current; d++) {
+      const weekday = (((d + 4) % 7) + 7) % 7;
+      if (weekday === 0 || weekday === 6) continue;
+      const date = fromDayNumber(d);
+      if (!holidays.has(date)) out.push({ date, actualPnl: null, hypotheticalPnl: null, var99: null });
+    }
+    out.push(observations[i]);
+    previous = current;
+  }
+  return out;
 }

@@ -7,6 +7,7 @@ import { deskBacktest } from "../../../shared/backtest/frtb-desk";
 import { plaTest } from "../../../shared/backtest/pla";
 import { capitalAddOn } from "../../../shared/backtest/capital";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
+import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { countOpenFindings } from "../findings/findings.service";
 import { loadSeries } from "../observations/observations.repository";
 import { loadPortfolioContext, type PortfolioContext } from "./portfolio-context";
@@ -28,7 +29,8 @@ async function deskResults(ctx: PortfolioContext, asOf: string): Promise<DeskRes
   const desks = await PortfolioModel.findAll({ where: { entityId: ctx.entity.id, level: "desk" }, order: [["code", "ASC"]] });
   const results: DeskResult[] = [];
   for (const desk of desks) {
-    const series = (await loadSeries(desk.id, undefined, asOf)) as Observation[];
+    // MAR32.5(2): a desk's unreported business day counts as an exception too.
+    const series = withMissingBusinessDays((await loadSeries(desk.id, undefined, asOf)) as Observation[], ctx.holidays);
     if (series.length === 0) continue;
     const bt = deskBacktest(series, asOf);
     const paired = series.slice(-250).filter((o) => o.hypotheticalPnl !== null && o.rtpl != null);

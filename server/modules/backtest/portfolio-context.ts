@@ -5,6 +5,8 @@ import { ExceptionReviewModel } from "../../models/exception-review";
 import { NotFoundError } from "../../errors";
 import { loadSeries } from "../observations/observations.repository";
 import type { Observation } from "../../../shared/backtest/types";
+import { getRegime } from "../../../shared/backtest/regimes";
+import { withMissingBusinessDays } from "../../../shared/backtest/window";
 
 export interface PortfolioContext {
   portfolio: PortfolioModel;
@@ -29,11 +31,13 @@ export async function loadPortfolioContext(code: string): Promise<PortfolioConte
     loadSeries(portfolio.id),
     ExceptionReviewModel.findAll({ where: { portfolioId: portfolio.id, exclusionStatus: "approved" }, attributes: ["businessDate"] }),
   ]);
+  const holidaySet = new Set(holidays.map((h) => h.date));
   return {
     portfolio,
     entity,
-    holidays: new Set(holidays.map((h) => h.date)),
-    series,
+    holidays: holidaySet,
+    // FRTB: a business day never reported counts as an exception (MAR32.5(2)), so it must be in the window.
+    series: getRegime(entity.regime).missingCountsAsException ? withMissingBusinessDays(series, holidaySet) : series,
     excludedDates: new Set(approved.map((r) => r.businessDate)),
   };
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
 import { userListSchema, userSchema, type CreateUserBody, type UpdateUserBody } from "@shared/schemas/admin";
 import { api } from "@/lib/api-client";
+import { assignmentQueries } from "./assignment-queries";
 
 export const userQueries = {
   root: () => ["users"] as const,
@@ -23,7 +24,7 @@ export function useUpdateUser() {
     onSuccess: () =>
       Promise.all([
         queryClient.invalidateQueries({ queryKey: userQueries.root() }),
-        queryClient.invalidateQueries({ queryKey: ["regulator-assignments"] }),
+        queryClient.invalidateQueries({ queryKey: assignmentQueries.root() }),
       ]),
   });
 }

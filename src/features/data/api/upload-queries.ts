@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
 import { commitResultSchema, uploadListSchema, uploadPreviewSchema, uploadRowsPageSchema } from "@shared/schemas/upload";
 import { api, withQuery } from "@/lib/api-client";
+import { everyFigure } from "@/lib/query-scope";
 import { findingQueries } from "./finding-queries";
 
 /** The empty file with the header row and two example days; a plain download. */
@@ -46,10 +47,11 @@ export function useCommitUpload() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: number) => api.post(`/api/uploads/${id}/commit`, undefined, commitResultSchema),
-    // Committed rows change the history and can open or close data-quality findings.
+    // Committed rows change the history, the findings and every figure computed from the data
+    // (zone, count, multiplier, add-on on the Overview and Backtest screens).
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries(allButRows),
+        queryClient.invalidateQueries({ predicate: (q) => everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows") }),
         queryClient.invalidateQueries({ queryKey: findingQueries.root() }),
       ]),
   });

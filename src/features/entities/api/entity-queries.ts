@@ -11,6 +11,7 @@ import {
   type CreatePortfolioBody,
   type UpdateEntityBody,
 } from "@shared/schemas/admin";
+import { everyFigure } from "@/lib/query-scope";
 import { api } from "@/lib/api-client";
 
 const base = (code: string) => `/api/entities/${encodeURIComponent(code)}`;
@@ -42,7 +43,8 @@ export function useUpdateEntity(code: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: UpdateEntityBody) => api.patch(base(code), body, entitySchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.all().queryKey }),
+    // Rule set, basis and addend move the entity's zone, multiplier and capital everywhere.
+    onSuccess: () => queryClient.invalidateQueries(everyFigure),
   });
 }
 
@@ -67,7 +69,8 @@ export function useAddHoliday(code: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (body: CreateHolidayBody) => api.post(`${base(code)}/holidays`, body, holidaySchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.holidays(code).queryKey }),
+    // A calendar change moves roll-off dates and data-quality findings too.
+    onSuccess: () => queryClient.invalidateQueries(everyFigure),
   });
 }
 
@@ -75,6 +78,6 @@ export function useRemoveHoliday(code: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (date: string) => api.del(`${base(code)}/holidays/${encodeURIComponent(date)}`),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.holidays(code).queryKey }),
+    onSuccess: () => queryClient.invalidateQueries(everyFigure),
   });
 }

@@ -1,4 +1,6 @@
 // For sequelize-cli only (e.g. `npx sequelize-cli db:migrate:status`); the product reads server/config.ts.
+// sequelize-cli loads this CommonJS file itself and cannot import the TypeScript config, so the
+// defaults are repeated here: keep them in line with server/config.ts.
 const fs = require("fs");
 const path = require("path");
 const credsFile = path.resolve(__dirname, "..", "..", ".data", "db-credentials.json");

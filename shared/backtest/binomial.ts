@@ -1,3 +1,4 @@
+import { EngineInputError } from "./errors";
 /**
  * Exact binomial probabilities, accurate to ~1e-14 relative for windows of several thousand
  * observations: Loader's saddle-point form (the one R's dbinom uses), which works with the
@@ -50,8 +51,8 @@ function deviance(x: number, m: number): number {
 }
 
 function assertArguments(n: number, p: number): void {
-  if (!Number.isInteger(n) || n < 0) throw new RangeError(`n must be a non-negative integer, got ${n}`);
-  if (!(p >= 0 && p <= 1)) throw new RangeError(`p must lie in [0, 1], got ${p}`);
+  if (!Number.isInteger(n) || n < 0) throw new EngineInputError(`n must be a non-negative integer, got ${n}`);
+  if (!(p >= 0 && p <= 1)) throw new EngineInputError(`p must lie in [0, 1], got ${p}`);
 }
 
 /** ln P(X = k) for X ~ Binomial(n, p); -Infinity outside the support. k must be an integer. */

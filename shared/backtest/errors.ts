@@ -1,9 +1,9 @@
 /**
- * Raised when the engine is given data it cannot compute on (unsorted or duplicate dates,
- * malformed dates, non-finite numbers). The message names the offending date so an analyst
- * can find the row.
+ * Raised when the engine is given data or arguments it cannot compute on (unsorted or duplicate
+ * dates, malformed dates, non-finite numbers, out-of-range parameters). The message names the
+ * offending date or field. A RangeError, so callers may treat it as one; the server answers 422.
  */
-export class EngineInputError extends Error {
+export class EngineInputError extends RangeError {
   readonly code = "ENGINE_INPUT";
   readonly date?: string;
   readonly field?: string;

@@ -1,5 +1,7 @@
 import { sampleRankCorrelation } from "simple-statistics";
 import { EngineInputError } from "./errors";
+import { lastIndexOnOrBefore } from "./window";
+import type { Observation } from "./types";
 
 /**
  * FRTB P&L attribution test (Basel Framework MAR32.34–32.42): Spearman rank correlation and the
@@ -74,4 +76,17 @@ export function plaTest(hpl: readonly number[], rtpl: readonly number[]): PlaRes
   const spearman = spearmanCorrelation(h, r);
   const ks = ksStatistic(h, r);
   return { spearman, ks, zone: plaZone(spearman, ks), observations: h.length };
+}
+
+/**
+ * A desk's P&L attribution test at an as-of date: the last 250 observations on or before it, the
+ * days with both HPL and RTPL reported paired in order. Null when fewer than two such days exist.
+ */
+export function deskPla(observations: readonly Observation[], asOf: string): PlaResult | null {
+  const end = lastIndexOnOrBefore(observations, asOf);
+  if (end < 0) return null;
+  const window = observations.slice(Math.max(0, end - PLA_WINDOW + 1), end + 1);
+  const paired = window.filter((o) => o.hypotheticalPnl != null && o.rtpl != null);
+  if (paired.length < 2) return null;
+  return plaTest(paired.map((o) => o.hypotheticalPnl as number), paired.map((o) => o.rtpl as number));
 }

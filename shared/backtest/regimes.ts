@@ -1,3 +1,4 @@
+import { EngineInputError } from "./errors";
 import type { PnlBasis, RegimeId } from "../schemas/common";
 import { binomialCdf } from "./binomial";
 import type { Zone } from "./types";
@@ -122,7 +123,7 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
 
 export function getRegime(id: RegimeId): RegimeRules {
   const rules = REGIMES[id];
-  if (!rules) throw new RangeError(`Unknown rule set "${String(id)}"; expected one of ${Object.keys(REGIMES).join(", ")}`);
+  if (!rules) throw new EngineInputError(`Unknown rule set "${String(id)}"; expected one of ${Object.keys(REGIMES).join(", ")}`);
   return rules;
 }
 
@@ -158,7 +159,7 @@ export function deriveZoneBoundaries(windowSize: number, confidence = 0.99): { y
 export function zoneBoundariesFor(regime: RegimeId | RegimeRules, windowSize = STANDARD_WINDOW): ZoneBoundaries {
   const rules = resolve(regime);
   if (windowSize === STANDARD_WINDOW) return { ...rules.zoneBoundaries, provisional: false };
-  if (!Number.isInteger(windowSize) || windowSize < 1) throw new RangeError(`windowSize must be a positive integer, got ${windowSize}`);
+  if (!Number.isInteger(windowSize) || windowSize < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
   const key = String(windowSize);
   let found = derivedBoundaries.get(key);
   if (!found) {

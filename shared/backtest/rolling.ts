@@ -1,3 +1,4 @@
+import { EngineInputError } from "./errors";
 import type { PnlBasis, RegimeId } from "../schemas/common";
 import { getRegime, plusFactorFor, STANDARD_WINDOW, zoneFor, type RegimeRules } from "./regimes";
 import type { Zone } from "./types";
@@ -315,7 +316,7 @@ function writeLookup(counted: CountArray, { table, out }: LookupOutput): void {
 export function rollingArrays(series: ObservationSeries, requests: readonly RollingRequest[], windowSize = STANDARD_WINDOW): RollingArrays {
   const n = series.dates.length;
   const w = windowSize;
-  if (!Number.isInteger(w) || w < 1) throw new RangeError(`windowSize must be a positive integer, got ${w}`);
+  if (!Number.isInteger(w) || w < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${w}`);
   const arena = new Arena(n, 3, requests.length, w >= 32768);
 
   interface Resolved {

@@ -1,3 +1,4 @@
+import { EngineInputError } from "./errors";
 import type { TestOutcome } from "./types";
 
 /** 5% critical values of χ²(1) and χ²(2) (REFERENCE.md §5). */
@@ -65,7 +66,7 @@ function percent(value: number): string {
 }
 
 function assertCount(name: string, value: number): void {
-  if (!Number.isInteger(value) || value < 0) throw new RangeError(`${name} must be a non-negative integer, got ${value}`);
+  if (!Number.isInteger(value) || value < 0) throw new EngineInputError(`${name} must be a non-negative integer, got ${value}`);
 }
 
 /**
@@ -75,7 +76,7 @@ function assertCount(name: string, value: number): void {
 export function kupiecPof(exceptions: number, n: number, p = 0.01): TestOutcome {
   assertCount("exceptions", exceptions);
   assertCount("n", n);
-  if (exceptions > n) throw new RangeError(`exceptions (${exceptions}) cannot exceed observations (${n})`);
+  if (exceptions > n) throw new EngineInputError(`exceptions (${exceptions}) cannot exceed observations (${n})`);
   if (n === 0) {
     return { statistic: 0, pValue: 1, reject: false, verdict: "No observations, so the exception rate cannot be tested." };
   }

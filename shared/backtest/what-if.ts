@@ -1,3 +1,4 @@
+import { EngineInputError } from "./errors";
 import { capitalAddOnFromInputs, capitalInputsAt, requirementFromInputs } from "./capital";
 import { backtestAt } from "./exceptions";
 import { getRegime, plusFactorFor, zoneFor } from "./regimes";
@@ -32,9 +33,9 @@ export interface WhatIfResult {
 
 export function whatIf(observations: readonly Observation[], opts: WhatIfOptions): WhatIfResult {
   const extra = opts.extraExceptions ?? 0;
-  if (!Number.isInteger(extra) || extra < 0) throw new RangeError(`extraExceptions must be a non-negative whole number, got ${extra}`);
+  if (!Number.isInteger(extra) || extra < 0) throw new EngineInputError(`extraExceptions must be a non-negative whole number, got ${extra}`);
   for (const [name, v] of [["varScale", opts.varScale], ["svarScale", opts.svarScale]] as const) {
-    if (v !== undefined && !(Number.isFinite(v) && v >= 0)) throw new RangeError(`${name} must be a non-negative number, got ${v}`);
+    if (v !== undefined && !(Number.isFinite(v) && v >= 0)) throw new EngineInputError(`${name} must be a non-negative number, got ${v}`);
   }
   const rules = getRegime(opts.regime);
   const windowSize = opts.windowSize ?? 250;

@@ -100,3 +100,40 @@ describe("the access policy table", () => {
     }
   }
 });
+
+// Written out by hand from DESIGN.md §2, independently of the policy table, so that a wrong entry
+// in the table cannot pass by agreeing with itself.
+const MUST_REFUSE: [Role, string][] = [
+  ...(["treasury", "regulator"] as const).flatMap((role): [Role, string][] => [
+    [role, "GET /api/overview"],
+    [role, "GET /api/portfolios/:code/backtest"],
+    [role, "GET /api/portfolios/:code/rolling"],
+    [role, "GET /api/portfolios/:code/observations"],
+    [role, "GET /api/evidence/:id"],
+    [role, "GET /api/uploads"],
+    [role, "POST /api/uploads"],
+    [role, "GET /api/findings"],
+    [role, "PUT /api/portfolios/:code/exceptions/:date/review"],
+    [role, "PUT /api/portfolios/:code/exceptions/:date/decision"],
+    [role, "GET /api/users"],
+    [role, "GET /api/audit-events"],
+  ]),
+  ["admin", "PUT /api/portfolios/:code/exceptions/:date/decision"], // no sign-off rights
+  ["admin", "POST /api/uploads/:id/commit"],
+  ["analyst", "PUT /api/portfolios/:code/exceptions/:date/decision"], // the CRO records decisions
+  ["cro", "POST /api/uploads"], // the CRO reads data; analysts bring it in
+  ["analyst", "POST /api/users"],
+  ["cro", "PATCH /api/entities/:code"],
+];
+
+describe("what DESIGN.md §2 forbids, checked without the policy table", () => {
+  for (const [role, key] of MUST_REFUSE) {
+    it(`${key} as ${role} → 403`, async () => {
+      const [method, path] = key.split(" ") as [string, string];
+      const cookie = await sessionCookieFor(cookies.get(role)!);
+      const call = request(app)[method.toLowerCase() as "get"](concrete(path).replace(":id", "1")).set("Cookie", cookie);
+      const res = await (method === "GET" || method === "DELETE" ? call : call.send({}));
+      expect(res.status).toBe(403);
+    });
+  }
+});

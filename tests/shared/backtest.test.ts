@@ -78,7 +78,7 @@ describe("backtest at an as-of date", () => {
     const obs = buildSeries({ days: 250, actualAt: [1, 2, 3, 4, 5], hypotheticalAt: [1, 2, 3, 4, 5] });
     const r = backtestAt(obs, { regime: "basel", asOf: lastDate(obs), excludedDates: new Set([obs[1].date]) });
     expect(r.exceptions).toEqual({ actual: 5, hypothetical: 5, counted: 4, excluded: 1 });
-    expect(r.zone).toBe("green");
+    expect(r.zone).toBe("green"); // zero exceptions lie in the green zone (BCBS 1996 Table 2)
   });
 
   it("when FRTB sees a day with P&L missing, then it counts as an exception on that series; VaR missing counts on both (MAR32.5(2))", () => {

@@ -69,7 +69,7 @@ describe("capital requirement, Basel 2.5 / EU / US", () => {
   it("when fewer than 60 observations or no sVaR exist, then the figure is computed from what there is and warnings say so", () => {
     const obs = days(20, () => ({ var10d: 100 }));
     const r = capitalRequirement(obs, { regime: "eu", asOf: lastOf(obs), count: 0 });
-    expect(r.requirement).toBe(300);
+    expect(r.requirement).toBe(300); // 3 × 100 with no sVaR term (worked by hand)
     expect(r.inputs.warnings.join(" ")).toMatch(/Only 20 observations/);
     expect(r.inputs.warnings.join(" ")).toMatch(/No stressed VaR/);
   });

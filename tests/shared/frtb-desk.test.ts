@@ -109,3 +109,22 @@ describe("P&L attribution test on full series", () => {
     expect(() => plaTest([1, 2], [1])).toThrow(/2 days and RTPL 1/);
   });
 });
+
+describe("a desk's P&L attribution at an as-of date", () => {
+  it("uses the 250 observations up to the as-of date and skips days without RTPL (MAR32.34)", async () => {
+    const { deskPla, plaTest } = await import("../../shared/backtest/pla");
+    const obs = Array.from({ length: 300 }, (_, i) => ({
+      date: new Date(Date.UTC(2025, 0, 1) + i * 86_400_000).toISOString().slice(0, 10),
+      actualPnl: 0,
+      hypotheticalPnl: Math.sin(i) * 100,
+      var99: 10,
+      rtpl: i % 10 === 0 ? null : Math.sin(i) * 100 + Math.cos(3 * i) * 20,
+    }));
+    const asOf = obs[279].date;
+    const window = obs.slice(30, 280).filter((o) => o.rtpl !== null);
+    const expected = plaTest(window.map((o) => o.hypotheticalPnl), window.map((o) => o.rtpl as number));
+    expect(deskPla(obs, asOf)).toEqual(expected);
+    expect(expected.observations).toBe(225); // 250 days minus the 25 without RTPL (worked by hand)
+    expect(deskPla(obs, "2024-12-31")).toBeNull();
+  });
+});

@@ -1,5 +1,5 @@
 import fc from "fast-check";
-import { capitalAddOn } from "../../shared/backtest/capital";
+import { capitalAddOn, capitalRequirement } from "../../shared/backtest/capital";
 import { backtestAt, rollingBacktest } from "../../shared/backtest/exceptions";
 import { multiplierFor, plusFactorFor, zoneFor } from "../../shared/backtest/regimes";
 import type { Observation, Zone } from "../../shared/backtest/types";
@@ -60,7 +60,7 @@ describe("engine invariants", () => {
     );
   });
 
-  it("the capital add-on is never negative", () => {
+  it("the capital add-on is never negative: the requirement with the plus factor is never below the one without it (checked unclamped)", () => {
     const positive = fc.option(fc.double({ min: 0, max: 1e9, noNaN: true }), { nil: null, freq: 8 });
     fc.assert(
       fc.property(
@@ -70,8 +70,13 @@ describe("engine invariants", () => {
         fc.double({ min: 0, max: 2, noNaN: true }),
         (days, regime, count, addend) => {
           const obs = asObservations(days.map((d) => ({ ...d, actualPnl: 0, hypotheticalPnl: 0, var99: d.var99 ?? 1, es975: d.es975 ?? 1 })));
-          const addOn = capitalAddOn(obs, { regime, asOf: obs[obs.length - 1].date, count, qualitativeAddend: addend });
+          const asOf = obs[obs.length - 1].date;
+          const addOn = capitalAddOn(obs, { regime, asOf, count, qualitativeAddend: addend });
           expect(addOn).toBeGreaterThanOrEqual(0);
+          // capitalAddOn clamps at 0, so compare the two requirements themselves as well.
+          const withPlus = capitalRequirement(obs, { regime, asOf, count, qualitativeAddend: addend }).requirement;
+          const without = capitalRequirement(obs, { regime, asOf, count, qualitativeAddend: addend, plusFactor: 0 }).requirement;
+          expect(withPlus).toBeGreaterThanOrEqual(without);
           expect(Number.isFinite(addOn)).toBe(true);
         },
       ),

@@ -4,7 +4,7 @@ import { PortfolioModel } from "../../models/portfolio";
 import { backtestAt, rollingBacktest } from "../../../shared/backtest/exceptions";
 import { rollOffs } from "../../../shared/backtest/forecast";
 import { deskBacktest } from "../../../shared/backtest/frtb-desk";
-import { plaTest } from "../../../shared/backtest/pla";
+import { deskPla } from "../../../shared/backtest/pla";
 import { capitalAddOn } from "../../../shared/backtest/capital";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
@@ -33,8 +33,7 @@ async function deskResults(ctx: PortfolioContext, asOf: string): Promise<DeskRes
     const series = withMissingBusinessDays((await loadSeries(desk.id, undefined, asOf)) as Observation[], ctx.holidays);
     if (series.length === 0) continue;
     const bt = deskBacktest(series, asOf);
-    const paired = series.slice(-250).filter((o) => o.hypotheticalPnl !== null && o.rtpl != null);
-    const pla = paired.length >= 2 ? plaTest(paired.map((o) => o.hypotheticalPnl!), paired.map((o) => o.rtpl!)) : null;
+    const pla = deskPla(series, asOf);
     results.push({
       portfolio: desk.code,
       name: desk.name,

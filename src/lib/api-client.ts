@@ -46,6 +46,16 @@ export function fieldErrorsOf(e: unknown): Record<string, string> {
   return out;
 }
 
+/** The ApiError for a failed answer: the server's own `{ error }` body, or a plain sentence when it sent none. */
+export function apiErrorFrom(status: number, statusText: string, json: unknown): ApiError {
+  const parsed = apiErrorSchema.safeParse(json);
+  if (parsed.success) {
+    const { code, message, details } = parsed.data.error;
+    return new ApiError(status, code, message, details);
+  }
+  return new ApiError(status, "http_error", `The server answered ${status} ${statusText || ""}`.trim() + ".");
+}
+
 type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
 async function request<S extends z.ZodType | undefined>(
@@ -78,14 +88,7 @@ async function request<S extends z.ZodType | undefined>(
     }
   }
 
-  if (!res.ok) {
-    const parsed = apiErrorSchema.safeParse(json);
-    if (parsed.success) {
-      const { code, message, details } = parsed.data.error;
-      throw new ApiError(res.status, code, message, details);
-    }
-    throw new ApiError(res.status, "http_error", `The server answered ${res.status} ${res.statusText || ""}`.trim() + ".");
-  }
+  if (!res.ok) throw apiErrorFrom(res.status, res.statusText, json);
 
   if (!schema) return undefined as never;
   const parsed = schema.safeParse(json);

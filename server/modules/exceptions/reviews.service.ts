@@ -6,6 +6,7 @@ import { ObservationModel } from "../../models/observation";
 import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { findPortfolio } from "../backtest/portfolio-context";
+import { plainFileName } from "../../http/file-name";
 import type { Transaction } from "sequelize";
 import type { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
@@ -110,9 +111,7 @@ export async function recordDecision(code: string, date: string, body: DecisionB
 
 export async function addEvidence(code: string, date: string, file: { originalName: string; bytes: Buffer }, actor: SignedIn): Promise<Review> {
   const { portfolio } = await findPortfolio(code);
-  const name = file.originalName;
-  // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
-  if (/[/\\]|\.\.|[\u0000-\u001f]/.test(name) || name.length > 255) throw new BadRequestError("The file name must be a plain name without folders.");
+  const name = plainFileName(file.originalName);
   if (file.bytes.length === 0) throw new BadRequestError("The file is empty.");
   const contentType = sniffEvidenceType(file.bytes, name);
   if (!contentType) throw new AppError(415, "unsupported_media_type", "Evidence must be a PDF, PNG, JPEG, or a plain-text / CSV / e-mail text file.");

@@ -6,11 +6,12 @@ import { UserModel } from "../../models/user";
 import { PortfolioModel } from "../../models/portfolio";
 import { EntityModel } from "../../models/entity";
 import { HolidayModel } from "../../models/holiday";
-import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
+import { AppError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type QualityDay, type StoredDay } from "../observations/observations.repository";
 import { refreshFindings } from "../findings/findings.service";
 import { packBytes, unpackBytes } from "./stored-bytes";
+import { plainFileName } from "../../http/file-name";
 import {
   CsvFileError,
   decodeCsvBytes,
@@ -37,13 +38,10 @@ export interface IncomingFile {
   bytes: Buffer;
 }
 
-function assertPlainFileName(name: string): string {
-  // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
-  if (/[/\\]/.test(name) || name.includes("..") || /[\u0000-\u001f]/.test(name)) {
-    throw new BadRequestError("The file name must be a plain name without folders.");
-  }
+function assertCsvFileName(name: string): string {
+  plainFileName(name);
   if (!/\.csv$/i.test(name)) throw new AppError(415, "unsupported_media_type", "Only .csv files are accepted.");
-  return name.slice(0, 255);
+  return name;
 }
 
 /** Every portfolio a file may name, with its entity's holiday calendar. */
@@ -183,7 +181,7 @@ function previewPortfolioIds(upload: UploadModel, ids: ReadonlyMap<string, numbe
 
 /** Checks a file and keeps it as a preview: nothing reaches the observations yet. */
 export async function previewUpload(file: IncomingFile, actor: SignedIn): Promise<UploadPreview> {
-  const fileName = assertPlainFileName(file.originalName);
+  const fileName = assertCsvFileName(file.originalName);
   const sha256 = createHash("sha256").update(file.bytes).digest("hex");
   const twin = await findCommittedTwin(sha256);
   if (twin) throw duplicateError(twin);

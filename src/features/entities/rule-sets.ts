@@ -1,12 +1,8 @@
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 import { REGIMES } from "@shared/backtest/regimes";
 
-export const ruleSetLabels: Record<RegimeId, string> = {
-  basel: "Basel 2.5",
-  us: "US market risk rule",
-  eu: "EU CRR",
-  frtb: "FRTB IMA",
-};
+/** Each rule set's name, as the engine's rule table writes it. */
+export const ruleSetLabels = Object.fromEntries((Object.keys(REGIMES) as RegimeId[]).map((id) => [id, REGIMES[id].label])) as Record<RegimeId, string>;
 
 export const pnlBasisLabels: Record<PnlBasis, string> = {
   actual: "Actual P&L",

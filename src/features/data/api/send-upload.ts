@@ -1,8 +1,7 @@
 import { useState } from "react";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { apiErrorSchema } from "@shared/schemas/common";
 import { UPLOAD_MAX_BYTES, UPLOAD_MAX_LABEL, uploadPreviewSchema, type UploadPreview } from "@shared/schemas/upload";
-import { ApiError } from "@/lib/api-client";
+import { ApiError, apiErrorFrom } from "@/lib/api-client";
 import { uploadQueries } from "./upload-queries";
 
 
@@ -18,9 +17,7 @@ function errorOf(status: number, statusText: string, text: string): ApiError {
   } catch {
     json = undefined;
   }
-  const parsed = apiErrorSchema.safeParse(json);
-  if (parsed.success) return new ApiError(status, parsed.data.error.code, parsed.data.error.message, parsed.data.error.details);
-  return new ApiError(status, "http_error", `The server answered ${status} ${statusText || ""}`.trim() + ".");
+  return apiErrorFrom(status, statusText, json);
 }
 
 /**

@@ -6,7 +6,7 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import { pathToFileURL } from "node:url";
-import Papa from "papaparse";
+import { CsvFileError, parseObservationCsv, splitCsv } from "../shared/ingest/parse-csv";
 import { EngineInputError } from "../shared/backtest/errors";
 import { backtestAt, type BacktestResult } from "../shared/backtest/exceptions";
 import { getRegime } from "../shared/backtest/regimes";
@@ -44,22 +44,6 @@ Options:
   --help           show this text
 `;
 
-const REQUIRED = ["portfolio", "date", "actual_pnl", "hypothetical_pnl", "var_99"] as const;
-const OPTIONAL = ["var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses", "rtpl"] as const;
-const AMOUNT_FIELDS: Record<string, keyof Observation> = {
-  actual_pnl: "actualPnl",
-  hypothetical_pnl: "hypotheticalPnl",
-  var_99: "var99",
-  var_975: "var975",
-  svar_99: "svar99",
-  var_10d: "var10d",
-  svar_10d: "svar10d",
-  es_975: "es975",
-  ses: "ses",
-  rtpl: "rtpl",
-};
-const NOT_NEGATIVE = new Set(["var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses"]);
-const AMOUNT = /^-?\d+(\.\d+)?$/;
 const REGIME_IDS: readonly RegimeId[] = ["basel", "us", "eu", "frtb"];
 const BASES: readonly PnlBasis[] = ["actual", "hypothetical", "max"];
 const MAX_ERRORS_SHOWN = 20;
@@ -105,71 +89,49 @@ function parseArgs(argv: readonly string[]): CliOptions | "help" {
   return { file: values.file, regime: values.regime as RegimeId, asOf: values["as-of"], basis: values.basis as PnlBasis | undefined, json };
 }
 
-/** Reads the CSV into observations grouped by portfolio (in date order), or throws with every row error. */
+/**
+ * Reads the CSV into observations grouped by portfolio (in date order), or throws with every row
+ * error. The same parser and rules as an upload (shared/ingest/parse-csv.ts); the file's own
+ * portfolio codes are taken as known and no holiday calendar applies (weekends still do).
+ */
 export function parseObservationsCsv(text: string): Map<string, Observation[]> {
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ""), { skipEmptyLines: "greedy" });
-  const rows = parsed.data;
-  if (rows.length === 0) throw new CliInputError("The file is empty: expected a header row and data rows.");
-  const header = rows[0].map((h) => h.trim().toLowerCase());
-  const known = new Set<string>([...REQUIRED, ...OPTIONAL]);
-  const unknown = header.filter((h) => !known.has(h));
-  if (unknown.length) {
-    throw new CliInputError(
-      `Unknown column${unknown.length > 1 ? "s" : ""} ${unknown.map((h) => `"${h}"`).join(", ")}. Allowed: ${[...REQUIRED, ...OPTIONAL].join(", ")}.`,
-    );
+  const body = text.replace(/^\uFEFF/, "");
+  let parsed: ReturnType<typeof parseObservationCsv>;
+  try {
+    const cells = splitCsv(body).data;
+    const portfolioAt = (cells[0] ?? []).map((h) => h.trim().toLowerCase()).indexOf("portfolio");
+    const codes = new Set(cells.slice(1).map((r) => (r[portfolioAt] ?? "").trim().toUpperCase()).filter(Boolean));
+    parsed = parseObservationCsv(body, { portfolios: new Map([...codes].map((c) => [c, { entityCode: "file", holidays: new Map() }])) });
+  } catch (err) {
+    if (err instanceof CsvFileError) {
+      const details = err.errors.map((e) => `  line ${e.line}, column ${e.column}: ${e.message}`);
+      throw new CliInputError([err.message, ...details].join("\n"));
+    }
+    throw err;
   }
-  const duplicated = header.filter((h, i) => header.indexOf(h) !== i);
-  if (duplicated.length) throw new CliInputError(`Column "${duplicated[0]}" appears more than once in the header.`);
-  const missing = REQUIRED.filter((h) => !header.includes(h));
-  if (missing.length) throw new CliInputError(`Missing required column${missing.length > 1 ? "s" : ""}: ${missing.join(", ")}.`);
-
-  const errors: string[] = [];
+  if (parsed.errors.length) {
+    const shown = parsed.errors.slice(0, MAX_ERRORS_SHOWN).map((e) => `  line ${e.line}, column ${e.column}: ${e.message}`);
+    if (parsed.errors.length > MAX_ERRORS_SHOWN) shown.push(`  … and ${parsed.errors.length - MAX_ERRORS_SHOWN} more`);
+    throw new CliInputError(`The file has ${parsed.errors.length} problem${parsed.errors.length > 1 ? "s" : ""}:\n${shown.join("\n")}`);
+  }
   const byPortfolio = new Map<string, Observation[]>();
-  for (let r = 1; r < rows.length; r++) {
-    const line = r + 1;
-    const cells = rows[r];
-    if (cells.length !== header.length) {
-      errors.push(`line ${line}: expected ${header.length} values, found ${cells.length}`);
-      continue;
-    }
-    const cell = (name: string): string => (cells[header.indexOf(name)] ?? "").trim();
-    const portfolio = cell("portfolio");
-    const date = cell("date");
-    if (!portfolio) errors.push(`line ${line}, column portfolio: empty`);
-    if (!isIsoDate(date)) errors.push(`line ${line}, column date: "${date}" is not a real date written YYYY-MM-DD`);
-    const obs: Observation = { date, actualPnl: null, hypotheticalPnl: null, var99: null };
-    for (const name of header) {
-      const field = AMOUNT_FIELDS[name];
-      if (!field) continue;
-      const raw = cell(name);
-      if (raw === "") continue;
-      if (!AMOUNT.test(raw)) {
-        errors.push(`line ${line}, column ${name}: "${raw}" is not an amount (digits, optional minus sign, dot decimal)`);
-        continue;
-      }
-      const value = Number(raw);
-      if (!Number.isFinite(value)) {
-        errors.push(`line ${line}, column ${name}: "${raw}" is out of range`);
-        continue;
-      }
-      if (NOT_NEGATIVE.has(name) && value < 0) {
-        errors.push(`line ${line}, column ${name}: a risk measure is reported as a positive amount, got ${raw}`);
-        continue;
-      }
-      (obs as unknown as Record<string, number>)[field] = value;
-    }
-    if (!portfolio) continue;
-    let list = byPortfolio.get(portfolio);
-    if (!list) byPortfolio.set(portfolio, (list = []));
-    list.push(obs);
+  for (const r of parsed.rows) {
+    let list = byPortfolio.get(r.portfolio);
+    if (!list) byPortfolio.set(r.portfolio, (list = []));
+    list.push({
+      date: r.date,
+      actualPnl: r.actual_pnl ?? null,
+      hypotheticalPnl: r.hypothetical_pnl ?? null,
+      var99: r.var_99 ?? null,
+      var975: r.var_975 ?? null,
+      svar99: r.svar_99 ?? null,
+      var10d: r.var_10d ?? null,
+      svar10d: r.svar_10d ?? null,
+      es975: r.es_975 ?? null,
+      ses: r.ses ?? null,
+      rtpl: r.rtpl ?? null,
+    });
   }
-  for (const e of parsed.errors) errors.push(`line ${(e.row ?? 0) + 1}: ${e.message}`);
-  if (errors.length) {
-    const shown = errors.slice(0, MAX_ERRORS_SHOWN).map((e) => `  ${e}`);
-    if (errors.length > MAX_ERRORS_SHOWN) shown.push(`  … and ${errors.length - MAX_ERRORS_SHOWN} more`);
-    throw new CliInputError(`The file has ${errors.length} problem${errors.length > 1 ? "s" : ""}:\n${shown.join("\n")}`);
-  }
-  if (byPortfolio.size === 0) throw new CliInputError("The file has a header but no data rows.");
   for (const list of byPortfolio.values()) list.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
   return byPortfolio;
 }

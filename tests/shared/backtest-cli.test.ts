@@ -73,7 +73,7 @@ describe("backtest command", () => {
     const file = writeCsv("missing.csv", "portfolio,date,actual_pnl,var_99\nA,2026-01-02,1,1\n");
     const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-02"]);
     expect(code).toBe(1);
-    expect(err).toMatch(/Missing required column: hypothetical_pnl/);
+    expect(err).toMatch(/line 1, column hypothetical_pnl: Required column "hypothetical_pnl" is missing/);
   });
 
   it("when rows hold a bad amount, a bad date or a negative VaR, then it exits 1 with the line and column of each", () => {
@@ -84,16 +84,17 @@ describe("backtest command", () => {
     const { code, err } = run(["--file", file, "--regime", "us", "--as-of", "2026-01-30"]);
     expect(code).toBe(1);
     expect(err).toMatch(/3 problems/);
-    expect(err).toMatch(/line 2, column actual_pnl: "1 234.5" is not an amount/);
-    expect(err).toMatch(/line 3, column date: "2026-02-30"/);
-    expect(err).toMatch(/line 4, column var_99: a risk measure is reported as a positive amount/);
+    // The same words as an upload's preview (shared/ingest/parse-csv.ts).
+    expect(err).toMatch(/line 2, column actual_pnl: "1 234.5" is not a plain decimal amount/);
+    expect(err).toMatch(/line 3, column date: 2026-02-30 is not a real calendar date/);
+    expect(err).toMatch(/line 4, column var_99: var_99 must be a positive amount/);
   });
 
   it("when a portfolio has the same date twice, then it exits 1 naming the portfolio and the date", () => {
     const file = writeCsv("dup.csv", "portfolio,date,actual_pnl,hypothetical_pnl,var_99\nA,2026-01-02,1,1,1\nA,2026-01-02,2,2,1\n");
     const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-30"]);
     expect(code).toBe(1);
-    expect(err).toMatch(/Portfolio A: Duplicate observation for 2026-01-02/);
+    expect(err).toMatch(/line 3, column date: A on 2026-01-02 already appears on line 2/);
   });
 
   it("when the arguments are wrong, then it explains; --help prints the usage and exits 0", () => {

@@ -30,6 +30,8 @@ module.exports = {
       qualitative_addend: { type: DataTypes.DECIMAL(6, 4), allowNull: false, defaultValue: 0 },
       supervisor_name: { type: DataTypes.STRING(120), allowNull: true },
       supervisor_emails: { type: DataTypes.TEXT, allowNull: false },
+      // Row version: two admins editing the same entity cannot both win (optimistic locking).
+      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
       ...timestamps,
     });
 

@@ -12,6 +12,7 @@ export class EntityModel extends Model<InferAttributes<EntityModel>, InferCreati
   declare qualitativeAddend: CreationOptional<number>;
   declare supervisorName: string | null;
   declare supervisorEmails: string[];
+  declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -45,6 +46,7 @@ EntityModel.init(
         this.setDataValue("supervisorEmails", JSON.stringify(value ?? []) as unknown as string[]);
       },
     },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },

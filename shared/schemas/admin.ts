@@ -54,6 +54,8 @@ export const entitySchema = z.object({
   qualitativeAddend: z.number(),
   supervisorName: z.string().nullable(),
   supervisorEmails: z.array(z.string()),
+  /** Row version, sent back with an edit: a stale one is refused (409). */
+  version: z.number().int(),
 });
 export type Entity = z.infer<typeof entitySchema>;
 export const entityListSchema = z.array(entitySchema);
@@ -79,8 +81,9 @@ export const updateEntityBodySchema = z
     qualitativeAddend: z.number().min(0, "Cannot be negative").max(1, "At most 1").optional(),
     supervisorName: plainNameSchema.nullable().optional(),
     supervisorEmails: supervisorEmailsSchema.optional(),
+    version: z.number().int().positive("Send the entity's version as you read it"),
   })
-  .refine((b) => Object.keys(b).length > 0, "Nothing to change");
+  .refine((b) => Object.keys(b).some((k) => k !== "version"), "Nothing to change");
 export type UpdateEntityBody = z.infer<typeof updateEntityBodySchema>;
 
 export const entityParamSchema = z.object({ code: entityCodeSchema });

@@ -12,6 +12,7 @@ const entity = {
   qualitativeAddend: 0.25,
   supervisorName: "Prudential desk",
   supervisorEmails: ["desk@supervisor.test"],
+  version: 3,
 };
 
 describe("Admin › Entities", () => {
@@ -30,7 +31,7 @@ describe("Admin › Entities", () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
       "GET /api/entities": { status: 200, body: [] },
-      "POST /api/entities": ({ body }) => ({ status: 201, body: { qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], ...(body as object) } }),
+      "POST /api/entities": ({ body }) => ({ status: 201, body: { qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1, ...(body as object) } }),
     });
     const user = userEvent.setup();
     renderApp("/admin/entities");
@@ -108,6 +109,34 @@ describe("Admin › Entities", () => {
     const portfolios = screen.getByRole("table", { name: "Portfolios of LKS-UK" });
     const levels = within(portfolios).getAllByRole("row").slice(1).map((r) => (r as HTMLTableRowElement).cells[2].textContent);
     expect(levels).toEqual(["Top of house", "Trading desk"]);
+  });
+
+  it("when an admin saves the addend, then only the change and the version read are sent; a 409 shows the server's message", async () => {
+    let conflict = false;
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [entity] },
+      "GET /api/entities/LKS-UK/portfolios": { status: 200, body: [] },
+      "GET /api/entities/LKS-UK/holidays": { status: 200, body: [] },
+      "PATCH /api/entities/LKS-UK": ({ body }) =>
+        conflict
+          ? { status: 409, body: { error: { code: "conflict", message: "Someone else changed LKS-UK since you opened it (now version 4)." } } }
+          : { status: 200, body: { ...entity, ...(body as object), version: 4 } },
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/entities/LKS-UK");
+    const addend = await screen.findByLabelText("Qualitative addend");
+    await user.clear(addend);
+    await user.type(addend, "0.3");
+    await user.click(screen.getByRole("button", { name: /save changes/i }));
+    await screen.findByText("Changes saved.");
+    expect(api.callsTo("PATCH", "/api/entities/LKS-UK")[0].body).toEqual({ qualitativeAddend: 0.3, version: 3 });
+
+    conflict = true;
+    await user.clear(addend);
+    await user.type(addend, "0.4");
+    await user.click(screen.getByRole("button", { name: /save changes/i }));
+    expect(await screen.findByText(/Someone else changed LKS-UK/)).toBeInTheDocument();
   });
 
   it("when the entity code does not exist, then the page says so", async () => {

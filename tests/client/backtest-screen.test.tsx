@@ -52,7 +52,7 @@ function backtestBody(reviews: Record<string, Review> = {}) {
   };
 }
 
-const entities = [{ code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [] }];
+const entities = [{ code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 }];
 
 function routes(role: "analyst" | "cro", body: unknown, extra: Record<string, Reply | ((c: { body: unknown }) => Reply)> = {}) {
   return {

@@ -4,8 +4,8 @@ import { fakeApi, signedInAs, type Call } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const entities = [
-  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [] },
-  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [] },
+  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
 ];
 
 function finding(id: number, over: Record<string, unknown> = {}) {

@@ -3,7 +3,7 @@ import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const entities = [
-  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [] },
+  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
 ];
 
 // Figures as the server's engine would return them; the screen only formats them.

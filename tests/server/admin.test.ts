@@ -89,7 +89,7 @@ describe("managing entities, portfolios and calendars", () => {
       .set("Cookie", admin)
       .send({ code, name: "Test Securities", regime: "us", currency: "USD", supervisorEmails: ["desk@sup.test"] });
     expect(res.status).toBe(201);
-    expect(res.body).toEqual({ code, name: "Test Securities", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: ["desk@sup.test"] });
+    expect(res.body).toEqual({ code, name: "Test Securities", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: ["desk@sup.test"], version: 1 });
     const row = await EntityModel.findOne({ where: { code } });
     expect(row!.pnlBasis).toBe("actual");
     expect(await AuditEventModel.count({ where: { action: "entity.create", target: code } })).toBe(1);
@@ -116,10 +116,19 @@ describe("managing entities, portfolios and calendars", () => {
 
   it("when an admin edits the qualitative addend, then it is stored as a decimal and read back as a number", async () => {
     const entity = await createTestEntity();
-    const res = await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.25 });
+    const res = await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.25, version: 1 });
     expect(res.status).toBe(200);
-    expect(res.body.qualitativeAddend).toBe(0.25);
+    expect(res.body).toMatchObject({ qualitativeAddend: 0.25, version: 2 });
     expect((await EntityModel.findByPk(entity.id))!.qualitativeAddend).toBe(0.25);
+  });
+
+  it("when two admins edit the same entity from the same version, then the second gets 409 with the current entity and its change is not applied", async () => {
+    const entity = await createTestEntity();
+    await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.1, version: 1 }).expect(200);
+    const late = await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.5, version: 1 });
+    expect(late.status).toBe(409);
+    expect(late.body.error.details.current).toMatchObject({ qualitativeAddend: 0.1, version: 2 });
+    expect((await EntityModel.findByPk(entity.id))!.qualitativeAddend).toBe(0.1);
   });
 
   it("when portfolios are added, then they list top of house first and a duplicate code is refused", async () => {

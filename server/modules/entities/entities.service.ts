@@ -32,6 +32,7 @@ export function toEntity(row: EntityModel): Entity {
     qualitativeAddend: row.qualitativeAddend,
     supervisorName: row.supervisorName,
     supervisorEmails: row.supervisorEmails,
+    version: row.version,
   };
 }
 
@@ -95,7 +96,13 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
   return sequelize.transaction(async (transaction) => {
     const row = await EntityModel.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw new NotFoundError(`No entity with code ${code}.`);
+    if (row.version !== change.version) {
+      throw new ConflictError(`Someone else changed ${code} since you opened it (now version ${row.version}). Reload and apply your change again.`, {
+        current: toEntity(row),
+      });
+    }
     const before = toEntity(row);
+    row.version = row.version + 1;
     if (change.name !== undefined) row.name = change.name;
     if (change.regime !== undefined) row.regime = change.regime;
     if (change.pnlBasis !== undefined) row.pnlBasis = change.pnlBasis;

@@ -118,7 +118,8 @@ export function EntityForm(props: Props) {
       setDone("Nothing has changed.");
       return;
     }
-    const r = validate(updateEntityBodySchema, changed);
+    // The version we read: if someone else saved in between, the server refuses with 409.
+    const r = validate(updateEntityBodySchema, { ...changed, version: editing.version });
     if (!r.ok) return fail(r.errors);
     setErrors({});
     update.mutate(r.data, {

@@ -1,3 +1,4 @@
+import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { z } from "zod";
 
 export type FieldErrors = Record<string, string | undefined>;
@@ -26,4 +27,9 @@ export function splitList(s: string): string[] {
 /** Focuses the first field that carries an error so keyboard users land on it. */
 export function focusFirstInvalid(form: HTMLFormElement | null) {
   requestAnimationFrame(() => form?.querySelector<HTMLElement>("[aria-invalid='true']")?.focus());
+}
+
+/** The message to show above a form: the server's, unless it belongs beside the fields. */
+export function formLevelMessage(error: unknown): string | undefined {
+  return isApiError(error) && Object.keys(fieldErrorsOf(error)).length === 0 ? error.message : undefined;
 }

@@ -42,11 +42,15 @@ function FieldShell({
   );
 }
 
-export function TextField({ label, error, hint, className, id: givenId, ...input }: Common & InputHTMLAttributes<HTMLInputElement>) {
+/** The ids that tie a control to its hint and error text (aria-describedby). */
+function useFieldIds(givenId: string | undefined, error: unknown, hint: unknown) {
   const autoId = useId();
   const id = givenId ?? autoId;
-  const errorId = error ? `${id}-error` : undefined;
-  const hintId = hint && !error ? `${id}-hint` : undefined;
+  return { id, errorId: error ? `${id}-error` : undefined, hintId: hint && !error ? `${id}-hint` : undefined };
+}
+
+export function TextField({ label, error, hint, className, id: givenId, ...input }: Common & InputHTMLAttributes<HTMLInputElement>) {
+  const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
       <input
@@ -69,10 +73,7 @@ export function SelectField({
   children,
   ...select
 }: Common & SelectHTMLAttributes<HTMLSelectElement>) {
-  const autoId = useId();
-  const id = givenId ?? autoId;
-  const errorId = error ? `${id}-error` : undefined;
-  const hintId = hint && !error ? `${id}-hint` : undefined;
+  const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
       <select

@@ -4,6 +4,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { formLevelMessage } from "@/lib/form";
 import { useAddAssignment, useRemoveAssignment } from "../api/assignment-queries";
 
 type Props = { assignments: Assignment[]; users: User[]; entities: Pick<Entity, "code" | "name">[] };
@@ -49,7 +50,7 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
       </EmptyState>
     );
   }
-  const formError = isApiError(add.error) && Object.keys(fieldErrorsOf(add.error)).length === 0 ? add.error.message : undefined;
+  const formError = formLevelMessage(add.error);
 
   return (
     <form onSubmit={submit} noValidate aria-labelledby="add-assignment-title" className="flex flex-col gap-2">

@@ -3,8 +3,8 @@ import { createUserBodySchema } from "@shared/schemas/admin";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
-import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
+import { fieldErrorsOf } from "@/lib/api-client";
+import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { useCreateUser } from "../api/user-queries";
 
@@ -41,7 +41,7 @@ export function CreateUserForm() {
     });
   }
 
-  const formError = isApiError(create.error) && Object.keys(fieldErrorsOf(create.error)).length === 0 ? create.error.message : undefined;
+  const formError = formLevelMessage(create.error);
 
   return (
     <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="create-user-title" className="flex flex-col gap-3">

@@ -3,8 +3,8 @@ import { createEntityBodySchema, updateEntityBodySchema, type Entity } from "@sh
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
-import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusFirstInvalid, splitList, validate, type FieldErrors } from "@/lib/form";
+import { fieldErrorsOf } from "@/lib/api-client";
+import { focusFirstInvalid, formLevelMessage, splitList, validate, type FieldErrors } from "@/lib/form";
 import { useCreateEntity, useUpdateEntity } from "../api/entity-queries";
 import { defaultPnlBasis, pnlBasisIds, pnlBasisLabels, ruleSetIds, ruleSetLabels } from "../rule-sets";
 
@@ -129,7 +129,7 @@ export function EntityForm(props: Props) {
   }
 
   const formError =
-    isApiError(mutation.error) && Object.keys(fieldErrorsOf(mutation.error)).length === 0 ? mutation.error.message : undefined;
+    formLevelMessage(mutation.error);
   const titleId = editing ? "edit-entity-title" : "create-entity-title";
 
   return (

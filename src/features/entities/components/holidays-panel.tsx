@@ -4,7 +4,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
+import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { formatBusinessDate } from "@/lib/format";
 import { useAddHoliday, useRemoveHoliday } from "../api/entity-queries";
 
@@ -31,7 +31,7 @@ function AddHolidayForm({ entityCode }: { entityCode: string }) {
       },
     });
   }
-  const formError = isApiError(add.error) && Object.keys(fieldErrorsOf(add.error)).length === 0 ? add.error.message : undefined;
+  const formError = formLevelMessage(add.error);
 
   return (
     <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="add-holiday-title" className="flex flex-col gap-2">

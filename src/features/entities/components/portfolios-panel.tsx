@@ -5,7 +5,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
+import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { useCreatePortfolio, useRenamePortfolio } from "../api/entity-queries";
 
 const levelLabels: Record<PortfolioLevel, string> = { top: "Top of house", desk: "Trading desk" };
@@ -61,7 +61,7 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
       },
     });
   }
-  const formError = isApiError(create.error) && Object.keys(fieldErrorsOf(create.error)).length === 0 ? create.error.message : undefined;
+  const formError = formLevelMessage(create.error);
 
   return (
     <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="add-portfolio-title" className="flex flex-col gap-2">

@@ -16,8 +16,17 @@ const RUNS = 3;
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
+let firstUploadId = 0;
+
+async function lastUploadId(admin: mariadb.Connection): Promise<number> {
+  const [row] = (await admin.query("SELECT MAX(id) AS id FROM uploads")) as { id: number }[];
+  return Number(row.id);
+}
+
 async function main() {
-  const codes = Array.from({ length: PORTFOLIOS * RUNS }, (_, i) => `BENCH-P${String(i).padStart(2, "0")}`);
+  // Each run has portfolios of its own for the API and for LOAD DATA, so that neither writes over
+  // rows the other deleted, and the two take turns going first.
+  const codes = Array.from({ length: PORTFOLIOS * RUNS * 2 }, (_, i) => `BENCH-P${String(i).padStart(2, "0")}`);
   const bench = await prepareBenchDatabase("quartermark_bench", codes);
   const server = await startBuiltServer(bench.name);
   const baselineRss = server.rssMb("VmRSS");
@@ -28,38 +37,51 @@ async function main() {
   const loadRates: number[] = [];
   const phases: string[] = [];
   for (let run = 0; run < RUNS; run++) {
-    const runCodes = codes.slice(run * PORTFOLIOS, (run + 1) * PORTFOLIOS);
-    const csv = benchCsv(runCodes, benchWeekdays(1960 + run, ROWS / PORTFOLIOS));
+    const apiCodes = codes.slice(2 * run * PORTFOLIOS, (2 * run + 1) * PORTFOLIOS);
+    const loadCodes = codes.slice((2 * run + 1) * PORTFOLIOS, (2 * run + 2) * PORTFOLIOS);
+    const dates = benchWeekdays(1960 + run, ROWS / PORTFOLIOS);
+    const csv = benchCsv(apiCodes, dates);
 
     // 1. Through the API: multipart upload → preview → commit.
-    const r = await uploadAndCommit(server, csv, `bench-${run}.csv`);
-    if (r.inserted !== ROWS) throw new Error(`expected ${ROWS} rows written, got ${r.inserted}`);
-    const rate = ROWS / ((r.previewMs + r.commitMs) / 1000);
-    apiRates.push(rate);
-    phases.push(`run ${run + 1}: upload+preview ${r.previewMs.toFixed(0)} ms, commit ${r.commitMs.toFixed(0)} ms, ${rate.toFixed(0)} rows/s`);
-
-    // 2. The floor: the same rows straight into the same table with LOAD DATA LOCAL INFILE.
-    await admin.query("DELETE FROM observations WHERE upload_id = ?", [r.id]);
-    const file = path.join(tmp, `load-${run}.csv`);
-    const rows = csv
-      .trim()
-      .split("\n")
-      .slice(1)
-      .map((l) => {
-        const [code, date, a, h, v, v975, sv] = l.split(",");
-        return `${bench.portfolioIds.get(code)},${date},1,1,${a},${h},${v},${v975},${sv},${r.id},${bench.userId}`;
-      });
-    writeFileSync(file, rows.join("\n"));
-    const l0 = performance.now();
-    await admin.beginTransaction();
-    await admin.query(
-      `LOAD DATA LOCAL INFILE '${file}' INTO TABLE observations FIELDS TERMINATED BY ',' LINES TERMINATED BY '\\n'
-       (portfolio_id, business_date, version, is_current, actual_pnl, hypothetical_pnl, var_99, var_975, svar_99, upload_id, created_by)`,
-    );
-    await admin.commit();
-    const l1 = performance.now();
-    loadRates.push(ROWS / ((l1 - l0) / 1000));
-    phases.push(`        LOAD DATA LOCAL INFILE ${(l1 - l0).toFixed(0)} ms, ${(ROWS / ((l1 - l0) / 1000)).toFixed(0)} rows/s`);
+    const viaApi = async () => {
+      const r = await uploadAndCommit(server, csv, `bench-${run}.csv`);
+      if (r.inserted !== ROWS) throw new Error(`expected ${ROWS} rows written, got ${r.inserted}`);
+      const rate = ROWS / ((r.previewMs + r.commitMs) / 1000);
+      apiRates.push(rate);
+      phases.push(`run ${run + 1}: upload+preview ${r.previewMs.toFixed(0)} ms, commit ${r.commitMs.toFixed(0)} ms, ${rate.toFixed(0)} rows/s`);
+      return r.id;
+    };
+    // 2. The floor: the same rows (for the run's other portfolios) straight into the same table.
+    const viaLoadData = async (uploadId: number) => {
+      const file = path.join(tmp, `load-${run}.csv`);
+      const rows = benchCsv(loadCodes, dates)
+        .trim()
+        .split("\n")
+        .slice(1)
+        .map((l) => {
+          const [code, date, a, h, v, v975, sv] = l.split(",");
+          return `${bench.portfolioIds.get(code)},${date},1,1,${a},${h},${v},${v975},${sv},${uploadId},${bench.userId}`;
+        });
+      writeFileSync(file, rows.join("\n"));
+      const l0 = performance.now();
+      await admin.beginTransaction();
+      await admin.query(
+        `LOAD DATA LOCAL INFILE '${file}' INTO TABLE observations FIELDS TERMINATED BY ',' LINES TERMINATED BY '\\n'
+         (portfolio_id, business_date, version, is_current, actual_pnl, hypothetical_pnl, var_99, var_975, svar_99, upload_id, created_by)`,
+      );
+      await admin.commit();
+      const ms = performance.now() - l0;
+      loadRates.push(ROWS / (ms / 1000));
+      phases.push(`        LOAD DATA LOCAL INFILE ${ms.toFixed(0)} ms, ${(ROWS / (ms / 1000)).toFixed(0)} rows/s`);
+    };
+    if (run % 2 === 0) {
+      await viaLoadData(await viaApi());
+    } else {
+      // LOAD DATA needs an upload row to point at: the first run's.
+      await viaLoadData(firstUploadId);
+      await viaApi();
+    }
+    if (run === 0) firstUploadId = await lastUploadId(admin);
   }
   const peakRssMb = server.rssMb("VmHWM");
   await admin.end();

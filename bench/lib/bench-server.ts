@@ -76,7 +76,9 @@ export async function startBuiltServer(dbName: string): Promise<BenchServer> {
   const build = spawnSync("npm", ["run", "--silent", "build:server"], { cwd: projectRoot, stdio: "inherit" });
   if (build.status !== 0) throw new Error("npm run build:server failed");
   const port = await freePort();
-  const child = spawn(process.execPath, ["--max-old-space-size=256", "dist/server/index.mjs"], {
+  // BENCH_NODE_ARGS adds flags for a closer look, e.g. "--cpu-prof --cpu-prof-dir=.data/tmp/prof".
+  const extra = (process.env.BENCH_NODE_ARGS ?? "").split(" ").filter(Boolean);
+  const child = spawn(process.execPath, ["--max-old-space-size=256", ...extra, "dist/server/index.mjs"], {
     cwd: projectRoot,
     env: { ...process.env, PORT: String(port), DB_NAME: dbName, LOG_LEVEL: "error", NODE_ENV: "production" },
     stdio: ["ignore", "inherit", "inherit"],

@@ -7,7 +7,6 @@ import { sequelize } from "../db/sequelize";
  * through server/modules/observations/observations.repository.ts (multi-row INSERTs).
  */
 export class ObservationModel extends Model<InferAttributes<ObservationModel>, InferCreationAttributes<ObservationModel>> {
-  declare id: CreationOptional<number>;
   declare portfolioId: number;
   declare businessDate: string;
   declare version: number;
@@ -40,10 +39,10 @@ const money = (attribute: keyof InferAttributes<ObservationModel>, field: string
 
 ObservationModel.init(
   {
-    id: { type: DataTypes.BIGINT, primaryKey: true, autoIncrement: true },
-    portfolioId: { type: DataTypes.INTEGER, allowNull: false },
-    businessDate: { type: DataTypes.DATEONLY, allowNull: false },
-    version: { type: DataTypes.INTEGER, allowNull: false },
+    // The key is the day's identity: portfolio, business day, version.
+    portfolioId: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true },
+    businessDate: { type: DataTypes.DATEONLY, allowNull: false, primaryKey: true },
+    version: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true },
     isCurrent: { type: DataTypes.BOOLEAN, allowNull: false },
     actualPnl: money("actualPnl", "actual_pnl"),
     hypotheticalPnl: money("hypotheticalPnl", "hypothetical_pnl"),

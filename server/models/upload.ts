@@ -9,7 +9,6 @@ export class UploadModel extends Model<InferAttributes<UploadModel>, InferCreati
   declare committedSha256: string | null;
   declare sizeBytes: number;
   declare content: Buffer | null;
-  declare checkedRows: Buffer | null;
   declare uploadedBy: number;
   declare status: "preview" | "committed" | "discarded";
   declare rowCount: number;
@@ -34,7 +33,6 @@ UploadModel.init(
     committedSha256: { type: DataTypes.CHAR(64), allowNull: true },
     sizeBytes: { type: DataTypes.INTEGER, allowNull: false },
     content: { type: DataTypes.BLOB("long"), allowNull: true },
-    checkedRows: { type: DataTypes.BLOB("long"), allowNull: true },
     uploadedBy: { type: DataTypes.INTEGER, allowNull: false },
     status: { type: DataTypes.ENUM("preview", "committed", "discarded"), allowNull: false },
     rowCount: { type: DataTypes.INTEGER, allowNull: false },
@@ -50,6 +48,6 @@ UploadModel.init(
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },
-  { sequelize, tableName: "uploads", defaultScope: { attributes: { exclude: ["content", "checkedRows"] } }, scopes: { withContent: {} } },
+  { sequelize, tableName: "uploads", defaultScope: { attributes: { exclude: ["content"] } }, scopes: { withContent: {} } },
 );
 UploadModel.belongsTo(UserModel, { foreignKey: "uploadedBy", as: "uploader" });

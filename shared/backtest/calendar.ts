@@ -11,23 +11,26 @@ const ISO_DATE = /^(\d{4})-(\d{2})-(\d{2})$/;
 const DAYS_IN_MONTH = [31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31];
 
 /**
- * Days since 1970-01-01 for a YYYY-MM-DD string, by the proleptic Gregorian civil-to-days
- * formula (H. Hinnant's days_from_civil): no Date object, so it is cheap on the ingest hot path.
+ * Days since 1970-01-01 of a calendar date, by the proleptic Gregorian civil-to-days formula
+ * (H. Hinnant's days_from_civil), or undefined when there is no such date (30 February).
  */
+export function civilDayNumber(y: number, m: number, d: number): number | undefined {
+  const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
+  if (!(m >= 1 && m <= 12 && d >= 1 && d <= (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1]))) return undefined;
+  const yy = m <= 2 ? y - 1 : y;
+  const era = Math.floor(yy / 400);
+  const yoe = yy - era * 400;
+  const doy = Math.floor((153 * (m + (m > 2 ? -3 : 9)) + 2) / 5) + d - 1;
+  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
+  return era * 146097 + doe - 719468;
+}
+
+/** Days since 1970-01-01 for a YYYY-MM-DD string: no Date object, so it is cheap on the ingest hot path. */
 export function dayNumber(date: string): number {
   if (typeof date === "string" && ISO_DATE.test(date)) {
-    const y = Number(date.slice(0, 4));
-    const m = Number(date.slice(5, 7));
-    const d = Number(date.slice(8, 10));
-    const leap = (y % 4 === 0 && y % 100 !== 0) || y % 400 === 0;
-    if (m >= 1 && m <= 12 && d >= 1 && d <= (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1])) {
-      const yy = m <= 2 ? y - 1 : y;
-      const era = Math.floor(yy / 400);
-      const yoe = yy - era * 400;
-      const doy = Math.floor((153 * (m + (m > 2 ? -3 : 9)) + 2) / 5) + d - 1;
-      const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
-      return era * 146097 + doe - 719468;
-    }
+    const digit = (i: number) => date.charCodeAt(i) - 48;
+    const day = civilDayNumber(digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3), digit(5) * 10 + digit(6), digit(8) * 10 + digit(9));
+    if (day !== undefined) return day;
   }
   throw new EngineInputError(`"${String(date)}" is not a real date written YYYY-MM-DD`, { date: String(date) });
 }

@@ -91,9 +91,9 @@ export function findDataQualityIssues(series: readonly QualityInput[], holidays:
     o.var99 === null && (o.actualPnl !== null || o.hypotheticalPnl !== null) ? `P&L reported without VaR on ${o.date}` : null,
   );
   perDay("var_without_pnl", (o) => {
-    if (o.var99 === null) return null;
-    const missingSeries = [o.actualPnl === null ? "actual" : null, o.hypotheticalPnl === null ? "hypothetical" : null].filter(Boolean);
-    return missingSeries.length ? `VaR reported without ${missingSeries.join(" and ")} P&L on ${o.date}` : null;
+    if (o.var99 === null || (o.actualPnl !== null && o.hypotheticalPnl !== null)) return null;
+    const missingSeries = o.actualPnl === null && o.hypotheticalPnl === null ? "actual and hypothetical" : o.actualPnl === null ? "actual" : "hypothetical";
+    return `VaR reported without ${missingSeries} P&L on ${o.date}`;
   });
   perDay("outlier", (o) => {
     if (o.var99 === null || o.var99 <= 0) return null;

@@ -1,5 +1,6 @@
 import Papa from "papaparse";
 import {
+  CELL_PATTERNS,
   ALL_COLUMNS,
   AMOUNT_COLUMNS,
   POSITIVE_COLUMNS,
@@ -10,7 +11,7 @@ import {
   type ObservationRow,
   type RowError,
 } from "../schemas/upload";
-import { dayNumber, fromDayNumber } from "../backtest/calendar";
+import { civilDayNumber, dayNumber } from "../backtest/calendar";
 
 /** What the parser needs to know about the portfolios a file may name. */
 export interface CsvReferenceData {
@@ -52,7 +53,7 @@ const AMOUNTS: ReadonlySet<string> = new Set(AMOUNT_COLUMNS);
  * cells and a split is exact (and several times faster); otherwise papaparse handles quoting.
  */
 export function splitCsv(text: string): { data: string[][]; errors: Papa.ParseError[] } {
-  if (!text.includes('"')) return { data: text.split(/\r\n|\n|\r/).map((l) => l.split(",")), errors: [] };
+  if (!text.includes('"')) return { data: (text.includes("\r") ? text.split(/\r\n|\n|\r/) : text.split("\n")).map((l) => l.split(",")), errors: [] };
   const parsed = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: false });
   return { data: parsed.data, errors: parsed.errors };
 }
@@ -122,119 +123,311 @@ function checkHeader(header: string[]): CsvColumn[] {
   return columns as CsvColumn[];
 }
 
+type PortfolioRef = CsvReferenceData["portfolios"] extends ReadonlyMap<string, infer P> ? P : never;
+
+const COMMA = 44;
+const MINUS = 45;
+const DOT = 46;
+const isDigit = (ch: number) => ch >= 48 && ch <= 57;
+const isLetter = (ch: number) => (ch >= 65 && ch <= 90) || (ch >= 97 && ch <= 122);
+const isCodeChar = (ch: number) => isDigit(ch) || isLetter(ch) || ch === 95 || ch === MINUS;
+
+/** Amounts are stored to the cent, DECIMAL(20,2). */
+const toCents = (value: number) => Math.round(value * 100) / 100;
+
 /**
- * Parses and checks a daily data file: header, every cell against the row schema, then the
- * reference data (known portfolio, the entity's business days, one row per portfolio and day).
+ * The checks every data line goes through, and the rows and problems they produce. A line is
+ * checked either from its cells (`cells`, the general way, which words every problem) or, when
+ * it is plain — no quotes, no spaces, a real date, signs right — straight from the file's text
+ * without making a string per cell (`plainLine`, which hands anything else to `cells`).
  */
-export function parseObservationCsv(text: string, ref: CsvReferenceData): ParsedCsv {
-  if (text.trim() === "") throw new CsvFileError("The file is empty.");
-  const parsed = splitCsv(text);
-  const data = parsed.data;
-  const columns = checkHeader(data[0] ?? []);
-  if (data.slice(1).every((r) => r.length === 1 && r[0].trim() === "")) {
-    throw new CsvFileError("The file has a header row but no data rows.");
+class LineChecks {
+  readonly rows: ParsedRow[] = [];
+  readonly errors: RowError[] = [];
+  readonly invalidLines = new Set<number>();
+  private readonly width: number;
+  private readonly amountAt: (AmountColumn | null)[];
+  private readonly patternAt: RegExp[];
+  private readonly portfolioAt: number;
+  private readonly dateAt: number;
+  /** Portfolio → day number → the first line with it (one row per portfolio and day). */
+  private readonly firstLineOf = new Map<string, Map<number, number>>();
+  /** One string per date, shared by the rows of every portfolio. */
+  private readonly dateText = new Map<number, string>();
+  private readonly scratch: Float64Array;
+  // Files come grouped by portfolio: the last portfolio cell's lookups are reused while it repeats.
+  private lastCell: string | undefined;
+  private code = "";
+  private portfolio: PortfolioRef | undefined;
+  private seen = new Map<number, number>();
+
+  constructor(
+    readonly columns: CsvColumn[],
+    private readonly ref: CsvReferenceData,
+  ) {
+    this.width = columns.length;
+    this.amountAt = columns.map((c) => (AMOUNTS.has(c) ? (c as AmountColumn) : null));
+    this.patternAt = columns.map((c) => CELL_PATTERNS[c]);
+    this.portfolioAt = columns.indexOf("portfolio");
+    this.dateAt = columns.indexOf("date");
+    this.scratch = new Float64Array(columns.length);
   }
 
-  const errors: RowError[] = [];
-  const invalidLines = new Set<number>();
-  const fail = (line: number, column: string, message: string) => {
-    errors.push({ line, column, message });
-    invalidLines.add(line);
-  };
-  // Structural problems papaparse saw (an unclosed quote swallows the rest of the file).
-  for (const e of parsed.errors) {
-    if (e.code === "UndetectableDelimiter") continue;
-    const line = (e.row ?? 0) + 1;
-    if (e.code === "MissingQuotes") fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
-    else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") fail(line, "—", e.message);
+  fail(line: number, column: string, message: string): void {
+    this.errors.push({ line, column, message });
+    this.invalidLines.add(line);
   }
 
-  const rows: ParsedRow[] = [];
-  // Dates repeat across portfolios: each is checked against the calendar once.
-  const dayOf = new Map<string, number>();
-  const firstLineOf = new Map<string, Map<string, number>>();
-  const amountAt = columns.map((c) => (AMOUNTS.has(c) ? (c as AmountColumn) : null));
-  let totalRows = 0;
-  for (let i = 1; i < data.length; i++) {
-    const cells = data[i];
-    const line = i + 1;
-    if (cells.length === 1 && cells[0].trim() === "") continue; // blank line
-    totalRows++;
-    if (invalidLines.has(line)) continue;
-    if (cells.length !== columns.length) {
-      fail(line, "—", `Expected ${columns.length} fields as in the header, found ${cells.length}`);
-      continue;
+  /** A line as cells: the schema's patterns, then the values and the reference data. */
+  cells(cells: string[], line: number): void {
+    const { columns } = this;
+    if (cells.length !== this.width) {
+      this.fail(line, "—", `Expected ${this.width} fields as in the header, found ${cells.length}`);
+      return;
     }
-    const record: Record<string, string> = {};
-    for (let c = 0; c < columns.length; c++) record[columns[c]] = cells[c];
-    const checked = observationCellsSchema.safeParse(record);
-    if (!checked.success) {
+    // The schema's own patterns first; only a row that fails one goes through zod for its issues.
+    let cellsOk = true;
+    for (let c = 0; c < this.width; c++) {
+      if (!this.patternAt[c].test(cells[c])) {
+        cellsOk = false;
+        break;
+      }
+    }
+    if (!cellsOk) {
+      const record: Record<string, string> = {};
+      for (let c = 0; c < this.width; c++) record[columns[c]] = cells[c];
+      const checked = observationCellsSchema.safeParse(record);
       const seenColumns = new Set<string>();
-      for (const issue of checked.error.issues) {
+      for (const issue of checked.error?.issues ?? []) {
         const column = String(issue.path[0] ?? "—");
         if (seenColumns.has(column)) continue;
         seenColumns.add(column);
-        fail(line, column, AMOUNTS.has(column) || column === "portfolio" || column === "date" ? describeCell(column, record[column] ?? "") : issue.message);
+        this.fail(line, column, AMOUNTS.has(column) || column === "portfolio" || column === "date" ? describeCell(column, record[column] ?? "") : issue.message);
       }
-      continue;
+      return;
     }
-    const row = newRow(line, record.portfolio.trim().toUpperCase(), record.date.trim());
+    this.usePortfolio(cells[this.portfolioAt]);
+    const row = newRow(line, this.code, cells[this.dateAt].trim());
     let bad = false;
-    for (let c = 0; c < columns.length; c++) {
-      const column = amountAt[c];
+    for (let c = 0; c < this.width; c++) {
+      const column = this.amountAt[c];
       if (column === null) continue;
-      const text = cells[c].trim();
-      if (text === "") continue; // not reported: stays null
-      const value = Math.round(Number(text) * 100) / 100; // stored to the cent, DECIMAL(20,2)
+      const text = cells[c]; // the amount pattern allows no spaces
+      if (text.length === 0) continue; // not reported: stays null
+      const value = toCents(Number(text));
       if (POSITIVE_COLUMNS.has(column) && !(value > 0)) {
-        fail(line, column, `${column} must be a positive amount (VaR is reported as a loss amount above zero)`);
+        this.fail(line, column, `${column} must be a positive amount (VaR is reported as a loss amount above zero)`);
         bad = true;
       } else if (column === "ses" && value < 0) {
-        fail(line, column, "ses cannot be negative");
+        this.fail(line, column, "ses cannot be negative");
         bad = true;
       }
       row[column] = value;
     }
-    // Every problem of the row is reported, not only the first.
-    let day = dayOf.get(row.date);
-    if (day === undefined) {
-      try {
-        day = dayNumber(row.date);
-        dayOf.set(row.date, day);
-      } catch {
-        fail(line, "date", `${row.date} is not a real calendar date`);
-        bad = true;
-      }
+    let day: number | undefined;
+    try {
+      day = dayNumber(row.date);
+    } catch {
+      this.fail(line, "date", `${row.date} is not a real calendar date`);
+      bad = true;
     }
-    const portfolio = ref.portfolios.get(row.portfolio);
+    this.finish(row, day, bad);
+  }
+
+  /**
+   * The same checks on a plain line, read in place from `text` between `start` and `end`.
+   * Returns false, having recorded nothing, when the line is anything but plain and valid.
+   */
+  plainLine(text: string, start: number, end: number, line: number): boolean {
+    const { scratch } = this;
+    let at = start;
+    let day: number | undefined;
+    let date = "";
+    for (let c = 0; c < this.width; c++) {
+      let stop = at;
+      while (stop < end && text.charCodeAt(stop) !== COMMA) stop++;
+      if (c < this.width - 1 ? stop >= end : stop !== end) return false; // another number of fields
+      const column = this.amountAt[c];
+      if (column !== null) {
+        const value = plainAmount(text, at, stop);
+        if (value === undefined) return false;
+        if (!Number.isNaN(value) && ((POSITIVE_COLUMNS.has(column) && !(value > 0)) || (column === "ses" && value < 0))) return false;
+        scratch[c] = value;
+      } else if (c === this.portfolioAt) {
+        const length = stop - at;
+        const lead = text.charCodeAt(at);
+        if (length < 1 || length > 40 || !(isDigit(lead) || isLetter(lead))) return false;
+        for (let i = at + 1; i < stop; i++) if (!isCodeChar(text.charCodeAt(i))) return false;
+        if (this.lastCell === undefined || this.lastCell.length !== length || !text.startsWith(this.lastCell, at)) this.usePortfolio(text.slice(at, stop));
+      } else {
+        day = plainDay(text, at, stop);
+        if (day === undefined) return false;
+        date = this.dateText.get(day) ?? text.slice(at, stop);
+        if (date.length === 10) this.dateText.set(day, date);
+      }
+      at = stop + 1;
+    }
+    const row = newRow(line, this.code, date);
+    for (let c = 0; c < this.width; c++) {
+      const column = this.amountAt[c];
+      if (column !== null && !Number.isNaN(scratch[c])) row[column] = scratch[c];
+    }
+    // A reference-data problem is recorded by finish() with the same words either way.
+    this.finish(row, day, false);
+    return true;
+  }
+
+  private usePortfolio(cell: string): void {
+    this.lastCell = cell;
+    this.code = cell.trim().toUpperCase();
+    this.portfolio = this.ref.portfolios.get(this.code);
+    let seen = this.firstLineOf.get(this.code);
+    if (!seen) this.firstLineOf.set(this.code, (seen = new Map()));
+    this.seen = seen;
+  }
+
+  /** The checks after the cells: known portfolio, business day, once per portfolio and day. Every problem of the row is reported. */
+  private finish(row: ParsedRow, day: number | undefined, bad: boolean): void {
+    const { line } = row;
+    const portfolio = this.portfolio;
     if (!portfolio) {
-      fail(line, "portfolio", `Unknown portfolio "${row.portfolio}"; an admin adds portfolios under Admin › Entities`);
+      this.fail(line, "portfolio", `Unknown portfolio "${this.code}"; an admin adds portfolios under Admin › Entities`);
       bad = true;
     }
     if (day !== undefined) {
       const weekday = (((day + 4) % 7) + 7) % 7;
-      const holiday = portfolio?.holidays.get(row.date);
+      const holiday = portfolio && portfolio.holidays.size ? portfolio.holidays.get(row.date) : undefined;
       if (weekday === 0 || weekday === 6) {
-        fail(line, "date", `${row.date} is a ${WEEKDAYS[weekday]}, not a business day`);
+        this.fail(line, "date", `${row.date} is a ${WEEKDAYS[weekday]}, not a business day`);
         bad = true;
       } else if (holiday) {
-        fail(line, "date", `${row.date} is a holiday in the ${portfolio!.entityCode} calendar (${holiday})`);
+        this.fail(line, "date", `${row.date} is a holiday in the ${portfolio!.entityCode} calendar (${holiday})`);
         bad = true;
       }
     }
-    if (bad) continue;
-    let seen = firstLineOf.get(row.portfolio);
-    if (!seen) firstLineOf.set(row.portfolio, (seen = new Map()));
-    const first = seen.get(row.date);
+    if (bad) return;
+    const first = this.seen.get(day!);
     if (first !== undefined) {
-      fail(line, "date", `${row.portfolio} on ${row.date} already appears on line ${first}`);
-      continue;
+      this.fail(line, "date", `${this.code} on ${row.date} already appears on line ${first}`);
+      return;
     }
-    seen.set(row.date, line);
-    rows.push(row);
+    this.seen.set(day!, line);
+    this.rows.push(row);
   }
+}
+
+/**
+ * A plain amount cell read in place: NaN when empty (not reported), undefined when it does not
+ * match AMOUNT_PATTERN. Up to 13 whole digits and 2 decimals it is worked out in whole cents,
+ * which is exactly toCents(Number(cell)) (tests/shared/ingest check the two agree).
+ */
+function plainAmount(text: string, start: number, end: number): number | undefined {
+  if (start === end) return Number.NaN;
+  let at = start;
+  const negative = text.charCodeAt(at) === MINUS;
+  if (negative) at++;
+  let whole = 0;
+  let wholeDigits = 0;
+  while (at < end && isDigit(text.charCodeAt(at))) {
+    whole = whole * 10 + (text.charCodeAt(at) - 48);
+    wholeDigits++;
+    at++;
+  }
+  if (wholeDigits < 1 || wholeDigits > 17) return undefined;
+  let cents = 0;
+  let decimals = 0;
+  if (at < end) {
+    if (text.charCodeAt(at) !== DOT) return undefined;
+    at++;
+    while (at < end && isDigit(text.charCodeAt(at))) {
+      if (decimals < 2) cents = cents * 10 + (text.charCodeAt(at) - 48);
+      decimals++;
+      at++;
+    }
+    if (at !== end || decimals < 1 || decimals > 8) return undefined;
+  }
+  if (wholeDigits > 13 || decimals > 2) return toCents(Number(text.slice(start, end)));
+  const total = whole * 100 + (decimals === 1 ? cents * 10 : cents);
+  return (negative ? -total : total) / 100;
+}
+
+/** A plain YYYY-MM-DD cell read in place: its day number, or undefined (not plain, or no such date). */
+function plainDay(text: string, start: number, end: number): number | undefined {
+  if (end - start !== 10 || text.charCodeAt(start + 4) !== MINUS || text.charCodeAt(start + 7) !== MINUS) return undefined;
+  let y = 0;
+  let m = 0;
+  let d = 0;
+  for (let i = 0; i < 10; i++) {
+    if (i === 4 || i === 7) continue;
+    const ch = text.charCodeAt(start + i);
+    if (!isDigit(ch)) return undefined;
+    if (i < 4) y = y * 10 + (ch - 48);
+    else if (i < 7) m = m * 10 + (ch - 48);
+    else d = d * 10 + (ch - 48);
+  }
+  return civilDayNumber(y, m, d);
+}
+
+const isBlank = (line: string) => line.trim() === "";
+
+/** `plainLines: false` sends every line the general way; tests use it to check that both ways agree. */
+export interface ParseOptions {
+  plainLines?: boolean;
+}
+
+/**
+ * Parses and checks a daily data file: header, every cell against the row schema, then the
+ * reference data (known portfolio, the entity's business days, one row per portfolio and day).
+ * A file without quotes is read line by line in place; a file with quotes goes through papaparse.
+ */
+export function parseObservationCsv(text: string, ref: CsvReferenceData, options: ParseOptions = {}): ParsedCsv {
+  if (text.trim() === "") throw new CsvFileError("The file is empty.");
+  let totalRows = 0;
+  let checks: LineChecks;
+  if (!text.includes('"')) {
+    const body = text.includes("\r") ? text.replace(/\r\n?/g, "\n") : text;
+    let headerEnd = body.indexOf("\n");
+    if (headerEnd < 0) headerEnd = body.length;
+    const columns = checkHeader(body.slice(0, headerEnd).split(","));
+    checks = new LineChecks(columns, ref);
+    const plain = options.plainLines !== false;
+    let line = 1;
+    for (let start = headerEnd + 1; start <= body.length; ) {
+      let end = body.indexOf("\n", start);
+      if (end < 0) end = body.length;
+      line++;
+      const first = body.charCodeAt(start);
+      if (start === end || ((first === 32 || first === 9) && isBlank(body.slice(start, end)))) {
+        start = end + 1;
+        continue; // blank line
+      }
+      totalRows++;
+      if (!plain || !checks.plainLine(body, start, end, line)) checks.cells(body.slice(start, end).split(","), line);
+      start = end + 1;
+    }
+  } else {
+    const parsed = splitCsv(text);
+    const data = parsed.data;
+    checks = new LineChecks(checkHeader(data[0] ?? []), ref);
+    // Structural problems papaparse saw (an unclosed quote swallows the rest of the file).
+    for (const e of parsed.errors) {
+      if (e.code === "UndetectableDelimiter") continue;
+      const line = (e.row ?? 0) + 1;
+      if (e.code === "MissingQuotes") checks.fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
+      else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") checks.fail(line, "—", e.message);
+    }
+    const structural = new Set(checks.invalidLines);
+    for (let i = 1; i < data.length; i++) {
+      const cells = data[i];
+      if (cells.length === 1 && isBlank(cells[0])) continue;
+      totalRows++;
+      if (!structural.has(i + 1)) checks.cells(cells, i + 1);
+    }
+  }
+  if (totalRows === 0) throw new CsvFileError("The file has a header row but no data rows.");
+  const { rows, errors, invalidLines } = checks;
   errors.sort((a, b) => a.line - b.line);
-  return { columns, rows: rows.filter((r) => !invalidLines.has(r.line)), errors, totalRows, invalidLines };
+  return { columns: checks.columns, rows, errors, totalRows, invalidLines };
 }
 
 /** Writes rows back as CSV in the template's column order (used by the template and by tests). */
@@ -244,59 +437,19 @@ export function serialiseObservationCsv(rows: Partial<Record<CsvColumn, string |
   return `${lines.join("\n")}\n`;
 }
 
-const ROW_BYTES = 4 + 4 + 4 + 8 * AMOUNT_COLUMNS.length; // line, portfolio index, day number, amounts (NaN = not reported)
-
 /**
- * The valid rows of a preview in a compact binary form — a small JSON header naming the
- * portfolios, then fixed-size records — for the commit to read back without parsing the file again.
+ * Rows checked at preview, checked again against today's reference data: what can have changed
+ * since is a portfolio removed or a day that became a holiday. The cells themselves were checked
+ * at preview and are not re-read.
  */
-export function encodeCheckedRows(rows: readonly ParsedRow[]): Uint8Array {
-  const portfolios: string[] = [];
-  const indexOf = new Map<string, number>();
-  for (const r of rows) if (!indexOf.has(r.portfolio)) indexOf.set(r.portfolio, portfolios.push(r.portfolio) - 1);
-  const header = new TextEncoder().encode(JSON.stringify({ portfolios }));
-  const out = new Uint8Array(4 + header.length + rows.length * ROW_BYTES);
-  const view = new DataView(out.buffer);
-  view.setUint32(0, header.length, true);
-  out.set(header, 4);
-  let at = 4 + header.length;
-  const dayOf = new Map<string, number>();
-  for (const r of rows) {
-    let day = dayOf.get(r.date);
-    if (day === undefined) dayOf.set(r.date, (day = dayNumber(r.date)));
-    view.setUint32(at, r.line, true);
-    view.setUint32(at + 4, indexOf.get(r.portfolio)!, true);
-    view.setInt32(at + 8, day, true);
-    for (let c = 0; c < AMOUNT_COLUMNS.length; c++) view.setFloat64(at + 12 + 8 * c, r[AMOUNT_COLUMNS[c]] ?? Number.NaN, true);
-    at += ROW_BYTES;
-  }
-  return out;
-}
-
-/**
- * Reads checked rows back. The cells were validated at preview; what can have changed since is
- * the reference data, so each row's portfolio and holiday calendar are checked again.
- */
-export function decodeCheckedRows(bytes: Uint8Array, ref: CsvReferenceData): { rows: ParsedRow[]; errors: RowError[] } {
-  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
-  const headerLength = view.getUint32(0, true);
-  const { portfolios } = JSON.parse(new TextDecoder().decode(bytes.subarray(4, 4 + headerLength))) as { portfolios: string[] };
-  const rows: ParsedRow[] = [];
+export function recheckReferenceData(rows: readonly ParsedRow[], ref: CsvReferenceData): RowError[] {
   const errors: RowError[] = [];
-  const dateOf = new Map<number, string>();
-  for (let at = 4 + headerLength; at + ROW_BYTES <= bytes.byteLength; at += ROW_BYTES) {
-    const day = view.getInt32(at + 8, true);
-    let date = dateOf.get(day);
-    if (date === undefined) dateOf.set(day, (date = fromDayNumber(day)));
-    const row = newRow(view.getUint32(at, true), portfolios[view.getUint32(at + 4, true)], date);
-    for (let c = 0; c < AMOUNT_COLUMNS.length; c++) {
-      const v = view.getFloat64(at + 12 + 8 * c, true);
-      if (!Number.isNaN(v)) row[AMOUNT_COLUMNS[c]] = v;
-    }
+  for (const row of rows) {
     const portfolio = ref.portfolios.get(row.portfolio);
     if (!portfolio) errors.push({ line: row.line, column: "portfolio", message: `Portfolio "${row.portfolio}" no longer exists` });
-    else if (portfolio.holidays.has(row.date)) errors.push({ line: row.line, column: "date", message: `${row.date} has since become a holiday in the ${portfolio.entityCode} calendar` });
-    else rows.push(row);
+    else if (portfolio.holidays.size && portfolio.holidays.has(row.date)) {
+      errors.push({ line: row.line, column: "date", message: `${row.date} has since become a holiday in the ${portfolio.entityCode} calendar` });
+    }
   }
-  return { rows, errors };
+  return errors;
 }

@@ -5,6 +5,7 @@ import { ObservationModel } from "../../server/models/observation";
 import { UploadModel } from "../../server/models/upload";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { HolidayModel } from "../../server/models/holiday";
+import { checkedRowsOf, forgetCheckedRows } from "../../server/modules/uploads/preview-cache";
 import { testApp } from "./helpers";
 import { csvFor, HEADER, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
 
@@ -93,6 +94,30 @@ describe("uploading daily data", () => {
     const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
     expect(preview.body.invalid).toBe(0);
     await HolidayModel.create({ entityId: entity.id, date: dates[2], name: "Unplanned closure" });
+    const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.status).toBe(409);
+    expect(commit.body.error.message).toMatch(/reference data changed/);
+    expect(await observationCount(portfolio.id)).toBe(0);
+  });
+
+  it("when the server no longer holds the preview's rows (a restart, another process), then the commit parses the stored file and writes the same rows", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const dates = weekdays("2026-07-06", 8);
+    const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates, (i) => `${-10 * i - 0.5},${-9 * i},${100 + i}.25`));
+    expect(checkedRowsOf(preview.body.id, preview.body.sha256)).toHaveLength(8);
+    forgetCheckedRows(preview.body.id);
+    const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
+    expect(commit.body).toMatchObject({ status: "committed", inserted: 8 });
+    const stored = await ObservationModel.findAll({ where: { portfolioId: portfolio.id }, order: [["businessDate", "ASC"]] });
+    expect(stored.map((o) => [o.businessDate, o.actualPnl, o.hypotheticalPnl, o.var99])).toEqual(dates.map((d, i) => [d, -10 * i - 0.5, -9 * i || 0, 100 + i + 0.25]));
+  });
+
+  it("when a day becomes a holiday before the commit and the server no longer holds the rows, then the commit is refused all the same", async () => {
+    const { portfolio, entity, cookie } = await ingestFixture();
+    const dates = weekdays("2026-08-03", 5);
+    const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
+    forgetCheckedRows(preview.body.id);
+    await HolidayModel.create({ entityId: entity.id, date: dates[1], name: "Unplanned closure" });
     const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
     expect(commit.status).toBe(409);
     expect(commit.body.error.message).toMatch(/reference data changed/);

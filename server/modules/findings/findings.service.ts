@@ -8,7 +8,7 @@ import { UserModel } from "../../models/user";
 import { ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { loadQualitySeries, type QualityDay } from "../observations/observations.repository";
-import { findDataQualityIssues } from "../../../shared/ingest/data-quality";
+import { findDataQualityIssues, type QualityFinding } from "../../../shared/ingest/data-quality";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import type { CloseFindingBody, Finding } from "../../../shared/schemas/upload";
@@ -22,53 +22,82 @@ export interface KnownSpan {
   days: ReadonlyMap<number, QualityDay[]>;
 }
 
+/** What the checks of one portfolio read from the database: its calendar and its stored days. */
+export interface FindingInputs {
+  portfolioId: number;
+  holidays: ReadonlySet<string>;
+  /** The current days, or with a span given only those outside it (the caller holds the rest). */
+  stored: QualityDay[];
+}
+
+/** Reads what the checks need; with `outside`, the days inside that span are left to the caller. */
+export async function loadFindingInputs(portfolioIds: number[], options: { transaction?: Transaction; outside?: { from: string; to: string } } = {}): Promise<FindingInputs[]> {
+  const { transaction, outside } = options;
+  const portfolios = await PortfolioModel.findAll({ where: { id: portfolioIds }, transaction });
+  const holidays = await HolidayModel.findAll({ where: { entityId: [...new Set(portfolios.map((p) => p.entityId))] }, transaction });
+  const series = await loadQualitySeries(portfolios.map((p) => p.id), outside, transaction);
+  return portfolios.map((p) => ({
+    portfolioId: p.id,
+    holidays: new Set(holidays.filter((h) => h.entityId === p.entityId).map((h) => h.date)),
+    stored: series.get(p.id) ?? [],
+  }));
+}
+
+export interface PortfolioFindings {
+  portfolioId: number;
+  found: QualityFinding[];
+}
+
+const byDate = (a: QualityDay, b: QualityDay) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0);
+
+/** Runs the data-quality checks of one portfolio (no database): on its stored days, plus the days inside the span when a commit holds them. */
+export function checkFindings({ portfolioId, holidays, stored }: FindingInputs, inside?: ReadonlyMap<number, QualityDay[]>): PortfolioFindings {
+  const held = inside?.get(portfolioId);
+  const series = held ? [...stored, ...held].sort(byDate) : stored;
+  return { portfolioId, found: findDataQualityIssues(series, holidays) };
+}
+
+/**
+ * Brings the stored findings in line with what the checks found: new problems open, problems
+ * the data no longer shows are resolved by it, and what a person resolved or explained keeps
+ * their note.
+ */
+export async function applyFindings(results: readonly PortfolioFindings[], transaction: Transaction): Promise<void> {
+  for (const { portfolioId, found } of results) {
+    const existing = await DataFindingModel.findAll({ where: { portfolioId }, transaction, lock: transaction.LOCK.UPDATE });
+    const byKey = new Map(existing.map((f) => [`${f.kind}|${f.dateFrom}`, f]));
+    const seen = new Set<string>();
+    const fresh = [];
+    for (const f of found) {
+      const key = `${f.kind}|${f.from}`;
+      seen.add(key);
+      const stored = byKey.get(key);
+      if (!stored) {
+        fresh.push({ portfolioId, kind: f.kind, dateFrom: f.from, dateTo: f.to, detail: f.detail.slice(0, 500), note: null, closedBy: null, closedAt: null });
+      } else if (stored.status === "resolved" && stored.closedBy === null) {
+        // The data had cleared it and now shows it again: open once more.
+        await stored.update({ status: "open", note: null, closedAt: null, dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
+      } else if (stored.dateTo !== f.to || stored.detail !== f.detail) {
+        await stored.update({ dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
+      }
+    }
+    if (fresh.length) await DataFindingModel.bulkCreate(fresh, { transaction });
+    for (const stored of existing) {
+      if (!seen.has(`${stored.kind}|${stored.dateFrom}`) && stored.status === "open") {
+        await stored.update({ status: "resolved", note: "Cleared by later data.", closedAt: new Date(), version: stored.version + 1 }, { transaction });
+      }
+    }
+  }
+}
+
 /**
  * Re-runs the data-quality checks on each portfolio's current series and brings the stored
- * findings in line: new problems open, problems the data no longer shows are resolved by it,
- * and what a person resolved or explained keeps their note. A commit passes its transaction (so
- * findings change with the data, atomically) and the days it already holds (read only the rest).
+ * findings in line (for calendar changes; a commit runs the three steps itself, so that the
+ * checks run while its rows are written).
  */
-export async function refreshFindings(portfolioIds: number[], options: { transaction?: Transaction; known?: KnownSpan } = {}): Promise<void> {
-  const { known } = options;
-  for (const portfolioId of portfolioIds) {
-    const portfolio = await PortfolioModel.findByPk(portfolioId, { transaction: options.transaction });
-    if (!portfolio) continue;
-    const holidays = new Set((await HolidayModel.findAll({ where: { entityId: portfolio.entityId }, transaction: options.transaction })).map((h) => h.date));
-    const inside = known?.days.get(portfolioId);
-    const series = known && inside
-      ? [...(await loadQualitySeries(portfolioId, known, options.transaction)), ...inside].sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0))
-      : await loadQualitySeries(portfolioId, undefined, options.transaction);
-    const found = findDataQualityIssues(series, holidays);
-    const apply = async (transaction: Transaction) => {
-      const existing = await DataFindingModel.findAll({ where: { portfolioId }, transaction, lock: transaction.LOCK.UPDATE });
-      const byKey = new Map(existing.map((f) => [`${f.kind}|${f.dateFrom}`, f]));
-      const seen = new Set<string>();
-      const fresh = [];
-      for (const f of found) {
-        const key = `${f.kind}|${f.from}`;
-        seen.add(key);
-        const stored = byKey.get(key);
-        if (!stored) {
-          fresh.push({ portfolioId, kind: f.kind, dateFrom: f.from, dateTo: f.to, detail: f.detail.slice(0, 500), note: null, closedBy: null, closedAt: null });
-        } else if (stored.status === "resolved" && stored.closedBy === null) {
-          // The data had cleared it and now shows it again: open once more.
-          await stored.update({ status: "open", note: null, closedAt: null, dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
-        } else if (stored.dateTo !== f.to || stored.detail !== f.detail) {
-          await stored.update({ dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
-        }
-      }
-      if (fresh.length) await DataFindingModel.bulkCreate(fresh, { transaction });
-      for (const stored of existing) {
-        if (!seen.has(`${stored.kind}|${stored.dateFrom}`) && stored.status === "open") {
-          await stored.update(
-            { status: "resolved", note: "Cleared by later data.", closedAt: new Date(), version: stored.version + 1 },
-            { transaction },
-          );
-        }
-      }
-    };
-    await (options.transaction ? apply(options.transaction) : sequelize.transaction(apply));
-  }
+export async function refreshFindings(portfolioIds: number[], options: { transaction?: Transaction } = {}): Promise<void> {
+  const run = async (transaction: Transaction) => applyFindings((await loadFindingInputs(portfolioIds, { transaction })).map((input) => checkFindings(input)), transaction);
+  await (options.transaction ? run(options.transaction) : sequelize.transaction(run));
 }
 
 async function toFindings(rows: DataFindingModel[]): Promise<Finding[]> {

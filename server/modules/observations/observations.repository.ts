@@ -7,7 +7,6 @@ import type { Observation } from "../../../shared/backtest/types";
 const AMOUNT_SQL = AMOUNT_COLUMNS.join(", ");
 
 export interface StoredDay {
-  id: number;
   portfolioId: number;
   date: string;
   version: number;
@@ -35,7 +34,7 @@ export async function loadCurrentDays(
   const out = new Map<string, StoredDay>();
   if (portfolioIds.length === 0) return out;
   const rows = await sequelize.query<Record<string, unknown>>(
-    `SELECT id, portfolio_id, DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
+    `SELECT portfolio_id, DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
        FROM observations
       WHERE portfolio_id IN (:ids) AND current_day BETWEEN :from AND :to${lock ? " FOR UPDATE" : ""}`,
     { replacements: { ids: portfolioIds, from, to }, type: QueryTypes.SELECT, transaction },
@@ -43,49 +42,100 @@ export async function loadCurrentDays(
   for (const r of rows) {
     const values = {} as Record<AmountColumn, number | null>;
     for (const c of AMOUNT_COLUMNS) values[c] = num(r[c]);
-    const day: StoredDay = { id: Number(r.id), portfolioId: Number(r.portfolio_id), date: String(r.d), version: Number(r.version), values };
+    const day: StoredDay = { portfolioId: Number(r.portfolio_id), date: String(r.d), version: Number(r.version), values };
     out.set(`${day.portfolioId}|${day.date}`, day);
   }
   return out;
 }
 
-/** Rows per INSERT: about 1 MB of SQL; measured faster than 2,000 and than 25,000 here (bench/ingest.bench.ts). */
-const BATCH_ROWS = 10_000;
+/** Rows per INSERT: about half a megabyte of SQL (bench/ingest.bench.ts measured 2,000 to 10,000 alike). */
+const BATCH_ROWS = 5_000;
 
-function sqlNumber(v: number | null | undefined): string {
-  return v === null || v === undefined ? "NULL" : String(v);
+/** The mariadb connection a Sequelize transaction runs on, for the bulk writes below. */
+interface RawConnection {
+  query(sql: string, values?: unknown[]): Promise<unknown>;
+}
+function connectionOf(transaction: Transaction): RawConnection {
+  const connection = (transaction as unknown as { connection?: RawConnection }).connection;
+  if (!connection) throw new Error("the transaction has no connection yet");
+  return connection;
 }
 
 /**
- * Writes new versions in multi-row INSERTs. Every value has been validated (integers, ISO dates,
- * finite amounts rounded to the cent), so they are written as literals for speed.
+ * Sends the statements down the transaction's connection one after another without waiting for
+ * each answer (the driver pipelines them), so the next batch is built while MariaDB writes this
+ * one. Resolves once all have run; the first failure is thrown, and the caller's transaction
+ * rolls every one of them back.
  */
-export async function insertVersions(rows: NewVersion[], uploadId: number, userId: number, transaction: Transaction): Promise<void> {
+export class PipelinedWrites {
+  private readonly pending: Promise<unknown>[] = [];
+  constructor(private readonly transaction: Transaction) {}
+
+  send(sql: string, values?: unknown[]): void {
+    const sent = connectionOf(this.transaction).query(sql, values);
+    sent.catch(() => undefined); // reported by done(), not as an unhandled rejection
+    this.pending.push(sent);
+  }
+
+  /** Lets the event loop write what was sent to the socket, so MariaDB can start on it while this thread goes on. */
+  flush(): Promise<void> {
+    return new Promise((resolve) => setImmediate(resolve));
+  }
+
+  async done(): Promise<void> {
+    const settled = await Promise.allSettled(this.pending.splice(0));
+    const failed = settled.find((s): s is PromiseRejectedResult => s.status === "rejected");
+    if (failed) throw failed.reason;
+  }
+}
+
+/**
+ * Queues new versions as multi-row INSERTs on `writes`, letting each batch go out before building the next. Only the amount columns that some row of
+ * a batch reports are named (the others default to NULL), which keeps the SQL short. Every value
+ * has been validated (integers, ISO dates, finite amounts rounded to the cent), so they are
+ * written as literals.
+ */
+export async function queueInsertVersions(writes: PipelinedWrites, rows: readonly NewVersion[], uploadId: number, userId: number): Promise<void> {
   for (let start = 0; start < rows.length; start += BATCH_ROWS) {
-    const parts: string[] = [];
-    for (let i = start; i < Math.min(rows.length, start + BATCH_ROWS); i++) {
+    const end = Math.min(rows.length, start + BATCH_ROWS);
+    const present = AMOUNT_COLUMNS.filter((c) => {
+      for (let i = start; i < end; i++) if (rows[i].row[c] !== null && rows[i].row[c] !== undefined) return true;
+      return false;
+    });
+    const tail = `,${uploadId | 0},${userId | 0})`;
+    let values = "";
+    for (let i = start; i < end; i++) {
       const r = rows[i];
       const date = r.row.date;
       if (!ISO_DATE.test(date)) throw new Error(`refusing to write unchecked date ${date}`);
       let amounts = "";
-      for (const c of AMOUNT_COLUMNS) amounts += `,${sqlNumber(r.row[c])}`;
-      parts.push(`(${r.portfolioId | 0},'${date}',${r.version | 0},1${amounts},${uploadId | 0},${userId | 0})`);
+      for (const c of present) {
+        const v = r.row[c];
+        amounts += v === null || v === undefined ? ",NULL" : `,${v}`;
+      }
+      values += `${i === start ? "" : ","}(${r.portfolioId | 0},'${date}',${r.version | 0},1${amounts}${tail}`;
     }
-    const values = parts.join(",");
-    await sequelize.query(
-      `INSERT INTO observations (portfolio_id, business_date, version, is_current, ${AMOUNT_SQL}, upload_id, created_by) VALUES ${values}`,
-      { transaction },
-    );
+    const columns = present.length ? `, ${present.join(", ")}` : "";
+    writes.send(`INSERT INTO observations (portfolio_id, business_date, version, is_current${columns}, upload_id, created_by) VALUES ${values}`);
+    await writes.flush();
   }
 }
 
-/** Clears the current flag on versions that a restatement replaces (before the new ones are written). */
-export async function retireVersions(ids: number[], transaction: Transaction): Promise<void> {
-  for (let start = 0; start < ids.length; start += 5000) {
-    await sequelize.query("UPDATE observations SET is_current = 0 WHERE id IN (:ids)", {
-      replacements: { ids: ids.slice(start, start + 5000) },
-      transaction,
+/** A stored version, by its key. */
+export interface VersionKey {
+  portfolioId: number;
+  date: string;
+  version: number;
+}
+
+/** Queues clearing the current flag on versions that a restatement replaces (before the new ones are written). */
+export function queueRetireVersions(writes: PipelinedWrites, keys: readonly VersionKey[]): void {
+  for (let start = 0; start < keys.length; start += 2000) {
+    const tuples = keys.slice(start, start + 2000).map((k) => {
+      if (!ISO_DATE.test(k.date)) throw new Error(`refusing to write unchecked date ${k.date}`);
+      return `(${k.portfolioId | 0},'${k.date}',${k.version | 0})`;
     });
+    writes.send(`UPDATE observations SET is_current = 0 WHERE (portfolio_id, business_date, version) IN (${tuples.join(",")})`);
   }
 }
 
@@ -122,15 +172,18 @@ export interface QualityDay {
 }
 
 /**
- * The four columns the data-quality checks read, for one portfolio's current series (sorted);
+ * The four columns the data-quality checks read, for each portfolio's current series (sorted);
  * with `outside`, only the days before or after that span (the caller knows the days inside it).
  */
-export async function loadQualitySeries(portfolioId: number, outside?: { from: string; to: string }, transaction?: Transaction): Promise<QualityDay[]> {
+export async function loadQualitySeries(portfolioIds: readonly number[], outside?: { from: string; to: string }, transaction?: Transaction): Promise<Map<number, QualityDay[]>> {
+  const out = new Map<number, QualityDay[]>(portfolioIds.map((id) => [id, []]));
+  if (portfolioIds.length === 0) return out;
   const span = outside ? " AND (current_day < :from OR current_day > :to)" : "";
-  const rows = await sequelize.query<{ d: string; a: unknown; h: unknown; v: unknown }>(
-    `SELECT DATE_FORMAT(current_day, '%Y-%m-%d') AS d, actual_pnl AS a, hypothetical_pnl AS h, var_99 AS v
-       FROM observations WHERE portfolio_id = :pid AND current_day IS NOT NULL${span} ORDER BY current_day`,
-    { replacements: { pid: portfolioId, from: outside?.from, to: outside?.to }, type: QueryTypes.SELECT, transaction },
+  const rows = await sequelize.query<{ p: number; d: string; a: unknown; h: unknown; v: unknown }>(
+    `SELECT portfolio_id AS p, DATE_FORMAT(current_day, '%Y-%m-%d') AS d, actual_pnl AS a, hypothetical_pnl AS h, var_99 AS v
+       FROM observations WHERE portfolio_id IN (:ids) AND current_day IS NOT NULL${span} ORDER BY portfolio_id, current_day`,
+    { replacements: { ids: portfolioIds, from: outside?.from, to: outside?.to }, type: QueryTypes.SELECT, transaction },
   );
-  return rows.map((r) => ({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v) }));
+  for (const r of rows) out.get(Number(r.p))?.push({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v) });
+  return out;
 }

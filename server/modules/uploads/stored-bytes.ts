@@ -1,4 +1,5 @@
-import { gunzipSync, gzipSync } from "node:zlib";
+import { promisify } from "node:util";
+import { gunzipSync, gzip, gzipSync } from "node:zlib";
 
 /**
  * Uploaded files and checked rows are kept gzip-compressed (a daily CSV shrinks about fivefold),
@@ -10,4 +11,15 @@ export function packBytes(bytes: Buffer | string): Buffer {
 
 export function unpackBytes(stored: Buffer): Buffer {
   return gunzipSync(stored);
+}
+
+const gzipAsync = promisify(gzip);
+
+/**
+ * The same, on libuv's worker threads, so that the caller's thread can go on (the preview parses
+ * meanwhile). One output chunk for the whole file: with zlib's default 16 kB chunks every chunk
+ * waits for the busy main thread, and the work would not really run alongside.
+ */
+export function packBytesInBackground(bytes: Buffer): Promise<Buffer> {
+  return gzipAsync(bytes, { level: 1, chunkSize: Math.max(64 * 1024, bytes.length + 1024) });
 }

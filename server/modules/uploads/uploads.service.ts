@@ -8,16 +8,25 @@ import { EntityModel } from "../../models/entity";
 import { HolidayModel } from "../../models/holiday";
 import { AppError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import { insertVersions, loadCurrentDays, retireVersions, type NewVersion, type QualityDay, type StoredDay } from "../observations/observations.repository";
-import { refreshFindings } from "../findings/findings.service";
-import { packBytes, unpackBytes } from "./stored-bytes";
+import {
+  PipelinedWrites,
+  loadCurrentDays,
+  queueInsertVersions,
+  queueRetireVersions,
+  type NewVersion,
+  type QualityDay,
+  type StoredDay,
+  type VersionKey,
+} from "../observations/observations.repository";
+import { applyFindings, checkFindings, loadFindingInputs } from "../findings/findings.service";
+import { packBytesInBackground, unpackBytes } from "./stored-bytes";
+import { checkedRowsOf, forgetCheckedRows, keepCheckedRows } from "./preview-cache";
 import { plainFileName } from "../../http/file-name";
 import {
   CsvFileError,
   decodeCsvBytes,
   parseObservationCsv,
-  decodeCheckedRows,
-  encodeCheckedRows,
+  recheckReferenceData,
   serialiseObservationCsv,
   splitCsv,
   type CsvReferenceData,
@@ -75,54 +84,68 @@ function parseFile(bytes: Buffer, ref: CsvReferenceData) {
 const sameValues = (stored: Record<AmountColumn, number | null>, row: ParsedRow) =>
   AMOUNT_COLUMNS.every((c) => (stored[c] ?? null) === (row[c] ?? null));
 
-/** Sorts valid rows into new days, restatements (a changed day) and unchanged days. */
-function classify(rows: ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>) {
+/**
+ * Sorts valid rows into new days, restatements (a changed day) and unchanged days; with
+ * `writes`, also lists what to write (the preview only counts).
+ */
+function classify(rows: readonly ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>, writes = true) {
   const inserts: NewVersion[] = [];
-  const retire: number[] = [];
+  const retire: VersionKey[] = [];
   let fresh = 0;
   let restated = 0;
   let unchanged = 0;
+  let lastCode = "";
+  let portfolioId = 0;
   for (const row of rows) {
-    const portfolioId = ids.get(row.portfolio)!;
+    if (row.portfolio !== lastCode) {
+      lastCode = row.portfolio;
+      portfolioId = ids.get(row.portfolio)!;
+    }
     const current = stored.size ? stored.get(`${portfolioId}|${row.date}`) : undefined;
     if (!current) {
       fresh++;
-      inserts.push({ portfolioId, version: 1, row });
+      if (writes) inserts.push({ portfolioId, version: 1, row });
     } else if (sameValues(current.values, row)) {
       unchanged++;
     } else {
       restated++;
-      retire.push(current.id);
-      inserts.push({ portfolioId, version: current.version + 1, row });
+      if (writes) {
+        retire.push({ portfolioId, date: row.date, version: current.version });
+        inserts.push({ portfolioId, version: current.version + 1, row });
+      }
     }
   }
   return { inserts, retire, fresh, restated, unchanged };
 }
 
-/** Each portfolio's current days inside the committed span once the commit is written: stored days, overwritten by the file's. */
-function currentDaysInSpan(rows: ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>): Map<number, QualityDay[]> {
-  const byPortfolio = new Map<number, Map<string, QualityDay>>();
+/** Each portfolio's current days inside the committed span once the commit is written: the file's days, and the stored days it leaves as they are. */
+function currentDaysInSpan(rows: readonly ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>): Map<number, QualityDay[]> {
+  const byPortfolio = new Map<number, QualityDay[]>();
   const daysOf = (pid: number) => {
     let days = byPortfolio.get(pid);
-    if (!days) byPortfolio.set(pid, (days = new Map()));
+    if (!days) byPortfolio.set(pid, (days = []));
     return days;
   };
-  for (const day of stored.values()) {
-    daysOf(day.portfolioId).set(day.date, { date: day.date, actualPnl: day.values.actual_pnl, hypotheticalPnl: day.values.hypothetical_pnl, var99: day.values.var_99 });
-  }
+  const written = new Set<string>();
   let lastCode = "";
-  let days: Map<string, QualityDay> | undefined;
+  let days: QualityDay[] = [];
+  let portfolioId = 0;
   for (const r of rows) {
     if (r.portfolio !== lastCode) {
       lastCode = r.portfolio;
-      days = daysOf(ids.get(r.portfolio)!);
+      portfolioId = ids.get(r.portfolio)!;
+      days = daysOf(portfolioId);
     }
-    days!.set(r.date, { date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null });
+    days.push({ date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null });
+    if (stored.size) written.add(`${portfolioId}|${r.date}`);
   }
-  return new Map([...byPortfolio].map(([pid, m]) => [pid, [...m.values()]]));
+  for (const [key, day] of stored) {
+    if (!written.has(key)) daysOf(day.portfolioId).push({ date: day.date, actualPnl: day.values.actual_pnl, hypotheticalPnl: day.values.hypothetical_pnl, var99: day.values.var_99 });
+  }
+  return byPortfolio;
 }
 
-function dateRange(rows: ParsedRow[]): { from: string; to: string } | null {
+function dateRange(rows: readonly ParsedRow[]): { from: string; to: string } | null {
   if (rows.length === 0) return null;
   let from = rows[0].date;
   let to = rows[0].date;
@@ -187,11 +210,14 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
   if (twin) throw duplicateError(twin);
 
   const ref = await loadReferenceData();
+  // The file is compressed for keeping on a worker thread while this one parses it.
+  const packing = packBytesInBackground(file.bytes);
+  packing.catch(() => undefined); // awaited below; a refused file never gets there
   const parsed = parseFile(file.bytes, ref);
   const range = dateRange(parsed.rows);
   const portfolioCodes = [...new Set(parsed.rows.map((r) => r.portfolio))].sort();
   const stored = range ? await loadCurrentDays(portfolioCodes.map((c) => ref.ids.get(c)!), range.from, range.to) : new Map();
-  const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored);
+  const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored, false);
   const invalid = parsed.invalidLines.size;
 
   const row = await sequelize.transaction(async (transaction) => {
@@ -201,8 +227,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         sha256,
         committedSha256: null,
         sizeBytes: file.bytes.length,
-        content: packBytes(file.bytes),
-        checkedRows: invalid === 0 ? packBytes(Buffer.from(encodeCheckedRows(parsed.rows))) : null,
+        content: await packing,
         uploadedBy: actor.user.id,
         status: "preview",
         rowCount: parsed.totalRows,
@@ -221,17 +246,19 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
     await recordAudit(actor, "upload.preview", `upload #${created.id}`, { after: { fileName, sha256, rows: parsed.totalRows, invalid, restated } }, transaction);
     return created;
   });
+  if (invalid === 0) keepCheckedRows(row.id, sha256, parsed.rows);
   return toPreview(row);
 }
 
 /**
  * Writes a clean preview's rows in one transaction: restated days get a new version and keep
- * the old one; the same file can be committed only once (unique committed_sha256).
+ * the old one; the same file can be committed only once (unique committed_sha256). The rows are
+ * sent as pipelined multi-row INSERTs, and the data-quality checks run while MariaDB writes them.
  */
 export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
   const idsBefore = (await loadReferenceData()).ids;
   const result = await sequelize.transaction(async (transaction) => {
-    const upload = await UploadModel.scope("withContent").findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
     if (upload.status === "committed") throw new ConflictError(`Upload #${id} is already committed.`);
     if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
@@ -248,24 +275,31 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
 
     // Re-check against today's reference data, read after the locks (holiday changes take the same locks).
     const ref = await loadReferenceData(transaction);
-    const parsed = upload.checkedRows
-      ? decodeCheckedRows(unpackBytes(upload.checkedRows), ref)
-      : parseFile(unpackBytes(upload.content!), ref);
-    if (parsed.errors.length) {
+    const rows = checkedRowsOf(id, upload.sha256) ?? (await parseStoredFile(id, ref, transaction));
+    if (recheckReferenceData(rows, ref).length) {
       throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
     }
-    const range = dateRange(parsed.rows);
-    const portfolioIds = [...new Set(parsed.rows.map((r) => ref.ids.get(r.portfolio)!))];
-    const stored = range ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true) : new Map();
-    const { inserts, retire, restated, unchanged } = classify(parsed.rows, ref.ids, stored);
+    const range = dateRange(rows);
+    const portfolioIds = [...new Set(rows.map((r) => ref.ids.get(r.portfolio)!))];
+    const stored = range ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true) : new Map<string, StoredDay>();
+    const { inserts, retire, restated, unchanged } = classify(rows, ref.ids, stored);
+    // What the checks need from the database is read before the writes are queued behind it.
+    const findingInputs = range ? await loadFindingInputs(portfolioIds, { transaction, outside: range }) : [];
 
-    await retireVersions(retire, transaction);
-    await insertVersions(inserts, upload.id, actor.user.id, transaction);
-    // The findings change with the data, in the same transaction; the days in the span are in memory.
-    if (range) await refreshFindings(portfolioIds, { transaction, known: { ...range, days: currentDaysInSpan(parsed.rows, ref.ids, stored) } });
+    const writes = new PipelinedWrites(transaction);
+    queueRetireVersions(writes, retire);
+    await queueInsertVersions(writes, inserts, upload.id, actor.user.id);
+    // The checks run here while MariaDB writes; the findings change with the data, in this transaction.
+    const inside = range ? currentDaysInSpan(rows, ref.ids, stored) : undefined;
+    const found = [];
+    for (const input of findingInputs) {
+      found.push(checkFindings(input, inside));
+      await writes.flush();
+    }
+    await writes.done();
+    await applyFindings(found, transaction);
 
     upload.status = "committed";
-    upload.checkedRows = null; // the file itself is kept with the batch it produced
     upload.committedSha256 = upload.sha256;
     upload.committedAt = new Date();
     upload.insertedCount = inserts.length;
@@ -284,7 +318,19 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await recordAudit(actor, "upload.commit", `upload #${id}`, { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } }, transaction);
     return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };
   });
+  forgetCheckedRows(id);
   return result;
+}
+
+/** The preview's rows when this process no longer holds them: the stored file, parsed again. */
+async function parseStoredFile(id: number, ref: CsvReferenceData, transaction: Transaction): Promise<readonly ParsedRow[]> {
+  const withContent = await UploadModel.scope("withContent").findByPk(id, { attributes: ["id", "content"], transaction });
+  if (!withContent?.content) throw new ConflictError(`Upload #${id} no longer holds its file; upload it again.`);
+  const parsed = parseFile(unpackBytes(withContent.content), ref);
+  if (parsed.errors.length) {
+    throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
+  }
+  return parsed.rows;
 }
 
 export async function discardUpload(id: number, actor: SignedIn): Promise<void> {
@@ -294,10 +340,10 @@ export async function discardUpload(id: number, actor: SignedIn): Promise<void> 
     if (upload.status !== "preview") throw new ConflictError(`Upload #${id} is ${upload.status}; only a preview can be discarded.`);
     upload.status = "discarded";
     upload.content = null;
-    upload.checkedRows = null;
     await upload.save({ transaction });
     await recordAudit(actor, "upload.discard", `upload #${id}`, {}, transaction);
   });
+  forgetCheckedRows(id);
 }
 
 export async function listUploads(): Promise<UploadSummary[]> {

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { parseObservationCsv, serialiseObservationCsv, CsvFileError, decodeCheckedRows, encodeCheckedRows } from "../../../shared/ingest/parse-csv";
-import { ALL_COLUMNS, REQUIRED_COLUMNS } from "../../../shared/schemas/upload";
+import { parseObservationCsv, serialiseObservationCsv, CsvFileError, recheckReferenceData } from "../../../shared/ingest/parse-csv";
+import { ALL_COLUMNS, CELL_PATTERNS, REQUIRED_COLUMNS, observationCellsSchema } from "../../../shared/schemas/upload";
 
 const ref = {
   portfolios: new Map([
@@ -80,24 +80,64 @@ describe("parsing generated daily files (property-based, fast-check)", () => {
     );
   });
 
-  it("when a preview's checked rows are encoded and decoded, then the commit sees exactly the rows the preview accepted", () => {
+  it("when a file is read line by line in place, then it gives exactly the rows and problems of the general way", () => {
+    // parseObservationCsv reads plain lines straight from the text and hands every other line to
+    // the cell-by-cell checks; { plainLines: false } sends every line the general way.
+    const amount = fc.oneof(
+      cents(-9_000_000_00, 9_000_000_00),
+      fc.stringMatching(/^-?\d{1,17}(\.\d{1,8})?$/),
+      fc.integer({ min: -99_999_999, max: 99_999_999 }).map(String),
+      fc.constantFrom("", "-0", "0", "0.001", "0.005", "-0.015", "1.005", "12345678901234.56", "99999999999999999.99999999", "7.", ".5", "1e3", " 7", "NaN", "1,5"),
+    );
+    const portfolio = fc.constantFrom("BOOK-A", "BOOK-B", "book-a", " BOOK-B", "BOOK-A ", "nope", "", "-X", "BOOK-A\t");
+    const date = fc.oneof(weekday, fc.constantFrom("2026-12-25", "2026-02-30", "2026-13-01", "2026-1-01", " 2026-03-03", "2026-03-03 ", "20260303", ""));
+    const line = fc.tuple(portfolio, date, amount, amount, amount, amount).map((cells) => cells.join(","));
+    const extra = fc.constantFrom("", "   ", "BOOK-A,2026-03-03,1,1", "BOOK-A,2026-03-03,1,1,1,1,1");
     fc.assert(
-      fc.property(fc.uniqueArray(validRow, { minLength: 1, maxLength: 40, selector: (r) => `${r.portfolio}|${r.date}` }), (rows) => {
-        const business = rows.filter((r) => isBusinessDay(r.portfolio, r.date));
-        fc.pre(business.length > 0);
-        const parsed = parseObservationCsv(serialiseObservationCsv(business), ref);
-        const back = decodeCheckedRows(encodeCheckedRows(parsed.rows), ref);
-        expect(back.errors).toEqual([]);
-        expect(back.rows).toEqual(parsed.rows);
+      fc.property(fc.array(fc.oneof({ weight: 8, arbitrary: line }, { weight: 1, arbitrary: extra }), { minLength: 1, maxLength: 40 }), fc.constantFrom("\n", "\r\n"), (lines, eol) => {
+        const text = ["portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975", ...lines].join(eol);
+        const read = (plainLines: boolean) => {
+          try {
+            return parseObservationCsv(text, ref, { plainLines });
+          } catch (err) {
+            return { refused: (err as Error).message };
+          }
+        };
+        expect(read(true)).toEqual(read(false));
       }),
-      { numRuns: 100 },
+      { numRuns: 1500 },
     );
   });
 
-  it("when a day became a holiday after the preview, then decoding the checked rows reports it", () => {
+  it("a row whose cells all match the cell patterns is exactly a row the zod schema accepts", () => {
+    // The parser tests CELL_PATTERNS directly and runs the schema only on rows that fail one.
+    const cell = fc.oneof(
+      fc.string({ maxLength: 24 }),
+      fc.stringMatching(/^-?\d{1,18}(\.\d{0,9})?$/),
+      fc.stringMatching(/^\s?\d{4}-\d{2}-\d{2}\s?$/),
+      fc.stringMatching(/^\s?[A-Za-z0-9][A-Za-z0-9_-]{0,41}\s?$/),
+      fc.constantFrom("", " ", "NaN", "1e5", "1,234.5", "-0", "00.10", "\u00a0LKS"),
+    );
+    fc.assert(
+      fc.property(fc.record(Object.fromEntries(ALL_COLUMNS.map((c) => [c, cell])) as Record<(typeof ALL_COLUMNS)[number], fc.Arbitrary<string>>), (record) => {
+        const byPatterns = ALL_COLUMNS.every((c) => CELL_PATTERNS[c].test(record[c]));
+        expect(observationCellsSchema.safeParse(record).success).toBe(byPatterns);
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
+  it("when a day became a holiday after the preview, then checking the rows again reports it", () => {
     const parsed = parseObservationCsv("portfolio,date,actual_pnl,hypothetical_pnl,var_99\nBOOK-B,2026-12-25,-1,-1,10\n", ref);
     const later = { portfolios: new Map([["BOOK-B", { entityCode: "E2", holidays: new Map([["2026-12-25", "Christmas Day"]]) }]]) };
-    expect(decodeCheckedRows(encodeCheckedRows(parsed.rows), later).errors).toEqual([expect.objectContaining({ line: 2, column: "date" })]);
+    expect(recheckReferenceData(parsed.rows, ref)).toEqual([]);
+    expect(recheckReferenceData(parsed.rows, later)).toEqual([expect.objectContaining({ line: 2, column: "date" })]);
+  });
+
+  it("when a portfolio was removed after the preview, then checking the rows again reports it", () => {
+    const parsed = parseObservationCsv("portfolio,date,actual_pnl,hypothetical_pnl,var_99\nBOOK-A,2026-12-24,-1,-1,10\n", ref);
+    const later = { portfolios: new Map([["BOOK-B", ref.portfolios.get("BOOK-B")!]]) };
+    expect(recheckReferenceData(parsed.rows, later)).toEqual([expect.objectContaining({ line: 2, column: "portfolio" })]);
   });
 
   it("the template's columns are exactly the columns the parser knows", () => {

@@ -18,6 +18,7 @@ import { observationsRouter } from "./modules/observations/observations.router";
 import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
 import { reviewsRouter } from "./modules/exceptions/reviews.router";
+import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -82,6 +83,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(findingsRouter());
   app.use(backtestRouter());
   app.use(reviewsRouter());
+  app.use(snapshotsRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

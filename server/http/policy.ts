@@ -52,6 +52,16 @@ export const POLICY = {
   "GET /api/findings": ["analyst", "cro"],
   "PUT /api/findings/:id": ["analyst"],
 
+  // Quarter snapshots: analysts prepare and submit, the CRO approves or returns (four eyes in the
+  // service); treasury reads signed-off snapshots only (filtered in the service).
+  "GET /api/snapshots": ["analyst", "cro", "treasury"],
+  "POST /api/snapshots": ["analyst"],
+  "GET /api/snapshots/:id": ["analyst", "cro", "treasury"],
+  "POST /api/snapshots/:id/submit": ["analyst"],
+  "POST /api/snapshots/:id/approve": ["cro"],
+  "POST /api/snapshots/:id/return": ["cro"],
+  "GET /api/snapshots/:id/verify": ["analyst", "cro", "treasury"],
+
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
   "GET /api/overview": ["analyst", "cro"],
   "GET /api/portfolios/:code/backtest": ["analyst", "cro"],

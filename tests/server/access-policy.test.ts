@@ -124,6 +124,16 @@ const MUST_REFUSE: [Role, string][] = [
   ["cro", "POST /api/uploads"], // the CRO reads data; analysts bring it in
   ["analyst", "POST /api/users"],
   ["cro", "PATCH /api/entities/:code"],
+  // Quarter close: the analyst prepares, the CRO signs off; admin has no sign-off rights.
+  ["admin", "POST /api/snapshots"],
+  ["admin", "POST /api/snapshots/:id/approve"],
+  ["analyst", "POST /api/snapshots/:id/approve"],
+  ["analyst", "POST /api/snapshots/:id/return"],
+  ["cro", "POST /api/snapshots"],
+  ["treasury", "POST /api/snapshots"],
+  ["treasury", "POST /api/snapshots/:id/approve"],
+  ["regulator", "GET /api/snapshots"],
+  ["regulator", "POST /api/snapshots/:id/approve"],
 ];
 
 describe("what DESIGN.md §2 forbids, checked without the policy table", () => {

@@ -24,7 +24,7 @@ function latestDateOf(ctx: PortfolioContext): string {
 }
 
 /** FRTB: desk-level backtesting and the P&L attribution test over the last 250 days (MAR32). */
-async function deskResults(ctx: PortfolioContext, asOf: string): Promise<DeskResult[]> {
+export async function deskResults(ctx: PortfolioContext, asOf: string): Promise<DeskResult[]> {
   if (ctx.entity.regime !== "frtb" || ctx.portfolio.level !== "top") return [];
   const desks = await PortfolioModel.findAll({ where: { entityId: ctx.entity.id, level: "desk" }, order: [["code", "ASC"]] });
   const results: DeskResult[] = [];

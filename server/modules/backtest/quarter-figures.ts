@@ -1,0 +1,102 @@
+import { createHash } from "node:crypto";
+import stableStringify from "fast-json-stable-stringify";
+import { AppError, NotFoundError } from "../../errors";
+import { PortfolioModel } from "../../models/portfolio";
+import type { EntityModel } from "../../models/entity";
+import { backtestAt } from "../../../shared/backtest/exceptions";
+import { capitalAddOn, capitalRequirement } from "../../../shared/backtest/capital";
+import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
+import { EngineInputError } from "../../../shared/backtest/errors";
+import { ENGINE_VERSION } from "../../../shared/backtest/version";
+import { loadSeries } from "../observations/observations.repository";
+import { deskResults } from "./backtest.service";
+import { loadPortfolioContext } from "./portfolio-context";
+import { quarterLabel, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import type { Observation } from "../../../shared/backtest/types";
+
+export interface QuarterFigures {
+  figures: SnapshotFigures;
+  /** sha256 of everything the figures were computed from: entity settings, the window's daily data, approved exclusions. */
+  inputsSha256: string;
+  engineVersion: string;
+}
+
+/** The values of a day that feed the figures, in a fixed order (for the inputs hash). */
+const dayValues = (o: Observation) => [o.date, o.actualPnl, o.hypotheticalPnl, o.var99, o.var10d, o.svar99, o.svar10d, o.es975, o.ses, o.rtpl];
+
+/**
+ * An entity's figures at a quarter end, computed by the engine from the current daily data of its
+ * top portfolio (and, under FRTB, its desks) and the approved exclusions. Refuses a quarter whose
+ * last business day has no data yet: its figures would be a guess.
+ */
+export async function quarterFigures(entity: EntityModel, quarterEnd: string): Promise<QuarterFigures> {
+  const portfolios = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["code", "ASC"]] });
+  const top = portfolios.find((p) => p.level === "top");
+  if (!top) throw new NotFoundError(`${entity.code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
+  const ctx = await loadPortfolioContext(top.code);
+  const series = ctx.series.filter((o) => o.date <= quarterEnd);
+  const lastBusinessDay = isBusinessDay(quarterEnd, ctx.holidays) ? quarterEnd : addBusinessDays(quarterEnd, -1, ctx.holidays);
+  const reported = [...series].reverse().find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
+  if (!reported || reported.date < lastBusinessDay) {
+    throw new AppError(
+      422,
+      "quarter_data_incomplete",
+      `${top.code} has no daily data for ${lastBusinessDay}, the last business day of ${quarterLabel(quarterEnd)}${reported ? ` (its data ends on ${reported.date})` : ""}. Upload it under Data first.`,
+    );
+  }
+  const asOf = lastBusinessDay;
+  const opts = { regime: entity.regime, pnlBasis: entity.pnlBasis, asOf, excludedDates: ctx.excludedDates, qualitativeAddend: entity.qualitativeAddend };
+  const bt = backtestAt(series, opts);
+
+  let capital: number | null = null;
+  let addOn: number | null = null;
+  let capitalNote: string | null = null;
+  try {
+    const capitalOpts = { regime: entity.regime, asOf, count: bt.exceptions.counted, qualitativeAddend: entity.qualitativeAddend };
+    capital = Math.round(capitalRequirement(series, capitalOpts).requirement * 100) / 100;
+    addOn = Math.round(capitalAddOn(series, capitalOpts) * 100) / 100;
+  } catch (err) {
+    if (!(err instanceof EngineInputError)) throw err;
+    capitalNote = `No capital figure: ${err.message}`;
+  }
+
+  const desks = await deskResults(ctx, asOf);
+  const figures: SnapshotFigures = {
+    portfolio: top.code,
+    regime: entity.regime,
+    pnlBasis: entity.pnlBasis,
+    currency: entity.currency,
+    asOf,
+    window: bt.window,
+    exceptions: bt.exceptions,
+    exceptionDates: bt.exceptionDays.map((d) => d.date),
+    zone: bt.zone,
+    zoneLabel: bt.zoneLabel,
+    plusFactor: bt.plusFactor,
+    qualitativeAddend: entity.qualitativeAddend,
+    multiplier: bt.multiplier,
+    expected: bt.expected,
+    cumulativeProbability: bt.tests.cumulativeProbability,
+    capital,
+    addOn,
+    capitalNote,
+    desks: desks.map((d) => ({ portfolio: d.portfolio, exceptions99: d.backtest.at99.count, exceptions975: d.backtest.at975.count, passes: d.backtest.passes, plaZone: d.pla?.zone ?? null })),
+  };
+
+  // The inputs: what a second computation would need to give the same figures.
+  const from = bt.window.start ?? asOf;
+  const inWindow = (o: Observation) => o.date >= from && o.date <= asOf;
+  const deskSeries = [];
+  for (const desk of portfolios.filter((p) => p.level === "desk")) {
+    deskSeries.push([desk.code, (await loadSeries(desk.id, from, asOf)).map((o) => dayValues(o))]);
+  }
+  const inputs = {
+    entity: { code: entity.code, regime: entity.regime, pnlBasis: entity.pnlBasis, qualitativeAddend: entity.qualitativeAddend },
+    asOf,
+    portfolio: top.code,
+    days: series.filter(inWindow).map(dayValues),
+    excluded: [...ctx.excludedDates].filter((d) => d >= from && d <= asOf).sort(),
+    desks: deskSeries,
+  };
+  return { figures, inputsSha256: createHash("sha256").update(stableStringify(inputs)).digest("hex"), engineVersion: ENGINE_VERSION };
+}

@@ -1,0 +1,43 @@
+import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
+import { parseInput } from "../../errors";
+import {
+  createSnapshotSchema,
+  returnSnapshotSchema,
+  snapshotActionSchema,
+  snapshotIdParamSchema,
+  snapshotListQuerySchema,
+} from "../../../shared/schemas/snapshot";
+import * as snapshots from "./snapshots.service";
+
+export function snapshotsRouter() {
+  const r = createGuardedRouter();
+  r.get("/api/snapshots", async (req, res) => {
+    res.json(await snapshots.listSnapshots(parseInput(snapshotListQuerySchema, req.query, "query"), signedInActor(req)));
+  });
+  r.post("/api/snapshots", async (req, res) => {
+    const { created, snapshot } = await snapshots.prepareSnapshot(parseInput(createSnapshotSchema, req.body), signedInActor(req));
+    res.status(created ? 201 : 200).json(snapshot);
+  });
+  r.get("/api/snapshots/:id", async (req, res) => {
+    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    res.json(await snapshots.getSnapshot(id, signedInActor(req)));
+  });
+  r.post("/api/snapshots/:id/submit", async (req, res) => {
+    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    res.json(await snapshots.submitSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
+  });
+  r.post("/api/snapshots/:id/approve", async (req, res) => {
+    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    res.json(await snapshots.approveSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
+  });
+  r.post("/api/snapshots/:id/return", async (req, res) => {
+    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    res.json(await snapshots.returnSnapshot(id, parseInput(returnSnapshotSchema, req.body ?? {}), signedInActor(req)));
+  });
+  r.get("/api/snapshots/:id/verify", async (req, res) => {
+    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    res.json(await snapshots.verifySnapshot(id, signedInActor(req)));
+  });
+  return r.router;
+}

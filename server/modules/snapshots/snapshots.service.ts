@@ -1,0 +1,352 @@
+import { createHash } from "node:crypto";
+import stableStringify from "fast-json-stable-stringify";
+import { Op, type Transaction } from "sequelize";
+import { sequelize } from "../../db/sequelize";
+import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
+import { EntityModel } from "../../models/entity";
+import { PortfolioModel } from "../../models/portfolio";
+import { SnapshotModel } from "../../models/snapshot";
+import { UserModel } from "../../models/user";
+import { recordAudit } from "../audit/audit.service";
+import { countOpenFindings } from "../findings/findings.service";
+import { quarterFigures } from "../backtest/quarter-figures";
+import {
+  SIGNED_OFF,
+  quarterLabel,
+  quarterStart,
+  type CreateSnapshotBody,
+  type ReturnSnapshotBody,
+  type Snapshot,
+  type SnapshotActionBody,
+  type SnapshotEvent,
+  type SnapshotFigures,
+  type SnapshotVerify,
+} from "../../../shared/schemas/snapshot";
+import type { Actor } from "../../http/context";
+import type { SessionUser } from "../../../shared/schemas/auth";
+import type { VersionKey } from "../observations/observations.repository";
+
+type SignedIn = Actor & { user: SessionUser };
+
+/** Treasury reads signed-off figures only (DESIGN §2). */
+const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+// ---- reading ---------------------------------------------------------------------------------
+
+async function emailsOf(ids: (number | null)[]): Promise<Map<number, string>> {
+  const wanted = [...new Set(ids.filter((v): v is number => v !== null))];
+  if (wanted.length === 0) return new Map();
+  return new Map((await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+}
+
+async function openFindingsInQuarter(entityId: number, quarterEnd: string, transaction?: Transaction): Promise<number> {
+  const portfolios = await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction });
+  return countOpenFindings(
+    portfolios.map((p) => p.id),
+    quarterStart(quarterEnd),
+    quarterEnd,
+  );
+}
+
+async function toDto(row: SnapshotModel, entity?: EntityModel): Promise<Snapshot> {
+  const owner = entity ?? (await EntityModel.findByPk(row.entityId))!;
+  const history = JSON.parse(row.historyJson) as SnapshotEvent[];
+  const emails = await emailsOf([row.preparedBy, row.submittedBy, row.approvedBy]);
+  const figures = JSON.parse(row.figuresJson) as SnapshotFigures;
+  return {
+    id: row.id,
+    entity: owner.code,
+    entityName: owner.name,
+    quarterEnd: row.quarterEnd,
+    status: row.status,
+    zone: row.zone,
+    counted: row.counted,
+    plusFactor: row.plusFactor,
+    multiplier: row.multiplier,
+    capital: row.capital,
+    addOn: row.addOn,
+    figures,
+    inputsSha256: row.inputsSha256,
+    engineVersion: row.engineVersion,
+    preparedBy: emails.get(row.preparedBy) ?? "unknown",
+    preparedAt: row.preparedAt.toISOString(),
+    submittedBy: row.submittedBy ? (emails.get(row.submittedBy) ?? "unknown") : null,
+    submittedAt: row.submittedAt ? row.submittedAt.toISOString() : null,
+    approvedBy: row.approvedBy ? (emails.get(row.approvedBy) ?? "unknown") : null,
+    approvedAt: row.approvedAt ? row.approvedAt.toISOString() : null,
+    history,
+    prevHash: row.prevHash,
+    hash: row.hash,
+    restatedAfterSignOff: row.restatedAt ? { at: row.restatedAt.toISOString(), detail: row.restatementDetail ?? "" } : null,
+    openFindings: await openFindingsInQuarter(row.entityId, row.quarterEnd),
+    version: row.version,
+  };
+}
+
+export async function listSnapshots(query: { entity?: string }, actor: SignedIn): Promise<Snapshot[]> {
+  const where: Record<string, unknown> = {};
+  if (query.entity) {
+    const entity = await EntityModel.findOne({ where: { code: query.entity } });
+    if (!entity) throw new NotFoundError(`No entity ${query.entity}.`);
+    where.entityId = entity.id;
+  }
+  if (readsSignedOffOnly(actor)) where.status = [...SIGNED_OFF];
+  const rows = await SnapshotModel.findAll({ where, order: [["quarterEnd", "DESC"], ["entityId", "ASC"]] });
+  return Promise.all(rows.map((r) => toDto(r)));
+}
+
+export async function getSnapshot(id: number, actor: SignedIn): Promise<Snapshot> {
+  const row = await SnapshotModel.findByPk(id);
+  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status))) throw new NotFoundError(`No snapshot #${id}.`);
+  return toDto(row);
+}
+
+// ---- the sign-off ----------------------------------------------------------------------------
+
+function event(actor: SignedIn, action: SnapshotEvent["action"], comment?: string | null): SnapshotEvent {
+  return { at: new Date().toISOString(), by: actor.user.email, action, comment: comment?.trim() ? comment.trim() : null };
+}
+
+function withEvent(row: SnapshotModel, e: SnapshotEvent): string {
+  return JSON.stringify([...(JSON.parse(row.historyJson) as SnapshotEvent[]), e]);
+}
+
+/** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
+async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
+  await sequelize.query("SELECT id FROM portfolios WHERE entity_id = :entityId ORDER BY id LOCK IN SHARE MODE", { replacements: { entityId }, transaction });
+}
+
+async function lockSnapshot(id: number, transaction: Transaction, expectedVersion?: number): Promise<{ row: SnapshotModel; entity: EntityModel }> {
+  const row = await SnapshotModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+  if (!row) throw new NotFoundError(`No snapshot #${id}.`);
+  if (expectedVersion !== undefined && expectedVersion !== row.version) {
+    throw new AppError(409, "stale", `Snapshot #${id} changed since you opened it (now version ${row.version}). Look at it again before acting.`, {
+      current: await toDto(row),
+    });
+  }
+  const entity = (await EntityModel.findByPk(row.entityId, { transaction }))!;
+  return { row, entity };
+}
+
+async function refuseOpenFindings(row: SnapshotModel, entity: EntityModel, transaction: Transaction): Promise<void> {
+  const open = await openFindingsInQuarter(row.entityId, row.quarterEnd, transaction);
+  if (open > 0) {
+    throw new AppError(
+      409,
+      "open_findings",
+      `${open} open data-quality finding${open === 1 ? "" : "s"} inside ${quarterLabel(row.quarterEnd)} block${open === 1 ? "s" : ""} sign-off for ${entity.code}. Resolve or explain ${open === 1 ? "it" : "them"} on the Data screen first.`,
+      { openFindings: open },
+    );
+  }
+}
+
+/** The figures must still follow from today's data; otherwise the snapshot no longer says what it shows. */
+async function refuseChangedInputs(row: SnapshotModel, entity: EntityModel, what: string): Promise<void> {
+  const now = await quarterFigures(entity, row.quarterEnd);
+  if (now.inputsSha256 !== row.inputsSha256) {
+    throw new AppError(
+      409,
+      "inputs_changed",
+      `The daily data or approved exclusions behind ${entity.code} ${quarterLabel(row.quarterEnd)} changed since it was prepared, so it cannot be ${what}. ${what === "approved" ? "Return it" : "Prepare it again"} so the figures are recomputed.`,
+    );
+  }
+}
+
+/**
+ * An analyst prepares (or, for a draft or returned snapshot, prepares again) an entity's figures
+ * at a quarter end that has passed. A submitted or signed-off quarter cannot be prepared again.
+ */
+export async function prepareSnapshot(body: CreateSnapshotBody, actor: SignedIn): Promise<{ created: boolean; snapshot: Snapshot }> {
+  if (body.quarterEnd >= today()) {
+    throw new AppError(422, "quarter_not_ended", `${quarterLabel(body.quarterEnd)} has not ended yet: its snapshot can be prepared from ${body.quarterEnd} on, once the last day's data is in.`);
+  }
+  const entity = await EntityModel.findOne({ where: { code: body.entity } });
+  if (!entity) throw new NotFoundError(`No entity ${body.entity}.`);
+  return sequelize.transaction(async (transaction) => {
+    await holdEntityData(entity.id, transaction);
+    const existing = await SnapshotModel.findOne({ where: { entityId: entity.id, quarterEnd: body.quarterEnd }, transaction, lock: transaction.LOCK.UPDATE });
+    if (existing && existing.status !== "draft" && existing.status !== "returned") {
+      throw new ConflictError(`${entity.code} ${quarterLabel(body.quarterEnd)} is already ${existing.status}: it cannot be prepared again.`, { snapshotId: existing.id });
+    }
+    const computed = await quarterFigures(entity, body.quarterEnd);
+    const { figures } = computed;
+    const values = {
+      status: "draft" as const,
+      zone: figures.zone,
+      counted: figures.exceptions.counted,
+      plusFactor: figures.plusFactor,
+      multiplier: figures.multiplier,
+      capital: figures.capital,
+      addOn: figures.addOn,
+      windowStart: figures.window.start,
+      asOf: figures.asOf,
+      figuresJson: JSON.stringify(figures),
+      inputsSha256: computed.inputsSha256,
+      engineVersion: computed.engineVersion,
+      preparedBy: actor.user.id,
+      preparedAt: new Date(),
+      submittedBy: null,
+      submittedAt: null,
+    };
+    let row: SnapshotModel;
+    if (existing) {
+      const before = { status: existing.status, inputsSha256: existing.inputsSha256, multiplier: existing.multiplier };
+      await existing.update({ ...values, historyJson: withEvent(existing, event(actor, "recomputed")), version: existing.version + 1 }, { transaction });
+      row = existing;
+      await recordAudit(actor, "snapshot.prepare", `snapshot #${row.id}`, { before, after: { status: "draft", inputsSha256: row.inputsSha256, multiplier: row.multiplier } }, transaction);
+    } else {
+      row = await SnapshotModel.create(
+        { ...values, entityId: entity.id, quarterEnd: body.quarterEnd, approvedBy: null, approvedAt: null, prevHash: null, hash: null, restatedAt: null, restatementDetail: null, historyJson: JSON.stringify([event(actor, "prepared")]) },
+        { transaction },
+      );
+      await recordAudit(actor, "snapshot.prepare", `snapshot #${row.id}`, { after: { entity: entity.code, quarterEnd: body.quarterEnd, status: "draft", inputsSha256: row.inputsSha256, multiplier: row.multiplier } }, transaction);
+    }
+    return { created: !existing, snapshot: await toDto(row, entity) };
+  });
+}
+
+export async function submitSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
+  return sequelize.transaction(async (transaction) => {
+    const { row, entity } = await lockSnapshot(id, transaction, body.version);
+    if (row.status !== "draft") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a draft can be submitted.`);
+    await holdEntityData(entity.id, transaction);
+    await refuseOpenFindings(row, entity, transaction);
+    await refuseChangedInputs(row, entity, "submitted");
+    await row.update(
+      { status: "submitted", submittedBy: actor.user.id, submittedAt: new Date(), historyJson: withEvent(row, event(actor, "submitted", body.comment)), version: row.version + 1 },
+      { transaction },
+    );
+    await recordAudit(actor, "snapshot.submit", `snapshot #${id}`, { before: { status: "draft" }, after: { status: "submitted", comment: body.comment ?? null } }, transaction);
+    return toDto(row, entity);
+  });
+}
+
+/** What the hash of a signed-off snapshot covers, in a canonical form. */
+function hashedContent(row: SnapshotModel, entity: EntityModel) {
+  return stableStringify({
+    entity: entity.code,
+    quarterEnd: row.quarterEnd,
+    figures: row.figuresJson,
+    inputsSha256: row.inputsSha256,
+    engineVersion: row.engineVersion,
+    preparedBy: row.preparedBy,
+    preparedAt: row.preparedAt.toISOString(),
+    submittedBy: row.submittedBy,
+    approvedBy: row.approvedBy,
+    approvedAt: row.approvedAt?.toISOString() ?? null,
+    prevHash: row.prevHash,
+  });
+}
+const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
+
+/** The entity's signed-off snapshots in the order they were approved: the hash chain. */
+async function chainOf(entityId: number, transaction?: Transaction): Promise<SnapshotModel[]> {
+  return SnapshotModel.findAll({
+    where: { entityId, hash: { [Op.ne]: null } },
+    order: [["approvedAt", "ASC"], ["id", "ASC"]],
+    transaction,
+  });
+}
+
+/**
+ * The CRO signs a submitted snapshot off. Four eyes: not one they prepared or submitted. The
+ * figures must still follow from today's data, no finding inside the quarter may be open, and
+ * the approval extends the entity's hash chain.
+ */
+export async function approveSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
+  return sequelize.transaction(async (transaction) => {
+    const { row, entity } = await lockSnapshot(id, transaction, body.version);
+    if (row.status !== "submitted") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be approved.`);
+    if (row.preparedBy === actor.user.id || row.submittedBy === actor.user.id) {
+      throw new ForbiddenError("Four eyes: you prepared or submitted this snapshot, so someone else must approve it.", "four_eyes");
+    }
+    // Approvals of one entity take turns, so the chain never forks.
+    await EntityModel.findByPk(entity.id, { transaction, lock: transaction.LOCK.UPDATE });
+    await holdEntityData(entity.id, transaction);
+    await refuseOpenFindings(row, entity, transaction);
+    await refuseChangedInputs(row, entity, "approved");
+    const chain = await chainOf(entity.id, transaction);
+    row.status = "approved";
+    row.approvedBy = actor.user.id;
+    row.approvedAt = new Date(); // milliseconds, as DATETIME(3) keeps them: the hash is recomputed from the stored value
+    row.prevHash = chain.length ? chain[chain.length - 1].hash : null;
+    row.hash = sha256(hashedContent(row, entity));
+    row.historyJson = withEvent(row, event(actor, "approved", body.comment));
+    row.version = row.version + 1;
+    await row.save({ transaction });
+    await recordAudit(actor, "snapshot.approve", `snapshot #${id}`, { before: { status: "submitted" }, after: { status: "approved", hash: row.hash, prevHash: row.prevHash, comment: body.comment ?? null } }, transaction);
+    return toDto(row, entity);
+  });
+}
+
+export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor: SignedIn): Promise<Snapshot> {
+  return sequelize.transaction(async (transaction) => {
+    const { row, entity } = await lockSnapshot(id, transaction, body.version);
+    if (row.status !== "submitted") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be returned.`);
+    await row.update({ status: "returned", historyJson: withEvent(row, event(actor, "returned", body.comment)), version: row.version + 1 }, { transaction });
+    await recordAudit(actor, "snapshot.return", `snapshot #${id}`, { before: { status: "submitted" }, after: { status: "returned", comment: body.comment } }, transaction);
+    return toDto(row, entity);
+  });
+}
+
+/** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */
+export async function verifySnapshot(id: number, actor: SignedIn): Promise<SnapshotVerify> {
+  const row = await SnapshotModel.findByPk(id);
+  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status))) throw new NotFoundError(`No snapshot #${id}.`);
+  if (!row.hash) return { valid: false, hash: null, prevHash: null, detail: "Not signed off yet: there is no hash to verify." };
+  const entity = (await EntityModel.findByPk(row.entityId))!;
+  const recomputed = sha256(hashedContent(row, entity));
+  if (recomputed !== row.hash) {
+    return { valid: false, hash: row.hash, prevHash: row.prevHash, detail: `The stored content no longer gives the stored hash (it gives ${recomputed.slice(0, 12)}…): the snapshot was altered after approval.` };
+  }
+  const chain = await chainOf(row.entityId);
+  const at = chain.findIndex((s) => s.id === row.id);
+  const expectedPrev = at > 0 ? chain[at - 1].hash : null;
+  if (row.prevHash !== expectedPrev) {
+    return { valid: false, hash: row.hash, prevHash: row.prevHash, detail: "The link to the previously approved snapshot does not match: the chain was altered." };
+  }
+  return {
+    valid: true,
+    hash: row.hash,
+    prevHash: row.prevHash,
+    detail: `The hash matches the stored figures and inputs, and links to ${expectedPrev ? "the snapshot approved before it" : "nothing before it (the first approved snapshot of the entity)"}.`,
+  };
+}
+
+// ---- restatements after sign-off ---------------------------------------------------------------
+
+/**
+ * An upload restated days: every signed-off snapshot whose window holds one of them is flagged
+ * (in the upload's transaction). Its figures stay as approved.
+ */
+export async function flagRestatedSnapshots(restated: readonly VersionKey[], uploadId: number, actor: SignedIn, transaction: Transaction): Promise<number> {
+  if (restated.length === 0) return 0;
+  const portfolioIds = [...new Set(restated.map((k) => k.portfolioId))];
+  const portfolios = await PortfolioModel.findAll({ where: { id: portfolioIds }, attributes: ["id", "entityId", "code"], transaction });
+  const entityOf = new Map(portfolios.map((p) => [p.id, p.entityId]));
+  const codeOf = new Map(portfolios.map((p) => [p.id, p.code]));
+  const entityIds = [...new Set(portfolios.map((p) => p.entityId))];
+  const signedOff = await SnapshotModel.findAll({ where: { entityId: entityIds, status: [...SIGNED_OFF] }, transaction, lock: transaction.LOCK.UPDATE });
+  let flagged = 0;
+  for (const snapshot of signedOff) {
+    const from = snapshot.windowStart ?? snapshot.asOf;
+    const days = restated.filter((k) => entityOf.get(k.portfolioId) === snapshot.entityId && k.date >= from && k.date <= snapshot.quarterEnd);
+    if (days.length === 0) continue;
+    const listed = days.slice(0, 5).map((k) => `${codeOf.get(k.portfolioId)} ${k.date}`).join(", ");
+    const line = `${days.length} day${days.length === 1 ? "" : "s"} inside this snapshot's window restated by upload #${uploadId} (${listed}${days.length > 5 ? ", …" : ""}).`;
+    await snapshot.update(
+      {
+        restatedAt: new Date(),
+        restatementDetail: snapshot.restatementDetail ? `${snapshot.restatementDetail}\n${line}` : line,
+        historyJson: withEvent(snapshot, { ...event(actor, "restated"), comment: line }),
+        version: snapshot.version + 1,
+      },
+      { transaction },
+    );
+    await recordAudit(actor, "snapshot.restated", `snapshot #${snapshot.id}`, { after: { uploadId, days: days.length } }, transaction);
+    flagged++;
+  }
+  return flagged;
+}

@@ -1,0 +1,137 @@
+import { z } from "zod";
+import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
+import { zoneSchema } from "./backtest";
+
+/**
+ * Quarter snapshots: the figures of one entity at one quarter end, frozen for sign-off.
+ * draft → submitted → approved | returned (→ draft again); approved → filed (with the pack).
+ */
+export const SNAPSHOT_STATUSES = ["draft", "submitted", "approved", "returned", "filed"] as const;
+export const snapshotStatusSchema = z.enum(SNAPSHOT_STATUSES);
+export type SnapshotStatus = z.infer<typeof snapshotStatusSchema>;
+
+/** Statuses whose figures are signed off and never change. */
+export const SIGNED_OFF: ReadonlySet<SnapshotStatus> = new Set(["approved", "filed"]);
+
+export const quarterEndSchema = isoDateSchema.refine(
+  (d) => /-(03-31|06-30|09-30|12-31)$/.test(d),
+  "A quarter ends on 31 March, 30 June, 30 September or 31 December",
+);
+
+/** The first day of the quarter that ends on `quarterEnd`. */
+export function quarterStart(quarterEnd: string): string {
+  const month = Number(quarterEnd.slice(5, 7)) - 2;
+  return `${quarterEnd.slice(0, 4)}-${String(month).padStart(2, "0")}-01`;
+}
+
+/** "Q3 2026" for 2026-09-30. */
+export function quarterLabel(quarterEnd: string): string {
+  return `Q${Math.ceil(Number(quarterEnd.slice(5, 7)) / 3)} ${quarterEnd.slice(0, 4)}`;
+}
+
+export const createSnapshotSchema = z
+  .object({ entity: entityCodeSchema, quarterEnd: quarterEndSchema })
+  .strict();
+export type CreateSnapshotBody = z.infer<typeof createSnapshotSchema>;
+
+/** submit / approve: an optional comment; `version` (the row version the client read) guards against a stale screen. */
+export const snapshotActionSchema = z
+  .object({ comment: z.string().trim().max(2000).optional(), version: z.number().int().positive().optional() })
+  .strict();
+export type SnapshotActionBody = z.infer<typeof snapshotActionSchema>;
+
+/** return: the reviewer must say why. */
+export const returnSnapshotSchema = z
+  .object({ comment: z.string().trim().min(1, "Say why the snapshot goes back").max(2000), version: z.number().int().positive().optional() })
+  .strict();
+export type ReturnSnapshotBody = z.infer<typeof returnSnapshotSchema>;
+
+export const snapshotIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
+export const snapshotListQuerySchema = z.object({ entity: entityCodeSchema.optional() }).strict();
+
+/** One desk of an FRTB entity at the quarter end. */
+export const snapshotDeskSchema = z.object({
+  portfolio: z.string(),
+  /** Exceptions in the last 250 days at 99% and 97.5% (MAR32), and whether the desk passes both. */
+  exceptions99: z.number().int(),
+  exceptions975: z.number().int(),
+  passes: z.boolean(),
+  plaZone: z.enum(["green", "amber", "red"]).nullable(),
+});
+
+/** The figures frozen in a snapshot: computed by the engine (shared/backtest) at the quarter end. */
+export const snapshotFiguresSchema = z.object({
+  portfolio: z.string(),
+  regime: regimeSchema,
+  pnlBasis: pnlBasisSchema,
+  currency: z.string(),
+  /** The last day with data on or before the quarter end. */
+  asOf: z.string(),
+  window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int(), complete: z.boolean() }),
+  exceptions: z.object({ actual: z.number().int(), hypothetical: z.number().int(), counted: z.number().int(), excluded: z.number().int() }),
+  exceptionDates: z.array(z.string()),
+  zone: zoneSchema,
+  zoneLabel: z.string(),
+  plusFactor: z.number(),
+  qualitativeAddend: z.number(),
+  multiplier: z.number(),
+  expected: z.number(),
+  cumulativeProbability: z.number(),
+  /** Capital requirement and the part the plus factor adds; null when the data holds no capital input. */
+  capital: z.number().nullable(),
+  addOn: z.number().nullable(),
+  capitalNote: z.string().nullable(),
+  desks: z.array(snapshotDeskSchema),
+});
+export type SnapshotFigures = z.infer<typeof snapshotFiguresSchema>;
+
+export const snapshotEventSchema = z.object({
+  at: z.string(),
+  by: z.string(),
+  action: z.enum(["prepared", "recomputed", "submitted", "approved", "returned", "filed", "restated"]),
+  comment: z.string().nullable(),
+});
+export type SnapshotEvent = z.infer<typeof snapshotEventSchema>;
+
+export const snapshotSchema = z.object({
+  id: z.number().int(),
+  entity: z.string(),
+  entityName: z.string(),
+  quarterEnd: z.string(),
+  status: snapshotStatusSchema,
+  // The headline figures at the top level (DESIGN §6), the whole set under `figures`.
+  zone: zoneSchema,
+  counted: z.number().int(),
+  plusFactor: z.number(),
+  multiplier: z.number(),
+  capital: z.number().nullable(),
+  addOn: z.number().nullable(),
+  figures: snapshotFiguresSchema,
+  inputsSha256: z.string(),
+  engineVersion: z.string(),
+  preparedBy: z.string(),
+  preparedAt: z.string(),
+  submittedBy: z.string().nullable(),
+  submittedAt: z.string().nullable(),
+  approvedBy: z.string().nullable(),
+  approvedAt: z.string().nullable(),
+  history: z.array(snapshotEventSchema),
+  prevHash: z.string().nullable(),
+  hash: z.string().nullable(),
+  /** Set when a day inside the snapshot's window was restated after sign-off: the figures stay as approved. */
+  restatedAfterSignOff: z.object({ at: z.string(), detail: z.string() }).nullable(),
+  /** Open data-quality findings inside the quarter now (they block submit and approve). */
+  openFindings: z.number().int(),
+  version: z.number().int(),
+});
+export type Snapshot = z.infer<typeof snapshotSchema>;
+export const snapshotListSchema = z.array(snapshotSchema);
+
+export const snapshotVerifySchema = z.object({
+  valid: z.boolean(),
+  hash: z.string().nullable(),
+  prevHash: z.string().nullable(),
+  /** In words: what was checked, or what does not match. */
+  detail: z.string(),
+});
+export type SnapshotVerify = z.infer<typeof snapshotVerifySchema>;

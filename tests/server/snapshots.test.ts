@@ -1,0 +1,239 @@
+import request from "supertest";
+import { afterAll, describe, expect, it } from "vitest";
+import { sequelize } from "../../server/db/sequelize";
+import { AuditEventModel } from "../../server/models/audit-event";
+import { DataFindingModel } from "../../server/models/data-finding";
+import { SnapshotModel } from "../../server/models/snapshot";
+import { UserModel } from "../../server/models/user";
+import { capitalAddOn, capitalRequirement } from "../../shared/backtest/capital";
+import { snapshotSchema, snapshotVerifySchema } from "../../shared/schemas/snapshot";
+import type { Observation } from "../../shared/backtest/types";
+import { createTestUser, sessionCookieFor, testApp } from "./helpers";
+import { ingestFixture, uploadCsv } from "./ingest-helpers";
+
+const app = testApp();
+afterAll(() => sequelize.close());
+
+const Q3 = "2026-09-30";
+const Q2 = "2026-06-30";
+const HEADER = "portfolio,date,actual_pnl,hypothetical_pnl,var_99,svar_99";
+
+/** Business days (weekdays) ending on `end`, oldest first. */
+function weekdaysEndingOn(end: string, count: number): string[] {
+  const out: string[] = [];
+  const d = new Date(`${end}T00:00:00Z`);
+  while (out.length < count) {
+    const wd = d.getUTCDay();
+    if (wd !== 0 && wd !== 6) out.unshift(d.toISOString().slice(0, 10));
+    d.setUTCDate(d.getUTCDate() - 1);
+  }
+  return out;
+}
+
+/**
+ * An EU book with 400 business days up to 30 September 2026: a loss of 50 against a VaR of
+ * 100 or 101 (alternating, so it is never stale), and five exception days of 150 inside the
+ * last 250 days before Q3's end. Sessions for an analyst, a second analyst and a CRO.
+ */
+async function signOffBook() {
+  const fx = await ingestFixture();
+  const dates = weekdaysEndingOn(Q3, 400);
+  const exceptionDays = [dates[170], dates[230], dates[300], dates[350], dates[395]];
+  const row = (d: string, i: number, loss = exceptionDays.includes(d) ? 150 : 50) => `${fx.portfolio.code},${d},${-loss},${-loss + 10},${100 + (i % 2)},250`;
+  await uploadAndCommit(fx.cookie, [HEADER, ...dates.map((d, i) => row(d, i))].join("\n"));
+  const cro = await createTestUser("cro");
+  const analyst2 = await createTestUser("analyst");
+  return {
+    ...fx,
+    dates,
+    exceptionDays,
+    row,
+    cro,
+    croCookie: await sessionCookieFor(cro.id),
+    analyst2,
+    analyst2Cookie: await sessionCookieFor(analyst2.id),
+    treasuryCookie: await sessionCookieFor((await createTestUser("treasury")).id),
+  };
+}
+
+async function uploadAndCommit(cookie: string, csv: string) {
+  const preview = await uploadCsv(app, cookie, csv, `daily-${Math.random().toString(36).slice(2)}.csv`);
+  expect(preview.body.invalid, JSON.stringify(preview.body.errors)).toBe(0);
+  const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
+  expect(commit.status).toBe(200);
+  return commit.body as { inserted: number; restated: number };
+}
+
+type Book = Awaited<ReturnType<typeof signOffBook>>;
+
+async function prepare(book: Book, quarterEnd = Q3, cookie = book.cookie) {
+  return request(app).post("/api/snapshots").set("Cookie", cookie).send({ entity: book.entity.code, quarterEnd });
+}
+
+async function preparedAndSubmitted(book: Book, quarterEnd = Q3) {
+  const draft = await prepare(book, quarterEnd);
+  expect(draft.status).toBe(201);
+  const submitted = await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", book.cookie).send({ comment: "Figures checked", version: draft.body.version });
+  expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
+  return submitted.body;
+}
+
+describe("preparing a quarter snapshot", () => {
+  it("when an analyst prepares a past quarter, then the draft holds the engine's figures at the quarter's last business day, and the row and the audit say so", async () => {
+    const book = await signOffBook();
+    const res = await prepare(book);
+    expect(res.status).toBe(201);
+    expect(() => snapshotSchema.parse(res.body)).not.toThrow();
+    // Five exceptions in 250 days: yellow, plus factor 0.40, multiplier 3.40 (BCBS 1996 Table 2; CRR Art. 366, from memory).
+    expect(res.body).toMatchObject({ entity: book.entity.code, quarterEnd: Q3, status: "draft", zone: "yellow", counted: 5, plusFactor: 0.4, multiplier: 3.4, preparedBy: expect.stringContaining("@") });
+    expect(res.body.figures).toMatchObject({ asOf: Q3, window: { end: Q3, observations: 250, complete: true }, exceptionDates: book.exceptionDays, qualitativeAddend: 0 });
+    expect(res.body.inputsSha256).toMatch(/^[0-9a-f]{64}$/);
+
+    // The capital figures are the engine's own (shared/backtest/capital.ts) over the same days.
+    const series: Observation[] = book.dates.map((d, i) => {
+      const loss = book.exceptionDays.includes(d) ? 150 : 50;
+      return { date: d, actualPnl: -loss, hypotheticalPnl: -loss + 10, var99: 100 + (i % 2), var975: null, svar99: 250, var10d: null, svar10d: null, es975: null, ses: null, rtpl: null };
+    });
+    const opts = { regime: "eu" as const, asOf: Q3, count: 5, qualitativeAddend: 0 };
+    expect(res.body.capital).toBeCloseTo(capitalRequirement(series, opts).requirement, 2);
+    expect(res.body.addOn).toBeCloseTo(capitalAddOn(series, opts), 2);
+    expect(res.body.addOn).toBeGreaterThan(0);
+
+    const row = await SnapshotModel.findByPk(res.body.id);
+    expect(row).toMatchObject({ status: "draft", counted: 5, multiplier: 3.4, asOf: Q3, hash: null });
+    expect(await AuditEventModel.count({ where: { action: "snapshot.prepare", target: `snapshot #${res.body.id}` } })).toBe(1);
+  });
+
+  it("when the quarter has not ended, is no quarter end, or has no data on its last business day, then it is refused with a clear message and nothing is stored", async () => {
+    const book = await signOffBook();
+    const future = await prepare(book, "2026-12-31");
+    expect(future.status).toBe(422);
+    expect(future.body.error.message).toMatch(/Q4 2026 has not ended yet/);
+    const notAQuarter = await prepare(book, "2026-09-29");
+    expect(notAQuarter.status).toBe(422);
+    expect(notAQuarter.body.error.details.fields.quarterEnd).toMatch(/quarter ends on/);
+    const beforeData = await prepare(book, "2024-12-31");
+    expect(beforeData.status).toBe(422);
+    expect(beforeData.body.error.code).toBe("quarter_data_incomplete");
+    expect(await SnapshotModel.count({ where: { entityId: book.entity.id } })).toBe(0);
+  });
+});
+
+describe("the four-eyes sign-off", () => {
+  it("when a CRO approves an analyst's submitted snapshot, then it is signed off with a hash, the next approval links to it, and both verify", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    expect(submitted).toMatchObject({ status: "submitted", submittedBy: submitted.preparedBy });
+
+    const approved = await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({ comment: "Agreed", version: submitted.version });
+    expect(approved.status, JSON.stringify(approved.body)).toBe(200);
+    expect(approved.body).toMatchObject({ status: "approved", approvedBy: book.cro.email, prevHash: null, hash: expect.stringMatching(/^[0-9a-f]{64}$/) });
+    expect(approved.body.history.map((e: { action: string }) => e.action)).toEqual(["prepared", "submitted", "approved"]);
+    expect(await SnapshotModel.findByPk(submitted.id)).toMatchObject({ status: "approved", approvedBy: book.cro.id, hash: approved.body.hash });
+
+    const second = await preparedAndSubmitted(book, Q2);
+    const approvedQ2 = await request(app).post(`/api/snapshots/${second.id}/approve`).set("Cookie", book.croCookie).send({});
+    expect(approvedQ2.body.prevHash).toBe(approved.body.hash);
+
+    for (const id of [submitted.id, second.id]) {
+      const verify = await request(app).get(`/api/snapshots/${id}/verify`).set("Cookie", book.treasuryCookie);
+      expect(snapshotVerifySchema.parse(verify.body)).toMatchObject({ valid: true });
+    }
+  });
+
+  it("when the person who prepared it (now a CRO) tries to approve it, then 403 says four eyes and the snapshot stays submitted", async () => {
+    const book = await signOffBook();
+    const draft = await prepare(book, Q3, book.analyst2Cookie);
+    await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", book.analyst2Cookie).send({}).expect(200);
+    await UserModel.update({ role: "cro" }, { where: { id: book.analyst2.id } });
+    const res = await request(app).post(`/api/snapshots/${draft.body.id}/approve`).set("Cookie", await sessionCookieFor(book.analyst2.id)).send({});
+    expect(res.status).toBe(403);
+    expect(res.body.error).toMatchObject({ code: "four_eyes", message: expect.stringMatching(/someone else must approve/) });
+    expect((await SnapshotModel.findByPk(draft.body.id))!.status).toBe("submitted");
+  });
+
+  it("when open data-quality findings lie inside the quarter, then submit is refused until they are resolved", async () => {
+    const book = await signOffBook();
+    const finding = await DataFindingModel.create({ portfolioId: book.portfolio.id, kind: "outlier", dateFrom: "2026-08-12", dateTo: "2026-08-12", detail: "check", note: null, closedBy: null, closedAt: null });
+    const draft = await prepare(book);
+    expect(draft.body.openFindings).toBe(1);
+    const refused = await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", book.cookie).send({});
+    expect(refused.status).toBe(409);
+    expect(refused.body.error).toMatchObject({ code: "open_findings", message: expect.stringMatching(/1 open data-quality finding inside Q3 2026 blocks sign-off/) });
+    expect((await SnapshotModel.findByPk(draft.body.id))!.status).toBe("draft");
+
+    await finding.update({ status: "explained", note: "Confirmed with the desk" });
+    const submitted = await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", book.cookie).send({});
+    expect(submitted.body).toMatchObject({ status: "submitted", openFindings: 0 });
+  });
+
+  it("when the data changes between submission and approval, then approval is refused; returned, it is prepared again from the new data", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    const day = book.dates.indexOf("2026-09-15");
+    await uploadAndCommit(book.cookie, [HEADER, book.row(book.dates[day], day, 150)].join("\n")); // a sixth exception
+    const refused = await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({});
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe("inputs_changed");
+
+    const noReason = await request(app).post(`/api/snapshots/${submitted.id}/return`).set("Cookie", book.croCookie).send({ comment: " " });
+    expect(noReason.status).toBe(422);
+    const returned = await request(app).post(`/api/snapshots/${submitted.id}/return`).set("Cookie", book.croCookie).send({ comment: "Data restated on 15 Sep" });
+    expect(returned.body).toMatchObject({ status: "returned", counted: 5 });
+    const again = await prepare(book);
+    expect(again.status).toBe(200);
+    expect(again.body).toMatchObject({ id: submitted.id, status: "draft", counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5 });
+    expect(again.body.history.map((e: { action: string }) => e.action)).toEqual(["prepared", "submitted", "returned", "recomputed"]);
+  });
+
+  it("when someone acts on a version they no longer see, or on the wrong status, then 409 says so", async () => {
+    const book = await signOffBook();
+    const draft = await prepare(book);
+    const stale = await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", book.cookie).send({ version: draft.body.version + 5 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error).toMatchObject({ code: "stale" });
+    const early = await request(app).post(`/api/snapshots/${draft.body.id}/approve`).set("Cookie", book.croCookie).send({});
+    expect(early.status).toBe(409);
+    expect(early.body.error.message).toMatch(/only a submitted snapshot can be approved/);
+  });
+});
+
+describe("after sign-off", () => {
+  it("when a day inside an approved snapshot's window is restated, then the upload is accepted, the snapshot is flagged and its figures and hash stay as approved", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    const approved = (await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({})).body;
+    const day = book.dates.indexOf("2026-09-15");
+    const commit = await uploadAndCommit(book.cookie, [HEADER, book.row(book.dates[day], day, 150)].join("\n"));
+    expect(commit).toMatchObject({ inserted: 1, restated: 1 });
+
+    const after = await request(app).get(`/api/snapshots/${submitted.id}`).set("Cookie", book.cookie);
+    expect(after.body).toMatchObject({ status: "approved", counted: 5, multiplier: 3.4, hash: approved.hash });
+    expect(after.body.restatedAfterSignOff.detail).toMatch(/1 day inside this snapshot's window restated by upload #\d+ \(.* 2026-09-15\)/);
+    expect((await SnapshotModel.findByPk(submitted.id))!.restatedAt).not.toBeNull();
+    expect(await AuditEventModel.count({ where: { action: "snapshot.restated", target: `snapshot #${submitted.id}` } })).toBe(1);
+    const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
+    expect(verify.body.valid).toBe(true);
+  });
+
+  it("when a signed-off snapshot's stored figures are altered behind the application's back, then verify says it is not valid", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+    await sequelize.query("UPDATE snapshots SET figures_json = REPLACE(figures_json, '\"counted\":5', '\"counted\":3') WHERE id = :id", { replacements: { id: submitted.id } });
+    const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
+    expect(verify.body).toMatchObject({ valid: false, detail: expect.stringMatching(/altered after approval/) });
+  });
+
+  it("when treasury lists snapshots, then only signed-off ones are there, and a draft is not found", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+    const draft = await prepare(book, Q2);
+    const list = await request(app).get(`/api/snapshots?entity=${book.entity.code}`).set("Cookie", book.treasuryCookie);
+    expect(list.body.map((s: { id: number; status: string }) => [s.id, s.status])).toEqual([[submitted.id, "approved"]]);
+    expect((await request(app).get(`/api/snapshots/${draft.body.id}`).set("Cookie", book.treasuryCookie)).status).toBe(404);
+    const analystList = await request(app).get(`/api/snapshots?entity=${book.entity.code}`).set("Cookie", book.cookie);
+    expect(analystList.body.map((s: { quarterEnd: string }) => s.quarterEnd)).toEqual([Q3, Q2]);
+  });
+});

@@ -118,7 +118,14 @@ async function holdEntityData(entityId: number, transaction: Transaction): Promi
   await sequelize.query("SELECT id FROM portfolios WHERE entity_id = :entityId ORDER BY id LOCK IN SHARE MODE", { replacements: { entityId }, transaction });
 }
 
-async function lockSnapshot(id: number, transaction: Transaction, expectedVersion?: number): Promise<{ row: SnapshotModel; entity: EntityModel }> {
+/**
+ * Locks a snapshot for a change. With `holdData`, the entity's portfolios are held first: locks
+ * are always taken portfolios → entity → snapshot, the order an upload commit uses too.
+ */
+async function lockSnapshot(id: number, transaction: Transaction, expectedVersion: number | undefined, options: { holdData: boolean }): Promise<{ row: SnapshotModel; entity: EntityModel }> {
+  const peek = await SnapshotModel.findByPk(id, { attributes: ["id", "entityId"], transaction });
+  if (!peek) throw new NotFoundError(`No snapshot #${id}.`);
+  if (options.holdData) await holdEntityData(peek.entityId, transaction);
   const row = await SnapshotModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!row) throw new NotFoundError(`No snapshot #${id}.`);
   if (expectedVersion !== undefined && expectedVersion !== row.version) {
@@ -209,9 +216,8 @@ export async function prepareSnapshot(body: CreateSnapshotBody, actor: SignedIn)
 
 export async function submitSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
   return sequelize.transaction(async (transaction) => {
-    const { row, entity } = await lockSnapshot(id, transaction, body.version);
+    const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: true });
     if (row.status !== "draft") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a draft can be submitted.`);
-    await holdEntityData(entity.id, transaction);
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "submitted");
     await row.update(
@@ -257,14 +263,16 @@ async function chainOf(entityId: number, transaction?: Transaction): Promise<Sna
  */
 export async function approveSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
   return sequelize.transaction(async (transaction) => {
-    const { row, entity } = await lockSnapshot(id, transaction, body.version);
+    // Approvals of one entity take turns (the entity row), so its chain never forks.
+    const peek = await SnapshotModel.findByPk(id, { attributes: ["id", "entityId"], transaction });
+    if (!peek) throw new NotFoundError(`No snapshot #${id}.`);
+    await holdEntityData(peek.entityId, transaction);
+    await EntityModel.findByPk(peek.entityId, { transaction, lock: transaction.LOCK.UPDATE });
+    const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: false });
     if (row.status !== "submitted") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be approved.`);
     if (row.preparedBy === actor.user.id || row.submittedBy === actor.user.id) {
       throw new ForbiddenError("Four eyes: you prepared or submitted this snapshot, so someone else must approve it.", "four_eyes");
     }
-    // Approvals of one entity take turns, so the chain never forks.
-    await EntityModel.findByPk(entity.id, { transaction, lock: transaction.LOCK.UPDATE });
-    await holdEntityData(entity.id, transaction);
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "approved");
     const chain = await chainOf(entity.id, transaction);
@@ -283,7 +291,7 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
 
 export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor: SignedIn): Promise<Snapshot> {
   return sequelize.transaction(async (transaction) => {
-    const { row, entity } = await lockSnapshot(id, transaction, body.version);
+    const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: false });
     if (row.status !== "submitted") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be returned.`);
     await row.update({ status: "returned", historyJson: withEvent(row, event(actor, "returned", body.comment)), version: row.version + 1 }, { transaction });
     await recordAudit(actor, "snapshot.return", `snapshot #${id}`, { before: { status: "submitted" }, after: { status: "returned", comment: body.comment } }, transaction);

@@ -61,6 +61,7 @@ export const POLICY = {
   "POST /api/snapshots/:id/approve": ["cro"],
   "POST /api/snapshots/:id/return": ["cro"],
   "GET /api/snapshots/:id/verify": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/capital/history": ["analyst", "cro", "treasury"],
 
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
   "GET /api/overview": ["analyst", "cro"],

@@ -6,7 +6,7 @@ import { DataFindingModel } from "../../server/models/data-finding";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { UserModel } from "../../server/models/user";
 import { capitalAddOn, capitalRequirement } from "../../shared/backtest/capital";
-import { snapshotSchema, snapshotVerifySchema } from "../../shared/schemas/snapshot";
+import { capitalHistorySchema, snapshotSchema, snapshotVerifySchema } from "../../shared/schemas/snapshot";
 import type { Observation } from "../../shared/backtest/types";
 import { createTestUser, sessionCookieFor, testApp } from "./helpers";
 import { ingestFixture, uploadCsv } from "./ingest-helpers";
@@ -235,5 +235,13 @@ describe("after sign-off", () => {
     expect((await request(app).get(`/api/snapshots/${draft.body.id}`).set("Cookie", book.treasuryCookie)).status).toBe(404);
     const analystList = await request(app).get(`/api/snapshots?entity=${book.entity.code}`).set("Cookie", book.cookie);
     expect(analystList.body.map((s: { quarterEnd: string }) => s.quarterEnd)).toEqual([Q3, Q2]);
+
+    // The capital history reads the same snapshots, oldest first.
+    const history = await request(app).get(`/api/entities/${book.entity.code}/capital/history`).set("Cookie", book.treasuryCookie);
+    expect(capitalHistorySchema.parse(history.body)).toEqual([
+      { quarterEnd: Q3, status: "approved", zone: "yellow", counted: 5, plusFactor: 0.4, multiplier: 3.4, capital: submitted.capital, addOn: submitted.addOn, snapshotId: submitted.id, restatedAfterSignOff: false },
+    ]);
+    const fullHistory = await request(app).get(`/api/entities/${book.entity.code}/capital/history`).set("Cookie", book.croCookie);
+    expect(fullHistory.body.map((h: { quarterEnd: string; status: string }) => [h.quarterEnd, h.status])).toEqual([[Q2, "draft"], [Q3, "approved"]]);
   });
 });

@@ -3,6 +3,7 @@ import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createSnapshotSchema,
+  entityCodeParamSchema,
   returnSnapshotSchema,
   snapshotActionSchema,
   snapshotIdParamSchema,
@@ -38,6 +39,10 @@ export function snapshotsRouter() {
   r.get("/api/snapshots/:id/verify", async (req, res) => {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
     res.json(await snapshots.verifySnapshot(id, signedInActor(req)));
+  });
+  r.get("/api/entities/:code/capital/history", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    res.json(await snapshots.capitalHistory(code, signedInActor(req)));
   });
   return r.router;
 }

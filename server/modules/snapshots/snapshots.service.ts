@@ -14,6 +14,7 @@ import {
   SIGNED_OFF,
   quarterLabel,
   quarterStart,
+  type CapitalHistoryItem,
   type CreateSnapshotBody,
   type ReturnSnapshotBody,
   type Snapshot,
@@ -101,6 +102,28 @@ export async function getSnapshot(id: number, actor: SignedIn): Promise<Snapshot
   const row = await SnapshotModel.findByPk(id);
   if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status))) throw new NotFoundError(`No snapshot #${id}.`);
   return toDto(row);
+}
+
+/** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
+export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const rows = await SnapshotModel.findAll({
+    where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
+    order: [["quarterEnd", "ASC"]],
+  });
+  return rows.map((r) => ({
+    quarterEnd: r.quarterEnd,
+    status: r.status,
+    zone: r.zone,
+    counted: r.counted,
+    plusFactor: r.plusFactor,
+    multiplier: r.multiplier,
+    capital: r.capital,
+    addOn: r.addOn,
+    snapshotId: r.id,
+    restatedAfterSignOff: r.restatedAt !== null,
+  }));
 }
 
 // ---- the sign-off ----------------------------------------------------------------------------

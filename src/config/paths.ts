@@ -3,6 +3,8 @@ import type { Role } from "@shared/schemas/common";
 export const allRoles: readonly Role[] = ["analyst", "cro", "treasury", "regulator", "admin"];
 const adminOnly: readonly Role[] = ["admin"];
 const dataReaders: readonly Role[] = ["analyst", "cro"];
+/** Treasury reads the signed-off quarters too (the server sends them only approved and filed ones). */
+const quarterReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 
 export type AppPath = {
   /** The route pattern as React Router reads it. */
@@ -51,6 +53,19 @@ export const paths = {
       return `/backtest/${encodeURIComponent(portfolio)}${qs ? `?${qs}` : ""}`;
     },
   },
+  quarters: {
+    path: "/quarters",
+    roles: quarterReaders,
+    label: "Quarter close",
+    /** `snapshot` opens that snapshot; without `entity` the screen starts on the first entity. */
+    href: (q?: { entity?: string; snapshot?: number }) => {
+      const s = new URLSearchParams();
+      if (q?.entity) s.set("entity", q.entity);
+      if (q?.snapshot) s.set("snapshot", String(q.snapshot));
+      const qs = s.toString();
+      return qs ? `/quarters?${qs}` : "/quarters";
+    },
+  },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
   adminEntity: {
@@ -86,6 +101,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "overview", group: "main" },
   { key: "backtestIndex", group: "main" },
   { key: "data", group: "main" },
+  { key: "quarters", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },
   { key: "adminAssignments", group: "admin" },

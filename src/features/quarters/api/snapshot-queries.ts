@@ -1,0 +1,124 @@
+import { queryOptions, useMutation, useQueryClient, type Query } from "@tanstack/react-query";
+import {
+  snapshotListSchema,
+  snapshotSchema,
+  snapshotVerifySchema,
+  type CreateSnapshotBody,
+  type ReturnSnapshotBody,
+  type Snapshot,
+  type SnapshotActionBody,
+} from "@shared/schemas/snapshot";
+import { api, isApiError, withQuery } from "@/lib/api-client";
+import { everyFigure } from "@/lib/query-scope";
+
+const base = (id: number) => `/api/snapshots/${id}`;
+
+/** Every key of the quarter snapshots, from the broadest to one snapshot's hash check. */
+export const snapshotKeys = {
+  all: () => ["snapshots"] as const,
+  lists: () => [...snapshotKeys.all(), "list"] as const,
+  list: (entity: string) => [...snapshotKeys.lists(), { entity }] as const,
+  details: () => [...snapshotKeys.all(), "detail"] as const,
+  detail: (id: number) => [...snapshotKeys.details(), id] as const,
+  verify: (id: number) => [...snapshotKeys.detail(id), "verify"] as const,
+};
+
+export const snapshotQueries = {
+  /** The entity's snapshots, newest quarter first (treasury receives only the signed-off ones). */
+  list: (entity: string) =>
+    queryOptions({
+      queryKey: snapshotKeys.list(entity),
+      queryFn: () => api.get(withQuery("/api/snapshots", { entity }), snapshotListSchema),
+    }),
+  detail: (id: number) =>
+    queryOptions({
+      queryKey: snapshotKeys.detail(id),
+      queryFn: () => api.get(base(id), snapshotSchema),
+    }),
+  /** The server recomputes the hash chain each time it is asked; a cached answer would prove nothing. */
+  verify: (id: number) =>
+    queryOptions({
+      queryKey: snapshotKeys.verify(id),
+      queryFn: () => api.get(`${base(id)}/verify`, snapshotVerifySchema),
+      staleTime: 0,
+      gcTime: 0,
+    }),
+};
+
+/** The error codes after which the snapshot still stands as the screen shows it (the reader fixes the cause, not the screen). */
+const STANDS_AFTER: ReadonlySet<string> = new Set(["open_findings", "inputs_changed", "four_eyes"]);
+
+/** A refusal because the snapshot changed under the reader (a stale version, another status): the form it came from may be gone once the screen reloads. */
+export function isChangedMeanwhile(error: unknown): boolean {
+  return isApiError(error) && error.status === 409 && !STANDS_AFTER.has(error.code);
+}
+
+/** The snapshot a 409 names (`details.snapshotId`): the one already standing in the way. */
+export function blockingSnapshotOf(error: unknown): number | undefined {
+  if (!isApiError(error) || error.status !== 409) return undefined;
+  const id = (error.details as { snapshotId?: unknown } | null | undefined)?.snapshotId;
+  return typeof id === "number" && Number.isInteger(id) && id > 0 ? id : undefined;
+}
+
+/**
+ * After a change the server's answer is the snapshot as it now stands; everything else that shows
+ * figures or a quarter's status goes stale (lists, capital history, overview). Features may not
+ * import each other's keys, so the shared rule in query-scope decides what that is.
+ */
+function useStoreAnswer() {
+  const queryClient = useQueryClient();
+  return (snapshot: Snapshot) => {
+    queryClient.setQueryData(snapshotKeys.detail(snapshot.id), snapshot);
+    const detailKey = snapshotKeys.detail(snapshot.id);
+    const isThisDetail = (q: Query) => q.queryKey.length === detailKey.length && detailKey.every((k, i) => q.queryKey[i] === k);
+    return queryClient.invalidateQueries({ predicate: (q) => everyFigure.predicate(q) && !isThisDetail(q) });
+  };
+}
+
+/** A 409 or 403 is news about the snapshot (status, version, open findings): read it again. */
+function useRereadOnRefusal() {
+  const queryClient = useQueryClient();
+  return (error: unknown) =>
+    isApiError(error) && (error.status === 409 || error.status === 403) ? queryClient.invalidateQueries({ queryKey: snapshotKeys.all() }) : undefined;
+}
+
+/** Freezes the quarter's figures as a draft; for a draft or returned quarter the server recomputes it (200). */
+export function usePrepareSnapshot() {
+  const store = useStoreAnswer();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: (body: CreateSnapshotBody) => api.post("/api/snapshots", body, snapshotSchema),
+    onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}
+
+export function useSubmitSnapshot(id: number) {
+  const store = useStoreAnswer();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: (body: SnapshotActionBody) => api.post(`${base(id)}/submit`, body, snapshotSchema),
+    onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}
+
+export function useApproveSnapshot(id: number) {
+  const store = useStoreAnswer();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: (body: SnapshotActionBody) => api.post(`${base(id)}/approve`, body, snapshotSchema),
+    onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}
+
+export function useReturnSnapshot(id: number) {
+  const store = useStoreAnswer();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: (body: ReturnSnapshotBody) => api.post(`${base(id)}/return`, body, snapshotSchema),
+    onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}

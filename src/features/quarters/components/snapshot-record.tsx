@@ -1,0 +1,117 @@
+import { useState } from "react";
+import { useQuery } from "@tanstack/react-query";
+import type { Snapshot } from "@shared/schemas/snapshot";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/field";
+import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { isApiError } from "@/lib/api-client";
+import { cn } from "@/lib/cn";
+import { formatDateTime } from "@/lib/format";
+import { snapshotQueries } from "../api/snapshot-queries";
+import { shortHash, snapshotEventLabels } from "../words";
+
+function Hash({ value, empty }: { value: string | null; empty: string }) {
+  if (!value) return <span className="text-ink-muted">{empty}</span>;
+  return (
+    <code className="text-xs" title={value}>
+      {shortHash(value)}
+    </code>
+  );
+}
+
+/** Asks the server to check the snapshot's hash chain again; shows what it found, in its words. */
+function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
+  const [asked, setAsked] = useState(false);
+  const verify = useQuery({ ...snapshotQueries.verify(snapshot.id), enabled: asked });
+  const result = verify.data;
+  return (
+    <div className="flex flex-col gap-2">
+      <div className="flex items-center gap-3">
+        <Button
+          variant="secondary"
+          size="sm"
+          disabled={verify.isFetching}
+          onClick={() => (asked ? void verify.refetch() : setAsked(true))}
+        >
+          {verify.isFetching ? "Checking…" : result ? "Verify again" : "Verify the hash"}
+        </Button>
+        <span className="text-xs text-ink-muted">Recomputes the hash from the stored figures and the previous quarter's hash.</span>
+      </div>
+      {verify.error && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The hash could not be checked."}</FormMessage>}
+      {result && !verify.isFetching && (
+        <div
+          role="status"
+          aria-label="Hash check"
+          className={cn("border-l-2 px-3 py-1.5 text-sm", result.valid ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
+        >
+          <p className="font-semibold">{result.valid ? "Valid: the figures are as signed off." : "Invalid: the stored snapshot does not match its hash."}</p>
+          <p className={cn(result.valid ? "text-ink-soft" : "text-ink")}>{result.detail}</p>
+        </div>
+      )}
+    </div>
+  );
+}
+
+/** Where the figures came from and the chain that seals them: inputs, engine, hash, previous hash. */
+export function SnapshotRecord({ snapshot }: { snapshot: Snapshot }) {
+  return (
+    <section aria-labelledby="record-title" className="flex flex-col gap-3">
+      <h3 id="record-title" className="text-sm font-semibold">
+        Seal and provenance
+      </h3>
+      <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
+        <dt className="text-ink-muted">Inputs SHA-256</dt>
+        <dd>
+          <Hash value={snapshot.inputsSha256} empty="—" />
+        </dd>
+        <dt className="text-ink-muted">Engine version</dt>
+        <dd className="figures">{snapshot.engineVersion}</dd>
+        <dt className="text-ink-muted">Hash</dt>
+        <dd data-testid="snapshot-hash">
+          <Hash value={snapshot.hash} empty="Set when the chief risk officer approves it" />
+        </dd>
+        <dt className="text-ink-muted">Previous hash</dt>
+        <dd>
+          <Hash value={snapshot.prevHash} empty={snapshot.hash ? "None: the first signed-off quarter of the entity" : "—"} />
+        </dd>
+      </dl>
+      {snapshot.hash && <VerifyHash key={snapshot.id} snapshot={snapshot} />}
+    </section>
+  );
+}
+
+/** Who did what to the snapshot and when, oldest first, with their comments. */
+export function SnapshotHistory({ snapshot }: { snapshot: Snapshot }) {
+  const events = [...snapshot.history].sort((a, b) => a.at.localeCompare(b.at));
+  return (
+    <section aria-labelledby="history-title" className="flex flex-col gap-2">
+      <h3 id="history-title" className="text-sm font-semibold">
+        History
+      </h3>
+      {events.length === 0 ? (
+        <EmptyState title="Nothing recorded yet" />
+      ) : (
+        <Table caption="History of the snapshot">
+          <thead>
+            <tr>
+              <Th>When</Th>
+              <Th>Who</Th>
+              <Th>What</Th>
+              <Th>Comment</Th>
+            </tr>
+          </thead>
+          <tbody>
+            {events.map((e, i) => (
+              <Tr key={`${e.at}-${i}`}>
+                <Td className="figures whitespace-nowrap">{formatDateTime(e.at)}</Td>
+                <Td>{e.by}</Td>
+                <Td className="whitespace-nowrap">{snapshotEventLabels[e.action]}</Td>
+                <Td className="max-w-lg whitespace-pre-wrap">{e.comment ?? <span className="text-ink-faint">—</span>}</Td>
+              </Tr>
+            ))}
+          </tbody>
+        </Table>
+      )}
+    </section>
+  );
+}

@@ -34,10 +34,15 @@ export function PrepareSnapshotForm({
 }) {
   const prepare = usePrepareSnapshot();
   const formRef = useRef<HTMLFormElement>(null);
-  const [quarterEnd, setQuarterEnd] = useState(quarterEnds[0] ?? "");
+  const existingOf = (q: string) => snapshots.find((s) => s.quarterEnd === q);
+  const preparable = (q: string) => {
+    const s = existingOf(q);
+    return !s || s.status === "draft" || s.status === "returned";
+  };
+  // The newest quarter that can still be prepared; the newest one when all are signed off.
+  const [quarterEnd, setQuarterEnd] = useState(quarterEnds.find(preparable) ?? quarterEnds[0] ?? "");
   const [errors, setErrors] = useState<FieldErrors>({});
   const [done, setDone] = useState<string>();
-  const existingOf = (q: string) => snapshots.find((s) => s.quarterEnd === q);
   const existing = existingOf(quarterEnd);
 
   function submit(e: FormEvent) {
@@ -105,7 +110,7 @@ export function PrepareSnapshotForm({
             );
           })}
         </SelectField>
-        <Button type="submit" className="mt-5" disabled={prepare.isPending || !quarterEnd}>
+        <Button type="submit" className="mt-5" disabled={prepare.isPending || !quarterEnd || !preparable(quarterEnd)}>
           {prepare.isPending ? "Computing the figures…" : "Prepare the snapshot"}
         </Button>
       </div>

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { decimalAttribute } from "./decimal";
 
 /**
  * One version of one portfolio's business day. A restatement adds a version and clears
@@ -26,16 +27,7 @@ export class ObservationModel extends Model<InferAttributes<ObservationModel>, I
   declare createdAt: CreationOptional<Date>;
 }
 
-// DECIMAL comes back as a string: convert here, once.
-const money = (attribute: keyof InferAttributes<ObservationModel>, field: string) => ({
-  type: DataTypes.DECIMAL(20, 2),
-  allowNull: true,
-  field,
-  get(this: ObservationModel) {
-    const raw = this.getDataValue(attribute) as unknown;
-    return raw === null || raw === undefined ? null : Number(raw);
-  },
-});
+const money = (attribute: keyof InferAttributes<ObservationModel>, field: string) => decimalAttribute<ObservationModel>(attribute, 20, 2, { allowNull: true, field });
 
 ObservationModel.init(
   {

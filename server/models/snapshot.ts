@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { decimalAttribute } from "./decimal";
 import type { SnapshotStatus } from "../../shared/schemas/snapshot";
 import type { Zone } from "../../shared/backtest/types";
 
@@ -36,15 +37,8 @@ export class SnapshotModel extends Model<InferAttributes<SnapshotModel>, InferCr
   declare updatedAt: CreationOptional<Date>;
 }
 
-// DECIMAL comes back as a string: convert here, once.
-const decimal = (attribute: keyof InferAttributes<SnapshotModel>, precision: number, scale: number, allowNull: boolean) => ({
-  type: DataTypes.DECIMAL(precision, scale),
-  allowNull,
-  get(this: SnapshotModel) {
-    const raw = this.getDataValue(attribute) as unknown;
-    return raw === null || raw === undefined ? null : Number(raw);
-  },
-});
+const decimal = (attribute: keyof InferAttributes<SnapshotModel>, precision: number, scale: number, allowNull: boolean) =>
+  decimalAttribute<SnapshotModel>(attribute, precision, scale, { allowNull });
 
 SnapshotModel.init(
   {

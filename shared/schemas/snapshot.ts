@@ -137,18 +137,9 @@ export const snapshotVerifySchema = z.object({
 export type SnapshotVerify = z.infer<typeof snapshotVerifySchema>;
 
 /** GET /api/entities/:code/capital/history: the entity's quarters as their snapshots hold them, oldest first. */
-export const capitalHistoryItemSchema = z.object({
-  quarterEnd: z.string(),
-  status: snapshotStatusSchema,
-  zone: zoneSchema,
-  counted: z.number().int(),
-  plusFactor: z.number(),
-  multiplier: z.number(),
-  capital: z.number().nullable(),
-  addOn: z.number().nullable(),
-  snapshotId: z.number().int(),
-  restatedAfterSignOff: z.boolean(),
-});
+export const capitalHistoryItemSchema = snapshotSchema
+  .pick({ quarterEnd: true, status: true, zone: true, counted: true, plusFactor: true, multiplier: true, capital: true, addOn: true })
+  .extend({ snapshotId: z.number().int(), restatedAfterSignOff: z.boolean() });
 export type CapitalHistoryItem = z.infer<typeof capitalHistoryItemSchema>;
 export const capitalHistorySchema = z.array(capitalHistoryItemSchema);
 export const entityCodeParamSchema = z.object({ code: entityCodeSchema });

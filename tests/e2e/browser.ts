@@ -7,6 +7,7 @@ import type { Server } from "node:http";
 import { afterAll, beforeAll } from "vitest";
 import { createApp } from "../../server/app";
 import { sequelize } from "../../server/db/sequelize";
+import { TEST_PASSWORD } from "../server/helpers";
 
 export const screenshotDir = path.resolve(import.meta.dirname, "..", "..", "test-results", "screenshots");
 
@@ -43,6 +44,15 @@ export async function startAppServer(): Promise<{ baseUrl: string; close: () => 
   await new Promise<void>((resolve) => server.once("listening", () => resolve()));
   const { port } = server.address() as AddressInfo;
   return { baseUrl: `http://127.0.0.1:${port}`, close: () => new Promise<void>((r) => server.close(() => r())) };
+}
+
+/** Signs in through the sign-in screen and waits for the Overview. */
+export async function signInAs(page: Page, baseUrl: string, email: string, password = TEST_PASSWORD): Promise<void> {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.getByLabel(/e-mail/i).fill(email);
+  await page.getByLabel(/password/i).fill(password);
+  await page.getByRole("button", { name: /^sign in$/i }).click();
+  await page.getByRole("heading", { name: /overview/i }).waitFor({ timeout: 15_000 });
 }
 
 /** Collects console errors and failed page scripts, so a journey can assert there were none. */

@@ -1,11 +1,10 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
-import type { Page } from "playwright-core";
 import { createApp } from "../../server/app";
 import { SnapshotModel } from "../../server/models/snapshot";
-import { createTestUser, TEST_PASSWORD } from "../server/helpers";
+import { createTestUser } from "../server/helpers";
 import { ingestFixture, uploadCsv } from "../server/ingest-helpers";
-import { browserSuite, keepScreenshot, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let fixture: Awaited<ReturnType<typeof ingestFixture>>;
 let croEmail = "";
@@ -28,19 +27,12 @@ async function loadBook() {
 
 const suite = browserSuite(loadBook);
 
-async function signInAs(page: Page, email: string) {
-  await page.goto(`${suite.app.baseUrl}/sign-in`);
-  await page.getByLabel(/e-mail/i).fill(email);
-  await page.getByLabel(/password/i).fill(TEST_PASSWORD);
-  await page.getByRole("button", { name: /^sign in$/i }).click();
-  await page.getByRole("heading", { name: /overview/i }).waitFor({ timeout: 15_000 });
-}
 
 describe("closing a quarter in a real browser", () => {
   it("when the analyst prepares and submits Q3 2026 and the CRO approves it, then the snapshot is sealed, its hash verifies, and there were no console errors", async () => {
     const analystPage = await suite.context.newPage();
     const errors = watchConsole(analystPage);
-    await signInAs(analystPage, fixture.analyst.email);
+    await signInAs(analystPage, suite.app.baseUrl, fixture.analyst.email);
     await analystPage.goto(`${suite.app.baseUrl}/quarters?entity=${fixture.entity.code}`);
     await analystPage.getByRole("button", { name: "Prepare the snapshot" }).click();
     await analystPage.getByRole("button", { name: "Submit for sign-off" }).waitFor({ timeout: 20_000 });
@@ -56,7 +48,7 @@ describe("closing a quarter in a real browser", () => {
     // The CRO signs out the analyst's work (a fresh context would do as well; sign-in replaces the cookie).
     const croPage = await suite.context.newPage();
     errors.push(...watchConsole(croPage));
-    await signInAs(croPage, croEmail);
+    await signInAs(croPage, suite.app.baseUrl, croEmail);
     await croPage.goto(`${suite.app.baseUrl}/quarters?entity=${fixture.entity.code}&snapshot=${row!.id}`);
     await croPage.getByRole("button", { name: "Approve and seal" }).click();
     await croPage.getByRole("button", { name: "Verify the hash" }).click({ timeout: 15_000 });

@@ -1,10 +1,9 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
-import type { Page } from "playwright-core";
 import { createApp } from "../../server/app";
-import { createTestUser, sessionCookieFor, TEST_PASSWORD } from "../server/helpers";
+import { createTestUser, sessionCookieFor } from "../server/helpers";
 import { HEADER, ingestFixture, uploadCsv, weekdays } from "../server/ingest-helpers";
-import { browserSuite, keepScreenshot, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let fixture: Awaited<ReturnType<typeof ingestFixture>>;
 
@@ -22,13 +21,6 @@ async function loadBook() {
   await request(api).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", fixture.cookie).expect(200);
 }
 
-async function signInAs(page: Page, email: string) {
-  await page.goto(`${suite.app.baseUrl}/sign-in`);
-  await page.getByLabel(/e-mail/i).fill(email);
-  await page.getByLabel(/password/i).fill(TEST_PASSWORD);
-  await page.getByRole("button", { name: /^sign in$/i }).click();
-  await page.getByRole("heading", { name: /overview/i }).waitFor({ timeout: 15_000 });
-}
 
 const suite = browserSuite(loadBook);
 
@@ -36,7 +28,7 @@ describe("the analyst's screens in a real browser", () => {
   it("when the analyst opens the Backtest screen of a portfolio with six exceptions, then it shows the yellow zone by name, with no console errors", async () => {
     const page = await suite.context.newPage();
     const errors = watchConsole(page);
-    await signInAs(page, fixture.analyst.email);
+    await signInAs(page, suite.app.baseUrl, fixture.analyst.email);
     await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
     await page.getByText(/yellow/i).first().waitFor({ timeout: 20_000 });
     await page.waitForLoadState("networkidle");
@@ -48,7 +40,7 @@ describe("the analyst's screens in a real browser", () => {
   it("when the analyst opens the Data screen, then the upload panel and the history are there, with no console errors", async () => {
     const page = await suite.context.newPage();
     const errors = watchConsole(page);
-    await signInAs(page, fixture.analyst.email);
+    await signInAs(page, suite.app.baseUrl, fixture.analyst.email);
     await page.goto(`${suite.app.baseUrl}/data`);
     await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
     await page.waitForLoadState("networkidle");
@@ -65,7 +57,7 @@ describe("the analyst's screens in a real browser", () => {
     page.on("request", (r) => {
       if (r.url().includes("/backtest")) backtestCalls.push(r.url());
     });
-    await signInAs(page, treasury.email);
+    await signInAs(page, suite.app.baseUrl, treasury.email);
     await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
     await page.getByText(/not available for your role/i).waitFor({ timeout: 15_000 });
     await keepScreenshot(page, "backtest-treasury-refused");

@@ -209,11 +209,31 @@ describe("after sign-off", () => {
 
     const after = await request(app).get(`/api/snapshots/${submitted.id}`).set("Cookie", book.cookie);
     expect(after.body).toMatchObject({ status: "approved", counted: 5, multiplier: 3.4, hash: approved.hash });
-    expect(after.body.restatedAfterSignOff.detail).toMatch(/1 day inside this snapshot's window restated by upload #\d+ \(.* 2026-09-15\)/);
+    expect(after.body.restatedAfterSignOff.detail).toMatch(/1 day inside this snapshot's window changed by upload #\d+: 1 restated \(.* 2026-09-15\)/);
     expect((await SnapshotModel.findByPk(submitted.id))!.restatedAt).not.toBeNull();
     expect(await AuditEventModel.count({ where: { action: "snapshot.restated", target: `snapshot #${submitted.id}` } })).toBe(1);
     const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
     expect(verify.body.valid).toBe(true);
+  });
+
+  it("when a day that had no data inside an approved window is filled in later, then the snapshot is flagged as well", async () => {
+    const fx = await ingestFixture();
+    const dates = weekdaysEndingOn(Q3, 300);
+    const gap = dates.indexOf("2026-08-19");
+    const line = (i: number) => `${fx.portfolio.code},${dates[i]},-50,-40,${100 + (i % 2)},250`;
+    await uploadAndCommit(fx.cookie, [HEADER, ...dates.map((_, i) => i).filter((i) => i !== gap).map(line)].join("\n"));
+    // The missing day is a finding inside the quarter: it must be explained before sign-off.
+    const finding = (await DataFindingModel.findOne({ where: { portfolioId: fx.portfolio.id, kind: "missing_day", status: "open" } }))!;
+    await request(app).put(`/api/findings/${finding.id}`).set("Cookie", fx.cookie).send({ status: "explained", note: "Feed outage, value to follow", version: finding.version }).expect(200);
+    const draft = await request(app).post("/api/snapshots").set("Cookie", fx.cookie).send({ entity: fx.entity.code, quarterEnd: Q3 });
+    await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", fx.cookie).send({}).expect(200);
+    const cro = await sessionCookieFor((await createTestUser("cro")).id);
+    await request(app).post(`/api/snapshots/${draft.body.id}/approve`).set("Cookie", cro).send({}).expect(200);
+
+    await uploadAndCommit(fx.cookie, [HEADER, line(gap)].join("\n"));
+    const after = await request(app).get(`/api/snapshots/${draft.body.id}`).set("Cookie", fx.cookie);
+    expect(after.body.restatedAfterSignOff.detail).toMatch(/1 day inside this snapshot's window changed by upload #\d+: 1 added where there was no data \(.* 2026-08-19\)/);
+    expect(after.body).toMatchObject({ status: "approved", counted: draft.body.counted });
   });
 
   it("when a signed-off snapshot's stored figures are altered behind the application's back, then verify says it is not valid", async () => {

@@ -25,7 +25,6 @@ import {
 } from "../../../shared/schemas/snapshot";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import type { VersionKey } from "../observations/observations.repository";
 
 type SignedIn = Actor & { user: SessionUser };
 
@@ -348,13 +347,21 @@ export async function verifySnapshot(id: number, actor: SignedIn): Promise<Snaps
 
 // ---- restatements after sign-off ---------------------------------------------------------------
 
+/** A day an upload writes: version 1 is a day stored for the first time, a higher one restates a stored day. */
+export interface WrittenDay {
+  portfolioId: number;
+  version: number;
+  row: { date: string };
+}
+
 /**
- * An upload restated days: every signed-off snapshot whose window holds one of them is flagged
- * (in the upload's transaction). Its figures stay as approved.
+ * An upload wrote days inside the window of signed-off snapshots — restated them, or filled a
+ * day that had no data: each such snapshot is flagged (in the upload's transaction). Its figures
+ * stay as approved; the flag says which days changed and by which upload.
  */
-export async function flagRestatedSnapshots(restated: readonly VersionKey[], uploadId: number, actor: SignedIn, transaction: Transaction): Promise<number> {
-  if (restated.length === 0) return 0;
-  const portfolioIds = [...new Set(restated.map((k) => k.portfolioId))];
+export async function flagChangedSnapshots(written: readonly WrittenDay[], uploadId: number, actor: SignedIn, transaction: Transaction): Promise<number> {
+  if (written.length === 0) return 0;
+  const portfolioIds = [...new Set(written.map((k) => k.portfolioId))];
   const portfolios = await PortfolioModel.findAll({ where: { id: portfolioIds }, attributes: ["id", "entityId", "code"], transaction });
   const entityOf = new Map(portfolios.map((p) => [p.id, p.entityId]));
   const codeOf = new Map(portfolios.map((p) => [p.id, p.code]));
@@ -363,10 +370,13 @@ export async function flagRestatedSnapshots(restated: readonly VersionKey[], upl
   let flagged = 0;
   for (const snapshot of signedOff) {
     const from = snapshot.windowStart ?? snapshot.asOf;
-    const days = restated.filter((k) => entityOf.get(k.portfolioId) === snapshot.entityId && k.date >= from && k.date <= snapshot.quarterEnd);
+    const days = written.filter((k) => k.row.date >= from && k.row.date <= snapshot.quarterEnd && entityOf.get(k.portfolioId) === snapshot.entityId);
     if (days.length === 0) continue;
-    const listed = days.slice(0, 5).map((k) => `${codeOf.get(k.portfolioId)} ${k.date}`).join(", ");
-    const line = `${days.length} day${days.length === 1 ? "" : "s"} inside this snapshot's window restated by upload #${uploadId} (${listed}${days.length > 5 ? ", …" : ""}).`;
+    const restated = days.filter((k) => k.version > 1).length;
+    const added = days.length - restated;
+    const what = [restated ? `${restated} restated` : null, added ? `${added} added where there was no data` : null].filter(Boolean).join(", ");
+    const listed = days.slice(0, 5).map((k) => `${codeOf.get(k.portfolioId)} ${k.row.date}`).join(", ");
+    const line = `${days.length} day${days.length === 1 ? "" : "s"} inside this snapshot's window changed by upload #${uploadId}: ${what} (${listed}${days.length > 5 ? ", …" : ""}).`;
     await snapshot.update(
       {
         restatedAt: new Date(),
@@ -376,7 +386,7 @@ export async function flagRestatedSnapshots(restated: readonly VersionKey[], upl
       },
       { transaction },
     );
-    await recordAudit(actor, "snapshot.restated", `snapshot #${snapshot.id}`, { after: { uploadId, days: days.length } }, transaction);
+    await recordAudit(actor, "snapshot.restated", `snapshot #${snapshot.id}`, { after: { uploadId, restated, added } }, transaction);
     flagged++;
   }
   return flagged;

@@ -21,7 +21,7 @@ import {
 import { applyFindings, checkFindings, loadFindingInputs } from "../findings/findings.service";
 import { packBytesInBackground, unpackBytes } from "./stored-bytes";
 import { checkedRowsOf, forgetCheckedRows, keepCheckedRows } from "./preview-cache";
-import { flagRestatedSnapshots } from "../snapshots/snapshots.service";
+import { flagChangedSnapshots } from "../snapshots/snapshots.service";
 import { plainFileName } from "../../http/file-name";
 import {
   CsvFileError,
@@ -299,8 +299,8 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     }
     await writes.done();
     await applyFindings(found, transaction);
-    // Signed-off figures never change; a restated day inside a signed-off window flags that snapshot.
-    await flagRestatedSnapshots(retire, upload.id, actor, transaction);
+    // Signed-off figures never change; a day written inside a signed-off window flags that snapshot.
+    await flagChangedSnapshots(inserts, upload.id, actor, transaction);
 
     upload.status = "committed";
     upload.committedSha256 = upload.sha256;

@@ -29,6 +29,35 @@ export function formatDecimal(value: number, places = 2): string {
   return value.toLocaleString("en-GB", { minimumFractionDigits: places, maximumFractionDigits: places });
 }
 
+/** A count with thousands separators: 12,480. */
+export function formatCount(n: number): string {
+  return n.toLocaleString("en-GB");
+}
+
+/** A count and its noun: "1 observation", "250 observations". */
+export function plural(n: number, one: string, many: string): string {
+  return `${formatCount(n)} ${n === 1 ? one : many}`;
+}
+
+/** An amount in whole currency units with thousands separators, e.g. "−1,204,330 EUR". */
+export function formatAmount(value: number | null | undefined, currency?: string): string {
+  if (value === null || value === undefined) return "—";
+  const digits = Math.abs(value).toLocaleString("en-GB", { maximumFractionDigits: 0 });
+  const sign = Math.round(value) < 0 ? "−" : "";
+  return currency ? `${sign}${digits} ${currency}` : `${sign}${digits}`;
+}
+
+/** Plus factor, qualitative addend and multiplier as the rules print them: two places. */
+export function formatFactor(value: number | null | undefined): string {
+  if (value === null || value === undefined) return "—";
+  return formatDecimal(value, 2);
+}
+
+/** A probability as a percentage with two places: 0.99237 → "99.24%". */
+export function formatPercent(p: number): string {
+  return `${formatDecimal(p * 100, 2)}%`;
+}
+
 /** Compact JSON for audit before/after values. */
 export function compactJson(value: unknown): string {
   if (value === null || value === undefined) return "—";

@@ -11,11 +11,10 @@ import { UploadPanel } from "@/features/data/components/upload-panel";
 import { UploadPreviewPanel } from "@/features/data/components/upload-preview";
 import { UploadHistoryTable } from "@/features/data/components/upload-history-table";
 import { FindingsPanel } from "@/features/data/components/findings-panel";
-import { formatCount, plural } from "@/features/data/words";
 import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { isApiError } from "@/lib/api-client";
-import { formatDateTime } from "@/lib/format";
+import { formatCount, formatDateTime, plural } from "@/lib/format";
 
 const findingStatuses = ["open", "resolved", "explained"] as const;
 

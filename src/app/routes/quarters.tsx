@@ -10,7 +10,8 @@ import { PrepareSnapshotForm } from "@/features/quarters/components/prepare-snap
 import { SnapshotDetail } from "@/features/quarters/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/quarters/components/snapshot-list-table";
 import { endedQuarterEnds } from "@/features/quarters/quarter-ends";
-import { plural, snapshotStatusLabels } from "@/features/quarters/words";
+import { plural } from "@/lib/format";
+import { snapshotStatusLabels } from "@/features/quarters/words";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { EmptyState } from "@/components/ui/table";

@@ -1,9 +1,13 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 import { cn } from "@/lib/cn";
 
 const control =
   "block w-full h-8.5 rounded-sm border bg-paper-raised px-2.5 text-sm text-ink placeholder:text-ink-faint " +
   "focus:outline-2 focus:outline-offset-0 focus:outline-accent";
+
+// No fixed height: a textarea is as tall as its rows.
+const textareaControl =
+  "block w-full max-w-2xl rounded-sm border bg-paper-raised px-2.5 py-1.5 text-sm focus:outline-2 focus:outline-accent";
 
 type Common = { label: string; error?: string; hint?: ReactNode; className?: string };
 
@@ -20,8 +24,9 @@ function FieldShell({
   hintId,
   errorId,
   className,
+  hintClassName = "text-2xs",
   children,
-}: Common & { id: string; hintId?: string; errorId?: string; children: ReactNode }) {
+}: Common & { id: string; hintId?: string; errorId?: string; hintClassName?: string; children: ReactNode }) {
   return (
     <div className={cn("flex flex-col gap-1", className)}>
       <label htmlFor={id} className="text-xs font-medium text-ink-soft">
@@ -29,7 +34,7 @@ function FieldShell({
       </label>
       {children}
       {hint && !error && (
-        <p id={hintId} className="text-2xs text-ink-muted">
+        <p id={hintId} className={cn(hintClassName, "text-ink-muted")}>
           {hint}
         </p>
       )}
@@ -85,6 +90,22 @@ export function SelectField({
       >
         {children}
       </select>
+    </FieldShell>
+  );
+}
+
+/** A comment or note of a few sentences; its hint is a sentence too, so it reads at the size of the error. */
+export function TextareaField({ label, error, hint, className, id: givenId, ...textarea }: Common & TextareaHTMLAttributes<HTMLTextAreaElement>) {
+  const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
+  return (
+    <FieldShell {...{ id, label, error, hint, hintId, errorId, className }} hintClassName="text-xs">
+      <textarea
+        id={id}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={describedBy(hintId, errorId)}
+        className={cn(textareaControl, error ? "border-danger" : "border-rule-strong")}
+        {...textarea}
+      />
     </FieldShell>
   );
 }

@@ -1,25 +1,6 @@
 import type { ExceptionCause, ExceptionDayDto, ExclusionStatus } from "@shared/schemas/backtest";
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 
-/** An amount in whole currency units with thousands separators, e.g. "−1,204,330 USD". */
-export function formatAmount(value: number | null | undefined, currency?: string): string {
-  if (value === null || value === undefined) return "—";
-  const digits = Math.abs(value).toLocaleString("en-GB", { maximumFractionDigits: 0 });
-  const sign = Math.round(value) < 0 ? "−" : "";
-  return currency ? `${sign}${digits} ${currency}` : `${sign}${digits}`;
-}
-
-/** Plus factor and multiplier as the rules print them: two places. */
-export function formatFactor(value: number | null | undefined): string {
-  if (value === null || value === undefined) return "—";
-  return value.toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
-}
-
-/** A probability as a percentage with two places: 0.99237 → "99.24%". */
-export function formatPercent(p: number): string {
-  return `${(p * 100).toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 })}%`;
-}
-
 /** A p-value with four places; below that, "< 0.0001". */
 export function formatPValue(p: number): string {
   if (p < 0.0001) return "< 0.0001";
@@ -73,7 +54,3 @@ export const regimeLabels: Record<RegimeId, string> = {
   eu: "EU CRR",
   frtb: "FRTB IMA",
 };
-
-export function plural(n: number, one: string, many: string): string {
-  return `${n.toLocaleString("en-GB")} ${n === 1 ? one : many}`;
-}

@@ -1,9 +1,5 @@
 import type { FindingKind, UploadPreview } from "@shared/schemas/upload";
-
-/** A count with thousands separators: 12,480. */
-export function formatCount(n: number): string {
-  return n.toLocaleString("en-GB");
-}
+import { formatCount } from "@/lib/format";
 
 /** A file size in the unit people read it in: 812 bytes, 48.2 kB, 6.1 MB. */
 export function formatBytes(bytes: number): string {
@@ -32,7 +28,3 @@ export const uploadStatusLabels: Record<UploadPreview["status"], string> = {
   committed: "Committed",
   discarded: "Discarded",
 };
-
-export function plural(n: number, one: string, many: string): string {
-  return `${formatCount(n)} ${n === 1 ? one : many}`;
-}

@@ -15,7 +15,7 @@ import { DesksTable } from "@/features/backtest/components/desks-table";
 import { ExceptionTable } from "@/features/backtest/components/exception-table";
 import { ReviewPanel } from "@/features/backtest/components/review-panel";
 import { PortfolioPicker } from "@/features/backtest/components/portfolio-picker";
-import { plural } from "@/features/backtest/words";
+import { plural } from "@/lib/format";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";

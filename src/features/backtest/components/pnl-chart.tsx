@@ -3,7 +3,7 @@ import { CartesianGrid, ComposedChart, Line, ReferenceArea, ResponsiveContainer,
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/upload";
 import { cn } from "@/lib/cn";
-import { formatAmount, plural } from "../words";
+import { formatAmount, plural } from "@/lib/format";
 
 type Series = "actual" | "hypothetical";
 

@@ -10,10 +10,9 @@ import {
 } from "@shared/schemas/backtest";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
-import { FormMessage, SelectField, TextField } from "@/components/ui/field";
+import { FormMessage, SelectField, TextareaField, TextField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { cn } from "@/lib/cn";
-import { formatBusinessDate, formatDateTime } from "@/lib/format";
+import { formatAmount, formatBusinessDate, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
 import {
   currentReviewOf,
@@ -23,7 +22,7 @@ import {
   useRecordDecision,
   useSaveReview,
 } from "../api/backtest-queries";
-import { causeIds, causeLabels, exclusionStatusLabels, formatAmount, seriesOf } from "../words";
+import { causeIds, causeLabels, exclusionStatusLabels, seriesOf } from "../words";
 
 function formatSize(bytes: number): string {
   if (bytes < 1000) return `${bytes.toLocaleString("en-GB")} bytes`;
@@ -93,7 +92,6 @@ function AnalystReviewForm({ code, day, alsoInvalidate }: { code: string; day: E
   const [conflict, setConflict] = useState<Review | null>(null);
   const [saved, setSaved] = useState<string | null>(null);
   const formRef = useRef<HTMLFormElement>(null);
-  const narrativeId = useId();
   const save = useSaveReview(code, day.date, alsoInvalidate);
   const version = conflict?.version ?? review?.version ?? 0;
 
@@ -152,27 +150,15 @@ function AnalystReviewForm({ code, day, alsoInvalidate }: { code: string; day: E
           </option>
         ))}
       </SelectField>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={narrativeId} className="text-xs font-medium text-ink-soft">
-          What happened
-        </label>
-        <textarea
-          id={narrativeId}
-          value={narrative}
-          onChange={(e) => setNarrative(e.target.value)}
-          rows={4}
-          maxLength={4000}
-          aria-invalid={errors.narrative ? true : undefined}
-          aria-describedby={`${narrativeId}-msg`}
-          className={cn(
-            "block w-full rounded-sm border bg-paper-raised px-2.5 py-1.5 text-sm focus:outline-2 focus:outline-accent",
-            errors.narrative ? "border-danger" : "border-rule-strong",
-          )}
-        />
-        <p id={`${narrativeId}-msg`} className={cn("text-xs", errors.narrative ? "text-danger" : "text-ink-muted")}>
-          {errors.narrative ?? "Which positions lost, what moved, and whether the model could have seen it. 10 to 4,000 characters."}
-        </p>
-      </div>
+      <TextareaField
+        label="What happened"
+        hint="Which positions lost, what moved, and whether the model could have seen it. 10 to 4,000 characters."
+        value={narrative}
+        onChange={(e) => setNarrative(e.target.value)}
+        rows={4}
+        maxLength={4000}
+        error={errors.narrative}
+      />
       <label className="flex items-start gap-2 text-sm">
         <input
           type="checkbox"

@@ -1,8 +1,8 @@
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
-import { formatBusinessDate } from "@/lib/format";
-import { formatFactor, seriesOf } from "../words";
+import { formatBusinessDate, formatFactor } from "@/lib/format";
+import { seriesOf } from "../words";
 
 /** When each exception inside the window leaves it, and where the count stands afterwards if no new one arrives. */
 export function RollOffTable({ bt }: { bt: BacktestResponse }) {

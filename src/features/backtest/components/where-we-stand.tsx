@@ -1,18 +1,8 @@
-import type { ReactNode } from "react";
 import type { BacktestResponse } from "@shared/schemas/backtest";
+import { Figure } from "@/components/ui/figure";
 import { ZoneBadge } from "@/components/ui/zone-badge";
-import { formatBusinessDate } from "@/lib/format";
-import { basisLabels, formatFactor, formatPercent, plural, regimeLabels } from "../words";
-
-function Figure({ label, children, hint }: { label: string; children: ReactNode; hint?: string }) {
-  return (
-    <div className="flex flex-col gap-0.5 border-l border-rule pl-3 first:border-l-0 first:pl-0">
-      <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
-      <dd className="figures text-lg leading-tight font-semibold text-ink">{children}</dd>
-      {hint && <dd className="text-2xs text-ink-muted">{hint}</dd>}
-    </div>
-  );
-}
+import { formatBusinessDate, formatFactor, formatPercent, plural } from "@/lib/format";
+import { basisLabels, regimeLabels } from "../words";
 
 /** The provisional banner: a short window or boundaries derived for a window other than 250 days. */
 export function ProvisionalBanner({ bt }: { bt: BacktestResponse }) {
@@ -59,27 +49,27 @@ export function WhereWeStand({ bt }: { bt: BacktestResponse }) {
         , {plural(bt.window.observations, "observation", "observations")}.
       </p>
       <dl className="grid grid-cols-2 gap-x-4 gap-y-3 border-y border-rule py-3 sm:grid-cols-4 lg:grid-cols-9">
-        <Figure label="Traffic-light zone">
+        <Figure look="ruled" label="Traffic-light zone">
           <ZoneBadge zone={bt.zone} regime={bt.regime} provisional={provisional} className="text-sm" />
         </Figure>
-        <Figure label="Counted exceptions" hint={provisional ? "provisional" : undefined}>
+        <Figure look="ruled" label="Counted exceptions" hint={provisional ? "provisional" : undefined}>
           <span data-testid="counted">{bt.exceptions.counted}</span>
         </Figure>
-        <Figure label="Plus factor">
+        <Figure look="ruled" label="Plus factor">
           <span data-testid="plus-factor">{formatFactor(bt.plusFactor)}</span>
         </Figure>
-        <Figure label="Multiplier">
+        <Figure look="ruled" label="Multiplier">
           <span data-testid="multiplier">{formatFactor(bt.multiplier)}</span>
         </Figure>
-        <Figure label="Actual P&L exceptions">{bt.exceptions.actual}</Figure>
-        <Figure label="Hypothetical P&L exceptions">{bt.exceptions.hypothetical}</Figure>
-        <Figure label="Excluded" hint="approved by the supervisor">
+        <Figure look="ruled" label="Actual P&L exceptions">{bt.exceptions.actual}</Figure>
+        <Figure look="ruled" label="Hypothetical P&L exceptions">{bt.exceptions.hypothetical}</Figure>
+        <Figure look="ruled" label="Excluded" hint="approved by the supervisor">
           {bt.exceptions.excluded}
         </Figure>
-        <Figure label="Expected if calibrated" hint="observations × 1%">
+        <Figure look="ruled" label="Expected if calibrated" hint="observations × 1%">
           {formatFactor(bt.expected)}
         </Figure>
-        <Figure label="P(X ≤ count)" hint="cumulative binomial probability">
+        <Figure look="ruled" label="P(X ≤ count)" hint="cumulative binomial probability">
           {formatPercent(bt.tests.cumulativeProbability)}
         </Figure>
       </dl>

@@ -1,7 +1,7 @@
 import { Link } from "react-router-dom";
 import { rowErrorSchema, type RowError } from "@shared/schemas/upload";
 import { isApiError } from "@/lib/api-client";
-import { formatCount } from "../words";
+import { formatCount } from "@/lib/format";
 
 /** `details.errors` of a refused file (422 invalid_file), when the server sent them. */
 function problemsOf(details: unknown): RowError[] {

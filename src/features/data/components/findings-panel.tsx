@@ -1,15 +1,15 @@
-import { Fragment, useId, useRef, useState, type FormEvent } from "react";
+import { Fragment, useRef, useState, type FormEvent } from "react";
 import { useQuery } from "@tanstack/react-query";
 import { closeFindingBodySchema, findingKindSchema, type Finding, type FindingKind } from "@shared/schemas/upload";
 import { Button } from "@/components/ui/button";
-import { FormMessage, SelectField } from "@/components/ui/field";
+import { FormMessage, SelectField, TextareaField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
-import { formatDateTime } from "@/lib/format";
+import { formatCount, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
 import { cn } from "@/lib/cn";
 import { findingQueries, useCloseFinding, type FindingFilters } from "../api/finding-queries";
-import { findingKindLabels, findingStatusLabels, formatCount } from "../words";
+import { findingKindLabels, findingStatusLabels } from "../words";
 
 type Closing = "resolved" | "explained";
 
@@ -29,7 +29,6 @@ function CloseFindingForm({
 }) {
   const close = useCloseFinding();
   const formRef = useRef<HTMLFormElement>(null);
-  const noteId = useId();
   const [note, setNote] = useState("");
   const [errors, setErrors] = useState<FieldErrors>({});
 
@@ -59,26 +58,7 @@ function CloseFindingForm({
   return (
     <form ref={formRef} onSubmit={submit} noValidate aria-label={`${as === "resolved" ? "Resolve" : "Explain"} finding #${finding.id}`} className="flex flex-col gap-2">
       <FormMessage>{failed ? (isApiError(failed) ? failed.message : "The change could not be saved.") : undefined}</FormMessage>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={noteId} className="text-xs font-medium text-ink-soft">
-          {label}
-        </label>
-        <textarea
-          id={noteId}
-          value={note}
-          onChange={(e) => setNote(e.target.value)}
-          rows={2}
-          aria-invalid={errors.note ? true : undefined}
-          aria-describedby={`${noteId}-msg`}
-          className={cn(
-            "block w-full max-w-2xl rounded-sm border bg-paper-raised px-2.5 py-1.5 text-sm focus:outline-2 focus:outline-accent",
-            errors.note ? "border-danger" : "border-rule-strong",
-          )}
-        />
-        <p id={`${noteId}-msg`} className={cn("text-xs", errors.note ? "text-danger" : "text-ink-muted")}>
-          {errors.note ?? hint}
-        </p>
-      </div>
+      <TextareaField label={label} hint={hint} value={note} onChange={(e) => setNote(e.target.value)} rows={2} error={errors.note} />
       <div className="flex items-center gap-3">
         <Button type="submit" size="sm" disabled={close.isPending}>
           {close.isPending ? "Saving…" : as === "resolved" ? "Mark resolved" : "Record explanation"}

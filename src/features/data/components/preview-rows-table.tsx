@@ -17,7 +17,7 @@ import { EmptyState } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { PREVIEW_PAGE_SIZE, uploadQueries, type UploadRowsParams } from "../api/upload-queries";
-import { formatCount } from "../words";
+import { formatCount } from "@/lib/format";
 
 type FileRow = { line: number; cells: Record<string, string>; errors: RowError[] };
 

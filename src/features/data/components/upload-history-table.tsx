@@ -1,9 +1,9 @@
 import { Link } from "react-router-dom";
 import type { UploadSummary } from "@shared/schemas/upload";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { formatDateTime } from "@/lib/format";
+import { formatCount, formatDateTime } from "@/lib/format";
 import { cn } from "@/lib/cn";
-import { formatCount, shortSha, uploadStatusLabels } from "../words";
+import { shortSha, uploadStatusLabels } from "../words";
 
 /** Every file sent in, newest first; a row opens its preview. */
 export function UploadHistoryTable({

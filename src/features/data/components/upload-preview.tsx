@@ -3,13 +3,14 @@ import type { CommitResult, UploadPreview } from "@shared/schemas/upload";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { isApiError } from "@/lib/api-client";
-import { formatDateTime } from "@/lib/format";
+import { formatCount, formatDateTime, plural } from "@/lib/format";
 import { cn } from "@/lib/cn";
 import { firstRowsPage, useCommitUpload, useDiscardUpload } from "../api/upload-queries";
-import { formatCount, plural, shortSha, uploadStatusLabels } from "../words";
+import { shortSha, uploadStatusLabels } from "../words";
 import { PreviewRowsTable } from "./preview-rows-table";
 
-function Figure({ label, value, tone }: { label: string; value: number; tone?: "bad" }) {
+/** A count in the upload's summary, right-aligned; a count of errors above zero is marked in red with an arrow. */
+function CountFigure({ label, value, tone }: { label: string; value: number; tone?: "bad" }) {
   return (
     <div className="flex flex-col">
       <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
@@ -90,12 +91,12 @@ export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { previe
       </div>
 
       <dl aria-label="Summary of the file" className="flex flex-wrap gap-x-8 gap-y-2 border-y border-rule py-2">
-        <Figure label="Rows" value={p.rows} />
-        <Figure label="Valid" value={p.valid} />
-        <Figure label="With errors" value={p.invalid} tone="bad" />
-        <Figure label="New days" value={p.newRows} />
-        <Figure label="Restatements" value={p.restatements} />
-        <Figure label="Unchanged" value={p.unchanged} />
+        <CountFigure label="Rows" value={p.rows} />
+        <CountFigure label="Valid" value={p.valid} />
+        <CountFigure label="With errors" value={p.invalid} tone="bad" />
+        <CountFigure label="New days" value={p.newRows} />
+        <CountFigure label="Restatements" value={p.restatements} />
+        <CountFigure label="Unchanged" value={p.unchanged} />
         <Fact label="Portfolios">{p.portfolios.length > 0 ? p.portfolios.join(", ") : "—"}</Fact>
         <Fact label="Business dates">
           <span className="figures">{range}</span>

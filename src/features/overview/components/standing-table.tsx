@@ -3,12 +3,7 @@ import { Link } from "react-router-dom";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
-
-function amount(value: number, currency: string): string {
-  const digits = Math.abs(value).toLocaleString("en-GB", { maximumFractionDigits: 0 });
-  return `${Math.round(value) < 0 ? "−" : ""}${digits} ${currency}`;
-}
-const factor = (v: number) => v.toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+import { formatAmount, formatFactor } from "@/lib/format";
 
 /**
  * One dense row per entity, in the order a reader asks: zone and count first, then what it costs,
@@ -75,12 +70,12 @@ export function StandingTable({
                     {e.counted}
                     {!e.complete && <span className="block text-2xs text-ink-muted">provisional</span>}
                   </Td>
-                  <Td numeric>{factor(e.plusFactor!)}</Td>
+                  <Td numeric>{formatFactor(e.plusFactor)}</Td>
                   <Td numeric className="font-medium">
-                    {factor(e.multiplier!)}
+                    {formatFactor(e.multiplier)}
                   </Td>
                   <Td numeric className="whitespace-nowrap">
-                    {e.addOn === null ? <span className="text-ink-muted" title="No capital input (VaR/sVaR or ES) in the data">—</span> : amount(e.addOn, e.currency)}
+                    {e.addOn === null ? <span className="text-ink-muted" title="No capital input (VaR/sVaR or ES) in the data">—</span> : formatAmount(e.addOn, e.currency)}
                   </Td>
                   <Td className="figures whitespace-nowrap">{e.asOf}</Td>
                   <Td className="whitespace-nowrap">

@@ -1,44 +1,17 @@
-import { useId, useRef, useState, type FormEvent, type ReactNode } from "react";
+import { useRef, useState, type FormEvent, type ReactNode } from "react";
 import { Link } from "react-router-dom";
+import type { z } from "zod";
 import { quarterLabel, returnSnapshotSchema, snapshotActionSchema, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
-import { FormMessage } from "@/components/ui/field";
+import { FormMessage, TextareaField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { isChangedMeanwhile, useApproveSnapshot, usePrepareSnapshot, useReturnSnapshot, useSubmitSnapshot } from "../api/snapshot-queries";
 import { shortHash } from "../words";
 
 const sameUser = (a: string | null, b: string) => a !== null && a.trim().toLowerCase() === b.trim().toLowerCase();
-
-function CommentField({ label, hint, value, onChange, error }: { label: string; hint: string; value: string; onChange: (v: string) => void; error?: string }) {
-  const id = useId();
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-xs font-medium text-ink-soft">
-        {label}
-      </label>
-      <textarea
-        id={id}
-        value={value}
-        onChange={(e) => onChange(e.target.value)}
-        rows={3}
-        maxLength={2000}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={`${id}-msg`}
-        className={cn(
-          "block w-full max-w-2xl rounded-sm border bg-paper-raised px-2.5 py-1.5 text-sm focus:outline-2 focus:outline-accent",
-          error ? "border-danger" : "border-rule-strong",
-        )}
-      />
-      <p id={`${id}-msg`} className={cn("text-xs", error ? "text-danger" : "text-ink-muted")}>
-        {error ?? hint}
-      </p>
-    </div>
-  );
-}
 
 /** The server's refusal in its own words, with the way to the cause where the screen knows it. */
 function Refusal({ error, findingsHref }: { error: unknown; findingsHref: string }) {
@@ -62,6 +35,32 @@ function Refusal({ error, findingsHref }: { error: unknown; findingsHref: string
 /** Optional comment only: empty text is left out of the body rather than sent as "". */
 const commentOf = (text: string) => (text.trim() === "" ? undefined : text);
 
+/** The comment, its field errors and the two ways a send can fail, shared by the submit and sign-off forms. */
+function useCommentForm(onChanged: (message: string) => void) {
+  const formRef = useRef<HTMLFormElement>(null);
+  const [comment, setComment] = useState("");
+  const [errors, setErrors] = useState<FieldErrors>({});
+
+  /** The body to send, or undefined with the errors beside the fields and the first one focused. */
+  function checked<S extends z.ZodType>(schema: S, input: unknown): z.output<S> | undefined {
+    const r = validate(schema, input);
+    if (!r.ok) {
+      setErrors(r.errors);
+      focusFirstInvalid(formRef.current);
+      return undefined;
+    }
+    setErrors({});
+    return r.data;
+  }
+
+  const onError = (err: unknown) => {
+    if (isChangedMeanwhile(err) && isApiError(err)) onChanged(err.message);
+    setErrors(fieldErrorsOf(err));
+  };
+
+  return { formRef, comment, setComment, errors, checked, onError };
+}
+
 function SubmitForm({
   snapshot,
   findingsHref,
@@ -74,36 +73,29 @@ function SubmitForm({
   onChanged: (message: string) => void;
 }) {
   const submit = useSubmitSnapshot(snapshot.id);
-  const formRef = useRef<HTMLFormElement>(null);
-  const [comment, setComment] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
 
   function send(e: FormEvent) {
     e.preventDefault();
     submit.reset();
-    const r = validate(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
-    if (!r.ok) {
-      setErrors(r.errors);
-      return focusFirstInvalid(formRef.current);
-    }
-    setErrors({});
-    submit.mutate(r.data, {
+    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
+    if (!body) return;
+    submit.mutate(body, {
       onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`),
-      onError: (err) => {
-        if (isChangedMeanwhile(err) && isApiError(err)) onChanged(err.message);
-        setErrors(fieldErrorsOf(err));
-      },
+      onError,
     });
   }
 
   return (
     <form ref={formRef} onSubmit={send} noValidate aria-label="Submit for sign-off" className="flex max-w-2xl flex-col gap-3">
       {!isChangedMeanwhile(submit.error) && <Refusal error={submit.error} findingsHref={findingsHref} />}
-      <CommentField
+      <TextareaField
         label="Comment for the sign-off (optional)"
         hint="What the chief risk officer should know: exceptions explained, exclusions asked, anything unusual in the quarter."
         value={comment}
-        onChange={setComment}
+        onChange={(e) => setComment(e.target.value)}
+        rows={3}
+        maxLength={2000}
         error={errors.comment}
       />
       <div>
@@ -130,26 +122,16 @@ function SignOffForm({
 }) {
   const approve = useApproveSnapshot(snapshot.id);
   const giveBack = useReturnSnapshot(snapshot.id);
-  const formRef = useRef<HTMLFormElement>(null);
-  const [comment, setComment] = useState("");
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
   // Four eyes (DESIGN §2): whoever prepared or submitted it may not approve it.
   const ownWork = sameUser(snapshot.preparedBy, userEmail) || sameUser(snapshot.submittedBy, userEmail);
-  const onError = (err: unknown) => {
-    if (isChangedMeanwhile(err) && isApiError(err)) onChanged(err.message);
-    setErrors(fieldErrorsOf(err));
-  };
 
   function sendApprove() {
     giveBack.reset();
     approve.reset();
-    const r = validate(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
-    if (!r.ok) {
-      setErrors(r.errors);
-      return focusFirstInvalid(formRef.current);
-    }
-    setErrors({});
-    approve.mutate(r.data, {
+    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
+    if (!body) return;
+    approve.mutate(body, {
       onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`),
       onError,
     });
@@ -159,13 +141,9 @@ function SignOffForm({
     e?.preventDefault();
     approve.reset();
     giveBack.reset();
-    const r = validate(returnSnapshotSchema, { comment, version: snapshot.version });
-    if (!r.ok) {
-      setErrors(r.errors);
-      return focusFirstInvalid(formRef.current);
-    }
-    setErrors({});
-    giveBack.mutate(r.data, {
+    const body = checked(returnSnapshotSchema, { comment, version: snapshot.version });
+    if (!body) return;
+    giveBack.mutate(body, {
       onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`),
       onError,
     });
@@ -182,11 +160,13 @@ function SignOffForm({
         </p>
       )}
       {!isChangedMeanwhile(error) && <Refusal error={error} findingsHref={findingsHref} />}
-      <CommentField
+      <TextareaField
         label={ownWork ? "Why does it go back?" : "Comment"}
         hint={ownWork ? "Required to return it; the analysts read it before they prepare it again." : "Optional to approve; required to return it, saying what to change."}
         value={comment}
-        onChange={setComment}
+        onChange={(e) => setComment(e.target.value)}
+        rows={3}
+        maxLength={2000}
         error={errors.comment}
       />
       <div className="flex flex-wrap items-center gap-3">

@@ -1,8 +1,8 @@
 import { Link } from "react-router-dom";
 import { quarterLabel, quarterStart, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
-import { formatDateTime } from "@/lib/format";
-import { plural, snapshotStatusLabels } from "../words";
+import { formatDateTime, plural } from "@/lib/format";
+import { snapshotStatusLabels } from "../words";
 import { SnapshotActions } from "./snapshot-actions";
 import { SnapshotFigures } from "./snapshot-figures";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";

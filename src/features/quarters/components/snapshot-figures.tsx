@@ -1,18 +1,8 @@
-import type { ReactNode } from "react";
 import type { Snapshot } from "@shared/schemas/snapshot";
+import { Figure } from "@/components/ui/figure";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
-import { formatAmount, formatFactor, formatPercent, plural } from "../words";
-
-function Figure({ label, children, hint }: { label: string; children: ReactNode; hint?: string }) {
-  return (
-    <div className="flex flex-col gap-0.5">
-      <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
-      <dd className="figures text-base leading-tight font-semibold text-ink">{children}</dd>
-      {hint && <dd className="text-2xs text-ink-muted">{hint}</dd>}
-    </div>
-  );
-}
+import { formatAmount, formatFactor, formatPercent, plural } from "@/lib/format";
 
 /** The figures the engine froze at the quarter end, exactly as stored: nothing here is computed again. */
 export function SnapshotFigures({ snapshot }: { snapshot: Snapshot }) {

@@ -4,7 +4,8 @@ import { quarterLabel, type Snapshot } from "@shared/schemas/snapshot";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
-import { formatAmount, formatFactor, snapshotStatusLabels } from "../words";
+import { formatAmount, formatFactor } from "@/lib/format";
+import { snapshotStatusLabels } from "../words";
 
 /** The entity's quarters, newest first, with the headline figures each one froze; a row opens its snapshot. */
 export function SnapshotListTable({

@@ -236,6 +236,26 @@ describe("after sign-off", () => {
     expect(after.body).toMatchObject({ status: "approved", counted: draft.body.counted });
   });
 
+  it("when the supervisor's decision to disregard an exception inside an approved window is recorded later, then the snapshot is flagged and keeps its count", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+    const day = book.exceptionDays[3];
+    const review = await request(app)
+      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
+      .set("Cookie", book.cookie)
+      .send({ cause: "data_issue", narrative: "The P&L feed double-counted a trade on this day.", exclusion: true });
+    expect(review.status, JSON.stringify(review.body)).toBe(200);
+    const decision = await request(app)
+      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/decision`)
+      .set("Cookie", book.croCookie)
+      .send({ decision: "approved", reference: "SUP-2026-118", decidedOn: "2026-11-20", version: review.body.version });
+    expect(decision.status, JSON.stringify(decision.body)).toBe(200);
+    const after = await request(app).get(`/api/snapshots/${submitted.id}`).set("Cookie", book.cookie);
+    expect(after.body).toMatchObject({ status: "approved", counted: 5 });
+    expect(after.body.restatedAfterSignOff.detail).toMatch(new RegExp(`changed by the exclusion decision recorded for ${day}: 1 with an exclusion decided`));
+  });
+
   it("when a signed-off snapshot's stored figures are altered behind the application's back, then verify says it is not valid", async () => {
     const book = await signOffBook();
     const submitted = await preparedAndSubmitted(book);

@@ -11,6 +11,7 @@ import type { Transaction } from "sequelize";
 import type { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { reviewsByDate } from "./reviews.read";
+import { flagExclusionDecision } from "../snapshots/snapshots.service";
 import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
 import type { Actor } from "../../http/context";
@@ -105,6 +106,8 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       { transaction },
     );
     await recordAudit(actor, `exception.exclusion_${body.decision}`, `${code}/${date}`, { before, after: { exclusionStatus: body.decision, decisionReference: body.reference, decisionDate: body.decidedOn } }, transaction);
+    // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
+    if (before.exclusionStatus === "approved" || body.decision === "approved") await flagExclusionDecision(portfolio.id, date, actor, transaction);
   });
   return (await currentReview(portfolio.id, date))!;
 }

@@ -19,6 +19,7 @@ import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
 import { reviewsRouter } from "./modules/exceptions/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
+import { capitalRouter } from "./modules/capital/capital.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -84,6 +85,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(backtestRouter());
   app.use(reviewsRouter());
   app.use(snapshotsRouter());
+  app.use(capitalRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

@@ -62,6 +62,9 @@ export const POLICY = {
   "POST /api/snapshots/:id/return": ["cro"],
   "GET /api/snapshots/:id/verify": ["analyst", "cro", "treasury"],
   "GET /api/entities/:code/capital/history": ["analyst", "cro", "treasury"],
+  // Forecasts and what-ifs on current data: treasury plans capital with them (DESIGN §2).
+  "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
+  "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],
 
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
   "GET /api/overview": ["analyst", "cro"],

@@ -134,6 +134,10 @@ const MUST_REFUSE: [Role, string][] = [
   ["treasury", "POST /api/snapshots/:id/approve"],
   ["regulator", "GET /api/snapshots"],
   ["regulator", "POST /api/snapshots/:id/approve"],
+  // Capital planning on current data is the reporting office's and treasury's, not the supervisor's.
+  ["regulator", "GET /api/entities/:code/capital/forecast"],
+  ["regulator", "POST /api/entities/:code/capital/what-if"],
+  ["admin", "GET /api/entities/:code/capital/forecast"],
 ];
 
 describe("what DESIGN.md §2 forbids, checked without the policy table", () => {

@@ -1,0 +1,17 @@
+import { createGuardedRouter } from "../../http/routes";
+import { parseInput } from "../../errors";
+import { capitalParamSchema, forecastQuerySchema, whatIfBodySchema } from "../../../shared/schemas/capital";
+import { getForecast, getWhatIf } from "./capital.service";
+
+export function capitalRouter() {
+  const r = createGuardedRouter();
+  r.get("/api/entities/:code/capital/forecast", async (req, res) => {
+    const { code } = parseInput(capitalParamSchema, req.params, "address");
+    res.json(await getForecast(code, parseInput(forecastQuerySchema, req.query, "query")));
+  });
+  r.post("/api/entities/:code/capital/what-if", async (req, res) => {
+    const { code } = parseInput(capitalParamSchema, req.params, "address");
+    res.json(await getWhatIf(code, parseInput(whatIfBodySchema, req.body ?? {})));
+  });
+  return r.router;
+}

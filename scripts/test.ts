@@ -5,6 +5,7 @@
  */
 import { existsSync, readFileSync, rmSync } from "node:fs";
 import path from "node:path";
+import { startMailSink } from "./lib/mail-sink";
 import { appCredentials, ensureDatabase, startPrivateDb, stopPrivateDb } from "./lib/mariadb";
 import { CHROMIUM, ensureSystemPackages, MARIADB, POPPLER } from "./lib/system-packages";
 import { projectRoot, runBin } from "./lib/run";
@@ -42,12 +43,16 @@ async function main(): Promise<number> {
 
     const resultsFile = path.join(projectRoot, ".data", "test-results.json");
     rmSync(resultsFile, { force: true });
+    // A mail sink of the run's own, on a free port: the tests read what the product sent from its folder.
+    const mailDir = path.join(projectRoot, ".data", "mail-test");
+    rmSync(mailDir, { recursive: true, force: true });
+    const sink = await startMailSink(0, mailDir);
     console.log("\n[test] vitest");
     const vitestExit = await runBin(
       "vitest",
       ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${resultsFile}`, ...vitestArgs],
-      { ...process.env, NODE_ENV: "test", LOG_LEVEL: "error", DB_NAME: config.db.name },
-    );
+      { ...process.env, NODE_ENV: "test", LOG_LEVEL: "error", DB_NAME: config.db.name, SMTP_PORT: String(sink.port), MAIL_SINK_DIR: mailDir },
+    ).finally(() => sink.close());
 
     let passed = 0;
     let failed = 0;

@@ -20,6 +20,7 @@ import { backtestRouter } from "./modules/backtest/backtest.router";
 import { reviewsRouter } from "./modules/exceptions/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
 import { capitalRouter } from "./modules/capital/capital.router";
+import { filingsRouter } from "./modules/filings/filings.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -86,6 +87,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(reviewsRouter());
   app.use(snapshotsRouter());
   app.use(capitalRouter());
+  app.use(filingsRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

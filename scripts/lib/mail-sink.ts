@@ -4,7 +4,8 @@ import path from "node:path";
 
 /**
  * A local SMTP sink for development and tests: accepts every message on 127.0.0.1 and keeps it
- * as an .eml file, so what the product sends can be read back.
+ * as an .eml file, so what the product sends can be read back. Like a real server, it refuses
+ * recipients it cannot deliver to: any address in the reserved `.invalid` domain (RFC 2606).
  */
 export async function startMailSink(port: number, dir: string): Promise<{ port: number; close: () => Promise<void> }> {
   mkdirSync(dir, { recursive: true });
@@ -12,6 +13,10 @@ export async function startMailSink(port: number, dir: string): Promise<{ port: 
     authOptional: true,
     disabledCommands: ["STARTTLS"],
     logger: false,
+    onRcptTo(address, _session, callback) {
+      if (/\.invalid$/i.test(address.address)) return callback(Object.assign(new Error(`No such mailbox: ${address.address}`), { responseCode: 550 }));
+      callback();
+    },
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on("data", (c: Buffer) => chunks.push(c));

@@ -62,6 +62,14 @@ export const POLICY = {
   "POST /api/snapshots/:id/return": ["cro"],
   "GET /api/snapshots/:id/verify": ["analyst", "cro", "treasury"],
   "GET /api/entities/:code/capital/history": ["analyst", "cro", "treasury"],
+  // Packs and filings: the office reads packs, the CRO files; a regulator reads, acknowledges and
+  // verifies the filings of the entities assigned to them (filtered in the service).
+  "GET /api/snapshots/:id/pack.pdf": ["analyst", "cro"],
+  "POST /api/snapshots/:id/filings": ["cro"],
+  "GET /api/filings": ["analyst", "cro", "regulator"],
+  "GET /api/filings/:id/pack.pdf": ["analyst", "cro", "regulator"],
+  "POST /api/filings/:id/acknowledge": ["regulator"],
+  "GET /api/filings/:id/verify": ["analyst", "cro", "regulator"],
   // Forecasts and what-ifs on current data: treasury plans capital with them (DESIGN §2).
   "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
   "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],

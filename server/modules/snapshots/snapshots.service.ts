@@ -321,6 +321,23 @@ export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor
   });
 }
 
+/**
+ * Filing, step one: the approved snapshot, locked for the filing's transaction, with its DTO as
+ * the pack will show it (status filed). Refuses one that is not approved (or already filed).
+ */
+export async function lockForFiling(id: number, transaction: Transaction): Promise<{ row: SnapshotModel; entity: EntityModel; asFiled: Snapshot }> {
+  const { row, entity } = await lockSnapshot(id, transaction, undefined, { holdData: false });
+  if (row.status === "filed") throw new ConflictError(`Snapshot #${id} is already filed.`);
+  if (row.status !== "approved") throw new ConflictError(`Snapshot #${id} is ${row.status}; only an approved snapshot can be filed.`);
+  const dto = await toDto(row, entity);
+  return { row, entity, asFiled: { ...dto, status: "filed" } };
+}
+
+/** Filing, last step: the snapshot is filed (its figures and hash do not change). */
+export async function recordFiled(row: SnapshotModel, detail: string, actor: SignedIn, transaction: Transaction): Promise<void> {
+  await row.update({ status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 }, { transaction });
+}
+
 /** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */
 export async function verifySnapshot(id: number, actor: SignedIn): Promise<SnapshotVerify> {
   const row = await SnapshotModel.findByPk(id);

@@ -1,0 +1,38 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { sequelize } from "../db/sequelize";
+
+/** A signed-off snapshot's pack as sent to the supervisor (server/modules/filings). */
+export class FilingModel extends Model<InferAttributes<FilingModel>, InferCreationAttributes<FilingModel>> {
+  declare id: CreationOptional<number>;
+  declare snapshotId: number;
+  declare packPdf: Buffer;
+  declare packSha256: string;
+  declare fileName: string;
+  declare recipientsJson: string;
+  declare messageId: string;
+  declare sentBy: number;
+  declare sentAt: Date;
+  declare acknowledgedBy: number | null;
+  declare acknowledgedAt: Date | null;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+FilingModel.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
+    snapshotId: { type: DataTypes.INTEGER, allowNull: false },
+    packPdf: { type: DataTypes.BLOB("long"), allowNull: false },
+    packSha256: { type: DataTypes.CHAR(64), allowNull: false },
+    fileName: { type: DataTypes.STRING(255), allowNull: false },
+    recipientsJson: { type: DataTypes.TEXT, allowNull: false },
+    messageId: { type: DataTypes.STRING(255), allowNull: false },
+    sentBy: { type: DataTypes.INTEGER, allowNull: false },
+    sentAt: { type: DataTypes.DATE(3), allowNull: false },
+    acknowledgedBy: { type: DataTypes.INTEGER, allowNull: true },
+    acknowledgedAt: { type: DataTypes.DATE(3), allowNull: true },
+    createdAt: DataTypes.DATE(3),
+    updatedAt: DataTypes.DATE(3),
+  },
+  { sequelize, tableName: "filings", defaultScope: { attributes: { exclude: ["packPdf"] } }, scopes: { withPack: {} } },
+);

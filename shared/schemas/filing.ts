@@ -1,0 +1,34 @@
+import { z } from "zod";
+import { zoneSchema } from "./backtest";
+
+/** A signed-off snapshot's pack as sent to the supervisor (DESIGN §5–§6). */
+export const filingSchema = z.object({
+  id: z.number().int(),
+  snapshotId: z.number().int(),
+  entity: z.string(),
+  entityName: z.string(),
+  quarterEnd: z.string(),
+  zone: zoneSchema,
+  counted: z.number().int(),
+  multiplier: z.number(),
+  fileName: z.string(),
+  /** sha256 of the PDF exactly as sent: a supervisor checks the file they hold against it. */
+  sha256: z.string(),
+  recipients: z.array(z.string()),
+  messageId: z.string(),
+  sentBy: z.string(),
+  sentAt: z.string(),
+  acknowledgedBy: z.string().nullable(),
+  acknowledgedAt: z.string().nullable(),
+});
+export type Filing = z.infer<typeof filingSchema>;
+export const filingListSchema = z.array(filingSchema);
+export const filingIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
+
+export const filingVerifySchema = z.object({
+  valid: z.boolean(),
+  sha256: z.string(),
+  snapshotHash: z.string().nullable(),
+  detail: z.string(),
+});
+export type FilingVerify = z.infer<typeof filingVerifySchema>;

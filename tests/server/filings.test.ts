@@ -1,0 +1,178 @@
+import { execFileSync } from "node:child_process";
+import { createHash } from "node:crypto";
+import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import request from "supertest";
+import { afterAll, describe, expect, it } from "vitest";
+import { sequelize } from "../../server/db/sequelize";
+import { AuditEventModel } from "../../server/models/audit-event";
+import { FilingModel } from "../../server/models/filing";
+import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
+import { SnapshotModel } from "../../server/models/snapshot";
+import { filingSchema, filingVerifySchema } from "../../shared/schemas/filing";
+import { createTestUser, sessionCookieFor } from "./helpers";
+import { preparedAndSubmitted, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+
+afterAll(() => sequelize.close());
+
+const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
+
+/** The text of a PDF, read back with poppler's pdftotext. */
+function pdfText(bytes: Buffer): string {
+  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
+  writeFileSync(file, bytes);
+  return execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8");
+}
+
+/** Every message the run's mail sink (scripts/test.ts) received for this address, raw. */
+function mailsTo(address: string): string[] {
+  const dir = process.env.MAIL_SINK_DIR!;
+  return readdirSync(dir)
+    .map((f) => readFileSync(path.join(dir, f), "utf8"))
+    .filter((m) => m.includes(address));
+}
+
+/** The PDF attached to a raw message (base64, as nodemailer writes it). */
+function attachedPdf(raw: string): Buffer {
+  const part = raw.split(/\r?\n--/).find((p) => /Content-Type: application\/pdf/i.test(p))!;
+  const body = part.split(/\r?\n\r?\n/).slice(1).join("\n");
+  return Buffer.from(body.replace(/[^A-Za-z0-9+/=]/g, ""), "base64");
+}
+
+async function approvedBook(supervisor: string) {
+  const book = await signOffBook();
+  await book.entity.update({ supervisorEmails: [supervisor], supervisorName: "Ms Rowan Vale" });
+  const submitted = await preparedAndSubmitted(book);
+  await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+  return { book, snapshotId: submitted.id as number };
+}
+
+async function regulatorFor(book: Book) {
+  const regulator = await createTestUser("regulator");
+  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  return { regulator, cookie: await sessionCookieFor(regulator.id) };
+}
+
+describe("the quarterly pack", () => {
+  it("when the office downloads a snapshot's pack, then it is a real PDF with the frozen figures, the seal and the caution", async () => {
+    const { book, snapshotId } = await approvedBook(`supervisor-${Date.now()}@bank-supervisor.test`);
+    const res = await request(app).get(`/api/snapshots/${snapshotId}/pack.pdf`).set("Cookie", book.cookie).buffer(true).parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => done(null, Buffer.concat(chunks)));
+    });
+    expect(res.status).toBe(200);
+    expect(res.headers["content-type"]).toBe("application/pdf");
+    expect(res.headers["content-disposition"]).toMatch(/attachment; filename="quartermark-.*-2026-09-30-pack\.pdf"/);
+    const pdf = res.body as Buffer;
+    expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
+    const text = pdfText(pdf);
+    expect(text).toMatch(/Q3 2026: 2026-07-01 to 2026-09-30/);
+    expect(text).toMatch(/Traffic-light zone\s+Yellow/);
+    expect(text).toMatch(/Counted exceptions\s+5/);
+    expect(text).toMatch(/Multiplier\s+3\.40/);
+    const snapshot = (await request(app).get(`/api/snapshots/${snapshotId}`).set("Cookie", book.cookie)).body;
+    expect(text.replace(/\s+/g, "")).toContain(snapshot.hash);
+    expect(text.replace(/\s+/g, " ")).toContain("Figures are decision support.");
+  });
+
+  it("when a draft's pack is read, then it says it is not signed off and must not be filed", async () => {
+    const book = await signOffBook();
+    const draft = await request(app).post("/api/snapshots").set("Cookie", book.cookie).send({ entity: book.entity.code, quarterEnd: "2026-09-30" });
+    const res = await request(app).get(`/api/snapshots/${draft.body.id}/pack.pdf`).set("Cookie", book.cookie).buffer(true).parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => done(null, Buffer.concat(chunks)));
+    });
+    expect(pdfText(res.body as Buffer)).toMatch(/Not signed off \(draft\): these figures are a working copy and must not be filed/);
+  });
+});
+
+describe("filing with the supervisor", () => {
+  it("when the CRO files an approved snapshot, then the pack goes by e-mail over SMTP, is kept with its sha256, and the snapshot is filed", async () => {
+    const supervisor = `supervisor-${Date.now()}@bank-supervisor.test`;
+    const { book, snapshotId } = await approvedBook(supervisor);
+    const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const filing = filingSchema.parse(res.body);
+    expect(filing).toMatchObject({ snapshotId, recipients: [supervisor], sentBy: book.cro.email, acknowledgedAt: null, zone: "yellow", counted: 5 });
+
+    // The e-mail really went out: the sink holds it, with the very PDF that was kept.
+    const [mail] = mailsTo(supervisor);
+    expect(mail).toMatch(/Subject: .*backtesting pack for Q3 2026/);
+    expect(mail).toContain(filing.messageId.replace(/[<>]/g, ""));
+    const attached = attachedPdf(mail);
+    expect(sha256(attached)).toBe(filing.sha256);
+
+    const stored = await FilingModel.scope("withPack").findByPk(filing.id);
+    expect(sha256(stored!.packPdf)).toBe(filing.sha256);
+    expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "filed" });
+    expect(await AuditEventModel.count({ where: { action: "snapshot.file", target: `snapshot #${snapshotId}` } })).toBe(1);
+    expect(pdfText(attached).replace(/\s+/g, " ")).toMatch(/filed with the supervisor/);
+
+    const again = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+    expect(again.status).toBe(409);
+  });
+
+  it("when the mail server refuses the supervisor's address, then 502 says nothing was sent and nothing is recorded", async () => {
+    const { book, snapshotId } = await approvedBook("nobody@supervisor.invalid");
+    const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+    expect(res.status).toBe(502);
+    expect(res.body.error).toMatchObject({ code: "mail_not_sent", message: expect.stringMatching(/Nothing was sent and nothing was recorded/) });
+    expect(await FilingModel.count({ where: { snapshotId } })).toBe(0);
+    expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "approved" });
+  });
+
+  it("when the entity has no supervisor address, or the snapshot is not approved, then filing is refused and nothing is sent", async () => {
+    const { book, snapshotId } = await approvedBook("x@bank-supervisor.test");
+    await book.entity.update({ supervisorEmails: [] });
+    const none = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+    expect(none.status).toBe(422);
+    expect(none.body.error.message).toMatch(/no supervisor e-mail address/);
+    const draft = await request(app).post("/api/snapshots").set("Cookie", book.cookie).send({ entity: book.entity.code, quarterEnd: "2026-06-30" });
+    const early = await request(app).post(`/api/snapshots/${draft.body.id}/filings`).set("Cookie", book.croCookie).send({});
+    expect(early.status).toBe(409);
+    expect(await FilingModel.count({ where: { snapshotId: [snapshotId, draft.body.id] } })).toBe(0);
+  });
+});
+
+describe("the supervisor's side", () => {
+  it("when an assigned regulator lists, downloads, verifies and acknowledges a filing, then each works once and others' filings stay invisible", async () => {
+    const supervisor = `supervisor-${Date.now()}@bank-supervisor.test`;
+    const { book, snapshotId } = await approvedBook(supervisor);
+    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    const assigned = await regulatorFor(book);
+    const stranger = await sessionCookieFor((await createTestUser("regulator")).id);
+
+    const list = await request(app).get("/api/filings").set("Cookie", assigned.cookie);
+    expect(list.body.map((f: { id: number }) => f.id)).toContain(filing.id);
+    expect((await request(app).get("/api/filings").set("Cookie", stranger)).body.map((f: { id: number }) => f.id)).not.toContain(filing.id);
+    expect((await request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", stranger)).status).toBe(404);
+
+    const pack = await request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", assigned.cookie).buffer(true).parse((r, done) => {
+      const chunks: Buffer[] = [];
+      r.on("data", (c: Buffer) => chunks.push(c));
+      r.on("end", () => done(null, Buffer.concat(chunks)));
+    });
+    expect(sha256(pack.body as Buffer)).toBe(filing.sha256);
+    expect(pack.headers["x-pack-sha256"]).toBe(filing.sha256);
+
+    const verify = await request(app).get(`/api/filings/${filing.id}/verify`).set("Cookie", assigned.cookie);
+    expect(filingVerifySchema.parse(verify.body)).toMatchObject({ valid: true, sha256: filing.sha256 });
+
+    const ack = await request(app).post(`/api/filings/${filing.id}/acknowledge`).set("Cookie", assigned.cookie).send({});
+    expect(ack.body).toMatchObject({ acknowledgedBy: assigned.regulator.email, acknowledgedAt: expect.any(String) });
+    const twice = await request(app).post(`/api/filings/${filing.id}/acknowledge`).set("Cookie", assigned.cookie).send({});
+    expect(twice.body.acknowledgedAt).toBe(ack.body.acknowledgedAt);
+    expect(await AuditEventModel.count({ where: { action: "filing.acknowledge", target: `filing #${filing.id}` } })).toBe(1);
+  });
+
+  it("when the kept pack is altered behind the application's back, then verify says it is not the file that was sent", async () => {
+    const { book, snapshotId } = await approvedBook(`s-${Date.now()}@bank-supervisor.test`);
+    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    await sequelize.query("UPDATE filings SET pack_pdf = CONCAT(pack_pdf, 'x') WHERE id = :id", { replacements: { id: filing.id } });
+    const verify = await request(app).get(`/api/filings/${filing.id}/verify`).set("Cookie", book.croCookie);
+    expect(verify.body).toMatchObject({ valid: false, detail: expect.stringMatching(/no longer has the sha256 that was sent/) });
+  });
+});

@@ -14,6 +14,9 @@ async function main() {
   const db = await startPrivateDb(config.db.port);
   await ensureDatabase(db, config.db.name, creds);
 
+  // The mail sink first: the demo seed files past quarters with the supervisor by e-mail.
+  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
+
   const { migrateUp } = await import("../server/db/migrator");
   const { seedDemo } = await import("../server/db/seeder");
   const migrated = await migrateUp();
@@ -24,7 +27,6 @@ async function main() {
   console.log("[client] building…");
   if ((await runBin("vite", ["build", "--logLevel", "warn"])) !== 0) throw new Error("The client build failed.");
 
-  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
   const { createApp } = await import("../server/app");
   const server = createApp({ serveClient: true }).listen(config.port, "127.0.0.1");
   await new Promise<void>((resolve, reject) => {

@@ -1,6 +1,8 @@
+import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import path from "node:path";
 import PDFDocument from "pdfkit";
+import { woffToSfnt } from "./woff-to-sfnt";
 import { getRegime } from "../../shared/backtest/regimes";
 import { CAUTION } from "../../shared/schemas/common";
 import { quarterLabel, quarterStart, SIGNED_OFF, type Snapshot } from "../../shared/schemas/snapshot";
@@ -9,13 +11,21 @@ import { quarterLabel, quarterStart, SIGNED_OFF, type Snapshot } from "../../sha
  * The quarterly pack of one snapshot as a PDF: where the entity stands at the quarter end, the
  * exceptions behind it, the seal (inputs hash, hash chain) and the sign-off record, with the
  * caution on every page. IBM Plex Sans is embedded from its .woff files (STACK.md: woff2 drops
- * accented letters in pdfkit). The document's dates are the snapshot's own, so the same snapshot
+ * accented letters in pdfkit), unpacked once (./woff-to-sfnt.ts). The document's dates are the snapshot's own, so the same snapshot
  * always gives the same text.
  */
 
 const require = createRequire(import.meta.url);
 const FONT_DIR = path.join(path.dirname(require.resolve("@ibm/plex-sans/package.json")), "fonts", "complete", "woff");
-const FONTS = { regular: path.join(FONT_DIR, "IBMPlexSans-Regular.woff"), semibold: path.join(FONT_DIR, "IBMPlexSans-SemiBold.woff") };
+let fonts: { regular: Buffer; semibold: Buffer } | undefined;
+/** The two weights the pack uses, read and unpacked once per process. */
+function packFonts() {
+  fonts ??= {
+    regular: woffToSfnt(readFileSync(path.join(FONT_DIR, "IBMPlexSans-Regular.woff"))),
+    semibold: woffToSfnt(readFileSync(path.join(FONT_DIR, "IBMPlexSans-SemiBold.woff"))),
+  };
+  return fonts;
+}
 
 const INK = "#1b2638";
 const MUTED = "#66728a";
@@ -48,8 +58,8 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
       ModDate: created,
     },
   });
-  doc.registerFont("regular", FONTS.regular);
-  doc.registerFont("semibold", FONTS.semibold);
+  doc.registerFont("regular", packFonts().regular);
+  doc.registerFont("semibold", packFonts().semibold);
   const chunks: Buffer[] = [];
   doc.on("data", (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));

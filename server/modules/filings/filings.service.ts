@@ -82,6 +82,11 @@ export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise
     const pack = await renderSnapshotPack(asFiled);
     const fileName = snapshotPackFileName(asFiled);
     const packSha256 = sha256(pack);
+    // Recorded first, sent second: a database refusal sends nothing, a mail refusal rolls the record back.
+    const filing = await FilingModel.create(
+      { snapshotId, packPdf: pack, packSha256, fileName, recipientsJson: JSON.stringify(recipients), messageId: "(sending)", sentBy: actor.user.id, sentAt: new Date(), acknowledgedBy: null, acknowledgedAt: null },
+      { transaction },
+    );
     const messageId = await sendMail({
       to: recipients,
       subject: `${entity.name}: backtesting pack for ${quarterLabel(row.quarterEnd)}`,
@@ -100,10 +105,7 @@ export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise
       ].join("\n"),
       attachments: [{ filename: fileName, content: pack, contentType: "application/pdf" }],
     });
-    const filing = await FilingModel.create(
-      { snapshotId, packPdf: pack, packSha256, fileName, recipientsJson: JSON.stringify(recipients), messageId, sentBy: actor.user.id, sentAt: new Date(), acknowledgedBy: null, acknowledgedAt: null },
-      { transaction },
-    );
+    await filing.update({ messageId }, { transaction });
     await recordFiled(row, `Pack ${packSha256.slice(0, 12)}… sent to ${recipients.join(", ")}`, actor, transaction);
     await recordAudit(actor, "snapshot.file", `snapshot #${snapshotId}`, { before: { status: "approved" }, after: { status: "filed", filing: filing.id, recipients, messageId, sha256: packSha256 } }, transaction);
     return filing;

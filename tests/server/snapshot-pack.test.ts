@@ -1,0 +1,81 @@
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { renderSnapshotPack } from "../../server/pdf/snapshot-pack";
+import { snapshotSchema, type Snapshot } from "../../shared/schemas/snapshot";
+
+function written(bytes: Buffer): string {
+  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
+  writeFileSync(file, bytes);
+  return file;
+}
+
+// An invented snapshot, as the API would give it, with letters beyond ASCII in its names.
+const snapshot: Snapshot = snapshotSchema.parse({
+  id: 7,
+  entity: "LKS-CH",
+  entityName: "Lärkspur Bänk Zürich AG — Genève",
+  quarterEnd: "2026-06-30",
+  status: "approved",
+  zone: "green",
+  counted: 3,
+  plusFactor: 0,
+  multiplier: 3,
+  capital: 1234567.89,
+  addOn: 0,
+  figures: {
+    portfolio: "LKS-CH-TOTAL",
+    regime: "basel",
+    pnlBasis: "hypothetical",
+    currency: "CHF",
+    asOf: "2026-06-30",
+    window: { start: "2025-07-02", end: "2026-06-30", observations: 250, complete: true },
+    exceptions: { actual: 4, hypothetical: 3, counted: 3, excluded: 0 },
+    exceptionDates: ["2025-09-03", "2026-01-14", "2026-05-20"],
+    zone: "green",
+    zoneLabel: "green",
+    plusFactor: 0,
+    qualitativeAddend: 0,
+    multiplier: 3,
+    expected: 2.5,
+    cumulativeProbability: 0.7590,
+    capital: 1234567.89,
+    addOn: 0,
+    capitalNote: null,
+    desks: [],
+  },
+  inputsSha256: "a".repeat(64),
+  engineVersion: "1.0.0",
+  preparedBy: "analyste@larkspur.test",
+  preparedAt: "2026-07-03T09:00:00.000Z",
+  submittedBy: "analyste@larkspur.test",
+  submittedAt: "2026-07-03T10:00:00.000Z",
+  approvedBy: "cro@larkspur.test",
+  approvedAt: "2026-07-04T08:30:00.000Z",
+  history: [{ at: "2026-07-04T08:30:00.000Z", by: "cro@larkspur.test", action: "approved", comment: "Freigegeben — für das Quartal" }],
+  prevHash: null,
+  hash: "b".repeat(64),
+  restatedAfterSignOff: null,
+  openFindings: 0,
+  version: 3,
+});
+
+describe("a snapshot's pack as a PDF", () => {
+  it("when rendered, then IBM Plex is embedded and letters beyond ASCII read back as written (STACK.md: .woff, not .woff2)", async () => {
+    const file = written(await renderSnapshotPack(snapshot));
+    expect(execFileSync("pdffonts", [file]).toString()).toMatch(/IBMPlexSans\s.*yes yes yes/);
+    const text = execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8").replace(/\s+/g, " ");
+    expect(text).toContain("Lärkspur Bänk Zürich AG — Genève (LKS-CH)");
+    expect(text).toContain("Freigegeben — für das Quartal");
+    expect(text).toContain("P(X ≤ counted), binomial 75.90%");
+    expect(text).toMatch(/Capital requirement 1,234,568 CHF/);
+    expect(text).toMatch(/Page 1 of 1/);
+  });
+
+  it("when the same snapshot is rendered twice, then the bytes are the same (its dates are the snapshot's own)", async () => {
+    const [a, b] = [await renderSnapshotPack(snapshot), await renderSnapshotPack(snapshot)];
+    expect(a.equals(b)).toBe(true);
+  });
+});

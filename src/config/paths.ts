@@ -5,6 +5,8 @@ const adminOnly: readonly Role[] = ["admin"];
 const dataReaders: readonly Role[] = ["analyst", "cro"];
 /** Treasury reads the signed-off quarters too (the server sends them only approved and filed ones). */
 const quarterReaders: readonly Role[] = ["analyst", "cro", "treasury"];
+/** Treasury plans capital on these figures; analysts and the CRO read them beside the close. */
+const capitalReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 
 export type AppPath = {
   /** The route pattern as React Router reads it. */
@@ -66,6 +68,19 @@ export const paths = {
       return qs ? `/quarters?${qs}` : "/quarters";
     },
   },
+  capital: {
+    path: "/capital",
+    roles: capitalReaders,
+    label: "Capital",
+    /** Without `entity` the screen starts on the first entity; without `date` the forecast is for the server's default (the current quarter end). */
+    href: (q?: { entity?: string; date?: string }) => {
+      const s = new URLSearchParams();
+      if (q?.entity) s.set("entity", q.entity);
+      if (q?.date) s.set("date", q.date);
+      const qs = s.toString();
+      return qs ? `/capital?${qs}` : "/capital";
+    },
+  },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
   adminEntity: {
@@ -102,6 +117,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "backtestIndex", group: "main" },
   { key: "data", group: "main" },
   { key: "quarters", group: "main" },
+  { key: "capital", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },
   { key: "adminAssignments", group: "admin" },

@@ -47,6 +47,15 @@ export function formatAmount(value: number | null | undefined, currency?: string
   return currency ? `${sign}${digits} ${currency}` : `${sign}${digits}`;
 }
 
+/** Axis ticks in thousands or millions so the axis stays narrow: 1.2m, −350k. */
+export function compactAmount(v: number): string {
+  const a = Math.abs(v);
+  const sign = v < 0 ? "−" : "";
+  if (a >= 1_000_000) return `${sign}${(a / 1_000_000).toLocaleString("en-GB", { maximumFractionDigits: 1 })}m`;
+  if (a >= 1_000) return `${sign}${(a / 1_000).toLocaleString("en-GB", { maximumFractionDigits: 0 })}k`;
+  return `${sign}${a.toLocaleString("en-GB", { maximumFractionDigits: 0 })}`;
+}
+
 /** Plus factor, qualitative addend and multiplier as the rules print them: two places. */
 export function formatFactor(value: number | null | undefined): string {
   if (value === null || value === undefined) return "—";
@@ -56,6 +65,13 @@ export function formatFactor(value: number | null | undefined): string {
 /** A probability as a percentage with two places: 0.99237 → "99.24%". */
 export function formatPercent(p: number): string {
   return `${formatDecimal(p * 100, 2)}%`;
+}
+
+/** A change with its sign written out: "+0.35", "−12,400 EUR"; what rounds to nothing stays unsigned ("0.00"). */
+export function formatChange(value: number, format: (v: number) => string): string {
+  const text = format(Math.abs(value));
+  if (/^[0.,]+(\s|$)/.test(text)) return text;
+  return `${value < 0 ? "−" : "+"}${text}`;
 }
 
 /** Compact JSON for audit before/after values. */

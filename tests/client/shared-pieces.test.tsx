@@ -3,7 +3,7 @@ import { render, screen } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { TextareaField } from "@/components/ui/field";
 import { Figure } from "@/components/ui/figure";
-import { formatAmount, formatCount, formatFactor, formatPercent, plural } from "@/lib/format";
+import { formatAmount, formatChange, formatCount, formatFactor, formatPercent, plural } from "@/lib/format";
 
 describe("the formatting every screen shares", () => {
   it("writes an amount in whole units with its currency and a true minus sign", () => {
@@ -17,6 +17,13 @@ describe("the formatting every screen shares", () => {
     expect(formatFactor(3)).toBe("3.00");
     expect(formatFactor(null)).toBe("—");
     expect(formatPercent(0.99237)).toBe("99.24%");
+  });
+
+  it("writes a change with its sign, and no sign where the change rounds to nothing", () => {
+    expect(formatChange(0.25, formatFactor)).toBe("+0.25");
+    expect(formatChange(-12_400.2, (v) => formatAmount(v, "EUR"))).toBe("−12,400 EUR");
+    expect(formatChange(0.001, formatFactor)).toBe("0.00");
+    expect(formatChange(0, String)).toBe("0");
   });
 
   it("counts with thousands separators and the noun in the right number", () => {

@@ -11,7 +11,7 @@ import { SnapshotDetail } from "@/features/quarters/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/quarters/components/snapshot-list-table";
 import { endedQuarterEnds } from "@/features/quarters/quarter-ends";
 import { plural } from "@/lib/format";
-import { snapshotStatusLabels } from "@/features/quarters/words";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { EmptyState } from "@/components/ui/table";

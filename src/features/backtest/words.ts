@@ -34,14 +34,6 @@ export function reviewStatusOf(day: Pick<ExceptionDayDto, "review">): string {
   return exclusionStatusLabels[day.review.exclusionStatus];
 }
 
-/** Which P&L series breached VaR on the day. */
-export function seriesOf(day: Pick<ExceptionDayDto, "actual" | "hypothetical">): string {
-  if (day.actual && day.hypothetical) return "Both";
-  if (day.actual) return "Actual";
-  if (day.hypothetical) return "Hypothetical";
-  return "—";
-}
-
 export const basisLabels: Record<PnlBasis, string> = {
   actual: "actual P&L",
   hypothetical: "hypothetical P&L",

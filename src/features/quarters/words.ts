@@ -1,13 +1,4 @@
-import type { SnapshotEvent, SnapshotStatus } from "@shared/schemas/snapshot";
-
-/** Where a snapshot stands, in our own words. */
-export const snapshotStatusLabels: Record<SnapshotStatus, string> = {
-  draft: "Draft",
-  submitted: "Submitted for sign-off",
-  approved: "Approved",
-  returned: "Returned",
-  filed: "Filed",
-};
+import type { SnapshotEvent } from "@shared/schemas/snapshot";
 
 /** What happened to a snapshot, for its history. */
 export const snapshotEventLabels: Record<SnapshotEvent["action"], string> = {

@@ -10,7 +10,7 @@ import { overviewQueries } from "@/features/overview/api/overview-queries";
 import { backtestQueries } from "@/features/backtest/api/backtest-queries";
 import { WhereWeStand } from "@/features/backtest/components/where-we-stand";
 import { TestsPanel } from "@/features/backtest/components/tests-panel";
-import { RollOffTable } from "@/features/backtest/components/roll-off-table";
+import { RollOffTable } from "@/components/ui/roll-off-table";
 import { DesksTable } from "@/features/backtest/components/desks-table";
 import { ExceptionTable } from "@/features/backtest/components/exception-table";
 import { ReviewPanel } from "@/features/backtest/components/review-panel";
@@ -76,7 +76,7 @@ const Why = memo(function Why({ bt, code }: { bt: BacktestResponse; code: string
       </Suspense>
       <TestsPanel bt={bt} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
-        <RollOffTable bt={bt} />
+        <RollOffTable rollOffs={bt.rollOffs} regime={bt.regime} />
         <DesksTable desks={bt.desks} />
       </div>
     </section>

@@ -6,7 +6,8 @@ import { EmptyState } from "@/components/ui/table";
 import { Button } from "@/components/ui/button";
 import { cn } from "@/lib/cn";
 import { formatAmount } from "@/lib/format";
-import { reviewStatusOf, seriesOf } from "../words";
+import { seriesOf } from "@/lib/pnl-series";
+import { reviewStatusOf } from "../words";
 
 const col = createColumnHelper<ExceptionDayDto>();
 const nullsLast = (a: number | null, b: number | null) => (a === null ? (b === null ? 0 : -1) : b === null ? 1 : a - b);

@@ -3,18 +3,9 @@ import { CartesianGrid, ComposedChart, Line, ReferenceArea, ResponsiveContainer,
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/upload";
 import { cn } from "@/lib/cn";
-import { formatAmount, plural } from "@/lib/format";
+import { compactAmount, formatAmount, plural } from "@/lib/format";
 
 type Series = "actual" | "hypothetical";
-
-/** Axis ticks in thousands or millions so the axis stays narrow: 1.2m, −350k. */
-export function compactAmount(v: number): string {
-  const a = Math.abs(v);
-  const sign = v < 0 ? "−" : "";
-  if (a >= 1_000_000) return `${sign}${(a / 1_000_000).toLocaleString("en-GB", { maximumFractionDigits: 1 })}m`;
-  if (a >= 1_000) return `${sign}${(a / 1_000).toLocaleString("en-GB", { maximumFractionDigits: 0 })}k`;
-  return `${sign}${a.toLocaleString("en-GB", { maximumFractionDigits: 0 })}`;
-}
 
 const ink = "#1b2638";
 const muted = "#66728a";

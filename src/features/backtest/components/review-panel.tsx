@@ -22,7 +22,8 @@ import {
   useRecordDecision,
   useSaveReview,
 } from "../api/backtest-queries";
-import { causeIds, causeLabels, exclusionStatusLabels, seriesOf } from "../words";
+import { seriesOf } from "@/lib/pnl-series";
+import { causeIds, causeLabels, exclusionStatusLabels } from "../words";
 
 function formatSize(bytes: number): string {
   if (bytes < 1000) return `${bytes.toLocaleString("en-GB")} bytes`;

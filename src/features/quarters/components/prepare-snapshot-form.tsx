@@ -6,7 +6,7 @@ import { FormMessage, SelectField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { blockingSnapshotOf, usePrepareSnapshot } from "../api/snapshot-queries";
-import { snapshotStatusLabels } from "../words";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 
 /** What preparing this quarter again would do, said before the button is pressed. */
 function hintFor(quarterEnd: string, existing: Snapshot | undefined): string {

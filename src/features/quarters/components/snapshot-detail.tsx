@@ -2,7 +2,7 @@ import { Link } from "react-router-dom";
 import { quarterLabel, quarterStart, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { formatDateTime, plural } from "@/lib/format";
-import { snapshotStatusLabels } from "../words";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { SnapshotActions } from "./snapshot-actions";
 import { SnapshotFigures } from "./snapshot-figures";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";

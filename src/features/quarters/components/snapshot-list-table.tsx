@@ -5,7 +5,7 @@ import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
-import { snapshotStatusLabels } from "../words";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 
 /** The entity's quarters, newest first, with the headline figures each one froze; a row opens its snapshot. */
 export function SnapshotListTable({

@@ -66,6 +66,7 @@ describe("the zone forecast", () => {
     const before = await request(app).get(`/api/entities/${book.entity.code}/capital/forecast?date=2026-09-01`).set("Cookie", book.treasury);
     expect(before.status).toBe(422);
     expect(before.body.error.message).toMatch(/before the as-of date 2026-09-30/);
+    expect(before.body.error.details.fields.date).toBe("On or after 2026-09-30");
     const bad = await request(app).get(`/api/entities/${book.entity.code}/capital/forecast?date=next-week`).set("Cookie", book.treasury);
     expect(bad.status).toBe(422);
     expect(bad.body.error.details.fields.date).toBeTruthy();

@@ -51,6 +51,9 @@ export async function getForecast(code: string, query: { date?: string }): Promi
   const { entity, ctx, latest } = await topOf(code);
   const opts = { regime: entity.regime, pnlBasis: entity.pnlBasis, asOf: latest, excludedDates: ctx.excludedDates, qualitativeAddend: entity.qualitativeAddend };
   const date = query.date ?? defaultForecastDate(latest);
+  if (date < latest) {
+    throw new AppError(422, "validation_failed", `The forecast date ${date} is before the as-of date ${latest}, the last day with data of ${ctx.portfolio.code}.`, { fields: { date: `On or after ${latest}` } });
+  }
   const forecast = forecastAt(ctx.series, { ...opts, date, holidays: ctx.holidays });
   const today = backtestAt(ctx.series, opts);
   return {

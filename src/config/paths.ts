@@ -7,6 +7,8 @@ const dataReaders: readonly Role[] = ["analyst", "cro"];
 const quarterReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 /** Treasury plans capital on these figures; analysts and the CRO read them beside the close. */
 const capitalReaders: readonly Role[] = ["analyst", "cro", "treasury"];
+/** Supervisors read the packs filed with them; the reporting office follows what was sent and acknowledged. */
+const filingReaders: readonly Role[] = ["analyst", "cro", "regulator"];
 
 export type AppPath = {
   /** The route pattern as React Router reads it. */
@@ -81,6 +83,13 @@ export const paths = {
       return qs ? `/capital?${qs}` : "/capital";
     },
   },
+  filings: {
+    path: "/filings",
+    roles: filingReaders,
+    label: "Filings",
+    /** `filing` opens that filing; without it the screen opens the newest one. */
+    href: (q?: { filing?: number }) => (q?.filing ? `/filings?filing=${q.filing}` : "/filings"),
+  },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
   adminEntity: {
@@ -118,6 +127,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "data", group: "main" },
   { key: "quarters", group: "main" },
   { key: "capital", group: "main" },
+  { key: "filings", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },
   { key: "adminAssignments", group: "admin" },

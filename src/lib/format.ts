@@ -83,3 +83,8 @@ export function compactJson(value: unknown): string {
     return String(value);
   }
 }
+
+/** The first twelve hex digits: enough to tell two hashes apart at a glance (show the whole one on hover). */
+export function shortHash(hash: string): string {
+  return hash.length > 12 ? `${hash.slice(0, 12)}…` : hash;
+}

@@ -1,6 +1,7 @@
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { snapshotSchema, snapshotVerifySchema, type Snapshot, type SnapshotFigures } from "@shared/schemas/snapshot";
+import { filingSchema, type Filing } from "@shared/schemas/filing";
 import { endedQuarterEnds } from "@/features/quarters/quarter-ends";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
@@ -431,6 +432,180 @@ describe("Quarter close › reading signed-off quarters", () => {
     renderApp("/quarters");
     expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
     expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Quarter close" })).not.toBeInTheDocument();
+  });
+});
+
+const PACK_SHA256 = "5e884898da28047151d0e56f8dc6292773603d0d6aabbdd62a11ef721d1542d8";
+
+const filed = (over: Partial<Snapshot> = {}) =>
+  approved({
+    status: "filed",
+    history: [
+      ...approved().history,
+      { at: "2026-01-14T10:00:00.000Z", by: "cro@larkspur.test", action: "filed", comment: null },
+    ],
+    version: 7,
+    ...over,
+  });
+
+/** The filing the server answers with; parsed with the shared schema. */
+function filingOf(over: Partial<Filing> = {}): Filing {
+  return filingSchema.parse({
+    id: 31,
+    snapshotId: 12,
+    entity: "LKS-EU",
+    entityName: "Larkspur Markets SA",
+    quarterEnd: "2025-12-31",
+    zone: "yellow",
+    counted: 6,
+    multiplier: 3.5,
+    fileName: "LKS-EU-2025-12-31-pack.pdf",
+    sha256: PACK_SHA256,
+    recipients: ["backtesting@supervisor.test", "desk-officer@supervisor.test"],
+    messageId: "<31.pack@quartermark.test>",
+    sentBy: "cro@larkspur.test",
+    sentAt: "2026-01-14T10:00:00.000Z",
+    acknowledgedBy: null,
+    acknowledgedAt: null,
+    ...over,
+  });
+}
+
+describe("Quarter close › the pack and its filing", () => {
+  it("when the chief risk officer files an approved quarter, then the pack is sent and the recipients, SHA-256 and a link to the filing show", async () => {
+    const store = [approved()];
+    const filings: Filing[] = [];
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes(store, {
+        "GET /api/filings": () => ({ status: 200, body: filings }),
+        "POST /api/snapshots/12/filings": () => {
+          answer(store, filed());
+          filings.unshift(filingOf());
+          return { status: 201, body: filings[0] };
+        },
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    expect(within(pack).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/snapshots/12/pack.pdf");
+    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    expect(within(pack).getByTestId("filing-confirmation")).toHaveTextContent(
+      "The pack goes by e-mail to LKS-EU's supervisor contacts and is kept as sent; Q4 2025 becomes filed.",
+    );
+    expect(api.callsTo("POST", "/api/snapshots/12/filings")).toHaveLength(0);
+    await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
+
+    expect(api.callsTo("POST", "/api/snapshots/12/filings").map((c) => c.body)).toEqual([{}]);
+    expect(
+      await within(pack).findByText("Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test."),
+    ).toBeInTheDocument();
+    expect(within(pack).getByTestId("filing-recipients")).toHaveTextContent("backtesting@supervisor.test, desk-officer@supervisor.test");
+    expect(within(within(pack).getByTestId("filing-sha256")).getByText("5e884898da28…")).toHaveAttribute("title", PACK_SHA256);
+    expect(within(pack).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
+    expect(await screen.findByTestId("snapshot-status")).toHaveTextContent("Filed");
+    expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
+  });
+
+  it("when the mail server refuses the message (502 mail_not_sent), then its message shows and the quarter stays approved, ready to file again", async () => {
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved()], {
+        "POST /api/snapshots/12/filings": error(
+          502,
+          "mail_not_sent",
+          "The e-mail could not be handed to the mail server (connection refused). Nothing was sent and nothing was recorded; try again.",
+        ),
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    const readsBefore = api.calls.filter((c) => c.method === "GET").length;
+    await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
+
+    expect(await within(pack).findByRole("alert")).toHaveTextContent(
+      "The e-mail could not be handed to the mail server (connection refused). Nothing was sent and nothing was recorded; try again.",
+    );
+    expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Approved");
+    expect(within(pack).queryByTestId("snapshot-filing")).not.toBeInTheDocument();
+    expect(within(pack).getByRole("button", { name: "File with the supervisor" })).toBeEnabled();
+    expect(api.calls.filter((c) => c.method === "GET")).toHaveLength(readsBefore);
+  });
+
+  it("when the entity has no supervisor contacts (422), then the screen says an administrator adds them", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved()], {
+        "POST /api/snapshots/12/filings": error(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address."),
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
+    expect(await within(pack).findByRole("alert")).toHaveTextContent(
+      "LKS-EU has no supervisor contacts, so there is nobody to send the pack to. An administrator adds them under Admin › Entities; then file it again.",
+    );
+    expect(within(pack).queryByRole("link", { name: /Admin/ })).not.toBeInTheDocument();
+  });
+
+  it("when an analyst opens an approved quarter, then the pack can be downloaded but filing is not offered", async () => {
+    fakeApi({ "GET /api/auth/session": signedInAs("analyst"), ...snapshotRoutes([approved()]) });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    expect(within(pack).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/snapshots/12/pack.pdf");
+    expect(within(pack).getByText(/A chief risk officer files Q4 2025 with the supervisor/)).toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
+  });
+
+  it("when a draft is opened, then its pack is offered with the warning that it is not signed off", async () => {
+    fakeApi({ "GET /api/auth/session": signedInAs("analyst"), ...snapshotRoutes([snapshot()]) });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    expect(within(pack).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("download");
+    expect(within(pack).getByText("Not signed off: every page of Q4 2025's pack says so.")).toBeInTheDocument();
+  });
+
+  it("when a filed quarter is opened, then its filing is found in the filings list and shows who sent it and who acknowledged it", async () => {
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes([filed()], {
+        "GET /api/filings": {
+          status: 200,
+          body: [
+            filingOf({ id: 35, snapshotId: 14, quarterEnd: "2026-03-31", sha256: "f".repeat(64) }),
+            filingOf({ acknowledgedBy: "regulator@larkspur.test", acknowledgedAt: "2026-01-15T08:30:00.000Z" }),
+          ],
+        },
+      }),
+    });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const record = await screen.findByTestId("snapshot-filing");
+    expect(record).toHaveTextContent("14 Jan 2026, 10:00 UTC by cro@larkspur.test");
+    expect(within(record).getByText("5e884898da28…")).toBeInTheDocument();
+    expect(within(record).getByTestId("filing-acknowledged")).toHaveTextContent("15 Jan 2026, 08:30 UTC by regulator@larkspur.test");
+    expect(within(record).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
+    expect(api.callsTo("GET", "/api/filings")).toHaveLength(1);
+  });
+
+  it("when treasury opens a filed quarter, then neither the pack nor the filing is offered and no filing is asked for", async () => {
+    const api = fakeApi({ "GET /api/auth/session": signedInAs("treasury"), ...snapshotRoutes([filed()]) });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    expect(await screen.findByTestId("snapshot-status")).toHaveTextContent("Filed");
+    expect(screen.queryByRole("region", { name: "Pack and filing" })).not.toBeInTheDocument();
+    expect(api.callsTo("GET", "/api/filings")).toHaveLength(0);
   });
 });
 

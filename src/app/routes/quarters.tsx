@@ -6,6 +6,7 @@ import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
 import { snapshotQueries } from "@/features/quarters/api/snapshot-queries";
+import { filingQueries } from "@/features/filings/api/filing-queries";
 import { PrepareSnapshotForm } from "@/features/quarters/components/prepare-snapshot-form";
 import { SnapshotDetail } from "@/features/quarters/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/quarters/components/snapshot-list-table";
@@ -59,6 +60,7 @@ function SelectedSnapshot({
   role,
   userEmail,
   findingsHref,
+  filingHref,
   onPrepared,
 }: {
   id: number;
@@ -66,10 +68,19 @@ function SelectedSnapshot({
   role: Role;
   userEmail: string;
   findingsHref: (entity: string) => string;
+  filingHref: (id: number) => string;
   onPrepared: (s: Snapshot) => void;
 }) {
   // The list already holds the snapshot: show it at once while its own answer is read.
   const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
+  // A filed quarter shows its filing; the filings list is the one place it is read from (treasury may not read it).
+  const readsFiling = (role === "analyst" || role === "cro") && data?.status === "filed";
+  const filings = useQuery({ ...filingQueries.list(), enabled: readsFiling });
+  const filing = {
+    filing: filings.data?.find((f) => f.snapshotId === id),
+    reading: readsFiling && filings.isPending,
+    error: filings.error,
+  };
   if (!data) {
     return error ? (
       <FormMessage>{isApiError(error) ? error.message : `Snapshot #${id} could not be read.`}</FormMessage>
@@ -80,7 +91,16 @@ function SelectedSnapshot({
   return (
     <>
       {error && <FormMessage>{isApiError(error) ? error.message : "The snapshot could not be read again."}</FormMessage>}
-      <SnapshotDetail snapshot={data} role={role} userEmail={userEmail} findingsHref={findingsHref(data.entity)} onPrepared={onPrepared} updating={isFetching} />
+      <SnapshotDetail
+        snapshot={data}
+        role={role}
+        userEmail={userEmail}
+        findingsHref={findingsHref(data.entity)}
+        onPrepared={onPrepared}
+        filing={filing}
+        filingHref={filingHref}
+        updating={isFetching}
+      />
     </>
   );
 }
@@ -194,6 +214,7 @@ export default function QuartersRoute() {
               role={role}
               userEmail={user!.email}
               findingsHref={(e) => paths.data.href({ entity: e })}
+              filingHref={(f) => paths.filings.href({ filing: f })}
               onPrepared={(s) => navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })}
             />
           )}

@@ -10,8 +10,3 @@ export const snapshotEventLabels: Record<SnapshotEvent["action"], string> = {
   filed: "Filed with the supervisor",
   restated: "Input day restated",
 };
-
-/** The first twelve hex digits: enough to tell two hashes apart at a glance (the whole one is in the title). */
-export function shortHash(hash: string): string {
-  return hash.length > 12 ? `${hash.slice(0, 12)}…` : hash;
-}

@@ -8,10 +8,14 @@ import {
   type Snapshot,
   type SnapshotActionBody,
 } from "@shared/schemas/snapshot";
+import { filingSchema } from "@shared/schemas/filing";
 import { api, isApiError, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
 
 const base = (id: number) => `/api/snapshots/${id}`;
+
+/** The snapshot's pack as the server renders it now; a plain link downloads it with the session cookie (a draft's says it is not signed off). */
+export const snapshotPackHref = (id: number) => `${base(id)}/pack.pdf`;
 
 /** Every key of the quarter snapshots, from the broadest to one snapshot's hash check. */
 export const snapshotKeys = {
@@ -119,6 +123,22 @@ export function useReturnSnapshot(id: number) {
   return useMutation({
     mutationFn: (body: ReturnSnapshotBody) => api.post(`${base(id)}/return`, body, snapshotSchema),
     onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}
+
+/**
+ * The CRO files an approved snapshot: the server e-mails its pack to the entity's supervisor
+ * contacts, keeps it, and the snapshot becomes filed. The answer is the filing; the snapshot, the
+ * filings list and the capital history's status all go stale, and the shared "every figure" rule
+ * covers them all ("snapshots", "filings", "capital" are none of them "auth").
+ */
+export function useFileSnapshot(id: number) {
+  const queryClient = useQueryClient();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: () => api.post(`${base(id)}/filings`, {}, filingSchema),
+    onSuccess: () => queryClient.invalidateQueries(everyFigure),
     onError: (error) => reread(error),
   });
 }

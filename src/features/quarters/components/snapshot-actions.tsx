@@ -6,10 +6,9 @@ import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextareaField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { formatDateTime } from "@/lib/format";
+import { formatDateTime, shortHash } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { isChangedMeanwhile, useApproveSnapshot, usePrepareSnapshot, useReturnSnapshot, useSubmitSnapshot } from "../api/snapshot-queries";
-import { shortHash } from "../words";
 
 const sameUser = (a: string | null, b: string) => a !== null && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -260,6 +259,7 @@ function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
       return (
         <>
           Approved by {snapshot.approvedBy ?? "—"} on {formatDateTime(snapshot.approvedAt)}. The figures are sealed and no longer change.
+          {role === "cro" && " Read the pack, then file it with the supervisor below."}
         </>
       );
     case "filed":

@@ -5,6 +5,7 @@ import { formatDateTime, plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { SnapshotActions } from "./snapshot-actions";
 import { SnapshotFigures } from "./snapshot-figures";
+import { SnapshotFiling, type FilingLookup } from "./snapshot-filing";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
 
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
@@ -27,13 +28,15 @@ function OpenFindingsNotice({ count, quarter, findingsHref }: { count: number; q
   );
 }
 
-/** One quarter's snapshot: where it stands, the frozen figures, what this reader can do, and its seal and history. */
+/** One quarter's snapshot: where it stands, the frozen figures, what this reader can do, its pack and filing, and its seal and history. */
 export function SnapshotDetail({
   snapshot,
   role,
   userEmail,
   findingsHref,
   onPrepared,
+  filing,
+  filingHref,
   updating,
 }: {
   snapshot: Snapshot;
@@ -41,6 +44,9 @@ export function SnapshotDetail({
   userEmail: string;
   findingsHref: string;
   onPrepared: (s: Snapshot) => void;
+  /** A filed snapshot's filing, looked up by the screen. */
+  filing: FilingLookup;
+  filingHref: (id: number) => string;
   updating?: boolean;
 }) {
   const quarter = quarterLabel(snapshot.quarterEnd);
@@ -69,6 +75,7 @@ export function SnapshotDetail({
       {open && snapshot.openFindings > 0 && <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />}
       <SnapshotFigures snapshot={snapshot} />
       <SnapshotActions key={snapshot.id} snapshot={snapshot} role={role} userEmail={userEmail} findingsHref={findingsHref} onPrepared={onPrepared} />
+      <SnapshotFiling key={`filing-${snapshot.id}`} snapshot={snapshot} role={role} lookup={filing} filingHref={filingHref} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <SnapshotRecord snapshot={snapshot} />
         <SnapshotHistory snapshot={snapshot} />

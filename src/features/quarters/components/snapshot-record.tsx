@@ -3,21 +3,13 @@ import { useQuery } from "@tanstack/react-query";
 import type { Snapshot } from "@shared/schemas/snapshot";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
+import { Hash } from "@/components/ui/hash";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 import { snapshotQueries } from "../api/snapshot-queries";
-import { shortHash, snapshotEventLabels } from "../words";
-
-function Hash({ value, empty }: { value: string | null; empty: string }) {
-  if (!value) return <span className="text-ink-muted">{empty}</span>;
-  return (
-    <code className="text-xs" title={value}>
-      {shortHash(value)}
-    </code>
-  );
-}
+import { snapshotEventLabels } from "../words";
 
 /** Asks the server to check the snapshot's hash chain again; shows what it found, in its words. */
 function VerifyHash({ snapshot }: { snapshot: Snapshot }) {

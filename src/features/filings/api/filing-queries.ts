@@ -1,0 +1,49 @@
+import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { filingListSchema, filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
+import { api, isApiError } from "@/lib/api-client";
+
+const base = (id: number) => `/api/filings/${id}`;
+
+/** The pack exactly as it was sent; a plain link downloads it with the session cookie. */
+export const filingPackHref = (id: number) => `${base(id)}/pack.pdf`;
+
+/**
+ * Every key of the filings, from the broadest to one filing's check. They start with "filings", so
+ * the shared "every figure" rule (lib/query-scope: all but "auth") refreshes them after a filing.
+ */
+export const filingKeys = {
+  all: () => ["filings"] as const,
+  list: () => [...filingKeys.all(), "list"] as const,
+  verify: (id: number) => [...filingKeys.all(), "verify", id] as const,
+};
+
+export const filingQueries = {
+  /** Newest first; a regulator receives only the entities assigned to them. */
+  list: () =>
+    queryOptions({
+      queryKey: filingKeys.list(),
+      queryFn: () => api.get("/api/filings", filingListSchema),
+    }),
+  /** The server hashes the kept pack and checks its snapshot's chain each time it is asked; a cached answer would prove nothing. */
+  verify: (id: number) =>
+    queryOptions({
+      queryKey: filingKeys.verify(id),
+      queryFn: () => api.get(`${base(id)}/verify`, filingVerifySchema),
+      staleTime: 0,
+      gcTime: 0,
+    }),
+};
+
+/** The supervisor confirms receipt; the answer carries who and when (asking twice changes nothing). */
+export function useAcknowledgeFiling(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post(`${base(id)}/acknowledge`, {}, filingSchema),
+    onSuccess: (filing) => {
+      queryClient.setQueryData(filingKeys.list(), (list: Filing[] | undefined) => list?.map((f) => (f.id === filing.id ? filing : f)));
+      return queryClient.invalidateQueries({ queryKey: filingKeys.list() });
+    },
+    // A filing no longer visible (the assignment was withdrawn) is news about the list: read it again.
+    onError: (error) => (isApiError(error) && error.status === 404 ? queryClient.invalidateQueries({ queryKey: filingKeys.list() }) : undefined),
+  });
+}

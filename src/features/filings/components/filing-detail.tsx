@@ -1,0 +1,52 @@
+import type { Filing } from "@shared/schemas/filing";
+import type { Role } from "@shared/schemas/common";
+import { quarterLabel, quarterStart } from "@shared/schemas/snapshot";
+import { Figure } from "@/components/ui/figure";
+import { Hash } from "@/components/ui/hash";
+import { ZoneBadge } from "@/components/ui/zone-badge";
+import { formatDateTime, formatFactor } from "@/lib/format";
+import { filingPackHref } from "../api/filing-queries";
+import { AcknowledgeReceipt } from "./acknowledge-receipt";
+import { HeldFileCheck } from "./held-file-check";
+import { ServerCopyCheck } from "./server-copy-check";
+
+/** One filing: what was sent to whom, the pack and its SHA-256, the checks, and the receipt. */
+export function FilingDetail({ filing, role, regime }: { filing: Filing; role: Role; regime?: string }) {
+  const quarter = quarterLabel(filing.quarterEnd);
+  return (
+    <section aria-labelledby="filing-title" className="flex flex-col gap-5 border-t border-rule pt-4">
+      <header className="flex flex-col gap-0.5">
+        <h2 id="filing-title">
+          {filing.entity} {quarter} <span className="font-normal text-ink-muted">· {filing.entityName}</span>
+        </h2>
+        <p className="text-sm text-ink-soft">
+          Quarter <span className="figures">{quarterStart(filing.quarterEnd)}</span> to <span className="figures">{filing.quarterEnd}</span> · sent by{" "}
+          {filing.sentBy} on <span className="figures">{formatDateTime(filing.sentAt)}</span> to {filing.recipients.join(", ")}
+        </p>
+      </header>
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-3 border-y border-rule py-3 sm:grid-cols-4">
+        <Figure label="Traffic-light zone">
+          <ZoneBadge zone={filing.zone} regime={regime} className="text-sm" />
+        </Figure>
+        <Figure label="Counted exceptions">{filing.counted}</Figure>
+        <Figure label="Multiplier">{formatFactor(filing.multiplier)}</Figure>
+        <Figure label="Pack SHA-256" hint="of the PDF exactly as sent">
+          <span data-testid="filing-sha256">
+            <Hash value={filing.sha256} />
+          </span>
+        </Figure>
+      </dl>
+      <p className="flex flex-wrap items-baseline gap-x-3 text-sm">
+        <a href={filingPackHref(filing.id)} download={filing.fileName} className="font-medium">
+          Download the pack (PDF)
+        </a>
+        <span className="figures text-xs text-ink-muted">{filing.fileName}, byte for byte as it was sent</span>
+      </p>
+      <div className="grid gap-6 lg:grid-cols-3">
+        <AcknowledgeReceipt filing={filing} role={role} />
+        <ServerCopyCheck key={`server-${filing.id}`} filing={filing} />
+        <HeldFileCheck key={`held-${filing.id}`} filing={filing} />
+      </div>
+    </section>
+  );
+}

@@ -1,0 +1,98 @@
+import type { ReactNode } from "react";
+import { Link } from "react-router-dom";
+import type { Filing } from "@shared/schemas/filing";
+import { quarterLabel } from "@shared/schemas/snapshot";
+import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { ZoneBadge } from "@/components/ui/zone-badge";
+import { cn } from "@/lib/cn";
+import { formatDateTime, formatFactor } from "@/lib/format";
+
+/** The packs sent, newest first, with the figures each one carried; a row opens its filing. */
+export function FilingListTable({
+  filings,
+  selectedId,
+  filingHref,
+  onOpen,
+  regimeOf,
+  empty,
+}: {
+  filings: Filing[];
+  selectedId?: number;
+  filingHref: (id: number) => string;
+  onOpen: (id: number) => void;
+  /** The entity's rule set, so an FRTB zone reads amber. */
+  regimeOf: (entity: string) => string | undefined;
+  empty: { title: string; next: ReactNode };
+}) {
+  if (filings.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
+  return (
+    <Table caption="Filed packs, newest first">
+      <thead>
+        <tr>
+          <Th>Entity</Th>
+          <Th>Quarter</Th>
+          <Th>Zone</Th>
+          <Th numeric>Counted exceptions</Th>
+          <Th numeric>Multiplier</Th>
+          <Th>Sent</Th>
+          <Th>Recipients</Th>
+          <Th>Acknowledged</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {filings.map((f) => {
+          const selected = f.id === selectedId;
+          const quarter = quarterLabel(f.quarterEnd);
+          return (
+            <Tr
+              key={f.id}
+              aria-current={selected ? "true" : undefined}
+              onClick={(e) => {
+                if ((e.target as HTMLElement).closest("a")) return;
+                onOpen(f.id);
+              }}
+              className={cn("cursor-pointer", selected && "bg-accent-soft/70 hover:bg-accent-soft")}
+            >
+              <Td className="whitespace-nowrap">
+                <span className="figures font-medium">{f.entity}</span>
+                <span className="block text-2xs text-ink-muted">{f.entityName}</span>
+              </Td>
+              <Td className="whitespace-nowrap">
+                <Link to={filingHref(f.id)} aria-label={`Open ${f.entity} ${quarter}`} className="font-medium">
+                  {quarter}
+                </Link>
+                <span className="figures block text-2xs text-ink-muted">{f.quarterEnd}</span>
+              </Td>
+              <Td>
+                <ZoneBadge zone={f.zone} regime={regimeOf(f.entity)} />
+              </Td>
+              <Td numeric>{f.counted}</Td>
+              <Td numeric>{formatFactor(f.multiplier)}</Td>
+              <Td className="whitespace-nowrap">
+                <span className="figures">{formatDateTime(f.sentAt)}</span>
+                <span className="block text-2xs text-ink-muted">{f.sentBy}</span>
+              </Td>
+              <Td className="text-xs">
+                <ul>
+                  {f.recipients.map((r) => (
+                    <li key={r}>{r}</li>
+                  ))}
+                </ul>
+              </Td>
+              <Td className="whitespace-nowrap">
+                {f.acknowledgedAt ? (
+                  <>
+                    <span className="figures">{formatDateTime(f.acknowledgedAt)}</span>
+                    <span className="block text-2xs text-ink-muted">{f.acknowledgedBy}</span>
+                  </>
+                ) : (
+                  <span className="font-medium">Waiting</span>
+                )}
+              </Td>
+            </Tr>
+          );
+        })}
+      </tbody>
+    </Table>
+  );
+}

@@ -1,0 +1,89 @@
+import { useId, useState } from "react";
+import type { Filing } from "@shared/schemas/filing";
+import { FormMessage } from "@/components/ui/field";
+import { Hash } from "@/components/ui/hash";
+import { cn } from "@/lib/cn";
+import { canHashFiles, sameSha256, sha256OfFile } from "../sha256-of-file";
+
+type Outcome = { name: string; sha256: string } | { name: string; failed: true };
+
+/** The reader picks the PDF they hold; the browser hashes it and compares it with the filing's SHA-256. Nothing is uploaded. */
+export function HeldFileCheck({ filing }: { filing: Filing }) {
+  const inputId = useId();
+  const hintId = useId();
+  const [outcome, setOutcome] = useState<Outcome>();
+  const [busy, setBusy] = useState(false);
+  const available = canHashFiles();
+
+  async function check(file: File) {
+    setBusy(true);
+    setOutcome(undefined);
+    try {
+      setOutcome({ name: file.name, sha256: await sha256OfFile(file) });
+    } catch {
+      setOutcome({ name: file.name, failed: true });
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const matches = outcome && "sha256" in outcome ? sameSha256(outcome.sha256, filing.sha256) : undefined;
+  return (
+    <div className="flex flex-col gap-2">
+      <h4 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">A file you hold</h4>
+      {!available ? (
+        <p className="text-sm text-ink-muted">This browser computes no SHA-256 on a page served without HTTPS; compare the file's hash by hand with the one above.</p>
+      ) : (
+        <>
+          <div className="flex flex-wrap items-center gap-3">
+            <input
+              id={inputId}
+              type="file"
+              accept=".pdf,application/pdf"
+              className="peer sr-only"
+              disabled={busy}
+              aria-describedby={hintId}
+              onChange={(e) => {
+                const f = e.target.files?.[0];
+                e.target.value = ""; // the same file chosen again must check again
+                if (f) void check(f);
+              }}
+            />
+            <label
+              htmlFor={inputId}
+              className={cn(
+                "inline-flex h-7 cursor-pointer items-center rounded-sm border border-rule-strong bg-paper-raised px-2.5 text-sm font-medium text-ink hover:border-ink-muted",
+                "peer-focus-visible:outline-2 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-accent",
+                "peer-disabled:cursor-not-allowed peer-disabled:opacity-55",
+              )}
+            >
+              Check a file you hold
+            </label>
+            <span id={hintId} className="text-xs text-ink-muted">
+              Choose the PDF you received: your browser computes its SHA-256 and compares it with the filing's. The file is not uploaded.
+            </span>
+          </div>
+          <div aria-live="polite">
+            {busy && <p className="text-sm text-ink-muted">Computing the file's SHA-256…</p>}
+            {outcome && "failed" in outcome && <FormMessage>{outcome.name} could not be read to compute its SHA-256. Choose the file again.</FormMessage>}
+            {outcome && "sha256" in outcome && (
+              <div
+                role="status"
+                aria-label="File check"
+                className={cn("border-l-2 px-3 py-1.5 text-sm", matches ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
+              >
+                <p className="font-semibold">
+                  {matches ? `Match: ${outcome.name} is the pack as it was sent.` : `No match: ${outcome.name} is not the pack as it was sent.`}
+                </p>
+                <p className="text-ink-soft">
+                  Its SHA-256 <Hash value={outcome.sha256} />
+                  {matches ? " equals the filing's." : <> differs from the filing's <Hash value={filing.sha256} />: ask the bank for the file again.</>}
+                </p>
+              </div>
+            )}
+          </div>
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,37 @@
+import { useState } from "react";
+import { useQuery } from "@tanstack/react-query";
+import type { Filing } from "@shared/schemas/filing";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/ui/field";
+import { isApiError } from "@/lib/api-client";
+import { cn } from "@/lib/cn";
+import { filingQueries } from "../api/filing-queries";
+
+/** Asks the server to hash the pack it kept and check the snapshot behind it; shows what it found, in its words. */
+export function ServerCopyCheck({ filing }: { filing: Filing }) {
+  const [asked, setAsked] = useState(false);
+  const verify = useQuery({ ...filingQueries.verify(filing.id), enabled: asked });
+  const result = verify.data;
+  return (
+    <div className="flex flex-col gap-2">
+      <h4 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">The server's copy</h4>
+      <div className="flex flex-wrap items-center gap-3">
+        <Button variant="secondary" size="sm" disabled={verify.isFetching} onClick={() => (asked ? void verify.refetch() : setAsked(true))}>
+          {verify.isFetching ? "Checking…" : result ? "Check again" : "Check the server's copy"}
+        </Button>
+        <span className="text-xs text-ink-muted">Hashes the pack kept at filing and checks the seal of the quarter it came from.</span>
+      </div>
+      {verify.error && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The server's copy could not be checked."}</FormMessage>}
+      {result && !verify.isFetching && (
+        <div
+          role="status"
+          aria-label="Server copy check"
+          className={cn("border-l-2 px-3 py-1.5 text-sm", result.valid ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
+        >
+          <p className="font-semibold">{result.valid ? "Valid: the kept pack is the file that was sent." : "Invalid: the kept pack or its quarter does not check out."}</p>
+          <p className={cn(result.valid ? "text-ink-soft" : "text-ink")}>{result.detail}</p>
+        </div>
+      )}
+    </div>
+  );
+}

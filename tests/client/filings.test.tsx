@@ -1,0 +1,209 @@
+import { createHash } from "node:crypto";
+import { screen, within } from "@testing-library/react";
+import userEvent from "@testing-library/user-event";
+import { filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
+import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
+import { renderApp } from "./support/render-app";
+
+// Display fixtures: the screen must show what the server sent, unchanged. The SHA-256 of a held
+// file is computed by the browser's Web Crypto and checked here against Node's own hash of the same bytes.
+
+const entities = [
+  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  { code: "LKS-UK", name: "Larkspur Bank plc", regime: "frtb", pnlBasis: "hypothetical", currency: "GBP", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+];
+
+/** The bytes of the pack as the bank sent it (a stand-in: only its hash matters to the check). */
+const SENT_PACK = "%PDF-1.7\nLarkspur Markets SA, Q3 2026 backtesting pack\n%%EOF\n";
+const sha256Hex = (text: string) => createHash("sha256").update(text).digest("hex");
+
+/** A filing as the server sends it; parsed with the shared schema so a change of contract fails here. */
+function filing(over: Partial<Filing> = {}): Filing {
+  return filingSchema.parse({
+    id: 31,
+    snapshotId: 12,
+    entity: "LKS-EU",
+    entityName: "Larkspur Markets SA",
+    quarterEnd: "2026-09-30",
+    zone: "yellow",
+    counted: 6,
+    multiplier: 3.5,
+    fileName: "LKS-EU-2026-09-30-pack.pdf",
+    sha256: sha256Hex(SENT_PACK),
+    recipients: ["backtesting@supervisor.test", "desk-officer@supervisor.test"],
+    messageId: "<31.pack@quartermark.test>",
+    sentBy: "cro@larkspur.test",
+    sentAt: "2026-10-08T14:30:00.000Z",
+    acknowledgedBy: null,
+    acknowledgedAt: null,
+    ...over,
+  });
+}
+
+const older = () =>
+  filing({
+    id: 27,
+    snapshotId: 9,
+    entity: "LKS-UK",
+    entityName: "Larkspur Bank plc",
+    quarterEnd: "2026-06-30",
+    zone: "yellow",
+    counted: 7,
+    multiplier: 3.65,
+    fileName: "LKS-UK-2026-06-30-pack.pdf",
+    sha256: "7d3f9a0b1c2e4d5f60718293a4b5c6d7e8f90a1b2c3d4e5f60718293a4b5c6d7",
+    recipients: ["frtb-models@supervisor.test"],
+    sentAt: "2026-07-09T09:00:00.000Z",
+    acknowledgedBy: "regulator@larkspur.test",
+    acknowledgedAt: "2026-07-10T08:15:00.000Z",
+  });
+
+function filingRoutes(role: "analyst" | "cro" | "regulator", store: Filing[], extra: Record<string, Reply | ((c: Call) => Reply)> = {}) {
+  return {
+    "GET /api/auth/session": signedInAs(role),
+    "GET /api/entities": { status: 200, body: entities },
+    "GET /api/filings": () => ({ status: 200, body: store }),
+    ...extra,
+  };
+}
+
+describe("Filings › the regulator", () => {
+  it("when a regulator opens Filings, then their packs are listed with where they stand, and acknowledging one records who and when", async () => {
+    const store = [filing(), older()];
+    const api = fakeApi(
+      filingRoutes("regulator", store, {
+        "POST /api/filings/31/acknowledge": (c) => {
+          expect(c.body).toEqual({});
+          store[0] = filing({ acknowledgedBy: "regulator@larkspur.test", acknowledgedAt: "2026-10-09T07:45:00.000Z" });
+          return { status: 200, body: store[0] };
+        },
+      }),
+    );
+    const user = userEvent.setup();
+    renderApp("/");
+
+    await user.click(within(await screen.findByRole("navigation", { name: "Main" })).getByRole("link", { name: "Filings" }));
+
+    expect(await screen.findByLabelText("Where the filings stand")).toBeInTheDocument();
+    expect(screen.getByTestId("filings-count")).toHaveTextContent("2 packs");
+    expect(screen.getByTestId("filings-waiting")).toHaveTextContent("1 pack");
+
+    const table = screen.getByRole("table", { name: "Filed packs, newest first" });
+    const eu = within(table).getByRole("link", { name: "Open LKS-EU Q3 2026" }).closest("tr")!;
+    for (const text of ["LKS-EU", "Larkspur Markets SA", "2026-09-30", "Yellow", "6", "3.50", "08 Oct 2026, 14:30 UTC", "cro@larkspur.test", "backtesting@supervisor.test", "desk-officer@supervisor.test", "Waiting"]) {
+      expect(within(eu).getByText(text)).toBeInTheDocument();
+    }
+    const uk = within(table).getByRole("link", { name: "Open LKS-UK Q2 2026" }).closest("tr")!;
+    expect(within(uk).getByText("Amber")).toBeInTheDocument();
+    expect(within(uk).getByText("10 Jul 2026, 08:15 UTC")).toBeInTheDocument();
+    expect(within(uk).getByText("regulator@larkspur.test")).toBeInTheDocument();
+
+    const detail = screen.getByRole("region", { name: "LKS-EU Q3 2026 · Larkspur Markets SA" });
+    const download = within(detail).getByRole("link", { name: "Download the pack (PDF)" });
+    expect(download).toHaveAttribute("href", "/api/filings/31/pack.pdf");
+    expect(download).toHaveAttribute("download", "LKS-EU-2026-09-30-pack.pdf");
+    const hash = within(within(detail).getByTestId("filing-sha256")).getByText(`${sha256Hex(SENT_PACK).slice(0, 12)}…`);
+    expect(hash).toHaveAttribute("title", sha256Hex(SENT_PACK));
+
+    await user.click(within(detail).getByRole("button", { name: "Acknowledge receipt" }));
+
+    expect(api.callsTo("POST", "/api/filings/31/acknowledge")).toHaveLength(1);
+    expect(await within(detail).findByText("You acknowledged receipt of LKS-EU's pack for Q3 2026.")).toBeInTheDocument();
+    expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent("Acknowledged by regulator@larkspur.test on 09 Oct 2026, 07:45 UTC.");
+    expect(within(detail).queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
+    expect(screen.getByTestId("filings-waiting")).toHaveTextContent("None");
+    expect(within(eu).getByText("09 Oct 2026, 07:45 UTC")).toBeInTheDocument();
+  });
+
+  it("when the regulator checks a file they hold, then the browser hashes it and says match or no match, and nothing is uploaded", async () => {
+    const api = fakeApi(filingRoutes("regulator", [filing()]));
+    const user = userEvent.setup();
+    renderApp("/filings");
+
+    const input = await screen.findByLabelText("Check a file you hold");
+    await user.upload(input, new File([SENT_PACK], "pack-as-received.pdf", { type: "application/pdf" }));
+
+    const match = await screen.findByRole("status", { name: "File check" });
+    expect(match).toHaveTextContent("Match: pack-as-received.pdf is the pack as it was sent.");
+    expect(within(match).getByText(`${sha256Hex(SENT_PACK).slice(0, 12)}…`)).toHaveAttribute("title", sha256Hex(SENT_PACK));
+
+    const altered = SENT_PACK.replace("Q3 2026", "Q3 2O26");
+    await user.upload(input, new File([altered], "pack-from-a-forward.pdf", { type: "application/pdf" }));
+
+    const noMatch = await screen.findByText("No match: pack-from-a-forward.pdf is not the pack as it was sent.");
+    const check = noMatch.closest("[role='status']")!;
+    expect(within(check as HTMLElement).getByText(`${sha256Hex(altered).slice(0, 12)}…`)).toHaveAttribute("title", sha256Hex(altered));
+    expect(check).toHaveTextContent("ask the bank for the file again");
+    expect(api.calls.filter((c) => c.method !== "GET")).toHaveLength(0);
+  });
+
+  it("when the reader checks the server's copy, then its answer shows valid or invalid with the detail, asked afresh each time", async () => {
+    const checks = [
+      filingVerifySchema.parse({
+        valid: true,
+        sha256: filing().sha256,
+        snapshotHash: "ab12cd34ef5678901234567890abcdef1234567890abcdef1234567890abcdef",
+        detail: "The pack is the file that was sent, and its snapshot verifies: the hash matches the stored figures.",
+      }),
+      filingVerifySchema.parse({
+        valid: false,
+        sha256: filing().sha256,
+        snapshotHash: "ab12cd34ef5678901234567890abcdef1234567890abcdef1234567890abcdef",
+        detail: "The kept pack no longer has the sha256 that was sent (it gives 0123456789ab…).",
+      }),
+    ];
+    const api = fakeApi(filingRoutes("regulator", [filing()], { "GET /api/filings/31/verify": () => ({ status: 200, body: checks.shift() }) }));
+    const user = userEvent.setup();
+    renderApp("/filings?filing=31");
+
+    await user.click(await screen.findByRole("button", { name: "Check the server's copy" }));
+    const result = await screen.findByRole("status", { name: "Server copy check" });
+    expect(result).toHaveTextContent("Valid: the kept pack is the file that was sent.");
+    expect(result).toHaveTextContent("its snapshot verifies");
+
+    await user.click(screen.getByRole("button", { name: "Check again" }));
+    expect(await screen.findByText("Invalid: the kept pack or its quarter does not check out.")).toBeInTheDocument();
+    expect(screen.getByRole("status", { name: "Server copy check" })).toHaveTextContent("no longer has the sha256 that was sent");
+    expect(api.callsTo("GET", "/api/filings/31/verify")).toHaveLength(2);
+  });
+
+  it("when a regulator has no filings yet, then the screen says what will appear", async () => {
+    fakeApi(filingRoutes("regulator", []));
+    renderApp("/filings");
+    expect(await screen.findByText("No packs have been filed with you yet")).toBeInTheDocument();
+    expect(screen.getByTestId("filings-count")).toHaveTextContent("0 packs");
+  });
+});
+
+describe("Filings › the reporting office reads", () => {
+  it.each(["analyst", "cro"] as const)("when the %s opens Filings, then the list, download and checks show, but no acknowledgement is offered", async (role) => {
+    fakeApi(filingRoutes(role, [filing(), older()]));
+    const user = userEvent.setup();
+    const { router } = renderApp("/filings");
+
+    const table = await screen.findByRole("table", { name: "Filed packs, newest first" });
+    expect(screen.getByTestId("filing-acknowledged")).toHaveTextContent("Not acknowledged yet");
+    expect(screen.queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: /File with the supervisor/ })).not.toBeInTheDocument();
+    expect(screen.getByRole("button", { name: "Check the server's copy" })).toBeInTheDocument();
+    expect(screen.getByLabelText("Check a file you hold")).toBeInTheDocument();
+
+    await user.click(within(table).getByRole("link", { name: "Open LKS-UK Q2 2026" }));
+    expect(router.state.location.search).toBe("?filing=27");
+    const detail = await screen.findByRole("region", { name: "LKS-UK Q2 2026 · Larkspur Bank plc" });
+    expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent("Acknowledged by regulator@larkspur.test on 10 Jul 2026, 08:15 UTC.");
+    expect(within(detail).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/filings/27/pack.pdf");
+  });
+
+  it.each([
+    ["an administrator", "admin"],
+    ["treasury", "treasury"],
+  ] as const)("when %s opens Filings, then it is refused, not linked, and no filing is asked for", async (_who, role) => {
+    const api = fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: entities } });
+    renderApp("/filings");
+
+    expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
+    expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Filings" })).not.toBeInTheDocument();
+    expect(api.calls.filter((c) => c.path.startsWith("/api/filings"))).toHaveLength(0);
+  });
+});

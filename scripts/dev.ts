@@ -13,13 +13,14 @@ async function main() {
   const { config } = await import("../server/config");
   const db = await startPrivateDb(config.db.port);
   await ensureDatabase(db, config.db.name, creds);
+  // The mail sink first: the demo seed files past quarters with the supervisor by e-mail.
+  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
   const { migrateUp } = await import("../server/db/migrator");
   const { seedDemo } = await import("../server/db/seeder");
   await migrateUp();
   await seedDemo();
   const { sequelize } = await import("../server/db/sequelize");
   await sequelize.close();
-  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
 
   const bin = (name: string) => path.join(projectRoot, "node_modules", ".bin", name);
   const children: ChildProcess[] = [

@@ -114,7 +114,8 @@ export function isWriteConflict(err: unknown): boolean {
   const chain = [err, (err as { parent?: unknown })?.parent, (err as { original?: unknown })?.original];
   return chain.some((e) => {
     const x = e as { errno?: number; code?: string } | undefined;
-    return !!x && (x.errno === 1213 || x.errno === 1205 || x.code === "ER_LOCK_DEADLOCK" || x.code === "ER_LOCK_WAIT_TIMEOUT");
+    // 1062: a duplicate key from a raw driver query (bulk writes), which Sequelize has not wrapped.
+    return !!x && (x.errno === 1213 || x.errno === 1205 || x.errno === 1062 || x.code === "ER_LOCK_DEADLOCK" || x.code === "ER_LOCK_WAIT_TIMEOUT" || x.code === "ER_DUP_ENTRY");
   });
 }
 

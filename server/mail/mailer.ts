@@ -16,7 +16,17 @@ export class MailNotSentError extends AppError {
   }
 }
 
-const transport = nodemailer.createTransport({ host: "127.0.0.1", port: config.smtpPort, secure: false, ignoreTLS: true });
+// Short timeouts: a filing holds its snapshot locked while the message is handed over, so a mail
+// server that does not answer must fail the filing in seconds, not minutes (nodemailer's defaults).
+const transport = nodemailer.createTransport({
+  host: "127.0.0.1",
+  port: config.smtpPort,
+  secure: false,
+  ignoreTLS: true,
+  connectionTimeout: 5_000,
+  greetingTimeout: 5_000,
+  socketTimeout: 20_000,
+});
 
 /** Sends one message over SMTP (in development and tests, the local sink) and returns its Message-ID. */
 export async function sendMail(mail: OutgoingMail): Promise<string> {

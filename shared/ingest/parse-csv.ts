@@ -1,5 +1,6 @@
 import Papa from "papaparse";
 import {
+  AMOUNT_PATTERN,
   CELL_PATTERNS,
   ALL_COLUMNS,
   AMOUNT_COLUMNS,
@@ -85,7 +86,8 @@ function describeCell(column: string, raw: string): string {
   if (/^-?[\d,]+(\.\d+)?$/.test(s) && s.includes(",")) return `"${s}" uses a thousands separator; write it without commas`;
   if (/^-?(nan|inf(inity)?)$/i.test(s)) return `"${s}" is not a number`;
   if (/e/i.test(s) && !Number.isNaN(Number(s))) return `"${s}" is written with an exponent; write the plain amount`;
-  if (/^\s|\s$/.test(raw) && /^(-?\d{1,17}(\.\d{1,8})?)?$/.test(s)) return `"${raw}" has spaces around the amount`;
+  if (/^\s|\s$/.test(raw) && AMOUNT_PATTERN.test(s)) return `"${raw}" has spaces around the amount`;
+  if (/^-?\d{14,}(\.\d+)?$/.test(s)) return `"${s.slice(0, 30)}" has more than 13 digits before the decimal point`;
   return `"${s.slice(0, 30)}" is not a plain decimal amount (digits, optional minus, dot for decimals)`;
 }
 const WEEKDAYS = ["Sunday", "Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday"];
@@ -132,8 +134,8 @@ const isDigit = (ch: number) => ch >= 48 && ch <= 57;
 const isLetter = (ch: number) => (ch >= 65 && ch <= 90) || (ch >= 97 && ch <= 122);
 const isCodeChar = (ch: number) => isDigit(ch) || isLetter(ch) || ch === 95 || ch === MINUS;
 
-/** Amounts are stored to the cent, DECIMAL(20,2). */
-const toCents = (value: number) => Math.round(value * 100) / 100;
+/** Amounts are stored to the cent, DECIMAL(20,2); a half cent rounds away from zero on both sides. */
+const toCents = (value: number) => (value < 0 ? -Math.round(-value * 100) : Math.round(value * 100)) / 100;
 
 /**
  * The checks every data line goes through, and the rows and problems they produce. A line is
@@ -318,8 +320,8 @@ class LineChecks {
 
 /**
  * A plain amount cell read in place: NaN when empty (not reported), undefined when it does not
- * match AMOUNT_PATTERN. Up to 13 whole digits and 2 decimals it is worked out in whole cents,
- * which is exactly toCents(Number(cell)) (tests/shared/ingest check the two agree).
+ * match AMOUNT_PATTERN. With 2 decimals or fewer it is worked out in whole cents, which is
+ * exactly toCents(Number(cell)) (tests/shared/ingest check the two agree).
  */
 function plainAmount(text: string, start: number, end: number): number | undefined {
   if (start === end) return Number.NaN;
@@ -333,7 +335,7 @@ function plainAmount(text: string, start: number, end: number): number | undefin
     wholeDigits++;
     at++;
   }
-  if (wholeDigits < 1 || wholeDigits > 17) return undefined;
+  if (wholeDigits < 1 || wholeDigits > 13) return undefined;
   let cents = 0;
   let decimals = 0;
   if (at < end) {
@@ -346,7 +348,7 @@ function plainAmount(text: string, start: number, end: number): number | undefin
     }
     if (at !== end || decimals < 1 || decimals > 8) return undefined;
   }
-  if (wholeDigits > 13 || decimals > 2) return toCents(Number(text.slice(start, end)));
+  if (decimals > 2) return toCents(Number(text.slice(start, end)));
   const total = whole * 100 + (decimals === 1 ? cents * 10 : cents);
   return (negative ? -total : total) / 100;
 }

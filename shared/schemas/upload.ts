@@ -16,8 +16,12 @@ export const UPLOAD_MAX_LABEL = "16 MB";
 /** Risk measures must be positive; P&L may have any sign; SES may be zero. */
 export const POSITIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set(["var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975"]);
 
-/** A plain decimal with a dot and an optional minus (no exponent, no thousands separator, no NaN), or empty. */
-export const AMOUNT_PATTERN = /^(-?\d{1,17}(\.\d{1,8})?)?$/;
+/**
+ * A plain decimal with a dot and an optional minus (no exponent, no thousands separator, no NaN),
+ * or empty. At most 13 whole digits (under ten trillion): with the cents that is 15 significant
+ * digits, which a double holds exactly, so what is stored is what the file said.
+ */
+export const AMOUNT_PATTERN = /^(-?\d{1,13}(\.\d{1,8})?)?$/;
 const PORTFOLIO_CELL_PATTERN = /^\s*[A-Za-z0-9][A-Za-z0-9_-]{0,39}\s*$/;
 const DATE_CELL_PATTERN = /^\s*\d{4}-\d{2}-\d{2}\s*$/;
 

@@ -168,6 +168,38 @@ describe("the supervisor's side", () => {
     expect(await AuditEventModel.count({ where: { action: "filing.acknowledge", target: `filing #${filing.id}` } })).toBe(1);
   });
 
+  it("when both the kept pack and its sha256 are replaced, then verify still catches it against the audit log", async () => {
+    const { book, snapshotId } = await approvedBook(`s2-${Date.now()}@bank-supervisor.test`);
+    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    const forged = Buffer.from("%PDF-1.3 forged");
+    await sequelize.query("UPDATE filings SET pack_pdf = :pdf, pack_sha256 = :sha WHERE id = :id", { replacements: { id: filing.id, pdf: forged, sha: sha256(forged) } });
+    const verify = await request(app).get(`/api/filings/${filing.id}/verify`).set("Cookie", book.croCookie);
+    expect(verify.body).toMatchObject({ valid: false, detail: expect.stringMatching(/differs from the one recorded in the audit log/) });
+  });
+
+  it("when an approved snapshot no longer verifies, then it cannot be filed and nothing is sent", async () => {
+    const supervisor = `s3-${Date.now()}@bank-supervisor.test`;
+    const { book, snapshotId } = await approvedBook(supervisor);
+    await sequelize.query("UPDATE snapshots SET multiplier = 3.00 WHERE id = :id", { replacements: { id: snapshotId } });
+    const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(/does not verify, so it cannot be filed/);
+    expect(mailsTo(supervisor)).toEqual([]);
+    expect(await FilingModel.count({ where: { snapshotId } })).toBe(0);
+  });
+
+  it("when a regulator asks for another entity's filing, then 404 and the attempt is audited", async () => {
+    const { book, snapshotId } = await approvedBook(`s4-${Date.now()}@bank-supervisor.test`);
+    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    const stranger = await createTestUser("regulator");
+    const cookie = await sessionCookieFor(stranger.id);
+    for (const call of [request(app).get(`/api/filings/${filing.id}/verify`), request(app).post(`/api/filings/${filing.id}/acknowledge`).send({})]) {
+      expect((await call.set("Cookie", cookie)).status).toBe(404);
+    }
+    expect(await AuditEventModel.count({ where: { action: "filing.denied", target: `filing #${filing.id}`, actorUserId: stranger.id } })).toBe(2);
+    expect(await FilingModel.findByPk(filing.id)).toMatchObject({ acknowledgedAt: null });
+  });
+
   it("when the kept pack is altered behind the application's back, then verify says it is not the file that was sent", async () => {
     const { book, snapshotId } = await approvedBook(`s-${Date.now()}@bank-supervisor.test`);
     const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;

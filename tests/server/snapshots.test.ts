@@ -77,6 +77,33 @@ describe("the four-eyes sign-off", () => {
     }
   });
 
+  it("when two CROs approve two quarters of one entity at the same moment, then the approvals take turns and the chain stays one line", async () => {
+    const book = await signOffBook();
+    const q3 = await preparedAndSubmitted(book, Q3);
+    const q2 = await preparedAndSubmitted(book, Q2);
+    const otherCro = await sessionCookieFor((await createTestUser("cro")).id);
+    const [a, b] = await Promise.all([
+      request(app).post(`/api/snapshots/${q3.id}/approve`).set("Cookie", book.croCookie).send({}),
+      request(app).post(`/api/snapshots/${q2.id}/approve`).set("Cookie", otherCro).send({}),
+    ]);
+    expect([a.status, b.status]).toEqual([200, 200]);
+    const [first, second] = [a.body, b.body].sort((x, y) => (x.approvedAt < y.approvedAt ? -1 : 1));
+    expect(first.prevHash).toBeNull();
+    expect(second.prevHash).toBe(first.hash);
+    for (const id of [q3.id, q2.id]) {
+      expect((await request(app).get(`/api/snapshots/${id}/verify`).set("Cookie", book.cookie)).body.valid).toBe(true);
+    }
+  });
+
+  it("when the capital figure column is altered behind the application's back, then verify says it is not valid", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+    await sequelize.query("UPDATE snapshots SET capital = capital - 1 WHERE id = :id", { replacements: { id: submitted.id } });
+    const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
+    expect(verify.body).toMatchObject({ valid: false });
+  });
+
   it("when the person who prepared it (now a CRO) tries to approve it, then 403 says four eyes and the snapshot stays submitted", async () => {
     const book = await signOffBook();
     const draft = await prepare(book, Q3, book.analyst2Cookie);

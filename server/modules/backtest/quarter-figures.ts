@@ -22,7 +22,7 @@ export interface QuarterFigures {
 }
 
 /** The values of a day that feed the figures, in a fixed order (for the inputs hash). */
-const dayValues = (o: Observation) => [o.date, o.actualPnl, o.hypotheticalPnl, o.var99, o.var10d, o.svar99, o.svar10d, o.es975, o.ses, o.rtpl];
+const dayValues = (o: Observation) => [o.date, o.actualPnl, o.hypotheticalPnl, o.var99, o.var975, o.svar99, o.var10d, o.svar10d, o.es975, o.ses, o.rtpl];
 
 /**
  * An entity's figures at a quarter end, computed by the engine from the current daily data of its

@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { sequelize } from "../../db/sequelize";
-import { AppError, NotFoundError } from "../../errors";
+import { AppError, ConflictError, NotFoundError } from "../../errors";
+import { AuditEventModel } from "../../models/audit-event";
 import { EntityModel } from "../../models/entity";
 import { FilingModel } from "../../models/filing";
 import { RegulatorAssignmentModel } from "../../models/regulator-assignment";
@@ -55,16 +56,29 @@ async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
   });
 }
 
-/** A filing the actor may see, or 404 (a regulator does not learn that other entities' filings exist). */
+/**
+ * A filing the actor may see, or 404: a regulator does not learn that other entities' filings
+ * exist, and the attempt is in the audit log.
+ */
 async function visibleFiling(id: number, actor: SignedIn, scope?: "withPack"): Promise<FilingModel> {
   const row = scope ? await FilingModel.scope(scope).findByPk(id) : await FilingModel.findByPk(id);
   const allowed = await visibleEntityIds(actor);
   if (row && allowed) {
     const snapshot = await SnapshotModel.findByPk(row.snapshotId, { attributes: ["entityId"] });
-    if (!snapshot || !allowed.includes(snapshot.entityId)) throw new NotFoundError(`No filing #${id}.`);
+    if (!snapshot || !allowed.includes(snapshot.entityId)) {
+      await recordAudit(actor, "filing.denied", `filing #${id}`, { after: { reason: "not assigned to the entity" } });
+      throw new NotFoundError(`No filing #${id}.`);
+    }
   }
   if (!row) throw new NotFoundError(`No filing #${id}.`);
   return row;
+}
+
+/** The sha256 recorded in the audit log when the pack was sent: a second witness beside the filing row. */
+async function sentSha256(snapshotId: number): Promise<string | null> {
+  const event = await AuditEventModel.findOne({ where: { action: "snapshot.file", target: `snapshot #${snapshotId}` }, order: [["id", "DESC"]] });
+  const after = event?.afterJson ? (JSON.parse(event.afterJson) as { sha256?: string }) : null;
+  return after?.sha256 ?? null;
 }
 
 /**
@@ -75,6 +89,9 @@ async function visibleFiling(id: number, actor: SignedIn, scope?: "withPack"): P
 export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise<Filing> {
   const filed = await sequelize.transaction(async (transaction) => {
     const { row, entity, asFiled } = await lockForFiling(snapshotId, transaction);
+    // Only figures that still match their seal go to a supervisor.
+    const seal = await verifySnapshot(snapshotId, actor);
+    if (!seal.valid) throw new ConflictError(`Snapshot #${snapshotId} does not verify, so it cannot be filed: ${seal.detail}`);
     const recipients = entity.supervisorEmails;
     if (recipients.length === 0) {
       throw new AppError(422, "no_supervisor_contacts", `${entity.code} has no supervisor e-mail address; an admin adds one under Admin › Entities before filing.`);
@@ -146,6 +163,10 @@ export async function verifyFiling(id: number, actor: SignedIn): Promise<FilingV
   const row = await visibleFiling(id, actor, "withPack");
   const recomputed = sha256(row.packPdf);
   const chain = await verifySnapshot(row.snapshotId, actor);
+  const witnessed = await sentSha256(row.snapshotId);
+  if (witnessed !== row.packSha256) {
+    return { valid: false, sha256: row.packSha256, snapshotHash: chain.hash, detail: "The filing's sha256 differs from the one recorded in the audit log when the pack was sent." };
+  }
   if (recomputed !== row.packSha256) {
     return { valid: false, sha256: row.packSha256, snapshotHash: chain.hash, detail: `The kept pack no longer has the sha256 that was sent (it gives ${recomputed.slice(0, 12)}…).` };
   }

@@ -111,7 +111,9 @@ export async function queueInsertVersions(writes: PipelinedWrites, rows: readonl
       let amounts = "";
       for (const c of present) {
         const v = r.row[c];
-        amounts += v === null || v === undefined ? ",NULL" : `,${v}`;
+        if (v === null || v === undefined) amounts += ",NULL";
+        else if (Number.isFinite(v)) amounts += `,${v}`;
+        else throw new Error(`refusing to write a non-finite ${c} for ${date}`);
       }
       values += `${i === start ? "" : ","}(${r.portfolioId | 0},'${date}',${r.version | 0},1${amounts}${tail}`;
     }

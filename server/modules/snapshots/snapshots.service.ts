@@ -155,7 +155,8 @@ async function lockSnapshot(id: number, transaction: Transaction, expectedVersio
       current: await toDto(row),
     });
   }
-  const entity = (await EntityModel.findByPk(row.entityId, { transaction }))!;
+  // A locking read: the entity as it is now, not as this transaction's first read saw it.
+  const entity = (await EntityModel.findByPk(row.entityId, { transaction, lock: transaction.LOCK.SHARE }))!;
   return { row, entity };
 }
 
@@ -257,6 +258,15 @@ function hashedContent(row: SnapshotModel, entity: EntityModel) {
     entity: entity.code,
     quarterEnd: row.quarterEnd,
     figures: row.figuresJson,
+    // The headline columns that lists, the capital history and filings read, as stored.
+    zone: row.zone,
+    counted: row.counted,
+    plusFactor: row.plusFactor,
+    multiplier: row.multiplier,
+    capital: row.capital,
+    addOn: row.addOn,
+    windowStart: row.windowStart,
+    asOf: row.asOf,
     inputsSha256: row.inputsSha256,
     engineVersion: row.engineVersion,
     preparedBy: row.preparedBy,
@@ -269,12 +279,16 @@ function hashedContent(row: SnapshotModel, entity: EntityModel) {
 }
 const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
 
-/** The entity's signed-off snapshots in the order they were approved: the hash chain. */
+/**
+ * The entity's signed-off snapshots in the order they were approved: the hash chain. Inside an
+ * approval it is a locking read, so it sees an approval that committed while this one waited.
+ */
 async function chainOf(entityId: number, transaction?: Transaction): Promise<SnapshotModel[]> {
   return SnapshotModel.findAll({
     where: { entityId, hash: { [Op.ne]: null } },
     order: [["approvedAt", "ASC"], ["id", "ASC"]],
     transaction,
+    ...(transaction ? { lock: transaction.LOCK.SHARE } : {}),
   });
 }
 
@@ -285,7 +299,8 @@ async function chainOf(entityId: number, transaction?: Transaction): Promise<Sna
  */
 export async function approveSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
   return sequelize.transaction(async (transaction) => {
-    // Approvals of one entity take turns (the entity row), so its chain never forks.
+    // Approvals of one entity take turns (the entity row); the chain is then read with a locking
+    // read, which sees the approval committed just before, so the chain never forks.
     const peek = await SnapshotModel.findByPk(id, { attributes: ["id", "entityId"], transaction });
     if (!peek) throw new NotFoundError(`No snapshot #${id}.`);
     await holdEntityData(peek.entityId, transaction);
@@ -400,7 +415,9 @@ async function flagSignedOff(
 ): Promise<number> {
   let flagged = 0;
   for (const snapshot of found.snapshots) {
-    const from = snapshot.windowStart ?? snapshot.asOf;
+    // A short window reaches back to the first day there is: a day added before it would join it.
+    const complete = (JSON.parse(snapshot.figuresJson) as SnapshotFigures).window.complete;
+    const from = complete ? (snapshot.windowStart ?? snapshot.asOf) : "0000-01-01";
     const days = changes.filter((k) => k.date >= from && k.date <= snapshot.quarterEnd && found.entityOf.get(k.portfolioId) === snapshot.entityId);
     if (days.length === 0) continue;
     const counts = (Object.keys(CHANGE_WORDS) as Change["kind"][])

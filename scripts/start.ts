@@ -28,7 +28,9 @@ async function main() {
   if ((await runBin("vite", ["build", "--logLevel", "warn"])) !== 0) throw new Error("The client build failed.");
 
   const { createApp } = await import("../server/app");
+  const { startFilingDelivery } = await import("../server/modules/filings/delivery-loop");
   const server = createApp({ serveClient: true }).listen(config.port, "127.0.0.1");
+  startFilingDelivery();
   await new Promise<void>((resolve, reject) => {
     server.once("listening", () => resolve());
     server.once("error", (err: NodeJS.ErrnoException) =>

@@ -24,7 +24,7 @@ export async function up(): Promise<void> {
     const regulators = await RegulatorAssignmentModel.findAll({ where: { entityId: entity.id } });
     const toFile = approved.slice(0, -1);
     for (const [i, snapshot] of toFile.entries()) {
-      const filing = await fileSnapshot(snapshot.id, cro);
+      const { filing } = await fileSnapshot(snapshot.id, cro);
       if (i === toFile.length - 1) continue;
       for (const assignment of regulators.slice(0, 1)) {
         const regulator = await UserModel.findByPk(assignment.userId);

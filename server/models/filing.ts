@@ -9,9 +9,14 @@ export class FilingModel extends Model<InferAttributes<FilingModel>, InferCreati
   declare packSha256: string;
   declare fileName: string;
   declare recipientsJson: string;
-  declare messageId: string;
+  declare messageId: string | null;
+  /** Who filed it. */
   declare sentBy: number;
-  declare sentAt: Date;
+  /** When the mail server took it; null while it waits (delivery "pending"). */
+  declare sentAt: Date | null;
+  declare delivery: CreationOptional<"pending" | "sent">;
+  declare attempts: CreationOptional<number>;
+  declare lastError: string | null;
   declare acknowledgedBy: number | null;
   declare acknowledgedAt: Date | null;
   declare createdAt: CreationOptional<Date>;
@@ -26,9 +31,12 @@ FilingModel.init(
     packSha256: { type: DataTypes.CHAR(64), allowNull: false },
     fileName: { type: DataTypes.STRING(255), allowNull: false },
     recipientsJson: { type: DataTypes.TEXT, allowNull: false },
-    messageId: { type: DataTypes.STRING(255), allowNull: false },
+    messageId: { type: DataTypes.STRING(255), allowNull: true },
     sentBy: { type: DataTypes.INTEGER, allowNull: false },
-    sentAt: { type: DataTypes.DATE(3), allowNull: false },
+    sentAt: { type: DataTypes.DATE(3), allowNull: true },
+    delivery: { type: DataTypes.ENUM("pending", "sent"), allowNull: false, defaultValue: "sent" },
+    attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+    lastError: { type: DataTypes.STRING(500), allowNull: true },
     acknowledgedBy: { type: DataTypes.INTEGER, allowNull: true },
     acknowledgedAt: { type: DataTypes.DATE(3), allowNull: true },
     createdAt: DataTypes.DATE(3),

@@ -15,9 +15,17 @@ export const filingSchema = z.object({
   /** sha256 of the PDF exactly as sent: a supervisor checks the file they hold against it. */
   sha256: z.string(),
   recipients: z.array(z.string()),
-  messageId: z.string(),
+  /**
+   * "sent": the mail server took the pack (messageId, sentAt). "pending": it did not answer when
+   * the CRO filed; the pack is kept and sent by the delivery loop as soon as the server is back.
+   */
+  delivery: z.enum(["pending", "sent"]),
+  messageId: z.string().nullable(),
+  /** Who filed it. */
   sentBy: z.string(),
-  sentAt: z.string(),
+  sentAt: z.string().nullable(),
+  /** Why the last attempt failed, while pending. */
+  lastError: z.string().nullable(),
   acknowledgedBy: z.string().nullable(),
   acknowledgedAt: z.string().nullable(),
 });

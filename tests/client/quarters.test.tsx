@@ -462,7 +462,9 @@ function filingOf(over: Partial<Filing> = {}): Filing {
     fileName: "LKS-EU-2025-12-31-pack.pdf",
     sha256: PACK_SHA256,
     recipients: ["backtesting@supervisor.test", "desk-officer@supervisor.test"],
+    delivery: "sent",
     messageId: "<31.pack@quartermark.test>",
+    lastError: null,
     sentBy: "cro@larkspur.test",
     sentAt: "2026-01-14T10:00:00.000Z",
     acknowledgedBy: null,
@@ -597,6 +599,21 @@ describe("Quarter close › the pack and its filing", () => {
     expect(within(record).getByTestId("filing-acknowledged")).toHaveTextContent("15 Jan 2026, 08:30 UTC by regulator@larkspur.test");
     expect(within(record).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
     expect(api.callsTo("GET", "/api/filings")).toHaveLength(1);
+  });
+
+  it("when an approved quarter's filing waits for the mail server, then it says so and does not offer to file again", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved()], {
+        "GET /api/filings": { status: 200, body: [filingOf({ delivery: "pending", messageId: null, sentAt: null, lastError: "connect ECONNREFUSED 127.0.0.1:2525" })] },
+      }),
+    });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pending = await screen.findByTestId("filing-pending");
+    expect(pending).toHaveTextContent("the mail server did not take the message (connect ECONNREFUSED 127.0.0.1:2525)");
+    expect(pending).toHaveTextContent("It is sent automatically as soon as the server answers");
+    expect(screen.queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
   });
 
   it("when treasury opens a filed quarter, then neither the pack nor the filing is offered and no filing is asked for", async () => {

@@ -2,6 +2,7 @@ import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
 import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
+import net from "node:net";
 import path from "node:path";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
@@ -11,10 +12,22 @@ import { FilingModel } from "../../server/models/filing";
 import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { filingSchema, filingVerifySchema } from "../../shared/schemas/filing";
+import { useSmtpPort } from "../../server/mail/mailer";
+import { deliverPendingFilings } from "../../server/modules/filings/filings.service";
+import { startMailSink } from "../../scripts/lib/mail-sink";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { preparedAndSubmitted, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
+
+function freePort(): Promise<number> {
+  return new Promise((resolve) => {
+    const srv = net.createServer().listen(0, "127.0.0.1", () => {
+      const { port } = srv.address() as net.AddressInfo;
+      srv.close(() => resolve(port));
+    });
+  });
+}
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
 
@@ -101,7 +114,7 @@ describe("filing with the supervisor", () => {
     // The e-mail really went out: the sink holds it, with the very PDF that was kept.
     const [mail] = mailsTo(supervisor);
     expect(mail).toMatch(/Subject: .*backtesting pack for Q3 2026/);
-    expect(mail).toContain(filing.messageId.replace(/[<>]/g, ""));
+    expect(mail).toContain(filing.messageId!.replace(/[<>]/g, ""));
     const attached = attachedPdf(mail);
     expect(sha256(attached)).toBe(filing.sha256);
 
@@ -115,11 +128,46 @@ describe("filing with the supervisor", () => {
     expect(again.status).toBe(409);
   });
 
-  it("when the mail server refuses the supervisor's address, then 502 says nothing was sent and nothing is recorded", async () => {
+  it("when the mail server is down at filing, then the filing waits as pending (202), and once it is back exactly one e-mail arrives", async () => {
+    const supervisor = `waiting-${Date.now()}@bank-supervisor.test`;
+    const { book, snapshotId } = await approvedBook(supervisor);
+    const port = await freePort(); // nothing listens there: the mail server is down
+    useSmtpPort(port);
+    try {
+      const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+      expect(res.status).toBe(202);
+      expect(res.body).toMatchObject({ delivery: "pending", messageId: null, sentAt: null, lastError: expect.stringMatching(/ECONNREFUSED|connect/i) });
+      expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "approved" });
+      const regulator = await regulatorFor(book);
+      expect((await request(app).get("/api/filings").set("Cookie", regulator.cookie)).body).toEqual([]); // nothing reached them yet
+
+      expect((await deliverPendingFilings()).pending).toBeGreaterThanOrEqual(1); // still down: still waiting
+      expect(await FilingModel.findByPk(res.body.id)).toMatchObject({ delivery: "pending", attempts: 2 });
+
+      const dir = mkdtempSync(path.join(tmpdir(), "qm-sink-"));
+      const sink = await startMailSink(port, dir); // the server is back
+      try {
+        await deliverPendingFilings();
+        await deliverPendingFilings(); // a second round finds nothing left to send
+        const arrived = readdirSync(dir).map((f) => readFileSync(path.join(dir, f), "utf8")).filter((m) => m.includes(supervisor));
+        expect(arrived).toHaveLength(1);
+        expect(sha256(attachedPdf(arrived[0]))).toBe(res.body.sha256);
+      } finally {
+        await sink.close();
+      }
+      expect(await FilingModel.findByPk(res.body.id)).toMatchObject({ delivery: "sent", lastError: null });
+      expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "filed" });
+      expect((await request(app).get("/api/filings").set("Cookie", regulator.cookie)).body.map((f: { id: number }) => f.id)).toEqual([res.body.id]);
+    } finally {
+      useSmtpPort(Number(process.env.SMTP_PORT));
+    }
+  });
+
+  it("when the mail server refuses the supervisor's address, then 502 says nothing was sent, the filing is withdrawn and the quarter stays approved", async () => {
     const { book, snapshotId } = await approvedBook("nobody@supervisor.invalid");
     const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(res.status).toBe(502);
-    expect(res.body.error).toMatchObject({ code: "mail_not_sent", message: expect.stringMatching(/Nothing was sent and nothing was recorded/) });
+    expect(res.body.error).toMatchObject({ code: "mail_not_sent", message: expect.stringMatching(/refused the message .*Nothing was sent/) });
     expect(await FilingModel.count({ where: { snapshotId } })).toBe(0);
     expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "approved" });
   });

@@ -22,7 +22,9 @@ export function filingsRouter() {
   });
   r.post("/api/snapshots/:id/filings", async (req, res) => {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
-    res.status(201).json(await filings.fileSnapshot(id, signedInActor(req)));
+    const { filing, delivered } = await filings.fileSnapshot(id, signedInActor(req));
+    // 202: recorded and kept, waiting for the mail server (the delivery loop sends it).
+    res.status(delivered ? 201 : 202).json(filing);
   });
   r.get("/api/filings", async (req, res) => {
     res.json(await filings.listFilings(signedInActor(req)));

@@ -7,7 +7,8 @@ import { FilingModel } from "../../models/filing";
 import { RegulatorAssignmentModel } from "../../models/regulator-assignment";
 import { SnapshotModel } from "../../models/snapshot";
 import { UserModel } from "../../models/user";
-import { sendMail } from "../../mail/mailer";
+import { MailNotSentError, sendMail, type OutgoingMail } from "../../mail/mailer";
+import { toSessionUser } from "../auth/auth.service";
 import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pack";
 import { recordAudit } from "../audit/audit.service";
 import { getSnapshot, lockForFiling, recordFiled, verifySnapshot } from "../snapshots/snapshots.service";
@@ -47,9 +48,11 @@ async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
       fileName: r.fileName,
       sha256: r.packSha256,
       recipients: JSON.parse(r.recipientsJson) as string[],
+      delivery: r.delivery,
       messageId: r.messageId,
       sentBy: emails.get(r.sentBy) ?? "unknown",
-      sentAt: r.sentAt.toISOString(),
+      sentAt: r.sentAt ? r.sentAt.toISOString() : null,
+      lastError: r.delivery === "pending" ? r.lastError : null,
       acknowledgedBy: r.acknowledgedBy ? (emails.get(r.acknowledgedBy) ?? "unknown") : null,
       acknowledgedAt: r.acknowledgedAt ? r.acknowledgedAt.toISOString() : null,
     };
@@ -65,7 +68,7 @@ async function visibleFiling(id: number, actor: SignedIn, scope?: "withPack"): P
   const allowed = await visibleEntityIds(actor);
   if (row && allowed) {
     const snapshot = await SnapshotModel.findByPk(row.snapshotId, { attributes: ["entityId"] });
-    if (!snapshot || !allowed.includes(snapshot.entityId)) {
+    if (!snapshot || !allowed.includes(snapshot.entityId) || row.delivery !== "sent") {
       await recordAudit(actor, "filing.denied", `filing #${id}`, { after: { reason: "not assigned to the entity" } });
       throw new NotFoundError(`No filing #${id}.`);
     }
@@ -81,14 +84,88 @@ async function sentSha256(snapshotId: number): Promise<string | null> {
   return after?.sha256 ?? null;
 }
 
+/** The message that carries a pack to the supervisor. */
+function packMail(entity: EntityModel, snapshot: SnapshotModel, filing: FilingModel, filedBy: string): OutgoingMail {
+  return {
+    to: JSON.parse(filing.recipientsJson) as string[],
+    // One Message-ID per filing, so that a message sent again after a lost answer is recognisably the same.
+    messageId: `<filing-${filing.id}-${filing.packSha256.slice(0, 16)}@quartermark>`,
+    subject: `${entity.name}: backtesting pack for ${quarterLabel(snapshot.quarterEnd)}`,
+    text: [
+      `${entity.supervisorName ? `Dear ${entity.supervisorName},` : "Dear colleagues,"}`,
+      "",
+      `Please find attached the backtesting and capital multiplier pack of ${entity.name} (${entity.code}) for the quarter ending ${snapshot.quarterEnd}.`,
+      `Traffic-light zone ${snapshot.zone}, ${snapshot.counted} counted exceptions, multiplier ${snapshot.multiplier.toFixed(2)}.`,
+      "",
+      `SHA-256 of the attached file: ${filing.packSha256}`,
+      `Snapshot hash: ${snapshot.hash}`,
+      "",
+      `Filed by ${filedBy} through Quartermark.`,
+      "",
+      CAUTION,
+    ].join("\n"),
+    attachments: [{ filename: filing.fileName, content: filing.packPdf, contentType: "application/pdf" }],
+  };
+}
+
+export type DeliveryOutcome = "sent" | "pending" | "refused";
+
 /**
- * The CRO files an approved snapshot: its pack is rendered, e-mailed to the entity's supervisor
- * contacts and kept with its sha256, and the snapshot becomes filed — all in one transaction, so
- * a message the mail server refuses leaves nothing recorded.
+ * Hands one pending filing to the mail server. Sent: the filing records the Message-ID and the
+ * snapshot becomes filed. The server did not answer: the filing stays pending for the next round.
+ * The server refused it (an address it will never accept): the filing is withdrawn and the
+ * snapshot stays approved. The filing row is locked meanwhile, so two rounds never send one pack twice.
  */
-export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise<Filing> {
-  const filed = await sequelize.transaction(async (transaction) => {
-    const { row, entity, asFiled } = await lockForFiling(snapshotId, transaction);
+export async function deliverFiling(filingId: number, actor: SignedIn): Promise<{ outcome: DeliveryOutcome; error?: MailNotSentError }> {
+  return sequelize.transaction(async (transaction) => {
+    const filing = await FilingModel.scope("withPack").findByPk(filingId, { transaction, lock: transaction.LOCK.UPDATE, skipLocked: true });
+    if (!filing || filing.delivery === "sent") return { outcome: "sent" as const };
+    const snapshot = (await SnapshotModel.findByPk(filing.snapshotId, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    const entity = (await EntityModel.findByPk(snapshot.entityId, { transaction }))!;
+    const filedBy = (await UserModel.findByPk(filing.sentBy, { transaction }))?.email ?? "the chief risk officer";
+    try {
+      const messageId = await sendMail(packMail(entity, snapshot, filing, filedBy));
+      await filing.update({ delivery: "sent", messageId, sentAt: new Date(), attempts: filing.attempts + 1, lastError: null }, { transaction });
+      await recordFiled(snapshot, `Pack ${filing.packSha256.slice(0, 12)}… sent to ${(JSON.parse(filing.recipientsJson) as string[]).join(", ")}`, actor, transaction);
+      await recordAudit(actor, "filing.sent", `filing #${filing.id}`, { after: { messageId, attempts: filing.attempts } }, transaction);
+      return { outcome: "sent" as const };
+    } catch (err) {
+      if (!(err instanceof MailNotSentError)) throw err;
+      if (err.permanent) {
+        await recordAudit(actor, "filing.refused", `filing #${filing.id}`, { after: { reason: err.reason } }, transaction);
+        await filing.destroy({ transaction });
+        return { outcome: "refused" as const, error: err };
+      }
+      await filing.update({ attempts: filing.attempts + 1, lastError: err.reason.slice(0, 500) }, { transaction });
+      return { outcome: "pending" as const, error: err };
+    }
+  });
+}
+
+/** One round of the delivery loop: every pending filing, oldest first. */
+export async function deliverPendingFilings(): Promise<Record<DeliveryOutcome, number>> {
+  const counts: Record<DeliveryOutcome, number> = { sent: 0, pending: 0, refused: 0 };
+  const pending = await FilingModel.findAll({ where: { delivery: "pending" }, attributes: ["id", "sentBy"], order: [["id", "ASC"]] });
+  for (const f of pending) {
+    const filer = await UserModel.findByPk(f.sentBy);
+    const actor = { user: filer ? toSessionUser(filer) : { id: f.sentBy, email: "unknown", name: "unknown", role: "cro" as const }, ip: "127.0.0.1", requestId: "filing-delivery" };
+    counts[(await deliverFiling(f.id, actor)).outcome]++;
+  }
+  return counts;
+}
+
+/**
+ * The CRO files an approved snapshot whose seal still verifies. The pack is rendered and kept
+ * with its sha256 (also written to the audit log) in one transaction; then it is e-mailed to the
+ * entity's supervisor contacts. If the mail server does not answer, the filing waits as pending
+ * and the delivery loop sends it once the server is back; if it refuses the address, the filing
+ * is withdrawn and nothing was sent.
+ */
+export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise<{ filing: Filing; delivered: boolean }> {
+  const filingId = await sequelize.transaction(async (transaction) => {
+    const { entity, asFiled } = await lockForFiling(snapshotId, transaction);
+    const waiting = await FilingModel.findOne({ where: { snapshotId }, transaction });
+    if (waiting) throw new ConflictError(`Snapshot #${snapshotId} is already filed (filing #${waiting.id}, ${waiting.delivery === "pending" ? "waiting for the mail server" : "sent"}).`, { filingId: waiting.id });
     // Only figures that still match their seal go to a supervisor.
     const seal = await verifySnapshot(snapshotId, actor);
     if (!seal.valid) throw new ConflictError(`Snapshot #${snapshotId} does not verify, so it cannot be filed: ${seal.detail}`);
@@ -97,43 +174,39 @@ export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise
       throw new AppError(422, "no_supervisor_contacts", `${entity.code} has no supervisor e-mail address; an admin adds one under Admin › Entities before filing.`);
     }
     const pack = await renderSnapshotPack(asFiled);
-    const fileName = snapshotPackFileName(asFiled);
     const packSha256 = sha256(pack);
-    // Recorded first, sent second: a database refusal sends nothing, a mail refusal rolls the record back.
     const filing = await FilingModel.create(
-      { snapshotId, packPdf: pack, packSha256, fileName, recipientsJson: JSON.stringify(recipients), messageId: "(sending)", sentBy: actor.user.id, sentAt: new Date(), acknowledgedBy: null, acknowledgedAt: null },
+      {
+        snapshotId,
+        packPdf: pack,
+        packSha256,
+        fileName: snapshotPackFileName(asFiled),
+        recipientsJson: JSON.stringify(recipients),
+        messageId: null,
+        sentBy: actor.user.id,
+        sentAt: null,
+        delivery: "pending",
+        attempts: 0,
+        lastError: null,
+        acknowledgedBy: null,
+        acknowledgedAt: null,
+      },
       { transaction },
     );
-    const messageId = await sendMail({
-      to: recipients,
-      subject: `${entity.name}: backtesting pack for ${quarterLabel(row.quarterEnd)}`,
-      text: [
-        `${entity.supervisorName ? `Dear ${entity.supervisorName},` : "Dear colleagues,"}`,
-        "",
-        `Please find attached the backtesting and capital multiplier pack of ${entity.name} (${entity.code}) for the quarter ending ${row.quarterEnd}.`,
-        `Traffic-light zone ${asFiled.zone}, ${asFiled.counted} counted exceptions, multiplier ${asFiled.multiplier.toFixed(2)}.`,
-        "",
-        `SHA-256 of the attached file: ${packSha256}`,
-        `Snapshot hash: ${asFiled.hash}`,
-        "",
-        `Sent by ${actor.user.name} (${actor.user.email}) through Quartermark.`,
-        "",
-        CAUTION,
-      ].join("\n"),
-      attachments: [{ filename: fileName, content: pack, contentType: "application/pdf" }],
-    });
-    await filing.update({ messageId }, { transaction });
-    await recordFiled(row, `Pack ${packSha256.slice(0, 12)}… sent to ${recipients.join(", ")}`, actor, transaction);
-    await recordAudit(actor, "snapshot.file", `snapshot #${snapshotId}`, { before: { status: "approved" }, after: { status: "filed", filing: filing.id, recipients, messageId, sha256: packSha256 } }, transaction);
-    return filing;
+    await recordAudit(actor, "snapshot.file", `snapshot #${snapshotId}`, { before: { status: "approved" }, after: { filing: filing.id, recipients, sha256: packSha256 } }, transaction);
+    return filing.id;
   });
-  return (await toDtos([filed]))[0];
+  const { outcome, error } = await deliverFiling(filingId, actor);
+  if (outcome === "refused") throw error!;
+  const row = (await FilingModel.findByPk(filingId))!;
+  return { filing: (await toDtos([row]))[0], delivered: outcome === "sent" };
 }
 
 export async function listFilings(actor: SignedIn): Promise<Filing[]> {
   const allowed = await visibleEntityIds(actor);
-  let rows = await FilingModel.findAll({ order: [["sentAt", "DESC"]] });
+  let rows = await FilingModel.findAll({ order: [["id", "DESC"]] });
   if (allowed) {
+    rows = rows.filter((r) => r.delivery === "sent"); // a supervisor has only what reached them
     const entityOf = new Map((await SnapshotModel.findAll({ where: { id: rows.map((r) => r.snapshotId) }, attributes: ["id", "entityId"] })).map((s) => [s.id, s.entityId]));
     rows = rows.filter((r) => allowed.includes(entityOf.get(r.snapshotId)!));
   }

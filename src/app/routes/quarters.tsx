@@ -73,8 +73,9 @@ function SelectedSnapshot({
 }) {
   // The list already holds the snapshot: show it at once while its own answer is read.
   const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
-  // A filed quarter shows its filing; the filings list is the one place it is read from (treasury may not read it).
-  const readsFiling = (role === "analyst" || role === "cro") && data?.status === "filed";
+  // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
+  // server; the filings list is the one place they are read from (treasury may not read it).
+  const readsFiling = (role === "analyst" || role === "cro") && (data?.status === "filed" || data?.status === "approved");
   const filings = useQuery({ ...filingQueries.list(), enabled: readsFiling });
   const filing = {
     filing: filings.data?.find((f) => f.snapshotId === id),

@@ -74,10 +74,23 @@ function FileWithSupervisor({ snapshot, onFiled }: { snapshot: Snapshot; onFiled
 function FilingRecord({ filing, filingHref }: { filing: Filing; filingHref: string }) {
   return (
     <div className="flex flex-col gap-2" data-testid="snapshot-filing">
+      {filing.delivery === "pending" && (
+        <p role="status" className="border-l-2 border-zone-yellow bg-zone-yellow-soft px-3 py-1.5 text-sm text-ink" data-testid="filing-pending">
+          Filed by {filing.sentBy} and kept, but the mail server did not take the message
+          {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers; the quarter
+          becomes filed then.
+        </p>
+      )}
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="text-ink-muted">Sent</dt>
         <dd>
-          <span className="figures">{formatDateTime(filing.sentAt)}</span> by {filing.sentBy}
+          {filing.sentAt ? (
+            <>
+              <span className="figures">{formatDateTime(filing.sentAt)}</span> by {filing.sentBy}
+            </>
+          ) : (
+            "Not yet: waiting for the mail server"
+          )}
         </dd>
         <dt className="text-ink-muted">To</dt>
         <dd data-testid="filing-recipients">{filing.recipients.join(", ")}</dd>

@@ -1,0 +1,24 @@
+import { logger } from "../../logger";
+import { deliverPendingFilings } from "./filings.service";
+
+/**
+ * Sends the filings that wait for the mail server, every `everyMs` (the server process and
+ * `npm start` run it). Each round is bounded by the mailer's timeouts; rounds never overlap.
+ */
+export function startFilingDelivery(everyMs = 30_000): () => void {
+  let running = false;
+  const timer = setInterval(() => {
+    if (running) return;
+    running = true;
+    deliverPendingFilings()
+      .then((n) => {
+        if (n.sent || n.refused) logger.info(`filing delivery: ${n.sent} sent, ${n.refused} refused, ${n.pending} still waiting`);
+      })
+      .catch((err) => logger.error(`filing delivery failed: ${(err as Error).message}`))
+      .finally(() => {
+        running = false;
+      });
+  }, everyMs);
+  timer.unref();
+  return () => clearInterval(timer);
+}

@@ -4,6 +4,7 @@ import { sequelize } from "../../server/db/sequelize";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { DataFindingModel } from "../../server/models/data-finding";
 import { SnapshotModel } from "../../server/models/snapshot";
+import { quarterFigures } from "../../server/modules/backtest/quarter-figures";
 import { UserModel } from "../../server/models/user";
 import { capitalAddOn, capitalRequirement } from "../../shared/backtest/capital";
 import { capitalHistorySchema, snapshotSchema, snapshotVerifySchema } from "../../shared/schemas/snapshot";
@@ -217,6 +218,16 @@ describe("after sign-off", () => {
     const after = await request(app).get(`/api/snapshots/${submitted.id}`).set("Cookie", book.cookie);
     expect(after.body).toMatchObject({ status: "approved", counted: 5 });
     expect(after.body.restatedAfterSignOff.detail).toMatch(new RegExp(`changed by the exclusion decision recorded for ${day}: 1 with an exclusion decided`));
+  });
+
+  it("when a signed quarter is recomputed from today's unchanged data, then the engine gives exactly the stored figures and inputs hash", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+    const row = (await SnapshotModel.findByPk(submitted.id))!;
+    const again = await quarterFigures(book.entity, Q3);
+    expect(again.figures).toEqual(JSON.parse(row.figuresJson));
+    expect(again.inputsSha256).toBe(row.inputsSha256);
   });
 
   it("when a signed-off snapshot's stored figures are altered behind the application's back, then verify says it is not valid", async () => {

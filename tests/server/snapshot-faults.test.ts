@@ -1,0 +1,46 @@
+import request from "supertest";
+import mariadb from "mariadb";
+import { afterAll, describe, expect, it } from "vitest";
+import { config } from "../../server/config";
+import { sequelize } from "../../server/db/sequelize";
+import { AuditEventModel } from "../../server/models/audit-event";
+import { SnapshotModel } from "../../server/models/snapshot";
+import { preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+
+afterAll(() => sequelize.close());
+
+describe("the database goes away in the middle of an approval", () => {
+  it("when the approval's connection is killed while it waits for the entity, then 503 says nothing changed, the snapshot is still submitted without a seal, and it approves whole afterwards", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+
+    // Another session holds the entity row, so the approval stops at its entity lock; then its connection is killed.
+    const admin = await mariadb.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: config.db.name });
+    const [{ id: adminThread }] = (await admin.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
+    await admin.beginTransaction();
+    await admin.query("SELECT id FROM entities WHERE id = ? FOR UPDATE", [book.entity.id]);
+    const approving = request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).then((r) => r);
+    let killed = false;
+    for (const until = Date.now() + 20_000; Date.now() < until && !killed; ) {
+      const rows: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
+      const victim = rows.find((r) => BigInt(r.Id) !== BigInt(adminThread) && /FROM `entities`/.test(r.Info ?? "") && /FOR UPDATE/.test(r.Info ?? ""));
+      if (victim) {
+        await admin.query(`KILL CONNECTION ${Number(victim.Id)}`);
+        killed = true;
+      } else await new Promise((r) => setTimeout(r, 5));
+    }
+    const res = await approving;
+    await admin.rollback();
+    await admin.end();
+
+    expect(killed).toBe(true);
+    expect(res.status).toBe(503);
+    expect(res.body.error).toMatchObject({ code: "database_unavailable", message: expect.stringMatching(/Nothing was changed/) });
+    expect(await SnapshotModel.findByPk(submitted.id)).toMatchObject({ status: "submitted", hash: null, approvedBy: null });
+    expect(await AuditEventModel.count({ where: { action: "snapshot.approve", target: `snapshot #${submitted.id}` } })).toBe(0);
+
+    const again = await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({});
+    expect(again.status).toBe(200);
+    expect((await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie)).body.valid).toBe(true);
+  });
+});

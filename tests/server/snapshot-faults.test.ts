@@ -5,7 +5,8 @@ import { config } from "../../server/config";
 import { sequelize } from "../../server/db/sequelize";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { SnapshotModel } from "../../server/models/snapshot";
-import { preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { uploadCsv } from "./ingest-helpers";
+import { HEADER, preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -42,5 +43,31 @@ describe("the database goes away in the middle of an approval", () => {
     const again = await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({});
     expect(again.status).toBe(200);
     expect((await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie)).body.valid).toBe(true);
+  });
+});
+
+describe("an approval races an upload that restates a day in the quarter", () => {
+  it("when both arrive at once, then either the approval is refused as stale or the snapshot is flagged — and approved figures always equal what was reviewed", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+    const day = book.dates.indexOf("2026-09-15");
+    const preview = await uploadCsv(app, book.cookie, [HEADER, book.row(book.dates[day], day, 150)].join("\n"), "race.csv");
+    const [commit, approve] = await Promise.all([
+      request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", book.cookie),
+      request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}),
+    ]);
+    expect(commit.status).toBe(200); // the data always gets in
+    const row = (await SnapshotModel.findByPk(submitted.id))!;
+    if (approve.status === 200) {
+      // The approval went first: it sealed what was reviewed, and the restatement flagged it afterwards.
+      expect(row).toMatchObject({ status: "approved", counted: submitted.counted, inputsSha256: submitted.inputsSha256 });
+      expect(row.restatedAt).not.toBeNull();
+    } else {
+      // The upload went first: the approval saw the inputs move and refused.
+      expect(approve.status).toBe(409);
+      expect(approve.body.error.code).toBe("inputs_changed");
+      expect(row).toMatchObject({ status: "submitted", hash: null });
+    }
+    expect(JSON.parse(row.figuresJson).exceptions.counted).toBe(submitted.counted);
   });
 });

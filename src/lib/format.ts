@@ -67,6 +67,16 @@ export function formatPercent(p: number): string {
   return `${formatDecimal(p * 100, 2)}%`;
 }
 
+/**
+ * A chance as a percentage, never rounded to a certainty it is not: strictly between 0 and 0.01%
+ * reads "< 0.01%", strictly between 99.99% and 100% reads "> 99.99%"; 0 and 1 stay 0.00% and 100.00%.
+ */
+export function formatChance(p: number): string {
+  if (p > 0 && p < 0.0001) return "< 0.01%";
+  if (p > 0.9999 && p < 1) return "> 99.99%";
+  return formatPercent(p);
+}
+
 /** A change with its sign written out: "+0.35", "−12,400 EUR"; what rounds to nothing stays unsigned ("0.00"). */
 export function formatChange(value: number, format: (v: number) => string): string {
   const text = format(Math.abs(value));

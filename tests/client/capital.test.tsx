@@ -169,7 +169,8 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     expect(within(dated).getByText("Of today's 6 exceptions, 2 are still in the window on 2027-03-31; 84 new business days could add more.")).toBeInTheDocument();
     expect(within(dated).getByTestId("chance-green")).toHaveTextContent("94.75%");
     expect(within(dated).getByTestId("chance-yellow")).toHaveTextContent("5.25%");
-    expect(within(dated).getByTestId("chance-red")).toHaveTextContent("0.00%");
+    // 0.0002% is not none: it reads below the smallest step shown.
+    expect(within(dated).getByTestId("chance-red")).toHaveTextContent("< 0.01%");
     const chances = within(dated).getByRole("table", { name: "Chance of each count of exceptions on 2027-03-31" });
     // Counts 2 to 8 have a chance of 0.01% or more; the rest are summed in words.
     expect(within(chances).getAllByRole("row")).toHaveLength(8);
@@ -179,6 +180,29 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     const rollOffs = screen.getByRole("table", { name: "Roll-off calendar" });
     expect(within(rollOffs).getAllByText("Gone")).toHaveLength(4);
     expect(within(rollOffs).getAllByText("Still counted")).toHaveLength(2);
+  });
+
+  it("when a zone's chance is near but not at 0% or 100%, then it reads < 0.01% or > 99.99%, and a true 0% stays 0.00%", async () => {
+    const nearlyCertain = forecast({ zones: { green: 0.99995, yellow: 0.00005, red: 0 } });
+    fakeApi(routes("analyst", { "GET /api/entities/LKS-EU/capital/forecast": { status: 200, body: nearlyCertain } }));
+    renderApp("/capital?entity=LKS-EU");
+
+    const chances = await screen.findByLabelText("Chance of each zone on 2026-12-31");
+    expect(within(chances).getByTestId("chance-green")).toHaveTextContent("> 99.99%");
+    expect(within(chances).getByTestId("chance-yellow")).toHaveTextContent("< 0.01%");
+    expect(within(chances).getByTestId("chance-red")).toHaveTextContent(/^0\.00%$/);
+  });
+
+  it("when the address names the entity in lower case, then the matched entity's code is what is asked for", async () => {
+    const api = fakeApi(routes("analyst"));
+    renderApp("/capital?entity=lks-eu");
+
+    expect(await screen.findByRole("heading", { name: "Capital: Larkspur Markets SA" })).toBeInTheDocument();
+    expect(await screen.findByTestId("today-counted")).toHaveTextContent("6");
+    expect(screen.getByLabelText("Entity")).toHaveValue("LKS-EU");
+    expect(api.callsTo("GET", "/api/entities/LKS-EU/capital/history")).toHaveLength(1);
+    expect(api.callsTo("GET", "/api/entities/LKS-EU/capital/forecast").length).toBeGreaterThan(0);
+    expect(api.calls.filter((c) => c.path.includes("lks-eu"))).toHaveLength(0);
   });
 
   it("when the server refuses the forecast date (422), then its message shows under the date field and today's figures stay", async () => {

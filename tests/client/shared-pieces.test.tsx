@@ -3,7 +3,7 @@ import { render, screen } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { TextareaField } from "@/components/ui/field";
 import { Figure } from "@/components/ui/figure";
-import { formatAmount, formatChange, formatCount, formatFactor, formatPercent, plural } from "@/lib/format";
+import { formatAmount, formatChance, formatChange, formatCount, formatFactor, formatPercent, plural } from "@/lib/format";
 
 describe("the formatting every screen shares", () => {
   it("writes an amount in whole units with its currency and a true minus sign", () => {
@@ -17,6 +17,17 @@ describe("the formatting every screen shares", () => {
     expect(formatFactor(3)).toBe("3.00");
     expect(formatFactor(null)).toBe("—");
     expect(formatPercent(0.99237)).toBe("99.24%");
+  });
+
+  it("writes a chance strictly between 0 and 0.01% as < 0.01%, strictly between 99.99% and 100% as > 99.99%, and the ends as they are", () => {
+    expect(formatChance(0)).toBe("0.00%");
+    expect(formatChance(1e-9)).toBe("< 0.01%");
+    expect(formatChance(0.00009999)).toBe("< 0.01%");
+    expect(formatChance(0.0001)).toBe("0.01%");
+    expect(formatChance(0.5)).toBe("50.00%");
+    expect(formatChance(0.9999)).toBe("99.99%");
+    expect(formatChance(0.99999999)).toBe("> 99.99%");
+    expect(formatChance(1)).toBe("100.00%");
   });
 
   it("writes a change with its sign, and no sign where the change rounds to nothing", () => {

@@ -23,10 +23,21 @@ function screenParams(search: URLSearchParams): { entity?: string; date?: string
   return { entity: search.get("entity")?.trim() || undefined, date: date && isoDate.test(date) ? date : undefined };
 }
 
+/**
+ * The entity the address names, matched ignoring case ("lks-eu" is LKS-EU); the matched entity's own
+ * code is what is sent and cached, so the server and every key see one spelling. Without a match the
+ * code is sent as written and the server says it does not know it.
+ */
+function matchedEntity(entities: readonly { code: string }[], asked: string | undefined): string | undefined {
+  const code = asked ?? entities[0]?.code;
+  if (code === undefined) return undefined;
+  return entities.find((e) => e.code.toUpperCase() === code.toUpperCase())?.code ?? code;
+}
+
 export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
   const { entity, date } = screenParams(new URL(request.url).searchParams);
   const entities = await queryClient.ensureQueryData(entityQueries.all());
-  const code = entity ?? entities[0]?.code;
+  const code = matchedEntity(entities, entity);
   // No data yet, or a refused date, is said inside the screen rather than instead of it.
   if (code)
     await Promise.all([
@@ -57,8 +68,8 @@ export default function CapitalRoute() {
   const navigate = useNavigate();
   const params = screenParams(search);
   const role = user!.role;
-  const entity = params.entity ?? entities[0]?.code ?? "";
-  const current = entities.find((e) => e.code.toUpperCase() === entity.toUpperCase());
+  const entity = matchedEntity(entities, params.entity) ?? "";
+  const current = entities.find((e) => e.code === entity);
 
   const history = useQuery({ ...capitalQueries.history(entity), enabled: entity !== "" });
   const dated = useQuery({ ...capitalQueries.forecast(entity, params.date), enabled: entity !== "", placeholderData: keepPreviousData });

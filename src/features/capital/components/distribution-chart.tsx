@@ -2,7 +2,7 @@ import { useId } from "react";
 import { Bar, BarChart, CartesianGrid, Cell, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Zone } from "@shared/backtest/types";
 import { zoneName } from "@/components/ui/zone-badge";
-import { formatPercent } from "@/lib/format";
+import { formatChance } from "@/lib/format";
 
 const ink = "#1b2638";
 const muted = "#66728a";
@@ -41,7 +41,7 @@ export function DistributionChart({ rows, date, regime, width }: { rows: Distrib
               label={{ value: "Probability", angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
             />
             <Tooltip
-              formatter={(value) => [formatPercent((typeof value === "number" ? value : 0) / 100), "Probability"]}
+              formatter={(value) => [formatChance((typeof value === "number" ? value : 0) / 100), "Probability"]}
               labelFormatter={(k) => `${k} exceptions`}
               labelStyle={{ color: ink, fontWeight: 600 }}
               contentStyle={{ fontSize: 12, borderColor: rule, borderRadius: 2 }}

@@ -7,7 +7,7 @@ import { Figure } from "@/components/ui/figure";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge, zoneName } from "@/components/ui/zone-badge";
 import { validate } from "@/lib/form";
-import { formatAmount, formatFactor, formatPercent, plural } from "@/lib/format";
+import { formatAmount, formatChance, formatFactor, plural } from "@/lib/format";
 import { NO_CAPITAL_INPUTS, SHOWN_FROM } from "../words";
 import type { DistributionRow } from "./distribution-chart";
 
@@ -82,7 +82,7 @@ function ZoneChances({ forecast }: { forecast: ForecastResponse }) {
     <dl className="grid grid-cols-3 gap-x-4 border-y border-rule py-3 sm:max-w-xl" aria-label={`Chance of each zone on ${forecast.date}`}>
       {(["green", "yellow", "red"] as const).map((z) => (
         <Figure key={z} look="ruled" label={`${zoneName(z, forecast.regime)} zone`}>
-          <span data-testid={`chance-${z}`}>{formatPercent(forecast.zones[z])}</span>
+          <span data-testid={`chance-${z}`}>{formatChance(forecast.zones[z])}</span>
         </Figure>
       ))}
     </dl>
@@ -107,12 +107,12 @@ function DistributionTable({ rows, left, regime, date }: { rows: DistributionRow
               <Td>
                 <ZoneBadge zone={r.zone} regime={regime} />
               </Td>
-              <Td numeric>{formatPercent(r.probability)}</Td>
+              <Td numeric>{formatChance(r.probability)}</Td>
             </Tr>
           ))}
         </tbody>
       </Table>
-      {left > 0 && <p className="text-2xs text-ink-muted">Higher counts, each with a chance below 0.01%, are left out (together {formatPercent(left)}).</p>}
+      {left > 0 && <p className="text-2xs text-ink-muted">Higher counts, each with a chance below 0.01%, are left out (together {formatChance(left)}).</p>}
     </div>
   );
 }

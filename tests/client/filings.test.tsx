@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { screen, within } from "@testing-library/react";
+import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
@@ -104,8 +104,7 @@ describe("Filings › the regulator", () => {
     const download = within(detail).getByRole("link", { name: "Download the pack (PDF)" });
     expect(download).toHaveAttribute("href", "/api/filings/31/pack.pdf");
     expect(download).toHaveAttribute("download", "LKS-EU-2026-09-30-pack.pdf");
-    const hash = within(within(detail).getByTestId("filing-sha256")).getByText(`${sha256Hex(SENT_PACK).slice(0, 12)}…`);
-    expect(hash).toHaveAttribute("title", sha256Hex(SENT_PACK));
+    expect(within(within(detail).getByTestId("filing-sha256")).getByText(sha256Hex(SENT_PACK))).toBeInTheDocument();
 
     await user.click(within(detail).getByRole("button", { name: "Acknowledge receipt" }));
 
@@ -169,6 +168,59 @@ describe("Filings › the regulator", () => {
     expect(api.callsTo("GET", "/api/filings/31/verify")).toHaveLength(2);
   });
 
+  it("when the regulator copies the pack's SHA-256, then all 64 characters are written out, go to the clipboard, and the button says Copied", async () => {
+    fakeApi(filingRoutes("regulator", [filing()]));
+    const user = userEvent.setup();
+    renderApp("/filings?filing=31");
+
+    const sha = await screen.findByTestId("filing-sha256");
+    const written = within(sha).getByText(sha256Hex(SENT_PACK));
+    expect(written.tagName).toBe("CODE");
+    expect(written.textContent).toHaveLength(64);
+    await user.click(within(sha).getByRole("button", { name: "Copy" }));
+
+    expect(await navigator.clipboard.readText()).toBe(sha256Hex(SENT_PACK));
+    expect(within(sha).getByRole("button", { name: "Copied" })).toBeInTheDocument();
+  });
+
+  it("when a second check of the server's copy fails, then its error shows and the earlier Valid is no longer on screen", async () => {
+    const checks: Reply[] = [
+      {
+        status: 200,
+        body: filingVerifySchema.parse({ valid: true, sha256: filing().sha256, snapshotHash: null, detail: "The pack is the file that was sent." }),
+      },
+      // The entity's assignment was withdrawn between the two checks.
+      { status: 404, body: { error: { code: "not_found", message: "No filing #31 among the filings you can read." } } },
+    ];
+    fakeApi(filingRoutes("regulator", [filing()], { "GET /api/filings/31/verify": () => checks.shift()! }));
+    const user = userEvent.setup();
+    renderApp("/filings?filing=31");
+
+    await user.click(await screen.findByRole("button", { name: "Check the server's copy" }));
+    expect(await screen.findByRole("status", { name: "Server copy check" })).toHaveTextContent("Valid: the kept pack is the file that was sent.");
+
+    await user.click(screen.getByRole("button", { name: "Check again" }));
+    expect(await screen.findByText("No filing #31 among the filings you can read.")).toBeInTheDocument();
+    expect(screen.queryByRole("status", { name: "Server copy check" })).not.toBeInTheDocument();
+    expect(screen.queryByText(/Valid: the kept pack/)).not.toBeInTheDocument();
+  });
+
+  it("when the page is served without HTTPS, then no file is asked for and the screen says how to compare by hand with the full SHA-256", async () => {
+    // An insecure context: random values but no Web Crypto digest.
+    const real = globalThis.crypto;
+    vi.stubGlobal("crypto", { getRandomValues: real.getRandomValues.bind(real) });
+    fakeApi(filingRoutes("regulator", [filing()]));
+    renderApp("/filings?filing=31");
+
+    const byHand = await screen.findByTestId("held-file-by-hand");
+    expect(byHand).toHaveTextContent("This browser computes no SHA-256 on a page served without HTTPS, so compare the file by hand");
+    expect(byHand).toHaveTextContent("sha256sum LKS-EU-2026-09-30-pack.pdf");
+    expect(byHand).toHaveTextContent("certutil -hashfile LKS-EU-2026-09-30-pack.pdf SHA256");
+    expect(byHand).toHaveTextContent("Compare all 64 characters with the pack SHA-256 written out in full above");
+    expect(within(screen.getByTestId("filing-sha256")).getByText(sha256Hex(SENT_PACK))).toBeInTheDocument();
+    expect(screen.queryByLabelText("Check a file you hold")).not.toBeInTheDocument();
+  });
+
   it("when a regulator has no filings yet, then the screen says what will appear", async () => {
     fakeApi(filingRoutes("regulator", []));
     renderApp("/filings");
@@ -195,6 +247,35 @@ describe("Filings › the reporting office reads", () => {
     const detail = await screen.findByRole("region", { name: "LKS-UK Q2 2026 · Larkspur Bank plc" });
     expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent("Acknowledged by regulator@larkspur.test on 10 Jul 2026, 08:15 UTC.");
     expect(within(detail).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/filings/27/pack.pdf");
+  });
+
+  it("when a pack waits for the mail server, then it is counted apart, not as waiting for acknowledgement nor as the latest sent", async () => {
+    const waitingForMail = filing({
+      id: 33,
+      snapshotId: 14,
+      quarterEnd: "2026-12-31",
+      fileName: "LKS-EU-2026-12-31-pack.pdf",
+      delivery: "pending",
+      messageId: null,
+      sentAt: null,
+      lastError: "connect ECONNREFUSED 127.0.0.1:2525",
+    });
+    fakeApi(filingRoutes("cro", [waitingForMail, filing(), older()]));
+    renderApp("/filings");
+
+    expect(await screen.findByTestId("filings-count")).toHaveTextContent("3 packs");
+    expect(screen.getByTestId("filings-waiting")).toHaveTextContent("1 pack");
+    expect(screen.getByTestId("filings-latest-sent")).toHaveTextContent("LKS-EU Q3 2026 · 08 Oct 2026, 14:30 UTC");
+    expect(screen.getByTestId("filings-pending")).toHaveTextContent("1 waiting for the mail server");
+  });
+
+  it("when no pack waits for the mail server, then the standing says nothing about it", async () => {
+    fakeApi(filingRoutes("analyst", [filing(), older()]));
+    renderApp("/filings");
+
+    await waitFor(() => expect(screen.getByTestId("filings-waiting")).toHaveTextContent("1 pack"));
+    expect(screen.queryByTestId("filings-pending")).not.toBeInTheDocument();
+    expect(screen.queryByText(/waiting for the mail server/)).not.toBeInTheDocument();
   });
 
   it.each([

@@ -1,4 +1,4 @@
-import { screen, within } from "@testing-library/react";
+import { act, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { snapshotSchema, snapshotVerifySchema, type Snapshot, type SnapshotFigures } from "@shared/schemas/snapshot";
 import { filingSchema, type Filing } from "@shared/schemas/filing";
@@ -399,6 +399,66 @@ describe("Quarter close › reading signed-off quarters", () => {
     expect(api.callsTo("GET", "/api/snapshots/12/verify")).toHaveLength(2);
   });
 
+  it("when a second hash check fails, then its error shows and the earlier Valid is no longer on screen", async () => {
+    const checks: Reply[] = [
+      {
+        status: 200,
+        body: snapshotVerifySchema.parse({ valid: true, hash: HASH, prevHash: PREV_HASH, detail: "The hash matches the stored figures and inputs." }),
+      },
+      error(503, "database_unavailable", "The database did not answer; try again in a moment."),
+      error(503, "database_unavailable", "The database did not answer; try again in a moment."),
+    ];
+    fakeApi({
+      "GET /api/auth/session": signedInAs("treasury"),
+      ...snapshotRoutes([approved()], { "GET /api/snapshots/12/verify": () => checks.shift()! }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    await user.click(await screen.findByRole("button", { name: "Verify the hash" }));
+    expect(await screen.findByRole("status", { name: "Hash check" })).toHaveTextContent("Valid: the figures are as signed off.");
+
+    await user.click(screen.getByRole("button", { name: "Verify again" }));
+    expect(screen.queryByRole("status", { name: "Hash check" })).not.toBeInTheDocument();
+    // A 5xx is tried once more before it counts as failed.
+    expect(await screen.findByText("The database did not answer; try again in a moment.", undefined, { timeout: 4000 })).toBeInTheDocument();
+    expect(screen.queryByRole("status", { name: "Hash check" })).not.toBeInTheDocument();
+    expect(screen.queryByText(/Valid: the figures are as signed off/)).not.toBeInTheDocument();
+  });
+
+  it("when a quarter's window is short of 250 observations, then its zone in the snapshot list is marked provisional, and a full window's is not", async () => {
+    const short = figures({ window: { start: "2025-04-01", end: "2025-12-31", observations: 190, complete: false } });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved(), approved({ id: 11, quarterEnd: "2025-09-30", figures: short })]),
+    });
+    renderApp("/quarters?entity=LKS-EU");
+
+    const table = await screen.findByRole("table", { name: "Quarter snapshots, newest first" });
+    const q3 = within(table).getByRole("link", { name: "Open Q3 2025, approved" }).closest("tr")!;
+    expect(within(q3).getByText("Yellow").closest("[data-zone]")).toHaveTextContent("Yellow(provisional)");
+    const q4 = within(table).getByRole("link", { name: "Open Q4 2025, approved" }).closest("tr")!;
+    expect(within(q4).getByText("Yellow").closest("[data-zone]")).toHaveTextContent(/^Yellow$/);
+  });
+
+  it("when the address names one entity and another entity's snapshot, then the screen follows the snapshot's entity, in the address too", async () => {
+    const uk = approved({
+      id: 15,
+      entity: "LKS-UK",
+      entityName: "Larkspur Bank plc",
+      figures: figures({ portfolio: "LKS-UK-TOTAL", regime: "frtb", currency: "GBP", zoneLabel: "Amber" }),
+    });
+    const api = fakeApi({ "GET /api/auth/session": signedInAs("cro"), ...snapshotRoutes([approved(), uk]) });
+    const { router } = renderApp("/quarters?entity=LKS-EU&snapshot=15");
+
+    expect(await screen.findByRole("region", { name: "Q4 2025 · Larkspur Bank plc" })).toBeInTheDocument();
+    expect(router.state.location.search).toBe("?entity=LKS-UK&snapshot=15");
+    expect(screen.getByLabelText("Entity")).toHaveValue("LKS-UK");
+    expect(screen.getByRole("heading", { name: "Snapshots of LKS-UK" })).toBeInTheDocument();
+    expect(screen.getByTestId("snapshot-capital")).toHaveTextContent("GBP");
+    expect(api.callsTo("GET", "/api/snapshots").map((c) => new URLSearchParams(c.search).get("entity"))).not.toContain("LKS-EU");
+  });
+
   it("when an FRTB snapshot holds desks, then each desk's exceptions, backtesting result and P&L attribution zone show", async () => {
     const frtb = figures({
       portfolio: "LKS-UK-TOTAL",
@@ -505,20 +565,20 @@ describe("Quarter close › the pack and its filing", () => {
       await within(pack).findByText("Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test."),
     ).toBeInTheDocument();
     expect(within(pack).getByTestId("filing-recipients")).toHaveTextContent("backtesting@supervisor.test, desk-officer@supervisor.test");
-    expect(within(within(pack).getByTestId("filing-sha256")).getByText("5e884898da28…")).toHaveAttribute("title", PACK_SHA256);
+    expect(within(pack).getByTestId("filing-sha256")).toHaveTextContent(PACK_SHA256);
     expect(within(pack).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
     expect(await screen.findByTestId("snapshot-status")).toHaveTextContent("Filed");
     expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
   });
 
-  it("when the mail server refuses the message (502 mail_not_sent), then its message shows and the quarter stays approved, ready to file again", async () => {
+  it("when the mail server refuses the message for good (502 mail_not_sent), then its message shows and the quarter stays approved, ready to file again", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes([approved()], {
         "POST /api/snapshots/12/filings": error(
           502,
           "mail_not_sent",
-          "The e-mail could not be handed to the mail server (connection refused). Nothing was sent and nothing was recorded; try again.",
+          "The mail server refused the message (550 5.1.1 <desk-officer@supervisor.test>: recipient unknown). Nothing was sent; check the supervisor contacts under Admin › Entities and file again.",
         ),
       }),
     });
@@ -531,12 +591,140 @@ describe("Quarter close › the pack and its filing", () => {
     await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
 
     expect(await within(pack).findByRole("alert")).toHaveTextContent(
-      "The e-mail could not be handed to the mail server (connection refused). Nothing was sent and nothing was recorded; try again.",
+      "The mail server refused the message (550 5.1.1 <desk-officer@supervisor.test>: recipient unknown). Nothing was sent; check the supervisor contacts under Admin › Entities and file again.",
     );
     expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Approved");
     expect(within(pack).queryByTestId("snapshot-filing")).not.toBeInTheDocument();
     expect(within(pack).getByRole("button", { name: "File with the supervisor" })).toBeEnabled();
     expect(api.calls.filter((c) => c.method === "GET")).toHaveLength(readsBefore);
+  });
+
+  it("when the mail server does not answer (202 pending), then the screen says the pack is kept and goes by itself, and it turns filed once the server has taken it", async () => {
+    // Only the interval is faked: the screen looks again every 15 s while the pack waits.
+    vi.useFakeTimers({ toFake: ["setInterval", "clearInterval"] });
+    const store = [approved()];
+    const filings: Filing[] = [];
+    const waiting = filingOf({ delivery: "pending", messageId: null, sentAt: null, lastError: "connect ECONNREFUSED 127.0.0.1:2525" });
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes(store, {
+        "GET /api/filings": () => ({ status: 200, body: filings }),
+        "POST /api/snapshots/12/filings": () => {
+          filings.unshift(waiting);
+          return { status: 202, body: waiting };
+        },
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
+
+    const said = await within(pack).findByText(
+      "Q4 2025's pack is kept; the mail server did not take it yet — it is sent automatically as soon as the server answers, and the quarter becomes filed then.",
+    );
+    expect(said).toHaveAttribute("role", "status");
+    expect(within(pack).queryByText(/the pack went by e-mail/)).not.toBeInTheDocument();
+    expect(await within(pack).findByTestId("filing-pending")).toHaveTextContent("(connect ECONNREFUSED 127.0.0.1:2525)");
+    expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Approved");
+    expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
+
+    // The mail server is back: the delivery loop sends the pack and the quarter becomes filed.
+    filings[0] = filingOf();
+    answer(store, filed());
+    const readsWhilePending = api.callsTo("GET", "/api/filings").length;
+    act(() => vi.advanceTimersByTime(14_000));
+    expect(api.callsTo("GET", "/api/filings")).toHaveLength(readsWhilePending);
+    act(() => vi.advanceTimersByTime(1_000));
+    expect(api.callsTo("GET", "/api/filings")).toHaveLength(readsWhilePending + 1);
+
+    await waitFor(() => expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Filed"));
+    expect(within(pack).queryByTestId("filing-pending")).not.toBeInTheDocument();
+    expect(within(pack).getByTestId("snapshot-filing")).toHaveTextContent("14 Jan 2026, 10:00 UTC by cro@larkspur.test");
+    expect(
+      within(pack).getByText("Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test."),
+    ).toBeInTheDocument();
+
+    // Sent: nothing is waiting any more, so the screen stops looking.
+    act(() => vi.advanceTimersByTime(30_000));
+    expect(api.callsTo("GET", "/api/filings")).toHaveLength(readsWhilePending + 1);
+  });
+
+  it("when the quarter was filed meanwhile (409 with the filing's id), then the message links to that filing and the File button gives way to the filing", async () => {
+    const filings: Filing[] = [];
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved()], {
+        "GET /api/filings": () => ({ status: 200, body: filings }),
+        "POST /api/snapshots/12/filings": () => {
+          // Another chief risk officer filed it a moment ago; the pack still waits for the mail server.
+          filings.unshift(filingOf({ id: 33, sentBy: "cro2@larkspur.test", delivery: "pending", messageId: null, sentAt: null }));
+          return {
+            status: 409,
+            body: { error: { code: "conflict", message: "Snapshot #12 is already filed (filing #33, waiting for the mail server).", details: { filingId: 33 } } },
+          };
+        },
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    await waitFor(() => expect(api.callsTo("GET", "/api/filings")).toHaveLength(1));
+    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
+
+    const alert = await within(pack).findByRole("alert");
+    expect(alert).toHaveTextContent("Snapshot #12 is already filed (filing #33, waiting for the mail server).");
+    expect(within(alert).getByRole("link", { name: "Open filing #33 on the Filings screen" })).toHaveAttribute("href", "/filings?filing=33");
+    expect(await within(pack).findByTestId("filing-pending")).toHaveTextContent("Filed by cro2@larkspur.test and kept");
+    expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
+    expect(api.callsTo("GET", "/api/filings")).toHaveLength(2);
+    expect(api.callsTo("POST", "/api/snapshots/12/filings")).toHaveLength(1);
+  });
+
+  it("when the confirmation opens, then focus is on Send the pack; Cancel gives it back to File with the supervisor; an error takes it to its message", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved()], {
+        "POST /api/snapshots/12/filings": error(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address."),
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const pack = await screen.findByRole("region", { name: "Pack and filing" });
+    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    expect(within(pack).getByRole("button", { name: "Send the pack" })).toHaveFocus();
+
+    await user.click(within(pack).getByRole("button", { name: "Cancel" }));
+    expect(within(pack).queryByTestId("filing-confirmation")).not.toBeInTheDocument();
+    expect(within(pack).getByRole("button", { name: "File with the supervisor" })).toHaveFocus();
+
+    await user.keyboard("{Enter}");
+    expect(within(pack).getByRole("button", { name: "Send the pack" })).toHaveFocus();
+    await user.keyboard("{Enter}");
+    const alert = await within(pack).findByRole("alert");
+    expect(alert).toHaveTextContent("LKS-EU has no supervisor contacts");
+    expect(alert).toHaveFocus();
+  });
+
+  it("when the reader copies the filed pack's SHA-256, then all 64 characters go to the clipboard and the button says Copied", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([filed()], { "GET /api/filings": { status: 200, body: [filingOf()] } }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const sha = await screen.findByTestId("filing-sha256");
+    expect(within(sha).getByText(PACK_SHA256).tagName).toBe("CODE");
+    await user.click(within(sha).getByRole("button", { name: "Copy" }));
+
+    expect(await navigator.clipboard.readText()).toBe(PACK_SHA256);
+    expect(within(sha).getByRole("button", { name: "Copied" })).toBeInTheDocument();
   });
 
   it("when the entity has no supervisor contacts (422), then the screen says an administrator adds them", async () => {
@@ -595,7 +783,7 @@ describe("Quarter close › the pack and its filing", () => {
 
     const record = await screen.findByTestId("snapshot-filing");
     expect(record).toHaveTextContent("14 Jan 2026, 10:00 UTC by cro@larkspur.test");
-    expect(within(record).getByText("5e884898da28…")).toBeInTheDocument();
+    expect(within(record).getByText(PACK_SHA256)).toBeInTheDocument();
     expect(within(record).getByTestId("filing-acknowledged")).toHaveTextContent("15 Jan 2026, 08:30 UTC by regulator@larkspur.test");
     expect(within(record).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
     expect(api.callsTo("GET", "/api/filings")).toHaveLength(1);

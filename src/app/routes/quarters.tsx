@@ -1,11 +1,12 @@
-import { useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
-import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
+import { useEffect } from "react";
+import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import { quarterLabel, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
-import { snapshotQueries } from "@/features/quarters/api/snapshot-queries";
+import { snapshotKeys, snapshotQueries } from "@/features/quarters/api/snapshot-queries";
 import { filingQueries } from "@/features/filings/api/filing-queries";
 import { PrepareSnapshotForm } from "@/features/quarters/components/prepare-snapshot-form";
 import { SnapshotDetail } from "@/features/quarters/components/snapshot-detail";
@@ -33,10 +34,16 @@ export const clientLoader = (queryClient: QueryClient) => async ({ request }: Lo
     // A missing or refused snapshot is said inside the screen, not instead of it.
     snapshot ? queryClient.ensureQueryData(snapshotQueries.detail(snapshot)).catch(() => undefined) : undefined,
   ]);
-  const code = entity ?? opened?.entity ?? entities[0]?.code;
+  // A snapshot belongs to one entity: an address naming another entity beside it follows the
+  // snapshot (the thing asked for by its id), so its figures never show under another entity's name.
+  if (opened && entity !== undefined && opened.entity !== entity) throw redirect(paths.quarters.href({ entity: opened.entity, snapshot: opened.id }));
+  const code = opened?.entity ?? entity ?? entities[0]?.code;
   if (code) await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined);
   return null;
 };
+
+/** A pack kept for the mail server goes as soon as the server answers: the screen looks again this often until it has. */
+const PENDING_REREAD_MS = 15_000;
 
 const intro: Record<Role, string> = {
   analyst: "Freeze a quarter's figures as a draft, check them, and submit them for sign-off. A chief risk officer approves and seals them.",
@@ -76,12 +83,22 @@ function SelectedSnapshot({
   // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
   // server; the filings list is the one place they are read from (treasury may not read it).
   const readsFiling = (role === "analyst" || role === "cro") && (data?.status === "filed" || data?.status === "approved");
-  const filings = useQuery({ ...filingQueries.list(), enabled: readsFiling });
+  const filings = useQuery({
+    ...filingQueries.list(),
+    enabled: readsFiling,
+    refetchInterval: (query) => (query.state.data?.some((f) => f.snapshotId === id && f.delivery === "pending") ? PENDING_REREAD_MS : false),
+  });
   const filing = {
     filing: filings.data?.find((f) => f.snapshotId === id),
     reading: readsFiling && filings.isPending,
     error: filings.error,
   };
+  // The pack went while the screen was open: the quarter is filed now, so read the snapshot (and the list's status) again.
+  const queryClient = useQueryClient();
+  const sentMeanwhile = data?.status === "approved" && filing.filing?.delivery === "sent";
+  useEffect(() => {
+    if (sentMeanwhile) void queryClient.invalidateQueries({ queryKey: snapshotKeys.all() });
+  }, [sentMeanwhile, queryClient]);
   if (!data) {
     return error ? (
       <FormMessage>{isApiError(error) ? error.message : `Snapshot #${id} could not be read.`}</FormMessage>
@@ -114,7 +131,8 @@ export default function QuartersRoute() {
   const params = screenParams(search);
   const role = user!.role;
   const opened = useQuery({ ...snapshotQueries.detail(params.snapshot ?? 0), enabled: params.snapshot !== undefined });
-  const entity = params.entity ?? opened.data?.entity ?? entities[0]?.code ?? "";
+  // The snapshot's own entity wins over the address's (the loader also puts it in the address).
+  const entity = opened.data?.entity ?? params.entity ?? entities[0]?.code ?? "";
   const list = useQuery({ ...snapshotQueries.list(entity), enabled: entity !== "" });
   const snapshots = list.data ?? [];
   const selectedId = params.snapshot ?? snapshots[0]?.id;

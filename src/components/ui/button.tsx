@@ -1,4 +1,4 @@
-import type { ButtonHTMLAttributes } from "react";
+import type { ButtonHTMLAttributes, Ref } from "react";
 import { cn } from "@/lib/cn";
 
 type Variant = "primary" | "secondary" | "quiet" | "danger";
@@ -10,7 +10,8 @@ const variants: Record<Variant, string> = {
   danger: "bg-paper-raised text-danger border border-rule-strong hover:border-danger",
 };
 
-export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; size?: "sm" | "md" };
+// React 19 passes `ref` as a prop: it reaches the <button> with the rest, so a screen can move focus to it.
+export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; size?: "sm" | "md"; ref?: Ref<HTMLButtonElement> };
 
 export function Button({ variant = "primary", size = "md", className, type = "button", ...rest }: ButtonProps) {
   return (

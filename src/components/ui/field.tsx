@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
+import { useId, type InputHTMLAttributes, type Ref, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
 import { cn } from "@/lib/cn";
 
 const control =
@@ -110,11 +110,16 @@ export function TextareaField({ label, error, hint, className, id: givenId, ...t
   );
 }
 
-/** A form-level message (the server's answer, or what blocks the form). */
-export function FormMessage({ children, tone = "error" }: { children?: ReactNode; tone?: "error" | "done" }) {
+/**
+ * A form-level message (the server's answer, or what blocks the form). With a `ref` it can take the
+ * focus (tabIndex -1), so a screen may move the reader to an error that replaced what they acted on.
+ */
+export function FormMessage({ children, tone = "error", ref }: { children?: ReactNode; tone?: "error" | "done"; ref?: Ref<HTMLParagraphElement> }) {
   if (!children) return null;
   return (
     <p
+      ref={ref}
+      tabIndex={ref ? -1 : undefined}
       role={tone === "error" ? "alert" : "status"}
       className={cn(
         "border-l-2 px-3 py-1.5 text-sm",

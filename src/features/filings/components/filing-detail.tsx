@@ -2,7 +2,7 @@ import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
 import { quarterLabel, quarterStart } from "@shared/schemas/snapshot";
 import { Figure } from "@/components/ui/figure";
-import { Hash } from "@/components/ui/hash";
+import { FullHash } from "@/components/ui/hash";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";
 import { filingPackHref } from "../api/filing-queries";
@@ -31,9 +31,10 @@ export function FilingDetail({ filing, role, regime }: { filing: Filing; role: R
         </Figure>
         <Figure label="Counted exceptions">{filing.counted}</Figure>
         <Figure label="Multiplier">{formatFactor(filing.multiplier)}</Figure>
-        <Figure label="Pack SHA-256" hint="of the PDF exactly as sent">
+        {/* Written out in full: a supervisor compares it character by character with the file they hold. */}
+        <Figure label="Pack SHA-256" hint="of the PDF exactly as sent" className="col-span-2 sm:col-span-4">
           <span data-testid="filing-sha256">
-            <Hash value={filing.sha256} />
+            <FullHash value={filing.sha256} />
           </span>
         </Figure>
       </dl>

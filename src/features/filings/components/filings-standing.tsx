@@ -3,10 +3,17 @@ import type { Role } from "@shared/schemas/common";
 import { quarterLabel } from "@shared/schemas/snapshot";
 import { formatDateTime, plural } from "@/lib/format";
 
-/** Where the filings stand: how many, how many wait for acknowledgement, and the latest one sent. */
+/**
+ * Where the filings stand: how many, how many wait for acknowledgement, the latest one sent, and
+ * how many still wait for the mail server. A pending pack has reached nobody, so it neither waits
+ * for an acknowledgement nor counts as sent (a regulator never receives one; analysts and the CRO do).
+ */
 export function FilingsStanding({ filings, role }: { filings: Filing[]; role: Role }) {
-  const waiting = filings.filter((f) => f.acknowledgedAt === null).length;
-  const latest = filings[0];
+  const sent = filings.filter((f) => f.delivery === "sent");
+  const pending = filings.length - sent.length;
+  const waiting = sent.filter((f) => f.acknowledgedAt === null).length;
+  // The newest by the time the mail server took it: a pack that waited goes out after later ones.
+  const latest = sent.reduce<Filing | undefined>((a, f) => (!a || (f.sentAt ?? "") > (a.sentAt ?? "") ? f : a), undefined);
   return (
     <dl className="flex flex-wrap gap-x-10 gap-y-2 text-sm" aria-label="Where the filings stand">
       <div>
@@ -25,7 +32,7 @@ export function FilingsStanding({ filings, role }: { filings: Filing[]; role: Ro
       </div>
       <div>
         <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Latest sent</dt>
-        <dd>
+        <dd data-testid="filings-latest-sent">
           {latest ? (
             <>
               <span className="font-medium">
@@ -38,6 +45,14 @@ export function FilingsStanding({ filings, role }: { filings: Filing[]; role: Ro
           )}
         </dd>
       </div>
+      {pending > 0 && (
+        <div>
+          <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Not sent yet</dt>
+          <dd className="figures font-medium" data-testid="filings-pending">
+            {pending} waiting for the mail server
+          </dd>
+        </div>
+      )}
     </dl>
   );
 }

@@ -32,7 +32,17 @@ export function HeldFileCheck({ filing }: { filing: Filing }) {
     <div className="flex flex-col gap-2">
       <h4 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">A file you hold</h4>
       {!available ? (
-        <p className="text-sm text-ink-muted">This browser computes no SHA-256 on a page served without HTTPS; compare the file's hash by hand with the one above.</p>
+        <div className="flex flex-col gap-1 text-sm text-ink-soft" data-testid="held-file-by-hand">
+          <p>This browser computes no SHA-256 on a page served without HTTPS, so compare the file by hand:</p>
+          <ol className="list-decimal pl-5">
+            <li>
+              Compute its SHA-256 on your machine: <code className="font-mono text-xs">sha256sum {filing.fileName}</code> (Linux),{" "}
+              <code className="font-mono text-xs">shasum -a 256 {filing.fileName}</code> (macOS) or{" "}
+              <code className="font-mono text-xs">certutil -hashfile {filing.fileName} SHA256</code> (Windows).
+            </li>
+            <li>Compare all 64 characters with the pack SHA-256 written out in full above (case does not matter): the file is the pack as sent only if every one matches.</li>
+          </ol>
+        </div>
       ) : (
         <>
           <div className="flex flex-wrap items-center gap-3">

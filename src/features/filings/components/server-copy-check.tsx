@@ -21,8 +21,9 @@ export function ServerCopyCheck({ filing }: { filing: Filing }) {
         </Button>
         <span className="text-xs text-ink-muted">Hashes the pack kept at filing and checks the seal of the quarter it came from.</span>
       </div>
-      {verify.error && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The server's copy could not be checked."}</FormMessage>}
-      {result && !verify.isFetching && (
+      {verify.isError && !verify.isFetching && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The server's copy could not be checked."}</FormMessage>}
+      {/* A check that failed, or one still running, leaves no earlier verdict on screen. */}
+      {result && !verify.isFetching && !verify.isError && (
         <div
           role="status"
           aria-label="Server copy check"

@@ -64,6 +64,13 @@ export function blockingSnapshotOf(error: unknown): number | undefined {
   return typeof id === "number" && Number.isInteger(id) && id > 0 ? id : undefined;
 }
 
+/** The filing a 409 on filing names (`details.filingId`): the quarter was filed already, by this reader or another. */
+export function existingFilingOf(error: unknown): number | undefined {
+  if (!isApiError(error) || error.status !== 409) return undefined;
+  const id = (error.details as { filingId?: unknown } | null | undefined)?.filingId;
+  return typeof id === "number" && Number.isInteger(id) && id > 0 ? id : undefined;
+}
+
 /**
  * After a change the server's answer is the snapshot as it now stands; everything else that shows
  * figures or a quarter's status goes stale (lists, capital history, overview). Features may not
@@ -131,7 +138,8 @@ export function useReturnSnapshot(id: number) {
  * The CRO files an approved snapshot: the server e-mails its pack to the entity's supervisor
  * contacts, keeps it, and the snapshot becomes filed. The answer is the filing; the snapshot, the
  * filings list and the capital history's status all go stale, and the shared "every figure" rule
- * covers them all ("snapshots", "filings", "capital" are none of them "auth").
+ * covers them all ("snapshots", "filings", "capital" are none of them "auth"). The answer is 201
+ * when the mail server took the pack, 202 when it is kept as pending (`delivery` says which).
  */
 export function useFileSnapshot(id: number) {
   const queryClient = useQueryClient();
@@ -139,6 +147,8 @@ export function useFileSnapshot(id: number) {
   return useMutation({
     mutationFn: () => api.post(`${base(id)}/filings`, {}, filingSchema),
     onSuccess: () => queryClient.invalidateQueries(everyFigure),
-    onError: (error) => reread(error),
+    // "Already filed" is the same news as a filing that succeeded: the filings list (read by the
+    // screen, whose key this feature may not import) goes stale with everything else.
+    onError: (error) => (existingFilingOf(error) !== undefined ? queryClient.invalidateQueries(everyFigure) : reread(error)),
   });
 }

@@ -1,20 +1,29 @@
-import { useState } from "react";
+import { useRef, useState } from "react";
+import { flushSync } from "react-dom";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
 import { quarterLabel, SIGNED_OFF, type Snapshot } from "@shared/schemas/snapshot";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
-import { Hash } from "@/components/ui/hash";
+import { FullHash } from "@/components/ui/hash";
 import { formLevelMessage } from "@/lib/form";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
-import { snapshotPackHref, useFileSnapshot } from "../api/snapshot-queries";
+import { existingFilingOf, snapshotPackHref, useFileSnapshot } from "../api/snapshot-queries";
 
 /** The filed snapshot's filing as the screen found it in the filings list. */
 export type FilingLookup = { filing?: Filing; reading: boolean; error: unknown };
 
+/** A refusal because the quarter already has a filing: its message, and the filing it names. */
+type AlreadyFiled = { message: string; filingId: number };
+
 const NOTHING_SENT = "Nothing was sent and nothing was recorded; try again.";
+
+/** An outcome that replaces the button the reader pressed takes the focus, so it is read out and the reader is not left on the page's top. */
+const focusWhenShown = (el: HTMLElement | null) => {
+  el?.focus();
+};
 
 /** Why the filing did not happen, by the server's code, with what to do about it. */
 function filingRefusal(error: unknown, entity: string): string | undefined {
@@ -26,42 +35,70 @@ function filingRefusal(error: unknown, entity: string): string | undefined {
   return formLevelMessage(error) ?? error.message;
 }
 
-function FileWithSupervisor({ snapshot, onFiled }: { snapshot: Snapshot; onFiled: (filing: Filing) => void }) {
+/** What happened to the pack just filed, by its delivery: the mail server took it, or it is kept until the server answers. */
+function filedInWords(quarter: string, filing: Filing): string {
+  return filing.delivery === "sent"
+    ? `${quarter} is filed with the supervisor: the pack went by e-mail to ${filing.recipients.join(", ")}.`
+    : `${quarter}'s pack is kept; the mail server did not take it yet — it is sent automatically as soon as the server answers, and the quarter becomes filed then.`;
+}
+
+function FileWithSupervisor({
+  snapshot,
+  onFiled,
+  onAlreadyFiled,
+}: {
+  snapshot: Snapshot;
+  onFiled: (filing: Filing) => void;
+  onAlreadyFiled: (refusal: AlreadyFiled) => void;
+}) {
   const file = useFileSnapshot(snapshot.id);
   const [confirming, setConfirming] = useState(false);
+  const sendButton = useRef<HTMLButtonElement>(null);
+  const fileButton = useRef<HTMLButtonElement>(null);
   const quarter = quarterLabel(snapshot.quarterEnd);
-  const refusal = filingRefusal(file.error, snapshot.entity);
+  // "Already filed" is said above, with the filing, by the section that outlives this button.
+  const refusal = existingFilingOf(file.error) === undefined ? filingRefusal(file.error, snapshot.entity) : undefined;
+
+  // The confirmation replaces the button pressed: focus moves into it, and back when it is cancelled.
+  function confirm() {
+    file.reset();
+    flushSync(() => setConfirming(true));
+    sendButton.current?.focus();
+  }
+  function cancel() {
+    flushSync(() => setConfirming(false));
+    fileButton.current?.focus();
+  }
 
   function send() {
     file.mutate(undefined, {
       onSuccess: onFiled,
+      onError: (error) => {
+        const filingId = existingFilingOf(error);
+        if (filingId !== undefined) onAlreadyFiled({ message: error.message, filingId });
+      },
       onSettled: () => setConfirming(false),
     });
   }
 
   return (
     <div role="group" aria-label="File with the supervisor" className="flex flex-col gap-2">
-      {refusal && <FormMessage>{refusal}</FormMessage>}
+      {refusal && <FormMessage ref={focusWhenShown}>{refusal}</FormMessage>}
       {confirming ? (
         <div className="flex flex-wrap items-center gap-3 border-l-2 border-accent pl-3">
           <p className="text-sm" data-testid="filing-confirmation">
             The pack goes by e-mail to {snapshot.entity}'s supervisor contacts and is kept as sent; {quarter} becomes filed.
           </p>
-          <Button onClick={send} disabled={file.isPending}>
+          <Button ref={sendButton} onClick={send} disabled={file.isPending}>
             {file.isPending ? "Sending the pack…" : "Send the pack"}
           </Button>
-          <Button variant="quiet" onClick={() => setConfirming(false)} disabled={file.isPending}>
+          <Button variant="quiet" onClick={cancel} disabled={file.isPending}>
             Cancel
           </Button>
         </div>
       ) : (
         <div>
-          <Button
-            onClick={() => {
-              file.reset();
-              setConfirming(true);
-            }}
-          >
+          <Button ref={fileButton} onClick={confirm}>
             File with the supervisor
           </Button>
         </div>
@@ -96,7 +133,7 @@ function FilingRecord({ filing, filingHref }: { filing: Filing; filingHref: stri
         <dd data-testid="filing-recipients">{filing.recipients.join(", ")}</dd>
         <dt className="text-ink-muted">Pack SHA-256</dt>
         <dd data-testid="filing-sha256">
-          <Hash value={filing.sha256} />
+          <FullHash value={filing.sha256} />
         </dd>
         <dt className="text-ink-muted">Acknowledged</dt>
         <dd data-testid="filing-acknowledged">
@@ -129,9 +166,11 @@ export function SnapshotFiling({
   filingHref: (id: number) => string;
 }) {
   const [justFiled, setJustFiled] = useState<Filing>();
+  const [alreadyFiled, setAlreadyFiled] = useState<AlreadyFiled>();
   if (role !== "analyst" && role !== "cro") return null;
   const quarter = quarterLabel(snapshot.quarterEnd);
-  const filing = justFiled ?? lookup.filing;
+  // The list is read again while a pack waits for the mail server: its answer is the newer one.
+  const filing = lookup.filing ?? justFiled;
 
   let filingPart = null;
   if (filing) filingPart = <FilingRecord filing={filing} filingHref={filingHref(filing.id)} />;
@@ -146,7 +185,7 @@ export function SnapshotFiling({
   else if (snapshot.status === "approved")
     filingPart =
       role === "cro" ? (
-        <FileWithSupervisor snapshot={snapshot} onFiled={setJustFiled} />
+        <FileWithSupervisor snapshot={snapshot} onFiled={setJustFiled} onAlreadyFiled={setAlreadyFiled} />
       ) : (
         <p className="text-sm text-ink-soft">A chief risk officer files {quarter} with the supervisor: the pack goes by e-mail to the entity's supervisor contacts.</p>
       );
@@ -167,8 +206,14 @@ export function SnapshotFiling({
         </span>
       </p>
       {justFiled && (
-        <FormMessage tone="done">
-          {quarter} is filed with the supervisor: the pack went by e-mail to {justFiled.recipients.join(", ")}.
+        <FormMessage tone="done" ref={focusWhenShown}>
+          {filedInWords(quarter, filing ?? justFiled)}
+        </FormMessage>
+      )}
+      {alreadyFiled && (
+        <FormMessage ref={focusWhenShown}>
+          {alreadyFiled.message}{" "}
+          <Link to={filingHref(alreadyFiled.filingId)}>Open filing #{alreadyFiled.filingId} on the Filings screen</Link>
         </FormMessage>
       )}
       {filingPart}

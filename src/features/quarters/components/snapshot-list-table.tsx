@@ -62,7 +62,8 @@ export function SnapshotListTable({
                 {snapshotStatusLabels[s.status]}
               </Td>
               <Td>
-                <ZoneBadge zone={s.zone} regime={s.figures.regime} />
+                {/* A window short of 250 observations gives a provisional zone (DESIGN §4), here as in the snapshot's figures. */}
+                <ZoneBadge zone={s.zone} regime={s.figures.regime} provisional={!s.figures.window.complete} />
               </Td>
               <Td numeric>{s.counted}</Td>
               <Td numeric>{formatFactor(s.plusFactor)}</Td>

@@ -29,8 +29,9 @@ function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
         </Button>
         <span className="text-xs text-ink-muted">Recomputes the hash from the stored figures and the previous quarter's hash.</span>
       </div>
-      {verify.error && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The hash could not be checked."}</FormMessage>}
-      {result && !verify.isFetching && (
+      {verify.isError && !verify.isFetching && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The hash could not be checked."}</FormMessage>}
+      {/* A check that failed, or one still running, leaves no earlier verdict on screen. */}
+      {result && !verify.isFetching && !verify.isError && (
         <div
           role="status"
           aria-label="Hash check"

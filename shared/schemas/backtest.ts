@@ -158,6 +158,8 @@ export const overviewItemSchema = z.object({
   nextRollOff: rollOffSchema.nullable(),
   openReviews: z.number().int(),
   openFindings: z.number().int(),
+  /** The entity's newest quarter snapshot and where it stands in the sign-off, if any. */
+  quarterClose: z.object({ snapshotId: z.number().int(), quarterEnd: z.string(), status: z.enum(["draft", "submitted", "approved", "returned", "filed"]) }).nullable(),
 });
 export type OverviewItem = z.infer<typeof overviewItemSchema>;
 export const overviewResponseSchema = z.array(overviewItemSchema);

@@ -24,6 +24,7 @@ const item = {
   nextRollOff: { date: "2026-02-11", leavesOn: "2027-02-08", actual: true, hypothetical: false, countAfter: 6, zoneAfter: "yellow", plusFactorAfter: 0.5 },
   openReviews: 3,
   openFindings: 2,
+  quarterClose: { snapshotId: 12, quarterEnd: "2026-09-30", status: "approved" },
 };
 
 describe("Overview", () => {
@@ -48,6 +49,18 @@ describe("Overview", () => {
     expect(within(row).getByRole("link", { name: "LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL");
     expect(within(row).getByRole("link", { name: "3 open reviews for LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL#exceptions");
     expect(within(row).getByRole("link", { name: "2 open findings for LKS-US" })).toHaveAttribute("href", "/data?entity=LKS-US");
+    expect(within(row).getByRole("link", { name: "Quarter close of LKS-US: Q3 2026 · Approved" })).toHaveAttribute("href", "/quarters?entity=LKS-US&snapshot=12");
+  });
+
+  it("when an entity has no snapshot yet, then its quarter-close cell says so", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      "GET /api/entities": { status: 200, body: entities },
+      "GET /api/overview": { status: 200, body: [{ ...item, quarterClose: null }] },
+    });
+    renderApp("/");
+    const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
+    expect(within(row).getByText("No snapshot yet")).toBeInTheDocument();
   });
 
   it("when the window is short, then the count says provisional; an FRTB entity's middle zone reads Amber", async () => {

@@ -175,5 +175,6 @@ describe("the overview", () => {
     expect(mine.zone).toMatch(/green|yellow/);
     expect(mine.openReviews).toBeGreaterThanOrEqual(1);
     expect(mine.nextRollOff).toMatchObject({ date: book.exceptionDays[0] });
+    expect(mine.quarterClose).toBeNull(); // no snapshot prepared for this entity
   });
 });

@@ -1,6 +1,7 @@
 import { AppError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
+import { SnapshotModel } from "../../models/snapshot";
 import { backtestAt, rollingBacktest } from "../../../shared/backtest/exceptions";
 import { rollOffs } from "../../../shared/backtest/forecast";
 import { deskBacktest } from "../../../shared/backtest/frtb-desk";
@@ -87,6 +88,12 @@ function addOnOrNull(series: Observation[], opts: Parameters<typeof capitalAddOn
   }
 }
 
+/** The entity's newest quarter snapshot, for the Overview's quarter-close column. */
+async function newestSnapshotOf(entityId: number): Promise<OverviewItem["quarterClose"]> {
+  const s = await SnapshotModel.findOne({ where: { entityId }, order: [["quarterEnd", "DESC"]], attributes: ["id", "quarterEnd", "status"] });
+  return s ? { snapshotId: s.id, quarterEnd: s.quarterEnd, status: s.status } : null;
+}
+
 /** Where each entity stands today: zone, count, multiplier, add-on, next roll-off, open work. */
 export async function getOverview(): Promise<OverviewItem[]> {
   const entities = await EntityModel.findAll({ order: [["code", "ASC"]] });
@@ -111,6 +118,7 @@ export async function getOverview(): Promise<OverviewItem[]> {
       nextRollOff: null,
       openReviews: 0,
       openFindings: 0,
+      quarterClose: await newestSnapshotOf(entity.id),
     };
     if (!top) {
       items.push(base);

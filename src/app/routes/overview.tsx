@@ -41,7 +41,12 @@ function Standing() {
         Each entity's top-of-house portfolio on its latest day of data. Open an entity for its backtest, the exceptions to explain and the roll-off
         calendar.
       </p>
-      <StandingTable items={items} backtestHref={(p) => paths.backtest.href(p)} findingsHref={(entity) => paths.data.href({ entity })} />
+      <StandingTable
+        items={items}
+        backtestHref={(p) => paths.backtest.href(p)}
+        findingsHref={(entity) => paths.data.href({ entity })}
+        quarterHref={(entity, snapshot) => paths.quarters.href({ entity, snapshot })}
+      />
     </>
   );
 }

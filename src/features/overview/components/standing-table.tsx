@@ -4,6 +4,8 @@ import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
+import { quarterLabel } from "@shared/schemas/snapshot";
 
 /**
  * One dense row per entity, in the order a reader asks: zone and count first, then what it costs,
@@ -13,10 +15,13 @@ export function StandingTable({
   items,
   backtestHref,
   findingsHref,
+  quarterHref,
 }: {
   items: OverviewItem[];
   backtestHref: (portfolio: string) => string;
   findingsHref: (entity: string) => string;
+  /** Where the quarter-close column links to; without it (a role that may not open Quarter close) it is plain text. */
+  quarterHref?: (entity: string, snapshotId: number) => string;
 }) {
   if (items.length === 0) {
     return (
@@ -39,6 +44,7 @@ export function StandingTable({
           <Th>Next roll-off</Th>
           <Th numeric>Open reviews</Th>
           <Th numeric>Open findings</Th>
+          <Th>Quarter close</Th>
         </tr>
       </thead>
       <tbody>
@@ -109,10 +115,29 @@ export function StandingTable({
                   <span className="text-ink-muted">0</span>
                 )}
               </Td>
+              <Td className="whitespace-nowrap">
+                {e.quarterClose ? (
+                  <QuarterState entity={e.entity} state={e.quarterClose} href={quarterHref} />
+                ) : (
+                  <span className="text-ink-muted">No snapshot yet</span>
+                )}
+              </Td>
             </Tr>
           );
         })}
       </tbody>
     </Table>
+  );
+}
+
+/** The newest snapshot's quarter and status in plain words, e.g. "Q3 2026 · Approved". */
+function QuarterState({ entity, state, href }: { entity: string; state: NonNullable<OverviewItem["quarterClose"]>; href?: (entity: string, snapshotId: number) => string }) {
+  const text = `${quarterLabel(state.quarterEnd)} · ${snapshotStatusLabels[state.status]}`;
+  return href ? (
+    <Link to={href(entity, state.snapshotId)} aria-label={`Quarter close of ${entity}: ${text}`}>
+      {text}
+    </Link>
+  ) : (
+    <span>{text}</span>
   );
 }

@@ -13,25 +13,9 @@ import { UserModel } from "../server/models/user";
 import { toSessionUser } from "../server/modules/auth/auth.service";
 import { closeFinding } from "../server/modules/findings/findings.service";
 import { approveSnapshot, prepareSnapshot, submitSnapshot } from "../server/modules/snapshots/snapshots.service";
-import { quarterLabel, quarterStart } from "../shared/schemas/snapshot";
+import { endedQuarterEnds, quarterLabel, quarterStart } from "../shared/schemas/snapshot";
 
 const QUARTERS = 4;
-
-/** The quarter ends strictly before `today`, newest first. */
-function endedQuarters(today: string, count: number): string[] {
-  const out: string[] = [];
-  let year = Number(today.slice(0, 4));
-  let q = Math.ceil(Number(today.slice(5, 7)) / 3);
-  while (out.length < count) {
-    q--;
-    if (q === 0) {
-      q = 4;
-      year--;
-    }
-    out.push(`${year}-${["03-31", "06-30", "09-30", "12-31"][q - 1]}`);
-  }
-  return out;
-}
 
 async function actorFor(email: string) {
   const user = await UserModel.findOne({ where: { email } });
@@ -42,7 +26,7 @@ async function actorFor(email: string) {
 export async function up(): Promise<void> {
   const analyst = await actorFor("analyst@larkspur.test");
   const cro = await actorFor("cro@larkspur.test");
-  const quarters = endedQuarters(new Date().toISOString().slice(0, 10), QUARTERS).reverse();
+  const quarters = endedQuarterEnds(new Date().toISOString().slice(0, 10), QUARTERS).reverse();
   for (const entity of await EntityModel.findAll({ order: [["code", "ASC"]] })) {
     const portfolioIds = (await PortfolioModel.findAll({ where: { entityId: entity.id } })).map((p) => p.id);
     for (const quarterEnd of quarters) {

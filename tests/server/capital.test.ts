@@ -40,6 +40,7 @@ describe("the zone forecast", () => {
     const res = await request(app).get(`/api/entities/${book.entity.code}/capital/forecast?date=2026-10-14`).set("Cookie", book.treasury);
     expect(res.status).toBe(200);
     const f = forecastResponseSchema.parse(res.body);
+    // Today: five exceptions, yellow, plus factor 0.40, multiplier 3.40 (BCBS 1996 Table 2; CRR Art. 366, from memory).
     expect(f).toMatchObject({ asOf: LAST_DAY, date: "2026-10-14", newDays: 10, knownRemaining: 5, today: { counted: 5, zone: "yellow", plusFactor: 0.4, multiplier: 3.4 } });
     // P(no new exception in 10 days) = 0.99^10 (binomial, REFERENCE.md).
     expect(f.distribution[0]).toEqual({ exceptions: 5, probability: expect.closeTo(0.99 ** 10, 12) });
@@ -50,7 +51,7 @@ describe("the zone forecast", () => {
     expect(f.rollOffs.map((r) => r.date)).toEqual(book.exceptionDates);
   });
 
-  it("when asked what the next exception costs, then it is the step from 5 to 6 exceptions (plus factor 0.40 → 0.50, BCBS 1996 Table 2) on the 60-day averages scaled by √10 (REFERENCE.md capital formula)", async () => {
+  it("when asked what the next exception costs, then it is the step from 5 to 6 exceptions (plus factor 0.40 → 0.50, BCBS 1996 Table 2) on the 60-day averages scaled by √10 (REFERENCE.md: CRR Art. 364(1) formula, Art. 365 ten-day VaR; the √10 square-root-of-time scaling is common practice)", async () => {
     const res = await request(app).get(`/api/entities/${book.entity.code}/capital/forecast`).set("Cookie", book.treasury);
     // Averages over the last 60 days: VaR (100 + 101) / 2, stressed VaR 250; both average terms bind.
     expect(res.body.nextExceptionCost).toBeCloseTo(0.1 * SQRT_10 * (100.5 + 250), 6);

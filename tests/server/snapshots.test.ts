@@ -146,6 +146,7 @@ describe("the four-eyes sign-off", () => {
     expect(returned.body).toMatchObject({ status: "returned", counted: 5 });
     const again = await prepare(book);
     expect(again.status).toBe(200);
+    // Six exceptions: yellow, plus factor 0.50, multiplier 3.50 (BCBS 1996 Table 2; CRR Art. 366, from memory).
     expect(again.body).toMatchObject({ id: submitted.id, status: "draft", counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5 });
     expect(again.body.history.map((e: { action: string }) => e.action)).toEqual(["prepared", "submitted", "returned", "recomputed"]);
   });

@@ -8,6 +8,7 @@ import { marginalCostOfNextException } from "../../../shared/backtest/capital";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { loadPortfolioContext, type PortfolioContext } from "../backtest/portfolio-context";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
+import { quarterEndOf } from "../../../shared/schemas/snapshot";
 import type { z } from "zod";
 import type { whatIfBodySchema } from "../../../shared/schemas/capital";
 
@@ -20,12 +21,6 @@ async function topOf(code: string): Promise<{ entity: EntityModel; ctx: Portfoli
   const ctx = await loadPortfolioContext(top.code);
   if (ctx.series.length === 0) throw new AppError(404, "no_data", `No daily data for ${top.code} yet. An analyst uploads it under Data.`);
   return { entity, ctx, latest: ctx.series[ctx.series.length - 1].date };
-}
-
-/** The end of the quarter `date` falls in. */
-function quarterEndOf(date: string): string {
-  const month = Math.ceil(Number(date.slice(5, 7)) / 3) * 3;
-  return `${date.slice(0, 4)}-${["03-31", "06-30", "09-30", "12-31"][month / 3 - 1]}`;
 }
 
 /** The current quarter's end, or the next one when the data already reaches it. */

@@ -2,9 +2,7 @@ import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import type { Filing } from "@shared/schemas/filing";
 import { Button } from "@/components/ui/button";
-import { FormMessage } from "@/components/ui/field";
-import { isApiError } from "@/lib/api-client";
-import { cn } from "@/lib/cn";
+import { CheckVerdict } from "@/components/ui/check-verdict";
 import { filingQueries } from "../api/filing-queries";
 
 /** Asks the server to hash the pack it kept and check the snapshot behind it; shows what it found, in its words. */
@@ -21,18 +19,13 @@ export function ServerCopyCheck({ filing }: { filing: Filing }) {
         </Button>
         <span className="text-xs text-ink-muted">Hashes the pack kept at filing and checks the seal of the quarter it came from.</span>
       </div>
-      {verify.isError && !verify.isFetching && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The server's copy could not be checked."}</FormMessage>}
-      {/* A check that failed, or one still running, leaves no earlier verdict on screen. */}
-      {result && !verify.isFetching && !verify.isError && (
-        <div
-          role="status"
-          aria-label="Server copy check"
-          className={cn("border-l-2 px-3 py-1.5 text-sm", result.valid ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
-        >
-          <p className="font-semibold">{result.valid ? "Valid: the kept pack is the file that was sent." : "Invalid: the kept pack or its quarter does not check out."}</p>
-          <p className={cn(result.valid ? "text-ink-soft" : "text-ink")}>{result.detail}</p>
-        </div>
-      )}
+      <CheckVerdict
+        check={verify}
+        label="Server copy check"
+        validText="Valid: the kept pack is the file that was sent."
+        invalidText="Invalid: the kept pack or its quarter does not check out."
+        unreachableText="The server's copy could not be checked."
+      />
     </div>
   );
 }

@@ -2,11 +2,9 @@ import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import type { Snapshot } from "@shared/schemas/snapshot";
 import { Button } from "@/components/ui/button";
-import { FormMessage } from "@/components/ui/field";
+import { CheckVerdict } from "@/components/ui/check-verdict";
 import { Hash } from "@/components/ui/hash";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { isApiError } from "@/lib/api-client";
-import { cn } from "@/lib/cn";
 import { formatDateTime } from "@/lib/format";
 import { snapshotQueries } from "../api/snapshot-queries";
 import { snapshotEventLabels } from "../words";
@@ -29,18 +27,13 @@ function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
         </Button>
         <span className="text-xs text-ink-muted">Recomputes the hash from the stored figures and the previous quarter's hash.</span>
       </div>
-      {verify.isError && !verify.isFetching && <FormMessage>{isApiError(verify.error) ? verify.error.message : "The hash could not be checked."}</FormMessage>}
-      {/* A check that failed, or one still running, leaves no earlier verdict on screen. */}
-      {result && !verify.isFetching && !verify.isError && (
-        <div
-          role="status"
-          aria-label="Hash check"
-          className={cn("border-l-2 px-3 py-1.5 text-sm", result.valid ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
-        >
-          <p className="font-semibold">{result.valid ? "Valid: the figures are as signed off." : "Invalid: the stored snapshot does not match its hash."}</p>
-          <p className={cn(result.valid ? "text-ink-soft" : "text-ink")}>{result.detail}</p>
-        </div>
-      )}
+      <CheckVerdict
+        check={verify}
+        label="Hash check"
+        validText="Valid: the figures are as signed off."
+        invalidText="Invalid: the stored snapshot does not match its hash."
+        unreachableText="The hash could not be checked."
+      />
     </div>
   );
 }

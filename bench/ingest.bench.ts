@@ -60,14 +60,14 @@ async function main() {
         .slice(1)
         .map((l) => {
           const [code, date, a, h, v, v975, sv] = l.split(",");
-          return `${bench.portfolioIds.get(code)},${date},1,1,${a},${h},${v},${v975},${sv},${uploadId},${bench.userId}`;
+          return `${bench.portfolioIds.get(code)},${date},1,1,${a},${h},${v},${v975},${sv},${uploadId}`;
         });
       writeFileSync(file, rows.join("\n"));
       const l0 = performance.now();
       await admin.beginTransaction();
       await admin.query(
         `LOAD DATA LOCAL INFILE '${file}' INTO TABLE observations FIELDS TERMINATED BY ',' LINES TERMINATED BY '\\n'
-         (portfolio_id, business_date, version, is_current, actual_pnl, hypothetical_pnl, var_99, var_975, svar_99, upload_id, created_by)`,
+         (portfolio_id, business_date, version, is_current, actual_pnl, hypothetical_pnl, var_99, var_975, svar_99, upload_id)`,
       );
       await admin.commit();
       const ms = performance.now() - l0;

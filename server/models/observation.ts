@@ -10,8 +10,8 @@ import { decimalAttribute } from "./decimal";
 export class ObservationModel extends Model<InferAttributes<ObservationModel>, InferCreationAttributes<ObservationModel>> {
   declare portfolioId: number;
   declare businessDate: string;
-  declare version: number;
-  declare isCurrent: boolean;
+  declare version: CreationOptional<number>;
+  declare isCurrent: CreationOptional<boolean>;
   declare actualPnl: number | null;
   declare hypotheticalPnl: number | null;
   declare var99: number | null;
@@ -22,9 +22,8 @@ export class ObservationModel extends Model<InferAttributes<ObservationModel>, I
   declare es975: number | null;
   declare ses: number | null;
   declare rtpl: number | null;
+  /** The upload whose commit wrote this version: its committer and commit time are the version's who and when. */
   declare uploadId: number;
-  declare createdBy: number;
-  declare createdAt: CreationOptional<Date>;
 }
 
 const money = (attribute: keyof InferAttributes<ObservationModel>, field: string) => decimalAttribute<ObservationModel>(attribute, 20, 2, { allowNull: true, field });
@@ -34,8 +33,8 @@ ObservationModel.init(
     // The key is the day's identity: portfolio, business day, version.
     portfolioId: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true },
     businessDate: { type: DataTypes.DATEONLY, allowNull: false, primaryKey: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true },
-    isCurrent: { type: DataTypes.BOOLEAN, allowNull: false },
+    version: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true, defaultValue: 1 },
+    isCurrent: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     actualPnl: money("actualPnl", "actual_pnl"),
     hypotheticalPnl: money("hypotheticalPnl", "hypothetical_pnl"),
     var99: money("var99", "var_99"),
@@ -47,8 +46,6 @@ ObservationModel.init(
     ses: money("ses", "ses"),
     rtpl: money("rtpl", "rtpl"),
     uploadId: { type: DataTypes.INTEGER, allowNull: false },
-    createdBy: { type: DataTypes.INTEGER, allowNull: false },
-    createdAt: DataTypes.DATE(3),
   },
-  { sequelize, tableName: "observations", updatedAt: false },
+  { sequelize, tableName: "observations", timestamps: false },
 );

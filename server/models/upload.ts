@@ -21,6 +21,8 @@ export class UploadModel extends Model<InferAttributes<UploadModel>, InferCreati
   declare errorsJson: string | null;
   declare summaryJson: string | null;
   declare committedAt: Date | null;
+  /** Who committed it: the who of every version it wrote (committedAt is their when). */
+  declare committedBy: number | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -45,6 +47,7 @@ UploadModel.init(
     errorsJson: { type: DataTypes.TEXT("long"), allowNull: true },
     summaryJson: { type: DataTypes.TEXT, allowNull: true },
     committedAt: { type: DataTypes.DATE(3), allowNull: true },
+    committedBy: { type: DataTypes.INTEGER, allowNull: true },
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },

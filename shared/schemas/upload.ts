@@ -75,6 +75,8 @@ export const uploadPreviewSchema = z.object({
   uploadedBy: z.string(),
   uploadedAt: z.string(),
   committedAt: z.string().nullable(),
+  /** Who committed it: the who of every version it wrote (committedAt is their when). */
+  committedBy: z.string().nullable(),
   inserted: z.number().int().nullable(),
 });
 export type UploadPreview = z.infer<typeof uploadPreviewSchema>;

@@ -27,6 +27,7 @@ function preview(over: Partial<Record<string, unknown>> = {}) {
     uploadedBy: "analyst@larkspur.test",
     uploadedAt: "2026-03-31T18:02:00.000Z",
     committedAt: null,
+    committedBy: null,
     inserted: null,
     ...over,
   };

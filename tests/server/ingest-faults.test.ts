@@ -59,6 +59,8 @@ describe("the database goes away in the middle of a commit", () => {
     const retry = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
     expect(retry.status).toBe(200);
     expect(retry.body.inserted).toBe(30000);
-    expect(await ObservationModel.count({ where: { portfolioId: portfolio.id, createdBy: analyst.id } })).toBe(30000);
+    expect(await ObservationModel.count({ where: { portfolioId: portfolio.id, uploadId: preview.body.id } })).toBe(30000);
+    const committed = await UploadModel.findByPk(preview.body.id);
+    expect(committed!.committedBy).toBe(analyst.id);
   });
 });

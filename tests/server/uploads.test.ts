@@ -42,7 +42,7 @@ describe("uploading daily data", () => {
   });
 
   it("when a file restates stored days, then each changed day gets a new version, the old one is kept, and unchanged days are skipped", async () => {
-    const { portfolio, cookie } = await ingestFixture();
+    const { portfolio, cookie, analyst } = await ingestFixture();
     const dates = weekdays("2026-10-05", 5);
     const first = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
     await request(app).post(`/api/uploads/${first.body.id}/commit`).set("Cookie", cookie).expect(200);
@@ -58,6 +58,13 @@ describe("uploading daily data", () => {
       [1, false, -201],
       [2, true, -999.5],
     ]);
+    // Who and when of each version: the commit of the upload that wrote it.
+    expect(versions.map((v) => v.uploadId)).toEqual([first.body.id, second.body.id]);
+    const writers = await UploadModel.findAll({ where: { id: [first.body.id, second.body.id] }, order: [["id", "ASC"]] });
+    expect(writers.map((u) => u.committedBy)).toEqual([analyst.id, analyst.id]);
+    expect(writers[1].committedAt!.getTime()).toBeGreaterThanOrEqual(writers[0].committedAt!.getTime());
+    const history = await request(app).get(`/api/uploads/${second.body.id}`).set("Cookie", cookie);
+    expect(history.body).toMatchObject({ committedBy: analyst.email, committedAt: writers[1].committedAt!.toISOString() });
     const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations`).set("Cookie", cookie);
     expect(read.body[2]).toMatchObject({ date: dates[2], actualPnl: -999.5, hypotheticalPnl: -90.25, var99: 1500, version: 2 });
   });

@@ -1,5 +1,6 @@
 import { QueryTypes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
+import { connectionOf } from "../../db/raw-connection";
 import { AMOUNT_COLUMNS, type AmountColumn } from "../../../shared/schemas/upload";
 import type { Observation } from "../../../shared/backtest/types";
 
@@ -51,16 +52,6 @@ export async function loadCurrentDays(
 /** Rows per INSERT: about half a megabyte of SQL (bench/ingest.bench.ts measured 2,000 to 10,000 alike). */
 const BATCH_ROWS = 5_000;
 
-/** The mariadb connection a Sequelize transaction runs on, for the bulk writes below. */
-interface RawConnection {
-  query(sql: string, values?: unknown[]): Promise<unknown>;
-}
-function connectionOf(transaction: Transaction): RawConnection {
-  const connection = (transaction as unknown as { connection?: RawConnection }).connection;
-  if (!connection) throw new Error("the transaction has no connection yet");
-  return connection;
-}
-
 /**
  * Sends the statements down the transaction's connection one after another without waiting for
  * each answer (the driver pipelines them), so the next batch is built while MariaDB writes this
@@ -90,37 +81,46 @@ export class PipelinedWrites {
 }
 
 /**
- * Queues new versions as multi-row INSERTs on `writes`, letting each batch go out before building the next. Only the amount columns that some row of
- * a batch reports are named (the others default to NULL), which keeps the SQL short. Every value
- * has been validated (integers, ISO dates, finite amounts rounded to the cent), so they are
- * written as literals.
+ * Queues new versions as multi-row INSERTs on `writes`, letting each batch go out before building
+ * the next. A version says only what differs from row to row: new days (version 1, current: the
+ * column defaults) name neither column, restatements name their version; only the amount columns
+ * that some row of a batch reports are named (the others default to NULL). Who wrote them and
+ * when is their upload's. Every value has been validated (integers, ISO dates, finite amounts
+ * rounded to the cent), so they are written as literals.
  */
-export async function queueInsertVersions(writes: PipelinedWrites, rows: readonly NewVersion[], uploadId: number, userId: number): Promise<void> {
-  for (let start = 0; start < rows.length; start += BATCH_ROWS) {
-    const end = Math.min(rows.length, start + BATCH_ROWS);
-    const present = AMOUNT_COLUMNS.filter((c) => {
-      for (let i = start; i < end; i++) if (rows[i].row[c] !== null && rows[i].row[c] !== undefined) return true;
-      return false;
-    });
-    const tail = `,${uploadId | 0},${userId | 0})`;
-    let values = "";
-    for (let i = start; i < end; i++) {
-      const r = rows[i];
-      const date = r.row.date;
-      if (!ISO_DATE.test(date)) throw new Error(`refusing to write unchecked date ${date}`);
-      let amounts = "";
-      for (const c of present) {
-        const v = r.row[c];
-        if (v === null || v === undefined) amounts += ",NULL";
-        else if (Number.isFinite(v)) amounts += `,${v}`;
-        else throw new Error(`refusing to write a non-finite ${c} for ${date}`);
-      }
-      values += `${i === start ? "" : ","}(${r.portfolioId | 0},'${date}',${r.version | 0},1${amounts}${tail}`;
+export async function queueInsertVersions(writes: PipelinedWrites, rows: readonly NewVersion[], uploadId: number): Promise<void> {
+  const firsts = rows.filter((r) => r.version === 1);
+  const restated = firsts.length === rows.length ? [] : rows.filter((r) => r.version !== 1);
+  for (const [group, withVersion] of [[firsts, false], [restated, true]] as const) {
+    for (let start = 0; start < group.length; start += BATCH_ROWS) {
+      writes.send(insertBatch(group, start, Math.min(group.length, start + BATCH_ROWS), withVersion, uploadId));
+      await writes.flush();
     }
-    const columns = present.length ? `, ${present.join(", ")}` : "";
-    writes.send(`INSERT INTO observations (portfolio_id, business_date, version, is_current${columns}, upload_id, created_by) VALUES ${values}`);
-    await writes.flush();
   }
+}
+
+function insertBatch(rows: readonly NewVersion[], start: number, end: number, withVersion: boolean, uploadId: number): string {
+  const present = AMOUNT_COLUMNS.filter((c) => {
+    for (let i = start; i < end; i++) if (rows[i].row[c] !== null && rows[i].row[c] !== undefined) return true;
+    return false;
+  });
+  const tail = `,${uploadId | 0})`;
+  let values = "";
+  for (let i = start; i < end; i++) {
+    const r = rows[i];
+    const date = r.row.date;
+    if (!ISO_DATE.test(date)) throw new Error(`refusing to write unchecked date ${date}`);
+    let amounts = "";
+    for (const c of present) {
+      const v = r.row[c];
+      if (v === null || v === undefined) amounts += ",NULL";
+      else if (Number.isFinite(v)) amounts += `,${v}`;
+      else throw new Error(`refusing to write a non-finite ${c} for ${date}`);
+    }
+    values += `${i === start ? "" : ","}(${r.portfolioId | 0},'${date}'${withVersion ? `,${r.version | 0}` : ""}${amounts}${tail}`;
+  }
+  const columns = `${withVersion ? ", version" : ""}${present.length ? `, ${present.join(", ")}` : ""}`;
+  return `INSERT INTO observations (portfolio_id, business_date${columns}, upload_id) VALUES ${values}`;
 }
 
 /** A stored version, by its key. */

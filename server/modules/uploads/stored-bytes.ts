@@ -1,5 +1,7 @@
 import { promisify } from "node:util";
 import { gunzipSync, gzip, gzipSync } from "node:zlib";
+import type { Transaction } from "sequelize";
+import { connectionOf } from "../../db/raw-connection";
 
 /**
  * Uploaded files and checked rows are kept gzip-compressed (a daily CSV shrinks about fivefold),
@@ -22,4 +24,13 @@ const gzipAsync = promisify(gzip);
  */
 export function packBytesInBackground(bytes: Buffer): Promise<Buffer> {
   return gzipAsync(bytes, { level: 1, chunkSize: Math.max(64 * 1024, bytes.length + 1024) });
+}
+
+/**
+ * Writes an upload's packed file into its row. It goes over the binary protocol: through
+ * Sequelize the text protocol escapes the file byte by byte in JavaScript, about three times
+ * slower for a 100,000-row file (bench/ingest.bench.ts).
+ */
+export async function storePackedFile(uploadId: number, packed: Buffer, transaction: Transaction): Promise<void> {
+  await connectionOf(transaction).execute("UPDATE uploads SET content = ? WHERE id = ?", [packed, uploadId]);
 }

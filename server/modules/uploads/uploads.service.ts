@@ -19,7 +19,7 @@ import {
   type VersionKey,
 } from "../observations/observations.repository";
 import { applyFindings, checkFindings, loadFindingInputs } from "../findings/findings.service";
-import { packBytesInBackground, unpackBytes } from "./stored-bytes";
+import { packBytesInBackground, storePackedFile, unpackBytes } from "./stored-bytes";
 import { checkedRowsOf, forgetCheckedRows, keepCheckedRows } from "./preview-cache";
 import { flagChangedSnapshots } from "../snapshots/snapshots.service";
 import { plainFileName } from "../../http/file-name";
@@ -169,7 +169,8 @@ function duplicateError(twin: UploadModel): ConflictError {
 }
 
 async function toPreview(row: UploadModel): Promise<UploadPreview> {
-  const uploader = await UserModel.findByPk(row.uploadedBy);
+  const people = await UserModel.findAll({ where: { id: [row.uploadedBy, row.committedBy ?? row.uploadedBy] }, attributes: ["id", "email"] });
+  const emailOf = (id: number | null) => (id === null ? null : (people.find((p) => p.id === id)?.email ?? "unknown"));
   const summary = row.summaryJson
     ? (JSON.parse(row.summaryJson) as { portfolios: string[]; from: string | null; to: string | null; errorCount: number })
     : null;
@@ -190,9 +191,10 @@ async function toPreview(row: UploadModel): Promise<UploadPreview> {
     portfolios: summary?.portfolios ?? [],
     from: summary?.from ?? null,
     to: summary?.to ?? null,
-    uploadedBy: uploader?.email ?? "unknown",
+    uploadedBy: emailOf(row.uploadedBy)!,
     uploadedAt: row.createdAt.toISOString(),
     committedAt: row.committedAt ? row.committedAt.toISOString() : null,
+    committedBy: emailOf(row.committedBy),
     inserted: row.insertedCount,
   };
 }
@@ -228,7 +230,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         sha256,
         committedSha256: null,
         sizeBytes: file.bytes.length,
-        content: await packing,
+        content: null,
         uploadedBy: actor.user.id,
         status: "preview",
         rowCount: parsed.totalRows,
@@ -244,6 +246,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
       },
       { transaction },
     );
+    await storePackedFile(created.id, await packing, transaction);
     await recordAudit(actor, "upload.preview", `upload #${created.id}`, { after: { fileName, sha256, rows: parsed.totalRows, invalid, restated } }, transaction);
     return created;
   });
@@ -289,7 +292,7 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
 
     const writes = new PipelinedWrites(transaction);
     queueRetireVersions(writes, retire);
-    await queueInsertVersions(writes, inserts, upload.id, actor.user.id);
+    await queueInsertVersions(writes, inserts, upload.id);
     // The checks run here while MariaDB writes; the findings change with the data, in this transaction.
     const inside = range ? currentDaysInSpan(rows, ref.ids, stored) : undefined;
     const found = [];
@@ -305,6 +308,7 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     upload.status = "committed";
     upload.committedSha256 = upload.sha256;
     upload.committedAt = new Date();
+    upload.committedBy = actor.user.id;
     upload.insertedCount = inserts.length;
     upload.restatedCount = restated;
     upload.unchangedCount = unchanged;

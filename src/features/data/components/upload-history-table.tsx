@@ -61,7 +61,10 @@ export function UploadHistoryTable({
                 {u.id}
               </Td>
               <Td className="figures whitespace-nowrap">{formatDateTime(u.uploadedAt)}</Td>
-              <Td>{u.uploadedBy}</Td>
+              <Td>
+                {u.uploadedBy}
+                {u.committedBy && u.committedBy !== u.uploadedBy ? <span className="block text-xs text-ink-muted">committed by {u.committedBy}</span> : null}
+              </Td>
               <Td className="break-all">
                 <Link to={uploadHref(u.id)} aria-label={`Open upload #${u.id}, ${u.fileName}`}>
                   {u.fileName}

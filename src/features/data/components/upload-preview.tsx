@@ -86,7 +86,7 @@ export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { previe
         <span className={cn("text-xs font-medium", pending ? "text-accent" : "text-ink-muted")}>{uploadStatusLabels[p.status]}</span>
         <span className="text-xs text-ink-muted">
           by {p.uploadedBy}, {formatDateTime(p.uploadedAt)}
-          {p.committedAt && ` · committed ${formatDateTime(p.committedAt)}`}
+          {p.committedAt && ` · committed ${p.committedBy && p.committedBy !== p.uploadedBy ? `by ${p.committedBy}, ` : ""}${formatDateTime(p.committedAt)}`}
         </span>
       </div>
 

@@ -153,7 +153,7 @@ class LineChecks {
   private readonly portfolioAt: number;
   private readonly dateAt: number;
   /** Portfolio → day number → the first line with it (one row per portfolio and day). */
-  private readonly firstLineOf = new Map<string, Map<number, number>>();
+  private readonly firstLineOf = new Map<string, DaysSeen>();
   /** One string per date, shared by the rows of every portfolio. */
   private readonly dateText = new Map<number, string>();
   private readonly scratch: Float64Array;
@@ -161,7 +161,7 @@ class LineChecks {
   private lastCell: string | undefined;
   private code = "";
   private portfolio: PortfolioRef | undefined;
-  private seen = new Map<number, number>();
+  private seen = new DaysSeen();
 
   constructor(
     readonly columns: CsvColumn[],
@@ -284,7 +284,7 @@ class LineChecks {
     this.code = cell.trim().toUpperCase();
     this.portfolio = this.ref.portfolios.get(this.code);
     let seen = this.firstLineOf.get(this.code);
-    if (!seen) this.firstLineOf.set(this.code, (seen = new Map()));
+    if (!seen) this.firstLineOf.set(this.code, (seen = new DaysSeen()));
     this.seen = seen;
   }
 
@@ -308,13 +308,54 @@ class LineChecks {
       }
     }
     if (bad) return;
-    const first = this.seen.get(day!);
+    const first = this.seen.firstLine(day!);
     if (first !== undefined) {
       this.fail(line, "date", `${this.code} on ${row.date} already appears on line ${first}`);
       return;
     }
-    this.seen.set(day!, line);
+    this.seen.add(day!, line);
     this.rows.push(row);
+  }
+}
+
+/**
+ * The days one portfolio's rows have named so far, each with its first line. Files list a
+ * portfolio's days in order, so while they come in order a day after the last cannot repeat one
+ * and is only appended; the first day out of order turns the list into a map.
+ */
+class DaysSeen {
+  private readonly days: number[] = [];
+  private readonly lines: number[] = [];
+  private map: Map<number, number> | undefined;
+
+  firstLine(day: number): number | undefined {
+    if (this.map) return this.map.get(day);
+    const { days } = this;
+    if (days.length === 0 || day > days[days.length - 1]) return undefined;
+    let lo = 0;
+    let hi = days.length - 1;
+    while (lo <= hi) {
+      const mid = (lo + hi) >> 1;
+      if (days[mid] === day) return this.lines[mid];
+      if (days[mid] < day) lo = mid + 1;
+      else hi = mid - 1;
+    }
+    return undefined;
+  }
+
+  add(day: number, line: number): void {
+    if (this.map) {
+      this.map.set(day, line);
+      return;
+    }
+    const { days } = this;
+    if (days.length === 0 || day > days[days.length - 1]) {
+      days.push(day);
+      this.lines.push(line);
+      return;
+    }
+    this.map = new Map(days.map((d, i) => [d, this.lines[i]]));
+    this.map.set(day, line);
   }
 }
 
@@ -446,8 +487,13 @@ export function serialiseObservationCsv(rows: Partial<Record<CsvColumn, string |
  */
 export function recheckReferenceData(rows: readonly ParsedRow[], ref: CsvReferenceData): RowError[] {
   const errors: RowError[] = [];
+  let lastCode: string | undefined;
+  let portfolio: PortfolioRef | undefined;
   for (const row of rows) {
-    const portfolio = ref.portfolios.get(row.portfolio);
+    if (row.portfolio !== lastCode) {
+      lastCode = row.portfolio;
+      portfolio = ref.portfolios.get(row.portfolio);
+    }
     if (!portfolio) errors.push({ line: row.line, column: "portfolio", message: `Portfolio "${row.portfolio}" no longer exists` });
     else if (portfolio.holidays.size && portfolio.holidays.has(row.date)) {
       errors.push({ line: row.line, column: "date", message: `${row.date} has since become a holiday in the ${portfolio.entityCode} calendar` });

@@ -69,6 +69,31 @@ describe("uploading daily data", () => {
     expect(read.body[2]).toMatchObject({ date: dates[2], actualPnl: -999.5, hypotheticalPnl: -90.25, var99: 1500, version: 2 });
   });
 
+  it("when a large file restates days spread over several write batches, then each of them gets one new version and every other day stays as it was", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const dates = weekdays("2000-01-03", 11_000, new Set(["2026-12-25"]));
+    const first = await uploadCsv(app, cookie, csvFor(portfolio.code, dates.slice(0, 10_990)));
+    await request(app).post(`/api/uploads/${first.body.id}/commit`).set("Cookie", cookie).expect(200);
+
+    // Changed days on both sides of the 5,000-row batch edges, and ten new days at the end.
+    const changedAt = new Set([10, 4_999, 5_000, 5_001, 9_999, 10_500]);
+    const second = await uploadCsv(app, cookie, csvFor(portfolio.code, dates, (i) => (changedAt.has(i) ? `-7.5,-6.25,${2000 + i}` : `${-100 * i - 1},${-90 * i},${1000 + i}`)), "restated.csv");
+    expect(second.body).toMatchObject({ rows: 11_000, newRows: 10, restatements: 6, unchanged: 10_984 });
+    const commit = await request(app).post(`/api/uploads/${second.body.id}/commit`).set("Cookie", cookie).expect(200);
+    expect(commit.body).toMatchObject({ inserted: 16, restated: 6, unchanged: 10_984 });
+
+    expect(await observationCount(portfolio.id)).toBe(11_006);
+    const written = await ObservationModel.findAll({ where: { portfolioId: portfolio.id, uploadId: second.body.id }, order: [["businessDate", "ASC"]] });
+    expect(written.map((o) => [o.businessDate, o.version, o.isCurrent])).toEqual([
+      ...[...changedAt].map((i) => [dates[i], 2, true]),
+      ...dates.slice(10_990).map((d) => [d, 1, true]),
+    ]);
+    const retired = await ObservationModel.findAll({ where: { portfolioId: portfolio.id, isCurrent: false }, order: [["businessDate", "ASC"]] });
+    expect(retired.map((o) => [o.businessDate, o.version])).toEqual([...changedAt].map((i) => [dates[i], 1]));
+    const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations?from=${dates[5_000]}&to=${dates[5_000]}`).set("Cookie", cookie);
+    expect(read.body).toEqual([expect.objectContaining({ actualPnl: -7.5, hypotheticalPnl: -6.25, var99: 7000, version: 2 })]);
+  });
+
   it("when the same file is uploaded again after commit, then 409 names the earlier upload and nothing is stored", async () => {
     const { portfolio, cookie } = await ingestFixture();
     const csv = csvFor(portfolio.code, weekdays("2026-09-07", 3));

@@ -63,8 +63,11 @@ export function checkFindings({ portfolioId, holidays, stored }: FindingInputs, 
  * their note.
  */
 export async function applyFindings(results: readonly PortfolioFindings[], transaction: Transaction): Promise<void> {
+  if (results.length === 0) return;
+  // One locking read for all the portfolios, not one per portfolio.
+  const all = await DataFindingModel.findAll({ where: { portfolioId: results.map((r) => r.portfolioId) }, order: [["id", "ASC"]], transaction, lock: transaction.LOCK.UPDATE });
   for (const { portfolioId, found } of results) {
-    const existing = await DataFindingModel.findAll({ where: { portfolioId }, transaction, lock: transaction.LOCK.UPDATE });
+    const existing = all.filter((f) => f.portfolioId === portfolioId);
     const byKey = new Map(existing.map((f) => [`${f.kind}|${f.dateFrom}`, f]));
     const seen = new Set<string>();
     const fresh = [];

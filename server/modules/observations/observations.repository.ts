@@ -50,7 +50,7 @@ export async function loadCurrentDays(
 }
 
 /** Rows per INSERT: about half a megabyte of SQL (bench/ingest.bench.ts measured 2,000 to 10,000 alike). */
-const BATCH_ROWS = 5_000;
+export const INSERT_BATCH_ROWS = 5_000;
 
 /**
  * Sends the statements down the transaction's connection one after another without waiting for
@@ -92,8 +92,8 @@ export async function queueInsertVersions(writes: PipelinedWrites, rows: readonl
   const firsts = rows.filter((r) => r.version === 1);
   const restated = firsts.length === rows.length ? [] : rows.filter((r) => r.version !== 1);
   for (const [group, withVersion] of [[firsts, false], [restated, true]] as const) {
-    for (let start = 0; start < group.length; start += BATCH_ROWS) {
-      writes.send(insertBatch(group, start, Math.min(group.length, start + BATCH_ROWS), withVersion, uploadId));
+    for (let start = 0; start < group.length; start += INSERT_BATCH_ROWS) {
+      writes.send(insertBatch(group, start, Math.min(group.length, start + INSERT_BATCH_ROWS), withVersion, uploadId));
       await writes.flush();
     }
   }

@@ -56,6 +56,30 @@ describe("parsing generated daily files (property-based, fast-check)", () => {
     );
   });
 
+  it("when days come in any order with repeats, then exactly the repeats are refused, each naming the line the day first appeared on", () => {
+    // Runs that go forward, then jump back: the order files usually have, and the order they break it in.
+    const day = fc.integer({ min: 0, max: 60 });
+    fc.assert(
+      fc.property(fc.array(fc.tuple(fc.constantFrom("BOOK-A", "BOOK-B"), day), { minLength: 1, maxLength: 80 }), (picks) => {
+        const dates = picks.map(([, n]) => new Date(Date.UTC(2025, 0, 6) + (Math.floor(n / 5) * 7 + (n % 5)) * 86_400_000).toISOString().slice(0, 10));
+        const text = [REQUIRED_COLUMNS.join(","), ...picks.map(([p], i) => `${p},${dates[i]},-1,-1,10`)].join("\n");
+        // The model: a set of what was seen, with the first line of each.
+        const first = new Map<string, number>();
+        const expected: { line: number; column: string; message: string }[] = [];
+        picks.forEach(([p], i) => {
+          const key = `${p} on ${dates[i]}`;
+          const line = i + 2;
+          if (first.has(key)) expected.push({ line, column: "date", message: `${key} already appears on line ${first.get(key)}` });
+          else first.set(key, line);
+        });
+        const parsed = parseObservationCsv(text, ref);
+        expect(parsed.errors).toEqual(expected);
+        expect(parsed.rows.length).toBe(first.size);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
   it("when cells are arbitrary text, then the parser never throws unexpectedly and everything it accepts is valid", () => {
     const cell = fc.oneof(fc.string({ maxLength: 12 }), cents(-1000, 1000), fc.constantFrom("NaN", "1e308", "-0", "", "  7 ", "1,5", "\"", "__proto__"));
     fc.assert(

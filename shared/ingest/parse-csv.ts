@@ -425,52 +425,172 @@ export interface ParseOptions {
  */
 export function parseObservationCsv(text: string, ref: CsvReferenceData, options: ParseOptions = {}): ParsedCsv {
   if (text.trim() === "") throw new CsvFileError("The file is empty.");
-  let totalRows = 0;
-  let checks: LineChecks;
   if (!text.includes('"')) {
-    const body = text.includes("\r") ? text.replace(/\r\n?/g, "\n") : text;
-    let headerEnd = body.indexOf("\n");
-    if (headerEnd < 0) headerEnd = body.length;
-    const columns = checkHeader(body.slice(0, headerEnd).split(","));
-    checks = new LineChecks(columns, ref);
-    const plain = options.plainLines !== false;
-    let line = 1;
-    for (let start = headerEnd + 1; start <= body.length; ) {
-      let end = body.indexOf("\n", start);
-      if (end < 0) end = body.length;
-      line++;
-      const first = body.charCodeAt(start);
-      if (start === end || ((first === 32 || first === 9) && isBlank(body.slice(start, end)))) {
-        start = end + 1;
-        continue; // blank line
-      }
-      totalRows++;
-      if (!plain || !checks.plainLine(body, start, end, line)) checks.cells(body.slice(start, end).split(","), line);
-      start = end + 1;
-    }
-  } else {
-    const parsed = splitCsv(text);
-    const data = parsed.data;
-    checks = new LineChecks(checkHeader(data[0] ?? []), ref);
-    // Structural problems papaparse saw (an unclosed quote swallows the rest of the file).
-    for (const e of parsed.errors) {
-      if (e.code === "UndetectableDelimiter") continue;
-      const line = (e.row ?? 0) + 1;
-      if (e.code === "MissingQuotes") checks.fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
-      else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") checks.fail(line, "—", e.message);
-    }
-    const structural = new Set(checks.invalidLines);
-    for (let i = 1; i < data.length; i++) {
-      const cells = data[i];
-      if (cells.length === 1 && isBlank(cells[0])) continue;
-      totalRows++;
-      if (!structural.has(i + 1)) checks.cells(cells, i + 1);
-    }
+    const lines = new PlainLines(ref, options, { throwOnHeader: true });
+    lines.feed(text.includes("\r") ? text.replace(/\r\n?/g, "\n") : text, true);
+    return lines.result();
   }
+  let totalRows = 0;
+  const parsed = splitCsv(text);
+  const data = parsed.data;
+  const checks = new LineChecks(checkHeader(data[0] ?? []), ref);
+  // Structural problems papaparse saw (an unclosed quote swallows the rest of the file).
+  for (const e of parsed.errors) {
+    if (e.code === "UndetectableDelimiter") continue;
+    const line = (e.row ?? 0) + 1;
+    if (e.code === "MissingQuotes") checks.fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
+    else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") checks.fail(line, "—", e.message);
+  }
+  const structural = new Set(checks.invalidLines);
+  for (let i = 1; i < data.length; i++) {
+    const cells = data[i];
+    if (cells.length === 1 && isBlank(cells[0])) continue;
+    totalRows++;
+    if (!structural.has(i + 1)) checks.cells(cells, i + 1);
+  }
+  return resultOf(checks, totalRows);
+}
+
+function resultOf(checks: LineChecks, totalRows: number): ParsedCsv {
   if (totalRows === 0) throw new CsvFileError("The file has a header row but no data rows.");
   const { rows, errors, invalidLines } = checks;
   errors.sort((a, b) => a.line - b.line);
   return { columns: checks.columns, rows, errors, totalRows, invalidLines };
+}
+
+/**
+ * A file without quotes, read a line at a time from text that may come in pieces: the header
+ * from the first line, then each data line in place (or cell by cell when it is not plain).
+ * A piece may end inside a line; the rest of that line waits for the next piece. A line ends at
+ * "\n", with a "\r" before it dropped. What this cannot read the same way as the whole text
+ * (a quote, a lone "\r", a header that is not valid) is noted in `unreadable`, and the caller
+ * reads the whole file instead; given `throwOnHeader`, a header that is not valid throws.
+ */
+class PlainLines {
+  unreadable = false;
+  private checks: LineChecks | undefined;
+  private carry = "";
+  private line = 0;
+  private totalRows = 0;
+
+  constructor(
+    private readonly ref: CsvReferenceData,
+    private readonly options: ParseOptions,
+    private readonly how: { throwOnHeader: boolean },
+  ) {}
+
+  feed(piece: string, last: boolean): void {
+    if (this.unreadable) return;
+    const text = this.carry ? this.carry + piece : piece;
+    if (piece.includes('"')) {
+      this.unreadable = true;
+      return;
+    }
+    const withCr = piece.includes("\r") || this.carry.includes("\r");
+    let start = 0;
+    for (;;) {
+      let end = text.indexOf("\n", start);
+      if (end < 0) {
+        if (!last) break;
+        end = text.length;
+      }
+      this.take(text, start, end, withCr);
+      if (this.unreadable) return;
+      start = end + 1;
+      if (start > text.length) break;
+    }
+    this.carry = last ? "" : text.slice(start);
+  }
+
+  private take(text: string, start: number, end: number, withCr: boolean): void {
+    if (withCr) {
+      if (end > start && text.charCodeAt(end - 1) === 13) end--;
+      const cr = text.indexOf("\r", start);
+      if (cr >= 0 && cr < end) {
+        this.unreadable = true; // a lone "\r" ends a line in the whole text
+        return;
+      }
+    }
+    this.line++;
+    if (!this.checks) {
+      const header = text.slice(start, end).split(",");
+      if (this.how.throwOnHeader) this.checks = new LineChecks(checkHeader(header), this.ref);
+      else {
+        try {
+          this.checks = new LineChecks(checkHeader(header), this.ref);
+        } catch {
+          this.unreadable = true;
+        }
+      }
+      return;
+    }
+    const first = text.charCodeAt(start);
+    if (start === end || ((first === 32 || first === 9) && isBlank(text.slice(start, end)))) return; // blank line
+    this.totalRows++;
+    if (this.options.plainLines === false || !this.checks.plainLine(text, start, end, this.line)) this.checks.cells(text.slice(start, end).split(","), this.line);
+  }
+
+  result(): ParsedCsv {
+    if (!this.checks) throw new CsvFileError("The file has a header row but no data rows.");
+    return resultOf(this.checks, this.totalRows);
+  }
+
+  /** Whether `result()` is the whole file's: read to the end, a header, at least one data row. */
+  get complete(): boolean {
+    return !this.unreadable && this.checks !== undefined && this.totalRows > 0;
+  }
+}
+
+/**
+ * The same parse, fed the file's bytes as they arrive (the upload checks a file while it is
+ * still being received). Plain files are read a piece at a time; anything else — not UTF-8,
+ * binary, quotes, a lone "\r", a header or a file that is refused as a whole — is parsed from
+ * the whole file at the end, so both ways give the same rows, problems and refusals
+ * (tests/shared/ingest check they do, over generated files cut at random places).
+ */
+export class CsvByteStream {
+  private readonly decoder = new TextDecoder("utf-8", { fatal: true });
+  private readonly lines: PlainLines;
+  private started = false;
+
+  constructor(
+    private readonly ref: CsvReferenceData,
+    private readonly options: ParseOptions = {},
+  ) {
+    this.lines = new PlainLines(ref, options, { throwOnHeader: false });
+  }
+
+  push(chunk: Uint8Array): void {
+    if (this.lines.unreadable) return;
+    if (chunk.includes(0)) {
+      this.lines.unreadable = true;
+      return;
+    }
+    let piece: string;
+    try {
+      piece = this.decoder.decode(chunk, { stream: true });
+    } catch {
+      this.lines.unreadable = true;
+      return;
+    }
+    if (!this.started && piece.length > 0) {
+      this.started = true;
+      if (piece.charCodeAt(0) === 0xfeff) piece = piece.slice(1); // as decodeCsvBytes
+    }
+    this.lines.feed(piece, false);
+  }
+
+  /** The parse of the whole file, given as `bytes` (what was pushed, in one piece). */
+  end(bytes: Uint8Array): ParsedCsv {
+    if (!this.lines.unreadable) {
+      try {
+        this.lines.feed(this.decoder.decode(), true);
+      } catch {
+        this.lines.unreadable = true;
+      }
+    }
+    return this.lines.complete ? this.lines.result() : parseObservationCsv(decodeCsvBytes(bytes), this.ref, this.options);
+  }
 }
 
 /** Writes rows back as CSV in the template's column order (used by the template and by tests). */

@@ -7,8 +7,10 @@ import { connectionOf } from "../../db/raw-connection";
  * Uploaded files and checked rows are kept gzip-compressed (a daily CSV shrinks about fivefold),
  * which makes the preview's single INSERT several times smaller. Level 1: fast, still small.
  */
+export const PACK_LEVEL = 1;
+
 export function packBytes(bytes: Buffer | string): Buffer {
-  return gzipSync(bytes, { level: 1 });
+  return gzipSync(bytes, { level: PACK_LEVEL });
 }
 
 export function unpackBytes(stored: Buffer): Buffer {
@@ -23,7 +25,7 @@ const gzipAsync = promisify(gzip);
  * waits for the busy main thread, and the work would not really run alongside.
  */
 export function packBytesInBackground(bytes: Buffer): Promise<Buffer> {
-  return gzipAsync(bytes, { level: 1, chunkSize: Math.max(64 * 1024, bytes.length + 1024) });
+  return gzipAsync(bytes, { level: PACK_LEVEL, chunkSize: Math.max(64 * 1024, bytes.length + 1024) });
 }
 
 /**

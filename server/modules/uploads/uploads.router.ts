@@ -6,9 +6,10 @@ import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "..
 import * as uploads from "./uploads.service";
 
 
-// Every limit set (multer defaults to unlimited); mounted on the upload route only.
+// Every limit set (multer defaults to unlimited); mounted on the upload route only. The storage
+// keeps the file in memory and checks it while it arrives.
 const single = multer({
-  storage: multer.memoryStorage(),
+  storage: uploads.uploadStorage(),
   preservePath: true, // keep folders in the name so that such a name is refused, not silently cut
   limits: { fileSize: UPLOAD_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
 }).single("file");
@@ -24,7 +25,8 @@ export function uploadsRouter() {
 
   r.post("/api/uploads", single, async (req, res) => {
     if (!req.file) throw new BadRequestError('Attach the CSV file in the form field "file".');
-    res.status(201).json(await uploads.previewUpload({ originalName: req.file.originalname, bytes: req.file.buffer }, signedInActor(req)));
+    const { originalname: originalName, buffer: bytes, received } = req.file as Express.Multer.File & Pick<uploads.IncomingFile, "received">;
+    res.status(201).json(await uploads.previewUpload({ originalName, bytes, received }, signedInActor(req)));
   });
 
   r.get("/api/uploads", async (_req, res) => {

@@ -21,6 +21,8 @@ import {
 } from "../observations/observations.repository";
 import { applyFindings, checkFindings, loadFindingInputs } from "../findings/findings.service";
 import { packBytesInBackground, storePackedFile, unpackBytes } from "./stored-bytes";
+import type { StorageEngine } from "multer";
+import { receivingStorage, type ReceivedFile } from "./receiving-storage";
 import { checkedRowsOf, forgetCheckedRows, keepCheckedRows } from "./preview-cache";
 import { flagChangedSnapshots } from "../snapshots/snapshots.service";
 import { plainFileName } from "../../http/file-name";
@@ -32,6 +34,7 @@ import {
   serialiseObservationCsv,
   splitCsv,
   type CsvReferenceData,
+  type ParsedCsv,
   type ParsedRow,
 } from "../../../shared/ingest/parse-csv";
 import { AMOUNT_COLUMNS, ALL_COLUMNS, type AmountColumn, type CommitResult, type RowError, type UploadPreview, type UploadRowsPage, type UploadSummary } from "../../../shared/schemas/upload";
@@ -47,6 +50,8 @@ const STORED_ERROR_CAP = 20_000;
 export interface IncomingFile {
   originalName: string;
   bytes: Buffer;
+  /** Set when the file was worked on while it arrived (the upload route). */
+  received?: ReceivedFile<Reference>;
 }
 
 function assertCsvFileName(name: string): string {
@@ -56,7 +61,9 @@ function assertCsvFileName(name: string): string {
 }
 
 /** Every portfolio a file may name, with its entity's holiday calendar. */
-async function loadReferenceData(transaction?: Transaction): Promise<CsvReferenceData & { ids: Map<string, number> }> {
+type Reference = CsvReferenceData & { ids: Map<string, number> };
+
+async function loadReferenceData(transaction?: Transaction): Promise<Reference> {
   const portfolios = await PortfolioModel.findAll({ include: [{ model: EntityModel, as: "entity" }], transaction });
   const holidays = await HolidayModel.findAll({ transaction });
   const byEntity = new Map<number, Map<string, string>>();
@@ -74,13 +81,29 @@ async function loadReferenceData(transaction?: Transaction): Promise<CsvReferenc
   return { portfolios: ref, ids };
 }
 
-function parseFile(bytes: Buffer, ref: CsvReferenceData) {
+/** A parse, with a file refused as a whole answered as the API's error. */
+function checkedParse(parse: () => ParsedCsv): ParsedCsv {
   try {
-    return parseObservationCsv(decodeCsvBytes(bytes), ref);
+    return parse();
   } catch (err) {
     if (err instanceof CsvFileError) throw new AppError(err.status, err.status === 415 ? "unsupported_media_type" : "invalid_file", err.message, { errors: err.errors });
     throw err;
   }
+}
+
+const parseFile = (bytes: Buffer, ref: CsvReferenceData) => checkedParse(() => parseObservationCsv(decodeCsvBytes(bytes), ref));
+
+/** What receiving a file over HTTP does as it arrives (receiving-storage.ts), done at once for a file in hand. */
+async function receiveWhole(bytes: Buffer): Promise<ReceivedFile<Reference>> {
+  const ref = await loadReferenceData();
+  const packed = packBytesInBackground(bytes); // on libuv's threads while this one parses
+  packed.catch(() => undefined);
+  return { sha256: createHash("sha256").update(bytes).digest("hex"), packed, ref, parse: () => parseObservationCsv(decodeCsvBytes(bytes), ref) };
+}
+
+/** The storage the upload route receives files with: hashed, compressed and parsed as they arrive. */
+export function uploadStorage(): StorageEngine {
+  return receivingStorage(loadReferenceData);
 }
 
 const sameValues = (stored: Record<AmountColumn, number | null>, row: ParsedRow) =>
@@ -221,15 +244,13 @@ function previewPortfolioIds(upload: UploadModel, ids: ReadonlyMap<string, numbe
 /** Checks a file and keeps it as a preview: nothing reaches the observations yet. */
 export async function previewUpload(file: IncomingFile, actor: SignedIn): Promise<UploadPreview> {
   const fileName = assertCsvFileName(file.originalName);
-  const sha256 = createHash("sha256").update(file.bytes).digest("hex");
+  // Received over HTTP, the file was hashed, compressed and parsed as it arrived; otherwise now.
+  const received = file.received ?? (await receiveWhole(file.bytes));
+  const { sha256, ref } = received;
   const twin = await findCommittedTwin(sha256);
   if (twin) throw duplicateError(twin);
 
-  const ref = await loadReferenceData();
-  // The file is compressed for keeping on a worker thread while this one parses it.
-  const packing = packBytesInBackground(file.bytes);
-  packing.catch(() => undefined); // awaited below; a refused file never gets there
-  const parsed = parseFile(file.bytes, ref);
+  const parsed = checkedParse(received.parse);
   const range = dateRange(parsed.rows);
   const portfolioCodes = [...new Set(parsed.rows.map((r) => r.portfolio))].sort();
   const stored = range ? await loadCurrentDays(portfolioCodes.map((c) => ref.ids.get(c)!), range.from, range.to) : new Map();
@@ -259,7 +280,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
       },
       { transaction },
     );
-    await storePackedFile(created.id, await packing, transaction);
+    await storePackedFile(created.id, await received.packed, transaction);
     await recordAudit(actor, "upload.preview", `upload #${created.id}`, { after: { fileName, sha256, rows: parsed.totalRows, invalid, restated } }, transaction);
     return created;
   });

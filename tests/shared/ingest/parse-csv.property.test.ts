@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { parseObservationCsv, serialiseObservationCsv, CsvFileError, recheckReferenceData } from "../../../shared/ingest/parse-csv";
+import { parseObservationCsv, serialiseObservationCsv, CsvByteStream, CsvFileError, decodeCsvBytes, recheckReferenceData } from "../../../shared/ingest/parse-csv";
 import { ALL_COLUMNS, CELL_PATTERNS, REQUIRED_COLUMNS, observationCellsSchema } from "../../../shared/schemas/upload";
 
 const ref = {
@@ -131,6 +131,60 @@ describe("parsing generated daily files (property-based, fast-check)", () => {
       }),
       { numRuns: 1500 },
     );
+  });
+
+  it("when a file arrives in pieces cut anywhere, then reading it as it comes gives exactly what reading it whole gives", () => {
+    // The upload parses while the file is received (CsvByteStream); the whole file is the reference.
+    const good = fc.tuple(fc.constantFrom("BOOK-A", "BOOK-B", "book-b"), weekday, cents(-1_000_00, 1_000_00), cents(-1_000_00, 1_000_00), cents(1, 5_000_00)).map((c) => c.join(","));
+    const odd = fc.constantFrom(
+      "", "  ", "nope,2026-03-03,1,1,1", "BOOK-A,2026-03-07,1,1,1", "BOOK-A,2026-03-03,NaN,1,1", "BOOK-A,2026-03-03,1,1",
+      'BOOK-A,"2026-03-03",1,1,1', "BOOK-A,2026-03-03,1\r,1,1", "BOOK-A,2026-03-03,1,1,1\u0000", "BOOK-A,2026-03-03,1,1,-1", "Bücher,2026-03-03,1,1,1",
+    );
+    const header = fc.constantFrom("portfolio,date,actual_pnl,hypothetical_pnl,var_99", "\ufeffportfolio,date,actual_pnl,hypothetical_pnl,var_99", "\ufeff\ufeffportfolio,date,actual_pnl,hypothetical_pnl,var_99", "portfolio,date,actual_pnl", "PORTFOLIO, date ,actual_pnl,hypothetical_pnl,var_99", "");
+    const file = fc.tuple(header, fc.array(fc.oneof({ weight: 6, arbitrary: good }, { weight: 1, arbitrary: odd }), { maxLength: 30 }), fc.constantFrom("\n", "\r\n", "\r"), fc.boolean());
+    const bytesOf = ([head, lines, eol, trailing]: [string, string[], string, boolean]) => {
+      const bytes = Buffer.from([head, ...lines].join(eol) + (trailing ? eol : ""));
+      return bytes;
+    };
+    const outcome = (read: () => unknown) => {
+      try {
+        return read();
+      } catch (err) {
+        return { refused: (err as Error).message, status: err instanceof CsvFileError ? err.status : undefined, errors: err instanceof CsvFileError ? err.errors : undefined };
+      }
+    };
+    fc.assert(
+      fc.property(file, fc.array(fc.integer({ min: 0, max: 4000 }), { maxLength: 12 }), fc.boolean(), (parts, cuts, broken) => {
+        let bytes = bytesOf(parts);
+        if (broken && bytes.length > 2) bytes = Buffer.concat([bytes.subarray(0, bytes.length >> 1), Buffer.from([0xc3]), bytes.subarray(bytes.length >> 1)]); // not UTF-8
+        const at = [...new Set(cuts.map((c) => c % (bytes.length + 1)))].sort((a, b) => a - b);
+        const whole = outcome(() => parseObservationCsv(decodeCsvBytes(bytes), ref));
+        const streamed = outcome(() => {
+          const stream = new CsvByteStream(ref);
+          let from = 0;
+          for (const to of [...at, bytes.length]) {
+            stream.push(bytes.subarray(from, to));
+            from = to;
+          }
+          return stream.end(bytes);
+        });
+        expect(streamed).toEqual(whole);
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
+  it("when a plain file arrives in pieces, then it is read as it comes, not again at the end", () => {
+    const text = "portfolio,date,actual_pnl,hypothetical_pnl,var_99\r\nBOOK-A,2026-03-03,-1.5,-1,10\r\nBOOK-B,2026-03-04,2,1,10\r\n";
+    const bytes = Buffer.from(text);
+    const stream = new CsvByteStream(ref);
+    for (let i = 0; i < bytes.length; i += 7) stream.push(bytes.subarray(i, i + 7));
+    // Given other bytes at the end, a stream that had read the file already keeps what it read.
+    const parsed = stream.end(Buffer.from("not the file"));
+    expect(parsed.rows.map((r) => [r.line, r.portfolio, r.date, r.actual_pnl])).toEqual([
+      [2, "BOOK-A", "2026-03-03", -1.5],
+      [3, "BOOK-B", "2026-03-04", 2],
+    ]);
   });
 
   it("a row whose cells all match the cell patterns is exactly a row the zod schema accepts", () => {

@@ -23,6 +23,8 @@ declare global {
   namespace Express {
     interface Request {
       user?: SessionUser;
+      /** How `user` signed in: the browser's session cookie, or a personal API token (read-only). */
+      credential?: "session" | "api-token";
       requestId: string;
     }
   }

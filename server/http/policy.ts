@@ -11,6 +11,8 @@ import type { Role } from "../../shared/schemas/common";
 export type Access = "public" | "signed-in" | readonly Role[];
 
 const STAFF: readonly Role[] = ["analyst", "cro", "treasury", "admin"];
+/** Who may hold personal API tokens for scripts (DESIGN §2); a token stops working when its owner leaves these roles. */
+export const TOKEN_HOLDERS: readonly Role[] = ["treasury"];
 
 export const POLICY = {
   "GET /api/health": "public",
@@ -82,9 +84,25 @@ export const POLICY = {
   "PUT /api/portfolios/:code/exceptions/:date/decision": ["cro"],
   "POST /api/portfolios/:code/exceptions/:date/evidence": ["analyst"],
   "GET /api/evidence/:id": ["analyst", "cro"],
+
+  // Personal API tokens: each holder lists, creates and revokes their own (filtered in the service).
+  "GET /api/tokens": TOKEN_HOLDERS,
+  "POST /api/tokens": TOKEN_HOLDERS,
+  "DELETE /api/tokens/:id": TOKEN_HOLDERS,
 } as const satisfies Record<string, Access>;
 
 export type RouteKey = keyof typeof POLICY;
+
+/**
+ * A request signed in with a personal API token reads only: every GET its owner's role allows, and
+ * these computations that are POSTs only to carry their parameters and change nothing. Anything
+ * else (tokens creating tokens included) needs a signed-in session.
+ */
+const READ_ONLY_POSTS: ReadonlySet<string> = new Set(["POST /api/entities/:code/capital/what-if"] satisfies RouteKey[]);
+
+export function tokenMayCall(key: string): boolean {
+  return key.startsWith("GET ") || READ_ONLY_POSTS.has(key);
+}
 
 export function accessFor(key: string): Access | undefined {
   return (POLICY as Record<string, Access>)[key];

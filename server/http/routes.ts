@@ -1,11 +1,15 @@
 import { Router, type RequestHandler } from "express";
-import { accessFor, type Access } from "./policy";
+import { accessFor, tokenMayCall, type Access } from "./policy";
 import { ForbiddenError, UnauthorizedError } from "../errors";
 
 type Method = "get" | "post" | "put" | "patch" | "delete";
 
-function authorize(access: Access): RequestHandler {
+const TOKEN_READ_ONLY =
+  "API tokens are read-only: they may read and run the capital what-if, nothing else (creating or revoking tokens included). Sign in to Quartermark to make changes.";
+
+function authorize(key: string, access: Access): RequestHandler {
   return (req, _res, next) => {
+    if (req.credential === "api-token" && !tokenMayCall(key)) return next(new ForbiddenError(TOKEN_READ_ONLY, "token_read_only"));
     if (access === "public") return next();
     if (!req.user) return next(new UnauthorizedError());
     if (access !== "signed-in" && !access.includes(req.user.role)) return next(new ForbiddenError());
@@ -25,7 +29,7 @@ export function createGuardedRouter() {
       const key = `${method.toUpperCase()} ${path}`;
       const access = accessFor(key);
       if (!access) throw new Error(`Route "${key}" is not in the policy table (server/http/policy.ts)`);
-      router[method](path, authorize(access), ...handlers);
+      router[method](path, authorize(key, access), ...handlers);
     };
   return { router, get: add("get"), post: add("post"), put: add("put"), patch: add("patch"), delete: add("delete") };
 }

@@ -66,6 +66,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
             { path: relative(paths.quarters.path), ...screen(queryClient, "quarters", () => import("./routes/quarters")) },
             { path: relative(paths.capital.path), ...screen(queryClient, "capital", () => import("./routes/capital")) },
             { path: relative(paths.filings.path), ...screen(queryClient, "filings", () => import("./routes/filings")) },
+            { path: relative(paths.tokens.path), ...screen(queryClient, "tokens", () => import("./routes/tokens")) },
             { path: relative(paths.adminUsers.path), ...screen(queryClient, "adminUsers", () => import("./routes/admin/users")) },
             { path: relative(paths.adminEntities.path), ...screen(queryClient, "adminEntities", () => import("./routes/admin/entities")) },
             { path: relative(paths.adminEntity.path), ...screen(queryClient, "adminEntity", () => import("./routes/admin/entity")) },

@@ -9,6 +9,8 @@ const quarterReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 const capitalReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 /** Supervisors read the packs filed with them; the reporting office follows what was sent and acknowledged. */
 const filingReaders: readonly Role[] = ["analyst", "cro", "regulator"];
+/** Treasury creates personal API tokens for its scripts (DESIGN §2); the server's policy holds the same rule. */
+const tokenHolders: readonly Role[] = ["treasury"];
 
 export type AppPath = {
   /** The route pattern as React Router reads it. */
@@ -90,6 +92,7 @@ export const paths = {
     /** `filing` opens that filing; without it the screen opens the newest one. */
     href: (q?: { filing?: number }) => (q?.filing ? `/filings?filing=${q.filing}` : "/filings"),
   },
+  tokens: { path: "/tokens", roles: tokenHolders, label: "API tokens", href: () => "/tokens" },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
   adminEntity: {
@@ -128,6 +131,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "quarters", group: "main" },
   { key: "capital", group: "main" },
   { key: "filings", group: "main" },
+  { key: "tokens", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },
   { key: "adminAssignments", group: "admin" },

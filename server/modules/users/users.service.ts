@@ -2,6 +2,8 @@ import { UserModel } from "../../models/user";
 import { ConflictError, NotFoundError, ForbiddenError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { hashPassword } from "../auth/auth.service";
+import { revokeApiTokensOf } from "../api-tokens/api-tokens.service";
+import { TOKEN_HOLDERS } from "../../http/policy";
 import { sequelize } from "../../db/sequelize";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
@@ -65,6 +67,10 @@ export async function updateUser(id: number, change: UpdateUserBody, actor: Admi
     if (change.disabled !== undefined) row.disabled = change.disabled;
     if (revokes) row.tokenVersion = row.tokenVersion + 1;
     await row.save({ transaction });
+    // Their API tokens end too, so that giving the role back later does not revive old ones.
+    if (revokes && (row.disabled || !TOKEN_HOLDERS.includes(row.role))) {
+      await revokeApiTokensOf(row.id, row.disabled ? "account disabled" : `role changed to ${row.role}`, actor, transaction);
+    }
     const user = toUser(row);
     await recordAudit(actor, "user.update", user.email, { before, after: auditView(user) }, transaction);
     return user;

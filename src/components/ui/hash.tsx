@@ -1,7 +1,7 @@
-import { useState, type ReactNode } from "react";
+import type { ReactNode } from "react";
 import { cn } from "@/lib/cn";
 import { shortHash } from "@/lib/format";
-import { Button } from "./button";
+import { CopyButton } from "./copy-button";
 
 /** A SHA-256 shortened in place, the whole of it on hover; `empty` says why there is none yet. */
 export function Hash({ value, empty = "—", className }: { value: string | null | undefined; empty?: ReactNode; className?: string }) {
@@ -13,34 +13,16 @@ export function Hash({ value, empty = "—", className }: { value: string | null
   );
 }
 
-const canCopy = () => typeof navigator !== "undefined" && typeof navigator.clipboard?.writeText === "function";
-
 /**
  * A SHA-256 written out in full, for a reader who compares it character by character with the file
  * they hold: monospace, wrapping, selectable as one piece, with a Copy button where the browser
  * lets the page write to the clipboard (HTTPS or the machine itself).
  */
 export function FullHash({ value, className }: { value: string; className?: string }) {
-  const [copy, setCopy] = useState<"copied" | "failed">();
-  async function copyIt() {
-    try {
-      await navigator.clipboard.writeText(value);
-      setCopy("copied");
-    } catch {
-      setCopy("failed");
-    }
-  }
   return (
     <span className={cn("flex flex-wrap items-start gap-x-2 gap-y-1", className)}>
       <code className="min-w-0 font-mono text-xs font-normal break-all select-all">{value}</code>
-      {canCopy() && (
-        <Button variant="secondary" size="sm" className="h-6 px-2 text-xs" onClick={() => void copyIt()}>
-          {copy === "copied" ? "Copied" : "Copy"}
-        </Button>
-      )}
-      <span aria-live="polite" className={cn("text-xs font-normal", copy === "failed" ? "text-danger" : "sr-only")}>
-        {copy === "copied" ? "The SHA-256 is copied." : copy === "failed" ? "The browser refused to copy it: select the hash and copy it by hand." : ""}
-      </span>
+      <CopyButton value={value} what="The SHA-256" />
     </span>
   );
 }

@@ -21,6 +21,7 @@ import { reviewsRouter } from "./modules/exceptions/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
 import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
+import { outboxRouter } from "./modules/outbox/outbox.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -88,6 +89,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(snapshotsRouter());
   app.use(capitalRouter());
   app.use(filingsRouter());
+  app.use(outboxRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

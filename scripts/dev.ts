@@ -13,8 +13,8 @@ async function main() {
   const { config } = await import("../server/config");
   const db = await startPrivateDb(config.db.port);
   await ensureDatabase(db, config.db.name, creds);
-  // The mail sink first: the demo seed files past quarters with the supervisor by e-mail.
-  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
+  // The mail sink first: the demo seed files past quarters with the supervisor by e-mail (none when MAIL_SINK_DIR is empty).
+  const mail = config.mailSinkDir ? await startMailSink(config.smtpPort, config.mailSinkDir) : null;
   const { migrateUp } = await import("../server/db/migrator");
   const { seedDemo } = await import("../server/db/seeder");
   await migrateUp();
@@ -31,7 +31,7 @@ async function main() {
 
   const shutdown = async () => {
     for (const c of children) c.kill("SIGTERM");
-    await mail.close();
+    await mail?.close();
     if (db.startedHere) await stopPrivateDb(config.db.port);
     process.exit(0);
   };

@@ -15,7 +15,8 @@ async function main() {
   await ensureDatabase(db, config.db.name, creds);
 
   // The mail sink first: the demo seed files past quarters with the supervisor by e-mail.
-  const mail = await startMailSink(config.smtpPort, path.join(config.dataDir, "mail"));
+  // MAIL_SINK_DIR set empty: no local sink; mail goes to whatever SMTP server listens on SMTP_PORT.
+  const mail = config.mailSinkDir ? await startMailSink(config.smtpPort, config.mailSinkDir) : null;
 
   const { migrateUp } = await import("../server/db/migrator");
   const { seedDemo } = await import("../server/db/seeder");
@@ -40,7 +41,11 @@ async function main() {
 
   const { DEMO_USERS } = await import("../seeders/20261201-0001-larkspur-foundation");
   console.log(`\nQuartermark is running on http://127.0.0.1:${config.port}`);
-  console.log(`Mail sink on 127.0.0.1:${mail.port} (messages kept in .data/mail/)`);
+  console.log(
+    mail && config.mailSinkDir
+      ? `Mail sink on 127.0.0.1:${mail.port} (messages kept in ${path.relative(process.cwd(), config.mailSinkDir) || "."}/${config.isProduction ? "" : ", shown under Admin › Outbox"})`
+      : `No local mail sink (MAIL_SINK_DIR is empty): mail goes to the SMTP server on 127.0.0.1:${config.smtpPort}`,
+  );
   if (!config.isProduction) {
     console.log(`\nDemo sign-ins (password: ${config.demoPassword === "quartermark-demo" ? "quartermark-demo" : "$DEMO_PASSWORD"}):`);
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(10)} ${u.email}`);
@@ -49,7 +54,7 @@ async function main() {
 
   const shutdown = async () => {
     server.close();
-    await mail.close();
+    await mail?.close();
     const { sequelize } = await import("../server/db/sequelize");
     await sequelize.close();
     if (db.startedHere) await stopPrivateDb(config.db.port);

@@ -22,6 +22,7 @@ import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
 import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
+import { outboxRouter } from "./modules/outbox/outbox.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -90,6 +91,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(capitalRouter());
   app.use(filingsRouter());
   app.use(apiTokensRouter());
+  app.use(outboxRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

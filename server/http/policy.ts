@@ -41,6 +41,10 @@ export const POLICY = {
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
   "GET /api/audit-events": ["admin"],
+  // The development mail outbox (404 in production, in the service): what the local sink received.
+  "GET /api/admin/outbox": ["admin"],
+  "GET /api/admin/outbox/:id": ["admin"],
+  "GET /api/admin/outbox/:id/attachments/:index": ["admin"],
 
   // Daily data: analysts bring it in; the CRO reads it to understand the figures.
   "GET /api/uploads/template.csv": ["analyst", "cro", "admin"],

@@ -75,6 +75,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               ...screen(queryClient, "adminAssignments", () => import("./routes/admin/assignments")),
             },
             { path: relative(paths.adminAudit.path), ...screen(queryClient, "adminAudit", () => import("./routes/admin/audit")) },
+            { path: relative(paths.adminOutbox.path), ...screen(queryClient, "adminOutbox", () => import("./routes/admin/outbox")) },
             { path: "*", ...screen(queryClient, null, () => import("./routes/not-found")) },
           ],
         },

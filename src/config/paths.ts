@@ -119,6 +119,14 @@ export const paths = {
       return qs ? `/admin/audit?${qs}` : "/admin/audit";
     },
   },
+  /** The development mail outbox: what the local mail sink kept (the server refuses it in production). */
+  adminOutbox: {
+    path: "/admin/outbox",
+    roles: adminOnly,
+    label: "Outbox",
+    /** `message` opens that message; without it the screen opens the newest one. */
+    href: (q?: { message?: string }) => (q?.message ? `/admin/outbox?message=${encodeURIComponent(q.message)}` : "/admin/outbox"),
+  },
 } as const satisfies Record<string, AppPath & { href: (...args: never[]) => string }>;
 
 export type PathKey = keyof typeof paths;
@@ -136,6 +144,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "adminEntities", group: "admin" },
   { key: "adminAssignments", group: "admin" },
   { key: "adminAudit", group: "admin" },
+  { key: "adminOutbox", group: "admin" },
 ];
 
 export function mayOpen(key: PathKey, role: Role | undefined): boolean {

@@ -34,6 +34,13 @@ export function formatCount(n: number): string {
   return n.toLocaleString("en-GB");
 }
 
+/** A file size in the unit people read it in: 812 bytes, 48.2 kB, 6.1 MB. */
+export function formatBytes(bytes: number): string {
+  if (bytes < 1000) return `${formatCount(bytes)} bytes`;
+  if (bytes < 1_000_000) return `${(bytes / 1000).toLocaleString("en-GB", { maximumFractionDigits: 1 })} kB`;
+  return `${(bytes / 1_000_000).toLocaleString("en-GB", { minimumFractionDigits: 1, maximumFractionDigits: 1 })} MB`;
+}
+
 /** A count and its noun: "1 observation", "250 observations". */
 export function plural(n: number, one: string, many: string): string {
   return `${formatCount(n)} ${n === 1 ? one : many}`;

@@ -3,7 +3,7 @@ import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs, signedOut } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
-const adminLinks = ["Users", "Entities", "Regulator access", "Audit log"];
+const adminLinks = ["Users", "Entities", "Regulator access", "Audit log", "Outbox"];
 
 describe("navigation by role", () => {
   it("shows the administration links to an administrator", async () => {

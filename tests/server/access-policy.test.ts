@@ -51,6 +51,7 @@ beforeAll(async () => {
     id: String(someUser.id),
     userId: String(cookies.get("regulator")),
     entityCode: entity.code,
+    index: "0",
   };
 });
 afterAll(() => sequelize.close());
@@ -138,6 +139,8 @@ const MUST_REFUSE: [Role, string][] = [
   ["regulator", "GET /api/entities/:code/capital/forecast"],
   ["regulator", "POST /api/entities/:code/capital/what-if"],
   ["admin", "GET /api/entities/:code/capital/forecast"],
+  // The development mail outbox is the administrator's alone.
+  ...(["analyst", "cro", "treasury", "regulator"] as const).map((role): [Role, string] => [role, "GET /api/admin/outbox/:id/attachments/:index"]),
 ];
 
 describe("what DESIGN.md §2 forbids, checked without the policy table", () => {

@@ -40,6 +40,21 @@ export function Tr({ className, ...rest }: HTMLAttributes<HTMLTableRowElement>) 
   return <tr className={cn("hover:bg-paper-sunk/60", className)} {...rest} />;
 }
 
+/** A row that opens its record when clicked anywhere but on a link inside it; the open one is marked. */
+export function SelectableTr({ selected, onOpen, className, ...rest }: HTMLAttributes<HTMLTableRowElement> & { selected: boolean; onOpen: () => void }) {
+  return (
+    <Tr
+      aria-current={selected ? "true" : undefined}
+      onClick={(e) => {
+        if ((e.target as HTMLElement).closest("a")) return;
+        onOpen();
+      }}
+      className={cn("cursor-pointer", selected && "bg-accent-soft/70 hover:bg-accent-soft", className)}
+      {...rest}
+    />
+  );
+}
+
 /** Shown where a table would be empty: says what the reader can do next. */
 export function EmptyState({ title, children }: { title: string; children?: ReactNode }) {
   return (

@@ -1,12 +1,4 @@
 import type { FindingKind, UploadPreview } from "@shared/schemas/upload";
-import { formatCount } from "@/lib/format";
-
-/** A file size in the unit people read it in: 812 bytes, 48.2 kB, 6.1 MB. */
-export function formatBytes(bytes: number): string {
-  if (bytes < 1000) return `${formatCount(bytes)} bytes`;
-  if (bytes < 1_000_000) return `${(bytes / 1000).toLocaleString("en-GB", { maximumFractionDigits: 1 })} kB`;
-  return `${(bytes / 1_000_000).toLocaleString("en-GB", { minimumFractionDigits: 1, maximumFractionDigits: 1 })} MB`;
-}
 
 /** The first twelve hex digits: enough to tell files apart at a glance. */
 export function shortSha(sha256: string): string {

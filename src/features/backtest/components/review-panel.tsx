@@ -12,7 +12,7 @@ import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField, TextField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { formatAmount, formatBusinessDate, formatDateTime } from "@/lib/format";
+import { formatAmount, formatBusinessDate, formatBytes, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
 import {
   currentReviewOf,
@@ -24,12 +24,6 @@ import {
 } from "../api/backtest-queries";
 import { seriesOf } from "@/lib/pnl-series";
 import { causeIds, causeLabels, exclusionStatusLabels } from "../words";
-
-function formatSize(bytes: number): string {
-  if (bytes < 1000) return `${bytes.toLocaleString("en-GB")} bytes`;
-  if (bytes < 1_000_000) return `${(bytes / 1000).toLocaleString("en-GB", { maximumFractionDigits: 1 })} kB`;
-  return `${(bytes / 1_000_000).toLocaleString("en-GB", { maximumFractionDigits: 1 })} MB`;
-}
 
 /** A review as it stands: who explained it, why, and what the supervisor decided. */
 export function ReviewRecord({ review }: { review: Review }) {
@@ -209,7 +203,7 @@ function EvidencePanel({ code, day, canUpload, alsoInvalidate }: { code: string;
                 {f.fileName}
               </a>
               <span className="figures text-xs text-ink-muted">
-                {formatSize(f.sizeBytes)} · {f.uploadedBy}, {formatDateTime(f.uploadedAt)} · sha256 {f.sha256.slice(0, 12)}
+                {formatBytes(f.sizeBytes)} · {f.uploadedBy}, {formatDateTime(f.uploadedAt)} · sha256 {f.sha256.slice(0, 12)}
               </span>
             </li>
           ))}

@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import type { UploadSummary } from "@shared/schemas/upload";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { formatCount, formatDateTime } from "@/lib/format";
 import { cn } from "@/lib/cn";
 import { shortSha, uploadStatusLabels } from "../words";
@@ -48,15 +48,7 @@ export function UploadHistoryTable({
         {sorted.map((u) => {
           const selected = u.id === selectedId;
           return (
-            <Tr
-              key={u.id}
-              aria-current={selected ? "true" : undefined}
-              onClick={(e) => {
-                if ((e.target as HTMLElement).closest("a")) return;
-                onOpen(u.id);
-              }}
-              className={cn("cursor-pointer", selected && "bg-accent-soft/70 hover:bg-accent-soft")}
-            >
+            <SelectableTr key={u.id} selected={selected} onOpen={() => onOpen(u.id)}>
               <Td numeric className="text-ink-muted">
                 {u.id}
               </Td>
@@ -81,7 +73,7 @@ export function UploadHistoryTable({
                   {shortSha(u.sha256)}
                 </code>
               </Td>
-            </Tr>
+            </SelectableTr>
           );
         })}
       </tbody>

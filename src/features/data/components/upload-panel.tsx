@@ -3,9 +3,9 @@ import { UPLOAD_MAX_LABEL, type UploadPreview } from "@shared/schemas/upload";
 import { ProgressBar } from "@/components/ui/progress-bar";
 import { cn } from "@/lib/cn";
 import { ApiError } from "@/lib/api-client";
+import { formatBytes } from "@/lib/format";
 import { TEMPLATE_URL } from "../api/upload-queries";
 import { useSendUpload, type UploadProgress } from "../api/send-upload";
-import { formatBytes } from "../words";
 import { FileProblems } from "./file-problems";
 
 function Progress({ progress, fileName }: { progress: UploadProgress; fileName: string }) {

@@ -2,9 +2,8 @@ import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
 import { quarterLabel } from "@shared/schemas/snapshot";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
-import { cn } from "@/lib/cn";
 import { formatDateTime, formatFactor } from "@/lib/format";
 
 /** The packs sent, newest first, with the figures each one carried; a row opens its filing. */
@@ -44,15 +43,7 @@ export function FilingListTable({
           const selected = f.id === selectedId;
           const quarter = quarterLabel(f.quarterEnd);
           return (
-            <Tr
-              key={f.id}
-              aria-current={selected ? "true" : undefined}
-              onClick={(e) => {
-                if ((e.target as HTMLElement).closest("a")) return;
-                onOpen(f.id);
-              }}
-              className={cn("cursor-pointer", selected && "bg-accent-soft/70 hover:bg-accent-soft")}
-            >
+            <SelectableTr key={f.id} selected={selected} onOpen={() => onOpen(f.id)}>
               <Td className="whitespace-nowrap">
                 <span className="figures font-medium">{f.entity}</span>
                 <span className="block text-2xs text-ink-muted">{f.entityName}</span>
@@ -89,7 +80,7 @@ export function FilingListTable({
                   <span className="font-medium">Waiting</span>
                 )}
               </Td>
-            </Tr>
+            </SelectableTr>
           );
         })}
       </tbody>

@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import { quarterLabel, type Snapshot } from "@shared/schemas/snapshot";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
@@ -43,15 +43,7 @@ export function SnapshotListTable({
           const selected = s.id === selectedId;
           const label = quarterLabel(s.quarterEnd);
           return (
-            <Tr
-              key={s.id}
-              aria-current={selected ? "true" : undefined}
-              onClick={(e) => {
-                if ((e.target as HTMLElement).closest("a")) return;
-                onOpen(s.id);
-              }}
-              className={cn("cursor-pointer", selected && "bg-accent-soft/70 hover:bg-accent-soft")}
-            >
+            <SelectableTr key={s.id} selected={selected} onOpen={() => onOpen(s.id)}>
               <Td className="whitespace-nowrap">
                 <Link to={snapshotHref(s.id)} aria-label={`Open ${label}, ${snapshotStatusLabels[s.status].toLowerCase()}`} className="font-medium">
                   {label}
@@ -76,7 +68,7 @@ export function SnapshotListTable({
               </Td>
               <Td className="text-xs">{s.preparedBy}</Td>
               <Td className="text-xs">{s.approvedBy ?? <span className="text-ink-faint">—</span>}</Td>
-            </Tr>
+            </SelectableTr>
           );
         })}
       </tbody>

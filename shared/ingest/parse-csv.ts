@@ -264,8 +264,9 @@ class LineChecks {
       } else {
         day = plainDay(text, at, stop);
         if (day === undefined) return false;
-        date = this.dateText.get(day) ?? text.slice(at, stop);
-        if (date.length === 10) this.dateText.set(day, date);
+        const known = this.dateText.get(day);
+        if (known === undefined) this.dateText.set(day, (date = text.slice(at, stop)));
+        else date = known;
       }
       at = stop + 1;
     }

@@ -236,9 +236,11 @@ async function toPreview(row: UploadModel): Promise<UploadPreview> {
 }
 
 /** Portfolio ids the preview named (from its summary), sorted. */
-function previewPortfolioIds(upload: UploadModel, ids: ReadonlyMap<string, number>): number[] {
+async function previewPortfolioIds(upload: UploadModel, transaction: Transaction): Promise<number[]> {
   const codes: string[] = upload.summaryJson ? JSON.parse(upload.summaryJson).portfolios : [];
-  return [...new Set(codes.map((c) => ids.get(c)).filter((v): v is number => v !== undefined))].sort((a, b) => a - b);
+  if (codes.length === 0) return [];
+  const found = await PortfolioModel.findAll({ where: { code: codes }, attributes: ["id"], transaction });
+  return found.map((p) => p.id).sort((a, b) => a - b);
 }
 
 /** Checks a file and keeps it as a preview: nothing reaches the observations yet. */
@@ -294,14 +296,13 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
  * sent as pipelined multi-row INSERTs, and the data-quality checks run while MariaDB writes them.
  */
 export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
-  const idsBefore = (await loadReferenceData()).ids;
   const result = await sequelize.transaction(async (transaction) => {
     const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
     if (upload.status === "committed") throw new ConflictError(`Upload #${id} is already committed.`);
     if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
     // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
-    const lockedIds = previewPortfolioIds(upload, idsBefore);
+    const lockedIds = await previewPortfolioIds(upload, transaction);
     if (lockedIds.length) {
       await sequelize.query("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id FOR UPDATE", { replacements: { ids: lockedIds }, transaction });
     }

@@ -46,6 +46,43 @@ describe("the database goes away in the middle of an approval", () => {
   });
 });
 
+describe("an approval and an upload commit take turns on the entity's portfolios", () => {
+  it("when a commit holds a portfolio of the entity, then the approval waits for it at the portfolios, before it locks anything the commit needs", async () => {
+    const book = await signOffBook();
+    const submitted = await preparedAndSubmitted(book);
+
+    // Another session locks the portfolio row exactly as an upload commit does.
+    const commitLike = await mariadb.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: config.db.name });
+    const [{ id: ownThread }] = (await commitLike.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
+    await commitLike.beginTransaction();
+    await commitLike.query("SELECT id FROM portfolios WHERE id IN (?) ORDER BY id FOR UPDATE", [[book.portfolio.id]]);
+    let finished = false;
+    const approving = request(app)
+      .post(`/api/snapshots/${submitted.id}/approve`)
+      .set("Cookie", book.croCookie)
+      .send({})
+      .then((r) => {
+        finished = true;
+        return r;
+      });
+    let waitingAtPortfolios = false;
+    for (const until = Date.now() + 10_000; Date.now() < until && !waitingAtPortfolios && !finished; ) {
+      const rows: { Id: number; Info: string | null; State: string | null }[] = await commitLike.query("SHOW FULL PROCESSLIST");
+      waitingAtPortfolios = rows.some((r) => BigInt(r.Id) !== BigInt(ownThread) && /FROM portfolios/.test(r.Info ?? "") && /LOCK IN SHARE MODE/.test(r.Info ?? ""));
+      if (!waitingAtPortfolios) await new Promise((r) => setTimeout(r, 5));
+    }
+    const snapshotWhileWaiting = await SnapshotModel.findByPk(submitted.id);
+    await commitLike.rollback();
+    await commitLike.end();
+
+    expect(waitingAtPortfolios).toBe(true);
+    expect(snapshotWhileWaiting).toMatchObject({ status: "submitted", hash: null });
+    const res = await approving;
+    expect(res.status).toBe(200);
+    expect(await SnapshotModel.findByPk(submitted.id)).toMatchObject({ status: "approved" });
+  });
+});
+
 describe("an approval races an upload that restates a day in the quarter", () => {
   it("when both arrive at once, then either the approval is refused as stale or the snapshot is flagged — and approved figures always equal what was reviewed", async () => {
     const book = await signOffBook();

@@ -135,9 +135,16 @@ function withEvent(row: SnapshotModel, e: SnapshotEvent): string {
   return JSON.stringify([...(JSON.parse(row.historyJson) as SnapshotEvent[]), e]);
 }
 
-/** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
+/**
+ * Locks the entity's portfolios for share: an upload committing to them finishes first, and none
+ * starts until we are done. The rows are locked by primary key, where an upload commit locks them
+ * for update: a shared locking read answered from the entity_id index alone (it holds the id)
+ * locks only that index's entries, which an upload's lock on the rows themselves never meets.
+ */
 async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
-  await sequelize.query("SELECT id FROM portfolios WHERE entity_id = :entityId ORDER BY id LOCK IN SHARE MODE", { replacements: { entityId }, transaction });
+  const ids = (await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction })).map((p) => p.id);
+  if (ids.length === 0) return;
+  await sequelize.query("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id LOCK IN SHARE MODE", { replacements: { ids }, transaction });
 }
 
 /**

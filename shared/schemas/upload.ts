@@ -86,6 +86,7 @@ export type UploadSummary = z.infer<typeof uploadListSchema>[number];
 export const commitResultSchema = z.object({
   id: z.number().int(),
   status: z.literal("committed"),
+  /** Versions written: one per new day and one per restated day. */
   inserted: z.number().int(),
   restated: z.number().int(),
   unchanged: z.number().int(),

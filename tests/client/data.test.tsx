@@ -180,7 +180,7 @@ describe("Data › upload preview", () => {
       "GET /api/uploads/41/rows": { status: 200, body: { columns, rows: [goodRow], total: 1250 } },
       "POST /api/uploads/41/commit": () => {
         committed = true;
-        return { status: 200, body: { id: 41, status: "committed", inserted: 1000, restated: 249, unchanged: 1 } };
+        return { status: 200, body: { id: 41, status: "committed", inserted: 1249, restated: 249, unchanged: 1 } };
       },
     });
     const user = userEvent.setup();

@@ -62,7 +62,8 @@ function Fingerprint({ sha256 }: { sha256: string }) {
 }
 
 function committedLine(r: CommitResult): string {
-  return `Upload #${r.id} is committed: ${plural(r.inserted, "new day", "new days")} written, ${plural(r.restated, "day", "days")} restated (earlier versions kept), ${formatCount(r.unchanged)} unchanged.`;
+  // `inserted` counts every version written: the new days and the new versions of restated ones.
+  return `Upload #${r.id} is committed: ${plural(r.inserted - r.restated, "new day", "new days")} written, ${plural(r.restated, "day", "days")} restated (earlier versions kept), ${formatCount(r.unchanged)} unchanged.`;
 }
 
 /** One upload: its figures, its rows with the errors in place, and what may be done with it. */

@@ -18,7 +18,7 @@ async function killCommitConnection(deadlineMs: number): Promise<boolean> {
     const until = Date.now() + deadlineMs;
     while (Date.now() < until) {
       const rows: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
-      const victim = rows.find((r) => r.Info?.startsWith("INSERT INTO observations"));
+      const victim = rows.find((r) => /INSERT INTO observations/.test(r.Info ?? ""));
       if (victim) {
         await admin.query(`KILL CONNECTION ${Number(victim.Id)}`);
         return true;

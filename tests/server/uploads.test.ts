@@ -6,6 +6,7 @@ import { UploadModel } from "../../server/models/upload";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { HolidayModel } from "../../server/models/holiday";
 import { checkedRowsOf, forgetCheckedRows } from "../../server/modules/uploads/preview-cache";
+import { queueInsertVersions, type PipelinedWrites } from "../../server/modules/observations/observations.repository";
 import { testApp } from "./helpers";
 import { csvFor, HEADER, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
 
@@ -92,6 +93,25 @@ describe("uploading daily data", () => {
     expect(retired.map((o) => [o.businessDate, o.version])).toEqual([...changedAt].map((i) => [dates[i], 1]));
     const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations?from=${dates[5_000]}&to=${dates[5_000]}`).set("Cookie", cookie);
     expect(read.body).toEqual([expect.objectContaining({ actualPnl: -7.5, hypotheticalPnl: -6.25, var99: 7000, version: 2 })]);
+    // Every row names a portfolio and an upload that exist (the bulk INSERTs skip the per-row lookups).
+    const [[orphans]] = (await sequelize.query(
+      `SELECT COUNT(*) AS n FROM observations o LEFT JOIN portfolios p ON p.id = o.portfolio_id LEFT JOIN uploads u ON u.id = o.upload_id
+        WHERE o.upload_id IN (:ids) AND (p.id IS NULL OR u.id IS NULL OR p.id <> :portfolioId)`,
+      { replacements: { ids: [first.body.id, second.body.id], portfolioId: portfolio.id } },
+    )) as [{ n: number }[], unknown];
+    expect(Number(orphans.n)).toBe(0);
+  });
+
+  it("when rows would name a portfolio the commit does not hold locked, then nothing is sent to the database", async () => {
+    const sent: string[] = [];
+    const writes = { send: (sql: string) => sent.push(sql), flush: async () => undefined } as unknown as PipelinedWrites;
+    const row = { date: "2026-10-05", actual_pnl: -1, hypothetical_pnl: -1, var_99: 10 };
+    await expect(queueInsertVersions(writes, [{ portfolioId: 7, version: 1, row }, { portfolioId: 8, version: 1, row }], 1, new Set([7]))).rejects.toThrow(
+      /portfolio #8, which this commit does not hold locked/,
+    );
+    expect(sent).toEqual([]);
+    await queueInsertVersions(writes, [{ portfolioId: 7, version: 1, row }], 1, new Set([7]));
+    expect(sent).toEqual(["SET STATEMENT foreign_key_checks = 0 FOR INSERT INTO observations (portfolio_id, business_date, actual_pnl, hypothetical_pnl, var_99, upload_id) VALUES (7,'2026-10-05',-1,-1,10,1)"]);
   });
 
   it("when the same file is uploaded again after commit, then 409 names the earlier upload and nothing is stored", async () => {

@@ -87,27 +87,40 @@ export class PipelinedWrites {
  * that some row of a batch reports are named (the others default to NULL). Who wrote them and
  * when is their upload's. Every value has been validated (integers, ISO dates, finite amounts
  * rounded to the cent), so they are written as literals.
+ *
+ * The parents of every row are rows the caller's transaction holds locked: the upload (for
+ * update) and the portfolios in `heldPortfolios` (for update). A row naming any other portfolio
+ * is refused here, before anything is sent. With the parents present and held, the foreign-key
+ * lookups MariaDB would make for each row can only succeed, so these INSERTs alone run with
+ * `SET STATEMENT foreign_key_checks = 0 FOR …` (the bulk-load practice of the MariaDB and MySQL
+ * manuals, scoped to the one statement; about a tenth of a 100,000-row commit). The constraints
+ * stay declared and checked for every other write.
  */
-export async function queueInsertVersions(writes: PipelinedWrites, rows: readonly NewVersion[], uploadId: number): Promise<void> {
+export async function queueInsertVersions(writes: PipelinedWrites, rows: readonly NewVersion[], uploadId: number, heldPortfolios: ReadonlySet<number>): Promise<void> {
   const firsts = rows.filter((r) => r.version === 1);
   const restated = firsts.length === rows.length ? [] : rows.filter((r) => r.version !== 1);
   for (const [group, withVersion] of [[firsts, false], [restated, true]] as const) {
     for (let start = 0; start < group.length; start += INSERT_BATCH_ROWS) {
-      writes.send(insertBatch(group, start, Math.min(group.length, start + INSERT_BATCH_ROWS), withVersion, uploadId));
+      writes.send(insertBatch(group, start, Math.min(group.length, start + INSERT_BATCH_ROWS), withVersion, uploadId, heldPortfolios));
       await writes.flush();
     }
   }
 }
 
-function insertBatch(rows: readonly NewVersion[], start: number, end: number, withVersion: boolean, uploadId: number): string {
+function insertBatch(rows: readonly NewVersion[], start: number, end: number, withVersion: boolean, uploadId: number, heldPortfolios: ReadonlySet<number>): string {
   const present = AMOUNT_COLUMNS.filter((c) => {
     for (let i = start; i < end; i++) if (rows[i].row[c] !== null && rows[i].row[c] !== undefined) return true;
     return false;
   });
   const tail = `,${uploadId | 0})`;
   let values = "";
+  let lastHeld: number | undefined;
   for (let i = start; i < end; i++) {
     const r = rows[i];
+    if (r.portfolioId !== lastHeld) {
+      if (!heldPortfolios.has(r.portfolioId)) throw new Error(`refusing to write for portfolio #${r.portfolioId}, which this commit does not hold locked`);
+      lastHeld = r.portfolioId;
+    }
     const date = r.row.date;
     if (!ISO_DATE.test(date)) throw new Error(`refusing to write unchecked date ${date}`);
     let amounts = "";
@@ -120,7 +133,7 @@ function insertBatch(rows: readonly NewVersion[], start: number, end: number, wi
     values += `${i === start ? "" : ","}(${r.portfolioId | 0},'${date}'${withVersion ? `,${r.version | 0}` : ""}${amounts}${tail}`;
   }
   const columns = `${withVersion ? ", version" : ""}${present.length ? `, ${present.join(", ")}` : ""}`;
-  return `INSERT INTO observations (portfolio_id, business_date${columns}, upload_id) VALUES ${values}`;
+  return `SET STATEMENT foreign_key_checks = 0 FOR INSERT INTO observations (portfolio_id, business_date${columns}, upload_id) VALUES ${values}`;
 }
 
 /** A stored version, by its key. */

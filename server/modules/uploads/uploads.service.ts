@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { Op, UniqueConstraintError, type Transaction } from "sequelize";
+import { Op, QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { UploadModel } from "../../models/upload";
 import { UserModel } from "../../models/user";
@@ -303,8 +303,15 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
     // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
     const lockedIds = await previewPortfolioIds(upload, transaction);
+    // The portfolio rows this commit holds: the only parents its rows may name (queueInsertVersions checks).
+    const held = new Set<number>();
     if (lockedIds.length) {
-      await sequelize.query("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id FOR UPDATE", { replacements: { ids: lockedIds }, transaction });
+      const rows = await sequelize.query<{ id: number }>("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id FOR UPDATE", {
+        replacements: { ids: lockedIds },
+        type: QueryTypes.SELECT,
+        transaction,
+      });
+      for (const r of rows) held.add(Number(r.id));
     }
     if (upload.invalidCount > 0) {
       throw new AppError(422, "preview_has_errors", `Upload #${id} has ${upload.invalidCount} invalid row(s). Fix the file and upload it again; nothing was written.`);
@@ -331,7 +338,7 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     for (let start = 0; start < rows.length; start += INSERT_BATCH_ROWS) {
       const part = classify(rows.slice(start, start + INSERT_BATCH_ROWS), ref.ids, stored);
       queueRetireVersions(writes, part.retire);
-      await queueInsertVersions(writes, part.inserts, upload.id);
+      await queueInsertVersions(writes, part.inserts, upload.id, held);
       for (const written of part.inserts) inserts.push(written);
       restated += part.restated;
       unchanged += part.unchanged;

@@ -35,7 +35,14 @@ export const forecastResponseSchema = z.object({
   /** What one more exception today would add to the capital requirement; null without capital inputs. */
   nextExceptionCost: z.number().nullable(),
   /** Today's counted exceptions, zone, plus factor and multiplier, for reference. */
-  today: z.object({ counted: z.number().int(), zone: zoneSchema, plusFactor: z.number(), multiplier: z.number() }),
+  today: z.object({
+    counted: z.number().int(),
+    zone: zoneSchema,
+    plusFactor: z.number(),
+    multiplier: z.number(),
+    /** False when today's window is short of the rules' observations: the zone is provisional. */
+    windowComplete: z.boolean(),
+  }),
   rollOffs: z.array(rollOffSchema),
 });
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;

@@ -165,7 +165,12 @@ export type SnapshotVerify = z.infer<typeof snapshotVerifySchema>;
 /** GET /api/entities/:code/capital/history: the entity's quarters as their snapshots hold them, oldest first. */
 export const capitalHistoryItemSchema = snapshotSchema
   .pick({ quarterEnd: true, status: true, zone: true, counted: true, plusFactor: true, multiplier: true, capital: true, addOn: true })
-  .extend({ snapshotId: z.number().int(), restatedAfterSignOff: z.boolean() });
+  .extend({
+    snapshotId: z.number().int(),
+    restatedAfterSignOff: z.boolean(),
+    /** False when the quarter's window held fewer observations than the rules ask for: its zone is provisional. */
+    windowComplete: z.boolean(),
+  });
 export type CapitalHistoryItem = z.infer<typeof capitalHistoryItemSchema>;
 export const capitalHistorySchema = z.array(capitalHistoryItemSchema);
 export const entityCodeParamSchema = z.object({ code: entityCodeSchema });

@@ -18,7 +18,7 @@ const entities = [
 ];
 
 function quarter(over: Partial<CapitalHistoryItem> & Pick<CapitalHistoryItem, "quarterEnd" | "snapshotId">): CapitalHistoryItem {
-  return { status: "approved", zone: "green", counted: 4, plusFactor: 0, multiplier: 3, capital: 360_000_000, addOn: 0, restatedAfterSignOff: false, ...over };
+  return { status: "approved", zone: "green", counted: 4, plusFactor: 0, multiplier: 3, capital: 360_000_000, addOn: 0, restatedAfterSignOff: false, windowComplete: true, ...over };
 }
 
 /** What the server sends treasury: signed-off quarters only, oldest first. */
@@ -53,7 +53,7 @@ function forecast(over: Partial<ForecastResponse> = {}): ForecastResponse {
     ifNoNewException: { counted: 4, zone: "green", plusFactor: 0, addOn: 0 },
     expectedAddOn: 9_982_000,
     nextExceptionCost: 1_250_000,
-    today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5 },
+    today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: true },
     rollOffs: [
       { date: "2025-12-04", actual: true, hypothetical: false, leavesOn: "2026-12-02", countAfter: 5, zoneAfter: "yellow", plusFactorAfter: 0.4 },
       { date: "2025-12-19", actual: true, hypothetical: true, leavesOn: "2026-12-17", countAfter: 4, zoneAfter: "green", plusFactorAfter: 0 },
@@ -147,6 +147,23 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     expect(within(draft).getByText("Draft")).toBeInTheDocument();
     expect(within(draft).getByText("not signed off")).toBeInTheDocument();
     expect(screen.getByText("4 quarters · 1 not signed off")).toBeInTheDocument();
+  });
+
+  it("when a quarter's window or today's was short of 250 days, then its zone is marked provisional, and the others are not", async () => {
+    const shortFirst = capitalHistorySchema.parse([quarter({ snapshotId: 2, quarterEnd: "2025-03-31", windowComplete: false }), ...signedOffHistory]);
+    fakeApi(
+      routes("treasury", {
+        "GET /api/entities/LKS-EU/capital/history": { status: 200, body: shortFirst },
+        "GET /api/entities/LKS-EU/capital/forecast": { status: 200, body: forecast({ today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: false } }) },
+      }),
+    );
+    renderApp("/capital?entity=LKS-EU");
+
+    const standing = await screen.findByRole("region", { name: "Where we stand" });
+    expect(within(standing).getByText("(provisional)")).toBeInTheDocument();
+    const table = await screen.findByRole("table", { name: "Capital history by quarter end, oldest first" });
+    const rows = within(table).getAllByRole("row").slice(1);
+    expect(rows.map((r) => within(r).queryByText("(provisional)") !== null)).toEqual([true, false, false, false]);
   });
 
   it("when a forecast date is chosen, then it is asked for with ?date=, put in the address, and the zone chances and remaining count are said", async () => {

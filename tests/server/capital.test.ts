@@ -41,7 +41,7 @@ describe("the zone forecast", () => {
     expect(res.status).toBe(200);
     const f = forecastResponseSchema.parse(res.body);
     // Today: five exceptions, yellow, plus factor 0.40, multiplier 3.40 (BCBS 1996 Table 2; CRR Art. 366, from memory).
-    expect(f).toMatchObject({ asOf: LAST_DAY, date: "2026-10-14", newDays: 10, knownRemaining: 5, today: { counted: 5, zone: "yellow", plusFactor: 0.4, multiplier: 3.4 } });
+    expect(f).toMatchObject({ asOf: LAST_DAY, date: "2026-10-14", newDays: 10, knownRemaining: 5, today: { counted: 5, zone: "yellow", plusFactor: 0.4, multiplier: 3.4, windowComplete: true } });
     // P(no new exception in 10 days) = 0.99^10 (binomial, REFERENCE.md).
     expect(f.distribution[0]).toEqual({ exceptions: 5, probability: expect.closeTo(0.99 ** 10, 12) });
     expect(f.distribution.reduce((s, d) => s + d.probability, 0)).toBeCloseTo(1, 12);

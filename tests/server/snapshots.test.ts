@@ -254,9 +254,20 @@ describe("after sign-off", () => {
     // The capital history reads the same snapshots, oldest first.
     const history = await request(app).get(`/api/entities/${book.entity.code}/capital/history`).set("Cookie", book.treasuryCookie);
     expect(capitalHistorySchema.parse(history.body)).toEqual([
-      { quarterEnd: Q3, status: "approved", zone: "yellow", counted: 5, plusFactor: 0.4, multiplier: 3.4, capital: submitted.capital, addOn: submitted.addOn, snapshotId: submitted.id, restatedAfterSignOff: false },
+      { quarterEnd: Q3, status: "approved", zone: "yellow", counted: 5, plusFactor: 0.4, multiplier: 3.4, capital: submitted.capital, addOn: submitted.addOn, snapshotId: submitted.id, restatedAfterSignOff: false, windowComplete: true },
     ]);
     const fullHistory = await request(app).get(`/api/entities/${book.entity.code}/capital/history`).set("Cookie", book.croCookie);
     expect(fullHistory.body.map((h: { quarterEnd: string; status: string }) => [h.quarterEnd, h.status])).toEqual([[Q2, "draft"], [Q3, "approved"]]);
+  });
+
+  it("when a quarter's window held fewer than 250 days, then its capital history says the window is short (the zone is provisional)", async () => {
+    const fx = await ingestFixture();
+    const dates = weekdaysEndingOn(Q3, 120);
+    await uploadAndCommit(fx.cookie, [HEADER, ...dates.map((d, i) => `${fx.portfolio.code},${d},-50,-40,${100 + (i % 2)},250`)].join("\n"));
+    const draft = await request(app).post("/api/snapshots").set("Cookie", fx.cookie).send({ entity: fx.entity.code, quarterEnd: Q3 });
+    expect(draft.status).toBe(201);
+    expect(JSON.parse((await SnapshotModel.findByPk(draft.body.id))!.figuresJson).window).toMatchObject({ observations: 120, complete: false });
+    const history = await request(app).get(`/api/entities/${fx.entity.code}/capital/history`).set("Cookie", fx.cookie);
+    expect(history.body).toEqual([expect.objectContaining({ quarterEnd: Q3, status: "draft", windowComplete: false })]);
   });
 });

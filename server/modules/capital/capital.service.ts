@@ -58,7 +58,7 @@ export async function getForecast(code: string, query: { date?: string }): Promi
     currency: entity.currency,
     ...forecast,
     nextExceptionCost: orNull(() => marginalCostOfNextException(ctx.series, { regime: entity.regime, asOf: latest, count: today.exceptions.counted, qualitativeAddend: entity.qualitativeAddend })),
-    today: { counted: today.exceptions.counted, zone: today.zone, plusFactor: today.plusFactor, multiplier: today.multiplier },
+    today: { counted: today.exceptions.counted, zone: today.zone, plusFactor: today.plusFactor, multiplier: today.multiplier, windowComplete: today.window.complete },
   };
 }
 

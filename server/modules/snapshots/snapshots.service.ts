@@ -122,6 +122,7 @@ export async function capitalHistory(code: string, actor: SignedIn): Promise<Cap
     addOn: r.addOn,
     snapshotId: r.id,
     restatedAfterSignOff: r.restatedAt !== null,
+    windowComplete: (JSON.parse(r.figuresJson) as SnapshotFigures).window.complete,
   }));
 }
 

@@ -20,7 +20,7 @@ export function CapitalStanding({ forecast }: { forecast: ForecastResponse }) {
           <span data-testid="today-counted">{today.counted}</span>
         </Figure>
         <Figure look="ruled" label="Traffic-light zone">
-          <ZoneBadge zone={today.zone} regime={regime} className="text-sm" />
+          <ZoneBadge zone={today.zone} regime={regime} provisional={!today.windowComplete} className="text-sm" />
         </Figure>
         <Figure look="ruled" label="Plus factor">
           <span data-testid="today-plus-factor">{formatFactor(today.plusFactor)}</span>

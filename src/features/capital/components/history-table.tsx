@@ -35,7 +35,7 @@ export function HistoryTable({ points, currency, regime }: { points: HistoryPoin
               {!p.signedOff && <span className="block text-2xs font-normal text-ink-muted">not signed off</span>}
             </Td>
             <Td>
-              <ZoneBadge zone={p.zone} regime={regime} />
+              <ZoneBadge zone={p.zone} regime={regime} provisional={!p.windowComplete} />
             </Td>
             <Td numeric>{p.counted}</Td>
             <Td numeric>{formatFactor(p.plusFactor)}</Td>

@@ -11,6 +11,8 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
   declare disabled: CreationOptional<boolean>;
   /** Raised on logout, disable and role change: every token carrying an older version is refused. */
   declare tokenVersion: CreationOptional<number>;
+  /** Row version of the admin's edits (optimistic locking): a stale one is refused with 409. */
+  declare version: CreationOptional<number>;
   declare lastSignInAt: Date | null;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -25,6 +27,7 @@ UserModel.init(
     passwordHash: { type: DataTypes.STRING(100), allowNull: false },
     disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     lastSignInAt: { type: DataTypes.DATE(3), allowNull: true },
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),

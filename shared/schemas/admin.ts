@@ -21,6 +21,8 @@ export const userSchema = z.object({
   disabled: z.boolean(),
   createdAt: z.string(),
   lastSignInAt: z.string().nullable(),
+  /** Row version, sent back with an edit: a stale one is refused (409 stale). */
+  version: z.number().int(),
 });
 export type User = z.infer<typeof userSchema>;
 export const userListSchema = z.array(userSchema);
@@ -33,12 +35,15 @@ export const createUserBodySchema = z.strictObject({
 });
 export type CreateUserBody = z.infer<typeof createUserBodySchema>;
 
+const userVersionSchema = z.number().int().positive("Send the user's version as you read it");
+
 export const updateUserBodySchema = z
-  .strictObject({ name: plainNameSchema.optional(), role: roleSchema.optional(), disabled: z.boolean().optional() })
-  .refine((b) => Object.keys(b).length > 0, "Nothing to change");
+  .strictObject({ name: plainNameSchema.optional(), role: roleSchema.optional(), disabled: z.boolean().optional(), version: userVersionSchema })
+  .refine((b) => Object.keys(b).some((k) => k !== "version"), "Nothing to change");
 export type UpdateUserBody = z.infer<typeof updateUserBodySchema>;
 
-export const resetPasswordBodySchema = z.strictObject({ password: newPasswordSchema });
+export const resetPasswordBodySchema = z.strictObject({ password: newPasswordSchema, version: userVersionSchema });
+export type ResetPasswordBody = z.infer<typeof resetPasswordBodySchema>;
 
 export const userIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
 

@@ -3,7 +3,7 @@ import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
-const regulator = { id: 5, email: "regulator@larkspur.test", name: "Rita Reg", role: "regulator", disabled: false, createdAt: "2026-01-01T00:00:00Z", lastSignInAt: null };
+const regulator = { id: 5, email: "regulator@larkspur.test", name: "Rita Reg", role: "regulator", disabled: false, createdAt: "2026-01-01T00:00:00Z", lastSignInAt: null, version: 1 };
 const analyst = { ...regulator, id: 6, email: "analyst@larkspur.test", name: "Ana Lyst", role: "analyst" };
 const entities = [
   { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },

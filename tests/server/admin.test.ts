@@ -57,9 +57,10 @@ describe("managing users", () => {
 
   it("when an admin changes a role, then the audit log keeps before and after", async () => {
     const user = await createTestUser("analyst");
-    const res = await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ role: "cro" });
+    const res = await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ role: "cro", version: 1 });
     expect(res.status).toBe(200);
-    expect(res.body.role).toBe("cro");
+    expect(res.body).toMatchObject({ role: "cro", version: 2 });
+    expect((await UserModel.findByPk(user.id))!.version).toBe(2);
     const audit = await AuditEventModel.findOne({ where: { action: "user.update", target: user.email } });
     expect(JSON.parse(audit!.beforeJson!).role).toBe("analyst");
     expect(JSON.parse(audit!.afterJson!).role).toBe("cro");
@@ -67,17 +68,101 @@ describe("managing users", () => {
 
   it("when an admin resets a password, then the old one stops working and the new one works", async () => {
     const user = await createTestUser("treasury");
-    await request(app).post(`/api/users/${user.id}/password`).set("Cookie", admin).send({ password: "brand new passphrase" }).expect(204);
+    await request(app).post(`/api/users/${user.id}/password`).set("Cookie", admin).send({ password: "brand new passphrase", version: 1 }).expect(204);
     expect((await request(app).post("/api/auth/login").send({ email: user.email, password: "correct horse battery staple" })).status).toBe(401);
     await signIn(app, user.email, "brand new passphrase");
+    expect((await UserModel.findByPk(user.id))!.version).toBe(2);
   });
 
   it("when an admin tries to disable their own account, then 403 and they stay enabled", async () => {
     const self = await createTestUser("admin");
     const cookie = await sessionCookieFor(self.id);
-    const res = await request(app).patch(`/api/users/${self.id}`).set("Cookie", cookie).send({ disabled: true });
+    const res = await request(app).patch(`/api/users/${self.id}`).set("Cookie", cookie).send({ disabled: true, version: 1 });
     expect(res.status).toBe(403);
     expect((await UserModel.findByPk(self.id))!.disabled).toBe(false);
+  });
+});
+
+describe("two admins editing the same user (row version)", () => {
+  const DTO_KEYS = ["createdAt", "disabled", "email", "id", "lastSignInAt", "name", "role", "version"];
+  let otherAdmin: string;
+  beforeAll(async () => {
+    otherAdmin = await sessionCookieFor((await createTestUser("admin")).id);
+  });
+
+  it("when the list is read, then each user carries their row version", async () => {
+    const user = await createTestUser("analyst");
+    const res = await request(app).get("/api/users").set("Cookie", admin).expect(200);
+    expect(res.body.find((u: { id: number }) => u.id === user.id)).toMatchObject({ id: user.id, version: 1 });
+  });
+
+  it("when the second admin disables a user with the version both read, after the first renamed them, then 409 stale with the current user, and nothing of the second is written", async () => {
+    const target = await createTestUser("analyst");
+    const targetSession = await sessionCookieFor(target.id);
+    await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ name: "Renamed by the first", version: 1 }).expect(200);
+
+    const late = await request(app).patch(`/api/users/${target.id}`).set("Cookie", otherAdmin).send({ disabled: true, version: 1 });
+
+    expect(late.status).toBe(409);
+    expect(late.body.error.code).toBe("stale");
+    expect(late.body.error.message).toMatch(/Someone else changed Renamed by the first/);
+    expect(late.body.error.details.current).toMatchObject({ id: target.id, name: "Renamed by the first", role: "analyst", disabled: false, version: 2 });
+    expect(Object.keys(late.body.error.details.current).sort()).toEqual(DTO_KEYS); // no password hash, no token version
+    const row = (await UserModel.findByPk(target.id))!;
+    expect({ name: row.name, disabled: row.disabled, version: row.version, tokenVersion: row.tokenVersion }).toEqual({
+      name: "Renamed by the first",
+      disabled: false,
+      version: 2, // bumped once, by the first admin
+      tokenVersion: 1, // the refused disable revoked nothing
+    });
+    expect(await AuditEventModel.count({ where: { action: "user.update", target: target.email } })).toBe(1);
+    expect((await request(app).get("/api/auth/me").set("Cookie", targetSession)).status).toBe(200);
+  });
+
+  it("when the second admin resets a password with the old version, then 409 stale and the password and sessions stay as they were", async () => {
+    const target = await createTestUser("cro");
+    await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ role: "treasury", version: 1 }).expect(200);
+
+    const late = await request(app).post(`/api/users/${target.id}/password`).set("Cookie", otherAdmin).send({ password: "a second admin's idea", version: 1 });
+
+    expect(late.status).toBe(409);
+    expect(late.body.error.code).toBe("stale");
+    expect(late.body.error.details.current).toMatchObject({ id: target.id, role: "treasury", version: 2 });
+    expect(JSON.stringify(late.body)).not.toMatch(/\$2[aby]\$/);
+    const row = (await UserModel.findByPk(target.id))!;
+    expect({ version: row.version, tokenVersion: row.tokenVersion }).toEqual({ version: 2, tokenVersion: 2 }); // only the role change's revocation
+    expect(await AuditEventModel.count({ where: { action: "user.reset_password", target: target.email } })).toBe(0);
+    await signIn(app, target.email); // the old password still works
+  });
+
+  it("when both admins send the same version at once, then exactly one wins and the version moves once", async () => {
+    const target = await createTestUser("analyst");
+    const [a, b] = await Promise.all([
+      request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ role: "cro", version: 1 }),
+      request(app).patch(`/api/users/${target.id}`).set("Cookie", otherAdmin).send({ role: "regulator", version: 1 }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([200, 409]);
+    const winner = a.status === 200 ? a : b;
+    const loser = a.status === 200 ? b : a;
+    expect(loser.body.error.details.current).toMatchObject({ role: winner.body.role, version: 2 });
+    const row = (await UserModel.findByPk(target.id))!;
+    expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({ role: winner.body.role, version: 2, tokenVersion: 2 });
+    expect(await AuditEventModel.count({ where: { action: "user.update", target: target.email } })).toBe(1);
+  });
+
+  it("when an edit carries no version or an invalid one, then 422 names the version and nothing is written", async () => {
+    const target = await createTestUser("analyst");
+    for (const body of [{ role: "cro" }, { role: "cro", version: "1" }, { role: "cro", version: 0 }, { role: "cro", version: 1.5 }, { role: "cro", version: null }]) {
+      const res = await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send(body);
+      expect(res.status, JSON.stringify(body)).toBe(422);
+      expect(Object.keys(res.body.error.details.fields)).toContain("version");
+    }
+    const reset = await request(app).post(`/api/users/${target.id}/password`).set("Cookie", admin).send({ password: "a long enough password" });
+    expect(reset.status).toBe(422);
+    expect(Object.keys(reset.body.error.details.fields)).toContain("version");
+    const row = (await UserModel.findByPk(target.id))!;
+    expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({ role: "analyst", version: 1, tokenVersion: 1 });
+    await signIn(app, target.email);
   });
 });
 
@@ -178,8 +263,8 @@ describe("regulator assignments", () => {
 describe("the audit log screen's API", () => {
   it("when filtered by action, then only those events come back, newest first", async () => {
     const user = await createTestUser("analyst");
-    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed once" }).expect(200);
-    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed twice" }).expect(200);
+    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed once", version: 1 }).expect(200);
+    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed twice", version: 2 }).expect(200);
     const res = await request(app).get("/api/audit-events?action=user.update&limit=200").set("Cookie", admin);
     expect(res.status).toBe(200);
     expect(res.body.items.every((e: { action: string }) => e.action === "user.update")).toBe(true);

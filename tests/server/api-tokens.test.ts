@@ -337,12 +337,12 @@ describe("tokens that may not be used", () => {
     for (const change of [{ disabled: true }, { role: "cro" }]) {
       const t = await treasurer();
       const token = await newToken(t.cookie);
-      await request(app).patch(`/api/users/${t.user.id}`).set("Cookie", adminCookie).send(change).expect(200);
+      const changed = await request(app).patch(`/api/users/${t.user.id}`).set("Cookie", adminCookie).send({ ...change, version: 1 }).expect(200);
       expect((await ApiTokenModel.findByPk(token.id))!.revokedAt).not.toBeNull();
       const [audit] = await auditOf("api_token.revoke_all", `user #${t.user.id}`);
       expect(JSON.parse(audit.afterJson!)).toEqual({ count: 1, reason: change.disabled ? "account disabled" : "role changed to cro" });
       // Giving the role back does not revive the old token.
-      await request(app).patch(`/api/users/${t.user.id}`).set("Cookie", adminCookie).send({ disabled: false, role: "treasury" }).expect(200);
+      await request(app).patch(`/api/users/${t.user.id}`).set("Cookie", adminCookie).send({ disabled: false, role: "treasury", version: changed.body.version }).expect(200);
       expect((await request(app).get("/api/auth/me").set("Authorization", bearer(token.secret))).status).toBe(401);
     }
   });

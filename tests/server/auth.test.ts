@@ -112,8 +112,8 @@ describe("session tokens", () => {
     const c2 = await sessionCookieFor(target2.id);
     expect((await request(app).get("/api/auth/me").set("Cookie", c1)).status).toBe(200);
 
-    await request(app).patch(`/api/users/${target1.id}`).set("Cookie", adminCookie).send({ disabled: true }).expect(200);
-    await request(app).patch(`/api/users/${target2.id}`).set("Cookie", adminCookie).send({ role: "treasury" }).expect(200);
+    await request(app).patch(`/api/users/${target1.id}`).set("Cookie", adminCookie).send({ disabled: true, version: 1 }).expect(200);
+    await request(app).patch(`/api/users/${target2.id}`).set("Cookie", adminCookie).send({ role: "treasury", version: 1 }).expect(200);
 
     expect((await request(app).get("/api/auth/me").set("Cookie", c1)).status).toBe(401);
     expect((await request(app).get("/api/auth/me").set("Cookie", c2)).status).toBe(401);

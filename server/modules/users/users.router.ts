@@ -18,8 +18,7 @@ export function usersRouter() {
   });
   r.post("/api/users/:id/password", async (req, res) => {
     const { id } = parseInput(userIdParamSchema, req.params, "address");
-    const { password } = parseInput(resetPasswordBodySchema, req.body);
-    await resetPassword(id, password, signedInActor(req));
+    await resetPassword(id, parseInput(resetPasswordBodySchema, req.body), signedInActor(req));
     res.status(204).end();
   });
   return r.router;

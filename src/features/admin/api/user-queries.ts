@@ -1,12 +1,34 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import { userListSchema, userSchema, type CreateUserBody, type UpdateUserBody } from "@shared/schemas/admin";
-import { api } from "@/lib/api-client";
+import { queryOptions, useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
+import { userListSchema, userSchema, type CreateUserBody, type ResetPasswordBody, type UpdateUserBody, type User } from "@shared/schemas/admin";
+import { api, isApiError } from "@/lib/api-client";
 import { assignmentQueries } from "./assignment-queries";
 
 export const userQueries = {
   root: () => ["users"] as const,
   all: () => queryOptions({ queryKey: [...userQueries.root(), "list"] as const, queryFn: () => api.get("/api/users", userListSchema) }),
 };
+
+/** The user as it now stands, from a 409 `stale` refusal (`details.current`): someone else changed them first. */
+export function currentUserOfStale(error: unknown): User | undefined {
+  if (!isApiError(error) || error.status !== 409 || error.code !== "stale") return undefined;
+  const parsed = userSchema.safeParse((error.details as { current?: unknown } | null | undefined)?.current);
+  return parsed.success ? parsed.data : undefined;
+}
+
+/** What a stale refusal tells the admin, in plain words; undefined for any other error. */
+export function staleUserMessage(error: unknown): string | undefined {
+  const current = currentUserOfStale(error);
+  if (!current) return undefined;
+  return `Someone else changed ${current.name} while you had this page open, so your change was not saved. The list now shows them as they are; make your change again if it is still needed.`;
+}
+
+/** After a stale refusal: show the user as the server has them at once, then read the whole list again. */
+function showCurrentState(queryClient: QueryClient, error: unknown) {
+  const current = currentUserOfStale(error);
+  if (!current) return;
+  queryClient.setQueryData(userQueries.all().queryKey, (list) => list?.map((u) => (u.id === current.id ? current : u)));
+  return queryClient.invalidateQueries({ queryKey: userQueries.root() });
+}
 
 export function useCreateUser() {
   const queryClient = useQueryClient();
@@ -26,11 +48,16 @@ export function useUpdateUser() {
         queryClient.invalidateQueries({ queryKey: userQueries.root() }),
         queryClient.invalidateQueries({ queryKey: assignmentQueries.root() }),
       ]),
+    onError: (error) => showCurrentState(queryClient, error),
   });
 }
 
 export function useResetPassword() {
+  const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, password }: { id: number; password: string }) => api.post(`/api/users/${id}/password`, { password }),
+    mutationFn: ({ id, body }: { id: number; body: ResetPasswordBody }) => api.post(`/api/users/${id}/password`, body),
+    // A new password moves the user's version: the next edit must send the new one.
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
+    onError: (error) => showCurrentState(queryClient, error),
   });
 }

@@ -4,7 +4,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { validate } from "@/lib/form";
-import { useResetPassword } from "../api/user-queries";
+import { staleUserMessage, useResetPassword } from "../api/user-queries";
 
 export function ResetPasswordForm({ user, onClose }: { user: User; onClose: (message?: string) => void }) {
   const reset = useResetPassword();
@@ -13,11 +13,11 @@ export function ResetPasswordForm({ user, onClose }: { user: User; onClose: (mes
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const r = validate(resetPasswordBodySchema, { password });
+    const r = validate(resetPasswordBodySchema, { password, version: user.version });
     if (!r.ok) return setError(r.errors.password ?? r.formError);
     setError(undefined);
     reset.mutate(
-      { id: user.id, password: r.data.password },
+      { id: user.id, body: r.data },
       {
         onSuccess: () => onClose(`New password set for ${user.name}. Their open sessions have ended.`),
         onError: (err) => setError(fieldErrorsOf(err).password),
@@ -25,7 +25,8 @@ export function ResetPasswordForm({ user, onClose }: { user: User; onClose: (mes
     );
   }
 
-  const formError = isApiError(reset.error) && !fieldErrorsOf(reset.error).password ? reset.error.message : undefined;
+  const formError =
+    staleUserMessage(reset.error) ?? (isApiError(reset.error) && !fieldErrorsOf(reset.error).password ? reset.error.message : undefined);
 
   return (
     <form onSubmit={submit} noValidate aria-label={`Set a new password for ${user.name}`} className="flex flex-col gap-2 py-1">

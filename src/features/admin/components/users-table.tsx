@@ -8,7 +8,7 @@ import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { cn } from "@/lib/cn";
-import { useUpdateUser } from "../api/user-queries";
+import { staleUserMessage, useUpdateUser } from "../api/user-queries";
 import { ResetPasswordForm } from "./reset-password-form";
 
 export function UsersTable({ users, currentUserId }: { users: User[]; currentUserId?: number }) {
@@ -26,11 +26,13 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
   }
 
   const sorted = [...users].sort((a, b) => Number(a.disabled) - Number(b.disabled) || a.name.localeCompare(b.name));
-  const error = isApiError(update.error) ? update.error.message : update.error ? "The change could not be saved." : undefined;
+  const error =
+    staleUserMessage(update.error) ?? (isApiError(update.error) ? update.error.message : update.error ? "The change could not be saved." : undefined);
 
   function change(user: User, body: { role?: Role; disabled?: boolean }, message: string) {
     setNotice(undefined);
-    update.mutate({ id: user.id, body }, { onSuccess: () => setNotice(message) });
+    // The version shown: if someone else changed this user meanwhile, the server refuses with 409 stale.
+    update.mutate({ id: user.id, body: { ...body, version: user.version } }, { onSuccess: () => setNotice(message) });
   }
 
   return (

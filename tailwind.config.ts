@@ -1,7 +1,9 @@
 import type { Config } from "tailwindcss";
 
 // Quartermark's own palette: ink-navy on a warm paper page, one accent (a deep teal) for actions
-// and links, hairline rules. Zone colours live apart and are used only by the zone badge.
+// and links, hairline rules. Zone colours live apart and are used only by the zone badge (and the
+// zone charts); a notice that is not a zone (four eyes, open findings, a pending filing, a short
+// window) takes the neutral slate `notice` tone instead.
 export default {
   content: ["./index.html", "./src/**/*.{ts,tsx}"],
   theme: {
@@ -30,6 +32,13 @@ export default {
         danger: {
           DEFAULT: "#9f2a1f",
           soft: "#f6e4e0",
+        },
+        // A muted slate blue-grey, apart from all three zone hues: text #3e4f6b is 7:1 on paper and
+        // on notice-soft; body text on notice-soft stays ink.
+        notice: {
+          DEFAULT: "#3e4f6b",
+          rule: "#6b7c98",
+          soft: "#e8ecf2",
         },
         zone: {
           green: "#2e6f45",

@@ -156,6 +156,9 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     expect(puts1[0].body).toEqual({ cause: "market_move", narrative: "Payrolls surprise; the model's lookback missed the jump.", exclusion: true, version: 3 });
     const alert = await within(form).findByRole("alert");
     expect(alert).toHaveTextContent("Ana Other saved this review");
+    // Someone else's save is news, not a zone: the neutral notice tone, no zone colour.
+    expect(alert).toHaveAttribute("data-tone", "notice");
+    expect(alert.outerHTML).not.toMatch(/\b(bg|text|border)-zone-/);
     expect(alert).toHaveTextContent("A stale curve mark on the swaption book caused it.");
     expect(within(form).getByLabelText("What happened")).toHaveValue("Payrolls surprise; the model's lookback missed the jump.");
 

@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
 import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
+import { vi } from "vitest";
 import { filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
@@ -101,9 +102,7 @@ describe("Filings › the regulator", () => {
     expect(within(uk).getByText("regulator@larkspur.test")).toBeInTheDocument();
 
     const detail = screen.getByRole("region", { name: "LKS-EU Q3 2026 · Larkspur Markets SA" });
-    const download = within(detail).getByRole("link", { name: "Download the pack (PDF)" });
-    expect(download).toHaveAttribute("href", "/api/filings/31/pack.pdf");
-    expect(download).toHaveAttribute("download", "LKS-EU-2026-09-30-pack.pdf");
+    expect(within(detail).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
     expect(within(within(detail).getByTestId("filing-sha256")).getByText(sha256Hex(SENT_PACK))).toBeInTheDocument();
 
     await user.click(within(detail).getByRole("button", { name: "Acknowledge receipt" }));
@@ -246,7 +245,7 @@ describe("Filings › the reporting office reads", () => {
     expect(router.state.location.search).toBe("?filing=27");
     const detail = await screen.findByRole("region", { name: "LKS-UK Q2 2026 · Larkspur Bank plc" });
     expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent("Acknowledged by regulator@larkspur.test on 10 Jul 2026, 08:15 UTC.");
-    expect(within(detail).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/filings/27/pack.pdf");
+    expect(within(detail).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
   });
 
   it("when a pack waits for the mail server, then it is counted apart, not as waiting for acknowledgement nor as the latest sent", async () => {
@@ -288,5 +287,55 @@ describe("Filings › the reporting office reads", () => {
     expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
     expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Filings" })).not.toBeInTheDocument();
     expect(api.calls.filter((c) => c.path.startsWith("/api/filings"))).toHaveLength(0);
+  });
+});
+
+describe("Filings › the pack download", () => {
+  it("when the pack is downloaded, then the PDF the server sent is saved under its file name", async () => {
+    const api = fakeApi(
+      filingRoutes("regulator", [filing()], {
+        "GET /api/filings/31/pack.pdf": {
+          status: 200,
+          raw: SENT_PACK,
+          headers: { "Content-Type": "application/pdf", "Content-Disposition": 'attachment; filename="LKS-EU-2026-09-30-pack.pdf"' },
+        },
+      }),
+    );
+    const blobs: Blob[] = [];
+    const names: string[] = [];
+    const realCreate = URL.createObjectURL;
+    const realRevoke = URL.revokeObjectURL;
+    URL.createObjectURL = vi.fn((b: Blob) => (blobs.push(b), "blob:quartermark.test/pack"));
+    URL.revokeObjectURL = vi.fn();
+    const click = vi.spyOn(HTMLAnchorElement.prototype, "click").mockImplementation(function (this: HTMLAnchorElement) {
+      names.push(this.download);
+    });
+    try {
+      const user = userEvent.setup();
+      renderApp("/filings");
+
+      const detail = await screen.findByRole("region", { name: "LKS-EU Q3 2026 · Larkspur Markets SA" });
+      await user.click(within(detail).getByRole("button", { name: "Download the pack (PDF)" }));
+
+      await waitFor(() => expect(names).toEqual(["LKS-EU-2026-09-30-pack.pdf"]));
+      expect(await blobs[0]!.text()).toBe(SENT_PACK);
+      expect(api.callsTo("GET", "/api/filings/31/pack.pdf")).toHaveLength(1);
+      expect(within(detail).queryByRole("alert")).not.toBeInTheDocument();
+    } finally {
+      click.mockRestore();
+      URL.createObjectURL = realCreate;
+      URL.revokeObjectURL = realRevoke;
+    }
+  });
+
+  it("when the server no longer has the filing (404), then its message shows beside the download", async () => {
+    fakeApi(filingRoutes("regulator", [filing()], { "GET /api/filings/31/pack.pdf": { status: 404, body: { error: { code: "not_found", message: "No filing 31." } } } }));
+    const user = userEvent.setup();
+    renderApp("/filings");
+
+    const detail = await screen.findByRole("region", { name: "LKS-EU Q3 2026 · Larkspur Markets SA" });
+    await user.click(within(detail).getByRole("button", { name: "Download the pack (PDF)" }));
+
+    expect(await within(detail).findByRole("alert")).toHaveTextContent("No filing 31.");
   });
 });

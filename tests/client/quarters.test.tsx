@@ -1,5 +1,6 @@
 import { act, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
+import { vi } from "vitest";
 import { snapshotSchema, snapshotVerifySchema, type Snapshot, type SnapshotFigures } from "@shared/schemas/snapshot";
 import { filingSchema, type Filing } from "@shared/schemas/filing";
 import { endedQuarterEnds } from "@/features/quarters/quarter-ends";
@@ -13,6 +14,9 @@ const entities = [
   { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
   { code: "LKS-UK", name: "Larkspur Bank plc", regime: "frtb", pnlBasis: "hypothetical", currency: "GBP", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
 ];
+
+/** The traffic-light zone classes: kept for zones, never on a notice that is not one. */
+const ZONE_CLASS = /\b(bg|text|border)-zone-/;
 
 const HASH = "ab12cd34ef5678901234567890abcdef1234567890abcdef1234567890abcdef";
 const PREV_HASH = "0f1e2d3c4b5a69788796a5b4c3d2e1f00f1e2d3c4b5a69788796a5b4c3d2e1f0";
@@ -185,6 +189,8 @@ describe("Quarter close › the analyst prepares and submits", () => {
 
     const notice = await screen.findByRole("note", { name: "Open data-quality findings" });
     expect(notice).toHaveTextContent("2 open data-quality findings inside Q1 2026 hold up its sign-off");
+    expect(notice).toHaveAttribute("data-tone", "notice");
+    expect(notice.outerHTML).not.toMatch(ZONE_CLASS);
 
     const form = screen.getByRole("form", { name: "Submit for sign-off" });
     await user.click(within(form).getByRole("button", { name: "Submit for sign-off" }));
@@ -254,7 +260,13 @@ describe("Quarter close › the chief risk officer signs off", () => {
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
-    expect(within(form).getByRole("note")).toHaveTextContent("Four eyes. You prepared this snapshot, so you cannot approve it: another chief risk officer signs it off.");
+    const fourEyes = within(form).getByRole("note");
+    expect(fourEyes).toHaveTextContent("Four eyes. You prepared this snapshot, so you cannot approve it: another chief risk officer signs it off.");
+    expect(fourEyes).toHaveAttribute("data-tone", "notice");
+    expect(fourEyes.outerHTML).not.toMatch(ZONE_CLASS);
+    // The zone itself keeps its zone colour.
+    const zone = document.querySelector("[data-zone]")!;
+    expect(zone.className).toMatch(ZONE_CLASS);
     expect(screen.queryByRole("button", { name: /Approve/ })).not.toBeInTheDocument();
     expect(within(form).getByRole("button", { name: "Return to the analysts" })).toBeInTheDocument();
   });
@@ -552,7 +564,7 @@ describe("Quarter close › the pack and its filing", () => {
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
-    expect(within(pack).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/snapshots/12/pack.pdf");
+    expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
     await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
     expect(within(pack).getByTestId("filing-confirmation")).toHaveTextContent(
       "The pack goes by e-mail to LKS-EU's supervisor contacts and is kept as sent; Q4 2025 becomes filed.",
@@ -627,7 +639,10 @@ describe("Quarter close › the pack and its filing", () => {
     );
     expect(said).toHaveAttribute("role", "status");
     expect(within(pack).queryByText(/the pack went by e-mail/)).not.toBeInTheDocument();
-    expect(await within(pack).findByTestId("filing-pending")).toHaveTextContent("(connect ECONNREFUSED 127.0.0.1:2525)");
+    const pending = await within(pack).findByTestId("filing-pending");
+    expect(pending).toHaveTextContent("(connect ECONNREFUSED 127.0.0.1:2525)");
+    expect(pending).toHaveAttribute("data-tone", "notice");
+    expect(pending.outerHTML).not.toMatch(ZONE_CLASS);
     expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Approved");
     expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
 
@@ -751,7 +766,7 @@ describe("Quarter close › the pack and its filing", () => {
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
-    expect(within(pack).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("href", "/api/snapshots/12/pack.pdf");
+    expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
     expect(within(pack).getByText(/A chief risk officer files Q4 2025 with the supervisor/)).toBeInTheDocument();
     expect(screen.queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
     expect(screen.queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
@@ -762,8 +777,33 @@ describe("Quarter close › the pack and its filing", () => {
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
-    expect(within(pack).getByRole("link", { name: "Download the pack (PDF)" })).toHaveAttribute("download");
+    expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
     expect(within(pack).getByText("Not signed off: every page of Q4 2025's pack says so.")).toBeInTheDocument();
+  });
+
+  it("when the server refuses the pack, then its message shows beside the download instead of a failed browser download", async () => {
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes([snapshot()], {
+        "GET /api/snapshots/12/pack.pdf": error(403, "forbidden", "Your role may not download this entity's pack."),
+      }),
+    });
+    const created = vi.fn(() => "blob:quartermark.test/1");
+    const realCreate = URL.createObjectURL;
+    URL.createObjectURL = created;
+    try {
+      const user = userEvent.setup();
+      renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+      const pack = await screen.findByRole("region", { name: "Pack and filing" });
+      await user.click(within(pack).getByRole("button", { name: "Download the pack (PDF)" }));
+
+      expect(await within(pack).findByRole("alert")).toHaveTextContent("Your role may not download this entity's pack.");
+      expect(api.callsTo("GET", "/api/snapshots/12/pack.pdf")).toHaveLength(1);
+      expect(created).not.toHaveBeenCalled();
+    } finally {
+      URL.createObjectURL = realCreate;
+    }
   });
 
   it("when a filed quarter is opened, then its filing is found in the filings list and shows who sent it and who acknowledged it", async () => {

@@ -4,7 +4,13 @@ import { vi } from "vitest";
  * A stand-in for the HTTP server at the network boundary: `globalThis.fetch` answers from a table of
  * "METHOD /path" → reply. Anything not in the table answers 404 so a missing stub shows up plainly.
  */
-export type Reply = { status: number; body?: unknown };
+export type Reply = {
+  status: number;
+  body?: unknown;
+  /** A reply that is not JSON (a PDF): its bytes, sent as they are with `headers`. */
+  raw?: BodyInit;
+  headers?: Record<string, string>;
+};
 export type Call = { method: string; path: string; search: string; body: unknown };
 type Handler = Reply | ((call: Call) => Reply);
 
@@ -26,6 +32,7 @@ export function fakeApi(routes: Record<string, Handler>) {
       : typeof handler === "function"
         ? handler(call)
         : handler;
+    if (reply.raw !== undefined) return new Response(reply.raw, { status: reply.status, headers: reply.headers ?? {} });
     const text = reply.body === undefined ? null : JSON.stringify(reply.body);
     return new Response(text, { status: reply.status, headers: text ? { "Content-Type": "application/json" } : {} });
   });

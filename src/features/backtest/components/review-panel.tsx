@@ -11,6 +11,7 @@ import {
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField, TextField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formatAmount, formatBusinessDate, formatBytes, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
@@ -58,23 +59,25 @@ export function ReviewRecord({ review }: { review: Review }) {
 /** Shown after a 409: someone else saved first; their review is what now stands. */
 function SavedMeanwhile({ current, onTake, mine }: { current: Review; onTake?: () => void; mine: string }) {
   return (
-    <div role="alert" className="flex flex-col gap-2 border-l-2 border-zone-yellow bg-zone-yellow-soft px-3 py-2 text-sm">
-      <p className="font-medium">
-        {current.reviewedBy} saved this review while you were working on it (now version {current.version}). This is what stands:
-      </p>
-      <ReviewRecord review={current} />
-      <p className="text-ink-soft">
-        {mine} Save again to put yours in its place
-        {onTake ? ", or start from theirs." : "."}
-      </p>
-      {onTake && (
-        <div>
-          <Button variant="secondary" size="sm" onClick={onTake}>
-            Start from their review
-          </Button>
-        </div>
-      )}
-    </div>
+    <Notice role="alert" className="py-2">
+      <div className="flex flex-col gap-2">
+        <p className="font-medium">
+          {current.reviewedBy} saved this review while you were working on it (now version {current.version}). This is what stands:
+        </p>
+        <ReviewRecord review={current} />
+        <p className="text-ink-soft">
+          {mine} Save again to put yours in its place
+          {onTake ? ", or start from theirs." : "."}
+        </p>
+        {onTake && (
+          <div>
+            <Button variant="secondary" size="sm" onClick={onTake}>
+              Start from their review
+            </Button>
+          </div>
+        )}
+      </div>
+    </Notice>
   );
 }
 

@@ -1,5 +1,6 @@
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import { Figure } from "@/components/ui/figure";
+import { Notice } from "@/components/ui/notice";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatBusinessDate, formatFactor, formatPercent, plural } from "@/lib/format";
 import { basisLabels, regimeLabels } from "../words";
@@ -8,13 +9,13 @@ import { basisLabels, regimeLabels } from "../words";
 export function ProvisionalBanner({ bt }: { bt: BacktestResponse }) {
   if (bt.window.complete && !bt.provisionalBoundaries) return null;
   return (
-    <p role="note" className="border-l-2 border-zone-yellow bg-zone-yellow-soft px-3 py-1.5 text-sm text-ink">
+    <Notice>
       <strong className="font-semibold">Provisional.</strong>{" "}
       {!bt.window.complete
         ? `The window holds ${plural(bt.window.observations, "observation", "observations")} of the 250 the rules ask for, so the count, zone and multiplier may still move as days are added.`
         : "The window is not the standard 250 days."}{" "}
       {bt.provisionalBoundaries && "Zone boundaries for this window length are derived by the binomial rule, not read from the published table."}
-    </p>
+    </Notice>
   );
 }
 

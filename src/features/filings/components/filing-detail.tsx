@@ -1,6 +1,7 @@
 import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
 import { quarterLabel, quarterStart } from "@shared/schemas/snapshot";
+import { DownloadButton } from "@/components/ui/download-button";
 import { Figure } from "@/components/ui/figure";
 import { FullHash } from "@/components/ui/hash";
 import { ZoneBadge } from "@/components/ui/zone-badge";
@@ -38,12 +39,13 @@ export function FilingDetail({ filing, role, regime }: { filing: Filing; role: R
           </span>
         </Figure>
       </dl>
-      <p className="flex flex-wrap items-baseline gap-x-3 text-sm">
-        <a href={filingPackHref(filing.id)} download={filing.fileName} className="font-medium">
-          Download the pack (PDF)
-        </a>
-        <span className="figures text-xs text-ink-muted">{filing.fileName}, byte for byte as it was sent</span>
-      </p>
+      <DownloadButton
+        href={filingPackHref(filing.id)}
+        fallbackName={filing.fileName}
+        note={<span className="figures text-xs text-ink-muted">{filing.fileName}, byte for byte as it was sent</span>}
+      >
+        Download the pack (PDF)
+      </DownloadButton>
       <div className="grid gap-6 lg:grid-cols-3">
         <AcknowledgeReceipt filing={filing} role={role} />
         <ServerCopyCheck key={`server-${filing.id}`} filing={filing} />

@@ -5,6 +5,7 @@ import { quarterLabel, returnSnapshotSchema, snapshotActionSchema, type Snapshot
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextareaField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formatDateTime, shortHash } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
@@ -153,10 +154,10 @@ function SignOffForm({
   return (
     <form ref={formRef} onSubmit={sendReturn} noValidate aria-label="Sign-off" className="flex max-w-2xl flex-col gap-3">
       {ownWork && (
-        <p role="note" className="border-l-2 border-zone-yellow bg-zone-yellow-soft px-3 py-1.5 text-sm text-ink">
+        <Notice>
           <strong className="font-semibold">Four eyes.</strong> You {sameUser(snapshot.preparedBy, userEmail) ? "prepared" : "submitted"} this snapshot,
           so you cannot approve it: another chief risk officer signs it off. You may still return it with a comment.
-        </p>
+        </Notice>
       )}
       {!isChangedMeanwhile(error) && <Refusal error={error} findingsHref={findingsHref} />}
       <TextareaField

@@ -1,6 +1,7 @@
 import { Link } from "react-router-dom";
 import { quarterLabel, quarterStart, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
+import { Notice } from "@/components/ui/notice";
 import { formatDateTime, plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { SnapshotActions } from "./snapshot-actions";
@@ -21,10 +22,10 @@ function RestatedWarning({ restated }: { restated: NonNullable<Snapshot["restate
 
 function OpenFindingsNotice({ count, quarter, findingsHref }: { count: number; quarter: string; findingsHref: string }) {
   return (
-    <div role="note" aria-label="Open data-quality findings" className="border-l-2 border-zone-yellow bg-zone-yellow-soft px-3 py-1.5 text-sm text-ink">
+    <Notice label="Open data-quality findings">
       <strong className="font-semibold">{plural(count, "open data-quality finding", "open data-quality findings")} inside {quarter}</strong>{" "}
       {count === 1 ? "holds" : "hold"} up its sign-off until each is resolved or explained. <Link to={findingsHref}>Open the findings on the Data screen</Link>
-    </div>
+    </Notice>
   );
 }
 

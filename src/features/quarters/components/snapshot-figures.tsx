@@ -20,7 +20,7 @@ export function SnapshotFigures({ snapshot }: { snapshot: Snapshot }) {
             {window.start ?? "—"} to {window.end ?? "—"}
           </span>
           , {plural(window.observations, "observation", "observations")}
-          {!window.complete && <span className="font-medium text-zone-yellow"> (short of the 250 the rules ask for)</span>}
+          {!window.complete && <span className="font-medium text-notice" data-tone="notice"> (short of the 250 the rules ask for)</span>}
         </p>
       </div>
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3 border-y border-rule py-3 sm:grid-cols-4 xl:grid-cols-7">

@@ -5,8 +5,10 @@ import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
 import { quarterLabel, SIGNED_OFF, type Snapshot } from "@shared/schemas/snapshot";
 import { Button } from "@/components/ui/button";
+import { DownloadButton } from "@/components/ui/download-button";
 import { FormMessage } from "@/components/ui/field";
 import { FullHash } from "@/components/ui/hash";
+import { Notice } from "@/components/ui/notice";
 import { formLevelMessage } from "@/lib/form";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
@@ -112,11 +114,11 @@ function FilingRecord({ filing, filingHref }: { filing: Filing; filingHref: stri
   return (
     <div className="flex flex-col gap-2" data-testid="snapshot-filing">
       {filing.delivery === "pending" && (
-        <p role="status" className="border-l-2 border-zone-yellow bg-zone-yellow-soft px-3 py-1.5 text-sm text-ink" data-testid="filing-pending">
+        <Notice role="status" testId="filing-pending">
           Filed by {filing.sentBy} and kept, but the mail server did not take the message
           {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers; the quarter
           becomes filed then.
-        </p>
+        </Notice>
       )}
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="text-ink-muted">Sent</dt>
@@ -195,16 +197,19 @@ export function SnapshotFiling({
       <h3 id="pack-title" className="text-sm font-semibold">
         Pack and filing
       </h3>
-      <p className="flex flex-wrap items-baseline gap-x-3 text-sm">
-        <a href={snapshotPackHref(snapshot.id)} download className="font-medium">
-          Download the pack (PDF)
-        </a>
-        <span className="text-xs text-ink-muted">
-          {SIGNED_OFF.has(snapshot.status)
-            ? "The frozen figures, the seal and the sign-off record, with the caution on every page."
-            : `Not signed off: every page of ${quarter}'s pack says so.`}
-        </span>
-      </p>
+      <DownloadButton
+        href={snapshotPackHref(snapshot.id)}
+        fallbackName={`quartermark-${snapshot.entity.toLowerCase()}-${snapshot.quarterEnd}-pack.pdf`}
+        note={
+          <span className="text-xs text-ink-muted">
+            {SIGNED_OFF.has(snapshot.status)
+              ? "The frozen figures, the seal and the sign-off record, with the caution on every page."
+              : `Not signed off: every page of ${quarter}'s pack says so.`}
+          </span>
+        }
+      >
+        Download the pack (PDF)
+      </DownloadButton>
       {justFiled && (
         <FormMessage tone="done" ref={focusWhenShown}>
           {filedInWords(quarter, filing ?? justFiled)}

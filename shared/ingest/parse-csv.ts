@@ -494,6 +494,9 @@ function resultOf(checks: LineChecks, totalRows: number): ParsedCsv {
   return { columns: checks.columns, rows, errors, totalRows, invalidLines };
 }
 
+/** Longer than any line of a daily file (12 columns of at most ~30 characters). */
+const LONGEST_STREAMED_LINE = 64 * 1024;
+
 /**
  * A file without quotes, read a line at a time from text that may come in pieces: the header
  * from the first line, then each data line in place (or cell by cell when it is not plain).
@@ -536,6 +539,8 @@ class PlainLines {
       if (start > text.length) break;
     }
     this.carry = last ? "" : text.slice(start);
+    // A line this long is no daily-data line: rather than join ever longer pieces, read the file whole.
+    if (this.carry.length > LONGEST_STREAMED_LINE) this.unreadable = true;
   }
 
   private take(text: string, start: number, end: number, withCr: boolean): void {

@@ -187,6 +187,17 @@ describe("parsing generated daily files (property-based, fast-check)", () => {
     ]);
   });
 
+  it("when a file has a line far longer than any daily line, then reading it as it comes gives what reading it whole gives", () => {
+    const long = "x".repeat(200_000);
+    const bytes = Buffer.from(`portfolio,date,actual_pnl,hypothetical_pnl,var_99\nBOOK-A,2026-03-03,-1,-1,10\n${long}\nBOOK-A,2026-03-04,-1,-1,10\n`);
+    const stream = new CsvByteStream(ref);
+    for (let i = 0; i < bytes.length; i += 16_384) stream.push(bytes.subarray(i, i + 16_384));
+    const streamed = stream.end(bytes);
+    const whole = parseObservationCsv(decodeCsvBytes(bytes), ref);
+    expect(streamed).toEqual(whole);
+    expect(whole.errors).toEqual([expect.objectContaining({ line: 3 })]);
+  });
+
   it("a row whose cells all match the cell patterns is exactly a row the zod schema accepts", () => {
     // The parser tests CELL_PATTERNS directly and runs the schema only on rows that fail one.
     const cell = fc.oneof(

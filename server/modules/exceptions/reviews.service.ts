@@ -1,5 +1,6 @@
 import { createHash } from "node:crypto";
 import { sequelize } from "../../db/sequelize";
+import { lockPortfolios } from "../../db/portfolio-locks";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
 import { ObservationModel } from "../../models/observation";
@@ -59,7 +60,7 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
   await sequelize.transaction(async (transaction) => {
     // Lock the portfolio row first: two first reviews of one day queue instead of deadlocking, and
     // an upload restating the day waits (or is waited for) before the day is judged an exception.
-    await sequelize.query("SELECT id FROM portfolios WHERE id = :id FOR UPDATE", { replacements: { id: portfolio.id }, transaction });
+    await lockPortfolios([portfolio.id], "update", transaction);
     await assertExceptionDay(code, date, portfolio, entity, transaction);
     const row = await ExceptionReviewModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date }, transaction, lock: transaction.LOCK.UPDATE });
     const seen = body.version ?? 0;

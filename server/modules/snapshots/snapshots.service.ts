@@ -2,6 +2,7 @@ import { createHash } from "node:crypto";
 import stableStringify from "fast-json-stable-stringify";
 import { Op, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
+import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
@@ -136,16 +137,10 @@ function withEvent(row: SnapshotModel, e: SnapshotEvent): string {
   return JSON.stringify([...(JSON.parse(row.historyJson) as SnapshotEvent[]), e]);
 }
 
-/**
- * Locks the entity's portfolios for share: an upload committing to them finishes first, and none
- * starts until we are done. The rows are locked by primary key, where an upload commit locks them
- * for update: a shared locking read answered from the entity_id index alone (it holds the id)
- * locks only that index's entries, which an upload's lock on the rows themselves never meets.
- */
+/** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
 async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
   const ids = (await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction })).map((p) => p.id);
-  if (ids.length === 0) return;
-  await sequelize.query("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id LOCK IN SHARE MODE", { replacements: { ids }, transaction });
+  await lockPortfolios(ids, "share", transaction);
 }
 
 /**

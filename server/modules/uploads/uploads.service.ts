@@ -1,6 +1,7 @@
 import { createHash } from "node:crypto";
-import { Op, QueryTypes, UniqueConstraintError, type Transaction } from "sequelize";
+import { Op, UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
+import { lockPortfolios } from "../../db/portfolio-locks";
 import { UploadModel } from "../../models/upload";
 import { UserModel } from "../../models/user";
 import { PortfolioModel } from "../../models/portfolio";
@@ -204,9 +205,15 @@ function duplicateError(twin: UploadModel): ConflictError {
   );
 }
 
-async function toPreview(row: UploadModel): Promise<UploadPreview> {
-  const people = await UserModel.findAll({ where: { id: [row.uploadedBy, row.committedBy ?? row.uploadedBy] }, attributes: ["id", "email"] });
-  const emailOf = (id: number | null) => (id === null ? null : (people.find((p) => p.id === id)?.email ?? "unknown"));
+/** The e-mail of each uploader and committer of these uploads, read once. */
+async function peopleOf(rows: readonly UploadModel[]): Promise<Map<number, string>> {
+  const ids = [...new Set(rows.flatMap((r) => (r.committedBy === null ? [r.uploadedBy] : [r.uploadedBy, r.committedBy])))];
+  return new Map((await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+}
+
+async function toPreview(row: UploadModel, people?: ReadonlyMap<number, string>): Promise<UploadPreview> {
+  const known = people ?? (await peopleOf([row]));
+  const emailOf = (id: number | null) => (id === null ? null : (known.get(id) ?? "unknown"));
   const summary = row.summaryJson
     ? (JSON.parse(row.summaryJson) as { portfolios: string[]; from: string | null; to: string | null; errorCount: number })
     : null;
@@ -304,15 +311,7 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
     const lockedIds = await previewPortfolioIds(upload, transaction);
     // The portfolio rows this commit holds: the only parents its rows may name (queueInsertVersions checks).
-    const held = new Set<number>();
-    if (lockedIds.length) {
-      const rows = await sequelize.query<{ id: number }>("SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id FOR UPDATE", {
-        replacements: { ids: lockedIds },
-        type: QueryTypes.SELECT,
-        transaction,
-      });
-      for (const r of rows) held.add(Number(r.id));
-    }
+    const held = await lockPortfolios(lockedIds, "update", transaction);
     if (upload.invalidCount > 0) {
       throw new AppError(422, "preview_has_errors", `Upload #${id} has ${upload.invalidCount} invalid row(s). Fix the file and upload it again; nothing was written.`);
     }
@@ -405,7 +404,8 @@ export async function discardUpload(id: number, actor: SignedIn): Promise<void> 
 
 export async function listUploads(): Promise<UploadSummary[]> {
   const rows = await UploadModel.findAll({ order: [["id", "DESC"]], limit: 200 });
-  const previews = await Promise.all(rows.map(toPreview));
+  const people = await peopleOf(rows);
+  const previews = await Promise.all(rows.map((r) => toPreview(r, people)));
   return previews.map(({ errors: _errors, ...rest }) => rest);
 }
 

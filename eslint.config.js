@@ -17,15 +17,26 @@ export default tseslint.config(
         "error",
         {
           zones: [
-            { target: "./shared", from: ["./server", "./src", "./scripts", "./seeders", "./tests"], message: "shared/ is pure: it imports nothing of ours" },
-            { target: "./src", from: ["./server", "./scripts", "./seeders"], message: "the client talks to the server only over HTTP" },
+            {
+              target: "./shared",
+              from: ["./server", "./src", "./scripts", "./seeders", "./tests"],
+              message: "shared/ is pure: it imports nothing of ours",
+            },
+            {
+              target: "./src",
+              from: ["./server", "./scripts", "./seeders"],
+              message: "the client talks to the server only over HTTP",
+            },
             { target: "./server", from: ["./src"], message: "the server never imports client code" },
           ],
         },
       ],
       "no-restricted-syntax": [
         "error",
-        { selector: "MemberExpression[object.name='process'][property.name='env']", message: "Read configuration through server/config.ts" },
+        {
+          selector: "MemberExpression[object.name='process'][property.name='env']",
+          message: "Read configuration through server/config.ts",
+        },
       ],
     },
   },

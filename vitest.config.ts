@@ -12,7 +12,10 @@ export default defineConfig({
   resolve: { alias },
   test: {
     projects: [
-      { resolve: { alias }, test: { name: "shared", environment: "node", include: ["tests/shared/**/*.test.ts"], globals: true } },
+      {
+        resolve: { alias },
+        test: { name: "shared", environment: "node", include: ["tests/shared/**/*.test.ts"], globals: true },
+      },
       {
         resolve: { alias },
         test: {

@@ -13,7 +13,10 @@ const TARGET_KB = 250;
 const root = resolve(import.meta.dirname, "..");
 const outDir = join(root, "dist", "client");
 
-execFileSync(join(root, "node_modules", ".bin", "vite"), ["build", "--logLevel", "warn"], { cwd: root, stdio: "inherit" });
+execFileSync(join(root, "node_modules", ".bin", "vite"), ["build", "--logLevel", "warn"], {
+  cwd: root,
+  stdio: "inherit",
+});
 
 const html = readFileSync(join(outDir, "index.html"), "utf8");
 const attr = (tag: string, name: string) => new RegExp(`\\b${name}\\s*=\\s*["']([^"']+)["']`, "i").exec(tag)?.[1];
@@ -46,9 +49,17 @@ const rows = assets.map((a) => {
 
 console.log("What the sign-in page loads before any lazy route (dist/client/index.html):");
 for (const r of rows) {
-  console.log(`  ${r.kind.padEnd(8)} ${r.href.padEnd(48)} ${String(kb(r.raw)).padStart(8)} kB raw ${String(kb(r.gz)).padStart(8)} kB gzip`);
+  console.log(
+    `  ${r.kind.padEnd(8)} ${r.href.padEnd(48)} ${String(kb(r.raw)).padStart(8)} kB raw ${String(kb(r.gz)).padStart(8)} kB gzip`,
+  );
 }
 console.log(`  JavaScript ${kb(jsGzip)} kB gzip (target ≤ ${TARGET_KB} kB) · CSS ${kb(cssGzip)} kB gzip`);
 console.log(
-  JSON.stringify({ bench: "bundle", signInJsGzipKb: kb(jsGzip), signInCssGzipKb: kb(cssGzip), targetKb: TARGET_KB, withinTarget: kb(jsGzip) <= TARGET_KB }),
+  JSON.stringify({
+    bench: "bundle",
+    signInJsGzipKb: kb(jsGzip),
+    signInCssGzipKb: kb(cssGzip),
+    targetKb: TARGET_KB,
+    withinTarget: kb(jsGzip) <= TARGET_KB,
+  }),
 );

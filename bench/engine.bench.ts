@@ -142,11 +142,21 @@ const forecastMedianMs = median(forecastTimes);
 const ratioToFloor = medianMs / floorMedianMs;
 const round = (x: number, d = 3): number => Number(x.toFixed(d));
 
-console.log(`engine bench: ${PORTFOLIOS} portfolios × ${DAYS} days = ${observations.toLocaleString("en-US")} observations, window ${WINDOW}`);
-console.log(`  rolling recomputation, 4 rule sets: median ${medianMs.toFixed(2)} ms over ${RUNS} runs (min ${Math.min(...engineTimes).toFixed(2)}, max ${Math.max(...engineTimes).toFixed(2)}; target ≤ 150 ms)`);
-console.log(`  bare typed-array floor:             median ${floorMedianMs.toFixed(2)} ms (ratio ${ratioToFloor.toFixed(2)}×; target ≤ 2×)`);
-console.log(`  one portfolio's forecast:           median ${forecastMedianMs.toFixed(3)} ms over ${FORECAST_RUNS} runs (target ≤ 5 ms)`);
-console.log(`  (objects → columns for one portfolio of ${DAYS} days, once: ${conversionMs.toFixed(2)} ms; checksum ${sink})`);
+console.log(
+  `engine bench: ${PORTFOLIOS} portfolios × ${DAYS} days = ${observations.toLocaleString("en-US")} observations, window ${WINDOW}`,
+);
+console.log(
+  `  rolling recomputation, 4 rule sets: median ${medianMs.toFixed(2)} ms over ${RUNS} runs (min ${Math.min(...engineTimes).toFixed(2)}, max ${Math.max(...engineTimes).toFixed(2)}; target ≤ 150 ms)`,
+);
+console.log(
+  `  bare typed-array floor:             median ${floorMedianMs.toFixed(2)} ms (ratio ${ratioToFloor.toFixed(2)}×; target ≤ 2×)`,
+);
+console.log(
+  `  one portfolio's forecast:           median ${forecastMedianMs.toFixed(3)} ms over ${FORECAST_RUNS} runs (target ≤ 5 ms)`,
+);
+console.log(
+  `  (objects → columns for one portfolio of ${DAYS} days, once: ${conversionMs.toFixed(2)} ms; checksum ${sink})`,
+);
 console.log(
   JSON.stringify({
     bench: "engine",

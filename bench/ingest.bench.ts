@@ -30,11 +30,21 @@ async function lastUploadId(admin: mariadb.Connection): Promise<number> {
 async function main() {
   // Each run has portfolios of its own for the API and for LOAD DATA, so that neither writes over
   // rows the other deleted, and the two take turns going first.
-  const codes = Array.from({ length: PORTFOLIOS * (WARMUP + RUNS) * 2 }, (_, i) => `BENCH-P${String(i).padStart(2, "0")}`);
+  const codes = Array.from(
+    { length: PORTFOLIOS * (WARMUP + RUNS) * 2 },
+    (_, i) => `BENCH-P${String(i).padStart(2, "0")}`,
+  );
   const bench = await prepareBenchDatabase("quartermark_bench", codes);
   const server = await startBuiltServer(bench.name);
   const baselineRss = server.rssMb("VmRSS");
-  const admin = await mariadb.createConnection({ host: "127.0.0.1", port: bench.port, user: bench.creds.user, password: bench.creds.password, database: bench.name, permitLocalInfile: true });
+  const admin = await mariadb.createConnection({
+    host: "127.0.0.1",
+    port: bench.port,
+    user: bench.creds.user,
+    password: bench.creds.password,
+    database: bench.name,
+    permitLocalInfile: true,
+  });
   const tmp = mkdtempSync(path.join(tmpdir(), "qm-bench-"));
 
   const apiRates: number[] = [];
@@ -57,7 +67,9 @@ async function main() {
       if (r.inserted !== ROWS) throw new Error(`expected ${ROWS} rows written, got ${r.inserted}`);
       const rate = ROWS / ((r.previewMs + r.commitMs) / 1000);
       if (counted) apiRates.push(rate);
-      phases.push(`${label}: upload+preview ${r.previewMs.toFixed(0)} ms, commit ${r.commitMs.toFixed(0)} ms, ${rate.toFixed(0)} rows/s`);
+      phases.push(
+        `${label}: upload+preview ${r.previewMs.toFixed(0)} ms, commit ${r.commitMs.toFixed(0)} ms, ${rate.toFixed(0)} rows/s`,
+      );
       return r.id;
     };
     // 2. The floor: the same rows (for the run's other portfolios) straight into the same table.
@@ -81,7 +93,9 @@ async function main() {
       await admin.commit();
       const ms = performance.now() - l0;
       if (counted) loadRates.push(ROWS / (ms / 1000));
-      phases.push(`${counted ? "" : "  (warm-up) "}        LOAD DATA LOCAL INFILE ${ms.toFixed(0)} ms, ${(ROWS / (ms / 1000)).toFixed(0)} rows/s`);
+      phases.push(
+        `${counted ? "" : "  (warm-up) "}        LOAD DATA LOCAL INFILE ${ms.toFixed(0)} ms, ${(ROWS / (ms / 1000)).toFixed(0)} rows/s`,
+      );
     };
     if (run % 2 === 0) {
       await viaLoadData(await viaApi());
@@ -102,12 +116,18 @@ async function main() {
   const rowsPerSecond = Math.round(median(apiRates));
   const loadDataRowsPerSecond = Math.round(median(loadRates));
   const ratio = median(roundRatios);
-  console.log(`ingest bench: ${ROWS.toLocaleString("en")} rows × ${RUNS} runs (after ${WARMUP} warm-up round, not counted) through POST /api/uploads + commit (built server, own process)`);
+  console.log(
+    `ingest bench: ${ROWS.toLocaleString("en")} rows × ${RUNS} runs (after ${WARMUP} warm-up round, not counted) through POST /api/uploads + commit (built server, own process)`,
+  );
   for (const p of phases) console.log(`  ${p}`);
   console.log(`  median end to end: ${rowsPerSecond.toLocaleString("en")} rows/s (target ≥ 50,000)`);
   console.log(`  median LOAD DATA:  ${loadDataRowsPerSecond.toLocaleString("en")} rows/s`);
-  console.log(`  ratio to LOAD DATA, round by round: ${roundRatios.map((r) => r.toFixed(2)).join(" ")}; median ${ratio.toFixed(2)} (target ≥ 0.5; ratio of the two medians ${(rowsPerSecond / loadDataRowsPerSecond).toFixed(2)})`);
-  console.log(`  server memory: ${baselineRss.toFixed(0)} MB at rest, peak ${peakRssMb.toFixed(0)} MB (target ≤ 300 MB)`);
+  console.log(
+    `  ratio to LOAD DATA, round by round: ${roundRatios.map((r) => r.toFixed(2)).join(" ")}; median ${ratio.toFixed(2)} (target ≥ 0.5; ratio of the two medians ${(rowsPerSecond / loadDataRowsPerSecond).toFixed(2)})`,
+  );
+  console.log(
+    `  server memory: ${baselineRss.toFixed(0)} MB at rest, peak ${peakRssMb.toFixed(0)} MB (target ≤ 300 MB)`,
+  );
   console.log(
     JSON.stringify({
       bench: "ingest",

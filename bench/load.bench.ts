@@ -17,7 +17,14 @@ async function main() {
   // Three years of data to read, brought in the ordinary way.
   await uploadAndCommit(server, benchCsv(readCodes, benchWeekdays(2024, 780)), "history.csv");
 
-  const reads = ["/api/overview", ...readCodes.flatMap((c) => [`/api/portfolios/${c}/backtest`, `/api/portfolios/${c}/rolling`, `/api/portfolios/${c}/observations?from=2026-01-01`])];
+  const reads = [
+    "/api/overview",
+    ...readCodes.flatMap((c) => [
+      `/api/portfolios/${c}/backtest`,
+      `/api/portfolios/${c}/rolling`,
+      `/api/portfolios/${c}/observations?from=2026-01-01`,
+    ]),
+  ];
   const load = autocannon({
     url: server.base,
     connections: CONNECTIONS,
@@ -31,10 +38,16 @@ async function main() {
   await bench.stop();
 
   const errors = result.errors + result.timeouts;
-  console.log(`load bench: ${result.requests.total} requests over ${reads.length} read endpoints, ${CONNECTIONS} connections, while ${commit.inserted.toLocaleString("en")} rows committed`);
+  console.log(
+    `load bench: ${result.requests.total} requests over ${reads.length} read endpoints, ${CONNECTIONS} connections, while ${commit.inserted.toLocaleString("en")} rows committed`,
+  );
   console.log(`  responses: ${result["2xx"]} 2xx, ${result.non2xx} other, ${errors} errors or timeouts`);
-  console.log(`  latency: p50 ${result.latency.p50} ms, p90 ${result.latency.p90} ms, p99 ${result.latency.p99} ms, max ${result.latency.max} ms; ${result.requests.average.toFixed(0)} requests/s`);
-  console.log(`  the concurrent upload: preview ${commit.previewMs.toFixed(0)} ms, commit ${commit.commitMs.toFixed(0)} ms`);
+  console.log(
+    `  latency: p50 ${result.latency.p50} ms, p90 ${result.latency.p90} ms, p99 ${result.latency.p99} ms, max ${result.latency.max} ms; ${result.requests.average.toFixed(0)} requests/s`,
+  );
+  console.log(
+    `  the concurrent upload: preview ${commit.previewMs.toFixed(0)} ms, commit ${commit.commitMs.toFixed(0)} ms`,
+  );
   console.log(
     JSON.stringify({
       bench: "load",

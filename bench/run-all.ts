@@ -33,5 +33,7 @@ for (const file of benches) {
   }
 }
 
-console.log(`\n${benches.length - failed.length} of ${benches.length} benchmarks finished${failed.length ? `; failed: ${failed.join(", ")}` : ""}.`);
+console.log(
+  `\n${benches.length - failed.length} of ${benches.length} benchmarks finished${failed.length ? `; failed: ${failed.join(", ")}` : ""}.`,
+);
 process.exit(failed.length ? 1 : 0);

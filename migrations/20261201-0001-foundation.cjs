@@ -4,8 +4,16 @@ module.exports = {
   async up(qi, Sequelize) {
     const { DataTypes } = Sequelize;
     const timestamps = {
-      created_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") },
-      updated_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") },
+      created_at: {
+        type: DataTypes.DATE(3),
+        allowNull: false,
+        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+      },
+      updated_at: {
+        type: DataTypes.DATE(3),
+        allowNull: false,
+        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+      },
     };
 
     await qi.createTable("users", {
@@ -37,7 +45,12 @@ module.exports = {
 
     await qi.createTable("portfolios", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" }, onDelete: "RESTRICT" },
+      entity_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        references: { model: "entities", key: "id" },
+        onDelete: "RESTRICT",
+      },
       code: { type: DataTypes.STRING(40), allowNull: false, unique: true },
       name: { type: DataTypes.STRING(120), allowNull: false },
       level: { type: DataTypes.ENUM("top", "desk"), allowNull: false },
@@ -46,7 +59,12 @@ module.exports = {
 
     await qi.createTable("holidays", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" }, onDelete: "CASCADE" },
+      entity_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        references: { model: "entities", key: "id" },
+        onDelete: "CASCADE",
+      },
       date: { type: DataTypes.DATEONLY, allowNull: false },
       name: { type: DataTypes.STRING(120), allowNull: false },
       ...timestamps,
@@ -54,8 +72,20 @@ module.exports = {
     await qi.addIndex("holidays", ["entity_id", "date"], { unique: true, name: "holidays_entity_date" });
 
     await qi.createTable("regulator_assignments", {
-      user_id: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true, references: { model: "users", key: "id" }, onDelete: "CASCADE" },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true, references: { model: "entities", key: "id" }, onDelete: "CASCADE" },
+      user_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        primaryKey: true,
+        references: { model: "users", key: "id" },
+        onDelete: "CASCADE",
+      },
+      entity_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        primaryKey: true,
+        references: { model: "entities", key: "id" },
+        onDelete: "CASCADE",
+      },
       created_at: timestamps.created_at,
     });
 

@@ -3,7 +3,11 @@
 module.exports = {
   async up(qi, Sequelize) {
     const { DataTypes } = Sequelize;
-    const now = () => ({ type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") });
+    const now = () => ({
+      type: DataTypes.DATE(3),
+      allowNull: false,
+      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+    });
     const money = () => ({ type: DataTypes.DECIMAL(20, 2), allowNull: true });
 
     await qi.createTable("uploads", {
@@ -54,7 +58,10 @@ module.exports = {
       created_by: { type: DataTypes.INTEGER, allowNull: false },
       created_at: now(),
     });
-    await qi.addIndex("observations", ["portfolio_id", "business_date", "version"], { unique: true, name: "observations_version" });
+    await qi.addIndex("observations", ["portfolio_id", "business_date", "version"], {
+      unique: true,
+      name: "observations_version",
+    });
     // At most one current version per portfolio and day, enforced by the database itself; the same
     // index serves every read of the current series (WHERE portfolio_id = ? AND current_day …).
     await qi.sequelize.query(
@@ -80,7 +87,10 @@ module.exports = {
       created_at: now(),
       updated_at: now(),
     });
-    await qi.addIndex("data_findings", ["portfolio_id", "kind", "date_from"], { unique: true, name: "data_findings_key" });
+    await qi.addIndex("data_findings", ["portfolio_id", "kind", "date_from"], {
+      unique: true,
+      name: "data_findings_key",
+    });
   },
 
   async down(qi) {

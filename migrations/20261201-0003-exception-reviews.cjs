@@ -3,7 +3,11 @@
 module.exports = {
   async up(qi, Sequelize) {
     const { DataTypes } = Sequelize;
-    const now = () => ({ type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") });
+    const now = () => ({
+      type: DataTypes.DATE(3),
+      allowNull: false,
+      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+    });
     await qi.createTable("exception_reviews", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
       portfolio_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "portfolios", key: "id" } },
@@ -13,7 +17,11 @@ module.exports = {
         allowNull: false,
       },
       narrative: { type: DataTypes.TEXT, allowNull: false },
-      exclusion_status: { type: DataTypes.ENUM("none", "requested", "approved", "rejected"), allowNull: false, defaultValue: "none" },
+      exclusion_status: {
+        type: DataTypes.ENUM("none", "requested", "approved", "rejected"),
+        allowNull: false,
+        defaultValue: "none",
+      },
       decision_reference: { type: DataTypes.STRING(120), allowNull: true },
       decision_date: { type: DataTypes.DATEONLY, allowNull: true },
       decided_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
@@ -22,7 +30,10 @@ module.exports = {
       created_at: now(),
       updated_at: now(),
     });
-    await qi.addIndex("exception_reviews", ["portfolio_id", "business_date"], { unique: true, name: "exception_reviews_day" });
+    await qi.addIndex("exception_reviews", ["portfolio_id", "business_date"], {
+      unique: true,
+      name: "exception_reviews_day",
+    });
 
     await qi.createTable("evidence_files", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },

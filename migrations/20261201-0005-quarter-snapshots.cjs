@@ -6,7 +6,11 @@
 module.exports = {
   async up(qi, Sequelize) {
     const { DataTypes } = Sequelize;
-    const now = () => ({ type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") });
+    const now = () => ({
+      type: DataTypes.DATE(3),
+      allowNull: false,
+      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+    });
     await qi.createTable("snapshots", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
       entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" } },

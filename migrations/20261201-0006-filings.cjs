@@ -3,10 +3,19 @@
 module.exports = {
   async up(qi, Sequelize) {
     const { DataTypes } = Sequelize;
-    const now = () => ({ type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") });
+    const now = () => ({
+      type: DataTypes.DATE(3),
+      allowNull: false,
+      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+    });
     await qi.createTable("filings", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      snapshot_id: { type: DataTypes.INTEGER, allowNull: false, unique: true, references: { model: "snapshots", key: "id" } },
+      snapshot_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        unique: true,
+        references: { model: "snapshots", key: "id" },
+      },
       // The pack exactly as sent; its sha256 is what a supervisor verifies.
       pack_pdf: { type: DataTypes.BLOB("long"), allowNull: false },
       pack_sha256: { type: DataTypes.CHAR(64), allowNull: false },

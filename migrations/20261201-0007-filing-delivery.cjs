@@ -6,7 +6,11 @@
 module.exports = {
   async up(qi, Sequelize) {
     const { DataTypes } = Sequelize;
-    await qi.addColumn("filings", "delivery", { type: DataTypes.ENUM("pending", "sent"), allowNull: false, defaultValue: "sent" });
+    await qi.addColumn("filings", "delivery", {
+      type: DataTypes.ENUM("pending", "sent"),
+      allowNull: false,
+      defaultValue: "sent",
+    });
     await qi.addColumn("filings", "attempts", { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 });
     await qi.addColumn("filings", "last_error", { type: DataTypes.STRING(500), allowNull: true });
     await qi.changeColumn("filings", "message_id", { type: DataTypes.STRING(255), allowNull: true });

@@ -9,11 +9,20 @@ module.exports = {
     const { DataTypes } = Sequelize;
     await qi.createTable("api_tokens", {
       id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      user_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" }, onDelete: "CASCADE" },
+      user_id: {
+        type: DataTypes.INTEGER,
+        allowNull: false,
+        references: { model: "users", key: "id" },
+        onDelete: "CASCADE",
+      },
       name: { type: DataTypes.STRING(80), allowNull: false },
       token_hash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
       prefix: { type: DataTypes.STRING(16), allowNull: false },
-      created_at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)") },
+      created_at: {
+        type: DataTypes.DATE(3),
+        allowNull: false,
+        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
+      },
       last_used_at: { type: DataTypes.DATE(3), allowNull: true },
       expires_at: { type: DataTypes.DATE(3), allowNull: false },
       revoked_at: { type: DataTypes.DATE(3), allowNull: true },

@@ -82,11 +82,18 @@ function parseArgs(argv: readonly string[]): CliOptions | "help" {
     throw new CliInputError(`Unknown rule set "${values.regime}": use one of ${REGIME_IDS.join(", ")}.`);
   }
   if (!values["as-of"]) throw new CliInputError("--as-of is required (YYYY-MM-DD).");
-  if (!isIsoDate(values["as-of"])) throw new CliInputError(`--as-of "${values["as-of"]}" is not a real date written YYYY-MM-DD.`);
+  if (!isIsoDate(values["as-of"]))
+    throw new CliInputError(`--as-of "${values["as-of"]}" is not a real date written YYYY-MM-DD.`);
   if (values.basis !== undefined && !BASES.includes(values.basis as PnlBasis)) {
     throw new CliInputError(`Unknown P&L basis "${values.basis}": use one of ${BASES.join(", ")}.`);
   }
-  return { file: values.file, regime: values.regime as RegimeId, asOf: values["as-of"], basis: values.basis as PnlBasis | undefined, json };
+  return {
+    file: values.file,
+    regime: values.regime as RegimeId,
+    asOf: values["as-of"],
+    basis: values.basis as PnlBasis | undefined,
+    json,
+  };
 }
 
 /**
@@ -100,8 +107,15 @@ export function parseObservationsCsv(text: string): Map<string, Observation[]> {
   try {
     const cells = splitCsv(body).data;
     const portfolioAt = (cells[0] ?? []).map((h) => h.trim().toLowerCase()).indexOf("portfolio");
-    const codes = new Set(cells.slice(1).map((r) => (r[portfolioAt] ?? "").trim().toUpperCase()).filter(Boolean));
-    parsed = parseObservationCsv(body, { portfolios: new Map([...codes].map((c) => [c, { entityCode: "file", holidays: new Map() }])) });
+    const codes = new Set(
+      cells
+        .slice(1)
+        .map((r) => (r[portfolioAt] ?? "").trim().toUpperCase())
+        .filter(Boolean),
+    );
+    parsed = parseObservationCsv(body, {
+      portfolios: new Map([...codes].map((c) => [c, { entityCode: "file", holidays: new Map() }])),
+    });
   } catch (err) {
     if (err instanceof CsvFileError) {
       const details = err.errors.map((e) => `  line ${e.line}, column ${e.column}: ${e.message}`);
@@ -110,9 +124,13 @@ export function parseObservationsCsv(text: string): Map<string, Observation[]> {
     throw err;
   }
   if (parsed.errors.length) {
-    const shown = parsed.errors.slice(0, MAX_ERRORS_SHOWN).map((e) => `  line ${e.line}, column ${e.column}: ${e.message}`);
+    const shown = parsed.errors
+      .slice(0, MAX_ERRORS_SHOWN)
+      .map((e) => `  line ${e.line}, column ${e.column}: ${e.message}`);
     if (parsed.errors.length > MAX_ERRORS_SHOWN) shown.push(`  … and ${parsed.errors.length - MAX_ERRORS_SHOWN} more`);
-    throw new CliInputError(`The file has ${parsed.errors.length} problem${parsed.errors.length > 1 ? "s" : ""}:\n${shown.join("\n")}`);
+    throw new CliInputError(
+      `The file has ${parsed.errors.length} problem${parsed.errors.length > 1 ? "s" : ""}:\n${shown.join("\n")}`,
+    );
   }
   const byPortfolio = new Map<string, Observation[]>();
   for (const r of parsed.rows) {
@@ -140,7 +158,21 @@ const fmt = (x: number, digits: number): string => x.toFixed(digits);
 const pValue = (p: number): string => (p < 0.0001 ? "<0.0001" : p.toFixed(4));
 
 function table(results: Array<{ portfolio: string; result: BacktestResult }>): string {
-  const head = ["Portfolio", "Window", "Obs", "Actual", "Hypo", "Counted", "Excl", "Zone", "Plus", "Mult", "Kupiec p", "Indep p", "CondCov p"];
+  const head = [
+    "Portfolio",
+    "Window",
+    "Obs",
+    "Actual",
+    "Hypo",
+    "Counted",
+    "Excl",
+    "Zone",
+    "Plus",
+    "Mult",
+    "Kupiec p",
+    "Indep p",
+    "CondCov p",
+  ];
   const body = results.map(({ portfolio, result: r }) => [
     portfolio,
     r.window.start ? `${r.window.start}..${r.window.end}` : "(none)",
@@ -158,16 +190,25 @@ function table(results: Array<{ portfolio: string; result: BacktestResult }>): s
   ]);
   const widths = head.map((h, c) => Math.max(h.length, ...body.map((row) => row[c].length)));
   const left = new Set([0, 1, 7]);
-  const line = (cells: string[]): string => cells.map((v, c) => (left.has(c) ? v.padEnd(widths[c]) : v.padStart(widths[c]))).join("  ").trimEnd();
+  const line = (cells: string[]): string =>
+    cells
+      .map((v, c) => (left.has(c) ? v.padEnd(widths[c]) : v.padStart(widths[c])))
+      .join("  ")
+      .trimEnd();
   return [line(head), widths.map((w) => "-".repeat(w)).join("  "), ...body.map(line)].join("\n");
 }
 
 function notes(results: Array<{ portfolio: string; result: BacktestResult }>): string[] {
   const out: string[] = [];
   for (const { portfolio, result: r } of results) {
-    out.push(`${portfolio} (tests on ${r.testedSeries} P&L): ${r.tests.kupiec.verdict} ${r.tests.independence.verdict}`);
+    out.push(
+      `${portfolio} (tests on ${r.testedSeries} P&L): ${r.tests.kupiec.verdict} ${r.tests.independence.verdict}`,
+    );
     if (!r.window.complete) out.push(`${portfolio}: only ${r.window.observations} observations — provisional.`);
-    if (r.dataGaps.length) out.push(`${portfolio}: ${r.dataGaps.length} day(s) with a missing value (first ${r.dataGaps[0]}) — data gaps block sign-off.`);
+    if (r.dataGaps.length)
+      out.push(
+        `${portfolio}: ${r.dataGaps.length} day(s) with a missing value (first ${r.dataGaps[0]}) — data gaps block sign-off.`,
+      );
   }
   return out;
 }
@@ -190,7 +231,14 @@ export function runBacktestCli(argv: readonly string[], io: CliIo = defaultIo): 
     const rules = getRegime(opts.regime);
     const results = [...portfolios.keys()].sort().map((portfolio) => {
       try {
-        return { portfolio, result: backtestAt(portfolios.get(portfolio)!, { regime: opts.regime, pnlBasis: opts.basis, asOf: opts.asOf }) };
+        return {
+          portfolio,
+          result: backtestAt(portfolios.get(portfolio)!, {
+            regime: opts.regime,
+            pnlBasis: opts.basis,
+            asOf: opts.asOf,
+          }),
+        };
       } catch (e) {
         if (e instanceof EngineInputError) throw new CliInputError(`Portfolio ${portfolio}: ${e.message}`);
         throw e;

@@ -47,7 +47,9 @@ async function main() {
       : `No local mail sink (MAIL_SINK_DIR is empty): mail goes to the SMTP server on 127.0.0.1:${config.smtpPort}`,
   );
   if (!config.isProduction) {
-    console.log(`\nDemo sign-ins (password: ${config.demoPassword === "quartermark-demo" ? "quartermark-demo" : "$DEMO_PASSWORD"}):`);
+    console.log(
+      `\nDemo sign-ins (password: ${config.demoPassword === "quartermark-demo" ? "quartermark-demo" : "$DEMO_PASSWORD"}):`,
+    );
     for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(10)} ${u.email}`);
   }
   console.log("\nPress Ctrl+C to stop.");

@@ -10,7 +10,11 @@ import { appCredentials, ensureDatabase, startPrivateDb, stopPrivateDb } from ".
 import { CHROMIUM, ensureSystemPackages, MARIADB, POPPLER } from "./lib/system-packages";
 import { projectRoot, runBin } from "./lib/run";
 
-const FONTS = { name: "fonts-dejavu-core", provides: ["/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf"], why: "text in browser screenshots" };
+const FONTS = {
+  name: "fonts-dejavu-core",
+  provides: ["/usr/share/fonts/truetype/dejavu/DejaVuSans.ttf"],
+  why: "text in browser screenshots",
+};
 
 async function main(): Promise<number> {
   ensureSystemPackages([MARIADB, CHROMIUM, POPPLER, FONTS]);
@@ -51,7 +55,14 @@ async function main(): Promise<number> {
     const vitestExit = await runBin(
       "vitest",
       ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${resultsFile}`, ...vitestArgs],
-      { ...process.env, NODE_ENV: "test", LOG_LEVEL: "error", DB_NAME: config.db.name, SMTP_PORT: String(sink.port), MAIL_SINK_DIR: mailDir },
+      {
+        ...process.env,
+        NODE_ENV: "test",
+        LOG_LEVEL: "error",
+        DB_NAME: config.db.name,
+        SMTP_PORT: String(sink.port),
+        MAIL_SINK_DIR: mailDir,
+      },
     ).finally(() => sink.close());
 
     let passed = 0;
@@ -66,7 +77,8 @@ async function main(): Promise<number> {
     } else {
       failed = 1;
     }
-    if (failedChecks) console.log(`\n[test] ${failedChecks} check(s) failed before the tests (lint, type-check or build): see above.`);
+    if (failedChecks)
+      console.log(`\n[test] ${failedChecks} check(s) failed before the tests (lint, type-check or build): see above.`);
     console.log(`\ntests: ${passed} passed, ${failed + failedChecks} failed, ${skipped} skipped`);
     exitCode = vitestExit !== 0 || failed > 0 || failedChecks > 0 || passed === 0 ? 1 : 0;
   } finally {

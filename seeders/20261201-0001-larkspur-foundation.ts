@@ -44,7 +44,12 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     supervisorName: "Northern Banking Authority (fictional)",
     supervisorEmails: ["market-risk@nba-supervision.test"],
     portfolios: [{ code: "LKS-EU-TOTAL", name: "Larkspur Markets SA — trading book", level: "top" }],
-    holidays: [["01-01", "New Year's Day"], ["05-01", "Labour Day"], ["12-25", "Christmas Day"], ["12-26", "St Stephen's Day"]],
+    holidays: [
+      ["01-01", "New Year's Day"],
+      ["05-01", "Labour Day"],
+      ["12-25", "Christmas Day"],
+      ["12-26", "St Stephen's Day"],
+    ],
   },
   {
     code: "LKS-US",
@@ -55,7 +60,12 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     supervisorName: "Federal Capital Review Office (fictional)",
     supervisorEmails: ["backtesting@fcro-supervision.test"],
     portfolios: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities LLC — covered positions", level: "top" }],
-    holidays: [["01-01", "New Year's Day"], ["06-19", "Juneteenth"], ["07-04", "Independence Day"], ["12-25", "Christmas Day"]],
+    holidays: [
+      ["01-01", "New Year's Day"],
+      ["06-19", "Juneteenth"],
+      ["07-04", "Independence Day"],
+      ["12-25", "Christmas Day"],
+    ],
   },
   {
     code: "LKS-AP",
@@ -66,7 +76,12 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     supervisorName: "Straits Prudential Board (fictional)",
     supervisorEmails: ["imm-returns@spb-supervision.test"],
     portfolios: [{ code: "LKS-AP-TOTAL", name: "Larkspur Asia Ltd — trading book", level: "top" }],
-    holidays: [["01-01", "New Year's Day"], ["05-01", "Labour Day"], ["08-09", "National Day"], ["12-25", "Christmas Day"]],
+    holidays: [
+      ["01-01", "New Year's Day"],
+      ["05-01", "Labour Day"],
+      ["08-09", "National Day"],
+      ["12-25", "Christmas Day"],
+    ],
   },
   {
     code: "LKS-UK",
@@ -83,7 +98,11 @@ export const DEMO_ENTITIES: DemoEntity[] = [
       { code: "LKS-UK-CREDIT", name: "Credit desk", level: "desk" },
       { code: "LKS-UK-EQUITIES", name: "Equities desk", level: "desk" },
     ],
-    holidays: [["01-01", "New Year's Day"], ["12-25", "Christmas Day"], ["12-26", "Boxing Day"]],
+    holidays: [
+      ["01-01", "New Year's Day"],
+      ["12-25", "Christmas Day"],
+      ["12-26", "Boxing Day"],
+    ],
   },
 ];
 

@@ -21,8 +21,14 @@ export async function up(): Promise<void> {
     if (!entity) continue;
     const holidays = new Set((await HolidayModel.findAll({ where: { entityId: entity.id } })).map((h) => h.date));
     const csv = serialiseObservationCsv(demoRowsFor(code, demoDates(today, holidays)));
-    const preview = await previewUpload({ originalName: `${code.toLowerCase()}-daily-history.csv`, bytes: Buffer.from(csv) }, actor);
-    if (preview.invalid > 0) throw new Error(`Demo data for ${code} did not pass its own checks: ${JSON.stringify(preview.errors.slice(0, 3))}`);
+    const preview = await previewUpload(
+      { originalName: `${code.toLowerCase()}-daily-history.csv`, bytes: Buffer.from(csv) },
+      actor,
+    );
+    if (preview.invalid > 0)
+      throw new Error(
+        `Demo data for ${code} did not pass its own checks: ${JSON.stringify(preview.errors.slice(0, 3))}`,
+      );
     await commitUpload(preview.id, actor);
   }
 }

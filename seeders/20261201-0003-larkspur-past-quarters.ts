@@ -31,7 +31,12 @@ export async function up(): Promise<void> {
     const portfolioIds = (await PortfolioModel.findAll({ where: { entityId: entity.id } })).map((p) => p.id);
     for (const quarterEnd of quarters) {
       const open = await DataFindingModel.findAll({
-        where: { portfolioId: portfolioIds, status: "open", dateFrom: { [Op.lte]: quarterEnd }, dateTo: { [Op.gte]: quarterStart(quarterEnd) } },
+        where: {
+          portfolioId: portfolioIds,
+          status: "open",
+          dateFrom: { [Op.lte]: quarterEnd },
+          dateTo: { [Op.gte]: quarterStart(quarterEnd) },
+        },
       });
       for (const finding of open) {
         const note = `Checked with the desk at the ${quarterLabel(quarterEnd)} close: the figures are right (demo).`;
@@ -48,8 +53,16 @@ export async function up(): Promise<void> {
         }
         throw err;
       }
-      const submitted = await submitSnapshot(snapshot.id, { comment: "Figures and findings reviewed.", version: snapshot.version }, analyst);
-      await approveSnapshot(submitted.id, { comment: `${quarterLabel(quarterEnd)} signed off.`, version: submitted.version }, cro);
+      const submitted = await submitSnapshot(
+        snapshot.id,
+        { comment: "Figures and findings reviewed.", version: snapshot.version },
+        analyst,
+      );
+      await approveSnapshot(
+        submitted.id,
+        { comment: `${quarterLabel(quarterEnd)} signed off.`, version: submitted.version },
+        cro,
+      );
     }
   }
 }

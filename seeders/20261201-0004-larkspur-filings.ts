@@ -20,7 +20,10 @@ async function actorFor(email: string) {
 export async function up(): Promise<void> {
   const cro = await actorFor("cro@larkspur.test");
   for (const entity of await EntityModel.findAll({ order: [["code", "ASC"]] })) {
-    const approved = await SnapshotModel.findAll({ where: { entityId: entity.id, status: "approved" }, order: [["quarterEnd", "ASC"]] });
+    const approved = await SnapshotModel.findAll({
+      where: { entityId: entity.id, status: "approved" },
+      order: [["quarterEnd", "ASC"]],
+    });
     const regulators = await RegulatorAssignmentModel.findAll({ where: { entityId: entity.id } });
     const toFile = approved.slice(0, -1);
     for (const [i, snapshot] of toFile.entries()) {
@@ -28,7 +31,12 @@ export async function up(): Promise<void> {
       if (i === toFile.length - 1) continue;
       for (const assignment of regulators.slice(0, 1)) {
         const regulator = await UserModel.findByPk(assignment.userId);
-        if (regulator) await acknowledgeFiling(filing.id, { user: toSessionUser(regulator), ip: "127.0.0.1", requestId: "demo-seed" });
+        if (regulator)
+          await acknowledgeFiling(filing.id, {
+            user: toSessionUser(regulator),
+            ip: "127.0.0.1",
+            requestId: "demo-seed",
+          });
       }
     }
   }

@@ -44,10 +44,12 @@ function hostOf(url: string): string | null {
 /** Refuses state-changing requests that another site's page sent (SameSite=Strict is the first line). */
 const sameOriginOnly: RequestHandler = (req, _res, next) => {
   if (req.method === "GET" || req.method === "HEAD" || req.method === "OPTIONS") return next();
-  if (req.get("sec-fetch-site") === "cross-site") return next(new ForbiddenError("Cross-site requests are refused.", "cross_origin"));
+  if (req.get("sec-fetch-site") === "cross-site")
+    return next(new ForbiddenError("Cross-site requests are refused.", "cross_origin"));
   const origin = req.get("origin");
   if (origin && origin !== "null") {
-    if (hostOf(origin) !== req.get("host")) return next(new ForbiddenError("Cross-origin requests are refused.", "cross_origin"));
+    if (hostOf(origin) !== req.get("host"))
+      return next(new ForbiddenError("Cross-origin requests are refused.", "cross_origin"));
   } else if (origin === "null") {
     return next(new ForbiddenError("Cross-origin requests are refused.", "cross_origin"));
   }

@@ -20,13 +20,19 @@ const envSchema = z.object({
   PORT: z.coerce.number().int().min(0).max(65535).default(3000),
   DB_HOST: z.string().default("127.0.0.1"),
   DB_PORT: z.coerce.number().int().min(1).max(65535).default(3307),
-  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("quartermark"),
+  DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/)
+    .default("quartermark"),
   DB_USER: z.string().optional(),
   DB_PASSWORD: z.string().optional(),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
   /** Where the local SMTP sink keeps each message as an .eml file; empty: no local sink. */
   MAIL_SINK_DIR: z.string().optional(),
-  MAIL_FROM: z.string().regex(/^[^@\s]+@[^@\s]+$/, "an e-mail address").default("quartermark@localhost"),
+  MAIL_FROM: z
+    .string()
+    .regex(/^[^@\s]+@[^@\s]+$/, "an e-mail address")
+    .default("quartermark@localhost"),
   JWT_SECRET: z.string().min(32, "JWT_SECRET must be at least 32 characters").optional(),
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
@@ -74,7 +80,12 @@ function loadConfig() {
     }),
     smtpPort: env.SMTP_PORT,
     // Unset: .data/mail/ (npm start, npm run dev); set to the empty string: there is no local sink.
-    mailSinkDir: env.MAIL_SINK_DIR === undefined ? path.join(dataDir, "mail") : env.MAIL_SINK_DIR ? path.resolve(env.MAIL_SINK_DIR) : null,
+    mailSinkDir:
+      env.MAIL_SINK_DIR === undefined
+        ? path.join(dataDir, "mail")
+        : env.MAIL_SINK_DIR
+          ? path.resolve(env.MAIL_SINK_DIR)
+          : null,
     mailFrom: env.MAIL_FROM,
     jwtSecret: jwtSecret(env.JWT_SECRET),
     demoPassword: env.DEMO_PASSWORD,

@@ -104,7 +104,14 @@ function lostConnection(err: unknown): boolean {
   const chain = [err, (err as { parent?: unknown })?.parent, (err as { original?: unknown })?.original];
   return chain.some((e) => {
     const x = e as { code?: string; errno?: number; fatal?: boolean } | undefined;
-    return !!x && ((x.code !== undefined && LOST_CONNECTION.has(x.code)) || x.errno === 1927 || x.errno === 1053 || x.errno === 2006 || x.errno === 2013);
+    return (
+      !!x &&
+      ((x.code !== undefined && LOST_CONNECTION.has(x.code)) ||
+        x.errno === 1927 ||
+        x.errno === 1053 ||
+        x.errno === 2006 ||
+        x.errno === 2013)
+    );
   });
 }
 
@@ -115,7 +122,15 @@ export function isWriteConflict(err: unknown): boolean {
   return chain.some((e) => {
     const x = e as { errno?: number; code?: string } | undefined;
     // 1062: a duplicate key from a raw driver query (bulk writes), which Sequelize has not wrapped.
-    return !!x && (x.errno === 1213 || x.errno === 1205 || x.errno === 1062 || x.code === "ER_LOCK_DEADLOCK" || x.code === "ER_LOCK_WAIT_TIMEOUT" || x.code === "ER_DUP_ENTRY");
+    return (
+      !!x &&
+      (x.errno === 1213 ||
+        x.errno === 1205 ||
+        x.errno === 1062 ||
+        x.code === "ER_LOCK_DEADLOCK" ||
+        x.code === "ER_LOCK_WAIT_TIMEOUT" ||
+        x.code === "ER_DUP_ENTRY")
+    );
   });
 }
 
@@ -131,16 +146,22 @@ function toAppError(err: unknown): AppError {
   if (err instanceof ZodError) return new ValidationError(err);
   if (err instanceof ConnectionError) return new ServiceUnavailableError();
   if (err instanceof UniqueConstraintError) return new ConflictError("A record with the same key already exists.");
-  if (isWriteConflict(err)) return new ConflictError("Someone else was changing the same record at the same moment. Reload and try again.");
+  if (isWriteConflict(err))
+    return new ConflictError("Someone else was changing the same record at the same moment. Reload and try again.");
   if (err instanceof ForeignKeyConstraintError) return new ConflictError("This record is still referenced by others.");
-  if (err instanceof BaseError && /ECONNREFUSED|connect|Connection/i.test(err.message)) return new ServiceUnavailableError();
+  if (err instanceof BaseError && /ECONNREFUSED|connect|Connection/i.test(err.message))
+    return new ServiceUnavailableError();
   const e = err as { type?: string; status?: number; message?: string };
   if (e?.type === "entity.parse.failed") return new BadRequestError("The request body is not valid JSON.");
   if (e?.type === "entity.too.large") return new AppError(413, "payload_too_large", "The request body is too large.");
   if (typeof e?.status === "number" && e.status >= 400 && e.status < 500) {
     return new AppError(e.status, "bad_request", e.message ?? "Bad request.");
   }
-  return new AppError(500, "internal_error", "Something went wrong on our side. The error was logged with its request id.");
+  return new AppError(
+    500,
+    "internal_error",
+    "Something went wrong on our side. The error was logged with its request id.",
+  );
 }
 
 /** The one error path: every failure leaves as { error: { code, message, details? } }. */
@@ -150,7 +171,9 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, next) => {
     logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: ${(err as Error)?.stack ?? String(err)}`);
   } else if (appError.status === 503) {
     const cause = err as { code?: string; parent?: { code?: string } };
-    logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: database unavailable (${cause?.parent?.code ?? cause?.code ?? "no code"})`);
+    logger.error(
+      `[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: database unavailable (${cause?.parent?.code ?? cause?.code ?? "no code"})`,
+    );
   }
   if (res.headersSent) return next(err); // Express closes the half-sent response
   res.status(appError.status).json({

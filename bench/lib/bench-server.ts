@@ -7,7 +7,14 @@ import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { readFileSync } from "node:fs";
 import net from "node:net";
 import bcrypt from "bcryptjs";
-import { appCredentials, ensureDatabase, startPrivateDb, stopPrivateDb, type DbCredentials, type PrivateDb } from "../../scripts/lib/mariadb";
+import {
+  appCredentials,
+  ensureDatabase,
+  startPrivateDb,
+  stopPrivateDb,
+  type DbCredentials,
+  type PrivateDb,
+} from "../../scripts/lib/mariadb";
 import { projectRoot } from "../../scripts/lib/run";
 
 export const BENCH_PASSWORD = "bench-password-123";
@@ -33,13 +40,29 @@ export async function prepareBenchDatabase(name: string, portfolioCodes: string[
   const { sequelize } = await import("../../server/db/sequelize");
   await migrateUp();
   const hash = await bcrypt.hash(BENCH_PASSWORD, 12);
-  await sequelize.query("INSERT INTO users (email, name, role, password_hash) VALUES ('bench@quartermark.test', 'Bench Analyst', 'analyst', :hash)", { replacements: { hash } });
-  await sequelize.query("INSERT INTO entities (code, name, regime, pnl_basis, currency, supervisor_emails) VALUES ('BENCH', 'Bench entity', 'eu', 'max', 'EUR', '[]')");
+  await sequelize.query(
+    "INSERT INTO users (email, name, role, password_hash) VALUES ('bench@quartermark.test', 'Bench Analyst', 'analyst', :hash)",
+    { replacements: { hash } },
+  );
+  await sequelize.query(
+    "INSERT INTO entities (code, name, regime, pnl_basis, currency, supervisor_emails) VALUES ('BENCH', 'Bench entity', 'eu', 'max', 'EUR', '[]')",
+  );
   for (const code of portfolioCodes) {
-    await sequelize.query("INSERT INTO portfolios (entity_id, code, name, level) SELECT id, :code, :code, 'top' FROM entities WHERE code = 'BENCH'", { replacements: { code } });
+    await sequelize.query(
+      "INSERT INTO portfolios (entity_id, code, name, level) SELECT id, :code, :code, 'top' FROM entities WHERE code = 'BENCH'",
+      { replacements: { code } },
+    );
   }
-  const [[user]] = (await sequelize.query("SELECT id FROM users WHERE email = 'bench@quartermark.test'")) as [{ id: number }[], unknown];
-  const portfolioIds = new Map(((await sequelize.query("SELECT id, code FROM portfolios"))[0] as { id: number; code: string }[]).map((p) => [p.code, p.id]));
+  const [[user]] = (await sequelize.query("SELECT id FROM users WHERE email = 'bench@quartermark.test'")) as [
+    { id: number }[],
+    unknown,
+  ];
+  const portfolioIds = new Map(
+    ((await sequelize.query("SELECT id, code FROM portfolios"))[0] as { id: number; code: string }[]).map((p) => [
+      p.code,
+      p.id,
+    ]),
+  );
   await sequelize.close();
   return {
     db,
@@ -104,7 +127,9 @@ export async function startBuiltServer(dbName: string): Promise<BenchServer> {
     cookie,
     process: child,
     rssMb: (field) => {
-      const line = readFileSync(`/proc/${child.pid}/status`, "utf8").split("\n").find((l) => l.startsWith(field));
+      const line = readFileSync(`/proc/${child.pid}/status`, "utf8")
+        .split("\n")
+        .find((l) => l.startsWith(field));
       return Number(line?.replace(/\D+/g, "") ?? 0) / 1024;
     },
     stop: () => child.kill("SIGTERM"),
@@ -129,26 +154,41 @@ export function benchCsv(codes: string[], dates: string[]): string {
   for (const code of codes) {
     for (let i = 0; i < dates.length; i++) {
       const pnl = ((i * 7919) % 20000) - 10000 + 0.25;
-      lines.push(`${code},${dates[i]},${pnl.toFixed(2)},${(pnl * 0.97).toFixed(2)},${(9000 + (i % 500)).toFixed(2)},${(7000 + (i % 400)).toFixed(2)},${(21000 + (i % 900)).toFixed(2)}`);
+      lines.push(
+        `${code},${dates[i]},${pnl.toFixed(2)},${(pnl * 0.97).toFixed(2)},${(9000 + (i % 500)).toFixed(2)},${(7000 + (i % 400)).toFixed(2)},${(21000 + (i % 900)).toFixed(2)}`,
+      );
     }
   }
   return lines.join("\n") + "\n";
 }
 
 /** Uploads and commits a file through the API; returns the upload id and the two phases' times. */
-export async function uploadAndCommit(server: BenchServer, csv: string, fileName: string): Promise<{ id: number; previewMs: number; commitMs: number; inserted: number }> {
+export async function uploadAndCommit(
+  server: BenchServer,
+  csv: string,
+  fileName: string,
+): Promise<{ id: number; previewMs: number; commitMs: number; inserted: number }> {
   // The file is in memory before the clock starts, as a browser holds the File an analyst chose.
   const file = new Blob([csv], { type: "text/csv" });
   const t0 = performance.now();
   const form = new FormData();
   form.append("file", file, fileName);
-  const preview = await fetch(`${server.base}/api/uploads`, { method: "POST", headers: { Cookie: server.cookie, Origin: server.base }, body: form });
+  const preview = await fetch(`${server.base}/api/uploads`, {
+    method: "POST",
+    headers: { Cookie: server.cookie, Origin: server.base },
+    body: form,
+  });
   const previewBody = (await preview.json()) as { id: number; invalid: number };
   const t1 = performance.now();
-  if (preview.status !== 201 || previewBody.invalid !== 0) throw new Error(`preview failed: ${preview.status} ${JSON.stringify(previewBody).slice(0, 300)}`);
-  const commit = await fetch(`${server.base}/api/uploads/${previewBody.id}/commit`, { method: "POST", headers: { Cookie: server.cookie, Origin: server.base } });
+  if (preview.status !== 201 || previewBody.invalid !== 0)
+    throw new Error(`preview failed: ${preview.status} ${JSON.stringify(previewBody).slice(0, 300)}`);
+  const commit = await fetch(`${server.base}/api/uploads/${previewBody.id}/commit`, {
+    method: "POST",
+    headers: { Cookie: server.cookie, Origin: server.base },
+  });
   const commitBody = (await commit.json()) as { inserted: number };
   const t2 = performance.now();
-  if (commit.status !== 200) throw new Error(`commit failed: ${commit.status} ${JSON.stringify(commitBody).slice(0, 300)}`);
+  if (commit.status !== 200)
+    throw new Error(`commit failed: ${commit.status} ${JSON.stringify(commitBody).slice(0, 300)}`);
   return { id: previewBody.id, previewMs: t1 - t0, commitMs: t2 - t1, inserted: commitBody.inserted };
 }

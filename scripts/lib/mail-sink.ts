@@ -14,7 +14,8 @@ export async function startMailSink(port: number, dir: string): Promise<{ port: 
     disabledCommands: ["STARTTLS"],
     logger: false,
     onRcptTo(address, _session, callback) {
-      if (/\.invalid$/i.test(address.address)) return callback(Object.assign(new Error(`No such mailbox: ${address.address}`), { responseCode: 550 }));
+      if (/\.invalid$/i.test(address.address))
+        return callback(Object.assign(new Error(`No such mailbox: ${address.address}`), { responseCode: 550 }));
       callback();
     },
     onData(stream, session, callback) {
@@ -29,7 +30,11 @@ export async function startMailSink(port: number, dir: string): Promise<{ port: 
   });
   await new Promise<void>((resolve, reject) => {
     server.once("error", (err: NodeJS.ErrnoException) =>
-      reject(err.code === "EADDRINUSE" ? new Error(`SMTP port ${port} on 127.0.0.1 is in use; set SMTP_PORT to a free port.`) : err),
+      reject(
+        err.code === "EADDRINUSE"
+          ? new Error(`SMTP port ${port} on 127.0.0.1 is in use; set SMTP_PORT to a free port.`)
+          : err,
+      ),
     );
     server.listen(port, "127.0.0.1", () => resolve());
   });

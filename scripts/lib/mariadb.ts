@@ -115,7 +115,13 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
     mkdirSync(dataDir, { recursive: true });
     execFileSync(
       "mariadb-install-db",
-      ["--no-defaults", `--datadir=${dataDir}`, "--auth-root-authentication-method=normal", "--skip-test-db", "--user=root"],
+      [
+        "--no-defaults",
+        `--datadir=${dataDir}`,
+        "--auth-root-authentication-method=normal",
+        "--skip-test-db",
+        "--user=root",
+      ],
       { stdio: ["ignore", "ignore", "inherit"] },
     );
   }
@@ -167,11 +173,18 @@ function quoteIdent(name: string): string {
 }
 
 /** Creates the database (optionally from empty) and grants the application user on it. */
-export async function ensureDatabase(db: PrivateDb, name: string, creds: DbCredentials, opts: { fresh?: boolean } = {}) {
+export async function ensureDatabase(
+  db: PrivateDb,
+  name: string,
+  creds: DbCredentials,
+  opts: { fresh?: boolean } = {},
+) {
   const conn = await rootConnection(db.socket);
   try {
     if (opts.fresh) await conn.query(`DROP DATABASE IF EXISTS ${quoteIdent(name)}`);
-    await conn.query(`CREATE DATABASE IF NOT EXISTS ${quoteIdent(name)} CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+    await conn.query(
+      `CREATE DATABASE IF NOT EXISTS ${quoteIdent(name)} CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+    );
     await conn.query(`CREATE USER IF NOT EXISTS ?@'127.0.0.1' IDENTIFIED BY ?`, [creds.user, creds.password]);
     await conn.query(`ALTER USER ?@'127.0.0.1' IDENTIFIED BY ?`, [creds.user, creds.password]);
     await conn.query(`GRANT ALL PRIVILEGES ON ${quoteIdent(name)}.* TO ?@'127.0.0.1'`, [creds.user]);

@@ -51,5 +51,6 @@ export function ensureSystemPackages(pkgs: SystemPackage[]): void {
   });
   if (res.status !== 0) throw new Error(`apt-get install ${names} failed (exit ${res.status})`);
   const still = missing.filter((p) => !isInstalled(p));
-  if (still.length) throw new Error(`Installed ${names}, but ${still.map((p) => p.provides.join(", ")).join("; ")} still missing`);
+  if (still.length)
+    throw new Error(`Installed ${names}, but ${still.map((p) => p.provides.join(", ")).join("; ")} still missing`);
 }

@@ -62,7 +62,8 @@ const WARM_UP = 260; // days simulated before the first reported one, so the fir
 const SIMULATED_DAYS = 1000 + WARM_UP;
 
 function simulatedLength(reported: number): number {
-  if (reported + WARM_UP > SIMULATED_DAYS) throw new Error(`The demo generator reports at most ${SIMULATED_DAYS - WARM_UP} days`);
+  if (reported + WARM_UP > SIMULATED_DAYS)
+    throw new Error(`The demo generator reports at most ${SIMULATED_DAYS - WARM_UP} days`);
   return SIMULATED_DAYS;
 }
 
@@ -131,7 +132,8 @@ const money = (x: number) => Math.round(x * 100) / 100;
 function positionsFor(seed: number, total: number): Float64Array {
   const rand = seededRandom(seed ^ 0x0b00c);
   const out = new Float64Array(total);
-  for (let t = 0; t < total; t++) out[t] = 1 + 0.06 * Math.sin(t / 37) + 0.025 * Math.sin(t / 5.3) + 0.01 * normal(rand);
+  for (let t = 0; t < total; t++)
+    out[t] = 1 + 0.06 * Math.sin(t / 37) + 0.025 * Math.sin(t / 5.3) + 0.01 * normal(rand);
   return out;
 }
 
@@ -139,7 +141,15 @@ function positionsFor(seed: number, total: number): Float64Array {
  * Risk measures from a rolling historical simulation: today's positions revalued on the last 250
  * days' moves (so VaR moves with the book every day, as it does in life).
  */
-function rowsFor(code: string, seed: number, book: SimulatedBook, dates: string[], withEs: boolean, withRtpl: boolean, stressSample: Float64Array): DemoRow[] {
+function rowsFor(
+  code: string,
+  seed: number,
+  book: SimulatedBook,
+  dates: string[],
+  withEs: boolean,
+  withRtpl: boolean,
+  stressSample: Float64Array,
+): DemoRow[] {
   const rows: DemoRow[] = [];
   const scratch = new Float64Array(250);
   const total = book.hpl.length;
@@ -183,17 +193,34 @@ function stressSampleFor(spec: PortfolioSpec): Float64Array {
 /** Daily rows of one portfolio on the given business dates (oldest first). */
 export function generatePortfolioRows(spec: PortfolioSpec, dates: string[]): DemoRow[] {
   const book = simulateBook(spec, simulatedLength(dates.length));
-  return rowsFor(spec.code, spec.seed, book, dates, spec.withEs ?? false, spec.rtplLoading !== undefined, stressSampleFor(spec));
+  return rowsFor(
+    spec.code,
+    spec.seed,
+    book,
+    dates,
+    spec.withEs ?? false,
+    spec.rtplLoading !== undefined,
+    stressSampleFor(spec),
+  );
 }
 
 /**
  * A top-of-house book made of desks: its P&L is the desks' sum and its risk measures come from
  * the same historical simulation on that sum. Returns the top rows and each desk's rows.
  */
-export function generateDeskedRows(top: { code: string; seed: number }, desks: PortfolioSpec[], dates: string[]): DemoRow[] {
+export function generateDeskedRows(
+  top: { code: string; seed: number },
+  desks: PortfolioSpec[],
+  dates: string[],
+): DemoRow[] {
   const total = simulatedLength(dates.length);
   const books = desks.map((d) => simulateBook(d, total));
-  const sum: SimulatedBook = { hpl: new Float64Array(total), apl: new Float64Array(total), rtpl: new Float64Array(total), sigma: new Float64Array(total) };
+  const sum: SimulatedBook = {
+    hpl: new Float64Array(total),
+    apl: new Float64Array(total),
+    rtpl: new Float64Array(total),
+    sigma: new Float64Array(total),
+  };
   for (const b of books) {
     for (let t = 0; t < total; t++) {
       sum.hpl[t] += b.hpl[t];
@@ -202,7 +229,15 @@ export function generateDeskedRows(top: { code: string; seed: number }, desks: P
     }
   }
   const topVol = Math.sqrt(desks.reduce((s, d) => s + d.dailyVol ** 2, 0));
-  const rows = rowsFor(top.code, top.seed, sum, dates, true, true, stressSampleFor({ code: top.code, seed: top.seed, dailyVol: topVol }));
+  const rows = rowsFor(
+    top.code,
+    top.seed,
+    sum,
+    dates,
+    true,
+    true,
+    stressSampleFor({ code: top.code, seed: top.seed, dailyVol: topVol }),
+  );
   desks.forEach((d, i) => rows.push(...rowsFor(d.code, d.seed, books[i], dates, true, true, stressSampleFor(d))));
   return rows;
 }

@@ -14,7 +14,14 @@ interface EntityScenario {
 export const SCENARIO: Record<string, EntityScenario> = {
   "LKS-EU": { top: { code: "LKS-EU-TOTAL", seed: 1106, dailyVol: 3_200_000 }, missingDayBeforeEnd: 12 },
   // A stress episode about four months ago: the historical-simulation VaR learns late, exceptions bunch.
-  "LKS-US": { top: { code: "LKS-US-TOTAL", seed: 2203, dailyVol: 4_500_000, stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 } } },
+  "LKS-US": {
+    top: {
+      code: "LKS-US-TOTAL",
+      seed: 2203,
+      dailyVol: 4_500_000,
+      stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 },
+    },
+  },
   "LKS-AP": { top: { code: "LKS-AP-TOTAL", seed: 3303, dailyVol: 2_100_000 }, blankHypotheticalBeforeEnd: 7 },
   "LKS-UK": {
     top: { code: "LKS-UK-TOTAL", seed: 4404, dailyVol: 0 },

@@ -8,14 +8,21 @@ import { sequelize } from "./sequelize";
  * that index's entries, which a lock on the rows never meets, so no lock here goes through one
  * (tests/server/snapshot-faults.test.ts). Returns the ids that exist and are now held.
  */
-export async function lockPortfolios(ids: readonly number[], mode: "update" | "share", transaction: Transaction): Promise<Set<number>> {
+export async function lockPortfolios(
+  ids: readonly number[],
+  mode: "update" | "share",
+  transaction: Transaction,
+): Promise<Set<number>> {
   const held = new Set<number>();
   if (ids.length === 0) return held;
-  const rows = await sequelize.query<{ id: number }>(`SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id ${mode === "update" ? "FOR UPDATE" : "LOCK IN SHARE MODE"}`, {
-    replacements: { ids: [...ids] },
-    type: QueryTypes.SELECT,
-    transaction,
-  });
+  const rows = await sequelize.query<{ id: number }>(
+    `SELECT id FROM portfolios WHERE id IN (:ids) ORDER BY id ${mode === "update" ? "FOR UPDATE" : "LOCK IN SHARE MODE"}`,
+    {
+      replacements: { ids: [...ids] },
+      type: QueryTypes.SELECT,
+      transaction,
+    },
+  );
   for (const r of rows) held.add(Number(r.id));
   return held;
 }

@@ -13,4 +13,8 @@ const base = {
   username: process.env.DB_USER || creds.user || "quartermark",
   password: process.env.DB_PASSWORD || creds.password || "",
 };
-module.exports = { development: base, test: { ...base, database: process.env.DB_NAME || "quartermark_test" }, production: base };
+module.exports = {
+  development: base,
+  test: { ...base, database: process.env.DB_NAME || "quartermark_test" },
+  production: base,
+};

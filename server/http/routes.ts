@@ -9,7 +9,8 @@ const TOKEN_READ_ONLY =
 
 function authorize(key: string, access: Access): RequestHandler {
   return (req, _res, next) => {
-    if (req.credential === "api-token" && !tokenMayCall(key)) return next(new ForbiddenError(TOKEN_READ_ONLY, "token_read_only"));
+    if (req.credential === "api-token" && !tokenMayCall(key))
+      return next(new ForbiddenError(TOKEN_READ_ONLY, "token_read_only"));
     if (access === "public") return next();
     if (!req.user) return next(new UnauthorizedError());
     if (access !== "signed-in" && !access.includes(req.user.role)) return next(new ForbiddenError());

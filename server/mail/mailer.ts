@@ -36,7 +36,15 @@ let transport: Transporter | undefined;
 // Short timeouts: a delivery holds its filing locked while the message is handed over, so a mail
 // server that does not answer must fail in seconds, not minutes (nodemailer's defaults).
 function transportNow(): Transporter {
-  transport ??= nodemailer.createTransport({ host: "127.0.0.1", port, secure: false, ignoreTLS: true, connectionTimeout: 5_000, greetingTimeout: 5_000, socketTimeout: 20_000 });
+  transport ??= nodemailer.createTransport({
+    host: "127.0.0.1",
+    port,
+    secure: false,
+    ignoreTLS: true,
+    connectionTimeout: 5_000,
+    greetingTimeout: 5_000,
+    socketTimeout: 20_000,
+  });
   return transport;
 }
 
@@ -56,6 +64,9 @@ export async function sendMail(mail: OutgoingMail): Promise<string> {
   } catch (err) {
     if (err instanceof MailNotSentError) throw err;
     const e = err as { message?: string; responseCode?: number };
-    throw new MailNotSentError((e.message ?? String(err)).slice(0, 200), typeof e.responseCode === "number" && e.responseCode >= 500);
+    throw new MailNotSentError(
+      (e.message ?? String(err)).slice(0, 200),
+      typeof e.responseCode === "number" && e.responseCode >= 500,
+    );
   }
 }

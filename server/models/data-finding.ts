@@ -3,7 +3,10 @@ import { sequelize } from "../db/sequelize";
 import { PortfolioModel } from "./portfolio";
 import type { FindingKind } from "../../shared/schemas/upload";
 
-export class DataFindingModel extends Model<InferAttributes<DataFindingModel>, InferCreationAttributes<DataFindingModel>> {
+export class DataFindingModel extends Model<
+  InferAttributes<DataFindingModel>,
+  InferCreationAttributes<DataFindingModel>
+> {
   declare id: CreationOptional<number>;
   declare portfolioId: number;
   declare kind: FindingKind;
@@ -23,7 +26,10 @@ DataFindingModel.init(
   {
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     portfolioId: { type: DataTypes.INTEGER, allowNull: false },
-    kind: { type: DataTypes.ENUM("missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"), allowNull: false },
+    kind: {
+      type: DataTypes.ENUM("missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"),
+      allowNull: false,
+    },
     dateFrom: { type: DataTypes.DATEONLY, allowNull: false },
     dateTo: { type: DataTypes.DATEONLY, allowNull: false },
     detail: { type: DataTypes.STRING(500), allowNull: false },

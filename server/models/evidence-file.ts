@@ -1,7 +1,10 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
 
-export class EvidenceFileModel extends Model<InferAttributes<EvidenceFileModel>, InferCreationAttributes<EvidenceFileModel>> {
+export class EvidenceFileModel extends Model<
+  InferAttributes<EvidenceFileModel>,
+  InferCreationAttributes<EvidenceFileModel>
+> {
   declare id: CreationOptional<number>;
   declare reviewId: number;
   declare fileName: string;
@@ -25,5 +28,11 @@ EvidenceFileModel.init(
     uploadedBy: { type: DataTypes.INTEGER, allowNull: false },
     createdAt: DataTypes.DATE(3),
   },
-  { sequelize, tableName: "evidence_files", updatedAt: false, defaultScope: { attributes: { exclude: ["content"] } }, scopes: { withContent: {} } },
+  {
+    sequelize,
+    tableName: "evidence_files",
+    updatedAt: false,
+    defaultScope: { attributes: { exclude: ["content"] } },
+    scopes: { withContent: {} },
+  },
 );

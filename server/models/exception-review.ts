@@ -2,7 +2,10 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 import { sequelize } from "../db/sequelize";
 import type { ExceptionCause, ExclusionStatus } from "../../shared/schemas/backtest";
 
-export class ExceptionReviewModel extends Model<InferAttributes<ExceptionReviewModel>, InferCreationAttributes<ExceptionReviewModel>> {
+export class ExceptionReviewModel extends Model<
+  InferAttributes<ExceptionReviewModel>,
+  InferCreationAttributes<ExceptionReviewModel>
+> {
   declare id: CreationOptional<number>;
   declare portfolioId: number;
   declare businessDate: string;
@@ -23,9 +26,16 @@ ExceptionReviewModel.init(
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     portfolioId: { type: DataTypes.INTEGER, allowNull: false },
     businessDate: { type: DataTypes.DATEONLY, allowNull: false },
-    cause: { type: DataTypes.ENUM("market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"), allowNull: false },
+    cause: {
+      type: DataTypes.ENUM("market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"),
+      allowNull: false,
+    },
     narrative: { type: DataTypes.TEXT, allowNull: false },
-    exclusionStatus: { type: DataTypes.ENUM("none", "requested", "approved", "rejected"), allowNull: false, defaultValue: "none" },
+    exclusionStatus: {
+      type: DataTypes.ENUM("none", "requested", "approved", "rejected"),
+      allowNull: false,
+      defaultValue: "none",
+    },
     decisionReference: { type: DataTypes.STRING(120), allowNull: true },
     decisionDate: { type: DataTypes.DATEONLY, allowNull: true },
     decidedBy: { type: DataTypes.INTEGER, allowNull: true },

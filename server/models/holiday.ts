@@ -1,4 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from "sequelize";
 import { sequelize } from "../db/sequelize";
 import { EntityModel } from "./entity";
 

@@ -7,7 +7,10 @@ import { decimalAttribute } from "./decimal";
  * is_current on the old one; the database allows one current version per day. Bulk writes go
  * through server/modules/observations/observations.repository.ts (multi-row INSERTs).
  */
-export class ObservationModel extends Model<InferAttributes<ObservationModel>, InferCreationAttributes<ObservationModel>> {
+export class ObservationModel extends Model<
+  InferAttributes<ObservationModel>,
+  InferCreationAttributes<ObservationModel>
+> {
   declare portfolioId: number;
   declare businessDate: string;
   declare version: CreationOptional<number>;
@@ -26,7 +29,8 @@ export class ObservationModel extends Model<InferAttributes<ObservationModel>, I
   declare uploadId: number;
 }
 
-const money = (attribute: keyof InferAttributes<ObservationModel>, field: string) => decimalAttribute<ObservationModel>(attribute, 20, 2, { allowNull: true, field });
+const money = (attribute: keyof InferAttributes<ObservationModel>, field: string) =>
+  decimalAttribute<ObservationModel>(attribute, 20, 2, { allowNull: true, field });
 
 ObservationModel.init(
   {

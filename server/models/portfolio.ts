@@ -1,4 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+} from "sequelize";
 import { sequelize } from "../db/sequelize";
 import type { PortfolioLevel } from "../../shared/schemas/common";
 import { EntityModel } from "./entity";

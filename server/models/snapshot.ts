@@ -37,8 +37,12 @@ export class SnapshotModel extends Model<InferAttributes<SnapshotModel>, InferCr
   declare updatedAt: CreationOptional<Date>;
 }
 
-const decimal = (attribute: keyof InferAttributes<SnapshotModel>, precision: number, scale: number, allowNull: boolean) =>
-  decimalAttribute<SnapshotModel>(attribute, precision, scale, { allowNull });
+const decimal = (
+  attribute: keyof InferAttributes<SnapshotModel>,
+  precision: number,
+  scale: number,
+  allowNull: boolean,
+) => decimalAttribute<SnapshotModel>(attribute, precision, scale, { allowNull });
 
 SnapshotModel.init(
   {

@@ -51,6 +51,11 @@ UploadModel.init(
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },
-  { sequelize, tableName: "uploads", defaultScope: { attributes: { exclude: ["content"] } }, scopes: { withContent: {} } },
+  {
+    sequelize,
+    tableName: "uploads",
+    defaultScope: { attributes: { exclude: ["content"] } },
+    scopes: { withContent: {} },
+  },
 );
 UploadModel.belongsTo(UserModel, { foreignKey: "uploadedBy", as: "uploader" });

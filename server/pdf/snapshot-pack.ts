@@ -68,7 +68,12 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
   const width = doc.page.width - left - doc.page.margins.right;
   const heading = (text: string) => {
     doc.moveDown(0.8).font("semibold").fontSize(11).fillColor(INK).text(text, left);
-    doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.5).strokeColor(RULE).stroke();
+    doc
+      .moveTo(left, doc.y + 2)
+      .lineTo(left + width, doc.y + 2)
+      .lineWidth(0.5)
+      .strokeColor(RULE)
+      .stroke();
     doc.moveDown(0.4);
   };
   /** Rows of label → value in two columns. */
@@ -76,7 +81,11 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
     for (const [label, value] of rows) {
       const y = doc.y;
       doc.font("regular").fontSize(9).fillColor(MUTED).text(label, left, y, { width: 190 });
-      doc.font("semibold").fontSize(9.5).fillColor(INK).text(value, left + 200, y, { width: width - 200 });
+      doc
+        .font("semibold")
+        .fontSize(9.5)
+        .fillColor(INK)
+        .text(value, left + 200, y, { width: width - 200 });
       doc.moveDown(0.25);
     }
   };
@@ -84,8 +93,14 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
   // Where it stands.
   doc.font("regular").fontSize(8.5).fillColor(MUTED).text("QUARTERMARK · QUARTERLY BACKTESTING PACK", left);
   doc.moveDown(0.3).font("semibold").fontSize(18).fillColor(INK).text(`${s.entityName} (${s.entity})`);
-  doc.font("regular").fontSize(12).text(`${quarterLabel(s.quarterEnd)}: ${quarterStart(s.quarterEnd)} to ${s.quarterEnd}`);
-  doc.moveDown(0.4).fontSize(9.5).fillColor(signedOff ? INK : "#9a3b2f");
+  doc
+    .font("regular")
+    .fontSize(12)
+    .text(`${quarterLabel(s.quarterEnd)}: ${quarterStart(s.quarterEnd)} to ${s.quarterEnd}`);
+  doc
+    .moveDown(0.4)
+    .fontSize(9.5)
+    .fillColor(signedOff ? INK : "#9a3b2f");
   doc.text(
     signedOff
       ? `Signed off: approved by ${s.approvedBy} on ${when(s.approvedAt)}${s.status === "filed" ? "; filed with the supervisor" : ""}.`
@@ -94,11 +109,20 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
 
   heading("Where the entity stands at the quarter end");
   pairs([
-    ["Rule set", `${getRegime(f.regime).label}, exceptions counted on ${f.pnlBasis === "max" ? "the higher of actual and hypothetical P&L" : `${f.pnlBasis} P&L`}`],
+    [
+      "Rule set",
+      `${getRegime(f.regime).label}, exceptions counted on ${f.pnlBasis === "max" ? "the higher of actual and hypothetical P&L" : `${f.pnlBasis} P&L`}`,
+    ],
     ["Top-of-house portfolio", f.portfolio],
-    ["Backtesting window", `${f.window.start ?? "—"} to ${f.window.end ?? "—"}, ${f.window.observations} observations${f.window.complete ? "" : " (short window: provisional)"}`],
+    [
+      "Backtesting window",
+      `${f.window.start ?? "—"} to ${f.window.end ?? "—"}, ${f.window.observations} observations${f.window.complete ? "" : " (short window: provisional)"}`,
+    ],
     ["Exceptions (actual / hypothetical)", `${f.exceptions.actual} / ${f.exceptions.hypothetical}`],
-    ["Counted exceptions", `${f.exceptions.counted}${f.exceptions.excluded ? ` (${f.exceptions.excluded} disregarded with the supervisor's approval)` : ""}`],
+    [
+      "Counted exceptions",
+      `${f.exceptions.counted}${f.exceptions.excluded ? ` (${f.exceptions.excluded} disregarded with the supervisor's approval)` : ""}`,
+    ],
     ["Expected if the model is right", `${f.expected.toFixed(2)} (observations × ${(1 - 0.99).toFixed(2)})`],
     ["P(X ≤ counted), binomial", percent(f.cumulativeProbability)],
     ["Traffic-light zone", `${ZONE_WORDS[f.zone]}${f.zoneLabel.toLowerCase() !== f.zone ? ` (${f.zoneLabel})` : ""}`],
@@ -112,7 +136,11 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
 
   // Why.
   heading("Exception days in the window");
-  doc.font("regular").fontSize(9.5).fillColor(INK).text(f.exceptionDates.length ? f.exceptionDates.join(" · ") : "None.", left, doc.y, { width });
+  doc
+    .font("regular")
+    .fontSize(9.5)
+    .fillColor(INK)
+    .text(f.exceptionDates.length ? f.exceptionDates.join(" · ") : "None.", left, doc.y, { width });
   if (f.desks.length) {
     heading("Trading desks (FRTB)");
     pairs(
@@ -124,7 +152,11 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
   }
   if (s.restatedAfterSignOff) {
     heading("Changed after sign-off");
-    doc.font("regular").fontSize(9.5).fillColor("#9a3b2f").text(`${s.restatedAfterSignOff.detail} The figures above are as approved.`, left, doc.y, { width });
+    doc
+      .font("regular")
+      .fontSize(9.5)
+      .fillColor("#9a3b2f")
+      .text(`${s.restatedAfterSignOff.detail} The figures above are as approved.`, left, doc.y, { width });
   }
 
   // The seal and the record.
@@ -137,7 +169,11 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
   ]);
   doc.moveDown(0.3);
   for (const e of s.history) {
-    doc.font("regular").fontSize(9).fillColor(INK).text(`${when(e.at)} · ${e.by} · ${e.action}${e.comment ? `: ${e.comment}` : ""}`, left, doc.y, { width });
+    doc
+      .font("regular")
+      .fontSize(9)
+      .fillColor(INK)
+      .text(`${when(e.at)} · ${e.by} · ${e.action}${e.comment ? `: ${e.comment}` : ""}`, left, doc.y, { width });
   }
 
   // The caution and the page numbers on every page.
@@ -148,7 +184,10 @@ export async function renderSnapshotPack(s: Snapshot): Promise<Buffer> {
     doc.page.margins.bottom = 0; // writing in the margin must not start a new page
     doc.font("regular").fontSize(7.5).fillColor(MUTED);
     doc.text(CAUTION, left, bottom + 18, { width: width - 60 });
-    doc.text(`Page ${i - range.start + 1} of ${range.count}`, left + width - 60, bottom + 18, { width: 60, align: "right" });
+    doc.text(`Page ${i - range.start + 1} of ${range.count}`, left + width - 60, bottom + 18, {
+      width: 60,
+      align: "right",
+    });
   }
   doc.end();
   return done;

@@ -16,7 +16,11 @@ export function woffToSfnt(woff: Buffer): Buffer {
     const compLength = woff.readUInt32BE(at + 8);
     const origLength = woff.readUInt32BE(at + 12);
     const stored = woff.subarray(offset, offset + compLength);
-    tables.push({ tag: woff.readUInt32BE(at), checksum: woff.readUInt32BE(at + 16), data: compLength < origLength ? inflateSync(stored) : Buffer.from(stored) });
+    tables.push({
+      tag: woff.readUInt32BE(at),
+      checksum: woff.readUInt32BE(at + 16),
+      data: compLength < origLength ? inflateSync(stored) : Buffer.from(stored),
+    });
   }
   const pad4 = (n: number) => (n + 3) & ~3;
   let size = 12 + 16 * numTables;

@@ -29,7 +29,11 @@ export function civilDayNumber(y: number, m: number, d: number): number | undefi
 export function dayNumber(date: string): number {
   if (typeof date === "string" && ISO_DATE.test(date)) {
     const digit = (i: number) => date.charCodeAt(i) - 48;
-    const day = civilDayNumber(digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3), digit(5) * 10 + digit(6), digit(8) * 10 + digit(9));
+    const day = civilDayNumber(
+      digit(0) * 1000 + digit(1) * 100 + digit(2) * 10 + digit(3),
+      digit(5) * 10 + digit(6),
+      digit(8) * 10 + digit(9),
+    );
     if (day !== undefined) return day;
   }
   throw new EngineInputError(`"${String(date)}" is not a real date written YYYY-MM-DD`, { date: String(date) });

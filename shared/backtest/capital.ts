@@ -108,14 +108,21 @@ export function capitalInputsAt(
   assertIsoDate(asOf, "asOf");
   const rules = getRegime(regime);
   const end = lastIndexOnOrBefore(observations, asOf);
-  if (end < 0) throw new EngineInputError(`No observation on or before ${asOf}, so there is no capital figure`, { date: asOf });
+  if (end < 0)
+    throw new EngineInputError(`No observation on or before ${asOf}, so there is no capital figure`, { date: asOf });
   const start = Math.max(0, end - AVERAGING_DAYS + 1);
   const varScale = scales.varScale ?? 1;
   const svarScale = scales.svarScale ?? 1;
   const warnings: string[] = [];
   const averaged = end - start + 1;
-  if (averaged < AVERAGING_DAYS) warnings.push(`Only ${averaged} observations on or before ${asOf}; the averages use them all.`);
-  const inputs: CapitalInputs = { asOf, previousDate: observations[end].date, averagedObservations: averaged, warnings };
+  if (averaged < AVERAGING_DAYS)
+    warnings.push(`Only ${averaged} observations on or before ${asOf}; the averages use them all.`);
+  const inputs: CapitalInputs = {
+    asOf,
+    previousDate: observations[end].date,
+    averagedObservations: averaged,
+    warnings,
+  };
 
   const note = (what: string, p: Picked): void => {
     if (p.missing > 0) warnings.push(`${what} is missing on ${p.missing} of the ${averaged} averaged days.`);
@@ -123,7 +130,11 @@ export function capitalInputsAt(
 
   if (rules.capitalFormula === "es-ses") {
     const es = pick(observations, start, end, (o) => (o.es975 == null ? null : o.es975 * varScale));
-    if (!es) throw new EngineInputError(`No expected shortfall (es_975) on or before ${asOf}, so there is no FRTB capital figure`, { date: asOf, field: "es975" });
+    if (!es)
+      throw new EngineInputError(
+        `No expected shortfall (es_975) on or before ${asOf}, so there is no FRTB capital figure`,
+        { date: asOf, field: "es975" },
+      );
     note("ES", es);
     const ses = pick(observations, start, end, (o) => (o.ses == null ? null : o.ses * svarScale));
     if (ses) note("SES", ses);
@@ -133,12 +144,31 @@ export function capitalInputsAt(
   }
 
   // CRR Art. 365: 10-day VaR for capital; without var_10d the 1-day figure × √10.
-  const capitalVar = (tenDay: number | null | undefined, oneDay: number | null | undefined, scale: number): number | null =>
-    tenDay != null ? tenDay * scale : oneDay != null ? oneDay * SQRT_10 * scale : null;
-  const v = pick(observations, start, end, (o) => capitalVar(o.var10d, o.var99, varScale), (o) => o.var10d == null);
-  if (!v) throw new EngineInputError(`No VaR on or before ${asOf}, so there is no capital figure`, { date: asOf, field: "var99" });
+  const capitalVar = (
+    tenDay: number | null | undefined,
+    oneDay: number | null | undefined,
+    scale: number,
+  ): number | null => (tenDay != null ? tenDay * scale : oneDay != null ? oneDay * SQRT_10 * scale : null);
+  const v = pick(
+    observations,
+    start,
+    end,
+    (o) => capitalVar(o.var10d, o.var99, varScale),
+    (o) => o.var10d == null,
+  );
+  if (!v)
+    throw new EngineInputError(`No VaR on or before ${asOf}, so there is no capital figure`, {
+      date: asOf,
+      field: "var99",
+    });
   note("VaR", v);
-  const s = pick(observations, start, end, (o) => capitalVar(o.svar10d, o.svar99, svarScale), (o) => o.svar10d == null);
+  const s = pick(
+    observations,
+    start,
+    end,
+    (o) => capitalVar(o.svar10d, o.svar99, svarScale),
+    (o) => o.svar10d == null,
+  );
   if (s) note("Stressed VaR", s);
   else warnings.push("No stressed VaR supplied; the stressed VaR term is taken as 0.");
   Object.assign(inputs, {
@@ -153,7 +183,11 @@ export function capitalInputsAt(
 }
 
 /** The formula of the rule set for a given multiplier. */
-export function requirementFromInputs(inputs: CapitalInputs, rules: RegimeRules, multiplier: number): Omit<CapitalResult, "plusFactor" | "inputs"> {
+export function requirementFromInputs(
+  inputs: CapitalInputs,
+  rules: RegimeRules,
+  multiplier: number,
+): Omit<CapitalResult, "plusFactor" | "inputs"> {
   if (rules.capitalFormula === "es-ses") {
     // MAR33.41: max(IMCC_{t−1} + SES_{t−1}, m_c·IMCC_avg + SES_avg); m_c applies to IMCC only.
     const previous = (inputs.esPrev ?? 0) + (inputs.sesPrev ?? 0);
@@ -161,8 +195,8 @@ export function requirementFromInputs(inputs: CapitalInputs, rules: RegimeRules,
     const averageBinds = average >= previous;
     return {
       requirement: Math.max(previous, average),
-      esTerm: averageBinds ? multiplier * (inputs.esAvg60 ?? 0) : inputs.esPrev ?? 0,
-      sesTerm: averageBinds ? inputs.sesAvg60 ?? 0 : inputs.sesPrev ?? 0,
+      esTerm: averageBinds ? multiplier * (inputs.esAvg60 ?? 0) : (inputs.esPrev ?? 0),
+      sesTerm: averageBinds ? (inputs.sesAvg60 ?? 0) : (inputs.sesPrev ?? 0),
       binding: averageBinds ? "average" : "previous",
       multiplier,
     };
@@ -181,7 +215,10 @@ export function requirementFromInputs(inputs: CapitalInputs, rules: RegimeRules,
 }
 
 function checkCount(count: number): void {
-  if (!Number.isInteger(count) || count < 0) throw new EngineInputError(`The exception count must be a non-negative whole number, got ${count}`, { field: "count" });
+  if (!Number.isInteger(count) || count < 0)
+    throw new EngineInputError(`The exception count must be a non-negative whole number, got ${count}`, {
+      field: "count",
+    });
 }
 
 /** Capital requirement for a count of exceptions (DESIGN.md §4). */
@@ -195,7 +232,12 @@ export function capitalRequirement(observations: readonly Observation[], opts: C
 }
 
 /** The part of the requirement caused by the plus factor: with it − without it; never negative. */
-export function capitalAddOnFromInputs(inputs: CapitalInputs, regime: RegimeId, plusFactor: number, qualitativeAddend = 0): number {
+export function capitalAddOnFromInputs(
+  inputs: CapitalInputs,
+  regime: RegimeId,
+  plusFactor: number,
+  qualitativeAddend = 0,
+): number {
   const rules = getRegime(regime);
   const base = rules.baseMultiplier + qualitativeAddend;
   const withPlus = requirementFromInputs(inputs, rules, base + plusFactor).requirement;
@@ -216,7 +258,15 @@ export function marginalCostOfNextException(observations: readonly Observation[]
   const rules = getRegime(opts.regime);
   const inputs = capitalInputsAt(observations, opts.regime, opts.asOf, opts);
   const base = rules.baseMultiplier + (opts.qualitativeAddend ?? 0);
-  const now = requirementFromInputs(inputs, rules, base + plusFactorFor(opts.count, rules, opts.windowSize)).requirement;
-  const next = requirementFromInputs(inputs, rules, base + plusFactorFor(opts.count + 1, rules, opts.windowSize)).requirement;
+  const now = requirementFromInputs(
+    inputs,
+    rules,
+    base + plusFactorFor(opts.count, rules, opts.windowSize),
+  ).requirement;
+  const next = requirementFromInputs(
+    inputs,
+    rules,
+    base + plusFactorFor(opts.count + 1, rules, opts.windowSize),
+  ).requirement;
   return next - now;
 }

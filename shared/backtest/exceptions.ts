@@ -104,20 +104,29 @@ function runTests(hits: boolean[], p: number): SeriesTests {
   };
 }
 
-function resolveOptions(opts: BacktestOptions): { rules: RegimeRules; basis: PnlBasis; windowSize: number; confidence: number; excluded: Set<string> } {
+function resolveOptions(opts: BacktestOptions): {
+  rules: RegimeRules;
+  basis: PnlBasis;
+  windowSize: number;
+  confidence: number;
+  excluded: Set<string>;
+} {
   const rules = getRegime(opts.regime);
   assertIsoDate(opts.asOf, "asOf");
   const windowSize = opts.windowSize ?? 250;
   const confidence = opts.confidence ?? 0.99;
   if (opts.pnlBasis !== undefined && !["actual", "hypothetical", "max"].includes(opts.pnlBasis)) {
-    throw new EngineInputError(`Unknown P&L basis "${String(opts.pnlBasis)}"; use actual, hypothetical or max`, { field: "pnlBasis" });
+    throw new EngineInputError(`Unknown P&L basis "${String(opts.pnlBasis)}"; use actual, hypothetical or max`, {
+      field: "pnlBasis",
+    });
   }
   return {
     rules,
     basis: opts.pnlBasis ?? rules.defaultPnlBasis,
     windowSize,
     confidence,
-    excluded: opts.excludedDates instanceof Set ? (opts.excludedDates as Set<string>) : new Set(opts.excludedDates ?? []),
+    excluded:
+      opts.excludedDates instanceof Set ? (opts.excludedDates as Set<string>) : new Set(opts.excludedDates ?? []),
   };
 }
 
@@ -234,11 +243,16 @@ export interface RollingRow {
 /** The count, zone and plus factor at every date of the series, in one O(n) pass. */
 export function rollingBacktest(observations: readonly Observation[], opts: RollingOptions): RollingRow[] {
   const windowSize = opts.windowSize ?? 250;
-  if (!Number.isInteger(windowSize) || windowSize < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
+  if (!Number.isInteger(windowSize) || windowSize < 1)
+    throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
   if (opts.from !== undefined) assertIsoDate(opts.from, "from");
   if (opts.to !== undefined) assertIsoDate(opts.to, "to");
   const series = toSeries(observations, opts.confidence ?? 0.99);
-  const result = rollingArrays(series, [{ regime: opts.regime, pnlBasis: opts.pnlBasis, excludedDates: opts.excludedDates }], windowSize);
+  const result = rollingArrays(
+    series,
+    [{ regime: opts.regime, pnlBasis: opts.pnlBasis, excludedDates: opts.excludedDates }],
+    windowSize,
+  );
   const r = result.regimes[0];
   const rows: RollingRow[] = [];
   for (let i = 0; i < series.dates.length; i++) {

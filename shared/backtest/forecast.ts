@@ -102,7 +102,11 @@ function rollOffsOf(observations: readonly Observation[], c: Context, holidays: 
 }
 
 /** For each counted exception inside the current window: the date it leaves, and the count after. */
-export function rollOffs(observations: readonly Observation[], opts: BacktestOptions, holidays: ReadonlySet<string> = new Set()): RollOff[] {
+export function rollOffs(
+  observations: readonly Observation[],
+  opts: BacktestOptions,
+  holidays: ReadonlySet<string> = new Set(),
+): RollOff[] {
   return rollOffsOf(observations, context(observations, opts), holidays);
 }
 
@@ -131,7 +135,10 @@ export interface ForecastResult {
 
 export function forecastAt(observations: readonly Observation[], opts: ForecastOptions): ForecastResult {
   assertIsoDate(opts.date, "date");
-  if (opts.date < opts.asOf) throw new EngineInputError(`The forecast date ${opts.date} is before the as-of date ${opts.asOf}`, { date: opts.date });
+  if (opts.date < opts.asOf)
+    throw new EngineInputError(`The forecast date ${opts.date} is before the as-of date ${opts.asOf}`, {
+      date: opts.date,
+    });
   const holidays = opts.holidays ?? new Set<string>();
   const c = context(observations, opts);
   const last = c.end >= 0 ? observations[c.end].date : opts.asOf;
@@ -139,7 +146,10 @@ export function forecastAt(observations: readonly Observation[], opts: ForecastO
   const newDays = Math.min(h, c.windowSize);
   // The window at D keeps the last (windowSize − h) observations we already have.
   const firstKept = c.end - (c.windowSize - newDays) + 1;
-  const knownRemaining = countOf(c.days.filter((d) => d.index >= firstKept), c.basis);
+  const knownRemaining = countOf(
+    c.days.filter((d) => d.index >= firstKept),
+    c.basis,
+  );
 
   let inputs: CapitalInputs | null = null;
   try {

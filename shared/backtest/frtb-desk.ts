@@ -32,7 +32,14 @@ export interface DeskBacktestResult {
   passes: boolean;
 }
 
-function level(observations: readonly Observation[], from: number, to: number, field: "var99" | "var975", confidence: number, limit: number): DeskLevelResult {
+function level(
+  observations: readonly Observation[],
+  from: number,
+  to: number,
+  field: "var99" | "var975",
+  confidence: number,
+  limit: number,
+): DeskLevelResult {
   let actual = 0;
   let hypothetical = 0;
   let missingDays = 0;

@@ -24,7 +24,8 @@ export interface PlaResult {
 
 /** Spearman rank correlation with average ranks for ties (Pearson correlation of the mid-ranks). */
 export function spearmanCorrelation(x: readonly number[], y: readonly number[]): number {
-  if (x.length !== y.length) throw new EngineInputError(`The two series differ in length (${x.length} and ${y.length})`);
+  if (x.length !== y.length)
+    throw new EngineInputError(`The two series differ in length (${x.length} and ${y.length})`);
   if (x.length < 2) return NaN;
   return sampleRankCorrelation([...x], [...y]);
 }
@@ -63,7 +64,9 @@ export function plaZone(spearman: number, ks: number): PlaZone {
 /** The test over the last 250 pairs (the two arrays are aligned day by day, most recent last). */
 export function plaTest(hpl: readonly number[], rtpl: readonly number[]): PlaResult {
   if (hpl.length !== rtpl.length) {
-    throw new EngineInputError(`HPL has ${hpl.length} days and RTPL ${rtpl.length}; the P&L attribution test needs them day by day`);
+    throw new EngineInputError(
+      `HPL has ${hpl.length} days and RTPL ${rtpl.length}; the P&L attribution test needs them day by day`,
+    );
   }
   for (let i = 0; i < hpl.length; i++) {
     if (!Number.isFinite(hpl[i]) || !Number.isFinite(rtpl[i])) {
@@ -88,5 +91,8 @@ export function deskPla(observations: readonly Observation[], asOf: string): Pla
   const window = observations.slice(Math.max(0, end - PLA_WINDOW + 1), end + 1);
   const paired = window.filter((o) => o.hypotheticalPnl != null && o.rtpl != null);
   if (paired.length < 2) return null;
-  return plaTest(paired.map((o) => o.hypotheticalPnl as number), paired.map((o) => o.rtpl as number));
+  return plaTest(
+    paired.map((o) => o.hypotheticalPnl as number),
+    paired.map((o) => o.rtpl as number),
+  );
 }

@@ -76,7 +76,8 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
     missingCountsAsException: false,
     missingCitation: "no rule; a missing value is a data gap",
     capitalFormula: "var-svar",
-    capitalCitation: "12 CFR 217.204(a)(2)(i): greater of previous day's measure and multiplication factor × 60-day average",
+    capitalCitation:
+      "12 CFR 217.204(a)(2)(i): greater of previous day's measure and multiplication factor × 60-day average",
     middleZoneName: "yellow",
   },
   eu: {
@@ -123,7 +124,8 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
 
 export function getRegime(id: RegimeId): RegimeRules {
   const rules = REGIMES[id];
-  if (!rules) throw new EngineInputError(`Unknown rule set "${String(id)}"; expected one of ${Object.keys(REGIMES).join(", ")}`);
+  if (!rules)
+    throw new EngineInputError(`Unknown rule set "${String(id)}"; expected one of ${Object.keys(REGIMES).join(", ")}`);
   return rules;
 }
 
@@ -159,7 +161,8 @@ export function deriveZoneBoundaries(windowSize: number, confidence = 0.99): { y
 export function zoneBoundariesFor(regime: RegimeId | RegimeRules, windowSize = STANDARD_WINDOW): ZoneBoundaries {
   const rules = resolve(regime);
   if (windowSize === STANDARD_WINDOW) return { ...rules.zoneBoundaries, provisional: false };
-  if (!Number.isInteger(windowSize) || windowSize < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
+  if (!Number.isInteger(windowSize) || windowSize < 1)
+    throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
   const key = String(windowSize);
   let found = derivedBoundaries.get(key);
   if (!found) {

@@ -79,7 +79,9 @@ class Arena {
     this.buffer = new ArrayBuffer(n * (countArrays * (wide ? 4 : 2) + levelArrays * 2));
   }
   counts(): CountArray {
-    const a = this.wide ? new Int32Array(this.buffer, this.offset, this.n) : new Int16Array(this.buffer, this.offset, this.n);
+    const a = this.wide
+      ? new Int32Array(this.buffer, this.offset, this.n)
+      : new Int16Array(this.buffer, this.offset, this.n);
     this.offset += a.byteLength;
     return a;
   }
@@ -107,7 +109,8 @@ function levelTable(regime: RegimeId, w: number): Uint16Array {
     for (let k = 0; k <= w; k++) {
       const pf = plusFactorFor(k, rules, w);
       const hundredths = Math.round(pf * 100);
-      if (hundredths / 100 !== pf || hundredths > 255) throw new Error(`Plus factor ${pf} of ${regime} is not a whole number of hundredths`);
+      if (hundredths / 100 !== pf || hundredths > 255)
+        throw new Error(`Plus factor ${pf} of ${regime} is not a whole number of hundredths`);
       t[k] = (hundredths << 8) | ZONE_CODES.indexOf(zoneFor(k, rules, w));
     }
     const content = t.join(",");
@@ -313,7 +316,11 @@ function writeLookup(counted: CountArray, { table, out }: LookupOutput): void {
  * have identical steps) share one output array, filled in one pass per counted series. The
  * arrays are read-only views and may be shared between entries.
  */
-export function rollingArrays(series: ObservationSeries, requests: readonly RollingRequest[], windowSize = STANDARD_WINDOW): RollingArrays {
+export function rollingArrays(
+  series: ObservationSeries,
+  requests: readonly RollingRequest[],
+  windowSize = STANDARD_WINDOW,
+): RollingArrays {
   const n = series.dates.length;
   const w = windowSize;
   if (!Number.isInteger(w) || w < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${w}`);
@@ -386,7 +393,10 @@ export function rollingArrays(series: ObservationSeries, requests: readonly Roll
       variant = plain!;
       levels = plainLevels.get(plainKey(r))!.out;
     } else {
-      variant = r.kind === "masked" ? countGeneral(series, w, r.rules.missingCountsAsException && series.hasMissing, r.mask) : (withMissing ??= countGeneral(series, w, true, null));
+      variant =
+        r.kind === "masked"
+          ? countGeneral(series, w, r.rules.missingCountsAsException && series.hasMissing, r.mask)
+          : (withMissing ??= countGeneral(series, w, true, null));
       levels = arena.levels();
       writeLookup(countedFor(variant, r.basis, n, w), { table: r.table, out: levels });
     }

@@ -66,7 +66,8 @@ function percent(value: number): string {
 }
 
 function assertCount(name: string, value: number): void {
-  if (!Number.isInteger(value) || value < 0) throw new EngineInputError(`${name} must be a non-negative integer, got ${value}`);
+  if (!Number.isInteger(value) || value < 0)
+    throw new EngineInputError(`${name} must be a non-negative integer, got ${value}`);
 }
 
 /**
@@ -78,7 +79,12 @@ export function kupiecPof(exceptions: number, n: number, p = 0.01): TestOutcome 
   assertCount("n", n);
   if (exceptions > n) throw new EngineInputError(`exceptions (${exceptions}) cannot exceed observations (${n})`);
   if (n === 0) {
-    return { statistic: 0, pValue: 1, reject: false, verdict: "No observations, so the exception rate cannot be tested." };
+    return {
+      statistic: 0,
+      pValue: 1,
+      reject: false,
+      verdict: "No observations, so the exception rate cannot be tested.",
+    };
   }
   const x = exceptions;
   const rate = x / n;
@@ -120,7 +126,12 @@ export function transitionCounts(hits: readonly boolean[]): TransitionCounts {
   return t;
 }
 
-function independenceStatistic(hits: readonly boolean[]): { statistic: number; counts: TransitionCounts; pi01: number; pi11: number } {
+function independenceStatistic(hits: readonly boolean[]): {
+  statistic: number;
+  counts: TransitionCounts;
+  pi01: number;
+  pi11: number;
+} {
   const counts = transitionCounts(hits);
   const { n00, n01, n10, n11 } = counts;
   const total = n00 + n01 + n10 + n11;
@@ -141,13 +152,14 @@ export function christoffersenIndependence(hits: readonly boolean[]): TestOutcom
   const { statistic, pi01, pi11 } = independenceStatistic(hits);
   const pValue = chiSquareOneSf(statistic);
   const reject = pValue < SIGNIFICANCE;
-  const verdict = hits.length < 2
-    ? "Too few days to test whether exceptions cluster."
-    : !reject
-      ? "At the 5% level, there is no evidence that exceptions cluster on consecutive days."
-      : pi11 > pi01
-        ? "At the 5% level, exceptions are not independent: an exception makes another the next day more likely."
-        : "At the 5% level, exceptions are not independent: an exception makes another the next day less likely.";
+  const verdict =
+    hits.length < 2
+      ? "Too few days to test whether exceptions cluster."
+      : !reject
+        ? "At the 5% level, there is no evidence that exceptions cluster on consecutive days."
+        : pi11 > pi01
+          ? "At the 5% level, exceptions are not independent: an exception makes another the next day more likely."
+          : "At the 5% level, exceptions are not independent: an exception makes another the next day less likely.";
   return { statistic, pValue, reject, verdict };
 }
 
@@ -161,10 +173,11 @@ export function conditionalCoverage(hits: readonly boolean[], p = 0.01): TestOut
   const pValue = chiSquareTwoSf(statistic);
   const reject = pValue < SIGNIFICANCE;
   const coverage = percent(1 - p);
-  const verdict = hits.length === 0
-    ? "No observations, so coverage cannot be tested."
-    : !reject
-      ? `At the 5% level, the number and the timing of exceptions are together consistent with ${coverage} coverage.`
-      : `At the 5% level, the number and the timing of exceptions together are not consistent with ${coverage} coverage.`;
+  const verdict =
+    hits.length === 0
+      ? "No observations, so coverage cannot be tested."
+      : !reject
+        ? `At the 5% level, the number and the timing of exceptions are together consistent with ${coverage} coverage.`
+        : `At the 5% level, the number and the timing of exceptions together are not consistent with ${coverage} coverage.`;
   return { statistic, pValue, reject, verdict };
 }

@@ -28,14 +28,26 @@ export interface WhatIfFigures {
 export interface WhatIfResult {
   base: WhatIfFigures;
   scenario: WhatIfFigures;
-  delta: { counted: number; plusFactor: number; multiplier: number; capital: number; addOn: number; zoneChanged: boolean };
+  delta: {
+    counted: number;
+    plusFactor: number;
+    multiplier: number;
+    capital: number;
+    addOn: number;
+    zoneChanged: boolean;
+  };
 }
 
 export function whatIf(observations: readonly Observation[], opts: WhatIfOptions): WhatIfResult {
   const extra = opts.extraExceptions ?? 0;
-  if (!Number.isInteger(extra) || extra < 0) throw new EngineInputError(`extraExceptions must be a non-negative whole number, got ${extra}`);
-  for (const [name, v] of [["varScale", opts.varScale], ["svarScale", opts.svarScale]] as const) {
-    if (v !== undefined && !(Number.isFinite(v) && v >= 0)) throw new EngineInputError(`${name} must be a non-negative number, got ${v}`);
+  if (!Number.isInteger(extra) || extra < 0)
+    throw new EngineInputError(`extraExceptions must be a non-negative whole number, got ${extra}`);
+  for (const [name, v] of [
+    ["varScale", opts.varScale],
+    ["svarScale", opts.svarScale],
+  ] as const) {
+    if (v !== undefined && !(Number.isFinite(v) && v >= 0))
+      throw new EngineInputError(`${name} must be a non-negative number, got ${v}`);
   }
   const rules = getRegime(opts.regime);
   const windowSize = opts.windowSize ?? 250;

@@ -49,24 +49,36 @@ export function validateObservations(observations: readonly Observation[]): void
   for (let i = 0; i < observations.length; i++) {
     const o = observations[i];
     if (!isIsoDate(o.date)) {
-      throw new EngineInputError(`Observation ${i + 1} has date "${String(o.date)}"; use a real date written YYYY-MM-DD`, {
-        date: String(o.date),
+      throw new EngineInputError(
+        `Observation ${i + 1} has date "${String(o.date)}"; use a real date written YYYY-MM-DD`,
+        {
+          date: String(o.date),
+          field: "date",
+        },
+      );
+    }
+    if (o.date === previous) {
+      throw new EngineInputError(`Duplicate observation for ${o.date}: each business date may appear once`, {
+        date: o.date,
         field: "date",
       });
     }
-    if (o.date === previous) {
-      throw new EngineInputError(`Duplicate observation for ${o.date}: each business date may appear once`, { date: o.date, field: "date" });
-    }
     if (o.date < previous) {
-      throw new EngineInputError(`Observations are not in date order: ${o.date} comes after ${previous}`, { date: o.date, field: "date" });
+      throw new EngineInputError(`Observations are not in date order: ${o.date} comes after ${previous}`, {
+        date: o.date,
+        field: "date",
+      });
     }
     for (const field of NUMERIC_FIELDS) {
       const v = o[field];
       if (v !== null && v !== undefined && !(typeof v === "number" && Number.isFinite(v))) {
-        throw new EngineInputError(`Observation for ${o.date} has ${field} = ${String(v)}; expected a finite number or empty`, {
-          date: o.date,
-          field,
-        });
+        throw new EngineInputError(
+          `Observation for ${o.date} has ${field} = ${String(v)}; expected a finite number or empty`,
+          {
+            date: o.date,
+            field,
+          },
+        );
       }
     }
     previous = o.date;
@@ -74,7 +86,8 @@ export function validateObservations(observations: readonly Observation[]): void
 }
 
 export function assertIsoDate(value: string, what: string): void {
-  if (!isIsoDate(value)) throw new EngineInputError(`${what} "${String(value)}" is not a real date written YYYY-MM-DD`, { field: what });
+  if (!isIsoDate(value))
+    throw new EngineInputError(`${what} "${String(value)}" is not a real date written YYYY-MM-DD`, { field: what });
 }
 
 /** Index of the last observation dated on or before `asOf`, or −1 (dates sorted). */
@@ -103,7 +116,8 @@ export interface WindowBounds {
 
 /** DESIGN.md §4: the last `windowSize` observations dated on or before `asOf`. */
 export function windowAt(observations: readonly { date: string }[], asOf: string, windowSize = 250): WindowBounds {
-  if (!Number.isInteger(windowSize) || windowSize < 1) throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
+  if (!Number.isInteger(windowSize) || windowSize < 1)
+    throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);
   const endIndex = lastIndexOnOrBefore(observations, asOf);
   const startIndex = Math.max(0, endIndex - windowSize + 1);
   const count = endIndex < 0 ? 0 : endIndex - startIndex + 1;
@@ -114,7 +128,9 @@ export function windowAt(observations: readonly { date: string }[], asOf: string
 export function varFieldFor(confidence: number): "var99" | "var975" {
   if (confidence === 0.99) return "var99";
   if (confidence === 0.975) return "var975";
-  throw new EngineInputError(`Confidence ${confidence} is not supported; use 0.99 (var_99) or 0.975 (var_975)`, { field: "confidence" });
+  throw new EngineInputError(`Confidence ${confidence} is not supported; use 0.99 (var_99) or 0.975 (var_975)`, {
+    field: "confidence",
+  });
 }
 
 /**
@@ -159,7 +175,10 @@ export function toSeries(observations: readonly Observation[], confidence = 0.99
  * last date that has no row at all. Under FRTB such a day counts as an exception like any day with
  * P&L or VaR missing (MAR32.5(2)); the caller applies it where the rule set says so.
  */
-export function withMissingBusinessDays(observations: readonly Observation[], holidays: ReadonlySet<string>): Observation[] {
+export function withMissingBusinessDays(
+  observations: readonly Observation[],
+  holidays: ReadonlySet<string>,
+): Observation[] {
   if (observations.length < 2) return [...observations];
   const out: Observation[] = [];
   let previous = dayNumber(observations[0].date);

@@ -49,7 +49,10 @@ const span = (a: string, b: string) => (a === b ? a : `${a} to ${b}`);
  * Data-quality checks on one portfolio's current daily series (sorted by date): missing
  * business days, stale VaR, P&L without VaR or VaR without P&L, and outliers.
  */
-export function findDataQualityIssues(series: readonly QualityInput[], holidays: ReadonlySet<string>): QualityFinding[] {
+export function findDataQualityIssues(
+  series: readonly QualityInput[],
+  holidays: ReadonlySet<string>,
+): QualityFinding[] {
   const findings: QualityFinding[] = [];
   if (series.length === 0) return findings;
 
@@ -64,7 +67,12 @@ export function findDataQualityIssues(series: readonly QualityInput[], holidays:
   for (const [a, b] of runs(missing, holidayDays)) {
     const from = fromDayNumber(a);
     const to = fromDayNumber(b);
-    findings.push({ kind: "missing_day", from, to, detail: `No data for business day${a === b ? "" : "s"} ${span(from, to)}` });
+    findings.push({
+      kind: "missing_day",
+      from,
+      to,
+      detail: `No data for business day${a === b ? "" : "s"} ${span(from, to)}`,
+    });
   }
 
   // VaR unchanged for STALE_VAR_DAYS observations or more.
@@ -76,7 +84,12 @@ export function findDataQualityIssues(series: readonly QualityInput[], holidays:
     if (length >= STALE_VAR_DAYS && series[runStart].var99 !== null) {
       const from = series[runStart].date;
       const to = series[i - 1].date;
-      findings.push({ kind: "stale_var", from, to, detail: `VaR unchanged at ${series[runStart].var99} for ${length} days (${span(from, to)})` });
+      findings.push({
+        kind: "stale_var",
+        from,
+        to,
+        detail: `VaR unchanged at ${series[runStart].var99} for ${length} days (${span(from, to)})`,
+      });
     }
     runStart = i;
   }
@@ -88,11 +101,18 @@ export function findDataQualityIssues(series: readonly QualityInput[], holidays:
     }
   };
   perDay("pnl_without_var", (o) =>
-    o.var99 === null && (o.actualPnl !== null || o.hypotheticalPnl !== null) ? `P&L reported without VaR on ${o.date}` : null,
+    o.var99 === null && (o.actualPnl !== null || o.hypotheticalPnl !== null)
+      ? `P&L reported without VaR on ${o.date}`
+      : null,
   );
   perDay("var_without_pnl", (o) => {
     if (o.var99 === null || (o.actualPnl !== null && o.hypotheticalPnl !== null)) return null;
-    const missingSeries = o.actualPnl === null && o.hypotheticalPnl === null ? "actual and hypothetical" : o.actualPnl === null ? "actual" : "hypothetical";
+    const missingSeries =
+      o.actualPnl === null && o.hypotheticalPnl === null
+        ? "actual and hypothetical"
+        : o.actualPnl === null
+          ? "actual"
+          : "hypothetical";
     return `VaR reported without ${missingSeries} P&L on ${o.date}`;
   });
   perDay("outlier", (o) => {

@@ -54,7 +54,11 @@ const AMOUNTS: ReadonlySet<string> = new Set(AMOUNT_COLUMNS);
  * cells and a split is exact (and several times faster); otherwise papaparse handles quoting.
  */
 export function splitCsv(text: string): { data: string[][]; errors: Papa.ParseError[] } {
-  if (!text.includes('"')) return { data: (text.includes("\r") ? text.split(/\r\n|\n|\r/) : text.split("\n")).map((l) => l.split(",")), errors: [] };
+  if (!text.includes('"'))
+    return {
+      data: (text.includes("\r") ? text.split(/\r\n|\n|\r/) : text.split("\n")).map((l) => l.split(",")),
+      errors: [],
+    };
   const parsed = Papa.parse<string[]>(text, { header: false, delimiter: ",", skipEmptyLines: false });
   return { data: parsed.data, errors: parsed.errors };
 }
@@ -81,9 +85,13 @@ function newRow(line: number, portfolio: string, date: string): ParsedRow {
 /** Why a cell failed its pattern, in words a person can act on. */
 function describeCell(column: string, raw: string): string {
   const s = raw.trim();
-  if (column === "portfolio") return s === "" ? "portfolio is empty" : `"${s.slice(0, 40)}" is not a portfolio code (letters, digits, - and _; at most 40)`;
+  if (column === "portfolio")
+    return s === ""
+      ? "portfolio is empty"
+      : `"${s.slice(0, 40)}" is not a portfolio code (letters, digits, - and _; at most 40)`;
   if (column === "date") return s === "" ? "date is empty" : `"${s.slice(0, 20)}" is not a date written YYYY-MM-DD`;
-  if (/^-?[\d,]+(\.\d+)?$/.test(s) && s.includes(",")) return `"${s}" uses a thousands separator; write it without commas`;
+  if (/^-?[\d,]+(\.\d+)?$/.test(s) && s.includes(","))
+    return `"${s}" uses a thousands separator; write it without commas`;
   if (/^-?(nan|inf(inity)?)$/i.test(s)) return `"${s}" is not a number`;
   if (/e/i.test(s) && !Number.isNaN(Number(s))) return `"${s}" is written with an exponent; write the plain amount`;
   if (/^\s|\s$/.test(raw) && AMOUNT_PATTERN.test(s)) return `"${raw}" has spaces around the amount`;
@@ -112,14 +120,19 @@ function checkHeader(header: string[]): CsvColumn[] {
   columns.forEach((name, i) => {
     const column = name || `column ${i + 1}`;
     if (!KNOWN.has(name)) {
-      errors.push({ line: 1, column, message: `Unknown column "${header[i].trim().slice(0, 40)}". Allowed: ${ALL_COLUMNS.join(", ")}` });
+      errors.push({
+        line: 1,
+        column,
+        message: `Unknown column "${header[i].trim().slice(0, 40)}". Allowed: ${ALL_COLUMNS.join(", ")}`,
+      });
     } else if (seen.has(name)) {
       errors.push({ line: 1, column, message: `Column "${name}" appears twice` });
     }
     seen.add(name);
   });
   for (const required of REQUIRED_COLUMNS) {
-    if (!seen.has(required)) errors.push({ line: 1, column: required, message: `Required column "${required}" is missing` });
+    if (!seen.has(required))
+      errors.push({ line: 1, column: required, message: `Required column "${required}" is missing` });
   }
   if (errors.length) throw new CsvFileError("The header row is not valid: nothing in the file was read.", errors);
   return columns as CsvColumn[];
@@ -138,22 +151,54 @@ const KIND_NOT_NEGATIVE = 3;
  * Sets an amount by its index in AMOUNT_COLUMNS with a named store each: one shape of row, and
  * no store keyed by a column name that changes from cell to cell (which V8 makes slow).
  */
-const SET_AMOUNT_ORDER = ["actual_pnl", "hypothetical_pnl", "var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses", "rtpl"];
+const SET_AMOUNT_ORDER = [
+  "actual_pnl",
+  "hypothetical_pnl",
+  "var_99",
+  "var_975",
+  "svar_99",
+  "var_10d",
+  "svar_10d",
+  "es_975",
+  "ses",
+  "rtpl",
+];
 if (SET_AMOUNT_ORDER.join() !== AMOUNT_COLUMNS.join()) throw new Error("setAmount() must follow AMOUNT_COLUMNS");
 
 function setAmount(row: ParsedRow, index: number, value: number): void {
   switch (index) {
-    case 0: row.actual_pnl = value; break;
-    case 1: row.hypothetical_pnl = value; break;
-    case 2: row.var_99 = value; break;
-    case 3: row.var_975 = value; break;
-    case 4: row.svar_99 = value; break;
-    case 5: row.var_10d = value; break;
-    case 6: row.svar_10d = value; break;
-    case 7: row.es_975 = value; break;
-    case 8: row.ses = value; break;
-    case 9: row.rtpl = value; break;
-    default: throw new Error(`no amount column ${index}`);
+    case 0:
+      row.actual_pnl = value;
+      break;
+    case 1:
+      row.hypothetical_pnl = value;
+      break;
+    case 2:
+      row.var_99 = value;
+      break;
+    case 3:
+      row.var_975 = value;
+      break;
+    case 4:
+      row.svar_99 = value;
+      break;
+    case 5:
+      row.var_10d = value;
+      break;
+    case 6:
+      row.svar_10d = value;
+      break;
+    case 7:
+      row.es_975 = value;
+      break;
+    case 8:
+      row.ses = value;
+      break;
+    case 9:
+      row.rtpl = value;
+      break;
+    default:
+      throw new Error(`no amount column ${index}`);
   }
 }
 const MINUS = 45;
@@ -205,7 +250,13 @@ class LineChecks {
     this.dateAt = columns.indexOf("date");
     this.scratch = new Float64Array(columns.length);
     this.kindAt = Uint8Array.from(columns, (c) =>
-      !AMOUNTS.has(c) ? KIND_TEXT : POSITIVE_COLUMNS.has(c as AmountColumn) ? KIND_POSITIVE : c === "ses" ? KIND_NOT_NEGATIVE : KIND_SIGNED,
+      !AMOUNTS.has(c)
+        ? KIND_TEXT
+        : POSITIVE_COLUMNS.has(c as AmountColumn)
+          ? KIND_POSITIVE
+          : c === "ses"
+            ? KIND_NOT_NEGATIVE
+            : KIND_SIGNED,
     );
     this.amountIndexAt = Int8Array.from(columns, (c) => AMOUNT_COLUMNS.indexOf(c as AmountColumn));
   }
@@ -239,7 +290,13 @@ class LineChecks {
         const column = String(issue.path[0] ?? "—");
         if (seenColumns.has(column)) continue;
         seenColumns.add(column);
-        this.fail(line, column, AMOUNTS.has(column) || column === "portfolio" || column === "date" ? describeCell(column, record[column] ?? "") : issue.message);
+        this.fail(
+          line,
+          column,
+          AMOUNTS.has(column) || column === "portfolio" || column === "date"
+            ? describeCell(column, record[column] ?? "")
+            : issue.message,
+        );
       }
       return;
     }
@@ -288,14 +345,19 @@ class LineChecks {
       if (kind !== KIND_TEXT) {
         const value = plainAmount(text, at, stop);
         if (value === undefined) return false;
-        if ((kind === KIND_POSITIVE && !(value > 0) && !Number.isNaN(value)) || (kind === KIND_NOT_NEGATIVE && value < 0)) return false;
+        if (
+          (kind === KIND_POSITIVE && !(value > 0) && !Number.isNaN(value)) ||
+          (kind === KIND_NOT_NEGATIVE && value < 0)
+        )
+          return false;
         scratch[c] = value;
       } else if (c === this.portfolioAt) {
         const length = stop - at;
         const lead = text.charCodeAt(at);
         if (length < 1 || length > 40 || !(isDigit(lead) || isLetter(lead))) return false;
         for (let i = at + 1; i < stop; i++) if (!isCodeChar(text.charCodeAt(i))) return false;
-        if (this.lastCell === undefined || this.lastCell.length !== length || !text.startsWith(this.lastCell, at)) this.usePortfolio(text.slice(at, stop));
+        if (this.lastCell === undefined || this.lastCell.length !== length || !text.startsWith(this.lastCell, at))
+          this.usePortfolio(text.slice(at, stop));
       } else {
         day = plainDay(text, at, stop);
         if (day === undefined) return false;
@@ -432,7 +494,8 @@ function plainAmount(text: string, start: number, end: number): number | undefin
 
 /** A plain YYYY-MM-DD cell read in place: its day number, or undefined (not plain, or no such date). */
 function plainDay(text: string, start: number, end: number): number | undefined {
-  if (end - start !== 10 || text.charCodeAt(start + 4) !== MINUS || text.charCodeAt(start + 7) !== MINUS) return undefined;
+  if (end - start !== 10 || text.charCodeAt(start + 4) !== MINUS || text.charCodeAt(start + 7) !== MINUS)
+    return undefined;
   let y = 0;
   let m = 0;
   let d = 0;
@@ -474,7 +537,8 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData, options
   for (const e of parsed.errors) {
     if (e.code === "UndetectableDelimiter") continue;
     const line = (e.row ?? 0) + 1;
-    if (e.code === "MissingQuotes") checks.fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
+    if (e.code === "MissingQuotes")
+      checks.fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
     else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") checks.fail(line, "—", e.message);
   }
   const structural = new Set(checks.invalidLines);
@@ -568,7 +632,8 @@ class PlainLines {
     const first = text.charCodeAt(start);
     if (start === end || ((first === 32 || first === 9) && isBlank(text.slice(start, end)))) return; // blank line
     this.totalRows++;
-    if (this.options.plainLines === false || !this.checks.plainLine(text, start, end, this.line)) this.checks.cells(text.slice(start, end).split(","), this.line);
+    if (this.options.plainLines === false || !this.checks.plainLine(text, start, end, this.line))
+      this.checks.cells(text.slice(start, end).split(","), this.line);
   }
 
   result(): ParsedCsv {
@@ -630,14 +695,20 @@ export class CsvByteStream {
         this.lines.unreadable = true;
       }
     }
-    return this.lines.complete ? this.lines.result() : parseObservationCsv(decodeCsvBytes(bytes), this.ref, this.options);
+    return this.lines.complete
+      ? this.lines.result()
+      : parseObservationCsv(decodeCsvBytes(bytes), this.ref, this.options);
   }
 }
 
 /** Writes rows back as CSV in the template's column order (used by the template and by tests). */
-export function serialiseObservationCsv(rows: Partial<Record<CsvColumn, string | number | null>>[], columns: readonly CsvColumn[] = ALL_COLUMNS): string {
+export function serialiseObservationCsv(
+  rows: Partial<Record<CsvColumn, string | number | null>>[],
+  columns: readonly CsvColumn[] = ALL_COLUMNS,
+): string {
   const lines = [columns.join(",")];
-  for (const r of rows) lines.push(columns.map((c) => (r[c] === null || r[c] === undefined ? "" : String(r[c]))).join(","));
+  for (const r of rows)
+    lines.push(columns.map((c) => (r[c] === null || r[c] === undefined ? "" : String(r[c]))).join(","));
   return `${lines.join("\n")}\n`;
 }
 
@@ -655,9 +726,14 @@ export function recheckReferenceData(rows: readonly ParsedRow[], ref: CsvReferen
       lastCode = row.portfolio;
       portfolio = ref.portfolios.get(row.portfolio);
     }
-    if (!portfolio) errors.push({ line: row.line, column: "portfolio", message: `Portfolio "${row.portfolio}" no longer exists` });
+    if (!portfolio)
+      errors.push({ line: row.line, column: "portfolio", message: `Portfolio "${row.portfolio}" no longer exists` });
     else if (portfolio.holidays.size && portfolio.holidays.has(row.date)) {
-      errors.push({ line: row.line, column: "date", message: `${row.date} has since become a holiday in the ${portfolio.entityCode} calendar` });
+      errors.push({
+        line: row.line,
+        column: "date",
+        message: `${row.date} has since become a holiday in the ${portfolio.entityCode} calendar`,
+      });
     }
   }
   return errors;

@@ -38,7 +38,12 @@ export type CreateUserBody = z.infer<typeof createUserBodySchema>;
 const userVersionSchema = z.number().int().positive("Send the user's version as you read it");
 
 export const updateUserBodySchema = z
-  .strictObject({ name: plainNameSchema.optional(), role: roleSchema.optional(), disabled: z.boolean().optional(), version: userVersionSchema })
+  .strictObject({
+    name: plainNameSchema.optional(),
+    role: roleSchema.optional(),
+    disabled: z.boolean().optional(),
+    version: userVersionSchema,
+  })
   .refine((b) => Object.keys(b).some((k) => k !== "version"), "Nothing to change");
 export type UpdateUserBody = z.infer<typeof updateUserBodySchema>;
 

@@ -52,7 +52,10 @@ export type CreateApiTokenBody = z.input<typeof createApiTokenBodySchema>;
 export const apiTokenIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
 
 /** What a token's status is at `now`: revoked wins over expired. */
-export function apiTokenStatusAt(token: { expiresAt: string; revokedAt: string | null }, now = new Date()): ApiTokenStatus {
+export function apiTokenStatusAt(
+  token: { expiresAt: string; revokedAt: string | null },
+  now = new Date(),
+): ApiTokenStatus {
   if (token.revokedAt) return "revoked";
   return new Date(token.expiresAt).getTime() <= now.getTime() ? "expired" : "active";
 }

@@ -5,7 +5,10 @@ import { roleSchema } from "./common";
 export const passwordSchema = z
   .string()
   .min(1, "Enter a password")
-  .refine((s) => new TextEncoder().encode(s).length <= 72, "Passwords are limited to 72 bytes (bcrypt ignores anything longer)");
+  .refine(
+    (s) => new TextEncoder().encode(s).length <= 72,
+    "Passwords are limited to 72 bytes (bcrypt ignores anything longer)",
+  );
 
 /** Rules for a new password set by an admin. */
 export const newPasswordSchema = passwordSchema.refine((s) => s.length >= 12, "At least 12 characters");

@@ -1,7 +1,14 @@
 import { z } from "zod";
 import { isoDateSchema, pnlBasisSchema, regimeSchema } from "./common";
 
-export const exceptionCauseSchema = z.enum(["market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"]);
+export const exceptionCauseSchema = z.enum([
+  "market_move",
+  "model_limitation",
+  "data_issue",
+  "intraday_trading",
+  "pricing",
+  "other",
+]);
 export type ExceptionCause = z.infer<typeof exceptionCauseSchema>;
 export const exclusionStatusSchema = z.enum(["none", "requested", "approved", "rejected"]);
 export type ExclusionStatus = z.infer<typeof exclusionStatusSchema>;
@@ -11,14 +18,23 @@ export const zoneSchema = z.enum(["green", "yellow", "red"]);
 export const backtestQuerySchema = z.object({ asOf: isoDateSchema.optional() });
 export const rollingQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
 export const exceptionParamSchema = z.object({
-  code: z.string().trim().min(1).max(40).transform((s) => s.toUpperCase()),
+  code: z
+    .string()
+    .trim()
+    .min(1)
+    .max(40)
+    .transform((s) => s.toUpperCase()),
   date: isoDateSchema,
 });
 
 /** The analyst's review of one exception; `version` is the one they saw (0 or absent for a first review). */
 export const reviewBodySchema = z.strictObject({
   cause: exceptionCauseSchema,
-  narrative: z.string().trim().min(10, "Explain the exception in at least a sentence (10 characters or more)").max(4000),
+  narrative: z
+    .string()
+    .trim()
+    .min(10, "Explain the exception in at least a sentence (10 characters or more)")
+    .max(4000),
   exclusion: z.boolean(),
   version: z.number().int().min(0).optional(),
 });
@@ -60,8 +76,17 @@ export const reviewSchema = z.object({
 });
 export type Review = z.infer<typeof reviewSchema>;
 
-const testOutcomeSchema = z.object({ statistic: z.number(), pValue: z.number(), reject: z.boolean(), verdict: z.string() });
-const seriesTestsSchema = z.object({ kupiec: testOutcomeSchema, independence: testOutcomeSchema, conditionalCoverage: testOutcomeSchema });
+const testOutcomeSchema = z.object({
+  statistic: z.number(),
+  pValue: z.number(),
+  reject: z.boolean(),
+  verdict: z.string(),
+});
+const seriesTestsSchema = z.object({
+  kupiec: testOutcomeSchema,
+  independence: testOutcomeSchema,
+  conditionalCoverage: testOutcomeSchema,
+});
 
 export const exceptionDaySchema = z.object({
   date: z.string(),
@@ -93,12 +118,36 @@ export const deskResultSchema = z.object({
   portfolio: z.string(),
   name: z.string(),
   backtest: z.object({
-    window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int(), complete: z.boolean() }),
-    at99: z.object({ actual: z.number().int(), hypothetical: z.number().int(), count: z.number().int(), limit: z.number().int(), fails: z.boolean() }),
-    at975: z.object({ actual: z.number().int(), hypothetical: z.number().int(), count: z.number().int(), limit: z.number().int(), fails: z.boolean() }),
+    window: z.object({
+      start: z.string().nullable(),
+      end: z.string().nullable(),
+      observations: z.number().int(),
+      complete: z.boolean(),
+    }),
+    at99: z.object({
+      actual: z.number().int(),
+      hypothetical: z.number().int(),
+      count: z.number().int(),
+      limit: z.number().int(),
+      fails: z.boolean(),
+    }),
+    at975: z.object({
+      actual: z.number().int(),
+      hypothetical: z.number().int(),
+      count: z.number().int(),
+      limit: z.number().int(),
+      fails: z.boolean(),
+    }),
     passes: z.boolean(),
   }),
-  pla: z.object({ spearman: z.number(), ks: z.number(), zone: z.enum(["green", "amber", "red"]), observations: z.number().int() }).nullable(),
+  pla: z
+    .object({
+      spearman: z.number(),
+      ks: z.number(),
+      zone: z.enum(["green", "amber", "red"]),
+      observations: z.number().int(),
+    })
+    .nullable(),
   plaUnavailable: z.string().nullable(),
 });
 export type DeskResult = z.infer<typeof deskResultSchema>;
@@ -110,8 +159,18 @@ export const backtestResponseSchema = z.object({
   pnlBasis: pnlBasisSchema,
   asOf: z.string(),
   latestDate: z.string(),
-  window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int(), complete: z.boolean() }),
-  exceptions: z.object({ actual: z.number().int(), hypothetical: z.number().int(), counted: z.number().int(), excluded: z.number().int() }),
+  window: z.object({
+    start: z.string().nullable(),
+    end: z.string().nullable(),
+    observations: z.number().int(),
+    complete: z.boolean(),
+  }),
+  exceptions: z.object({
+    actual: z.number().int(),
+    hypothetical: z.number().int(),
+    counted: z.number().int(),
+    excluded: z.number().int(),
+  }),
   zone: zoneSchema,
   zoneLabel: z.string(),
   plusFactor: z.number(),
@@ -159,7 +218,13 @@ export const overviewItemSchema = z.object({
   openReviews: z.number().int(),
   openFindings: z.number().int(),
   /** The entity's newest quarter snapshot and where it stands in the sign-off, if any. */
-  quarterClose: z.object({ snapshotId: z.number().int(), quarterEnd: z.string(), status: z.enum(["draft", "submitted", "approved", "returned", "filed"]) }).nullable(),
+  quarterClose: z
+    .object({
+      snapshotId: z.number().int(),
+      quarterEnd: z.string(),
+      status: z.enum(["draft", "submitted", "approved", "returned", "filed"]),
+    })
+    .nullable(),
 });
 export type OverviewItem = z.infer<typeof overviewItemSchema>;
 export const overviewResponseSchema = z.array(overviewItemSchema);

@@ -29,7 +29,12 @@ export const forecastResponseSchema = z.object({
   /** P(counted = k at `date`), each new day an exception with probability 1 − confidence. */
   distribution: z.array(z.object({ exceptions: z.number().int(), probability: z.number() })),
   zones: z.object({ green: z.number(), yellow: z.number(), red: z.number() }),
-  ifNoNewException: z.object({ counted: z.number().int(), zone: zoneSchema, plusFactor: z.number(), addOn: z.number().nullable() }),
+  ifNoNewException: z.object({
+    counted: z.number().int(),
+    zone: zoneSchema,
+    plusFactor: z.number(),
+    addOn: z.number().nullable(),
+  }),
   /** Σ P(k) × add-on(k) with today's VaR and stressed VaR; null without capital inputs. */
   expectedAddOn: z.number().nullable(),
   /** What one more exception today would add to the capital requirement; null without capital inputs. */
@@ -51,7 +56,12 @@ export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
 export const whatIfBodySchema = z
   .object({
     asOf: isoDateSchema.optional(),
-    extraExceptions: z.number().int("A whole number of exceptions").min(0, "Zero or more").max(250, "At most the 250 days of the window").default(0),
+    extraExceptions: z
+      .number()
+      .int("A whole number of exceptions")
+      .min(0, "Zero or more")
+      .max(250, "At most the 250 days of the window")
+      .default(0),
     varScale: z.number().min(0, "Zero or more").max(10, "At most 10 ×").default(1),
     svarScale: z.number().min(0, "Zero or more").max(10, "At most 10 ×").default(1),
   })
@@ -74,6 +84,13 @@ export const whatIfResponseSchema = z.object({
   asOf: z.string(),
   base: whatIfFiguresSchema,
   scenario: whatIfFiguresSchema,
-  delta: z.object({ counted: z.number().int(), plusFactor: z.number(), multiplier: z.number(), capital: z.number(), addOn: z.number(), zoneChanged: z.boolean() }),
+  delta: z.object({
+    counted: z.number().int(),
+    plusFactor: z.number(),
+    multiplier: z.number(),
+    capital: z.number(),
+    addOn: z.number(),
+    zoneChanged: z.boolean(),
+  }),
 });
 export type WhatIfResponse = z.infer<typeof whatIfResponseSchema>;

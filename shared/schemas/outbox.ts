@@ -52,7 +52,10 @@ export const unreadableOutboxMessageSchema = storedFileSchema.extend({
   problem: z.string(),
 });
 
-export const outboxMessageSchema = z.discriminatedUnion("readable", [readableOutboxMessageSchema, unreadableOutboxMessageSchema]);
+export const outboxMessageSchema = z.discriminatedUnion("readable", [
+  readableOutboxMessageSchema,
+  unreadableOutboxMessageSchema,
+]);
 export type OutboxMessage = z.infer<typeof outboxMessageSchema>;
 export type ReadableOutboxMessage = z.infer<typeof readableOutboxMessageSchema>;
 

@@ -55,9 +55,7 @@ export function quarterLabel(quarterEnd: string): string {
   return `Q${Math.ceil(Number(quarterEnd.slice(5, 7)) / 3)} ${quarterEnd.slice(0, 4)}`;
 }
 
-export const createSnapshotSchema = z
-  .object({ entity: entityCodeSchema, quarterEnd: quarterEndSchema })
-  .strict();
+export const createSnapshotSchema = z.object({ entity: entityCodeSchema, quarterEnd: quarterEndSchema }).strict();
 export type CreateSnapshotBody = z.infer<typeof createSnapshotSchema>;
 
 /** submit / approve: an optional comment; `version` (the row version the client read) guards against a stale screen. */
@@ -68,7 +66,10 @@ export type SnapshotActionBody = z.infer<typeof snapshotActionSchema>;
 
 /** return: the reviewer must say why. */
 export const returnSnapshotSchema = z
-  .object({ comment: z.string().trim().min(1, "Say why the snapshot goes back").max(2000), version: z.number().int().positive().optional() })
+  .object({
+    comment: z.string().trim().min(1, "Say why the snapshot goes back").max(2000),
+    version: z.number().int().positive().optional(),
+  })
   .strict();
 export type ReturnSnapshotBody = z.infer<typeof returnSnapshotSchema>;
 
@@ -93,8 +94,18 @@ export const snapshotFiguresSchema = z.object({
   currency: z.string(),
   /** The last day with data on or before the quarter end. */
   asOf: z.string(),
-  window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int(), complete: z.boolean() }),
-  exceptions: z.object({ actual: z.number().int(), hypothetical: z.number().int(), counted: z.number().int(), excluded: z.number().int() }),
+  window: z.object({
+    start: z.string().nullable(),
+    end: z.string().nullable(),
+    observations: z.number().int(),
+    complete: z.boolean(),
+  }),
+  exceptions: z.object({
+    actual: z.number().int(),
+    hypothetical: z.number().int(),
+    counted: z.number().int(),
+    excluded: z.number().int(),
+  }),
   exceptionDates: z.array(z.string()),
   zone: zoneSchema,
   zoneLabel: z.string(),
@@ -164,7 +175,16 @@ export type SnapshotVerify = z.infer<typeof snapshotVerifySchema>;
 
 /** GET /api/entities/:code/capital/history: the entity's quarters as their snapshots hold them, oldest first. */
 export const capitalHistoryItemSchema = snapshotSchema
-  .pick({ quarterEnd: true, status: true, zone: true, counted: true, plusFactor: true, multiplier: true, capital: true, addOn: true })
+  .pick({
+    quarterEnd: true,
+    status: true,
+    zone: true,
+    counted: true,
+    plusFactor: true,
+    multiplier: true,
+    capital: true,
+    addOn: true,
+  })
   .extend({
     snapshotId: z.number().int(),
     restatedAfterSignOff: z.boolean(),

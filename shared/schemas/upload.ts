@@ -14,7 +14,14 @@ export const UPLOAD_MAX_BYTES = 16 * 1024 * 1024;
 export const UPLOAD_MAX_LABEL = "16 MB";
 
 /** Risk measures must be positive; P&L may have any sign; SES may be zero. */
-export const POSITIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set(["var_99", "var_975", "svar_99", "var_10d", "svar_10d", "es_975"]);
+export const POSITIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set([
+  "var_99",
+  "var_975",
+  "svar_99",
+  "var_10d",
+  "svar_10d",
+  "es_975",
+]);
 
 /**
  * A plain decimal with a dot and an optional minus (no exponent, no thousands separator, no NaN),
@@ -42,7 +49,10 @@ const amountCell = z.string().regex(AMOUNT_PATTERN, "not a plain decimal amount"
 export const observationCellsSchema = z.object({
   portfolio: z.string().regex(PORTFOLIO_CELL_PATTERN, "not a portfolio code"),
   date: z.string().regex(DATE_CELL_PATTERN, "not a date written YYYY-MM-DD"),
-  ...(Object.fromEntries(AMOUNT_COLUMNS.map((c) => [c, amountCell.optional()])) as Record<AmountColumn, z.ZodOptional<typeof amountCell>>),
+  ...(Object.fromEntries(AMOUNT_COLUMNS.map((c) => [c, amountCell.optional()])) as Record<
+    AmountColumn,
+    z.ZodOptional<typeof amountCell>
+  >),
 });
 
 /** A row once parsed: amounts in currency units rounded to the cent (DECIMAL(20,2)); empty cells are null. */
@@ -96,14 +106,21 @@ export type CommitResult = z.infer<typeof commitResultSchema>;
 export const uploadRowsQuerySchema = z.object({
   offset: z.coerce.number().int().min(0).default(0),
   limit: z.coerce.number().int().min(1).max(500).default(100),
-  invalidOnly: z.enum(["true", "false"]).default("false").transform((s) => s === "true"),
+  invalidOnly: z
+    .enum(["true", "false"])
+    .default("false")
+    .transform((s) => s === "true"),
 });
 export const uploadRowSchema = z.object({
   line: z.number().int(),
   cells: z.record(z.string(), z.string()),
   errors: z.array(rowErrorSchema),
 });
-export const uploadRowsPageSchema = z.object({ columns: z.array(z.string()), rows: z.array(uploadRowSchema), total: z.number().int() });
+export const uploadRowsPageSchema = z.object({
+  columns: z.array(z.string()),
+  rows: z.array(uploadRowSchema),
+  total: z.number().int(),
+});
 export type UploadRowsPage = z.infer<typeof uploadRowsPageSchema>;
 
 export const uploadIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
@@ -126,7 +143,14 @@ export const observationSchema = z.object({
 });
 export type ObservationDto = z.infer<typeof observationSchema>;
 export const observationListSchema = z.array(observationSchema);
-export const portfolioCodeParamSchema = z.object({ code: z.string().trim().min(1).max(40).transform((s) => s.toUpperCase()) });
+export const portfolioCodeParamSchema = z.object({
+  code: z
+    .string()
+    .trim()
+    .min(1)
+    .max(40)
+    .transform((s) => s.toUpperCase()),
+});
 
 // ---- data-quality findings ----
 export const findingKindSchema = z.enum(["missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"]);

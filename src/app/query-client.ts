@@ -12,7 +12,9 @@ export function createQueryClient(): QueryClient {
   };
   const queryClient: QueryClient = new QueryClient({
     queryCache: new QueryCache({ onError: (error, query) => isAuth(query.queryKey) || onError(error) }),
-    mutationCache: new MutationCache({ onError: (error, _vars, _ctx, mutation) => isAuth(mutation.options.mutationKey) || onError(error) }),
+    mutationCache: new MutationCache({
+      onError: (error, _vars, _ctx, mutation) => isAuth(mutation.options.mutationKey) || onError(error),
+    }),
     defaultOptions: {
       queries: {
         staleTime: 30_000,

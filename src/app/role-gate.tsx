@@ -18,8 +18,8 @@ export function NotAvailable({ role }: { role?: Role }) {
     <section aria-labelledby="not-available-title" className="max-w-xl py-8">
       <h1 id="not-available-title">Not available for your role</h1>
       <p className="mt-2 text-sm text-ink-soft">
-        {role ? `Signed in as ${roleLabels[role]}, you cannot open this page.` : "You cannot open this page."} If your work
-        needs it, ask an administrator to review your role.
+        {role ? `Signed in as ${roleLabels[role]}, you cannot open this page.` : "You cannot open this page."} If your
+        work needs it, ask an administrator to review your role.
       </p>
       <p className="mt-4 text-sm">
         <Link to={paths.overview.href()}>Go to the overview</Link>

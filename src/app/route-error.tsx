@@ -5,17 +5,25 @@ import { Button } from "@/components/ui/button";
 
 function describe(error: unknown): { title: string; body: string; signIn?: boolean } {
   if (isRouteErrorResponse(error)) {
-    if (error.status === 404) return { title: "Not found", body: typeof error.data === "string" ? error.data : "Nothing exists at this address." };
+    if (error.status === 404)
+      return {
+        title: "Not found",
+        body: typeof error.data === "string" ? error.data : "Nothing exists at this address.",
+      };
     return { title: `Error ${error.status}`, body: typeof error.data === "string" ? error.data : error.statusText };
   }
   if (isApiError(error)) {
-    if (error.status === 401) return { title: "Your session has ended", body: "Sign in again to continue.", signIn: true };
+    if (error.status === 401)
+      return { title: "Your session has ended", body: "Sign in again to continue.", signIn: true };
     if (error.status === 403) return { title: "Not available for your role", body: error.message };
     if (error.status === 404) return { title: "Not found", body: error.message };
     if (error.status === 0) return { title: "The server cannot be reached", body: error.message };
     return { title: "This page could not load", body: error.message };
   }
-  return { title: "Something went wrong on this page", body: error instanceof Error ? error.message : "An unexpected error occurred." };
+  return {
+    title: "Something went wrong on this page",
+    body: error instanceof Error ? error.message : "An unexpected error occurred.",
+  };
 }
 
 /** Per-route error view: says what happened in plain words and offers the next step. */

@@ -17,7 +17,11 @@ type RouteModule = {
  * (else: sign-in, remembering the way back) and fetches the screen's data only for a permitted role;
  * the component shows "not available for your role" to everyone else.
  */
-function screen(queryClient: QueryClient, key: PathKey | null, load: () => Promise<RouteModule>): Pick<RouteObject, "lazy"> {
+function screen(
+  queryClient: QueryClient,
+  key: PathKey | null,
+  load: () => Promise<RouteModule>,
+): Pick<RouteObject, "lazy"> {
   return {
     lazy: async () => {
       const m = await load();
@@ -60,22 +64,46 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           ...screen(queryClient, null, () => import("./routes/app-layout")),
           children: [
             { index: true, ...screen(queryClient, "overview", () => import("./routes/overview")) },
-            { path: relative(paths.backtestIndex.path), ...screen(queryClient, "backtestIndex", () => import("./routes/backtest/index")) },
-            { path: relative(paths.backtest.path), ...screen(queryClient, "backtest", () => import("./routes/backtest/portfolio")) },
+            {
+              path: relative(paths.backtestIndex.path),
+              ...screen(queryClient, "backtestIndex", () => import("./routes/backtest/index")),
+            },
+            {
+              path: relative(paths.backtest.path),
+              ...screen(queryClient, "backtest", () => import("./routes/backtest/portfolio")),
+            },
             { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
-            { path: relative(paths.quarters.path), ...screen(queryClient, "quarters", () => import("./routes/quarters")) },
+            {
+              path: relative(paths.quarters.path),
+              ...screen(queryClient, "quarters", () => import("./routes/quarters")),
+            },
             { path: relative(paths.capital.path), ...screen(queryClient, "capital", () => import("./routes/capital")) },
             { path: relative(paths.filings.path), ...screen(queryClient, "filings", () => import("./routes/filings")) },
             { path: relative(paths.tokens.path), ...screen(queryClient, "tokens", () => import("./routes/tokens")) },
-            { path: relative(paths.adminUsers.path), ...screen(queryClient, "adminUsers", () => import("./routes/admin/users")) },
-            { path: relative(paths.adminEntities.path), ...screen(queryClient, "adminEntities", () => import("./routes/admin/entities")) },
-            { path: relative(paths.adminEntity.path), ...screen(queryClient, "adminEntity", () => import("./routes/admin/entity")) },
+            {
+              path: relative(paths.adminUsers.path),
+              ...screen(queryClient, "adminUsers", () => import("./routes/admin/users")),
+            },
+            {
+              path: relative(paths.adminEntities.path),
+              ...screen(queryClient, "adminEntities", () => import("./routes/admin/entities")),
+            },
+            {
+              path: relative(paths.adminEntity.path),
+              ...screen(queryClient, "adminEntity", () => import("./routes/admin/entity")),
+            },
             {
               path: relative(paths.adminAssignments.path),
               ...screen(queryClient, "adminAssignments", () => import("./routes/admin/assignments")),
             },
-            { path: relative(paths.adminAudit.path), ...screen(queryClient, "adminAudit", () => import("./routes/admin/audit")) },
-            { path: relative(paths.adminOutbox.path), ...screen(queryClient, "adminOutbox", () => import("./routes/admin/outbox")) },
+            {
+              path: relative(paths.adminAudit.path),
+              ...screen(queryClient, "adminAudit", () => import("./routes/admin/audit")),
+            },
+            {
+              path: relative(paths.adminOutbox.path),
+              ...screen(queryClient, "adminOutbox", () => import("./routes/admin/outbox")),
+            },
             { path: "*", ...screen(queryClient, null, () => import("./routes/not-found")) },
           ],
         },

@@ -125,7 +125,8 @@ export const paths = {
     roles: adminOnly,
     label: "Outbox",
     /** `message` opens that message; without it the screen opens the newest one. */
-    href: (q?: { message?: string }) => (q?.message ? `/admin/outbox?message=${encodeURIComponent(q.message)}` : "/admin/outbox"),
+    href: (q?: { message?: string }) =>
+      q?.message ? `/admin/outbox?message=${encodeURIComponent(q.message)}` : "/admin/outbox",
   },
 } as const satisfies Record<string, AppPath & { href: (...args: never[]) => string }>;
 

@@ -94,7 +94,12 @@ async function request<S extends z.ZodType | undefined>(
   const parsed = schema.safeParse(json);
   if (!parsed.success) {
     // The server and this client disagree on a payload: say so rather than show wrong figures.
-    throw new ApiError(res.status, "unexpected_response", `The server's answer to ${method} ${path} did not have the expected shape.`, parsed.error.issues);
+    throw new ApiError(
+      res.status,
+      "unexpected_response",
+      `The server's answer to ${method} ${path} did not have the expected shape.`,
+      parsed.error.issues,
+    );
   }
   return parsed.data as never;
 }
@@ -109,7 +114,6 @@ export const api = {
     request("PUT", path, body, schema as S),
   del: (path: string) => request("DELETE", path, undefined, undefined),
 };
-
 
 /** Builds a query string, leaving out empty values. */
 export function withQuery(path: string, params: Record<string, string | number | undefined | null>): string {

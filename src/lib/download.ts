@@ -62,7 +62,10 @@ export function useDownload(href: string, fallbackName: string) {
     try {
       let res: Response;
       try {
-        res = await fetch(href, { credentials: "same-origin", headers: { Accept: "application/pdf, application/json;q=0.9" } });
+        res = await fetch(href, {
+          credentials: "same-origin",
+          headers: { Accept: "application/pdf, application/json;q=0.9" },
+        });
       } catch {
         setError("The server could not be reached. Check your connection and try again.");
         return;

@@ -3,11 +3,40 @@ import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
-const regulator = { id: 5, email: "regulator@larkspur.test", name: "Rita Reg", role: "regulator", disabled: false, createdAt: "2026-01-01T00:00:00Z", lastSignInAt: null, version: 1 };
+const regulator = {
+  id: 5,
+  email: "regulator@larkspur.test",
+  name: "Rita Reg",
+  role: "regulator",
+  disabled: false,
+  createdAt: "2026-01-01T00:00:00Z",
+  lastSignInAt: null,
+  version: 1,
+};
 const analyst = { ...regulator, id: 6, email: "analyst@larkspur.test", name: "Ana Lyst", role: "analyst" };
 const entities = [
-  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
-  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  {
+    code: "LKS-EU",
+    name: "Larkspur Markets SA",
+    regime: "eu",
+    pnlBasis: "max",
+    currency: "EUR",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+  {
+    code: "LKS-US",
+    name: "Larkspur Securities LLC",
+    regime: "us",
+    pnlBasis: "actual",
+    currency: "USD",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
 ];
 
 describe("Admin › Regulator access", () => {
@@ -40,7 +69,9 @@ describe("Admin › Regulator access", () => {
 
     expect(await screen.findByText("Rita Reg can now see filings of LKS-US.")).toBeInTheDocument();
     expect(api.callsTo("POST", "/api/regulator-assignments")[0].body).toEqual({ userId: 5, entityCode: "LKS-US" });
-    expect(await screen.findByText("Larkspur Securities LLC", { exact: false, selector: "td span" })).toBeInTheDocument();
+    expect(
+      await screen.findByText("Larkspur Securities LLC", { exact: false, selector: "td span" }),
+    ).toBeInTheDocument();
 
     await user.click(screen.getByRole("button", { name: "Remove access of Rita Reg to LKS-EU" }));
     expect(api.callsTo("DELETE", "/api/regulator-assignments/5/LKS-EU")).toHaveLength(1);

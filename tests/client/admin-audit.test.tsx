@@ -42,7 +42,10 @@ describe("Admin › Audit log", () => {
         const q = new URLSearchParams(call.search);
         if (q.get("action") === "auth.sign_in_failed") return { status: 200, body: { items: [], total: 0 } };
         const offset = Number(q.get("offset"));
-        return { status: 200, body: { items: [event(offset + 1, offset ? "user.update" : "user.create")], total: 120 } };
+        return {
+          status: 200,
+          body: { items: [event(offset + 1, offset ? "user.update" : "user.create")], total: 120 },
+        };
       },
     });
     const user = userEvent.setup();
@@ -63,7 +66,10 @@ describe("Admin › Audit log", () => {
   });
 
   it("when nothing has been recorded, then the empty state says what will appear", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("admin"), "GET /api/audit-events": { status: 200, body: { items: [], total: 0 } } });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/audit-events": { status: 200, body: { items: [], total: 0 } },
+    });
     renderApp("/admin/audit");
     expect(await screen.findByText("No events recorded yet")).toBeInTheDocument();
   });

@@ -31,7 +31,10 @@ describe("Admin › Entities", () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
       "GET /api/entities": { status: 200, body: [] },
-      "POST /api/entities": ({ body }) => ({ status: 201, body: { qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1, ...(body as object) } }),
+      "POST /api/entities": ({ body }) => ({
+        status: 201,
+        body: { qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1, ...(body as object) },
+      }),
     });
     const user = userEvent.setup();
     renderApp("/admin/entities");
@@ -68,7 +71,10 @@ describe("Admin › Entities", () => {
   });
 
   it("when a contact e-mail is not valid, then the message stands beside that field and nothing is sent", async () => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs("admin"), "GET /api/entities": { status: 200, body: [] } });
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [] },
+    });
     const user = userEvent.setup();
     renderApp("/admin/entities");
 
@@ -78,7 +84,9 @@ describe("Admin › Entities", () => {
     await user.type(screen.getByLabelText("Supervisor contact e-mails"), "desk@sup.test, not-an-address");
     await user.click(screen.getByRole("button", { name: "Add entity" }));
 
-    expect(screen.getByLabelText("Supervisor contact e-mails")).toHaveAccessibleDescription("Each contact must be a valid e-mail address");
+    expect(screen.getByLabelText("Supervisor contact e-mails")).toHaveAccessibleDescription(
+      "Each contact must be a valid e-mail address",
+    );
     expect(api.callsTo("POST", "/api/entities")).toHaveLength(0);
   });
 
@@ -105,9 +113,15 @@ describe("Admin › Entities", () => {
 
     const holidays = await screen.findByRole("table", { name: "Holidays of LKS-UK" });
     const holidayRows = within(holidays).getAllByRole("row").slice(1);
-    expect(holidayRows.map((r) => (r as HTMLTableRowElement).cells[0].textContent)).toEqual(["2026-12-25 (Fri)", "2026-12-28 (Mon)"]);
+    expect(holidayRows.map((r) => (r as HTMLTableRowElement).cells[0].textContent)).toEqual([
+      "2026-12-25 (Fri)",
+      "2026-12-28 (Mon)",
+    ]);
     const portfolios = screen.getByRole("table", { name: "Portfolios of LKS-UK" });
-    const levels = within(portfolios).getAllByRole("row").slice(1).map((r) => (r as HTMLTableRowElement).cells[2].textContent);
+    const levels = within(portfolios)
+      .getAllByRole("row")
+      .slice(1)
+      .map((r) => (r as HTMLTableRowElement).cells[2].textContent);
     expect(levels).toEqual(["Top of house", "Trading desk"]);
   });
 
@@ -120,7 +134,15 @@ describe("Admin › Entities", () => {
       "GET /api/entities/LKS-UK/holidays": { status: 200, body: [] },
       "PATCH /api/entities/LKS-UK": ({ body }) =>
         conflict
-          ? { status: 409, body: { error: { code: "conflict", message: "Someone else changed LKS-UK since you opened it (now version 4)." } } }
+          ? {
+              status: 409,
+              body: {
+                error: {
+                  code: "conflict",
+                  message: "Someone else changed LKS-UK since you opened it (now version 4).",
+                },
+              },
+            }
           : { status: 200, body: { ...entity, ...(body as object), version: 4 } },
     });
     const user = userEvent.setup();

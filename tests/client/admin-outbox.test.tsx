@@ -17,7 +17,15 @@ const packMessage = {
   subject: "Larkspur Markets SA: backtesting pack for Q3 2026",
   date: "2026-10-02T09:14:05.000Z",
   messageId: "<filing-41-9f2c4e6a8b0d1f3e@quartermark>",
-  attachments: [{ index: 0, filename: "quartermark-LKS-EU-2026-09-30-pack.pdf", contentType: "application/pdf", size: 46_880, sha256: PACK_SHA }],
+  attachments: [
+    {
+      index: 0,
+      filename: "quartermark-LKS-EU-2026-09-30-pack.pdf",
+      contentType: "application/pdf",
+      size: 46_880,
+      sha256: PACK_SHA,
+    },
+  ],
 };
 const olderMessage = {
   ...packMessage,
@@ -27,7 +35,13 @@ const olderMessage = {
   subject: "Larkspur Securities LLC: backtesting pack for Q2 2026",
   messageId: "<filing-30-1a3c5e7f9b1d3f5a@quartermark>",
   attachments: [
-    { index: 0, filename: "quartermark-LKS-US-2026-06-30-pack.pdf", contentType: "application/pdf", size: 40_100, sha256: PACK_SHA },
+    {
+      index: 0,
+      filename: "quartermark-LKS-US-2026-06-30-pack.pdf",
+      contentType: "application/pdf",
+      size: 40_100,
+      sha256: PACK_SHA,
+    },
     { index: 1, filename: "exceptions.csv", contentType: "text/csv", size: 812, sha256: CSV_SHA },
   ],
 };
@@ -45,8 +59,14 @@ describe("Admin › Outbox (development only)", () => {
   it("lists what the mail sink kept, newest first, and opens the newest with its text and each attachment's SHA-256 and download", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
-      "GET /api/admin/outbox": { status: 200, body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] } },
-      [`GET /api/admin/outbox/${packMessage.id}`]: detailOf(packMessage, "Dear Ms Rowan Vale,\n\nPlease find attached the pack.\nSHA-256 of the attached file: " + PACK_SHA),
+      "GET /api/admin/outbox": {
+        status: 200,
+        body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] },
+      },
+      [`GET /api/admin/outbox/${packMessage.id}`]: detailOf(
+        packMessage,
+        "Dear Ms Rowan Vale,\n\nPlease find attached the pack.\nSHA-256 of the attached file: " + PACK_SHA,
+      ),
     });
     renderApp("/admin/outbox");
 
@@ -60,7 +80,9 @@ describe("Admin › Outbox (development only)", () => {
     const [, first, second, third] = within(table).getAllByRole("row");
     expect(within(first).getByText("02 Oct 2026, 09:14 UTC")).toBeInTheDocument();
     expect(within(first).getByText("rowan.vale@supervisor.larkspur.test")).toBeInTheDocument();
-    expect(within(first).getByRole("link", { name: "Larkspur Markets SA: backtesting pack for Q3 2026" })).toBeInTheDocument();
+    expect(
+      within(first).getByRole("link", { name: "Larkspur Markets SA: backtesting pack for Q3 2026" }),
+    ).toBeInTheDocument();
     expect(within(first).getByText("quartermark-LKS-EU-2026-09-30-pack.pdf")).toBeInTheDocument();
     expect(first).toHaveAttribute("aria-current", "true");
     expect(within(second).getByText("second.reader@supervisor.larkspur.test")).toBeInTheDocument();
@@ -82,7 +104,10 @@ describe("Admin › Outbox (development only)", () => {
   it("when another row is chosen, then that message opens, and an unreadable file says why and where it lies", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
-      "GET /api/admin/outbox": { status: 200, body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] } },
+      "GET /api/admin/outbox": {
+        status: 200,
+        body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] },
+      },
       [`GET /api/admin/outbox/${packMessage.id}`]: detailOf(packMessage, "Newest"),
       [`GET /api/admin/outbox/${olderMessage.id}`]: detailOf(olderMessage, "The Q2 pack and the exception list."),
       [`GET /api/admin/outbox/${brokenFile.id}`]: { status: 200, body: brokenFile },
@@ -90,12 +115,17 @@ describe("Admin › Outbox (development only)", () => {
     const user = userEvent.setup();
     const { router } = renderApp("/admin/outbox");
 
-    await user.click(await screen.findByRole("link", { name: "Larkspur Securities LLC: backtesting pack for Q2 2026" }));
+    await user.click(
+      await screen.findByRole("link", { name: "Larkspur Securities LLC: backtesting pack for Q2 2026" }),
+    );
     const view = await screen.findByRole("region", { name: "Larkspur Securities LLC: backtesting pack for Q2 2026" });
     expect(router.state.location.search).toBe(`?message=${olderMessage.id}`);
     expect(within(view).getByText("The Q2 pack and the exception list.")).toBeInTheDocument();
     expect(within(view).getByTestId("attachment-sha256-1")).toHaveTextContent(CSV_SHA);
-    expect(within(view).getByRole("link", { name: "Download exceptions.csv" })).toHaveAttribute("href", `/api/admin/outbox/${olderMessage.id}/attachments/1`);
+    expect(within(view).getByRole("link", { name: "Download exceptions.csv" })).toHaveAttribute(
+      "href",
+      `/api/admin/outbox/${olderMessage.id}/attachments/1`,
+    );
 
     await user.click(screen.getByRole("link", { name: "Unreadable file" }));
     const broken = await screen.findByRole("region", { name: "This file could not be read as an e-mail message" });
@@ -110,12 +140,15 @@ describe("Admin › Outbox (development only)", () => {
       "GET /api/admin/outbox": { status: 200, body: { folder: FOLDER, total: 0, messages: [] } },
     });
     renderApp("/admin/outbox");
-    expect(await screen.findByText("No e-mail sent yet — filing a pack from Quarter close sends one")).toBeInTheDocument();
+    expect(
+      await screen.findByText("No e-mail sent yet — filing a pack from Quarter close sends one"),
+    ).toBeInTheDocument();
     expect(screen.queryByRole("table")).not.toBeInTheDocument();
   });
 
   it("when the server has no outbox (production), then the screen says so in the server's words instead of failing", async () => {
-    const message = "The mail outbox exists only in development; this server runs with NODE_ENV=production, where e-mail goes to the real mail server.";
+    const message =
+      "The mail outbox exists only in development; this server runs with NODE_ENV=production, where e-mail goes to the real mail server.";
     fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
       "GET /api/admin/outbox": { status: 404, body: { error: { code: "outbox_unavailable", message } } },
@@ -127,10 +160,16 @@ describe("Admin › Outbox (development only)", () => {
     expect(screen.getByRole("heading", { level: 1, name: "Outbox" })).toBeInTheDocument();
   });
 
-  it.each(["analyst", "cro", "treasury", "regulator"] as const)("when a %s opens the address, then it is not for their role and the outbox is never asked", async (role) => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/admin/outbox": { status: 403, body: { error: { code: "forbidden", message: "No" } } } });
-    renderApp("/admin/outbox");
-    expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
-    expect(api.callsTo("GET", "/api/admin/outbox")).toHaveLength(0);
-  });
+  it.each(["analyst", "cro", "treasury", "regulator"] as const)(
+    "when a %s opens the address, then it is not for their role and the outbox is never asked",
+    async (role) => {
+      const api = fakeApi({
+        "GET /api/auth/session": signedInAs(role),
+        "GET /api/admin/outbox": { status: 403, body: { error: { code: "forbidden", message: "No" } } },
+      });
+      renderApp("/admin/outbox");
+      expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
+      expect(api.callsTo("GET", "/api/admin/outbox")).toHaveLength(0);
+    },
+  );
 });

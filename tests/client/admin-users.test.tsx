@@ -5,14 +5,47 @@ import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const users = [
-  { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin", disabled: false, createdAt: "2026-01-02T09:00:00.000Z", lastSignInAt: "2026-03-05T14:07:00.000Z", version: 1 },
-  { id: 2, email: "analyst@larkspur.test", name: "Ana Lyst", role: "analyst", disabled: false, createdAt: "2026-01-02T09:00:00.000Z", lastSignInAt: null, version: 3 },
-  { id: 3, email: "old@larkspur.test", name: "Olga Old", role: "cro", disabled: true, createdAt: "2026-01-02T09:00:00.000Z", lastSignInAt: null, version: 1 },
+  {
+    id: 1,
+    email: "admin@larkspur.test",
+    name: "Ada Admin",
+    role: "admin",
+    disabled: false,
+    createdAt: "2026-01-02T09:00:00.000Z",
+    lastSignInAt: "2026-03-05T14:07:00.000Z",
+    version: 1,
+  },
+  {
+    id: 2,
+    email: "analyst@larkspur.test",
+    name: "Ana Lyst",
+    role: "analyst",
+    disabled: false,
+    createdAt: "2026-01-02T09:00:00.000Z",
+    lastSignInAt: null,
+    version: 3,
+  },
+  {
+    id: 3,
+    email: "old@larkspur.test",
+    name: "Olga Old",
+    role: "cro",
+    disabled: true,
+    createdAt: "2026-01-02T09:00:00.000Z",
+    lastSignInAt: null,
+    version: 1,
+  },
 ];
 
 describe("Admin › Users", () => {
   it("lists the users the server returns with role, status and last sign-in", async () => {
-    fakeApi({ "GET /api/auth/session": { status: 200, body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } } }, "GET /api/users": { status: 200, body: users } });
+    fakeApi({
+      "GET /api/auth/session": {
+        status: 200,
+        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
+      },
+      "GET /api/users": { status: 200, body: users },
+    });
     renderApp("/admin/users");
 
     const table = await screen.findByRole("table", { name: "Users" });
@@ -44,7 +77,10 @@ describe("Admin › Users", () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: users },
-      "POST /api/users": { status: 409, body: { error: { code: "conflict", message: "A user with this e-mail already exists." } } },
+      "POST /api/users": {
+        status: 409,
+        body: { error: { code: "conflict", message: "A user with this e-mail already exists." } },
+      },
     });
     const user = userEvent.setup();
     renderApp("/admin/users");
@@ -67,7 +103,16 @@ describe("Admin › Users", () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: users },
-      "POST /api/users": { status: 422, body: { error: { code: "validation", message: "Check the highlighted fields.", details: { fields: { email: "This domain is not allowed" } } } } },
+      "POST /api/users": {
+        status: 422,
+        body: {
+          error: {
+            code: "validation",
+            message: "Check the highlighted fields.",
+            details: { fields: { email: "This domain is not allowed" } },
+          },
+        },
+      },
     });
     const user = userEvent.setup();
     renderApp("/admin/users");
@@ -85,7 +130,10 @@ describe("Admin › Users", () => {
 
   it("when an admin changes a role, then the version shown is sent with the change", async () => {
     const api = fakeApi({
-      "GET /api/auth/session": { status: 200, body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } } },
+      "GET /api/auth/session": {
+        status: 200,
+        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
+      },
       "GET /api/users": { status: 200, body: users },
       "GET /api/regulator-assignments": { status: 200, body: [] },
       "PATCH /api/users/2": { status: 200, body: { ...users[1], role: "cro", version: 4 } },
@@ -103,13 +151,23 @@ describe("Admin › Users", () => {
     const current = { ...users[1], name: "Ana Lyst", role: "treasury", version: 4 };
     let listed = users;
     const api = fakeApi({
-      "GET /api/auth/session": { status: 200, body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } } },
+      "GET /api/auth/session": {
+        status: 200,
+        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
+      },
       "GET /api/users": () => ({ status: 200, body: listed }),
       "PATCH /api/users/2": () => {
         listed = users.map((u) => (u.id === 2 ? current : u));
         return {
           status: 409,
-          body: { error: { code: "stale", message: "Someone else changed Ana Lyst (analyst@larkspur.test) since you opened the list (now version 4).", details: { current } } },
+          body: {
+            error: {
+              code: "stale",
+              message:
+                "Someone else changed Ana Lyst (analyst@larkspur.test) since you opened the list (now version 4).",
+              details: { current },
+            },
+          },
         };
       },
     });
@@ -118,7 +176,11 @@ describe("Admin › Users", () => {
 
     await user.click(await screen.findByRole("button", { name: "Disable Ana Lyst" }));
 
-    expect(await screen.findByText(/Someone else changed Ana Lyst while you had this page open, so your change was not saved/)).toBeInTheDocument();
+    expect(
+      await screen.findByText(
+        /Someone else changed Ana Lyst while you had this page open, so your change was not saved/,
+      ),
+    ).toBeInTheDocument();
     expect(api.callsTo("PATCH", "/api/users/2")[0].body).toEqual({ disabled: true, version: 3 });
     // The row shows what the other admin saved, and is still enabled.
     expect(await screen.findByRole("combobox", { name: "Role of Ana Lyst" })).toHaveValue("treasury");
@@ -133,11 +195,20 @@ describe("Admin › Users", () => {
   it("when a password reset meets a stale version, then the form says someone else changed the user and nothing is reported as set", async () => {
     const current = { ...users[1], role: "cro", version: 5 };
     const api = fakeApi({
-      "GET /api/auth/session": { status: 200, body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } } },
+      "GET /api/auth/session": {
+        status: 200,
+        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
+      },
       "GET /api/users": { status: 200, body: users },
       "POST /api/users/2/password": {
         status: 409,
-        body: { error: { code: "stale", message: "Someone else changed Ana Lyst since you opened the list (now version 5).", details: { current } } },
+        body: {
+          error: {
+            code: "stale",
+            message: "Someone else changed Ana Lyst since you opened the list (now version 5).",
+            details: { current },
+          },
+        },
       },
     });
     const user = userEvent.setup();
@@ -148,7 +219,10 @@ describe("Admin › Users", () => {
     await user.click(screen.getByRole("button", { name: "Set password" }));
 
     expect(await screen.findByText(/Someone else changed Ana Lyst while you had this page open/)).toBeInTheDocument();
-    expect(api.callsTo("POST", "/api/users/2/password")[0].body).toEqual({ password: "a long enough password", version: 3 });
+    expect(api.callsTo("POST", "/api/users/2/password")[0].body).toEqual({
+      password: "a long enough password",
+      version: 3,
+    });
     expect(screen.queryByText(/New password set/)).not.toBeInTheDocument();
   });
 });

@@ -25,10 +25,31 @@ const revoked = {
   revokedAt: "2026-08-14T10:12:00.000Z",
   status: "revoked",
 };
-const entities = [{ code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 }];
+const entities = [
+  {
+    code: "LKS-EU",
+    name: "Larkspur Markets SA",
+    regime: "eu",
+    pnlBasis: "max",
+    currency: "EUR",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+];
 
 function created(body: { name: string; expiresInDays?: number }) {
-  return { ...active, id: 12, name: body.name, prefix: SECRET.slice(0, 12), lastUsedAt: null, createdAt: "2026-10-06T09:00:00.000Z", expiresAt: "2026-11-05T09:00:00.000Z", secret: SECRET };
+  return {
+    ...active,
+    id: 12,
+    name: body.name,
+    prefix: SECRET.slice(0, 12),
+    lastUsedAt: null,
+    createdAt: "2026-10-06T09:00:00.000Z",
+    expiresAt: "2026-11-05T09:00:00.000Z",
+    secret: SECRET,
+  };
 }
 
 /** The server as treasury sees it: a list that grows with each creation and marks revocations. */
@@ -45,7 +66,9 @@ function treasuryApi() {
       return { status: 201, body: token };
     },
     "DELETE /api/tokens/11": () => {
-      tokens = tokens.map((t) => ((t as { id: number }).id === 11 ? { ...active, status: "revoked", revokedAt: "2026-10-06T09:30:00.000Z" } : t));
+      tokens = tokens.map((t) =>
+        (t as { id: number }).id === 11 ? { ...active, status: "revoked", revokedAt: "2026-10-06T09:30:00.000Z" } : t,
+      );
       return { status: 204 };
     },
   });
@@ -69,7 +92,9 @@ describe("API tokens screen", () => {
     expect(within(old).getByText("Revoked 14 Aug 2026, 10:12 UTC")).toBeInTheDocument();
     expect(within(old).queryByRole("button", { name: /Revoke/ })).not.toBeInTheDocument();
     expect(screen.getByTestId("tokens-standing")).toHaveTextContent("1 active token · 1 expired or revoked");
-    expect(within(screen.getByRole("navigation", { name: "Main" })).getByRole("link", { name: "API tokens" })).toHaveAttribute("href", "/tokens");
+    expect(
+      within(screen.getByRole("navigation", { name: "Main" })).getByRole("link", { name: "API tokens" }),
+    ).toHaveAttribute("href", "/tokens");
     expect(screen.getByText(/Figures are decision support\./)).toBeInTheDocument();
   });
 
@@ -126,7 +151,15 @@ describe("API tokens screen", () => {
       "GET /api/auth/session": signedInAs("treasury"),
       "GET /api/entities": { status: 200, body: entities },
       "GET /api/tokens": { status: 200, body: [active] },
-      "POST /api/tokens": { status: 409, body: { error: { code: "conflict", message: "You already hold 10 active API tokens, the most allowed. Revoke one you no longer use first." } } },
+      "POST /api/tokens": {
+        status: 409,
+        body: {
+          error: {
+            code: "conflict",
+            message: "You already hold 10 active API tokens, the most allowed. Revoke one you no longer use first.",
+          },
+        },
+      },
     });
     const user = userEvent.setup();
     renderApp("/tokens");
@@ -145,7 +178,9 @@ describe("API tokens screen", () => {
 
     await user.click(await screen.findByRole("button", { name: "Revoke Nightly capital pull" }));
     const confirmation = screen.getByRole("group", { name: "Revoke Nightly capital pull" });
-    expect(confirmation).toHaveTextContent("Scripts using “Nightly capital pull” (qmk_Q2xX9aPe…) are refused from now on.");
+    expect(confirmation).toHaveTextContent(
+      "Scripts using “Nightly capital pull” (qmk_Q2xX9aPe…) are refused from now on.",
+    );
     expect(within(confirmation).getByRole("button", { name: "Revoke token" })).toHaveFocus();
     await user.click(within(confirmation).getByRole("button", { name: "Cancel" }));
     expect(screen.queryByRole("group", { name: "Revoke Nightly capital pull" })).not.toBeInTheDocument();
@@ -155,7 +190,9 @@ describe("API tokens screen", () => {
     await user.click(screen.getByRole("button", { name: "Revoke Nightly capital pull" }));
     await user.click(screen.getByRole("button", { name: "Revoke token" }));
 
-    expect(await screen.findByRole("status")).toHaveTextContent("“Nightly capital pull” is revoked; scripts using it are refused.");
+    expect(await screen.findByRole("status")).toHaveTextContent(
+      "“Nightly capital pull” is revoked; scripts using it are refused.",
+    );
     expect(api.callsTo("DELETE", "/api/tokens/11")).toHaveLength(1);
     const row = screen.getByTestId("token-11");
     expect(within(row).getByText("Revoked 06 Oct 2026, 09:30 UTC")).toBeInTheDocument();
@@ -164,18 +201,30 @@ describe("API tokens screen", () => {
   });
 
   it("when there are no tokens, then the empty state says to create one per script", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("treasury"), "GET /api/entities": { status: 200, body: entities }, "GET /api/tokens": { status: 200, body: [] } });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("treasury"),
+      "GET /api/entities": { status: 200, body: entities },
+      "GET /api/tokens": { status: 200, body: [] },
+    });
     renderApp("/tokens");
     expect(await screen.findByText("No API tokens yet")).toBeInTheDocument();
     expect(screen.getByText(/for each script/)).toBeInTheDocument();
   });
 
-  it.each(["analyst", "cro", "regulator", "admin"] as const)("when %s opens the address, then the page is not available for their role, no tokens are asked for, and the navigation has no link", async (role) => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: entities } });
-    renderApp("/tokens");
+  it.each(["analyst", "cro", "regulator", "admin"] as const)(
+    "when %s opens the address, then the page is not available for their role, no tokens are asked for, and the navigation has no link",
+    async (role) => {
+      const api = fakeApi({
+        "GET /api/auth/session": signedInAs(role),
+        "GET /api/entities": { status: 200, body: entities },
+      });
+      renderApp("/tokens");
 
-    expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
-    expect(api.callsTo("GET", "/api/tokens")).toHaveLength(0);
-    expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "API tokens" })).not.toBeInTheDocument();
-  });
+      expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
+      expect(api.callsTo("GET", "/api/tokens")).toHaveLength(0);
+      expect(
+        within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "API tokens" }),
+      ).not.toBeInTheDocument();
+    },
+  );
 });

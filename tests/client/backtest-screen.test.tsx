@@ -52,18 +52,50 @@ function backtestBody(reviews: Record<string, Review> = {}) {
   };
 }
 
-const entities = [{ code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 }];
+const entities = [
+  {
+    code: "LKS-US",
+    name: "Larkspur Securities LLC",
+    regime: "us",
+    pnlBasis: "actual",
+    currency: "USD",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+];
 
-function routes(role: "analyst" | "cro", body: unknown, extra: Record<string, Reply | ((c: { body: unknown }) => Reply)> = {}) {
+function routes(
+  role: "analyst" | "cro",
+  body: unknown,
+  extra: Record<string, Reply | ((c: { body: unknown }) => Reply)> = {},
+) {
   return {
     "GET /api/auth/session": signedInAs(role),
     "GET /api/entities": { status: 200, body: entities },
-    "GET /api/entities/LKS-US/portfolios": { status: 200, body: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities — total trading", level: "top" }] },
+    "GET /api/entities/LKS-US/portfolios": {
+      status: 200,
+      body: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities — total trading", level: "top" }],
+    },
     "GET /api/portfolios/LKS-US-TOTAL/backtest": { status: 200, body },
-    "GET /api/portfolios/LKS-US-TOTAL/rolling": { status: 200, body: rollingBacktest(observations, { regime: "us", pnlBasis: "actual" }) },
+    "GET /api/portfolios/LKS-US-TOTAL/rolling": {
+      status: 200,
+      body: rollingBacktest(observations, { regime: "us", pnlBasis: "actual" }),
+    },
     "GET /api/portfolios/LKS-US-TOTAL/observations": {
       status: 200,
-      body: observations.map((o) => ({ ...o, var975: null, svar99: null, var10d: null, svar10d: null, es975: null, ses: null, rtpl: null, version: 1 })),
+      body: observations.map((o) => ({
+        ...o,
+        var975: null,
+        svar99: null,
+        var10d: null,
+        svar10d: null,
+        es975: null,
+        ses: null,
+        rtpl: null,
+        version: 1,
+      })),
     },
     ...extra,
   };
@@ -107,7 +139,9 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     expect(within(standing).getByTestId("counted")).toHaveTextContent(String(engine.exceptions.counted));
     expect(within(standing).getByTestId("plus-factor")).toHaveTextContent(engine.plusFactor.toFixed(2));
     expect(within(standing).getByTestId("multiplier")).toHaveTextContent(engine.multiplier.toFixed(2));
-    expect(within(standing).getByTestId("window-dates")).toHaveTextContent(`${engine.window.start} to ${engine.window.end}`);
+    expect(within(standing).getByTestId("window-dates")).toHaveTextContent(
+      `${engine.window.start} to ${engine.window.end}`,
+    );
     const zoneName = engine.zone[0].toUpperCase() + engine.zone.slice(1);
     expect(within(standing).getByText(zoneName)).toBeInTheDocument();
     // Sanity on the invented series: seven actual exceptions in the last 250 days, US rule → yellow.
@@ -118,11 +152,20 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     expect(within(table).getAllByRole("row")).toHaveLength(engine.exceptionDays.length + 1);
     expect(screen.getByRole("table", { name: "Roll-off calendar" })).toBeInTheDocument();
     expect(await screen.findByRole("figure", { name: /Daily actual P&L against −VaR/ })).toBeInTheDocument();
-    expect(await screen.findByRole("figure", { name: /Counted exceptions in the trailing window/ })).toBeInTheDocument();
+    expect(
+      await screen.findByRole("figure", { name: /Counted exceptions in the trailing window/ }),
+    ).toBeInTheDocument();
   });
 
   it("when the portfolio has no data yet, then the screen says an analyst uploads it under Data", async () => {
-    fakeApi(routes("analyst", undefined, { "GET /api/portfolios/LKS-US-TOTAL/backtest": { status: 404, body: { error: { code: "no_data", message: "No daily data" } } } }));
+    fakeApi(
+      routes("analyst", undefined, {
+        "GET /api/portfolios/LKS-US-TOTAL/backtest": {
+          status: 404,
+          body: { error: { code: "no_data", message: "No daily data" } },
+        },
+      }),
+    );
     renderApp("/backtest/LKS-US-TOTAL");
     expect(await screen.findByText("No daily data for LKS-US-TOTAL yet")).toBeInTheDocument();
     expect(within(screen.getByRole("main")).getByRole("link", { name: "Data" })).toHaveAttribute("href", "/data");
@@ -130,14 +173,24 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
 
   it("the analyst's review is sent with the version seen; a 409 shows the review that now stands, and the next save builds on it", async () => {
     const day = engine.exceptionDays[0].date;
-    const theirs = review(day, { version: 4, reviewedBy: "Ana Other", cause: "pricing", narrative: "A stale curve mark on the swaption book caused it." });
+    const theirs = review(day, {
+      version: 4,
+      reviewedBy: "Ana Other",
+      cause: "pricing",
+      narrative: "A stale curve mark on the swaption book caused it.",
+    });
     let puts = 0;
     const api = fakeApi(
       routes("analyst", backtestBody({ [day]: review(day) }), {
         [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`]: ({ body }) => {
           puts++;
           return puts === 1
-            ? { status: 409, body: { error: { code: "stale_version", message: "Someone else saved first", details: { current: theirs } } } }
+            ? {
+                status: 409,
+                body: {
+                  error: { code: "stale_version", message: "Someone else saved first", details: { current: theirs } },
+                },
+              }
             : { status: 200, body: { ...theirs, ...(body as object), version: 5 } };
         },
       }),
@@ -153,30 +206,55 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     await user.click(within(form).getByRole("button", { name: "Save review" }));
 
     const puts1 = api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`);
-    expect(puts1[0].body).toEqual({ cause: "market_move", narrative: "Payrolls surprise; the model's lookback missed the jump.", exclusion: true, version: 3 });
+    expect(puts1[0].body).toEqual({
+      cause: "market_move",
+      narrative: "Payrolls surprise; the model's lookback missed the jump.",
+      exclusion: true,
+      version: 3,
+    });
     const alert = await within(form).findByRole("alert");
     expect(alert).toHaveTextContent("Ana Other saved this review");
     // Someone else's save is news, not a zone: the neutral notice tone, no zone colour.
     expect(alert).toHaveAttribute("data-tone", "notice");
     expect(alert.outerHTML).not.toMatch(/\b(bg|text|border)-zone-/);
     expect(alert).toHaveTextContent("A stale curve mark on the swaption book caused it.");
-    expect(within(form).getByLabelText("What happened")).toHaveValue("Payrolls surprise; the model's lookback missed the jump.");
+    expect(within(form).getByLabelText("What happened")).toHaveValue(
+      "Payrolls surprise; the model's lookback missed the jump.",
+    );
 
     await user.click(within(form).getByRole("button", { name: "Save review" }));
-    await waitFor(() => expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`)).toHaveLength(2));
-    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`)[1].body).toMatchObject({ version: 4 });
+    await waitFor(() =>
+      expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`)).toHaveLength(2),
+    );
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/review`)[1].body).toMatchObject({
+      version: 4,
+    });
     expect(await within(form).findByText("Review saved (version 5).")).toBeInTheDocument();
   });
 
   it("the CRO's decision form appears only for an exception whose exclusion is requested, and sends the review's version", async () => {
     const [requested, explained] = engine.exceptionDays.map((d) => d.date);
     const api = fakeApi(
-      routes("cro", backtestBody({ [requested]: review(requested, { exclusionStatus: "requested", version: 2 }), [explained]: review(explained) }), {
-        [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`]: ({ body }) => ({
-          status: 200,
-          body: review(requested, { exclusionStatus: "approved", decisionReference: "SUP-2026-014", decisionDate: "2026-01-20", decidedBy: "Cora Ruiz", version: 3, ...(body as object) }),
+      routes(
+        "cro",
+        backtestBody({
+          [requested]: review(requested, { exclusionStatus: "requested", version: 2 }),
+          [explained]: review(explained),
         }),
-      }),
+        {
+          [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`]: ({ body }) => ({
+            status: 200,
+            body: review(requested, {
+              exclusionStatus: "approved",
+              decisionReference: "SUP-2026-014",
+              decisionDate: "2026-01-20",
+              decidedBy: "Cora Ruiz",
+              version: 3,
+              ...(body as object),
+            }),
+          }),
+        },
+      ),
     );
     const user = userEvent.setup();
     renderApp("/backtest/LKS-US-TOTAL");
@@ -193,7 +271,9 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     await user.type(within(form).getByLabelText("Decided on"), "2026-01-20");
     await user.click(within(form).getByRole("button", { name: "Record decision" }));
 
-    await waitFor(() => expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`)).toHaveLength(1));
+    await waitFor(() =>
+      expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`)).toHaveLength(1),
+    );
     expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${requested}/decision`)[0].body).toEqual({
       decision: "approved",
       reference: "SUP-2026-014",
@@ -204,13 +284,24 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     await waitFor(() => expect(api.callsTo("GET", "/api/portfolios/LKS-US-TOTAL/backtest").length).toBeGreaterThan(1));
   });
 
-  it("evidence uploads as the form field \"file\" and is listed as a download once the server has it", async () => {
+  it('evidence uploads as the form field "file" and is listed as a download once the server has it', async () => {
     const day = engine.exceptionDays[1].date;
-    const file = { id: 41, fileName: "desk-note.txt", contentType: "text/plain", sizeBytes: 1_480, sha256: "ab".repeat(32), uploadedBy: "Theo Marchetti", uploadedAt: "2026-01-05T11:00:00.000Z" };
+    const file = {
+      id: 41,
+      fileName: "desk-note.txt",
+      contentType: "text/plain",
+      sizeBytes: 1_480,
+      sha256: "ab".repeat(32),
+      uploadedBy: "Theo Marchetti",
+      uploadedAt: "2026-01-05T11:00:00.000Z",
+    };
     let received = false;
     const api = fakeApi(
       routes("analyst", undefined, {
-        "GET /api/portfolios/LKS-US-TOTAL/backtest": () => ({ status: 200, body: backtestBody({ [day]: review(day, { evidence: received ? [file] : [] }) }) }),
+        "GET /api/portfolios/LKS-US-TOTAL/backtest": () => ({
+          status: 200,
+          body: backtestBody({ [day]: review(day, { evidence: received ? [file] : [] }) }),
+        }),
         [`POST /api/portfolios/LKS-US-TOTAL/exceptions/${day}/evidence`]: () => {
           received = true;
           return { status: 201, body: review(day, { evidence: [file] }) };
@@ -221,10 +312,15 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     const user = userEvent.setup();
     renderApp(`/backtest/LKS-US-TOTAL?exception=${day}`);
 
-    await user.upload(await screen.findByLabelText("Attach a file"), new File(["Desk head's note on the payrolls day."], "desk-note.txt", { type: "text/plain" }));
+    await user.upload(
+      await screen.findByLabelText("Attach a file"),
+      new File(["Desk head's note on the payrolls day."], "desk-note.txt", { type: "text/plain" }),
+    );
     await user.click(screen.getByRole("button", { name: "Upload" }));
 
-    await waitFor(() => expect(api.callsTo("POST", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/evidence`)).toHaveLength(1));
+    await waitFor(() =>
+      expect(api.callsTo("POST", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/evidence`)).toHaveLength(1),
+    );
     const init = fetchStub.mock.calls.find(([url]) => String(url).endsWith("/evidence"))![1]!;
     expect(((init.body as FormData).get("file") as File).name).toBe("desk-note.txt");
     // The upload's success refetches the backtest; the file then appears with a download link.
@@ -242,6 +338,10 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     await user.clear(input);
     await user.type(input, "2025-11-28");
     await user.click(screen.getByRole("button", { name: "Show" }));
-    await waitFor(() => expect(api.calls.some((c) => c.path === "/api/portfolios/LKS-US-TOTAL/backtest" && c.search === "?asOf=2025-11-28")).toBe(true));
+    await waitFor(() =>
+      expect(
+        api.calls.some((c) => c.path === "/api/portfolios/LKS-US-TOTAL/backtest" && c.search === "?asOf=2025-11-28"),
+      ).toBe(true),
+    );
   });
 });

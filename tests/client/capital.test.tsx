@@ -1,6 +1,11 @@
 import { configure, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { forecastResponseSchema, whatIfResponseSchema, type ForecastResponse, type WhatIfResponse } from "@shared/schemas/capital";
+import {
+  forecastResponseSchema,
+  whatIfResponseSchema,
+  type ForecastResponse,
+  type WhatIfResponse,
+} from "@shared/schemas/capital";
 import { capitalHistorySchema, type CapitalHistoryItem } from "@shared/schemas/snapshot";
 import { binomialPmf } from "@shared/backtest/binomial";
 import { everyFigure } from "@/lib/query-scope";
@@ -13,29 +18,95 @@ import { renderApp } from "./support/render-app";
 // the shared schema, so a change of contract fails here first.
 
 const entities = [
-  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
-  { code: "LKS-UK", name: "Larkspur Bank plc", regime: "frtb", pnlBasis: "max", currency: "GBP", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  {
+    code: "LKS-EU",
+    name: "Larkspur Markets SA",
+    regime: "eu",
+    pnlBasis: "max",
+    currency: "EUR",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+  {
+    code: "LKS-UK",
+    name: "Larkspur Bank plc",
+    regime: "frtb",
+    pnlBasis: "max",
+    currency: "GBP",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
 ];
 
-function quarter(over: Partial<CapitalHistoryItem> & Pick<CapitalHistoryItem, "quarterEnd" | "snapshotId">): CapitalHistoryItem {
-  return { status: "approved", zone: "green", counted: 4, plusFactor: 0, multiplier: 3, capital: 360_000_000, addOn: 0, restatedAfterSignOff: false, windowComplete: true, ...over };
+function quarter(
+  over: Partial<CapitalHistoryItem> & Pick<CapitalHistoryItem, "quarterEnd" | "snapshotId">,
+): CapitalHistoryItem {
+  return {
+    status: "approved",
+    zone: "green",
+    counted: 4,
+    plusFactor: 0,
+    multiplier: 3,
+    capital: 360_000_000,
+    addOn: 0,
+    restatedAfterSignOff: false,
+    windowComplete: true,
+    ...over,
+  };
 }
 
 /** What the server sends treasury: signed-off quarters only, oldest first. */
 const signedOffHistory = capitalHistorySchema.parse([
   quarter({ snapshotId: 3, quarterEnd: "2025-06-30", status: "filed" }),
-  quarter({ snapshotId: 5, quarterEnd: "2025-09-30", status: "filed", zone: "yellow", counted: 5, plusFactor: 0.4, multiplier: 3.4, capital: 398_100_000, addOn: 46_835_294, restatedAfterSignOff: true }),
-  quarter({ snapshotId: 8, quarterEnd: "2025-12-31", zone: "yellow", counted: 6, plusFactor: 0.5, multiplier: 3.5, capital: 412_500_000, addOn: 58_928_571 }),
+  quarter({
+    snapshotId: 5,
+    quarterEnd: "2025-09-30",
+    status: "filed",
+    zone: "yellow",
+    counted: 5,
+    plusFactor: 0.4,
+    multiplier: 3.4,
+    capital: 398_100_000,
+    addOn: 46_835_294,
+    restatedAfterSignOff: true,
+  }),
+  quarter({
+    snapshotId: 8,
+    quarterEnd: "2025-12-31",
+    zone: "yellow",
+    counted: 6,
+    plusFactor: 0.5,
+    multiplier: 3.5,
+    capital: 412_500_000,
+    addOn: 58_928_571,
+  }),
 ]);
 
 /** What analysts and the CRO also see: the open quarter's draft. */
 const fullHistory = capitalHistorySchema.parse([
   ...signedOffHistory,
-  quarter({ snapshotId: 11, quarterEnd: "2026-03-31", status: "draft", zone: "yellow", counted: 6, plusFactor: 0.5, multiplier: 3.5, capital: 409_000_000, addOn: 58_428_571 }),
+  quarter({
+    snapshotId: 11,
+    quarterEnd: "2026-03-31",
+    status: "draft",
+    zone: "yellow",
+    counted: 6,
+    plusFactor: 0.5,
+    multiplier: 3.5,
+    capital: 409_000_000,
+    addOn: 58_428_571,
+  }),
 ]);
 
 /** Binomial(22, 1%) new exceptions on top of the 4 still in the window (common practice: a calibrated 99% VaR). */
-const distribution = Array.from({ length: 23 }, (_, x) => ({ exceptions: 4 + x, probability: binomialPmf(x, 22, 0.01) }));
+const distribution = Array.from({ length: 23 }, (_, x) => ({
+  exceptions: 4 + x,
+  probability: binomialPmf(x, 22, 0.01),
+}));
 
 function forecast(over: Partial<ForecastResponse> = {}): ForecastResponse {
   return forecastResponseSchema.parse({
@@ -55,12 +126,60 @@ function forecast(over: Partial<ForecastResponse> = {}): ForecastResponse {
     nextExceptionCost: 1_250_000,
     today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: true },
     rollOffs: [
-      { date: "2025-12-04", actual: true, hypothetical: false, leavesOn: "2026-12-02", countAfter: 5, zoneAfter: "yellow", plusFactorAfter: 0.4 },
-      { date: "2025-12-19", actual: true, hypothetical: true, leavesOn: "2026-12-17", countAfter: 4, zoneAfter: "green", plusFactorAfter: 0 },
-      { date: "2026-02-12", actual: true, hypothetical: false, leavesOn: "2027-02-10", countAfter: 3, zoneAfter: "green", plusFactorAfter: 0 },
-      { date: "2026-03-10", actual: false, hypothetical: true, leavesOn: "2027-03-08", countAfter: 2, zoneAfter: "green", plusFactorAfter: 0 },
-      { date: "2026-05-21", actual: true, hypothetical: true, leavesOn: "2027-05-19", countAfter: 1, zoneAfter: "green", plusFactorAfter: 0 },
-      { date: "2026-07-02", actual: true, hypothetical: false, leavesOn: "2027-06-30", countAfter: 0, zoneAfter: "green", plusFactorAfter: 0 },
+      {
+        date: "2025-12-04",
+        actual: true,
+        hypothetical: false,
+        leavesOn: "2026-12-02",
+        countAfter: 5,
+        zoneAfter: "yellow",
+        plusFactorAfter: 0.4,
+      },
+      {
+        date: "2025-12-19",
+        actual: true,
+        hypothetical: true,
+        leavesOn: "2026-12-17",
+        countAfter: 4,
+        zoneAfter: "green",
+        plusFactorAfter: 0,
+      },
+      {
+        date: "2026-02-12",
+        actual: true,
+        hypothetical: false,
+        leavesOn: "2027-02-10",
+        countAfter: 3,
+        zoneAfter: "green",
+        plusFactorAfter: 0,
+      },
+      {
+        date: "2026-03-10",
+        actual: false,
+        hypothetical: true,
+        leavesOn: "2027-03-08",
+        countAfter: 2,
+        zoneAfter: "green",
+        plusFactorAfter: 0,
+      },
+      {
+        date: "2026-05-21",
+        actual: true,
+        hypothetical: true,
+        leavesOn: "2027-05-19",
+        countAfter: 1,
+        zoneAfter: "green",
+        plusFactorAfter: 0,
+      },
+      {
+        date: "2026-07-02",
+        actual: true,
+        hypothetical: false,
+        leavesOn: "2027-06-30",
+        countAfter: 0,
+        zoneAfter: "green",
+        plusFactorAfter: 0,
+      },
     ],
     ...over,
   });
@@ -94,7 +213,10 @@ function routes(role: "analyst" | "cro" | "treasury", extra: Record<string, Hand
   return {
     "GET /api/auth/session": signedInAs(role),
     "GET /api/entities": { status: 200, body: entities },
-    "GET /api/entities/LKS-EU/capital/history": { status: 200, body: role === "treasury" ? signedOffHistory : fullHistory },
+    "GET /api/entities/LKS-EU/capital/history": {
+      status: 200,
+      body: role === "treasury" ? signedOffHistory : fullHistory,
+    },
     "GET /api/entities/LKS-EU/capital/forecast": (c) => {
       const date = new URLSearchParams(c.search).get("date");
       return { status: 200, body: date === "2027-03-31" ? forecastForQ1 : date ? forecast({ date }) : forecast() };
@@ -108,7 +230,11 @@ const searchOf = (c: Call) => Object.fromEntries(new URLSearchParams(c.search));
 describe("Capital screen", { timeout: 20_000 }, () => {
   beforeAll(async () => {
     // The screen and its charts are lazy modules; load them once so each test waits only for the fake server.
-    await Promise.all([import("@/app/routes/app-layout"), import("@/app/routes/capital"), import("@/features/capital/components/charts")]);
+    await Promise.all([
+      import("@/app/routes/app-layout"),
+      import("@/app/routes/capital"),
+      import("@/features/capital/components/charts"),
+    ]);
     configure({ asyncUtilTimeout: 4000 });
   }, 30_000);
 
@@ -125,16 +251,25 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     expect(within(standing).getByTestId("today-plus-factor")).toHaveTextContent("0.50");
     expect(within(standing).getByTestId("today-multiplier")).toHaveTextContent("3.50");
     expect(within(standing).getByTestId("next-exception-cost")).toHaveTextContent("1,250,000 EUR");
-    expect(within(standing).getByText("One more exception today would raise the capital requirement by 1,250,000 EUR.")).toBeInTheDocument();
+    expect(
+      within(standing).getByText("One more exception today would raise the capital requirement by 1,250,000 EUR."),
+    ).toBeInTheDocument();
 
     const table = screen.getByRole("table", { name: "Capital history by quarter end, oldest first" });
     const rows = within(table).getAllByRole("row").slice(1);
-    expect(rows.map((r) => within(r).getAllByRole("cell")[0].textContent)).toEqual(["Q2 20252025-06-30", "Q3 20252025-09-30", "Q4 20252025-12-31"]);
+    expect(rows.map((r) => within(r).getAllByRole("cell")[0].textContent)).toEqual([
+      "Q2 20252025-06-30",
+      "Q3 20252025-09-30",
+      "Q4 20252025-12-31",
+    ]);
     const q4 = rows[2];
-    for (const text of ["Approved", "Yellow", "6", "0.50", "3.50", "412,500,000 EUR", "58,928,571 EUR"]) expect(within(q4).getByText(text)).toBeInTheDocument();
+    for (const text of ["Approved", "Yellow", "6", "0.50", "3.50", "412,500,000 EUR", "58,928,571 EUR"])
+      expect(within(q4).getByText(text)).toBeInTheDocument();
     expect(within(rows[1]).getByText(/Restated after sign-off; the figures stay as approved/)).toBeInTheDocument();
     expect(within(table).queryByText("not signed off")).not.toBeInTheDocument();
-    expect(await screen.findByRole("figure", { name: "Multiplier and capital add-on at each quarter end, EUR" })).toBeInTheDocument();
+    expect(
+      await screen.findByRole("figure", { name: "Multiplier and capital add-on at each quarter end, EUR" }),
+    ).toBeInTheDocument();
     expect(api.callsTo("GET", "/api/entities/LKS-EU/capital/history")).toHaveLength(1);
   });
 
@@ -150,11 +285,19 @@ describe("Capital screen", { timeout: 20_000 }, () => {
   });
 
   it("when a quarter's window or today's was short of 250 days, then its zone is marked provisional, and the others are not", async () => {
-    const shortFirst = capitalHistorySchema.parse([quarter({ snapshotId: 2, quarterEnd: "2025-03-31", windowComplete: false }), ...signedOffHistory]);
+    const shortFirst = capitalHistorySchema.parse([
+      quarter({ snapshotId: 2, quarterEnd: "2025-03-31", windowComplete: false }),
+      ...signedOffHistory,
+    ]);
     fakeApi(
       routes("treasury", {
         "GET /api/entities/LKS-EU/capital/history": { status: 200, body: shortFirst },
-        "GET /api/entities/LKS-EU/capital/forecast": { status: 200, body: forecast({ today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: false } }) },
+        "GET /api/entities/LKS-EU/capital/forecast": {
+          status: 200,
+          body: forecast({
+            today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: false },
+          }),
+        },
       }),
     );
     renderApp("/capital?entity=LKS-EU");
@@ -181,9 +324,15 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     await user.click(within(section).getByRole("button", { name: "Forecast" }));
 
     const dated = await screen.findByRole("region", { name: "Zone forecast for 2027-03-31" });
-    expect(searchOf(api.callsTo("GET", "/api/entities/LKS-EU/capital/forecast").at(-1)!)).toEqual({ date: "2027-03-31" });
+    expect(searchOf(api.callsTo("GET", "/api/entities/LKS-EU/capital/forecast").at(-1)!)).toEqual({
+      date: "2027-03-31",
+    });
     expect(new URLSearchParams(router.state.location.search).get("date")).toBe("2027-03-31");
-    expect(within(dated).getByText("Of today's 6 exceptions, 2 are still in the window on 2027-03-31; 84 new business days could add more.")).toBeInTheDocument();
+    expect(
+      within(dated).getByText(
+        "Of today's 6 exceptions, 2 are still in the window on 2027-03-31; 84 new business days could add more.",
+      ),
+    ).toBeInTheDocument();
     expect(within(dated).getByTestId("chance-green")).toHaveTextContent("94.75%");
     expect(within(dated).getByTestId("chance-yellow")).toHaveTextContent("5.25%");
     // 0.0002% is not none: it reads below the smallest step shown.
@@ -227,7 +376,16 @@ describe("Capital screen", { timeout: 20_000 }, () => {
       routes("analyst", {
         "GET /api/entities/LKS-EU/capital/forecast": (c) =>
           new URLSearchParams(c.search).get("date")
-            ? { status: 422, body: { error: { code: "validation_failed", message: "Invalid query", details: { fields: { date: "On or after 2026-11-27, the last day with data" } } } } }
+            ? {
+                status: 422,
+                body: {
+                  error: {
+                    code: "validation_failed",
+                    message: "Invalid query",
+                    details: { fields: { date: "On or after 2026-11-27, the last day with data" } },
+                  },
+                },
+              }
             : { status: 200, body: forecast() },
       }),
     );
@@ -240,7 +398,9 @@ describe("Capital screen", { timeout: 20_000 }, () => {
   });
 
   it("when a what-if is computed, then the form's figures are sent and today, the scenario and the change are shown side by side", async () => {
-    const api = fakeApi(routes("treasury", { "POST /api/entities/LKS-EU/capital/what-if": { status: 200, body: whatIfAnswer } }));
+    const api = fakeApi(
+      routes("treasury", { "POST /api/entities/LKS-EU/capital/what-if": { status: 200, body: whatIfAnswer } }),
+    );
     const user = userEvent.setup();
     renderApp("/capital?entity=LKS-EU");
 
@@ -252,9 +412,18 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     expect(within(form).getByLabelText("stressed VaR (FRTB: SES) scale")).toHaveValue(1);
     await user.click(within(form).getByRole("button", { name: "Compute the scenario" }));
 
-    const result = await screen.findByRole("table", { name: "What-if as of 2026-11-27: today, the scenario and the change" });
-    expect(api.callsTo("POST", "/api/entities/LKS-EU/capital/what-if")[0].body).toEqual({ extraExceptions: 2, varScale: 1.1, svarScale: 1 });
-    const cells = (id: string) => within(within(result).getByTestId(id)).getAllByRole("cell").map((c) => c.textContent);
+    const result = await screen.findByRole("table", {
+      name: "What-if as of 2026-11-27: today, the scenario and the change",
+    });
+    expect(api.callsTo("POST", "/api/entities/LKS-EU/capital/what-if")[0].body).toEqual({
+      extraExceptions: 2,
+      varScale: 1.1,
+      svarScale: 1,
+    });
+    const cells = (id: string) =>
+      within(within(result).getByTestId(id))
+        .getAllByRole("cell")
+        .map((c) => c.textContent);
     expect(cells("what-if-zone")).toEqual(["Yellow", "Yellow", "No change"]);
     expect(cells("what-if-counted")).toEqual(["6", "8", "+2"]);
     expect(cells("what-if-plus-factor")).toEqual(["0.50", "0.75", "+0.25"]);
@@ -286,7 +455,13 @@ describe("Capital screen", { timeout: 20_000 }, () => {
       routes("cro", {
         "POST /api/entities/LKS-EU/capital/what-if": {
           status: 422,
-          body: { error: { code: "validation_failed", message: "Check the highlighted fields.", details: { fields: { svarScale: "No stressed VaR in the data to scale" } } } },
+          body: {
+            error: {
+              code: "validation_failed",
+              message: "Check the highlighted fields.",
+              details: { fields: { svarScale: "No stressed VaR in the data to scale" } },
+            },
+          },
         },
       }),
     );
@@ -299,9 +474,15 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     await user.click(within(form).getByRole("button", { name: "Compute the scenario" }));
 
     await waitFor(() =>
-      expect(within(form).getByLabelText("stressed VaR (FRTB: SES) scale")).toHaveAccessibleDescription("No stressed VaR in the data to scale"),
+      expect(within(form).getByLabelText("stressed VaR (FRTB: SES) scale")).toHaveAccessibleDescription(
+        "No stressed VaR in the data to scale",
+      ),
     );
-    expect(api.callsTo("POST", "/api/entities/LKS-EU/capital/what-if")[0].body).toEqual({ extraExceptions: 1, varScale: 1, svarScale: 1.5 });
+    expect(api.callsTo("POST", "/api/entities/LKS-EU/capital/what-if")[0].body).toEqual({
+      extraExceptions: 1,
+      varScale: 1,
+      svarScale: 1.5,
+    });
     expect(within(form).queryByRole("alert")).not.toBeInTheDocument();
     expect(screen.queryByRole("table", { name: /What-if as of/ })).not.toBeInTheDocument();
   });
@@ -311,7 +492,11 @@ describe("Capital screen", { timeout: 20_000 }, () => {
       routes("treasury", {
         "GET /api/entities/LKS-EU/capital/forecast": {
           status: 200,
-          body: forecast({ nextExceptionCost: null, expectedAddOn: null, ifNoNewException: { counted: 4, zone: "green", plusFactor: 0, addOn: null } }),
+          body: forecast({
+            nextExceptionCost: null,
+            expectedAddOn: null,
+            ifNoNewException: { counted: 4, zone: "green", plusFactor: 0, addOn: null },
+          }),
         },
       }),
     );
@@ -327,13 +512,19 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     fakeApi(
       routes("analyst", {
         "GET /api/entities/LKS-EU/capital/history": { status: 200, body: [] },
-        "GET /api/entities/LKS-EU/capital/forecast": { status: 404, body: { error: { code: "no_data", message: "No daily data for LKS-EU-TOTAL yet." } } },
+        "GET /api/entities/LKS-EU/capital/forecast": {
+          status: 404,
+          body: { error: { code: "no_data", message: "No daily data for LKS-EU-TOTAL yet." } },
+        },
       }),
     );
     renderApp("/capital");
 
     expect(await screen.findByText("No daily data for LKS-EU yet")).toBeInTheDocument();
-    expect(within(screen.getByRole("main")).getByRole("link", { name: "Data" })).toHaveAttribute("href", "/data?entity=LKS-EU");
+    expect(within(screen.getByRole("main")).getByRole("link", { name: "Data" })).toHaveAttribute(
+      "href",
+      "/data?entity=LKS-EU",
+    );
     expect(screen.getByText("No quarter snapshots for LKS-EU yet")).toBeInTheDocument();
     expect(screen.queryByRole("form", { name: "What-if scenario" })).not.toBeInTheDocument();
   });
@@ -353,11 +544,16 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     ["a regulator", "regulator"],
     ["an administrator", "admin"],
   ] as const)("when %s opens Capital, then it is refused and no capital figure is asked for", async (_who, role) => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: entities } });
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs(role),
+      "GET /api/entities": { status: 200, body: entities },
+    });
     renderApp("/capital");
 
     expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
-    expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Capital" })).not.toBeInTheDocument();
+    expect(
+      within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Capital" }),
+    ).not.toBeInTheDocument();
     expect(api.calls.filter((c) => c.path.includes("/capital"))).toHaveLength(0);
   });
 });

@@ -4,8 +4,28 @@ import { fakeApi, signedInAs, type Call } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const entities = [
-  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
-  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  {
+    code: "LKS-EU",
+    name: "Larkspur Markets SA",
+    regime: "eu",
+    pnlBasis: "max",
+    currency: "EUR",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+  {
+    code: "LKS-US",
+    name: "Larkspur Securities LLC",
+    regime: "us",
+    pnlBasis: "actual",
+    currency: "USD",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
 ];
 
 function finding(id: number, over: Record<string, unknown> = {}) {
@@ -28,7 +48,13 @@ function finding(id: number, over: Record<string, unknown> = {}) {
 
 const findings = [
   finding(1),
-  finding(2, { kind: "stale_var", entity: "LKS-US", portfolio: "LKS-US-TOTAL", detail: "VaR 3,100,000.00 on 6 days", version: 1 }),
+  finding(2, {
+    kind: "stale_var",
+    entity: "LKS-US",
+    portfolio: "LKS-US-TOTAL",
+    detail: "VaR 3,100,000.00 on 6 days",
+    version: 1,
+  }),
   finding(3, { kind: "pnl_without_var", from: "2026-03-12", to: "2026-03-12" }),
   finding(4, { kind: "var_without_pnl" }),
   finding(5, { kind: "outlier", detail: "Actual P&L -24,000,000.00 is 5.7 × VaR" }),
@@ -84,19 +110,35 @@ describe("Data › data-quality findings", () => {
       ...routes(() => ({ status: 200, body: [finding(1, { version })] })),
       "PUT /api/findings/1": () => {
         version = 4;
-        return { status: 409, body: { error: { code: "conflict", message: "Finding #1 was changed by someone else (now version 4); reload and try again." } } };
+        return {
+          status: 409,
+          body: {
+            error: {
+              code: "conflict",
+              message: "Finding #1 was changed by someone else (now version 4); reload and try again.",
+            },
+          },
+        };
       },
     });
     const user = userEvent.setup();
     renderApp("/data");
 
-    await user.click(await screen.findByRole("button", { name: "Explain finding #1: Missing business days on LKS-EU-TOTAL" }));
+    await user.click(
+      await screen.findByRole("button", { name: "Explain finding #1: Missing business days on LKS-EU-TOTAL" }),
+    );
     await user.type(screen.getByLabelText("Why is it acceptable?"), "Desk closed for the move; no positions held.");
     const before = api.callsTo("GET", "/api/findings").length;
     await user.click(screen.getByRole("button", { name: "Record explanation" }));
 
-    expect(await screen.findByText("Finding #1 was changed by someone else (now version 4); reload and try again.")).toBeInTheDocument();
-    expect(api.callsTo("PUT", "/api/findings/1")[0].body).toEqual({ status: "explained", note: "Desk closed for the move; no positions held.", version: 3 });
+    expect(
+      await screen.findByText("Finding #1 was changed by someone else (now version 4); reload and try again."),
+    ).toBeInTheDocument();
+    expect(api.callsTo("PUT", "/api/findings/1")[0].body).toEqual({
+      status: "explained",
+      note: "Desk closed for the move; no positions held.",
+      version: 3,
+    });
     await vi.waitFor(() => expect(api.callsTo("GET", "/api/findings").length).toBeGreaterThan(before));
   });
 
@@ -107,7 +149,16 @@ describe("Data › data-quality findings", () => {
       "PUT /api/findings/1": (c) => {
         closed = true;
         const body = c.body as { note: string };
-        return { status: 200, body: finding(1, { status: "resolved", note: body.note, closedBy: "analyst@larkspur.test", closedAt: "2026-03-31T18:30:00.000Z", version: 4 }) };
+        return {
+          status: 200,
+          body: finding(1, {
+            status: "resolved",
+            note: body.note,
+            closedBy: "analyst@larkspur.test",
+            closedAt: "2026-03-31T18:30:00.000Z",
+            version: 4,
+          }),
+        };
       },
     });
     const user = userEvent.setup();
@@ -123,7 +174,9 @@ describe("Data › data-quality findings", () => {
 
     await user.type(note, " — both days uploaded in #42");
     await user.click(screen.getByRole("button", { name: "Mark resolved" }));
-    expect(await screen.findByText("Missing business days on LKS-EU-TOTAL (2026-03-09 – 2026-03-10) is now resolved.")).toBeInTheDocument();
+    expect(
+      await screen.findByText("Missing business days on LKS-EU-TOTAL (2026-03-09 – 2026-03-10) is now resolved."),
+    ).toBeInTheDocument();
     expect(await screen.findByText("No open findings")).toBeInTheDocument();
   });
 
@@ -133,7 +186,8 @@ describe("Data › data-quality findings", () => {
     const user = userEvent.setup();
     renderApp("/data");
 
-    const rows = () => within(screen.getByRole("table", { name: "Data-quality findings" })).getAllByRole("row").length - 1;
+    const rows = () =>
+      within(screen.getByRole("table", { name: "Data-quality findings" })).getAllByRole("row").length - 1;
     expect(await screen.findByText("1–50 of 60")).toBeInTheDocument();
     expect(rows()).toBe(50);
     await user.click(screen.getByRole("button", { name: "Next 50" }));
@@ -151,7 +205,14 @@ describe("Data › data-quality findings", () => {
       routes(
         () => ({
           status: 200,
-          body: [finding(1, { status: "explained", note: "Exchange holiday not in the calendar", closedBy: "analyst@larkspur.test", closedAt: "2026-03-11T09:00:00.000Z" })],
+          body: [
+            finding(1, {
+              status: "explained",
+              note: "Exchange holiday not in the calendar",
+              closedBy: "analyst@larkspur.test",
+              closedAt: "2026-03-11T09:00:00.000Z",
+            }),
+          ],
         }),
         "cro",
       ),

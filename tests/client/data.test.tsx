@@ -39,12 +39,24 @@ const summary = (p: ReturnType<typeof preview>) => {
 
 const badRow = {
   line: 3,
-  cells: { portfolio: "LKS-EU-TOTAL", date: "2026-03-28", actual_pnl: "-1250000.00", hypothetical_pnl: "-1190000.00", var_99: "4200000" },
+  cells: {
+    portfolio: "LKS-EU-TOTAL",
+    date: "2026-03-28",
+    actual_pnl: "-1250000.00",
+    hypothetical_pnl: "-1190000.00",
+    var_99: "4200000",
+  },
   errors: [{ line: 3, column: "date", message: weekendMessage }],
 };
 const goodRow = {
   line: 2,
-  cells: { portfolio: "LKS-EU-TOTAL", date: "2026-03-27", actual_pnl: "310000.00", hypothetical_pnl: "295000.00", var_99: "4100000" },
+  cells: {
+    portfolio: "LKS-EU-TOTAL",
+    date: "2026-03-27",
+    actual_pnl: "310000.00",
+    hypothetical_pnl: "295000.00",
+    var_99: "4100000",
+  },
   errors: [],
 };
 
@@ -61,7 +73,10 @@ class FakeXhr {
   statusText = "";
   responseText = "";
   headers: Record<string, string> = {};
-  upload: { onprogress: ((e: ProgressEvent) => void) | null; onload: (() => void) | null } = { onprogress: null, onload: null };
+  upload: { onprogress: ((e: ProgressEvent) => void) | null; onload: (() => void) | null } = {
+    onprogress: null,
+    onload: null,
+  };
   onload: (() => void) | null = null;
   onerror: (() => void) | null = null;
   onabort: (() => void) | null = null;
@@ -96,7 +111,8 @@ function stubXhr() {
   vi.stubGlobal("XMLHttpRequest", FakeXhr);
 }
 
-const csv = (name = "daily-2026-03-31.csv") => new File(["portfolio,date,actual_pnl,hypothetical_pnl,var_99\n"], name, { type: "text/csv" });
+const csv = (name = "daily-2026-03-31.csv") =>
+  new File(["portfolio,date,actual_pnl,hypothetical_pnl,var_99\n"], name, { type: "text/csv" });
 
 function baseRoutes(role: "analyst" | "cro" = "analyst") {
   return {
@@ -138,7 +154,9 @@ describe("Data › upload preview", () => {
 
     const commit = screen.getByRole("button", { name: "Commit 1,249 rows" });
     expect(commit).toBeDisabled();
-    expect(commit).toHaveAccessibleDescription("Nothing can be committed while 1 row has errors. Fix them in the file and upload it again.");
+    expect(commit).toHaveAccessibleDescription(
+      "Nothing can be committed while 1 row has errors. Fix them in the file and upload it again.",
+    );
   });
 
   it("clearing 'Only rows with errors' asks the server for every row and they sort by line", async () => {
@@ -159,7 +177,11 @@ describe("Data › upload preview", () => {
     expect(new URLSearchParams(api.calls.at(-1)!.search).get("invalidOnly")).toBe("false");
 
     const table = screen.getByRole("table", { name: "Rows of the uploaded file" });
-    const lines = () => within(table).getAllByRole("row").slice(1).map((r) => (r as HTMLTableRowElement).cells[0].textContent);
+    const lines = () =>
+      within(table)
+        .getAllByRole("row")
+        .slice(1)
+        .map((r) => (r as HTMLTableRowElement).cells[0].textContent);
     expect(lines()).toEqual(["3", "2"]);
     // Clean amounts read with separators; the cell with the problem keeps the file's text.
     expect(within(table).getByRole("cell", { name: "310,000.00" })).toBeInTheDocument();
@@ -172,7 +194,14 @@ describe("Data › upload preview", () => {
 
   it("committing a clean preview calls the endpoint, says what was written and refreshes history and findings", async () => {
     let committed = false;
-    const clean = () => preview({ invalid: 0, valid: 1250, errors: [], errorCount: 0, ...(committed ? { status: "committed", committedAt: "2026-03-31T18:05:00.000Z", inserted: 1000 } : {}) });
+    const clean = () =>
+      preview({
+        invalid: 0,
+        valid: 1250,
+        errors: [],
+        errorCount: 0,
+        ...(committed ? { status: "committed", committedAt: "2026-03-31T18:05:00.000Z", inserted: 1000 } : {}),
+      });
     const api = fakeApi({
       ...baseRoutes(),
       "GET /api/uploads": () => ({ status: 200, body: [summary(clean())] }),
@@ -187,11 +216,16 @@ describe("Data › upload preview", () => {
     renderApp("/data?upload=41");
 
     const commit = await screen.findByRole("button", { name: "Commit 1,250 rows" });
-    const before = { uploads: api.callsTo("GET", "/api/uploads").length, findings: api.callsTo("GET", "/api/findings").length };
+    const before = {
+      uploads: api.callsTo("GET", "/api/uploads").length,
+      findings: api.callsTo("GET", "/api/findings").length,
+    };
     await user.click(commit);
 
     expect(
-      await screen.findByText("Upload #41 is committed: 1,000 new days written, 249 days restated (earlier versions kept), 1 unchanged."),
+      await screen.findByText(
+        "Upload #41 is committed: 1,000 new days written, 249 days restated (earlier versions kept), 1 unchanged.",
+      ),
     ).toBeInTheDocument();
     expect(api.callsTo("POST", "/api/uploads/41/commit")).toHaveLength(1);
     expect(api.callsTo("GET", "/api/uploads").length).toBeGreaterThan(before.uploads);
@@ -303,7 +337,10 @@ describe("Data › sending a file", () => {
     expect(alert).toHaveTextContent("march.csv");
     expect(alert).toHaveTextContent("The header row has 2 problems; nothing was read.");
     const items = within(within(alert).getByRole("list", { name: "Problems with the file" })).getAllByRole("listitem");
-    expect(items.map((li) => li.textContent)).toEqual(["Line 1 · pnlUnknown column pnl", "Line 1 · var_99Required column var_99 is missing"]);
+    expect(items.map((li) => li.textContent)).toEqual([
+      "Line 1 · pnlUnknown column pnl",
+      "Line 1 · var_99Required column var_99 is missing",
+    ]);
   });
 
   it("when the same file was committed before (409), then the message names it and links to it", async () => {
@@ -313,7 +350,11 @@ describe("Data › sending a file", () => {
     renderApp("/data");
 
     await user.upload(await screen.findByLabelText("Choose a CSV file"), csv());
-    act(() => FakeXhr.last!.respond(409, { error: { code: "conflict", message: "This exact file was committed as upload #12 on 2026-03-30." } }));
+    act(() =>
+      FakeXhr.last!.respond(409, {
+        error: { code: "conflict", message: "This exact file was committed as upload #12 on 2026-03-30." },
+      }),
+    );
 
     const alert = await screen.findByRole("alert", { name: "This file is already in" });
     expect(alert).toHaveTextContent("This exact file was committed as upload #12 on 2026-03-30.");
@@ -327,7 +368,9 @@ describe("Data › sending a file", () => {
 
     const zone = (await screen.findByText("Drop a CSV file here, or")).parentElement!;
     fireEvent.drop(zone, { dataTransfer: { files: [csv("a.csv"), csv("b.csv")] } });
-    expect(await screen.findByRole("alert", { name: "The file was not accepted" })).toHaveTextContent("2 files were dropped; upload one file at a time.");
+    expect(await screen.findByRole("alert", { name: "The file was not accepted" })).toHaveTextContent(
+      "2 files were dropped; upload one file at a time.",
+    );
     expect(FakeXhr.last).toBeUndefined();
 
     fireEvent.drop(zone, { dataTransfer: { files: [csv("a.csv")] } });
@@ -344,7 +387,9 @@ describe("Data › sending a file", () => {
 
     await user.upload(await screen.findByLabelText("Choose a CSV file"), new File(["x"], "march.xlsx"));
 
-    expect(await screen.findByRole("alert", { name: "This is not a CSV file" })).toHaveTextContent("march.xlsx is not a .csv file.");
+    expect(await screen.findByRole("alert", { name: "This is not a CSV file" })).toHaveTextContent(
+      "march.xlsx is not a .csv file.",
+    );
     expect(FakeXhr.last).toBeUndefined();
   });
 });
@@ -355,7 +400,22 @@ describe("Data › who may do what", () => {
       ...baseRoutes("cro"),
       "GET /api/findings": {
         status: 200,
-        body: [{ id: 5, entity: "LKS-EU", portfolio: "LKS-EU-TOTAL", kind: "stale_var", from: "2026-03-02", to: "2026-03-06", detail: "VaR 4,200,000 on 5 days", status: "open", note: null, closedBy: null, closedAt: null, version: 1 }],
+        body: [
+          {
+            id: 5,
+            entity: "LKS-EU",
+            portfolio: "LKS-EU-TOTAL",
+            kind: "stale_var",
+            from: "2026-03-02",
+            to: "2026-03-06",
+            detail: "VaR 4,200,000 on 5 days",
+            status: "open",
+            note: null,
+            closedBy: null,
+            closedAt: null,
+            version: 1,
+          },
+        ],
       },
       "GET /api/uploads": { status: 200, body: [summary(preview())] },
       "GET /api/uploads/41": { status: 200, body: preview() },
@@ -377,15 +437,24 @@ describe("Data › who may do what", () => {
     fakeApi({ "GET /api/auth/session": signedInAs("treasury"), "GET /api/entities": { status: 200, body: [] } });
     renderApp("/data");
     expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
-    expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Data" })).not.toBeInTheDocument();
+    expect(
+      within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Data" }),
+    ).not.toBeInTheDocument();
   });
 
   it("when nothing has been uploaded, the analyst is told how to start", async () => {
     fakeApi({ ...baseRoutes(), "GET /api/uploads": { status: 200, body: [] } });
     renderApp("/data");
     expect(await screen.findByText("No files uploaded yet")).toBeInTheDocument();
-    expect(screen.getByText(/Download the template, fill in one line per portfolio and business day/)).toBeInTheDocument();
-    expect(screen.getByRole("link", { name: "Download the template" })).toHaveAttribute("href", "/api/uploads/template.csv");
-    expect(within(screen.getByRole("navigation", { name: "Main" })).getByRole("link", { name: "Data" })).toBeInTheDocument();
+    expect(
+      screen.getByText(/Download the template, fill in one line per portfolio and business day/),
+    ).toBeInTheDocument();
+    expect(screen.getByRole("link", { name: "Download the template" })).toHaveAttribute(
+      "href",
+      "/api/uploads/template.csv",
+    );
+    expect(
+      within(screen.getByRole("navigation", { name: "Main" })).getByRole("link", { name: "Data" }),
+    ).toBeInTheDocument();
   });
 });

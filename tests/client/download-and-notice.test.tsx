@@ -38,16 +38,25 @@ describe("DownloadButton", () => {
       "GET /api/filings/31/pack.pdf": {
         status: 200,
         raw: "%PDF-1.7\n%%EOF\n",
-        headers: { "Content-Type": "application/pdf", "Content-Disposition": 'attachment; filename="LKS-EU-2026-09-30-pack.pdf"' },
+        headers: {
+          "Content-Type": "application/pdf",
+          "Content-Disposition": 'attachment; filename="LKS-EU-2026-09-30-pack.pdf"',
+        },
       },
     });
     const saves = catchSaves();
     const user = userEvent.setup();
-    render(<DownloadButton href="/api/filings/31/pack.pdf" fallbackName="pack.pdf">Download the pack (PDF)</DownloadButton>);
+    render(
+      <DownloadButton href="/api/filings/31/pack.pdf" fallbackName="pack.pdf">
+        Download the pack (PDF)
+      </DownloadButton>,
+    );
 
     await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
 
-    await waitFor(() => expect(saves.saved).toEqual([{ href: "blob:quartermark.test/1", download: "LKS-EU-2026-09-30-pack.pdf" }]));
+    await waitFor(() =>
+      expect(saves.saved).toEqual([{ href: "blob:quartermark.test/1", download: "LKS-EU-2026-09-30-pack.pdf" }]),
+    );
     expect(await saves.blobs[0]!.text()).toBe("%PDF-1.7\n%%EOF\n");
     expect(api.callsTo("GET", "/api/filings/31/pack.pdf")).toHaveLength(1);
     expect(vi.mocked(fetch).mock.calls[0]![1]).toMatchObject({ credentials: "same-origin" });
@@ -56,10 +65,20 @@ describe("DownloadButton", () => {
   });
 
   it("when the server names no file, then the fallback name is used", async () => {
-    fakeApi({ "GET /api/snapshots/12/pack.pdf": { status: 200, raw: "%PDF-1.7\n", headers: { "Content-Type": "application/pdf" } } });
+    fakeApi({
+      "GET /api/snapshots/12/pack.pdf": {
+        status: 200,
+        raw: "%PDF-1.7\n",
+        headers: { "Content-Type": "application/pdf" },
+      },
+    });
     const saves = catchSaves();
     const user = userEvent.setup();
-    render(<DownloadButton href="/api/snapshots/12/pack.pdf" fallbackName="quartermark-lks-eu-2025-12-31-pack.pdf">Download</DownloadButton>);
+    render(
+      <DownloadButton href="/api/snapshots/12/pack.pdf" fallbackName="quartermark-lks-eu-2025-12-31-pack.pdf">
+        Download
+      </DownloadButton>,
+    );
 
     await user.click(screen.getByRole("button", { name: "Download" }));
 
@@ -69,30 +88,44 @@ describe("DownloadButton", () => {
   it.each([
     [404, "not_found", "No snapshot 12."],
     [403, "forbidden", "A supervisor reads filed packs under Filings, not a quarter's draft."],
-  ])("when the server refuses with %i, then its message shows beside the control and nothing is saved", async (status, code, message) => {
-    fakeApi({ "GET /api/snapshots/12/pack.pdf": { status, body: { error: { code, message } } } });
-    const saves = catchSaves();
-    const user = userEvent.setup();
-    render(<DownloadButton href="/api/snapshots/12/pack.pdf" fallbackName="pack.pdf">Download the pack (PDF)</DownloadButton>);
+  ])(
+    "when the server refuses with %i, then its message shows beside the control and nothing is saved",
+    async (status, code, message) => {
+      fakeApi({ "GET /api/snapshots/12/pack.pdf": { status, body: { error: { code, message } } } });
+      const saves = catchSaves();
+      const user = userEvent.setup();
+      render(
+        <DownloadButton href="/api/snapshots/12/pack.pdf" fallbackName="pack.pdf">
+          Download the pack (PDF)
+        </DownloadButton>,
+      );
 
-    await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
+      await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
 
-    expect(await screen.findByRole("alert")).toHaveTextContent(message);
-    expect(saves.saved).toEqual([]);
-    expect(URL.createObjectURL).not.toHaveBeenCalled();
-  });
+      expect(await screen.findByRole("alert")).toHaveTextContent(message);
+      expect(saves.saved).toEqual([]);
+      expect(URL.createObjectURL).not.toHaveBeenCalled();
+    },
+  );
 
   it("while the PDF is on its way, then the control says so and a second press sends no second request", async () => {
     let release!: () => void;
     const gate = new Promise<void>((r) => (release = r));
     const fetchStub = vi.fn(async () => {
       await gate;
-      return new Response("%PDF-1.7\n", { status: 200, headers: { "Content-Disposition": 'attachment; filename="a.pdf"' } });
+      return new Response("%PDF-1.7\n", {
+        status: 200,
+        headers: { "Content-Disposition": 'attachment; filename="a.pdf"' },
+      });
     });
     vi.stubGlobal("fetch", fetchStub);
     const saves = catchSaves();
     const user = userEvent.setup();
-    render(<DownloadButton href="/api/filings/31/pack.pdf" fallbackName="pack.pdf">Download the pack (PDF)</DownloadButton>);
+    render(
+      <DownloadButton href="/api/filings/31/pack.pdf" fallbackName="pack.pdf">
+        Download the pack (PDF)
+      </DownloadButton>,
+    );
 
     await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
     const busy = await screen.findByRole("button", { name: "Downloading…" });
@@ -108,9 +141,13 @@ describe("DownloadButton", () => {
 
 describe("fileNameFromDisposition", () => {
   it("reads the quoted, the bare and the RFC 5987 forms, and keeps only the last path segment", () => {
-    expect(fileNameFromDisposition('attachment; filename="LKS-EU-2026-09-30-pack.pdf"')).toBe("LKS-EU-2026-09-30-pack.pdf");
+    expect(fileNameFromDisposition('attachment; filename="LKS-EU-2026-09-30-pack.pdf"')).toBe(
+      "LKS-EU-2026-09-30-pack.pdf",
+    );
     expect(fileNameFromDisposition("attachment; filename=pack.pdf")).toBe("pack.pdf");
-    expect(fileNameFromDisposition("attachment; filename=\"x.pdf\"; filename*=UTF-8''Q4%20pack.pdf")).toBe("Q4 pack.pdf");
+    expect(fileNameFromDisposition("attachment; filename=\"x.pdf\"; filename*=UTF-8''Q4%20pack.pdf")).toBe(
+      "Q4 pack.pdf",
+    );
     expect(fileNameFromDisposition('attachment; filename="../../etc/pack.pdf"')).toBe("pack.pdf");
     expect(fileNameFromDisposition("attachment")).toBeNull();
     expect(fileNameFromDisposition(null)).toBeNull();

@@ -10,8 +10,28 @@ import { renderApp } from "./support/render-app";
 // file is computed by the browser's Web Crypto and checked here against Node's own hash of the same bytes.
 
 const entities = [
-  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
-  { code: "LKS-UK", name: "Larkspur Bank plc", regime: "frtb", pnlBasis: "hypothetical", currency: "GBP", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  {
+    code: "LKS-EU",
+    name: "Larkspur Markets SA",
+    regime: "eu",
+    pnlBasis: "max",
+    currency: "EUR",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+  {
+    code: "LKS-UK",
+    name: "Larkspur Bank plc",
+    regime: "frtb",
+    pnlBasis: "hypothetical",
+    currency: "GBP",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
 ];
 
 /** The bytes of the pack as the bank sent it (a stand-in: only its hash matters to the check). */
@@ -61,7 +81,11 @@ const older = () =>
     acknowledgedAt: "2026-07-10T08:15:00.000Z",
   });
 
-function filingRoutes(role: "analyst" | "cro" | "regulator", store: Filing[], extra: Record<string, Reply | ((c: Call) => Reply)> = {}) {
+function filingRoutes(
+  role: "analyst" | "cro" | "regulator",
+  store: Filing[],
+  extra: Record<string, Reply | ((c: Call) => Reply)> = {},
+) {
   return {
     "GET /api/auth/session": signedInAs(role),
     "GET /api/entities": { status: 200, body: entities },
@@ -85,7 +109,9 @@ describe("Filings › the regulator", () => {
     const user = userEvent.setup();
     renderApp("/");
 
-    await user.click(within(await screen.findByRole("navigation", { name: "Main" })).getByRole("link", { name: "Filings" }));
+    await user.click(
+      within(await screen.findByRole("navigation", { name: "Main" })).getByRole("link", { name: "Filings" }),
+    );
 
     expect(await screen.findByLabelText("Where the filings stand")).toBeInTheDocument();
     expect(screen.getByTestId("filings-count")).toHaveTextContent("2 packs");
@@ -93,7 +119,19 @@ describe("Filings › the regulator", () => {
 
     const table = screen.getByRole("table", { name: "Filed packs, newest first" });
     const eu = within(table).getByRole("link", { name: "Open LKS-EU Q3 2026" }).closest("tr")!;
-    for (const text of ["LKS-EU", "Larkspur Markets SA", "2026-09-30", "Yellow", "6", "3.50", "08 Oct 2026, 14:30 UTC", "cro@larkspur.test", "backtesting@supervisor.test", "desk-officer@supervisor.test", "Waiting"]) {
+    for (const text of [
+      "LKS-EU",
+      "Larkspur Markets SA",
+      "2026-09-30",
+      "Yellow",
+      "6",
+      "3.50",
+      "08 Oct 2026, 14:30 UTC",
+      "cro@larkspur.test",
+      "backtesting@supervisor.test",
+      "desk-officer@supervisor.test",
+      "Waiting",
+    ]) {
       expect(within(eu).getByText(text)).toBeInTheDocument();
     }
     const uk = within(table).getByRole("link", { name: "Open LKS-UK Q2 2026" }).closest("tr")!;
@@ -108,8 +146,12 @@ describe("Filings › the regulator", () => {
     await user.click(within(detail).getByRole("button", { name: "Acknowledge receipt" }));
 
     expect(api.callsTo("POST", "/api/filings/31/acknowledge")).toHaveLength(1);
-    expect(await within(detail).findByText("You acknowledged receipt of LKS-EU's pack for Q3 2026.")).toBeInTheDocument();
-    expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent("Acknowledged by regulator@larkspur.test on 09 Oct 2026, 07:45 UTC.");
+    expect(
+      await within(detail).findByText("You acknowledged receipt of LKS-EU's pack for Q3 2026."),
+    ).toBeInTheDocument();
+    expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent(
+      "Acknowledged by regulator@larkspur.test on 09 Oct 2026, 07:45 UTC.",
+    );
     expect(within(detail).queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
     expect(screen.getByTestId("filings-waiting")).toHaveTextContent("None");
     expect(within(eu).getByText("09 Oct 2026, 07:45 UTC")).toBeInTheDocument();
@@ -125,14 +167,20 @@ describe("Filings › the regulator", () => {
 
     const match = await screen.findByRole("status", { name: "File check" });
     expect(match).toHaveTextContent("Match: pack-as-received.pdf is the pack as it was sent.");
-    expect(within(match).getByText(`${sha256Hex(SENT_PACK).slice(0, 12)}…`)).toHaveAttribute("title", sha256Hex(SENT_PACK));
+    expect(within(match).getByText(`${sha256Hex(SENT_PACK).slice(0, 12)}…`)).toHaveAttribute(
+      "title",
+      sha256Hex(SENT_PACK),
+    );
 
     const altered = SENT_PACK.replace("Q3 2026", "Q3 2O26");
     await user.upload(input, new File([altered], "pack-from-a-forward.pdf", { type: "application/pdf" }));
 
     const noMatch = await screen.findByText("No match: pack-from-a-forward.pdf is not the pack as it was sent.");
     const check = noMatch.closest("[role='status']")!;
-    expect(within(check as HTMLElement).getByText(`${sha256Hex(altered).slice(0, 12)}…`)).toHaveAttribute("title", sha256Hex(altered));
+    expect(within(check as HTMLElement).getByText(`${sha256Hex(altered).slice(0, 12)}…`)).toHaveAttribute(
+      "title",
+      sha256Hex(altered),
+    );
     expect(check).toHaveTextContent("ask the bank for the file again");
     expect(api.calls.filter((c) => c.method !== "GET")).toHaveLength(0);
   });
@@ -152,7 +200,11 @@ describe("Filings › the regulator", () => {
         detail: "The kept pack no longer has the sha256 that was sent (it gives 0123456789ab…).",
       }),
     ];
-    const api = fakeApi(filingRoutes("regulator", [filing()], { "GET /api/filings/31/verify": () => ({ status: 200, body: checks.shift() }) }));
+    const api = fakeApi(
+      filingRoutes("regulator", [filing()], {
+        "GET /api/filings/31/verify": () => ({ status: 200, body: checks.shift() }),
+      }),
+    );
     const user = userEvent.setup();
     renderApp("/filings?filing=31");
 
@@ -163,7 +215,9 @@ describe("Filings › the regulator", () => {
 
     await user.click(screen.getByRole("button", { name: "Check again" }));
     expect(await screen.findByText("Invalid: the kept pack or its quarter does not check out.")).toBeInTheDocument();
-    expect(screen.getByRole("status", { name: "Server copy check" })).toHaveTextContent("no longer has the sha256 that was sent");
+    expect(screen.getByRole("status", { name: "Server copy check" })).toHaveTextContent(
+      "no longer has the sha256 that was sent",
+    );
     expect(api.callsTo("GET", "/api/filings/31/verify")).toHaveLength(2);
   });
 
@@ -186,7 +240,12 @@ describe("Filings › the regulator", () => {
     const checks: Reply[] = [
       {
         status: 200,
-        body: filingVerifySchema.parse({ valid: true, sha256: filing().sha256, snapshotHash: null, detail: "The pack is the file that was sent." }),
+        body: filingVerifySchema.parse({
+          valid: true,
+          sha256: filing().sha256,
+          snapshotHash: null,
+          detail: "The pack is the file that was sent.",
+        }),
       },
       // The entity's assignment was withdrawn between the two checks.
       { status: 404, body: { error: { code: "not_found", message: "No filing #31 among the filings you can read." } } },
@@ -196,7 +255,9 @@ describe("Filings › the regulator", () => {
     renderApp("/filings?filing=31");
 
     await user.click(await screen.findByRole("button", { name: "Check the server's copy" }));
-    expect(await screen.findByRole("status", { name: "Server copy check" })).toHaveTextContent("Valid: the kept pack is the file that was sent.");
+    expect(await screen.findByRole("status", { name: "Server copy check" })).toHaveTextContent(
+      "Valid: the kept pack is the file that was sent.",
+    );
 
     await user.click(screen.getByRole("button", { name: "Check again" }));
     expect(await screen.findByText("No filing #31 among the filings you can read.")).toBeInTheDocument();
@@ -212,7 +273,9 @@ describe("Filings › the regulator", () => {
     renderApp("/filings?filing=31");
 
     const byHand = await screen.findByTestId("held-file-by-hand");
-    expect(byHand).toHaveTextContent("This browser computes no SHA-256 on a page served without HTTPS, so compare the file by hand");
+    expect(byHand).toHaveTextContent(
+      "This browser computes no SHA-256 on a page served without HTTPS, so compare the file by hand",
+    );
     expect(byHand).toHaveTextContent("sha256sum LKS-EU-2026-09-30-pack.pdf");
     expect(byHand).toHaveTextContent("certutil -hashfile LKS-EU-2026-09-30-pack.pdf SHA256");
     expect(byHand).toHaveTextContent("Compare all 64 characters with the pack SHA-256 written out in full above");
@@ -229,24 +292,29 @@ describe("Filings › the regulator", () => {
 });
 
 describe("Filings › the reporting office reads", () => {
-  it.each(["analyst", "cro"] as const)("when the %s opens Filings, then the list, download and checks show, but no acknowledgement is offered", async (role) => {
-    fakeApi(filingRoutes(role, [filing(), older()]));
-    const user = userEvent.setup();
-    const { router } = renderApp("/filings");
+  it.each(["analyst", "cro"] as const)(
+    "when the %s opens Filings, then the list, download and checks show, but no acknowledgement is offered",
+    async (role) => {
+      fakeApi(filingRoutes(role, [filing(), older()]));
+      const user = userEvent.setup();
+      const { router } = renderApp("/filings");
 
-    const table = await screen.findByRole("table", { name: "Filed packs, newest first" });
-    expect(screen.getByTestId("filing-acknowledged")).toHaveTextContent("Not acknowledged yet");
-    expect(screen.queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
-    expect(screen.queryByRole("button", { name: /File with the supervisor/ })).not.toBeInTheDocument();
-    expect(screen.getByRole("button", { name: "Check the server's copy" })).toBeInTheDocument();
-    expect(screen.getByLabelText("Check a file you hold")).toBeInTheDocument();
+      const table = await screen.findByRole("table", { name: "Filed packs, newest first" });
+      expect(screen.getByTestId("filing-acknowledged")).toHaveTextContent("Not acknowledged yet");
+      expect(screen.queryByRole("button", { name: "Acknowledge receipt" })).not.toBeInTheDocument();
+      expect(screen.queryByRole("button", { name: /File with the supervisor/ })).not.toBeInTheDocument();
+      expect(screen.getByRole("button", { name: "Check the server's copy" })).toBeInTheDocument();
+      expect(screen.getByLabelText("Check a file you hold")).toBeInTheDocument();
 
-    await user.click(within(table).getByRole("link", { name: "Open LKS-UK Q2 2026" }));
-    expect(router.state.location.search).toBe("?filing=27");
-    const detail = await screen.findByRole("region", { name: "LKS-UK Q2 2026 · Larkspur Bank plc" });
-    expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent("Acknowledged by regulator@larkspur.test on 10 Jul 2026, 08:15 UTC.");
-    expect(within(detail).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
-  });
+      await user.click(within(table).getByRole("link", { name: "Open LKS-UK Q2 2026" }));
+      expect(router.state.location.search).toBe("?filing=27");
+      const detail = await screen.findByRole("region", { name: "LKS-UK Q2 2026 · Larkspur Bank plc" });
+      expect(within(detail).getByTestId("filing-acknowledged")).toHaveTextContent(
+        "Acknowledged by regulator@larkspur.test on 10 Jul 2026, 08:15 UTC.",
+      );
+      expect(within(detail).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
+    },
+  );
 
   it("when a pack waits for the mail server, then it is counted apart, not as waiting for acknowledgement nor as the latest sent", async () => {
     const waitingForMail = filing({
@@ -280,14 +348,22 @@ describe("Filings › the reporting office reads", () => {
   it.each([
     ["an administrator", "admin"],
     ["treasury", "treasury"],
-  ] as const)("when %s opens Filings, then it is refused, not linked, and no filing is asked for", async (_who, role) => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: entities } });
-    renderApp("/filings");
+  ] as const)(
+    "when %s opens Filings, then it is refused, not linked, and no filing is asked for",
+    async (_who, role) => {
+      const api = fakeApi({
+        "GET /api/auth/session": signedInAs(role),
+        "GET /api/entities": { status: 200, body: entities },
+      });
+      renderApp("/filings");
 
-    expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
-    expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Filings" })).not.toBeInTheDocument();
-    expect(api.calls.filter((c) => c.path.startsWith("/api/filings"))).toHaveLength(0);
-  });
+      expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
+      expect(
+        within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Filings" }),
+      ).not.toBeInTheDocument();
+      expect(api.calls.filter((c) => c.path.startsWith("/api/filings"))).toHaveLength(0);
+    },
+  );
 });
 
 describe("Filings › the pack download", () => {
@@ -297,7 +373,10 @@ describe("Filings › the pack download", () => {
         "GET /api/filings/31/pack.pdf": {
           status: 200,
           raw: SENT_PACK,
-          headers: { "Content-Type": "application/pdf", "Content-Disposition": 'attachment; filename="LKS-EU-2026-09-30-pack.pdf"' },
+          headers: {
+            "Content-Type": "application/pdf",
+            "Content-Disposition": 'attachment; filename="LKS-EU-2026-09-30-pack.pdf"',
+          },
         },
       }),
     );
@@ -329,7 +408,14 @@ describe("Filings › the pack download", () => {
   });
 
   it("when the server no longer has the filing (404), then its message shows beside the download", async () => {
-    fakeApi(filingRoutes("regulator", [filing()], { "GET /api/filings/31/pack.pdf": { status: 404, body: { error: { code: "not_found", message: "No filing 31." } } } }));
+    fakeApi(
+      filingRoutes("regulator", [filing()], {
+        "GET /api/filings/31/pack.pdf": {
+          status: 404,
+          body: { error: { code: "not_found", message: "No filing 31." } },
+        },
+      }),
+    );
     const user = userEvent.setup();
     renderApp("/filings");
 

@@ -7,7 +7,10 @@ const adminLinks = ["Users", "Entities", "Regulator access", "Audit log", "Outbo
 
 describe("navigation by role", () => {
   it("shows the administration links to an administrator", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("admin", "Ada Admin"), "GET /api/entities": { status: 200, body: [] } });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("admin", "Ada Admin"),
+      "GET /api/entities": { status: 200, body: [] },
+    });
     renderApp("/");
 
     const nav = await screen.findByRole("navigation", { name: "Main" });
@@ -16,14 +19,17 @@ describe("navigation by role", () => {
     expect(screen.getByText(/Administrator/)).toBeInTheDocument();
   });
 
-  it.each(["analyst", "cro", "treasury", "regulator"] as const)("hides the administration links from %s", async (role) => {
-    fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: [] } });
-    renderApp("/");
+  it.each(["analyst", "cro", "treasury", "regulator"] as const)(
+    "hides the administration links from %s",
+    async (role) => {
+      fakeApi({ "GET /api/auth/session": signedInAs(role), "GET /api/entities": { status: 200, body: [] } });
+      renderApp("/");
 
-    const nav = await screen.findByRole("navigation", { name: "Main" });
-    expect(within(nav).getByRole("link", { name: "Overview" })).toBeInTheDocument();
-    for (const name of adminLinks) expect(within(nav).queryByRole("link", { name })).not.toBeInTheDocument();
-  });
+      const nav = await screen.findByRole("navigation", { name: "Main" });
+      expect(within(nav).getByRole("link", { name: "Overview" })).toBeInTheDocument();
+      for (const name of adminLinks) expect(within(nav).queryByRole("link", { name })).not.toBeInTheDocument();
+    },
+  );
 
   it("signing out ends the session on the server and returns to sign-in", async () => {
     let session = true;

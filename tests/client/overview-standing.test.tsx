@@ -3,7 +3,17 @@ import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const entities = [
-  { code: "LKS-US", name: "Larkspur Securities LLC", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  {
+    code: "LKS-US",
+    name: "Larkspur Securities LLC",
+    regime: "us",
+    pnlBasis: "actual",
+    currency: "USD",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
 ];
 
 // Figures as the server's engine would return them; the screen only formats them.
@@ -21,7 +31,15 @@ const item = {
   plusFactor: 0.65,
   multiplier: 3.65,
   addOn: 48_215_003.4,
-  nextRollOff: { date: "2026-02-11", leavesOn: "2027-02-08", actual: true, hypothetical: false, countAfter: 6, zoneAfter: "yellow", plusFactorAfter: 0.5 },
+  nextRollOff: {
+    date: "2026-02-11",
+    leavesOn: "2027-02-08",
+    actual: true,
+    hypothetical: false,
+    countAfter: 6,
+    zoneAfter: "yellow",
+    plusFactorAfter: 0.5,
+  },
   openReviews: 3,
   openFindings: 2,
   quarterClose: { snapshotId: 12, quarterEnd: "2026-09-30", status: "approved" },
@@ -47,9 +65,18 @@ describe("Overview", () => {
     expect(within(row).getByText("2027-02-08")).toBeInTheDocument();
     expect(within(cells[7]).getByText("Yellow")).toBeInTheDocument();
     expect(within(row).getByRole("link", { name: "LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL");
-    expect(within(row).getByRole("link", { name: "3 open reviews for LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL#exceptions");
-    expect(within(row).getByRole("link", { name: "2 open findings for LKS-US" })).toHaveAttribute("href", "/data?entity=LKS-US");
-    expect(within(row).getByRole("link", { name: "Quarter close of LKS-US: Q3 2026 · Approved" })).toHaveAttribute("href", "/quarters?entity=LKS-US&snapshot=12");
+    expect(within(row).getByRole("link", { name: "3 open reviews for LKS-US" })).toHaveAttribute(
+      "href",
+      "/backtest/LKS-US-TOTAL#exceptions",
+    );
+    expect(within(row).getByRole("link", { name: "2 open findings for LKS-US" })).toHaveAttribute(
+      "href",
+      "/data?entity=LKS-US",
+    );
+    expect(within(row).getByRole("link", { name: "Quarter close of LKS-US: Q3 2026 · Approved" })).toHaveAttribute(
+      "href",
+      "/quarters?entity=LKS-US&snapshot=12",
+    );
   });
 
   it("when an entity has no snapshot yet, then its quarter-close cell says so", async () => {
@@ -67,7 +94,10 @@ describe("Overview", () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       "GET /api/entities": { status: 200, body: entities },
-      "GET /api/overview": { status: 200, body: [{ ...item, regime: "frtb", currency: "GBP", complete: false, nextRollOff: null, addOn: null }] },
+      "GET /api/overview": {
+        status: 200,
+        body: [{ ...item, regime: "frtb", currency: "GBP", complete: false, nextRollOff: null, addOn: null }],
+      },
     });
     renderApp("/");
     const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
@@ -77,9 +107,14 @@ describe("Overview", () => {
   });
 
   it("treasury's overview lists the entities and never asks for the live figures", async () => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs("treasury"), "GET /api/entities": { status: 200, body: entities } });
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("treasury"),
+      "GET /api/entities": { status: 200, body: entities },
+    });
     renderApp("/");
-    expect(await screen.findByRole("table", { name: "Legal entities and their backtesting rules" })).toBeInTheDocument();
+    expect(
+      await screen.findByRole("table", { name: "Legal entities and their backtesting rules" }),
+    ).toBeInTheDocument();
     expect(api.callsTo("GET", "/api/overview")).toHaveLength(0);
   });
 });

@@ -11,8 +11,28 @@ import { renderApp } from "./support/render-app";
 // They follow BCBS 1996 Table 2 for six exceptions (yellow zone, plus factor 0.50, P(X ≤ 6) 98.63%).
 
 const entities = [
-  { code: "LKS-EU", name: "Larkspur Markets SA", regime: "eu", pnlBasis: "max", currency: "EUR", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
-  { code: "LKS-UK", name: "Larkspur Bank plc", regime: "frtb", pnlBasis: "hypothetical", currency: "GBP", qualitativeAddend: 0, supervisorName: null, supervisorEmails: [], version: 1 },
+  {
+    code: "LKS-EU",
+    name: "Larkspur Markets SA",
+    regime: "eu",
+    pnlBasis: "max",
+    currency: "EUR",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
+  {
+    code: "LKS-UK",
+    name: "Larkspur Bank plc",
+    regime: "frtb",
+    pnlBasis: "hypothetical",
+    currency: "GBP",
+    qualitativeAddend: 0,
+    supervisorName: null,
+    supervisorEmails: [],
+    version: 1,
+  },
 ];
 
 /** The traffic-light zone classes: kept for zones, never on a notice that is not one. */
@@ -87,7 +107,12 @@ const submitted = (over: Partial<Snapshot> = {}) =>
     submittedAt: "2026-01-09T16:40:00.000Z",
     history: [
       { at: "2026-01-08T10:15:00.000Z", by: "analyst@larkspur.test", action: "prepared", comment: null },
-      { at: "2026-01-09T16:40:00.000Z", by: "analyst@larkspur.test", action: "submitted", comment: "All six exceptions explained; one exclusion approved." },
+      {
+        at: "2026-01-09T16:40:00.000Z",
+        by: "analyst@larkspur.test",
+        action: "submitted",
+        comment: "All six exceptions explained; one exclusion approved.",
+      },
     ],
     version: 5,
     ...over,
@@ -104,7 +129,10 @@ const approved = (over: Partial<Snapshot> = {}) =>
     ...over,
   });
 
-const error = (status: number, code: string, message: string): Reply => ({ status, body: { error: { code, message } } });
+const error = (status: number, code: string, message: string): Reply => ({
+  status,
+  body: { error: { code, message } },
+});
 
 /** The server's snapshots held in one list: the list and each detail read from it, so a change shows everywhere. */
 function snapshotRoutes(store: Snapshot[], extra: Record<string, Reply | ((c: Call) => Reply)> = {}) {
@@ -112,7 +140,10 @@ function snapshotRoutes(store: Snapshot[], extra: Record<string, Reply | ((c: Ca
     "GET /api/entities": { status: 200, body: entities },
     "GET /api/snapshots": (c) => {
       const entity = new URLSearchParams(c.search).get("entity");
-      return { status: 200, body: store.filter((s) => s.entity === entity).sort((a, b) => b.quarterEnd.localeCompare(a.quarterEnd)) };
+      return {
+        status: 200,
+        body: store.filter((s) => s.entity === entity).sort((a, b) => b.quarterEnd.localeCompare(a.quarterEnd)),
+      };
     },
   };
   for (const id of [11, 12, 13, 14, 15]) {
@@ -144,7 +175,16 @@ describe("Quarter close › the analyst prepares and submits", () => {
       "GET /api/auth/session": signedInAs("analyst"),
       ...snapshotRoutes(store, {
         "POST /api/snapshots": () =>
-          answer(store, snapshot({ id: 13, quarterEnd: "2026-03-31", figures: figures({ asOf: "2026-03-31" }), preparedAt: "2026-05-14T09:00:00.000Z" }), 201),
+          answer(
+            store,
+            snapshot({
+              id: 13,
+              quarterEnd: "2026-03-31",
+              figures: figures({ asOf: "2026-03-31" }),
+              preparedAt: "2026-05-14T09:00:00.000Z",
+            }),
+            201,
+          ),
       }),
     });
     const user = userEvent.setup();
@@ -152,7 +192,17 @@ describe("Quarter close › the analyst prepares and submits", () => {
 
     const table = await screen.findByRole("table", { name: "Quarter snapshots, newest first" });
     const row = within(table).getByRole("link", { name: "Open Q4 2025, approved" }).closest("tr")!;
-    for (const text of ["Approved", "Yellow", "6", "0.50", "3.50", "412,500,000 EUR", "58,928,571 EUR", "analyst@larkspur.test", "cro2@larkspur.test"]) {
+    for (const text of [
+      "Approved",
+      "Yellow",
+      "6",
+      "0.50",
+      "3.50",
+      "412,500,000 EUR",
+      "58,928,571 EUR",
+      "analyst@larkspur.test",
+      "cro2@larkspur.test",
+    ]) {
       expect(within(row).getByText(text)).toBeInTheDocument();
     }
     expect(new URLSearchParams(api.callsTo("GET", "/api/snapshots")[0].search).get("entity")).toBe("LKS-EU");
@@ -160,7 +210,9 @@ describe("Quarter close › the analyst prepares and submits", () => {
     const form = screen.getByRole("form", { name: "Prepare a snapshot" });
     const quarterEnd = within(form).getByLabelText("Quarter end");
     expect(quarterEnd).toHaveValue("2026-03-31");
-    const options = within(quarterEnd).getAllByRole("option").map((o) => o.textContent);
+    const options = within(quarterEnd)
+      .getAllByRole("option")
+      .map((o) => o.textContent);
     expect(options).toHaveLength(8);
     expect(options[0]).toBe("Q1 2026 · 2026-03-31");
     expect(options[1]).toBe("Q4 2025 · 2025-12-31 · Approved");
@@ -181,7 +233,11 @@ describe("Quarter close › the analyst prepares and submits", () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("analyst"),
       ...snapshotRoutes(store, {
-        "POST /api/snapshots/14/submit": error(409, "open_findings", "2 open data-quality findings inside Q1 2026 block sign-off: resolve or explain them on the Data screen."),
+        "POST /api/snapshots/14/submit": error(
+          409,
+          "open_findings",
+          "2 open data-quality findings inside Q1 2026 block sign-off: resolve or explain them on the Data screen.",
+        ),
       }),
     });
     const user = userEvent.setup();
@@ -196,8 +252,13 @@ describe("Quarter close › the analyst prepares and submits", () => {
     await user.click(within(form).getByRole("button", { name: "Submit for sign-off" }));
 
     const alert = await within(form).findByRole("alert");
-    expect(alert).toHaveTextContent("2 open data-quality findings inside Q1 2026 block sign-off: resolve or explain them on the Data screen.");
-    expect(within(alert).getByRole("link", { name: "Open the findings on the Data screen" })).toHaveAttribute("href", "/data?entity=LKS-EU");
+    expect(alert).toHaveTextContent(
+      "2 open data-quality findings inside Q1 2026 block sign-off: resolve or explain them on the Data screen.",
+    );
+    expect(within(alert).getByRole("link", { name: "Open the findings on the Data screen" })).toHaveAttribute(
+      "href",
+      "/data?entity=LKS-EU",
+    );
     expect(api.callsTo("POST", "/api/snapshots/14/submit")[0].body).toEqual({ version: 4 });
   });
 
@@ -207,9 +268,19 @@ describe("Quarter close › the analyst prepares and submits", () => {
       "GET /api/auth/session": signedInAs("analyst"),
       ...snapshotRoutes(store, {
         "POST /api/snapshots/14/submit": (c) => {
-          store[0] = snapshot({ ...store[0], status: "submitted", submittedBy: "analyst2@larkspur.test", submittedAt: "2026-04-02T08:00:00.000Z", version: 5 });
+          store[0] = snapshot({
+            ...store[0],
+            status: "submitted",
+            submittedBy: "analyst2@larkspur.test",
+            submittedAt: "2026-04-02T08:00:00.000Z",
+            version: 5,
+          });
           expect(c.body).toEqual({ comment: "Ready for the CRO.", version: 4 });
-          return error(409, "stale", "Snapshot #14 changed since you opened it (now version 5). Look at it again before acting.");
+          return error(
+            409,
+            "stale",
+            "Snapshot #14 changed since you opened it (now version 5). Look at it again before acting.",
+          );
         },
       }),
     });
@@ -219,7 +290,11 @@ describe("Quarter close › the analyst prepares and submits", () => {
     await user.type(await screen.findByLabelText("Comment for the sign-off (optional)"), "Ready for the CRO.");
     await user.click(screen.getByRole("button", { name: "Submit for sign-off" }));
 
-    expect(await screen.findByText(/Snapshot #14 changed since you opened it \(now version 5\)\. Look at it again before acting\. The snapshot below is as it now stands\./)).toBeInTheDocument();
+    expect(
+      await screen.findByText(
+        /Snapshot #14 changed since you opened it \(now version 5\)\. Look at it again before acting\. The snapshot below is as it now stands\./,
+      ),
+    ).toBeInTheDocument();
     expect(await screen.findByTestId("snapshot-status")).toHaveTextContent("Submitted for sign-off");
     expect(screen.queryByRole("button", { name: "Submit for sign-off" })).not.toBeInTheDocument();
     expect(screen.getByText(/Submitted by analyst2@larkspur.test/)).toBeInTheDocument();
@@ -231,7 +306,12 @@ describe("Quarter close › the analyst prepares and submits", () => {
       status: "returned",
       history: [
         ...submitted().history,
-        { at: "2026-01-10T11:00:00.000Z", by: "cro@larkspur.test", action: "returned", comment: "The 14 November exception needs the desk's explanation." },
+        {
+          at: "2026-01-10T11:00:00.000Z",
+          by: "cro@larkspur.test",
+          action: "returned",
+          comment: "The 14 November exception needs the desk's explanation.",
+        },
       ],
       version: 6,
     });
@@ -256,12 +336,17 @@ describe("Quarter close › the analyst prepares and submits", () => {
 
 describe("Quarter close › the chief risk officer signs off", () => {
   it("when the chief risk officer prepared the snapshot, then Approve is not offered and the screen says why", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("cro"), ...snapshotRoutes([submitted({ preparedBy: "cro@larkspur.test" })]) });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([submitted({ preparedBy: "cro@larkspur.test" })]),
+    });
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
     const fourEyes = within(form).getByRole("note");
-    expect(fourEyes).toHaveTextContent("Four eyes. You prepared this snapshot, so you cannot approve it: another chief risk officer signs it off.");
+    expect(fourEyes).toHaveTextContent(
+      "Four eyes. You prepared this snapshot, so you cannot approve it: another chief risk officer signs it off.",
+    );
     expect(fourEyes).toHaveAttribute("data-tone", "notice");
     expect(fourEyes.outerHTML).not.toMatch(ZONE_CLASS);
     // The zone itself keeps its zone colour.
@@ -282,7 +367,15 @@ describe("Quarter close › the chief risk officer signs off", () => {
             store,
             approved({
               approvedBy: "cro@larkspur.test",
-              history: [...submitted().history, { at: "2026-01-12T09:05:00.000Z", by: "cro@larkspur.test", action: "approved", comment: body.comment ?? null }],
+              history: [
+                ...submitted().history,
+                {
+                  at: "2026-01-12T09:05:00.000Z",
+                  by: "cro@larkspur.test",
+                  action: "approved",
+                  comment: body.comment ?? null,
+                },
+              ],
             }),
           );
         },
@@ -296,12 +389,19 @@ describe("Quarter close › the chief risk officer signs off", () => {
     await user.type(within(form).getByLabelText("Comment"), "Multiplier 3.50 agreed with model validation.");
     await user.click(within(form).getByRole("button", { name: "Approve and seal" }));
 
-    expect(api.callsTo("POST", "/api/snapshots/12/approve")[0].body).toEqual({ comment: "Multiplier 3.50 agreed with model validation.", version: 5 });
-    expect(await screen.findByText("Q4 2025 is approved and sealed with hash ab12cd34ef56…. Its figures no longer change.")).toBeInTheDocument();
+    expect(api.callsTo("POST", "/api/snapshots/12/approve")[0].body).toEqual({
+      comment: "Multiplier 3.50 agreed with model validation.",
+      version: 5,
+    });
+    expect(
+      await screen.findByText("Q4 2025 is approved and sealed with hash ab12cd34ef56…. Its figures no longer change."),
+    ).toBeInTheDocument();
     expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Approved");
     const hash = within(screen.getByTestId("snapshot-hash")).getByText("ab12cd34ef56…");
     expect(hash).toHaveAttribute("title", HASH);
-    expect(screen.getByRole("table", { name: "History of the snapshot" })).toHaveTextContent("Multiplier 3.50 agreed with model validation.");
+    expect(screen.getByRole("table", { name: "History of the snapshot" })).toHaveTextContent(
+      "Multiplier 3.50 agreed with model validation.",
+    );
     expect(screen.queryByRole("form", { name: "Sign-off" })).not.toBeInTheDocument();
   });
 
@@ -326,7 +426,10 @@ describe("Quarter close › the chief risk officer signs off", () => {
 
     await user.type(comment, "Explain the 14 November exception first.");
     await user.click(within(form).getByRole("button", { name: "Return to the analysts" }));
-    expect(api.callsTo("POST", "/api/snapshots/12/return")[0].body).toEqual({ comment: "Explain the 14 November exception first.", version: 5 });
+    expect(api.callsTo("POST", "/api/snapshots/12/return")[0].body).toEqual({
+      comment: "Explain the 14 November exception first.",
+      version: 5,
+    });
     expect(await screen.findByText("Q4 2025 is returned to the analysts with your comment.")).toBeInTheDocument();
     expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Returned");
   });
@@ -335,7 +438,11 @@ describe("Quarter close › the chief risk officer signs off", () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes([submitted()], {
-        "POST /api/snapshots/12/approve": error(409, "inputs_changed", "The daily data inside Q4 2025 changed after it was submitted."),
+        "POST /api/snapshots/12/approve": error(
+          409,
+          "inputs_changed",
+          "The daily data inside Q4 2025 changed after it was submitted.",
+        ),
       }),
     });
     const user = userEvent.setup();
@@ -366,36 +473,63 @@ describe("Quarter close › reading signed-off quarters", () => {
     expect(within(detail).getByText(/Approved by cro2@larkspur.test/)).toBeInTheDocument();
 
     expect(screen.queryByRole("form", { name: "Prepare a snapshot" })).not.toBeInTheDocument();
-    for (const name of ["Submit for sign-off", "Approve and seal", "Return to the analysts", "Prepare again", "Prepare the snapshot"]) {
+    for (const name of [
+      "Submit for sign-off",
+      "Approve and seal",
+      "Return to the analysts",
+      "Prepare again",
+      "Prepare the snapshot",
+    ]) {
       expect(screen.queryByRole("button", { name })).not.toBeInTheDocument();
     }
     expect(within(detail).getByRole("button", { name: "Verify the hash" })).toBeInTheDocument();
-    expect(within(screen.getByRole("navigation", { name: "Main" })).getByRole("link", { name: "Quarter close" })).toHaveAttribute("href", "/quarters");
+    expect(
+      within(screen.getByRole("navigation", { name: "Main" })).getByRole("link", { name: "Quarter close" }),
+    ).toHaveAttribute("href", "/quarters");
   });
 
   it("when a day inside a signed-off window was restated, then a warning says the figures stay as approved, with the detail", async () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes([
-        approved({ restatedAfterSignOff: { at: "2026-02-03T14:20:00.000Z", detail: "LKS-EU-TOTAL 2025-11-14 was restated by upload #88." } }),
+        approved({
+          restatedAfterSignOff: {
+            at: "2026-02-03T14:20:00.000Z",
+            detail: "LKS-EU-TOTAL 2025-11-14 was restated by upload #88.",
+          },
+        }),
       ]),
     });
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const warning = await screen.findByRole("note", { name: "Restated after sign-off" });
-    expect(warning).toHaveTextContent("A day inside this quarter's window was restated after sign-off: figures stay as approved.");
+    expect(warning).toHaveTextContent(
+      "A day inside this quarter's window was restated after sign-off: figures stay as approved.",
+    );
     expect(warning).toHaveTextContent("LKS-EU-TOTAL 2025-11-14 was restated by upload #88.");
     expect(warning).toHaveTextContent("03 Feb 2026, 14:20 UTC");
   });
 
   it("when the reader verifies the hash, then the server's check shows valid or invalid with its detail, asked afresh each time", async () => {
     const checks = [
-      snapshotVerifySchema.parse({ valid: true, hash: HASH, prevHash: PREV_HASH, detail: "The hash matches the stored figures and inputs, and links to the snapshot approved before it." }),
-      snapshotVerifySchema.parse({ valid: false, hash: HASH, prevHash: PREV_HASH, detail: "The link to the previously approved snapshot does not match: the chain was altered." }),
+      snapshotVerifySchema.parse({
+        valid: true,
+        hash: HASH,
+        prevHash: PREV_HASH,
+        detail: "The hash matches the stored figures and inputs, and links to the snapshot approved before it.",
+      }),
+      snapshotVerifySchema.parse({
+        valid: false,
+        hash: HASH,
+        prevHash: PREV_HASH,
+        detail: "The link to the previously approved snapshot does not match: the chain was altered.",
+      }),
     ];
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("treasury"),
-      ...snapshotRoutes([approved()], { "GET /api/snapshots/12/verify": () => ({ status: 200, body: checks.shift() }) }),
+      ...snapshotRoutes([approved()], {
+        "GET /api/snapshots/12/verify": () => ({ status: 200, body: checks.shift() }),
+      }),
     });
     const user = userEvent.setup();
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
@@ -415,7 +549,12 @@ describe("Quarter close › reading signed-off quarters", () => {
     const checks: Reply[] = [
       {
         status: 200,
-        body: snapshotVerifySchema.parse({ valid: true, hash: HASH, prevHash: PREV_HASH, detail: "The hash matches the stored figures and inputs." }),
+        body: snapshotVerifySchema.parse({
+          valid: true,
+          hash: HASH,
+          prevHash: PREV_HASH,
+          detail: "The hash matches the stored figures and inputs.",
+        }),
       },
       error(503, "database_unavailable", "The database did not answer; try again in a moment."),
       error(503, "database_unavailable", "The database did not answer; try again in a moment."),
@@ -428,12 +567,16 @@ describe("Quarter close › reading signed-off quarters", () => {
     renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     await user.click(await screen.findByRole("button", { name: "Verify the hash" }));
-    expect(await screen.findByRole("status", { name: "Hash check" })).toHaveTextContent("Valid: the figures are as signed off.");
+    expect(await screen.findByRole("status", { name: "Hash check" })).toHaveTextContent(
+      "Valid: the figures are as signed off.",
+    );
 
     await user.click(screen.getByRole("button", { name: "Verify again" }));
     expect(screen.queryByRole("status", { name: "Hash check" })).not.toBeInTheDocument();
     // A 5xx is tried once more before it counts as failed.
-    expect(await screen.findByText("The database did not answer; try again in a moment.", undefined, { timeout: 4000 })).toBeInTheDocument();
+    expect(
+      await screen.findByText("The database did not answer; try again in a moment.", undefined, { timeout: 4000 }),
+    ).toBeInTheDocument();
     expect(screen.queryByRole("status", { name: "Hash check" })).not.toBeInTheDocument();
     expect(screen.queryByText(/Valid: the figures are as signed off/)).not.toBeInTheDocument();
   });
@@ -468,7 +611,9 @@ describe("Quarter close › reading signed-off quarters", () => {
     expect(screen.getByLabelText("Entity")).toHaveValue("LKS-UK");
     expect(screen.getByRole("heading", { name: "Snapshots of LKS-UK" })).toBeInTheDocument();
     expect(screen.getByTestId("snapshot-capital")).toHaveTextContent("GBP");
-    expect(api.callsTo("GET", "/api/snapshots").map((c) => new URLSearchParams(c.search).get("entity"))).not.toContain("LKS-EU");
+    expect(api.callsTo("GET", "/api/snapshots").map((c) => new URLSearchParams(c.search).get("entity"))).not.toContain(
+      "LKS-EU",
+    );
   });
 
   it("when an FRTB snapshot holds desks, then each desk's exceptions, backtesting result and P&L attribution zone show", async () => {
@@ -485,7 +630,10 @@ describe("Quarter close › reading signed-off quarters", () => {
         { portfolio: "LKS-UK-CREDIT", exceptions99: 2, exceptions975: 6, passes: true, plaZone: null },
       ],
     });
-    fakeApi({ "GET /api/auth/session": signedInAs("cro"), ...snapshotRoutes([approved({ entity: "LKS-UK", entityName: "Larkspur Bank plc", figures: frtb })]) });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved({ entity: "LKS-UK", entityName: "Larkspur Bank plc", figures: frtb })]),
+    });
     renderApp("/quarters?entity=LKS-UK");
 
     const desks = await screen.findByRole("table", { name: "Trading desks at the quarter end" });
@@ -503,7 +651,9 @@ describe("Quarter close › reading signed-off quarters", () => {
     fakeApi({ "GET /api/auth/session": signedInAs("regulator"), "GET /api/entities": { status: 200, body: [] } });
     renderApp("/quarters");
     expect(await screen.findByRole("heading", { name: "Not available for your role" })).toBeInTheDocument();
-    expect(within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Quarter close" })).not.toBeInTheDocument();
+    expect(
+      within(screen.getByRole("navigation", { name: "Main" })).queryByRole("link", { name: "Quarter close" }),
+    ).not.toBeInTheDocument();
   });
 });
 
@@ -574,11 +724,18 @@ describe("Quarter close › the pack and its filing", () => {
 
     expect(api.callsTo("POST", "/api/snapshots/12/filings").map((c) => c.body)).toEqual([{}]);
     expect(
-      await within(pack).findByText("Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test."),
+      await within(pack).findByText(
+        "Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test.",
+      ),
     ).toBeInTheDocument();
-    expect(within(pack).getByTestId("filing-recipients")).toHaveTextContent("backtesting@supervisor.test, desk-officer@supervisor.test");
+    expect(within(pack).getByTestId("filing-recipients")).toHaveTextContent(
+      "backtesting@supervisor.test, desk-officer@supervisor.test",
+    );
     expect(within(pack).getByTestId("filing-sha256")).toHaveTextContent(PACK_SHA256);
-    expect(within(pack).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
+    expect(within(pack).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute(
+      "href",
+      "/filings?filing=31",
+    );
     expect(await screen.findByTestId("snapshot-status")).toHaveTextContent("Filed");
     expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
   });
@@ -616,7 +773,12 @@ describe("Quarter close › the pack and its filing", () => {
     vi.useFakeTimers({ toFake: ["setInterval", "clearInterval"] });
     const store = [approved()];
     const filings: Filing[] = [];
-    const waiting = filingOf({ delivery: "pending", messageId: null, sentAt: null, lastError: "connect ECONNREFUSED 127.0.0.1:2525" });
+    const waiting = filingOf({
+      delivery: "pending",
+      messageId: null,
+      sentAt: null,
+      lastError: "connect ECONNREFUSED 127.0.0.1:2525",
+    });
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes(store, {
@@ -657,9 +819,13 @@ describe("Quarter close › the pack and its filing", () => {
 
     await waitFor(() => expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Filed"));
     expect(within(pack).queryByTestId("filing-pending")).not.toBeInTheDocument();
-    expect(within(pack).getByTestId("snapshot-filing")).toHaveTextContent("14 Jan 2026, 10:00 UTC by cro@larkspur.test");
+    expect(within(pack).getByTestId("snapshot-filing")).toHaveTextContent(
+      "14 Jan 2026, 10:00 UTC by cro@larkspur.test",
+    );
     expect(
-      within(pack).getByText("Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test."),
+      within(pack).getByText(
+        "Q4 2025 is filed with the supervisor: the pack went by e-mail to backtesting@supervisor.test, desk-officer@supervisor.test.",
+      ),
     ).toBeInTheDocument();
 
     // Sent: nothing is waiting any more, so the screen stops looking.
@@ -675,10 +841,18 @@ describe("Quarter close › the pack and its filing", () => {
         "GET /api/filings": () => ({ status: 200, body: filings }),
         "POST /api/snapshots/12/filings": () => {
           // Another chief risk officer filed it a moment ago; the pack still waits for the mail server.
-          filings.unshift(filingOf({ id: 33, sentBy: "cro2@larkspur.test", delivery: "pending", messageId: null, sentAt: null }));
+          filings.unshift(
+            filingOf({ id: 33, sentBy: "cro2@larkspur.test", delivery: "pending", messageId: null, sentAt: null }),
+          );
           return {
             status: 409,
-            body: { error: { code: "conflict", message: "Snapshot #12 is already filed (filing #33, waiting for the mail server).", details: { filingId: 33 } } },
+            body: {
+              error: {
+                code: "conflict",
+                message: "Snapshot #12 is already filed (filing #33, waiting for the mail server).",
+                details: { filingId: 33 },
+              },
+            },
           };
         },
       }),
@@ -693,7 +867,10 @@ describe("Quarter close › the pack and its filing", () => {
 
     const alert = await within(pack).findByRole("alert");
     expect(alert).toHaveTextContent("Snapshot #12 is already filed (filing #33, waiting for the mail server).");
-    expect(within(alert).getByRole("link", { name: "Open filing #33 on the Filings screen" })).toHaveAttribute("href", "/filings?filing=33");
+    expect(within(alert).getByRole("link", { name: "Open filing #33 on the Filings screen" })).toHaveAttribute(
+      "href",
+      "/filings?filing=33",
+    );
     expect(await within(pack).findByTestId("filing-pending")).toHaveTextContent("Filed by cro2@larkspur.test and kept");
     expect(within(pack).queryByRole("button", { name: "File with the supervisor" })).not.toBeInTheDocument();
     expect(api.callsTo("GET", "/api/filings")).toHaveLength(2);
@@ -704,7 +881,11 @@ describe("Quarter close › the pack and its filing", () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes([approved()], {
-        "POST /api/snapshots/12/filings": error(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address."),
+        "POST /api/snapshots/12/filings": error(
+          422,
+          "no_supervisor_contacts",
+          "LKS-EU has no supervisor e-mail address.",
+        ),
       }),
     });
     const user = userEvent.setup();
@@ -746,7 +927,11 @@ describe("Quarter close › the pack and its filing", () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes([approved()], {
-        "POST /api/snapshots/12/filings": error(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address."),
+        "POST /api/snapshots/12/filings": error(
+          422,
+          "no_supervisor_contacts",
+          "LKS-EU has no supervisor e-mail address.",
+        ),
       }),
     });
     const user = userEvent.setup();
@@ -798,7 +983,9 @@ describe("Quarter close › the pack and its filing", () => {
       const pack = await screen.findByRole("region", { name: "Pack and filing" });
       await user.click(within(pack).getByRole("button", { name: "Download the pack (PDF)" }));
 
-      expect(await within(pack).findByRole("alert")).toHaveTextContent("Your role may not download this entity's pack.");
+      expect(await within(pack).findByRole("alert")).toHaveTextContent(
+        "Your role may not download this entity's pack.",
+      );
       expect(api.callsTo("GET", "/api/snapshots/12/pack.pdf")).toHaveLength(1);
       expect(created).not.toHaveBeenCalled();
     } finally {
@@ -824,8 +1011,13 @@ describe("Quarter close › the pack and its filing", () => {
     const record = await screen.findByTestId("snapshot-filing");
     expect(record).toHaveTextContent("14 Jan 2026, 10:00 UTC by cro@larkspur.test");
     expect(within(record).getByText(PACK_SHA256)).toBeInTheDocument();
-    expect(within(record).getByTestId("filing-acknowledged")).toHaveTextContent("15 Jan 2026, 08:30 UTC by regulator@larkspur.test");
-    expect(within(record).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute("href", "/filings?filing=31");
+    expect(within(record).getByTestId("filing-acknowledged")).toHaveTextContent(
+      "15 Jan 2026, 08:30 UTC by regulator@larkspur.test",
+    );
+    expect(within(record).getByRole("link", { name: "Open the filing on the Filings screen" })).toHaveAttribute(
+      "href",
+      "/filings?filing=31",
+    );
     expect(api.callsTo("GET", "/api/filings")).toHaveLength(1);
   });
 
@@ -833,7 +1025,17 @@ describe("Quarter close › the pack and its filing", () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes([approved()], {
-        "GET /api/filings": { status: 200, body: [filingOf({ delivery: "pending", messageId: null, sentAt: null, lastError: "connect ECONNREFUSED 127.0.0.1:2525" })] },
+        "GET /api/filings": {
+          status: 200,
+          body: [
+            filingOf({
+              delivery: "pending",
+              messageId: null,
+              sentAt: null,
+              lastError: "connect ECONNREFUSED 127.0.0.1:2525",
+            }),
+          ],
+        },
       }),
     });
     renderApp("/quarters?entity=LKS-EU&snapshot=12");

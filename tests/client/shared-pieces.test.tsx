@@ -3,7 +3,15 @@ import { render, screen } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { TextareaField } from "@/components/ui/field";
 import { Figure } from "@/components/ui/figure";
-import { formatAmount, formatChance, formatChange, formatCount, formatFactor, formatPercent, plural } from "@/lib/format";
+import {
+  formatAmount,
+  formatChance,
+  formatChange,
+  formatCount,
+  formatFactor,
+  formatPercent,
+  plural,
+} from "@/lib/format";
 
 describe("the formatting every screen shares", () => {
   it("writes an amount in whole units with its currency and a true minus sign", () => {
@@ -61,7 +69,15 @@ describe("Figure", () => {
 describe("TextareaField", () => {
   function Note({ error }: { error?: string }) {
     const [value, setValue] = useState("");
-    return <TextareaField label="Note" hint="A sentence or two." value={value} onChange={(e) => setValue(e.target.value)} error={error} />;
+    return (
+      <TextareaField
+        label="Note"
+        hint="A sentence or two."
+        value={value}
+        onChange={(e) => setValue(e.target.value)}
+        error={error}
+      />
+    );
   }
 
   it("is named by its label and described by its hint while there is no error", async () => {

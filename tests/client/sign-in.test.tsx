@@ -20,7 +20,10 @@ describe("sign-in", () => {
   it("when the server answers 401, then its message is shown for the whole form", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedOut,
-      "POST /api/auth/login": { status: 401, body: { error: { code: "invalid_credentials", message: "E-mail or password is not right." } } },
+      "POST /api/auth/login": {
+        status: 401,
+        body: { error: { code: "invalid_credentials", message: "E-mail or password is not right." } },
+      },
     });
     const user = userEvent.setup();
     renderApp("/sign-in");
@@ -30,14 +33,20 @@ describe("sign-in", () => {
     await user.click(screen.getByRole("button", { name: "Sign in" }));
 
     expect(await screen.findByRole("alert")).toHaveTextContent("E-mail or password is not right.");
-    expect(api.callsTo("POST", "/api/auth/login")[0].body).toEqual({ email: "analyst@larkspur.test", password: "wrong password" });
+    expect(api.callsTo("POST", "/api/auth/login")[0].body).toEqual({
+      email: "analyst@larkspur.test",
+      password: "wrong password",
+    });
     expect(screen.getByRole("button", { name: "Sign in" })).toBeEnabled();
   });
 
   it("when there were too many attempts (429), then the server's message says to wait", async () => {
     fakeApi({
       "GET /api/auth/session": signedOut,
-      "POST /api/auth/login": { status: 429, body: { error: { code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." } } },
+      "POST /api/auth/login": {
+        status: 429,
+        body: { error: { code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." } },
+      },
     });
     const user = userEvent.setup();
     renderApp("/sign-in");

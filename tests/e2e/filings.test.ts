@@ -13,9 +13,16 @@ let regulatorEmail = "";
 /** An approved Q3 2026 snapshot of an entity with a supervisor contact and an assigned regulator, made through the API. */
 async function approvedQuarter() {
   book = await signOffBook();
-  await book.entity.update({ supervisorEmails: [`market-risk-${Date.now()}@bank-supervisor.test`], supervisorName: "Ms Rowan Vale" });
+  await book.entity.update({
+    supervisorEmails: [`market-risk-${Date.now()}@bank-supervisor.test`],
+    supervisorName: "Ms Rowan Vale",
+  });
   const submitted = await preparedAndSubmitted(book);
-  await request(snapshotApp).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+  await request(snapshotApp)
+    .post(`/api/snapshots/${submitted.id}/approve`)
+    .set("Cookie", book.croCookie)
+    .send({})
+    .expect(200);
   snapshotId = submitted.id;
   const regulator = await createTestUser("regulator");
   await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
@@ -44,7 +51,10 @@ describe("filing a quarter in a real browser", () => {
     await signInAs(regulatorPage, suite.app.baseUrl, regulatorEmail);
     await regulatorPage.goto(`${suite.app.baseUrl}/filings?filing=${filing!.id}`);
     await regulatorPage.getByRole("button", { name: "Acknowledge receipt" }).click({ timeout: 20_000 });
-    await regulatorPage.getByText(/Acknowledged by/).first().waitFor({ timeout: 15_000 });
+    await regulatorPage
+      .getByText(/Acknowledged by/)
+      .first()
+      .waitFor({ timeout: 15_000 });
     await regulatorPage.waitForLoadState("networkidle");
     await keepScreenshot(regulatorPage, "filings-regulator-acknowledged");
     expect((await FilingModel.findByPk(filing!.id))!.acknowledgedAt).not.toBeNull();

@@ -22,7 +22,10 @@ describe("closing a quarter in a real browser", () => {
     await analystPage.getByRole("button", { name: "Submit for sign-off" }).waitFor({ timeout: 20_000 });
     await analystPage.getByText("Yellow").first().waitFor();
     await analystPage.getByRole("button", { name: "Submit for sign-off" }).click();
-    await analystPage.getByText(/Submitted for sign-off/).first().waitFor({ timeout: 15_000 });
+    await analystPage
+      .getByText(/Submitted for sign-off/)
+      .first()
+      .waitFor({ timeout: 15_000 });
     await analystPage.waitForLoadState("networkidle");
     await keepScreenshot(analystPage, "quarter-close-analyst-submitted");
     const row = await SnapshotModel.findOne({ where: { entityId: book.entity.id, quarterEnd: "2026-09-30" } });

@@ -17,13 +17,14 @@ async function loadBook() {
   bookDates = dates;
   const exceptionAt = new Set([70, 130, 210, 260, 280, 295]);
   const lines = dates.map((d, i) =>
-    exceptionAt.has(i) ? `${fixture.portfolio.code},${d},-180,-170,100` : `${fixture.portfolio.code},${d},${(i % 7) * 9 - 30},${(i % 5) * 8 - 25},${95 + (i % 11)}`,
+    exceptionAt.has(i)
+      ? `${fixture.portfolio.code},${d},-180,-170,100`
+      : `${fixture.portfolio.code},${d},${(i % 7) * 9 - 30},${(i % 5) * 8 - 25},${95 + (i % 11)}`,
   );
   const preview = await uploadCsv(api, fixture.cookie, [HEADER, ...lines].join("\n"));
   expect(preview.body.invalid).toBe(0);
   await request(api).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", fixture.cookie).expect(200);
 }
-
 
 const suite = browserSuite(loadBook);
 
@@ -33,7 +34,10 @@ describe("the analyst's screens in a real browser", () => {
     const errors = watchConsole(page);
     await signInAs(page, suite.app.baseUrl, fixture.analyst.email);
     await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
-    await page.getByText(/yellow/i).first().waitFor({ timeout: 20_000 });
+    await page
+      .getByText(/yellow/i)
+      .first()
+      .waitFor({ timeout: 20_000 });
     await page.waitForLoadState("networkidle");
     await keepScreenshot(page, "backtest-analyst");
     expect(errors).toEqual([]);
@@ -60,13 +64,26 @@ describe("the analyst's screens in a real browser", () => {
     await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
     const code = fixture.portfolio.code;
     const next = weekdays(bookDates[bookDates.length - 1], 2)[1]; // the weekday after the book's last day
-    const saturday = new Date(Date.parse(`${next}T00:00:00Z`) + ((6 - new Date(`${next}T00:00:00Z`).getUTCDay() + 7) % 7) * 86_400_000).toISOString().slice(0, 10);
+    const saturday = new Date(
+      Date.parse(`${next}T00:00:00Z`) + ((6 - new Date(`${next}T00:00:00Z`).getUTCDay() + 7) % 7) * 86_400_000,
+    )
+      .toISOString()
+      .slice(0, 10);
     const restated = `${code},${bookDates[10]},-77.5,-70.25,101`;
     const added = `${code},${next},-12,-11,99`;
-    const file = (lines: string[], name: string) => ({ name, mimeType: "text/csv", buffer: Buffer.from([HEADER, ...lines].join("\r\n") + "\r\n") });
+    const file = (lines: string[], name: string) => ({
+      name,
+      mimeType: "text/csv",
+      buffer: Buffer.from([HEADER, ...lines].join("\r\n") + "\r\n"),
+    });
 
-    await page.locator('input[type="file"]').setInputFiles(file([restated, `${code},${saturday},-5,-4,99`, added], "with-weekend.csv"));
-    await page.getByText(new RegExp(`${saturday} is a Saturday, not a business day`)).first().waitFor({ timeout: 20_000 });
+    await page
+      .locator('input[type="file"]')
+      .setInputFiles(file([restated, `${code},${saturday},-5,-4,99`, added], "with-weekend.csv"));
+    await page
+      .getByText(new RegExp(`${saturday} is a Saturday, not a business day`))
+      .first()
+      .waitFor({ timeout: 20_000 });
     expect(await page.getByRole("button", { name: /^Commit/ }).isDisabled()).toBe(true);
     await keepScreenshot(page, "data-upload-refused");
 
@@ -77,7 +94,10 @@ describe("the analyst's screens in a real browser", () => {
     await page.getByText(/is committed: 1 new day written, 1 day restated/).waitFor({ timeout: 20_000 });
     await keepScreenshot(page, "data-upload-committed");
 
-    const versions = await ObservationModel.findAll({ where: { portfolioId: fixture.portfolio.id, businessDate: bookDates[10] }, order: [["version", "ASC"]] });
+    const versions = await ObservationModel.findAll({
+      where: { portfolioId: fixture.portfolio.id, businessDate: bookDates[10] },
+      order: [["version", "ASC"]],
+    });
     expect(versions.map((v) => [v.version, v.isCurrent, v.actualPnl])).toEqual([
       [1, false, expect.any(Number)],
       [2, true, -77.5],

@@ -21,7 +21,9 @@ describe("signing in through the real page", () => {
     expect(page.url()).toBe(`${suite.app.baseUrl}/`);
     await expect(page.getByText("Edda Journey").first().isVisible()).resolves.toBe(true);
     // Cookies only: nothing of the session in browser storage.
-    const stored = await page.evaluate(() => JSON.stringify({ ...localStorage }) + JSON.stringify({ ...sessionStorage }));
+    const stored = await page.evaluate(
+      () => JSON.stringify({ ...localStorage }) + JSON.stringify({ ...sessionStorage }),
+    );
     expect(stored).not.toMatch(/eyJ/);
 
     const shot = await keepScreenshot(page, "overview-analyst");

@@ -42,7 +42,12 @@ let params: Record<string, string>;
 beforeAll(async () => {
   for (const role of ROLES) cookies.set(role, (await createTestUser(role)).id);
   const entity = await createTestEntity();
-  const portfolio = await PortfolioModel.create({ entityId: entity.id, code: `${entity.code}-P`, name: "P", level: "top" });
+  const portfolio = await PortfolioModel.create({
+    entityId: entity.id,
+    code: `${entity.code}-P`,
+    name: "P",
+    level: "top",
+  });
   const someUser = await createTestUser("analyst");
   params = {
     code: entity.code,
@@ -77,7 +82,10 @@ describe("the access policy table", () => {
     const [method, path] = key.split(" ") as [string, string];
 
     it(`${key}: without a session → ${access === "public" ? "not 401" : "401"}`, async () => {
-      const res = await request(app)[method.toLowerCase() as "get"](concrete(path)).send(method === "GET" ? undefined : {});
+      const verb = method.toLowerCase() as "get";
+      const res = await request(app)
+        [verb](concrete(path))
+        .send(method === "GET" ? undefined : {});
       if (access === "public") expect(res.status).not.toBe(401);
       else {
         expect(res.status).toBe(401);
@@ -140,7 +148,10 @@ const MUST_REFUSE: [Role, string][] = [
   ["regulator", "POST /api/entities/:code/capital/what-if"],
   ["admin", "GET /api/entities/:code/capital/forecast"],
   // The development mail outbox is the administrator's alone.
-  ...(["analyst", "cro", "treasury", "regulator"] as const).map((role): [Role, string] => [role, "GET /api/admin/outbox/:id/attachments/:index"]),
+  ...(["analyst", "cro", "treasury", "regulator"] as const).map((role): [Role, string] => [
+    role,
+    "GET /api/admin/outbox/:id/attachments/:index",
+  ]),
 ];
 
 describe("what DESIGN.md §2 forbids, checked without the policy table", () => {
@@ -148,7 +159,8 @@ describe("what DESIGN.md §2 forbids, checked without the policy table", () => {
     it(`${key} as ${role} → 403`, async () => {
       const [method, path] = key.split(" ") as [string, string];
       const cookie = await sessionCookieFor(cookies.get(role)!);
-      const call = request(app)[method.toLowerCase() as "get"](concrete(path).replace(":id", "1")).set("Cookie", cookie);
+      const verb = method.toLowerCase() as "get";
+      const call = request(app)[verb](concrete(path).replace(":id", "1")).set("Cookie", cookie);
       const res = await (method === "GET" || method === "DELETE" ? call : call.send({}));
       expect(res.status).toBe(403);
     });

@@ -42,7 +42,10 @@ describe("managing users", () => {
 
   it("when the e-mail already exists, then 409 and no second row", async () => {
     const existing = await createTestUser("cro");
-    const res = await request(app).post("/api/users").set("Cookie", admin).send({ email: existing.email, name: "X", role: "cro", password: "a long enough password" });
+    const res = await request(app)
+      .post("/api/users")
+      .set("Cookie", admin)
+      .send({ email: existing.email, name: "X", role: "cro", password: "a long enough password" });
     expect(res.status).toBe(409);
     expect(res.body.error.message).toContain(existing.email);
     expect(await UserModel.count({ where: { email: existing.email } })).toBe(1);
@@ -50,14 +53,20 @@ describe("managing users", () => {
 
   it("when the body smuggles extra fields such as tokenVersion, then 422 and nothing is created", async () => {
     const email = `smuggle-${unique()}@larkspur.test`;
-    const res = await request(app).post("/api/users").set("Cookie", admin).send({ email, name: "X", role: "analyst", password: "a long enough password", tokenVersion: 99 });
+    const res = await request(app)
+      .post("/api/users")
+      .set("Cookie", admin)
+      .send({ email, name: "X", role: "analyst", password: "a long enough password", tokenVersion: 99 });
     expect(res.status).toBe(422);
     expect(await UserModel.count({ where: { email } })).toBe(0);
   });
 
   it("when an admin changes a role, then the audit log keeps before and after", async () => {
     const user = await createTestUser("analyst");
-    const res = await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ role: "cro", version: 1 });
+    const res = await request(app)
+      .patch(`/api/users/${user.id}`)
+      .set("Cookie", admin)
+      .send({ role: "cro", version: 1 });
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ role: "cro", version: 2 });
     expect((await UserModel.findByPk(user.id))!.version).toBe(2);
@@ -68,8 +77,15 @@ describe("managing users", () => {
 
   it("when an admin resets a password, then the old one stops working and the new one works", async () => {
     const user = await createTestUser("treasury");
-    await request(app).post(`/api/users/${user.id}/password`).set("Cookie", admin).send({ password: "brand new passphrase", version: 1 }).expect(204);
-    expect((await request(app).post("/api/auth/login").send({ email: user.email, password: "correct horse battery staple" })).status).toBe(401);
+    await request(app)
+      .post(`/api/users/${user.id}/password`)
+      .set("Cookie", admin)
+      .send({ password: "brand new passphrase", version: 1 })
+      .expect(204);
+    expect(
+      (await request(app).post("/api/auth/login").send({ email: user.email, password: "correct horse battery staple" }))
+        .status,
+    ).toBe(401);
     await signIn(app, user.email, "brand new passphrase");
     expect((await UserModel.findByPk(user.id))!.version).toBe(2);
   });
@@ -77,7 +93,10 @@ describe("managing users", () => {
   it("when an admin tries to disable their own account, then 403 and they stay enabled", async () => {
     const self = await createTestUser("admin");
     const cookie = await sessionCookieFor(self.id);
-    const res = await request(app).patch(`/api/users/${self.id}`).set("Cookie", cookie).send({ disabled: true, version: 1 });
+    const res = await request(app)
+      .patch(`/api/users/${self.id}`)
+      .set("Cookie", cookie)
+      .send({ disabled: true, version: 1 });
     expect(res.status).toBe(403);
     expect((await UserModel.findByPk(self.id))!.disabled).toBe(false);
   });
@@ -99,14 +118,27 @@ describe("two admins editing the same user (row version)", () => {
   it("when the second admin disables a user with the version both read, after the first renamed them, then 409 stale with the current user, and nothing of the second is written", async () => {
     const target = await createTestUser("analyst");
     const targetSession = await sessionCookieFor(target.id);
-    await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ name: "Renamed by the first", version: 1 }).expect(200);
+    await request(app)
+      .patch(`/api/users/${target.id}`)
+      .set("Cookie", admin)
+      .send({ name: "Renamed by the first", version: 1 })
+      .expect(200);
 
-    const late = await request(app).patch(`/api/users/${target.id}`).set("Cookie", otherAdmin).send({ disabled: true, version: 1 });
+    const late = await request(app)
+      .patch(`/api/users/${target.id}`)
+      .set("Cookie", otherAdmin)
+      .send({ disabled: true, version: 1 });
 
     expect(late.status).toBe(409);
     expect(late.body.error.code).toBe("stale");
     expect(late.body.error.message).toMatch(/Someone else changed Renamed by the first/);
-    expect(late.body.error.details.current).toMatchObject({ id: target.id, name: "Renamed by the first", role: "analyst", disabled: false, version: 2 });
+    expect(late.body.error.details.current).toMatchObject({
+      id: target.id,
+      name: "Renamed by the first",
+      role: "analyst",
+      disabled: false,
+      version: 2,
+    });
     expect(Object.keys(late.body.error.details.current).sort()).toEqual(DTO_KEYS); // no password hash, no token version
     const row = (await UserModel.findByPk(target.id))!;
     expect({ name: row.name, disabled: row.disabled, version: row.version, tokenVersion: row.tokenVersion }).toEqual({
@@ -121,9 +153,16 @@ describe("two admins editing the same user (row version)", () => {
 
   it("when the second admin resets a password with the old version, then 409 stale and the password and sessions stay as they were", async () => {
     const target = await createTestUser("cro");
-    await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ role: "treasury", version: 1 }).expect(200);
+    await request(app)
+      .patch(`/api/users/${target.id}`)
+      .set("Cookie", admin)
+      .send({ role: "treasury", version: 1 })
+      .expect(200);
 
-    const late = await request(app).post(`/api/users/${target.id}/password`).set("Cookie", otherAdmin).send({ password: "a second admin's idea", version: 1 });
+    const late = await request(app)
+      .post(`/api/users/${target.id}/password`)
+      .set("Cookie", otherAdmin)
+      .send({ password: "a second admin's idea", version: 1 });
 
     expect(late.status).toBe(409);
     expect(late.body.error.code).toBe("stale");
@@ -146,22 +185,39 @@ describe("two admins editing the same user (row version)", () => {
     const loser = a.status === 200 ? b : a;
     expect(loser.body.error.details.current).toMatchObject({ role: winner.body.role, version: 2 });
     const row = (await UserModel.findByPk(target.id))!;
-    expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({ role: winner.body.role, version: 2, tokenVersion: 2 });
+    expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({
+      role: winner.body.role,
+      version: 2,
+      tokenVersion: 2,
+    });
     expect(await AuditEventModel.count({ where: { action: "user.update", target: target.email } })).toBe(1);
   });
 
   it("when an edit carries no version or an invalid one, then 422 names the version and nothing is written", async () => {
     const target = await createTestUser("analyst");
-    for (const body of [{ role: "cro" }, { role: "cro", version: "1" }, { role: "cro", version: 0 }, { role: "cro", version: 1.5 }, { role: "cro", version: null }]) {
+    for (const body of [
+      { role: "cro" },
+      { role: "cro", version: "1" },
+      { role: "cro", version: 0 },
+      { role: "cro", version: 1.5 },
+      { role: "cro", version: null },
+    ]) {
       const res = await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send(body);
       expect(res.status, JSON.stringify(body)).toBe(422);
       expect(Object.keys(res.body.error.details.fields)).toContain("version");
     }
-    const reset = await request(app).post(`/api/users/${target.id}/password`).set("Cookie", admin).send({ password: "a long enough password" });
+    const reset = await request(app)
+      .post(`/api/users/${target.id}/password`)
+      .set("Cookie", admin)
+      .send({ password: "a long enough password" });
     expect(reset.status).toBe(422);
     expect(Object.keys(reset.body.error.details.fields)).toContain("version");
     const row = (await UserModel.findByPk(target.id))!;
-    expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({ role: "analyst", version: 1, tokenVersion: 1 });
+    expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({
+      role: "analyst",
+      version: 1,
+      tokenVersion: 1,
+    });
     await signIn(app, target.email);
   });
 });
@@ -174,7 +230,17 @@ describe("managing entities, portfolios and calendars", () => {
       .set("Cookie", admin)
       .send({ code, name: "Test Securities", regime: "us", currency: "USD", supervisorEmails: ["desk@sup.test"] });
     expect(res.status).toBe(201);
-    expect(res.body).toEqual({ code, name: "Test Securities", regime: "us", pnlBasis: "actual", currency: "USD", qualitativeAddend: 0, supervisorName: null, supervisorEmails: ["desk@sup.test"], version: 1 });
+    expect(res.body).toEqual({
+      code,
+      name: "Test Securities",
+      regime: "us",
+      pnlBasis: "actual",
+      currency: "USD",
+      qualitativeAddend: 0,
+      supervisorName: null,
+      supervisorEmails: ["desk@sup.test"],
+      version: 1,
+    });
     const row = await EntityModel.findOne({ where: { code } });
     expect(row!.pnlBasis).toBe("actual");
     expect(await AuditEventModel.count({ where: { action: "entity.create", target: code } })).toBe(1);
@@ -182,12 +248,18 @@ describe("managing entities, portfolios and calendars", () => {
 
   it("when the EU rule set is chosen without a basis, then the higher of actual and hypothetical is used (EBA Q&A 2016_2759)", async () => {
     const code = `T-${unique().toUpperCase()}`;
-    const res = await request(app).post("/api/entities").set("Cookie", admin).send({ code, name: "EU Test", regime: "eu", currency: "EUR" });
+    const res = await request(app)
+      .post("/api/entities")
+      .set("Cookie", admin)
+      .send({ code, name: "EU Test", regime: "eu", currency: "EUR" });
     expect(res.body.pnlBasis).toBe("max");
   });
 
   it("when the code is malformed or the currency unknown-shaped, then 422 names the field and nothing is stored", async () => {
-    const res = await request(app).post("/api/entities").set("Cookie", admin).send({ code: "bad code", name: "X", regime: "eu", currency: "euro" });
+    const res = await request(app)
+      .post("/api/entities")
+      .set("Cookie", admin)
+      .send({ code: "bad code", name: "X", regime: "eu", currency: "euro" });
     expect(res.status).toBe(422);
     expect(Object.keys(res.body.error.details.fields)).toEqual(expect.arrayContaining(["code", "currency"]));
     expect(await EntityModel.count({ where: { code: "bad code" } })).toBe(0);
@@ -195,13 +267,19 @@ describe("managing entities, portfolios and calendars", () => {
 
   it("when an entity code is taken, then 409", async () => {
     const entity = await createTestEntity();
-    const res = await request(app).post("/api/entities").set("Cookie", admin).send({ code: entity.code, name: "Again", regime: "eu", currency: "EUR" });
+    const res = await request(app)
+      .post("/api/entities")
+      .set("Cookie", admin)
+      .send({ code: entity.code, name: "Again", regime: "eu", currency: "EUR" });
     expect(res.status).toBe(409);
   });
 
   it("when an admin edits the qualitative addend, then it is stored as a decimal and read back as a number", async () => {
     const entity = await createTestEntity();
-    const res = await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.25, version: 1 });
+    const res = await request(app)
+      .patch(`/api/entities/${entity.code}`)
+      .set("Cookie", admin)
+      .send({ qualitativeAddend: 0.25, version: 1 });
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ qualitativeAddend: 0.25, version: 2 });
     expect((await EntityModel.findByPk(entity.id))!.qualitativeAddend).toBe(0.25);
@@ -209,8 +287,15 @@ describe("managing entities, portfolios and calendars", () => {
 
   it("when two admins edit the same entity from the same version, then the second gets 409 with the current entity and its change is not applied", async () => {
     const entity = await createTestEntity();
-    await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.1, version: 1 }).expect(200);
-    const late = await request(app).patch(`/api/entities/${entity.code}`).set("Cookie", admin).send({ qualitativeAddend: 0.5, version: 1 });
+    await request(app)
+      .patch(`/api/entities/${entity.code}`)
+      .set("Cookie", admin)
+      .send({ qualitativeAddend: 0.1, version: 1 })
+      .expect(200);
+    const late = await request(app)
+      .patch(`/api/entities/${entity.code}`)
+      .set("Cookie", admin)
+      .send({ qualitativeAddend: 0.5, version: 1 });
     expect(late.status).toBe(409);
     expect(late.body.error.details.current).toMatchObject({ qualitativeAddend: 0.1, version: 2 });
     expect((await EntityModel.findByPk(entity.id))!.qualitativeAddend).toBe(0.1);
@@ -218,9 +303,20 @@ describe("managing entities, portfolios and calendars", () => {
 
   it("when portfolios are added, then they list top of house first and a duplicate code is refused", async () => {
     const entity = await createTestEntity();
-    await request(app).post(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin).send({ code: `${entity.code}-D1`, name: "Desk one", level: "desk" }).expect(201);
-    await request(app).post(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin).send({ code: `${entity.code}-TOP`, name: "Whole book", level: "top" }).expect(201);
-    const dup = await request(app).post(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin).send({ code: `${entity.code}-D1`, name: "Again", level: "desk" });
+    await request(app)
+      .post(`/api/entities/${entity.code}/portfolios`)
+      .set("Cookie", admin)
+      .send({ code: `${entity.code}-D1`, name: "Desk one", level: "desk" })
+      .expect(201);
+    await request(app)
+      .post(`/api/entities/${entity.code}/portfolios`)
+      .set("Cookie", admin)
+      .send({ code: `${entity.code}-TOP`, name: "Whole book", level: "top" })
+      .expect(201);
+    const dup = await request(app)
+      .post(`/api/entities/${entity.code}/portfolios`)
+      .set("Cookie", admin)
+      .send({ code: `${entity.code}-D1`, name: "Again", level: "desk" });
     expect(dup.status).toBe(409);
     const list = await request(app).get(`/api/entities/${entity.code}/portfolios`).set("Cookie", admin);
     expect(list.body.map((p: { code: string }) => p.code)).toEqual([`${entity.code}-TOP`, `${entity.code}-D1`]);
@@ -229,8 +325,15 @@ describe("managing entities, portfolios and calendars", () => {
 
   it("when holidays are added and removed, then the calendar in the database follows and an impossible date is refused", async () => {
     const entity = await createTestEntity();
-    await request(app).post(`/api/entities/${entity.code}/holidays`).set("Cookie", admin).send({ date: "2027-12-27", name: "Substitute day" }).expect(201);
-    const bad = await request(app).post(`/api/entities/${entity.code}/holidays`).set("Cookie", admin).send({ date: "2027-02-30", name: "Nope" });
+    await request(app)
+      .post(`/api/entities/${entity.code}/holidays`)
+      .set("Cookie", admin)
+      .send({ date: "2027-12-27", name: "Substitute day" })
+      .expect(201);
+    const bad = await request(app)
+      .post(`/api/entities/${entity.code}/holidays`)
+      .set("Cookie", admin)
+      .send({ date: "2027-02-30", name: "Nope" });
     expect(bad.status).toBe(422);
     expect(await HolidayModel.count({ where: { entityId: entity.id } })).toBe(1);
     await request(app).delete(`/api/entities/${entity.code}/holidays/2027-12-27`).set("Cookie", admin).expect(204);
@@ -243,7 +346,11 @@ describe("regulator assignments", () => {
     const regulator = await createTestUser("regulator");
     const mine = await createTestEntity();
     const other = await createTestEntity();
-    await request(app).post("/api/regulator-assignments").set("Cookie", admin).send({ userId: regulator.id, entityCode: mine.code }).expect(201);
+    await request(app)
+      .post("/api/regulator-assignments")
+      .set("Cookie", admin)
+      .send({ userId: regulator.id, entityCode: mine.code })
+      .expect(201);
     expect(await RegulatorAssignmentModel.count({ where: { userId: regulator.id } })).toBe(1);
     const cookie = await sessionCookieFor(regulator.id);
     const list = await request(app).get("/api/entities").set("Cookie", cookie);
@@ -254,7 +361,10 @@ describe("regulator assignments", () => {
   it("when a non-regulator is assigned, then 400 explains why", async () => {
     const analyst = await createTestUser("analyst");
     const entity = await createTestEntity();
-    const res = await request(app).post("/api/regulator-assignments").set("Cookie", admin).send({ userId: analyst.id, entityCode: entity.code });
+    const res = await request(app)
+      .post("/api/regulator-assignments")
+      .set("Cookie", admin)
+      .send({ userId: analyst.id, entityCode: entity.code });
     expect(res.status).toBe(400);
     expect(res.body.error.message).toMatch(/not a regulator/);
   });
@@ -263,8 +373,16 @@ describe("regulator assignments", () => {
 describe("the audit log screen's API", () => {
   it("when filtered by action, then only those events come back, newest first", async () => {
     const user = await createTestUser("analyst");
-    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed once", version: 1 }).expect(200);
-    await request(app).patch(`/api/users/${user.id}`).set("Cookie", admin).send({ name: "Renamed twice", version: 2 }).expect(200);
+    await request(app)
+      .patch(`/api/users/${user.id}`)
+      .set("Cookie", admin)
+      .send({ name: "Renamed once", version: 1 })
+      .expect(200);
+    await request(app)
+      .patch(`/api/users/${user.id}`)
+      .set("Cookie", admin)
+      .send({ name: "Renamed twice", version: 2 })
+      .expect(200);
     const res = await request(app).get("/api/audit-events?action=user.update&limit=200").set("Cookie", admin);
     expect(res.status).toBe(200);
     expect(res.body.items.every((e: { action: string }) => e.action === "user.update")).toBe(true);

@@ -12,7 +12,13 @@ const app = testApp();
 afterAll(() => sequelize.close());
 
 function forge(payload: object, key = config.jwtSecret, options: jwt.SignOptions = {}) {
-  return jwt.sign(payload, key, { algorithm: "HS256", issuer: "quartermark", audience: "quartermark-web", expiresIn: 600, ...options });
+  return jwt.sign(payload, key, {
+    algorithm: "HS256",
+    issuer: "quartermark",
+    audience: "quartermark-web",
+    expiresIn: 600,
+    ...options,
+  });
 }
 
 describe("signing in", () => {
@@ -35,14 +41,18 @@ describe("signing in", () => {
 
   it("when the e-mail is typed in capitals, then it still signs in", async () => {
     const user = await createTestUser("cro");
-    const res = await request(app).post("/api/auth/login").send({ email: user.email.toUpperCase(), password: TEST_PASSWORD });
+    const res = await request(app)
+      .post("/api/auth/login")
+      .send({ email: user.email.toUpperCase(), password: TEST_PASSWORD });
     expect(res.status).toBe(200);
   });
 
   it("when the password is wrong or the e-mail unknown, then 401 with the same message and a failed sign-in in the audit log", async () => {
     const user = await createTestUser("analyst");
     const wrong = await request(app).post("/api/auth/login").send({ email: user.email, password: "not the password" });
-    const unknown = await request(app).post("/api/auth/login").send({ email: `nobody-${unique()}@x.test`, password: "whatever" });
+    const unknown = await request(app)
+      .post("/api/auth/login")
+      .send({ email: `nobody-${unique()}@x.test`, password: "whatever" });
     expect(wrong.status).toBe(401);
     expect(unknown.status).toBe(401);
     expect(wrong.body.error.message).toBe(unknown.body.error.message);
@@ -53,7 +63,9 @@ describe("signing in", () => {
 
   it("when the password is longer than 72 bytes, then 422 says so instead of silently truncating", async () => {
     const user = await createTestUser("analyst");
-    const res = await request(app).post("/api/auth/login").send({ email: user.email, password: `${TEST_PASSWORD}${"é".repeat(30)}` });
+    const res = await request(app)
+      .post("/api/auth/login")
+      .send({ email: user.email, password: `${TEST_PASSWORD}${"é".repeat(30)}` });
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe("validation_failed");
     expect(res.body.error.message).toMatch(/72 bytes/);
@@ -72,7 +84,9 @@ describe("session tokens", () => {
     const user = await createTestUser("admin");
     const valid = (await sessionCookieFor(user.id)).split("=")[1];
     const [h, , s] = valid.split(".");
-    const editedPayload = Buffer.from(JSON.stringify({ sub: String(user.id), tv: 1, iss: "quartermark", aud: "quartermark-web", exp: 9999999999 })).toString("base64url");
+    const editedPayload = Buffer.from(
+      JSON.stringify({ sub: String(user.id), tv: 1, iss: "quartermark", aud: "quartermark-web", exp: 9999999999 }),
+    ).toString("base64url");
     const none = `${Buffer.from(JSON.stringify({ alg: "none", typ: "JWT" })).toString("base64url")}.${editedPayload}.`;
     const tokens = {
       tampered: `${h}.${editedPayload}.${s}`,
@@ -90,7 +104,8 @@ describe("session tokens", () => {
     // The expired token was ours: audited. The three forgeries from one address: audited once.
     expect(await AuditEventModel.count({ where: { action: "auth.session_rejected" } })).toBe(before + 2);
     // A flood of forged cookies does not flood the audit log.
-    for (let i = 0; i < 20; i++) await request(app).get("/api/users").set("Cookie", `${SESSION_COOKIE}=${tokens.otherKey}`).expect(401);
+    for (let i = 0; i < 20; i++)
+      await request(app).get("/api/users").set("Cookie", `${SESSION_COOKIE}=${tokens.otherKey}`).expect(401);
     expect(await AuditEventModel.count({ where: { action: "auth.session_rejected" } })).toBe(before + 2);
   });
 
@@ -112,8 +127,16 @@ describe("session tokens", () => {
     const c2 = await sessionCookieFor(target2.id);
     expect((await request(app).get("/api/auth/me").set("Cookie", c1)).status).toBe(200);
 
-    await request(app).patch(`/api/users/${target1.id}`).set("Cookie", adminCookie).send({ disabled: true, version: 1 }).expect(200);
-    await request(app).patch(`/api/users/${target2.id}`).set("Cookie", adminCookie).send({ role: "treasury", version: 1 }).expect(200);
+    await request(app)
+      .patch(`/api/users/${target1.id}`)
+      .set("Cookie", adminCookie)
+      .send({ disabled: true, version: 1 })
+      .expect(200);
+    await request(app)
+      .patch(`/api/users/${target2.id}`)
+      .set("Cookie", adminCookie)
+      .send({ role: "treasury", version: 1 })
+      .expect(200);
 
     expect((await request(app).get("/api/auth/me").set("Cookie", c1)).status).toBe(401);
     expect((await request(app).get("/api/auth/me").set("Cookie", c2)).status).toBe(401);
@@ -128,7 +151,9 @@ describe("sign-in rate limits", () => {
     const limited = testApp({ signInLimits: { windowMs: 60_000, perAccount: 3, perAddress: 100 } });
     const user = await createTestUser("analyst");
     for (let i = 0; i < 3; i++) {
-      expect((await request(limited).post("/api/auth/login").send({ email: user.email, password: "nope" })).status).toBe(401);
+      expect(
+        (await request(limited).post("/api/auth/login").send({ email: user.email, password: "nope" })).status,
+      ).toBe(401);
     }
     const blocked = await request(limited).post("/api/auth/login").send({ email: user.email, password: TEST_PASSWORD });
     expect(blocked.status).toBe(429);
@@ -136,15 +161,22 @@ describe("sign-in rate limits", () => {
     expect(blocked.body.error.message).not.toMatch(/password|e-mail/i);
     // Another account from the same address is not affected by this account's limit.
     const other = await createTestUser("analyst");
-    expect((await request(limited).post("/api/auth/login").send({ email: other.email, password: TEST_PASSWORD })).status).toBe(200);
+    expect(
+      (await request(limited).post("/api/auth/login").send({ email: other.email, password: TEST_PASSWORD })).status,
+    ).toBe(200);
   });
 
   it("when one address tries many accounts, then 429 after the address limit", async () => {
     const limited = testApp({ signInLimits: { windowMs: 60_000, perAccount: 100, perAddress: 4 } });
     for (let i = 0; i < 4; i++) {
-      await request(limited).post("/api/auth/login").send({ email: `spray-${unique()}@x.test`, password: "nope" }).expect(401);
+      await request(limited)
+        .post("/api/auth/login")
+        .send({ email: `spray-${unique()}@x.test`, password: "nope" })
+        .expect(401);
     }
-    const res = await request(limited).post("/api/auth/login").send({ email: `spray-${unique()}@x.test`, password: "nope" });
+    const res = await request(limited)
+      .post("/api/auth/login")
+      .send({ email: `spray-${unique()}@x.test`, password: "nope" });
     expect(res.status).toBe(429);
   });
 });
@@ -153,7 +185,9 @@ describe("the session probe", () => {
   it("when nobody is signed in, then 200 with user null; when signed in, then the user", async () => {
     expect((await request(app).get("/api/auth/session")).body).toEqual({ user: null });
     const user = await createTestUser("treasury");
-    const res = await request(app).get("/api/auth/session").set("Cookie", await sessionCookieFor(user.id));
+    const res = await request(app)
+      .get("/api/auth/session")
+      .set("Cookie", await sessionCookieFor(user.id));
     expect(res.status).toBe(200);
     expect(res.body.user).toMatchObject({ id: user.id, role: "treasury" });
   });

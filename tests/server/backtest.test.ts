@@ -18,7 +18,9 @@ async function fiveExceptionBook() {
   const fx = await ingestFixture();
   const dates = weekdays("2025-10-01", 260, new Set(["2025-12-25", "2026-12-25"]));
   const exceptionDays = [dates[20], dates[80], dates[150], dates[200], dates[255]];
-  const lines = dates.map((d) => (exceptionDays.includes(d) ? `${fx.portfolio.code},${d},-150,-150,100` : `${fx.portfolio.code},${d},-50,-40,100`));
+  const lines = dates.map((d) =>
+    exceptionDays.includes(d) ? `${fx.portfolio.code},${d},-150,-150,100` : `${fx.portfolio.code},${d},-50,-40,100`,
+  );
   const preview = await uploadCsv(app, fx.cookie, [HEADER, ...lines].join("\n"));
   expect(preview.body.invalid).toBe(0);
   await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", fx.cookie).expect(200);
@@ -54,16 +56,26 @@ describe("the backtest of a portfolio", () => {
   });
 
   it("when asked as of an earlier date, then the window ends there", async () => {
-    const res = await request(app).get(`/api/portfolios/${book.portfolio.code}/backtest?asOf=${book.dates[150]}`).set("Cookie", book.cookie);
+    const res = await request(app)
+      .get(`/api/portfolios/${book.portfolio.code}/backtest?asOf=${book.dates[150]}`)
+      .set("Cookie", book.cookie);
     expect(res.body.window).toMatchObject({ end: book.dates[150], observations: 151, complete: false });
     expect(res.body.exceptions.counted).toBe(3);
   });
 
   it("when the rolling count is read, then its last row agrees with the backtest", async () => {
-    const res = await request(app).get(`/api/portfolios/${book.portfolio.code}/rolling?from=${book.dates[250]}`).set("Cookie", book.cookie);
+    const res = await request(app)
+      .get(`/api/portfolios/${book.portfolio.code}/rolling?from=${book.dates[250]}`)
+      .set("Cookie", book.cookie);
     expect(res.status).toBe(200);
     expect(res.body).toHaveLength(10);
-    expect(res.body.at(-1)).toMatchObject({ date: book.dates[259], counted: 5, zone: "yellow", plusFactor: 0.4, complete: true });
+    expect(res.body.at(-1)).toMatchObject({
+      date: book.dates[259],
+      counted: 5,
+      zone: "yellow",
+      plusFactor: 0.4,
+      complete: true,
+    });
   });
 
   it("when a portfolio has no data, then 404 says what to do", async () => {
@@ -80,7 +92,11 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
     const review = await request(app)
       .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
       .set("Cookie", book.cookie)
-      .send({ cause: "data_issue", narrative: "A stale FX rate in the end-of-day snapshot overstated the loss.", exclusion: true });
+      .send({
+        cause: "data_issue",
+        narrative: "A stale FX rate in the end-of-day snapshot overstated the loss.",
+        exclusion: true,
+      });
     expect(review.status).toBe(200);
     expect(review.body).toMatchObject({ cause: "data_issue", exclusionStatus: "requested", version: 1 });
 
@@ -93,30 +109,59 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
       .set("Cookie", book.croCookie)
       .send({ decision: "approved", reference: "NBA/2026/117", decidedOn: "2026-10-20", version: 1 });
     expect(decision.status).toBe(200);
-    expect(decision.body).toMatchObject({ exclusionStatus: "approved", decisionReference: "NBA/2026/117", decidedBy: book.cro.email, version: 2 });
+    expect(decision.body).toMatchObject({
+      exclusionStatus: "approved",
+      decisionReference: "NBA/2026/117",
+      decidedBy: book.cro.email,
+      version: 2,
+    });
 
     bt = await request(app).get(`/api/portfolios/${book.portfolio.code}/backtest`).set("Cookie", book.croCookie);
     expect(bt.body.exceptions).toMatchObject({ counted: 4, excluded: 1 });
     expect(bt.body).toMatchObject({ zone: "green", plusFactor: 0, multiplier: 3 });
-    expect(bt.body.exceptionDays.find((d: { date: string }) => d.date === day)).toMatchObject({ excluded: true, review: { exclusionStatus: "approved" } });
+    expect(bt.body.exceptionDays.find((d: { date: string }) => d.date === day)).toMatchObject({
+      excluded: true,
+      review: { exclusionStatus: "approved" },
+    });
 
     const row = await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } });
-    expect(row).toMatchObject({ exclusionStatus: "approved", decidedBy: book.cro.id, decisionReference: "NBA/2026/117", version: 2 });
-    expect(await AuditEventModel.count({ where: { action: "exception.exclusion_approved", target: `${book.portfolio.code}/${day}` } })).toBe(1);
+    expect(row).toMatchObject({
+      exclusionStatus: "approved",
+      decidedBy: book.cro.id,
+      decisionReference: "NBA/2026/117",
+      version: 2,
+    });
+    expect(
+      await AuditEventModel.count({
+        where: { action: "exception.exclusion_approved", target: `${book.portfolio.code}/${day}` },
+      }),
+    ).toBe(1);
 
     // The analyst cannot quietly withdraw an approved exclusion.
     const withdraw = await request(app)
       .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
       .set("Cookie", book.cookie)
-      .send({ cause: "data_issue", narrative: "Changed my mind about this one entirely.", exclusion: false, version: 2 });
+      .send({
+        cause: "data_issue",
+        narrative: "Changed my mind about this one entirely.",
+        exclusion: false,
+        version: 2,
+      });
     expect(withdraw.status).toBe(409);
     // Nor can the approved explanation be rewritten.
     const rewrite = await request(app)
       .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
       .set("Cookie", book.cookie)
-      .send({ cause: "market_move", narrative: "On reflection it was simply a market move.", exclusion: true, version: 2 });
+      .send({
+        cause: "market_move",
+        narrative: "On reflection it was simply a market move.",
+        exclusion: true,
+        version: 2,
+      });
     expect(rewrite.status).toBe(409);
-    expect((await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } }))!.cause).toBe("data_issue");
+    expect(
+      (await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } }))!.cause,
+    ).toBe("data_issue");
   });
 
   it("when two analysts save the same review at once from the same version, then one wins and the other gets 409 with the current review", async () => {
@@ -124,8 +169,14 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
     const other = await createTestUser("analyst");
     const otherCookie = await sessionCookieFor(other.id);
     const send = (cookie: string, narrative: string) =>
-      request(app).put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`).set("Cookie", cookie).send({ cause: "market_move", narrative, exclusion: false, version: 0 });
-    const [a, b] = await Promise.all([send(book.cookie, "Rates gapped after the central bank surprise."), send(otherCookie, "A large move in long-dated swap spreads.")]);
+      request(app)
+        .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
+        .set("Cookie", cookie)
+        .send({ cause: "market_move", narrative, exclusion: false, version: 0 });
+    const [a, b] = await Promise.all([
+      send(book.cookie, "Rates gapped after the central bank surprise."),
+      send(otherCookie, "A large move in long-dated swap spreads."),
+    ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
     const loser = a.status === 409 ? a : b;
     const winner = a.status === 200 ? a : b;
@@ -144,10 +195,16 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
 
   it("when evidence is attached, then it is stored with its hash and always served as a download; an unknown binary is refused", async () => {
     const day = book.exceptionDays[3];
-    await request(app).put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`).set("Cookie", book.cookie)
-      .send({ cause: "pricing", narrative: "Vendor curve for the credit book arrived late.", exclusion: false }).expect(200);
+    await request(app)
+      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
+      .set("Cookie", book.cookie)
+      .send({ cause: "pricing", narrative: "Vendor curve for the credit book arrived late.", exclusion: false })
+      .expect(200);
     const pdf = Buffer.from("%PDF-1.4\n1 0 obj <<>> endobj\ntrailer <<>>\n%%EOF\n");
-    const added = await request(app).post(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/evidence`).set("Cookie", book.cookie).attach("file", pdf, "vendor-note.pdf");
+    const added = await request(app)
+      .post(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/evidence`)
+      .set("Cookie", book.cookie)
+      .attach("file", pdf, "vendor-note.pdf");
     expect(added.status).toBe(201);
     const ev = added.body.evidence[0];
     expect(ev).toMatchObject({ fileName: "vendor-note.pdf", contentType: "application/pdf", sizeBytes: pdf.length });
@@ -159,9 +216,20 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
     expect(download.headers["content-disposition"]).toMatch(/^attachment; filename="vendor-note.pdf"/);
     expect(Buffer.from(download.body).equals(pdf)).toBe(true);
 
-    const exe = await request(app).post(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/evidence`).set("Cookie", book.cookie).attach("file", Buffer.from([0x4d, 0x5a, 0x90, 0x00, 0x03]), "tool.pdf");
+    const exe = await request(app)
+      .post(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/evidence`)
+      .set("Cookie", book.cookie)
+      .attach("file", Buffer.from([0x4d, 0x5a, 0x90, 0x00, 0x03]), "tool.pdf");
     expect(exe.status).toBe(415);
-    expect(await EvidenceFileModel.count({ where: { reviewId: (await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } }))!.id } })).toBe(1);
+    expect(
+      await EvidenceFileModel.count({
+        where: {
+          reviewId: (await ExceptionReviewModel.findOne({
+            where: { portfolioId: book.portfolio.id, businessDate: day },
+          }))!.id,
+        },
+      }),
+    ).toBe(1);
   });
 });
 

@@ -8,7 +8,9 @@ describe("the private MariaDB launcher", () => {
     await new Promise((r) => squatter.once("listening", r));
     const { port } = squatter.address() as net.AddressInfo;
     try {
-      await expect(startPrivateDb(port)).rejects.toThrow(new RegExp(`Port ${port} on 127.0.0.1 is already in use.*DB_PORT=`, "s"));
+      await expect(startPrivateDb(port)).rejects.toThrow(
+        new RegExp(`Port ${port} on 127.0.0.1 is already in use.*DB_PORT=`, "s"),
+      );
     } finally {
       squatter.close();
     }

@@ -49,7 +49,10 @@ function mailsTo(address: string): string[] {
 /** The PDF attached to a raw message (base64, as nodemailer writes it). */
 function attachedPdf(raw: string): Buffer {
   const part = raw.split(/\r?\n--/).find((p) => /Content-Type: application\/pdf/i.test(p))!;
-  const body = part.split(/\r?\n\r?\n/).slice(1).join("\n");
+  const body = part
+    .split(/\r?\n\r?\n/)
+    .slice(1)
+    .join("\n");
   return Buffer.from(body.replace(/[^A-Za-z0-9+/=]/g, ""), "base64");
 }
 
@@ -70,11 +73,15 @@ async function regulatorFor(book: Book) {
 describe("the quarterly pack", () => {
   it("when the office downloads a snapshot's pack, then it is a real PDF with the frozen figures, the seal and the caution", async () => {
     const { book, snapshotId } = await approvedBook(`supervisor-${Date.now()}@bank-supervisor.test`);
-    const res = await request(app).get(`/api/snapshots/${snapshotId}/pack.pdf`).set("Cookie", book.cookie).buffer(true).parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => done(null, Buffer.concat(chunks)));
-    });
+    const res = await request(app)
+      .get(`/api/snapshots/${snapshotId}/pack.pdf`)
+      .set("Cookie", book.cookie)
+      .buffer(true)
+      .parse((r, done) => {
+        const chunks: Buffer[] = [];
+        r.on("data", (c: Buffer) => chunks.push(c));
+        r.on("end", () => done(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toBe("application/pdf");
     expect(res.headers["content-disposition"]).toMatch(/attachment; filename="quartermark-.*-2026-09-30-pack\.pdf"/);
@@ -92,13 +99,22 @@ describe("the quarterly pack", () => {
 
   it("when a draft's pack is read, then it says it is not signed off and must not be filed", async () => {
     const book = await signOffBook();
-    const draft = await request(app).post("/api/snapshots").set("Cookie", book.cookie).send({ entity: book.entity.code, quarterEnd: "2026-09-30" });
-    const res = await request(app).get(`/api/snapshots/${draft.body.id}/pack.pdf`).set("Cookie", book.cookie).buffer(true).parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => done(null, Buffer.concat(chunks)));
-    });
-    expect(pdfText(res.body as Buffer)).toMatch(/Not signed off \(draft\): these figures are a working copy and must not be filed/);
+    const draft = await request(app)
+      .post("/api/snapshots")
+      .set("Cookie", book.cookie)
+      .send({ entity: book.entity.code, quarterEnd: "2026-09-30" });
+    const res = await request(app)
+      .get(`/api/snapshots/${draft.body.id}/pack.pdf`)
+      .set("Cookie", book.cookie)
+      .buffer(true)
+      .parse((r, done) => {
+        const chunks: Buffer[] = [];
+        r.on("data", (c: Buffer) => chunks.push(c));
+        r.on("end", () => done(null, Buffer.concat(chunks)));
+      });
+    expect(pdfText(res.body as Buffer)).toMatch(
+      /Not signed off \(draft\): these figures are a working copy and must not be filed/,
+    );
   });
 });
 
@@ -109,7 +125,14 @@ describe("filing with the supervisor", () => {
     const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const filing = filingSchema.parse(res.body);
-    expect(filing).toMatchObject({ snapshotId, recipients: [supervisor], sentBy: book.cro.email, acknowledgedAt: null, zone: "yellow", counted: 5 });
+    expect(filing).toMatchObject({
+      snapshotId,
+      recipients: [supervisor],
+      sentBy: book.cro.email,
+      acknowledgedAt: null,
+      zone: "yellow",
+      counted: 5,
+    });
 
     // The e-mail really went out: the sink holds it, with the very PDF that was kept.
     const [mail] = mailsTo(supervisor);
@@ -121,10 +144,15 @@ describe("filing with the supervisor", () => {
     const stored = await FilingModel.scope("withPack").findByPk(filing.id);
     expect(sha256(stored!.packPdf)).toBe(filing.sha256);
     expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "filed" });
-    expect(await AuditEventModel.count({ where: { action: "snapshot.file", target: `snapshot #${snapshotId}` } })).toBe(1);
+    expect(await AuditEventModel.count({ where: { action: "snapshot.file", target: `snapshot #${snapshotId}` } })).toBe(
+      1,
+    );
     expect(pdfText(attached).replace(/\s+/g, " ")).toMatch(/filed with the supervisor/);
 
-    const again = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+    const again = await request(app)
+      .post(`/api/snapshots/${snapshotId}/filings`)
+      .set("Cookie", book.croCookie)
+      .send({});
     expect(again.status).toBe(409);
   });
 
@@ -134,9 +162,17 @@ describe("filing with the supervisor", () => {
     const port = await freePort(); // nothing listens there: the mail server is down
     useSmtpPort(port);
     try {
-      const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
+      const res = await request(app)
+        .post(`/api/snapshots/${snapshotId}/filings`)
+        .set("Cookie", book.croCookie)
+        .send({});
       expect(res.status).toBe(202);
-      expect(res.body).toMatchObject({ delivery: "pending", messageId: null, sentAt: null, lastError: expect.stringMatching(/ECONNREFUSED|connect/i) });
+      expect(res.body).toMatchObject({
+        delivery: "pending",
+        messageId: null,
+        sentAt: null,
+        lastError: expect.stringMatching(/ECONNREFUSED|connect/i),
+      });
       expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "approved" });
       const regulator = await regulatorFor(book);
       expect((await request(app).get("/api/filings").set("Cookie", regulator.cookie)).body).toEqual([]); // nothing reached them yet
@@ -149,7 +185,9 @@ describe("filing with the supervisor", () => {
       try {
         await deliverPendingFilings();
         await deliverPendingFilings(); // a second round finds nothing left to send
-        const arrived = readdirSync(dir).map((f) => readFileSync(path.join(dir, f), "utf8")).filter((m) => m.includes(supervisor));
+        const arrived = readdirSync(dir)
+          .map((f) => readFileSync(path.join(dir, f), "utf8"))
+          .filter((m) => m.includes(supervisor));
         expect(arrived).toHaveLength(1);
         expect(sha256(attachedPdf(arrived[0]))).toBe(res.body.sha256);
       } finally {
@@ -157,7 +195,9 @@ describe("filing with the supervisor", () => {
       }
       expect(await FilingModel.findByPk(res.body.id)).toMatchObject({ delivery: "sent", lastError: null });
       expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "filed" });
-      expect((await request(app).get("/api/filings").set("Cookie", regulator.cookie)).body.map((f: { id: number }) => f.id)).toEqual([res.body.id]);
+      expect(
+        (await request(app).get("/api/filings").set("Cookie", regulator.cookie)).body.map((f: { id: number }) => f.id),
+      ).toEqual([res.body.id]);
     } finally {
       useSmtpPort(Number(process.env.SMTP_PORT));
     }
@@ -167,7 +207,10 @@ describe("filing with the supervisor", () => {
     const { book, snapshotId } = await approvedBook("nobody@supervisor.invalid");
     const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(res.status).toBe(502);
-    expect(res.body.error).toMatchObject({ code: "mail_not_sent", message: expect.stringMatching(/refused the message .*Nothing was sent/) });
+    expect(res.body.error).toMatchObject({
+      code: "mail_not_sent",
+      message: expect.stringMatching(/refused the message .*Nothing was sent/),
+    });
     expect(await FilingModel.count({ where: { snapshotId } })).toBe(0);
     expect(await SnapshotModel.findByPk(snapshotId)).toMatchObject({ status: "approved" });
   });
@@ -178,8 +221,14 @@ describe("filing with the supervisor", () => {
     const none = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(none.status).toBe(422);
     expect(none.body.error.message).toMatch(/no supervisor e-mail address/);
-    const draft = await request(app).post("/api/snapshots").set("Cookie", book.cookie).send({ entity: book.entity.code, quarterEnd: "2026-06-30" });
-    const early = await request(app).post(`/api/snapshots/${draft.body.id}/filings`).set("Cookie", book.croCookie).send({});
+    const draft = await request(app)
+      .post("/api/snapshots")
+      .set("Cookie", book.cookie)
+      .send({ entity: book.entity.code, quarterEnd: "2026-06-30" });
+    const early = await request(app)
+      .post(`/api/snapshots/${draft.body.id}/filings`)
+      .set("Cookie", book.croCookie)
+      .send({});
     expect(early.status).toBe(409);
     expect(await FilingModel.count({ where: { snapshotId: [snapshotId, draft.body.id] } })).toBe(0);
   });
@@ -189,46 +238,71 @@ describe("the supervisor's side", () => {
   it("when an assigned regulator lists, downloads, verifies and acknowledges a filing, then each works once and others' filings stay invisible", async () => {
     const supervisor = `supervisor-${Date.now()}@bank-supervisor.test`;
     const { book, snapshotId } = await approvedBook(supervisor);
-    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    const filing = (
+      await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
+    ).body;
     const assigned = await regulatorFor(book);
     const stranger = await sessionCookieFor((await createTestUser("regulator")).id);
 
     const list = await request(app).get("/api/filings").set("Cookie", assigned.cookie);
     expect(list.body.map((f: { id: number }) => f.id)).toContain(filing.id);
-    expect((await request(app).get("/api/filings").set("Cookie", stranger)).body.map((f: { id: number }) => f.id)).not.toContain(filing.id);
+    expect(
+      (await request(app).get("/api/filings").set("Cookie", stranger)).body.map((f: { id: number }) => f.id),
+    ).not.toContain(filing.id);
     expect((await request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", stranger)).status).toBe(404);
 
-    const pack = await request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", assigned.cookie).buffer(true).parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => done(null, Buffer.concat(chunks)));
-    });
+    const pack = await request(app)
+      .get(`/api/filings/${filing.id}/pack.pdf`)
+      .set("Cookie", assigned.cookie)
+      .buffer(true)
+      .parse((r, done) => {
+        const chunks: Buffer[] = [];
+        r.on("data", (c: Buffer) => chunks.push(c));
+        r.on("end", () => done(null, Buffer.concat(chunks)));
+      });
     expect(sha256(pack.body as Buffer)).toBe(filing.sha256);
     expect(pack.headers["x-pack-sha256"]).toBe(filing.sha256);
 
     const verify = await request(app).get(`/api/filings/${filing.id}/verify`).set("Cookie", assigned.cookie);
     expect(filingVerifySchema.parse(verify.body)).toMatchObject({ valid: true, sha256: filing.sha256 });
 
-    const ack = await request(app).post(`/api/filings/${filing.id}/acknowledge`).set("Cookie", assigned.cookie).send({});
+    const ack = await request(app)
+      .post(`/api/filings/${filing.id}/acknowledge`)
+      .set("Cookie", assigned.cookie)
+      .send({});
     expect(ack.body).toMatchObject({ acknowledgedBy: assigned.regulator.email, acknowledgedAt: expect.any(String) });
-    const twice = await request(app).post(`/api/filings/${filing.id}/acknowledge`).set("Cookie", assigned.cookie).send({});
+    const twice = await request(app)
+      .post(`/api/filings/${filing.id}/acknowledge`)
+      .set("Cookie", assigned.cookie)
+      .send({});
     expect(twice.body.acknowledgedAt).toBe(ack.body.acknowledgedAt);
-    expect(await AuditEventModel.count({ where: { action: "filing.acknowledge", target: `filing #${filing.id}` } })).toBe(1);
+    expect(
+      await AuditEventModel.count({ where: { action: "filing.acknowledge", target: `filing #${filing.id}` } }),
+    ).toBe(1);
   });
 
   it("when both the kept pack and its sha256 are replaced, then verify still catches it against the audit log", async () => {
     const { book, snapshotId } = await approvedBook(`s2-${Date.now()}@bank-supervisor.test`);
-    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    const filing = (
+      await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
+    ).body;
     const forged = Buffer.from("%PDF-1.3 forged");
-    await sequelize.query("UPDATE filings SET pack_pdf = :pdf, pack_sha256 = :sha WHERE id = :id", { replacements: { id: filing.id, pdf: forged, sha: sha256(forged) } });
+    await sequelize.query("UPDATE filings SET pack_pdf = :pdf, pack_sha256 = :sha WHERE id = :id", {
+      replacements: { id: filing.id, pdf: forged, sha: sha256(forged) },
+    });
     const verify = await request(app).get(`/api/filings/${filing.id}/verify`).set("Cookie", book.croCookie);
-    expect(verify.body).toMatchObject({ valid: false, detail: expect.stringMatching(/differs from the one recorded in the audit log/) });
+    expect(verify.body).toMatchObject({
+      valid: false,
+      detail: expect.stringMatching(/differs from the one recorded in the audit log/),
+    });
   });
 
   it("when an approved snapshot no longer verifies, then it cannot be filed and nothing is sent", async () => {
     const supervisor = `s3-${Date.now()}@bank-supervisor.test`;
     const { book, snapshotId } = await approvedBook(supervisor);
-    await sequelize.query("UPDATE snapshots SET multiplier = 3.00 WHERE id = :id", { replacements: { id: snapshotId } });
+    await sequelize.query("UPDATE snapshots SET multiplier = 3.00 WHERE id = :id", {
+      replacements: { id: snapshotId },
+    });
     const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/does not verify, so it cannot be filed/);
@@ -238,21 +312,37 @@ describe("the supervisor's side", () => {
 
   it("when a regulator asks for another entity's filing, then 404 and the attempt is audited", async () => {
     const { book, snapshotId } = await approvedBook(`s4-${Date.now()}@bank-supervisor.test`);
-    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
+    const filing = (
+      await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
+    ).body;
     const stranger = await createTestUser("regulator");
     const cookie = await sessionCookieFor(stranger.id);
-    for (const call of [request(app).get(`/api/filings/${filing.id}/verify`), request(app).post(`/api/filings/${filing.id}/acknowledge`).send({})]) {
+    for (const call of [
+      request(app).get(`/api/filings/${filing.id}/verify`),
+      request(app).post(`/api/filings/${filing.id}/acknowledge`).send({}),
+    ]) {
       expect((await call.set("Cookie", cookie)).status).toBe(404);
     }
-    expect(await AuditEventModel.count({ where: { action: "filing.denied", target: `filing #${filing.id}`, actorUserId: stranger.id } })).toBe(2);
+    expect(
+      await AuditEventModel.count({
+        where: { action: "filing.denied", target: `filing #${filing.id}`, actorUserId: stranger.id },
+      }),
+    ).toBe(2);
     expect(await FilingModel.findByPk(filing.id)).toMatchObject({ acknowledgedAt: null });
   });
 
   it("when the kept pack is altered behind the application's back, then verify says it is not the file that was sent", async () => {
     const { book, snapshotId } = await approvedBook(`s-${Date.now()}@bank-supervisor.test`);
-    const filing = (await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)).body;
-    await sequelize.query("UPDATE filings SET pack_pdf = CONCAT(pack_pdf, 'x') WHERE id = :id", { replacements: { id: filing.id } });
+    const filing = (
+      await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
+    ).body;
+    await sequelize.query("UPDATE filings SET pack_pdf = CONCAT(pack_pdf, 'x') WHERE id = :id", {
+      replacements: { id: filing.id },
+    });
     const verify = await request(app).get(`/api/filings/${filing.id}/verify`).set("Cookie", book.croCookie);
-    expect(verify.body).toMatchObject({ valid: false, detail: expect.stringMatching(/no longer has the sha256 that was sent/) });
+    expect(verify.body).toMatchObject({
+      valid: false,
+      detail: expect.stringMatching(/no longer has the sha256 that was sent/),
+    });
   });
 });

@@ -47,7 +47,9 @@ describe("data-quality findings", () => {
     const { portfolio, cookie } = await ingestFixture();
     const P = portfolio.code;
     await commitCsv(cookie, [HEADER, `${P},2026-11-02,-1,-1,100`, `${P},2026-11-04,-1,-1,101`].join("\n"));
-    expect(await DataFindingModel.count({ where: { portfolioId: portfolio.id, kind: "missing_day", status: "open" } })).toBe(1);
+    expect(
+      await DataFindingModel.count({ where: { portfolioId: portfolio.id, kind: "missing_day", status: "open" } }),
+    ).toBe(1);
     await commitCsv(cookie, [HEADER, `${P},2026-11-03,-1,-1,102`].join("\n"));
     const finding = await DataFindingModel.findOne({ where: { portfolioId: portfolio.id, kind: "missing_day" } });
     expect(finding!.status).toBe("resolved");
@@ -59,11 +61,21 @@ describe("data-quality findings", () => {
     const P = portfolio.code;
     await commitCsv(cookie, [HEADER, `${P},2026-11-02,-1,-1,100`, `${P},2026-11-04,-1,-1,101`].join("\n"));
     const [finding] = (await request(app).get(`/api/findings?portfolio=${P}&status=open`).set("Cookie", cookie)).body;
-    const ok = await request(app).put(`/api/findings/${finding.id}`).set("Cookie", cookie).send({ status: "explained", note: "Office closed for a local holiday", version: finding.version });
+    const ok = await request(app)
+      .put(`/api/findings/${finding.id}`)
+      .set("Cookie", cookie)
+      .send({ status: "explained", note: "Office closed for a local holiday", version: finding.version });
     expect(ok.status).toBe(200);
-    expect(ok.body).toMatchObject({ status: "explained", note: "Office closed for a local holiday", version: finding.version + 1 });
+    expect(ok.body).toMatchObject({
+      status: "explained",
+      note: "Office closed for a local holiday",
+      version: finding.version + 1,
+    });
     expect(ok.body.closedBy).toMatch(/@/);
-    const stale = await request(app).put(`/api/findings/${finding.id}`).set("Cookie", cookie).send({ status: "resolved", note: "Another view", version: finding.version });
+    const stale = await request(app)
+      .put(`/api/findings/${finding.id}`)
+      .set("Cookie", cookie)
+      .send({ status: "resolved", note: "Another view", version: finding.version });
     expect(stale.status).toBe(409);
     const row = await DataFindingModel.findByPk(finding.id);
     expect(row!.status).toBe("explained");
@@ -79,10 +91,17 @@ describe("findings follow the data and the calendar", () => {
     const admin = await createTestUser("admin");
     const adminCookie = await sessionCookieFor(admin.id);
     // Declaring 3 Nov a holiday clears the gap; removing it again brings the gap back.
-    await request(app).post(`/api/entities/${entity.code}/holidays`).set("Cookie", adminCookie).send({ date: "2026-11-03", name: "Closure" }).expect(201);
+    await request(app)
+      .post(`/api/entities/${entity.code}/holidays`)
+      .set("Cookie", adminCookie)
+      .send({ date: "2026-11-03", name: "Closure" })
+      .expect(201);
     let finding = await DataFindingModel.findOne({ where: { portfolioId: portfolio.id, kind: "missing_day" } });
     expect(finding!.status).toBe("resolved");
-    await request(app).delete(`/api/entities/${entity.code}/holidays/2026-11-03`).set("Cookie", adminCookie).expect(204);
+    await request(app)
+      .delete(`/api/entities/${entity.code}/holidays/2026-11-03`)
+      .set("Cookie", adminCookie)
+      .expect(204);
     finding = await DataFindingModel.findOne({ where: { portfolioId: portfolio.id, kind: "missing_day" } });
     expect(finding).toMatchObject({ status: "open", note: null, dateFrom: "2026-11-03" });
   });

@@ -20,7 +20,10 @@ export function testApp(options: AppOptions = {}) {
 }
 
 /** Creates a user with a known password (hashed once per file: bcrypt cost 12 is slow on purpose). */
-export async function createTestUser(role: Role, overrides: Partial<{ email: string; name: string; disabled: boolean }> = {}) {
+export async function createTestUser(
+  role: Role,
+  overrides: Partial<{ email: string; name: string; disabled: boolean }> = {},
+) {
   passwordHash ??= await bcrypt.hash(TEST_PASSWORD, 12);
   return UserModel.create({
     email: overrides.email ?? `${role}-${unique()}@tests.quartermark.test`,
@@ -46,7 +49,9 @@ export async function signIn(app: ReturnType<typeof createApp>, email: string, p
   return { agent, res };
 }
 
-export async function createTestEntity(overrides: Partial<{ code: string; regime: "basel" | "us" | "eu" | "frtb" }> = {}) {
+export async function createTestEntity(
+  overrides: Partial<{ code: string; regime: "basel" | "us" | "eu" | "frtb" }> = {},
+) {
   return EntityModel.create({
     code: overrides.code ?? `T-${unique().toUpperCase()}`,
     name: "Test entity",

@@ -75,7 +75,11 @@ describe("the one error path", () => {
       for (const path of ["/throws", "/rejects"]) {
         const res = await request(broken).get(path);
         expect(res.status).toBe(500);
-        expect(res.body.error).toEqual({ code: "internal_error", message: expect.stringContaining("request id"), requestId: res.headers["x-request-id"] });
+        expect(res.body.error).toEqual({
+          code: "internal_error",
+          message: expect.stringContaining("request id"),
+          requestId: res.headers["x-request-id"],
+        });
         expect(JSON.stringify(res.body)).not.toMatch(/secret internals|TypeError|\.ts:\d+/);
         expect(logged.some((l) => l.includes(res.headers["x-request-id"]))).toBe(true);
       }

@@ -13,7 +13,13 @@ afterAll(() => sequelize.close());
 
 /** Kills, from outside, the database connection that is running the commit's INSERT into observations. */
 async function killCommitConnection(deadlineMs: number): Promise<boolean> {
-  const admin = await mariadb.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: config.db.name });
+  const admin = await mariadb.createConnection({
+    host: config.db.host,
+    port: config.db.port,
+    user: config.db.user,
+    password: config.db.password,
+    database: config.db.name,
+  });
   try {
     const until = Date.now() + deadlineMs;
     while (Date.now() < until) {
@@ -59,7 +65,9 @@ describe("the database goes away in the middle of a commit", () => {
     const retry = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
     expect(retry.status).toBe(200);
     expect(retry.body.inserted).toBe(30000);
-    expect(await ObservationModel.count({ where: { portfolioId: portfolio.id, uploadId: preview.body.id } })).toBe(30000);
+    expect(await ObservationModel.count({ where: { portfolioId: portfolio.id, uploadId: preview.body.id } })).toBe(
+      30000,
+    );
     const committed = await UploadModel.findByPk(preview.body.id);
     expect(committed!.committedBy).toBe(analyst.id);
   });

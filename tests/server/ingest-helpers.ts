@@ -7,7 +7,12 @@ import type { createApp } from "../../server/app";
 /** An entity with one portfolio and a holiday, and an analyst's cookie: the rows one test needs. */
 export async function ingestFixture() {
   const entity = await createTestEntity();
-  const portfolio = await PortfolioModel.create({ entityId: entity.id, code: `${entity.code}-BOOK`, name: "Book", level: "top" });
+  const portfolio = await PortfolioModel.create({
+    entityId: entity.id,
+    code: `${entity.code}-BOOK`,
+    name: "Book",
+    level: "top",
+  });
   await HolidayModel.create({ entityId: entity.id, date: "2026-12-25", name: "Christmas Day" });
   const analyst = await createTestUser("analyst");
   return { entity, portfolio, analyst, cookie: await sessionCookieFor(analyst.id) };
@@ -28,11 +33,20 @@ export function weekdays(start: string, count: number, skip: ReadonlySet<string>
   return out;
 }
 
-export function csvFor(portfolio: string, dates: string[], value = (i: number) => `${-100 * i - 1},${-90 * i},${1000 + i}`): string {
+export function csvFor(
+  portfolio: string,
+  dates: string[],
+  value = (i: number) => `${-100 * i - 1},${-90 * i},${1000 + i}`,
+): string {
   return [HEADER, ...dates.map((d, i) => `${portfolio},${d},${value(i)}`)].join("\n") + "\n";
 }
 
-export function uploadCsv(app: ReturnType<typeof createApp>, cookie: string, content: string | Buffer, fileName = "daily.csv") {
+export function uploadCsv(
+  app: ReturnType<typeof createApp>,
+  cookie: string,
+  content: string | Buffer,
+  fileName = "daily.csv",
+) {
   const bytes = Buffer.isBuffer(content) ? content : Buffer.from(content);
   // form-data keeps only the base name unless told the full path (filepath), as a hostile client would send it.
   const name = fileName.includes("/") ? { filepath: fileName, contentType: "text/csv" } : fileName;

@@ -52,7 +52,11 @@ function readable(m: OutboxMessage | undefined) {
 /** A message through the product's own mailer to the run's sink, with a PDF and a CSV attached. */
 async function sendTestMail() {
   const tag = unique();
-  const pdf = Buffer.concat([Buffer.from("%PDF-1.7\n"), Buffer.from(tag.repeat(500)), Buffer.from([0, 255, 10, 13, 0x80])]);
+  const pdf = Buffer.concat([
+    Buffer.from("%PDF-1.7\n"),
+    Buffer.from(tag.repeat(500)),
+    Buffer.from([0, 255, 10, 13, 0x80]),
+  ]);
   const csv = Buffer.from("date,loss\n2026-09-30,150\n", "utf8");
   const to = `outbox-${tag}@bank-supervisor.test`;
   const subject = `Larkspur Markets SA: outbox check ${tag}`;
@@ -93,8 +97,20 @@ describe("the development mail outbox", () => {
       size: statSync(file).size,
       storedAt: statSync(file).mtime.toISOString(),
       attachments: [
-        { index: 0, filename: "larkspur-q3-pack.pdf", contentType: "application/pdf", size: first.pdf.length, sha256: sha256(first.pdf) },
-        { index: 1, filename: "Exceptions – Q3.csv", contentType: "text/csv", size: first.csv.length, sha256: sha256(first.csv) },
+        {
+          index: 0,
+          filename: "larkspur-q3-pack.pdf",
+          contentType: "application/pdf",
+          size: first.pdf.length,
+          sha256: sha256(first.pdf),
+        },
+        {
+          index: 1,
+          filename: "Exceptions – Q3.csv",
+          contentType: "text/csv",
+          size: first.csv.length,
+          sha256: sha256(first.csv),
+        },
       ],
     });
     // The id is the sink's own file: the raw message on disk is the one described.
@@ -123,7 +139,9 @@ describe("the development mail outbox", () => {
     const csv = await asBytes(request(app).get(`/api/admin/outbox/${id}/attachments/1`).set("Cookie", adminCookie));
     expect(csv.headers["content-type"]).toMatch(/^text\/csv/);
     // A name outside ASCII is sent as RFC 6266's filename*, with a plain fallback.
-    expect(csv.headers["content-disposition"]).toBe(`attachment; filename="Exceptions ? Q3.csv"; filename*=UTF-8''Exceptions%20%E2%80%93%20Q3.csv`);
+    expect(csv.headers["content-disposition"]).toBe(
+      `attachment; filename="Exceptions ? Q3.csv"; filename*=UTF-8''Exceptions%20%E2%80%93%20Q3.csv`,
+    );
     expect(Buffer.compare(csv.body as Buffer, sent.csv)).toBe(0);
 
     const missing = await request(app).get(`/api/admin/outbox/${id}/attachments/2`).set("Cookie", adminCookie);
@@ -136,17 +154,38 @@ describe("the development mail outbox", () => {
     const supervisor = `outbox-filing-${unique()}@bank-supervisor.test`;
     await book.entity.update({ supervisorEmails: [supervisor], supervisorName: "Ms Rowan Vale" });
     const submitted = await preparedAndSubmitted(book);
-    await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
-    const filed = await request(app).post(`/api/snapshots/${submitted.id}/filings`).set("Cookie", book.croCookie).send({});
+    await request(app)
+      .post(`/api/snapshots/${submitted.id}/approve`)
+      .set("Cookie", book.croCookie)
+      .send({})
+      .expect(200);
+    const filed = await request(app)
+      .post(`/api/snapshots/${submitted.id}/filings`)
+      .set("Cookie", book.croCookie)
+      .send({});
     expect(filed.status, JSON.stringify(filed.body)).toBe(201);
-    const filing = filingSchema.parse((await request(app).get("/api/filings").set("Cookie", book.croCookie)).body.find((f: { id: number }) => f.id === filed.body.id));
+    const filing = filingSchema.parse(
+      (await request(app).get("/api/filings").set("Cookie", book.croCookie)).body.find(
+        (f: { id: number }) => f.id === filed.body.id,
+      ),
+    );
 
     const message = readable((await outboxList()).messages.find((m) => m.readable && m.messageId === filing.messageId));
     expect(message.to).toEqual([supervisor]);
     expect(message.subject).toBe(`${book.entity.name}: backtesting pack for Q3 2026`);
-    expect(message.attachments).toEqual([{ index: 0, filename: filing.fileName, contentType: "application/pdf", size: expect.any(Number), sha256: filing.sha256 }]);
+    expect(message.attachments).toEqual([
+      {
+        index: 0,
+        filename: filing.fileName,
+        contentType: "application/pdf",
+        size: expect.any(Number),
+        sha256: filing.sha256,
+      },
+    ]);
 
-    const pack = await asBytes(request(app).get(`/api/admin/outbox/${message.id}/attachments/0`).set("Cookie", adminCookie));
+    const pack = await asBytes(
+      request(app).get(`/api/admin/outbox/${message.id}/attachments/0`).set("Cookie", adminCookie),
+    );
     expect(sha256(pack.body as Buffer)).toBe(filing.sha256);
     const stored = await FilingModel.scope("withPack").findByPk(filing.id);
     expect(Buffer.compare(pack.body as Buffer, stored!.packPdf)).toBe(0); // the very bytes the database keeps
@@ -172,15 +211,25 @@ describe("the development mail outbox", () => {
         storedAt: expect.any(String),
         problem: "The file has no From or To header: it is not an e-mail message.",
       });
-      expect(list.messages.find((m) => m.id === empty)).toMatchObject({ readable: false, size: 0, problem: "The file is empty." });
+      expect(list.messages.find((m) => m.id === empty)).toMatchObject({
+        readable: false,
+        size: 0,
+        problem: "The file is empty.",
+      });
       expect(list.messages.some((m) => m.readable && m.to.includes(sent.to))).toBe(true);
       expect(list.messages.map((m) => m.id)).not.toContain("README");
       expect(list.messages.map((m) => m.id)).not.toContain("not an id");
 
       const detail = await request(app).get(`/api/admin/outbox/${garbage}`).set("Cookie", adminCookie);
       expect(detail.status).toBe(200);
-      expect(detail.body).toMatchObject({ id: garbage, readable: false, problem: expect.stringMatching(/not an e-mail message/) });
-      const attachment = await request(app).get(`/api/admin/outbox/${garbage}/attachments/0`).set("Cookie", adminCookie);
+      expect(detail.body).toMatchObject({
+        id: garbage,
+        readable: false,
+        problem: expect.stringMatching(/not an e-mail message/),
+      });
+      const attachment = await request(app)
+        .get(`/api/admin/outbox/${garbage}/attachments/0`)
+        .set("Cookie", adminCookie);
       expect(attachment.status).toBe(404);
       expect(attachment.body.error.message).toMatch(/cannot be read/);
     } finally {
@@ -193,36 +242,48 @@ describe("what the outbox refuses", () => {
   // A message outside the sink that a path trick would reach if the outbox followed it.
   const outside = mkdtempSync(path.join(tmpdir(), "qm-outside-"));
   const secretSubject = `Outside the outbox ${unique()}`;
-  writeFileSync(path.join(outside, "secret.eml"), `From: someone@elsewhere.test\r\nTo: admin@larkspur.test\r\nSubject: ${secretSubject}\r\n\r\nnot for the outbox\r\n`);
+  writeFileSync(
+    path.join(outside, "secret.eml"),
+    `From: someone@elsewhere.test\r\nTo: admin@larkspur.test\r\nSubject: ${secretSubject}\r\n\r\nnot for the outbox\r\n`,
+  );
   afterAll(() => rmSync(outside, { recursive: true, force: true }));
 
-  it.each(["analyst", "cro", "treasury", "regulator"] as const)("when the %s asks for the outbox, a message or an attachment, then it is refused (403) and nothing is shown", async (role) => {
-    const sent = await sendTestMail();
-    const id = readable((await outboxList()).messages.find((m) => m.readable && m.to.includes(sent.to))).id;
-    const cookie = await sessionCookieFor((await createTestUser(role)).id);
-    for (const url of ["/api/admin/outbox", `/api/admin/outbox/${id}`, `/api/admin/outbox/${id}/attachments/0`]) {
-      const res = await request(app).get(url).set("Cookie", cookie);
-      expect(res.status, url).toBe(403);
-      expect(res.body.error.code).toBe("forbidden");
-      expect(JSON.stringify(res.body)).not.toContain(sent.tag);
-    }
-    expect((await request(app).get("/api/admin/outbox")).status).toBe(401);
-  });
+  it.each(["analyst", "cro", "treasury", "regulator"] as const)(
+    "when the %s asks for the outbox, a message or an attachment, then it is refused (403) and nothing is shown",
+    async (role) => {
+      const sent = await sendTestMail();
+      const id = readable((await outboxList()).messages.find((m) => m.readable && m.to.includes(sent.to))).id;
+      const cookie = await sessionCookieFor((await createTestUser(role)).id);
+      for (const url of ["/api/admin/outbox", `/api/admin/outbox/${id}`, `/api/admin/outbox/${id}/attachments/0`]) {
+        const res = await request(app).get(url).set("Cookie", cookie);
+        expect(res.status, url).toBe(403);
+        expect(res.body.error.code).toBe("forbidden");
+        expect(JSON.stringify(res.body)).not.toContain(sent.tag);
+      }
+      expect((await request(app).get("/api/admin/outbox")).status).toBe(401);
+    },
+  );
 
   it.each([
     ["a parent folder (..)", "/api/admin/outbox/.."],
     ["an encoded slash", "/api/admin/outbox/..%2F..%2F..%2Fetc%2Fpasswd"],
-    ["an encoded slash to the planted file", `/api/admin/outbox/..%2F${encodeURIComponent(path.relative(sinkDir, path.join(outside, "secret")))}`],
+    [
+      "an encoded slash to the planted file",
+      `/api/admin/outbox/..%2F${encodeURIComponent(path.relative(sinkDir, path.join(outside, "secret")))}`,
+    ],
     ["an encoded backslash", "/api/admin/outbox/..%5C..%5Csecret"],
     ["an absolute path", `/api/admin/outbox/${encodeURIComponent(path.join(outside, "secret"))}`],
     ["a file name with its dot", "/api/admin/outbox/secret.eml"],
     ["an attachment under a parent folder", "/api/admin/outbox/..%2Fsecret/attachments/0"],
-  ])("when the id is %s, then it is refused as not an id (422) and nothing outside the sink is read", async (_what, url) => {
-    const res = await request(app).get(url).set("Cookie", adminCookie);
-    expect(res.status).toBe(422);
-    expect(res.body.error.code).toBe("validation_failed");
-    expect(JSON.stringify(res.body)).not.toContain(secretSubject);
-  });
+  ])(
+    "when the id is %s, then it is refused as not an id (422) and nothing outside the sink is read",
+    async (_what, url) => {
+      const res = await request(app).get(url).set("Cookie", adminCookie);
+      expect(res.status).toBe(422);
+      expect(res.body.error.code).toBe("validation_failed");
+      expect(JSON.stringify(res.body)).not.toContain(secretSubject);
+    },
+  );
 
   it("when a path climbs out of the outbox's address, then no outbox route answers it", async () => {
     const res = await request(app).get("/api/admin/outbox/../../../etc/passwd").set("Cookie", adminCookie);
@@ -270,23 +331,34 @@ async function appWith(env: Record<string, string>): Promise<{ url: string; clos
 
 describe("where the outbox exists", () => {
   it.each([
-    ["NODE_ENV=production", { NODE_ENV: "production", MAIL_SINK_DIR: sinkDir }, /^The mail outbox exists only in development; this server runs with NODE_ENV=production/],
-    ["no sink folder configured", { NODE_ENV: "development", MAIL_SINK_DIR: "" }, /^The mail outbox exists only in development; no local mail sink folder is configured/],
-  ])("when Quartermark runs with %s, then every outbox route answers 404 with a clear message", async (_what, env, message) => {
-    const sent = await sendTestMail();
-    const id = readable((await outboxList()).messages.find((m) => m.readable && m.to.includes(sent.to))).id;
-    const server = await appWith(env);
-    try {
-      // The same admin session works there (the audit log answers), so the 404 is the outbox's refusal.
-      expect((await request(server.url).get("/api/audit-events").set("Cookie", adminCookie)).status).toBe(200);
-      for (const url of ["/api/admin/outbox", `/api/admin/outbox/${id}`, `/api/admin/outbox/${id}/attachments/0`]) {
-        const res = await request(server.url).get(url).set("Cookie", adminCookie);
-        expect(res.status, url).toBe(404);
-        expect(res.body.error).toEqual({ code: "outbox_unavailable", message: expect.stringMatching(message) });
-        expect(JSON.stringify(res.body)).not.toContain(sent.tag);
+    [
+      "NODE_ENV=production",
+      { NODE_ENV: "production", MAIL_SINK_DIR: sinkDir },
+      /^The mail outbox exists only in development; this server runs with NODE_ENV=production/,
+    ],
+    [
+      "no sink folder configured",
+      { NODE_ENV: "development", MAIL_SINK_DIR: "" },
+      /^The mail outbox exists only in development; no local mail sink folder is configured/,
+    ],
+  ])(
+    "when Quartermark runs with %s, then every outbox route answers 404 with a clear message",
+    async (_what, env, message) => {
+      const sent = await sendTestMail();
+      const id = readable((await outboxList()).messages.find((m) => m.readable && m.to.includes(sent.to))).id;
+      const server = await appWith(env);
+      try {
+        // The same admin session works there (the audit log answers), so the 404 is the outbox's refusal.
+        expect((await request(server.url).get("/api/audit-events").set("Cookie", adminCookie)).status).toBe(200);
+        for (const url of ["/api/admin/outbox", `/api/admin/outbox/${id}`, `/api/admin/outbox/${id}/attachments/0`]) {
+          const res = await request(server.url).get(url).set("Cookie", adminCookie);
+          expect(res.status, url).toBe(404);
+          expect(res.body.error).toEqual({ code: "outbox_unavailable", message: expect.stringMatching(message) });
+          expect(JSON.stringify(res.body)).not.toContain(sent.tag);
+        }
+      } finally {
+        server.close();
       }
-    } finally {
-      server.close();
-    }
-  });
+    },
+  );
 });

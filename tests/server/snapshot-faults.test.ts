@@ -16,15 +16,30 @@ describe("the database goes away in the middle of an approval", () => {
     const submitted = await preparedAndSubmitted(book);
 
     // Another session holds the entity row, so the approval stops at its entity lock; then its connection is killed.
-    const admin = await mariadb.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: config.db.name });
+    const admin = await mariadb.createConnection({
+      host: config.db.host,
+      port: config.db.port,
+      user: config.db.user,
+      password: config.db.password,
+      database: config.db.name,
+    });
     const [{ id: adminThread }] = (await admin.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
     await admin.beginTransaction();
     await admin.query("SELECT id FROM entities WHERE id = ? FOR UPDATE", [book.entity.id]);
-    const approving = request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).then((r) => r);
+    const approving = request(app)
+      .post(`/api/snapshots/${submitted.id}/approve`)
+      .set("Cookie", book.croCookie)
+      .send({})
+      .then((r) => r);
     let killed = false;
-    for (const until = Date.now() + 20_000; Date.now() < until && !killed; ) {
+    for (const until = Date.now() + 20_000; Date.now() < until && !killed;) {
       const rows: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
-      const victim = rows.find((r) => BigInt(r.Id) !== BigInt(adminThread) && /FROM `entities`/.test(r.Info ?? "") && /FOR UPDATE/.test(r.Info ?? ""));
+      const victim = rows.find(
+        (r) =>
+          BigInt(r.Id) !== BigInt(adminThread) &&
+          /FROM `entities`/.test(r.Info ?? "") &&
+          /FOR UPDATE/.test(r.Info ?? ""),
+      );
       if (victim) {
         await admin.query(`KILL CONNECTION ${Number(victim.Id)}`);
         killed = true;
@@ -36,13 +51,27 @@ describe("the database goes away in the middle of an approval", () => {
 
     expect(killed).toBe(true);
     expect(res.status).toBe(503);
-    expect(res.body.error).toMatchObject({ code: "database_unavailable", message: expect.stringMatching(/Nothing was changed/) });
-    expect(await SnapshotModel.findByPk(submitted.id)).toMatchObject({ status: "submitted", hash: null, approvedBy: null });
-    expect(await AuditEventModel.count({ where: { action: "snapshot.approve", target: `snapshot #${submitted.id}` } })).toBe(0);
+    expect(res.body.error).toMatchObject({
+      code: "database_unavailable",
+      message: expect.stringMatching(/Nothing was changed/),
+    });
+    expect(await SnapshotModel.findByPk(submitted.id)).toMatchObject({
+      status: "submitted",
+      hash: null,
+      approvedBy: null,
+    });
+    expect(
+      await AuditEventModel.count({ where: { action: "snapshot.approve", target: `snapshot #${submitted.id}` } }),
+    ).toBe(0);
 
-    const again = await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({});
+    const again = await request(app)
+      .post(`/api/snapshots/${submitted.id}/approve`)
+      .set("Cookie", book.croCookie)
+      .send({});
     expect(again.status).toBe(200);
-    expect((await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie)).body.valid).toBe(true);
+    expect(
+      (await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie)).body.valid,
+    ).toBe(true);
   });
 });
 
@@ -52,7 +81,13 @@ describe("an approval and an upload commit take turns on the entity's portfolios
     const submitted = await preparedAndSubmitted(book);
 
     // Another session locks the portfolio row exactly as an upload commit does.
-    const commitLike = await mariadb.createConnection({ host: config.db.host, port: config.db.port, user: config.db.user, password: config.db.password, database: config.db.name });
+    const commitLike = await mariadb.createConnection({
+      host: config.db.host,
+      port: config.db.port,
+      user: config.db.user,
+      password: config.db.password,
+      database: config.db.name,
+    });
     const [{ id: ownThread }] = (await commitLike.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
     await commitLike.beginTransaction();
     await commitLike.query("SELECT id FROM portfolios WHERE id IN (?) ORDER BY id FOR UPDATE", [[book.portfolio.id]]);
@@ -66,9 +101,15 @@ describe("an approval and an upload commit take turns on the entity's portfolios
         return r;
       });
     let waitingAtPortfolios = false;
-    for (const until = Date.now() + 10_000; Date.now() < until && !waitingAtPortfolios && !finished; ) {
-      const rows: { Id: number; Info: string | null; State: string | null }[] = await commitLike.query("SHOW FULL PROCESSLIST");
-      waitingAtPortfolios = rows.some((r) => BigInt(r.Id) !== BigInt(ownThread) && /FROM portfolios/.test(r.Info ?? "") && /LOCK IN SHARE MODE/.test(r.Info ?? ""));
+    for (const until = Date.now() + 10_000; Date.now() < until && !waitingAtPortfolios && !finished;) {
+      const rows: { Id: number; Info: string | null; State: string | null }[] =
+        await commitLike.query("SHOW FULL PROCESSLIST");
+      waitingAtPortfolios = rows.some(
+        (r) =>
+          BigInt(r.Id) !== BigInt(ownThread) &&
+          /FROM portfolios/.test(r.Info ?? "") &&
+          /LOCK IN SHARE MODE/.test(r.Info ?? ""),
+      );
       if (!waitingAtPortfolios) await new Promise((r) => setTimeout(r, 5));
     }
     const snapshotWhileWaiting = await SnapshotModel.findByPk(submitted.id);
@@ -88,7 +129,12 @@ describe("an approval races an upload that restates a day in the quarter", () =>
     const book = await signOffBook();
     const submitted = await preparedAndSubmitted(book);
     const day = book.dates.indexOf("2026-09-15");
-    const preview = await uploadCsv(app, book.cookie, [HEADER, book.row(book.dates[day], day, 150)].join("\n"), "race.csv");
+    const preview = await uploadCsv(
+      app,
+      book.cookie,
+      [HEADER, book.row(book.dates[day], day, 150)].join("\n"),
+      "race.csv",
+    );
     const [commit, approve] = await Promise.all([
       request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", book.cookie),
       request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}),
@@ -97,7 +143,11 @@ describe("an approval races an upload that restates a day in the quarter", () =>
     const row = (await SnapshotModel.findByPk(submitted.id))!;
     if (approve.status === 200) {
       // The approval went first: it sealed what was reviewed, and the restatement flagged it afterwards.
-      expect(row).toMatchObject({ status: "approved", counted: submitted.counted, inputsSha256: submitted.inputsSha256 });
+      expect(row).toMatchObject({
+        status: "approved",
+        counted: submitted.counted,
+        inputsSha256: submitted.inputsSha256,
+      });
       expect(row.restatedAt).not.toBeNull();
     } else {
       // The upload went first: the approval saw the inputs move and refused.

@@ -32,7 +32,8 @@ export async function signOffBook() {
   const fx = await ingestFixture();
   const dates = weekdaysEndingOn(Q3, 400);
   const exceptionDays = [dates[170], dates[230], dates[300], dates[350], dates[395]];
-  const row = (d: string, i: number, loss = exceptionDays.includes(d) ? 150 : 50) => `${fx.portfolio.code},${d},${-loss},${-loss + 10},${100 + (i % 2)},250`;
+  const row = (d: string, i: number, loss = exceptionDays.includes(d) ? 150 : 50) =>
+    `${fx.portfolio.code},${d},${-loss},${-loss + 10},${100 + (i % 2)},250`;
   await uploadAndCommit(fx.cookie, [HEADER, ...dates.map((d, i) => row(d, i))].join("\n"));
   const cro = await createTestUser("cro");
   const analyst2 = await createTestUser("analyst");
@@ -66,8 +67,10 @@ export async function prepare(book: Book, quarterEnd = Q3, cookie = book.cookie)
 export async function preparedAndSubmitted(book: Book, quarterEnd = Q3) {
   const draft = await prepare(book, quarterEnd);
   expect(draft.status).toBe(201);
-  const submitted = await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", book.cookie).send({ comment: "Figures checked", version: draft.body.version });
+  const submitted = await request(app)
+    .post(`/api/snapshots/${draft.body.id}/submit`)
+    .set("Cookie", book.cookie)
+    .send({ comment: "Figures checked", version: draft.body.version });
   expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
   return submitted.body;
 }
-

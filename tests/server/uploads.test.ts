@@ -23,7 +23,18 @@ describe("uploading daily data", () => {
     const dates = weekdays("2026-11-02", 10);
     const res = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ status: "preview", rows: 10, valid: 10, invalid: 0, newRows: 10, restatements: 0, errors: [], portfolios: [portfolio.code], from: dates[0], to: dates[9] });
+    expect(res.body).toMatchObject({
+      status: "preview",
+      rows: 10,
+      valid: 10,
+      invalid: 0,
+      newRows: 10,
+      restatements: 0,
+      errors: [],
+      portfolios: [portfolio.code],
+      from: dates[0],
+      to: dates[9],
+    });
     expect(res.body.sha256).toMatch(/^[0-9a-f]{64}$/);
     expect(await observationCount(portfolio.id)).toBe(0);
 
@@ -34,12 +45,22 @@ describe("uploading daily data", () => {
     const stored = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: dates[3] } });
     expect(stored).toMatchObject({ version: 1, isCurrent: true, actualPnl: -301, hypotheticalPnl: -270, var99: 1003 });
     expect((await UploadModel.findByPk(res.body.id))!.status).toBe("committed");
-    expect(await AuditEventModel.count({ where: { action: "upload.commit", target: `upload #${res.body.id}` } })).toBe(1);
+    expect(await AuditEventModel.count({ where: { action: "upload.commit", target: `upload #${res.body.id}` } })).toBe(
+      1,
+    );
 
-    const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations?from=${dates[2]}&to=${dates[4]}`).set("Cookie", cookie);
+    const read = await request(app)
+      .get(`/api/portfolios/${portfolio.code}/observations?from=${dates[2]}&to=${dates[4]}`)
+      .set("Cookie", cookie);
     expect(read.status).toBe(200);
     expect(read.body.map((o: { date: string }) => o.date)).toEqual(dates.slice(2, 5));
-    expect(read.body[1]).toMatchObject({ actualPnl: -301, hypotheticalPnl: -270, var99: 1003, var975: null, version: 1 });
+    expect(read.body[1]).toMatchObject({
+      actualPnl: -301,
+      hypotheticalPnl: -270,
+      var99: 1003,
+      var975: null,
+      version: 1,
+    });
   });
 
   it("when a file restates stored days, then each changed day gets a new version, the old one is kept, and unchanged days are skipped", async () => {
@@ -48,26 +69,43 @@ describe("uploading daily data", () => {
     const first = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
     await request(app).post(`/api/uploads/${first.body.id}/commit`).set("Cookie", cookie).expect(200);
 
-    const changed = csvFor(portfolio.code, dates, (i) => (i === 2 ? "-999.5,-90.25,1500" : `${-100 * i - 1},${-90 * i},${1000 + i}`));
+    const changed = csvFor(portfolio.code, dates, (i) =>
+      i === 2 ? "-999.5,-90.25,1500" : `${-100 * i - 1},${-90 * i},${1000 + i}`,
+    );
     const second = await uploadCsv(app, cookie, changed, "restated.csv");
     expect(second.body).toMatchObject({ rows: 5, newRows: 0, restatements: 1, unchanged: 4 });
     const commit = await request(app).post(`/api/uploads/${second.body.id}/commit`).set("Cookie", cookie);
     expect(commit.body).toMatchObject({ inserted: 1, restated: 1, unchanged: 4 });
 
-    const versions = await ObservationModel.findAll({ where: { portfolioId: portfolio.id, businessDate: dates[2] }, order: [["version", "ASC"]] });
+    const versions = await ObservationModel.findAll({
+      where: { portfolioId: portfolio.id, businessDate: dates[2] },
+      order: [["version", "ASC"]],
+    });
     expect(versions.map((v) => [v.version, v.isCurrent, v.actualPnl])).toEqual([
       [1, false, -201],
       [2, true, -999.5],
     ]);
     // Who and when of each version: the commit of the upload that wrote it.
     expect(versions.map((v) => v.uploadId)).toEqual([first.body.id, second.body.id]);
-    const writers = await UploadModel.findAll({ where: { id: [first.body.id, second.body.id] }, order: [["id", "ASC"]] });
+    const writers = await UploadModel.findAll({
+      where: { id: [first.body.id, second.body.id] },
+      order: [["id", "ASC"]],
+    });
     expect(writers.map((u) => u.committedBy)).toEqual([analyst.id, analyst.id]);
     expect(writers[1].committedAt!.getTime()).toBeGreaterThanOrEqual(writers[0].committedAt!.getTime());
     const history = await request(app).get(`/api/uploads/${second.body.id}`).set("Cookie", cookie);
-    expect(history.body).toMatchObject({ committedBy: analyst.email, committedAt: writers[1].committedAt!.toISOString() });
+    expect(history.body).toMatchObject({
+      committedBy: analyst.email,
+      committedAt: writers[1].committedAt!.toISOString(),
+    });
     const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations`).set("Cookie", cookie);
-    expect(read.body[2]).toMatchObject({ date: dates[2], actualPnl: -999.5, hypotheticalPnl: -90.25, var99: 1500, version: 2 });
+    expect(read.body[2]).toMatchObject({
+      date: dates[2],
+      actualPnl: -999.5,
+      hypotheticalPnl: -90.25,
+      var99: 1500,
+      version: 2,
+    });
   });
 
   it("when a large file restates days spread over several write batches, then each of them gets one new version and every other day stays as it was", async () => {
@@ -78,21 +116,38 @@ describe("uploading daily data", () => {
 
     // Changed days on both sides of the 5,000-row batch edges, and ten new days at the end.
     const changedAt = new Set([10, 4_999, 5_000, 5_001, 9_999, 10_500]);
-    const second = await uploadCsv(app, cookie, csvFor(portfolio.code, dates, (i) => (changedAt.has(i) ? `-7.5,-6.25,${2000 + i}` : `${-100 * i - 1},${-90 * i},${1000 + i}`)), "restated.csv");
+    const second = await uploadCsv(
+      app,
+      cookie,
+      csvFor(portfolio.code, dates, (i) =>
+        changedAt.has(i) ? `-7.5,-6.25,${2000 + i}` : `${-100 * i - 1},${-90 * i},${1000 + i}`,
+      ),
+      "restated.csv",
+    );
     expect(second.body).toMatchObject({ rows: 11_000, newRows: 10, restatements: 6, unchanged: 10_984 });
     const commit = await request(app).post(`/api/uploads/${second.body.id}/commit`).set("Cookie", cookie).expect(200);
     expect(commit.body).toMatchObject({ inserted: 16, restated: 6, unchanged: 10_984 });
 
     expect(await observationCount(portfolio.id)).toBe(11_006);
-    const written = await ObservationModel.findAll({ where: { portfolioId: portfolio.id, uploadId: second.body.id }, order: [["businessDate", "ASC"]] });
+    const written = await ObservationModel.findAll({
+      where: { portfolioId: portfolio.id, uploadId: second.body.id },
+      order: [["businessDate", "ASC"]],
+    });
     expect(written.map((o) => [o.businessDate, o.version, o.isCurrent])).toEqual([
       ...[...changedAt].map((i) => [dates[i], 2, true]),
       ...dates.slice(10_990).map((d) => [d, 1, true]),
     ]);
-    const retired = await ObservationModel.findAll({ where: { portfolioId: portfolio.id, isCurrent: false }, order: [["businessDate", "ASC"]] });
+    const retired = await ObservationModel.findAll({
+      where: { portfolioId: portfolio.id, isCurrent: false },
+      order: [["businessDate", "ASC"]],
+    });
     expect(retired.map((o) => [o.businessDate, o.version])).toEqual([...changedAt].map((i) => [dates[i], 1]));
-    const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations?from=${dates[5_000]}&to=${dates[5_000]}`).set("Cookie", cookie);
-    expect(read.body).toEqual([expect.objectContaining({ actualPnl: -7.5, hypotheticalPnl: -6.25, var99: 7000, version: 2 })]);
+    const read = await request(app)
+      .get(`/api/portfolios/${portfolio.code}/observations?from=${dates[5_000]}&to=${dates[5_000]}`)
+      .set("Cookie", cookie);
+    expect(read.body).toEqual([
+      expect.objectContaining({ actualPnl: -7.5, hypotheticalPnl: -6.25, var99: 7000, version: 2 }),
+    ]);
     // Every row names a portfolio and an upload that exist (the bulk INSERTs skip the per-row lookups).
     const [[orphans]] = (await sequelize.query(
       `SELECT COUNT(*) AS n FROM observations o LEFT JOIN portfolios p ON p.id = o.portfolio_id LEFT JOIN uploads u ON u.id = o.upload_id
@@ -104,14 +159,27 @@ describe("uploading daily data", () => {
 
   it("when rows would name a portfolio the commit does not hold locked, then nothing is sent to the database", async () => {
     const sent: string[] = [];
-    const writes = { send: (sql: string) => sent.push(sql), flush: async () => undefined } as unknown as PipelinedWrites;
+    const writes = {
+      send: (sql: string) => sent.push(sql),
+      flush: async () => undefined,
+    } as unknown as PipelinedWrites;
     const row = { date: "2026-10-05", actual_pnl: -1, hypothetical_pnl: -1, var_99: 10 };
-    await expect(queueInsertVersions(writes, [{ portfolioId: 7, version: 1, row }, { portfolioId: 8, version: 1, row }], 1, new Set([7]))).rejects.toThrow(
-      /portfolio #8, which this commit does not hold locked/,
-    );
+    await expect(
+      queueInsertVersions(
+        writes,
+        [
+          { portfolioId: 7, version: 1, row },
+          { portfolioId: 8, version: 1, row },
+        ],
+        1,
+        new Set([7]),
+      ),
+    ).rejects.toThrow(/portfolio #8, which this commit does not hold locked/);
     expect(sent).toEqual([]);
     await queueInsertVersions(writes, [{ portfolioId: 7, version: 1, row }], 1, new Set([7]));
-    expect(sent).toEqual(["SET STATEMENT foreign_key_checks = 0 FOR INSERT INTO observations (portfolio_id, business_date, actual_pnl, hypothetical_pnl, var_99, upload_id) VALUES (7,'2026-10-05',-1,-1,10,1)"]);
+    expect(sent).toEqual([
+      "SET STATEMENT foreign_key_checks = 0 FOR INSERT INTO observations (portfolio_id, business_date, actual_pnl, hypothetical_pnl, var_99, upload_id) VALUES (7,'2026-10-05',-1,-1,10,1)",
+    ]);
   });
 
   it("when the same file is uploaded again after commit, then 409 names the earlier upload and nothing is stored", async () => {
@@ -155,13 +223,22 @@ describe("uploading daily data", () => {
   it("when the server no longer holds the preview's rows (a restart, another process), then the commit parses the stored file and writes the same rows", async () => {
     const { portfolio, cookie } = await ingestFixture();
     const dates = weekdays("2026-07-06", 8);
-    const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates, (i) => `${-10 * i - 0.5},${-9 * i},${100 + i}.25`));
+    const preview = await uploadCsv(
+      app,
+      cookie,
+      csvFor(portfolio.code, dates, (i) => `${-10 * i - 0.5},${-9 * i},${100 + i}.25`),
+    );
     expect(checkedRowsOf(preview.body.id, preview.body.sha256)).toHaveLength(8);
     forgetCheckedRows(preview.body.id);
     const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
     expect(commit.body).toMatchObject({ status: "committed", inserted: 8 });
-    const stored = await ObservationModel.findAll({ where: { portfolioId: portfolio.id }, order: [["businessDate", "ASC"]] });
-    expect(stored.map((o) => [o.businessDate, o.actualPnl, o.hypotheticalPnl, o.var99])).toEqual(dates.map((d, i) => [d, -10 * i - 0.5, -9 * i || 0, 100 + i + 0.25]));
+    const stored = await ObservationModel.findAll({
+      where: { portfolioId: portfolio.id },
+      order: [["businessDate", "ASC"]],
+    });
+    expect(stored.map((o) => [o.businessDate, o.actualPnl, o.hypotheticalPnl, o.var99])).toEqual(
+      dates.map((d, i) => [d, -10 * i - 0.5, -9 * i || 0, 100 + i + 0.25]),
+    );
   });
 
   it("when a day becomes a holiday before the commit and the server no longer holds the rows, then the commit is refused all the same", async () => {
@@ -191,7 +268,9 @@ describe("uploading daily data", () => {
     const res = await request(app).get("/api/uploads/template.csv").set("Cookie", cookie);
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/text\/csv/);
-    expect(res.text.split("\n")[0]).toBe("portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,svar_99,var_10d,svar_10d,es_975,ses,rtpl");
+    expect(res.text.split("\n")[0]).toBe(
+      "portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,svar_99,var_10d,svar_10d,es_975,ses,rtpl",
+    );
   });
 
   it("when the preview rows are paged with invalidOnly, then only rows with errors come back, each with its messages", async () => {
@@ -201,7 +280,11 @@ describe("uploading daily data", () => {
     const page = await request(app).get(`/api/uploads/${res.body.id}/rows?invalidOnly=true`).set("Cookie", cookie);
     expect(page.status).toBe(200);
     expect(page.body.total).toBe(1);
-    expect(page.body.rows[0]).toMatchObject({ line: 3, cells: { var_99: "-10" }, errors: [{ line: 3, column: "var_99" }] });
+    expect(page.body.rows[0]).toMatchObject({
+      line: 3,
+      cells: { var_99: "-10" },
+      errors: [{ line: 3, column: "var_99" }],
+    });
   });
 });
 
@@ -212,7 +295,9 @@ describe("bad input ends in a clear error and nothing written", () => {
     const res = await uploadCsv(app, cookie, text);
     expect(res.status).toBe(201);
     expect(res.body.invalid).toBeGreaterThan(0);
-    expect(res.body.errors).toEqual(expect.arrayContaining([expect.objectContaining({ line, column, message: expect.stringMatching(message) })]));
+    expect(res.body.errors).toEqual(
+      expect.arrayContaining([expect.objectContaining({ line, column, message: expect.stringMatching(message) })]),
+    );
     const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
     expect(commit.status).toBe(422);
     expect(commit.body.error.message).toMatch(/Fix the file/);
@@ -226,22 +311,45 @@ describe("bad input ends in a clear error and nothing written", () => {
     expect(res.body).toMatchObject({ rows: 2, valid: 2, invalid: 0 });
   });
 
-  it("an unclosed quote", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5,-4,10\nPF,2026-11-03,"-5,-4,10\nPF,2026-11-04,-5,-4,10\n`, 3, "—", /never closed/));
+  it("an unclosed quote", () =>
+    expectPreviewError(
+      `${HEADER}\nPF,2026-11-02,-5,-4,10\nPF,2026-11-03,"-5,-4,10\nPF,2026-11-04,-5,-4,10\n`,
+      3,
+      "—",
+      /never closed/,
+    ));
   it("NaN", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,NaN,-4,10\n`, 2, "actual_pnl", /not a number/));
   it("1e308", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,1e308,-4,10\n`, 2, "actual_pnl", /exponent/));
-  it("1,234.5 (quoted, with a thousands separator)", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,"1,234.5",-4,10\n`, 2, "actual_pnl", /thousands separator/));
+  it("1,234.5 (quoted, with a thousands separator)", () =>
+    expectPreviewError(`${HEADER}\nPF,2026-11-02,"1,234.5",-4,10\n`, 2, "actual_pnl", /thousands separator/));
   it("a negative VaR", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5,-4,-10\n`, 2, "var_99", /positive/));
-  it("a weekend date", () => expectPreviewError(`${HEADER}\nPF,2026-11-07,-5,-4,10\n`, 2, "date", /Saturday, not a business day/));
-  it("a holiday of the entity's calendar", () => expectPreviewError(`${HEADER}\nPF,2026-12-25,-5,-4,10\n`, 2, "date", /holiday .*Christmas Day/));
-  it("an impossible date", () => expectPreviewError(`${HEADER}\nPF,2026-02-30,-5,-4,10\n`, 2, "date", /real calendar date/));
-  it("the same date twice in the file", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5,-4,10\nPF,2026-11-02,-6,-4,10\n`, 3, "date", /already appears on line 2/));
-  it("an unknown portfolio", () => expectPreviewError(`${HEADER}\nNOPE-${Date.now()},2026-11-02,-5,-4,10\n`, 2, "portfolio", /Unknown portfolio/));
-  it("a row with too few fields", () => expectPreviewError(`${HEADER}\nPF,2026-11-02,-5\n`, 2, "—", /Expected 5 fields/));
+  it("a weekend date", () =>
+    expectPreviewError(`${HEADER}\nPF,2026-11-07,-5,-4,10\n`, 2, "date", /Saturday, not a business day/));
+  it("a holiday of the entity's calendar", () =>
+    expectPreviewError(`${HEADER}\nPF,2026-12-25,-5,-4,10\n`, 2, "date", /holiday .*Christmas Day/));
+  it("an impossible date", () =>
+    expectPreviewError(`${HEADER}\nPF,2026-02-30,-5,-4,10\n`, 2, "date", /real calendar date/));
+  it("the same date twice in the file", () =>
+    expectPreviewError(
+      `${HEADER}\nPF,2026-11-02,-5,-4,10\nPF,2026-11-02,-6,-4,10\n`,
+      3,
+      "date",
+      /already appears on line 2/,
+    ));
+  it("an unknown portfolio", () =>
+    expectPreviewError(`${HEADER}\nNOPE-${Date.now()},2026-11-02,-5,-4,10\n`, 2, "portfolio", /Unknown portfolio/));
+  it("a row with too few fields", () =>
+    expectPreviewError(`${HEADER}\nPF,2026-11-02,-5\n`, 2, "—", /Expected 5 fields/));
 
   async function expectFileRejected(content: string | Buffer, status: number, message: RegExp, fileName = "daily.csv") {
     const { portfolio, cookie } = await ingestFixture();
     const before = await UploadModel.count();
-    const res = await uploadCsv(app, cookie, typeof content === "string" ? content.replaceAll("PF", portfolio.code) : content, fileName);
+    const res = await uploadCsv(
+      app,
+      cookie,
+      typeof content === "string" ? content.replaceAll("PF", portfolio.code) : content,
+      fileName,
+    );
     expect(res.status).toBe(status);
     expect(res.body.error.message).toMatch(message);
     expect(await UploadModel.count()).toBe(before);
@@ -251,31 +359,53 @@ describe("bad input ends in a clear error and nothing written", () => {
 
   it("an unknown column", async () => {
     const res = await expectFileRejected(`${HEADER},colour\nPF,2026-11-02,-5,-4,10,red\n`, 422, /header row/);
-    expect(res.body.error.details.errors).toEqual([expect.objectContaining({ line: 1, column: "colour", message: expect.stringMatching(/Unknown column/) })]);
+    expect(res.body.error.details.errors).toEqual([
+      expect.objectContaining({ line: 1, column: "colour", message: expect.stringMatching(/Unknown column/) }),
+    ]);
   });
   it("a missing column", async () => {
     const res = await expectFileRejected(`portfolio,date,actual_pnl,var_99\nPF,2026-11-02,-5,10\n`, 422, /header row/);
-    expect(res.body.error.details.errors).toEqual([expect.objectContaining({ column: "hypothetical_pnl", message: expect.stringMatching(/missing/) })]);
+    expect(res.body.error.details.errors).toEqual([
+      expect.objectContaining({ column: "hypothetical_pnl", message: expect.stringMatching(/missing/) }),
+    ]);
   });
   it("a __proto__ header", async () => {
     const res = await expectFileRejected(`${HEADER},__proto__\nPF,2026-11-02,-5,-4,10,{}\n`, 422, /header row/);
     expect(res.body.error.details.errors[0].column).toBe("__proto__");
     expect(({} as Record<string, unknown>).polluted).toBeUndefined();
   });
-  it("a binary file renamed .csv", () => expectFileRejected(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0x00, 0x00, 0x00, 0x0d]), 415, /not a text CSV/));
+  it("a binary file renamed .csv", () =>
+    expectFileRejected(
+      Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0x00, 0x00, 0x00, 0x0d]),
+      415,
+      /not a text CSV/,
+    ));
   it("an empty file", () => expectFileRejected(Buffer.alloc(0), 422, /empty/));
   it("a header with no rows", () => expectFileRejected(`${HEADER}\n`, 422, /no data rows/));
-  it("a file that is not .csv", () => expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 415, /Only \.csv/, "daily.xlsx"));
-  it("a path in the file name", () => expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 400, /plain name/, "../../etc/daily.csv"));
+  it("a file that is not .csv", () =>
+    expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 415, /Only \.csv/, "daily.xlsx"));
+  it("a path in the file name", () =>
+    expectFileRejected(`${HEADER}\nPF,2026-11-02,-5,-4,10\n`, 400, /plain name/, "../../etc/daily.csv"));
   it("a file over the limit", () => expectFileRejected(Buffer.alloc(16 * 1024 * 1024 + 10, 0x41), 413, /16 MB/));
 
   it("two files at once, or an unexpected field", async () => {
     const { cookie } = await ingestFixture();
-    const two = await request(app).post("/api/uploads").set("Cookie", cookie).attach("file", Buffer.from("a"), "a.csv").attach("file", Buffer.from("b"), "b.csv");
+    const two = await request(app)
+      .post("/api/uploads")
+      .set("Cookie", cookie)
+      .attach("file", Buffer.from("a"), "a.csv")
+      .attach("file", Buffer.from("b"), "b.csv");
     expect(two.status).toBe(400);
-    const field = await request(app).post("/api/uploads").set("Cookie", cookie).field("note", "hi").attach("file", Buffer.from("a"), "a.csv");
+    const field = await request(app)
+      .post("/api/uploads")
+      .set("Cookie", cookie)
+      .field("note", "hi")
+      .attach("file", Buffer.from("a"), "a.csv");
     expect(field.status).toBe(400);
-    const wrongName = await request(app).post("/api/uploads").set("Cookie", cookie).attach("upload", Buffer.from("a"), "a.csv");
+    const wrongName = await request(app)
+      .post("/api/uploads")
+      .set("Cookie", cookie)
+      .attach("upload", Buffer.from("a"), "a.csv");
     expect(wrongName.status).toBe(400);
   });
 });

@@ -27,7 +27,10 @@ function writeCsv(name: string, text: string): string {
 function sampleCsv(): string {
   const dates = businessDates(250, "2025-10-01");
   const lines = ["var_99,date,portfolio,hypothetical_pnl,actual_pnl,svar_99"];
-  for (const [portfolio, at] of [["RATES", [10, 60, 120, 180, 240]], ["FX", [100]]] as const) {
+  for (const [portfolio, at] of [
+    ["RATES", [10, 60, 120, 180, 240]],
+    ["FX", [100]],
+  ] as const) {
     dates.forEach((d, i) => {
       const pnl = (at as readonly number[]).includes(i) ? "-1500.50" : "250";
       lines.push(`1000,${d},${portfolio},${pnl},${pnl},1800`);
@@ -58,12 +61,21 @@ describe("backtest command", () => {
     const json = JSON.parse(out);
     expect(json.regime).toBe("frtb");
     const rates = json.portfolios.find((p: { portfolio: string }) => p.portfolio === "RATES");
-    expect(rates).toMatchObject({ pnlBasis: "actual", zone: "yellow", zoneLabel: "amber", exceptions: { counted: 5 }, window: { observations: 250, complete: true } });
+    expect(rates).toMatchObject({
+      pnlBasis: "actual",
+      zone: "yellow",
+      zoneLabel: "amber",
+      exceptions: { counted: 5 },
+      window: { observations: 250, complete: true },
+    });
     expect(rates.multiplier).toBeCloseTo(1.7, 12); // MAR99 steps, from memory: 1.5 + 0.20
   });
 
   it("when the header has an unknown column, then it exits 1 naming the column", () => {
-    const file = writeCsv("unknown.csv", "portfolio,date,actual_pnl,hypothetical_pnl,var_99,desk\nA,2026-01-02,1,1,1,x\n");
+    const file = writeCsv(
+      "unknown.csv",
+      "portfolio,date,actual_pnl,hypothetical_pnl,var_99,desk\nA,2026-01-02,1,1,1,x\n",
+    );
     const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-02"]);
     expect(code).toBe(1);
     expect(err).toMatch(/Unknown column "desk"/);
@@ -79,7 +91,12 @@ describe("backtest command", () => {
   it("when rows hold a bad amount, a bad date or a negative VaR, then it exits 1 with the line and column of each", () => {
     const file = writeCsv(
       "bad.csv",
-      ["portfolio,date,actual_pnl,hypothetical_pnl,var_99", "A,2026-01-02,1 234.5,1,1", "A,2026-02-30,1,1,1", "A,2026-01-05,1,1,-3"].join("\n"),
+      [
+        "portfolio,date,actual_pnl,hypothetical_pnl,var_99",
+        "A,2026-01-02,1 234.5,1,1",
+        "A,2026-02-30,1,1,1",
+        "A,2026-01-05,1,1,-3",
+      ].join("\n"),
     );
     const { code, err } = run(["--file", file, "--regime", "us", "--as-of", "2026-01-30"]);
     expect(code).toBe(1);
@@ -91,17 +108,32 @@ describe("backtest command", () => {
   });
 
   it("when a portfolio has the same date twice, then it exits 1 naming the portfolio and the date", () => {
-    const file = writeCsv("dup.csv", "portfolio,date,actual_pnl,hypothetical_pnl,var_99\nA,2026-01-02,1,1,1\nA,2026-01-02,2,2,1\n");
+    const file = writeCsv(
+      "dup.csv",
+      "portfolio,date,actual_pnl,hypothetical_pnl,var_99\nA,2026-01-02,1,1,1\nA,2026-01-02,2,2,1\n",
+    );
     const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-30"]);
     expect(code).toBe(1);
     expect(err).toMatch(/line 3, column date: A on 2026-01-02 already appears on line 2/);
   });
 
   it("when the arguments are wrong, then it explains; --help prints the usage and exits 0", () => {
-    expect(run(["--regime", "eu", "--as-of", "2026-01-02"])).toMatchObject({ code: 1, err: expect.stringMatching(/--file is required/) });
-    expect(run(["--file", "x.csv", "--regime", "uk", "--as-of", "2026-01-02"])).toMatchObject({ code: 1, err: expect.stringMatching(/Unknown rule set "uk"/) });
-    expect(run(["--file", "x.csv", "--regime", "eu", "--as-of", "30.09.2026"])).toMatchObject({ code: 1, err: expect.stringMatching(/not a real date/) });
-    expect(run(["--file", join(dir, "nope.csv"), "--regime", "eu", "--as-of", "2026-01-02"])).toMatchObject({ code: 1, err: expect.stringMatching(/Cannot read/) });
+    expect(run(["--regime", "eu", "--as-of", "2026-01-02"])).toMatchObject({
+      code: 1,
+      err: expect.stringMatching(/--file is required/),
+    });
+    expect(run(["--file", "x.csv", "--regime", "uk", "--as-of", "2026-01-02"])).toMatchObject({
+      code: 1,
+      err: expect.stringMatching(/Unknown rule set "uk"/),
+    });
+    expect(run(["--file", "x.csv", "--regime", "eu", "--as-of", "30.09.2026"])).toMatchObject({
+      code: 1,
+      err: expect.stringMatching(/not a real date/),
+    });
+    expect(run(["--file", join(dir, "nope.csv"), "--regime", "eu", "--as-of", "2026-01-02"])).toMatchObject({
+      code: 1,
+      err: expect.stringMatching(/Cannot read/),
+    });
     expect(run(["--frobnicate"])).toMatchObject({ code: 1, err: expect.stringMatching(/Unknown argument/) });
     const help = run(["--help"]);
     expect(help.code).toBe(0);

@@ -140,7 +140,9 @@ describe("input validation", () => {
     const obs = buildSeries({ days: 5 });
     obs[3].date = obs[2].date;
     expect(() => backtestAt(obs, { regime: "eu", asOf: "2030-01-01" })).toThrow(EngineInputError);
-    expect(() => backtestAt(obs, { regime: "eu", asOf: "2030-01-01" })).toThrow(`Duplicate observation for ${obs[2].date}`);
+    expect(() => backtestAt(obs, { regime: "eu", asOf: "2030-01-01" })).toThrow(
+      `Duplicate observation for ${obs[2].date}`,
+    );
   });
 
   it("when dates are out of order, then it throws naming both dates", () => {
@@ -169,7 +171,14 @@ describe("rolling backtest", () => {
   it("when computed over a series, then every row equals a backtest at that date (cross-check of the sliding count)", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ pnl: fc.integer({ min: -30, max: 10 }), hyp: fc.integer({ min: -30, max: 10 }), gap: fc.integer({ min: 0, max: 40 }) }), { minLength: 1, maxLength: 60 }),
+        fc.array(
+          fc.record({
+            pnl: fc.integer({ min: -30, max: 10 }),
+            hyp: fc.integer({ min: -30, max: 10 }),
+            gap: fc.integer({ min: 0, max: 40 }),
+          }),
+          { minLength: 1, maxLength: 60 },
+        ),
         fc.constantFrom("basel", "us", "eu", "frtb" as const),
         fc.integer({ min: 1, max: 20 }),
         fc.array(fc.nat(59), { maxLength: 5 }),
@@ -203,7 +212,14 @@ describe("rolling backtest", () => {
   it("when several rule sets and bases are computed in one pass, then each equals its own backtest at every date (cross-check of the shared pass)", () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ pnl: fc.integer({ min: -30, max: 10 }), hyp: fc.integer({ min: -30, max: 10 }), gap: fc.integer({ min: 0, max: 30 }) }), { minLength: 1, maxLength: 50 }),
+        fc.array(
+          fc.record({
+            pnl: fc.integer({ min: -30, max: 10 }),
+            hyp: fc.integer({ min: -30, max: 10 }),
+            gap: fc.integer({ min: 0, max: 30 }),
+          }),
+          { minLength: 1, maxLength: 50 },
+        ),
         fc.integer({ min: 1, max: 15 }),
         fc.boolean(),
         (days, windowSize, withGaps) => {

@@ -53,7 +53,11 @@ describe("BCBS 1996 Table 1 (250 observations)", () => {
   });
 
   it("when the table is built with errorTable, then its cells match the published 99%/97% columns (BCBS 1996 Table 1)", () => {
-    const rows = errorTable(250, TABLE_1.map((r) => r[0]), [0.99, 0.97]);
+    const rows = errorTable(
+      250,
+      TABLE_1.map((r) => r[0]),
+      [0.99, 0.97],
+    );
     rows.forEach((row, i) => {
       const [, exact99, typeOne99, exact97, typeTwo97] = TABLE_1[i];
       expectPublished(100 * row.cells[0].exact, exact99, 1);
@@ -69,9 +73,12 @@ describe("BCBS 1996 Table 1 (250 observations)", () => {
 });
 
 describe("BCBS 1996 Table 2 cumulative column", () => {
-  it.each(TABLE_2_CUMULATIVE)("when %i exceptions fall in 250 days, then P(X ≤ k) is %f% (BCBS 1996 Table 2)", (k, percent) => {
-    expectPublished(100 * binomialCdf(k, 250, 0.01), percent, 2);
-  });
+  it.each(TABLE_2_CUMULATIVE)(
+    "when %i exceptions fall in 250 days, then P(X ≤ k) is %f% (BCBS 1996 Table 2)",
+    (k, percent) => {
+      expectPublished(100 * binomialCdf(k, 250, 0.01), percent, 2);
+    },
+  );
 });
 
 describe("binomial cross-checked against jStat (independent implementation)", () => {
@@ -93,7 +100,9 @@ describe("binomial edge cases and stability", () => {
   it("when n is 5,000 and p is 0.5, then the pmf at the mode is finite and the cdf of the whole support is 1 (worked by hand: C(5000,2500)/2^5000 ≈ 0.011283)", () => {
     expect(binomialPmf(2500, 5000, 0.5)).toBeCloseTo(0.0112832, 6);
     expect(binomialCdf(5000, 5000, 0.5)).toBe(1);
-    expect(binomialCdf(2499, 5000, 0.5) + binomialPmf(2500, 5000, 0.5) + (1 - binomialCdf(2500, 5000, 0.5))).toBeCloseTo(1, 12);
+    expect(
+      binomialCdf(2499, 5000, 0.5) + binomialPmf(2500, 5000, 0.5) + (1 - binomialCdf(2500, 5000, 0.5)),
+    ).toBeCloseTo(1, 12);
   });
 
   it("when the pmf is summed over the whole support for n = 4,000, then it totals 1 (common practice)", () => {

@@ -2,7 +2,11 @@ import { addBusinessDays } from "../../shared/backtest/calendar";
 import type { Observation } from "../../shared/backtest/types";
 
 /** Business dates starting on `first` (a business day), weekdays only unless holidays are given. */
-export function businessDates(count: number, first = "2025-01-02", holidays: ReadonlySet<string> = new Set()): string[] {
+export function businessDates(
+  count: number,
+  first = "2025-01-02",
+  holidays: ReadonlySet<string> = new Set(),
+): string[] {
   const out: string[] = [];
   let d = first;
   for (let i = 0; i < count; i++) {

@@ -1,5 +1,10 @@
 import fc from "fast-check";
-import { addBusinessDays, businessDaysBetween, isBusinessDay, nextBusinessDayOnOrAfter } from "../../shared/backtest/calendar";
+import {
+  addBusinessDays,
+  businessDaysBetween,
+  isBusinessDay,
+  nextBusinessDayOnOrAfter,
+} from "../../shared/backtest/calendar";
 import { EngineInputError } from "../../shared/backtest/errors";
 
 // Dates checked against a printed calendar: 25 Sep 2026 is a Friday, 1 Jan 2027 a Friday.

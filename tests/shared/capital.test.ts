@@ -6,7 +6,13 @@ import { businessDates } from "./build-observations";
 const SQRT10 = Math.sqrt(10);
 
 function days(n: number, fill: (i: number) => Partial<Observation>): Observation[] {
-  return businessDates(n, "2026-06-01").map((date, i) => ({ date, actualPnl: 0, hypotheticalPnl: 0, var99: null, ...fill(i) }));
+  return businessDates(n, "2026-06-01").map((date, i) => ({
+    date,
+    actualPnl: 0,
+    hypotheticalPnl: 0,
+    var99: null,
+    ...fill(i),
+  }));
 }
 const lastOf = (obs: Observation[]): string => obs[obs.length - 1].date;
 
@@ -77,7 +83,9 @@ describe("capital requirement, Basel 2.5 / EU / US", () => {
   it("when there is no VaR at all on or before the as-of date, then it throws an EngineInputError", () => {
     const obs = days(5, () => ({}));
     expect(() => capitalRequirement(obs, { regime: "eu", asOf: lastOf(obs), count: 0 })).toThrow(EngineInputError);
-    expect(() => capitalRequirement(obs, { regime: "eu", asOf: "2020-01-01", count: 0 })).toThrow(/No observation on or before 2020-01-01/);
+    expect(() => capitalRequirement(obs, { regime: "eu", asOf: "2020-01-01", count: 0 })).toThrow(
+      /No observation on or before 2020-01-01/,
+    );
   });
 });
 

@@ -46,7 +46,10 @@ describe("forecast at a future date", () => {
 
   it("when the capital inputs are constant, then the expected add-on is 300·√10 × Σ P(k)·plus(k) ≈ 300·√10 × (0.4·0.099482 + 0.5·0.005024 + 0.65·0.000152) = 40.18 (CRR Art. 366 Table 1 from memory; worked by hand)", () => {
     const f = forecastAt(obs, { ...opts, date: addBusinessDays(asOf, 11) });
-    expect(f.expectedAddOn).toBeCloseTo(300 * SQRT10 * (0.4 * 0.0994819 + 0.5 * 0.00502434 + 0.65 * 0.000152253 + 0.75 * 3.075e-6), 2);
+    expect(f.expectedAddOn).toBeCloseTo(
+      300 * SQRT10 * (0.4 * 0.0994819 + 0.5 * 0.00502434 + 0.65 * 0.000152253 + 0.75 * 3.075e-6),
+      2,
+    );
   });
 
   it("when the date lies 250 or more business days ahead, then nothing known remains and the count is Binomial(250, 1%): P(green) = 89.22% (BCBS 1996 Table 2)", () => {

@@ -8,9 +8,16 @@ describe("FRTB desk backtesting", () => {
   it("when a desk has 12 exceptions at 99%, then it passes; with 13 it fails (MAR32.19: fail above 12)", () => {
     const twelve = buildSeries({ days: 250, actualAt: range(12), extra: { var975: 50 } });
     // var975 = 50 < loss 150, so the 97.5% level also sees these 12: within its limit of 30.
-    expect(deskBacktest(twelve, twelve[249].date)).toMatchObject({ at99: { count: 12, fails: false }, at975: { count: 12, fails: false }, passes: true });
+    expect(deskBacktest(twelve, twelve[249].date)).toMatchObject({
+      at99: { count: 12, fails: false },
+      at975: { count: 12, fails: false },
+      passes: true,
+    });
     const thirteen = buildSeries({ days: 250, actualAt: range(13), extra: { var975: 50 } });
-    expect(deskBacktest(thirteen, thirteen[249].date)).toMatchObject({ at99: { count: 13, fails: true }, passes: false });
+    expect(deskBacktest(thirteen, thirteen[249].date)).toMatchObject({
+      at99: { count: 13, fails: true },
+      passes: false,
+    });
   });
 
   it("when 31 days breach the 97.5% VaR but none the 99% VaR, then the desk fails at 97.5% only (MAR32.19: fail above 30)", () => {
@@ -43,9 +50,12 @@ describe("P&L attribution test zones at their thresholds (MAR32.42)", () => {
     [0.9, 0.1200001, "red"],
     [0.75, 0.1, "amber"],
     [Number.NaN, 0.01, "red"],
-  ] as const)("when Spearman is %f and KS %f, then the zone is %s (MAR32.42; equalities fall to amber)", (rho, ks, zone) => {
-    expect(plaZone(rho, ks)).toBe(zone);
-  });
+  ] as const)(
+    "when Spearman is %f and KS %f, then the zone is %s (MAR32.42; equalities fall to amber)",
+    (rho, ks, zone) => {
+      expect(plaZone(rho, ks)).toBe(zone);
+    },
+  );
 });
 
 describe("P&L attribution test on full series", () => {
@@ -60,12 +70,18 @@ describe("P&L attribution test on full series", () => {
     [23, 0.092, "amber"],
     [30, 0.12, "amber"],
     [31, 0.124, "red"],
-  ] as const)("when RTPL is HPL shifted up by %i, then KS is %f (shift/250, worked by hand), Spearman 1 and the zone %s (MAR32.42)", (shift, ks, zone) => {
-    const r = plaTest(hpl, hpl.map((x) => x + shift));
-    expect(r.ks).toBe(ks);
-    expect(r.spearman).toBeCloseTo(1, 12);
-    expect(r.zone).toBe(zone);
-  });
+  ] as const)(
+    "when RTPL is HPL shifted up by %i, then KS is %f (shift/250, worked by hand), Spearman 1 and the zone %s (MAR32.42)",
+    (shift, ks, zone) => {
+      const r = plaTest(
+        hpl,
+        hpl.map((x) => x + shift),
+      );
+      expect(r.ks).toBe(ks);
+      expect(r.spearman).toBeCloseTo(1, 12);
+      expect(r.zone).toBe(zone);
+    },
+  );
 
   /** HPL ranks reversed inside consecutive blocks: same values, so KS = 0; each block of size B adds B(B²−1)/3 to Σd². */
   function blockReversed(sizes: number[]): number[] {
@@ -82,13 +98,16 @@ describe("P&L attribution test on full series", () => {
     [[100, 50, 50, 50], 0.824029, "green"],
     [[100, 100, 50], 0.728028, "amber"],
     [[125, 125], 0.500024, "red"],
-  ])("when HPL is reversed in blocks %j, then Spearman = 1 − 6Σd²/(n(n²−1)) = %f and the zone %s (Spearman formula, worked by hand)", (sizes, rho, zone) => {
-    // e.g. [100, 100, 50]: Σd² = (2·100·9999 + 50·2499)/3 = 708,250; 1 − 6·708,250/15,624,750 = 0.728028
-    const r = plaTest(hpl, blockReversed(sizes));
-    expect(r.ks).toBe(0);
-    expect(r.spearman).toBeCloseTo(rho, 6);
-    expect(r.zone).toBe(zone);
-  });
+  ])(
+    "when HPL is reversed in blocks %j, then Spearman = 1 − 6Σd²/(n(n²−1)) = %f and the zone %s (Spearman formula, worked by hand)",
+    (sizes, rho, zone) => {
+      // e.g. [100, 100, 50]: Σd² = (2·100·9999 + 50·2499)/3 = 708,250; 1 − 6·708,250/15,624,750 = 0.728028
+      const r = plaTest(hpl, blockReversed(sizes));
+      expect(r.ks).toBe(0);
+      expect(r.spearman).toBeCloseTo(rho, 6);
+      expect(r.zone).toBe(zone);
+    },
+  );
 
   it("when the series are longer than 250 days, then only the last 250 pairs count (MAR32.34)", () => {
     const early = range(50).map(() => 0);
@@ -122,7 +141,10 @@ describe("a desk's P&L attribution at an as-of date", () => {
     }));
     const asOf = obs[279].date;
     const window = obs.slice(30, 280).filter((o) => o.rtpl !== null);
-    const expected = plaTest(window.map((o) => o.hypotheticalPnl), window.map((o) => o.rtpl as number));
+    const expected = plaTest(
+      window.map((o) => o.hypotheticalPnl),
+      window.map((o) => o.rtpl as number),
+    );
     expect(deskPla(obs, asOf)).toEqual(expected);
     expect(expected.observations).toBe(225); // 250 days minus the 25 without RTPL (worked by hand)
     expect(deskPla(obs, "2024-12-31")).toBeNull();

@@ -8,7 +8,10 @@ const day = (date: string, pnl = -10): Observation => ({ date, actualPnl: pnl, h
 describe("business days that were never reported", () => {
   it("become placeholders with every value missing, skipping weekends and holidays", () => {
     // Thu 1 Jan 2026 is a holiday; Fri 2 Jan missing; Mon 5 Jan reported; Tue 6 missing; Wed 7 reported.
-    const filled = withMissingBusinessDays([day("2025-12-31"), day("2026-01-05"), day("2026-01-07")], new Set(["2026-01-01"]));
+    const filled = withMissingBusinessDays(
+      [day("2025-12-31"), day("2026-01-05"), day("2026-01-07")],
+      new Set(["2026-01-01"]),
+    );
     expect(filled.map((o) => [o.date, o.var99])).toEqual([
       ["2025-12-31", 100],
       ["2026-01-02", null],

@@ -13,7 +13,21 @@ import { zoneLabel } from "../../shared/backtest/types";
 // Full schedules k = 0..12. Plus factors are status M in REFERENCE.md §2: "from memory".
 const BASEL_1996_PLUS = [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1, 1, 1];
 const FRTB_PLUS = [0, 0, 0, 0, 0, 0.2, 0.26, 0.33, 0.38, 0.42, 0.5, 0.5, 0.5];
-const ZONES = ["green", "green", "green", "green", "green", "yellow", "yellow", "yellow", "yellow", "yellow", "red", "red", "red"] as const;
+const ZONES = [
+  "green",
+  "green",
+  "green",
+  "green",
+  "green",
+  "yellow",
+  "yellow",
+  "yellow",
+  "yellow",
+  "yellow",
+  "red",
+  "red",
+  "red",
+] as const;
 
 const SCHEDULES: Array<[RegimeId, string, number, readonly number[]]> = [
   ["basel", "BCBS 2009 para 718(Lxxvi) with BCBS 1996 Table 2 plus factors (from memory)", 3, BASEL_1996_PLUS],
@@ -51,10 +65,24 @@ describe("multiplication factors of the US rule", () => {
 
 describe("rule sets as data", () => {
   it("when each rule set is read, then it carries its label, citation, base multiplier and default basis (REFERENCE.md §2)", () => {
-    expect(getRegime("basel")).toMatchObject({ label: "Basel 2.5", baseMultiplier: 3, defaultPnlBasis: "max", missingCountsAsException: false });
-    expect(getRegime("us")).toMatchObject({ label: "US market risk rule", baseMultiplier: 3, defaultPnlBasis: "actual" });
+    expect(getRegime("basel")).toMatchObject({
+      label: "Basel 2.5",
+      baseMultiplier: 3,
+      defaultPnlBasis: "max",
+      missingCountsAsException: false,
+    });
+    expect(getRegime("us")).toMatchObject({
+      label: "US market risk rule",
+      baseMultiplier: 3,
+      defaultPnlBasis: "actual",
+    });
     expect(getRegime("eu")).toMatchObject({ label: "EU CRR", baseMultiplier: 3, defaultPnlBasis: "max" });
-    expect(getRegime("frtb")).toMatchObject({ label: "FRTB IMA", baseMultiplier: 1.5, defaultPnlBasis: "max", missingCountsAsException: true });
+    expect(getRegime("frtb")).toMatchObject({
+      label: "FRTB IMA",
+      baseMultiplier: 1.5,
+      defaultPnlBasis: "max",
+      missingCountsAsException: true,
+    });
     for (const r of Object.values(REGIMES)) {
       expect(r.citation.length).toBeGreaterThan(10);
       expect(r.zoneBoundaries).toEqual({ yellowFrom: 5, redFrom: 10 });

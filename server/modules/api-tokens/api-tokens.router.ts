@@ -10,7 +10,11 @@ export function apiTokensRouter() {
     res.json(await listApiTokens(signedInActor(req)));
   });
   r.post("/api/tokens", async (req, res) => {
-    res.status(201).json(await createApiToken(parseInput(createApiTokenBodySchema, req.body ?? {}, "new token"), signedInActor(req)));
+    res
+      .status(201)
+      .json(
+        await createApiToken(parseInput(createApiTokenBodySchema, req.body ?? {}, "new token"), signedInActor(req)),
+      );
   });
   r.delete("/api/tokens/:id", async (req, res) => {
     const { id } = parseInput(apiTokenIdParamSchema, req.params, "address");

@@ -62,7 +62,13 @@ const activeWhere = (now: Date) => ({ revokedAt: null, expiresAt: { [Op.gt]: now
 
 /** The caller's own tokens, newest first, whatever their status. */
 export async function listApiTokens(actor: SignedInActor): Promise<ApiToken[]> {
-  const rows = await ApiTokenModel.findAll({ where: { userId: actor.user.id }, order: [["createdAt", "DESC"], ["id", "DESC"]] });
+  const rows = await ApiTokenModel.findAll({
+    where: { userId: actor.user.id },
+    order: [
+      ["createdAt", "DESC"],
+      ["id", "DESC"],
+    ],
+  });
   const now = new Date();
   return rows.map((r) => toApiToken(r, now));
 }
@@ -72,7 +78,9 @@ async function assertRoomForAnotherToken(userId: number, now: Date, transaction:
   await UserModel.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
   const active = await ApiTokenModel.count({ where: { userId, ...activeWhere(now) }, transaction });
   if (active >= API_TOKEN_MAX_ACTIVE) {
-    throw new ConflictError(`You already hold ${active} active API tokens, the most allowed. Revoke one you no longer use first.`);
+    throw new ConflictError(
+      `You already hold ${active} active API tokens, the most allowed. Revoke one you no longer use first.`,
+    );
   }
 }
 
@@ -104,13 +112,23 @@ export async function createApiToken(input: CreateInput, actor: SignedInActor): 
 /** Revokes one of the caller's own tokens; another person's token is "not found" to them. Revoking twice changes nothing. */
 export async function revokeApiToken(id: number, actor: SignedInActor): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const row = await ApiTokenModel.findOne({ where: { id, userId: actor.user.id }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await ApiTokenModel.findOne({
+      where: { id, userId: actor.user.id },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!row) throw new NotFoundError(`You have no API token #${id}.`);
     if (row.revokedAt) return;
     const before = toApiToken(row);
     row.revokedAt = new Date();
     await row.save({ transaction });
-    await recordAudit(actor, "api_token.revoke", target(row.id), { before: auditView(before), after: auditView(toApiToken(row)) }, transaction);
+    await recordAudit(
+      actor,
+      "api_token.revoke",
+      target(row.id),
+      { before: auditView(before), after: auditView(toApiToken(row)) },
+      transaction,
+    );
   });
 }
 
@@ -119,10 +137,19 @@ export async function revokeApiToken(id: number, actor: SignedInActor): Promise<
  * token-holding roles), inside the caller's transaction; the use-time checks refuse them anyway,
  * this keeps them from coming back if the role is given back later.
  */
-export async function revokeApiTokensOf(userId: number, reason: string, actor: Actor, transaction: Transaction): Promise<number> {
+export async function revokeApiTokensOf(
+  userId: number,
+  reason: string,
+  actor: Actor,
+  transaction: Transaction,
+): Promise<number> {
   const now = new Date();
-  const [count] = await ApiTokenModel.update({ revokedAt: now }, { where: { userId, ...activeWhere(now) }, transaction });
-  if (count > 0) await recordAudit(actor, "api_token.revoke_all", `user #${userId}`, { after: { count, reason } }, transaction);
+  const [count] = await ApiTokenModel.update(
+    { revokedAt: now },
+    { where: { userId, ...activeWhere(now) }, transaction },
+  );
+  if (count > 0)
+    await recordAudit(actor, "api_token.revoke_all", `user #${userId}`, { after: { count, reason } }, transaction);
   return count;
 }
 
@@ -137,12 +164,22 @@ export type TokenRejection = {
  * The owner behind a presented secret, with their current role, or why the token is refused.
  * Checked at every use: revoked, expired, owner disabled, owner no longer in a token-holding role.
  */
-export async function resolveApiToken(presented: string, now = new Date()): Promise<{ user: SessionUser; tokenId: number } | TokenRejection> {
+export async function resolveApiToken(
+  presented: string,
+  now = new Date(),
+): Promise<{ user: SessionUser; tokenId: number } | TokenRejection> {
   if (!API_TOKEN_PATTERN.test(presented)) return { reason: "malformed token", genuine: false };
-  const row = await ApiTokenModel.findOne({ where: { tokenHash: hashOf(presented) }, include: [{ model: UserModel, as: "user" }] });
+  const row = await ApiTokenModel.findOne({
+    where: { tokenHash: hashOf(presented) },
+    include: [{ model: UserModel, as: "user" }],
+  });
   if (!row) return { reason: "unknown token", genuine: false };
   const owner = row.user ?? null;
-  const refuse = (reason: string): TokenRejection => ({ reason, genuine: true, token: { id: row.id, prefix: row.prefix, owner: owner?.email ?? null } });
+  const refuse = (reason: string): TokenRejection => ({
+    reason,
+    genuine: true,
+    token: { id: row.id, prefix: row.prefix, owner: owner?.email ?? null },
+  });
   if (row.revokedAt) return refuse("token revoked");
   if (row.expiresAt.getTime() <= now.getTime()) return refuse("token expired");
   if (!owner) return refuse("owner no longer exists");

@@ -30,7 +30,8 @@ export async function listAssignments(): Promise<Assignment[]> {
 export async function assignRegulator(userId: number, entityCode: string, actor: SignedIn): Promise<Assignment> {
   const user = await UserModel.findByPk(userId);
   if (!user) throw new NotFoundError(`No user with id ${userId}.`);
-  if (user.role !== "regulator") throw new BadRequestError(`${user.email} is not a regulator; only regulators are assigned to entities.`);
+  if (user.role !== "regulator")
+    throw new BadRequestError(`${user.email} is not a regulator; only regulators are assigned to entities.`);
   const entity = await findEntity(entityCode);
   if (await RegulatorAssignmentModel.findOne({ where: { userId, entityId: entity.id } })) {
     throw new ConflictError(`${user.email} is already assigned to ${entityCode}.`);
@@ -49,6 +50,12 @@ export async function unassignRegulator(userId: number, entityCode: string, acto
   if (!row) throw new NotFoundError(`User ${userId} is not assigned to ${entityCode}.`);
   await sequelize.transaction(async (transaction) => {
     await row.destroy({ transaction });
-    await recordAudit(actor, "assignment.delete", `${userId} → ${entityCode}`, { before: { userId, entityCode } }, transaction);
+    await recordAudit(
+      actor,
+      "assignment.delete",
+      `${userId} → ${entityCode}`,
+      { before: { userId, entityCode } },
+      transaction,
+    );
   });
 }

@@ -40,7 +40,9 @@ function toAuditEvent(row: AuditEventModel): AuditEvent {
 }
 
 export async function listAuditEvents(query: AuditQuery): Promise<{ items: AuditEvent[]; total: number }> {
-  const where: WhereOptions = query.action ? { action: { [Op.like]: `${query.action.replace(/[%_\\]/g, "\\$&")}%` } } : {};
+  const where: WhereOptions = query.action
+    ? { action: { [Op.like]: `${query.action.replace(/[%_\\]/g, "\\$&")}%` } }
+    : {};
   const { rows, count } = await AuditEventModel.findAndCountAll({
     where,
     order: [["id", "DESC"]],

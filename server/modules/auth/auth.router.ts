@@ -32,7 +32,10 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
     skipSuccessfulRequests: true,
     standardHeaders: false,
     legacyHeaders: false,
-    keyGenerator: (req) => `account:${String(req.body?.email ?? "").trim().toLowerCase()}`,
+    keyGenerator: (req) =>
+      `account:${String(req.body?.email ?? "")
+        .trim()
+        .toLowerCase()}`,
     handler: (_req, _res, next) => next(tooMany()),
   });
 

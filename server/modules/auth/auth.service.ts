@@ -48,7 +48,9 @@ export async function signOut(actor: Actor & { user: SessionUser }): Promise<voi
  * (signature, issuer and audience verified) but no longer valid: worth an audit event; forged or
  * malformed tokens are only logged, so nobody can fill the audit log with garbage cookies.
  */
-export async function resolveSession(token: string): Promise<{ user: SessionUser } | { reason: string; genuine: boolean }> {
+export async function resolveSession(
+  token: string,
+): Promise<{ user: SessionUser } | { reason: string; genuine: boolean }> {
   const verified = verifySessionToken(token);
   if (!verified.ok) return { reason: verified.reason, genuine: /expired/i.test(verified.reason) };
   const user = await UserModel.findByPk(verified.userId);

@@ -21,7 +21,8 @@ function firstForgeryThisMinute(key: string): boolean {
 const anonymous = (req: Request) => ({ user: null, ip: req.ip ?? null, requestId: req.requestId });
 
 // One answer whatever the reason (mistyped, expired, revoked, owner disabled): the reason is in the audit log only.
-const TOKEN_REFUSED = "The API token was not accepted. Check that it is copied whole, or create a new one on the API tokens page of Quartermark.";
+const TOKEN_REFUSED =
+  "The API token was not accepted. Check that it is copied whole, or create a new one on the API tokens page of Quartermark.";
 
 /**
  * `Authorization: Bearer <secret>`: the token's owner, with their current role, signs the request
@@ -37,9 +38,18 @@ async function signInWithToken(authorization: string, req: Request, res: Respons
     return null;
   }
   if (resolved.genuine || firstForgeryThisMinute(`token:${req.ip ?? "unknown"}`)) {
-    await recordAudit(anonymous(req), "auth.token_rejected", resolved.token ? `api token #${resolved.token.id}` : null, {
-      after: { reason: resolved.reason, path: req.path, ...(resolved.token ? { prefix: resolved.token.prefix, owner: resolved.token.owner } : {}) },
-    });
+    await recordAudit(
+      anonymous(req),
+      "auth.token_rejected",
+      resolved.token ? `api token #${resolved.token.id}` : null,
+      {
+        after: {
+          reason: resolved.reason,
+          path: req.path,
+          ...(resolved.token ? { prefix: resolved.token.prefix, owner: resolved.token.owner } : {}),
+        },
+      },
+    );
   } else {
     logger.info(`[${req.requestId}] rejected an API token again (${resolved.reason}) from ${req.ip}`);
   }
@@ -67,7 +77,9 @@ export const sessionMiddleware: RequestHandler = async (req, res, next) => {
   }
   clearSessionCookie(res);
   if (session.genuine || firstForgeryThisMinute(req.ip ?? "unknown")) {
-    await recordAudit(anonymous(req), "auth.session_rejected", null, { after: { reason: session.reason, path: req.path } });
+    await recordAudit(anonymous(req), "auth.session_rejected", null, {
+      after: { reason: session.reason, path: req.path },
+    });
   } else {
     logger.info(`[${req.requestId}] rejected a forged session cookie again (${session.reason}) from ${req.ip}`);
   }

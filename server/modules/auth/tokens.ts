@@ -20,7 +20,9 @@ export function signSessionToken(userId: number, tokenVersion: number): string {
 }
 
 /** Verifies signature (HS256 only, so `alg: none` and key confusion fail), issuer, audience, expiry. */
-export function verifySessionToken(token: string): { ok: true; userId: number; tokenVersion: number } | { ok: false; reason: string } {
+export function verifySessionToken(
+  token: string,
+): { ok: true; userId: number; tokenVersion: number } | { ok: false; reason: string } {
   try {
     const payload = jwt.verify(token, config.jwtSecret, { algorithms: ["HS256"], issuer: ISSUER, audience: AUDIENCE });
     const claims = claimsSchema.safeParse(payload);

@@ -19,7 +19,11 @@ import type { BacktestResponse, DeskResult, OverviewItem, RollingRowDto } from "
 
 function latestDateOf(ctx: PortfolioContext): string {
   if (ctx.series.length === 0) {
-    throw new AppError(404, "no_data", `No daily data for ${ctx.portfolio.code} yet. An analyst uploads it under Data.`);
+    throw new AppError(
+      404,
+      "no_data",
+      `No daily data for ${ctx.portfolio.code} yet. An analyst uploads it under Data.`,
+    );
   }
   return ctx.series[ctx.series.length - 1].date;
 }
@@ -27,7 +31,10 @@ function latestDateOf(ctx: PortfolioContext): string {
 /** FRTB: desk-level backtesting and the P&L attribution test over the last 250 days (MAR32). */
 export async function deskResults(ctx: PortfolioContext, asOf: string): Promise<DeskResult[]> {
   if (ctx.entity.regime !== "frtb" || ctx.portfolio.level !== "top") return [];
-  const desks = await PortfolioModel.findAll({ where: { entityId: ctx.entity.id, level: "desk" }, order: [["code", "ASC"]] });
+  const desks = await PortfolioModel.findAll({
+    where: { entityId: ctx.entity.id, level: "desk" },
+    order: [["code", "ASC"]],
+  });
   const results: DeskResult[] = [];
   for (const desk of desks) {
     // MAR32.5(2): a desk's unreported business day counts as an exception too.
@@ -51,9 +58,18 @@ export async function getBacktest(code: string, asOf?: string): Promise<Backtest
   const ctx = await loadPortfolioContext(code);
   const latestDate = latestDateOf(ctx);
   const at = asOf ?? latestDate;
-  const opts = { regime: ctx.entity.regime, pnlBasis: ctx.entity.pnlBasis, asOf: at, excludedDates: ctx.excludedDates, qualitativeAddend: ctx.entity.qualitativeAddend };
+  const opts = {
+    regime: ctx.entity.regime,
+    pnlBasis: ctx.entity.pnlBasis,
+    asOf: at,
+    excludedDates: ctx.excludedDates,
+    qualitativeAddend: ctx.entity.qualitativeAddend,
+  };
   const result = backtestAt(ctx.series, opts);
-  const reviews = await reviewsByDate(ctx.portfolio.id, result.exceptionDays.map((d) => d.date));
+  const reviews = await reviewsByDate(
+    ctx.portfolio.id,
+    result.exceptionDays.map((d) => d.date),
+  );
   return {
     ...result,
     portfolio: { code: ctx.portfolio.code, name: ctx.portfolio.name, level: ctx.portfolio.level },
@@ -90,7 +106,11 @@ function addOnOrNull(series: Observation[], opts: Parameters<typeof capitalAddOn
 
 /** The entity's newest quarter snapshot, for the Overview's quarter-close column. */
 async function newestSnapshotOf(entityId: number): Promise<OverviewItem["quarterClose"]> {
-  const s = await SnapshotModel.findOne({ where: { entityId }, order: [["quarterEnd", "DESC"]], attributes: ["id", "quarterEnd", "status"] });
+  const s = await SnapshotModel.findOne({
+    where: { entityId },
+    order: [["quarterEnd", "DESC"]],
+    attributes: ["id", "quarterEnd", "status"],
+  });
   return s ? { snapshotId: s.id, quarterEnd: s.quarterEnd, status: s.status } : null;
 }
 
@@ -130,9 +150,18 @@ export async function getOverview(): Promise<OverviewItem[]> {
       continue;
     }
     const asOf = ctx.series[ctx.series.length - 1].date;
-    const opts = { regime: entity.regime, pnlBasis: entity.pnlBasis, asOf, excludedDates: ctx.excludedDates, qualitativeAddend: entity.qualitativeAddend };
+    const opts = {
+      regime: entity.regime,
+      pnlBasis: entity.pnlBasis,
+      asOf,
+      excludedDates: ctx.excludedDates,
+      qualitativeAddend: entity.qualitativeAddend,
+    };
     const bt = backtestAt(ctx.series, opts);
-    const reviews = await reviewsByDate(top.id, bt.exceptionDays.map((d) => d.date));
+    const reviews = await reviewsByDate(
+      top.id,
+      bt.exceptionDays.map((d) => d.date),
+    );
     const counted = bt.exceptionDays.filter((d) => d.actual || d.hypothetical);
     const openReviews = counted.filter((d) => {
       const r = reviews.get(d.date);
@@ -149,10 +178,19 @@ export async function getOverview(): Promise<OverviewItem[]> {
       counted: bt.exceptions.counted,
       plusFactor: bt.plusFactor,
       multiplier: bt.multiplier,
-      addOn: addOnOrNull(ctx.series, { regime: entity.regime, asOf, count: bt.exceptions.counted, qualitativeAddend: entity.qualitativeAddend }),
+      addOn: addOnOrNull(ctx.series, {
+        regime: entity.regime,
+        asOf,
+        count: bt.exceptions.counted,
+        qualitativeAddend: entity.qualitativeAddend,
+      }),
       nextRollOff: offs[0] ?? null,
       openReviews,
-      openFindings: await countOpenFindings(portfolios.map((p) => p.id), window.start ?? asOf, asOf),
+      openFindings: await countOpenFindings(
+        portfolios.map((p) => p.id),
+        window.start ?? asOf,
+        asOf,
+      ),
     });
   }
   return items;

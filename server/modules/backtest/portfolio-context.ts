@@ -29,7 +29,10 @@ export async function loadPortfolioContext(code: string): Promise<PortfolioConte
   const [holidays, series, approved] = await Promise.all([
     HolidayModel.findAll({ where: { entityId: entity.id } }),
     loadSeries(portfolio.id),
-    ExceptionReviewModel.findAll({ where: { portfolioId: portfolio.id, exclusionStatus: "approved" }, attributes: ["businessDate"] }),
+    ExceptionReviewModel.findAll({
+      where: { portfolioId: portfolio.id, exclusionStatus: "approved" },
+      attributes: ["businessDate"],
+    }),
   ]);
   const holidaySet = new Set(holidays.map((h) => h.date));
   return {

@@ -22,7 +22,19 @@ export interface QuarterFigures {
 }
 
 /** The values of a day that feed the figures, in a fixed order (for the inputs hash). */
-const dayValues = (o: Observation) => [o.date, o.actualPnl, o.hypotheticalPnl, o.var99, o.var975, o.svar99, o.var10d, o.svar10d, o.es975, o.ses, o.rtpl];
+const dayValues = (o: Observation) => [
+  o.date,
+  o.actualPnl,
+  o.hypotheticalPnl,
+  o.var99,
+  o.var975,
+  o.svar99,
+  o.var10d,
+  o.svar10d,
+  o.es975,
+  o.ses,
+  o.rtpl,
+];
 
 /**
  * An entity's figures at a quarter end, computed by the engine from the current daily data of its
@@ -32,11 +44,16 @@ const dayValues = (o: Observation) => [o.date, o.actualPnl, o.hypotheticalPnl, o
 export async function quarterFigures(entity: EntityModel, quarterEnd: string): Promise<QuarterFigures> {
   const portfolios = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["code", "ASC"]] });
   const top = portfolios.find((p) => p.level === "top");
-  if (!top) throw new NotFoundError(`${entity.code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
+  if (!top)
+    throw new NotFoundError(`${entity.code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
   const ctx = await loadPortfolioContext(top.code);
   const series = ctx.series.filter((o) => o.date <= quarterEnd);
-  const lastBusinessDay = isBusinessDay(quarterEnd, ctx.holidays) ? quarterEnd : addBusinessDays(quarterEnd, -1, ctx.holidays);
-  const reported = [...series].reverse().find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
+  const lastBusinessDay = isBusinessDay(quarterEnd, ctx.holidays)
+    ? quarterEnd
+    : addBusinessDays(quarterEnd, -1, ctx.holidays);
+  const reported = [...series]
+    .reverse()
+    .find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
   if (!reported || reported.date < lastBusinessDay) {
     throw new AppError(
       422,
@@ -45,14 +62,25 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     );
   }
   const asOf = lastBusinessDay;
-  const opts = { regime: entity.regime, pnlBasis: entity.pnlBasis, asOf, excludedDates: ctx.excludedDates, qualitativeAddend: entity.qualitativeAddend };
+  const opts = {
+    regime: entity.regime,
+    pnlBasis: entity.pnlBasis,
+    asOf,
+    excludedDates: ctx.excludedDates,
+    qualitativeAddend: entity.qualitativeAddend,
+  };
   const bt = backtestAt(series, opts);
 
   let capital: number | null = null;
   let addOn: number | null = null;
   let capitalNote: string | null = null;
   try {
-    const capitalOpts = { regime: entity.regime, asOf, count: bt.exceptions.counted, qualitativeAddend: entity.qualitativeAddend };
+    const capitalOpts = {
+      regime: entity.regime,
+      asOf,
+      count: bt.exceptions.counted,
+      qualitativeAddend: entity.qualitativeAddend,
+    };
     capital = Math.round(capitalRequirement(series, capitalOpts).requirement * 100) / 100;
     addOn = Math.round(capitalAddOn(series, capitalOpts) * 100) / 100;
   } catch (err) {
@@ -80,7 +108,13 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     capital,
     addOn,
     capitalNote,
-    desks: desks.map((d) => ({ portfolio: d.portfolio, exceptions99: d.backtest.at99.count, exceptions975: d.backtest.at975.count, passes: d.backtest.passes, plaZone: d.pla?.zone ?? null })),
+    desks: desks.map((d) => ({
+      portfolio: d.portfolio,
+      exceptions99: d.backtest.at99.count,
+      exceptions975: d.backtest.at975.count,
+      passes: d.backtest.passes,
+      plaZone: d.pla?.zone ?? null,
+    })),
   };
 
   // The inputs: what a second computation would need to give the same figures.
@@ -91,12 +125,21 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     deskSeries.push([desk.code, (await loadSeries(desk.id, from, asOf)).map((o) => dayValues(o))]);
   }
   const inputs = {
-    entity: { code: entity.code, regime: entity.regime, pnlBasis: entity.pnlBasis, qualitativeAddend: entity.qualitativeAddend },
+    entity: {
+      code: entity.code,
+      regime: entity.regime,
+      pnlBasis: entity.pnlBasis,
+      qualitativeAddend: entity.qualitativeAddend,
+    },
     asOf,
     portfolio: top.code,
     days: series.filter(inWindow).map(dayValues),
     excluded: [...ctx.excludedDates].filter((d) => d >= from && d <= asOf).sort(),
     desks: deskSeries,
   };
-  return { figures, inputsSha256: createHash("sha256").update(stableStringify(inputs)).digest("hex"), engineVersion: ENGINE_VERSION };
+  return {
+    figures,
+    inputsSha256: createHash("sha256").update(stableStringify(inputs)).digest("hex"),
+    engineVersion: ENGINE_VERSION,
+  };
 }

@@ -19,7 +19,8 @@ async function topOf(code: string): Promise<{ entity: EntityModel; ctx: Portfoli
   const top = await PortfolioModel.findOne({ where: { entityId: entity.id, level: "top" }, order: [["code", "ASC"]] });
   if (!top) throw new NotFoundError(`${code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
   const ctx = await loadPortfolioContext(top.code);
-  if (ctx.series.length === 0) throw new AppError(404, "no_data", `No daily data for ${top.code} yet. An analyst uploads it under Data.`);
+  if (ctx.series.length === 0)
+    throw new AppError(404, "no_data", `No daily data for ${top.code} yet. An analyst uploads it under Data.`);
   return { entity, ctx, latest: ctx.series[ctx.series.length - 1].date };
 }
 
@@ -44,10 +45,21 @@ const orNull = <T>(compute: () => T): T | null => {
 /** Where the entity's count may stand at a future date, and what the next exception would cost today. */
 export async function getForecast(code: string, query: { date?: string }): Promise<ForecastResponse> {
   const { entity, ctx, latest } = await topOf(code);
-  const opts = { regime: entity.regime, pnlBasis: entity.pnlBasis, asOf: latest, excludedDates: ctx.excludedDates, qualitativeAddend: entity.qualitativeAddend };
+  const opts = {
+    regime: entity.regime,
+    pnlBasis: entity.pnlBasis,
+    asOf: latest,
+    excludedDates: ctx.excludedDates,
+    qualitativeAddend: entity.qualitativeAddend,
+  };
   const date = query.date ?? defaultForecastDate(latest);
   if (date < latest) {
-    throw new AppError(422, "validation_failed", `The forecast date ${date} is before the as-of date ${latest}, the last day with data of ${ctx.portfolio.code}.`, { fields: { date: `On or after ${latest}` } });
+    throw new AppError(
+      422,
+      "validation_failed",
+      `The forecast date ${date} is before the as-of date ${latest}, the last day with data of ${ctx.portfolio.code}.`,
+      { fields: { date: `On or after ${latest}` } },
+    );
   }
   const forecast = forecastAt(ctx.series, { ...opts, date, holidays: ctx.holidays });
   const today = backtestAt(ctx.series, opts);
@@ -57,8 +69,21 @@ export async function getForecast(code: string, query: { date?: string }): Promi
     regime: entity.regime,
     currency: entity.currency,
     ...forecast,
-    nextExceptionCost: orNull(() => marginalCostOfNextException(ctx.series, { regime: entity.regime, asOf: latest, count: today.exceptions.counted, qualitativeAddend: entity.qualitativeAddend })),
-    today: { counted: today.exceptions.counted, zone: today.zone, plusFactor: today.plusFactor, multiplier: today.multiplier, windowComplete: today.window.complete },
+    nextExceptionCost: orNull(() =>
+      marginalCostOfNextException(ctx.series, {
+        regime: entity.regime,
+        asOf: latest,
+        count: today.exceptions.counted,
+        qualitativeAddend: entity.qualitativeAddend,
+      }),
+    ),
+    today: {
+      counted: today.exceptions.counted,
+      zone: today.zone,
+      plusFactor: today.plusFactor,
+      multiplier: today.multiplier,
+      windowComplete: today.window.complete,
+    },
   };
 }
 
@@ -66,7 +91,13 @@ export async function getForecast(code: string, query: { date?: string }): Promi
 export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySchema>): Promise<WhatIfResponse> {
   const { entity, ctx, latest } = await topOf(code);
   const asOf = body.asOf ?? latest;
-  if (asOf > latest) throw new AppError(422, "validation_failed", `The data of ${ctx.portfolio.code} ends on ${latest}; choose that day or an earlier one.`, { fields: { asOf: `At most ${latest}` } });
+  if (asOf > latest)
+    throw new AppError(
+      422,
+      "validation_failed",
+      `The data of ${ctx.portfolio.code} ends on ${latest}; choose that day or an earlier one.`,
+      { fields: { asOf: `At most ${latest}` } },
+    );
   const result = whatIf(ctx.series, {
     regime: entity.regime,
     pnlBasis: entity.pnlBasis,

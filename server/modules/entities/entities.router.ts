@@ -33,7 +33,9 @@ export function entitiesRouter() {
   });
   r.post("/api/entities/:code/portfolios", async (req, res) => {
     const { code } = parseInput(entityParamSchema, req.params, "address");
-    res.status(201).json(await entities.createPortfolio(code, parseInput(createPortfolioBodySchema, req.body), signedInActor(req)));
+    res
+      .status(201)
+      .json(await entities.createPortfolio(code, parseInput(createPortfolioBodySchema, req.body), signedInActor(req)));
   });
   r.patch("/api/entities/:code/portfolios/:portfolio", async (req, res) => {
     const { code, portfolio } = parseInput(portfolioParamSchema, req.params, "address");
@@ -47,7 +49,9 @@ export function entitiesRouter() {
   });
   r.post("/api/entities/:code/holidays", async (req, res) => {
     const { code } = parseInput(entityParamSchema, req.params, "address");
-    res.status(201).json(await entities.addHoliday(code, parseInput(createHolidayBodySchema, req.body), signedInActor(req)));
+    res
+      .status(201)
+      .json(await entities.addHoliday(code, parseInput(createHolidayBodySchema, req.body), signedInActor(req)));
   });
   r.delete("/api/entities/:code/holidays/:date", async (req, res) => {
     const { code, date } = parseInput(holidayParamSchema, req.params, "address");

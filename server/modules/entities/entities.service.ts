@@ -87,7 +87,8 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
       return entity;
     });
   } catch (err) {
-    if (err instanceof UniqueConstraintError) throw new ConflictError(`An entity with the code ${input.code} already exists.`);
+    if (err instanceof UniqueConstraintError)
+      throw new ConflictError(`An entity with the code ${input.code} already exists.`);
     throw err;
   }
 }
@@ -97,9 +98,12 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
     const row = await EntityModel.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw new NotFoundError(`No entity with code ${code}.`);
     if (row.version !== change.version) {
-      throw new ConflictError(`Someone else changed ${code} since you opened it (now version ${row.version}). Reload and apply your change again.`, {
-        current: toEntity(row),
-      });
+      throw new ConflictError(
+        `Someone else changed ${code} since you opened it (now version ${row.version}). Reload and apply your change again.`,
+        {
+          current: toEntity(row),
+        },
+      );
     }
     const before = toEntity(row);
     row.version = row.version + 1;
@@ -120,7 +124,13 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
 export async function listPortfolios(code: string, viewer: SessionUser): Promise<Portfolio[]> {
   const entity = await findEntity(code, viewer);
   // ENUM order: top (1) before desk (2).
-  const rows = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["level", "ASC"], ["code", "ASC"]] });
+  const rows = await PortfolioModel.findAll({
+    where: { entityId: entity.id },
+    order: [
+      ["level", "ASC"],
+      ["code", "ASC"],
+    ],
+  });
   return rows.map(toPortfolio);
 }
 
@@ -130,17 +140,29 @@ export async function createPortfolio(code: string, input: CreatePortfolioBody, 
     throw new ConflictError(`A portfolio with the code ${input.code} already exists.`);
   }
   return sequelize.transaction(async (transaction) => {
-    const row = await PortfolioModel.create({ entityId: entity.id, code: input.code, name: input.name, level: input.level }, { transaction });
+    const row = await PortfolioModel.create(
+      { entityId: entity.id, code: input.code, name: input.name, level: input.level },
+      { transaction },
+    );
     const portfolio = toPortfolio(row);
     await recordAudit(actor, "portfolio.create", `${code}/${portfolio.code}`, { after: portfolio }, transaction);
     return portfolio;
   });
 }
 
-export async function renamePortfolio(code: string, portfolioCode: string, name: string, actor: SignedIn): Promise<Portfolio> {
+export async function renamePortfolio(
+  code: string,
+  portfolioCode: string,
+  name: string,
+  actor: SignedIn,
+): Promise<Portfolio> {
   const entity = await findEntity(code);
   return sequelize.transaction(async (transaction) => {
-    const row = await PortfolioModel.findOne({ where: { entityId: entity.id, code: portfolioCode }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await PortfolioModel.findOne({
+      where: { entityId: entity.id, code: portfolioCode },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!row) throw new NotFoundError(`No portfolio ${portfolioCode} in entity ${code}.`);
     const before = toPortfolio(row);
     row.name = name;
@@ -153,7 +175,12 @@ export async function renamePortfolio(code: string, portfolioCode: string, name:
 
 /** Locks the entity's portfolios in id order: calendar changes and upload commits take turns. */
 async function lockEntityPortfolios(entityId: number, transaction: Transaction): Promise<number[]> {
-  const rows = await PortfolioModel.findAll({ where: { entityId }, order: [["id", "ASC"]], transaction, lock: transaction.LOCK.UPDATE });
+  const rows = await PortfolioModel.findAll({
+    where: { entityId },
+    order: [["id", "ASC"]],
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
   return rows.map((p) => p.id);
 }
 

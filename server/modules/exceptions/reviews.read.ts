@@ -9,14 +9,19 @@ export async function reviewsByDate(portfolioId: number, dates?: string[]): Prom
   const where = dates ? { portfolioId, businessDate: { [Op.in]: dates } } : { portfolioId };
   const rows = await ExceptionReviewModel.findAll({ where });
   if (rows.length === 0) return new Map();
-  const evidence = await EvidenceFileModel.findAll({ where: { reviewId: rows.map((r) => r.id) }, order: [["id", "ASC"]] });
+  const evidence = await EvidenceFileModel.findAll({
+    where: { reviewId: rows.map((r) => r.id) },
+    order: [["id", "ASC"]],
+  });
   const userIds = new Set<number>();
   for (const r of rows) {
     userIds.add(r.reviewedBy);
     if (r.decidedBy) userIds.add(r.decidedBy);
   }
   for (const e of evidence) userIds.add(e.uploadedBy);
-  const emails = new Map((await UserModel.findAll({ where: { id: [...userIds] }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+  const emails = new Map(
+    (await UserModel.findAll({ where: { id: [...userIds] }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+  );
   const out = new Map<string, Review>();
   for (const r of rows) {
     out.set(r.businessDate, {

@@ -27,7 +27,16 @@ export function reviewsRouter() {
   r.post("/api/portfolios/:code/exceptions/:date/evidence", evidenceUpload, async (req, res) => {
     const { code, date } = parseInput(exceptionParamSchema, req.params, "address");
     if (!req.file) throw new BadRequestError('Attach the evidence file in the form field "file".');
-    res.status(201).json(await addEvidence(code, date, { originalName: req.file.originalname, bytes: req.file.buffer }, signedInActor(req)));
+    res
+      .status(201)
+      .json(
+        await addEvidence(
+          code,
+          date,
+          { originalName: req.file.originalname, bytes: req.file.buffer },
+          signedInActor(req),
+        ),
+      );
   });
   // Always a download, never rendered by the browser: evidence is whatever someone uploaded.
   r.get("/api/evidence/:id", async (req, res) => {

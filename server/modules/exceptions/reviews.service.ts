@@ -44,11 +44,30 @@ async function currentReview(portfolioId: number, date: string): Promise<Review 
 }
 
 /** Only a day that is an exception on the current data can be reviewed (read under the portfolio lock). */
-async function assertExceptionDay(code: string, date: string, portfolio: PortfolioModel, entity: EntityModel, transaction: Transaction) {
-  const day = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date, isCurrent: true }, transaction });
+async function assertExceptionDay(
+  code: string,
+  date: string,
+  portfolio: PortfolioModel,
+  entity: EntityModel,
+  transaction: Transaction,
+) {
+  const day = await ObservationModel.findOne({
+    where: { portfolioId: portfolio.id, businessDate: date, isCurrent: true },
+    transaction,
+  });
   if (!day) throw new NotFoundError(`${code} has no data for ${date}.`);
-  const c = classifyDay(day.actualPnl, day.hypotheticalPnl, day.var99, getRegime(entity.regime).missingCountsAsException);
-  if (!c.actual && !c.hypothetical) throw new AppError(422, "not_an_exception", `${date} is not an exception day for ${code}: the loss did not exceed VaR.`);
+  const c = classifyDay(
+    day.actualPnl,
+    day.hypotheticalPnl,
+    day.var99,
+    getRegime(entity.regime).missingCountsAsException,
+  );
+  if (!c.actual && !c.hypothetical)
+    throw new AppError(
+      422,
+      "not_an_exception",
+      `${date} is not an exception day for ${code}: the loss did not exceed VaR.`,
+    );
 }
 
 /**
@@ -62,11 +81,17 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
     // an upload restating the day waits (or is waited for) before the day is judged an exception.
     await lockPortfolios([portfolio.id], "update", transaction);
     await assertExceptionDay(code, date, portfolio, entity, transaction);
-    const row = await ExceptionReviewModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await ExceptionReviewModel.findOne({
+      where: { portfolioId: portfolio.id, businessDate: date },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     const seen = body.version ?? 0;
     if ((row?.version ?? 0) !== seen) {
       throw new ConflictError(
-        row ? `Someone else changed this review (now version ${row.version}). Here is the current one; apply your change to it.` : "This review no longer exists.",
+        row
+          ? `Someone else changed this review (now version ${row.version}). Here is the current one; apply your change to it.`
+          : "This review no longer exists.",
         { current: await currentReview(portfolio.id, date) },
       );
     }
@@ -76,17 +101,44 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
     if (!body.exclusion && exclusionStatus === "requested") exclusionStatus = "none";
     if (exclusionStatus === "approved") {
       // The supervisor approved this explanation: neither the request nor its grounds change quietly.
-      throw new ConflictError("The supervisor approved disregarding this exception on the recorded explanation; it can no longer be changed here.");
+      throw new ConflictError(
+        "The supervisor approved disregarding this exception on the recorded explanation; it can no longer be changed here.",
+      );
     }
     if (row) {
-      await row.update({ cause: body.cause, narrative: body.narrative, exclusionStatus, reviewedBy: actor.user.id, version: row.version + 1 }, { transaction });
+      await row.update(
+        {
+          cause: body.cause,
+          narrative: body.narrative,
+          exclusionStatus,
+          reviewedBy: actor.user.id,
+          version: row.version + 1,
+        },
+        { transaction },
+      );
     } else {
       await ExceptionReviewModel.create(
-        { portfolioId: portfolio.id, businessDate: date, cause: body.cause, narrative: body.narrative, exclusionStatus, decisionReference: null, decisionDate: null, decidedBy: null, reviewedBy: actor.user.id },
+        {
+          portfolioId: portfolio.id,
+          businessDate: date,
+          cause: body.cause,
+          narrative: body.narrative,
+          exclusionStatus,
+          decisionReference: null,
+          decisionDate: null,
+          decidedBy: null,
+          reviewedBy: actor.user.id,
+        },
         { transaction },
       );
     }
-    await recordAudit(actor, "exception.review", `${code}/${date}`, { before, after: { cause: body.cause, narrative: body.narrative, exclusionStatus } }, transaction);
+    await recordAudit(
+      actor,
+      "exception.review",
+      `${code}/${date}`,
+      { before, after: { cause: body.cause, narrative: body.narrative, exclusionStatus } },
+      transaction,
+    );
   });
   return (await currentReview(portfolio.id, date))!;
 }
@@ -95,39 +147,85 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
 export async function recordDecision(code: string, date: string, body: DecisionBody, actor: SignedIn): Promise<Review> {
   const { portfolio } = await findPortfolio(code);
   await sequelize.transaction(async (transaction) => {
-    const row = await ExceptionReviewModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date }, transaction, lock: transaction.LOCK.UPDATE });
+    const row = await ExceptionReviewModel.findOne({
+      where: { portfolioId: portfolio.id, businessDate: date },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (!row) throw new NotFoundError(`No review of ${code} on ${date}; an analyst explains the exception first.`);
     if (row.version !== body.version) {
-      throw new ConflictError(`The review changed since you opened it (now version ${row.version}).`, { current: await currentReview(portfolio.id, date) });
+      throw new ConflictError(`The review changed since you opened it (now version ${row.version}).`, {
+        current: await currentReview(portfolio.id, date),
+      });
     }
     if (row.exclusionStatus === "none") throw new ConflictError("No exclusion was requested for this exception.");
     const before = { exclusionStatus: row.exclusionStatus, decisionReference: row.decisionReference };
     await row.update(
-      { exclusionStatus: body.decision, decisionReference: body.reference, decisionDate: body.decidedOn, decidedBy: actor.user.id, version: row.version + 1 },
+      {
+        exclusionStatus: body.decision,
+        decisionReference: body.reference,
+        decisionDate: body.decidedOn,
+        decidedBy: actor.user.id,
+        version: row.version + 1,
+      },
       { transaction },
     );
-    await recordAudit(actor, `exception.exclusion_${body.decision}`, `${code}/${date}`, { before, after: { exclusionStatus: body.decision, decisionReference: body.reference, decisionDate: body.decidedOn } }, transaction);
+    await recordAudit(
+      actor,
+      `exception.exclusion_${body.decision}`,
+      `${code}/${date}`,
+      {
+        before,
+        after: { exclusionStatus: body.decision, decisionReference: body.reference, decisionDate: body.decidedOn },
+      },
+      transaction,
+    );
     // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
-    if (before.exclusionStatus === "approved" || body.decision === "approved") await flagExclusionDecision(portfolio.id, date, actor, transaction);
+    if (before.exclusionStatus === "approved" || body.decision === "approved")
+      await flagExclusionDecision(portfolio.id, date, actor, transaction);
   });
   return (await currentReview(portfolio.id, date))!;
 }
 
-export async function addEvidence(code: string, date: string, file: { originalName: string; bytes: Buffer }, actor: SignedIn): Promise<Review> {
+export async function addEvidence(
+  code: string,
+  date: string,
+  file: { originalName: string; bytes: Buffer },
+  actor: SignedIn,
+): Promise<Review> {
   const { portfolio } = await findPortfolio(code);
   const name = plainFileName(file.originalName);
   if (file.bytes.length === 0) throw new BadRequestError("The file is empty.");
   const contentType = sniffEvidenceType(file.bytes, name);
-  if (!contentType) throw new AppError(415, "unsupported_media_type", "Evidence must be a PDF, PNG, JPEG, or a plain-text / CSV / e-mail text file.");
+  if (!contentType)
+    throw new AppError(
+      415,
+      "unsupported_media_type",
+      "Evidence must be a PDF, PNG, JPEG, or a plain-text / CSV / e-mail text file.",
+    );
   const review = await ExceptionReviewModel.findOne({ where: { portfolioId: portfolio.id, businessDate: date } });
   if (!review) throw new ConflictError("Write the review first; evidence is attached to a review.");
   await sequelize.transaction(async (transaction) => {
     const sha256 = createHash("sha256").update(file.bytes).digest("hex");
     const row = await EvidenceFileModel.create(
-      { reviewId: review.id, fileName: name, contentType, sizeBytes: file.bytes.length, sha256, content: file.bytes, uploadedBy: actor.user.id },
+      {
+        reviewId: review.id,
+        fileName: name,
+        contentType,
+        sizeBytes: file.bytes.length,
+        sha256,
+        content: file.bytes,
+        uploadedBy: actor.user.id,
+      },
       { transaction },
     );
-    await recordAudit(actor, "exception.evidence", `${code}/${date}`, { after: { id: row.id, fileName: name, contentType, sha256 } }, transaction);
+    await recordAudit(
+      actor,
+      "exception.evidence",
+      `${code}/${date}`,
+      { after: { id: row.id, fileName: name, contentType, sha256 } },
+      transaction,
+    );
   });
   return (await currentReview(portfolio.id, date))!;
 }

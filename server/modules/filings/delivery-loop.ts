@@ -12,7 +12,8 @@ export function startFilingDelivery(everyMs = 30_000): () => void {
     running = true;
     deliverPendingFilings()
       .then((n) => {
-        if (n.sent || n.refused) logger.info(`filing delivery: ${n.sent} sent, ${n.refused} refused, ${n.pending} still waiting`);
+        if (n.sent || n.refused)
+          logger.info(`filing delivery: ${n.sent} sent, ${n.refused} refused, ${n.pending} still waiting`);
       })
       .catch((err) => logger.error(`filing delivery failed: ${(err as Error).message}`))
       .finally(() => {

@@ -29,10 +29,20 @@ async function visibleEntityIds(actor: SignedIn): Promise<number[] | null> {
 }
 
 async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
-  const snapshots = new Map((await SnapshotModel.findAll({ where: { id: rows.map((r) => r.snapshotId) } })).map((s) => [s.id, s]));
-  const entities = new Map((await EntityModel.findAll({ where: { id: [...new Set([...snapshots.values()].map((s) => s.entityId))] } })).map((e) => [e.id, e]));
-  const userIds = [...new Set(rows.flatMap((r) => [r.sentBy, r.acknowledgedBy]).filter((v): v is number => v !== null))];
-  const emails = new Map((await UserModel.findAll({ where: { id: userIds }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+  const snapshots = new Map(
+    (await SnapshotModel.findAll({ where: { id: rows.map((r) => r.snapshotId) } })).map((s) => [s.id, s]),
+  );
+  const entities = new Map(
+    (await EntityModel.findAll({ where: { id: [...new Set([...snapshots.values()].map((s) => s.entityId))] } })).map(
+      (e) => [e.id, e],
+    ),
+  );
+  const userIds = [
+    ...new Set(rows.flatMap((r) => [r.sentBy, r.acknowledgedBy]).filter((v): v is number => v !== null)),
+  ];
+  const emails = new Map(
+    (await UserModel.findAll({ where: { id: userIds }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+  );
   return rows.map((r) => {
     const s = snapshots.get(r.snapshotId)!;
     const e = entities.get(s.entityId)!;
@@ -79,7 +89,10 @@ async function visibleFiling(id: number, actor: SignedIn, scope?: "withPack"): P
 
 /** The sha256 recorded in the audit log when the pack was sent: a second witness beside the filing row. */
 async function sentSha256(snapshotId: number): Promise<string | null> {
-  const event = await AuditEventModel.findOne({ where: { action: "snapshot.file", target: `snapshot #${snapshotId}` }, order: [["id", "DESC"]] });
+  const event = await AuditEventModel.findOne({
+    where: { action: "snapshot.file", target: `snapshot #${snapshotId}` },
+    order: [["id", "DESC"]],
+  });
   const after = event?.afterJson ? (JSON.parse(event.afterJson) as { sha256?: string }) : null;
   return after?.sha256 ?? null;
 }
@@ -116,23 +129,50 @@ export type DeliveryOutcome = "sent" | "pending" | "refused";
  * The server refused it (an address it will never accept): the filing is withdrawn and the
  * snapshot stays approved. The filing row is locked meanwhile, so two rounds never send one pack twice.
  */
-export async function deliverFiling(filingId: number, actor: SignedIn): Promise<{ outcome: DeliveryOutcome; error?: MailNotSentError }> {
+export async function deliverFiling(
+  filingId: number,
+  actor: SignedIn,
+): Promise<{ outcome: DeliveryOutcome; error?: MailNotSentError }> {
   return sequelize.transaction(async (transaction) => {
-    const filing = await FilingModel.scope("withPack").findByPk(filingId, { transaction, lock: transaction.LOCK.UPDATE, skipLocked: true });
+    const filing = await FilingModel.scope("withPack").findByPk(filingId, {
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+      skipLocked: true,
+    });
     if (!filing || filing.delivery === "sent") return { outcome: "sent" as const };
     const snapshot = (await SnapshotModel.findByPk(filing.snapshotId, { transaction, lock: transaction.LOCK.UPDATE }))!;
     const entity = (await EntityModel.findByPk(snapshot.entityId, { transaction }))!;
     const filedBy = (await UserModel.findByPk(filing.sentBy, { transaction }))?.email ?? "the chief risk officer";
     try {
       const messageId = await sendMail(packMail(entity, snapshot, filing, filedBy));
-      await filing.update({ delivery: "sent", messageId, sentAt: new Date(), attempts: filing.attempts + 1, lastError: null }, { transaction });
-      await recordFiled(snapshot, `Pack ${filing.packSha256.slice(0, 12)}… sent to ${(JSON.parse(filing.recipientsJson) as string[]).join(", ")}`, actor, transaction);
-      await recordAudit(actor, "filing.sent", `filing #${filing.id}`, { after: { messageId, attempts: filing.attempts } }, transaction);
+      await filing.update(
+        { delivery: "sent", messageId, sentAt: new Date(), attempts: filing.attempts + 1, lastError: null },
+        { transaction },
+      );
+      await recordFiled(
+        snapshot,
+        `Pack ${filing.packSha256.slice(0, 12)}… sent to ${(JSON.parse(filing.recipientsJson) as string[]).join(", ")}`,
+        actor,
+        transaction,
+      );
+      await recordAudit(
+        actor,
+        "filing.sent",
+        `filing #${filing.id}`,
+        { after: { messageId, attempts: filing.attempts } },
+        transaction,
+      );
       return { outcome: "sent" as const };
     } catch (err) {
       if (!(err instanceof MailNotSentError)) throw err;
       if (err.permanent) {
-        await recordAudit(actor, "filing.refused", `filing #${filing.id}`, { after: { reason: err.reason } }, transaction);
+        await recordAudit(
+          actor,
+          "filing.refused",
+          `filing #${filing.id}`,
+          { after: { reason: err.reason } },
+          transaction,
+        );
         await filing.destroy({ transaction });
         return { outcome: "refused" as const, error: err };
       }
@@ -145,10 +185,18 @@ export async function deliverFiling(filingId: number, actor: SignedIn): Promise<
 /** One round of the delivery loop: every pending filing, oldest first. */
 export async function deliverPendingFilings(): Promise<Record<DeliveryOutcome, number>> {
   const counts: Record<DeliveryOutcome, number> = { sent: 0, pending: 0, refused: 0 };
-  const pending = await FilingModel.findAll({ where: { delivery: "pending" }, attributes: ["id", "sentBy"], order: [["id", "ASC"]] });
+  const pending = await FilingModel.findAll({
+    where: { delivery: "pending" },
+    attributes: ["id", "sentBy"],
+    order: [["id", "ASC"]],
+  });
   for (const f of pending) {
     const filer = await UserModel.findByPk(f.sentBy);
-    const actor = { user: filer ? toSessionUser(filer) : { id: f.sentBy, email: "unknown", name: "unknown", role: "cro" as const }, ip: "127.0.0.1", requestId: "filing-delivery" };
+    const actor = {
+      user: filer ? toSessionUser(filer) : { id: f.sentBy, email: "unknown", name: "unknown", role: "cro" as const },
+      ip: "127.0.0.1",
+      requestId: "filing-delivery",
+    };
     counts[(await deliverFiling(f.id, actor)).outcome]++;
   }
   return counts;
@@ -161,17 +209,29 @@ export async function deliverPendingFilings(): Promise<Record<DeliveryOutcome, n
  * and the delivery loop sends it once the server is back; if it refuses the address, the filing
  * is withdrawn and nothing was sent.
  */
-export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise<{ filing: Filing; delivered: boolean }> {
+export async function fileSnapshot(
+  snapshotId: number,
+  actor: SignedIn,
+): Promise<{ filing: Filing; delivered: boolean }> {
   const filingId = await sequelize.transaction(async (transaction) => {
     const { entity, asFiled } = await lockForFiling(snapshotId, transaction);
     const waiting = await FilingModel.findOne({ where: { snapshotId }, transaction });
-    if (waiting) throw new ConflictError(`Snapshot #${snapshotId} is already filed (filing #${waiting.id}, ${waiting.delivery === "pending" ? "waiting for the mail server" : "sent"}).`, { filingId: waiting.id });
+    if (waiting)
+      throw new ConflictError(
+        `Snapshot #${snapshotId} is already filed (filing #${waiting.id}, ${waiting.delivery === "pending" ? "waiting for the mail server" : "sent"}).`,
+        { filingId: waiting.id },
+      );
     // Only figures that still match their seal go to a supervisor.
     const seal = await verifySnapshot(snapshotId, actor);
-    if (!seal.valid) throw new ConflictError(`Snapshot #${snapshotId} does not verify, so it cannot be filed: ${seal.detail}`);
+    if (!seal.valid)
+      throw new ConflictError(`Snapshot #${snapshotId} does not verify, so it cannot be filed: ${seal.detail}`);
     const recipients = entity.supervisorEmails;
     if (recipients.length === 0) {
-      throw new AppError(422, "no_supervisor_contacts", `${entity.code} has no supervisor e-mail address; an admin adds one under Admin › Entities before filing.`);
+      throw new AppError(
+        422,
+        "no_supervisor_contacts",
+        `${entity.code} has no supervisor e-mail address; an admin adds one under Admin › Entities before filing.`,
+      );
     }
     const pack = await renderSnapshotPack(asFiled);
     const packSha256 = sha256(pack);
@@ -193,7 +253,13 @@ export async function fileSnapshot(snapshotId: number, actor: SignedIn): Promise
       },
       { transaction },
     );
-    await recordAudit(actor, "snapshot.file", `snapshot #${snapshotId}`, { before: { status: "approved" }, after: { filing: filing.id, recipients, sha256: packSha256 } }, transaction);
+    await recordAudit(
+      actor,
+      "snapshot.file",
+      `snapshot #${snapshotId}`,
+      { before: { status: "approved" }, after: { filing: filing.id, recipients, sha256: packSha256 } },
+      transaction,
+    );
     return filing.id;
   });
   const { outcome, error } = await deliverFiling(filingId, actor);
@@ -207,13 +273,20 @@ export async function listFilings(actor: SignedIn): Promise<Filing[]> {
   let rows = await FilingModel.findAll({ order: [["id", "DESC"]] });
   if (allowed) {
     rows = rows.filter((r) => r.delivery === "sent"); // a supervisor has only what reached them
-    const entityOf = new Map((await SnapshotModel.findAll({ where: { id: rows.map((r) => r.snapshotId) }, attributes: ["id", "entityId"] })).map((s) => [s.id, s.entityId]));
+    const entityOf = new Map(
+      (
+        await SnapshotModel.findAll({ where: { id: rows.map((r) => r.snapshotId) }, attributes: ["id", "entityId"] })
+      ).map((s) => [s.id, s.entityId]),
+    );
     rows = rows.filter((r) => allowed.includes(entityOf.get(r.snapshotId)!));
   }
   return toDtos(rows);
 }
 
-export async function filingPack(id: number, actor: SignedIn): Promise<{ fileName: string; bytes: Buffer; sha256: string }> {
+export async function filingPack(
+  id: number,
+  actor: SignedIn,
+): Promise<{ fileName: string; bytes: Buffer; sha256: string }> {
   const row = await visibleFiling(id, actor, "withPack");
   return { fileName: row.fileName, bytes: row.packPdf, sha256: row.packSha256 };
 }
@@ -226,7 +299,13 @@ export async function acknowledgeFiling(id: number, actor: SignedIn): Promise<Fi
     if (!row) throw new NotFoundError(`No filing #${id}.`);
     if (row.acknowledgedAt) return;
     await row.update({ acknowledgedBy: actor.user.id, acknowledgedAt: new Date() }, { transaction });
-    await recordAudit(actor, "filing.acknowledge", `filing #${id}`, { after: { acknowledgedBy: actor.user.email } }, transaction);
+    await recordAudit(
+      actor,
+      "filing.acknowledge",
+      `filing #${id}`,
+      { after: { acknowledgedBy: actor.user.email } },
+      transaction,
+    );
   });
   return (await toDtos([(await FilingModel.findByPk(id))!]))[0];
 }
@@ -238,16 +317,28 @@ export async function verifyFiling(id: number, actor: SignedIn): Promise<FilingV
   const chain = await verifySnapshot(row.snapshotId, actor);
   const witnessed = await sentSha256(row.snapshotId);
   if (witnessed !== row.packSha256) {
-    return { valid: false, sha256: row.packSha256, snapshotHash: chain.hash, detail: "The filing's sha256 differs from the one recorded in the audit log when the pack was sent." };
+    return {
+      valid: false,
+      sha256: row.packSha256,
+      snapshotHash: chain.hash,
+      detail: "The filing's sha256 differs from the one recorded in the audit log when the pack was sent.",
+    };
   }
   if (recomputed !== row.packSha256) {
-    return { valid: false, sha256: row.packSha256, snapshotHash: chain.hash, detail: `The kept pack no longer has the sha256 that was sent (it gives ${recomputed.slice(0, 12)}…).` };
+    return {
+      valid: false,
+      sha256: row.packSha256,
+      snapshotHash: chain.hash,
+      detail: `The kept pack no longer has the sha256 that was sent (it gives ${recomputed.slice(0, 12)}…).`,
+    };
   }
   return {
     valid: chain.valid,
     sha256: row.packSha256,
     snapshotHash: chain.hash,
-    detail: chain.valid ? `The pack is the file that was sent, and its snapshot verifies: ${chain.detail}` : `The pack is the file that was sent, but its snapshot does not verify: ${chain.detail}`,
+    detail: chain.valid
+      ? `The pack is the file that was sent, and its snapshot verifies: ${chain.detail}`
+      : `The pack is the file that was sent, but its snapshot does not verify: ${chain.detail}`,
   };
 }
 

@@ -31,11 +31,21 @@ export interface FindingInputs {
 }
 
 /** Reads what the checks need; with `outside`, the days inside that span are left to the caller. */
-export async function loadFindingInputs(portfolioIds: number[], options: { transaction?: Transaction; outside?: { from: string; to: string } } = {}): Promise<FindingInputs[]> {
+export async function loadFindingInputs(
+  portfolioIds: number[],
+  options: { transaction?: Transaction; outside?: { from: string; to: string } } = {},
+): Promise<FindingInputs[]> {
   const { transaction, outside } = options;
   const portfolios = await PortfolioModel.findAll({ where: { id: portfolioIds }, transaction });
-  const holidays = await HolidayModel.findAll({ where: { entityId: [...new Set(portfolios.map((p) => p.entityId))] }, transaction });
-  const series = await loadQualitySeries(portfolios.map((p) => p.id), outside, transaction);
+  const holidays = await HolidayModel.findAll({
+    where: { entityId: [...new Set(portfolios.map((p) => p.entityId))] },
+    transaction,
+  });
+  const series = await loadQualitySeries(
+    portfolios.map((p) => p.id),
+    outside,
+    transaction,
+  );
   return portfolios.map((p) => ({
     portfolioId: p.id,
     holidays: new Set(holidays.filter((h) => h.entityId === p.entityId).map((h) => h.date)),
@@ -51,7 +61,10 @@ export interface PortfolioFindings {
 const byDate = (a: QualityDay, b: QualityDay) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0);
 
 /** Runs the data-quality checks of one portfolio (no database): on its stored days, plus the days inside the span when a commit holds them. */
-export function checkFindings({ portfolioId, holidays, stored }: FindingInputs, inside?: ReadonlyMap<number, QualityDay[]>): PortfolioFindings {
+export function checkFindings(
+  { portfolioId, holidays, stored }: FindingInputs,
+  inside?: ReadonlyMap<number, QualityDay[]>,
+): PortfolioFindings {
   const held = inside?.get(portfolioId);
   const series = held ? [...stored, ...held].sort(byDate) : stored;
   return { portfolioId, found: findDataQualityIssues(series, holidays) };
@@ -65,7 +78,12 @@ export function checkFindings({ portfolioId, holidays, stored }: FindingInputs, 
 export async function applyFindings(results: readonly PortfolioFindings[], transaction: Transaction): Promise<void> {
   if (results.length === 0) return;
   // One locking read for all the portfolios, not one per portfolio.
-  const all = await DataFindingModel.findAll({ where: { portfolioId: results.map((r) => r.portfolioId) }, order: [["id", "ASC"]], transaction, lock: transaction.LOCK.UPDATE });
+  const all = await DataFindingModel.findAll({
+    where: { portfolioId: results.map((r) => r.portfolioId) },
+    order: [["id", "ASC"]],
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
   for (const { portfolioId, found } of results) {
     const existing = all.filter((f) => f.portfolioId === portfolioId);
     const byKey = new Map(existing.map((f) => [`${f.kind}|${f.dateFrom}`, f]));
@@ -76,18 +94,43 @@ export async function applyFindings(results: readonly PortfolioFindings[], trans
       seen.add(key);
       const stored = byKey.get(key);
       if (!stored) {
-        fresh.push({ portfolioId, kind: f.kind, dateFrom: f.from, dateTo: f.to, detail: f.detail.slice(0, 500), note: null, closedBy: null, closedAt: null });
+        fresh.push({
+          portfolioId,
+          kind: f.kind,
+          dateFrom: f.from,
+          dateTo: f.to,
+          detail: f.detail.slice(0, 500),
+          note: null,
+          closedBy: null,
+          closedAt: null,
+        });
       } else if (stored.status === "resolved" && stored.closedBy === null) {
         // The data had cleared it and now shows it again: open once more.
-        await stored.update({ status: "open", note: null, closedAt: null, dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
+        await stored.update(
+          {
+            status: "open",
+            note: null,
+            closedAt: null,
+            dateTo: f.to,
+            detail: f.detail.slice(0, 500),
+            version: stored.version + 1,
+          },
+          { transaction },
+        );
       } else if (stored.dateTo !== f.to || stored.detail !== f.detail) {
-        await stored.update({ dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 }, { transaction });
+        await stored.update(
+          { dateTo: f.to, detail: f.detail.slice(0, 500), version: stored.version + 1 },
+          { transaction },
+        );
       }
     }
     if (fresh.length) await DataFindingModel.bulkCreate(fresh, { transaction });
     for (const stored of existing) {
       if (!seen.has(`${stored.kind}|${stored.dateFrom}`) && stored.status === "open") {
-        await stored.update({ status: "resolved", note: "Cleared by later data.", closedAt: new Date(), version: stored.version + 1 }, { transaction });
+        await stored.update(
+          { status: "resolved", note: "Cleared by later data.", closedAt: new Date(), version: stored.version + 1 },
+          { transaction },
+        );
       }
     }
   }
@@ -98,8 +141,15 @@ export async function applyFindings(results: readonly PortfolioFindings[], trans
  * findings in line (for calendar changes; a commit runs the three steps itself, so that the
  * checks run while its rows are written).
  */
-export async function refreshFindings(portfolioIds: number[], options: { transaction?: Transaction } = {}): Promise<void> {
-  const run = async (transaction: Transaction) => applyFindings((await loadFindingInputs(portfolioIds, { transaction })).map((input) => checkFindings(input)), transaction);
+export async function refreshFindings(
+  portfolioIds: number[],
+  options: { transaction?: Transaction } = {},
+): Promise<void> {
+  const run = async (transaction: Transaction) =>
+    applyFindings(
+      (await loadFindingInputs(portfolioIds, { transaction })).map((input) => checkFindings(input)),
+      transaction,
+    );
   await (options.transaction ? run(options.transaction) : sequelize.transaction(run));
 }
 
@@ -125,14 +175,28 @@ async function toFindings(rows: DataFindingModel[]): Promise<Finding[]> {
   });
 }
 
-export async function listFindings(query: { entity?: string; portfolio?: string; status?: "open" | "resolved" | "explained" }): Promise<Finding[]> {
+export async function listFindings(query: {
+  entity?: string;
+  portfolio?: string;
+  status?: "open" | "resolved" | "explained";
+}): Promise<Finding[]> {
   const where: WhereOptions = query.status ? { status: query.status } : {};
   const portfolioWhere: WhereOptions = query.portfolio ? { code: query.portfolio.toUpperCase() } : {};
   const entityWhere: WhereOptions = query.entity ? { code: query.entity.toUpperCase() } : {};
   const rows = await DataFindingModel.findAll({
     where,
-    include: [{ model: PortfolioModel, as: "portfolio", where: portfolioWhere, include: [{ model: EntityModel, as: "entity", where: entityWhere }] }],
-    order: [["dateFrom", "DESC"], ["id", "DESC"]],
+    include: [
+      {
+        model: PortfolioModel,
+        as: "portfolio",
+        where: portfolioWhere,
+        include: [{ model: EntityModel, as: "entity", where: entityWhere }],
+      },
+    ],
+    order: [
+      ["dateFrom", "DESC"],
+      ["id", "DESC"],
+    ],
     limit: 1000,
   });
   return toFindings(rows);
@@ -144,13 +208,25 @@ export async function closeFinding(id: number, body: CloseFindingBody, actor: Si
     const row = await DataFindingModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw new NotFoundError(`No finding #${id}.`);
     if (row.version !== body.version) {
-      throw new ConflictError(`Finding #${id} was changed by someone else (now version ${row.version}); reload and try again.`, {
-        currentVersion: row.version,
-      });
+      throw new ConflictError(
+        `Finding #${id} was changed by someone else (now version ${row.version}); reload and try again.`,
+        {
+          currentVersion: row.version,
+        },
+      );
     }
     const before = { status: row.status, note: row.note };
-    await row.update({ status: body.status, note: body.note, closedBy: actor.user.id, closedAt: new Date(), version: row.version + 1 }, { transaction });
-    await recordAudit(actor, `finding.${body.status}`, `finding #${id}`, { before, after: { status: body.status, note: body.note } }, transaction);
+    await row.update(
+      { status: body.status, note: body.note, closedBy: actor.user.id, closedAt: new Date(), version: row.version + 1 },
+      { transaction },
+    );
+    await recordAudit(
+      actor,
+      `finding.${body.status}`,
+      `finding #${id}`,
+      { before, after: { status: body.status, note: body.note } },
+      transaction,
+    );
     const reloaded = await DataFindingModel.findByPk(id, {
       include: [{ model: PortfolioModel, as: "portfolio", include: [{ model: EntityModel, as: "entity" }] }],
       transaction,

@@ -43,7 +43,12 @@ export async function loadCurrentDays(
   for (const r of rows) {
     const values = {} as Record<AmountColumn, number | null>;
     for (const c of AMOUNT_COLUMNS) values[c] = num(r[c]);
-    const day: StoredDay = { portfolioId: Number(r.portfolio_id), date: String(r.d), version: Number(r.version), values };
+    const day: StoredDay = {
+      portfolioId: Number(r.portfolio_id),
+      date: String(r.d),
+      version: Number(r.version),
+      values,
+    };
     out.set(`${day.portfolioId}|${day.date}`, day);
   }
   return out;
@@ -96,18 +101,42 @@ export class PipelinedWrites {
  * manuals, scoped to the one statement; about a tenth of a 100,000-row commit). The constraints
  * stay declared and checked for every other write.
  */
-export async function queueInsertVersions(writes: PipelinedWrites, rows: readonly NewVersion[], uploadId: number, heldPortfolios: ReadonlySet<number>): Promise<void> {
+export async function queueInsertVersions(
+  writes: PipelinedWrites,
+  rows: readonly NewVersion[],
+  uploadId: number,
+  heldPortfolios: ReadonlySet<number>,
+): Promise<void> {
   const firsts = rows.filter((r) => r.version === 1);
   const restated = firsts.length === rows.length ? [] : rows.filter((r) => r.version !== 1);
-  for (const [group, withVersion] of [[firsts, false], [restated, true]] as const) {
+  for (const [group, withVersion] of [
+    [firsts, false],
+    [restated, true],
+  ] as const) {
     for (let start = 0; start < group.length; start += INSERT_BATCH_ROWS) {
-      writes.send(insertBatch(group, start, Math.min(group.length, start + INSERT_BATCH_ROWS), withVersion, uploadId, heldPortfolios));
+      writes.send(
+        insertBatch(
+          group,
+          start,
+          Math.min(group.length, start + INSERT_BATCH_ROWS),
+          withVersion,
+          uploadId,
+          heldPortfolios,
+        ),
+      );
       await writes.flush();
     }
   }
 }
 
-function insertBatch(rows: readonly NewVersion[], start: number, end: number, withVersion: boolean, uploadId: number, heldPortfolios: ReadonlySet<number>): string {
+function insertBatch(
+  rows: readonly NewVersion[],
+  start: number,
+  end: number,
+  withVersion: boolean,
+  uploadId: number,
+  heldPortfolios: ReadonlySet<number>,
+): string {
   const present = AMOUNT_COLUMNS.filter((c) => {
     for (let i = start; i < end; i++) if (rows[i].row[c] !== null && rows[i].row[c] !== undefined) return true;
     return false;
@@ -118,7 +147,8 @@ function insertBatch(rows: readonly NewVersion[], start: number, end: number, wi
   for (let i = start; i < end; i++) {
     const r = rows[i];
     if (r.portfolioId !== lastHeld) {
-      if (!heldPortfolios.has(r.portfolioId)) throw new Error(`refusing to write for portfolio #${r.portfolioId}, which this commit does not hold locked`);
+      if (!heldPortfolios.has(r.portfolioId))
+        throw new Error(`refusing to write for portfolio #${r.portfolioId}, which this commit does not hold locked`);
       lastHeld = r.portfolioId;
     }
     const date = r.row.date;
@@ -150,12 +180,18 @@ export function queueRetireVersions(writes: PipelinedWrites, keys: readonly Vers
       if (!ISO_DATE.test(k.date)) throw new Error(`refusing to write unchecked date ${k.date}`);
       return `(${k.portfolioId | 0},'${k.date}',${k.version | 0})`;
     });
-    writes.send(`UPDATE observations SET is_current = 0 WHERE (portfolio_id, business_date, version) IN (${tuples.join(",")})`);
+    writes.send(
+      `UPDATE observations SET is_current = 0 WHERE (portfolio_id, business_date, version) IN (${tuples.join(",")})`,
+    );
   }
 }
 
 /** One portfolio's current series, sorted by date, in the engine's shape. */
-export async function loadSeries(portfolioId: number, from?: string, to?: string): Promise<(Observation & { version: number })[]> {
+export async function loadSeries(
+  portfolioId: number,
+  from?: string,
+  to?: string,
+): Promise<(Observation & { version: number })[]> {
   const rows = await sequelize.query<Record<string, unknown>>(
     `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
        FROM observations
@@ -190,7 +226,11 @@ export interface QualityDay {
  * The four columns the data-quality checks read, for each portfolio's current series (sorted);
  * with `outside`, only the days before or after that span (the caller knows the days inside it).
  */
-export async function loadQualitySeries(portfolioIds: readonly number[], outside?: { from: string; to: string }, transaction?: Transaction): Promise<Map<number, QualityDay[]>> {
+export async function loadQualitySeries(
+  portfolioIds: readonly number[],
+  outside?: { from: string; to: string },
+  transaction?: Transaction,
+): Promise<Map<number, QualityDay[]>> {
   const out = new Map<number, QualityDay[]>(portfolioIds.map((id) => [id, []]));
   if (portfolioIds.length === 0) return out;
   const span = outside ? " AND (current_day < :from OR current_day > :to)" : "";
@@ -199,6 +239,7 @@ export async function loadQualitySeries(portfolioIds: readonly number[], outside
        FROM observations WHERE portfolio_id IN (:ids) AND current_day IS NOT NULL${span} ORDER BY portfolio_id, current_day`,
     { replacements: { ids: portfolioIds, from: outside?.from, to: outside?.to }, type: QueryTypes.SELECT, transaction },
   );
-  for (const r of rows) out.get(Number(r.p))?.push({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v) });
+  for (const r of rows)
+    out.get(Number(r.p))?.push({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v) });
   return out;
 }

@@ -28,8 +28,12 @@ export class OutboxUnavailableError extends AppError {
 
 /** The sink's folder, or the reason there is none to show: never in production, never unconfigured. */
 function assertOutboxAvailable(): string {
-  if (config.isProduction) throw new OutboxUnavailableError("this server runs with NODE_ENV=production, where e-mail goes to the real mail server.");
-  if (!config.mailSinkDir) throw new OutboxUnavailableError("no local mail sink folder is configured (MAIL_SINK_DIR is empty).");
+  if (config.isProduction)
+    throw new OutboxUnavailableError(
+      "this server runs with NODE_ENV=production, where e-mail goes to the real mail server.",
+    );
+  if (!config.mailSinkDir)
+    throw new OutboxUnavailableError("no local mail sink folder is configured (MAIL_SINK_DIR is empty).");
   return config.mailSinkDir;
 }
 
@@ -49,14 +53,20 @@ interface StoredFile {
 async function readStoredFile(folder: string, id: string): Promise<StoredFile> {
   if (!OUTBOX_ID_PATTERN.test(id)) throw new NotFoundError("There is no message with this id in the outbox.");
   const file = path.resolve(folder, `${id}${EML}`);
-  if (path.dirname(file) !== path.resolve(folder)) throw new NotFoundError("There is no message with this id in the outbox.");
+  if (path.dirname(file) !== path.resolve(folder))
+    throw new NotFoundError("There is no message with this id in the outbox.");
   const handle = await open(file, constants.O_RDONLY | constants.O_NOFOLLOW).catch(() => null);
   if (!handle) throw new NotFoundError(`There is no message ${id} in the outbox.`);
   try {
     const stat = await handle.stat();
     if (!stat.isFile()) throw new NotFoundError(`There is no message ${id} in the outbox.`);
     const base = { id, size: stat.size, storedAt: stat.mtime };
-    if (stat.size > MAX_MESSAGE_BYTES) return { ...base, bytes: null, problem: `The file is larger than ${MAX_MESSAGE_BYTES / 1024 / 1024} MB; open it by hand.` };
+    if (stat.size > MAX_MESSAGE_BYTES)
+      return {
+        ...base,
+        bytes: null,
+        problem: `The file is larger than ${MAX_MESSAGE_BYTES / 1024 / 1024} MB; open it by hand.`,
+      };
     return { ...base, bytes: await handle.readFile(), problem: null };
   } finally {
     await handle.close();
@@ -64,7 +74,9 @@ async function readStoredFile(folder: string, id: string): Promise<StoredFile> {
 }
 
 const mailboxes = (field: AddressObject | AddressObject[] | undefined) =>
-  (Array.isArray(field) ? field : field ? [field] : []).flatMap((a) => a.value).flatMap((v) => (v.group ? v.group : [v]));
+  (Array.isArray(field) ? field : field ? [field] : [])
+    .flatMap((a) => a.value)
+    .flatMap((v) => (v.group ? v.group : [v]));
 
 /** Each address of a header as a person writes it: `Name <address>`, or the address alone. */
 const addressLines = (field: AddressObject | AddressObject[] | undefined): string[] =>
@@ -99,7 +111,8 @@ async function parseMessage(file: StoredFile): Promise<Parsed> {
   try {
     const mail = await simpleParser(file.bytes, { skipImageLinks: true, skipTextToHtml: true });
     const keys = new Set(mail.headerLines.map((h) => h.key));
-    if (!keys.has("from") && !keys.has("to")) return { ok: false, problem: "The file has no From or To header: it is not an e-mail message." };
+    if (!keys.has("from") && !keys.has("to"))
+      return { ok: false, problem: "The file has no From or To header: it is not an e-mail message." };
     return { ok: true, mail };
   } catch (err) {
     return { ok: false, problem: `The message could not be parsed (${(err as Error).message.slice(0, 160)}).` };
@@ -132,7 +145,10 @@ async function messageFiles(folder: string): Promise<{ id: string; storedAt: Dat
     if ((err as NodeJS.ErrnoException).code === "ENOENT") return [];
     throw err;
   }
-  const ids = entries.filter((e) => e.isFile() && e.name.endsWith(EML)).map((e) => e.name.slice(0, -EML.length)).filter((id) => OUTBOX_ID_PATTERN.test(id));
+  const ids = entries
+    .filter((e) => e.isFile() && e.name.endsWith(EML))
+    .map((e) => e.name.slice(0, -EML.length))
+    .filter((id) => OUTBOX_ID_PATTERN.test(id));
   const files: { id: string; storedAt: Date }[] = [];
   for (const id of ids) {
     // A file removed between the listing and this look is simply gone.
@@ -149,7 +165,9 @@ export async function listOutbox(): Promise<OutboxList> {
   const files = await messageFiles(folder);
   const messages: OutboxMessage[] = [];
   for (const { id } of files.slice(0, OUTBOX_LIST_LIMIT)) {
-    const file = await readStoredFile(folder, id).catch((err) => (err instanceof NotFoundError ? null : Promise.reject(err)));
+    const file = await readStoredFile(folder, id).catch((err) =>
+      err instanceof NotFoundError ? null : Promise.reject(err),
+    );
     if (file) messages.push(summaryOf(file, await parseMessage(file)));
   }
   return { folder, total: files.length, messages };
@@ -165,16 +183,25 @@ export async function readOutboxMessage(id: string): Promise<OutboxMessageDetail
 }
 
 /** The bytes of one attachment, exactly as the message carried them, with its type and hash. */
-export async function readOutboxAttachment(id: string, index: number): Promise<{ filename: string; contentType: string; sha256: string; bytes: Buffer }> {
+export async function readOutboxAttachment(
+  id: string,
+  index: number,
+): Promise<{ filename: string; contentType: string; sha256: string; bytes: Buffer }> {
   const file = await readStoredFile(assertOutboxAvailable(), id);
   const parsed = await parseMessage(file);
-  if (!parsed.ok) throw new NotFoundError(`Message ${id} cannot be read, so neither can its attachments: ${parsed.problem}`);
+  if (!parsed.ok)
+    throw new NotFoundError(`Message ${id} cannot be read, so neither can its attachments: ${parsed.problem}`);
   const attachment = parsed.mail.attachments[index];
-  if (!attachment) throw new NotFoundError(`Message ${id} has no attachment number ${index} (it has ${parsed.mail.attachments.length}).`);
+  if (!attachment)
+    throw new NotFoundError(
+      `Message ${id} has no attachment number ${index} (it has ${parsed.mail.attachments.length}).`,
+    );
   return {
     filename: safeFileName(attachment.filename, `attachment-${index}`),
     // A type that is not a plain type/subtype is served as bytes and nothing more.
-    contentType: /^[\w.+-]+\/[\w.+-]+$/.test(attachment.contentType) ? attachment.contentType : "application/octet-stream",
+    contentType: /^[\w.+-]+\/[\w.+-]+$/.test(attachment.contentType)
+      ? attachment.contentType
+      : "application/octet-stream",
     sha256: sha256(attachment.content),
     bytes: attachment.content,
   };
@@ -182,7 +209,8 @@ export async function readOutboxAttachment(id: string, index: number): Promise<{
 
 /** A download name without folders or control characters. */
 function safeFileName(name: string | undefined, fallback: string): string {
+  const folderless = path.basename((name ?? "").replace(/\\/g, "/"));
   // eslint-disable-next-line no-control-regex -- control characters are exactly what is removed
-  const base = path.basename((name ?? "").replace(/\\/g, "/")).replace(/[\u0000-\u001f\u007f"]/g, "").trim();
+  const base = folderless.replace(/[\u0000-\u001f\u007f"]/g, "").trim();
   return base && base !== "." && base !== ".." ? base.slice(0, 200) : fallback;
 }

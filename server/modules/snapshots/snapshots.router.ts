@@ -14,10 +14,15 @@ import * as snapshots from "./snapshots.service";
 export function snapshotsRouter() {
   const r = createGuardedRouter();
   r.get("/api/snapshots", async (req, res) => {
-    res.json(await snapshots.listSnapshots(parseInput(snapshotListQuerySchema, req.query, "query"), signedInActor(req)));
+    res.json(
+      await snapshots.listSnapshots(parseInput(snapshotListQuerySchema, req.query, "query"), signedInActor(req)),
+    );
   });
   r.post("/api/snapshots", async (req, res) => {
-    const { created, snapshot } = await snapshots.prepareSnapshot(parseInput(createSnapshotSchema, req.body), signedInActor(req));
+    const { created, snapshot } = await snapshots.prepareSnapshot(
+      parseInput(createSnapshotSchema, req.body),
+      signedInActor(req),
+    );
     res.status(created ? 201 : 200).json(snapshot);
   });
   r.get("/api/snapshots/:id", async (req, res) => {

@@ -39,7 +39,9 @@ const today = () => new Date().toISOString().slice(0, 10);
 async function emailsOf(ids: (number | null)[]): Promise<Map<number, string>> {
   const wanted = [...new Set(ids.filter((v): v is number => v !== null))];
   if (wanted.length === 0) return new Map();
-  return new Map((await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+  return new Map(
+    (await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+  );
 }
 
 async function openFindingsInQuarter(entityId: number, quarterEnd: string, transaction?: Transaction): Promise<number> {
@@ -80,7 +82,9 @@ async function toDto(row: SnapshotModel, entity?: EntityModel): Promise<Snapshot
     history,
     prevHash: row.prevHash,
     hash: row.hash,
-    restatedAfterSignOff: row.restatedAt ? { at: row.restatedAt.toISOString(), detail: row.restatementDetail ?? "" } : null,
+    restatedAfterSignOff: row.restatedAt
+      ? { at: row.restatedAt.toISOString(), detail: row.restatementDetail ?? "" }
+      : null,
     openFindings: await openFindingsInQuarter(row.entityId, row.quarterEnd),
     version: row.version,
   };
@@ -94,13 +98,20 @@ export async function listSnapshots(query: { entity?: string }, actor: SignedIn)
     where.entityId = entity.id;
   }
   if (readsSignedOffOnly(actor)) where.status = [...SIGNED_OFF];
-  const rows = await SnapshotModel.findAll({ where, order: [["quarterEnd", "DESC"], ["entityId", "ASC"]] });
+  const rows = await SnapshotModel.findAll({
+    where,
+    order: [
+      ["quarterEnd", "DESC"],
+      ["entityId", "ASC"],
+    ],
+  });
   return Promise.all(rows.map((r) => toDto(r)));
 }
 
 export async function getSnapshot(id: number, actor: SignedIn): Promise<Snapshot> {
   const row = await SnapshotModel.findByPk(id);
-  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status))) throw new NotFoundError(`No snapshot #${id}.`);
+  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status)))
+    throw new NotFoundError(`No snapshot #${id}.`);
   return toDto(row);
 }
 
@@ -130,7 +141,12 @@ export async function capitalHistory(code: string, actor: SignedIn): Promise<Cap
 // ---- the sign-off ----------------------------------------------------------------------------
 
 function event(actor: SignedIn, action: SnapshotEvent["action"], comment?: string | null): SnapshotEvent {
-  return { at: new Date().toISOString(), by: actor.user.email, action, comment: comment?.trim() ? comment.trim() : null };
+  return {
+    at: new Date().toISOString(),
+    by: actor.user.email,
+    action,
+    comment: comment?.trim() ? comment.trim() : null,
+  };
 }
 
 function withEvent(row: SnapshotModel, e: SnapshotEvent): string {
@@ -147,16 +163,26 @@ async function holdEntityData(entityId: number, transaction: Transaction): Promi
  * Locks a snapshot for a change. With `holdData`, the entity's portfolios are held first: locks
  * are always taken portfolios → entity → snapshot, the order an upload commit uses too.
  */
-async function lockSnapshot(id: number, transaction: Transaction, expectedVersion: number | undefined, options: { holdData: boolean }): Promise<{ row: SnapshotModel; entity: EntityModel }> {
+async function lockSnapshot(
+  id: number,
+  transaction: Transaction,
+  expectedVersion: number | undefined,
+  options: { holdData: boolean },
+): Promise<{ row: SnapshotModel; entity: EntityModel }> {
   const peek = await SnapshotModel.findByPk(id, { attributes: ["id", "entityId"], transaction });
   if (!peek) throw new NotFoundError(`No snapshot #${id}.`);
   if (options.holdData) await holdEntityData(peek.entityId, transaction);
   const row = await SnapshotModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!row) throw new NotFoundError(`No snapshot #${id}.`);
   if (expectedVersion !== undefined && expectedVersion !== row.version) {
-    throw new AppError(409, "stale", `Snapshot #${id} changed since you opened it (now version ${row.version}). Look at it again before acting.`, {
-      current: await toDto(row),
-    });
+    throw new AppError(
+      409,
+      "stale",
+      `Snapshot #${id} changed since you opened it (now version ${row.version}). Look at it again before acting.`,
+      {
+        current: await toDto(row),
+      },
+    );
   }
   // A locking read: the entity as it is now, not as this transaction's first read saw it.
   const entity = (await EntityModel.findByPk(row.entityId, { transaction, lock: transaction.LOCK.SHARE }))!;
@@ -191,17 +217,31 @@ async function refuseChangedInputs(row: SnapshotModel, entity: EntityModel, what
  * An analyst prepares (or, for a draft or returned snapshot, prepares again) an entity's figures
  * at a quarter end that has passed. A submitted or signed-off quarter cannot be prepared again.
  */
-export async function prepareSnapshot(body: CreateSnapshotBody, actor: SignedIn): Promise<{ created: boolean; snapshot: Snapshot }> {
+export async function prepareSnapshot(
+  body: CreateSnapshotBody,
+  actor: SignedIn,
+): Promise<{ created: boolean; snapshot: Snapshot }> {
   if (body.quarterEnd >= today()) {
-    throw new AppError(422, "quarter_not_ended", `${quarterLabel(body.quarterEnd)} has not ended yet: its snapshot can be prepared from ${body.quarterEnd} on, once the last day's data is in.`);
+    throw new AppError(
+      422,
+      "quarter_not_ended",
+      `${quarterLabel(body.quarterEnd)} has not ended yet: its snapshot can be prepared from ${body.quarterEnd} on, once the last day's data is in.`,
+    );
   }
   const entity = await EntityModel.findOne({ where: { code: body.entity } });
   if (!entity) throw new NotFoundError(`No entity ${body.entity}.`);
   return sequelize.transaction(async (transaction) => {
     await holdEntityData(entity.id, transaction);
-    const existing = await SnapshotModel.findOne({ where: { entityId: entity.id, quarterEnd: body.quarterEnd }, transaction, lock: transaction.LOCK.UPDATE });
+    const existing = await SnapshotModel.findOne({
+      where: { entityId: entity.id, quarterEnd: body.quarterEnd },
+      transaction,
+      lock: transaction.LOCK.UPDATE,
+    });
     if (existing && existing.status !== "draft" && existing.status !== "returned") {
-      throw new ConflictError(`${entity.code} ${quarterLabel(body.quarterEnd)} is already ${existing.status}: it cannot be prepared again.`, { snapshotId: existing.id });
+      throw new ConflictError(
+        `${entity.code} ${quarterLabel(body.quarterEnd)} is already ${existing.status}: it cannot be prepared again.`,
+        { snapshotId: existing.id },
+      );
     }
     const computed = await quarterFigures(entity, body.quarterEnd);
     const { figures } = computed;
@@ -226,15 +266,49 @@ export async function prepareSnapshot(body: CreateSnapshotBody, actor: SignedIn)
     let row: SnapshotModel;
     if (existing) {
       const before = { status: existing.status, inputsSha256: existing.inputsSha256, multiplier: existing.multiplier };
-      await existing.update({ ...values, historyJson: withEvent(existing, event(actor, "recomputed")), version: existing.version + 1 }, { transaction });
-      row = existing;
-      await recordAudit(actor, "snapshot.prepare", `snapshot #${row.id}`, { before, after: { status: "draft", inputsSha256: row.inputsSha256, multiplier: row.multiplier } }, transaction);
-    } else {
-      row = await SnapshotModel.create(
-        { ...values, entityId: entity.id, quarterEnd: body.quarterEnd, approvedBy: null, approvedAt: null, prevHash: null, hash: null, restatedAt: null, restatementDetail: null, historyJson: JSON.stringify([event(actor, "prepared")]) },
+      await existing.update(
+        { ...values, historyJson: withEvent(existing, event(actor, "recomputed")), version: existing.version + 1 },
         { transaction },
       );
-      await recordAudit(actor, "snapshot.prepare", `snapshot #${row.id}`, { after: { entity: entity.code, quarterEnd: body.quarterEnd, status: "draft", inputsSha256: row.inputsSha256, multiplier: row.multiplier } }, transaction);
+      row = existing;
+      await recordAudit(
+        actor,
+        "snapshot.prepare",
+        `snapshot #${row.id}`,
+        { before, after: { status: "draft", inputsSha256: row.inputsSha256, multiplier: row.multiplier } },
+        transaction,
+      );
+    } else {
+      row = await SnapshotModel.create(
+        {
+          ...values,
+          entityId: entity.id,
+          quarterEnd: body.quarterEnd,
+          approvedBy: null,
+          approvedAt: null,
+          prevHash: null,
+          hash: null,
+          restatedAt: null,
+          restatementDetail: null,
+          historyJson: JSON.stringify([event(actor, "prepared")]),
+        },
+        { transaction },
+      );
+      await recordAudit(
+        actor,
+        "snapshot.prepare",
+        `snapshot #${row.id}`,
+        {
+          after: {
+            entity: entity.code,
+            quarterEnd: body.quarterEnd,
+            status: "draft",
+            inputsSha256: row.inputsSha256,
+            multiplier: row.multiplier,
+          },
+        },
+        transaction,
+      );
     }
     return { created: !existing, snapshot: await toDto(row, entity) };
   });
@@ -243,14 +317,27 @@ export async function prepareSnapshot(body: CreateSnapshotBody, actor: SignedIn)
 export async function submitSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
   return sequelize.transaction(async (transaction) => {
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: true });
-    if (row.status !== "draft") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a draft can be submitted.`);
+    if (row.status !== "draft")
+      throw new ConflictError(`Snapshot #${id} is ${row.status}; only a draft can be submitted.`);
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "submitted");
     await row.update(
-      { status: "submitted", submittedBy: actor.user.id, submittedAt: new Date(), historyJson: withEvent(row, event(actor, "submitted", body.comment)), version: row.version + 1 },
+      {
+        status: "submitted",
+        submittedBy: actor.user.id,
+        submittedAt: new Date(),
+        historyJson: withEvent(row, event(actor, "submitted", body.comment)),
+        version: row.version + 1,
+      },
       { transaction },
     );
-    await recordAudit(actor, "snapshot.submit", `snapshot #${id}`, { before: { status: "draft" }, after: { status: "submitted", comment: body.comment ?? null } }, transaction);
+    await recordAudit(
+      actor,
+      "snapshot.submit",
+      `snapshot #${id}`,
+      { before: { status: "draft" }, after: { status: "submitted", comment: body.comment ?? null } },
+      transaction,
+    );
     return toDto(row, entity);
   });
 }
@@ -289,7 +376,10 @@ const sha256 = (text: string) => createHash("sha256").update(text).digest("hex")
 async function chainOf(entityId: number, transaction?: Transaction): Promise<SnapshotModel[]> {
   return SnapshotModel.findAll({
     where: { entityId, hash: { [Op.ne]: null } },
-    order: [["approvedAt", "ASC"], ["id", "ASC"]],
+    order: [
+      ["approvedAt", "ASC"],
+      ["id", "ASC"],
+    ],
     transaction,
     ...(transaction ? { lock: transaction.LOCK.SHARE } : {}),
   });
@@ -309,9 +399,13 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     await holdEntityData(peek.entityId, transaction);
     await EntityModel.findByPk(peek.entityId, { transaction, lock: transaction.LOCK.UPDATE });
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: false });
-    if (row.status !== "submitted") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be approved.`);
+    if (row.status !== "submitted")
+      throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be approved.`);
     if (row.preparedBy === actor.user.id || row.submittedBy === actor.user.id) {
-      throw new ForbiddenError("Four eyes: you prepared or submitted this snapshot, so someone else must approve it.", "four_eyes");
+      throw new ForbiddenError(
+        "Four eyes: you prepared or submitted this snapshot, so someone else must approve it.",
+        "four_eyes",
+      );
     }
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "approved");
@@ -324,7 +418,16 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     row.historyJson = withEvent(row, event(actor, "approved", body.comment));
     row.version = row.version + 1;
     await row.save({ transaction });
-    await recordAudit(actor, "snapshot.approve", `snapshot #${id}`, { before: { status: "submitted" }, after: { status: "approved", hash: row.hash, prevHash: row.prevHash, comment: body.comment ?? null } }, transaction);
+    await recordAudit(
+      actor,
+      "snapshot.approve",
+      `snapshot #${id}`,
+      {
+        before: { status: "submitted" },
+        after: { status: "approved", hash: row.hash, prevHash: row.prevHash, comment: body.comment ?? null },
+      },
+      transaction,
+    );
     return toDto(row, entity);
   });
 }
@@ -332,9 +435,23 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
 export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor: SignedIn): Promise<Snapshot> {
   return sequelize.transaction(async (transaction) => {
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: false });
-    if (row.status !== "submitted") throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be returned.`);
-    await row.update({ status: "returned", historyJson: withEvent(row, event(actor, "returned", body.comment)), version: row.version + 1 }, { transaction });
-    await recordAudit(actor, "snapshot.return", `snapshot #${id}`, { before: { status: "submitted" }, after: { status: "returned", comment: body.comment } }, transaction);
+    if (row.status !== "submitted")
+      throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be returned.`);
+    await row.update(
+      {
+        status: "returned",
+        historyJson: withEvent(row, event(actor, "returned", body.comment)),
+        version: row.version + 1,
+      },
+      { transaction },
+    );
+    await recordAudit(
+      actor,
+      "snapshot.return",
+      `snapshot #${id}`,
+      { before: { status: "submitted" }, after: { status: "returned", comment: body.comment } },
+      transaction,
+    );
     return toDto(row, entity);
   });
 }
@@ -343,34 +460,58 @@ export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor
  * Filing, step one: the approved snapshot, locked for the filing's transaction, with its DTO as
  * the pack will show it (status filed). Refuses one that is not approved (or already filed).
  */
-export async function lockForFiling(id: number, transaction: Transaction): Promise<{ row: SnapshotModel; entity: EntityModel; asFiled: Snapshot }> {
+export async function lockForFiling(
+  id: number,
+  transaction: Transaction,
+): Promise<{ row: SnapshotModel; entity: EntityModel; asFiled: Snapshot }> {
   const { row, entity } = await lockSnapshot(id, transaction, undefined, { holdData: false });
   if (row.status === "filed") throw new ConflictError(`Snapshot #${id} is already filed.`);
-  if (row.status !== "approved") throw new ConflictError(`Snapshot #${id} is ${row.status}; only an approved snapshot can be filed.`);
+  if (row.status !== "approved")
+    throw new ConflictError(`Snapshot #${id} is ${row.status}; only an approved snapshot can be filed.`);
   const dto = await toDto(row, entity);
   return { row, entity, asFiled: { ...dto, status: "filed" } };
 }
 
 /** Filing, last step: the snapshot is filed (its figures and hash do not change). */
-export async function recordFiled(row: SnapshotModel, detail: string, actor: SignedIn, transaction: Transaction): Promise<void> {
-  await row.update({ status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 }, { transaction });
+export async function recordFiled(
+  row: SnapshotModel,
+  detail: string,
+  actor: SignedIn,
+  transaction: Transaction,
+): Promise<void> {
+  await row.update(
+    { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
+    { transaction },
+  );
 }
 
 /** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */
 export async function verifySnapshot(id: number, actor: SignedIn): Promise<SnapshotVerify> {
   const row = await SnapshotModel.findByPk(id);
-  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status))) throw new NotFoundError(`No snapshot #${id}.`);
-  if (!row.hash) return { valid: false, hash: null, prevHash: null, detail: "Not signed off yet: there is no hash to verify." };
+  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status)))
+    throw new NotFoundError(`No snapshot #${id}.`);
+  if (!row.hash)
+    return { valid: false, hash: null, prevHash: null, detail: "Not signed off yet: there is no hash to verify." };
   const entity = (await EntityModel.findByPk(row.entityId))!;
   const recomputed = sha256(hashedContent(row, entity));
   if (recomputed !== row.hash) {
-    return { valid: false, hash: row.hash, prevHash: row.prevHash, detail: `The stored content no longer gives the stored hash (it gives ${recomputed.slice(0, 12)}…): the snapshot was altered after approval.` };
+    return {
+      valid: false,
+      hash: row.hash,
+      prevHash: row.prevHash,
+      detail: `The stored content no longer gives the stored hash (it gives ${recomputed.slice(0, 12)}…): the snapshot was altered after approval.`,
+    };
   }
   const chain = await chainOf(row.entityId);
   const at = chain.findIndex((s) => s.id === row.id);
   const expectedPrev = at > 0 ? chain[at - 1].hash : null;
   if (row.prevHash !== expectedPrev) {
-    return { valid: false, hash: row.hash, prevHash: row.prevHash, detail: "The link to the previously approved snapshot does not match: the chain was altered." };
+    return {
+      valid: false,
+      hash: row.hash,
+      prevHash: row.prevHash,
+      detail: "The link to the previously approved snapshot does not match: the chain was altered.",
+    };
   }
   return {
     valid: true,
@@ -399,10 +540,24 @@ const CHANGE_WORDS: Record<Change["kind"], string> = {
 
 /** The signed-off snapshots of the entities these portfolios belong to, locked, with each portfolio's entity and code. */
 async function signedOffOf(portfolioIds: number[], transaction: Transaction) {
-  const portfolios = await PortfolioModel.findAll({ where: { id: portfolioIds }, attributes: ["id", "entityId", "code"], transaction });
+  const portfolios = await PortfolioModel.findAll({
+    where: { id: portfolioIds },
+    attributes: ["id", "entityId", "code"],
+    transaction,
+  });
   const entityIds = [...new Set(portfolios.map((p) => p.entityId))];
-  const snapshots = entityIds.length ? await SnapshotModel.findAll({ where: { entityId: entityIds, status: [...SIGNED_OFF] }, transaction, lock: transaction.LOCK.UPDATE }) : [];
-  return { snapshots, entityOf: new Map(portfolios.map((p) => [p.id, p.entityId])), codeOf: new Map(portfolios.map((p) => [p.id, p.code])) };
+  const snapshots = entityIds.length
+    ? await SnapshotModel.findAll({
+        where: { entityId: entityIds, status: [...SIGNED_OFF] },
+        transaction,
+        lock: transaction.LOCK.UPDATE,
+      })
+    : [];
+  return {
+    snapshots,
+    entityOf: new Map(portfolios.map((p) => [p.id, p.entityId])),
+    codeOf: new Map(portfolios.map((p) => [p.id, p.code])),
+  };
 }
 
 /**
@@ -421,13 +576,18 @@ async function flagSignedOff(
     // A short window reaches back to the first day there is: a day added before it would join it.
     const complete = (JSON.parse(snapshot.figuresJson) as SnapshotFigures).window.complete;
     const from = complete ? (snapshot.windowStart ?? snapshot.asOf) : "0000-01-01";
-    const days = changes.filter((k) => k.date >= from && k.date <= snapshot.quarterEnd && found.entityOf.get(k.portfolioId) === snapshot.entityId);
+    const days = changes.filter(
+      (k) => k.date >= from && k.date <= snapshot.quarterEnd && found.entityOf.get(k.portfolioId) === snapshot.entityId,
+    );
     if (days.length === 0) continue;
     const counts = (Object.keys(CHANGE_WORDS) as Change["kind"][])
       .map((kind) => [kind, days.filter((d) => d.kind === kind).length] as const)
       .filter(([, n]) => n > 0);
     const what = counts.map(([kind, n]) => `${n} ${CHANGE_WORDS[kind]}`).join(", ");
-    const listed = days.slice(0, 5).map((k) => `${found.codeOf.get(k.portfolioId)} ${k.date}`).join(", ");
+    const listed = days
+      .slice(0, 5)
+      .map((k) => `${found.codeOf.get(k.portfolioId)} ${k.date}`)
+      .join(", ");
     const line = `${days.length} day${days.length === 1 ? "" : "s"} inside this snapshot's window changed by ${source}: ${what} (${listed}${days.length > 5 ? ", …" : ""}).`;
     await snapshot.update(
       {
@@ -438,23 +598,49 @@ async function flagSignedOff(
       },
       { transaction },
     );
-    await recordAudit(actor, "snapshot.restated", `snapshot #${snapshot.id}`, { after: { source, ...Object.fromEntries(counts) } }, transaction);
+    await recordAudit(
+      actor,
+      "snapshot.restated",
+      `snapshot #${snapshot.id}`,
+      { after: { source, ...Object.fromEntries(counts) } },
+      transaction,
+    );
     flagged++;
   }
   return flagged;
 }
 
 /** An upload wrote days — restated them, or filled days that had no data: flags the signed-off snapshots whose window holds them. */
-export async function flagChangedSnapshots(written: readonly WrittenDay[], uploadId: number, actor: SignedIn, transaction: Transaction): Promise<number> {
+export async function flagChangedSnapshots(
+  written: readonly WrittenDay[],
+  uploadId: number,
+  actor: SignedIn,
+  transaction: Transaction,
+): Promise<number> {
   if (written.length === 0) return 0;
   const found = await signedOffOf([...new Set(written.map((k) => k.portfolioId))], transaction);
   if (found.snapshots.length === 0) return 0;
-  const changes = written.map((k): Change => ({ portfolioId: k.portfolioId, date: k.row.date, kind: k.version > 1 ? "restated" : "added" }));
+  const changes = written.map((k): Change => ({
+    portfolioId: k.portfolioId,
+    date: k.row.date,
+    kind: k.version > 1 ? "restated" : "added",
+  }));
   return flagSignedOff(found, changes, `upload #${uploadId}`, actor, transaction);
 }
 
 /** The CRO recorded the supervisor's decision on an exclusion: the signed-off snapshots whose window holds that day are flagged. */
-export async function flagExclusionDecision(portfolioId: number, date: string, actor: SignedIn, transaction: Transaction): Promise<number> {
+export async function flagExclusionDecision(
+  portfolioId: number,
+  date: string,
+  actor: SignedIn,
+  transaction: Transaction,
+): Promise<number> {
   const found = await signedOffOf([portfolioId], transaction);
-  return flagSignedOff(found, [{ portfolioId, date, kind: "exclusion decided" }], `the exclusion decision recorded for ${date}`, actor, transaction);
+  return flagSignedOff(
+    found,
+    [{ portfolioId, date, kind: "exclusion decided" }],
+    `the exclusion decision recorded for ${date}`,
+    actor,
+    transaction,
+  );
 }

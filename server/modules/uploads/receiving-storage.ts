@@ -53,7 +53,12 @@ export function receivingStorage<Ref extends CsvReferenceData>(loadReferenceData
         file.stream.on("end", () => {
           gzip.end();
           const buffer = Buffer.concat(chunks, size);
-          const received: ReceivedFile<Ref> = { sha256: hash.digest("hex"), packed, ref, parse: () => parse.end(buffer) };
+          const received: ReceivedFile<Ref> = {
+            sha256: hash.digest("hex"),
+            packed,
+            ref,
+            parse: () => parse.end(buffer),
+          };
           done(null, { buffer, size, received } as Partial<Express.Multer.File>);
         });
         file.stream.resume();

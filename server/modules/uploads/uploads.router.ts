@@ -5,7 +5,6 @@ import { BadRequestError, parseInput } from "../../errors";
 import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
 import * as uploads from "./uploads.service";
 
-
 // Every limit set (multer defaults to unlimited); mounted on the upload route only. The storage
 // keeps the file in memory and checks it while it arrives.
 const single = multer({
@@ -25,7 +24,11 @@ export function uploadsRouter() {
 
   r.post("/api/uploads", single, async (req, res) => {
     if (!req.file) throw new BadRequestError('Attach the CSV file in the form field "file".');
-    const { originalname: originalName, buffer: bytes, received } = req.file as Express.Multer.File & Pick<uploads.IncomingFile, "received">;
+    const {
+      originalname: originalName,
+      buffer: bytes,
+      received,
+    } = req.file as Express.Multer.File & Pick<uploads.IncomingFile, "received">;
     res.status(201).json(await uploads.previewUpload({ originalName, bytes, received }, signedInActor(req)));
   });
 

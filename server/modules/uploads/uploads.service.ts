@@ -38,7 +38,16 @@ import {
   type ParsedCsv,
   type ParsedRow,
 } from "../../../shared/ingest/parse-csv";
-import { AMOUNT_COLUMNS, ALL_COLUMNS, type AmountColumn, type CommitResult, type RowError, type UploadPreview, type UploadRowsPage, type UploadSummary } from "../../../shared/schemas/upload";
+import {
+  AMOUNT_COLUMNS,
+  ALL_COLUMNS,
+  type AmountColumn,
+  type CommitResult,
+  type RowError,
+  type UploadPreview,
+  type UploadRowsPage,
+  type UploadSummary,
+} from "../../../shared/schemas/upload";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
 
@@ -87,19 +96,28 @@ function checkedParse(parse: () => ParsedCsv): ParsedCsv {
   try {
     return parse();
   } catch (err) {
-    if (err instanceof CsvFileError) throw new AppError(err.status, err.status === 415 ? "unsupported_media_type" : "invalid_file", err.message, { errors: err.errors });
+    if (err instanceof CsvFileError)
+      throw new AppError(err.status, err.status === 415 ? "unsupported_media_type" : "invalid_file", err.message, {
+        errors: err.errors,
+      });
     throw err;
   }
 }
 
-const parseFile = (bytes: Buffer, ref: CsvReferenceData) => checkedParse(() => parseObservationCsv(decodeCsvBytes(bytes), ref));
+const parseFile = (bytes: Buffer, ref: CsvReferenceData) =>
+  checkedParse(() => parseObservationCsv(decodeCsvBytes(bytes), ref));
 
 /** What receiving a file over HTTP does as it arrives (receiving-storage.ts), done at once for a file in hand. */
 async function receiveWhole(bytes: Buffer): Promise<ReceivedFile<Reference>> {
   const ref = await loadReferenceData();
   const packed = packBytesInBackground(bytes); // on libuv's threads while this one parses
   packed.catch(() => undefined);
-  return { sha256: createHash("sha256").update(bytes).digest("hex"), packed, ref, parse: () => parseObservationCsv(decodeCsvBytes(bytes), ref) };
+  return {
+    sha256: createHash("sha256").update(bytes).digest("hex"),
+    packed,
+    ref,
+    parse: () => parseObservationCsv(decodeCsvBytes(bytes), ref),
+  };
 }
 
 /** The storage the upload route receives files with: hashed, compressed and parsed as they arrive. */
@@ -145,7 +163,11 @@ function classify(rows: readonly ParsedRow[], ids: Map<string, number>, stored: 
 }
 
 /** Each portfolio's current days inside the committed span once the commit is written: the file's days, and the stored days it leaves as they are. */
-function currentDaysInSpan(rows: readonly ParsedRow[], ids: Map<string, number>, stored: Map<string, StoredDay>): Map<number, QualityDay[]> {
+function currentDaysInSpan(
+  rows: readonly ParsedRow[],
+  ids: Map<string, number>,
+  stored: Map<string, StoredDay>,
+): Map<number, QualityDay[]> {
   const byPortfolio = new Map<number, QualityDay[]>();
   const daysOf = (pid: number) => {
     let days = byPortfolio.get(pid);
@@ -162,11 +184,22 @@ function currentDaysInSpan(rows: readonly ParsedRow[], ids: Map<string, number>,
       portfolioId = ids.get(r.portfolio)!;
       days = daysOf(portfolioId);
     }
-    days.push({ date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null });
+    days.push({
+      date: r.date,
+      actualPnl: r.actual_pnl ?? null,
+      hypotheticalPnl: r.hypothetical_pnl ?? null,
+      var99: r.var_99 ?? null,
+    });
     if (stored.size) written.add(`${portfolioId}|${r.date}`);
   }
   for (const [key, day] of stored) {
-    if (!written.has(key)) daysOf(day.portfolioId).push({ date: day.date, actualPnl: day.values.actual_pnl, hypotheticalPnl: day.values.hypothetical_pnl, var99: day.values.var_99 });
+    if (!written.has(key))
+      daysOf(day.portfolioId).push({
+        date: day.date,
+        actualPnl: day.values.actual_pnl,
+        hypotheticalPnl: day.values.hypothetical_pnl,
+        var99: day.values.var_99,
+      });
   }
   return byPortfolio;
 }
@@ -183,7 +216,10 @@ function dateRange(rows: readonly ParsedRow[]): { from: string; to: string } | n
 }
 
 /** The span of days and the portfolios (ids, sorted) the rows write, in one pass. */
-function spanOf(rows: readonly ParsedRow[], ids: ReadonlyMap<string, number>): { range: { from: string; to: string } | null; portfolioIds: number[] } {
+function spanOf(
+  rows: readonly ParsedRow[],
+  ids: ReadonlyMap<string, number>,
+): { range: { from: string; to: string } | null; portfolioIds: number[] } {
   const portfolioIds = new Set<number>();
   let lastCode: string | undefined;
   for (const r of rows) {
@@ -195,7 +231,9 @@ function spanOf(rows: readonly ParsedRow[], ids: ReadonlyMap<string, number>): {
 }
 
 async function findCommittedTwin(sha256: string, exceptId?: number): Promise<UploadModel | null> {
-  return UploadModel.findOne({ where: { committedSha256: sha256, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}) } });
+  return UploadModel.findOne({
+    where: { committedSha256: sha256, ...(exceptId ? { id: { [Op.ne]: exceptId } } : {}) },
+  });
 }
 
 function duplicateError(twin: UploadModel): ConflictError {
@@ -207,15 +245,24 @@ function duplicateError(twin: UploadModel): ConflictError {
 
 /** The e-mail of each uploader and committer of these uploads, read once. */
 async function peopleOf(rows: readonly UploadModel[]): Promise<Map<number, string>> {
-  const ids = [...new Set(rows.flatMap((r) => (r.committedBy === null ? [r.uploadedBy] : [r.uploadedBy, r.committedBy])))];
-  return new Map((await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]));
+  const ids = [
+    ...new Set(rows.flatMap((r) => (r.committedBy === null ? [r.uploadedBy] : [r.uploadedBy, r.committedBy]))),
+  ];
+  return new Map(
+    (await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+  );
 }
 
 async function toPreview(row: UploadModel, people?: ReadonlyMap<number, string>): Promise<UploadPreview> {
   const known = people ?? (await peopleOf([row]));
   const emailOf = (id: number | null) => (id === null ? null : (known.get(id) ?? "unknown"));
   const summary = row.summaryJson
-    ? (JSON.parse(row.summaryJson) as { portfolios: string[]; from: string | null; to: string | null; errorCount: number })
+    ? (JSON.parse(row.summaryJson) as {
+        portfolios: string[];
+        from: string | null;
+        to: string | null;
+        errorCount: number;
+      })
     : null;
   const errors = row.errorsJson ? (JSON.parse(row.errorsJson) as RowError[]) : [];
   return {
@@ -262,7 +309,13 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
   const parsed = checkedParse(received.parse);
   const range = dateRange(parsed.rows);
   const portfolioCodes = [...new Set(parsed.rows.map((r) => r.portfolio))].sort();
-  const stored = range ? await loadCurrentDays(portfolioCodes.map((c) => ref.ids.get(c)!), range.from, range.to) : new Map();
+  const stored = range
+    ? await loadCurrentDays(
+        portfolioCodes.map((c) => ref.ids.get(c)!),
+        range.from,
+        range.to,
+      )
+    : new Map();
   const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored, false);
   const invalid = parsed.invalidLines.size;
 
@@ -284,13 +337,24 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         unchangedCount: unchanged,
         insertedCount: null,
         errorsJson: JSON.stringify(parsed.errors.slice(0, STORED_ERROR_CAP)),
-        summaryJson: JSON.stringify({ portfolios: portfolioCodes, from: range?.from ?? null, to: range?.to ?? null, errorCount: parsed.errors.length }),
+        summaryJson: JSON.stringify({
+          portfolios: portfolioCodes,
+          from: range?.from ?? null,
+          to: range?.to ?? null,
+          errorCount: parsed.errors.length,
+        }),
         committedAt: null,
       },
       { transaction },
     );
     await storePackedFile(created.id, await received.packed, transaction);
-    await recordAudit(actor, "upload.preview", `upload #${created.id}`, { after: { fileName, sha256, rows: parsed.totalRows, invalid, restated } }, transaction);
+    await recordAudit(
+      actor,
+      "upload.preview",
+      `upload #${created.id}`,
+      { after: { fileName, sha256, rows: parsed.totalRows, invalid, restated } },
+      transaction,
+    );
     return created;
   });
   if (invalid === 0) keepCheckedRows(row.id, sha256, parsed.rows);
@@ -313,7 +377,11 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     // The portfolio rows this commit holds: the only parents its rows may name (queueInsertVersions checks).
     const held = await lockPortfolios(lockedIds, "update", transaction);
     if (upload.invalidCount > 0) {
-      throw new AppError(422, "preview_has_errors", `Upload #${id} has ${upload.invalidCount} invalid row(s). Fix the file and upload it again; nothing was written.`);
+      throw new AppError(
+        422,
+        "preview_has_errors",
+        `Upload #${id} has ${upload.invalidCount} invalid row(s). Fix the file and upload it again; nothing was written.`,
+      );
     }
     const twin = await findCommittedTwin(upload.sha256, id);
     if (twin) throw duplicateError(twin);
@@ -322,10 +390,14 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     const ref = await loadReferenceData(transaction);
     const rows = checkedRowsOf(id, upload.sha256) ?? (await parseStoredFile(id, ref, transaction));
     if (recheckReferenceData(rows, ref).length) {
-      throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
+      throw new ConflictError(
+        "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
+      );
     }
     const { range, portfolioIds } = spanOf(rows, ref.ids);
-    const stored = range ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true) : new Map<string, StoredDay>();
+    const stored = range
+      ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true)
+      : new Map<string, StoredDay>();
     // What the checks need from the database is read before the writes are queued behind it.
     const findingInputs = range ? await loadFindingInputs(portfolioIds, { transaction, outside: range }) : [];
 
@@ -367,11 +439,19 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     } catch (err) {
       if (err instanceof UniqueConstraintError) {
         const other = await findCommittedTwin(upload.sha256, id);
-        throw other ? duplicateError(other) : new ConflictError("This exact file was committed by someone else a moment ago.");
+        throw other
+          ? duplicateError(other)
+          : new ConflictError("This exact file was committed by someone else a moment ago.");
       }
       throw err;
     }
-    await recordAudit(actor, "upload.commit", `upload #${id}`, { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } }, transaction);
+    await recordAudit(
+      actor,
+      "upload.commit",
+      `upload #${id}`,
+      { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } },
+      transaction,
+    );
     return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };
   });
   forgetCheckedRows(id);
@@ -379,12 +459,21 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
 }
 
 /** The preview's rows when this process no longer holds them: the stored file, parsed again. */
-async function parseStoredFile(id: number, ref: CsvReferenceData, transaction: Transaction): Promise<readonly ParsedRow[]> {
-  const withContent = await UploadModel.scope("withContent").findByPk(id, { attributes: ["id", "content"], transaction });
+async function parseStoredFile(
+  id: number,
+  ref: CsvReferenceData,
+  transaction: Transaction,
+): Promise<readonly ParsedRow[]> {
+  const withContent = await UploadModel.scope("withContent").findByPk(id, {
+    attributes: ["id", "content"],
+    transaction,
+  });
   if (!withContent?.content) throw new ConflictError(`Upload #${id} no longer holds its file; upload it again.`);
   const parsed = parseFile(unpackBytes(withContent.content), ref);
   if (parsed.errors.length) {
-    throw new ConflictError("The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.");
+    throw new ConflictError(
+      "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
+    );
   }
   return parsed.rows;
 }
@@ -393,7 +482,8 @@ export async function discardUpload(id: number, actor: SignedIn): Promise<void> 
   await sequelize.transaction(async (transaction) => {
     const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
-    if (upload.status !== "preview") throw new ConflictError(`Upload #${id} is ${upload.status}; only a preview can be discarded.`);
+    if (upload.status !== "preview")
+      throw new ConflictError(`Upload #${id} is ${upload.status}; only a preview can be discarded.`);
     upload.status = "discarded";
     upload.content = null;
     await upload.save({ transaction });
@@ -416,7 +506,10 @@ export async function getUpload(id: number): Promise<UploadPreview> {
 }
 
 /** A page of the uploaded file's rows as text, each with its errors: the preview table. */
-export async function getUploadRows(id: number, query: { offset: number; limit: number; invalidOnly: boolean }): Promise<UploadRowsPage> {
+export async function getUploadRows(
+  id: number,
+  query: { offset: number; limit: number; invalidOnly: boolean },
+): Promise<UploadRowsPage> {
   const upload = await UploadModel.scope("withContent").findByPk(id);
   if (!upload) throw new NotFoundError(`No upload #${id}.`);
   if (!upload.content) throw new ConflictError(`Upload #${id} was discarded; its rows are no longer kept.`);
@@ -461,5 +554,8 @@ export function templateCsv(): string {
     ses: null,
     rtpl: null,
   });
-  return serialiseObservationCsv([example("2026-09-29", -1250000.5, -1180000), example("2026-09-30", 860000, 910250.25)], ALL_COLUMNS);
+  return serialiseObservationCsv(
+    [example("2026-09-29", -1250000.5, -1180000), example("2026-09-30", 860000, 910250.25)],
+    ALL_COLUMNS,
+  );
 }

@@ -1,7 +1,12 @@
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { createUserBodySchema, resetPasswordBodySchema, updateUserBodySchema, userIdParamSchema } from "../../../shared/schemas/admin";
+import {
+  createUserBodySchema,
+  resetPasswordBodySchema,
+  updateUserBodySchema,
+  userIdParamSchema,
+} from "../../../shared/schemas/admin";
 import { createUser, listUsers, resetPassword, updateUser } from "./users.service";
 
 export function usersRouter() {

@@ -44,9 +44,14 @@ async function lockUserAtVersion(id: number, version: number, transaction: Trans
   const row = await UserModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!row) throw new NotFoundError(`No user with id ${id}.`);
   if (row.version !== version) {
-    throw new AppError(409, "stale", `Someone else changed ${row.name} (${row.email}) since you opened the list (now version ${row.version}). Look at the user again and apply your change if it is still needed.`, {
-      current: toUser(row),
-    });
+    throw new AppError(
+      409,
+      "stale",
+      `Someone else changed ${row.name} (${row.email}) since you opened the list (now version ${row.version}). Look at the user again and apply your change if it is still needed.`,
+      {
+        current: toUser(row),
+      },
+    );
   }
   return row;
 }
@@ -62,7 +67,10 @@ export async function createUser(input: CreateUserBody, actor: AdminActor): Prom
   }
   const passwordHash = await hashPassword(input.password);
   return sequelize.transaction(async (transaction) => {
-    const row = await UserModel.create({ email: input.email, name: input.name, role: input.role, passwordHash, lastSignInAt: null }, { transaction });
+    const row = await UserModel.create(
+      { email: input.email, name: input.name, role: input.role, passwordHash, lastSignInAt: null },
+      { transaction },
+    );
     const user = toUser(row);
     await recordAudit(actor, "user.create", user.email, { after: auditView(user) }, transaction);
     return user;
@@ -77,7 +85,9 @@ export async function updateUser(id: number, change: UpdateUserBody, actor: Admi
   return sequelize.transaction(async (transaction) => {
     const row = await lockUserAtVersion(id, change.version, transaction);
     const before = auditView(toUser(row));
-    const revokes = (change.role !== undefined && change.role !== row.role) || (change.disabled !== undefined && change.disabled !== row.disabled);
+    const revokes =
+      (change.role !== undefined && change.role !== row.role) ||
+      (change.disabled !== undefined && change.disabled !== row.disabled);
     if (change.name !== undefined) row.name = change.name;
     if (change.role !== undefined) row.role = change.role;
     if (change.disabled !== undefined) row.disabled = change.disabled;
@@ -86,7 +96,12 @@ export async function updateUser(id: number, change: UpdateUserBody, actor: Admi
     await row.save({ transaction });
     // Their API tokens end too, so that giving the role back later does not revive old ones.
     if (revokes && (row.disabled || !TOKEN_HOLDERS.includes(row.role))) {
-      await revokeApiTokensOf(row.id, row.disabled ? "account disabled" : `role changed to ${row.role}`, actor, transaction);
+      await revokeApiTokensOf(
+        row.id,
+        row.disabled ? "account disabled" : `role changed to ${row.role}`,
+        actor,
+        transaction,
+      );
     }
     const user = toUser(row);
     await recordAudit(actor, "user.update", user.email, { before, after: auditView(user) }, transaction);
@@ -94,7 +109,11 @@ export async function updateUser(id: number, change: UpdateUserBody, actor: Admi
   });
 }
 
-export async function resetPassword(id: number, { password, version }: ResetPasswordBody, actor: AdminActor): Promise<User> {
+export async function resetPassword(
+  id: number,
+  { password, version }: ResetPasswordBody,
+  actor: AdminActor,
+): Promise<User> {
   await findUser(id);
   const passwordHash = await hashPassword(password); // slow on purpose: outside the transaction
   return sequelize.transaction(async (transaction) => {

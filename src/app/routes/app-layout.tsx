@@ -1,5 +1,13 @@
 import { Suspense } from "react";
-import { Navigate, NavLink, Outlet, useLocation, useNavigate, useNavigation, type LoaderFunctionArgs } from "react-router-dom";
+import {
+  Navigate,
+  NavLink,
+  Outlet,
+  useLocation,
+  useNavigate,
+  useNavigation,
+  type LoaderFunctionArgs,
+} from "react-router-dom";
 import { useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { SessionUser } from "@shared/schemas/auth";
 import { mayOpen, navigation, paths } from "@/config/paths";
@@ -11,11 +19,12 @@ import { cn } from "@/lib/cn";
 import { requireUser } from "../require-user";
 import { CAUTION } from "../caution";
 
-export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
-  await requireUser(queryClient, request);
-  return null;
-};
-
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await requireUser(queryClient, request);
+    return null;
+  };
 
 export function MainNavigation({ user }: { user: SessionUser }) {
   const main = navigation.filter((n) => n.group === "main" && mayOpen(n.key, user.role));
@@ -75,7 +84,11 @@ function PendingBar() {
   const navigation = useNavigation();
   if (navigation.state === "idle") return null;
   return (
-    <div role="progressbar" aria-label="Loading page" className="fixed inset-x-0 top-0 z-50 h-0.5 overflow-hidden bg-accent-soft">
+    <div
+      role="progressbar"
+      aria-label="Loading page"
+      className="fixed inset-x-0 top-0 z-50 h-0.5 overflow-hidden bg-accent-soft"
+    >
       <div className="h-full w-1/3 animate-pulse bg-accent" />
     </div>
   );
@@ -89,7 +102,10 @@ export default function AppLayout() {
   return (
     <div className="flex min-h-screen flex-col">
       <PendingBar />
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:bg-paper-raised focus:px-2 focus:py-1">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:bg-paper-raised focus:px-2 focus:py-1"
+      >
         Skip to content
       </a>
       <header className="border-b border-rule bg-paper-raised">

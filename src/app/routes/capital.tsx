@@ -34,31 +34,41 @@ function matchedEntity(entities: readonly { code: string }[], asked: string | un
   return entities.find((e) => e.code.toUpperCase() === code.toUpperCase())?.code ?? code;
 }
 
-export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
-  const { entity, date } = screenParams(new URL(request.url).searchParams);
-  const entities = await queryClient.ensureQueryData(entityQueries.all());
-  const code = matchedEntity(entities, entity);
-  // No data yet, or a refused date, is said inside the screen rather than instead of it.
-  if (code)
-    await Promise.all([
-      queryClient.ensureQueryData(capitalQueries.history(code)).catch(() => undefined),
-      queryClient.ensureQueryData(capitalQueries.forecast(code, date)).catch(() => undefined),
-    ]);
-  return null;
-};
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const { entity, date } = screenParams(new URL(request.url).searchParams);
+    const entities = await queryClient.ensureQueryData(entityQueries.all());
+    const code = matchedEntity(entities, entity);
+    // No data yet, or a refused date, is said inside the screen rather than instead of it.
+    if (code)
+      await Promise.all([
+        queryClient.ensureQueryData(capitalQueries.history(code)).catch(() => undefined),
+        queryClient.ensureQueryData(capitalQueries.forecast(code, date)).catch(() => undefined),
+      ]);
+    return null;
+  };
 
 const intro: Record<Role, string> = {
-  analyst: "Every quarter's multiplier and add-on, signed off or not, when old exceptions leave the window, and where the zone may stand next.",
+  analyst:
+    "Every quarter's multiplier and add-on, signed off or not, when old exceptions leave the window, and where the zone may stand next.",
   cro: "Every quarter's multiplier and add-on, signed off or not, when old exceptions leave the window, and where the zone may stand next.",
-  treasury: "The signed-off capital history, what the next exception would cost, when old exceptions leave the window, and scenarios to plan with. Read only.",
+  treasury:
+    "The signed-off capital history, what the next exception would cost, when old exceptions leave the window, and scenarios to plan with. Read only.",
   regulator: "",
   admin: "",
 };
 
 function historyEmpty(role: Role, entity: string) {
   if (role === "treasury")
-    return { title: `No signed-off quarters for ${entity} yet`, next: "The history fills in as the chief risk officer signs each quarter off." };
-  return { title: `No quarter snapshots for ${entity} yet`, next: "A quarter appears here once an analyst prepares its snapshot under Quarter close." };
+    return {
+      title: `No signed-off quarters for ${entity} yet`,
+      next: "The history fills in as the chief risk officer signs each quarter off.",
+    };
+  return {
+    title: `No quarter snapshots for ${entity} yet`,
+    next: "A quarter appears here once an analyst prepares its snapshot under Quarter close.",
+  };
 }
 
 export default function CapitalRoute() {
@@ -72,16 +82,25 @@ export default function CapitalRoute() {
   const current = entities.find((e) => e.code === entity);
 
   const history = useQuery({ ...capitalQueries.history(entity), enabled: entity !== "" });
-  const dated = useQuery({ ...capitalQueries.forecast(entity, params.date), enabled: entity !== "", placeholderData: keepPreviousData });
+  const dated = useQuery({
+    ...capitalQueries.forecast(entity, params.date),
+    enabled: entity !== "",
+    placeholderData: keepPreviousData,
+  });
   // While another date is read, the last answer stays on screen, but never another entity's.
   const forecast = dated.data && dated.data.entity.toUpperCase() === entity.toUpperCase() ? dated.data : undefined;
   // A refused date leaves "where we stand" and the roll-offs to the default forecast, which holds the same figures for today.
-  const fallback = useQuery({ ...capitalQueries.forecast(entity), enabled: entity !== "" && params.date !== undefined && dated.isError });
+  const fallback = useQuery({
+    ...capitalQueries.forecast(entity),
+    enabled: entity !== "" && params.date !== undefined && dated.isError,
+  });
   const standing = forecast ?? fallback.data;
-  const entityError = params.date === undefined ? dated.error : dated.isError && fallback.isError ? fallback.error : null;
+  const entityError =
+    params.date === undefined ? dated.error : dated.isError && fallback.isError ? fallback.error : null;
   const dateError =
     params.date !== undefined && dated.isError && !fallback.isError
-      ? (fieldErrorsOf(dated.error).date ?? (isApiError(dated.error) ? dated.error.message : "The forecast for this date could not be read."))
+      ? (fieldErrorsOf(dated.error).date ??
+        (isApiError(dated.error) ? dated.error.message : "The forecast for this date could not be read."))
       : undefined;
 
   // The server sends treasury only signed-off quarters; the screen holds to the same rule so a draft never reads as approved to them.
@@ -99,7 +118,12 @@ export default function CapitalRoute() {
           <p className="text-sm text-ink-muted">{intro[role]}</p>
         </div>
         {entities.length > 0 && (
-          <SelectField label="Entity" value={current?.code ?? entity} onChange={(e) => navigate(paths.capital.href({ entity: e.target.value }))} className="w-72">
+          <SelectField
+            label="Entity"
+            value={current?.code ?? entity}
+            onChange={(e) => navigate(paths.capital.href({ entity: e.target.value }))}
+            className="w-72"
+          >
             {entities.map((e) => (
               <option key={e.code} value={e.code}>
                 {e.code} · {e.name}
@@ -109,7 +133,9 @@ export default function CapitalRoute() {
         )}
       </header>
       {entities.length === 0 ? (
-        <EmptyState title="No legal entities are set up yet">An administrator adds the entities; their capital figures appear here once they have data.</EmptyState>
+        <EmptyState title="No legal entities are set up yet">
+          An administrator adds the entities; their capital figures appear here once they have data.
+        </EmptyState>
       ) : (
         <>
           {standing ? (
@@ -120,19 +146,23 @@ export default function CapitalRoute() {
                 "The forecast and scenarios appear once the reporting office loads the entity's daily P&L and VaR."
               ) : (
                 <>
-                  An analyst uploads the daily P&amp;L and VaR under <Link to={paths.data.href({ entity })}>Data</Link>; the forecast and scenarios appear as soon
-                  as the first day is committed.
+                  An analyst uploads the daily P&amp;L and VaR under <Link to={paths.data.href({ entity })}>Data</Link>;
+                  the forecast and scenarios appear as soon as the first day is committed.
                 </>
               )}
             </EmptyState>
           ) : entityError ? (
-            <FormMessage>{isApiError(entityError) ? entityError.message : "Today's figures could not be read."}</FormMessage>
+            <FormMessage>
+              {isApiError(entityError) ? entityError.message : "Today's figures could not be read."}
+            </FormMessage>
           ) : (
             <p className="text-sm text-ink-muted">Reading today's figures…</p>
           )}
 
           {history.error ? (
-            <FormMessage>{isApiError(history.error) ? history.error.message : "The capital history could not be read."}</FormMessage>
+            <FormMessage>
+              {isApiError(history.error) ? history.error.message : "The capital history could not be read."}
+            </FormMessage>
           ) : history.data ? (
             <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
           ) : (

@@ -31,29 +31,37 @@ function screenParams(search: URLSearchParams): { upload?: number; filters: Find
   };
 }
 
-export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
-  const { upload, filters } = screenParams(new URL(request.url).searchParams);
-  const opening = upload
-    ? // A missing or unreadable upload is said inside the screen, not instead of it.
-      queryClient
-        .ensureQueryData(uploadQueries.detail(upload))
-        .then((p) => (p.status === "discarded" ? undefined : queryClient.ensureQueryData(uploadQueries.rows(p.id, firstRowsPage(p.invalid)))))
-        .catch(() => undefined)
-    : undefined;
-  await Promise.all([
-    queryClient.ensureQueryData(uploadQueries.list()),
-    queryClient.ensureQueryData(findingQueries.list(filters)),
-    queryClient.ensureQueryData(findingQueries.list({ status: "open" })),
-    queryClient.ensureQueryData(entityQueries.all()),
-    opening,
-  ]);
-  return null;
-};
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const { upload, filters } = screenParams(new URL(request.url).searchParams);
+    const opening = upload
+      ? // A missing or unreadable upload is said inside the screen, not instead of it.
+        queryClient
+          .ensureQueryData(uploadQueries.detail(upload))
+          .then((p) =>
+            p.status === "discarded"
+              ? undefined
+              : queryClient.ensureQueryData(uploadQueries.rows(p.id, firstRowsPage(p.invalid))),
+          )
+          .catch(() => undefined)
+      : undefined;
+    await Promise.all([
+      queryClient.ensureQueryData(uploadQueries.list()),
+      queryClient.ensureQueryData(findingQueries.list(filters)),
+      queryClient.ensureQueryData(findingQueries.list({ status: "open" })),
+      queryClient.ensureQueryData(entityQueries.all()),
+      opening,
+    ]);
+    return null;
+  };
 
 function StandingLine({ uploads }: { uploads: UploadSummary[] }) {
   const { data: open } = useQuery(findingQueries.list({ status: "open" }));
   const waiting = uploads.filter((u) => u.status === "preview").length;
-  const latest = uploads.filter((u) => u.status === "committed").sort((a, b) => (b.committedAt ?? "").localeCompare(a.committedAt ?? ""))[0];
+  const latest = uploads
+    .filter((u) => u.status === "committed")
+    .sort((a, b) => (b.committedAt ?? "").localeCompare(a.committedAt ?? ""))[0];
   return (
     <dl className="flex flex-wrap gap-x-10 gap-y-2 border-y border-rule py-2 text-sm">
       <div>
@@ -75,7 +83,17 @@ function StandingLine({ uploads }: { uploads: UploadSummary[] }) {
       </div>
       <div>
         <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Open data-quality findings</dt>
-        <dd className="figures">{open ? (open.length > 0 ? <span className="font-medium">{plural(open.length, "finding", "findings")}</span> : "None") : "—"}</dd>
+        <dd className="figures">
+          {open ? (
+            open.length > 0 ? (
+              <span className="font-medium">{plural(open.length, "finding", "findings")}</span>
+            ) : (
+              "None"
+            )
+          ) : (
+            "—"
+          )}
+        </dd>
       </div>
     </dl>
   );
@@ -86,7 +104,8 @@ function SelectedUpload({ id, canChange, onDiscarded }: { id: number; canChange:
   const ref = useRef<HTMLDivElement>(null);
   useEffect(() => {
     const el = ref.current;
-    if (el && el.getBoundingClientRect().top > window.innerHeight * 0.6) el.scrollIntoView?.({ block: "start", behavior: "smooth" });
+    if (el && el.getBoundingClientRect().top > window.innerHeight * 0.6)
+      el.scrollIntoView?.({ block: "start", behavior: "smooth" });
   }, [id]);
   return (
     <div ref={ref} className="scroll-mt-4">
@@ -125,19 +144,33 @@ export default function DataRoute() {
       </div>
       <StandingLine uploads={uploads} />
       {isAnalyst && <UploadPanel uploadHref={uploadHref} onUploaded={(p) => navigate(uploadHref(p.id))} />}
-      {upload && <SelectedUpload id={upload} canChange={isAnalyst} onDiscarded={() => navigate(paths.data.href({ ...current, upload: undefined }))} />}
+      {upload && (
+        <SelectedUpload
+          id={upload}
+          canChange={isAnalyst}
+          onDiscarded={() => navigate(paths.data.href({ ...current, upload: undefined }))}
+        />
+      )}
       <section aria-labelledby="history-title" className="flex flex-col gap-2 border-t border-rule pt-4">
         <div className="flex items-baseline justify-between gap-4">
           <h2 id="history-title">Upload history</h2>
           <p className="figures text-sm text-ink-muted">{plural(uploads.length, "file", "files")}</p>
         </div>
-        <UploadHistoryTable uploads={uploads} selectedId={upload} uploadHref={uploadHref} onOpen={(id) => navigate(uploadHref(id))} canUpload={isAnalyst} />
+        <UploadHistoryTable
+          uploads={uploads}
+          selectedId={upload}
+          uploadHref={uploadHref}
+          onOpen={(id) => navigate(uploadHref(id))}
+          canUpload={isAnalyst}
+        />
       </section>
       <FindingsPanel
         filters={filters}
         entities={entities}
         canClose={isAnalyst}
-        onFilter={(f) => navigate(paths.data.href({ upload, entity: f.entity, status: f.status ?? "all" }), { replace: true })}
+        onFilter={(f) =>
+          navigate(paths.data.href({ upload, entity: f.entity, status: f.status ?? "all" }), { replace: true })
+        }
       />
     </section>
   );

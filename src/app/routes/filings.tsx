@@ -29,7 +29,8 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 const intro: Record<Role, string> = {
   regulator:
     "The quarterly packs filed with you for the entities assigned to you. Download each as it was sent, check its SHA-256, and acknowledge receipt.",
-  analyst: "Every pack filed with the supervisors, and whether they acknowledged it. Read only: the chief risk officer files an approved quarter under Quarter close.",
+  analyst:
+    "Every pack filed with the supervisors, and whether they acknowledged it. Read only: the chief risk officer files an approved quarter under Quarter close.",
   cro: "Every pack filed with the supervisors, and whether they acknowledged it. You file an approved quarter under Quarter close.",
   treasury: "",
   admin: "",
@@ -37,13 +38,16 @@ const intro: Record<Role, string> = {
 
 function emptyFor(role: Role) {
   if (role === "regulator")
-    return { title: "No packs have been filed with you yet", next: "A bank's pack appears here as soon as it files a quarter of an entity assigned to you." };
+    return {
+      title: "No packs have been filed with you yet",
+      next: "A bank's pack appears here as soon as it files a quarter of an entity assigned to you.",
+    };
   return {
     title: "No quarter has been filed yet",
     next: (
       <>
-        A chief risk officer files an approved quarter under <Link to={paths.quarters.href()}>Quarter close</Link>; the pack then goes by e-mail to the
-        entity's supervisor contacts and appears here.
+        A chief risk officer files an approved quarter under <Link to={paths.quarters.href()}>Quarter close</Link>; the
+        pack then goes by e-mail to the entity's supervisor contacts and appears here.
       </>
     ),
   };
@@ -91,7 +95,8 @@ export default function FilingsRoute() {
       ) : (
         params.filing !== undefined && (
           <FormMessage>
-            Filing #{params.filing} is not among the filings you can read. <Link to={paths.filings.href()}>Open the newest filing</Link>
+            Filing #{params.filing} is not among the filings you can read.{" "}
+            <Link to={paths.filings.href()}>Open the newest filing</Link>
           </FormMessage>
         )
       )}

@@ -6,7 +6,7 @@ export default function NotFoundRoute() {
   const { pathname } = useLocation();
   return (
     <section aria-labelledby="not-found-title" className="max-w-xl py-8">
-        <PageTitle>Not found</PageTitle>
+      <PageTitle>Not found</PageTitle>
       <h1 id="not-found-title">No page at this address</h1>
       <p className="mt-2 text-sm text-ink-soft">
         Quartermark has nothing at <code className="figures">{pathname}</code>. The link may be old or mistyped.

@@ -28,7 +28,8 @@ function FiguresNote({ role }: { role: string }) {
       : "Approved figures reach you through the quarter's signed-off snapshots.";
   return (
     <p className="text-sm text-ink-muted">
-      The live zones, exception counts and multipliers are for the reporting office and the chief risk officer until the quarter is signed off. {next}
+      The live zones, exception counts and multipliers are for the reporting office and the chief risk officer until the
+      quarter is signed off. {next}
     </p>
   );
 }
@@ -38,8 +39,8 @@ function Standing() {
   return (
     <>
       <p className="text-sm text-ink-muted">
-        Each entity's top-of-house portfolio on its latest day of data. Open an entity for its backtest, the exceptions to explain and the roll-off
-        calendar.
+        Each entity's top-of-house portfolio on its latest day of data. Open an entity for its backtest, the exceptions
+        to explain and the roll-off calendar.
       </p>
       <StandingTable
         items={items}
@@ -69,7 +70,11 @@ export default function OverviewRoute() {
       ) : (
         <>
           {entities.length > 0 && <FiguresNote role={role} />}
-          <EntityOverviewTable entities={entities} role={role} addEntityHref={role === "admin" ? paths.adminEntities.href() : undefined} />
+          <EntityOverviewTable
+            entities={entities}
+            role={role}
+            addEntityHref={role === "admin" ? paths.adminEntities.href() : undefined}
+          />
         </>
       )}
     </section>

@@ -27,26 +27,30 @@ function screenParams(search: URLSearchParams): { entity?: string; snapshot?: nu
   };
 }
 
-export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
-  const { entity, snapshot } = screenParams(new URL(request.url).searchParams);
-  const [entities, opened] = await Promise.all([
-    queryClient.ensureQueryData(entityQueries.all()),
-    // A missing or refused snapshot is said inside the screen, not instead of it.
-    snapshot ? queryClient.ensureQueryData(snapshotQueries.detail(snapshot)).catch(() => undefined) : undefined,
-  ]);
-  // A snapshot belongs to one entity: an address naming another entity beside it follows the
-  // snapshot (the thing asked for by its id), so its figures never show under another entity's name.
-  if (opened && entity !== undefined && opened.entity !== entity) throw redirect(paths.quarters.href({ entity: opened.entity, snapshot: opened.id }));
-  const code = opened?.entity ?? entity ?? entities[0]?.code;
-  if (code) await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined);
-  return null;
-};
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const { entity, snapshot } = screenParams(new URL(request.url).searchParams);
+    const [entities, opened] = await Promise.all([
+      queryClient.ensureQueryData(entityQueries.all()),
+      // A missing or refused snapshot is said inside the screen, not instead of it.
+      snapshot ? queryClient.ensureQueryData(snapshotQueries.detail(snapshot)).catch(() => undefined) : undefined,
+    ]);
+    // A snapshot belongs to one entity: an address naming another entity beside it follows the
+    // snapshot (the thing asked for by its id), so its figures never show under another entity's name.
+    if (opened && entity !== undefined && opened.entity !== entity)
+      throw redirect(paths.quarters.href({ entity: opened.entity, snapshot: opened.id }));
+    const code = opened?.entity ?? entity ?? entities[0]?.code;
+    if (code) await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined);
+    return null;
+  };
 
 /** A pack kept for the mail server goes as soon as the server answers: the screen looks again this often until it has. */
 const PENDING_REREAD_MS = 15_000;
 
 const intro: Record<Role, string> = {
-  analyst: "Freeze a quarter's figures as a draft, check them, and submit them for sign-off. A chief risk officer approves and seals them.",
+  analyst:
+    "Freeze a quarter's figures as a draft, check them, and submit them for sign-off. A chief risk officer approves and seals them.",
   cro: "Approve or return the quarters the analysts submit. Four eyes: you cannot approve a snapshot you prepared or submitted.",
   treasury: "The quarters signed off by the chief risk officer, with their figures as approved. Read only.",
   regulator: "",
@@ -55,10 +59,19 @@ const intro: Record<Role, string> = {
 
 function emptyFor(role: Role, entity: string) {
   if (role === "treasury")
-    return { title: `No signed-off quarters for ${entity} yet`, next: "Approved figures appear here once the chief risk officer signs a quarter off." };
+    return {
+      title: `No signed-off quarters for ${entity} yet`,
+      next: "Approved figures appear here once the chief risk officer signs a quarter off.",
+    };
   if (role === "cro")
-    return { title: `No snapshots for ${entity} yet`, next: "The analysts prepare each quarter; a submitted one waits here for your approval or return." };
-  return { title: `No snapshots for ${entity} yet`, next: "Choose an ended quarter above and prepare its snapshot: the figures are frozen as a draft for you to check and submit." };
+    return {
+      title: `No snapshots for ${entity} yet`,
+      next: "The analysts prepare each quarter; a submitted one waits here for your approval or return.",
+    };
+  return {
+    title: `No snapshots for ${entity} yet`,
+    next: "Choose an ended quarter above and prepare its snapshot: the figures are frozen as a draft for you to check and submit.",
+  };
 }
 
 function SelectedSnapshot({
@@ -82,11 +95,13 @@ function SelectedSnapshot({
   const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
   // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
   // server; the filings list is the one place they are read from (treasury may not read it).
-  const readsFiling = (role === "analyst" || role === "cro") && (data?.status === "filed" || data?.status === "approved");
+  const readsFiling =
+    (role === "analyst" || role === "cro") && (data?.status === "filed" || data?.status === "approved");
   const filings = useQuery({
     ...filingQueries.list(),
     enabled: readsFiling,
-    refetchInterval: (query) => (query.state.data?.some((f) => f.snapshotId === id && f.delivery === "pending") ? PENDING_REREAD_MS : false),
+    refetchInterval: (query) =>
+      query.state.data?.some((f) => f.snapshotId === id && f.delivery === "pending") ? PENDING_REREAD_MS : false,
   });
   const filing = {
     filing: filings.data?.find((f) => f.snapshotId === id),
@@ -108,7 +123,9 @@ function SelectedSnapshot({
   }
   return (
     <>
-      {error && <FormMessage>{isApiError(error) ? error.message : "The snapshot could not be read again."}</FormMessage>}
+      {error && (
+        <FormMessage>{isApiError(error) ? error.message : "The snapshot could not be read again."}</FormMessage>
+      )}
       <SnapshotDetail
         snapshot={data}
         role={role}
@@ -150,7 +167,12 @@ export default function QuartersRoute() {
           <p className="text-sm text-ink-muted">{intro[role]}</p>
         </div>
         {entities.length > 0 && (
-          <SelectField label="Entity" value={entity} onChange={(e) => navigate(paths.quarters.href({ entity: e.target.value }))} className="w-72">
+          <SelectField
+            label="Entity"
+            value={entity}
+            onChange={(e) => navigate(paths.quarters.href({ entity: e.target.value }))}
+            className="w-72"
+          >
             {entities.map((e) => (
               <option key={e.code} value={e.code}>
                 {e.code} · {e.name}
@@ -160,7 +182,9 @@ export default function QuartersRoute() {
         )}
       </header>
       {entities.length === 0 ? (
-        <EmptyState title="No legal entities are set up yet">An administrator adds the entities; their quarters can be closed here once they have data.</EmptyState>
+        <EmptyState title="No legal entities are set up yet">
+          An administrator adds the entities; their quarters can be closed here once they have data.
+        </EmptyState>
       ) : (
         <>
           {list.data && (
@@ -170,7 +194,8 @@ export default function QuartersRoute() {
                 <dd>
                   {latest ? (
                     <>
-                      <span className="font-medium">{quarterLabel(latest.quarterEnd)}</span> · {snapshotStatusLabels[latest.status]}
+                      <span className="font-medium">{quarterLabel(latest.quarterEnd)}</span> ·{" "}
+                      {snapshotStatusLabels[latest.status]}
                     </>
                   ) : (
                     <span className="text-ink-muted">None yet</span>
@@ -179,8 +204,16 @@ export default function QuartersRoute() {
               </div>
               {role !== "treasury" && (
                 <div>
-                  <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Waiting for sign-off</dt>
-                  <dd className="figures">{waiting > 0 ? <span className="font-medium">{plural(waiting, "quarter", "quarters")}</span> : "None"}</dd>
+                  <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">
+                    Waiting for sign-off
+                  </dt>
+                  <dd className="figures">
+                    {waiting > 0 ? (
+                      <span className="font-medium">{plural(waiting, "quarter", "quarters")}</span>
+                    ) : (
+                      "None"
+                    )}
+                  </dd>
                 </div>
               )}
               {current && (
@@ -199,7 +232,9 @@ export default function QuartersRoute() {
                 quarterEnds={endedQuarterEnds(new Date())}
                 snapshots={snapshots}
                 snapshotHref={snapshotHref}
-                onPrepared={(s) => navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })}
+                onPrepared={(s) =>
+                  navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
+                }
               />
             </section>
           )}
@@ -212,7 +247,9 @@ export default function QuartersRoute() {
               </p>
             </div>
             {list.error ? (
-              <FormMessage>{isApiError(list.error) ? list.error.message : "The snapshots could not be read."}</FormMessage>
+              <FormMessage>
+                {isApiError(list.error) ? list.error.message : "The snapshots could not be read."}
+              </FormMessage>
             ) : list.data ? (
               <SnapshotListTable
                 snapshots={snapshots}
@@ -234,7 +271,9 @@ export default function QuartersRoute() {
               userEmail={user!.email}
               findingsHref={(e) => paths.data.href({ entity: e })}
               filingHref={(f) => paths.filings.href({ filing: f })}
-              onPrepared={(s) => navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })}
+              onPrepared={(s) =>
+                navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
+              }
             />
           )}
         </>

@@ -52,15 +52,17 @@ export default function SignInRoute() {
                 <Link to={redirectTo}>Continue as {current.name.split(" ")[0]}</Link>, or sign in below as someone else.
               </p>
             ) : (
-              redirectTo !== "/" && <p className="mb-4 text-sm text-ink-muted">Sign in to continue to the page you asked for.</p>
+              redirectTo !== "/" && (
+                <p className="mb-4 text-sm text-ink-muted">Sign in to continue to the page you asked for.</p>
+              )
             )}
             <SignInForm onSignedIn={() => navigate(redirectTo, { replace: true })} />
           </div>
           <details className="mt-8 border-t border-rule pt-3 text-sm text-ink-soft">
             <summary className="text-xs text-ink-muted">Demo sign-ins</summary>
             <p className="mt-2 text-xs text-ink-muted">
-              This build ships with invented demo data for Larkspur Bank. Every demo account uses the demo password printed
-              when the server starts (<code>quartermark-demo</code> unless DEMO_PASSWORD is set).
+              This build ships with invented demo data for Larkspur Bank. Every demo account uses the demo password
+              printed when the server starts (<code>quartermark-demo</code> unless DEMO_PASSWORD is set).
             </p>
             <ul className="figures mt-2 space-y-0.5 text-xs">
               {demoUsers.map(([email, who]) => (

@@ -39,13 +39,18 @@ export default function TokensRoute() {
             </p>
           </div>
           <p className="text-sm text-ink-muted">
-            A token lets a script read Quartermark as you: capital history, forecasts and what-if results, with your current
-            role. Tokens only read: to change anything, sign in here. A token stops working when it expires, when you revoke it,
-            or if your account is disabled or moved out of treasury.
+            A token lets a script read Quartermark as you: capital history, forecasts and what-if results, with your
+            current role. Tokens only read: to change anything, sign in here. A token stops working when it expires,
+            when you revoke it, or if your account is disabled or moved out of treasury.
           </p>
         </header>
         {created && (
-          <NewTokenSecret token={created} entityCode={entities?.[0]?.code} origin={window.location.origin} onDone={() => setCreated(undefined)} />
+          <NewTokenSecret
+            token={created}
+            entityCode={entities?.[0]?.code}
+            origin={window.location.origin}
+            onDone={() => setCreated(undefined)}
+          />
         )}
         <TokensTable tokens={tokens} />
       </section>
@@ -57,11 +62,12 @@ export default function TokensRoute() {
           From a script
         </h2>
         <p>
-          Send the token in the header <code className="text-xs">Authorization: Bearer &lt;token&gt;</code>. It reads what you read:
-          for example <code className="text-xs">GET /api/entities/&lt;entity code&gt;/capital/history</code> or{" "}
+          Send the token in the header <code className="text-xs">Authorization: Bearer &lt;token&gt;</code>. It reads
+          what you read: for example{" "}
+          <code className="text-xs">GET /api/entities/&lt;entity code&gt;/capital/history</code> or{" "}
           <code className="text-xs">…/capital/forecast?date=YYYY-MM-DD</code>, and the what-if as{" "}
-          <code className="text-xs">POST …/capital/what-if</code> with its parameters in JSON. Anything that would change data is
-          refused with 403; a token that has expired or was revoked is refused with 401.
+          <code className="text-xs">POST …/capital/what-if</code> with its parameters in JSON. Anything that would
+          change data is refused with 403; a token that has expired or was revoked is refused with 401.
         </p>
       </section>
     </div>

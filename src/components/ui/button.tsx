@@ -11,7 +11,11 @@ const variants: Record<Variant, string> = {
 };
 
 // React 19 passes `ref` as a prop: it reaches the <button> with the rest, so a screen can move focus to it.
-export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant; size?: "sm" | "md"; ref?: Ref<HTMLButtonElement> };
+export type ButtonProps = ButtonHTMLAttributes<HTMLButtonElement> & {
+  variant?: Variant;
+  size?: "sm" | "md";
+  ref?: Ref<HTMLButtonElement>;
+};
 
 export function Button({ variant = "primary", size = "md", className, type = "button", ...rest }: ButtonProps) {
   return (

@@ -24,12 +24,17 @@ export function CheckVerdict({
   const result = check.data;
   return (
     <>
-      {check.isError && !check.isFetching && <FormMessage>{isApiError(check.error) ? check.error.message : unreachableText}</FormMessage>}
+      {check.isError && !check.isFetching && (
+        <FormMessage>{isApiError(check.error) ? check.error.message : unreachableText}</FormMessage>
+      )}
       {result && !check.isFetching && !check.isError && (
         <div
           role="status"
           aria-label={label}
-          className={cn("border-l-2 px-3 py-1.5 text-sm", result.valid ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
+          className={cn(
+            "border-l-2 px-3 py-1.5 text-sm",
+            result.valid ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger",
+          )}
         >
           <p className="font-semibold">{result.valid ? validText : invalidText}</p>
           <p className={cn(result.valid ? "text-ink-soft" : "text-ink")}>{result.detail}</p>

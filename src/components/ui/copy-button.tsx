@@ -22,11 +22,21 @@ export function CopyButton({ value, what, label }: { value: string; what: string
   }
   return (
     <>
-      <Button variant="secondary" size="sm" className="h-6 px-2 text-xs" aria-label={label} onClick={() => void copyIt()}>
+      <Button
+        variant="secondary"
+        size="sm"
+        className="h-6 px-2 text-xs"
+        aria-label={label}
+        onClick={() => void copyIt()}
+      >
         {copy === "copied" ? "Copied" : "Copy"}
       </Button>
       <span aria-live="polite" className={cn("text-xs font-normal", copy === "failed" ? "text-danger" : "sr-only")}>
-        {copy === "copied" ? `${what} is copied.` : copy === "failed" ? "The browser refused to copy it: select the text and copy it by hand." : ""}
+        {copy === "copied"
+          ? `${what} is copied.`
+          : copy === "failed"
+            ? "The browser refused to copy it: select the text and copy it by hand."
+            : ""}
       </span>
     </>
   );

@@ -38,19 +38,32 @@ export function DataTable<T>({
             {group.headers.map((header) => {
               const meta = header.column.columnDef.meta;
               const sorted = header.column.getIsSorted();
-              const content = header.isPlaceholder ? null : flexRender(header.column.columnDef.header, header.getContext());
+              const content = header.isPlaceholder
+                ? null
+                : flexRender(header.column.columnDef.header, header.getContext());
               return (
                 <Th
                   key={header.id}
                   numeric={meta?.numeric}
                   className={meta?.headerClassName}
-                  aria-sort={header.column.getCanSort() ? (sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none") : undefined}
+                  aria-sort={
+                    header.column.getCanSort()
+                      ? sorted === "asc"
+                        ? "ascending"
+                        : sorted === "desc"
+                          ? "descending"
+                          : "none"
+                      : undefined
+                  }
                 >
                   {header.column.getCanSort() ? (
                     <button
                       type="button"
                       onClick={header.column.getToggleSortingHandler()}
-                      className={cn("inline-flex items-center gap-1 uppercase hover:text-ink", meta?.numeric && "flex-row-reverse")}
+                      className={cn(
+                        "inline-flex items-center gap-1 uppercase hover:text-ink",
+                        meta?.numeric && "flex-row-reverse",
+                      )}
                     >
                       {content}
                       <span aria-hidden="true" className={cn("text-[0.6rem]", !sorted && "text-ink-faint")}>

@@ -26,7 +26,14 @@ export function DownloadButton({
   return (
     <div className="flex flex-col gap-1.5">
       <p className="flex flex-wrap items-baseline gap-x-3 text-sm">
-        <Button variant="quiet" size="sm" className="h-auto aria-disabled:cursor-progress aria-disabled:opacity-70" onClick={() => void start()} aria-disabled={busy || undefined} aria-busy={busy || undefined}>
+        <Button
+          variant="quiet"
+          size="sm"
+          className="h-auto aria-disabled:cursor-progress aria-disabled:opacity-70"
+          onClick={() => void start()}
+          aria-disabled={busy || undefined}
+          aria-busy={busy || undefined}
+        >
           {busy ? busyText : children}
         </Button>
         {note}

@@ -1,4 +1,11 @@
-import { useId, type InputHTMLAttributes, type Ref, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from "react";
+import {
+  useId,
+  type InputHTMLAttributes,
+  type Ref,
+  type ReactNode,
+  type SelectHTMLAttributes,
+  type TextareaHTMLAttributes,
+} from "react";
 import { cn } from "@/lib/cn";
 
 const control =
@@ -54,7 +61,14 @@ function useFieldIds(givenId: string | undefined, error: unknown, hint: unknown)
   return { id, errorId: error ? `${id}-error` : undefined, hintId: hint && !error ? `${id}-hint` : undefined };
 }
 
-export function TextField({ label, error, hint, className, id: givenId, ...input }: Common & InputHTMLAttributes<HTMLInputElement>) {
+export function TextField({
+  label,
+  error,
+  hint,
+  className,
+  id: givenId,
+  ...input
+}: Common & InputHTMLAttributes<HTMLInputElement>) {
   const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
@@ -62,7 +76,11 @@ export function TextField({ label, error, hint, className, id: givenId, ...input
         id={id}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(hintId, errorId)}
-        className={cn(control, error ? "border-danger" : "border-rule-strong", input.type === "number" && "figures text-right")}
+        className={cn(
+          control,
+          error ? "border-danger" : "border-rule-strong",
+          input.type === "number" && "figures text-right",
+        )}
         {...input}
       />
     </FieldShell>
@@ -95,7 +113,14 @@ export function SelectField({
 }
 
 /** A comment or note of a few sentences; its hint is a sentence too, so it reads at the size of the error. */
-export function TextareaField({ label, error, hint, className, id: givenId, ...textarea }: Common & TextareaHTMLAttributes<HTMLTextAreaElement>) {
+export function TextareaField({
+  label,
+  error,
+  hint,
+  className,
+  id: givenId,
+  ...textarea
+}: Common & TextareaHTMLAttributes<HTMLTextAreaElement>) {
   const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }} hintClassName="text-xs">
@@ -114,7 +139,15 @@ export function TextareaField({ label, error, hint, className, id: givenId, ...t
  * A form-level message (the server's answer, or what blocks the form). With a `ref` it can take the
  * focus (tabIndex -1), so a screen may move the reader to an error that replaced what they acted on.
  */
-export function FormMessage({ children, tone = "error", ref }: { children?: ReactNode; tone?: "error" | "done"; ref?: Ref<HTMLParagraphElement> }) {
+export function FormMessage({
+  children,
+  tone = "error",
+  ref,
+}: {
+  children?: ReactNode;
+  tone?: "error" | "done";
+  ref?: Ref<HTMLParagraphElement>;
+}) {
   if (!children) return null;
   return (
     <p

@@ -22,9 +22,17 @@ export function Figure({
   className?: string;
 }) {
   return (
-    <div className={cn("flex flex-col gap-0.5", look === "ruled" && "border-l border-rule pl-3 first:border-l-0 first:pl-0", className)}>
+    <div
+      className={cn(
+        "flex flex-col gap-0.5",
+        look === "ruled" && "border-l border-rule pl-3 first:border-l-0 first:pl-0",
+        className,
+      )}
+    >
       <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
-      <dd className={cn("figures leading-tight font-semibold text-ink", look === "ruled" ? "text-lg" : "text-base")}>{children}</dd>
+      <dd className={cn("figures leading-tight font-semibold text-ink", look === "ruled" ? "text-lg" : "text-base")}>
+        {children}
+      </dd>
       {hint && <dd className="text-2xs text-ink-muted">{hint}</dd>}
     </div>
   );

@@ -27,7 +27,10 @@ export function Notice({
       aria-label={label}
       data-tone="notice"
       data-testid={testId}
-      className={cn("flex items-start gap-2 border-l-2 border-notice-rule bg-notice-soft px-3 py-1.5 text-sm text-ink", className)}
+      className={cn(
+        "flex items-start gap-2 border-l-2 border-notice-rule bg-notice-soft px-3 py-1.5 text-sm text-ink",
+        className,
+      )}
     >
       <NoticeIcon />
       <div className="min-w-0 flex-1">{children}</div>

@@ -4,7 +4,17 @@ import { cn } from "@/lib/cn";
  * A long task's progress. With `value` it is determinate (0–100); without, the work is under way
  * but its size is unknown, and the bar says so by moving rather than filling.
  */
-export function ProgressBar({ label, value, text, className }: { label: string; value?: number; text?: string; className?: string }) {
+export function ProgressBar({
+  label,
+  value,
+  text,
+  className,
+}: {
+  label: string;
+  value?: number;
+  text?: string;
+  className?: string;
+}) {
   const known = value !== undefined;
   const pct = known ? Math.max(0, Math.min(100, value)) : 0;
   return (
@@ -23,7 +33,9 @@ export function ProgressBar({ label, value, text, className }: { label: string; 
         ) : (
           <div
             className="h-full w-full animate-pulse bg-accent/70"
-            style={{ backgroundImage: "repeating-linear-gradient(135deg, transparent 0 6px, rgb(255 255 255 / 0.35) 6px 12px)" }}
+            style={{
+              backgroundImage: "repeating-linear-gradient(135deg, transparent 0 6px, rgb(255 255 255 / 0.35) 6px 12px)",
+            }}
           />
         )}
       </div>

@@ -33,7 +33,9 @@ export function RollOffTable({
         <EmptyState title="No exception in the window, so nothing rolls off." />
       ) : (
         <>
-          <p className="text-xs text-ink-muted">Dates projected on the entity's business-day calendar, assuming no new exception in between.</p>
+          <p className="text-xs text-ink-muted">
+            Dates projected on the entity's business-day calendar, assuming no new exception in between.
+          </p>
           <Table caption="Roll-off calendar">
             <thead>
               <tr>

@@ -41,7 +41,12 @@ export function Tr({ className, ...rest }: HTMLAttributes<HTMLTableRowElement>) 
 }
 
 /** A row that opens its record when clicked anywhere but on a link inside it; the open one is marked. */
-export function SelectableTr({ selected, onOpen, className, ...rest }: HTMLAttributes<HTMLTableRowElement> & { selected: boolean; onOpen: () => void }) {
+export function SelectableTr({
+  selected,
+  onOpen,
+  className,
+  ...rest
+}: HTMLAttributes<HTMLTableRowElement> & { selected: boolean; onOpen: () => void }) {
   return (
     <Tr
       aria-current={selected ? "true" : undefined}

@@ -19,13 +19,27 @@ const styles: Record<"green" | "yellow" | "red", { box: string; mark: string }> 
  * A traffic-light zone, always written out: the name is the meaning, the colour only repeats it.
  * The marker shape differs per zone too (circle, diamond, square) for readers who cannot tell the colours apart.
  */
-export function ZoneBadge({ zone, regime, provisional, className }: { zone: Zone; regime?: string; provisional?: boolean; className?: string }) {
+export function ZoneBadge({
+  zone,
+  regime,
+  provisional,
+  className,
+}: {
+  zone: Zone;
+  regime?: string;
+  provisional?: boolean;
+  className?: string;
+}) {
   const key = zone === "amber" ? "yellow" : zone;
   const s = styles[key];
   const name = zoneName(zone, regime);
   return (
     <span
-      className={cn("inline-flex items-center gap-1.5 rounded-sm border px-1.5 py-px text-xs font-medium", s.box, className)}
+      className={cn(
+        "inline-flex items-center gap-1.5 rounded-sm border px-1.5 py-px text-xs font-medium",
+        s.box,
+        className,
+      )}
       data-zone={key}
     >
       <span aria-hidden="true" className={cn("inline-block size-1.5 bg-current", s.mark)} />

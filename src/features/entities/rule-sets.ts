@@ -2,7 +2,9 @@ import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 import { REGIMES } from "@shared/backtest/regimes";
 
 /** Each rule set's name, as the engine's rule table writes it. */
-export const ruleSetLabels = Object.fromEntries((Object.keys(REGIMES) as RegimeId[]).map((id) => [id, REGIMES[id].label])) as Record<RegimeId, string>;
+export const ruleSetLabels = Object.fromEntries(
+  (Object.keys(REGIMES) as RegimeId[]).map((id) => [id, REGIMES[id].label]),
+) as Record<RegimeId, string>;
 
 export const pnlBasisLabels: Record<PnlBasis, string> = {
   actual: "Actual P&L",

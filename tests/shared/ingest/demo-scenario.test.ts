@@ -10,21 +10,41 @@ import type { RegimeId } from "../../../shared/schemas/common";
 const REGIME: Record<string, RegimeId> = { "LKS-EU": "eu", "LKS-US": "us", "LKS-AP": "basel", "LKS-UK": "frtb" };
 
 // A calendar like the seed's (fixed-date holidays on weekdays) must not change the story.
-const SEED_LIKE_HOLIDAYS = new Set(["2024-01-01", "2024-07-04", "2024-12-25", "2025-01-01", "2025-06-19", "2025-07-04", "2025-12-25", "2026-01-01", "2026-06-19", "2027-01-01"]);
+const SEED_LIKE_HOLIDAYS = new Set([
+  "2024-01-01",
+  "2024-07-04",
+  "2024-12-25",
+  "2025-01-01",
+  "2025-06-19",
+  "2025-07-04",
+  "2025-12-25",
+  "2026-01-01",
+  "2026-06-19",
+  "2027-01-01",
+]);
 let holidays: ReadonlySet<string> = new Set();
 
 function seriesByPortfolio(entity: string, today: string) {
   const dates = demoDates(today, holidays);
   const csv = serialiseObservationCsv(demoRowsFor(entity, dates));
   const portfolios = new Map(
-    [SCENARIO[entity].top, ...(SCENARIO[entity].desks ?? [])].map((p) => [p.code, { entityCode: entity, holidays: new Map<string, string>() }]),
+    [SCENARIO[entity].top, ...(SCENARIO[entity].desks ?? [])].map((p) => [
+      p.code,
+      { entityCode: entity, holidays: new Map<string, string>() },
+    ]),
   );
   const parsed = parseObservationCsv(csv, { portfolios });
   expect(parsed.errors).toEqual([]); // the demo passes the same checks as any upload
   const out = new Map<string, Observation[]>();
   for (const r of parsed.rows) {
     if (!out.has(r.portfolio)) out.set(r.portfolio, []);
-    out.get(r.portfolio)!.push({ date: r.date, actualPnl: r.actual_pnl ?? null, hypotheticalPnl: r.hypothetical_pnl ?? null, var99: r.var_99 ?? null, rtpl: r.rtpl ?? null });
+    out.get(r.portfolio)!.push({
+      date: r.date,
+      actualPnl: r.actual_pnl ?? null,
+      hypotheticalPnl: r.hypothetical_pnl ?? null,
+      var99: r.var_99 ?? null,
+      rtpl: r.rtpl ?? null,
+    });
   }
   return { dates, out };
 }
@@ -59,7 +79,9 @@ describe.each([
     for (const entity of ["LKS-EU", "LKS-AP", "LKS-UK"]) {
       const { dates, out } = seriesByPortfolio(entity, today);
       const top = SCENARIO[entity].top.code;
-      expect(backtestAt(out.get(top)!, { regime: REGIME[entity], asOf: dates[dates.length - 1] }).zone, entity).toBe("green");
+      expect(backtestAt(out.get(top)!, { regime: REGIME[entity], asOf: dates[dates.length - 1] }).zone, entity).toBe(
+        "green",
+      );
     }
   });
 
@@ -68,10 +90,21 @@ describe.each([
     const zones = Object.fromEntries(
       (SCENARIO["LKS-UK"].desks ?? []).map((d) => {
         const last = out.get(d.code)!.slice(-250);
-        return [d.code, plaTest(last.map((o) => o.hypotheticalPnl!), last.map((o) => o.rtpl!)).zone];
+        return [
+          d.code,
+          plaTest(
+            last.map((o) => o.hypotheticalPnl!),
+            last.map((o) => o.rtpl!),
+          ).zone,
+        ];
       }),
     );
-    expect(zones).toEqual({ "LKS-UK-RATES": "green", "LKS-UK-FX": "green", "LKS-UK-CREDIT": "amber", "LKS-UK-EQUITIES": "green" });
+    expect(zones).toEqual({
+      "LKS-UK-RATES": "green",
+      "LKS-UK-FX": "green",
+      "LKS-UK-CREDIT": "amber",
+      "LKS-UK-EQUITIES": "green",
+    });
   });
 
   it("leaves exactly two data problems for the Data screen: a missing day for LKS-EU and a VaR without hypothetical P&L for LKS-AP; VaR moves every day", () => {
@@ -86,6 +119,8 @@ describe.each([
 
   it("is the same every time it is generated (seeded)", () => {
     const dates = demoDates(today, holidays);
-    expect(serialiseObservationCsv(demoRowsFor("LKS-EU", dates))).toBe(serialiseObservationCsv(demoRowsFor("LKS-EU", dates)));
+    expect(serialiseObservationCsv(demoRowsFor("LKS-EU", dates))).toBe(
+      serialiseObservationCsv(demoRowsFor("LKS-EU", dates)),
+    );
   });
 });

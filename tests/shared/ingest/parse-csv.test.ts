@@ -9,21 +9,35 @@ describe("amounts in a daily file", () => {
   it("when an amount has more than 13 whole digits, then the cell is refused with that reason (a double could not store it exactly)", () => {
     const parsed = one("12345678901234.5,-1,10");
     expect(parsed.rows).toEqual([]);
-    expect(parsed.errors).toEqual([{ line: 2, column: "actual_pnl", message: '"12345678901234.5" has more than 13 digits before the decimal point' }]);
+    expect(parsed.errors).toEqual([
+      { line: 2, column: "actual_pnl", message: '"12345678901234.5" has more than 13 digits before the decimal point' },
+    ]);
   });
 
   it("when an amount has 13 whole digits and cents, then it is stored exactly as written", () => {
-    expect(one("-9999999999999.99,1234567890123.45,10").rows[0]).toMatchObject({ actual_pnl: -9999999999999.99, hypothetical_pnl: 1234567890123.45 });
+    expect(one("-9999999999999.99,1234567890123.45,10").rows[0]).toMatchObject({
+      actual_pnl: -9999999999999.99,
+      hypothetical_pnl: 1234567890123.45,
+    });
   });
 
   it("when an amount ends in half a cent, then it rounds away from zero whatever its sign (common practice)", () => {
-    expect(one("0.125,-0.125,10.005").rows[0]).toMatchObject({ actual_pnl: 0.13, hypothetical_pnl: -0.13, var_99: 10.01 });
+    expect(one("0.125,-0.125,10.005").rows[0]).toMatchObject({
+      actual_pnl: 0.13,
+      hypothetical_pnl: -0.13,
+      var_99: 10.01,
+    });
   });
 });
 
 describe("one row per portfolio and day", () => {
-  const ref2 = { portfolios: new Map(["BOOK-A", "BOOK-B"].map((c) => [c, { entityCode: "E1", holidays: new Map<string, string>() }])) };
-  const file = (lines: string[]) => parseObservationCsv(`${HEADER}\n${lines.map((l) => `${l},-1,-1,10`).join("\n")}\n`, ref2);
+  const ref2 = {
+    portfolios: new Map(
+      ["BOOK-A", "BOOK-B"].map((c) => [c, { entityCode: "E1", holidays: new Map<string, string>() }]),
+    ),
+  };
+  const file = (lines: string[]) =>
+    parseObservationCsv(`${HEADER}\n${lines.map((l) => `${l},-1,-1,10`).join("\n")}\n`, ref2);
 
   it("when a day comes back after later days, in order or not, then the repeat is refused with the line it first appeared on", () => {
     const parsed = file([

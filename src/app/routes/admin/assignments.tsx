@@ -21,11 +21,11 @@ export default function AssignmentsRoute() {
   const { data: entities } = useSuspenseQuery(entityQueries.all());
   return (
     <section aria-labelledby="assignments-title" className="flex flex-col gap-3">
-        <PageTitle>Regulator access</PageTitle>
+      <PageTitle>Regulator access</PageTitle>
       <h1 id="assignments-title">Regulator access</h1>
       <p className="text-sm text-ink-muted">
-        A regulator user sees only the filed packs of the entities granted here. Removing access takes effect on their next
-        request.
+        A regulator user sees only the filed packs of the entities granted here. Removing access takes effect on their
+        next request.
       </p>
       <AssignmentsPanel assignments={assignments} users={users} entities={entities} />
     </section>

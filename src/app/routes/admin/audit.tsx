@@ -15,10 +15,12 @@ function pageParams(search: URLSearchParams): AuditPageParams {
   return { page, action };
 }
 
-export const clientLoader = (queryClient: QueryClient) => async ({ request }: LoaderFunctionArgs) => {
-  await queryClient.ensureQueryData(auditQueries.page(pageParams(new URL(request.url).searchParams)));
-  return null;
-};
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    await queryClient.ensureQueryData(auditQueries.page(pageParams(new URL(request.url).searchParams)));
+    return null;
+  };
 
 export default function AuditRoute() {
   const [search] = useSearchParams();
@@ -41,17 +43,33 @@ export default function AuditRoute() {
 
   return (
     <section aria-labelledby="audit-title" className="flex flex-col gap-3">
-        <PageTitle>Audit log</PageTitle>
+      <PageTitle>Audit log</PageTitle>
       <div className="flex items-baseline justify-between gap-4">
         <h1 id="audit-title">Audit log</h1>
         <p className="figures text-sm text-ink-muted" aria-live="polite">
-          {total === 0 ? "No events" : `${first.toLocaleString("en-GB")}–${last.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}`}
+          {total === 0
+            ? "No events"
+            : `${first.toLocaleString("en-GB")}–${last.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}`}
           {isFetching && " · loading…"}
         </p>
       </div>
-      <p className="text-sm text-ink-muted">Every sign-in, failed sign-in and administrative change, newest first. Entries cannot be edited.</p>
-      <form onSubmit={filter} className="flex flex-wrap items-end gap-2" role="search" aria-label="Filter the audit log">
-        <TextField label="Action" list="audit-actions" value={action} onChange={(e) => setAction(e.target.value)} className="w-64" placeholder="e.g. user.create" />
+      <p className="text-sm text-ink-muted">
+        Every sign-in, failed sign-in and administrative change, newest first. Entries cannot be edited.
+      </p>
+      <form
+        onSubmit={filter}
+        className="flex flex-wrap items-end gap-2"
+        role="search"
+        aria-label="Filter the audit log"
+      >
+        <TextField
+          label="Action"
+          list="audit-actions"
+          value={action}
+          onChange={(e) => setAction(e.target.value)}
+          className="w-64"
+          placeholder="e.g. user.create"
+        />
         <datalist id="audit-actions">
           {knownActions.map((a) => (
             <option key={a} value={a} />
@@ -66,7 +84,9 @@ export default function AuditRoute() {
           </Link>
         )}
       </form>
-      <FormMessage>{error ? (isApiError(error) ? error.message : "The audit log could not load.") : undefined}</FormMessage>
+      <FormMessage>
+        {error ? (isApiError(error) ? error.message : "The audit log could not load.") : undefined}
+      </FormMessage>
       <div className={isPlaceholderData ? "opacity-60" : undefined}>
         <AuditTable events={data?.items ?? []} filtered={Boolean(params.action)} />
       </div>

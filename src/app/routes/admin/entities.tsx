@@ -21,7 +21,9 @@ export default function EntitiesRoute() {
           <h1 id="entities-title">Entities</h1>
           <p className="figures text-sm text-ink-muted">{entities.length} in total</p>
         </div>
-        <p className="text-sm text-ink-muted">Open an entity to edit it and to manage its portfolios and holiday calendar.</p>
+        <p className="text-sm text-ink-muted">
+          Open an entity to edit it and to manage its portfolios and holiday calendar.
+        </p>
         <EntityListTable entities={entities} hrefFor={paths.adminEntity.href} />
       </section>
       <section className="border-t border-rule pt-5">

@@ -9,16 +9,19 @@ import { PortfoliosPanel } from "@/features/entities/components/portfolios-panel
 import { ruleSetLabels } from "@/features/entities/rule-sets";
 import { PageTitle } from "@/components/ui/page-title";
 
-export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
-  const code = params.code ?? "";
-  const [entities] = await Promise.all([
-    queryClient.ensureQueryData(entityQueries.all()),
-    queryClient.ensureQueryData(entityQueries.portfolios(code)),
-    queryClient.ensureQueryData(entityQueries.holidays(code)),
-  ]);
-  if (!entities.some((e) => e.code === code)) throw data(`There is no entity with the code ${code}.`, { status: 404 });
-  return null;
-};
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ params }: LoaderFunctionArgs) => {
+    const code = params.code ?? "";
+    const [entities] = await Promise.all([
+      queryClient.ensureQueryData(entityQueries.all()),
+      queryClient.ensureQueryData(entityQueries.portfolios(code)),
+      queryClient.ensureQueryData(entityQueries.holidays(code)),
+    ]);
+    if (!entities.some((e) => e.code === code))
+      throw data(`There is no entity with the code ${code}.`, { status: 404 });
+    return null;
+  };
 
 export default function EntityRoute() {
   const code = useParams().code ?? "";
@@ -41,8 +44,9 @@ export default function EntityRoute() {
           {entity.name} <span className="font-normal text-ink-muted">· {entity.code}</span>
         </h1>
         <p className="mt-1 text-sm text-ink-muted">
-          {ruleSetLabels[entity.regime]} · {entity.currency} · {portfolios.length} {portfolios.length === 1 ? "portfolio" : "portfolios"} ·{" "}
-          {holidays.length} {holidays.length === 1 ? "holiday" : "holidays"}
+          {ruleSetLabels[entity.regime]} · {entity.currency} · {portfolios.length}{" "}
+          {portfolios.length === 1 ? "portfolio" : "portfolios"} · {holidays.length}{" "}
+          {holidays.length === 1 ? "holiday" : "holidays"}
         </p>
       </div>
       <section className="border-t border-rule pt-5">

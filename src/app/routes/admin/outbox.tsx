@@ -32,7 +32,10 @@ export default function OutboxRoute() {
   const messages = list.data?.messages ?? [];
   const wanted = search.get("message") ?? undefined;
   const selectedId = wanted ?? messages[0]?.id;
-  const message = useQuery({ ...outboxQueries.message(selectedId ?? ""), enabled: selectedId !== undefined && list.isSuccess });
+  const message = useQuery({
+    ...outboxQueries.message(selectedId ?? ""),
+    enabled: selectedId !== undefined && list.isSuccess,
+  });
   const messageHref = (id: string) => paths.adminOutbox.href({ message: id });
   const newest = messages[0];
 
@@ -45,8 +48,9 @@ export default function OutboxRoute() {
           <DevelopmentOnly />
         </div>
         <p className="max-w-3xl text-sm text-ink-muted">
-          The e-mails Quartermark sent from this machine, as the local mail sink kept them: each filing pack to a supervisor, exactly as it left.
-          None of them reached a real mail server. In production Quartermark hands e-mail to the bank's mail server and this page does not exist.
+          The e-mails Quartermark sent from this machine, as the local mail sink kept them: each filing pack to a
+          supervisor, exactly as it left. None of them reached a real mail server. In production Quartermark hands
+          e-mail to the bank's mail server and this page does not exist.
         </p>
       </header>
 
@@ -72,7 +76,11 @@ export default function OutboxRoute() {
                   {newest && ` · latest ${formatDateTime(newest.storedAt)}`}
                   {list.isFetching && " · reading…"}
                 </p>
-                <Button variant="secondary" size="sm" onClick={() => void queryClient.invalidateQueries({ queryKey: outboxKeys.list() })}>
+                <Button
+                  variant="secondary"
+                  size="sm"
+                  onClick={() => void queryClient.invalidateQueries({ queryKey: outboxKeys.list() })}
+                >
                   Look again
                 </Button>
               </div>
@@ -91,7 +99,9 @@ export default function OutboxRoute() {
             (message.data ? (
               <OutboxMessageView key={message.data.id} message={message.data} folder={list.data.folder} />
             ) : message.isError ? (
-              <FormMessage>{isApiError(message.error) ? message.error.message : "The message could not be read."}</FormMessage>
+              <FormMessage>
+                {isApiError(message.error) ? message.error.message : "The message could not be read."}
+              </FormMessage>
             ) : (
               <p className="text-sm text-ink-muted">Opening the message…</p>
             ))}

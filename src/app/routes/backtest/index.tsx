@@ -23,7 +23,8 @@ export default function BacktestIndexRoute() {
       <PageTitle>Backtest</PageTitle>
       <h1 id="backtest-title">Backtest</h1>
       <EmptyState title={entities.length === 0 ? "No legal entities are set up yet" : "No portfolio to backtest yet"}>
-        An administrator adds each entity's top-of-house and desk portfolios; their backtests open here once daily data is loaded.
+        An administrator adds each entity's top-of-house and desk portfolios; their backtests open here once daily data
+        is loaded.
       </EmptyState>
     </section>
   );

@@ -36,21 +36,26 @@ const asOfOf = (search: URLSearchParams) => {
 /** How much history the P&L chart shows before the window starts, so the shaded window has context. */
 const CONTEXT_DAYS = 125;
 
-export const clientLoader = (queryClient: QueryClient) => async ({ params, request }: LoaderFunctionArgs) => {
-  const code = params.portfolio ?? "";
-  const asOf = asOfOf(new URL(request.url).searchParams);
-  await Promise.all([
-    // No data yet, or a bad date, is said inside the screen rather than instead of it.
-    queryClient.ensureQueryData(backtestQueries.detail(code, asOf)).catch(() => undefined),
-    queryClient.ensureQueryData(backtestQueries.rolling(code)).catch(() => undefined),
-    queryClient.ensureQueryData(entityQueries.all()),
-  ]);
-  return null;
-};
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ params, request }: LoaderFunctionArgs) => {
+    const code = params.portfolio ?? "";
+    const asOf = asOfOf(new URL(request.url).searchParams);
+    await Promise.all([
+      // No data yet, or a bad date, is said inside the screen rather than instead of it.
+      queryClient.ensureQueryData(backtestQueries.detail(code, asOf)).catch(() => undefined),
+      queryClient.ensureQueryData(backtestQueries.rolling(code)).catch(() => undefined),
+      queryClient.ensureQueryData(entityQueries.all()),
+    ]);
+    return null;
+  };
 
 function ChartSlot({ height }: { height: number }) {
   return (
-    <div style={{ height }} className="flex items-center justify-center border border-dashed border-rule text-xs text-ink-muted">
+    <div
+      style={{ height }}
+      className="flex items-center justify-center border border-dashed border-rule text-xs text-ink-muted"
+    >
       Drawing the chart…
     </div>
   );
@@ -61,18 +66,37 @@ const Why = memo(function Why({ bt, code }: { bt: BacktestResponse; code: string
   const rolling = useQuery(backtestQueries.rolling(code));
   const rows = rolling.data ?? [];
   const startAt = bt.window.start ? rows.findIndex((r) => r.date === bt.window.start) : -1;
-  const from = rolling.data ? (startAt >= 0 ? rows[Math.max(0, startAt - CONTEXT_DAYS)].date : bt.window.start ?? undefined) : undefined;
-  const observations = useQuery({ ...backtestQueries.observations(code, from, bt.latestDate), enabled: rolling.isSuccess });
+  const from = rolling.data
+    ? startAt >= 0
+      ? rows[Math.max(0, startAt - CONTEXT_DAYS)].date
+      : (bt.window.start ?? undefined)
+    : undefined;
+  const observations = useQuery({
+    ...backtestQueries.observations(code, from, bt.latestDate),
+    enabled: rolling.isSuccess,
+  });
   return (
     <section aria-labelledby="why-title" className="flex flex-col gap-5">
       <h2 id="why-title">Why: the days, the trend and the tests</h2>
-      {observations.error && <FormMessage>{isApiError(observations.error) ? observations.error.message : "The daily data could not be read."}</FormMessage>}
+      {observations.error && (
+        <FormMessage>
+          {isApiError(observations.error) ? observations.error.message : "The daily data could not be read."}
+        </FormMessage>
+      )}
       <Suspense fallback={<ChartSlot height={300} />}>
         {observations.data ? <Charts.Pnl bt={bt} observations={observations.data} /> : <ChartSlot height={300} />}
       </Suspense>
-      {rolling.error && <FormMessage>{isApiError(rolling.error) ? rolling.error.message : "The rolling count could not be read."}</FormMessage>}
+      {rolling.error && (
+        <FormMessage>
+          {isApiError(rolling.error) ? rolling.error.message : "The rolling count could not be read."}
+        </FormMessage>
+      )}
       <Suspense fallback={<ChartSlot height={220} />}>
-        {rolling.data ? <Charts.Rolling rows={rolling.data} regime={bt.regime} asOf={bt.asOf} /> : <ChartSlot height={220} />}
+        {rolling.data ? (
+          <Charts.Rolling rows={rolling.data} regime={bt.regime} asOf={bt.asOf} />
+        ) : (
+          <ChartSlot height={220} />
+        )}
       </Suspense>
       <TestsPanel bt={bt} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
@@ -104,23 +128,38 @@ function WhatNext({ bt, code, role }: { bt: BacktestResponse; code: string; role
     bt.exceptionDays.length === 0
       ? "Nothing to explain."
       : role === "analyst"
-      ? unreviewed > 0
-        ? `${plural(unreviewed, "exception is", "exceptions are")} waiting for an explanation.`
-        : "Every exception in the window is explained."
-      : requested > 0
-        ? `${plural(requested, "exclusion request waits", "exclusion requests wait")} for the supervisor's decision to be recorded.`
-        : "No exclusion request is waiting for a decision.";
+        ? unreviewed > 0
+          ? `${plural(unreviewed, "exception is", "exceptions are")} waiting for an explanation.`
+          : "Every exception in the window is explained."
+        : requested > 0
+          ? `${plural(requested, "exclusion request waits", "exclusion requests wait")} for the supervisor's decision to be recorded.`
+          : "No exclusion request is waiting for a decision.";
   return (
     <section id="exceptions" aria-labelledby="next-title" className="flex flex-col gap-3">
       <div className="flex flex-wrap items-baseline justify-between gap-3">
         <h2 id="next-title">What next: exceptions and their reviews</h2>
         <p className="text-sm text-ink-soft">{todo}</p>
       </div>
-      <ExceptionTable days={bt.exceptionDays} currency={bt.entity.currency} selected={selected?.date ?? null} onSelect={select} />
+      <ExceptionTable
+        days={bt.exceptionDays}
+        currency={bt.entity.currency}
+        selected={selected?.date ?? null}
+        onSelect={select}
+      />
       {selected ? (
-        <ReviewPanel code={code} day={selected} role={role} currency={bt.entity.currency} alsoInvalidate={[overviewQueries.root()]} />
+        <ReviewPanel
+          code={code}
+          day={selected}
+          role={role}
+          currency={bt.entity.currency}
+          alsoInvalidate={[overviewQueries.root()]}
+        />
       ) : (
-        bt.exceptionDays.length > 0 && <p className="text-sm text-ink-muted">Choose an exception to {role === "analyst" ? "explain it" : "read its review"}.</p>
+        bt.exceptionDays.length > 0 && (
+          <p className="text-sm text-ink-muted">
+            Choose an exception to {role === "analyst" ? "explain it" : "read its review"}.
+          </p>
+        )
       )}
     </section>
   );
@@ -236,14 +275,20 @@ export default function BacktestRoute() {
         <p className="text-sm text-ink-muted">Reading the backtest…</p>
       ) : noData ? (
         <EmptyState title={`No daily data for ${code} yet`}>
-          An analyst uploads the daily P&amp;L and VaR under <Link to={paths.data.href()}>Data</Link>; the backtest appears here as soon as the first day is
-          committed.
+          An analyst uploads the daily P&amp;L and VaR under <Link to={paths.data.href()}>Data</Link>; the backtest
+          appears here as soon as the first day is committed.
         </EmptyState>
       ) : !bt ? (
-        <FormMessage>{isApiError(backtest.error) ? backtest.error.message : "The backtest could not be read."}</FormMessage>
+        <FormMessage>
+          {isApiError(backtest.error) ? backtest.error.message : "The backtest could not be read."}
+        </FormMessage>
       ) : (
         <>
-          {backtest.error && <FormMessage>{isApiError(backtest.error) ? backtest.error.message : "The backtest could not be updated."}</FormMessage>}
+          {backtest.error && (
+            <FormMessage>
+              {isApiError(backtest.error) ? backtest.error.message : "The backtest could not be updated."}
+            </FormMessage>
+          )}
           <WhereWeStand bt={bt} />
           <Why bt={bt} code={code} />
           <WhatNext bt={bt} code={code} role={user!.role} />

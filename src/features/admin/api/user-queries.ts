@@ -1,11 +1,22 @@
 import { queryOptions, useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
-import { userListSchema, userSchema, type CreateUserBody, type ResetPasswordBody, type UpdateUserBody, type User } from "@shared/schemas/admin";
+import {
+  userListSchema,
+  userSchema,
+  type CreateUserBody,
+  type ResetPasswordBody,
+  type UpdateUserBody,
+  type User,
+} from "@shared/schemas/admin";
 import { api, isApiError } from "@/lib/api-client";
 import { assignmentQueries } from "./assignment-queries";
 
 export const userQueries = {
   root: () => ["users"] as const,
-  all: () => queryOptions({ queryKey: [...userQueries.root(), "list"] as const, queryFn: () => api.get("/api/users", userListSchema) }),
+  all: () =>
+    queryOptions({
+      queryKey: [...userQueries.root(), "list"] as const,
+      queryFn: () => api.get("/api/users", userListSchema),
+    }),
 };
 
 /** The user as it now stands, from a 409 `stale` refusal (`details.current`): someone else changed them first. */

@@ -25,7 +25,11 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
       userId: userId ? undefined : "Choose a regulator",
       entityCode: entityCode ? undefined : "Choose an entity",
     };
-    if (!next.userId && !next.entityCode && assignments.some((a) => a.userId === Number(userId) && a.entityCode === entityCode)) {
+    if (
+      !next.userId &&
+      !next.entityCode &&
+      assignments.some((a) => a.userId === Number(userId) && a.entityCode === entityCode)
+    ) {
       next.entityCode = "This regulator can already see this entity";
     }
     setErrors(next);
@@ -58,7 +62,13 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
       <FormMessage>{formError}</FormMessage>
       <FormMessage tone="done">{done}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
-        <SelectField label="Regulator" value={userId} onChange={(e) => setUserId(e.target.value)} error={errors.userId} className="w-72">
+        <SelectField
+          label="Regulator"
+          value={userId}
+          onChange={(e) => setUserId(e.target.value)}
+          error={errors.userId}
+          className="w-72"
+        >
           <option value="">Choose…</option>
           {regulators.map((u) => (
             <option key={u.id} value={u.id}>
@@ -66,7 +76,13 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
             </option>
           ))}
         </SelectField>
-        <SelectField label="Entity" value={entityCode} onChange={(e) => setEntityCode(e.target.value)} error={errors.entityCode} className="w-72">
+        <SelectField
+          label="Entity"
+          value={entityCode}
+          onChange={(e) => setEntityCode(e.target.value)}
+          error={errors.entityCode}
+          className="w-72"
+        >
           <option value="">Choose…</option>
           {entities.map((en) => (
             <option key={en.code} value={en.code}>
@@ -86,7 +102,9 @@ export function AssignmentsPanel(props: Props) {
   const remove = useRemoveAssignment();
   const { assignments, entities } = props;
   const nameOf = (code: string) => entities.find((e) => e.code === code)?.name;
-  const sorted = [...assignments].sort((a, b) => a.name.localeCompare(b.name) || a.entityCode.localeCompare(b.entityCode));
+  const sorted = [...assignments].sort(
+    (a, b) => a.name.localeCompare(b.name) || a.entityCode.localeCompare(b.entityCode),
+  );
   const removeError = isApiError(remove.error) ? remove.error.message : undefined;
 
   return (

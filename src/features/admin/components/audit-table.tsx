@@ -3,7 +3,8 @@ import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { compactJson, formatDateTime } from "@/lib/format";
 
 function Change({ before, after }: { before: unknown; after: unknown }) {
-  if ((before === null || before === undefined) && (after === null || after === undefined)) return <span className="text-ink-faint">—</span>;
+  if ((before === null || before === undefined) && (after === null || after === undefined))
+    return <span className="text-ink-faint">—</span>;
   return (
     <details className="max-w-md">
       <summary className="text-xs text-accent">Before → after</summary>
@@ -20,7 +21,9 @@ function Change({ before, after }: { before: unknown; after: unknown }) {
 export function AuditTable({ events, filtered }: { events: AuditEvent[]; filtered: boolean }) {
   if (events.length === 0) {
     return filtered ? (
-      <EmptyState title="No events with this action">Clear the filter or check the spelling of the action name.</EmptyState>
+      <EmptyState title="No events with this action">
+        Clear the filter or check the spelling of the action name.
+      </EmptyState>
     ) : (
       <EmptyState title="No events recorded yet">
         Sign-ins, failed sign-ins and every change made under Administration are written here as they happen.

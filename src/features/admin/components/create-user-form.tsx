@@ -16,7 +16,8 @@ export function CreateUserForm() {
   const [values, setValues] = useState(empty);
   const [errors, setErrors] = useState<FieldErrors>({});
   const [done, setDone] = useState<string>();
-  const set = (k: keyof typeof empty) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [k]: e.target.value }));
+  const set = (k: keyof typeof empty) => (e: { target: { value: string } }) =>
+    setValues((v) => ({ ...v, [k]: e.target.value }));
 
   function submit(e: FormEvent) {
     e.preventDefault();
@@ -44,13 +45,34 @@ export function CreateUserForm() {
   const formError = formLevelMessage(create.error);
 
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="create-user-title" className="flex flex-col gap-3">
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-labelledby="create-user-title"
+      className="flex flex-col gap-3"
+    >
       <h2 id="create-user-title">Add a user</h2>
       <FormMessage>{formError}</FormMessage>
       <FormMessage tone="done">{done}</FormMessage>
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
-        <TextField label="Name" name="name" autoComplete="off" value={values.name} onChange={set("name")} error={errors.name} />
-        <TextField label="E-mail" name="email" type="email" autoComplete="off" value={values.email} onChange={set("email")} error={errors.email} />
+        <TextField
+          label="Name"
+          name="name"
+          autoComplete="off"
+          value={values.name}
+          onChange={set("name")}
+          error={errors.name}
+        />
+        <TextField
+          label="E-mail"
+          name="email"
+          type="email"
+          autoComplete="off"
+          value={values.email}
+          onChange={set("email")}
+          error={errors.email}
+        />
         <SelectField label="Role" name="role" value={values.role} onChange={set("role")} error={errors.role}>
           {roleIds.map((r) => (
             <option key={r} value={r}>

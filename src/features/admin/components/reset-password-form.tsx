@@ -26,10 +26,16 @@ export function ResetPasswordForm({ user, onClose }: { user: User; onClose: (mes
   }
 
   const formError =
-    staleUserMessage(reset.error) ?? (isApiError(reset.error) && !fieldErrorsOf(reset.error).password ? reset.error.message : undefined);
+    staleUserMessage(reset.error) ??
+    (isApiError(reset.error) && !fieldErrorsOf(reset.error).password ? reset.error.message : undefined);
 
   return (
-    <form onSubmit={submit} noValidate aria-label={`Set a new password for ${user.name}`} className="flex flex-col gap-2 py-1">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label={`Set a new password for ${user.name}`}
+      className="flex flex-col gap-2 py-1"
+    >
       <FormMessage>{formError}</FormMessage>
       <div className="flex flex-wrap items-end gap-2">
         <TextField

@@ -19,15 +19,16 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
   if (users.length === 0) {
     return (
       <EmptyState title="No users yet">
-        Add the first user with the form on this page: give each person the role of their job (analyst, chief risk officer,
-        treasury, regulator or administrator).
+        Add the first user with the form on this page: give each person the role of their job (analyst, chief risk
+        officer, treasury, regulator or administrator).
       </EmptyState>
     );
   }
 
   const sorted = [...users].sort((a, b) => Number(a.disabled) - Number(b.disabled) || a.name.localeCompare(b.name));
   const error =
-    staleUserMessage(update.error) ?? (isApiError(update.error) ? update.error.message : update.error ? "The change could not be saved." : undefined);
+    staleUserMessage(update.error) ??
+    (isApiError(update.error) ? update.error.message : update.error ? "The change could not be saved." : undefined);
 
   function change(user: User, body: { role?: Role; disabled?: boolean }, message: string) {
     setNotice(undefined);
@@ -90,7 +91,13 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
                   </Td>
                   <Td className="text-right whitespace-nowrap">
                     <div className="flex justify-end gap-3">
-                      <Button variant="quiet" size="sm" aria-label={`Reset password of ${u.name}`} onClick={() => setResetFor(resetFor === u.id ? null : u.id)} aria-expanded={resetFor === u.id}>
+                      <Button
+                        variant="quiet"
+                        size="sm"
+                        aria-label={`Reset password of ${u.name}`}
+                        onClick={() => setResetFor(resetFor === u.id ? null : u.id)}
+                        aria-expanded={resetFor === u.id}
+                      >
                         Reset password
                       </Button>
                       {!self && (
@@ -103,7 +110,9 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
                             change(
                               u,
                               { disabled: !u.disabled },
-                              u.disabled ? `${u.name} can sign in again.` : `${u.name} can no longer sign in; open sessions have ended.`,
+                              u.disabled
+                                ? `${u.name} can sign in again.`
+                                : `${u.name} can no longer sign in; open sessions have ended.`,
                             )
                           }
                         >

@@ -5,7 +5,11 @@ import { api } from "@/lib/api-client";
 export const apiTokenQueries = {
   root: () => ["api-tokens"] as const,
   /** The signed-in person's own tokens, newest first (never a secret: that comes once, with the creation). */
-  mine: () => queryOptions({ queryKey: [...apiTokenQueries.root(), "mine"] as const, queryFn: () => api.get("/api/tokens", apiTokenListSchema) }),
+  mine: () =>
+    queryOptions({
+      queryKey: [...apiTokenQueries.root(), "mine"] as const,
+      queryFn: () => api.get("/api/tokens", apiTokenListSchema),
+    }),
 };
 
 /** Creates a token; the answer carries its secret, which the screen shows this once. */

@@ -1,5 +1,10 @@
 import { useRef, useState, type FormEvent } from "react";
-import { API_TOKEN_DEFAULT_DAYS, API_TOKEN_MAX_DAYS, createApiTokenBodySchema, type CreatedApiToken } from "@shared/schemas/api-token";
+import {
+  API_TOKEN_DEFAULT_DAYS,
+  API_TOKEN_MAX_DAYS,
+  createApiTokenBodySchema,
+  type CreatedApiToken,
+} from "@shared/schemas/api-token";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { fieldErrorsOf } from "@/lib/api-client";
@@ -20,14 +25,19 @@ export function CreateTokenForm({ onCreated }: { onCreated: (token: CreatedApiTo
   const formRef = useRef<HTMLFormElement>(null);
   const [values, setValues] = useState(empty);
   const [errors, setErrors] = useState<FieldErrors>({});
-  const set = (k: keyof typeof empty) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [k]: e.target.value }));
+  const set = (k: keyof typeof empty) => (e: { target: { value: string } }) =>
+    setValues((v) => ({ ...v, [k]: e.target.value }));
 
   function submit(e: FormEvent) {
     e.preventDefault();
     create.reset();
     const r = validate(createApiTokenBodySchema, { name: values.name, expiresInDays: daysOf(values.expiresInDays) });
     if (!r.ok) {
-      setErrors(typeof daysOf(values.expiresInDays) === "string" && r.errors.expiresInDays ? { ...r.errors, expiresInDays: "Enter a number of days" } : r.errors);
+      setErrors(
+        typeof daysOf(values.expiresInDays) === "string" && r.errors.expiresInDays
+          ? { ...r.errors, expiresInDays: "Enter a number of days" }
+          : r.errors,
+      );
       focusFirstInvalid(formRef.current);
       return;
     }
@@ -45,7 +55,13 @@ export function CreateTokenForm({ onCreated }: { onCreated: (token: CreatedApiTo
   }
 
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="create-token-title" className="flex flex-col gap-3">
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-labelledby="create-token-title"
+      className="flex flex-col gap-3"
+    >
       <h2 id="create-token-title">Create a token</h2>
       <FormMessage>{formLevelMessage(create.error)}</FormMessage>
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">

@@ -24,7 +24,11 @@ function StatusCell({ token }: { token: ApiToken }) {
 /** Asks before revoking: scripts that use the token stop at once, and a revoked token cannot be brought back. */
 function RevokeConfirmation({ token, onClose }: { token: ApiToken; onClose: (message?: string) => void }) {
   const revoke = useRevokeApiToken();
-  const error = isApiError(revoke.error) ? revoke.error.message : revoke.error ? "The token could not be revoked; try again." : undefined;
+  const error = isApiError(revoke.error)
+    ? revoke.error.message
+    : revoke.error
+      ? "The token could not be revoked; try again."
+      : undefined;
   return (
     <div role="group" aria-label={`Revoke ${token.name}`} className="flex flex-col gap-2">
       <FormMessage>{error}</FormMessage>
@@ -37,7 +41,11 @@ function RevokeConfirmation({ token, onClose }: { token: ApiToken; onClose: (mes
             variant="danger"
             ref={focusWhenShown}
             disabled={revoke.isPending}
-            onClick={() => revoke.mutate(token.id, { onSuccess: () => onClose(`“${token.name}” is revoked; scripts using it are refused.`) })}
+            onClick={() =>
+              revoke.mutate(token.id, {
+                onSuccess: () => onClose(`“${token.name}” is revoked; scripts using it are refused.`),
+              })
+            }
           >
             {revoke.isPending ? "Revoking…" : "Revoke token"}
           </Button>

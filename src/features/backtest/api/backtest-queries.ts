@@ -78,7 +78,8 @@ export function useRecordDecision(code: string, date: string, alsoInvalidate: re
 
 /** The server's limit on one evidence file (server/modules/exceptions: EVIDENCE_MAX_BYTES). */
 export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
-export const EVIDENCE_ACCEPT = ".pdf,.png,.jpg,.jpeg,.txt,.csv,.eml,application/pdf,image/png,image/jpeg,text/plain,text/csv,message/rfc822";
+export const EVIDENCE_ACCEPT =
+  ".pdf,.png,.jpg,.jpeg,.txt,.csv,.eml,application/pdf,image/png,image/jpeg,text/plain,text/csv,message/rfc822";
 
 /** POST the file as multipart form field "file"; the API client speaks JSON only, so this one call uses fetch directly. */
 async function sendEvidence(code: string, date: string, file: File): Promise<Review> {
@@ -111,7 +112,12 @@ async function sendEvidence(code: string, date: string, file: File): Promise<Rev
     throw new ApiError(res.status, "http_error", `The server answered ${res.status}.`);
   }
   const parsed = reviewSchema.safeParse(json);
-  if (!parsed.success) throw new ApiError(res.status, "unexpected_response", "The server's answer to the evidence upload did not have the expected shape.");
+  if (!parsed.success)
+    throw new ApiError(
+      res.status,
+      "unexpected_response",
+      "The server's answer to the evidence upload did not have the expected shape.",
+    );
   return parsed.data;
 }
 

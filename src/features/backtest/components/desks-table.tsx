@@ -20,8 +20,8 @@ export function DesksTable({ desks }: { desks: DeskResult[] }) {
         Trading desks: backtesting and P&amp;L attribution
       </h3>
       <p className="text-xs text-ink-muted">
-        A desk fails backtesting above 12 exceptions at 99% or above 30 at 97.5% in 250 days. The P&amp;L attribution test compares hypothetical with
-        risk-theoretical P&amp;L.
+        A desk fails backtesting above 12 exceptions at 99% or above 30 at 97.5% in 250 days. The P&amp;L attribution
+        test compares hypothetical with risk-theoretical P&amp;L.
       </p>
       <Table caption="Trading desks">
         <thead>
@@ -51,7 +51,13 @@ export function DesksTable({ desks }: { desks: DeskResult[] }) {
               <Td>{d.backtest.passes ? "Passes" : <span className="font-medium text-danger">Fails</span>}</Td>
               <Td numeric>{d.pla ? d.pla.spearman.toFixed(3) : "—"}</Td>
               <Td numeric>{d.pla ? d.pla.ks.toFixed(3) : "—"}</Td>
-              <Td>{d.pla ? <ZoneBadge zone={d.pla.zone} regime="frtb" /> : <span className="text-xs text-ink-muted">{d.plaUnavailable}</span>}</Td>
+              <Td>
+                {d.pla ? (
+                  <ZoneBadge zone={d.pla.zone} regime="frtb" />
+                ) : (
+                  <span className="text-xs text-ink-muted">{d.plaUnavailable}</span>
+                )}
+              </Td>
             </Tr>
           ))}
         </tbody>

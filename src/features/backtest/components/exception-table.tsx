@@ -1,5 +1,11 @@
 import { useMemo, useState } from "react";
-import { createColumnHelper, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from "@tanstack/react-table";
+import {
+  createColumnHelper,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
 import type { ExceptionDayDto } from "@shared/schemas/backtest";
 import { DataTable } from "@/components/ui/data-table";
 import { EmptyState } from "@/components/ui/table";
@@ -27,7 +33,10 @@ export function ExceptionTable({
   const [sorting, setSorting] = useState<SortingState>([{ id: "date", desc: true }]);
   const columns = useMemo(
     () => [
-      col.accessor("date", { header: "Date", cell: (c) => <span className="figures whitespace-nowrap">{c.getValue()}</span> }),
+      col.accessor("date", {
+        header: "Date",
+        cell: (c) => <span className="figures whitespace-nowrap">{c.getValue()}</span>,
+      }),
       col.accessor("actualPnl", {
         header: `Actual P&L (${currency})`,
         cell: (c) => formatAmount(c.getValue()),
@@ -82,7 +91,12 @@ export function ExceptionTable({
         id: "open",
         header: () => <span className="sr-only">Open</span>,
         cell: (c) => (
-          <Button variant="quiet" size="sm" onClick={() => onSelect(c.row.original.date)} aria-label={`Review the exception of ${c.row.original.date}`}>
+          <Button
+            variant="quiet"
+            size="sm"
+            onClick={() => onSelect(c.row.original.date)}
+            aria-label={`Review the exception of ${c.row.original.date}`}
+          >
             {selected === c.row.original.date ? "Open" : "Review"}
           </Button>
         ),
@@ -99,7 +113,11 @@ export function ExceptionTable({
     getSortedRowModel: getSortedRowModel(),
   });
   if (days.length === 0) {
-    return <EmptyState title="No exception in the window.">Every day's loss stayed within the 99% VaR; there is nothing to review.</EmptyState>;
+    return (
+      <EmptyState title="No exception in the window.">
+        Every day's loss stayed within the 99% VaR; there is nothing to review.
+      </EmptyState>
+    );
   }
   return (
     <DataTable

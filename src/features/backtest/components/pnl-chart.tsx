@@ -1,5 +1,15 @@
 import { useId, useMemo, useState } from "react";
-import { CartesianGrid, ComposedChart, Line, ReferenceArea, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis } from "recharts";
+import {
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ReferenceArea,
+  ResponsiveContainer,
+  Scatter,
+  Tooltip,
+  XAxis,
+  YAxis,
+} from "recharts";
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/upload";
 import { cn } from "@/lib/cn";
@@ -13,24 +23,51 @@ const rule = "#ddd6c8";
 const accent = "#0e6571";
 const loss = "#a3271d";
 
-type Point = { date: string; pnl: number | null; negVar: number | null; exception: number | null; excluded: number | null };
+type Point = {
+  date: string;
+  pnl: number | null;
+  negVar: number | null;
+  exception: number | null;
+  excluded: number | null;
+};
 
 /** A hollow diamond: exception days are told apart by shape as well as colour. */
 function Diamond({ cx, cy, fill }: { cx?: number; cy?: number; fill?: string }) {
   if (cx == null || cy == null) return null;
-  return <path d={`M${cx},${cy - 5}L${cx + 5},${cy}L${cx},${cy + 5}L${cx - 5},${cy}Z`} fill="#fcfaf6" stroke={fill} strokeWidth={1.75} />;
+  return (
+    <path
+      d={`M${cx},${cy - 5}L${cx + 5},${cy}L${cx},${cy + 5}L${cx - 5},${cy}Z`}
+      fill="#fcfaf6"
+      stroke={fill}
+      strokeWidth={1.75}
+    />
+  );
 }
 
 function Cross({ cx, cy, fill }: { cx?: number; cy?: number; fill?: string }) {
   if (cx == null || cy == null) return null;
-  return <path d={`M${cx - 4},${cy - 4}L${cx + 4},${cy + 4}M${cx + 4},${cy - 4}L${cx - 4},${cy + 4}`} stroke={fill} strokeWidth={1.75} />;
+  return (
+    <path
+      d={`M${cx - 4},${cy - 4}L${cx + 4},${cy + 4}M${cx + 4},${cy - 4}L${cx - 4},${cy + 4}`}
+      stroke={fill}
+      strokeWidth={1.75}
+    />
+  );
 }
 
 /**
  * Daily P&L against −VaR, with the exception days (as the engine classified them) marked and the
  * backtesting window shaded. The series plotted are the stored values; nothing is computed here.
  */
-export function PnlChart({ bt, observations, width }: { bt: BacktestResponse; observations: ObservationDto[]; width?: number }) {
+export function PnlChart({
+  bt,
+  observations,
+  width,
+}: {
+  bt: BacktestResponse;
+  observations: ObservationDto[];
+  width?: number;
+}) {
   const [series, setSeries] = useState<Series>(bt.pnlBasis === "hypothetical" ? "hypothetical" : "actual");
   const titleId = useId();
   const summaryId = useId();
@@ -67,7 +104,10 @@ export function PnlChart({ bt, observations, width }: { bt: BacktestResponse; ob
               type="button"
               aria-pressed={series === s}
               onClick={() => setSeries(s)}
-              className={cn("px-2.5 py-1 first:border-r first:border-rule-strong", series === s ? "bg-ink text-paper-raised" : "text-ink-soft hover:text-ink")}
+              className={cn(
+                "px-2.5 py-1 first:border-r first:border-rule-strong",
+                series === s ? "bg-ink text-paper-raised" : "text-ink-soft hover:text-ink",
+              )}
             >
               {s === "actual" ? "Actual P&L" : "Hypothetical P&L"}
             </button>
@@ -75,11 +115,16 @@ export function PnlChart({ bt, observations, width }: { bt: BacktestResponse; ob
         </div>
       </div>
       <p id={summaryId} className="sr-only">
-        {plural(observations.length, "business day", "business days")} from {observations[0]?.date ?? "—"} to {observations.at(-1)?.date ?? "—"};
-        the backtesting window {bt.window.start} to {bt.window.end} is shaded; {plural(marked, "exception", "exceptions")} on {label} in the window are marked.
+        {plural(observations.length, "business day", "business days")} from {observations[0]?.date ?? "—"} to{" "}
+        {observations.at(-1)?.date ?? "—"}; the backtesting window {bt.window.start} to {bt.window.end} is shaded;{" "}
+        {plural(marked, "exception", "exceptions")} on {label} in the window are marked.
       </p>
       <div style={{ height: 300 }} className="w-full">
-        <ResponsiveContainer width={width ?? "100%"} height={300} initialDimension={{ width: width ?? 960, height: 300 }}>
+        <ResponsiveContainer
+          width={width ?? "100%"}
+          height={300}
+          initialDimension={{ width: width ?? 960, height: 300 }}
+        >
           <ComposedChart data={points} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
             <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
             {bt.window.start && bt.window.end && (
@@ -109,29 +154,60 @@ export function PnlChart({ bt, observations, width }: { bt: BacktestResponse; ob
               label={{ value: bt.entity.currency, angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
             />
             <Tooltip
-              formatter={(value, name) => [formatAmount(typeof value === "number" ? value : null, bt.entity.currency), name]}
+              formatter={(value, name) => [
+                formatAmount(typeof value === "number" ? value : null, bt.entity.currency),
+                name,
+              ]}
               labelStyle={{ color: ink, fontWeight: 600 }}
               contentStyle={{ fontSize: 12, borderColor: rule, borderRadius: 2 }}
             />
-            <Line type="linear" dataKey="pnl" name={series === "actual" ? "Actual P&L" : "Hypothetical P&L"} stroke={ink} strokeWidth={1} dot={false} isAnimationActive={false} connectNulls={false} />
-            <Line type="stepAfter" dataKey="negVar" name="−VaR 99%" stroke={accent} strokeWidth={1.25} dot={false} isAnimationActive={false} />
+            <Line
+              type="linear"
+              dataKey="pnl"
+              name={series === "actual" ? "Actual P&L" : "Hypothetical P&L"}
+              stroke={ink}
+              strokeWidth={1}
+              dot={false}
+              isAnimationActive={false}
+              connectNulls={false}
+            />
+            <Line
+              type="stepAfter"
+              dataKey="negVar"
+              name="−VaR 99%"
+              stroke={accent}
+              strokeWidth={1.25}
+              dot={false}
+              isAnimationActive={false}
+            />
             <Scatter dataKey="exception" name="Exception" fill={loss} shape={<Diamond />} isAnimationActive={false} />
-            <Scatter dataKey="excluded" name="Exception excluded by the supervisor" fill={muted} shape={<Cross />} isAnimationActive={false} />
+            <Scatter
+              dataKey="excluded"
+              name="Exception excluded by the supervisor"
+              fill={muted}
+              shape={<Cross />}
+              isAnimationActive={false}
+            />
           </ComposedChart>
         </ResponsiveContainer>
       </div>
       <ul className="flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-soft" aria-label="Chart key">
         <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-px w-4 bg-ink" /> {series === "actual" ? "Actual P&L" : "Hypothetical P&L"}
+          <span aria-hidden="true" className="inline-block h-px w-4 bg-ink" />{" "}
+          {series === "actual" ? "Actual P&L" : "Hypothetical P&L"}
         </li>
         <li className="flex items-center gap-1.5">
           <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-accent" /> −VaR 99%
         </li>
         <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block size-2 rotate-45 border-[1.5px] border-zone-red" /> Exception (loss beyond VaR)
+          <span aria-hidden="true" className="inline-block size-2 rotate-45 border-[1.5px] border-zone-red" /> Exception
+          (loss beyond VaR)
         </li>
         <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="font-semibold text-ink-muted">×</span> Excluded by the supervisor
+          <span aria-hidden="true" className="font-semibold text-ink-muted">
+            ×
+          </span>{" "}
+          Excluded by the supervisor
         </li>
         <li className="flex items-center gap-1.5">
           <span aria-hidden="true" className="inline-block h-2.5 w-4 bg-accent/10" /> Current backtesting window

@@ -43,14 +43,16 @@ export function ReviewRecord({ review }: { review: Review }) {
         <>
           <dt className="text-ink-muted">Supervisor's decision</dt>
           <dd>
-            <span className="figures">{review.decisionReference}</span> of <span className="figures">{review.decisionDate ?? "—"}</span>
+            <span className="figures">{review.decisionReference}</span> of{" "}
+            <span className="figures">{review.decisionDate ?? "—"}</span>
             {review.decidedBy && `, recorded by ${review.decidedBy}`}
           </dd>
         </>
       )}
       <dt className="text-ink-muted">Reviewed by</dt>
       <dd>
-        {review.reviewedBy}, {formatDateTime(review.reviewedAt)} <span className="text-ink-muted">· version {review.version}</span>
+        {review.reviewedBy}, {formatDateTime(review.reviewedAt)}{" "}
+        <span className="text-ink-muted">· version {review.version}</span>
       </dd>
     </dl>
   );
@@ -62,7 +64,8 @@ function SavedMeanwhile({ current, onTake, mine }: { current: Review; onTake?: (
     <Notice role="alert" className="py-2">
       <div className="flex flex-col gap-2">
         <p className="font-medium">
-          {current.reviewedBy} saved this review while you were working on it (now version {current.version}). This is what stands:
+          {current.reviewedBy} saved this review while you were working on it (now version {current.version}). This is
+          what stands:
         </p>
         <ReviewRecord review={current} />
         <p className="text-ink-soft">
@@ -81,7 +84,15 @@ function SavedMeanwhile({ current, onTake, mine }: { current: Review; onTake?: (
   );
 }
 
-function AnalystReviewForm({ code, day, alsoInvalidate }: { code: string; day: ExceptionDayDto; alsoInvalidate: readonly QueryKey[] }) {
+function AnalystReviewForm({
+  code,
+  day,
+  alsoInvalidate,
+}: {
+  code: string;
+  day: ExceptionDayDto;
+  alsoInvalidate: readonly QueryKey[];
+}) {
   const review = day.review;
   const [cause, setCause] = useState<ExceptionCause | "">(review?.cause ?? "");
   const [narrative, setNarrative] = useState(review?.narrative ?? "");
@@ -127,12 +138,25 @@ function AnalystReviewForm({ code, day, alsoInvalidate }: { code: string; day: E
     setExclusion(conflict.exclusionStatus !== "none");
   }
 
-  const failed = save.error && !currentReviewOf(save.error) && Object.keys(fieldErrorsOf(save.error)).length === 0 ? save.error : null;
+  const failed =
+    save.error && !currentReviewOf(save.error) && Object.keys(fieldErrorsOf(save.error)).length === 0
+      ? save.error
+      : null;
   const decided = review && (review.exclusionStatus === "approved" || review.exclusionStatus === "rejected");
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-label={`Review of the exception of ${day.date}`} className="flex max-w-2xl flex-col gap-3">
-      {conflict && <SavedMeanwhile current={conflict} onTake={takeTheirs} mine="Your text is kept in the form below." />}
-      <FormMessage>{failed ? (isApiError(failed) ? failed.message : "The review could not be saved.") : undefined}</FormMessage>
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-label={`Review of the exception of ${day.date}`}
+      className="flex max-w-2xl flex-col gap-3"
+    >
+      {conflict && (
+        <SavedMeanwhile current={conflict} onTake={takeTheirs} mine="Your text is kept in the form below." />
+      )}
+      <FormMessage>
+        {failed ? (isApiError(failed) ? failed.message : "The review could not be saved.") : undefined}
+      </FormMessage>
       <FormMessage tone="done">{saved ?? undefined}</FormMessage>
       <SelectField
         label="Cause"
@@ -184,7 +208,17 @@ function AnalystReviewForm({ code, day, alsoInvalidate }: { code: string; day: E
   );
 }
 
-function EvidencePanel({ code, day, canUpload, alsoInvalidate }: { code: string; day: ExceptionDayDto; canUpload: boolean; alsoInvalidate: readonly QueryKey[] }) {
+function EvidencePanel({
+  code,
+  day,
+  canUpload,
+  alsoInvalidate,
+}: {
+  code: string;
+  day: ExceptionDayDto;
+  canUpload: boolean;
+  alsoInvalidate: readonly QueryKey[];
+}) {
   const review = day.review;
   const inputRef = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
@@ -206,7 +240,8 @@ function EvidencePanel({ code, day, canUpload, alsoInvalidate }: { code: string;
                 {f.fileName}
               </a>
               <span className="figures text-xs text-ink-muted">
-                {formatBytes(f.sizeBytes)} · {f.uploadedBy}, {formatDateTime(f.uploadedAt)} · sha256 {f.sha256.slice(0, 12)}
+                {formatBytes(f.sizeBytes)} · {f.uploadedBy}, {formatDateTime(f.uploadedAt)} · sha256{" "}
+                {f.sha256.slice(0, 12)}
               </span>
             </li>
           ))}
@@ -246,7 +281,9 @@ function EvidencePanel({ code, day, canUpload, alsoInvalidate }: { code: string;
             </Button>
             {add.error && (
               <div className="basis-full">
-                <FormMessage>{isApiError(add.error) ? add.error.message : "The file could not be uploaded."}</FormMessage>
+                <FormMessage>
+                  {isApiError(add.error) ? add.error.message : "The file could not be uploaded."}
+                </FormMessage>
               </div>
             )}
           </form>
@@ -257,7 +294,17 @@ function EvidencePanel({ code, day, canUpload, alsoInvalidate }: { code: string;
   );
 }
 
-function CroDecisionForm({ code, review, date, alsoInvalidate }: { code: string; review: Review; date: string; alsoInvalidate: readonly QueryKey[] }) {
+function CroDecisionForm({
+  code,
+  review,
+  date,
+  alsoInvalidate,
+}: {
+  code: string;
+  review: Review;
+  date: string;
+  alsoInvalidate: readonly QueryKey[];
+}) {
   const [decision, setDecision] = useState<"approved" | "rejected" | "">("");
   const [reference, setReference] = useState("");
   const [decidedOn, setDecidedOn] = useState("");
@@ -292,15 +339,32 @@ function CroDecisionForm({ code, review, date, alsoInvalidate }: { code: string;
     });
   }
 
-  const failed = record.error && !currentReviewOf(record.error) && Object.keys(fieldErrorsOf(record.error)).length === 0 ? record.error : null;
+  const failed =
+    record.error && !currentReviewOf(record.error) && Object.keys(fieldErrorsOf(record.error)).length === 0
+      ? record.error
+      : null;
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-label="Supervisor's decision on the exclusion" className="flex max-w-2xl flex-col gap-3">
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-label="Supervisor's decision on the exclusion"
+      className="flex max-w-2xl flex-col gap-3"
+    >
       <h4 className="text-sm font-semibold">Record the supervisor's decision</h4>
       <p className="text-xs text-ink-muted">
-        The analyst asked the supervisor to disregard this exception. An approval takes it out of the counted figure where the rule set allows it.
+        The analyst asked the supervisor to disregard this exception. An approval takes it out of the counted figure
+        where the rule set allows it.
       </p>
-      {conflict && <SavedMeanwhile current={conflict} mine="The review changed since you opened it; check it before you record the decision again." />}
-      <FormMessage>{failed ? (isApiError(failed) ? failed.message : "The decision could not be recorded.") : undefined}</FormMessage>
+      {conflict && (
+        <SavedMeanwhile
+          current={conflict}
+          mine="The review changed since you opened it; check it before you record the decision again."
+        />
+      )}
+      <FormMessage>
+        {failed ? (isApiError(failed) ? failed.message : "The decision could not be recorded.") : undefined}
+      </FormMessage>
       <fieldset aria-describedby={errors.decision ? `${groupId}-err` : undefined} className="flex flex-col gap-1">
         <legend className="text-xs font-medium text-ink-soft">Decision</legend>
         <div className="flex gap-5 text-sm">
@@ -326,8 +390,22 @@ function CroDecisionForm({ code, review, date, alsoInvalidate }: { code: string;
         )}
       </fieldset>
       <div className="flex flex-wrap gap-4">
-        <TextField label="Supervisor's reference" value={reference} onChange={(e) => setReference(e.target.value)} error={errors.reference} className="w-64" />
-        <TextField label="Decided on" placeholder="YYYY-MM-DD" inputMode="numeric" value={decidedOn} onChange={(e) => setDecidedOn(e.target.value)} error={errors.decidedOn} className="w-44" />
+        <TextField
+          label="Supervisor's reference"
+          value={reference}
+          onChange={(e) => setReference(e.target.value)}
+          error={errors.reference}
+          className="w-64"
+        />
+        <TextField
+          label="Decided on"
+          placeholder="YYYY-MM-DD"
+          inputMode="numeric"
+          value={decidedOn}
+          onChange={(e) => setDecidedOn(e.target.value)}
+          error={errors.decidedOn}
+          className="w-44"
+        />
       </div>
       <div>
         <Button type="submit" disabled={record.isPending}>
@@ -374,7 +452,9 @@ export function ReviewPanel({
           ) : review ? (
             <ReviewRecord review={review} />
           ) : (
-            <p className="text-sm text-ink-muted">Not reviewed yet. An analyst explains the exception here and may ask the supervisor to disregard it.</p>
+            <p className="text-sm text-ink-muted">
+              Not reviewed yet. An analyst explains the exception here and may ask the supervisor to disregard it.
+            </p>
           )}
           {role === "analyst" && review && review.exclusionStatus !== "none" && (
             <p className="max-w-2xl border-l-2 border-rule-strong pl-3 text-sm text-ink-soft">
@@ -387,7 +467,15 @@ export function ReviewPanel({
         </div>
         <div className="flex flex-col gap-5 lg:border-l lg:border-rule lg:pl-6">
           <EvidencePanel code={code} day={day} canUpload={role === "analyst"} alsoInvalidate={alsoInvalidate} />
-          {role === "cro" && review?.exclusionStatus === "requested" && <CroDecisionForm key={day.date} code={code} review={review} date={day.date} alsoInvalidate={alsoInvalidate} />}
+          {role === "cro" && review?.exclusionStatus === "requested" && (
+            <CroDecisionForm
+              key={day.date}
+              code={code}
+              review={review}
+              date={day.date}
+              alsoInvalidate={alsoInvalidate}
+            />
+          )}
         </div>
       </div>
     </section>

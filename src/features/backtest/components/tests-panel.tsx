@@ -5,9 +5,24 @@ import { formatPValue, formatStatistic } from "../words";
 type SeriesTests = BacktestResponse["testsBySeries"]["actual"];
 
 const tests: { key: keyof SeriesTests; name: string; asks: string; df: string }[] = [
-  { key: "kupiec", name: "Kupiec proportion of failures", asks: "Is the exception rate the 1% a 99% VaR promises?", df: "χ²(1)" },
-  { key: "independence", name: "Christoffersen independence", asks: "Do exceptions arrive independently, rather than in clusters?", df: "χ²(1)" },
-  { key: "conditionalCoverage", name: "Conditional coverage", asks: "Both at once: the right rate and no clustering.", df: "χ²(2)" },
+  {
+    key: "kupiec",
+    name: "Kupiec proportion of failures",
+    asks: "Is the exception rate the 1% a 99% VaR promises?",
+    df: "χ²(1)",
+  },
+  {
+    key: "independence",
+    name: "Christoffersen independence",
+    asks: "Do exceptions arrive independently, rather than in clusters?",
+    df: "χ²(1)",
+  },
+  {
+    key: "conditionalCoverage",
+    name: "Conditional coverage",
+    asks: "Both at once: the right rate and no clustering.",
+    df: "χ²(2)",
+  },
 ];
 
 function SeriesTable({ caption, results }: { caption: string; results: SeriesTests }) {
@@ -16,8 +31,12 @@ function SeriesTable({ caption, results }: { caption: string; results: SeriesTes
       <thead>
         <tr>
           <Th>Test</Th>
-          <Th numeric className="whitespace-nowrap">Statistic</Th>
-          <Th numeric className="whitespace-nowrap">p-value</Th>
+          <Th numeric className="whitespace-nowrap">
+            Statistic
+          </Th>
+          <Th numeric className="whitespace-nowrap">
+            p-value
+          </Th>
           <Th>At 5% significance</Th>
         </tr>
       </thead>
@@ -35,7 +54,9 @@ function SeriesTable({ caption, results }: { caption: string; results: SeriesTes
               </Td>
               <Td numeric>{formatPValue(r.pValue)}</Td>
               <Td>
-                <span className={r.reject ? "font-medium text-danger" : "text-ink"}>{r.reject ? "Rejected. " : "Not rejected. "}</span>
+                <span className={r.reject ? "font-medium text-danger" : "text-ink"}>
+                  {r.reject ? "Rejected. " : "Not rejected. "}
+                </span>
                 {r.verdict}
               </Td>
             </Tr>
@@ -67,7 +88,9 @@ export function TestsPanel({ bt }: { bt: BacktestResponse }) {
         </div>
       ) : (
         <div className="flex flex-col gap-1">
-          <h4 className="text-xs font-semibold text-ink-soft">On {bt.testedSeries === "actual" ? "actual" : "hypothetical"} P&amp;L</h4>
+          <h4 className="text-xs font-semibold text-ink-soft">
+            On {bt.testedSeries === "actual" ? "actual" : "hypothetical"} P&amp;L
+          </h4>
           <SeriesTable caption={`Statistical tests on ${bt.testedSeries} P&L`} results={bt.tests} />
         </div>
       )}

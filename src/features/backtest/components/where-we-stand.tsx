@@ -14,7 +14,8 @@ export function ProvisionalBanner({ bt }: { bt: BacktestResponse }) {
       {!bt.window.complete
         ? `The window holds ${plural(bt.window.observations, "observation", "observations")} of the 250 the rules ask for, so the count, zone and multiplier may still move as days are added.`
         : "The window is not the standard 250 days."}{" "}
-      {bt.provisionalBoundaries && "Zone boundaries for this window length are derived by the binomial rule, not read from the published table."}
+      {bt.provisionalBoundaries &&
+        "Zone boundaries for this window length are derived by the binomial rule, not read from the published table."}
     </Notice>
   );
 }
@@ -24,8 +25,10 @@ export function DataGaps({ gaps }: { gaps: string[] }) {
   return (
     <div role="note" className="border-l-2 border-danger bg-danger-soft px-3 py-1.5 text-sm text-ink">
       <p>
-        <strong className="font-semibold">{plural(gaps.length, "day", "days")} in the window without P&amp;L or VaR.</strong> A data gap blocks
-        sign-off until the missing values are uploaded under Data.
+        <strong className="font-semibold">
+          {plural(gaps.length, "day", "days")} in the window without P&amp;L or VaR.
+        </strong>{" "}
+        A data gap blocks sign-off until the missing values are uploaded under Data.
       </p>
       <ul className="figures mt-1 flex flex-wrap gap-x-4 gap-y-0.5 text-xs">
         {gaps.map((d) => (
@@ -62,8 +65,12 @@ export function WhereWeStand({ bt }: { bt: BacktestResponse }) {
         <Figure look="ruled" label="Multiplier">
           <span data-testid="multiplier">{formatFactor(bt.multiplier)}</span>
         </Figure>
-        <Figure look="ruled" label="Actual P&L exceptions">{bt.exceptions.actual}</Figure>
-        <Figure look="ruled" label="Hypothetical P&L exceptions">{bt.exceptions.hypothetical}</Figure>
+        <Figure look="ruled" label="Actual P&L exceptions">
+          {bt.exceptions.actual}
+        </Figure>
+        <Figure look="ruled" label="Hypothetical P&L exceptions">
+          {bt.exceptions.hypothetical}
+        </Figure>
         <Figure look="ruled" label="Excluded" hint="approved by the supervisor">
           {bt.exceptions.excluded}
         </Figure>

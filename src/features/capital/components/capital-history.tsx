@@ -34,7 +34,16 @@ export function CapitalHistory({
         <EmptyState title={empty.title}>{empty.next}</EmptyState>
       ) : (
         <>
-          <Suspense fallback={<div style={{ height: 260 }} className="flex items-center justify-center border border-dashed border-rule text-xs text-ink-muted">Drawing the chart…</div>}>
+          <Suspense
+            fallback={
+              <div
+                style={{ height: 260 }}
+                className="flex items-center justify-center border border-dashed border-rule text-xs text-ink-muted"
+              >
+                Drawing the chart…
+              </div>
+            }
+          >
             <HistoryChart points={points} currency={currency} />
           </Suspense>
           <HistoryTable points={points} currency={currency} regime={regime} />

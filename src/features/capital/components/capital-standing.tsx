@@ -28,9 +28,17 @@ export function CapitalStanding({ forecast }: { forecast: ForecastResponse }) {
         <Figure look="ruled" label="Multiplier">
           <span data-testid="today-multiplier">{formatFactor(today.multiplier)}</span>
         </Figure>
-        <Figure look="ruled" label="Next exception would cost" hint={nextExceptionCost === null ? undefined : "more capital requirement, at today's VaR"}>
+        <Figure
+          look="ruled"
+          label="Next exception would cost"
+          hint={nextExceptionCost === null ? undefined : "more capital requirement, at today's VaR"}
+        >
           <span data-testid="next-exception-cost">
-            {nextExceptionCost === null ? <span className="text-sm font-normal text-ink-soft">{NO_CAPITAL_INPUTS}</span> : formatAmount(nextExceptionCost, currency)}
+            {nextExceptionCost === null ? (
+              <span className="text-sm font-normal text-ink-soft">{NO_CAPITAL_INPUTS}</span>
+            ) : (
+              formatAmount(nextExceptionCost, currency)
+            )}
           </span>
         </Figure>
       </dl>

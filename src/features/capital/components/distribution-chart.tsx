@@ -12,7 +12,17 @@ const zoneFill: Record<Zone, string> = { green: "#2e6f45", yellow: "#8a6210", re
 export type DistributionRow = { exceptions: number; probability: number; zone: Zone };
 
 /** P(counted = k) at the forecast date, each bar in the colour of the zone that count falls in (named in the key and the table). */
-export function DistributionChart({ rows, date, regime, width }: { rows: DistributionRow[]; date: string; regime: string; width?: number }) {
+export function DistributionChart({
+  rows,
+  date,
+  regime,
+  width,
+}: {
+  rows: DistributionRow[];
+  date: string;
+  regime: string;
+  width?: number;
+}) {
   const titleId = useId();
   const zones = [...new Set(rows.map((r) => r.zone))];
   const data = rows.map((r) => ({ ...r, percent: r.probability * 100 }));
@@ -22,7 +32,11 @@ export function DistributionChart({ rows, date, regime, width }: { rows: Distrib
         Chance of each count of exceptions on {date}
       </figcaption>
       <div style={{ height: 200 }} className="w-full">
-        <ResponsiveContainer width={width ?? "100%"} height={200} initialDimension={{ width: width ?? 480, height: 200 }}>
+        <ResponsiveContainer
+          width={width ?? "100%"}
+          height={200}
+          initialDimension={{ width: width ?? 480, height: 200 }}
+        >
           <BarChart data={data} margin={{ top: 8, right: 8, bottom: 18, left: 8 }}>
             <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
             <XAxis
@@ -57,7 +71,12 @@ export function DistributionChart({ rows, date, regime, width }: { rows: Distrib
       <ul className="flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-soft" aria-label="Chart key">
         {zones.map((z) => (
           <li key={z} className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block h-2.5 w-3" style={{ background: zoneFill[z], opacity: 0.75 }} /> {zoneName(z, regime)} zone
+            <span
+              aria-hidden="true"
+              className="inline-block h-2.5 w-3"
+              style={{ background: zoneFill[z], opacity: 0.75 }}
+            />{" "}
+            {zoneName(z, regime)} zone
           </li>
         ))}
       </ul>

@@ -28,7 +28,15 @@ function QuarterDot({ cx, cy, payload }: { cx?: number; cy?: number; payload?: H
  * Multiplier (step line, left axis) and capital add-on (bars, right axis) at each quarter end, as
  * the snapshots hold them. Signed-off quarters are drawn solid; the others hollow and dashed.
  */
-export function HistoryChart({ points, currency, width }: { points: HistoryPoint[]; currency: string; width?: number }) {
+export function HistoryChart({
+  points,
+  currency,
+  width,
+}: {
+  points: HistoryPoint[];
+  currency: string;
+  width?: number;
+}) {
   const titleId = useId();
   const summaryId = useId();
   const multipliers = points.map((p) => p.multiplier);
@@ -45,10 +53,15 @@ export function HistoryChart({ points, currency, width }: { points: HistoryPoint
       <p id={summaryId} className="sr-only">
         {plural(points.length, "quarter", "quarters")} from {points[0]?.label ?? "—"} to {points.at(-1)?.label ?? "—"}
         {open > 0 ? `; ${plural(open, "quarter is", "quarters are")} not signed off and drawn hollow` : ""}
-        {restated > 0 ? `; ${plural(restated, "quarter was", "quarters were")} restated after sign-off` : ""}. The table below holds the same figures.
+        {restated > 0 ? `; ${plural(restated, "quarter was", "quarters were")} restated after sign-off` : ""}. The table
+        below holds the same figures.
       </p>
       <div style={{ height: 260 }} className="w-full">
-        <ResponsiveContainer width={width ?? "100%"} height={260} initialDimension={{ width: width ?? 960, height: 260 }}>
+        <ResponsiveContainer
+          width={width ?? "100%"}
+          height={260}
+          initialDimension={{ width: width ?? 960, height: 260 }}
+        >
           <ComposedChart data={points} margin={{ top: 18, right: 8, bottom: 18, left: 8 }}>
             <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
             <XAxis
@@ -80,7 +93,9 @@ export function HistoryChart({ points, currency, width }: { points: HistoryPoint
             />
             <Tooltip
               formatter={(value, name) => [
-                name === "Multiplier" ? formatFactor(typeof value === "number" ? value : null) : formatAmount(typeof value === "number" ? value : null, currency),
+                name === "Multiplier"
+                  ? formatFactor(typeof value === "number" ? value : null)
+                  : formatAmount(typeof value === "number" ? value : null, currency),
                 name,
               ]}
               labelStyle={{ color: ink, fontWeight: 600 }}
@@ -116,7 +131,8 @@ export function HistoryChart({ points, currency, width }: { points: HistoryPoint
           <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-ink" /> Multiplier (left axis)
         </li>
         <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-accent bg-accent/55" /> Capital add-on (right axis)
+          <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-accent bg-accent/55" /> Capital
+          add-on (right axis)
         </li>
         <li className="flex items-center gap-1.5">
           <span aria-hidden="true" className="inline-block size-2 rounded-full bg-ink" /> Signed off (approved or filed)
@@ -124,12 +140,16 @@ export function HistoryChart({ points, currency, width }: { points: HistoryPoint
         {open > 0 && (
           <li className="flex items-center gap-1.5">
             <span aria-hidden="true" className="inline-block size-2 rounded-full border-[1.5px] border-ink" />
-            <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-dashed border-accent" /> Not signed off
+            <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-dashed border-accent" /> Not signed
+            off
           </li>
         )}
         {restated > 0 && (
           <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="font-semibold text-ink">†</span> Restated after sign-off (figures stay as approved)
+            <span aria-hidden="true" className="font-semibold text-ink">
+              †
+            </span>{" "}
+            Restated after sign-off (figures stay as approved)
           </li>
         )}
       </ul>

@@ -7,7 +7,15 @@ import { NO_CAPITAL_INPUTS } from "../words";
 import type { HistoryPoint } from "./history-points";
 
 /** The chart's figures as a table, oldest quarter first: the accessible way to read them, and the exact amounts. */
-export function HistoryTable({ points, currency, regime }: { points: HistoryPoint[]; currency: string; regime: string }) {
+export function HistoryTable({
+  points,
+  currency,
+  regime,
+}: {
+  points: HistoryPoint[];
+  currency: string;
+  regime: string;
+}) {
   return (
     <Table caption="Capital history by quarter end, oldest first">
       <thead>

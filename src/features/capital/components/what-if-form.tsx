@@ -60,11 +60,41 @@ function ResultTable({ result, regime }: { result: WhatIfResponse; regime: strin
           delta.zoneChanged ? "Changes" : "No change",
           "what-if-zone",
         )}
-        {row("Counted exceptions", base.counted, scenario.counted, formatChange(delta.counted, String), "what-if-counted")}
-        {row("Plus factor", formatFactor(base.plusFactor), formatFactor(scenario.plusFactor), formatChange(delta.plusFactor, formatFactor), "what-if-plus-factor")}
-        {row("Multiplier", formatFactor(base.multiplier), formatFactor(scenario.multiplier), formatChange(delta.multiplier, formatFactor), "what-if-multiplier")}
-        {row("Capital requirement", amount(base.capital), amount(scenario.capital), formatChange(delta.capital, amount), "what-if-capital")}
-        {row("Capital add-on", amount(base.addOn), amount(scenario.addOn), formatChange(delta.addOn, amount), "what-if-add-on")}
+        {row(
+          "Counted exceptions",
+          base.counted,
+          scenario.counted,
+          formatChange(delta.counted, String),
+          "what-if-counted",
+        )}
+        {row(
+          "Plus factor",
+          formatFactor(base.plusFactor),
+          formatFactor(scenario.plusFactor),
+          formatChange(delta.plusFactor, formatFactor),
+          "what-if-plus-factor",
+        )}
+        {row(
+          "Multiplier",
+          formatFactor(base.multiplier),
+          formatFactor(scenario.multiplier),
+          formatChange(delta.multiplier, formatFactor),
+          "what-if-multiplier",
+        )}
+        {row(
+          "Capital requirement",
+          amount(base.capital),
+          amount(scenario.capital),
+          formatChange(delta.capital, amount),
+          "what-if-capital",
+        )}
+        {row(
+          "Capital add-on",
+          amount(base.addOn),
+          amount(scenario.addOn),
+          formatChange(delta.addOn, amount),
+          "what-if-add-on",
+        )}
       </tbody>
     </Table>
   );
@@ -79,7 +109,10 @@ export function WhatIfForm({ entity, regime }: { entity: string; regime: string 
   const [values, setValues] = useState<Values>({ extraExceptions: "1", varScale: "1", svarScale: "1" });
   const [clientErrors, setClientErrors] = useState<FieldErrors>({});
   const [asked, setAsked] = useState<WhatIfInputs | null>(null);
-  const result = useQuery({ ...capitalQueries.whatIf(entity, asked ?? whatIfBodySchema.parse({})), enabled: asked !== null });
+  const result = useQuery({
+    ...capitalQueries.whatIf(entity, asked ?? whatIfBodySchema.parse({})),
+    enabled: asked !== null,
+  });
 
   const serverFields = fieldErrorsOf(result.error);
   const errors: FieldErrors = Object.keys(clientErrors).length ? clientErrors : serverFields;
@@ -127,7 +160,8 @@ export function WhatIfForm({ entity, regime }: { entity: string; regime: string 
       <div className="flex flex-col gap-1">
         <h2 id="what-if-title">What if</h2>
         <p className="text-sm text-ink-soft">
-          Add exceptions to today's count, or scale the capital inputs, and see the zone, multiplier and capital that would follow. Nothing is saved.
+          Add exceptions to today's count, or scale the capital inputs, and see the zone, multiplier and capital that
+          would follow. Nothing is saved.
         </p>
       </div>
       <form ref={formRef} onSubmit={submit} noValidate aria-label="What-if scenario" className="flex flex-col gap-3">
@@ -145,7 +179,8 @@ export function WhatIfForm({ entity, regime }: { entity: string; regime: string 
         <div className="flex flex-col gap-2" aria-live="polite">
           <p className="text-sm text-ink-soft">
             {shown.portfolio} as of <span className="figures">{shown.asOf}</span>: {asked!.extraExceptions} extra{" "}
-            {asked!.extraExceptions === 1 ? "exception" : "exceptions"}, VaR × {asked!.varScale}, stressed VaR × {asked!.svarScale}
+            {asked!.extraExceptions === 1 ? "exception" : "exceptions"}, VaR × {asked!.varScale}, stressed VaR ×{" "}
+            {asked!.svarScale}
             {regime === "frtb" ? " (ES and SES for FRTB)" : ""}.
           </p>
           <ResultTable result={shown} regime={regime} />

@@ -16,7 +16,9 @@ const DistributionChart = lazy(() => import("./charts").then((m) => ({ default: 
 /** "Of today's 6 exceptions, 4 are still in the window on 2026-12-31; 22 new business days could add more." */
 export function remainingInWords(f: Pick<ForecastResponse, "today" | "knownRemaining" | "newDays" | "date">): string {
   const more =
-    f.newDays === 0 ? "no new business day comes before then." : `${plural(f.newDays, "new business day", "new business days")} could add more.`;
+    f.newDays === 0
+      ? "no new business day comes before then."
+      : `${plural(f.newDays, "new business day", "new business days")} could add more.`;
   if (f.today.counted === 0) return `No exception is in the window today; ${more}`;
   return `Of today's ${plural(f.today.counted, "exception", "exceptions")}, ${f.knownRemaining} ${f.knownRemaining === 1 ? "is" : "are"} still in the window on ${f.date}; ${more}`;
 }
@@ -50,7 +52,12 @@ function ForecastDateForm({
     onDate(r.data.date);
   }
   return (
-    <form onSubmit={submit} noValidate aria-label="Choose the forecast date" className="flex flex-wrap items-start gap-2">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label="Choose the forecast date"
+      className="flex flex-wrap items-start gap-2"
+    >
       <TextField
         label="Forecast date"
         name="date"
@@ -79,7 +86,10 @@ function ForecastDateForm({
 
 function ZoneChances({ forecast }: { forecast: ForecastResponse }) {
   return (
-    <dl className="grid grid-cols-3 gap-x-4 border-y border-rule py-3 sm:max-w-xl" aria-label={`Chance of each zone on ${forecast.date}`}>
+    <dl
+      className="grid grid-cols-3 gap-x-4 border-y border-rule py-3 sm:max-w-xl"
+      aria-label={`Chance of each zone on ${forecast.date}`}
+    >
       {(["green", "yellow", "red"] as const).map((z) => (
         <Figure key={z} look="ruled" label={`${zoneName(z, forecast.regime)} zone`}>
           <span data-testid={`chance-${z}`}>{formatChance(forecast.zones[z])}</span>
@@ -89,7 +99,17 @@ function ZoneChances({ forecast }: { forecast: ForecastResponse }) {
   );
 }
 
-function DistributionTable({ rows, left, regime, date }: { rows: DistributionRow[]; left: number; regime: string; date: string }) {
+function DistributionTable({
+  rows,
+  left,
+  regime,
+  date,
+}: {
+  rows: DistributionRow[];
+  left: number;
+  regime: string;
+  date: string;
+}) {
   return (
     <div className="flex flex-col gap-1">
       <Table caption={`Chance of each count of exceptions on ${date}`}>
@@ -112,7 +132,11 @@ function DistributionTable({ rows, left, regime, date }: { rows: DistributionRow
           ))}
         </tbody>
       </Table>
-      {left > 0 && <p className="text-2xs text-ink-muted">Higher counts, each with a chance below 0.01%, are left out (together {formatChance(left)}).</p>}
+      {left > 0 && (
+        <p className="text-2xs text-ink-muted">
+          Higher counts, each with a chance below 0.01%, are left out (together {formatChance(left)}).
+        </p>
+      )}
     </div>
   );
 }
@@ -138,7 +162,9 @@ export function ZoneForecast({
   const all = forecast?.distribution ?? [];
   // The engine's zone table names each count's zone (the same one the forecast summed over).
   const rows: DistributionRow[] = forecast
-    ? all.filter((d) => d.probability >= SHOWN_FROM).map((d) => ({ ...d, zone: zoneFor(d.exceptions, forecast.regime) }))
+    ? all
+        .filter((d) => d.probability >= SHOWN_FROM)
+        .map((d) => ({ ...d, zone: zoneFor(d.exceptions, forecast.regime) }))
     : [];
   const left = all.filter((d) => d.probability < SHOWN_FROM).reduce((s, d) => s + d.probability, 0);
   const currency = forecast?.currency;
@@ -149,7 +175,13 @@ export function ZoneForecast({
           <h2 id="forecast-title">Zone forecast{forecast ? ` for ${forecast.date}` : ""}</h2>
           {forecast && <p className="text-sm text-ink-soft">{remainingInWords(forecast)}</p>}
         </div>
-        <ForecastDateForm shown={forecast?.date ?? requested} isDefault={isDefault} error={dateError} pending={pending} onDate={onDate} />
+        <ForecastDateForm
+          shown={forecast?.date ?? requested}
+          isDefault={isDefault}
+          error={dateError}
+          pending={pending}
+          onDate={onDate}
+        />
       </div>
       {forecast && (
         <>
@@ -164,7 +196,10 @@ export function ZoneForecast({
             <h3 id="quiet-title" className="text-sm font-semibold">
               If no new exception arrives by {forecast.date}
             </h3>
-            <dl aria-labelledby="quiet-title" className="grid grid-cols-2 gap-x-6 gap-y-3 border-y border-rule py-3 sm:grid-cols-5">
+            <dl
+              aria-labelledby="quiet-title"
+              className="grid grid-cols-2 gap-x-6 gap-y-3 border-y border-rule py-3 sm:grid-cols-5"
+            >
               <Figure label="Counted exceptions">
                 <span data-testid="quiet-counted">{forecast.ifNoNewException.counted}</span>
               </Figure>
@@ -179,7 +214,12 @@ export function ZoneForecast({
                   formatAmount(forecast.ifNoNewException.addOn, currency)
                 )}
               </Figure>
-              <Figure label="Expected add-on, all outcomes" hint={forecast.expectedAddOn === null ? undefined : "weighted by the chance of each count, at today's VaR"}>
+              <Figure
+                label="Expected add-on, all outcomes"
+                hint={
+                  forecast.expectedAddOn === null ? undefined : "weighted by the chance of each count, at today's VaR"
+                }
+              >
                 <span data-testid="expected-add-on">
                   {forecast.expectedAddOn === null ? (
                     <span className="text-sm font-normal text-ink-soft">{NO_CAPITAL_INPUTS}</span>
@@ -191,7 +231,8 @@ export function ZoneForecast({
             </dl>
           </div>
           <p className="text-2xs text-ink-muted">
-            Each new business day is taken as an exception with a 1% chance (a calibrated 99% VaR); counts follow the entity's P&amp;L basis.
+            Each new business day is taken as an exception with a 1% chance (a calibrated 99% VaR); counts follow the
+            entity's P&amp;L basis.
           </p>
         </>
       )}

@@ -18,7 +18,8 @@ export const findingQueries = {
 export function useCloseFinding() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, body }: { id: number; body: CloseFindingBody }) => api.put(`/api/findings/${id}`, body, findingSchema),
+    mutationFn: ({ id, body }: { id: number; body: CloseFindingBody }) =>
+      api.put(`/api/findings/${id}`, body, findingSchema),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: findingQueries.root() }),
     // Someone else changed it: show the list as it now stands so the reader can decide again.
     onError: () => queryClient.invalidateQueries({ queryKey: findingQueries.root() }),

@@ -4,7 +4,6 @@ import { UPLOAD_MAX_BYTES, UPLOAD_MAX_LABEL, uploadPreviewSchema, type UploadPre
 import { ApiError, apiErrorFrom } from "@/lib/api-client";
 import { uploadQueries } from "./upload-queries";
 
-
 export type UploadProgress =
   | { phase: "sending"; loaded: number; total: number }
   /** Every byte is sent; the server parses and checks the rows before it answers. */
@@ -35,7 +34,8 @@ export function sendUpload(file: File, onProgress: (p: UploadProgress) => void =
       else onProgress({ phase: "sending", loaded: e.loaded, total });
     };
     xhr.upload.onload = () => onProgress({ phase: "checking" });
-    xhr.onerror = () => reject(new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again."));
+    xhr.onerror = () =>
+      reject(new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again."));
     xhr.onabort = () => reject(new ApiError(0, "aborted", "The upload was stopped before the server answered."));
     xhr.onload = () => {
       const text = typeof xhr.responseText === "string" ? xhr.responseText : "";
@@ -48,7 +48,14 @@ export function sendUpload(file: File, onProgress: (p: UploadProgress) => void =
       }
       const parsed = uploadPreviewSchema.safeParse(json);
       if (!parsed.success) {
-        return reject(new ApiError(xhr.status, "unexpected_response", "The server's answer to POST /api/uploads did not have the expected shape.", parsed.error.issues));
+        return reject(
+          new ApiError(
+            xhr.status,
+            "unexpected_response",
+            "The server's answer to POST /api/uploads did not have the expected shape.",
+            parsed.error.issues,
+          ),
+        );
       }
       resolve(parsed.data);
     };
@@ -61,9 +68,24 @@ export function sendUpload(file: File, onProgress: (p: UploadProgress) => void =
 
 /** Refuses before sending what the server would refuse anyway, so a wrong 200 MB file does not travel. */
 export function checkBeforeSending(file: File): ApiError | null {
-  if (!/\.csv$/i.test(file.name)) return new ApiError(415, "unsupported_media_type", `${file.name} is not a .csv file. Save the data as CSV (comma-separated) and choose it again.`);
-  if (file.size > UPLOAD_MAX_BYTES) return new ApiError(413, "too_large", `${file.name} is larger than the ${UPLOAD_MAX_LABEL} a single upload may be. Split it by portfolio or by month.`);
-  if (file.size === 0) return new ApiError(422, "invalid_file", `${file.name} is empty. Start from the template, which has the header row.`);
+  if (!/\.csv$/i.test(file.name))
+    return new ApiError(
+      415,
+      "unsupported_media_type",
+      `${file.name} is not a .csv file. Save the data as CSV (comma-separated) and choose it again.`,
+    );
+  if (file.size > UPLOAD_MAX_BYTES)
+    return new ApiError(
+      413,
+      "too_large",
+      `${file.name} is larger than the ${UPLOAD_MAX_LABEL} a single upload may be. Split it by portfolio or by month.`,
+    );
+  if (file.size === 0)
+    return new ApiError(
+      422,
+      "invalid_file",
+      `${file.name} is empty. Start from the template, which has the header row.`,
+    );
   return null;
 }
 

@@ -1,5 +1,10 @@
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import { commitResultSchema, uploadListSchema, uploadPreviewSchema, uploadRowsPageSchema } from "@shared/schemas/upload";
+import {
+  commitResultSchema,
+  uploadListSchema,
+  uploadPreviewSchema,
+  uploadRowsPageSchema,
+} from "@shared/schemas/upload";
 import { api, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
 import { findingQueries } from "./finding-queries";
@@ -28,7 +33,11 @@ export const uploadQueries = {
   rows: (id: number, { offset, limit, invalidOnly }: UploadRowsParams) =>
     queryOptions({
       queryKey: [...uploadQueries.root(), "detail", id, "rows", { offset, limit, invalidOnly }] as const,
-      queryFn: () => api.get(withQuery(`/api/uploads/${id}/rows`, { offset, limit, invalidOnly: String(invalidOnly) }), uploadRowsPageSchema),
+      queryFn: () =>
+        api.get(
+          withQuery(`/api/uploads/${id}/rows`, { offset, limit, invalidOnly: String(invalidOnly) }),
+          uploadRowsPageSchema,
+        ),
       placeholderData: keepPreviousData,
       // A file's rows never change once uploaded.
       staleTime: Infinity,
@@ -41,7 +50,10 @@ export function firstRowsPage(invalid: number): UploadRowsParams {
 }
 
 /** Everything about uploads except the rows of a file, which never change once uploaded (and are gone after a discard). */
-const allButRows = { queryKey: uploadQueries.root(), predicate: (q: { queryKey: readonly unknown[] }) => q.queryKey[3] !== "rows" };
+const allButRows = {
+  queryKey: uploadQueries.root(),
+  predicate: (q: { queryKey: readonly unknown[] }) => q.queryKey[3] !== "rows",
+};
 
 export function useCommitUpload() {
   const queryClient = useQueryClient();
@@ -51,7 +63,10 @@ export function useCommitUpload() {
     // (zone, count, multiplier, add-on on the Overview and Backtest screens).
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ predicate: (q) => everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows") }),
+        queryClient.invalidateQueries({
+          predicate: (q) =>
+            everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows"),
+        }),
         queryClient.invalidateQueries({ queryKey: findingQueries.root() }),
       ]),
   });

@@ -25,7 +25,15 @@ function titleOf(status: number, code: string): string {
 }
 
 /** What is wrong with the file as a whole (not a row): shown beside the upload panel. */
-export function FileProblems({ error, fileName, uploadHref }: { error: unknown; fileName?: string; uploadHref: (id: number) => string }) {
+export function FileProblems({
+  error,
+  fileName,
+  uploadHref,
+}: {
+  error: unknown;
+  fileName?: string;
+  uploadHref: (id: number) => string;
+}) {
   if (!error) return null;
   const status = isApiError(error) ? error.status : -1;
   const code = isApiError(error) ? error.code : "";
@@ -34,7 +42,11 @@ export function FileProblems({ error, fileName, uploadHref }: { error: unknown; 
   const earlier = status === 409 ? /#(\d+)/.exec(message)?.[1] : undefined;
 
   return (
-    <div role="alert" aria-labelledby="file-problems-title" className="flex flex-col gap-2 border-l-2 border-danger bg-danger-soft/60 px-3 py-2">
+    <div
+      role="alert"
+      aria-labelledby="file-problems-title"
+      className="flex flex-col gap-2 border-l-2 border-danger bg-danger-soft/60 px-3 py-2"
+    >
       <h3 id="file-problems-title" className="text-sm font-semibold text-danger">
         {titleOf(status, code)}
       </h3>
@@ -43,7 +55,8 @@ export function FileProblems({ error, fileName, uploadHref }: { error: unknown; 
       {problems.length > 0 && (
         <>
           <p className="text-xs text-ink-soft">
-            {problems.length === 1 ? "One problem" : `${formatCount(problems.length)} problems`} to fix before uploading again:
+            {problems.length === 1 ? "One problem" : `${formatCount(problems.length)} problems`} to fix before uploading
+            again:
           </p>
           <ul className="flex flex-col gap-0.5 text-sm" aria-label="Problems with the file">
             {problems.map((p, i) => (
@@ -64,7 +77,9 @@ export function FileProblems({ error, fileName, uploadHref }: { error: unknown; 
         </p>
       )}
       {status === 422 && problems.length > 0 && (
-        <p className="text-xs text-ink-muted">Compare the header row with the template: column names in lower case, each once.</p>
+        <p className="text-xs text-ink-muted">
+          Compare the header row with the template: column names in lower case, each once.
+        </p>
       )}
     </div>
   );

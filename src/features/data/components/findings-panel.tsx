@@ -44,7 +44,10 @@ function CloseFindingForm({
     close.mutate(
       { id: finding.id, body: r.data },
       {
-        onSuccess: (f) => onDone(`${findingKindLabels[f.kind]} on ${f.portfolio} (${range(f)}) is now ${findingStatusLabels[f.status].toLowerCase()}.`),
+        onSuccess: (f) =>
+          onDone(
+            `${findingKindLabels[f.kind]} on ${f.portfolio} (${range(f)}) is now ${findingStatusLabels[f.status].toLowerCase()}.`,
+          ),
         // The list is fetched again; the message stays above it even if this row leaves the filter.
         onError: (err) => isApiError(err) && err.status === 409 && onConflict(err.message),
       },
@@ -54,11 +57,28 @@ function CloseFindingForm({
   const failed = close.error && !(isApiError(close.error) && close.error.status === 409) ? close.error : undefined;
   const label = as === "resolved" ? "How was it resolved?" : "Why is it acceptable?";
   const hint =
-    as === "resolved" ? "For example: the missing day was uploaded in file #123." : "For example: the desk was closed that week; no positions, no P&L.";
+    as === "resolved"
+      ? "For example: the missing day was uploaded in file #123."
+      : "For example: the desk was closed that week; no positions, no P&L.";
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-label={`${as === "resolved" ? "Resolve" : "Explain"} finding #${finding.id}`} className="flex flex-col gap-2">
-      <FormMessage>{failed ? (isApiError(failed) ? failed.message : "The change could not be saved.") : undefined}</FormMessage>
-      <TextareaField label={label} hint={hint} value={note} onChange={(e) => setNote(e.target.value)} rows={2} error={errors.note} />
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-label={`${as === "resolved" ? "Resolve" : "Explain"} finding #${finding.id}`}
+      className="flex flex-col gap-2"
+    >
+      <FormMessage>
+        {failed ? (isApiError(failed) ? failed.message : "The change could not be saved.") : undefined}
+      </FormMessage>
+      <TextareaField
+        label={label}
+        hint={hint}
+        value={note}
+        onChange={(e) => setNote(e.target.value)}
+        rows={2}
+        error={errors.note}
+      />
       <div className="flex items-center gap-3">
         <Button type="submit" size="sm" disabled={close.isPending}>
           {close.isPending ? "Saving…" : as === "resolved" ? "Mark resolved" : "Record explanation"}
@@ -115,11 +135,16 @@ export function FindingsPanel({
         </p>
       </div>
       <p className="text-sm text-ink-muted">
-        Checked after every commit: business days with no row, VaR unchanged five days or more, P&amp;L without VaR or the reverse, and
-        |P&amp;L| above five times VaR. Open findings inside a quarter hold up its sign-off.
+        Checked after every commit: business days with no row, VaR unchanged five days or more, P&amp;L without VaR or
+        the reverse, and |P&amp;L| above five times VaR. Open findings inside a quarter hold up its sign-off.
       </p>
       <div role="search" aria-label="Filter the findings" className="flex flex-wrap items-end gap-3">
-        <SelectField label="Entity" value={filters.entity ?? ""} onChange={(e) => onFilter({ ...filters, entity: e.target.value || undefined })} className="w-64">
+        <SelectField
+          label="Entity"
+          value={filters.entity ?? ""}
+          onChange={(e) => onFilter({ ...filters, entity: e.target.value || undefined })}
+          className="w-64"
+        >
           <option value="">All entities</option>
           {entities.map((e) => (
             <option key={e.code} value={e.code}>
@@ -130,7 +155,12 @@ export function FindingsPanel({
         <SelectField
           label="Status"
           value={filters.status ?? "all"}
-          onChange={(e) => onFilter({ ...filters, status: e.target.value === "all" ? undefined : (e.target.value as FindingFilters["status"]) })}
+          onChange={(e) =>
+            onFilter({
+              ...filters,
+              status: e.target.value === "all" ? undefined : (e.target.value as FindingFilters["status"]),
+            })
+          }
           className="w-44"
         >
           <option value="open">Open</option>
@@ -138,7 +168,12 @@ export function FindingsPanel({
           <option value="explained">Explained</option>
           <option value="all">Any status</option>
         </SelectField>
-        <SelectField label="What" value={kind} onChange={(e) => setKind(findingKindSchema.safeParse(e.target.value).data ?? "")} className="w-56">
+        <SelectField
+          label="What"
+          value={kind}
+          onChange={(e) => setKind(findingKindSchema.safeParse(e.target.value).data ?? "")}
+          className="w-56"
+        >
           <option value="">Every kind</option>
           {findingKindSchema.options.map((k) => (
             <option key={k} value={k}>
@@ -149,14 +184,18 @@ export function FindingsPanel({
       </div>
       <FormMessage tone="done">{notice}</FormMessage>
       <FormMessage>{conflict}</FormMessage>
-      <FormMessage>{error ? (isApiError(error) ? error.message : "The findings could not load.") : undefined}</FormMessage>
+      <FormMessage>
+        {error ? (isApiError(error) ? error.message : "The findings could not load.") : undefined}
+      </FormMessage>
       {findings && all.length > 0 && matching.length === 0 ? (
-        <EmptyState title={`No ${findingKindLabels[kind as FindingKind].toLowerCase()} findings here`}>Choose “Every kind” to see the other findings.</EmptyState>
+        <EmptyState title={`No ${findingKindLabels[kind as FindingKind].toLowerCase()} findings here`}>
+          Choose “Every kind” to see the other findings.
+        </EmptyState>
       ) : findings && list.length === 0 ? (
         filters.status === "open" ? (
           <EmptyState title={`No open findings${where}`}>
-            The stored data has no gaps, stale VaR, one-sided days or outliers to look at. New checks run after the next commit; choose “Any
-            status” to read how earlier findings were closed.
+            The stored data has no gaps, stale VaR, one-sided days or outliers to look at. New checks run after the next
+            commit; choose “Any status” to read how earlier findings were closed.
           </EmptyState>
         ) : (
           <EmptyState title={`No ${statusWord || ""} findings${where}`.replace("  ", " ")}>
@@ -258,13 +297,24 @@ export function FindingsPanel({
           </Table>
           {pages > 1 && (
             <nav aria-label="Pages of findings" className="mt-2 flex items-center gap-3 text-sm">
-              <Button variant="secondary" size="sm" disabled={page === 0} onClick={() => setPaging({ key: filterKey, page: page - 1 })}>
+              <Button
+                variant="secondary"
+                size="sm"
+                disabled={page === 0}
+                onClick={() => setPaging({ key: filterKey, page: page - 1 })}
+              >
                 Previous {FINDINGS_PAGE}
               </Button>
               <span className="figures text-ink-muted">
-                {formatCount(page * FINDINGS_PAGE + 1)}–{formatCount(page * FINDINGS_PAGE + list.length)} of {formatCount(matching.length)}
+                {formatCount(page * FINDINGS_PAGE + 1)}–{formatCount(page * FINDINGS_PAGE + list.length)} of{" "}
+                {formatCount(matching.length)}
               </span>
-              <Button variant="secondary" size="sm" disabled={page + 1 >= pages} onClick={() => setPaging({ key: filterKey, page: page + 1 })}>
+              <Button
+                variant="secondary"
+                size="sm"
+                disabled={page + 1 >= pages}
+                onClick={() => setPaging({ key: filterKey, page: page + 1 })}
+              >
                 Next {FINDINGS_PAGE}
               </Button>
             </nav>

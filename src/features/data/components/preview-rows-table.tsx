@@ -39,7 +39,10 @@ function groupThousands(text: string): string {
 
 function ErrorMarker() {
   return (
-    <span aria-hidden="true" className="mr-1 inline-flex size-3.5 items-center justify-center rounded-full bg-danger text-[0.6rem] leading-none font-bold text-paper-raised">
+    <span
+      aria-hidden="true"
+      className="mr-1 inline-flex size-3.5 items-center justify-center rounded-full bg-danger text-[0.6rem] leading-none font-bold text-paper-raised"
+    >
       !
     </span>
   );
@@ -78,7 +81,8 @@ function columnsFor(fileColumns: string[]): ColumnDef<FileRow>[] {
         const problems = row.original.errors.filter((e) => e.column === c);
         const value = String(getValue());
         // Clean amounts read with separators; a cell with a problem shows exactly what the file says.
-        if (problems.length === 0) return value === "" ? <span className="text-ink-faint">—</span> : numeric ? groupThousands(value) : value;
+        if (problems.length === 0)
+          return value === "" ? <span className="text-ink-faint">—</span> : numeric ? groupThousands(value) : value;
         return (
           <div className="flex flex-col gap-0.5 whitespace-normal">
             <span className={cn("whitespace-nowrap", numeric && "text-right")}>
@@ -179,30 +183,52 @@ export function PreviewRowsTable({ uploadId, initial }: { uploadId: number; init
           {isFetching && " · loading…"}
         </p>
       </div>
-      <FormMessage>{error ? (isApiError(error) ? error.message : "The rows of this file could not load.") : undefined}</FormMessage>
+      <FormMessage>
+        {error ? (isApiError(error) ? error.message : "The rows of this file could not load.") : undefined}
+      </FormMessage>
       {data && data.rows.length === 0 ? (
         <EmptyState title={params.invalidOnly ? "No row has an error" : "The file has no data rows"}>
-          {params.invalidOnly ? "Every row passed the checks. Clear “Only rows with errors” to read them all." : "Add one line per portfolio and day below the header row and upload again."}
+          {params.invalidOnly
+            ? "Every row passed the checks. Clear “Only rows with errors” to read them all."
+            : "Add one line per portfolio and day below the header row and upload again."}
         </EmptyState>
       ) : data ? (
-        <div className={cn("max-h-[32rem] overflow-y-auto border-b border-rule [&_thead_th]:sticky [&_thead_th]:top-0 [&_thead_th]:z-10 [&_thead_th]:bg-paper", isPlaceholderData && "opacity-60")}>
+        <div
+          className={cn(
+            "max-h-[32rem] overflow-y-auto border-b border-rule [&_thead_th]:sticky [&_thead_th]:top-0 [&_thead_th]:z-10 [&_thead_th]:bg-paper",
+            isPlaceholderData && "opacity-60",
+          )}
+        >
           <DataTable
             table={table}
             caption="Rows of the uploaded file"
             rowProps={(row) => (row.original.errors.length > 0 ? { className: "bg-danger-soft/25" } : {})}
           />
-          {shown === 0 && <EmptyState title="No row on this page matches">Clear the search box or look on another page.</EmptyState>}
+          {shown === 0 && (
+            <EmptyState title="No row on this page matches">Clear the search box or look on another page.</EmptyState>
+          )}
         </div>
       ) : null}
       {total > params.limit && (
         <nav aria-label="Pages of the file" className="flex items-center gap-3 text-sm">
-          <Button variant="secondary" size="sm" disabled={params.offset === 0} onClick={() => setParams((p) => ({ ...p, offset: Math.max(0, p.offset - p.limit) }))}>
+          <Button
+            variant="secondary"
+            size="sm"
+            disabled={params.offset === 0}
+            onClick={() => setParams((p) => ({ ...p, offset: Math.max(0, p.offset - p.limit) }))}
+          >
             Previous {formatCount(params.limit)}
           </Button>
           <span className="figures text-ink-muted">
-            Page {formatCount(Math.floor(params.offset / params.limit) + 1)} of {formatCount(Math.ceil(total / params.limit))}
+            Page {formatCount(Math.floor(params.offset / params.limit) + 1)} of{" "}
+            {formatCount(Math.ceil(total / params.limit))}
           </span>
-          <Button variant="secondary" size="sm" disabled={params.offset + params.limit >= total} onClick={() => setParams((p) => ({ ...p, offset: p.offset + p.limit }))}>
+          <Button
+            variant="secondary"
+            size="sm"
+            disabled={params.offset + params.limit >= total}
+            onClick={() => setParams((p) => ({ ...p, offset: p.offset + p.limit }))}
+          >
             Next {formatCount(params.limit)}
           </Button>
         </nav>

@@ -55,7 +55,9 @@ export function UploadHistoryTable({
               <Td className="figures whitespace-nowrap">{formatDateTime(u.uploadedAt)}</Td>
               <Td>
                 {u.uploadedBy}
-                {u.committedBy && u.committedBy !== u.uploadedBy ? <span className="block text-xs text-ink-muted">committed by {u.committedBy}</span> : null}
+                {u.committedBy && u.committedBy !== u.uploadedBy ? (
+                  <span className="block text-xs text-ink-muted">committed by {u.committedBy}</span>
+                ) : null}
               </Td>
               <Td className="break-all">
                 <Link to={uploadHref(u.id)} aria-label={`Open upload #${u.id}, ${u.fileName}`}>
@@ -67,7 +69,9 @@ export function UploadHistoryTable({
                 {formatCount(u.invalid)}
               </Td>
               <Td numeric>{formatCount(u.restatements)}</Td>
-              <Td className={cn("whitespace-nowrap", u.status === "preview" && "font-medium text-accent")}>{uploadStatusLabels[u.status]}</Td>
+              <Td className={cn("whitespace-nowrap", u.status === "preview" && "font-medium text-accent")}>
+                {uploadStatusLabels[u.status]}
+              </Td>
               <Td>
                 <code className="text-xs" title={u.sha256}>
                   {shortSha(u.sha256)}

@@ -18,7 +18,13 @@ function Progress({ progress, fileName }: { progress: UploadProgress; fileName: 
 }
 
 /** Drop zone and file button for the day's CSV; sends it for a preview, nothing is stored yet. */
-export function UploadPanel({ onUploaded, uploadHref }: { onUploaded: (preview: UploadPreview) => void; uploadHref: (id: number) => string }) {
+export function UploadPanel({
+  onUploaded,
+  uploadHref,
+}: {
+  onUploaded: (preview: UploadPreview) => void;
+  uploadHref: (id: number) => string;
+}) {
   const send = useSendUpload();
   const inputRef = useRef<HTMLInputElement>(null);
   const inputId = useId();
@@ -98,7 +104,8 @@ export function UploadPanel({ onUploaded, uploadHref }: { onUploaded: (preview: 
             Choose a CSV file
           </label>
           <p id={hintId} className="text-2xs text-ink-muted">
-            One file, at most {UPLOAD_MAX_LABEL}. Columns as in the template; nothing is stored until you commit the preview.
+            One file, at most {UPLOAD_MAX_LABEL}. Columns as in the template; nothing is stored until you commit the
+            preview.
           </p>
         </div>
         <div aria-live="polite" className="min-h-9">

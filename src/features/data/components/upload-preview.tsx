@@ -14,7 +14,12 @@ function CountFigure({ label, value, tone }: { label: string; value: number; ton
   return (
     <div className="flex flex-col">
       <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">{label}</dt>
-      <dd className={cn("figures text-right text-base font-medium", tone === "bad" && value > 0 ? "text-danger" : "text-ink")}>
+      <dd
+        className={cn(
+          "figures text-right text-base font-medium",
+          tone === "bad" && value > 0 ? "text-danger" : "text-ink",
+        )}
+      >
         {tone === "bad" && value > 0 && (
           <span aria-hidden="true" className="mr-1 text-xs">
             ▲
@@ -50,7 +55,13 @@ function Fingerprint({ sha256 }: { sha256: string }) {
       <code className="text-xs" title={sha256}>
         {shortSha(sha256)}…
       </code>
-      <Button variant="quiet" size="sm" className="h-auto!" onClick={copy} aria-label="Copy the full SHA-256 of the file">
+      <Button
+        variant="quiet"
+        size="sm"
+        className="h-auto!"
+        onClick={copy}
+        aria-label="Copy the full SHA-256 of the file"
+      >
         Copy
       </Button>
       <span role="status" className="text-2xs text-ink-muted">
@@ -67,7 +78,15 @@ function committedLine(r: CommitResult): string {
 }
 
 /** One upload: its figures, its rows with the errors in place, and what may be done with it. */
-export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { preview: UploadPreview; canChange: boolean; onDiscarded: () => void }) {
+export function UploadPreviewPanel({
+  preview,
+  canChange,
+  onDiscarded,
+}: {
+  preview: UploadPreview;
+  canChange: boolean;
+  onDiscarded: () => void;
+}) {
   const commit = useCommitUpload();
   const discard = useDiscardUpload();
   const [askDiscard, setAskDiscard] = useState(false);
@@ -84,10 +103,13 @@ export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { previe
         <h2 id="preview-title">
           Upload #{p.id} <span className="font-normal text-ink-soft">· {p.fileName}</span>
         </h2>
-        <span className={cn("text-xs font-medium", pending ? "text-accent" : "text-ink-muted")}>{uploadStatusLabels[p.status]}</span>
+        <span className={cn("text-xs font-medium", pending ? "text-accent" : "text-ink-muted")}>
+          {uploadStatusLabels[p.status]}
+        </span>
         <span className="text-xs text-ink-muted">
           by {p.uploadedBy}, {formatDateTime(p.uploadedAt)}
-          {p.committedAt && ` · committed ${p.committedBy && p.committedBy !== p.uploadedBy ? `by ${p.committedBy}, ` : ""}${formatDateTime(p.committedAt)}`}
+          {p.committedAt &&
+            ` · committed ${p.committedBy && p.committedBy !== p.uploadedBy ? `by ${p.committedBy}, ` : ""}${formatDateTime(p.committedAt)}`}
         </span>
       </div>
 
@@ -109,22 +131,34 @@ export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { previe
 
       {p.invalid > 0 && (
         <p className="text-sm text-ink-soft">
-          {plural(p.invalid, "row has", "rows have")} {plural(p.errorCount, "problem", "problems")} in total; each is written under its cell below.
+          {plural(p.invalid, "row has", "rows have")} {plural(p.errorCount, "problem", "problems")} in total; each is
+          written under its cell below.
         </p>
       )}
 
       {commit.data && <FormMessage tone="done">{committedLine(commit.data)}</FormMessage>}
-      <FormMessage>{actionError ? (isApiError(actionError) ? actionError.message : "The change could not be saved.") : undefined}</FormMessage>
+      <FormMessage>
+        {actionError ? (isApiError(actionError) ? actionError.message : "The change could not be saved.") : undefined}
+      </FormMessage>
 
       {canChange && pending && (
         <div className="flex flex-wrap items-center gap-3">
-          <Button disabled={p.invalid > 0 || busy} aria-describedby={p.invalid > 0 ? blockedId : undefined} onClick={() => commit.mutate(p.id)}>
+          <Button
+            disabled={p.invalid > 0 || busy}
+            aria-describedby={p.invalid > 0 ? blockedId : undefined}
+            onClick={() => commit.mutate(p.id)}
+          >
             {commit.isPending ? "Committing…" : `Commit ${formatCount(p.valid)} ${p.valid === 1 ? "row" : "rows"}`}
           </Button>
           {askDiscard ? (
             <span className="flex items-center gap-2 text-sm">
               Discard this preview? Nothing of it is kept.
-              <Button variant="danger" size="sm" disabled={busy} onClick={() => discard.mutate(p.id, { onSuccess: onDiscarded })}>
+              <Button
+                variant="danger"
+                size="sm"
+                disabled={busy}
+                onClick={() => discard.mutate(p.id, { onSuccess: onDiscarded })}
+              >
                 {discard.isPending ? "Discarding…" : "Yes, discard"}
               </Button>
               <Button variant="quiet" size="sm" onClick={() => setAskDiscard(false)}>
@@ -138,15 +172,20 @@ export function UploadPreviewPanel({ preview, canChange, onDiscarded }: { previe
           )}
           {p.invalid > 0 && (
             <p id={blockedId} className="basis-full text-sm text-danger">
-              Nothing can be committed while {plural(p.invalid, "row has", "rows have")} errors. Fix them in the file and upload it again.
+              Nothing can be committed while {plural(p.invalid, "row has", "rows have")} errors. Fix them in the file
+              and upload it again.
             </p>
           )}
         </div>
       )}
-      {!canChange && pending && <p className="text-sm text-ink-muted">This preview waits for an analyst to commit or discard it.</p>}
+      {!canChange && pending && (
+        <p className="text-sm text-ink-muted">This preview waits for an analyst to commit or discard it.</p>
+      )}
 
       {p.status === "discarded" ? (
-        <p className="text-sm text-ink-muted">This preview was discarded; its rows are no longer kept and nothing of it was written.</p>
+        <p className="text-sm text-ink-muted">
+          This preview was discarded; its rows are no longer kept and nothing of it was written.
+        </p>
       ) : (
         <PreviewRowsTable key={p.id} uploadId={p.id} initial={firstRowsPage(p.invalid)} />
       )}

@@ -18,7 +18,11 @@ const base = (code: string) => `/api/entities/${encodeURIComponent(code)}`;
 
 export const entityQueries = {
   root: () => ["entities"] as const,
-  all: () => queryOptions({ queryKey: [...entityQueries.root(), "list"] as const, queryFn: () => api.get("/api/entities", entityListSchema) }),
+  all: () =>
+    queryOptions({
+      queryKey: [...entityQueries.root(), "list"] as const,
+      queryFn: () => api.get("/api/entities", entityListSchema),
+    }),
   portfolios: (code: string) =>
     queryOptions({
       queryKey: [...entityQueries.root(), "detail", code, "portfolios"] as const,

@@ -71,7 +71,8 @@ export function EntityForm(props: Props) {
   const [errors, setErrors] = useState<FieldErrors>({});
   const [done, setDone] = useState<string>();
 
-  const set = (k: keyof Values) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [k]: e.target.value }));
+  const set = (k: keyof Values) => (e: { target: { value: string } }) =>
+    setValues((v) => ({ ...v, [k]: e.target.value }));
 
   function setRegime(regime: RegimeId) {
     // The P&L basis follows the rule set's default until someone picks one on purpose.
@@ -88,7 +89,8 @@ export function EntityForm(props: Props) {
     setDone(undefined);
     mutation.reset();
     const body = toBody(values);
-    const addendError = body.qualitativeAddend === undefined ? { qualitativeAddend: "Enter a number between 0 and 1, such as 0.25" } : {};
+    const addendError =
+      body.qualitativeAddend === undefined ? { qualitativeAddend: "Enter a number between 0 and 1, such as 0.25" } : {};
 
     if (!editing) {
       const r = validate(createEntityBodySchema, body);
@@ -128,8 +130,7 @@ export function EntityForm(props: Props) {
     });
   }
 
-  const formError =
-    formLevelMessage(mutation.error);
+  const formError = formLevelMessage(mutation.error);
   const titleId = editing ? "edit-entity-title" : "create-entity-title";
 
   return (
@@ -139,10 +140,30 @@ export function EntityForm(props: Props) {
       <FormMessage tone="done">{done}</FormMessage>
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-4">
         {!editing && (
-          <TextField label="Code" name="code" value={values.code} onChange={set("code")} error={errors.code} hint="e.g. LKS-EU; cannot change later" />
+          <TextField
+            label="Code"
+            name="code"
+            value={values.code}
+            onChange={set("code")}
+            error={errors.code}
+            hint="e.g. LKS-EU; cannot change later"
+          />
         )}
-        <TextField label="Name" name="name" value={values.name} onChange={set("name")} error={errors.name} className={editing ? "lg:col-span-2" : ""} />
-        <SelectField label="Rule set" name="regime" value={values.regime} onChange={(e) => setRegime(e.target.value as RegimeId)} error={errors.regime}>
+        <TextField
+          label="Name"
+          name="name"
+          value={values.name}
+          onChange={set("name")}
+          error={errors.name}
+          className={editing ? "lg:col-span-2" : ""}
+        />
+        <SelectField
+          label="Rule set"
+          name="regime"
+          value={values.regime}
+          onChange={(e) => setRegime(e.target.value as RegimeId)}
+          error={errors.regime}
+        >
           {ruleSetIds.map((r) => (
             <option key={r} value={r}>
               {ruleSetLabels[r]}
@@ -166,7 +187,15 @@ export function EntityForm(props: Props) {
             </option>
           ))}
         </SelectField>
-        <TextField label="Currency" name="currency" value={values.currency} onChange={set("currency")} error={errors.currency} hint="ISO 4217, e.g. EUR" maxLength={3} />
+        <TextField
+          label="Currency"
+          name="currency"
+          value={values.currency}
+          onChange={set("currency")}
+          error={errors.currency}
+          hint="ISO 4217, e.g. EUR"
+          maxLength={3}
+        />
         <TextField
           label="Qualitative addend"
           name="qualitativeAddend"
@@ -177,7 +206,14 @@ export function EntityForm(props: Props) {
           hint="Set by the supervisor, 0 to 1; added to the multiplier"
           className="figures"
         />
-        <TextField label="Supervisor" name="supervisorName" value={values.supervisorName} onChange={set("supervisorName")} error={errors.supervisorName} hint="Optional" />
+        <TextField
+          label="Supervisor"
+          name="supervisorName"
+          value={values.supervisorName}
+          onChange={set("supervisorName")}
+          error={errors.supervisorName}
+          hint="Optional"
+        />
         <TextField
           label="Supervisor contact e-mails"
           name="supervisorEmails"

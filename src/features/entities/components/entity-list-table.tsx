@@ -8,8 +8,8 @@ export function EntityListTable({ entities, hrefFor }: { entities: Entity[]; hre
   if (entities.length === 0) {
     return (
       <EmptyState title="No entities yet">
-        Add the first legal entity with the form below. Choose its rule set first: the P&amp;L basis follows the rule set's
-        default.
+        Add the first legal entity with the form below. Choose its rule set first: the P&amp;L basis follows the rule
+        set's default.
       </EmptyState>
     );
   }

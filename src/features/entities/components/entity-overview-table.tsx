@@ -10,8 +10,8 @@ function NextStepWhenEmpty({ role, addEntityHref }: { role: Role; addEntityHref?
     case "admin":
       return (
         <EmptyState title="No legal entities yet">
-          {addEntityHref ? <Link to={addEntityHref}>Add an entity</Link> : "Add an entity"} with its rule set, P&amp;L basis and
-          currency; portfolios and the holiday calendar follow on its page.
+          {addEntityHref ? <Link to={addEntityHref}>Add an entity</Link> : "Add an entity"} with its rule set, P&amp;L
+          basis and currency; portfolios and the holiday calendar follow on its page.
         </EmptyState>
       );
     case "regulator":
@@ -29,7 +29,15 @@ function NextStepWhenEmpty({ role, addEntityHref }: { role: Role; addEntityHref?
   }
 }
 
-export function EntityOverviewTable({ entities, role, addEntityHref }: { entities: Entity[]; role: Role; addEntityHref?: string }) {
+export function EntityOverviewTable({
+  entities,
+  role,
+  addEntityHref,
+}: {
+  entities: Entity[];
+  role: Role;
+  addEntityHref?: string;
+}) {
   if (entities.length === 0) return <NextStepWhenEmpty role={role} addEntityHref={addEntityHref} />;
   return (
     <Table caption="Legal entities and their backtesting rules">

@@ -34,7 +34,13 @@ function AddHolidayForm({ entityCode }: { entityCode: string }) {
   const formError = formLevelMessage(add.error);
 
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="add-holiday-title" className="flex flex-col gap-2">
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-labelledby="add-holiday-title"
+      className="flex flex-col gap-2"
+    >
       <h3 id="add-holiday-title" className="text-sm font-semibold">
         Add a holiday
       </h3>
@@ -72,12 +78,14 @@ export function HolidaysPanel({ entityCode, holidays }: { entityCode: string; ho
     <section aria-labelledby="holidays-title" className="flex flex-col gap-3">
       <h2 id="holidays-title">Holiday calendar</h2>
       <p className="text-sm text-ink-muted">
-        Business days are weekdays minus these dates. The calendar decides which days the backtesting window and the roll-off
-        forecast count.
+        Business days are weekdays minus these dates. The calendar decides which days the backtesting window and the
+        roll-off forecast count.
       </p>
       <FormMessage>{removeError}</FormMessage>
       {sorted.length === 0 ? (
-        <EmptyState title="No holidays recorded">Add the entity's non-business days; until then every weekday counts as a business day.</EmptyState>
+        <EmptyState title="No holidays recorded">
+          Add the entity's non-business days; until then every weekday counts as a business day.
+        </EmptyState>
       ) : (
         <Table caption={`Holidays of ${entityCode}`}>
           <thead>
@@ -95,7 +103,13 @@ export function HolidaysPanel({ entityCode, holidays }: { entityCode: string; ho
                 <Td className="figures whitespace-nowrap">{formatBusinessDate(h.date)}</Td>
                 <Td>{h.name}</Td>
                 <Td className="text-right">
-                  <Button variant="quiet" size="sm" disabled={remove.isPending} aria-label={`Remove holiday ${h.date}`} onClick={() => remove.mutate(h.date)}>
+                  <Button
+                    variant="quiet"
+                    size="sm"
+                    disabled={remove.isPending}
+                    aria-label={`Remove holiday ${h.date}`}
+                    onClick={() => remove.mutate(h.date)}
+                  >
                     Remove
                   </Button>
                 </Td>

@@ -10,7 +10,15 @@ import { useCreatePortfolio, useRenamePortfolio } from "../api/entity-queries";
 
 const levelLabels: Record<PortfolioLevel, string> = { top: "Top of house", desk: "Trading desk" };
 
-function RenameRow({ entityCode, portfolio, onDone }: { entityCode: string; portfolio: Portfolio; onDone: (msg?: string) => void }) {
+function RenameRow({
+  entityCode,
+  portfolio,
+  onDone,
+}: {
+  entityCode: string;
+  portfolio: Portfolio;
+  onDone: (msg?: string) => void;
+}) {
   const rename = useRenamePortfolio(entityCode);
   const [name, setName] = useState(portfolio.name);
   const [error, setError] = useState<string>();
@@ -20,12 +28,27 @@ function RenameRow({ entityCode, portfolio, onDone }: { entityCode: string; port
     if (!r.ok) return setError(r.errors.name);
     rename.mutate(
       { portfolio: portfolio.code, name: r.data.name },
-      { onSuccess: () => onDone(`${portfolio.code} renamed.`), onError: (err) => setError(fieldErrorsOf(err).name ?? (isApiError(err) ? err.message : undefined)) },
+      {
+        onSuccess: () => onDone(`${portfolio.code} renamed.`),
+        onError: (err) => setError(fieldErrorsOf(err).name ?? (isApiError(err) ? err.message : undefined)),
+      },
     );
   }
   return (
-    <form onSubmit={submit} noValidate className="flex flex-wrap items-end gap-2" aria-label={`Rename ${portfolio.code}`}>
-      <TextField label={`New name for ${portfolio.code}`} value={name} autoFocus onChange={(e) => setName(e.target.value)} error={error} className="w-72" />
+    <form
+      onSubmit={submit}
+      noValidate
+      className="flex flex-wrap items-end gap-2"
+      aria-label={`Rename ${portfolio.code}`}
+    >
+      <TextField
+        label={`New name for ${portfolio.code}`}
+        value={name}
+        autoFocus
+        onChange={(e) => setName(e.target.value)}
+        error={error}
+        className="w-72"
+      />
       <Button type="submit" size="sm" disabled={rename.isPending}>
         Save
       </Button>
@@ -42,7 +65,8 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
   const initial = { code: "", name: "", level: (hasTop ? "desk" : "top") as PortfolioLevel };
   const [values, setValues] = useState(initial);
   const [errors, setErrors] = useState<FieldErrors>({});
-  const set = (k: keyof typeof initial) => (e: { target: { value: string } }) => setValues((v) => ({ ...v, [k]: e.target.value }));
+  const set = (k: keyof typeof initial) => (e: { target: { value: string } }) =>
+    setValues((v) => ({ ...v, [k]: e.target.value }));
 
   function submit(e: FormEvent) {
     e.preventDefault();
@@ -64,13 +88,26 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
   const formError = formLevelMessage(create.error);
 
   return (
-    <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="add-portfolio-title" className="flex flex-col gap-2">
+    <form
+      ref={formRef}
+      onSubmit={submit}
+      noValidate
+      aria-labelledby="add-portfolio-title"
+      className="flex flex-col gap-2"
+    >
       <h3 id="add-portfolio-title" className="text-sm font-semibold">
         Add a portfolio
       </h3>
       <FormMessage>{formError}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
-        <TextField label="Code" value={values.code} onChange={set("code")} error={errors.code} className="w-40" hint="e.g. LKS-UK-RATES" />
+        <TextField
+          label="Code"
+          value={values.code}
+          onChange={set("code")}
+          error={errors.code}
+          className="w-40"
+          hint="e.g. LKS-UK-RATES"
+        />
         <TextField label="Name" value={values.name} onChange={set("name")} error={errors.name} className="w-64" />
         <SelectField label="Level" value={values.level} onChange={set("level")} error={errors.level} className="w-40">
           <option value="top">{levelLabels.top}</option>
@@ -84,22 +121,35 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
   );
 }
 
-export function PortfoliosPanel({ entityCode, portfolios, isFrtb }: { entityCode: string; portfolios: Portfolio[]; isFrtb: boolean }) {
+export function PortfoliosPanel({
+  entityCode,
+  portfolios,
+  isFrtb,
+}: {
+  entityCode: string;
+  portfolios: Portfolio[];
+  isFrtb: boolean;
+}) {
   const [renaming, setRenaming] = useState<string | null>(null);
   const [notice, setNotice] = useState<string>();
   // Top of house first, then desks, each by code.
-  const sorted = [...portfolios].sort((a, b) => (a.level === b.level ? a.code.localeCompare(b.code) : a.level === "top" ? -1 : 1));
+  const sorted = [...portfolios].sort((a, b) =>
+    a.level === b.level ? a.code.localeCompare(b.code) : a.level === "top" ? -1 : 1,
+  );
   const hasTop = portfolios.some((p) => p.level === "top");
 
   return (
     <section aria-labelledby="portfolios-title" className="flex flex-col gap-3">
       <h2 id="portfolios-title">Portfolios</h2>
       <p className="text-sm text-ink-muted">
-        Backtesting runs per portfolio: one top-of-house portfolio for the entity{isFrtb ? ", plus one per trading desk for the FRTB desk tests" : ", and desks where you report them"}.
+        Backtesting runs per portfolio: one top-of-house portfolio for the entity
+        {isFrtb ? ", plus one per trading desk for the FRTB desk tests" : ", and desks where you report them"}.
       </p>
       <FormMessage tone="done">{notice}</FormMessage>
       {sorted.length === 0 ? (
-        <EmptyState title="No portfolios yet">Add the top-of-house portfolio first; daily data is uploaded against its code.</EmptyState>
+        <EmptyState title="No portfolios yet">
+          Add the top-of-house portfolio first; daily data is uploaded against its code.
+        </EmptyState>
       ) : (
         <Table caption={`Portfolios of ${entityCode}`}>
           <thead>
@@ -133,7 +183,12 @@ export function PortfoliosPanel({ entityCode, portfolios, isFrtb }: { entityCode
                 <Td>{levelLabels[p.level]}</Td>
                 <Td className="text-right">
                   {renaming !== p.code && (
-                    <Button variant="quiet" size="sm" aria-label={`Rename ${p.code}`} onClick={() => setRenaming(p.code)}>
+                    <Button
+                      variant="quiet"
+                      size="sm"
+                      aria-label={`Rename ${p.code}`}
+                      onClick={() => setRenaming(p.code)}
+                    >
                       Rename
                     </Button>
                   )}

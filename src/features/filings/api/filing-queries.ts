@@ -40,10 +40,15 @@ export function useAcknowledgeFiling(id: number) {
   return useMutation({
     mutationFn: () => api.post(`${base(id)}/acknowledge`, {}, filingSchema),
     onSuccess: (filing) => {
-      queryClient.setQueryData(filingKeys.list(), (list: Filing[] | undefined) => list?.map((f) => (f.id === filing.id ? filing : f)));
+      queryClient.setQueryData(filingKeys.list(), (list: Filing[] | undefined) =>
+        list?.map((f) => (f.id === filing.id ? filing : f)),
+      );
       return queryClient.invalidateQueries({ queryKey: filingKeys.list() });
     },
     // A filing no longer visible (the assignment was withdrawn) is news about the list: read it again.
-    onError: (error) => (isApiError(error) && error.status === 404 ? queryClient.invalidateQueries({ queryKey: filingKeys.list() }) : undefined),
+    onError: (error) =>
+      isApiError(error) && error.status === 404
+        ? queryClient.invalidateQueries({ queryKey: filingKeys.list() })
+        : undefined,
   });
 }

@@ -14,9 +14,17 @@ export function AcknowledgeReceipt({ filing, role }: { filing: Filing; role: Rol
   return (
     <div className="flex flex-col gap-2">
       <h4 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">Receipt</h4>
-      {acknowledge.isSuccess && <FormMessage tone="done">You acknowledged receipt of {filing.entity}'s pack for {quarter}.</FormMessage>}
+      {acknowledge.isSuccess && (
+        <FormMessage tone="done">
+          You acknowledged receipt of {filing.entity}'s pack for {quarter}.
+        </FormMessage>
+      )}
       {acknowledge.error && (
-        <FormMessage>{isApiError(acknowledge.error) ? acknowledge.error.message : "The acknowledgement could not be recorded; try again."}</FormMessage>
+        <FormMessage>
+          {isApiError(acknowledge.error)
+            ? acknowledge.error.message
+            : "The acknowledgement could not be recorded; try again."}
+        </FormMessage>
       )}
       {filing.acknowledgedAt ? (
         <p className="text-sm" data-testid="filing-acknowledged">
@@ -28,7 +36,9 @@ export function AcknowledgeReceipt({ filing, role }: { filing: Filing; role: Rol
           <Button disabled={acknowledge.isPending} onClick={() => acknowledge.mutate()}>
             {acknowledge.isPending ? "Acknowledging…" : "Acknowledge receipt"}
           </Button>
-          <span className="text-xs text-ink-muted">Confirms to the bank that you received this pack; your name and the time are recorded.</span>
+          <span className="text-xs text-ink-muted">
+            Confirms to the bank that you received this pack; your name and the time are recorded.
+          </span>
         </div>
       ) : (
         <p className="text-sm text-ink-soft" data-testid="filing-acknowledged">

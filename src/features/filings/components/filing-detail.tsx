@@ -21,9 +21,16 @@ export function FilingDetail({ filing, role, regime }: { filing: Filing; role: R
           {filing.entity} {quarter} <span className="font-normal text-ink-muted">· {filing.entityName}</span>
         </h2>
         <p className="text-sm text-ink-soft">
-          Quarter <span className="figures">{quarterStart(filing.quarterEnd)}</span> to <span className="figures">{filing.quarterEnd}</span> · sent by{" "}
-          {filing.sentBy} {filing.sentAt ? <>on <span className="figures">{formatDateTime(filing.sentAt)}</span></> : "(waiting for the mail server)"} to{" "}
-          {filing.recipients.join(", ")}
+          Quarter <span className="figures">{quarterStart(filing.quarterEnd)}</span> to{" "}
+          <span className="figures">{filing.quarterEnd}</span> · sent by {filing.sentBy}{" "}
+          {filing.sentAt ? (
+            <>
+              on <span className="figures">{formatDateTime(filing.sentAt)}</span>
+            </>
+          ) : (
+            "(waiting for the mail server)"
+          )}{" "}
+          to {filing.recipients.join(", ")}
         </p>
       </header>
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3 border-y border-rule py-3 sm:grid-cols-4">

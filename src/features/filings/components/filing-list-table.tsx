@@ -60,7 +60,11 @@ export function FilingListTable({
               <Td numeric>{f.counted}</Td>
               <Td numeric>{formatFactor(f.multiplier)}</Td>
               <Td className="whitespace-nowrap">
-                {f.sentAt ? <span className="figures">{formatDateTime(f.sentAt)}</span> : <span className="font-medium">Waiting for the mail server</span>}
+                {f.sentAt ? (
+                  <span className="figures">{formatDateTime(f.sentAt)}</span>
+                ) : (
+                  <span className="font-medium">Waiting for the mail server</span>
+                )}
                 <span className="block text-2xs text-ink-muted">{f.sentBy}</span>
               </Td>
               <Td className="text-xs">

@@ -13,7 +13,10 @@ export function FilingsStanding({ filings, role }: { filings: Filing[]; role: Ro
   const pending = filings.length - sent.length;
   const waiting = sent.filter((f) => f.acknowledgedAt === null).length;
   // The newest by the time the mail server took it: a pack that waited goes out after later ones.
-  const latest = sent.reduce<Filing | undefined>((a, f) => (!a || (f.sentAt ?? "") > (a.sentAt ?? "") ? f : a), undefined);
+  const latest = sent.reduce<Filing | undefined>(
+    (a, f) => (!a || (f.sentAt ?? "") > (a.sentAt ?? "") ? f : a),
+    undefined,
+  );
   return (
     <dl className="flex flex-wrap gap-x-10 gap-y-2 text-sm" aria-label="Where the filings stand">
       <div>

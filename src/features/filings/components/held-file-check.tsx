@@ -36,11 +36,15 @@ export function HeldFileCheck({ filing }: { filing: Filing }) {
           <p>This browser computes no SHA-256 on a page served without HTTPS, so compare the file by hand:</p>
           <ol className="list-decimal pl-5">
             <li>
-              Compute its SHA-256 on your machine: <code className="font-mono text-xs">sha256sum {filing.fileName}</code> (Linux),{" "}
+              Compute its SHA-256 on your machine:{" "}
+              <code className="font-mono text-xs">sha256sum {filing.fileName}</code> (Linux),{" "}
               <code className="font-mono text-xs">shasum -a 256 {filing.fileName}</code> (macOS) or{" "}
               <code className="font-mono text-xs">certutil -hashfile {filing.fileName} SHA256</code> (Windows).
             </li>
-            <li>Compare all 64 characters with the pack SHA-256 written out in full above (case does not matter): the file is the pack as sent only if every one matches.</li>
+            <li>
+              Compare all 64 characters with the pack SHA-256 written out in full above (case does not matter): the file
+              is the pack as sent only if every one matches.
+            </li>
           </ol>
         </div>
       ) : (
@@ -70,24 +74,39 @@ export function HeldFileCheck({ filing }: { filing: Filing }) {
               Check a file you hold
             </label>
             <span id={hintId} className="text-xs text-ink-muted">
-              Choose the PDF you received: your browser computes its SHA-256 and compares it with the filing's. The file is not uploaded.
+              Choose the PDF you received: your browser computes its SHA-256 and compares it with the filing's. The file
+              is not uploaded.
             </span>
           </div>
           <div aria-live="polite">
             {busy && <p className="text-sm text-ink-muted">Computing the file's SHA-256…</p>}
-            {outcome && "failed" in outcome && <FormMessage>{outcome.name} could not be read to compute its SHA-256. Choose the file again.</FormMessage>}
+            {outcome && "failed" in outcome && (
+              <FormMessage>{outcome.name} could not be read to compute its SHA-256. Choose the file again.</FormMessage>
+            )}
             {outcome && "sha256" in outcome && (
               <div
                 role="status"
                 aria-label="File check"
-                className={cn("border-l-2 px-3 py-1.5 text-sm", matches ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger")}
+                className={cn(
+                  "border-l-2 px-3 py-1.5 text-sm",
+                  matches ? "border-accent bg-accent-soft" : "border-danger bg-danger-soft text-danger",
+                )}
               >
                 <p className="font-semibold">
-                  {matches ? `Match: ${outcome.name} is the pack as it was sent.` : `No match: ${outcome.name} is not the pack as it was sent.`}
+                  {matches
+                    ? `Match: ${outcome.name} is the pack as it was sent.`
+                    : `No match: ${outcome.name} is not the pack as it was sent.`}
                 </p>
                 <p className="text-ink-soft">
                   Its SHA-256 <Hash value={outcome.sha256} />
-                  {matches ? " equals the filing's." : <> differs from the filing's <Hash value={filing.sha256} />: ask the bank for the file again.</>}
+                  {matches ? (
+                    " equals the filing's."
+                  ) : (
+                    <>
+                      {" "}
+                      differs from the filing's <Hash value={filing.sha256} />: ask the bank for the file again.
+                    </>
+                  )}
                 </p>
               </div>
             )}

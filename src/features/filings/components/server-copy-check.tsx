@@ -14,10 +14,17 @@ export function ServerCopyCheck({ filing }: { filing: Filing }) {
     <div className="flex flex-col gap-2">
       <h4 className="text-xs font-semibold tracking-wide text-ink-muted uppercase">The server's copy</h4>
       <div className="flex flex-wrap items-center gap-3">
-        <Button variant="secondary" size="sm" disabled={verify.isFetching} onClick={() => (asked ? void verify.refetch() : setAsked(true))}>
+        <Button
+          variant="secondary"
+          size="sm"
+          disabled={verify.isFetching}
+          onClick={() => (asked ? void verify.refetch() : setAsked(true))}
+        >
           {verify.isFetching ? "Checking…" : result ? "Check again" : "Check the server's copy"}
         </Button>
-        <span className="text-xs text-ink-muted">Hashes the pack kept at filing and checks the seal of the quarter it came from.</span>
+        <span className="text-xs text-ink-muted">
+          Hashes the pack kept at filing and checks the seal of the quarter it came from.
+        </span>
       </div>
       <CheckVerdict
         check={verify}

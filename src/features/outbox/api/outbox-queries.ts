@@ -5,7 +5,8 @@ import { api, isApiError } from "@/lib/api-client";
 const base = "/api/admin/outbox";
 
 /** One attachment's bytes as the message carried them; a plain link downloads it with the session cookie. */
-export const outboxAttachmentHref = (id: string, index: number) => `${base}/${encodeURIComponent(id)}/attachments/${index}`;
+export const outboxAttachmentHref = (id: string, index: number) =>
+  `${base}/${encodeURIComponent(id)}/attachments/${index}`;
 
 /** The server says the outbox does not exist here (production, or no local mail sink). */
 export const isOutboxUnavailable = (error: unknown) => isApiError(error) && error.code === "outbox_unavailable";

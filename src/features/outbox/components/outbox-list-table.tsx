@@ -18,8 +18,8 @@ export function OutboxListTable({
   if (messages.length === 0)
     return (
       <EmptyState title="No e-mail sent yet — filing a pack from Quarter close sends one">
-        When the chief risk officer files an approved quarter, its pack goes by e-mail to the entity's supervisor contacts; on this machine the local
-        mail sink keeps the message, and it appears here.
+        When the chief risk officer files an approved quarter, its pack goes by e-mail to the entity's supervisor
+        contacts; on this machine the local mail sink keeps the message, and it appears here.
       </EmptyState>
     );
   return (
@@ -85,6 +85,9 @@ export function OutboxListTable({
 /** "12 messages · 1 unreadable", for the list's heading. */
 export function outboxCountLine(messages: OutboxMessage[], total: number): string {
   const unreadable = messages.filter((m) => !m.readable).length;
-  const shown = total > messages.length ? `the newest ${messages.length} of ${plural(total, "message", "messages")}` : plural(total, "message", "messages");
+  const shown =
+    total > messages.length
+      ? `the newest ${messages.length} of ${plural(total, "message", "messages")}`
+      : plural(total, "message", "messages");
   return unreadable ? `${shown} · ${unreadable} unreadable` : shown;
 }

@@ -23,8 +23,9 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
         <h2 id="outbox-message-title">This file could not be read as an e-mail message</h2>
         <p className="text-sm text-ink-soft">{message.problem}</p>
         <p className="text-sm text-ink-muted">
-          It stays where the sink keeps its messages, for you to open by hand: <code className="text-xs break-all">{file}</code> (
-          {formatBytes(message.size)}, written {formatDateTime(message.storedAt)}).
+          It stays where the sink keeps its messages, for you to open by hand:{" "}
+          <code className="text-xs break-all">{file}</code> ({formatBytes(message.size)}, written{" "}
+          {formatDateTime(message.storedAt)}).
         </p>
       </section>
     );
@@ -55,7 +56,9 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
           Text of the message
         </h3>
         {message.text ? (
-          <pre className="max-h-96 overflow-auto border border-rule bg-paper-raised px-3 py-2 font-sans text-sm whitespace-pre-wrap">{message.text}</pre>
+          <pre className="max-h-96 overflow-auto border border-rule bg-paper-raised px-3 py-2 font-sans text-sm whitespace-pre-wrap">
+            {message.text}
+          </pre>
         ) : (
           <p className="text-sm text-ink-muted">The message has no plain-text part.</p>
         )}
@@ -70,8 +73,8 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
         ) : (
           <>
             <p className="text-xs text-ink-muted">
-              The SHA-256 is computed from the bytes in the message. For a filing pack it is the one Filings shows for that filing: the file the
-              supervisor received is the file Quartermark keeps.
+              The SHA-256 is computed from the bytes in the message. For a filing pack it is the one Filings shows for
+              that filing: the file the supervisor received is the file Quartermark keeps.
             </p>
             <Table caption="Attachments of the message">
               <thead>
@@ -101,7 +104,11 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
                         </span>
                       </Td>
                       <Td className="whitespace-nowrap">
-                        <a href={outboxAttachmentHref(message.id, a.index)} download={a.filename ?? undefined} aria-label={`Download ${name}`}>
+                        <a
+                          href={outboxAttachmentHref(message.id, a.index)}
+                          download={a.filename ?? undefined}
+                          aria-label={`Download ${name}`}
+                        >
                           Download
                         </a>
                       </Td>

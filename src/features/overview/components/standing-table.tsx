@@ -81,7 +81,13 @@ export function StandingTable({
                     {formatFactor(e.multiplier)}
                   </Td>
                   <Td numeric className="whitespace-nowrap">
-                    {e.addOn === null ? <span className="text-ink-muted" title="No capital input (VaR/sVaR or ES) in the data">—</span> : formatAmount(e.addOn, e.currency)}
+                    {e.addOn === null ? (
+                      <span className="text-ink-muted" title="No capital input (VaR/sVaR or ES) in the data">
+                        —
+                      </span>
+                    ) : (
+                      formatAmount(e.addOn, e.currency)
+                    )}
                   </Td>
                   <Td className="figures whitespace-nowrap">{e.asOf}</Td>
                   <Td className="whitespace-nowrap">
@@ -99,7 +105,11 @@ export function StandingTable({
               )}
               <Td numeric>
                 {e.openReviews > 0 && href ? (
-                  <Link to={`${href}#exceptions`} aria-label={`${e.openReviews} open reviews for ${e.entity}`} className="font-medium">
+                  <Link
+                    to={`${href}#exceptions`}
+                    aria-label={`${e.openReviews} open reviews for ${e.entity}`}
+                    className="font-medium"
+                  >
                     {e.openReviews}
                   </Link>
                 ) : (
@@ -108,7 +118,11 @@ export function StandingTable({
               </Td>
               <Td numeric>
                 {e.openFindings > 0 ? (
-                  <Link to={findingsHref(e.entity)} aria-label={`${e.openFindings} open findings for ${e.entity}`} className="font-medium">
+                  <Link
+                    to={findingsHref(e.entity)}
+                    aria-label={`${e.openFindings} open findings for ${e.entity}`}
+                    className="font-medium"
+                  >
                     {e.openFindings}
                   </Link>
                 ) : (
@@ -131,7 +145,15 @@ export function StandingTable({
 }
 
 /** The newest snapshot's quarter and status in plain words, e.g. "Q3 2026 · Approved". */
-function QuarterState({ entity, state, href }: { entity: string; state: NonNullable<OverviewItem["quarterClose"]>; href?: (entity: string, snapshotId: number) => string }) {
+function QuarterState({
+  entity,
+  state,
+  href,
+}: {
+  entity: string;
+  state: NonNullable<OverviewItem["quarterClose"]>;
+  href?: (entity: string, snapshotId: number) => string;
+}) {
   const text = `${quarterLabel(state.quarterEnd)} · ${snapshotStatusLabels[state.status]}`;
   return href ? (
     <Link to={href(entity, state.snapshotId)} aria-label={`Quarter close of ${entity}: ${text}`}>

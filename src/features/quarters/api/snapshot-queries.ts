@@ -81,7 +81,8 @@ function useStoreAnswer() {
   return (snapshot: Snapshot) => {
     queryClient.setQueryData(snapshotKeys.detail(snapshot.id), snapshot);
     const detailKey = snapshotKeys.detail(snapshot.id);
-    const isThisDetail = (q: Query) => q.queryKey.length === detailKey.length && detailKey.every((k, i) => q.queryKey[i] === k);
+    const isThisDetail = (q: Query) =>
+      q.queryKey.length === detailKey.length && detailKey.every((k, i) => q.queryKey[i] === k);
     return queryClient.invalidateQueries({ predicate: (q) => everyFigure.predicate(q) && !isThisDetail(q) });
   };
 }
@@ -90,7 +91,9 @@ function useStoreAnswer() {
 function useRereadOnRefusal() {
   const queryClient = useQueryClient();
   return (error: unknown) =>
-    isApiError(error) && (error.status === 409 || error.status === 403) ? queryClient.invalidateQueries({ queryKey: snapshotKeys.all() }) : undefined;
+    isApiError(error) && (error.status === 409 || error.status === 403)
+      ? queryClient.invalidateQueries({ queryKey: snapshotKeys.all() })
+      : undefined;
 }
 
 /** Freezes the quarter's figures as a draft; for a draft or returned quarter the server recomputes it (200). */
@@ -149,6 +152,7 @@ export function useFileSnapshot(id: number) {
     onSuccess: () => queryClient.invalidateQueries(everyFigure),
     // "Already filed" is the same news as a filing that succeeded: the filings list (read by the
     // screen, whose key this feature may not import) goes stale with everything else.
-    onError: (error) => (existingFilingOf(error) !== undefined ? queryClient.invalidateQueries(everyFigure) : reread(error)),
+    onError: (error) =>
+      existingFilingOf(error) !== undefined ? queryClient.invalidateQueries(everyFigure) : reread(error),
   });
 }

@@ -58,7 +58,9 @@ export function PrepareSnapshotForm({
     prepare.mutate(r.data, {
       onSuccess: (s) => {
         const again = existing !== undefined;
-        setDone(`${quarterLabel(s.quarterEnd)} for ${s.entity} ${again ? "was computed again" : "is prepared"} as a draft: check the figures below, then submit it for sign-off.`);
+        setDone(
+          `${quarterLabel(s.quarterEnd)} for ${s.entity} ${again ? "was computed again" : "is prepared"} as a draft: check the figures below, then submit it for sign-off.`,
+        );
         onPrepared(s);
       },
       onError: (err) => {
@@ -72,7 +74,9 @@ export function PrepareSnapshotForm({
   }
 
   const formError = formLevelMessage(prepare.error);
-  const blocking = blockingSnapshotOf(prepare.error) ?? (isApiError(prepare.error) && prepare.error.status === 409 ? existing?.id : undefined);
+  const blocking =
+    blockingSnapshotOf(prepare.error) ??
+    (isApiError(prepare.error) && prepare.error.status === 409 ? existing?.id : undefined);
   return (
     <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="prepare-title" className="flex flex-col gap-3">
       <h2 id="prepare-title">Prepare a snapshot</h2>

@@ -9,7 +9,13 @@ import { Notice } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formatDateTime, shortHash } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
-import { isChangedMeanwhile, useApproveSnapshot, usePrepareSnapshot, useReturnSnapshot, useSubmitSnapshot } from "../api/snapshot-queries";
+import {
+  isChangedMeanwhile,
+  useApproveSnapshot,
+  usePrepareSnapshot,
+  useReturnSnapshot,
+  useSubmitSnapshot,
+} from "../api/snapshot-queries";
 
 const sameUser = (a: string | null, b: string) => a !== null && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -81,13 +87,22 @@ function SubmitForm({
     const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
     if (!body) return;
     submit.mutate(body, {
-      onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`),
+      onSuccess: (s) =>
+        onDone(
+          `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
+        ),
       onError,
     });
   }
 
   return (
-    <form ref={formRef} onSubmit={send} noValidate aria-label="Submit for sign-off" className="flex max-w-2xl flex-col gap-3">
+    <form
+      ref={formRef}
+      onSubmit={send}
+      noValidate
+      aria-label="Submit for sign-off"
+      className="flex max-w-2xl flex-col gap-3"
+    >
       {!isChangedMeanwhile(submit.error) && <Refusal error={submit.error} findingsHref={findingsHref} />}
       <TextareaField
         label="Comment for the sign-off (optional)"
@@ -132,7 +147,10 @@ function SignOffForm({
     const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
     if (!body) return;
     approve.mutate(body, {
-      onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`),
+      onSuccess: (s) =>
+        onDone(
+          `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
+        ),
       onError,
     });
   }
@@ -152,17 +170,28 @@ function SignOffForm({
   const error = approve.error ?? giveBack.error;
   const busy = approve.isPending || giveBack.isPending;
   return (
-    <form ref={formRef} onSubmit={sendReturn} noValidate aria-label="Sign-off" className="flex max-w-2xl flex-col gap-3">
+    <form
+      ref={formRef}
+      onSubmit={sendReturn}
+      noValidate
+      aria-label="Sign-off"
+      className="flex max-w-2xl flex-col gap-3"
+    >
       {ownWork && (
         <Notice>
-          <strong className="font-semibold">Four eyes.</strong> You {sameUser(snapshot.preparedBy, userEmail) ? "prepared" : "submitted"} this snapshot,
-          so you cannot approve it: another chief risk officer signs it off. You may still return it with a comment.
+          <strong className="font-semibold">Four eyes.</strong> You{" "}
+          {sameUser(snapshot.preparedBy, userEmail) ? "prepared" : "submitted"} this snapshot, so you cannot approve it:
+          another chief risk officer signs it off. You may still return it with a comment.
         </Notice>
       )}
       {!isChangedMeanwhile(error) && <Refusal error={error} findingsHref={findingsHref} />}
       <TextareaField
         label={ownWork ? "Why does it go back?" : "Comment"}
-        hint={ownWork ? "Required to return it; the analysts read it before they prepare it again." : "Optional to approve; required to return it, saying what to change."}
+        hint={
+          ownWork
+            ? "Required to return it; the analysts read it before they prepare it again."
+            : "Optional to approve; required to return it, saying what to change."
+        }
         value={comment}
         onChange={(e) => setComment(e.target.value)}
         rows={3}
@@ -206,7 +235,9 @@ function PrepareAgain({
               { entity: snapshot.entity, quarterEnd: snapshot.quarterEnd },
               {
                 onSuccess: (s) => {
-                  onDone(`${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`);
+                  onDone(
+                    `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
+                  );
                   onPrepared(s);
                 },
               },
@@ -230,20 +261,22 @@ function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
   switch (snapshot.status) {
     case "draft":
       return role === "analyst" ? (
-        <>Check the figures, then submit {label} for sign-off. A chief risk officer who did not prepare it approves it.</>
+        <>
+          Check the figures, then submit {label} for sign-off. A chief risk officer who did not prepare it approves it.
+        </>
       ) : (
         <>{label} is still a draft with the analysts; it comes to you once they submit it.</>
       );
     case "submitted":
       return role === "cro" ? (
         <>
-          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}. Approve it to seal the figures, or return it
-          saying what to change.
+          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}. Approve it to
+          seal the figures, or return it saying what to change.
         </>
       ) : (
         <>
-          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}; waiting for a chief risk officer to approve or
-          return it.
+          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}; waiting for a
+          chief risk officer to approve or return it.
         </>
       );
     case "returned": {
@@ -252,19 +285,27 @@ function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
         <>
           Returned{returned ? ` by ${returned.by} on ${formatDateTime(returned.at)}` : ""}
           {returned?.comment ? <>: “{returned.comment}”</> : "."}{" "}
-          {role === "analyst" ? "Prepare it again on the current data, then submit it." : "The analysts prepare it again and submit it."}
+          {role === "analyst"
+            ? "Prepare it again on the current data, then submit it."
+            : "The analysts prepare it again and submit it."}
         </>
       );
     }
     case "approved":
       return (
         <>
-          Approved by {snapshot.approvedBy ?? "—"} on {formatDateTime(snapshot.approvedAt)}. The figures are sealed and no longer change.
+          Approved by {snapshot.approvedBy ?? "—"} on {formatDateTime(snapshot.approvedAt)}. The figures are sealed and
+          no longer change.
           {role === "cro" && " Read the pack, then file it with the supervisor below."}
         </>
       );
     case "filed":
-      return <>Approved by {snapshot.approvedBy ?? "—"} and filed with the supervisor. The figures are sealed and no longer change.</>;
+      return (
+        <>
+          Approved by {snapshot.approvedBy ?? "—"} and filed with the supervisor. The figures are sealed and no longer
+          change.
+        </>
+      );
   }
 }
 
@@ -295,10 +336,28 @@ export function SnapshotActions({
 
   let action: ReactNode = null;
   if (role === "analyst" && snapshot.status === "draft")
-    action = <SubmitForm key={snapshot.version} snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onChanged={onChanged} />;
-  else if (role === "analyst" && snapshot.status === "returned") action = <PrepareAgain snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />;
+    action = (
+      <SubmitForm
+        key={snapshot.version}
+        snapshot={snapshot}
+        findingsHref={findingsHref}
+        onDone={onDone}
+        onChanged={onChanged}
+      />
+    );
+  else if (role === "analyst" && snapshot.status === "returned")
+    action = <PrepareAgain snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />;
   else if (role === "cro" && snapshot.status === "submitted")
-    action = <SignOffForm key={snapshot.version} snapshot={snapshot} userEmail={userEmail} findingsHref={findingsHref} onDone={onDone} onChanged={onChanged} />;
+    action = (
+      <SignOffForm
+        key={snapshot.version}
+        snapshot={snapshot}
+        userEmail={userEmail}
+        findingsHref={findingsHref}
+        onDone={onDone}
+        onChanged={onChanged}
+      />
+    );
 
   return (
     <section aria-labelledby="next-title" className="flex flex-col gap-3">
@@ -306,11 +365,7 @@ export function SnapshotActions({
         What next
       </h3>
       <FormMessage tone="done">{done}</FormMessage>
-      {changed && (
-        <FormMessage>
-          {changed} The snapshot below is as it now stands.
-        </FormMessage>
-      )}
+      {changed && <FormMessage>{changed} The snapshot below is as it now stands.</FormMessage>}
       <p className="text-sm text-ink-soft">
         <Standing snapshot={snapshot} role={role} />
       </p>

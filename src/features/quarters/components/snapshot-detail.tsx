@@ -12,19 +12,36 @@ import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
 function RestatedWarning({ restated }: { restated: NonNullable<Snapshot["restatedAfterSignOff"]> }) {
   return (
-    <div role="note" aria-label="Restated after sign-off" className="border-l-2 border-danger bg-danger-soft px-3 py-2 text-sm text-ink">
-      <p className="font-semibold">A day inside this quarter's window was restated after sign-off: figures stay as approved.</p>
+    <div
+      role="note"
+      aria-label="Restated after sign-off"
+      className="border-l-2 border-danger bg-danger-soft px-3 py-2 text-sm text-ink"
+    >
+      <p className="font-semibold">
+        A day inside this quarter's window was restated after sign-off: figures stay as approved.
+      </p>
       <p className="mt-0.5">{restated.detail}</p>
       <p className="mt-0.5 text-xs text-ink-muted">Restated {formatDateTime(restated.at)}.</p>
     </div>
   );
 }
 
-function OpenFindingsNotice({ count, quarter, findingsHref }: { count: number; quarter: string; findingsHref: string }) {
+function OpenFindingsNotice({
+  count,
+  quarter,
+  findingsHref,
+}: {
+  count: number;
+  quarter: string;
+  findingsHref: string;
+}) {
   return (
     <Notice label="Open data-quality findings">
-      <strong className="font-semibold">{plural(count, "open data-quality finding", "open data-quality findings")} inside {quarter}</strong>{" "}
-      {count === 1 ? "holds" : "hold"} up its sign-off until each is resolved or explained. <Link to={findingsHref}>Open the findings on the Data screen</Link>
+      <strong className="font-semibold">
+        {plural(count, "open data-quality finding", "open data-quality findings")} inside {quarter}
+      </strong>{" "}
+      {count === 1 ? "holds" : "hold"} up its sign-off until each is resolved or explained.{" "}
+      <Link to={findingsHref}>Open the findings on the Data screen</Link>
     </Notice>
   );
 }
@@ -60,8 +77,9 @@ export function SnapshotDetail({
             {quarter} <span className="font-normal text-ink-muted">· {snapshot.entityName}</span>
           </h2>
           <p className="text-sm text-ink-soft">
-            Quarter <span className="figures">{quarterStart(snapshot.quarterEnd)}</span> to <span className="figures">{snapshot.quarterEnd}</span> ·
-            prepared by {snapshot.preparedBy} on {formatDateTime(snapshot.preparedAt)}
+            Quarter <span className="figures">{quarterStart(snapshot.quarterEnd)}</span> to{" "}
+            <span className="figures">{snapshot.quarterEnd}</span> · prepared by {snapshot.preparedBy} on{" "}
+            {formatDateTime(snapshot.preparedAt)}
             {updating && <span className="text-ink-muted"> · updating…</span>}
           </p>
         </div>
@@ -73,10 +91,25 @@ export function SnapshotDetail({
         </p>
       </header>
       {snapshot.restatedAfterSignOff && <RestatedWarning restated={snapshot.restatedAfterSignOff} />}
-      {open && snapshot.openFindings > 0 && <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />}
+      {open && snapshot.openFindings > 0 && (
+        <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />
+      )}
       <SnapshotFigures snapshot={snapshot} />
-      <SnapshotActions key={snapshot.id} snapshot={snapshot} role={role} userEmail={userEmail} findingsHref={findingsHref} onPrepared={onPrepared} />
-      <SnapshotFiling key={`filing-${snapshot.id}`} snapshot={snapshot} role={role} lookup={filing} filingHref={filingHref} />
+      <SnapshotActions
+        key={snapshot.id}
+        snapshot={snapshot}
+        role={role}
+        userEmail={userEmail}
+        findingsHref={findingsHref}
+        onPrepared={onPrepared}
+      />
+      <SnapshotFiling
+        key={`filing-${snapshot.id}`}
+        snapshot={snapshot}
+        role={role}
+        lookup={filing}
+        filingHref={filingHref}
+      />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <SnapshotRecord snapshot={snapshot} />
         <SnapshotHistory snapshot={snapshot} />

@@ -20,7 +20,12 @@ export function SnapshotFigures({ snapshot }: { snapshot: Snapshot }) {
             {window.start ?? "—"} to {window.end ?? "—"}
           </span>
           , {plural(window.observations, "observation", "observations")}
-          {!window.complete && <span className="font-medium text-notice" data-tone="notice"> (short of the 250 the rules ask for)</span>}
+          {!window.complete && (
+            <span className="font-medium text-notice" data-tone="notice">
+              {" "}
+              (short of the 250 the rules ask for)
+            </span>
+          )}
         </p>
       </div>
       <dl className="grid grid-cols-2 gap-x-6 gap-y-3 border-y border-rule py-3 sm:grid-cols-4 xl:grid-cols-7">
@@ -96,7 +101,13 @@ function DesksAtQuarterEnd({ snapshot }: { snapshot: Snapshot }) {
               <Td numeric>{d.exceptions99}</Td>
               <Td numeric>{d.exceptions975}</Td>
               <Td>{d.passes ? "Passes" : <span className="font-medium text-danger">Fails</span>}</Td>
-              <Td>{d.plaZone ? <ZoneBadge zone={d.plaZone} regime="frtb" /> : <span className="text-xs text-ink-muted">Not tested</span>}</Td>
+              <Td>
+                {d.plaZone ? (
+                  <ZoneBadge zone={d.plaZone} regime="frtb" />
+                ) : (
+                  <span className="text-xs text-ink-muted">Not tested</span>
+                )}
+              </Td>
             </Tr>
           ))}
         </tbody>

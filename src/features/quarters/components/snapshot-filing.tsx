@@ -32,7 +32,10 @@ function filingRefusal(error: unknown, entity: string): string | undefined {
   if (!isApiError(error)) return error ? "The pack could not be filed; try again." : undefined;
   if (error.code === "no_supervisor_contacts")
     return `${entity} has no supervisor contacts, so there is nobody to send the pack to. An administrator adds them under Admin › Entities; then file it again.`;
-  if (error.code === "mail_not_sent") return error.message.includes("Nothing was sent") ? error.message : `The mail server did not take the message. ${NOTHING_SENT}`;
+  if (error.code === "mail_not_sent")
+    return error.message.includes("Nothing was sent")
+      ? error.message
+      : `The mail server did not take the message. ${NOTHING_SENT}`;
   if (error.status === 409) return `${error.message} The snapshot is read again as it now stands.`;
   return formLevelMessage(error) ?? error.message;
 }
@@ -89,7 +92,8 @@ function FileWithSupervisor({
       {confirming ? (
         <div className="flex flex-wrap items-center gap-3 border-l-2 border-accent pl-3">
           <p className="text-sm" data-testid="filing-confirmation">
-            The pack goes by e-mail to {snapshot.entity}'s supervisor contacts and is kept as sent; {quarter} becomes filed.
+            The pack goes by e-mail to {snapshot.entity}'s supervisor contacts and is kept as sent; {quarter} becomes
+            filed.
           </p>
           <Button ref={sendButton} onClick={send} disabled={file.isPending}>
             {file.isPending ? "Sending the pack…" : "Send the pack"}
@@ -116,8 +120,8 @@ function FilingRecord({ filing, filingHref }: { filing: Filing; filingHref: stri
       {filing.delivery === "pending" && (
         <Notice role="status" testId="filing-pending">
           Filed by {filing.sentBy} and kept, but the mail server did not take the message
-          {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers; the quarter
-          becomes filed then.
+          {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers;
+          the quarter becomes filed then.
         </Notice>
       )}
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
@@ -189,7 +193,10 @@ export function SnapshotFiling({
       role === "cro" ? (
         <FileWithSupervisor snapshot={snapshot} onFiled={setJustFiled} onAlreadyFiled={setAlreadyFiled} />
       ) : (
-        <p className="text-sm text-ink-soft">A chief risk officer files {quarter} with the supervisor: the pack goes by e-mail to the entity's supervisor contacts.</p>
+        <p className="text-sm text-ink-soft">
+          A chief risk officer files {quarter} with the supervisor: the pack goes by e-mail to the entity's supervisor
+          contacts.
+        </p>
       );
 
   return (

@@ -45,12 +45,21 @@ export function SnapshotListTable({
           return (
             <SelectableTr key={s.id} selected={selected} onOpen={() => onOpen(s.id)}>
               <Td className="whitespace-nowrap">
-                <Link to={snapshotHref(s.id)} aria-label={`Open ${label}, ${snapshotStatusLabels[s.status].toLowerCase()}`} className="font-medium">
+                <Link
+                  to={snapshotHref(s.id)}
+                  aria-label={`Open ${label}, ${snapshotStatusLabels[s.status].toLowerCase()}`}
+                  className="font-medium"
+                >
                   {label}
                 </Link>
                 <span className="figures block text-2xs text-ink-muted">{s.quarterEnd}</span>
               </Td>
-              <Td className={cn("whitespace-nowrap", (s.status === "submitted" || s.status === "returned") && "font-medium")}>
+              <Td
+                className={cn(
+                  "whitespace-nowrap",
+                  (s.status === "submitted" || s.status === "returned") && "font-medium",
+                )}
+              >
                 {snapshotStatusLabels[s.status]}
               </Td>
               <Td>

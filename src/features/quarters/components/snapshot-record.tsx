@@ -25,7 +25,9 @@ function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
         >
           {verify.isFetching ? "Checking…" : result ? "Verify again" : "Verify the hash"}
         </Button>
-        <span className="text-xs text-ink-muted">Recomputes the hash from the stored figures and the previous quarter's hash.</span>
+        <span className="text-xs text-ink-muted">
+          Recomputes the hash from the stored figures and the previous quarter's hash.
+        </span>
       </div>
       <CheckVerdict
         check={verify}
@@ -58,7 +60,10 @@ export function SnapshotRecord({ snapshot }: { snapshot: Snapshot }) {
         </dd>
         <dt className="text-ink-muted">Previous hash</dt>
         <dd>
-          <Hash value={snapshot.prevHash} empty={snapshot.hash ? "None: the first signed-off quarter of the entity" : "—"} />
+          <Hash
+            value={snapshot.prevHash}
+            empty={snapshot.hash ? "None: the first signed-off quarter of the entity" : "—"}
+          />
         </dd>
       </dl>
       {snapshot.hash && <VerifyHash key={snapshot.id} snapshot={snapshot} />}
@@ -92,7 +97,9 @@ export function SnapshotHistory({ snapshot }: { snapshot: Snapshot }) {
                 <Td className="figures whitespace-nowrap">{formatDateTime(e.at)}</Td>
                 <Td>{e.by}</Td>
                 <Td className="whitespace-nowrap">{snapshotEventLabels[e.action]}</Td>
-                <Td className="max-w-lg whitespace-pre-wrap">{e.comment ?? <span className="text-ink-faint">—</span>}</Td>
+                <Td className="max-w-lg whitespace-pre-wrap">
+                  {e.comment ?? <span className="text-ink-faint">—</span>}
+                </Td>
               </Tr>
             ))}
           </tbody>

@@ -83,9 +83,8 @@ describe("the access policy table", () => {
 
     it(`${key}: without a session → ${access === "public" ? "not 401" : "401"}`, async () => {
       const verb = method.toLowerCase() as "get";
-      const res = await request(app)
-        [verb](concrete(path))
-        .send(method === "GET" ? undefined : {});
+      const call = request(app)[verb](concrete(path));
+      const res = await call.send(method === "GET" ? undefined : {});
       if (access === "public") expect(res.status).not.toBe(401);
       else {
         expect(res.status).toBe(401);

@@ -1,5 +1,5 @@
 /**
- * Load benchmark (`npm run bench:load`), after RELIABILITY.md: a bounded run on loopback against
+ * Load benchmark (`npm run bench:load`; docs/architecture.md#reliability): a bounded run on loopback against
  * the read endpoints (a fixed number of requests, then it stops) while a 50,000-row upload
  * commits. Prints the error count and latency figures; asserts nothing. Last line: one JSON object.
  */

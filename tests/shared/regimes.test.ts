@@ -10,7 +10,7 @@ import {
 } from "../../shared/backtest/regimes";
 import { zoneLabel } from "../../shared/backtest/types";
 
-// Full schedules k = 0..12. Plus factors are status M in REFERENCE.md §2: "from memory".
+// Full schedules k = 0..12. Plus factors: BCBS 1996 Table 2 and MAR99; status in docs/rules.md#rule-sets.
 const BASEL_1996_PLUS = [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1, 1, 1];
 const FRTB_PLUS = [0, 0, 0, 0, 0, 0.2, 0.26, 0.33, 0.38, 0.42, 0.5, 0.5, 0.5];
 const ZONES = [
@@ -53,18 +53,18 @@ describe("multiplication factors of the US rule", () => {
     expect(factors).toEqual([3, 3.4, 3.5, 3.65, 3.75, 3.85, 4]);
   });
 
-  it("when FRTB counts 4..10, then m_c is 1.50/1.70/1.76/1.83/1.88/1.92/2.00 (REFERENCE.md §2 FRTB, from memory)", () => {
+  it("when FRTB counts 4..10, then m_c is 1.50/1.70/1.76/1.83/1.88/1.92/2.00 (MAR99, docs/rules.md#frtb)", () => {
     const factors = [4, 5, 6, 7, 8, 9, 10].map((k) => Number(multiplierFor(k, "frtb").toFixed(2)));
     expect(factors).toEqual([1.5, 1.7, 1.76, 1.83, 1.88, 1.92, 2]);
   });
 
-  it("when the supervisor sets a qualitative addend of 0.3, then it is added to the multiplier (DESIGN.md §4)", () => {
+  it("when the supervisor sets a qualitative addend of 0.3, then it is added to the multiplier (docs/rules.md#multiplier)", () => {
     expect(multiplierFor(6, "eu", 0.3)).toBeCloseTo(3.8, 12);
   });
 });
 
 describe("rule sets as data", () => {
-  it("when each rule set is read, then it carries its label, citation, base multiplier and default basis (REFERENCE.md §2)", () => {
+  it("when each rule set is read, then it carries its label, citation, base multiplier and default basis (docs/rules.md#rule-sets)", () => {
     expect(getRegime("basel")).toMatchObject({
       label: "Basel 2.5",
       baseMultiplier: 3,
@@ -93,7 +93,7 @@ describe("rule sets as data", () => {
     expect(() => getRegime("xx" as RegimeId)).toThrow(/basel, us, eu, frtb/);
   });
 
-  it("when FRTB is in the middle zone, then it is labelled amber, and yellow elsewhere (MAR99; DESIGN.md §3)", () => {
+  it("when FRTB is in the middle zone, then it is labelled amber, and yellow elsewhere (MAR99; docs/rules.md#traffic-light)", () => {
     expect(zoneLabel("yellow", "frtb")).toBe("amber");
     expect(zoneLabel("yellow", "eu")).toBe("yellow");
     expect(zoneLabel("red", "frtb")).toBe("red");

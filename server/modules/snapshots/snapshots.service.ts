@@ -29,7 +29,7 @@ import type { SessionUser } from "../../../shared/schemas/auth";
 
 type SignedIn = Actor & { user: SessionUser };
 
-/** Treasury reads signed-off figures only (DESIGN §2). */
+/** Treasury reads signed-off figures only (docs/architecture.md#roles). */
 const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";
 
 const today = () => new Date().toISOString().slice(0, 10);

@@ -33,7 +33,7 @@ const SCHEDULES: Array<[RegimeId, string, number, readonly number[]]> = [
   ["basel", "BCBS 2009 para 718(Lxxvi) with BCBS 1996 Table 2 plus factors (from memory)", 3, BASEL_1996_PLUS],
   ["eu", "CRR Art. 366 Table 1 addends (from memory)", 3, BASEL_1996_PLUS],
   ["us", "12 CFR 217.204(b) Table 1 multiplication factors 3.00–4.00 (from memory)", 3, BASEL_1996_PLUS],
-  ["frtb", "MAR33.42 range 0–0.5 (V) and MAR99 steps (from memory)", 1.5, FRTB_PLUS],
+  ["frtb", "MAR33.42 range 0–0.5 and MAR99 steps (secondary source, docs/rules.md#frtb)", 1.5, FRTB_PLUS],
 ];
 
 describe.each(SCHEDULES)("the %s rule set", (id, source, base, plus) => {
@@ -53,7 +53,7 @@ describe("multiplication factors of the US rule", () => {
     expect(factors).toEqual([3, 3.4, 3.5, 3.65, 3.75, 3.85, 4]);
   });
 
-  it("when FRTB counts 4..10, then m_c is 1.50/1.70/1.76/1.83/1.88/1.92/2.00 (MAR99, docs/rules.md#frtb)", () => {
+  it("when FRTB counts 4..10, then m_c is 1.50/1.70/1.76/1.83/1.88/1.92/2.00 (MAR99 steps, secondary source: docs/rules.md#frtb)", () => {
     const factors = [4, 5, 6, 7, 8, 9, 10].map((k) => Number(multiplierFor(k, "frtb").toFixed(2)));
     expect(factors).toEqual([1.5, 1.7, 1.76, 1.83, 1.88, 1.92, 2]);
   });

@@ -98,7 +98,7 @@ export async function getForecast(code: string, query: { date?: string }): Promi
   };
 }
 
-/** The figures with extra exceptions and VaR / stressed VaR scaled (DESIGN §4), against today's. */
+/** The figures with extra exceptions and VaR / stressed VaR scaled (docs/rules.md#what-if), against today's. */
 export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySchema>): Promise<WhatIfResponse> {
   const { entity, ctx, latest } = await topOf(code);
   const asOf = body.asOf ?? latest;

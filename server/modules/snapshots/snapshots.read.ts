@@ -18,7 +18,7 @@ import type { SessionUser } from "../../../shared/schemas/auth";
 
 type SignedIn = Actor & { user: SessionUser };
 
-/** Treasury reads signed-off figures only (DESIGN §2). */
+/** Treasury reads signed-off figures only (docs/architecture.md#roles). */
 export const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";
 
 async function emailsOf(ids: (number | null)[]): Promise<Map<number, string>> {

@@ -6,13 +6,9 @@ import { FormMessage } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
+import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
 import { formatDateTime } from "@/lib/format";
 import { useRevokeApiToken } from "../api/api-token-queries";
-
-// Stable, so the focus moves once, when the element appears, and not on every re-render.
-const focusWhenShown = (el: HTMLElement | null) => {
-  el?.focus();
-};
 
 const statusLabels: Record<ApiTokenStatus, string> = { active: "Active", expired: "Expired", revoked: "Revoked" };
 
@@ -30,7 +26,12 @@ function RevokeConfirmation({ token, onClose }: { token: ApiToken; onClose: (mes
       ? "The token could not be revoked; try again."
       : undefined;
   return (
-    <div role="group" aria-label={`Revoke ${token.name}`} className="flex flex-col gap-2">
+    <div
+      role="group"
+      aria-label={`Revoke ${token.name}`}
+      className="flex flex-col gap-2"
+      onKeyDown={cancelOnEscape(() => !revoke.isPending && onClose())}
+    >
       <FormMessage>{error}</FormMessage>
       <div className="flex flex-col gap-2 border-l-2 border-danger pl-3">
         <p className="text-sm">

@@ -96,8 +96,10 @@ export function ExceptionTable({
             size="sm"
             onClick={() => onSelect(c.row.original.date)}
             aria-label={`Review the exception of ${c.row.original.date}`}
+            aria-current={selected === c.row.original.date ? "true" : undefined}
           >
-            {selected === c.row.original.date ? "Open" : "Review"}
+            {/* The same word on every row, the accessible name begins with it (WCAG 2.5.3); the open row is shaded. */}
+            Review
           </Button>
         ),
       }),

@@ -12,6 +12,8 @@ import {
 } from "recharts";
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/observation";
+import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
+import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
 import { compactAmount, formatAmount, plural } from "@/lib/format";
 import { chartColours } from "@/styles/palette";
@@ -88,6 +90,7 @@ export function PnlChart({
   );
   const marked = bt.exceptionDays.filter((d) => d[series]).length;
   const label = series === "actual" ? "actual P&L" : "hypothetical P&L";
+  const last = points.at(-1);
 
   return (
     <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
@@ -112,10 +115,17 @@ export function PnlChart({
           ))}
         </div>
       </div>
-      <p id={summaryId} className="sr-only">
+      <p id={summaryId} className="text-xs text-ink-muted">
         {plural(observations.length, "business day", "business days")} from {observations[0]?.date ?? "—"} to{" "}
-        {observations.at(-1)?.date ?? "—"}; the backtesting window {bt.window.start} to {bt.window.end} is shaded;{" "}
+        {last?.date ?? "—"}; the backtesting window {bt.window.start} to {bt.window.end} is shaded;{" "}
         {plural(marked, "exception", "exceptions")} on {label} in the window are marked.
+        {last && (
+          <>
+            {" "}
+            On {last.date}: {label} {formatAmount(last.pnl, bt.entity.currency)} against a VaR of{" "}
+            {formatAmount(last.negVar === null ? null : -last.negVar, bt.entity.currency)}.
+          </>
+        )}
       </p>
       <div style={{ height: 300 }} className="w-full">
         <ResponsiveContainer
@@ -211,6 +221,32 @@ export function PnlChart({
           <span aria-hidden="true" className="inline-block h-2.5 w-4 bg-accent/10" /> Current backtesting window
         </li>
       </ul>
+      <FiguresDisclosure label={`Daily ${label} and VaR, ${bt.entity.currency}`}>
+        {() => (
+          <Table caption={`Daily ${label} against VaR (99%, one day), ${bt.entity.currency}, oldest first`}>
+            <thead>
+              <tr>
+                <Th>Business date</Th>
+                <Th numeric>{series === "actual" ? "Actual P&L" : "Hypothetical P&L"}</Th>
+                <Th numeric>VaR 99%</Th>
+                <Th>Exception</Th>
+              </tr>
+            </thead>
+            <tbody>
+              {points.map((p) => (
+                <Tr key={p.date}>
+                  <Td className="figures whitespace-nowrap">{p.date}</Td>
+                  <Td numeric>{formatAmount(p.pnl, bt.entity.currency)}</Td>
+                  <Td numeric>{formatAmount(p.negVar === null ? null : -p.negVar, bt.entity.currency)}</Td>
+                  <Td>
+                    {p.exception !== null ? "Exception" : p.excluded !== null ? "Excluded by the supervisor" : ""}
+                  </Td>
+                </Tr>
+              ))}
+            </tbody>
+          </Table>
+        )}
+      </FiguresDisclosure>
     </figure>
   );
 }

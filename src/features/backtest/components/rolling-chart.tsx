@@ -13,6 +13,8 @@ import {
 import type { RollingRowDto } from "@shared/schemas/backtest";
 import type { RegimeId } from "@shared/schemas/common";
 import { zoneBoundariesFor } from "@shared/backtest/regimes";
+import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
+import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { zoneName } from "@/components/ui/zone-badge";
 import { chartColours } from "@/styles/palette";
 
@@ -47,7 +49,7 @@ export function RollingChart({
         Counted exceptions in the trailing window, over the whole history
         <span className="ml-2 text-xs font-normal text-ink-muted">dashed line: as of {asOf}</span>
       </figcaption>
-      <p id={summaryId} className="sr-only">
+      <p id={summaryId} className="text-xs text-ink-muted">
         {rows.length} dates from {rows[0]?.date ?? "—"} to {rows.at(-1)?.date ?? "—"}. {band("green")} below{" "}
         {b.yellowFrom}, {band("yellow")} from {b.yellowFrom}, {band("red")} from {b.redFrom} exceptions.
         {current ? ` On ${asOf}: ${current.counted} counted, ${zoneName(current.zone, regime)} zone.` : ""}
@@ -132,6 +134,35 @@ export function RollingChart({
           </LineChart>
         </ResponsiveContainer>
       </div>
+      <FiguresDisclosure label="Counted exceptions on each date">
+        {() => (
+          <Table caption="Counted exceptions in the trailing window on each as-of date, oldest first">
+            <thead>
+              <tr>
+                <Th>As-of date</Th>
+                <Th numeric>Actual P&amp;L exceptions</Th>
+                <Th numeric>Hypothetical P&amp;L exceptions</Th>
+                <Th numeric>Counted</Th>
+                <Th>Zone</Th>
+              </tr>
+            </thead>
+            <tbody>
+              {rows.map((r) => (
+                <Tr key={r.date}>
+                  <Td className="figures whitespace-nowrap">{r.date}</Td>
+                  <Td numeric>{r.actual}</Td>
+                  <Td numeric>{r.hypothetical}</Td>
+                  <Td numeric>{r.counted}</Td>
+                  <Td>
+                    {zoneName(r.zone, regime)}
+                    {!r.complete && " (provisional: short window)"}
+                  </Td>
+                </Tr>
+              ))}
+            </tbody>
+          </Table>
+        )}
+      </FiguresDisclosure>
     </figure>
   );
 }

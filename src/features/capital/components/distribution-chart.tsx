@@ -23,13 +23,25 @@ export function DistributionChart({
   width?: number;
 }) {
   const titleId = useId();
+  const summaryId = useId();
+  // The count the engine gives the highest chance (the first, on a tie), named in the caption.
+  const likeliest = rows.reduce<DistributionRow | undefined>(
+    (a, r) => (a && a.probability >= r.probability ? a : r),
+    undefined,
+  );
   const zones = [...new Set(rows.map((r) => r.zone))];
   const data = rows.map((r) => ({ ...r, percent: r.probability * 100 }));
   return (
-    <figure aria-labelledby={titleId} className="flex flex-col gap-2">
+    <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
       <figcaption id={titleId} className="text-sm font-medium text-ink">
         Chance of each count of exceptions on {date}
       </figcaption>
+      <p id={summaryId} className="text-xs text-ink-muted">
+        {rows.length > 0 && `Counts ${rows[0].exceptions} to ${rows.at(-1)!.exceptions} are drawn`}
+        {likeliest &&
+          `; the likeliest is ${likeliest.exceptions} (${formatChance(likeliest.probability)}, ${zoneName(likeliest.zone, regime)} zone)`}
+        . The table beside the chart gives every count's chance.
+      </p>
       <div style={{ height: 200 }} className="w-full">
         <ResponsiveContainer
           width={width ?? "100%"}

@@ -41,14 +41,17 @@ export function HistoryChart({
   const high = Math.ceil(Math.max(...multipliers) * 4) / 4 + 0.25;
   const open = points.filter((p) => !p.signedOff).length;
   const restated = points.filter((p) => p.restatedAfterSignOff).length;
+  const latest = points.at(-1);
 
   return (
     <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
       <figcaption id={titleId} className="text-sm font-medium text-ink">
         Multiplier and capital add-on at each quarter end, {currency}
       </figcaption>
-      <p id={summaryId} className="sr-only">
-        {plural(points.length, "quarter", "quarters")} from {points[0]?.label ?? "—"} to {points.at(-1)?.label ?? "—"}
+      <p id={summaryId} className="text-xs text-ink-muted">
+        {plural(points.length, "quarter", "quarters")} from {points[0]?.label ?? "—"} to {latest?.label ?? "—"}
+        {latest &&
+          `; at ${latest.label} the multiplier is ${formatFactor(latest.multiplier)} and the add-on ${formatAmount(latest.addOn, currency)}`}
         {open > 0 ? `; ${plural(open, "quarter is", "quarters are")} not signed off and drawn hollow` : ""}
         {restated > 0 ? `; ${plural(restated, "quarter was", "quarters were")} restated after sign-off` : ""}. The table
         below holds the same figures.

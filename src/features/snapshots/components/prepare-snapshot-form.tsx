@@ -5,6 +5,7 @@ import { quarterLabel } from "@shared/backtest/quarters";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { focusWhenShown } from "@/lib/focus";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { blockingSnapshotOf, usePrepareSnapshot } from "../api/snapshot-queries";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -82,7 +83,7 @@ export function PrepareSnapshotForm({
     <form ref={formRef} onSubmit={submit} noValidate aria-labelledby="prepare-title" className="flex flex-col gap-3">
       <h2 id="prepare-title">Prepare a snapshot</h2>
       {formError && (
-        <FormMessage>
+        <FormMessage ref={focusWhenShown}>
           {formError}
           {blocking && (
             <>
@@ -92,7 +93,9 @@ export function PrepareSnapshotForm({
           )}
         </FormMessage>
       )}
-      <FormMessage tone="done">{done}</FormMessage>
+      <FormMessage tone="done" ref={focusWhenShown}>
+        {done}
+      </FormMessage>
       <div className="flex flex-wrap items-start gap-3">
         <SelectField
           label="Quarter end"

@@ -8,6 +8,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage, TextareaField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { focusWhenShown } from "@/lib/focus";
 import { formatDateTime, shortHash } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import {
@@ -26,7 +27,7 @@ function Refusal({ error, findingsHref }: { error: unknown; findingsHref: string
   if (!message) return null;
   const code = isApiError(error) ? error.code : "";
   return (
-    <FormMessage>
+    <FormMessage ref={focusWhenShown}>
       {message}
       {code === "open_findings" && (
         <>
@@ -87,13 +88,17 @@ function SubmitForm({
     submit.reset();
     const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
     if (!body) return;
-    submit.mutate(body, {
-      onSuccess: (s) =>
-        onDone(
-          `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
-        ),
-      onError,
-    });
+    // The promise, not mutate's callbacks: storing the answer replaces this form (the snapshot is no
+    // longer a draft), and callbacks given to mutate() do not run once their component is gone.
+    submit
+      .mutateAsync(body)
+      .then(
+        (s) =>
+          onDone(
+            `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
+          ),
+        onError,
+      );
   }
 
   return (
@@ -147,13 +152,15 @@ function SignOffForm({
     approve.reset();
     const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
     if (!body) return;
-    approve.mutate(body, {
-      onSuccess: (s) =>
-        onDone(
-          `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
-        ),
-      onError,
-    });
+    approve
+      .mutateAsync(body)
+      .then(
+        (s) =>
+          onDone(
+            `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
+          ),
+        onError,
+      );
   }
 
   function sendReturn(e?: FormEvent) {
@@ -162,10 +169,9 @@ function SignOffForm({
     giveBack.reset();
     const body = checked(returnSnapshotSchema, { comment, version: snapshot.version });
     if (!body) return;
-    giveBack.mutate(body, {
-      onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`),
-      onError,
-    });
+    giveBack
+      .mutateAsync(body)
+      .then((s) => onDone(`${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`), onError);
   }
 
   const error = approve.error ?? giveBack.error;
@@ -232,16 +238,15 @@ function PrepareAgain({
         <Button
           disabled={prepare.isPending}
           onClick={() =>
-            prepare.mutate(
-              { entity: snapshot.entity, quarterEnd: snapshot.quarterEnd },
-              {
-                onSuccess: (s) => {
-                  onDone(
-                    `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
-                  );
-                  onPrepared(s);
-                },
+            // The promise outlives this button, which the new draft replaces; a refusal shows through prepare.error.
+            prepare.mutateAsync({ entity: snapshot.entity, quarterEnd: snapshot.quarterEnd }).then(
+              (s) => {
+                onDone(
+                  `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
+                );
+                onPrepared(s);
               },
+              () => undefined,
             )
           }
         >
@@ -365,8 +370,10 @@ export function SnapshotActions({
       <h3 id="next-title" className="text-sm font-semibold">
         What next
       </h3>
-      <FormMessage tone="done">{done}</FormMessage>
-      {changed && <FormMessage>{changed} The snapshot below is as it now stands.</FormMessage>}
+      <FormMessage tone="done" ref={focusWhenShown}>
+        {done}
+      </FormMessage>
+      {changed && <FormMessage ref={focusWhenShown}>{changed} The snapshot below is as it now stands.</FormMessage>}
       <p className="text-sm text-ink-soft">
         <Standing snapshot={snapshot} role={role} />
       </p>

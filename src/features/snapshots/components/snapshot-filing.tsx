@@ -12,6 +12,7 @@ import { FullHash } from "@/components/ui/hash";
 import { Notice } from "@/components/ui/notice";
 import { formLevelMessage } from "@/lib/form";
 import { isApiError } from "@/lib/api-client";
+import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
 import { formatDateTime } from "@/lib/format";
 import { existingFilingOf, snapshotPackHref, useFileSnapshot } from "../api/snapshot-queries";
 
@@ -22,11 +23,6 @@ export type FilingLookup = { filing?: Filing; reading: boolean; error: unknown }
 type AlreadyFiled = { message: string; filingId: number };
 
 const NOTHING_SENT = "Nothing was sent and nothing was recorded; try again.";
-
-/** An outcome that replaces the button the reader pressed takes the focus, so it is read out and the reader is not left on the page's top. */
-const focusWhenShown = (el: HTMLElement | null) => {
-  el?.focus();
-};
 
 /** Why the filing did not happen, by the server's code, with what to do about it. */
 function filingRefusal(error: unknown, entity: string): string | undefined {
@@ -65,7 +61,8 @@ function FileWithSupervisor({
   // "Already filed" is said above, with the filing, by the section that outlives this button.
   const refusal = existingFilingOf(file.error) === undefined ? filingRefusal(file.error, snapshot.entity) : undefined;
 
-  // The confirmation replaces the button pressed: focus moves into it, and back when it is cancelled.
+  // The confirmation replaces the button pressed: focus moves into it, and back when it is cancelled
+  // (Cancel or Escape).
   function confirm() {
     file.reset();
     flushSync(() => setConfirming(true));
@@ -91,7 +88,10 @@ function FileWithSupervisor({
     <div role="group" aria-label="File with the supervisor" className="flex flex-col gap-2">
       {refusal && <FormMessage ref={focusWhenShown}>{refusal}</FormMessage>}
       {confirming ? (
-        <div className="flex flex-wrap items-center gap-3 border-l-2 border-accent pl-3">
+        <div
+          className="flex flex-wrap items-center gap-3 border-l-2 border-accent pl-3"
+          onKeyDown={cancelOnEscape(() => !file.isPending && cancel())}
+        >
           <p className="text-sm" data-testid="filing-confirmation">
             The pack goes by e-mail to {snapshot.entity}'s supervisor contacts and is kept as sent; {quarter} becomes
             filed.

@@ -1,0 +1,20 @@
+import type { KeyboardEvent } from "react";
+
+/**
+ * A ref callback that moves the focus to an element when it appears: an outcome that replaces the
+ * control the reader pressed (a form that is gone once sent, a button disabled while busy, which
+ * drops the focus) takes it, so it is read out and the reader is not sent back to the page's top.
+ * Module-level and stable, so the focus moves once, on mount, and not on every re-render.
+ */
+export const focusWhenShown = (el: HTMLElement | null) => {
+  el?.focus();
+};
+
+/** onKeyDown for an inline confirmation: Escape cancels it, as it closes a dialog. */
+export function cancelOnEscape(cancel: () => void) {
+  return (e: KeyboardEvent) => {
+    if (e.key !== "Escape") return;
+    e.preventDefault();
+    cancel();
+  };
+}

@@ -1,0 +1,304 @@
+import request from "supertest";
+import { describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
+import { PortfolioModel } from "../../server/models/portfolio";
+import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
+import { createTestEntity, createTestUser } from "../server/helpers";
+import { HEADER } from "../server/ingest-helpers";
+import { prepare, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
+import { expectAccessible } from "./axe";
+import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+
+/**
+ * Every screen each role can open, checked with axe-core (WCAG 2.0/2.1 A and AA) in each state a
+ * reader meets: the screen as it opens, a confirmation open, a form with its errors shown, an empty
+ * state. Any violation fails the journey with the rule, the element and the help text.
+ */
+let book: Book;
+let emptyEntity = "";
+let emptyPortfolio = "";
+let q1Filing = 0;
+let q2Approved = 0;
+let q3Submitted = 0;
+const emails = { treasury: "", regulator: "", admin: "" };
+
+async function signedOff(quarterEnd: string, file: boolean) {
+  const draft = await prepare(book, quarterEnd);
+  expect(draft.status, JSON.stringify(draft.body)).toBe(201);
+  await request(snapshotApp)
+    .post(`/api/snapshots/${draft.body.id}/submit`)
+    .set("Cookie", book.cookie)
+    .send({ comment: "Figures checked", version: draft.body.version })
+    .expect(200);
+  await request(snapshotApp)
+    .post(`/api/snapshots/${draft.body.id}/approve`)
+    .set("Cookie", book.croCookie)
+    .send({})
+    .expect(200);
+  if (!file) return draft.body.id as number;
+  const filed = await request(snapshotApp)
+    .post(`/api/snapshots/${draft.body.id}/filings`)
+    .set("Cookie", book.croCookie)
+    .send({});
+  expect(filed.status, JSON.stringify(filed.body)).toBeLessThan(300);
+  return filed.body.id as number;
+}
+
+/** The EU book: Q1 2026 filed, Q2 approved, Q3 submitted; an entity with a portfolio and no data; every role. */
+async function loadBooks() {
+  book = await signOffBook();
+  await book.entity.update({ supervisorEmails: [`market-risk-${Date.now()}@bank-supervisor.test`] });
+  q1Filing = await signedOff("2026-03-31", true);
+  q2Approved = await signedOff("2026-06-30", false);
+  const q3 = await prepare(book);
+  expect(q3.status).toBe(201);
+  const submitted = await request(snapshotApp)
+    .post(`/api/snapshots/${q3.body.id}/submit`)
+    .set("Cookie", book.cookie)
+    .send({ version: q3.body.version });
+  expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
+  q3Submitted = q3.body.id;
+
+  const empty = await createTestEntity();
+  emptyEntity = empty.code;
+  emptyPortfolio = (
+    await PortfolioModel.create({ entityId: empty.id, code: `${empty.code}-BOOK`, name: "Empty book", level: "top" })
+  ).code;
+  emails.treasury = (await createTestUser("treasury")).email;
+  const regulator = await createTestUser("regulator");
+  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  emails.regulator = regulator.email;
+  emails.admin = (await createTestUser("admin")).email;
+}
+
+const suite = browserSuite(loadBooks);
+
+/** Opens a path and waits until it has drawn: the text or role given, then no request in flight. */
+async function open(page: Page, path: string, ready: Parameters<Page["getByRole"]>) {
+  await page.goto(`${suite.app.baseUrl}${path}`);
+  await page
+    .getByRole(...ready)
+    .first()
+    .waitFor({ timeout: 20_000 });
+  await settled(page);
+}
+
+async function settled(page: Page) {
+  await page.waitForLoadState("networkidle");
+  await page.waitForFunction(() => !/Loading…|Drawing the chart…|Opening Quartermark/.test(document.body.innerText));
+}
+
+describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real browser", () => {
+  it("when signed out, the sign-in screen, with the wrong password's message shown, has no violation", async () => {
+    const page = await suite.context.newPage();
+    await page.goto(`${suite.app.baseUrl}/sign-in`);
+    await page.getByRole("button", { name: /^sign in$/i }).waitFor();
+    await expectAccessible(page, "Sign in");
+    await page.getByRole("button", { name: /^sign in$/i }).click();
+    await page.locator("[aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "Sign in, empty form refused");
+    await page.getByLabel(/e-mail/i).fill(book.analyst.email);
+    await page.getByLabel(/password/i).fill("not the password");
+    await page.getByRole("button", { name: /^sign in$/i }).click();
+    await page.getByText(/not correct/i).waitFor({ timeout: 10_000 });
+    await expectAccessible(page, "Sign in, wrong password");
+    await page.close();
+  });
+
+  it("when the analyst opens every screen, a review form with its errors, a refused upload, a what-if refused and the empty states, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    await signInAs(page, suite.app.baseUrl, book.analyst.email);
+    await settled(page);
+    await expectAccessible(page, "analyst: Overview");
+
+    await open(page, `/backtest/${book.portfolio.code}`, ["heading", { name: /Where we stand/ }]);
+    await page.getByText("Counted exceptions in the trailing window").first().waitFor({ timeout: 20_000 });
+    await settled(page);
+    await expectAccessible(page, "analyst: Backtest");
+    // Each disclosure, once open, says "Hide the figures": open the first closed one until none is left.
+    const closed = page.getByText("Show the figures as a table");
+    while ((await closed.count()) > 0) await closed.first().click();
+    await page.getByRole("region", { name: /Counted exceptions on each date/ }).waitFor();
+    await expectAccessible(page, "analyst: Backtest, the charts' figures as tables");
+    await keepScreenshot(page, "a11y-backtest-analyst");
+    await page.getByRole("button", { name: `Review the exception of ${book.exceptionDays[4]}` }).click();
+    const review = page.getByRole("form", { name: `Review of the exception of ${book.exceptionDays[4]}` });
+    await review.getByRole("button", { name: /Save/ }).click();
+    await review.locator("[aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "analyst: Backtest, review form with its errors");
+
+    await open(page, `/backtest/${emptyPortfolio}`, ["heading", { level: 1 }]);
+    await expectAccessible(page, "analyst: Backtest, portfolio without data");
+
+    await open(page, "/data", ["heading", { name: /upload history/i }]);
+    await expectAccessible(page, "analyst: Data");
+    const code = book.portfolio.code;
+    await page.locator('input[type="file"]').setInputFiles({
+      name: "with-weekend.csv",
+      mimeType: "text/csv",
+      buffer: Buffer.from(`${HEADER}\r\n${code},2026-10-03,-5,-4,99,250\r\n`),
+    });
+    await page
+      .getByText(/2026-10-03 is a Saturday/)
+      .first()
+      .waitFor({ timeout: 20_000 });
+    await settled(page);
+    await expectAccessible(page, "analyst: Data, upload refused with its errors");
+
+    await open(page, `/quarters?entity=${book.entity.code}`, ["heading", { name: /Quarter close/ }]);
+    await expectAccessible(page, "analyst: Quarter close");
+    await open(page, `/quarters?entity=${book.entity.code}&snapshot=${q3Submitted}`, [
+      "heading",
+      { name: "What next" },
+    ]);
+    await expectAccessible(page, "analyst: Quarter close, a submitted snapshot");
+    await open(page, `/quarters?entity=${emptyEntity}`, ["heading", { name: /Quarter close/ }]);
+    await expectAccessible(page, "analyst: Quarter close, entity without snapshots");
+
+    await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
+    await expectAccessible(page, "analyst: Capital");
+    const whatIf = page.getByRole("form", { name: "What-if scenario" });
+    await whatIf.getByLabel(/Extra exceptions/).fill("-3");
+    await whatIf.getByRole("button").click();
+    await whatIf.locator("[aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "analyst: Capital, what-if refused with its errors");
+    await open(page, `/capital?entity=${emptyEntity}`, ["heading", { level: 1 }]);
+    await expectAccessible(page, "analyst: Capital, entity without data");
+
+    await open(page, `/filings?filing=${q1Filing}`, ["heading", { name: /Filings/ }]);
+    await expectAccessible(page, "analyst: Filings");
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("when the CRO returns a quarter without a comment, opens the filing confirmation and reads the filings, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    await signInAs(page, suite.app.baseUrl, book.cro.email);
+    await settled(page);
+    await expectAccessible(page, "cro: Overview");
+    await open(page, `/quarters?entity=${book.entity.code}&snapshot=${q3Submitted}`, [
+      "button",
+      { name: "Approve and seal" },
+    ]);
+    await expectAccessible(page, "cro: Quarter close, sign-off form");
+    await page.getByRole("button", { name: "Return to the analysts" }).click();
+    await page.getByRole("form", { name: "Sign-off" }).locator("[aria-invalid='true']").waitFor();
+    await expectAccessible(page, "cro: Quarter close, return refused without a comment");
+
+    await open(page, `/quarters?entity=${book.entity.code}&snapshot=${q2Approved}`, [
+      "button",
+      { name: "File with the supervisor" },
+    ]);
+    await page.getByRole("button", { name: "File with the supervisor" }).click();
+    await page.getByRole("button", { name: "Send the pack" }).waitFor();
+    await expectAccessible(page, "cro: Quarter close, filing confirmation open");
+    await page.getByRole("button", { name: "Cancel" }).click();
+
+    await open(page, `/backtest/${book.portfolio.code}`, ["heading", { name: /Where we stand/ }]);
+    await expectAccessible(page, "cro: Backtest");
+    await open(page, "/data", ["heading", { name: /upload history/i }]);
+    await expectAccessible(page, "cro: Data");
+    await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
+    await expectAccessible(page, "cro: Capital");
+    await open(page, `/filings?filing=${q1Filing}`, ["heading", { name: /Filings/ }]);
+    await expectAccessible(page, "cro: Filings");
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("when treasury reads its screens, creates a token with an error first and opens the revoke confirmation, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    await signInAs(page, suite.app.baseUrl, emails.treasury);
+    await settled(page);
+    await expectAccessible(page, "treasury: Overview");
+    await open(page, `/quarters?entity=${book.entity.code}`, ["heading", { name: /Quarter close/ }]);
+    await expectAccessible(page, "treasury: Quarter close");
+    await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
+    await expectAccessible(page, "treasury: Capital");
+
+    await open(page, "/tokens", ["heading", { name: "API tokens" }]);
+    await expectAccessible(page, "treasury: API tokens, none yet");
+    await page.getByRole("button", { name: "Create token" }).click();
+    await page
+      .getByRole("form", { name: /Create a token/ })
+      .locator("[aria-invalid='true']")
+      .first()
+      .waitFor();
+    await expectAccessible(page, "treasury: API tokens, create refused without a name");
+    await page.getByLabel("Name").fill("Capital pull");
+    await page.getByRole("button", { name: "Create token" }).click();
+    await page.getByTestId("new-token-secret").waitFor({ timeout: 15_000 });
+    await expectAccessible(page, "treasury: API tokens, the new secret shown");
+    await page.getByRole("button", { name: "I have stored it" }).click();
+    await page.getByRole("button", { name: "Revoke Capital pull" }).click();
+    await page.getByRole("button", { name: "Revoke token" }).waitFor();
+    await expectAccessible(page, "treasury: API tokens, revoke confirmation open");
+    await page.getByRole("button", { name: "Cancel" }).click();
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("when the regulator reads and acknowledges a filing, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    await signInAs(page, suite.app.baseUrl, emails.regulator);
+    await settled(page);
+    await expectAccessible(page, "regulator: Overview");
+    await open(page, `/filings?filing=${q1Filing}`, ["button", { name: "Acknowledge receipt" }]);
+    await expectAccessible(page, "regulator: Filings");
+    await page.getByRole("button", { name: "Acknowledge receipt" }).click();
+    await page
+      .getByText(/Acknowledged by/)
+      .first()
+      .waitFor({ timeout: 15_000 });
+    await settled(page);
+    await expectAccessible(page, "regulator: Filings, acknowledged");
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("when the administrator opens every admin screen and sends each form empty, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    await signInAs(page, suite.app.baseUrl, emails.admin);
+    await settled(page);
+    await expectAccessible(page, "admin: Overview");
+
+    await open(page, "/admin/users", ["heading", { name: "Add a user" }]);
+    await expectAccessible(page, "admin: Users");
+    await page.getByRole("button", { name: "Add user" }).click();
+    await page.locator("form [aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "admin: Users, add refused with its errors");
+    await page
+      .getByRole("button", { name: /^Reset password of / })
+      .first()
+      .click();
+    await settled(page);
+    await expectAccessible(page, "admin: Users, reset password form open");
+    await keepScreenshot(page, "a11y-admin-users");
+
+    await open(page, "/admin/entities", ["heading", { name: "Add an entity" }]);
+    await expectAccessible(page, "admin: Entities");
+    await page.getByRole("button", { name: "Add entity" }).click();
+    await page.locator("form [aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "admin: Entities, add refused with its errors");
+
+    await open(page, `/admin/entities/${emptyEntity}`, ["heading", { name: "Holiday calendar" }]);
+    await expectAccessible(page, "admin: Entity");
+    await page.getByRole("button", { name: "Add holiday" }).click();
+    await page.locator("form [aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "admin: Entity, holiday refused with its errors");
+
+    await open(page, "/admin/assignments", ["heading", { level: 1 }]);
+    await expectAccessible(page, "admin: Regulator access");
+    await open(page, "/admin/audit", ["heading", { level: 1 }]);
+    await expectAccessible(page, "admin: Audit log");
+    await open(page, "/admin/outbox", ["heading", { level: 1 }]);
+    await expectAccessible(page, "admin: Outbox");
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});

@@ -8,7 +8,8 @@
  *   tinted notice, accent and danger surfaces;
  * - zone colours are at least 4.5:1 on their soft badge tone and 3:1 on the page, so a zone line,
  *   bar or label in a chart reads as a graphical object;
- * - `rule` and `rule-strong` are hairlines that separate; nothing is told by them alone.
+ * - `rule` and `rule-strong` are hairlines that separate; nothing is told by them alone; a form
+ *   field's edge, which shows where to type, is `rule-control` at 3:1.
  * Zone colours are used only by the zone badge and the zone charts; a notice that is not a zone
  * (four eyes, open findings, a pending filing, a short window) takes the neutral `notice` tone.
  */
@@ -30,6 +31,9 @@ export const palette = {
   rule: {
     DEFAULT: "#ddd6c8",
     strong: "#c4bba9",
+    // The edge of a text field or select, which alone shows where to type: 3:1 on the page tones
+    // (WCAG 1.4.11; 3.44:1 on the page, 3.59:1 on paper-raised), still a warm grey.
+    control: "#8c8372",
   },
   accent: {
     DEFAULT: "#0e6571",

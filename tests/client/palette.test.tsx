@@ -61,6 +61,10 @@ describe("the palette meets WCAG 2.1 AA contrast (1.4.3 text 4.5:1, 1.4.11 graph
     expect(contrast(chartColours.accent, chartColours.paper)).toBeGreaterThanOrEqual(3);
   });
 
+  it("when a form field's edge (rule-control) marks where to type, then it stands at 3:1 on the page tones", () => {
+    for (const bg of pages) expect(contrast(palette.rule.control, bg), bg).toBeGreaterThanOrEqual(3);
+  });
+
   it("when the focus ring (accent) surrounds a control on any paper tone, then it stands at 3:1", () => {
     for (const bg of pages) expect(contrast(palette.accent.DEFAULT, bg)).toBeGreaterThanOrEqual(3);
   });

@@ -105,7 +105,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await page.close();
   });
 
-  it("when the analyst opens every screen, a review form with its errors, a refused upload, a what-if refused and the empty states, there is no violation", async () => {
+  it("when the analyst opens the Overview and the Backtest, with the charts' tables open, a review form with its errors and a portfolio without data, there is no violation", async () => {
     const page = await suite.context.newPage();
     const errors = watchConsole(page);
     await signInAs(page, suite.app.baseUrl, book.analyst.email);
@@ -131,13 +131,22 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await open(page, `/backtest/${emptyPortfolio}`, ["heading", { level: 1 }]);
     await expectAccessible(page, "analyst: Backtest, portfolio without data");
 
+    // A portfolio without data answers 404 to the figures it has not got, and the browser logs that.
+    expect(errors.filter((e) => !/status of 404/.test(e))).toEqual([]);
+    await page.close();
+  }, 240_000);
+
+  it("when the analyst opens Data, Quarter close, Capital and Filings, with a refused upload, a refused what-if and an entity without data, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    await signInAs(page, suite.app.baseUrl, book.analyst.email);
     await open(page, "/data", ["heading", { name: /upload history/i }]);
     await expectAccessible(page, "analyst: Data");
     const code = book.portfolio.code;
     await page.locator('input[type="file"]').setInputFiles({
       name: "with-weekend.csv",
       mimeType: "text/csv",
-      buffer: Buffer.from(`${HEADER}\r\n${code},2026-10-03,-5,-4,99,250\r\n`),
+      buffer: Buffer.from(`${HEADER}\r\n${code},2026-10-03,-5,-4,99\r\n`),
     });
     await page
       .getByText(/2026-10-03 is a Saturday/)
@@ -168,9 +177,10 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
 
     await open(page, `/filings?filing=${q1Filing}`, ["heading", { name: /Filings/ }]);
     await expectAccessible(page, "analyst: Filings");
-    expect(errors).toEqual([]);
+    // The entity without data answers 404 to the figures it has not got, and the browser logs that.
+    expect(errors.filter((e) => !/status of 404/.test(e))).toEqual([]);
     await page.close();
-  });
+  }, 240_000);
 
   it("when the CRO returns a quarter without a comment, opens the filing confirmation and reads the filings, there is no violation", async () => {
     const page = await suite.context.newPage();
@@ -206,7 +216,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "cro: Filings");
     expect(errors).toEqual([]);
     await page.close();
-  });
+  }, 240_000);
 
   it("when treasury reads its screens, creates a token with an error first and opens the revoke confirmation, there is no violation", async () => {
     const page = await suite.context.newPage();
@@ -239,7 +249,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await page.getByRole("button", { name: "Cancel" }).click();
     expect(errors).toEqual([]);
     await page.close();
-  });
+  }, 240_000);
 
   it("when the regulator reads and acknowledges a filing, there is no violation", async () => {
     const page = await suite.context.newPage();
@@ -258,7 +268,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "regulator: Filings, acknowledged");
     expect(errors).toEqual([]);
     await page.close();
-  });
+  }, 240_000);
 
   it("when the administrator opens every admin screen and sends each form empty, there is no violation", async () => {
     const page = await suite.context.newPage();
@@ -300,5 +310,5 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "admin: Outbox");
     expect(errors).toEqual([]);
     await page.close();
-  });
+  }, 240_000);
 });

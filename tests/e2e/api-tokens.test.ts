@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { ApiTokenModel } from "../../server/models/api-token";
 import { createTestEntity, createTestUser } from "../server/helpers";
+import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let treasuryEmail = "";
@@ -27,6 +28,7 @@ describe("a treasurer's API token in a real browser", () => {
     const url = /(http:\/\/\S+\/capital\/history)/.exec(command)![1];
     expect(url.startsWith(`${suite.app.baseUrl}/api/entities/`)).toBe(true);
     await page.waitForLoadState("networkidle");
+    await expectAccessible(page, "api-tokens-treasury-created");
     await keepScreenshot(page, "api-tokens-treasury-created");
 
     // What the curl example does, from outside the browser: no cookie, no Origin.
@@ -38,6 +40,7 @@ describe("a treasurer's API token in a real browser", () => {
     await page.getByRole("button", { name: "Revoke Quarter-end capital pull" }).click();
     await page.getByRole("button", { name: "Revoke token" }).click();
     await page.getByText("“Quarter-end capital pull” is revoked").waitFor({ timeout: 15_000 });
+    await expectAccessible(page, "api-tokens-treasury-revoked");
     await keepScreenshot(page, "api-tokens-treasury-revoked");
 
     expect((await fetch(url, { headers: { Authorization: `Bearer ${secret}` } })).status).toBe(401);

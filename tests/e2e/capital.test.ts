@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { createTestUser } from "../server/helpers";
 import { signOffBook, type Book } from "../server/snapshot-helpers";
+import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let book: Book;
@@ -29,6 +30,7 @@ describe("planning capital in a real browser", () => {
     await page.getByText("Red").first().waitFor({ timeout: 15_000 });
     await page.getByText("4.00").first().waitFor();
     await page.waitForLoadState("networkidle");
+    await expectAccessible(page, "capital-treasury-what-if");
     await keepScreenshot(page, "capital-treasury-what-if");
     expect(errors).toEqual([]);
     await page.close();

@@ -4,6 +4,7 @@ import { FilingModel } from "../../server/models/filing";
 import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { createTestUser } from "../server/helpers";
 import { preparedAndSubmitted, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
+import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let book: Book;
@@ -41,6 +42,7 @@ describe("filing a quarter in a real browser", () => {
     await croPage.getByRole("button", { name: "Send the pack" }).click();
     await croPage.getByRole("link", { name: /Open the filing on the Filings screen/ }).waitFor({ timeout: 20_000 });
     await croPage.waitForLoadState("networkidle");
+    await expectAccessible(croPage, "quarter-close-cro-filed");
     await keepScreenshot(croPage, "quarter-close-cro-filed");
     const filing = await FilingModel.findOne({ where: { snapshotId } });
     expect(filing).not.toBeNull();
@@ -56,6 +58,7 @@ describe("filing a quarter in a real browser", () => {
       .first()
       .waitFor({ timeout: 15_000 });
     await regulatorPage.waitForLoadState("networkidle");
+    await expectAccessible(regulatorPage, "filings-regulator-acknowledged");
     await keepScreenshot(regulatorPage, "filings-regulator-acknowledged");
     expect((await FilingModel.findByPk(filing!.id))!.acknowledgedAt).not.toBeNull();
     expect(errors).toEqual([]);

@@ -4,6 +4,7 @@ import { createApp } from "../../server/app";
 import { ObservationModel } from "../../server/models/observation";
 import { createTestUser, sessionCookieFor } from "../server/helpers";
 import { HEADER, ingestFixture, uploadCsv, weekdays } from "../server/ingest-helpers";
+import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let fixture: Awaited<ReturnType<typeof ingestFixture>>;
@@ -39,6 +40,7 @@ describe("the analyst's screens in a real browser", () => {
       .first()
       .waitFor({ timeout: 20_000 });
     await page.waitForLoadState("networkidle");
+    await expectAccessible(page, "backtest-analyst");
     await keepScreenshot(page, "backtest-analyst");
     expect(errors).toEqual([]);
     await page.close();
@@ -51,6 +53,7 @@ describe("the analyst's screens in a real browser", () => {
     await page.goto(`${suite.app.baseUrl}/data`);
     await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
     await page.waitForLoadState("networkidle");
+    await expectAccessible(page, "data-analyst");
     await keepScreenshot(page, "data-analyst");
     expect(errors).toEqual([]);
     await page.close();
@@ -85,6 +88,7 @@ describe("the analyst's screens in a real browser", () => {
       .first()
       .waitFor({ timeout: 20_000 });
     expect(await page.getByRole("button", { name: /^Commit/ }).isDisabled()).toBe(true);
+    await expectAccessible(page, "data-upload-refused");
     await keepScreenshot(page, "data-upload-refused");
 
     await page.locator('input[type="file"]').setInputFiles(file([restated, added], "corrected.csv"));
@@ -92,6 +96,7 @@ describe("the analyst's screens in a real browser", () => {
     await commit.waitFor({ timeout: 20_000 });
     await commit.click();
     await page.getByText(/is committed: 1 new day written, 1 day restated/).waitFor({ timeout: 20_000 });
+    await expectAccessible(page, "data-upload-committed");
     await keepScreenshot(page, "data-upload-committed");
 
     const versions = await ObservationModel.findAll({
@@ -118,6 +123,7 @@ describe("the analyst's screens in a real browser", () => {
     await signInAs(page, suite.app.baseUrl, treasury.email);
     await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
     await page.getByText(/not available for your role/i).waitFor({ timeout: 15_000 });
+    await expectAccessible(page, "backtest-treasury-refused");
     await keepScreenshot(page, "backtest-treasury-refused");
     expect(backtestCalls.filter((u) => u.includes("/api/"))).toEqual([]);
     await page.close();

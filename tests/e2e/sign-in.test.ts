@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { existsSync, statSync } from "node:fs";
 import { createTestUser, TEST_PASSWORD } from "../server/helpers";
+import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, watchConsole } from "./browser";
 
 const suite = browserSuite();
@@ -26,6 +27,7 @@ describe("signing in through the real page", () => {
     );
     expect(stored).not.toMatch(/eyJ/);
 
+    await expectAccessible(page, "overview-analyst");
     const shot = await keepScreenshot(page, "overview-analyst");
     expect(existsSync(shot) && statSync(shot).size > 10_000).toBe(true);
     expect(errors).toEqual([]);
@@ -42,6 +44,7 @@ describe("signing in through the real page", () => {
     await page.getByRole("button", { name: /sign in/i }).click();
     await page.getByText(/not correct/i).waitFor({ timeout: 10_000 });
     expect(page.url()).toContain("/sign-in");
+    await expectAccessible(page, "sign-in-wrong-password");
     await keepScreenshot(page, "sign-in-wrong-password");
     // The browser logs the 401 response itself; nothing else may fail.
     expect(errors.filter((e) => !/401/.test(e))).toEqual([]);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { signOffBook, type Book } from "../server/snapshot-helpers";
+import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let book: Book;
@@ -27,6 +28,7 @@ describe("closing a quarter in a real browser", () => {
       .first()
       .waitFor({ timeout: 15_000 });
     await analystPage.waitForLoadState("networkidle");
+    await expectAccessible(analystPage, "quarter-close-analyst-submitted");
     await keepScreenshot(analystPage, "quarter-close-analyst-submitted");
     const row = await SnapshotModel.findOne({ where: { entityId: book.entity.id, quarterEnd: "2026-09-30" } });
     expect(row).toMatchObject({ status: "submitted", counted: 5, zone: "yellow" });
@@ -41,6 +43,7 @@ describe("closing a quarter in a real browser", () => {
     await croPage.getByRole("button", { name: "Verify the hash" }).click({ timeout: 15_000 });
     await croPage.getByText("Valid: the figures are as signed off.").waitFor({ timeout: 15_000 });
     await croPage.waitForLoadState("networkidle");
+    await expectAccessible(croPage, "quarter-close-cro-approved");
     await keepScreenshot(croPage, "quarter-close-cro-approved");
     expect((await SnapshotModel.findByPk(row!.id))!.hash).toMatch(/^[0-9a-f]{64}$/);
     expect(errors).toEqual([]);

@@ -78,7 +78,7 @@ export function TextField({
         aria-describedby={describedBy(hintId, errorId)}
         className={cn(
           control,
-          error ? "border-danger" : "border-rule-strong",
+          error ? "border-danger" : "border-rule-control",
           input.type === "number" && "figures text-right",
         )}
         {...input}
@@ -103,7 +103,7 @@ export function SelectField({
         id={id}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(hintId, errorId)}
-        className={cn(control, "pr-7", error ? "border-danger" : "border-rule-strong")}
+        className={cn(control, "pr-7", error ? "border-danger" : "border-rule-control")}
         {...select}
       >
         {children}
@@ -128,7 +128,7 @@ export function TextareaField({
         id={id}
         aria-invalid={error ? true : undefined}
         aria-describedby={describedBy(hintId, errorId)}
-        className={cn(textareaControl, error ? "border-danger" : "border-rule-strong")}
+        className={cn(textareaControl, error ? "border-danger" : "border-rule-control")}
         {...textarea}
       />
     </FieldShell>

@@ -203,7 +203,7 @@ function AsOfForm({ bt }: { bt: BacktestResponse }) {
           onChange={(e) => setValue(e.target.value.trim())}
           aria-describedby="as-of-hint"
           aria-invalid={value !== "" && !isoDate.test(value) ? true : undefined}
-          className="figures h-8 w-28 rounded-sm border border-rule-strong bg-paper-raised px-2 text-sm focus:outline-2 focus:outline-accent aria-invalid:border-danger"
+          className="figures h-8 w-28 rounded-sm border border-rule-control bg-paper-raised px-2 text-sm focus:outline-2 focus:outline-accent aria-invalid:border-danger"
         />
         <span id="as-of-hint" className="sr-only">
           A business date, YYYY-MM-DD, on or before {bt.latestDate}

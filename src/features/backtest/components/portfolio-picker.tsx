@@ -21,7 +21,7 @@ export function PortfolioPicker({
   const entityId = useId();
   const portfolioId = useId();
   const control =
-    "h-8 rounded-sm border border-rule-strong bg-paper-raised px-2 text-sm focus:outline-2 focus:outline-accent";
+    "h-8 rounded-sm border border-rule-control bg-paper-raised px-2 text-sm focus:outline-2 focus:outline-accent";
   return (
     <div className="flex flex-wrap items-end gap-3">
       <div className="flex flex-col gap-1">

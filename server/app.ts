@@ -23,9 +23,15 @@ import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
 import { outboxRouter } from "./modules/outbox/outbox.router";
+import {
+  DEFAULT_INVITATION_LIMITS,
+  invitationsRouter,
+  type InvitationLimits,
+} from "./modules/invitations/invitations.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
+  invitationLimits?: InvitationLimits;
   /** Serve the built client from dist/client (when it exists). */
   serveClient?: boolean;
 }
@@ -82,6 +88,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(authRouter(options.signInLimits ?? DEFAULT_SIGN_IN_LIMITS));
   app.use(entitiesRouter());
   app.use(usersRouter());
+  app.use(invitationsRouter(options.invitationLimits ?? DEFAULT_INVITATION_LIMITS));
   app.use(assignmentsRouter());
   app.use(auditRouter());
   app.use(uploadsRouter());

@@ -183,7 +183,9 @@ describe("creating a user by invitation (the admin never sets or learns a passwo
   });
 
   it("when someone keeps trying links from one address, then 429 after the limit", async () => {
-    const limited = testApp({ invitationLimits: { windowMs: 60_000, perAddress: 3 } });
+    const limited = testApp({
+      invitationLimits: { windowMs: 60_000, perAddress: 3, namespace: unique("invitation-test-") },
+    });
     const codes: number[] = [];
     for (let i = 0; i < 4; i++) {
       codes.push(

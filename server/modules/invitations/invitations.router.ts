@@ -5,11 +5,14 @@ import { parseInput, TooManyRequestsError } from "../../errors";
 import { acceptInvitationBodySchema, invitationLookupBodySchema } from "../../../shared/schemas/auth";
 import { acceptInvitation, listPendingInvitations, lookupInvitation } from "./invitations.service";
 import { setSessionCookie } from "../auth/session.middleware";
+import { DatabaseCountStore } from "../auth/sign-in-counts";
 
 export interface InvitationLimits {
   windowMs: number;
   /** Refused look-ups and attempts per address in the window (a good link's use does not count). */
   perAddress: number;
+  /** Keys the counts in the database (shared by every server process); tests give their own. */
+  namespace?: string;
 }
 
 export const DEFAULT_INVITATION_LIMITS: InvitationLimits = { windowMs: 15 * 60 * 1000, perAddress: 20 };
@@ -18,9 +21,12 @@ export function invitationsRouter(limits: InvitationLimits = DEFAULT_INVITATION_
   const r = createGuardedRouter();
   // Public routes: a 256-bit token cannot be guessed, and guessing is still slowed down per address.
   const perAddress = rateLimit({
+    store: new DatabaseCountStore(`${limits.namespace ?? "invitation"}:address`),
     windowMs: limits.windowMs,
     limit: limits.perAddress,
     skipSuccessfulRequests: true,
+    // Only refused links count (unknown, used, expired: 404/410), not a form sent again with a weak password.
+    requestWasSuccessful: (_req, res) => res.statusCode < 400 || res.statusCode === 422,
     standardHeaders: "draft-8",
     legacyHeaders: false,
     handler: (_req, _res, next) =>

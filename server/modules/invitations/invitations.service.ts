@@ -12,7 +12,7 @@ import { assertNewPassword } from "../auth/password-rule";
 import { signSessionToken } from "../auth/tokens";
 import type { Actor } from "../../http/context";
 import type { AcceptInvitationBody, Invitation, SessionUser } from "../../../shared/schemas/auth";
-import type { PendingInvitation } from "../../../shared/schemas/admin";
+import type { PendingInvitation } from "../../../shared/schemas/user";
 import type { Role } from "../../../shared/schemas/common";
 
 /** How the e-mail names the role (the screens' own labels live in the client). */

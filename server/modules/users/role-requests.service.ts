@@ -14,7 +14,7 @@ import {
   toUser,
   type AdminActor,
 } from "./users.service";
-import { needsSecondAdmin, type ProposeRoleBody, type RoleRequest } from "../../../shared/schemas/admin";
+import { needsSecondAdmin, type ProposeRoleBody, type RoleRequest } from "../../../shared/schemas/user";
 import type { Role } from "../../../shared/schemas/common";
 
 const person = (u: UserModel | null | undefined) => (u ? { id: u.id, name: u.name, email: u.email } : null);

@@ -5,10 +5,9 @@ import {
   createUserBodySchema,
   passwordLinkBodySchema,
   proposeRoleBodySchema,
-  roleRequestIdParamSchema,
   updateUserBodySchema,
-  userIdParamSchema,
-} from "../../../shared/schemas/admin";
+} from "../../../shared/schemas/user";
+import { idParamSchema } from "../../../shared/schemas/common";
 import { createUser, listUsers, sendPasswordLink, updateUser } from "./users.service";
 import {
   approveRoleRequest,
@@ -27,11 +26,11 @@ export function usersRouter() {
     res.status(result.outcome === "invited" ? 201 : 202).json(result);
   });
   r.patch("/api/users/:id", async (req, res) => {
-    const { id } = parseInput(userIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await updateUser(id, parseInput(updateUserBodySchema, req.body), signedInActor(req)));
   });
   r.post("/api/users/:id/password-link", async (req, res) => {
-    const { id } = parseInput(userIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await sendPasswordLink(id, parseInput(passwordLinkBodySchema, req.body), signedInActor(req)));
   });
 
@@ -43,11 +42,11 @@ export function usersRouter() {
     res.status(201).json(await proposeRoleChange(parseInput(proposeRoleBodySchema, req.body), signedInActor(req)));
   });
   r.post("/api/role-requests/:id/approve", async (req, res) => {
-    const { id } = parseInput(roleRequestIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await approveRoleRequest(id, signedInActor(req)));
   });
   r.post("/api/role-requests/:id/reject", async (req, res) => {
-    const { id } = parseInput(roleRequestIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await rejectRoleRequest(id, signedInActor(req)));
   });
   return r.router;

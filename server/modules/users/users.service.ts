@@ -1,14 +1,14 @@
 import { UserModel } from "../../models/user";
 import { RoleRequestModel } from "../../models/role-request";
 import { AppError, ConflictError, ForbiddenError } from "../../errors";
+import { StaleError } from "../../kit/stale";
 import { recordAudit } from "../audit/audit.service";
 import { revokeApiTokensOf } from "../api-tokens/api-tokens.service";
 import { issuePasswordLink } from "../invitations/invitations.service";
 import { TOKEN_HOLDERS } from "../../http/policy";
 import { sequelize } from "../../db/sequelize";
 import type { Transaction } from "sequelize";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import type { Role } from "../../../shared/schemas/common";
 import {
   needsSecondAdmin,
@@ -17,10 +17,10 @@ import {
   type PasswordLinkBody,
   type UpdateUserBody,
   type User,
-} from "../../../shared/schemas/admin";
+} from "../../../shared/schemas/user";
 import { createRoleRequest, toRoleRequest } from "./role-requests.service";
 
-export type AdminActor = Actor & { user: SessionUser };
+export type AdminActor = SignedIn;
 
 export function toUser(row: UserModel): User {
   return {
@@ -57,12 +57,10 @@ export async function lockUser(id: number, transaction: Transaction): Promise<Us
   return row;
 }
 
-export function staleUser(row: UserModel): AppError {
-  return new AppError(
-    409,
-    "stale",
+export function staleUser(row: UserModel): StaleError {
+  return new StaleError(
     `Someone else changed ${row.name} (${row.email}) since you opened the list (now version ${row.version}). Look at the user again and apply your change if it is still needed.`,
-    { current: toUser(row) },
+    toUser(row),
   );
 }
 

@@ -12,7 +12,7 @@ import {
   type ProposeRoleBody,
   type UpdateUserBody,
   type User,
-} from "@shared/schemas/admin";
+} from "@shared/schemas/user";
 import { api, isApiError } from "@/lib/api-client";
 import { assignmentQueries } from "./assignment-queries";
 

@@ -1,4 +1,4 @@
-import type { PendingInvitation } from "@shared/schemas/admin";
+import type { PendingInvitation } from "@shared/schemas/user";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";

@@ -1,5 +1,5 @@
 import { Fragment, useState } from "react";
-import type { RoleRequest } from "@shared/schemas/admin";
+import type { RoleRequest } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { Table, Td, Th, Tr } from "@/components/ui/table";

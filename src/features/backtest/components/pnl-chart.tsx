@@ -11,7 +11,7 @@ import {
   YAxis,
 } from "recharts";
 import type { BacktestResponse } from "@shared/schemas/backtest";
-import type { ObservationDto } from "@shared/schemas/upload";
+import type { ObservationDto } from "@shared/schemas/observation";
 import { cn } from "@/lib/cn";
 import { compactAmount, formatAmount, plural } from "@/lib/format";
 

@@ -10,11 +10,8 @@ import { recordAudit } from "../audit/audit.service";
 import { loadQualitySeries } from "../observations/observations.repository";
 import { type QualityDay } from "../../../shared/ingest/row-plan";
 import { findDataQualityIssues, type QualityFinding } from "../../../shared/ingest/data-quality";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import type { CloseFindingBody, Finding } from "../../../shared/schemas/finding";
-
-type SignedIn = Actor & { user: SessionUser };
 
 /** What a commit already holds in memory: each portfolio's current days inside the span it wrote. */
 export interface KnownSpan {

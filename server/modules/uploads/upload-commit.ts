@@ -20,10 +20,7 @@ import { duplicateError, findCommittedTwin, loadReferenceData, parseFile } from 
 import { recheckReferenceData, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
 import { classify, currentDaysInSpan, spanOf, type NewVersion, type StoredDay } from "../../../shared/ingest/row-plan";
 import type { CommitResult } from "../../../shared/schemas/upload";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 /** Portfolio ids the preview named (from its summary), sorted. */
 async function previewPortfolioIds(upload: UploadModel, transaction: Transaction): Promise<number[]> {

@@ -6,7 +6,7 @@ import { PortfolioModel } from "../../models/portfolio";
 import { EntityModel } from "../../models/entity";
 import { HolidayModel } from "../../models/holiday";
 import { AppError, ConflictError } from "../../errors";
-import { plainFileName } from "../../http/file-name";
+import { plainFileName } from "../../kit/file-name";
 import { packBytesInBackground } from "./stored-bytes";
 import { receivingStorage, type ReceivedFile } from "./receiving-storage";
 import {

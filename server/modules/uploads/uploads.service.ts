@@ -17,13 +17,10 @@ import {
 } from "./upload-files";
 import { classify, dateRange } from "../../../shared/ingest/row-plan";
 import type { RowError, UploadPreview, UploadSummary } from "../../../shared/schemas/upload";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 
 // An upload's story before and after its commit (upload-commit.ts): the preview of a checked file,
 // the history, one upload, and discarding a preview.
-
-type SignedIn = Actor & { user: SessionUser };
 
 /** How many row errors a preview returns (all are counted; the rows endpoint pages through them). */
 export const PREVIEW_ERROR_CAP = 200;

@@ -4,7 +4,7 @@ import { AppError, NotFoundError, UnauthorizedError } from "../../errors";
 import { sequelize } from "../../db/sequelize";
 import { assertNewPassword } from "./password-rule";
 import { recordAudit } from "../audit/audit.service";
-import type { Actor } from "../../http/context";
+import type { Actor, SignedIn } from "../../kit/actor";
 import type { ChangePasswordBody, LoginBody, SessionUser } from "../../../shared/schemas/auth";
 import { signSessionToken, verifySessionToken } from "./tokens";
 
@@ -46,7 +46,7 @@ export async function signIn(credentials: LoginBody, actor: Actor): Promise<{ us
 }
 
 /** Ends every session of the user at once by raising the token version. */
-export async function signOut(actor: Actor & { user: SessionUser }): Promise<void> {
+export async function signOut(actor: SignedIn): Promise<void> {
   await UserModel.increment("tokenVersion", { by: 1, where: { id: actor.user.id } });
   await recordAudit(actor, "auth.sign_out", actor.user.email);
 }
@@ -75,7 +75,7 @@ export async function resolveSession(
  */
 export async function changeOwnPassword(
   { currentPassword, newPassword }: ChangePasswordBody,
-  actor: Actor & { user: SessionUser },
+  actor: SignedIn,
 ): Promise<{ user: SessionUser; token: string }> {
   const found = await UserModel.findByPk(actor.user.id);
   if (!found) throw new NotFoundError("Your account no longer exists.");

@@ -10,7 +10,7 @@ import { recordAudit } from "../audit/audit.service";
 import { hashPassword, toSessionUser } from "../auth/auth.service";
 import { assertNewPassword } from "../auth/password-rule";
 import { signSessionToken } from "../auth/tokens";
-import type { Actor } from "../../http/context";
+import type { Actor, SignedIn } from "../../kit/actor";
 import type { AcceptInvitationBody, Invitation, SessionUser } from "../../../shared/schemas/auth";
 import type { PendingInvitation } from "../../../shared/schemas/user";
 import type { Role } from "../../../shared/schemas/common";
@@ -72,7 +72,7 @@ function mailFor(user: UserModel, purpose: InvitationPurpose, link: string, expi
 export async function issuePasswordLink(
   user: UserModel,
   purpose: InvitationPurpose,
-  actor: Actor & { user: SessionUser },
+  actor: SignedIn,
   transaction: Transaction,
 ): Promise<{ expiresAt: Date; purpose: InvitationPurpose }> {
   const now = new Date();

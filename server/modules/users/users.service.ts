@@ -5,7 +5,7 @@ import { StaleError } from "../../kit/stale";
 import { recordAudit } from "../audit/audit.service";
 import { revokeApiTokensOf } from "../api-tokens/api-tokens.service";
 import { issuePasswordLink } from "../invitations/invitations.service";
-import { TOKEN_HOLDERS } from "../../http/policy";
+import { TOKEN_HOLDERS } from "../../kit/roles";
 import { sequelize } from "../../db/sequelize";
 import type { Transaction } from "sequelize";
 import type { SignedIn } from "../../kit/actor";

@@ -53,9 +53,11 @@ import type { SessionUser } from "../../../shared/schemas/auth";
 
 type SignedIn = Actor & { user: SessionUser };
 
-/** How many row errors a preview returns (all are counted; the rows endpoint pages through them). */
+/**
+ * How many row errors a preview returns. The parse keeps the first KEPT_ERRORS (stored with the
+ * upload; the rows endpoint pages through them) and counts all of them (errorCount).
+ */
 export const PREVIEW_ERROR_CAP = 200;
-const STORED_ERROR_CAP = 20_000;
 
 export interface IncomingFile {
   originalName: string;
@@ -317,7 +319,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
       )
     : new Map();
   const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored, false);
-  const invalid = parsed.invalidLines.size;
+  const invalid = parsed.invalidCount;
 
   const row = await sequelize.transaction(async (transaction) => {
     const created = await UploadModel.create(
@@ -336,12 +338,12 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         restatedCount: restated,
         unchangedCount: unchanged,
         insertedCount: null,
-        errorsJson: JSON.stringify(parsed.errors.slice(0, STORED_ERROR_CAP)),
+        errorsJson: JSON.stringify(parsed.errors),
         summaryJson: JSON.stringify({
           portfolios: portfolioCodes,
           from: range?.from ?? null,
           to: range?.to ?? null,
-          errorCount: parsed.errors.length,
+          errorCount: parsed.errorCount,
         }),
         committedAt: null,
       },
@@ -470,7 +472,7 @@ async function parseStoredFile(
   });
   if (!withContent?.content) throw new ConflictError(`Upload #${id} no longer holds its file; upload it again.`);
   const parsed = parseFile(unpackBytes(withContent.content), ref);
-  if (parsed.errors.length) {
+  if (parsed.errorCount) {
     throw new ConflictError(
       "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
     );

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { randomBytes } from "node:crypto";
+import os from "node:os";
 import path from "node:path";
 
 /** The folder with the project's package.json, found upwards from here (server/ under tsx, dist/server/ when bundled). */
@@ -51,6 +52,11 @@ const envSchema = z.object({
   UPLOAD_QUEUE: z.coerce.number().int().min(0).max(100).default(4),
   /** How long a large upload waits for its turn before it is refused (503, Retry-After). */
   UPLOAD_QUEUE_WAIT_MS: z.coerce.number().int().min(0).max(600_000).default(60_000),
+  /** Server worker processes (node:cluster); WEB_CONCURRENCY is the name many hosts set. Unset: one per core. */
+  WORKERS: z.coerce.number().int().min(1).max(64).optional(),
+  WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).optional(),
+  /** Set by the primary for the one worker that runs the filing delivery loop. */
+  QM_DELIVERY_WORKER: z.enum(["0", "1"]).optional(),
 });
 
 function readDbCredentials(): { user: string; password: string } | null {
@@ -116,6 +122,9 @@ function loadConfig() {
       queue: env.UPLOAD_QUEUE,
       queueWaitMs: env.UPLOAD_QUEUE_WAIT_MS,
     }),
+    workers: env.WORKERS ?? env.WEB_CONCURRENCY ?? os.availableParallelism(),
+    /** Whether this process runs the filing delivery loop: the one worker the primary names, or a lone process. */
+    runsFilingDelivery: env.QM_DELIVERY_WORKER !== "0",
   });
 }
 

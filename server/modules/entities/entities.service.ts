@@ -18,7 +18,7 @@ import type {
   Holiday,
   Portfolio,
   UpdateEntityBody,
-} from "../../../shared/schemas/admin";
+} from "../../../shared/schemas/entity";
 
 type SignedIn = Actor & { user: SessionUser };
 

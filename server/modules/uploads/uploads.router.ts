@@ -5,7 +5,8 @@ import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, ServerBusyError, parseInput } from "../../errors";
 import { Semaphore, SemaphoreRefusal } from "../../semaphore";
-import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { UPLOAD_MAX_BYTES, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { idParamSchema } from "../../../shared/schemas/common";
 import * as uploads from "./uploads.service";
 import { sendDownload } from "../../http/download";
 
@@ -83,19 +84,19 @@ export function uploadsRouter(limits: UploadLimits = defaultUploadLimits()) {
     res.json(await uploads.listUploads());
   });
   r.get("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.getUpload(id));
   });
   r.get("/api/uploads/:id/rows", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.getUploadRows(id, parseInput(uploadRowsQuerySchema, req.query, "query")));
   });
   r.post("/api/uploads/:id/commit", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.commitUpload(id, signedInActor(req)));
   });
   r.delete("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     await uploads.discardUpload(id, signedInActor(req));
     res.status(204).end();
   });

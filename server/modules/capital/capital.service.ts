@@ -13,11 +13,8 @@ import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapsh
 import { quarterEndOf } from "../../../shared/backtest/quarters";
 import { type CapitalHistoryItem } from "../../../shared/schemas/capital";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
-
-type SignedIn = Actor & { user: SessionUser };
 
 /** The entity's top-of-house portfolio with its current data, calendar and approved exclusions. */
 async function topOf(code: string): Promise<{ entity: EntityModel; ctx: PortfolioContext; latest: string }> {

@@ -8,7 +8,7 @@ import { ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
-import type { Actor } from "../../http/context";
+import type { SignedIn } from "../../kit/actor";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import type {
   CreateEntityBody,
@@ -19,8 +19,6 @@ import type {
   Portfolio,
   UpdateEntityBody,
 } from "../../../shared/schemas/entity";
-
-type SignedIn = Actor & { user: SessionUser };
 
 export function toEntity(row: EntityModel): Entity {
   return {

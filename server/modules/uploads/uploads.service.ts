@@ -50,6 +50,7 @@ import {
 } from "../../../shared/schemas/upload";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
+import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 type SignedIn = Actor & { user: SessionUser };
 
@@ -425,6 +426,8 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await applyFindings(found, transaction);
     // Signed-off figures never change; a day written inside a signed-off window flags that snapshot.
     await flagChangedSnapshots(inserts, upload.id, actor, transaction);
+    // The determinations of the entities whose data this was, recomputed with the data.
+    await refreshDeterminationsOfPortfolios([...held], transaction);
 
     upload.status = "committed";
     upload.committedSha256 = upload.sha256;

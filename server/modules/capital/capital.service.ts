@@ -16,10 +16,21 @@ import { bitesFrom } from "../determinations/determinations.service";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
 import type { DeterminationDto } from "../../../shared/schemas/determination";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import { quarterEndOf, quarterLabel } from "../../../shared/schemas/snapshot";
+import {
+  SIGNED_OFF,
+  quarterEndOf,
+  quarterLabel,
+  type CapitalHistoryItem,
+  type SnapshotFigures,
+} from "../../../shared/schemas/snapshot";
+import { SnapshotModel } from "../../models/snapshot";
+import { readsSignedOffOnly } from "../snapshots/snapshots.read";
+import type { Actor } from "../../http/context";
 import type { z } from "zod";
 import type { whatIfBodySchema } from "../../../shared/schemas/capital";
 import type { DatedSettings } from "../../../shared/backtest/determination";
+
+type SignedIn = Actor & { user: SessionUser };
 
 /** Treasury reads approved figures only: its forecast and what-if start from a signed-off determination. */
 const readsApprovedOnly = (viewer: SessionUser) => viewer.role === "treasury";
@@ -243,4 +254,27 @@ export async function getWhatIf(
     startsFrom,
     bitesFrom: bitesFrom(addBusinessDays(asOf, 1, inputs.options.holidays), inputs.options, asOf),
   };
+}
+
+/** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
+export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const rows = await SnapshotModel.findAll({
+    where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
+    order: [["quarterEnd", "ASC"]],
+  });
+  return rows.map((r) => ({
+    quarterEnd: r.quarterEnd,
+    status: r.status,
+    zone: r.zone,
+    counted: r.counted,
+    plusFactor: r.plusFactor,
+    multiplier: r.multiplier,
+    capital: r.capital,
+    addOn: r.addOn,
+    snapshotId: r.id,
+    restatedAfterSignOff: r.restatedAt !== null,
+    windowComplete: (JSON.parse(r.figuresJson) as SnapshotFigures).window.complete,
+  }));
 }

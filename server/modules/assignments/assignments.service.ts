@@ -7,7 +7,7 @@ import { sequelize } from "../../db/sequelize";
 import { findEntity } from "../entities/entities.service";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import type { Assignment } from "../../../shared/schemas/admin";
+import type { Assignment } from "../../../shared/schemas/assignment";
 
 type SignedIn = Actor & { user: SessionUser };
 

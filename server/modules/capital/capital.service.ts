@@ -16,13 +16,9 @@ import { bitesFrom } from "../determinations/determinations.service";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
 import type { DeterminationDto } from "../../../shared/schemas/determination";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import {
-  SIGNED_OFF,
-  quarterEndOf,
-  quarterLabel,
-  type CapitalHistoryItem,
-  type SnapshotFigures,
-} from "../../../shared/schemas/snapshot";
+import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { quarterEndOf, quarterLabel } from "../../../shared/backtest/quarters";
+import type { CapitalHistoryItem } from "../../../shared/schemas/capital";
 import { SnapshotModel } from "../../models/snapshot";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
 import type { Actor } from "../../http/context";

@@ -19,7 +19,7 @@ import type {
   Holiday,
   Portfolio,
   UpdateEntityBody,
-} from "../../../shared/schemas/admin";
+} from "../../../shared/schemas/entity";
 import { refreshDeterminations } from "../determinations/determinations.store";
 
 type SignedIn = Actor & { user: SessionUser };

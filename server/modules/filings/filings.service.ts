@@ -13,7 +13,7 @@ import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pac
 import { recordAudit } from "../audit/audit.service";
 import { lockForFiling, recordFiled } from "../snapshots/snapshots.service";
 import { verifySnapshot } from "../snapshots/snapshots.chain";
-import { quarterLabel } from "../../../shared/schemas/snapshot";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import { CAUTION } from "../../../shared/schemas/common";
 import type { Filing, FilingVerify } from "../../../shared/schemas/filing";
 import type { Actor } from "../../http/context";

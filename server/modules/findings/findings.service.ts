@@ -11,7 +11,7 @@ import { loadQualitySeries, type QualityDay } from "../observations/observations
 import { findDataQualityIssues, type QualityFinding } from "../../../shared/ingest/data-quality";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import type { CloseFindingBody, Finding } from "../../../shared/schemas/upload";
+import type { CloseFindingBody, Finding } from "../../../shared/schemas/finding";
 
 type SignedIn = Actor & { user: SessionUser };
 

@@ -17,7 +17,7 @@ import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/backtest";
+import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/review";
 import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 type SignedIn = Actor & { user: SessionUser };

@@ -1,7 +1,7 @@
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { entityCodeParamSchema } from "../../../shared/schemas/snapshot";
+import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import {
   proposeSettingsSchema,
   settingsDecisionSchema,

@@ -7,8 +7,8 @@ import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
 import { recordAudit } from "../audit/audit.service";
 import { quarterFigures } from "../backtest/quarter-figures";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import {
-  quarterLabel,
   type CreateSnapshotBody,
   type ReturnSnapshotBody,
   type Snapshot,

@@ -2,7 +2,8 @@ import multer from "multer";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
-import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { UPLOAD_MAX_BYTES, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { idParamSchema } from "../../../shared/schemas/common";
 import * as uploads from "./uploads.service";
 import { sendDownload } from "../../http/download";
 
@@ -39,19 +40,19 @@ export function uploadsRouter() {
     res.json(await uploads.listUploads());
   });
   r.get("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.getUpload(id));
   });
   r.get("/api/uploads/:id/rows", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.getUploadRows(id, parseInput(uploadRowsQuerySchema, req.query, "query")));
   });
   r.post("/api/uploads/:id/commit", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.commitUpload(id, signedInActor(req)));
   });
   r.delete("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     await uploads.discardUpload(id, signedInActor(req));
     res.status(204).end();
   });

@@ -8,7 +8,7 @@ import { sequelize } from "../../db/sequelize";
 import type { Transaction } from "sequelize";
 import type { Actor } from "../../http/context";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import type { CreateUserBody, ResetPasswordBody, UpdateUserBody, User } from "../../../shared/schemas/admin";
+import type { CreateUserBody, ResetPasswordBody, UpdateUserBody, User } from "../../../shared/schemas/user";
 
 type AdminActor = Actor & { user: SessionUser };
 

@@ -1,5 +1,6 @@
 import { Link } from "react-router-dom";
-import { quarterLabel, quarterStart, type Snapshot } from "@shared/schemas/snapshot";
+import { quarterLabel, quarterStart } from "@shared/backtest/quarters";
+import { type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { Notice } from "@/components/ui/notice";
 import { formatDateTime, plural } from "@/lib/format";

@@ -21,12 +21,10 @@ import { quarterEndOf, quarterLabel } from "../../../shared/backtest/quarters";
 import type { CapitalHistoryItem } from "../../../shared/schemas/capital";
 import { SnapshotModel } from "../../models/snapshot";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
-import type { Actor } from "../../http/context";
+import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
 import type { whatIfBodySchema } from "../../../shared/schemas/capital";
 import type { DatedSettings } from "../../../shared/backtest/determination";
-
-type SignedIn = Actor & { user: SessionUser };
 
 /** Treasury reads approved figures only: its forecast and what-if start from a signed-off determination. */
 const readsApprovedOnly = (viewer: SessionUser) => viewer.role === "treasury";

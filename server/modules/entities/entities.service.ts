@@ -9,7 +9,7 @@ import { createInitialSettings, hasGovernedSettings } from "../settings/settings
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
-import type { Actor } from "../../http/context";
+import type { SignedIn } from "../../kit/actor";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import type {
   CreateEntityBody,
@@ -21,8 +21,6 @@ import type {
   UpdateEntityBody,
 } from "../../../shared/schemas/entity";
 import { refreshDeterminations } from "../determinations/determinations.store";
-
-type SignedIn = Actor & { user: SessionUser };
 
 export function toEntity(row: EntityModel): Entity {
   return {

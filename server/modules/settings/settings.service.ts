@@ -9,13 +9,11 @@ import { recordAudit } from "../audit/audit.service";
 import { refreshDeterminations } from "../determinations/determinations.store";
 import { approvedSettings, fallbackSettings, toDated } from "./settings.read";
 import { settingsOn, type DatedSettings } from "../../../shared/backtest/determination";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import type { SettingsRecord } from "../../../shared/schemas/determination";
 import type { proposeSettingsSchema, settingsDecisionSchema } from "../../../shared/schemas/determination";
 import type { z } from "zod";
 
-type SignedIn = Actor & { user: SessionUser };
 type ProposeBody = z.output<typeof proposeSettingsSchema>;
 type DecisionBody = z.output<typeof settingsDecisionSchema>;
 

@@ -17,15 +17,12 @@ import {
 import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { chainOf, hashedContent, sha256 } from "./snapshots.chain";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import { refreshDeterminations } from "../determinations/determinations.store";
 import { DeterminationModel } from "../../models/determination";
 
 // The sign-off: an analyst prepares and submits a past quarter, a CRO approves (sealing it into the
 // entity's hash chain) or returns it; filing then locks and marks it.
-
-type SignedIn = Actor & { user: SessionUser };
 
 const today = () => new Date().toISOString().slice(0, 10);
 

@@ -1,4 +1,5 @@
 import type { Role } from "../../shared/schemas/common";
+import { TOKEN_HOLDERS } from "../kit/roles";
 
 /**
  * Who may call what: the single authority for access on the server. Every route the app
@@ -11,11 +12,6 @@ import type { Role } from "../../shared/schemas/common";
 export type Access = "public" | "signed-in" | readonly Role[];
 
 const STAFF: readonly Role[] = ["analyst", "cro", "treasury", "admin"];
-/**
- * Who may hold personal API tokens for scripts (docs/architecture.md#roles); a token stops working
- * when its owner leaves these roles.
- */
-export const TOKEN_HOLDERS: readonly Role[] = ["treasury"];
 
 export const POLICY = {
   "GET /api/health": "public",
@@ -23,6 +19,11 @@ export const POLICY = {
   "POST /api/auth/logout": "signed-in",
   "GET /api/auth/me": "signed-in",
   "GET /api/auth/session": "public",
+  // Everyone changes their own password (current + new; other sessions end).
+  "POST /api/auth/password": "signed-in",
+  // A set-password link's holder, before they have a password: rate limited per address in the router.
+  "POST /api/invitations/lookup": "public",
+  "POST /api/invitations/accept": "public",
 
   // Entities: every role reads (a regulator only the entities assigned to them); admin changes.
   "GET /api/entities": "signed-in",
@@ -39,7 +40,14 @@ export const POLICY = {
   "GET /api/users": ["admin"],
   "POST /api/users": ["admin"],
   "PATCH /api/users/:id": ["admin"],
-  "POST /api/users/:id/password": ["admin"],
+  // An admin never sets a password: they send a one-time link (an invitation again, or a reset).
+  "POST /api/users/:id/password-link": ["admin"],
+  "GET /api/invitations": ["admin"],
+  // Granting or removing the CRO or admin role: one admin proposes, another approves (in the service).
+  "GET /api/role-requests": ["admin"],
+  "POST /api/role-requests": ["admin"],
+  "POST /api/role-requests/:id/approve": ["admin"],
+  "POST /api/role-requests/:id/reject": ["admin"],
   "GET /api/regulator-assignments": ["admin"],
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
@@ -82,6 +90,17 @@ export const POLICY = {
   // Forecasts and what-ifs on current data: treasury plans capital with them (docs/architecture.md#roles).
   "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
   "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],
+
+  // Determinations of the multiplier (treasury sees the signed-off ones, filtered in the service) and
+  // capital on a date with the multiplier in force beside the indicative one (current figures).
+  "GET /api/entities/:code/determinations": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/capital": ["analyst", "cro"],
+  // Governed supervisory settings: everyone on staff reads them; an admin proposes a change and a CRO
+  // approves or rejects it (four eyes in the service).
+  "GET /api/entities/:code/settings": STAFF,
+  "POST /api/entities/:code/settings": ["admin"],
+  "POST /api/settings/:id/approve": ["cro"],
+  "POST /api/settings/:id/reject": ["cro"],
 
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
   "GET /api/overview": ["analyst", "cro"],

@@ -16,10 +16,7 @@ import { verifySnapshot } from "../snapshots/snapshots.chain";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import { CAUTION } from "../../../shared/schemas/common";
 import type { Filing, FilingVerify } from "../../../shared/schemas/filing";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
 

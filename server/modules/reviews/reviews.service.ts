@@ -7,7 +7,7 @@ import { ObservationModel } from "../../models/observation";
 import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { findPortfolio } from "../backtest/portfolio-context";
-import { plainFileName } from "../../http/file-name";
+import { plainFileName } from "../../kit/file-name";
 import type { Transaction } from "sequelize";
 import type { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
@@ -15,11 +15,9 @@ import { reviewsByDate } from "./reviews.read";
 import { flagExclusionDecision } from "../snapshots/snapshots.restatements";
 import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/review";
-
-type SignedIn = Actor & { user: SessionUser };
+import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
 
@@ -181,8 +179,10 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       transaction,
     );
     // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
-    if (before.exclusionStatus === "approved" || body.decision === "approved")
+    if (before.exclusionStatus === "approved" || body.decision === "approved") {
       await flagExclusionDecision(portfolio.id, date, actor, transaction);
+      await refreshDeterminationsOfPortfolios([portfolio.id], transaction);
+    }
   });
   return (await currentReview(portfolio.id, date))!;
 }

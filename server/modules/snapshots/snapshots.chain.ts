@@ -5,10 +5,7 @@ import { EntityModel } from "../../models/entity";
 import { SnapshotModel } from "../../models/snapshot";
 import type { SnapshotVerify } from "../../../shared/schemas/snapshot";
 import { visibleSnapshotRow } from "./snapshots.read";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 /** What the hash of a signed-off snapshot covers, in a canonical form. */
 export function hashedContent(row: SnapshotModel, entity: EntityModel) {

@@ -8,10 +8,7 @@ import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pac
 import { countOpenFindings } from "../findings/findings.service";
 import { SIGNED_OFF, type Snapshot, type SnapshotEvent, type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import { quarterStart } from "../../../shared/backtest/quarters";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 /** Treasury reads signed-off figures only (docs/architecture.md#roles). */
 export const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";

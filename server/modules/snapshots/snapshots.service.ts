@@ -1,4 +1,4 @@
-import { type Transaction } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
@@ -17,13 +17,12 @@ import {
 import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { chainOf, hashedContent, sha256 } from "./snapshots.chain";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
+import { refreshDeterminations } from "../determinations/determinations.store";
+import { DeterminationModel } from "../../models/determination";
 
 // The sign-off: an analyst prepares and submits a past quarter, a CRO approves (sealing it into the
 // entity's hash chain) or returns it; filing then locks and marks it.
-
-type SignedIn = Actor & { user: SessionUser };
 
 const today = () => new Date().toISOString().slice(0, 10);
 
@@ -153,21 +152,30 @@ export async function prepareSnapshot(
         transaction,
       );
     } else {
-      row = await SnapshotModel.create(
-        {
-          ...values,
-          entityId: entity.id,
-          quarterEnd: body.quarterEnd,
-          approvedBy: null,
-          approvedAt: null,
-          prevHash: null,
-          hash: null,
-          restatedAt: null,
-          restatementDetail: null,
-          historyJson: JSON.stringify([event(actor, "prepared")]),
-        },
-        { transaction },
-      );
+      try {
+        row = await SnapshotModel.create(
+          {
+            ...values,
+            entityId: entity.id,
+            quarterEnd: body.quarterEnd,
+            approvedBy: null,
+            approvedAt: null,
+            prevHash: null,
+            hash: null,
+            restatedAt: null,
+            restatementDetail: null,
+            historyJson: JSON.stringify([event(actor, "prepared")]),
+          },
+          { transaction },
+        );
+      } catch (err) {
+        // Two first preparations of one quarter at once: the unique (entity, quarter) lets one in.
+        if (err instanceof UniqueConstraintError)
+          throw new ConflictError(
+            `${entity.code} ${quarterLabel(body.quarterEnd)} was prepared by someone else a moment ago. Look at it again.`,
+          );
+        throw err;
+      }
       await recordAudit(
         actor,
         "snapshot.prepare",
@@ -249,6 +257,8 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     row.historyJson = withEvent(row, event(actor, "approved", body.comment));
     row.version = row.version + 1;
     await row.save({ transaction });
+    // The quarter's determination is frozen with the snapshot: approved, never recomputed.
+    await refreshDeterminations(entity.id, transaction);
     await recordAudit(
       actor,
       "snapshot.approve",
@@ -314,4 +324,7 @@ export async function recordFiled(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
     { transaction },
   );
+  // Its determination is filed too (only the status moves; the entity is not locked here, as the
+  // snapshot already is and the lock order puts the entity first).
+  await DeterminationModel.update({ status: "filed" }, { where: { snapshotId: row.id }, transaction });
 }

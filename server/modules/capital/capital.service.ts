@@ -15,11 +15,11 @@ import { type CapitalHistoryItem } from "../../../shared/schemas/capital";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
 import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
+import { entityByCode } from "../../kit/lookups";
 
 /** The entity's top-of-house portfolio with its current data, calendar and approved exclusions. */
 async function topOf(code: string): Promise<{ entity: EntityModel; ctx: PortfolioContext; latest: string }> {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const entity = await entityByCode(code);
   const top = await PortfolioModel.findOne({ where: { entityId: entity.id, level: "top" }, order: [["code", "ASC"]] });
   if (!top) throw new NotFoundError(`${code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
   const ctx = await loadPortfolioContext(top.code);
@@ -117,8 +117,7 @@ export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySc
 
 /** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
 export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const entity = await entityByCode(code);
   const rows = await SnapshotModel.findAll({
     where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
     order: [["quarterEnd", "ASC"]],

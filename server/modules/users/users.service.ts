@@ -1,5 +1,5 @@
 import { UserModel } from "../../models/user";
-import { AppError, ConflictError, NotFoundError, ForbiddenError } from "../../errors";
+import { ConflictError, NotFoundError, ForbiddenError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { hashPassword } from "../auth/auth.service";
 import { revokeApiTokensOf } from "../api-tokens/api-tokens.service";
@@ -8,6 +8,7 @@ import { sequelize } from "../../db/sequelize";
 import type { Transaction } from "sequelize";
 import type { SignedIn } from "../../kit/actor";
 import type { CreateUserBody, ResetPasswordBody, UpdateUserBody, User } from "../../../shared/schemas/user";
+import { checkVersion } from "../../kit/stale";
 
 function toUser(row: UserModel): User {
   return {
@@ -40,16 +41,10 @@ async function findUser(id: number): Promise<UserModel> {
 async function lockUserAtVersion(id: number, version: number, transaction: Transaction): Promise<UserModel> {
   const row = await UserModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!row) throw new NotFoundError(`No user with id ${id}.`);
-  if (row.version !== version) {
-    throw new AppError(
-      409,
-      "stale",
-      `Someone else changed ${row.name} (${row.email}) since you opened the list (now version ${row.version}). Look at the user again and apply your change if it is still needed.`,
-      {
-        current: toUser(row),
-      },
-    );
-  }
+  await checkVersion(row.version, version, () => ({
+    message: `Someone else changed ${row.name} (${row.email}) since you opened the list (now version ${row.version}). Look at the user again and apply your change if it is still needed.`,
+    current: toUser(row),
+  }));
   return row;
 }
 

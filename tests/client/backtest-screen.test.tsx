@@ -188,7 +188,7 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
             ? {
                 status: 409,
                 body: {
-                  error: { code: "stale_version", message: "Someone else saved first", details: { current: theirs } },
+                  error: { code: "stale", message: "Someone else saved first", details: { current: theirs } },
                 },
               }
             : { status: 200, body: { ...theirs, ...(body as object), version: 5 } };

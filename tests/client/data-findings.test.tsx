@@ -114,7 +114,7 @@ describe("Data › data-quality findings", () => {
           status: 409,
           body: {
             error: {
-              code: "conflict",
+              code: "stale",
               message: "Finding #1 was changed by someone else (now version 4); reload and try again.",
             },
           },

@@ -4,7 +4,8 @@ import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { HolidayModel } from "../../models/holiday";
 import { RegulatorAssignmentModel } from "../../models/regulator-assignment";
-import { ConflictError, NotFoundError } from "../../errors";
+import { AppError, ConflictError, NotFoundError } from "../../errors";
+import { createInitialSettings, hasGovernedSettings } from "../settings/settings.service";
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
@@ -21,6 +22,7 @@ import type {
 } from "../../../shared/schemas/entity";
 import { checkVersion } from "../../kit/stale";
 import { entityByCode } from "../../kit/lookups";
+import { refreshDeterminations } from "../determinations/determinations.store";
 
 export function toEntity(row: EntityModel): Entity {
   return {
@@ -81,6 +83,8 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
         },
         { transaction },
       );
+      // The P&L basis and the addend become the entity's first governed settings record.
+      await createInitialSettings(row, transaction);
       const entity = toEntity(row);
       await recordAudit(actor, "entity.create", entity.code, { after: entity }, transaction);
       return entity;
@@ -100,6 +104,18 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
       current: toEntity(row),
     }));
     const before = toEntity(row);
+    const governed =
+      (change.pnlBasis !== undefined && change.pnlBasis !== row.pnlBasis) ||
+      (change.qualitativeAddend !== undefined && change.qualitativeAddend !== row.qualitativeAddend);
+    if (governed && (await hasGovernedSettings(row.id, transaction))) {
+      throw new AppError(
+        422,
+        "settings_governed",
+        `The P&L basis and the qualitative addend of ${code} are supervisory settings: an admin proposes a change with the supervisor's decision reference and its effective date under Admin › Supervisory settings, and a CRO approves it.`,
+        { fields: { pnlBasis: "Governed setting", qualitativeAddend: "Governed setting" } },
+      );
+    }
+    const regimeChanged = change.regime !== undefined && change.regime !== row.regime;
     row.version = row.version + 1;
     if (change.name !== undefined) row.name = change.name;
     if (change.regime !== undefined) row.regime = change.regime;
@@ -109,6 +125,7 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
     if (change.supervisorName !== undefined) row.supervisorName = change.supervisorName;
     if (change.supervisorEmails !== undefined) row.supervisorEmails = change.supervisorEmails;
     await row.save({ transaction });
+    if (regimeChanged) await refreshDeterminations(row.id, transaction);
     const entity = toEntity(row);
     await recordAudit(actor, "entity.update", code, { before, after: entity }, transaction);
     return entity;
@@ -195,6 +212,7 @@ export async function addHoliday(code: string, input: CreateHolidayBody, actor: 
     const holiday = toHoliday(row);
     await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday
+    await refreshDeterminations(entity.id, transaction); // a quarter's last business day may move
     return holiday;
   });
 }
@@ -208,5 +226,6 @@ export async function removeHoliday(code: string, date: string, actor: SignedIn)
     await row.destroy({ transaction });
     await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // the day is a business day again: data may be missing
+    await refreshDeterminations(entity.id, transaction);
   });
 }

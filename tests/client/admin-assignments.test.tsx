@@ -12,10 +12,14 @@ const regulator = {
   disabled: false,
   createdAt: "2026-01-01T00:00:00Z",
   lastSignInAt: null,
+  passwordSet: true,
   version: 1,
 };
 const analyst = { ...regulator, id: 6, email: "analyst@larkspur.test", name: "Ana Lyst", role: "analyst" };
-const entities = [larkspurEU, larkspurUS];
+const entities = [
+  { ...larkspurEU, passwordSet: true },
+  { ...larkspurUS, passwordSet: true },
+];
 
 describe("Admin › Regulator access", () => {
   it("grants a regulator access to an entity and removes it again", async () => {

@@ -1,16 +1,21 @@
 import { createHash } from "node:crypto";
 import stableStringify from "fast-json-stable-stringify";
-import { AppError, NotFoundError } from "../../errors";
 import { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { backtestAt } from "../../../shared/backtest/exceptions";
 import { capitalAddOn, capitalRequirement } from "../../../shared/backtest/capital";
-import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { loadSeries } from "../observations/observations.repository";
-import { deskResults } from "./backtest.service";
-import { loadPortfolioContext } from "./portfolio-context";
+import { deskResults } from "../figures/stored-figures";
+import {
+  assertQuarterComplete,
+  cents,
+  contextOf,
+  engineOptions,
+  headlinePortfolio,
+  noHeadlineError,
+} from "../figures/engine-inputs";
 import { quarterLabel, type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import type { Observation } from "../../../shared/backtest/types";
 
@@ -43,33 +48,12 @@ const dayValues = (o: Observation) => [
  */
 export async function quarterFigures(entity: EntityModel, quarterEnd: string): Promise<QuarterFigures> {
   const portfolios = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["code", "ASC"]] });
-  const top = portfolios.find((p) => p.level === "top");
-  if (!top)
-    throw new NotFoundError(`${entity.code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
-  const ctx = await loadPortfolioContext(top.code);
+  const top = headlinePortfolio(portfolios);
+  if (!top) throw noHeadlineError(entity.code);
+  const ctx = await contextOf(top, entity);
+  const asOf = assertQuarterComplete(ctx, quarterEnd);
   const series = ctx.series.filter((o) => o.date <= quarterEnd);
-  const lastBusinessDay = isBusinessDay(quarterEnd, ctx.holidays)
-    ? quarterEnd
-    : addBusinessDays(quarterEnd, -1, ctx.holidays);
-  const reported = [...series]
-    .reverse()
-    .find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
-  if (!reported || reported.date < lastBusinessDay) {
-    throw new AppError(
-      422,
-      "quarter_data_incomplete",
-      `${top.code} has no daily data for ${lastBusinessDay}, the last business day of ${quarterLabel(quarterEnd)}${reported ? ` (its data ends on ${reported.date})` : ""}. Upload it under Data first.`,
-    );
-  }
-  const asOf = lastBusinessDay;
-  const opts = {
-    regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
-    asOf,
-    excludedDates: ctx.excludedDates,
-    qualitativeAddend: entity.qualitativeAddend,
-  };
-  const bt = backtestAt(series, opts);
+  const bt = backtestAt(series, engineOptions(entity, asOf, ctx.excludedDates));
 
   let capital: number | null = null;
   let addOn: number | null = null;
@@ -81,14 +65,14 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
       count: bt.exceptions.counted,
       qualitativeAddend: entity.qualitativeAddend,
     };
-    capital = Math.round(capitalRequirement(series, capitalOpts).requirement * 100) / 100;
-    addOn = Math.round(capitalAddOn(series, capitalOpts) * 100) / 100;
+    capital = cents(capitalRequirement(series, capitalOpts).requirement);
+    addOn = cents(capitalAddOn(series, capitalOpts));
   } catch (err) {
     if (!(err instanceof EngineInputError)) throw err;
     capitalNote = `No capital figure: ${err.message}`;
   }
 
-  const desks = await deskResults(ctx, asOf);
+  const desks = await deskResults(ctx, asOf, portfolios);
   const figures: SnapshotFigures = {
     portfolio: top.code,
     regime: entity.regime,

@@ -1,95 +1,72 @@
 import { AppError, NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
-import { backtestAt } from "../../../shared/backtest/exceptions";
-import { forecastAt } from "../../../shared/backtest/forecast";
 import { whatIf } from "../../../shared/backtest/what-if";
-import { marginalCostOfNextException } from "../../../shared/backtest/capital";
-import { EngineInputError } from "../../../shared/backtest/errors";
-import { loadPortfolioContext, type PortfolioContext } from "../backtest/portfolio-context";
+import {
+  contextOf,
+  engineOptions,
+  headlinePortfolio,
+  noHeadlineError,
+  type PortfolioContext,
+} from "../figures/engine-inputs";
+import {
+  defaultForecastDate,
+  forecastResponse,
+  noDataError,
+  storedByCode,
+  type StoredForecast,
+} from "../figures/stored-figures";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
-import { quarterEndOf } from "../../../shared/schemas/snapshot";
 import type { z } from "zod";
 import type { whatIfBodySchema } from "../../../shared/schemas/capital";
 
-/** The entity's top-of-house portfolio with its current data, calendar and approved exclusions. */
-async function topOf(code: string): Promise<{ entity: EntityModel; ctx: PortfolioContext; latest: string }> {
+/** The entity's headline portfolio. */
+async function headlineOf(code: string): Promise<{ entity: EntityModel; top: PortfolioModel }> {
   const entity = await EntityModel.findOne({ where: { code } });
   if (!entity) throw new NotFoundError(`No entity ${code}.`);
-  const top = await PortfolioModel.findOne({ where: { entityId: entity.id, level: "top" }, order: [["code", "ASC"]] });
-  if (!top) throw new NotFoundError(`${code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
-  const ctx = await loadPortfolioContext(top.code);
-  if (ctx.series.length === 0)
-    throw new AppError(404, "no_data", `No daily data for ${top.code} yet. An analyst uploads it under Data.`);
-  return { entity, ctx, latest: ctx.series[ctx.series.length - 1].date };
+  const top = headlinePortfolio(await PortfolioModel.findAll({ where: { entityId: entity.id, level: "top" } }));
+  if (!top) throw noHeadlineError(code);
+  return { entity, top };
 }
 
-/** The current quarter's end, or the next one when the data already reaches it. */
-function defaultForecastDate(latest: string): string {
-  const end = quarterEndOf(new Date().toISOString().slice(0, 10));
-  if (end > latest) return end;
-  const next = new Date(`${latest}T00:00:00Z`);
-  next.setUTCDate(next.getUTCDate() + 1);
-  return quarterEndOf(next.toISOString().slice(0, 10));
+/** The headline portfolio with its current data, calendar and approved exclusions. */
+async function headlineContext(code: string): Promise<{ ctx: PortfolioContext; latest: string }> {
+  const { entity, top } = await headlineOf(code);
+  const ctx = await contextOf(top, entity);
+  if (ctx.series.length === 0) throw noDataError(top.code);
+  return { ctx, latest: ctx.series[ctx.series.length - 1].date };
 }
 
-const orNull = <T>(compute: () => T): T | null => {
-  try {
-    return compute();
-  } catch (err) {
-    if (err instanceof EngineInputError) return null;
-    throw err;
-  }
-};
-
-/** Where the entity's count may stand at a future date, and what the next exception would cost today. */
-export async function getForecast(code: string, query: { date?: string }): Promise<ForecastResponse> {
-  const { entity, ctx, latest } = await topOf(code);
-  const opts = {
-    regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
-    asOf: latest,
-    excludedDates: ctx.excludedDates,
-    qualitativeAddend: entity.qualitativeAddend,
-  };
-  const date = query.date ?? defaultForecastDate(latest);
+function refuseBeforeLatest(date: string, latest: string, portfolio: string): void {
   if (date < latest) {
     throw new AppError(
       422,
       "validation_failed",
-      `The forecast date ${date} is before the as-of date ${latest}, the last day with data of ${ctx.portfolio.code}.`,
+      `The forecast date ${date} is before the as-of date ${latest}, the last day with data of ${portfolio}.`,
       { fields: { date: `On or after ${latest}` } },
     );
   }
-  const forecast = forecastAt(ctx.series, { ...opts, date, holidays: ctx.holidays });
-  const today = backtestAt(ctx.series, opts);
-  return {
-    entity: entity.code,
-    portfolio: ctx.portfolio.code,
-    regime: entity.regime,
-    currency: entity.currency,
-    ...forecast,
-    nextExceptionCost: orNull(() =>
-      marginalCostOfNextException(ctx.series, {
-        regime: entity.regime,
-        asOf: latest,
-        count: today.exceptions.counted,
-        qualitativeAddend: entity.qualitativeAddend,
-      }),
-    ),
-    today: {
-      counted: today.exceptions.counted,
-      zone: today.zone,
-      plusFactor: today.plusFactor,
-      multiplier: today.multiplier,
-      windowComplete: today.window.complete,
-    },
-  };
 }
 
-/** The figures with extra exceptions and VaR / stressed VaR scaled (docs/rules.md#what-if), against today's. */
+/**
+ * Where the entity's count may stand at a future date, and what the next exception would cost
+ * today. The default date's forecast is the stored one; another date is computed.
+ */
+export async function getForecast(code: string, query: { date?: string }): Promise<ForecastResponse> {
+  const { top } = await headlineOf(code);
+  const stored = await storedByCode(top.code, ["forecast_json"]);
+  if (!stored.asOf || !stored.forecast_json) throw noDataError(top.code);
+  const forecast = JSON.parse(stored.forecast_json) as StoredForecast;
+  const date = query.date ?? defaultForecastDate(stored.asOf);
+  refuseBeforeLatest(date, stored.asOf, top.code);
+  if (date === forecast.date) return forecast.response;
+  const { ctx } = await headlineContext(code);
+  return forecastResponse(ctx, date);
+}
+
+/** The figures with extra exceptions and VaR / stressed VaR scaled, against today's. */
 export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySchema>): Promise<WhatIfResponse> {
-  const { entity, ctx, latest } = await topOf(code);
+  const { ctx, latest } = await headlineContext(code);
   const asOf = body.asOf ?? latest;
   if (asOf > latest)
     throw new AppError(
@@ -99,14 +76,10 @@ export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySc
       { fields: { asOf: `At most ${latest}` } },
     );
   const result = whatIf(ctx.series, {
-    regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
-    asOf,
-    excludedDates: ctx.excludedDates,
-    qualitativeAddend: entity.qualitativeAddend,
+    ...engineOptions(ctx.entity, asOf, ctx.excludedDates),
     extraExceptions: body.extraExceptions,
     varScale: body.varScale,
     svarScale: body.svarScale,
   });
-  return { entity: entity.code, portfolio: ctx.portfolio.code, currency: entity.currency, asOf, ...result };
+  return { entity: ctx.entity.code, portfolio: ctx.portfolio.code, currency: ctx.entity.currency, asOf, ...result };
 }

@@ -1,4 +1,5 @@
 import { UniqueConstraintError, type Transaction } from "sequelize";
+import { refreshEntityFigures } from "../figures/stored-figures";
 import { refreshFindings } from "../findings/findings.service";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
@@ -94,7 +95,11 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
 }
 
 export async function updateEntity(code: string, change: UpdateEntityBody, actor: SignedIn): Promise<Entity> {
+  const found = await EntityModel.findOne({ where: { code }, attributes: ["id"] });
+  if (!found) throw new NotFoundError(`No entity with code ${code}.`);
   return sequelize.transaction(async (transaction) => {
+    // Portfolios before the entity, the order every writer and sign-off takes them.
+    await lockEntityPortfolios(found.id, transaction);
     const row = await EntityModel.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw new NotFoundError(`No entity with code ${code}.`);
     if (row.version !== change.version) {
@@ -117,6 +122,7 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
     await row.save({ transaction });
     const entity = toEntity(row);
     await recordAudit(actor, "entity.update", code, { before, after: entity }, transaction);
+    await refreshEntityFigures([row.id], transaction); // rule set, P&L basis, addend and names feed the figures
     return entity;
   });
 }
@@ -146,6 +152,7 @@ export async function createPortfolio(code: string, input: CreatePortfolioBody, 
     );
     const portfolio = toPortfolio(row);
     await recordAudit(actor, "portfolio.create", `${code}/${portfolio.code}`, { after: portfolio }, transaction);
+    await refreshEntityFigures([entity.id], transaction); // a new top book may become the headline
     return portfolio;
   });
 }
@@ -158,6 +165,7 @@ export async function renamePortfolio(
 ): Promise<Portfolio> {
   const entity = await findEntity(code);
   return sequelize.transaction(async (transaction) => {
+    await lockEntityPortfolios(entity.id, transaction);
     const row = await PortfolioModel.findOne({
       where: { entityId: entity.id, code: portfolioCode },
       transaction,
@@ -169,6 +177,7 @@ export async function renamePortfolio(
     await row.save({ transaction });
     const portfolio = toPortfolio(row);
     await recordAudit(actor, "portfolio.update", `${code}/${portfolioCode}`, { before, after: portfolio }, transaction);
+    await refreshEntityFigures([entity.id], transaction); // the stored figures carry the name
     return portfolio;
   });
 }
@@ -201,6 +210,7 @@ export async function addHoliday(code: string, input: CreateHolidayBody, actor: 
     const holiday = toHoliday(row);
     await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday
+    await refreshEntityFigures([entity.id], transaction); // roll-offs, forecasts and FRTB windows follow the calendar
     return holiday;
   });
 }
@@ -214,5 +224,6 @@ export async function removeHoliday(code: string, date: string, actor: SignedIn)
     await row.destroy({ transaction });
     await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // the day is a business day again: data may be missing
+    await refreshEntityFigures([entity.id], transaction);
   });
 }

@@ -62,7 +62,7 @@ export const paths = {
       return `/backtest/${encodeURIComponent(portfolio)}${qs ? `?${qs}` : ""}`;
     },
   },
-  quarters: {
+  snapshots: {
     path: "/quarters",
     roles: quarterReaders,
     label: "Quarter close",
@@ -140,7 +140,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "overview", group: "main" },
   { key: "backtestIndex", group: "main" },
   { key: "data", group: "main" },
-  { key: "quarters", group: "main" },
+  { key: "snapshots", group: "main" },
   { key: "capital", group: "main" },
   { key: "filings", group: "main" },
   { key: "tokens", group: "main" },

@@ -1,7 +1,7 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { PortfolioModel } from "../../models/portfolio";
-import { reviewsByDate } from "../exceptions/reviews.read";
+import { reviewsByDate } from "../reviews/reviews.read";
 import { loadPortfolioContext } from "../figures/engine-inputs";
 import {
   backtestResponse,

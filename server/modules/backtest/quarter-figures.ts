@@ -16,7 +16,7 @@ import {
   headlinePortfolio,
   noHeadlineError,
 } from "../figures/engine-inputs";
-import { quarterLabel, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import type { Observation } from "../../../shared/backtest/types";
 
 export interface QuarterFigures {

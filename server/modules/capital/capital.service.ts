@@ -16,9 +16,13 @@ import {
   storedByCode,
   type StoredForecast,
 } from "../figures/stored-figures";
-import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
+import type { ForecastResponse, WhatIfResponse, whatIfBodySchema } from "../../../shared/schemas/capital";
+import { SnapshotModel } from "../../models/snapshot";
+import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { type CapitalHistoryItem } from "../../../shared/schemas/capital";
+import { readsSignedOffOnly } from "../snapshots/snapshots.read";
+import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
-import type { whatIfBodySchema } from "../../../shared/schemas/capital";
 
 /** The entity's headline portfolio. */
 async function headlineOf(code: string): Promise<{ entity: EntityModel; top: PortfolioModel }> {
@@ -82,4 +86,27 @@ export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySc
     svarScale: body.svarScale,
   });
   return { entity: ctx.entity.code, portfolio: ctx.portfolio.code, currency: ctx.entity.currency, asOf, ...result };
+}
+
+/** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
+export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const rows = await SnapshotModel.findAll({
+    where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
+    order: [["quarterEnd", "ASC"]],
+  });
+  return rows.map((r) => ({
+    quarterEnd: r.quarterEnd,
+    status: r.status,
+    zone: r.zone,
+    counted: r.counted,
+    plusFactor: r.plusFactor,
+    multiplier: r.multiplier,
+    capital: r.capital,
+    addOn: r.addOn,
+    snapshotId: r.id,
+    restatedAfterSignOff: r.restatedAt !== null,
+    windowComplete: (JSON.parse(r.figuresJson) as SnapshotFigures).window.complete,
+  }));
 }

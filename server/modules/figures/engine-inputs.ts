@@ -15,7 +15,7 @@ import type { BacktestOptions } from "../../../shared/backtest/types";
 import { getRegime } from "../../../shared/backtest/regimes";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
-import { quarterLabel } from "../../../shared/schemas/snapshot";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 
 export interface PortfolioContext {
   portfolio: PortfolioModel;

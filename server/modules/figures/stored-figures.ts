@@ -24,7 +24,7 @@ import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { loadSeries } from "../observations/observations.repository";
-import { quarterEndOf } from "../../../shared/schemas/snapshot";
+import { quarterEndOf } from "../../../shared/backtest/quarters";
 import type { BacktestResponse, DeskResult, OverviewItem, RollingRowDto } from "../../../shared/schemas/backtest";
 import type { ForecastResponse } from "../../../shared/schemas/capital";
 import type { Observation } from "../../../shared/backtest/types";

@@ -11,14 +11,12 @@ import { MailNotSentError, sendMail, type OutgoingMail } from "../../mail/mailer
 import { toSessionUser } from "../auth/auth.service";
 import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pack";
 import { recordAudit } from "../audit/audit.service";
-import { getSnapshot, lockForFiling, recordFiled, verifySnapshot } from "../snapshots/snapshots.service";
-import { quarterLabel } from "../../../shared/schemas/snapshot";
+import { lockForFiling, recordFiled } from "../snapshots/snapshots.service";
+import { verifySnapshot } from "../snapshots/snapshots.chain";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import { CAUTION } from "../../../shared/schemas/common";
 import type { Filing, FilingVerify } from "../../../shared/schemas/filing";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
 
@@ -340,10 +338,4 @@ export async function verifyFiling(id: number, actor: SignedIn): Promise<FilingV
       ? `The pack is the file that was sent, and its snapshot verifies: ${chain.detail}`
       : `The pack is the file that was sent, but its snapshot does not verify: ${chain.detail}`,
   };
-}
-
-/** The pack of any snapshot, for the reporting office to read before filing (drafts say so on the page). */
-export async function snapshotPack(id: number, actor: SignedIn): Promise<{ fileName: string; bytes: Buffer }> {
-  const snapshot = await getSnapshot(id, actor);
-  return { fileName: snapshotPackFileName(snapshot), bytes: await renderSnapshotPack(snapshot) };
 }

@@ -1,157 +1,28 @@
-import { createHash } from "node:crypto";
-import stableStringify from "fast-json-stable-stringify";
-import { Op, type Transaction } from "sequelize";
+import { type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
-import { UserModel } from "../../models/user";
 import { recordAudit } from "../audit/audit.service";
-import { countOpenFindings } from "../findings/findings.service";
 import { quarterFigures } from "../backtest/quarter-figures";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import {
-  SIGNED_OFF,
-  quarterLabel,
-  quarterStart,
-  type CapitalHistoryItem,
   type CreateSnapshotBody,
   type ReturnSnapshotBody,
   type Snapshot,
   type SnapshotActionBody,
-  type SnapshotEvent,
-  type SnapshotFigures,
-  type SnapshotVerify,
 } from "../../../shared/schemas/snapshot";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
+import { snapshotEvent as event, withEvent } from "./snapshot-events";
+import { chainOf, hashedContent, sha256 } from "./snapshots.chain";
+import type { SignedIn } from "../../kit/actor";
 
-type SignedIn = Actor & { user: SessionUser };
-
-/** Treasury reads signed-off figures only (docs/architecture.md#roles). */
-const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";
+// The sign-off: an analyst prepares and submits a past quarter, a CRO approves (sealing it into the
+// entity's hash chain) or returns it; filing then locks and marks it.
 
 const today = () => new Date().toISOString().slice(0, 10);
-
-// ---- reading ---------------------------------------------------------------------------------
-
-async function emailsOf(ids: (number | null)[]): Promise<Map<number, string>> {
-  const wanted = [...new Set(ids.filter((v): v is number => v !== null))];
-  if (wanted.length === 0) return new Map();
-  return new Map(
-    (await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
-  );
-}
-
-async function openFindingsInQuarter(entityId: number, quarterEnd: string, transaction?: Transaction): Promise<number> {
-  const portfolios = await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction });
-  return countOpenFindings(
-    portfolios.map((p) => p.id),
-    quarterStart(quarterEnd),
-    quarterEnd,
-  );
-}
-
-async function toDto(row: SnapshotModel, entity?: EntityModel): Promise<Snapshot> {
-  const owner = entity ?? (await EntityModel.findByPk(row.entityId))!;
-  const history = JSON.parse(row.historyJson) as SnapshotEvent[];
-  const emails = await emailsOf([row.preparedBy, row.submittedBy, row.approvedBy]);
-  const figures = JSON.parse(row.figuresJson) as SnapshotFigures;
-  return {
-    id: row.id,
-    entity: owner.code,
-    entityName: owner.name,
-    quarterEnd: row.quarterEnd,
-    status: row.status,
-    zone: row.zone,
-    counted: row.counted,
-    plusFactor: row.plusFactor,
-    multiplier: row.multiplier,
-    capital: row.capital,
-    addOn: row.addOn,
-    figures,
-    inputsSha256: row.inputsSha256,
-    engineVersion: row.engineVersion,
-    preparedBy: emails.get(row.preparedBy) ?? "unknown",
-    preparedAt: row.preparedAt.toISOString(),
-    submittedBy: row.submittedBy ? (emails.get(row.submittedBy) ?? "unknown") : null,
-    submittedAt: row.submittedAt ? row.submittedAt.toISOString() : null,
-    approvedBy: row.approvedBy ? (emails.get(row.approvedBy) ?? "unknown") : null,
-    approvedAt: row.approvedAt ? row.approvedAt.toISOString() : null,
-    history,
-    prevHash: row.prevHash,
-    hash: row.hash,
-    restatedAfterSignOff: row.restatedAt
-      ? { at: row.restatedAt.toISOString(), detail: row.restatementDetail ?? "" }
-      : null,
-    openFindings: await openFindingsInQuarter(row.entityId, row.quarterEnd),
-    version: row.version,
-  };
-}
-
-export async function listSnapshots(query: { entity?: string }, actor: SignedIn): Promise<Snapshot[]> {
-  const where: Record<string, unknown> = {};
-  if (query.entity) {
-    const entity = await EntityModel.findOne({ where: { code: query.entity } });
-    if (!entity) throw new NotFoundError(`No entity ${query.entity}.`);
-    where.entityId = entity.id;
-  }
-  if (readsSignedOffOnly(actor)) where.status = [...SIGNED_OFF];
-  const rows = await SnapshotModel.findAll({
-    where,
-    order: [
-      ["quarterEnd", "DESC"],
-      ["entityId", "ASC"],
-    ],
-  });
-  return Promise.all(rows.map((r) => toDto(r)));
-}
-
-export async function getSnapshot(id: number, actor: SignedIn): Promise<Snapshot> {
-  const row = await SnapshotModel.findByPk(id);
-  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status)))
-    throw new NotFoundError(`No snapshot #${id}.`);
-  return toDto(row);
-}
-
-/** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
-export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity ${code}.`);
-  const rows = await SnapshotModel.findAll({
-    where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
-    order: [["quarterEnd", "ASC"]],
-  });
-  return rows.map((r) => ({
-    quarterEnd: r.quarterEnd,
-    status: r.status,
-    zone: r.zone,
-    counted: r.counted,
-    plusFactor: r.plusFactor,
-    multiplier: r.multiplier,
-    capital: r.capital,
-    addOn: r.addOn,
-    snapshotId: r.id,
-    restatedAfterSignOff: r.restatedAt !== null,
-    windowComplete: (JSON.parse(r.figuresJson) as SnapshotFigures).window.complete,
-  }));
-}
-
-// ---- the sign-off ----------------------------------------------------------------------------
-
-function event(actor: SignedIn, action: SnapshotEvent["action"], comment?: string | null): SnapshotEvent {
-  return {
-    at: new Date().toISOString(),
-    by: actor.user.email,
-    action,
-    comment: comment?.trim() ? comment.trim() : null,
-  };
-}
-
-function withEvent(row: SnapshotModel, e: SnapshotEvent): string {
-  return JSON.stringify([...(JSON.parse(row.historyJson) as SnapshotEvent[]), e]);
-}
 
 /** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
 async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
@@ -180,7 +51,7 @@ async function lockSnapshot(
       "stale",
       `Snapshot #${id} changed since you opened it (now version ${row.version}). Look at it again before acting.`,
       {
-        current: await toDto(row),
+        current: await snapshotDto(row),
       },
     );
   }
@@ -310,7 +181,7 @@ export async function prepareSnapshot(
         transaction,
       );
     }
-    return { created: !existing, snapshot: await toDto(row, entity) };
+    return { created: !existing, snapshot: await snapshotDto(row, entity) };
   });
 }
 
@@ -338,50 +209,7 @@ export async function submitSnapshot(id: number, body: SnapshotActionBody, actor
       { before: { status: "draft" }, after: { status: "submitted", comment: body.comment ?? null } },
       transaction,
     );
-    return toDto(row, entity);
-  });
-}
-
-/** What the hash of a signed-off snapshot covers, in a canonical form. */
-function hashedContent(row: SnapshotModel, entity: EntityModel) {
-  return stableStringify({
-    entity: entity.code,
-    quarterEnd: row.quarterEnd,
-    figures: row.figuresJson,
-    // The headline columns that lists, the capital history and filings read, as stored.
-    zone: row.zone,
-    counted: row.counted,
-    plusFactor: row.plusFactor,
-    multiplier: row.multiplier,
-    capital: row.capital,
-    addOn: row.addOn,
-    windowStart: row.windowStart,
-    asOf: row.asOf,
-    inputsSha256: row.inputsSha256,
-    engineVersion: row.engineVersion,
-    preparedBy: row.preparedBy,
-    preparedAt: row.preparedAt.toISOString(),
-    submittedBy: row.submittedBy,
-    approvedBy: row.approvedBy,
-    approvedAt: row.approvedAt?.toISOString() ?? null,
-    prevHash: row.prevHash,
-  });
-}
-const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
-
-/**
- * The entity's signed-off snapshots in the order they were approved: the hash chain. Inside an
- * approval it is a locking read, so it sees an approval that committed while this one waited.
- */
-async function chainOf(entityId: number, transaction?: Transaction): Promise<SnapshotModel[]> {
-  return SnapshotModel.findAll({
-    where: { entityId, hash: { [Op.ne]: null } },
-    order: [
-      ["approvedAt", "ASC"],
-      ["id", "ASC"],
-    ],
-    transaction,
-    ...(transaction ? { lock: transaction.LOCK.SHARE } : {}),
+    return snapshotDto(row, entity);
   });
 }
 
@@ -428,7 +256,7 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
       },
       transaction,
     );
-    return toDto(row, entity);
+    return snapshotDto(row, entity);
   });
 }
 
@@ -452,7 +280,7 @@ export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor
       { before: { status: "submitted" }, after: { status: "returned", comment: body.comment } },
       transaction,
     );
-    return toDto(row, entity);
+    return snapshotDto(row, entity);
   });
 }
 
@@ -468,7 +296,7 @@ export async function lockForFiling(
   if (row.status === "filed") throw new ConflictError(`Snapshot #${id} is already filed.`);
   if (row.status !== "approved")
     throw new ConflictError(`Snapshot #${id} is ${row.status}; only an approved snapshot can be filed.`);
-  const dto = await toDto(row, entity);
+  const dto = await snapshotDto(row, entity);
   return { row, entity, asFiled: { ...dto, status: "filed" } };
 }
 
@@ -482,165 +310,5 @@ export async function recordFiled(
   await row.update(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
     { transaction },
-  );
-}
-
-/** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */
-export async function verifySnapshot(id: number, actor: SignedIn): Promise<SnapshotVerify> {
-  const row = await SnapshotModel.findByPk(id);
-  if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status)))
-    throw new NotFoundError(`No snapshot #${id}.`);
-  if (!row.hash)
-    return { valid: false, hash: null, prevHash: null, detail: "Not signed off yet: there is no hash to verify." };
-  const entity = (await EntityModel.findByPk(row.entityId))!;
-  const recomputed = sha256(hashedContent(row, entity));
-  if (recomputed !== row.hash) {
-    return {
-      valid: false,
-      hash: row.hash,
-      prevHash: row.prevHash,
-      detail: `The stored content no longer gives the stored hash (it gives ${recomputed.slice(0, 12)}…): the snapshot was altered after approval.`,
-    };
-  }
-  const chain = await chainOf(row.entityId);
-  const at = chain.findIndex((s) => s.id === row.id);
-  const expectedPrev = at > 0 ? chain[at - 1].hash : null;
-  if (row.prevHash !== expectedPrev) {
-    return {
-      valid: false,
-      hash: row.hash,
-      prevHash: row.prevHash,
-      detail: "The link to the previously approved snapshot does not match: the chain was altered.",
-    };
-  }
-  return {
-    valid: true,
-    hash: row.hash,
-    prevHash: row.prevHash,
-    detail: `The hash matches the stored figures and inputs, and links to ${expectedPrev ? "the snapshot approved before it" : "nothing before it (the first approved snapshot of the entity)"}.`,
-  };
-}
-
-// ---- restatements after sign-off ---------------------------------------------------------------
-
-/** A day an upload writes: version 1 is a day stored for the first time, a higher one restates a stored day. */
-export interface WrittenDay {
-  portfolioId: number;
-  version: number;
-  row: { date: string };
-}
-
-type Change = { portfolioId: number; date: string; kind: "restated" | "added" | "exclusion decided" };
-
-const CHANGE_WORDS: Record<Change["kind"], string> = {
-  restated: "restated",
-  added: "added where there was no data",
-  "exclusion decided": "with an exclusion decided",
-};
-
-/** The signed-off snapshots of the entities these portfolios belong to, locked, with each portfolio's entity and code. */
-async function signedOffOf(portfolioIds: number[], transaction: Transaction) {
-  const portfolios = await PortfolioModel.findAll({
-    where: { id: portfolioIds },
-    attributes: ["id", "entityId", "code"],
-    transaction,
-  });
-  const entityIds = [...new Set(portfolios.map((p) => p.entityId))];
-  const snapshots = entityIds.length
-    ? await SnapshotModel.findAll({
-        where: { entityId: entityIds, status: [...SIGNED_OFF] },
-        transaction,
-        lock: transaction.LOCK.UPDATE,
-      })
-    : [];
-  return {
-    snapshots,
-    entityOf: new Map(portfolios.map((p) => [p.id, p.entityId])),
-    codeOf: new Map(portfolios.map((p) => [p.id, p.code])),
-  };
-}
-
-/**
- * Flags every signed-off snapshot whose window holds one of the changed days (in the caller's
- * transaction). Its figures stay as approved; the flag says which days changed, how and by what.
- */
-async function flagSignedOff(
-  found: Awaited<ReturnType<typeof signedOffOf>>,
-  changes: readonly Change[],
-  source: string,
-  actor: SignedIn,
-  transaction: Transaction,
-): Promise<number> {
-  let flagged = 0;
-  for (const snapshot of found.snapshots) {
-    // A short window reaches back to the first day there is: a day added before it would join it.
-    const complete = (JSON.parse(snapshot.figuresJson) as SnapshotFigures).window.complete;
-    const from = complete ? (snapshot.windowStart ?? snapshot.asOf) : "0000-01-01";
-    const days = changes.filter(
-      (k) => k.date >= from && k.date <= snapshot.quarterEnd && found.entityOf.get(k.portfolioId) === snapshot.entityId,
-    );
-    if (days.length === 0) continue;
-    const counts = (Object.keys(CHANGE_WORDS) as Change["kind"][])
-      .map((kind) => [kind, days.filter((d) => d.kind === kind).length] as const)
-      .filter(([, n]) => n > 0);
-    const what = counts.map(([kind, n]) => `${n} ${CHANGE_WORDS[kind]}`).join(", ");
-    const listed = days
-      .slice(0, 5)
-      .map((k) => `${found.codeOf.get(k.portfolioId)} ${k.date}`)
-      .join(", ");
-    const line = `${days.length} day${days.length === 1 ? "" : "s"} inside this snapshot's window changed by ${source}: ${what} (${listed}${days.length > 5 ? ", …" : ""}).`;
-    await snapshot.update(
-      {
-        restatedAt: new Date(),
-        restatementDetail: snapshot.restatementDetail ? `${snapshot.restatementDetail}\n${line}` : line,
-        historyJson: withEvent(snapshot, { ...event(actor, "restated"), comment: line }),
-        version: snapshot.version + 1,
-      },
-      { transaction },
-    );
-    await recordAudit(
-      actor,
-      "snapshot.restated",
-      `snapshot #${snapshot.id}`,
-      { after: { source, ...Object.fromEntries(counts) } },
-      transaction,
-    );
-    flagged++;
-  }
-  return flagged;
-}
-
-/** An upload wrote days — restated them, or filled days that had no data: flags the signed-off snapshots whose window holds them. */
-export async function flagChangedSnapshots(
-  written: readonly WrittenDay[],
-  uploadId: number,
-  actor: SignedIn,
-  transaction: Transaction,
-): Promise<number> {
-  if (written.length === 0) return 0;
-  const found = await signedOffOf([...new Set(written.map((k) => k.portfolioId))], transaction);
-  if (found.snapshots.length === 0) return 0;
-  const changes = written.map((k): Change => ({
-    portfolioId: k.portfolioId,
-    date: k.row.date,
-    kind: k.version > 1 ? "restated" : "added",
-  }));
-  return flagSignedOff(found, changes, `upload #${uploadId}`, actor, transaction);
-}
-
-/** The CRO recorded the supervisor's decision on an exclusion: the signed-off snapshots whose window holds that day are flagged. */
-export async function flagExclusionDecision(
-  portfolioId: number,
-  date: string,
-  actor: SignedIn,
-  transaction: Transaction,
-): Promise<number> {
-  const found = await signedOffOf([portfolioId], transaction);
-  return flagSignedOff(
-    found,
-    [{ portfolioId, date, kind: "exclusion decided" }],
-    `the exclusion decision recorded for ${date}`,
-    actor,
-    transaction,
   );
 }

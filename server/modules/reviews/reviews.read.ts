@@ -1,0 +1,52 @@
+import { Op } from "sequelize";
+import { ExceptionReviewModel } from "../../models/exception-review";
+import { EvidenceFileModel } from "../../models/evidence-file";
+import { UserModel } from "../../models/user";
+import type { Review } from "../../../shared/schemas/review";
+
+/** Reviews of a portfolio's exception days (with their evidence), keyed by date. */
+export async function reviewsByDate(portfolioId: number, dates?: string[]): Promise<Map<string, Review>> {
+  const where = dates ? { portfolioId, businessDate: { [Op.in]: dates } } : { portfolioId };
+  const rows = await ExceptionReviewModel.findAll({ where });
+  if (rows.length === 0) return new Map();
+  const evidence = await EvidenceFileModel.findAll({
+    where: { reviewId: rows.map((r) => r.id) },
+    order: [["id", "ASC"]],
+  });
+  const userIds = new Set<number>();
+  for (const r of rows) {
+    userIds.add(r.reviewedBy);
+    if (r.decidedBy) userIds.add(r.decidedBy);
+  }
+  for (const e of evidence) userIds.add(e.uploadedBy);
+  const emails = new Map(
+    (await UserModel.findAll({ where: { id: [...userIds] }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+  );
+  const out = new Map<string, Review>();
+  for (const r of rows) {
+    out.set(r.businessDate, {
+      date: r.businessDate,
+      cause: r.cause,
+      narrative: r.narrative,
+      exclusionStatus: r.exclusionStatus,
+      decisionReference: r.decisionReference,
+      decisionDate: r.decisionDate,
+      decidedBy: r.decidedBy ? (emails.get(r.decidedBy) ?? null) : null,
+      reviewedBy: emails.get(r.reviewedBy) ?? "unknown",
+      reviewedAt: r.updatedAt.toISOString(),
+      version: r.version,
+      evidence: evidence
+        .filter((e) => e.reviewId === r.id)
+        .map((e) => ({
+          id: e.id,
+          fileName: e.fileName,
+          contentType: e.contentType,
+          sizeBytes: e.sizeBytes,
+          sha256: e.sha256,
+          uploadedBy: emails.get(e.uploadedBy) ?? "unknown",
+          uploadedAt: e.createdAt.toISOString(),
+        })),
+    });
+  }
+  return out;
+}

@@ -1,0 +1,284 @@
+import { useEffect } from "react";
+import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { type Snapshot } from "@shared/schemas/snapshot";
+import type { Role } from "@shared/schemas/common";
+import { paths } from "@/config/paths";
+import { authQueries } from "@/features/auth/api/auth-queries";
+import { entityQueries } from "@/features/entities/api/entity-queries";
+import { snapshotKeys, snapshotQueries } from "@/features/snapshots/api/snapshot-queries";
+import { filingQueries } from "@/features/filings/api/filing-queries";
+import { PrepareSnapshotForm } from "@/features/snapshots/components/prepare-snapshot-form";
+import { SnapshotDetail } from "@/features/snapshots/components/snapshot-detail";
+import { SnapshotListTable } from "@/features/snapshots/components/snapshot-list-table";
+import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
+import { plural } from "@/lib/format";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
+import { FormMessage, SelectField } from "@/components/ui/field";
+import { PageTitle } from "@/components/ui/page-title";
+import { EmptyState } from "@/components/ui/table";
+import { isApiError } from "@/lib/api-client";
+
+function screenParams(search: URLSearchParams): { entity?: string; snapshot?: number } {
+  const snapshot = Number(search.get("snapshot"));
+  return {
+    entity: search.get("entity")?.trim() || undefined,
+    snapshot: Number.isInteger(snapshot) && snapshot > 0 ? snapshot : undefined,
+  };
+}
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const { entity, snapshot } = screenParams(new URL(request.url).searchParams);
+    const [entities, opened] = await Promise.all([
+      queryClient.ensureQueryData(entityQueries.all()),
+      // A missing or refused snapshot is said inside the screen, not instead of it.
+      snapshot ? queryClient.ensureQueryData(snapshotQueries.detail(snapshot)).catch(() => undefined) : undefined,
+    ]);
+    // A snapshot belongs to one entity: an address naming another entity beside it follows the
+    // snapshot (the thing asked for by its id), so its figures never show under another entity's name.
+    if (opened && entity !== undefined && opened.entity !== entity)
+      throw redirect(paths.snapshots.href({ entity: opened.entity, snapshot: opened.id }));
+    const code = opened?.entity ?? entity ?? entities[0]?.code;
+    if (code) await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined);
+    return null;
+  };
+
+/** A pack kept for the mail server goes as soon as the server answers: the screen looks again this often until it has. */
+const PENDING_REREAD_MS = 15_000;
+
+const intro: Record<Role, string> = {
+  analyst:
+    "Freeze a quarter's figures as a draft, check them, and submit them for sign-off. A chief risk officer approves and seals them.",
+  cro: "Approve or return the quarters the analysts submit. Four eyes: you cannot approve a snapshot you prepared or submitted.",
+  treasury: "The quarters signed off by the chief risk officer, with their figures as approved. Read only.",
+  regulator: "",
+  admin: "",
+};
+
+function emptyFor(role: Role, entity: string) {
+  if (role === "treasury")
+    return {
+      title: `No signed-off quarters for ${entity} yet`,
+      next: "Approved figures appear here once the chief risk officer signs a quarter off.",
+    };
+  if (role === "cro")
+    return {
+      title: `No snapshots for ${entity} yet`,
+      next: "The analysts prepare each quarter; a submitted one waits here for your approval or return.",
+    };
+  return {
+    title: `No snapshots for ${entity} yet`,
+    next: "Choose an ended quarter above and prepare its snapshot: the figures are frozen as a draft for you to check and submit.",
+  };
+}
+
+function SelectedSnapshot({
+  id,
+  listed,
+  role,
+  userEmail,
+  findingsHref,
+  filingHref,
+  onPrepared,
+}: {
+  id: number;
+  listed?: Snapshot;
+  role: Role;
+  userEmail: string;
+  findingsHref: (entity: string) => string;
+  filingHref: (id: number) => string;
+  onPrepared: (s: Snapshot) => void;
+}) {
+  // The list already holds the snapshot: show it at once while its own answer is read.
+  const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
+  // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
+  // server; the filings list is the one place they are read from (treasury may not read it).
+  const readsFiling =
+    (role === "analyst" || role === "cro") && (data?.status === "filed" || data?.status === "approved");
+  const filings = useQuery({
+    ...filingQueries.list(),
+    enabled: readsFiling,
+    refetchInterval: (query) =>
+      query.state.data?.some((f) => f.snapshotId === id && f.delivery === "pending") ? PENDING_REREAD_MS : false,
+  });
+  const filing = {
+    filing: filings.data?.find((f) => f.snapshotId === id),
+    reading: readsFiling && filings.isPending,
+    error: filings.error,
+  };
+  // The pack went while the screen was open: the quarter is filed now, so read the snapshot (and the list's status) again.
+  const queryClient = useQueryClient();
+  const sentMeanwhile = data?.status === "approved" && filing.filing?.delivery === "sent";
+  useEffect(() => {
+    if (sentMeanwhile) void queryClient.invalidateQueries({ queryKey: snapshotKeys.all() });
+  }, [sentMeanwhile, queryClient]);
+  if (!data) {
+    return error ? (
+      <FormMessage>{isApiError(error) ? error.message : `Snapshot #${id} could not be read.`}</FormMessage>
+    ) : (
+      <p className="text-sm text-ink-muted">Opening snapshot #{id}…</p>
+    );
+  }
+  return (
+    <>
+      {error && (
+        <FormMessage>{isApiError(error) ? error.message : "The snapshot could not be read again."}</FormMessage>
+      )}
+      <SnapshotDetail
+        snapshot={data}
+        role={role}
+        userEmail={userEmail}
+        findingsHref={findingsHref(data.entity)}
+        onPrepared={onPrepared}
+        filing={filing}
+        filingHref={filingHref}
+        updating={isFetching}
+      />
+    </>
+  );
+}
+
+export default function SnapshotsRoute() {
+  const { data: user } = useSuspenseQuery(authQueries.me());
+  const { data: entities } = useSuspenseQuery(entityQueries.all());
+  const [search] = useSearchParams();
+  const navigate = useNavigate();
+  const params = screenParams(search);
+  const role = user!.role;
+  const opened = useQuery({ ...snapshotQueries.detail(params.snapshot ?? 0), enabled: params.snapshot !== undefined });
+  // The snapshot's own entity wins over the address's (the loader also puts it in the address).
+  const entity = opened.data?.entity ?? params.entity ?? entities[0]?.code ?? "";
+  const list = useQuery({ ...snapshotQueries.list(entity), enabled: entity !== "" });
+  const snapshots = list.data ?? [];
+  const selectedId = params.snapshot ?? snapshots[0]?.id;
+  const snapshotHref = (id: number) => paths.snapshots.href({ entity, snapshot: id });
+  const current = entities.find((e) => e.code === entity);
+  const latest = snapshots[0];
+  const waiting = snapshots.filter((s) => s.status === "submitted").length;
+
+  return (
+    <section aria-labelledby="quarters-title" className="flex flex-col gap-5">
+      <PageTitle>{paths.snapshots.label}</PageTitle>
+      <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
+        <div className="flex flex-col gap-1">
+          <h1 id="quarters-title">Quarter close</h1>
+          <p className="text-sm text-ink-muted">{intro[role]}</p>
+        </div>
+        {entities.length > 0 && (
+          <SelectField
+            label="Entity"
+            value={entity}
+            onChange={(e) => navigate(paths.snapshots.href({ entity: e.target.value }))}
+            className="w-72"
+          >
+            {entities.map((e) => (
+              <option key={e.code} value={e.code}>
+                {e.code} · {e.name}
+              </option>
+            ))}
+          </SelectField>
+        )}
+      </header>
+      {entities.length === 0 ? (
+        <EmptyState title="No legal entities are set up yet">
+          An administrator adds the entities; their quarters can be closed here once they have data.
+        </EmptyState>
+      ) : (
+        <>
+          {list.data && (
+            <dl className="flex flex-wrap gap-x-10 gap-y-2 text-sm" aria-label="Where the quarters stand">
+              <div>
+                <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Latest quarter</dt>
+                <dd>
+                  {latest ? (
+                    <>
+                      <span className="font-medium">{quarterLabel(latest.quarterEnd)}</span> ·{" "}
+                      {snapshotStatusLabels[latest.status]}
+                    </>
+                  ) : (
+                    <span className="text-ink-muted">None yet</span>
+                  )}
+                </dd>
+              </div>
+              {role !== "treasury" && (
+                <div>
+                  <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">
+                    Waiting for sign-off
+                  </dt>
+                  <dd className="figures">
+                    {waiting > 0 ? (
+                      <span className="font-medium">{plural(waiting, "quarter", "quarters")}</span>
+                    ) : (
+                      "None"
+                    )}
+                  </dd>
+                </div>
+              )}
+              {current && (
+                <div>
+                  <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Currency</dt>
+                  <dd className="figures">{current.currency}</dd>
+                </div>
+              )}
+            </dl>
+          )}
+          {role === "analyst" && (
+            <section className="border-t border-rule pt-4">
+              <PrepareSnapshotForm
+                key={entity}
+                entity={entity}
+                quarterEnds={endedQuarterEnds(new Date())}
+                snapshots={snapshots}
+                snapshotHref={snapshotHref}
+                onPrepared={(s) =>
+                  navigate(paths.snapshots.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
+                }
+              />
+            </section>
+          )}
+          <section aria-labelledby="snapshots-title" className="flex flex-col gap-2 border-t border-rule pt-4">
+            <div className="flex items-baseline justify-between gap-4">
+              <h2 id="snapshots-title">Snapshots of {entity}</h2>
+              <p className="figures text-sm text-ink-muted">
+                {list.data ? plural(snapshots.length, "quarter", "quarters") : ""}
+                {list.isFetching && " · loading…"}
+              </p>
+            </div>
+            {list.error ? (
+              <FormMessage>
+                {isApiError(list.error) ? list.error.message : "The snapshots could not be read."}
+              </FormMessage>
+            ) : list.data ? (
+              <SnapshotListTable
+                snapshots={snapshots}
+                selectedId={selectedId}
+                snapshotHref={snapshotHref}
+                onOpen={(id) => navigate(snapshotHref(id), { preventScrollReset: true })}
+                empty={emptyFor(role, entity)}
+              />
+            ) : (
+              <p className="text-sm text-ink-muted">Reading the snapshots…</p>
+            )}
+          </section>
+          {selectedId !== undefined && (
+            <SelectedSnapshot
+              key={selectedId}
+              id={selectedId}
+              listed={snapshots.find((s) => s.id === selectedId)}
+              role={role}
+              userEmail={user!.email}
+              findingsHref={(e) => paths.data.href({ entity: e })}
+              filingHref={(f) => paths.filings.href({ filing: f })}
+              onPrepared={(s) =>
+                navigate(paths.snapshots.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
+              }
+            />
+          )}
+        </>
+      )}
+    </section>
+  );
+}

@@ -1,0 +1,376 @@
+import { useRef, useState, type FormEvent, type ReactNode } from "react";
+import { Link } from "react-router-dom";
+import type { z } from "zod";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { returnSnapshotSchema, snapshotActionSchema, type Snapshot } from "@shared/schemas/snapshot";
+import type { Role } from "@shared/schemas/common";
+import { Button } from "@/components/ui/button";
+import { FormMessage, TextareaField } from "@/components/ui/field";
+import { Notice } from "@/components/ui/notice";
+import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { formatDateTime, shortHash } from "@/lib/format";
+import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
+import {
+  isChangedMeanwhile,
+  useApproveSnapshot,
+  usePrepareSnapshot,
+  useReturnSnapshot,
+  useSubmitSnapshot,
+} from "../api/snapshot-queries";
+
+const sameUser = (a: string | null, b: string) => a !== null && a.trim().toLowerCase() === b.trim().toLowerCase();
+
+/** The server's refusal in its own words, with the way to the cause where the screen knows it. */
+function Refusal({ error, findingsHref }: { error: unknown; findingsHref: string }) {
+  const message = formLevelMessage(error);
+  if (!message) return null;
+  const code = isApiError(error) ? error.code : "";
+  return (
+    <FormMessage>
+      {message}
+      {code === "open_findings" && (
+        <>
+          {" "}
+          <Link to={findingsHref}>Open the findings on the Data screen</Link>
+        </>
+      )}
+      {code === "inputs_changed" && " Return it, so that the analyst prepares it again on the current data."}
+    </FormMessage>
+  );
+}
+
+/** Optional comment only: empty text is left out of the body rather than sent as "". */
+const commentOf = (text: string) => (text.trim() === "" ? undefined : text);
+
+/** The comment, its field errors and the two ways a send can fail, shared by the submit and sign-off forms. */
+function useCommentForm(onChanged: (message: string) => void) {
+  const formRef = useRef<HTMLFormElement>(null);
+  const [comment, setComment] = useState("");
+  const [errors, setErrors] = useState<FieldErrors>({});
+
+  /** The body to send, or undefined with the errors beside the fields and the first one focused. */
+  function checked<S extends z.ZodType>(schema: S, input: unknown): z.output<S> | undefined {
+    const r = validate(schema, input);
+    if (!r.ok) {
+      setErrors(r.errors);
+      focusFirstInvalid(formRef.current);
+      return undefined;
+    }
+    setErrors({});
+    return r.data;
+  }
+
+  const onError = (err: unknown) => {
+    if (isChangedMeanwhile(err) && isApiError(err)) onChanged(err.message);
+    setErrors(fieldErrorsOf(err));
+  };
+
+  return { formRef, comment, setComment, errors, checked, onError };
+}
+
+function SubmitForm({
+  snapshot,
+  findingsHref,
+  onDone,
+  onChanged,
+}: {
+  snapshot: Snapshot;
+  findingsHref: string;
+  onDone: (message: string) => void;
+  onChanged: (message: string) => void;
+}) {
+  const submit = useSubmitSnapshot(snapshot.id);
+  const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
+
+  function send(e: FormEvent) {
+    e.preventDefault();
+    submit.reset();
+    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
+    if (!body) return;
+    submit.mutate(body, {
+      onSuccess: (s) =>
+        onDone(
+          `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
+        ),
+      onError,
+    });
+  }
+
+  return (
+    <form
+      ref={formRef}
+      onSubmit={send}
+      noValidate
+      aria-label="Submit for sign-off"
+      className="flex max-w-2xl flex-col gap-3"
+    >
+      {!isChangedMeanwhile(submit.error) && <Refusal error={submit.error} findingsHref={findingsHref} />}
+      <TextareaField
+        label="Comment for the sign-off (optional)"
+        hint="What the chief risk officer should know: exceptions explained, exclusions asked, anything unusual in the quarter."
+        value={comment}
+        onChange={(e) => setComment(e.target.value)}
+        rows={3}
+        maxLength={2000}
+        error={errors.comment}
+      />
+      <div>
+        <Button type="submit" disabled={submit.isPending}>
+          {submit.isPending ? "Submitting…" : "Submit for sign-off"}
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+function SignOffForm({
+  snapshot,
+  userEmail,
+  findingsHref,
+  onDone,
+  onChanged,
+}: {
+  snapshot: Snapshot;
+  userEmail: string;
+  findingsHref: string;
+  onDone: (message: string) => void;
+  onChanged: (message: string) => void;
+}) {
+  const approve = useApproveSnapshot(snapshot.id);
+  const giveBack = useReturnSnapshot(snapshot.id);
+  const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
+  // Four eyes (docs/architecture.md#roles): whoever prepared or submitted it may not approve it.
+  const ownWork = sameUser(snapshot.preparedBy, userEmail) || sameUser(snapshot.submittedBy, userEmail);
+
+  function sendApprove() {
+    giveBack.reset();
+    approve.reset();
+    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
+    if (!body) return;
+    approve.mutate(body, {
+      onSuccess: (s) =>
+        onDone(
+          `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
+        ),
+      onError,
+    });
+  }
+
+  function sendReturn(e?: FormEvent) {
+    e?.preventDefault();
+    approve.reset();
+    giveBack.reset();
+    const body = checked(returnSnapshotSchema, { comment, version: snapshot.version });
+    if (!body) return;
+    giveBack.mutate(body, {
+      onSuccess: (s) => onDone(`${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`),
+      onError,
+    });
+  }
+
+  const error = approve.error ?? giveBack.error;
+  const busy = approve.isPending || giveBack.isPending;
+  return (
+    <form
+      ref={formRef}
+      onSubmit={sendReturn}
+      noValidate
+      aria-label="Sign-off"
+      className="flex max-w-2xl flex-col gap-3"
+    >
+      {ownWork && (
+        <Notice>
+          <strong className="font-semibold">Four eyes.</strong> You{" "}
+          {sameUser(snapshot.preparedBy, userEmail) ? "prepared" : "submitted"} this snapshot, so you cannot approve it:
+          another chief risk officer signs it off. You may still return it with a comment.
+        </Notice>
+      )}
+      {!isChangedMeanwhile(error) && <Refusal error={error} findingsHref={findingsHref} />}
+      <TextareaField
+        label={ownWork ? "Why does it go back?" : "Comment"}
+        hint={
+          ownWork
+            ? "Required to return it; the analysts read it before they prepare it again."
+            : "Optional to approve; required to return it, saying what to change."
+        }
+        value={comment}
+        onChange={(e) => setComment(e.target.value)}
+        rows={3}
+        maxLength={2000}
+        error={errors.comment}
+      />
+      <div className="flex flex-wrap items-center gap-3">
+        {!ownWork && (
+          <Button onClick={sendApprove} disabled={busy}>
+            {approve.isPending ? "Approving…" : "Approve and seal"}
+          </Button>
+        )}
+        <Button type="submit" variant={ownWork ? "primary" : "danger"} disabled={busy}>
+          {giveBack.isPending ? "Returning…" : "Return to the analysts"}
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+function PrepareAgain({
+  snapshot,
+  findingsHref,
+  onDone,
+  onPrepared,
+}: {
+  snapshot: Snapshot;
+  findingsHref: string;
+  onDone: (message: string) => void;
+  onPrepared: (s: Snapshot) => void;
+}) {
+  const prepare = usePrepareSnapshot();
+  return (
+    <div className="flex flex-col gap-2">
+      <Refusal error={prepare.error} findingsHref={findingsHref} />
+      <div>
+        <Button
+          disabled={prepare.isPending}
+          onClick={() =>
+            prepare.mutate(
+              { entity: snapshot.entity, quarterEnd: snapshot.quarterEnd },
+              {
+                onSuccess: (s) => {
+                  onDone(
+                    `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
+                  );
+                  onPrepared(s);
+                },
+              },
+            )
+          }
+        >
+          {prepare.isPending ? "Computing the figures…" : "Prepare again"}
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+function lastComment(snapshot: Snapshot, action: Snapshot["history"][number]["action"]) {
+  return [...snapshot.history].filter((h) => h.action === action).sort((a, b) => b.at.localeCompare(a.at))[0];
+}
+
+/** Where the snapshot stands for this reader, in a sentence. */
+function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
+  const label = quarterLabel(snapshot.quarterEnd);
+  switch (snapshot.status) {
+    case "draft":
+      return role === "analyst" ? (
+        <>
+          Check the figures, then submit {label} for sign-off. A chief risk officer who did not prepare it approves it.
+        </>
+      ) : (
+        <>{label} is still a draft with the analysts; it comes to you once they submit it.</>
+      );
+    case "submitted":
+      return role === "cro" ? (
+        <>
+          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}. Approve it to
+          seal the figures, or return it saying what to change.
+        </>
+      ) : (
+        <>
+          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}; waiting for a
+          chief risk officer to approve or return it.
+        </>
+      );
+    case "returned": {
+      const returned = lastComment(snapshot, "returned");
+      return (
+        <>
+          Returned{returned ? ` by ${returned.by} on ${formatDateTime(returned.at)}` : ""}
+          {returned?.comment ? <>: “{returned.comment}”</> : "."}{" "}
+          {role === "analyst"
+            ? "Prepare it again on the current data, then submit it."
+            : "The analysts prepare it again and submit it."}
+        </>
+      );
+    }
+    case "approved":
+      return (
+        <>
+          Approved by {snapshot.approvedBy ?? "—"} on {formatDateTime(snapshot.approvedAt)}. The figures are sealed and
+          no longer change.
+          {role === "cro" && " Read the pack, then file it with the supervisor below."}
+        </>
+      );
+    case "filed":
+      return (
+        <>
+          Approved by {snapshot.approvedBy ?? "—"} and filed with the supervisor. The figures are sealed and no longer
+          change.
+        </>
+      );
+  }
+}
+
+/** What this reader can do next with the snapshot: only the actions their role and its status allow. */
+export function SnapshotActions({
+  snapshot,
+  role,
+  userEmail,
+  findingsHref,
+  onPrepared,
+}: {
+  snapshot: Snapshot;
+  role: Role;
+  userEmail: string;
+  findingsHref: string;
+  onPrepared: (s: Snapshot) => void;
+}) {
+  const [done, setDone] = useState<string>();
+  const [changed, setChanged] = useState<string>();
+  const onDone = (message: string) => {
+    setChanged(undefined);
+    setDone(message);
+  };
+  const onChanged = (message: string) => {
+    setDone(undefined);
+    setChanged(message);
+  };
+
+  let action: ReactNode = null;
+  if (role === "analyst" && snapshot.status === "draft")
+    action = (
+      <SubmitForm
+        key={snapshot.version}
+        snapshot={snapshot}
+        findingsHref={findingsHref}
+        onDone={onDone}
+        onChanged={onChanged}
+      />
+    );
+  else if (role === "analyst" && snapshot.status === "returned")
+    action = <PrepareAgain snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />;
+  else if (role === "cro" && snapshot.status === "submitted")
+    action = (
+      <SignOffForm
+        key={snapshot.version}
+        snapshot={snapshot}
+        userEmail={userEmail}
+        findingsHref={findingsHref}
+        onDone={onDone}
+        onChanged={onChanged}
+      />
+    );
+
+  return (
+    <section aria-labelledby="next-title" className="flex flex-col gap-3">
+      <h3 id="next-title" className="text-sm font-semibold">
+        What next
+      </h3>
+      <FormMessage tone="done">{done}</FormMessage>
+      {changed && <FormMessage>{changed} The snapshot below is as it now stands.</FormMessage>}
+      <p className="text-sm text-ink-soft">
+        <Standing snapshot={snapshot} role={role} />
+      </p>
+      {action}
+    </section>
+  );
+}

@@ -1,0 +1,87 @@
+import type { ReactNode } from "react";
+import { Link } from "react-router-dom";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { type Snapshot } from "@shared/schemas/snapshot";
+import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
+import { ZoneBadge } from "@/components/ui/zone-badge";
+import { cn } from "@/lib/cn";
+import { formatAmount, formatFactor } from "@/lib/format";
+import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
+
+/** The entity's quarters, newest first, with the headline figures each one froze; a row opens its snapshot. */
+export function SnapshotListTable({
+  snapshots,
+  selectedId,
+  snapshotHref,
+  onOpen,
+  empty,
+}: {
+  snapshots: Snapshot[];
+  selectedId?: number;
+  snapshotHref: (id: number) => string;
+  onOpen: (id: number) => void;
+  empty: { title: string; next: ReactNode };
+}) {
+  if (snapshots.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
+  return (
+    <Table caption="Quarter snapshots, newest first">
+      <thead>
+        <tr>
+          <Th>Quarter</Th>
+          <Th>Status</Th>
+          <Th>Zone</Th>
+          <Th numeric>Counted exceptions</Th>
+          <Th numeric>Plus factor</Th>
+          <Th numeric>Multiplier</Th>
+          <Th numeric>Capital requirement</Th>
+          <Th numeric>Capital add-on</Th>
+          <Th>Prepared by</Th>
+          <Th>Approved by</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {snapshots.map((s) => {
+          const selected = s.id === selectedId;
+          const label = quarterLabel(s.quarterEnd);
+          return (
+            <SelectableTr key={s.id} selected={selected} onOpen={() => onOpen(s.id)}>
+              <Td className="whitespace-nowrap">
+                <Link
+                  to={snapshotHref(s.id)}
+                  aria-label={`Open ${label}, ${snapshotStatusLabels[s.status].toLowerCase()}`}
+                  className="font-medium"
+                >
+                  {label}
+                </Link>
+                <span className="figures block text-2xs text-ink-muted">{s.quarterEnd}</span>
+              </Td>
+              <Td
+                className={cn(
+                  "whitespace-nowrap",
+                  (s.status === "submitted" || s.status === "returned") && "font-medium",
+                )}
+              >
+                {snapshotStatusLabels[s.status]}
+              </Td>
+              <Td>
+                {/* A window short of 250 observations gives a provisional zone (docs/rules.md#window), here as in the snapshot's figures. */}
+                <ZoneBadge zone={s.zone} regime={s.figures.regime} provisional={!s.figures.window.complete} />
+              </Td>
+              <Td numeric>{s.counted}</Td>
+              <Td numeric>{formatFactor(s.plusFactor)}</Td>
+              <Td numeric>{formatFactor(s.multiplier)}</Td>
+              <Td numeric className="whitespace-nowrap">
+                {formatAmount(s.capital, s.figures.currency)}
+              </Td>
+              <Td numeric className="whitespace-nowrap">
+                {formatAmount(s.addOn, s.figures.currency)}
+              </Td>
+              <Td className="text-xs">{s.preparedBy}</Td>
+              <Td className="text-xs">{s.approvedBy ?? <span className="text-ink-faint">—</span>}</Td>
+            </SelectableTr>
+          );
+        })}
+      </tbody>
+    </Table>
+  );
+}

@@ -13,7 +13,7 @@ import { usersRouter } from "./modules/users/users.router";
 import { entitiesRouter } from "./modules/entities/entities.router";
 import { assignmentsRouter } from "./modules/assignments/assignments.router";
 import { auditRouter } from "./modules/audit/audit.router";
-import { uploadsRouter } from "./modules/uploads/uploads.router";
+import { uploadsRouter, type UploadLimits } from "./modules/uploads/uploads.router";
 import { observationsRouter } from "./modules/observations/observations.router";
 import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
@@ -26,6 +26,8 @@ import { outboxRouter } from "./modules/outbox/outbox.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
+  /** The turns large uploads take (tests hold one to see the queue refuse). */
+  uploadLimits?: UploadLimits;
   /** Serve the built client from dist/client (when it exists). */
   serveClient?: boolean;
 }
@@ -84,7 +86,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(usersRouter());
   app.use(assignmentsRouter());
   app.use(auditRouter());
-  app.use(uploadsRouter());
+  app.use(uploadsRouter(options.uploadLimits));
   app.use(observationsRouter());
   app.use(findingsRouter());
   app.use(backtestRouter());

@@ -1,4 +1,4 @@
-import { type Transaction } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
@@ -150,21 +150,30 @@ export async function prepareSnapshot(
         transaction,
       );
     } else {
-      row = await SnapshotModel.create(
-        {
-          ...values,
-          entityId: entity.id,
-          quarterEnd: body.quarterEnd,
-          approvedBy: null,
-          approvedAt: null,
-          prevHash: null,
-          hash: null,
-          restatedAt: null,
-          restatementDetail: null,
-          historyJson: JSON.stringify([event(actor, "prepared")]),
-        },
-        { transaction },
-      );
+      try {
+        row = await SnapshotModel.create(
+          {
+            ...values,
+            entityId: entity.id,
+            quarterEnd: body.quarterEnd,
+            approvedBy: null,
+            approvedAt: null,
+            prevHash: null,
+            hash: null,
+            restatedAt: null,
+            restatementDetail: null,
+            historyJson: JSON.stringify([event(actor, "prepared")]),
+          },
+          { transaction },
+        );
+      } catch (err) {
+        // Two first preparations of one quarter at once: the unique (entity, quarter) lets one in.
+        if (err instanceof UniqueConstraintError)
+          throw new ConflictError(
+            `${entity.code} ${quarterLabel(body.quarterEnd)} was prepared by someone else a moment ago. Look at it again.`,
+          );
+        throw err;
+      }
       await recordAudit(
         actor,
         "snapshot.prepare",

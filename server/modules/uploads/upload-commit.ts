@@ -149,7 +149,7 @@ async function parseStoredFile(
   });
   if (!withContent?.content) throw new ConflictError(`Upload #${id} no longer holds its file; upload it again.`);
   const parsed = parseFile(unpackBytes(withContent.content), ref);
-  if (parsed.errors.length) {
+  if (parsed.errorCount) {
     throw new ConflictError(
       "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
     );

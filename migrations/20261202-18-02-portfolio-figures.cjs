@@ -2,7 +2,7 @@
 /**
  * The engine's results per portfolio, stored so that reads read them instead of recomputing from
  * the raw days: the standing at the latest day (the backtest), the rolling series, and for an
- * entity's headline book its Overview line and its forecast's starting point. Every write that
+ * entity's headline book its Overview line. Every write that
  * changes them refreshes them in its own transaction (server/modules/figures/stored-figures.ts).
  * A portfolio without a row (made before this table, or new) is computed on its first read.
  */
@@ -23,7 +23,6 @@ module.exports = {
       backtest_json: { type: DataTypes.TEXT("long"), allowNull: true },
       rolling_json: { type: DataTypes.TEXT("long"), allowNull: false },
       overview_json: { type: DataTypes.TEXT, allowNull: true },
-      forecast_json: { type: DataTypes.TEXT("long"), allowNull: true },
       refreshed_at: { type: DataTypes.DATE(3), allowNull: false },
     });
     await qi.addIndex("portfolio_figures", ["entity_id"], { name: "portfolio_figures_entity" });

@@ -19,6 +19,8 @@ import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
 import { reviewsRouter } from "./modules/reviews/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
+import { determinationsRouter } from "./modules/determinations/determinations.router";
+import { settingsRouter } from "./modules/settings/settings.router";
 import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
@@ -93,6 +95,8 @@ export function createApp(options: AppOptions = {}) {
   app.use(reviewsRouter());
   app.use(snapshotsRouter());
   app.use(capitalRouter());
+  app.use(determinationsRouter());
+  app.use(settingsRouter());
   app.use(filingsRouter());
   app.use(apiTokensRouter());
   app.use(outboxRouter());

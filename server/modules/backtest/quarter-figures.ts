@@ -1,21 +1,20 @@
 import { createHash } from "node:crypto";
 import stableStringify from "fast-json-stable-stringify";
+import { AppError, NotFoundError } from "../../errors";
 import { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { backtestAt } from "../../../shared/backtest/exceptions";
-import { capitalAddOn, capitalRequirement } from "../../../shared/backtest/capital";
+import { capitalInputsAt } from "../../../shared/backtest/capital";
+import { capitalUnder, multipliersFor, settingsOn } from "../../../shared/backtest/determination";
+import { approvedSettings, fallbackSettings } from "../settings/settings.read";
+import type { Transaction } from "sequelize";
+import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { loadSeries } from "../observations/observations.repository";
 import { deskResults } from "../figures/stored-figures";
-import {
-  assertQuarterComplete,
-  cents,
-  contextOf,
-  engineOptions,
-  headlinePortfolio,
-  noHeadlineError,
-} from "../figures/engine-inputs";
+import { loadPortfolioContext } from "../figures/engine-inputs";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import { type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import type { Observation } from "../../../shared/backtest/types";
 
@@ -46,27 +45,55 @@ const dayValues = (o: Observation) => [
  * top portfolio (and, under FRTB, its desks) and the approved exclusions. Refuses a quarter whose
  * last business day has no data yet: its figures would be a guess.
  */
-export async function quarterFigures(entity: EntityModel, quarterEnd: string): Promise<QuarterFigures> {
+export async function quarterFigures(
+  entity: EntityModel,
+  quarterEnd: string,
+  transaction?: Transaction,
+): Promise<QuarterFigures> {
   const portfolios = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["code", "ASC"]] });
-  const top = headlinePortfolio(portfolios);
-  if (!top) throw noHeadlineError(entity.code);
-  const ctx = await contextOf(top, entity);
-  const asOf = assertQuarterComplete(ctx, quarterEnd);
+  const top = portfolios.find((p) => p.level === "top");
+  if (!top)
+    throw new NotFoundError(`${entity.code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
+  const ctx = await loadPortfolioContext(top.code);
   const series = ctx.series.filter((o) => o.date <= quarterEnd);
-  const bt = backtestAt(series, engineOptions(entity, asOf, ctx.excludedDates));
+  const lastBusinessDay = isBusinessDay(quarterEnd, ctx.holidays)
+    ? quarterEnd
+    : addBusinessDays(quarterEnd, -1, ctx.holidays);
+  const reported = [...series]
+    .reverse()
+    .find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
+  if (!reported || reported.date < lastBusinessDay) {
+    throw new AppError(
+      422,
+      "quarter_data_incomplete",
+      `${top.code} has no daily data for ${lastBusinessDay}, the last business day of ${quarterLabel(quarterEnd)}${reported ? ` (its data ends on ${reported.date})` : ""}. Upload it under Data first.`,
+    );
+  }
+  const asOf = lastBusinessDay;
+  // The settings in force on the quarter's last business day (a later change never reaches back).
+  const settings = settingsOn(await approvedSettings(entity.id, transaction), asOf) ?? fallbackSettings(entity);
+  const opts = {
+    regime: entity.regime,
+    pnlBasis: settings.pnlBasis,
+    asOf,
+    excludedDates: ctx.excludedDates,
+    qualitativeAddend: settings.qualitativeAddend,
+  };
+  const bt = backtestAt(series, opts);
+  const multipliers = multipliersFor(bt.exceptions.counted, entity.regime, settings, bt.windowSize);
 
   let capital: number | null = null;
   let addOn: number | null = null;
   let capitalNote: string | null = null;
   try {
-    const capitalOpts = {
-      regime: entity.regime,
-      asOf,
-      count: bt.exceptions.counted,
-      qualitativeAddend: entity.qualitativeAddend,
-    };
-    capital = cents(capitalRequirement(series, capitalOpts).requirement);
-    addOn = cents(capitalAddOn(series, capitalOpts));
+    const c = capitalUnder(
+      capitalInputsAt(series, entity.regime, asOf),
+      entity.regime,
+      multipliers.plusFactor,
+      settings,
+    );
+    capital = Math.round(c.requirement * 100) / 100;
+    addOn = Math.round(c.addOn * 100) / 100;
   } catch (err) {
     if (!(err instanceof EngineInputError)) throw err;
     capitalNote = `No capital figure: ${err.message}`;
@@ -76,7 +103,7 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
   const figures: SnapshotFigures = {
     portfolio: top.code,
     regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
+    pnlBasis: settings.pnlBasis,
     currency: entity.currency,
     asOf,
     window: bt.window,
@@ -84,9 +111,11 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     exceptionDates: bt.exceptionDays.map((d) => d.date),
     zone: bt.zone,
     zoneLabel: bt.zoneLabel,
-    plusFactor: bt.plusFactor,
-    qualitativeAddend: entity.qualitativeAddend,
-    multiplier: bt.multiplier,
+    plusFactor: multipliers.plusFactor,
+    qualitativeAddend: settings.qualitativeAddend,
+    multiplier: multipliers.multiplier,
+    multiplierSvar: multipliers.multiplierSvar,
+    settings,
     expected: bt.expected,
     cumulativeProbability: bt.tests.cumulativeProbability,
     capital,
@@ -112,9 +141,22 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     entity: {
       code: entity.code,
       regime: entity.regime,
-      pnlBasis: entity.pnlBasis,
-      qualitativeAddend: entity.qualitativeAddend,
+      pnlBasis: settings.pnlBasis,
+      qualitativeAddend: settings.qualitativeAddend,
     },
+    // Settings beyond the entity's first ones enter the hash only when set, so the inputs of
+    // snapshots made before settings were governed hash as they did.
+    ...(settings.qualitativeAddendSvar !== null ||
+    settings.multiplierFloor !== null ||
+    settings.determinationFrequency !== "quarterly"
+      ? {
+          settings: {
+            qualitativeAddendSvar: settings.qualitativeAddendSvar,
+            multiplierFloor: settings.multiplierFloor,
+            determinationFrequency: settings.determinationFrequency,
+          },
+        }
+      : {}),
     asOf,
     portfolio: top.code,
     days: series.filter(inWindow).map(dayValues),

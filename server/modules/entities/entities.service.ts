@@ -5,7 +5,8 @@ import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { HolidayModel } from "../../models/holiday";
 import { RegulatorAssignmentModel } from "../../models/regulator-assignment";
-import { ConflictError, NotFoundError } from "../../errors";
+import { AppError, ConflictError, NotFoundError } from "../../errors";
+import { createInitialSettings, hasGovernedSettings } from "../settings/settings.service";
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
@@ -81,6 +82,8 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
         },
         { transaction },
       );
+      // The P&L basis and the addend become the entity's first governed settings record.
+      await createInitialSettings(row, transaction);
       const entity = toEntity(row);
       await recordAudit(actor, "entity.create", entity.code, { after: entity }, transaction);
       return entity;
@@ -109,6 +112,17 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
       );
     }
     const before = toEntity(row);
+    const governed =
+      (change.pnlBasis !== undefined && change.pnlBasis !== row.pnlBasis) ||
+      (change.qualitativeAddend !== undefined && change.qualitativeAddend !== row.qualitativeAddend);
+    if (governed && (await hasGovernedSettings(row.id, transaction))) {
+      throw new AppError(
+        422,
+        "settings_governed",
+        `The P&L basis and the qualitative addend of ${code} are supervisory settings: an admin proposes a change with the supervisor's decision reference and its effective date under Admin › Supervisory settings, and a CRO approves it.`,
+        { fields: { pnlBasis: "Governed setting", qualitativeAddend: "Governed setting" } },
+      );
+    }
     row.version = row.version + 1;
     if (change.name !== undefined) row.name = change.name;
     if (change.regime !== undefined) row.regime = change.regime;

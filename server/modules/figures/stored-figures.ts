@@ -16,17 +16,16 @@ import type { EntityModel } from "../../models/entity";
 import type { PortfolioModel } from "../../models/portfolio";
 import { AppError, NotFoundError } from "../../errors";
 import { backtestAt, rollingBacktest } from "../../../shared/backtest/exceptions";
-import { forecastAt, rollOffs } from "../../../shared/backtest/forecast";
+import { rollOffs } from "../../../shared/backtest/forecast";
 import { deskBacktest } from "../../../shared/backtest/frtb-desk";
 import { deskPla } from "../../../shared/backtest/pla";
-import { capitalAddOn, marginalCostOfNextException } from "../../../shared/backtest/capital";
+import { capitalAddOn } from "../../../shared/backtest/capital";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { loadSeries } from "../observations/observations.repository";
-import { quarterEndOf } from "../../../shared/backtest/quarters";
+import { refreshDeterminations } from "../determinations/determinations.store";
 import type { BacktestResponse, DeskResult, OverviewItem, RollingRowDto } from "../../../shared/schemas/backtest";
-import type { ForecastResponse } from "../../../shared/schemas/capital";
 import type { Observation } from "../../../shared/backtest/types";
 import {
   contextOf,
@@ -52,19 +51,12 @@ export type StoredOverview = Pick<
   | "openReviews"
 > & { windowStart: string | null };
 
-export interface StoredForecast {
-  /** The forecast date it was computed for (the default one at refresh time). */
-  date: string;
-  response: ForecastResponse;
-}
-
 export interface PortfolioFigures {
   asOf: string | null;
   /** The backtest at the latest day, without the reviews (they are attached on read). */
   backtest: BacktestResponse | null;
   rolling: RollingRowDto[];
   overview: StoredOverview | null;
-  forecast: StoredForecast | null;
 }
 
 const orNull = <T>(compute: () => T): T | null => {
@@ -75,15 +67,6 @@ const orNull = <T>(compute: () => T): T | null => {
     throw err;
   }
 };
-
-/** The forecast date when none is asked for: the current quarter's end, or the next one when the data already reaches it. */
-export function defaultForecastDate(latest: string, today = new Date().toISOString().slice(0, 10)): string {
-  const end = quarterEndOf(today);
-  if (end > latest) return end;
-  const next = new Date(`${latest}T00:00:00Z`);
-  next.setUTCDate(next.getUTCDate() + 1);
-  return quarterEndOf(next.toISOString().slice(0, 10));
-}
 
 /** FRTB: desk-level backtesting and the P&L attribution test over the last 250 days (MAR32). */
 export async function deskResults(
@@ -135,36 +118,6 @@ export async function backtestResponse(
   };
 }
 
-/** The forecast for a date from the latest day, with today's standing and what the next exception would cost. */
-export function forecastResponse(ctx: PortfolioContext, date: string): ForecastResponse {
-  const latest = ctx.series[ctx.series.length - 1].date;
-  const opts = engineOptions(ctx.entity, latest, ctx.excludedDates);
-  const forecast = forecastAt(ctx.series, { ...opts, date, holidays: ctx.holidays });
-  const today = backtestAt(ctx.series, opts);
-  return {
-    entity: ctx.entity.code,
-    portfolio: ctx.portfolio.code,
-    regime: ctx.entity.regime,
-    currency: ctx.entity.currency,
-    ...forecast,
-    nextExceptionCost: orNull(() =>
-      marginalCostOfNextException(ctx.series, {
-        regime: ctx.entity.regime,
-        asOf: latest,
-        count: today.exceptions.counted,
-        qualitativeAddend: ctx.entity.qualitativeAddend,
-      }),
-    ),
-    today: {
-      counted: today.exceptions.counted,
-      zone: today.zone,
-      plusFactor: today.plusFactor,
-      multiplier: today.multiplier,
-      windowComplete: today.window.complete,
-    },
-  };
-}
-
 /** A fresh computation of everything stored for one portfolio (the property test compares it with the row). */
 export async function computePortfolioFigures(
   portfolio: PortfolioModel,
@@ -173,7 +126,7 @@ export async function computePortfolioFigures(
   read: ReadIn = {},
 ): Promise<PortfolioFigures> {
   const ctx = await contextOf(portfolio, entity, read);
-  if (ctx.series.length === 0) return { asOf: null, backtest: null, rolling: [], overview: null, forecast: null };
+  if (ctx.series.length === 0) return { asOf: null, backtest: null, rolling: [], overview: null };
   const asOf = ctx.series[ctx.series.length - 1].date;
   const backtest = await backtestResponse(ctx, asOf, portfolios, read);
   const rolling = rollingBacktest(ctx.series, {
@@ -181,8 +134,7 @@ export async function computePortfolioFigures(
     pnlBasis: entity.pnlBasis,
     excludedDates: ctx.excludedDates,
   });
-  if (headlinePortfolio(portfolios)?.id !== portfolio.id)
-    return { asOf, backtest, rolling, overview: null, forecast: null };
+  if (headlinePortfolio(portfolios)?.id !== portfolio.id) return { asOf, backtest, rolling, overview: null };
 
   // An exception is open while nobody reviewed it or its exclusion request waits for the CRO.
   const counted = backtest.exceptionDays.filter((d) => d.actual || d.hypothetical).map((d) => d.date);
@@ -193,7 +145,6 @@ export async function computePortfolioFigures(
         { replacements: { pid: portfolio.id, dates: counted }, type: QueryTypes.SELECT, transaction: read.transaction },
       )
     : [];
-  const date = defaultForecastDate(asOf);
   return {
     asOf,
     backtest,
@@ -218,14 +169,13 @@ export async function computePortfolioFigures(
       nextRollOff: backtest.rollOffs[0] ?? null,
       openReviews: counted.length - settled.length,
     },
-    forecast: { date, response: forecastResponse(ctx, date) },
   };
 }
 
 /**
- * Recomputes and stores the figures of every portfolio of these entities, inside the caller's
- * transaction (which holds their portfolio rows, so writers take turns). Call it from every write
- * that changes what the engine is given.
+ * Recomputes and stores the figures of every portfolio of these entities, and the entities'
+ * quarterly determinations, inside the caller's transaction (which holds their portfolio rows, so
+ * writers take turns). Call it from every write that changes what the engine is given.
  */
 export async function refreshEntityFigures(entityIds: Iterable<number>, transaction: Transaction): Promise<void> {
   for (const entityId of [...new Set(entityIds)].sort((a, b) => a - b)) {
@@ -239,11 +189,11 @@ export async function refreshEntityFigures(entityIds: Iterable<number>, transact
       const figures = await computePortfolioFigures(portfolio, entity, portfolios, { transaction });
       await sequelize.query(
         `INSERT INTO portfolio_figures
-           (portfolio_id, entity_id, engine_version, as_of, backtest_json, rolling_json, overview_json, forecast_json, refreshed_at)
-         VALUES (:pid, :eid, :engine, :asOf, :backtest, :rolling, :overview, :forecast, NOW(3))
+           (portfolio_id, entity_id, engine_version, as_of, backtest_json, rolling_json, overview_json, refreshed_at)
+         VALUES (:pid, :eid, :engine, :asOf, :backtest, :rolling, :overview, NOW(3))
          ON DUPLICATE KEY UPDATE entity_id = VALUES(entity_id), engine_version = VALUES(engine_version),
            as_of = VALUES(as_of), backtest_json = VALUES(backtest_json), rolling_json = VALUES(rolling_json),
-           overview_json = VALUES(overview_json), forecast_json = VALUES(forecast_json), refreshed_at = NOW(3)`,
+           overview_json = VALUES(overview_json), refreshed_at = NOW(3)`,
         {
           replacements: {
             pid: portfolio.id,
@@ -253,12 +203,13 @@ export async function refreshEntityFigures(entityIds: Iterable<number>, transact
             backtest: figures.backtest ? JSON.stringify(figures.backtest) : null,
             rolling: JSON.stringify(figures.rolling),
             overview: figures.overview ? JSON.stringify(figures.overview) : null,
-            forecast: figures.forecast ? JSON.stringify(figures.forecast) : null,
           },
           transaction,
         },
       );
     }
+    // The determinations of the multiplier in force (server/modules/determinations), in the same transaction.
+    await refreshDeterminations(entityId, transaction);
   }
 }
 
@@ -285,10 +236,9 @@ interface StoredRow {
   backtest_json: string | null;
   rolling_json: string | null;
   overview_json: string | null;
-  forecast_json: string | null;
 }
 
-type Column = "backtest_json" | "rolling_json" | "overview_json" | "forecast_json";
+type Column = "backtest_json" | "rolling_json" | "overview_json";
 
 /** Stored columns of one portfolio by code; computes and stores them first when missing or from another engine. */
 export async function storedByCode(

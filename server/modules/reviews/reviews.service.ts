@@ -182,8 +182,9 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       transaction,
     );
     // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
-    if (before.exclusionStatus === "approved" || body.decision === "approved")
+    if (before.exclusionStatus === "approved" || body.decision === "approved") {
       await flagExclusionDecision(portfolio.id, date, actor, transaction);
+    }
     // An exclusion approved or withdrawn changes the count; a decision also settles an open request.
     await refreshEntityFigures([entity.id], transaction);
   });

@@ -46,6 +46,13 @@ const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
   LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
+  /**
+   * Host names this server answers to, comma-separated: "name" (any port) or "name:port".
+   * Unset: 127.0.0.1, localhost and [::1] on PORT (and on Vite's 5173 in development; on any port in tests).
+   */
+  ALLOWED_HOSTS: z.string().optional(),
+  /** Proxies allowed to say who the client is (X-Forwarded-For): addresses or subnets, comma-separated. Unset: none. */
+  TRUST_PROXY: z.string().optional(),
   /** Large uploads (over 1 MB) checked at once per server process; the next ones wait their turn. */
   UPLOAD_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   /** Large uploads that may wait for their turn; one more is refused at once (503, Retry-After). */
@@ -74,6 +81,20 @@ function jwtSecret(fromEnv: string | undefined): string {
   mkdirSync(dataDir, { recursive: true });
   writeFileSync(file, secret, { mode: 0o600 });
   return secret;
+}
+
+/** The Host header values (or bare host names, any port) the server answers to. */
+function allowedHosts(fromEnv: string | undefined, nodeEnv: string, port: number): string[] {
+  if (fromEnv !== undefined)
+    return fromEnv
+      .split(",")
+      .map((h) => h.trim().toLowerCase())
+      .filter(Boolean);
+  const names = ["127.0.0.1", "localhost", "[::1]"];
+  // Supertest and the browser journeys listen on a free port of their own.
+  if (nodeEnv === "test") return names;
+  const ports = nodeEnv === "development" ? [port, 5173] : [port];
+  return names.flatMap((name) => ports.map((p) => `${name}:${p}`));
 }
 
 function loadConfig() {
@@ -117,6 +138,13 @@ function loadConfig() {
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,
+    allowedHosts: Object.freeze(allowedHosts(env.ALLOWED_HOSTS, env.NODE_ENV, env.PORT)),
+    trustProxy: Object.freeze(
+      (env.TRUST_PROXY ?? "")
+        .split(",")
+        .map((s) => s.trim())
+        .filter(Boolean),
+    ),
     uploads: Object.freeze({
       concurrency: env.UPLOAD_CONCURRENCY,
       queue: env.UPLOAD_QUEUE,

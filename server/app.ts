@@ -19,10 +19,17 @@ import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
 import { reviewsRouter } from "./modules/reviews/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
+import { determinationsRouter } from "./modules/determinations/determinations.router";
+import { settingsRouter } from "./modules/settings/settings.router";
 import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
 import { outboxRouter } from "./modules/outbox/outbox.router";
+import {
+  DEFAULT_INVITATION_LIMITS,
+  invitationsRouter,
+  type InvitationLimits,
+} from "./modules/invitations/invitations.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
@@ -30,6 +37,7 @@ export interface AppOptions {
   allowedHosts?: readonly string[];
   /** The proxies whose X-Forwarded-For is believed (default: config.trustProxy, from TRUST_PROXY). */
   trustProxy?: readonly string[];
+  invitationLimits?: InvitationLimits;
   /** The turns large uploads take (tests hold one to see the queue refuse). */
   uploadLimits?: UploadLimits;
   /** Serve the built client from dist/client (when it exists). */
@@ -114,6 +122,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(authRouter(options.signInLimits ?? DEFAULT_SIGN_IN_LIMITS));
   app.use(entitiesRouter());
   app.use(usersRouter());
+  app.use(invitationsRouter(options.invitationLimits ?? DEFAULT_INVITATION_LIMITS));
   app.use(assignmentsRouter());
   app.use(auditRouter());
   app.use(uploadsRouter(options.uploadLimits));
@@ -123,6 +132,8 @@ export function createApp(options: AppOptions = {}) {
   app.use(reviewsRouter());
   app.use(snapshotsRouter());
   app.use(capitalRouter());
+  app.use(determinationsRouter());
+  app.use(settingsRouter());
   app.use(filingsRouter());
   app.use(apiTokensRouter());
   app.use(outboxRouter());

@@ -53,6 +53,10 @@ const envSchema = z.object({
   ALLOWED_HOSTS: z.string().optional(),
   /** Proxies allowed to say who the client is (X-Forwarded-For): addresses or subnets, comma-separated. Unset: none. */
   TRUST_PROXY: z.string().optional(),
+  /** The address people open Quartermark at: set-password links in e-mails start with it. */
+  PUBLIC_URL: z.url({ protocol: /^https?$/, error: "PUBLIC_URL must be an http(s) address" }).optional(),
+  /** How long an invitation or password-reset link works, in hours. */
+  INVITATION_TTL_HOURS: z.coerce.number().int().min(1).max(720).default(72),
   /** Large uploads (over 1 MB) checked at once per server process; the next ones wait their turn. */
   UPLOAD_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   /** Large uploads that may wait for their turn; one more is refused at once (503, Retry-After). */
@@ -84,7 +88,12 @@ function jwtSecret(fromEnv: string | undefined): string {
 }
 
 /** The Host header values (or bare host names, any port) the server answers to. */
-function allowedHosts(fromEnv: string | undefined, nodeEnv: string, port: number): string[] {
+function allowedHosts(
+  fromEnv: string | undefined,
+  nodeEnv: string,
+  port: number,
+  publicUrl: string | undefined,
+): string[] {
   if (fromEnv !== undefined)
     return fromEnv
       .split(",")
@@ -94,7 +103,9 @@ function allowedHosts(fromEnv: string | undefined, nodeEnv: string, port: number
   // Supertest and the browser journeys listen on a free port of their own.
   if (nodeEnv === "test") return names;
   const ports = nodeEnv === "development" ? [port, 5173] : [port];
-  return names.flatMap((name) => ports.map((p) => `${name}:${p}`));
+  const loopback = names.flatMap((name) => ports.map((p) => `${name}:${p}`));
+  // The address people open (PUBLIC_URL) is served too, as its Host header names it.
+  return publicUrl ? [...loopback, new URL(publicUrl).host.toLowerCase()] : loopback;
 }
 
 function loadConfig() {
@@ -138,13 +149,15 @@ function loadConfig() {
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,
-    allowedHosts: Object.freeze(allowedHosts(env.ALLOWED_HOSTS, env.NODE_ENV, env.PORT)),
+    allowedHosts: Object.freeze(allowedHosts(env.ALLOWED_HOSTS, env.NODE_ENV, env.PORT, env.PUBLIC_URL)),
     trustProxy: Object.freeze(
       (env.TRUST_PROXY ?? "")
         .split(",")
         .map((s) => s.trim())
         .filter(Boolean),
     ),
+    publicUrl: (env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`).replace(/\/+$/, ""),
+    invitationTtlHours: env.INVITATION_TTL_HOURS,
     uploads: Object.freeze({
       concurrency: env.UPLOAD_CONCURRENCY,
       queue: env.UPLOAD_QUEUE,

@@ -19,6 +19,11 @@ export const POLICY = {
   "POST /api/auth/logout": "signed-in",
   "GET /api/auth/me": "signed-in",
   "GET /api/auth/session": "public",
+  // Everyone changes their own password (current + new; other sessions end).
+  "POST /api/auth/password": "signed-in",
+  // A set-password link's holder, before they have a password: rate limited per address in the router.
+  "POST /api/invitations/lookup": "public",
+  "POST /api/invitations/accept": "public",
 
   // Entities: every role reads (a regulator only the entities assigned to them); admin changes.
   "GET /api/entities": "signed-in",
@@ -35,7 +40,14 @@ export const POLICY = {
   "GET /api/users": ["admin"],
   "POST /api/users": ["admin"],
   "PATCH /api/users/:id": ["admin"],
-  "POST /api/users/:id/password": ["admin"],
+  // An admin never sets a password: they send a one-time link (an invitation again, or a reset).
+  "POST /api/users/:id/password-link": ["admin"],
+  "GET /api/invitations": ["admin"],
+  // Granting or removing the CRO or admin role: one admin proposes, another approves (in the service).
+  "GET /api/role-requests": ["admin"],
+  "POST /api/role-requests": ["admin"],
+  "POST /api/role-requests/:id/approve": ["admin"],
+  "POST /api/role-requests/:id/reject": ["admin"],
   "GET /api/regulator-assignments": ["admin"],
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
@@ -78,6 +90,17 @@ export const POLICY = {
   // Forecasts and what-ifs on current data: treasury plans capital with them (docs/architecture.md#roles).
   "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
   "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],
+
+  // Determinations of the multiplier (treasury sees the signed-off ones, filtered in the service) and
+  // capital on a date with the multiplier in force beside the indicative one (current figures).
+  "GET /api/entities/:code/determinations": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/capital": ["analyst", "cro"],
+  // Governed supervisory settings: everyone on staff reads them; an admin proposes a change and a CRO
+  // approves or rejects it (four eyes in the service).
+  "GET /api/entities/:code/settings": STAFF,
+  "POST /api/entities/:code/settings": ["admin"],
+  "POST /api/settings/:id/approve": ["cro"],
+  "POST /api/settings/:id/reject": ["cro"],
 
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
   "GET /api/overview": ["analyst", "cro"],

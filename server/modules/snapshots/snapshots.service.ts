@@ -18,6 +18,8 @@ import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { chainOf, hashedContent, sha256 } from "./snapshots.chain";
 import type { SignedIn } from "../../kit/actor";
+import { refreshDeterminations } from "../determinations/determinations.store";
+import { DeterminationModel } from "../../models/determination";
 
 // The sign-off: an analyst prepares and submits a past quarter, a CRO approves (sealing it into the
 // entity's hash chain) or returns it; filing then locks and marks it.
@@ -255,6 +257,8 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     row.historyJson = withEvent(row, event(actor, "approved", body.comment));
     row.version = row.version + 1;
     await row.save({ transaction });
+    // The quarter's determination is frozen with the snapshot: approved, never recomputed.
+    await refreshDeterminations(entity.id, transaction);
     await recordAudit(
       actor,
       "snapshot.approve",
@@ -320,4 +324,7 @@ export async function recordFiled(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
     { transaction },
   );
+  // Its determination is filed too (only the status moves; the entity is not locked here, as the
+  // snapshot already is and the lock order puts the entity first).
+  await DeterminationModel.update({ status: "filed" }, { where: { snapshotId: row.id }, transaction });
 }

@@ -173,6 +173,26 @@ export const snapshotVerifySchema = z.object({
 });
 export type SnapshotVerify = z.infer<typeof snapshotVerifySchema>;
 
+/** One thing wrong in an entity's signed snapshot chain, in words, with the link and snapshot it concerns. */
+export const chainProblemSchema = z.object({
+  seq: z.number().int().nullable(),
+  snapshotId: z.number().int().nullable(),
+  detail: z.string(),
+});
+export type ChainProblem = z.infer<typeof chainProblemSchema>;
+
+/** GET /api/entities/:code/chain/verify: the whole signed chain of an entity checked. */
+export const chainVerifySchema = z.object({
+  entity: z.string(),
+  valid: z.boolean(),
+  /** How many signed links the chain holds. */
+  links: z.number().int(),
+  problems: z.array(chainProblemSchema),
+  /** In words: what was checked, or the first thing that does not hold and how many more there are. */
+  detail: z.string(),
+});
+export type ChainVerify = z.infer<typeof chainVerifySchema>;
+
 /** GET /api/entities/:code/capital/history: the entity's quarters as their snapshots hold them, oldest first. */
 export const capitalHistoryItemSchema = snapshotSchema
   .pick({

@@ -45,6 +45,10 @@ export function snapshotsRouter() {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
     res.json(await snapshots.verifySnapshot(id, signedInActor(req)));
   });
+  r.get("/api/entities/:code/chain/verify", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    res.json(await snapshots.verifyEntityChain(code));
+  });
   r.get("/api/entities/:code/capital/history", async (req, res) => {
     const { code } = parseInput(entityCodeParamSchema, req.params, "address");
     res.json(await snapshots.capitalHistory(code, signedInActor(req)));

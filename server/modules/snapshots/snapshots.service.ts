@@ -1,6 +1,4 @@
-import { createHash } from "node:crypto";
-import stableStringify from "fast-json-stable-stringify";
-import { Op, type Transaction } from "sequelize";
+import type { Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
@@ -11,11 +9,13 @@ import { UserModel } from "../../models/user";
 import { recordAudit } from "../audit/audit.service";
 import { countOpenFindings } from "../findings/findings.service";
 import { quarterFigures } from "../backtest/quarter-figures";
+import { appendLink, verifyChain } from "../snapshot-chain/snapshot-chain";
 import {
   SIGNED_OFF,
   quarterLabel,
   quarterStart,
   type CapitalHistoryItem,
+  type ChainVerify,
   type CreateSnapshotBody,
   type ReturnSnapshotBody,
   type Snapshot,
@@ -342,49 +342,6 @@ export async function submitSnapshot(id: number, body: SnapshotActionBody, actor
   });
 }
 
-/** What the hash of a signed-off snapshot covers, in a canonical form. */
-function hashedContent(row: SnapshotModel, entity: EntityModel) {
-  return stableStringify({
-    entity: entity.code,
-    quarterEnd: row.quarterEnd,
-    figures: row.figuresJson,
-    // The headline columns that lists, the capital history and filings read, as stored.
-    zone: row.zone,
-    counted: row.counted,
-    plusFactor: row.plusFactor,
-    multiplier: row.multiplier,
-    capital: row.capital,
-    addOn: row.addOn,
-    windowStart: row.windowStart,
-    asOf: row.asOf,
-    inputsSha256: row.inputsSha256,
-    engineVersion: row.engineVersion,
-    preparedBy: row.preparedBy,
-    preparedAt: row.preparedAt.toISOString(),
-    submittedBy: row.submittedBy,
-    approvedBy: row.approvedBy,
-    approvedAt: row.approvedAt?.toISOString() ?? null,
-    prevHash: row.prevHash,
-  });
-}
-const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
-
-/**
- * The entity's signed-off snapshots in the order they were approved: the hash chain. Inside an
- * approval it is a locking read, so it sees an approval that committed while this one waited.
- */
-async function chainOf(entityId: number, transaction?: Transaction): Promise<SnapshotModel[]> {
-  return SnapshotModel.findAll({
-    where: { entityId, hash: { [Op.ne]: null } },
-    order: [
-      ["approvedAt", "ASC"],
-      ["id", "ASC"],
-    ],
-    transaction,
-    ...(transaction ? { lock: transaction.LOCK.SHARE } : {}),
-  });
-}
-
 /**
  * The CRO signs a submitted snapshot off. Four eyes: not one they prepared or submitted. The
  * figures must still follow from today's data, no finding inside the quarter may be open, and
@@ -409,14 +366,15 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     }
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "approved");
-    const chain = await chainOf(entity.id, transaction);
     row.status = "approved";
     row.approvedBy = actor.user.id;
-    row.approvedAt = new Date(); // milliseconds, as DATETIME(3) keeps them: the hash is recomputed from the stored value
-    row.prevHash = chain.length ? chain[chain.length - 1].hash : null;
-    row.hash = sha256(hashedContent(row, entity));
+    row.approvedAt = new Date(); // milliseconds, as DATETIME(3) keeps them: the signature is checked against the stored value
     row.historyJson = withEvent(row, event(actor, "approved", body.comment));
     row.version = row.version + 1;
+    // The seal: a signed link of the entity's chain over everything the snapshot now holds.
+    const link = await appendLink(row, "sealed", transaction);
+    row.hash = link.mac;
+    row.prevHash = link.prevMac;
     await row.save({ transaction });
     await recordAudit(
       actor,
@@ -472,53 +430,72 @@ export async function lockForFiling(
   return { row, entity, asFiled: { ...dto, status: "filed" } };
 }
 
-/** Filing, last step: the snapshot is filed (its figures and hash do not change). */
+/**
+ * Filing, once the pack reached the supervisor: the snapshot is filed (its figures and seal do not
+ * change) and the chain signs it, with the pack's sha256 and Message-ID.
+ */
 export async function recordFiled(
   row: SnapshotModel,
   detail: string,
   actor: SignedIn,
   transaction: Transaction,
+  filed: { filingId: number; packSha256: string; messageId: string | null },
 ): Promise<void> {
   await row.update(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
     { transaction },
   );
+  await appendLink(row, "filed", transaction, filed);
 }
 
-/** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */
+/** The supervisor acknowledged a filing: the chain signs which pack they acknowledged (the snapshot does not change). */
+export async function recordAcknowledged(
+  snapshotId: number,
+  acknowledged: { filingId: number; packSha256: string; by: string },
+  transaction: Transaction,
+): Promise<void> {
+  const row = (await SnapshotModel.findByPk(snapshotId, { transaction, lock: transaction.LOCK.SHARE }))!;
+  await appendLink(row, "acknowledged", transaction, acknowledged);
+}
+
+/**
+ * Checks the snapshot against the entity's signed chain: the chain must be whole (every link
+ * signed, numbered without gaps, ending at the signed head), and the snapshot must stand as its
+ * newest link says — figures, inputs hash, status, restatement and history.
+ */
 export async function verifySnapshot(id: number, actor: SignedIn): Promise<SnapshotVerify> {
   const row = await SnapshotModel.findByPk(id);
   if (!row || (readsSignedOffOnly(actor) && !SIGNED_OFF.has(row.status)))
     throw new NotFoundError(`No snapshot #${id}.`);
-  if (!row.hash)
-    return { valid: false, hash: null, prevHash: null, detail: "Not signed off yet: there is no hash to verify." };
-  const entity = (await EntityModel.findByPk(row.entityId))!;
-  const recomputed = sha256(hashedContent(row, entity));
-  if (recomputed !== row.hash) {
-    return {
-      valid: false,
-      hash: row.hash,
-      prevHash: row.prevHash,
-      detail: `The stored content no longer gives the stored hash (it gives ${recomputed.slice(0, 12)}…): the snapshot was altered after approval.`,
-    };
-  }
-  const chain = await chainOf(row.entityId);
-  const at = chain.findIndex((s) => s.id === row.id);
-  const expectedPrev = at > 0 ? chain[at - 1].hash : null;
-  if (row.prevHash !== expectedPrev) {
-    return {
-      valid: false,
-      hash: row.hash,
-      prevHash: row.prevHash,
-      detail: "The link to the previously approved snapshot does not match: the chain was altered.",
-    };
-  }
-  return {
-    valid: true,
-    hash: row.hash,
-    prevHash: row.prevHash,
-    detail: `The hash matches the stored figures and inputs, and links to ${expectedPrev ? "the snapshot approved before it" : "nothing before it (the first approved snapshot of the entity)"}.`,
-  };
+  const chain = await verifyChain(row.entityId);
+  const own = chain.problems.filter((p) => p.snapshotId === row.id);
+  const result = (valid: boolean, detail: string) => ({ valid, hash: row.hash, prevHash: row.prevHash, detail });
+  if (own.length) return result(false, own.map((p) => p.detail).join(" "));
+  const signed = chain.bodies.filter((b) => b.snapshotId === row.id);
+  if (!row.hash && signed.length === 0) return result(false, "Not signed off yet: there is no seal to verify.");
+  if (!chain.valid)
+    return result(
+      false,
+      `The snapshot stands as signed, but the entity's chain does not verify: ${chain.problems.map((p) => p.detail).join(" ")}`,
+    );
+  const newest = signed.at(-1)!;
+  return result(
+    true,
+    `The stored figures, inputs hash, status, restatement and history match what link ${newest.seq} of ${chain.links} signed (${newest.kind}), with the server's key; the entity's chain is whole up to its signed head.`,
+  );
+}
+
+/** GET /api/entities/:code/chain/verify: the entity's whole chain, in words. */
+export async function verifyEntityChain(code: string): Promise<ChainVerify> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const chain = await verifyChain(entity.id);
+  const detail = chain.valid
+    ? chain.links
+      ? `${code}: all ${chain.links} links carry the server's signature, follow each other without a gap up to the signed head, and every signed-off snapshot stands as its newest link says.`
+      : `${code}: nothing is signed off yet, so the chain is empty.`
+    : `${code}: ${chain.problems[0].detail}${chain.problems.length > 1 ? ` (and ${chain.problems.length - 1} more problem${chain.problems.length > 2 ? "s" : ""})` : ""}`;
+  return { entity: code, valid: chain.valid, links: chain.links, problems: chain.problems, detail };
 }
 
 // ---- restatements after sign-off ---------------------------------------------------------------
@@ -598,6 +575,7 @@ async function flagSignedOff(
       },
       { transaction },
     );
+    await appendLink(snapshot, "restated", transaction);
     await recordAudit(
       actor,
       "snapshot.restated",

@@ -1,63 +1,220 @@
 /**
- * Load benchmark (`npm run bench:load`), after RELIABILITY.md: a bounded run on loopback against
- * the read endpoints (a fixed number of requests, then it stops) while a 50,000-row upload
- * commits. Prints the error count and latency figures; asserts nothing. Last line: one JSON object.
+ * Load benchmark (`npm run bench:load`): every read endpoint of the production server bundle, one
+ * after another, at 50 concurrent connections on loopback, on the Larkspur demo data plus 20
+ * entities made by the demo generator (three years each). Each endpoint's requests go round all
+ * entities (or their top-of-house books). `/api/health` (one `SELECT 1`) is the floor: the same
+ * server, the same session check skipped, no figures. Every run is bounded: at most REQUESTS
+ * requests and SECONDS seconds per endpoint. It runs once with one server process (WORKERS=1) and
+ * once with the server's default count, and prints, per endpoint, one JSON line with p50 / p95 /
+ * p99 (from every response's own time), requests per second, errors, and the ratios to the floor.
+ * Asserts nothing. The last line is one JSON object with everything.
+ *
+ * LOAD_REQUESTS, LOAD_SECONDS and LOAD_WORKERS ("1,default") change the bounds and the runs.
  */
 import autocannon from "autocannon";
-import { benchCsv, benchWeekdays, prepareBenchDatabase, startBuiltServer, uploadAndCommit } from "./lib/bench-server";
+import { prepareLoadDatabase } from "./lib/load-data";
+import { startBuiltServer, type BenchServer } from "./lib/bench-server";
 
-const REQUESTS = 3000;
-const CONNECTIONS = 10;
+const CONNECTIONS = 50;
+const REQUESTS = Number(process.env.LOAD_REQUESTS ?? 1000);
+const SECONDS = Number(process.env.LOAD_SECONDS ?? 15);
+const DEMO_PASSWORD = process.env.DEMO_PASSWORD ?? "quartermark-demo";
+
+interface Endpoint {
+  name: string;
+  method?: "GET" | "POST";
+  paths: string[];
+  body?: string;
+}
+
+interface Figures {
+  endpoint: string;
+  workers: string;
+  requests: number;
+  ok: number;
+  /** Sent but not answered when the time bound stopped the run. */
+  unfinished: number;
+  non2xx: number;
+  errors: number;
+  p50Ms: number;
+  p95Ms: number;
+  p99Ms: number;
+  maxMs: number;
+  requestsPerSecond: number;
+  stoppedByTime: boolean;
+}
+
+function percentile(sorted: number[], p: number): number {
+  if (sorted.length === 0) return NaN;
+  const i = Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1);
+  return Math.round(sorted[Math.max(0, i)] * 10) / 10;
+}
+
+/** Waits until the server answers the floor quickly again: requests cut off by the time bound are still being worked on. */
+async function drain(server: BenchServer): Promise<void> {
+  const until = Date.now() + 120_000;
+  while (Date.now() < until) {
+    const t0 = performance.now();
+    await fetch(`${server.base}/api/health`).catch(() => undefined);
+    if (performance.now() - t0 < 50) return;
+    await new Promise((r) => setTimeout(r, 500));
+  }
+}
+
+async function measure(server: BenchServer, endpoint: Endpoint, workers: string): Promise<Figures> {
+  const times: number[] = [];
+  let stoppedByTime = false;
+  const started = performance.now();
+  let finish!: (r: autocannon.Result) => void;
+  let fail!: (e: unknown) => void;
+  const done = new Promise<autocannon.Result>((resolve, reject) => {
+    finish = resolve;
+    fail = reject;
+  });
+  const instance = autocannon(
+    {
+      url: server.base,
+      connections: CONNECTIONS,
+      amount: REQUESTS,
+      timeout: 30,
+      headers: {
+        cookie: server.cookie,
+        origin: server.base,
+        ...(endpoint.body ? { "content-type": "application/json" } : {}),
+      },
+      requests: endpoint.paths.map((path) => ({ method: endpoint.method ?? "GET", path, body: endpoint.body })),
+    },
+    (err, result) => (err ? fail(err) : finish(result)),
+  );
+  instance.on("response", (_client: unknown, _status: number, _bytes: number, responseTime: number) => {
+    times.push(responseTime);
+  });
+  const timer = setTimeout(() => {
+    stoppedByTime = true;
+    instance.stop();
+  }, SECONDS * 1000);
+  const result = await done;
+  clearTimeout(timer);
+  const elapsed = (performance.now() - started) / 1000;
+  times.sort((a, b) => a - b);
+  return {
+    endpoint: endpoint.name,
+    workers,
+    requests: times.length,
+    ok: result["2xx"],
+    unfinished: Math.max(0, result.requests.sent - times.length),
+    non2xx: result.non2xx,
+    errors: result.errors + result.timeouts,
+    p50Ms: percentile(times, 50),
+    p95Ms: percentile(times, 95),
+    p99Ms: percentile(times, 99),
+    maxMs: times.length ? Math.round(times[times.length - 1]) : NaN,
+    requestsPerSecond: Math.round((times.length / elapsed) * 10) / 10,
+    stoppedByTime,
+  };
+}
+
+function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
+  const since = new Date(Date.now() - 90 * 86_400_000).toISOString().slice(0, 10);
+  return [
+    { name: "GET /api/health (floor)", paths: ["/api/health"] },
+    { name: "GET /api/auth/me", paths: ["/api/auth/me"] },
+    { name: "GET /api/overview", paths: ["/api/overview"] },
+    { name: "GET /api/entities", paths: ["/api/entities"] },
+    { name: "GET /api/portfolios/:code/backtest", paths: portfolios.map((p) => `/api/portfolios/${p}/backtest`) },
+    { name: "GET /api/portfolios/:code/rolling", paths: portfolios.map((p) => `/api/portfolios/${p}/rolling`) },
+    {
+      name: "GET /api/portfolios/:code/observations",
+      paths: portfolios.map((p) => `/api/portfolios/${p}/observations?from=${since}`),
+    },
+    {
+      name: "GET /api/entities/:code/capital/forecast",
+      paths: entities.map((e) => `/api/entities/${e}/capital/forecast`),
+    },
+    {
+      name: "GET /api/entities/:code/capital/history",
+      paths: entities.map((e) => `/api/entities/${e}/capital/history`),
+    },
+    {
+      name: "POST /api/entities/:code/capital/what-if",
+      method: "POST",
+      paths: entities.map((e) => `/api/entities/${e}/capital/what-if`),
+      body: JSON.stringify({ extraExceptions: 1 }),
+    },
+    { name: "GET /api/snapshots", paths: ["/api/snapshots"] },
+    { name: "GET /api/filings", paths: ["/api/filings"] },
+    { name: "GET /api/findings", paths: ["/api/findings"] },
+    { name: "GET /api/uploads", paths: ["/api/uploads"] },
+  ];
+}
 
 async function main() {
-  const readCodes = ["LOAD-A", "LOAD-B", "LOAD-C"];
-  const writeCodes = Array.from({ length: 10 }, (_, i) => `LOAD-W${i}`);
-  const bench = await prepareBenchDatabase("quartermark_load", [...readCodes, ...writeCodes]);
-  const server = await startBuiltServer(bench.name);
-  // Three years of data to read, brought in the ordinary way.
-  await uploadAndCommit(server, benchCsv(readCodes, benchWeekdays(2024, 780)), "history.csv");
+  const data = await prepareLoadDatabase("quartermark_load", 20);
+  const endpoints = endpointsFor(data.portfolios, data.entities);
+  const runs = (process.env.LOAD_WORKERS ?? "1,default").split(",").map((s) => s.trim());
+  const all: Figures[] = [];
+  let built = false;
+  for (const run of runs) {
+    const server = await startBuiltServer(data.name, {
+      workers: run === "default" ? undefined : Number(run),
+      signIn: { email: "analyst@larkspur.test", password: DEMO_PASSWORD },
+      skipBuild: built,
+    });
+    built = true;
+    try {
+      // One request to each first: the measured runs see a warm server, as users do.
+      for (const e of endpoints) {
+        const r = await fetch(`${server.base}${e.paths[0]}`, {
+          method: e.method ?? "GET",
+          headers: { cookie: server.cookie, origin: server.base, "content-type": "application/json" },
+          body: e.body,
+        });
+        if (!r.ok) throw new Error(`${e.name} answered ${r.status} before the run: ${(await r.text()).slice(0, 200)}`);
+      }
+      console.log(
+        `\nload bench, workers=${run}: ${data.entities.length} entities, ${CONNECTIONS} connections, ` +
+          `at most ${REQUESTS} requests or ${SECONDS} s per endpoint`,
+      );
+      let floor: Figures | undefined;
+      for (const e of endpoints) {
+        await drain(server);
+        const f = await measure(server, e, run);
+        floor ??= f;
+        all.push(f);
+        console.log(
+          JSON.stringify({
+            bench: "load-endpoint",
+            ...f,
+            p95VsFloor: Math.round((f.p95Ms / floor.p95Ms) * 10) / 10,
+            rpsVsFloor: Math.round((f.requestsPerSecond / floor.requestsPerSecond) * 1000) / 1000,
+          }),
+        );
+      }
+    } finally {
+      server.stop();
+      await new Promise((r) => setTimeout(r, 1000));
+    }
+  }
+  await data.stop();
 
-  const reads = [
-    "/api/overview",
-    ...readCodes.flatMap((c) => [
-      `/api/portfolios/${c}/backtest`,
-      `/api/portfolios/${c}/rolling`,
-      `/api/portfolios/${c}/observations?from=2026-01-01`,
-    ]),
-  ];
-  const load = autocannon({
-    url: server.base,
-    connections: CONNECTIONS,
-    amount: REQUESTS,
-    headers: { cookie: server.cookie },
-    requests: reads.map((path) => ({ method: "GET" as const, path })),
-  });
-  const write = uploadAndCommit(server, benchCsv(writeCodes, benchWeekdays(1990, 5000)), "concurrent.csv");
-  const [result, commit] = await Promise.all([load, write]);
-  server.stop();
-  await bench.stop();
-
-  const errors = result.errors + result.timeouts;
   console.log(
-    `load bench: ${result.requests.total} requests over ${reads.length} read endpoints, ${CONNECTIONS} connections, while ${commit.inserted.toLocaleString("en")} rows committed`,
+    "\nendpoint                                   workers   p50 ms   p95 ms   p99 ms    req/s  errors  unanswered",
   );
-  console.log(`  responses: ${result["2xx"]} 2xx, ${result.non2xx} other, ${errors} errors or timeouts`);
-  console.log(
-    `  latency: p50 ${result.latency.p50} ms, p90 ${result.latency.p90} ms, p99 ${result.latency.p99} ms, max ${result.latency.max} ms; ${result.requests.average.toFixed(0)} requests/s`,
-  );
-  console.log(
-    `  the concurrent upload: preview ${commit.previewMs.toFixed(0)} ms, commit ${commit.commitMs.toFixed(0)} ms`,
-  );
+  for (const f of all) {
+    console.log(
+      `${f.endpoint.padEnd(42)} ${f.workers.padStart(7)} ${String(f.p50Ms).padStart(8)} ${String(f.p95Ms).padStart(8)} ` +
+        `${String(f.p99Ms).padStart(8)} ${String(f.requestsPerSecond).padStart(8)} ${String(f.errors + f.non2xx).padStart(7)} ${String(f.unfinished).padStart(11)}`,
+    );
+  }
+  const reads = all.filter((f) => !f.endpoint.includes("(floor)"));
   console.log(
     JSON.stringify({
       bench: "load",
-      requests: result.requests.total,
-      non2xx: result.non2xx,
-      errors,
-      p50Ms: result.latency.p50,
-      p99Ms: result.latency.p99,
-      requestsPerSecond: Math.round(result.requests.average),
-      concurrentCommitMs: Math.round(commit.commitMs),
+      connections: CONNECTIONS,
+      entities: data.entities.length,
+      worstP95Ms: Math.max(...reads.map((f) => f.p95Ms)),
+      errors: all.reduce((s, f) => s + f.errors + f.non2xx, 0),
+      endpoints: all,
     }),
   );
 }

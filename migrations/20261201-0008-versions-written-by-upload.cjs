@@ -3,7 +3,7 @@
  * Who wrote a version and when is a fact of the upload commit that wrote it, not of each row:
  * uploads gain committed_by (committed_at is already there) and observations lose created_by and
  * created_at, which every row of one commit shared. A version's who and when are its upload's
- * (DESIGN §5 lists observations as portfolio, day, amounts, upload, version). New days are
+ * (docs/architecture.md#data-model lists observations as portfolio, day, amounts, upload, version). New days are
  * version 1 and current, so those two columns get defaults and the commit's INSERTs name
  * neither for them: about an eighth less work for MariaDB per 100,000-row commit
  * (bench/ingest.bench.ts).

@@ -1,6 +1,6 @@
 "use strict";
 /**
- * Personal API tokens (DESIGN §2: treasury creates them for scripts). Only the SHA-256 of the
+ * Personal API tokens (docs/architecture.md#roles: treasury creates them for scripts). Only the SHA-256 of the
  * secret is stored, unique so that a presented token is found by its hash; the prefix is the
  * non-secret start of it, shown in lists so people can tell their tokens apart.
  */

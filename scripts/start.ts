@@ -1,6 +1,6 @@
 /**
  * `npm start`: private MariaDB up → migrations → demo seed (once) → client build → mail sink →
- * API and client on http://127.0.0.1:PORT.
+ * WORKERS server processes (server/cluster.ts) serving API and client on http://127.0.0.1:PORT.
  */
 import path from "node:path";
 import { appCredentials, ensureDatabase, startPrivateDb, stopPrivateDb } from "./lib/mariadb";
@@ -28,19 +28,14 @@ async function main() {
   console.log("[client] building…");
   if ((await runBin("vite", ["build", "--logLevel", "warn"])) !== 0) throw new Error("The client build failed.");
 
-  const { createApp } = await import("../server/app");
-  const { startFilingDelivery } = await import("../server/modules/filings/delivery-loop");
-  const server = createApp({ serveClient: true }).listen(config.port, "127.0.0.1");
-  startFilingDelivery();
-  await new Promise<void>((resolve, reject) => {
-    server.once("listening", () => resolve());
-    server.once("error", (err: NodeJS.ErrnoException) =>
-      reject(err.code === "EADDRINUSE" ? new Error(`Port ${config.port} is in use; set PORT to a free port.`) : err),
-    );
-  });
+  // The server runs as WORKERS processes (default: one per core) on the one port; a worker that dies is replaced.
+  const { superviseWorkers } = await import("../server/cluster");
+  const supervisor = await superviseWorkers(config.workers, path.join(config.projectRoot, "server", "index.ts"));
 
   const { DEMO_USERS } = await import("../seeders/20261201-0001-larkspur-foundation");
-  console.log(`\nQuartermark is running on http://127.0.0.1:${config.port}`);
+  console.log(
+    `\nQuartermark is running on http://127.0.0.1:${config.port} (${config.workers} server processes; WORKERS sets the count)`,
+  );
   console.log(
     mail && config.mailSinkDir
       ? `Mail sink on 127.0.0.1:${mail.port} (messages kept in ${path.relative(process.cwd(), config.mailSinkDir) || "."}/${config.isProduction ? "" : ", shown under Admin › Outbox"})`
@@ -55,7 +50,7 @@ async function main() {
   console.log("\nPress Ctrl+C to stop.");
 
   const shutdown = async () => {
-    server.close();
+    await supervisor.stop();
     await mail?.close();
     const { sequelize } = await import("../server/db/sequelize");
     await sequelize.close();

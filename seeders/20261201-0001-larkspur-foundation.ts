@@ -1,5 +1,5 @@
 /**
- * The invented Larkspur Bank group (DESIGN.md §9): people, legal entities, portfolios, holiday
+ * The invented Larkspur Bank group (docs/architecture.md#demo-data): people, legal entities, portfolios, holiday
  * calendars and supervisor assignments. No real institution, person or data.
  */
 import { sequelize } from "../server/db/sequelize";

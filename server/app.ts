@@ -17,7 +17,7 @@ import { uploadsRouter } from "./modules/uploads/uploads.router";
 import { observationsRouter } from "./modules/observations/observations.router";
 import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
-import { reviewsRouter } from "./modules/exceptions/reviews.router";
+import { reviewsRouter } from "./modules/reviews/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
 import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { randomBytes } from "node:crypto";
+import os from "node:os";
 import path from "node:path";
 
 /** The folder with the project's package.json, found upwards from here (server/ under tsx, dist/server/ when bundled). */
@@ -41,6 +42,11 @@ const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
   LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
+  /** Server worker processes (node:cluster); WEB_CONCURRENCY is the name many hosts set. Unset: one per core. */
+  WORKERS: z.coerce.number().int().min(1).max(64).optional(),
+  WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).optional(),
+  /** Set by the primary for the one worker that runs the filing delivery loop. */
+  QM_DELIVERY_WORKER: z.enum(["0", "1"]).optional(),
 });
 
 function readDbCredentials(): { user: string; password: string } | null {
@@ -104,6 +110,9 @@ function loadConfig() {
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,
+    workers: env.WORKERS ?? env.WEB_CONCURRENCY ?? os.availableParallelism(),
+    /** Whether this process runs the filing delivery loop: the one worker the primary names, or a lone process. */
+    runsFilingDelivery: env.QM_DELIVERY_WORKER !== "0",
   });
 }
 

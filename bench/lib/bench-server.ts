@@ -94,20 +94,39 @@ export interface BenchServer {
   stop: () => void;
 }
 
+export interface BuiltServerOptions {
+  /** Worker processes (WORKERS); unset: the server's default for the machine. */
+  workers?: number;
+  /** Who signs in: the bench analyst by default. */
+  signIn?: { email: string; password: string };
+  /** Skip `npm run build:server` (already built by this run). */
+  skipBuild?: boolean;
+}
+
 /** `npm run build:server`, then the bundle under node with the production heap, signed in as the bench analyst. */
-export async function startBuiltServer(dbName: string): Promise<BenchServer> {
-  const build = spawnSync("npm", ["run", "--silent", "build:server"], { cwd: projectRoot, stdio: "inherit" });
-  if (build.status !== 0) throw new Error("npm run build:server failed");
+export async function startBuiltServer(dbName: string, options: BuiltServerOptions = {}): Promise<BenchServer> {
+  if (!options.skipBuild) {
+    const build = spawnSync("npm", ["run", "--silent", "build:server"], { cwd: projectRoot, stdio: "inherit" });
+    if (build.status !== 0) throw new Error("npm run build:server failed");
+  }
   const port = await freePort();
+  const workers = options.workers === undefined ? {} : { WORKERS: String(options.workers) };
   // BENCH_NODE_ARGS adds flags for a closer look, e.g. "--cpu-prof --cpu-prof-dir=.data/tmp/prof".
   const extra = (process.env.BENCH_NODE_ARGS ?? "").split(" ").filter(Boolean);
   const child = spawn(process.execPath, ["--max-old-space-size=256", ...extra, "dist/server/index.mjs"], {
     cwd: projectRoot,
-    env: { ...process.env, PORT: String(port), DB_NAME: dbName, LOG_LEVEL: "error", NODE_ENV: "production" },
+    env: {
+      ...process.env,
+      ...workers,
+      PORT: String(port),
+      DB_NAME: dbName,
+      LOG_LEVEL: "error",
+      NODE_ENV: "production",
+    },
     stdio: ["ignore", "inherit", "inherit"],
   });
   const base = `http://127.0.0.1:${port}`;
-  for (let i = 0; i < 200; i++) {
+  for (let i = 0; i < 900; i++) {
     try {
       if ((await fetch(`${base}/api/health`)).ok) break;
     } catch {
@@ -118,7 +137,7 @@ export async function startBuiltServer(dbName: string): Promise<BenchServer> {
   const login = await fetch(`${base}/api/auth/login`, {
     method: "POST",
     headers: { "Content-Type": "application/json" },
-    body: JSON.stringify({ email: "bench@quartermark.test", password: BENCH_PASSWORD }),
+    body: JSON.stringify(options.signIn ?? { email: "bench@quartermark.test", password: BENCH_PASSWORD }),
   });
   const cookie = (login.headers.get("set-cookie") ?? "").split(";")[0];
   if (!login.ok || !cookie) throw new Error(`bench sign-in failed: ${login.status}`);

@@ -1,4 +1,7 @@
-/** Who is who in the invented Larkspur daily data (DESIGN.md §9): one entity turns yellow after a stress episode, one FRTB desk sits amber on P&L attribution. */
+/**
+ * Who is who in the invented Larkspur daily data (docs/architecture.md#demo-data): one entity turns
+ * yellow after a stress episode, one FRTB desk sits amber on P&L attribution.
+ */
 import { generateDeskedRows, generatePortfolioRows, type DemoRow, type PortfolioSpec } from "./daily-data";
 
 export const DEMO_YEARS = 3;

@@ -11,7 +11,10 @@ import type { Role } from "../../shared/schemas/common";
 export type Access = "public" | "signed-in" | readonly Role[];
 
 const STAFF: readonly Role[] = ["analyst", "cro", "treasury", "admin"];
-/** Who may hold personal API tokens for scripts (DESIGN §2); a token stops working when its owner leaves these roles. */
+/**
+ * Who may hold personal API tokens for scripts (docs/architecture.md#roles); a token stops working
+ * when its owner leaves these roles.
+ */
 export const TOKEN_HOLDERS: readonly Role[] = ["treasury"];
 
 export const POLICY = {
@@ -83,7 +86,7 @@ export const POLICY = {
   "GET /api/filings/:id/pack.pdf": ["analyst", "cro", "regulator"],
   "POST /api/filings/:id/acknowledge": ["regulator"],
   "GET /api/filings/:id/verify": ["analyst", "cro", "regulator"],
-  // Forecasts and what-ifs on current data: treasury plans capital with them (DESIGN §2).
+  // Forecasts and what-ifs on current data: treasury plans capital with them (docs/architecture.md#roles).
   "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
   "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],
 

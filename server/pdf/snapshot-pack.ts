@@ -10,9 +10,9 @@ import { quarterLabel, quarterStart, SIGNED_OFF, type Snapshot } from "../../sha
 /**
  * The quarterly pack of one snapshot as a PDF: where the entity stands at the quarter end, the
  * exceptions behind it, the seal (inputs hash, hash chain) and the sign-off record, with the
- * caution on every page. IBM Plex Sans is embedded from its .woff files (STACK.md: woff2 drops
- * accented letters in pdfkit), unpacked once (./woff-to-sfnt.ts). The document's dates are the snapshot's own, so the same snapshot
- * always gives the same text.
+ * caution on every page. IBM Plex Sans is embedded from its .woff files (pdfkit's woff2 path drops
+ * accented letters), unpacked once (./woff-to-sfnt.ts). The document's dates are the snapshot's
+ * own, so the same snapshot always gives the same text.
  */
 
 const require = createRequire(import.meta.url);

@@ -5,7 +5,7 @@ import type { Observation } from "./types";
 import { assertIsoDate, lastIndexOnOrBefore, validateObservations } from "./window";
 
 /**
- * Capital requirement at a date (DESIGN.md §4, REFERENCE.md §3).
+ * Capital requirement at a date (docs/rules.md#capital).
  *
  * Reading of the formulas used here: "t−1" is the last observation dated on or before asOf (the
  * figure in force for the as-of day), and the 60-day averages run over the last 60 observations
@@ -221,7 +221,7 @@ function checkCount(count: number): void {
     });
 }
 
-/** Capital requirement for a count of exceptions (DESIGN.md §4). */
+/** Capital requirement for a count of exceptions (docs/rules.md#capital). */
 export function capitalRequirement(observations: readonly Observation[], opts: CapitalOptions): CapitalResult {
   checkCount(opts.count);
   const rules = getRegime(opts.regime);

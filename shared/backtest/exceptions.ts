@@ -16,7 +16,7 @@ export interface DayClassification {
 }
 
 /**
- * DESIGN.md §4: an exception when −pnl > var, strictly, on raw values. Under FRTB a missing P&L or
+ * docs/rules.md#exception: an exception when −pnl > var, strictly, on raw values. Under FRTB a missing P&L or
  * VaR counts as an exception on the series concerned (MAR32.5(2)); elsewhere it is not an exception.
  */
 export function classifyDay(
@@ -131,8 +131,9 @@ function resolveOptions(opts: BacktestOptions): {
 }
 
 /**
- * The backtest at one as-of date (DESIGN.md §4 and §6): window, exceptions per series, counted
- * figure, zone, plus factor, multiplier, statistical tests and the exception days.
+ * The backtest at one as-of date (docs/rules.md#exception, docs/api.md#backtest): window,
+ * exceptions per series, counted figure, zone, plus factor, multiplier, statistical tests and the
+ * exception days.
  */
 export function backtestAt(observations: readonly Observation[], opts: BacktestOptions): BacktestResult {
   validateObservations(observations);

@@ -9,7 +9,7 @@ import type { BacktestOptions, Observation, Zone } from "./types";
 import { assertIsoDate, validateObservations, varFieldFor, windowAt } from "./window";
 
 /**
- * Roll-off and forecast (DESIGN.md §4). Each exception leaves the window 250 observations after it
+ * Roll-off and forecast (docs/rules.md#forecast). Each exception leaves the window 250 observations after it
  * entered; future observation dates are the entity's business days (weekdays minus holidays) after
  * the last observation in the window. New exceptions are modelled on the counted series as
  * Binomial(h, 1 − confidence) for the h business days still to come; for the `max` basis this adds

@@ -4,7 +4,7 @@ import { binomialCdf } from "./binomial";
 import type { Zone } from "./types";
 
 /**
- * Each rule set as data. Status letters follow REFERENCE.md: V read in the published text,
+ * Each rule set as data. Status letters as in docs/rules.md#status: V read in the published text,
  * C computed and matching, M the table as widely reproduced (not re-read).
  */
 export interface RegimeRules {
@@ -45,8 +45,8 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
     citation: "BCBS (2009), Revisions to the Basel II market risk framework, para 718(Lxxvi)",
     baseMultiplier: 3, // para 718(Lxxvi): m_c and m_s at least 3
     baseMultiplierCitation: "BCBS (2009) para 718(Lxxvi)",
-    defaultPnlBasis: "max", // bank's basis; Quartermark default per DESIGN.md §4
-    defaultPnlBasisCitation: "DESIGN.md §4 default",
+    defaultPnlBasis: "max", // bank's basis; Quartermark's default (docs/rules.md#pnl-basis)
+    defaultPnlBasisCitation: "Quartermark default (docs/rules.md#pnl-basis)",
     // BCBS 1996 Table 2 (M): 0–4 → 0.00, 5 → 0.40, 6 → 0.50, 7 → 0.65, 8 → 0.75, 9 → 0.85, ≥10 → 1.00
     plusFactors: [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1.0],
     plusFactorsCitation: "BCBS (1996) Table 2, applied to m_c and m_s by BCBS (2009) para 718(Lxxvi)",

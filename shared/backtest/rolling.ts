@@ -97,7 +97,7 @@ const levelTablesByContent = new Map<string, Uint16Array>();
 
 /**
  * Level code (zone | plus factor in hundredths << 8) by count 0..w for one rule set and window
- * (REFERENCE.md §2). Rule sets whose tables coincide get the very same table object, so their
+ * (docs/rules.md#rule-sets). Rule sets whose tables coincide get the very same table object, so their
  * outputs can be shared.
  */
 function levelTable(regime: RegimeId, w: number): Uint16Array {
@@ -179,7 +179,7 @@ function countPlain(s: ObservationSeries, w: number, arena: Arena, fused: FusedO
   let a0 = 0;
   for (let i = 0; i < n; i++) {
     const v = pv[i];
-    // Exception: the loss strictly exceeds VaR (DESIGN.md §4); NaN (missing) compares false.
+    // Exception: the loss strictly exceeds VaR (docs/rules.md#exception); NaN (missing) compares false.
     const xa = -pa[i] > v ? 1 : 0;
     const xh = -ph[i] > v ? 1 : 0;
     ha[i] = xa;

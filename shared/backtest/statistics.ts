@@ -1,7 +1,7 @@
 import { EngineInputError } from "./errors";
 import type { TestOutcome } from "./types";
 
-/** 5% critical values of χ²(1) and χ²(2) (REFERENCE.md §5). */
+/** 5% critical values of χ²(1) and χ²(2) (docs/rules.md#statistics). */
 export const CHI2_1_CRITICAL_5PCT = 3.841459;
 export const CHI2_2_CRITICAL_5PCT = 5.991465;
 const SIGNIFICANCE = 0.05;

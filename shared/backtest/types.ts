@@ -31,7 +31,7 @@ export function zoneLabel(zone: Zone, regime: RegimeId): "green" | "yellow" | "a
 /** Options shared by every computation that looks at a backtesting window. */
 export interface BacktestOptions {
   regime: RegimeId;
-  /** Defaults to the regime's default basis (REFERENCE.md §2). */
+  /** Defaults to the regime's default basis (docs/rules.md#pnl-basis). */
   pnlBasis?: PnlBasis;
   /** As-of date, YYYY-MM-DD: the window is the last `windowSize` observations dated on or before it. */
   asOf: string;

@@ -5,7 +5,7 @@ import { getRegime, plusFactorFor, zoneFor } from "./regimes";
 import type { BacktestOptions, Observation, Zone } from "./types";
 
 /**
- * What-if (DESIGN.md §4): the figures with extra exceptions and with VaR / stressed VaR scaled.
+ * What-if (docs/rules.md#what-if): the figures with extra exceptions and with VaR / stressed VaR scaled.
  * The scaling applies to the capital inputs (FRTB: ES and SES); the exception record itself is
  * history and is not recounted against a scaled VaR.
  */

@@ -114,7 +114,7 @@ export interface WindowBounds {
   complete: boolean;
 }
 
-/** DESIGN.md §4: the last `windowSize` observations dated on or before `asOf`. */
+/** docs/rules.md#window: the last `windowSize` observations dated on or before `asOf`. */
 export function windowAt(observations: readonly { date: string }[], asOf: string, windowSize = 250): WindowBounds {
   if (!Number.isInteger(windowSize) || windowSize < 1)
     throw new EngineInputError(`windowSize must be a positive integer, got ${windowSize}`);

@@ -2,8 +2,9 @@ import { z } from "zod";
 import { plainNameSchema } from "./common";
 
 /**
- * Personal API tokens: treasury's scripts read capital figures with one (DESIGN §2). The secret is
- * shown once, at creation; the server keeps only its SHA-256 and a short prefix to recognise it by.
+ * Personal API tokens: treasury's scripts read capital figures with one (docs/architecture.md#roles).
+ * The secret is shown once, at creation; the server keeps only its SHA-256 and a short prefix to
+ * recognise it by.
  */
 
 /** "qmk_" and 43 base64url characters (32 random bytes). */

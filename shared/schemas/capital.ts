@@ -3,8 +3,8 @@ import { entityCodeSchema, isoDateSchema, regimeSchema } from "./common";
 import { rollOffSchema, zoneSchema } from "./backtest";
 
 /**
- * Capital: where the entity's figures may go next (DESIGN §6): the zone forecast for a future
- * date, what the next exception would cost, and what-if scenarios. All figures come from the
+ * Capital: where the entity's figures may go next (docs/api.md#capital): the zone forecast for a
+ * future date, what the next exception would cost, and what-if scenarios. All figures come from the
  * engine (shared/backtest/forecast.ts, what-if.ts, capital.ts) on the current data of the
  * entity's top-of-house portfolio.
  */
@@ -52,7 +52,7 @@ export const forecastResponseSchema = z.object({
 });
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
 
-/** DESIGN §6: { asOf, extraExceptions, varScale, svarScale }; asOf defaults to the last day with data. */
+/** docs/api.md#capital: { asOf, extraExceptions, varScale, svarScale }; asOf defaults to the last day with data. */
 export const whatIfBodySchema = z
   .object({
     asOf: isoDateSchema.optional(),

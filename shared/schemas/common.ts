@@ -58,6 +58,6 @@ export const apiErrorSchema = z.object({
 });
 export type ApiErrorBody = z.infer<typeof apiErrorSchema>;
 
-/** The standing caution on every screen and every pack (DESIGN.md §10). */
+/** The standing caution on every screen and every pack (docs/architecture.md#caution). */
 export const CAUTION =
   "Figures are decision support. The supervisor, the applicable rules and the approved model documentation govern; qualified staff review every figure before filing.";

@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { zoneSchema } from "./backtest";
 
-/** A signed-off snapshot's pack as sent to the supervisor (DESIGN §5–§6). */
+/** A signed-off snapshot's pack as sent to the supervisor (docs/api.md#filings). */
 export const filingSchema = z.object({
   id: z.number().int(),
   snapshotId: z.number().int(),

@@ -136,7 +136,7 @@ export const snapshotSchema = z.object({
   entityName: z.string(),
   quarterEnd: z.string(),
   status: snapshotStatusSchema,
-  // The headline figures at the top level (DESIGN §6), the whole set under `figures`.
+  // The headline figures at the top level (docs/api.md#snapshots), the whole set under `figures`.
   zone: zoneSchema,
   counted: z.number().int(),
   plusFactor: z.number(),

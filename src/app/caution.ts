@@ -1,2 +1,2 @@
-/** The standing caution on every screen (DESIGN.md §10); the packs carry the same words. */
+/** The standing caution on every screen (docs/architecture.md#caution); the packs carry the same words. */
 export { CAUTION } from "@shared/schemas/common";

@@ -74,8 +74,8 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
             },
             { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
             {
-              path: relative(paths.quarters.path),
-              ...screen(queryClient, "quarters", () => import("./routes/quarters")),
+              path: relative(paths.snapshots.path),
+              ...screen(queryClient, "snapshots", () => import("./routes/snapshots")),
             },
             { path: relative(paths.capital.path), ...screen(queryClient, "capital", () => import("./routes/capital")) },
             { path: relative(paths.filings.path), ...screen(queryClient, "filings", () => import("./routes/filings")) },

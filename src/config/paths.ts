@@ -9,7 +9,10 @@ const quarterReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 const capitalReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 /** Supervisors read the packs filed with them; the reporting office follows what was sent and acknowledged. */
 const filingReaders: readonly Role[] = ["analyst", "cro", "regulator"];
-/** Treasury creates personal API tokens for its scripts (DESIGN §2); the server's policy holds the same rule. */
+/**
+ * Treasury creates personal API tokens for its scripts (docs/architecture.md#roles); the server's
+ * policy holds the same rule.
+ */
 const tokenHolders: readonly Role[] = ["treasury"];
 
 export type AppPath = {
@@ -59,7 +62,7 @@ export const paths = {
       return `/backtest/${encodeURIComponent(portfolio)}${qs ? `?${qs}` : ""}`;
     },
   },
-  quarters: {
+  snapshots: {
     path: "/quarters",
     roles: quarterReaders,
     label: "Quarter close",
@@ -137,7 +140,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "overview", group: "main" },
   { key: "backtestIndex", group: "main" },
   { key: "data", group: "main" },
-  { key: "quarters", group: "main" },
+  { key: "snapshots", group: "main" },
   { key: "capital", group: "main" },
   { key: "filings", group: "main" },
   { key: "tokens", group: "main" },

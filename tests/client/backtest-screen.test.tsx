@@ -7,7 +7,7 @@ import type { Review } from "@shared/schemas/backtest";
 import { fakeApi, signedInAs, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
-// The fixture is the engine's own answer for a small invented series (DESIGN.md §4; the engine's
+// The fixture is the engine's own answer for a small invented series (docs/rules.md#exception; the engine's
 // figures are checked against BCBS 1996 Table 2 in tests/shared); the screen must show it unchanged.
 
 /** 270 weekdays from 2025-01-06 with VaR 1,000,000; losses beyond VaR on the chosen days. */

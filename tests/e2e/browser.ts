@@ -11,7 +11,10 @@ import { TEST_PASSWORD } from "../server/helpers";
 
 export const screenshotDir = path.resolve(import.meta.dirname, "..", "..", "test-results", "screenshots");
 
-/** Debian's Chromium, headless, launched as STACK.md says (a persistent context in a fresh dir). */
+/**
+ * Debian's Chromium, headless, through a persistent context in a fresh dir (playwright refuses
+ * --user-data-dir in args).
+ */
 export async function launchBrowser(): Promise<{ context: BrowserContext; close: () => Promise<void> }> {
   const userDataDir = mkdtempSync(path.join(tmpdir(), "qm-chromium-"));
   const context = await chromium.launchPersistentContext(userDataDir, {

@@ -109,7 +109,7 @@ describe("the access policy table", () => {
   }
 });
 
-// Written out by hand from DESIGN.md §2, independently of the policy table, so that a wrong entry
+// Written out by hand from docs/architecture.md#roles, independently of the policy table, so that a wrong entry
 // in the table cannot pass by agreeing with itself.
 const MUST_REFUSE: [Role, string][] = [
   ...(["treasury", "regulator"] as const).flatMap((role): [Role, string][] => [
@@ -153,7 +153,7 @@ const MUST_REFUSE: [Role, string][] = [
   ]),
 ];
 
-describe("what DESIGN.md §2 forbids, checked without the policy table", () => {
+describe("what the roles forbid (docs/architecture.md#roles), checked without the policy table", () => {
   for (const [role, key] of MUST_REFUSE) {
     it(`${key} as ${role} → 403`, async () => {
       const [method, path] = key.split(" ") as [string, string];

@@ -223,7 +223,7 @@ describe("two admins editing the same user (row version)", () => {
 });
 
 describe("managing entities, portfolios and calendars", () => {
-  it("when an entity is created without a P&L basis, then it takes its rule set's default (US: actual; REFERENCE.md §2)", async () => {
+  it("when an entity is created without a P&L basis, then it takes its rule set's default (US: actual, 12 CFR 217.204(b); docs/rules.md#pnl-basis)", async () => {
     const code = `T-${unique().toUpperCase()}`;
     const res = await request(app)
       .post("/api/entities")

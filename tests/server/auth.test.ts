@@ -148,7 +148,9 @@ describe("session tokens", () => {
 
 describe("sign-in rate limits", () => {
   it("when one account gets too many bad passwords, then 429 with a generic message, even for the right password", async () => {
-    const limited = testApp({ signInLimits: { windowMs: 60_000, perAccount: 3, perAddress: 100 } });
+    const limited = testApp({
+      signInLimits: { windowMs: 60_000, perAccount: 3, perAddress: 100, namespace: unique() },
+    });
     const user = await createTestUser("analyst");
     for (let i = 0; i < 3; i++) {
       expect(
@@ -167,7 +169,9 @@ describe("sign-in rate limits", () => {
   });
 
   it("when one address tries many accounts, then 429 after the address limit", async () => {
-    const limited = testApp({ signInLimits: { windowMs: 60_000, perAccount: 100, perAddress: 4 } });
+    const limited = testApp({
+      signInLimits: { windowMs: 60_000, perAccount: 100, perAddress: 4, namespace: unique() },
+    });
     for (let i = 0; i < 4; i++) {
       await request(limited)
         .post("/api/auth/login")

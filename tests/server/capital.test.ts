@@ -62,7 +62,7 @@ describe("the zone forecast", () => {
       knownRemaining: 5,
       today: { counted: 5, zone: "yellow", plusFactor: 0.4, multiplier: 3.4, windowComplete: true },
     });
-    // P(no new exception in 10 days) = 0.99^10 (binomial, REFERENCE.md).
+    // P(no new exception in 10 days) = 0.99^10 (binomial; docs/rules.md#forecast).
     expect(f.distribution[0]).toEqual({ exceptions: 5, probability: expect.closeTo(0.99 ** 10, 12) });
     expect(f.distribution.reduce((s, d) => s + d.probability, 0)).toBeCloseTo(1, 12);
     expect(f.zones.green).toBe(0);
@@ -71,7 +71,7 @@ describe("the zone forecast", () => {
     expect(f.rollOffs.map((r) => r.date)).toEqual(book.exceptionDates);
   });
 
-  it("when asked what the next exception costs, then it is the step from 5 to 6 exceptions (plus factor 0.40 → 0.50, BCBS 1996 Table 2) on the 60-day averages scaled by √10 (REFERENCE.md: CRR Art. 364(1) formula, Art. 365 ten-day VaR; the √10 square-root-of-time scaling is common practice)", async () => {
+  it("when asked what the next exception costs, then it is the step from 5 to 6 exceptions (plus factor 0.40 → 0.50, BCBS 1996 Table 2) on the 60-day averages scaled by √10 (CRR Art. 364(1) formula, Art. 365 ten-day VaR, docs/rules.md#capital; the √10 square-root-of-time scaling is common practice)", async () => {
     const res = await request(app)
       .get(`/api/entities/${book.entity.code}/capital/forecast`)
       .set("Cookie", book.treasury);

@@ -132,7 +132,7 @@ describe("the development mail outbox", () => {
     const pdf = await asBytes(request(app).get(`/api/admin/outbox/${id}/attachments/0`).set("Cookie", adminCookie));
     expect(pdf.status).toBe(200);
     expect(pdf.headers["content-type"]).toBe("application/pdf");
-    expect(pdf.headers["content-disposition"]).toBe("attachment; filename=larkspur-q3-pack.pdf");
+    expect(pdf.headers["content-disposition"]).toBe('attachment; filename="larkspur-q3-pack.pdf"');
     expect(pdf.headers["x-attachment-sha256"]).toBe(sha256(sent.pdf));
     expect(Buffer.compare(pdf.body as Buffer, sent.pdf)).toBe(0);
 

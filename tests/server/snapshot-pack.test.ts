@@ -70,7 +70,7 @@ const snapshot: Snapshot = snapshotSchema.parse({
 });
 
 describe("a snapshot's pack as a PDF", () => {
-  it("when rendered, then IBM Plex is embedded and letters beyond ASCII read back as written (STACK.md: .woff, not .woff2)", async () => {
+  it("when rendered, then IBM Plex is embedded and letters beyond ASCII read back as written (pdfkit reads .woff, not .woff2, with these letters)", async () => {
     const file = written(await renderSnapshotPack(snapshot));
     expect(execFileSync("pdffonts", [file]).toString()).toMatch(/IBMPlexSans\s.*yes yes yes/);
     const text = execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8").replace(/\s+/g, " ");

@@ -24,7 +24,7 @@ describe("backtest at an as-of date", () => {
     expect(r.exceptionDays.map((d) => d.date)).toEqual([3, 50, 90, 140, 200].map((i) => obs[i].date));
   });
 
-  it("when the series is longer than the window, then only the last 250 observations on or before the as-of date count (DESIGN.md §4)", () => {
+  it("when the series is longer than the window, then only the last 250 observations on or before the as-of date count (docs/rules.md#window)", () => {
     const obs = buildSeries({ days: 320, actualAt: [10, 100, 310], hypotheticalAt: [] });
     const asOf = obs[299].date;
     const r = backtestAt(obs, { regime: "us", asOf });
@@ -38,7 +38,7 @@ describe("backtest at an as-of date", () => {
     expect(r.window.end).toBe("2026-09-25");
   });
 
-  it("when the loss equals VaR exactly, then it is not an exception; a cent more is (DESIGN.md §4: −pnl > var strictly)", () => {
+  it("when the loss equals VaR exactly, then it is not an exception; a cent more is (docs/rules.md#exception: −pnl > var strictly)", () => {
     const obs = buildSeries({ days: 3 });
     obs[1].actualPnl = -100;
     obs[2].actualPnl = -100.01;
@@ -63,7 +63,7 @@ describe("backtest at an as-of date", () => {
     expect(backtestAt(obs, { regime: "eu", asOf, pnlBasis: "hypothetical" }).exceptions.counted).toBe(6);
   });
 
-  it("when the supervisor approved the exclusion of an exception, then it is subtracted from the counted figure and reported as excluded (DESIGN.md §4)", () => {
+  it("when the supervisor approved the exclusion of an exception, then it is subtracted from the counted figure and reported as excluded (docs/rules.md#exclusions)", () => {
     const obs = buildSeries({ days: 250, actualAt: [1, 2, 3, 4, 5, 6], hypotheticalAt: [1, 2, 3, 4, 5] });
     const r = backtestAt(obs, { regime: "eu", asOf: lastDate(obs), excludedDates: [obs[6].date, obs[100].date] });
     // Actual 6 − 1 excluded = 5, hypothetical 5: counted 5; the exclusion took one off the count of 6.
@@ -74,7 +74,7 @@ describe("backtest at an as-of date", () => {
     expect(r.testsBySeries.actual.kupiec.statistic).toBeCloseTo(1.956811, 5);
   });
 
-  it("when an excluded day shares its exception on both series, then both counts drop (DESIGN.md §4)", () => {
+  it("when an excluded day shares its exception on both series, then both counts drop (docs/rules.md#exclusions)", () => {
     const obs = buildSeries({ days: 250, actualAt: [1, 2, 3, 4, 5], hypotheticalAt: [1, 2, 3, 4, 5] });
     const r = backtestAt(obs, { regime: "basel", asOf: lastDate(obs), excludedDates: new Set([obs[1].date]) });
     expect(r.exceptions).toEqual({ actual: 5, hypothetical: 5, counted: 4, excluded: 1 });
@@ -94,7 +94,7 @@ describe("backtest at an as-of date", () => {
     ]);
   });
 
-  it("when the EU rule set sees the same missing values, then they are data gaps and not exceptions (DESIGN.md §4)", () => {
+  it("when the EU rule set sees the same missing values, then they are data gaps and not exceptions (docs/rules.md#missing-values)", () => {
     const obs = buildSeries({ days: 250 });
     obs[10].actualPnl = null;
     obs[20].var99 = null;
@@ -103,7 +103,7 @@ describe("backtest at an as-of date", () => {
     expect(r.dataGaps).toEqual([obs[10].date, obs[20].date]);
   });
 
-  it("when fewer than 250 observations exist, then the result is marked incomplete (DESIGN.md §4)", () => {
+  it("when fewer than 250 observations exist, then the result is marked incomplete (docs/rules.md#window)", () => {
     const obs = buildSeries({ days: 120, actualAt: [5] });
     const r = backtestAt(obs, { regime: "us", asOf: lastDate(obs) });
     expect(r.window.complete).toBe(false);

@@ -30,7 +30,7 @@ const TABLE_2_CUMULATIVE: ReadonlyArray<[k: number, percent: number]> = [
   [10, 99.99],
 ];
 
-/** Within half a unit of the published last decimal (REFERENCE.md §1). */
+/** Within half a unit of the published last decimal (BCBS 1996 Table 1; docs/rules.md#traffic-light). */
 function expectPublished(actualPercent: number, published: number, decimals: number): void {
   const halfUnit = 0.5 * 10 ** -decimals;
   expect(Math.abs(actualPercent - published)).toBeLessThanOrEqual(halfUnit + 1e-12);
@@ -67,7 +67,7 @@ describe("BCBS 1996 Table 1 (250 observations)", () => {
     });
   });
 
-  it("when k = 6 at 99%, then the exact probability is 2.7482%, the rounding-boundary cell noted in REFERENCE.md §1 (computed)", () => {
+  it("when k = 6 at 99%, then the exact probability is 2.7482%, the rounding-boundary cell noted in docs/rules.md#traffic-light (computed)", () => {
     expect(100 * binomialPmf(6, 250, 0.01)).toBeCloseTo(2.7482, 4);
   });
 });

@@ -56,7 +56,7 @@ describe("capital requirement, Basel 2.5 / EU / US", () => {
     expect(capitalAddOn(obs, { regime: "us", asOf: lastOf(obs), count: 5 })).toBe(0);
   });
 
-  it("when more than 60 observations exist, then only the last 60 on or before the as-of date are averaged (REFERENCE.md §3; our reading of t−1 documented in capital.ts)", () => {
+  it("when more than 60 observations exist, then only the last 60 on or before the as-of date are averaged (CRR Art. 364(1), docs/rules.md#capital; our reading of t−1 documented in capital.ts)", () => {
     const obs = days(130, (i) => ({ var10d: i < 40 ? 1000 : i < 100 ? 100 : 5000, svar10d: 0 }));
     const asOf = obs[99].date;
     const r = capitalRequirement(obs, { regime: "eu", asOf, count: 0 });
@@ -65,7 +65,7 @@ describe("capital requirement, Basel 2.5 / EU / US", () => {
     expect(r.requirement).toBeCloseTo(300, 12);
   });
 
-  it("when the supervisor's qualitative addend is 0.5, then m = 3.5 scales both averages and the add-on still counts the plus factor only (DESIGN.md §4)", () => {
+  it("when the supervisor's qualitative addend is 0.5, then m = 3.5 scales both averages and the add-on still counts the plus factor only (docs/rules.md#multiplier)", () => {
     const opts = { regime: "eu" as const, asOf: lastOf(constant), count: 6, qualitativeAddend: 0.5 };
     const r = capitalRequirement(constant, opts);
     expect(r.multiplier).toBeCloseTo(4, 12); // 3 + 0.50 + 0.5

@@ -10,7 +10,7 @@ const asOf = obs[249].date;
 const opts = { regime: "eu" as const, asOf };
 
 describe("roll-off of exceptions", () => {
-  it("when an exception entered at position 10 of a full window, then it leaves 250 observations later: the 11th business day after the last one (DESIGN.md §4; worked by hand)", () => {
+  it("when an exception entered at position 10 of a full window, then it leaves 250 observations later: the 11th business day after the last one (docs/rules.md#forecast; worked by hand)", () => {
     const r = rollOffs(obs, opts);
     expect(r.map((x) => x.date)).toEqual(AT.map((i) => obs[i].date));
     expect(r[0].leavesOn).toBe(addBusinessDays(asOf, 11));
@@ -28,7 +28,7 @@ describe("roll-off of exceptions", () => {
 });
 
 describe("forecast at a future date", () => {
-  it("when the first exception has rolled off after 11 business days, then 4 remain and P(green) = 0.99^11 = 0.895338 (DESIGN.md §4; worked by hand)", () => {
+  it("when the first exception has rolled off after 11 business days, then 4 remain and P(green) = 0.99^11 = 0.895338 (docs/rules.md#forecast; worked by hand)", () => {
     const date = addBusinessDays(asOf, 11);
     const f = forecastAt(obs, { ...opts, date });
     expect(f.knownRemaining).toBe(4);

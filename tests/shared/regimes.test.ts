@@ -10,7 +10,7 @@ import {
 } from "../../shared/backtest/regimes";
 import { zoneLabel } from "../../shared/backtest/types";
 
-// Full schedules k = 0..12. Plus factors are status M in REFERENCE.md §2: "from memory".
+// Full schedules k = 0..12. Plus factors: BCBS 1996 Table 2 and MAR99; status in docs/rules.md#rule-sets.
 const BASEL_1996_PLUS = [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1, 1, 1];
 const FRTB_PLUS = [0, 0, 0, 0, 0, 0.2, 0.26, 0.33, 0.38, 0.42, 0.5, 0.5, 0.5];
 const ZONES = [
@@ -33,7 +33,7 @@ const SCHEDULES: Array<[RegimeId, string, number, readonly number[]]> = [
   ["basel", "BCBS 2009 para 718(Lxxvi) with BCBS 1996 Table 2 plus factors (from memory)", 3, BASEL_1996_PLUS],
   ["eu", "CRR Art. 366 Table 1 addends (from memory)", 3, BASEL_1996_PLUS],
   ["us", "12 CFR 217.204(b) Table 1 multiplication factors 3.00–4.00 (from memory)", 3, BASEL_1996_PLUS],
-  ["frtb", "MAR33.42 range 0–0.5 (V) and MAR99 steps (from memory)", 1.5, FRTB_PLUS],
+  ["frtb", "MAR33.42 range 0–0.5 and MAR99 steps (secondary source, docs/rules.md#frtb)", 1.5, FRTB_PLUS],
 ];
 
 describe.each(SCHEDULES)("the %s rule set", (id, source, base, plus) => {
@@ -53,18 +53,18 @@ describe("multiplication factors of the US rule", () => {
     expect(factors).toEqual([3, 3.4, 3.5, 3.65, 3.75, 3.85, 4]);
   });
 
-  it("when FRTB counts 4..10, then m_c is 1.50/1.70/1.76/1.83/1.88/1.92/2.00 (REFERENCE.md §2 FRTB, from memory)", () => {
+  it("when FRTB counts 4..10, then m_c is 1.50/1.70/1.76/1.83/1.88/1.92/2.00 (MAR99 steps, secondary source: docs/rules.md#frtb)", () => {
     const factors = [4, 5, 6, 7, 8, 9, 10].map((k) => Number(multiplierFor(k, "frtb").toFixed(2)));
     expect(factors).toEqual([1.5, 1.7, 1.76, 1.83, 1.88, 1.92, 2]);
   });
 
-  it("when the supervisor sets a qualitative addend of 0.3, then it is added to the multiplier (DESIGN.md §4)", () => {
+  it("when the supervisor sets a qualitative addend of 0.3, then it is added to the multiplier (docs/rules.md#multiplier)", () => {
     expect(multiplierFor(6, "eu", 0.3)).toBeCloseTo(3.8, 12);
   });
 });
 
 describe("rule sets as data", () => {
-  it("when each rule set is read, then it carries its label, citation, base multiplier and default basis (REFERENCE.md §2)", () => {
+  it("when each rule set is read, then it carries its label, citation, base multiplier and default basis (docs/rules.md#rule-sets)", () => {
     expect(getRegime("basel")).toMatchObject({
       label: "Basel 2.5",
       baseMultiplier: 3,
@@ -93,7 +93,7 @@ describe("rule sets as data", () => {
     expect(() => getRegime("xx" as RegimeId)).toThrow(/basel, us, eu, frtb/);
   });
 
-  it("when FRTB is in the middle zone, then it is labelled amber, and yellow elsewhere (MAR99; DESIGN.md §3)", () => {
+  it("when FRTB is in the middle zone, then it is labelled amber, and yellow elsewhere (MAR99; docs/rules.md#traffic-light)", () => {
     expect(zoneLabel("yellow", "frtb")).toBe("amber");
     expect(zoneLabel("yellow", "eu")).toBe("yellow");
     expect(zoneLabel("red", "frtb")).toBe("red");

@@ -22,7 +22,7 @@ function nonRejected(T: number, p: number): number[] {
 const range = (from: number, to: number): number[] => Array.from({ length: to - from + 1 }, (_, i) => from + i);
 
 describe("chi-square p-values", () => {
-  it("when the statistic equals the 5% critical value, then the p-value is 5% (REFERENCE.md §5: 3.841459 for χ²(1), 5.991465 for χ²(2))", () => {
+  it("when the statistic equals the 5% critical value, then the p-value is 5% (χ² tables, docs/rules.md#statistics: 3.841459 for χ²(1), 5.991465 for χ²(2))", () => {
     expect(chiSquareOneSf(CHI2_1_CRITICAL_5PCT)).toBeCloseTo(0.05, 7);
     expect(chiSquareTwoSf(CHI2_2_CRITICAL_5PCT)).toBeCloseTo(0.05, 7);
   });
@@ -70,7 +70,7 @@ describe("Kupiec proportion-of-failures test", () => {
     expect(nonRejected(1000, 0.05)).toEqual(range(38, 64));
   });
 
-  it("when p = 1% and T = 255, then the region is 1..6: the published N < 7 also admits N = 0, but the strict LR rejects it (LR = −2·255·ln 0.99 = 5.13 > 3.84; REFERENCE.md §5 note)", () => {
+  it("when p = 1% and T = 255, then the region is 1..6: the published N < 7 also admits N = 0, but the strict LR rejects it (LR = −2·255·ln 0.99 = 5.13 > 3.84; docs/rules.md#kupiec)", () => {
     expect(nonRejected(255, 0.01)).toEqual(range(1, 6));
     const zero = kupiecPof(0, 255, 0.01);
     expect(zero.statistic).toBeCloseTo(5.1257, 3);

@@ -5,11 +5,14 @@ import { parseInput, TooManyRequestsError } from "../../errors";
 import { loginBodySchema } from "../../../shared/schemas/auth";
 import { signIn, signOut } from "./auth.service";
 import { clearSessionCookie, setSessionCookie } from "./session.middleware";
+import { DatabaseCountStore } from "./sign-in-counts";
 
 export interface SignInLimits {
   windowMs: number;
   perAccount: number;
   perAddress: number;
+  /** Keys the counts in the database (shared by every server process); tests give their own. */
+  namespace?: string;
 }
 
 export const DEFAULT_SIGN_IN_LIMITS: SignInLimits = { windowMs: 15 * 60 * 1000, perAccount: 5, perAddress: 30 };
@@ -18,7 +21,10 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
   const r = createGuardedRouter();
   // Only failed attempts count; the message is the same whichever limit was reached.
   const tooMany = () => new TooManyRequestsError("Too many sign-in attempts. Wait 15 minutes and try again.");
+  // The counts live in MariaDB, so every worker process enforces the one limit (server/cluster.ts).
+  const ns = limits.namespace ?? "sign-in";
   const perAddress = rateLimit({
+    store: new DatabaseCountStore(`${ns}:address`),
     windowMs: limits.windowMs,
     limit: limits.perAddress,
     skipSuccessfulRequests: true,
@@ -27,6 +33,7 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
     handler: (_req, _res, next) => next(tooMany()),
   });
   const perAccount = rateLimit({
+    store: new DatabaseCountStore(`${ns}:account`),
     windowMs: limits.windowMs,
     limit: limits.perAccount,
     skipSuccessfulRequests: true,

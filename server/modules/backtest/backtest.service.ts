@@ -12,7 +12,7 @@ import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { countOpenFindings } from "../findings/findings.service";
 import { loadSeries } from "../observations/observations.repository";
 import { loadPortfolioContext, type PortfolioContext } from "./portfolio-context";
-import { reviewsByDate } from "../exceptions/reviews.read";
+import { reviewsByDate } from "../reviews/reviews.read";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import type { Observation } from "../../../shared/backtest/types";
 import type { BacktestResponse, DeskResult, OverviewItem, RollingRowDto } from "../../../shared/schemas/backtest";

@@ -1,10 +1,15 @@
 import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import { capitalParamSchema, forecastQuerySchema, whatIfBodySchema } from "../../../shared/schemas/capital";
-import { getForecast, getWhatIf } from "./capital.service";
+import { capitalHistory, getForecast, getWhatIf } from "./capital.service";
 
 export function capitalRouter() {
   const r = createGuardedRouter();
+  r.get("/api/entities/:code/capital/history", async (req, res) => {
+    const { code } = parseInput(capitalParamSchema, req.params, "address");
+    res.json(await capitalHistory(code, signedInActor(req)));
+  });
   r.get("/api/entities/:code/capital/forecast", async (req, res) => {
     const { code } = parseInput(capitalParamSchema, req.params, "address");
     res.json(await getForecast(code, parseInput(forecastQuerySchema, req.query, "query")));

@@ -1,6 +1,7 @@
 import { AppError, NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
+import { SnapshotModel } from "../../models/snapshot";
 import { backtestAt } from "../../../shared/backtest/exceptions";
 import { forecastAt } from "../../../shared/backtest/forecast";
 import { whatIf } from "../../../shared/backtest/what-if";
@@ -8,9 +9,19 @@ import { marginalCostOfNextException } from "../../../shared/backtest/capital";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { loadPortfolioContext, type PortfolioContext } from "../backtest/portfolio-context";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
-import { quarterEndOf } from "../../../shared/schemas/snapshot";
+import {
+  SIGNED_OFF,
+  quarterEndOf,
+  type CapitalHistoryItem,
+  type SnapshotFigures,
+} from "../../../shared/schemas/snapshot";
+import { readsSignedOffOnly } from "../snapshots/snapshots.read";
+import type { Actor } from "../../http/context";
+import type { SessionUser } from "../../../shared/schemas/auth";
 import type { z } from "zod";
 import type { whatIfBodySchema } from "../../../shared/schemas/capital";
+
+type SignedIn = Actor & { user: SessionUser };
 
 /** The entity's top-of-house portfolio with its current data, calendar and approved exclusions. */
 async function topOf(code: string): Promise<{ entity: EntityModel; ctx: PortfolioContext; latest: string }> {
@@ -87,7 +98,7 @@ export async function getForecast(code: string, query: { date?: string }): Promi
   };
 }
 
-/** The figures with extra exceptions and VaR / stressed VaR scaled (DESIGN §4), against today's. */
+/** The figures with extra exceptions and VaR / stressed VaR scaled (docs/rules.md#what-if), against today's. */
 export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySchema>): Promise<WhatIfResponse> {
   const { entity, ctx, latest } = await topOf(code);
   const asOf = body.asOf ?? latest;
@@ -109,4 +120,27 @@ export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySc
     svarScale: body.svarScale,
   });
   return { entity: entity.code, portfolio: ctx.portfolio.code, currency: entity.currency, asOf, ...result };
+}
+
+/** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
+export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const rows = await SnapshotModel.findAll({
+    where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
+    order: [["quarterEnd", "ASC"]],
+  });
+  return rows.map((r) => ({
+    quarterEnd: r.quarterEnd,
+    status: r.status,
+    zone: r.zone,
+    counted: r.counted,
+    plusFactor: r.plusFactor,
+    multiplier: r.multiplier,
+    capital: r.capital,
+    addOn: r.addOn,
+    snapshotId: r.id,
+    restatedAfterSignOff: r.restatedAt !== null,
+    windowComplete: (JSON.parse(r.figuresJson) as SnapshotFigures).window.complete,
+  }));
 }

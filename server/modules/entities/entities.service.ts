@@ -73,7 +73,7 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
           code: input.code,
           name: input.name,
           regime: input.regime,
-          // Each rule set has its own default basis for counting exceptions (REFERENCE.md §2).
+          // Each rule set has its own default basis for counting exceptions (docs/rules.md#pnl-basis).
           pnlBasis: input.pnlBasis ?? getRegime(input.regime).defaultPnlBasis,
           currency: input.currency,
           qualitativeAddend: input.qualitativeAddend ?? 0,

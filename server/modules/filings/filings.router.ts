@@ -1,25 +1,13 @@
-import type { Response } from "express";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import { filingIdParamSchema } from "../../../shared/schemas/filing";
 import { snapshotIdParamSchema } from "../../../shared/schemas/snapshot";
 import * as filings from "./filings.service";
-
-function sendPdf(res: Response, fileName: string, bytes: Buffer, sha256?: string) {
-  res.setHeader("Content-Type", "application/pdf");
-  res.setHeader("Content-Disposition", `attachment; filename="${fileName}"`);
-  if (sha256) res.setHeader("X-Pack-SHA256", sha256);
-  res.send(bytes);
-}
+import { sendDownload } from "../../http/download";
 
 export function filingsRouter() {
   const r = createGuardedRouter();
-  r.get("/api/snapshots/:id/pack.pdf", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
-    const pack = await filings.snapshotPack(id, signedInActor(req));
-    sendPdf(res, pack.fileName, pack.bytes);
-  });
   r.post("/api/snapshots/:id/filings", async (req, res) => {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
     const { filing, delivered } = await filings.fileSnapshot(id, signedInActor(req));
@@ -37,7 +25,12 @@ export function filingsRouter() {
   r.get("/api/filings/:id/pack.pdf", async (req, res) => {
     const { id } = parseInput(filingIdParamSchema, req.params, "address");
     const pack = await filings.filingPack(id, signedInActor(req));
-    sendPdf(res, pack.fileName, pack.bytes, pack.sha256);
+    sendDownload(res, {
+      fileName: pack.fileName,
+      contentType: "application/pdf",
+      bytes: pack.bytes,
+      headers: { "X-Pack-SHA256": pack.sha256 },
+    });
   });
   r.post("/api/filings/:id/acknowledge", async (req, res) => {
     const { id } = parseInput(filingIdParamSchema, req.params, "address");

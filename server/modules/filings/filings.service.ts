@@ -14,13 +14,8 @@ import { lastJournalEntry, noteInJournal } from "../../mail/journal";
 import { toSessionUser } from "../auth/auth.service";
 import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pack";
 import { recordAudit } from "../audit/audit.service";
-import {
-  getSnapshot,
-  lockForFiling,
-  recordAcknowledged,
-  recordFiled,
-  verifySnapshot,
-} from "../snapshots/snapshots.service";
+import { lockForFiling, recordAcknowledged, recordFiled } from "../snapshots/snapshots.service";
+import { verifySnapshot } from "../snapshots/snapshots.chain";
 import { signedFilingRecord } from "../snapshot-chain/snapshot-chain";
 import { quarterLabel } from "../../../shared/schemas/snapshot";
 import { CAUTION } from "../../../shared/schemas/common";
@@ -625,10 +620,4 @@ export async function verifyFiling(id: number, actor: SignedIn): Promise<FilingV
     true,
     `The pack is the file that was sent (as ${witnesses}), and its snapshot verifies: ${chain.detail}`,
   );
-}
-
-/** The pack of any snapshot, for the reporting office to read before filing (drafts say so on the page). */
-export async function snapshotPack(id: number, actor: SignedIn): Promise<{ fileName: string; bytes: Buffer }> {
-  const snapshot = await getSnapshot(id, actor);
-  return { fileName: snapshotPackFileName(snapshot), bytes: await renderSnapshotPack(snapshot) };
 }

@@ -2,6 +2,7 @@ import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
 import { outboxAttachmentParamSchema, outboxIdParamSchema } from "../../../shared/schemas/outbox";
 import * as outbox from "./outbox.service";
+import { sendDownload } from "../../http/download";
 
 /** The development mail outbox: what the local SMTP sink received, read back for the administrator. */
 export function outboxRouter() {
@@ -16,10 +17,12 @@ export function outboxRouter() {
   r.get("/api/admin/outbox/:id/attachments/:index", async (req, res) => {
     const { id, index } = parseInput(outboxAttachmentParamSchema, req.params, "address");
     const attachment = await outbox.readOutboxAttachment(id, index);
-    res.attachment(attachment.filename);
-    res.setHeader("Content-Type", attachment.contentType);
-    res.setHeader("X-Attachment-SHA256", attachment.sha256);
-    res.send(attachment.bytes);
+    sendDownload(res, {
+      fileName: attachment.filename,
+      contentType: attachment.contentType,
+      bytes: attachment.bytes,
+      headers: { "X-Attachment-SHA256": attachment.sha256 },
+    });
   });
   return r.router;
 }

@@ -10,13 +10,14 @@ import {
   snapshotListQuerySchema,
 } from "../../../shared/schemas/snapshot";
 import * as snapshots from "./snapshots.service";
+import { getSnapshot, listSnapshots, snapshotPack } from "./snapshots.read";
+import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
+import { sendDownload } from "../../http/download";
 
 export function snapshotsRouter() {
   const r = createGuardedRouter();
   r.get("/api/snapshots", async (req, res) => {
-    res.json(
-      await snapshots.listSnapshots(parseInput(snapshotListQuerySchema, req.query, "query"), signedInActor(req)),
-    );
+    res.json(await listSnapshots(parseInput(snapshotListQuerySchema, req.query, "query"), signedInActor(req)));
   });
   r.post("/api/snapshots", async (req, res) => {
     const { created, snapshot } = await snapshots.prepareSnapshot(
@@ -27,7 +28,12 @@ export function snapshotsRouter() {
   });
   r.get("/api/snapshots/:id", async (req, res) => {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
-    res.json(await snapshots.getSnapshot(id, signedInActor(req)));
+    res.json(await getSnapshot(id, signedInActor(req)));
+  });
+  r.get("/api/snapshots/:id/pack.pdf", async (req, res) => {
+    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const pack = await snapshotPack(id, signedInActor(req));
+    sendDownload(res, { fileName: pack.fileName, contentType: "application/pdf", bytes: pack.bytes });
   });
   r.post("/api/snapshots/:id/submit", async (req, res) => {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
@@ -43,15 +49,11 @@ export function snapshotsRouter() {
   });
   r.get("/api/snapshots/:id/verify", async (req, res) => {
     const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
-    res.json(await snapshots.verifySnapshot(id, signedInActor(req)));
+    res.json(await verifySnapshot(id, signedInActor(req)));
   });
   r.get("/api/entities/:code/chain/verify", async (req, res) => {
     const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await snapshots.verifyEntityChain(code));
-  });
-  r.get("/api/entities/:code/capital/history", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await snapshots.capitalHistory(code, signedInActor(req)));
+    res.json(await verifyEntityChain(code));
   });
   return r.router;
 }

@@ -4,6 +4,7 @@ import { signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
 import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
 import * as uploads from "./uploads.service";
+import { sendDownload } from "../../http/download";
 
 // Every limit set (multer defaults to unlimited); mounted on the upload route only. The storage
 // keeps the file in memory and checks it while it arrives.
@@ -17,9 +18,11 @@ export function uploadsRouter() {
   const r = createGuardedRouter();
 
   r.get("/api/uploads/template.csv", (_req, res) => {
-    res.setHeader("Content-Type", "text/csv; charset=utf-8");
-    res.setHeader("Content-Disposition", 'attachment; filename="quartermark-daily-template.csv"');
-    res.send(uploads.templateCsv());
+    sendDownload(res, {
+      fileName: "quartermark-daily-template.csv",
+      contentType: "text/csv; charset=utf-8",
+      bytes: uploads.templateCsv(),
+    });
   });
 
   r.post("/api/uploads", single, async (req, res) => {

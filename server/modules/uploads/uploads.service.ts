@@ -25,7 +25,7 @@ import { packBytesInBackground, storePackedFile, unpackBytes } from "./stored-by
 import type { StorageEngine } from "multer";
 import { receivingStorage, type ReceivedFile } from "./receiving-storage";
 import { checkedRowsOf, forgetCheckedRows, keepCheckedRows } from "./preview-cache";
-import { flagChangedSnapshots } from "../snapshots/snapshots.service";
+import { flagChangedSnapshots } from "../snapshots/snapshots.restatements";
 import { plainFileName } from "../../http/file-name";
 import {
   CsvFileError,

@@ -46,7 +46,7 @@ function emptyFor(role: Role) {
     title: "No quarter has been filed yet",
     next: (
       <>
-        A chief risk officer files an approved quarter under <Link to={paths.quarters.href()}>Quarter close</Link>; the
+        A chief risk officer files an approved quarter under <Link to={paths.snapshots.href()}>Quarter close</Link>; the
         pack then goes by e-mail to the entity's supervisor contacts and appears here.
       </>
     ),

@@ -46,7 +46,7 @@ function Standing() {
         items={items}
         backtestHref={(p) => paths.backtest.href(p)}
         findingsHref={(entity) => paths.data.href({ entity })}
-        quarterHref={(entity, snapshot) => paths.quarters.href({ entity, snapshot })}
+        quarterHref={(entity, snapshot) => paths.snapshots.href({ entity, snapshot })}
       />
     </>
   );

@@ -49,7 +49,7 @@ function seriesByPortfolio(entity: string, today: string) {
   return { dates, out };
 }
 
-// The demo story of DESIGN.md §9, checked with the engine for two different "today"s: the
+// The demo story (docs/architecture.md#demo-data), checked with the engine for two different "today"s: the
 // generator works relative to the last business day, so the story holds whenever it is seeded.
 describe.each([
   ["2026-12-01", "no holidays"],

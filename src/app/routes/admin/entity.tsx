@@ -6,7 +6,7 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { EntityForm } from "@/features/entities/components/entity-form";
 import { HolidaysPanel } from "@/features/entities/components/holidays-panel";
 import { PortfoliosPanel } from "@/features/entities/components/portfolios-panel";
-import { ruleSetLabels } from "@/features/entities/rule-sets";
+import { regimeLabels } from "@/lib/regime-labels";
 import { PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader =
@@ -44,7 +44,7 @@ export default function EntityRoute() {
           {entity.name} <span className="font-normal text-ink-muted">· {entity.code}</span>
         </h1>
         <p className="mt-1 text-sm text-ink-muted">
-          {ruleSetLabels[entity.regime]} · {entity.currency} · {portfolios.length}{" "}
+          {regimeLabels[entity.regime]} · {entity.currency} · {portfolios.length}{" "}
           {portfolios.length === 1 ? "portfolio" : "portfolios"} · {holidays.length}{" "}
           {holidays.length === 1 ? "holiday" : "holidays"}
         </p>

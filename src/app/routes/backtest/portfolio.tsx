@@ -13,7 +13,7 @@ import { TestsPanel } from "@/features/backtest/components/tests-panel";
 import { RollOffTable } from "@/components/ui/roll-off-table";
 import { DesksTable } from "@/features/backtest/components/desks-table";
 import { ExceptionTable } from "@/features/backtest/components/exception-table";
-import { ReviewPanel } from "@/features/backtest/components/review-panel";
+import { ReviewPanel } from "@/features/reviews/components/review-panel";
 import { PortfolioPicker } from "@/features/backtest/components/portfolio-picker";
 import { plural } from "@/lib/format";
 import { Button } from "@/components/ui/button";
@@ -152,7 +152,7 @@ function WhatNext({ bt, code, role }: { bt: BacktestResponse; code: string; role
           day={selected}
           role={role}
           currency={bt.entity.currency}
-          alsoInvalidate={[overviewQueries.root()]}
+          alsoInvalidate={[backtestQueries.root(), overviewQueries.root()]}
         />
       ) : (
         bt.exceptionDays.length > 0 && (

@@ -13,7 +13,7 @@ import { Button } from "@/components/ui/button";
 import { cn } from "@/lib/cn";
 import { formatAmount } from "@/lib/format";
 import { seriesOf } from "@/lib/pnl-series";
-import { reviewStatusOf } from "../words";
+import { reviewStatusOf } from "@/lib/review-labels";
 
 const col = createColumnHelper<ExceptionDayDto>();
 const nullsLast = (a: number | null, b: number | null) => (a === null ? (b === null ? 0 : -1) : b === null ? 1 : a - b);

@@ -3,7 +3,8 @@ import { Figure } from "@/components/ui/figure";
 import { Notice } from "@/components/ui/notice";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatBusinessDate, formatFactor, formatPercent, plural } from "@/lib/format";
-import { basisLabels, regimeLabels } from "../words";
+import { basisLabels } from "../words";
+import { regimeLabels } from "@/lib/regime-labels";
 
 /** The provisional banner: a short window or boundaries derived for a window other than 250 days. */
 export function ProvisionalBanner({ bt }: { bt: BacktestResponse }) {

@@ -6,7 +6,7 @@ import { FormMessage, SelectField, TextField } from "@/components/ui/field";
 import { fieldErrorsOf } from "@/lib/api-client";
 import { focusFirstInvalid, formLevelMessage, splitList, validate, type FieldErrors } from "@/lib/form";
 import { useCreateEntity, useUpdateEntity } from "../api/entity-queries";
-import { defaultPnlBasis, pnlBasisIds, pnlBasisLabels, ruleSetIds, ruleSetLabels } from "../rule-sets";
+import { defaultPnlBasis, pnlBasisIds, pnlBasisLabels, regimeIds, regimeLabels } from "@/lib/regime-labels";
 
 type Values = {
   code: string;
@@ -164,9 +164,9 @@ export function EntityForm(props: Props) {
           onChange={(e) => setRegime(e.target.value as RegimeId)}
           error={errors.regime}
         >
-          {ruleSetIds.map((r) => (
+          {regimeIds.map((r) => (
             <option key={r} value={r}>
-              {ruleSetLabels[r]}
+              {regimeLabels[r]}
             </option>
           ))}
         </SelectField>
@@ -179,7 +179,7 @@ export function EntityForm(props: Props) {
             set("pnlBasis")(e);
           }}
           error={errors.pnlBasis}
-          hint={`Default for ${ruleSetLabels[values.regime]}: ${pnlBasisLabels[defaultPnlBasis[values.regime]]}`}
+          hint={`Default for ${regimeLabels[values.regime]}: ${pnlBasisLabels[defaultPnlBasis[values.regime]]}`}
         >
           {pnlBasisIds.map((b) => (
             <option key={b} value={b}>

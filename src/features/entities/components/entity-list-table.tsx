@@ -2,7 +2,7 @@ import { Link } from "react-router-dom";
 import type { Entity } from "@shared/schemas/admin";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDecimal } from "@/lib/format";
-import { pnlBasisLabels, ruleSetLabels } from "../rule-sets";
+import { pnlBasisLabels, regimeLabels } from "@/lib/regime-labels";
 
 export function EntityListTable({ entities, hrefFor }: { entities: Entity[]; hrefFor: (code: string) => string }) {
   if (entities.length === 0) {
@@ -33,7 +33,7 @@ export function EntityListTable({ entities, hrefFor }: { entities: Entity[]; hre
               <Link to={hrefFor(e.code)}>{e.code}</Link>
             </Td>
             <Td>{e.name}</Td>
-            <Td className="whitespace-nowrap">{ruleSetLabels[e.regime]}</Td>
+            <Td className="whitespace-nowrap">{regimeLabels[e.regime]}</Td>
             <Td>{pnlBasisLabels[e.pnlBasis]}</Td>
             <Td className="figures">{e.currency}</Td>
             <Td numeric>{formatDecimal(e.qualitativeAddend)}</Td>

@@ -3,7 +3,7 @@ import type { Role } from "@shared/schemas/common";
 import { Link } from "react-router-dom";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDecimal } from "@/lib/format";
-import { pnlBasisLabels, ruleSetLabels } from "../rule-sets";
+import { pnlBasisLabels, regimeLabels } from "@/lib/regime-labels";
 
 function NextStepWhenEmpty({ role, addEntityHref }: { role: Role; addEntityHref?: string }) {
   switch (role) {
@@ -56,7 +56,7 @@ export function EntityOverviewTable({
           <Tr key={e.code}>
             <Td className="font-medium whitespace-nowrap">{e.code}</Td>
             <Td>{e.name}</Td>
-            <Td className="whitespace-nowrap">{ruleSetLabels[e.regime]}</Td>
+            <Td className="whitespace-nowrap">{regimeLabels[e.regime]}</Td>
             <Td>{pnlBasisLabels[e.pnlBasis]}</Td>
             <Td className="figures">{e.currency}</Td>
             <Td numeric>{formatDecimal(e.qualitativeAddend)}</Td>

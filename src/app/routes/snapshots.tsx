@@ -6,12 +6,12 @@ import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
-import { snapshotKeys, snapshotQueries } from "@/features/quarters/api/snapshot-queries";
+import { snapshotKeys, snapshotQueries } from "@/features/snapshots/api/snapshot-queries";
 import { filingQueries } from "@/features/filings/api/filing-queries";
-import { PrepareSnapshotForm } from "@/features/quarters/components/prepare-snapshot-form";
-import { SnapshotDetail } from "@/features/quarters/components/snapshot-detail";
-import { SnapshotListTable } from "@/features/quarters/components/snapshot-list-table";
-import { endedQuarterEnds } from "@/features/quarters/quarter-ends";
+import { PrepareSnapshotForm } from "@/features/snapshots/components/prepare-snapshot-form";
+import { SnapshotDetail } from "@/features/snapshots/components/snapshot-detail";
+import { SnapshotListTable } from "@/features/snapshots/components/snapshot-list-table";
+import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { FormMessage, SelectField } from "@/components/ui/field";
@@ -39,7 +39,7 @@ export const clientLoader =
     // A snapshot belongs to one entity: an address naming another entity beside it follows the
     // snapshot (the thing asked for by its id), so its figures never show under another entity's name.
     if (opened && entity !== undefined && opened.entity !== entity)
-      throw redirect(paths.quarters.href({ entity: opened.entity, snapshot: opened.id }));
+      throw redirect(paths.snapshots.href({ entity: opened.entity, snapshot: opened.id }));
     const code = opened?.entity ?? entity ?? entities[0]?.code;
     if (code) await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined);
     return null;
@@ -140,7 +140,7 @@ function SelectedSnapshot({
   );
 }
 
-export default function QuartersRoute() {
+export default function SnapshotsRoute() {
   const { data: user } = useSuspenseQuery(authQueries.me());
   const { data: entities } = useSuspenseQuery(entityQueries.all());
   const [search] = useSearchParams();
@@ -153,14 +153,14 @@ export default function QuartersRoute() {
   const list = useQuery({ ...snapshotQueries.list(entity), enabled: entity !== "" });
   const snapshots = list.data ?? [];
   const selectedId = params.snapshot ?? snapshots[0]?.id;
-  const snapshotHref = (id: number) => paths.quarters.href({ entity, snapshot: id });
+  const snapshotHref = (id: number) => paths.snapshots.href({ entity, snapshot: id });
   const current = entities.find((e) => e.code === entity);
   const latest = snapshots[0];
   const waiting = snapshots.filter((s) => s.status === "submitted").length;
 
   return (
     <section aria-labelledby="quarters-title" className="flex flex-col gap-5">
-      <PageTitle>{paths.quarters.label}</PageTitle>
+      <PageTitle>{paths.snapshots.label}</PageTitle>
       <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
         <div className="flex flex-col gap-1">
           <h1 id="quarters-title">Quarter close</h1>
@@ -170,7 +170,7 @@ export default function QuartersRoute() {
           <SelectField
             label="Entity"
             value={entity}
-            onChange={(e) => navigate(paths.quarters.href({ entity: e.target.value }))}
+            onChange={(e) => navigate(paths.snapshots.href({ entity: e.target.value }))}
             className="w-72"
           >
             {entities.map((e) => (
@@ -233,7 +233,7 @@ export default function QuartersRoute() {
                 snapshots={snapshots}
                 snapshotHref={snapshotHref}
                 onPrepared={(s) =>
-                  navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
+                  navigate(paths.snapshots.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
                 }
               />
             </section>
@@ -272,7 +272,7 @@ export default function QuartersRoute() {
               findingsHref={(e) => paths.data.href({ entity: e })}
               filingHref={(f) => paths.filings.href({ filing: f })}
               onPrepared={(s) =>
-                navigate(paths.quarters.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
+                navigate(paths.snapshots.href({ entity: s.entity, snapshot: s.id }), { preventScrollReset: true })
               }
             />
           )}

@@ -138,7 +138,7 @@ function SignOffForm({
   const approve = useApproveSnapshot(snapshot.id);
   const giveBack = useReturnSnapshot(snapshot.id);
   const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
-  // Four eyes (DESIGN §2): whoever prepared or submitted it may not approve it.
+  // Four eyes (docs/architecture.md#roles): whoever prepared or submitted it may not approve it.
   const ownWork = sameUser(snapshot.preparedBy, userEmail) || sameUser(snapshot.submittedBy, userEmail);
 
   function sendApprove() {

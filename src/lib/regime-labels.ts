@@ -2,7 +2,7 @@ import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 import { REGIMES } from "@shared/backtest/regimes";
 
 /** Each rule set's name, as the engine's rule table writes it. */
-export const ruleSetLabels = Object.fromEntries(
+export const regimeLabels = Object.fromEntries(
   (Object.keys(REGIMES) as RegimeId[]).map((id) => [id, REGIMES[id].label]),
 ) as Record<RegimeId, string>;
 
@@ -17,5 +17,5 @@ export const defaultPnlBasis = Object.fromEntries(
   (Object.keys(REGIMES) as RegimeId[]).map((id) => [id, REGIMES[id].defaultPnlBasis]),
 ) as Record<RegimeId, PnlBasis>;
 
-export const ruleSetIds = Object.keys(ruleSetLabels) as RegimeId[];
+export const regimeIds = Object.keys(regimeLabels) as RegimeId[];
 export const pnlBasisIds = Object.keys(pnlBasisLabels) as PnlBasis[];

@@ -4,6 +4,7 @@ import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
 import { decisionBodySchema, exceptionParamSchema, reviewBodySchema } from "../../../shared/schemas/backtest";
+import { sendDownload } from "../../http/download";
 import { addEvidence, EVIDENCE_MAX_BYTES, getEvidence, recordDecision, saveReview } from "./reviews.service";
 
 const evidenceUpload = multer({
@@ -42,10 +43,12 @@ export function reviewsRouter() {
   r.get("/api/evidence/:id", async (req, res) => {
     const { id } = parseInput(idParam, req.params, "address");
     const file = await getEvidence(id);
-    res.setHeader("Content-Type", "application/octet-stream");
-    res.setHeader("Content-Disposition", `attachment; filename="${file.fileName.replace(/[^\w.-]+/g, "_")}"`);
-    res.setHeader("X-Content-SHA256", file.sha256);
-    res.send(file.content);
+    sendDownload(res, {
+      fileName: file.fileName.replace(/[^\w.-]+/g, "_"),
+      contentType: "application/octet-stream",
+      bytes: file.content,
+      headers: { "X-Content-SHA256": file.sha256 },
+    });
   });
   return r.router;
 }

@@ -3,7 +3,7 @@ import userEvent from "@testing-library/user-event";
 import { vi } from "vitest";
 import { snapshotSchema, snapshotVerifySchema, type Snapshot, type SnapshotFigures } from "@shared/schemas/snapshot";
 import { filingSchema, type Filing } from "@shared/schemas/filing";
-import { endedQuarterEnds } from "@/features/quarters/quarter-ends";
+import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 

@@ -22,9 +22,9 @@ import {
   useAddEvidence,
   useRecordDecision,
   useSaveReview,
-} from "../api/backtest-queries";
+} from "../api/review-queries";
 import { seriesOf } from "@/lib/pnl-series";
-import { causeIds, causeLabels, exclusionStatusLabels } from "../words";
+import { causeIds, causeLabels, exclusionStatusLabels } from "@/lib/review-labels";
 
 /** A review as it stands: who explained it, why, and what the supervisor decided. */
 export function ReviewRecord({ review }: { review: Review }) {

@@ -7,7 +7,6 @@ import {
 } from "@shared/schemas/upload";
 import { api, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
-import { findingQueries } from "./finding-queries";
 
 /** The empty file with the header row and two example days; a plain download. */
 export const TEMPLATE_URL = "/api/uploads/template.csv";
@@ -60,15 +59,12 @@ export function useCommitUpload() {
   return useMutation({
     mutationFn: (id: number) => api.post(`/api/uploads/${id}/commit`, undefined, commitResultSchema),
     // Committed rows change the history, the findings and every figure computed from the data
-    // (zone, count, multiplier, add-on on the Overview and Backtest screens).
+    // (zone, count, multiplier, add-on on the Overview and Backtest screens): all but the rows of files.
     onSuccess: () =>
-      Promise.all([
-        queryClient.invalidateQueries({
-          predicate: (q) =>
-            everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows"),
-        }),
-        queryClient.invalidateQueries({ queryKey: findingQueries.root() }),
-      ]),
+      queryClient.invalidateQueries({
+        predicate: (q) =>
+          everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows"),
+      }),
   });
 }
 

@@ -63,7 +63,7 @@ export function SnapshotListTable({
                 {snapshotStatusLabels[s.status]}
               </Td>
               <Td>
-                {/* A window short of 250 observations gives a provisional zone (DESIGN §4), here as in the snapshot's figures. */}
+                {/* A window short of 250 observations gives a provisional zone (docs/rules.md#window), here as in the snapshot's figures. */}
                 <ZoneBadge zone={s.zone} regime={s.figures.regime} provisional={!s.figures.window.complete} />
               </Td>
               <Td numeric>{s.counted}</Td>

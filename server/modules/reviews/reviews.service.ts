@@ -12,7 +12,7 @@ import type { Transaction } from "sequelize";
 import type { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { reviewsByDate } from "./reviews.read";
-import { flagExclusionDecision } from "../snapshots/snapshots.service";
+import { flagExclusionDecision } from "../snapshots/snapshots.restatements";
 import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
 import type { Actor } from "../../http/context";

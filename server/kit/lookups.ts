@@ -1,0 +1,27 @@
+import type { Transaction } from "sequelize";
+import { NotFoundError } from "../errors";
+import { EntityModel } from "../models/entity";
+import { UserModel } from "../models/user";
+
+/** The entity with this code, or 404 "No entity with code …". */
+export async function entityByCode(
+  code: string,
+  options: { transaction?: Transaction; lock?: boolean } = {},
+): Promise<EntityModel> {
+  const { transaction, lock } = options;
+  const row = await EntityModel.findOne({
+    where: { code },
+    transaction,
+    ...(lock && transaction ? { lock: transaction.LOCK.UPDATE } : {}),
+  });
+  if (!row) throw new NotFoundError(`No entity with code ${code}.`);
+  return row;
+}
+
+/** The e-mail of each of these people, read once (ids that are null or repeated are skipped). */
+export async function emailsById(ids: Iterable<number | null | undefined>): Promise<Map<number, string>> {
+  const wanted = [...new Set([...ids].filter((v): v is number => typeof v === "number"))];
+  if (wanted.length === 0) return new Map();
+  const rows = await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] });
+  return new Map(rows.map((u) => [u.id, u.email]));
+}

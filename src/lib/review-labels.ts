@@ -1,0 +1,24 @@
+import type { ExceptionCause, ExceptionDayDto, ExclusionStatus } from "@shared/schemas/backtest";
+
+export const causeLabels: Record<ExceptionCause, string> = {
+  market_move: "Market move",
+  model_limitation: "Model limitation",
+  data_issue: "Data issue",
+  intraday_trading: "Intraday trading",
+  pricing: "Pricing",
+  other: "Other",
+};
+export const causeIds = Object.keys(causeLabels) as ExceptionCause[];
+
+export const exclusionStatusLabels: Record<ExclusionStatus, string> = {
+  none: "Explained",
+  requested: "Exclusion requested",
+  approved: "Excluded by the supervisor",
+  rejected: "Exclusion refused",
+};
+
+/** One word for where an exception's review stands, for the table and the overview. */
+export function reviewStatusOf(day: Pick<ExceptionDayDto, "review">): string {
+  if (!day.review) return "Not reviewed";
+  return exclusionStatusLabels[day.review.exclusionStatus];
+}

@@ -6,7 +6,8 @@
 import { EntityModel } from "../server/models/entity";
 import { HolidayModel } from "../server/models/holiday";
 import { UserModel } from "../server/models/user";
-import { commitUpload, previewUpload } from "../server/modules/uploads/uploads.service";
+import { commitUpload } from "../server/modules/uploads/upload-commit";
+import { previewUpload } from "../server/modules/uploads/uploads.service";
 import { toSessionUser } from "../server/modules/auth/auth.service";
 import { serialiseObservationCsv } from "../shared/ingest/parse-csv";
 import { demoDates, demoRowsFor, SCENARIO } from "./demo/scenario";

@@ -13,7 +13,7 @@ import { UserModel } from "../server/models/user";
 import { toSessionUser } from "../server/modules/auth/auth.service";
 import { closeFinding } from "../server/modules/findings/findings.service";
 import { approveSnapshot, prepareSnapshot, submitSnapshot } from "../server/modules/snapshots/snapshots.service";
-import { endedQuarterEnds, quarterLabel, quarterStart } from "../shared/schemas/snapshot";
+import { endedQuarterEnds, quarterLabel, quarterStart } from "../shared/backtest/quarters";
 
 const QUARTERS = 4;
 

@@ -1,19 +1,13 @@
 import type { Request } from "express";
 import type { SessionUser } from "../../shared/schemas/auth";
 import { UnauthorizedError } from "../errors";
-
-/** What a service needs to know about who acts and from where — never the request itself. */
-export interface Actor {
-  user: SessionUser | null;
-  ip: string | null;
-  requestId: string | null;
-}
+import type { Actor, SignedIn } from "../kit/actor";
 
 export function actorOf(req: Request): Actor {
   return { user: req.user ?? null, ip: req.ip ?? null, requestId: req.requestId ?? null };
 }
 
-export function signedInActor(req: Request): Actor & { user: SessionUser } {
+export function signedInActor(req: Request): SignedIn {
   if (!req.user) throw new UnauthorizedError();
   return { user: req.user, ip: req.ip ?? null, requestId: req.requestId ?? null };
 }

@@ -1,4 +1,5 @@
 import type { Role } from "../../shared/schemas/common";
+import { TOKEN_HOLDERS } from "../kit/roles";
 
 /**
  * Who may call what: the single authority for access on the server. Every route the app
@@ -11,11 +12,6 @@ import type { Role } from "../../shared/schemas/common";
 export type Access = "public" | "signed-in" | readonly Role[];
 
 const STAFF: readonly Role[] = ["analyst", "cro", "treasury", "admin"];
-/**
- * Who may hold personal API tokens for scripts (docs/architecture.md#roles); a token stops working
- * when its owner leaves these roles.
- */
-export const TOKEN_HOLDERS: readonly Role[] = ["treasury"];
 
 export const POLICY = {
   "GET /api/health": "public",

@@ -1,7 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
 import { PortfolioModel } from "./portfolio";
-import type { FindingKind } from "../../shared/schemas/upload";
+import type { FindingKind } from "../../shared/schemas/finding";
 
 export class DataFindingModel extends Model<
   InferAttributes<DataFindingModel>,

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import type { ExceptionCause, ExclusionStatus } from "../../shared/schemas/backtest";
+import type { ExceptionCause, ExclusionStatus } from "../../shared/schemas/review";
 
 export class ExceptionReviewModel extends Model<
   InferAttributes<ExceptionReviewModel>,

@@ -5,7 +5,8 @@ import PDFDocument from "pdfkit";
 import { woffToSfnt } from "./woff-to-sfnt";
 import { getRegime } from "../../shared/backtest/regimes";
 import { CAUTION } from "../../shared/schemas/common";
-import { quarterLabel, quarterStart, SIGNED_OFF, type Snapshot } from "../../shared/schemas/snapshot";
+import { quarterLabel, quarterStart } from "../../shared/backtest/quarters";
+import { SIGNED_OFF, type Snapshot } from "../../shared/schemas/snapshot";
 
 /**
  * The quarterly pack of one snapshot as a PDF: where the entity stands at the quarter end, the

@@ -1,5 +1,5 @@
 import { dayNumber, fromDayNumber } from "../backtest/calendar";
-import type { FindingKind } from "../schemas/upload";
+import type { FindingKind } from "../schemas/finding";
 
 export interface QualityInput {
   date: string;

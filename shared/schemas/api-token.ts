@@ -50,8 +50,6 @@ export const createApiTokenBodySchema = z.strictObject({
 });
 export type CreateApiTokenBody = z.input<typeof createApiTokenBodySchema>;
 
-export const apiTokenIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
-
 /** What a token's status is at `now`: revoked wins over expired. */
 export function apiTokenStatusAt(
   token: { expiresAt: string; revokedAt: string | null },

@@ -1,6 +1,7 @@
 import { z } from "zod";
-import { entityCodeSchema, isoDateSchema, regimeSchema } from "./common";
+import { isoDateSchema, regimeSchema } from "./common";
 import { rollOffSchema, zoneSchema } from "./backtest";
+import { snapshotSchema } from "./snapshot";
 
 /**
  * Capital: where the entity's figures may go next (docs/api.md#capital): the zone forecast for a
@@ -8,8 +9,6 @@ import { rollOffSchema, zoneSchema } from "./backtest";
  * engine (shared/backtest/forecast.ts, what-if.ts, capital.ts) on the current data of the
  * entity's top-of-house portfolio.
  */
-
-export const capitalParamSchema = z.object({ code: entityCodeSchema });
 
 /** `date`: the future date to forecast (default: the end of the current quarter). */
 export const forecastQuerySchema = z.object({ date: isoDateSchema.optional() }).strict();
@@ -94,3 +93,24 @@ export const whatIfResponseSchema = z.object({
   }),
 });
 export type WhatIfResponse = z.infer<typeof whatIfResponseSchema>;
+
+/** GET /api/entities/:code/capital/history: the entity's quarters as their snapshots hold them, oldest first. */
+export const capitalHistoryItemSchema = snapshotSchema
+  .pick({
+    quarterEnd: true,
+    status: true,
+    zone: true,
+    counted: true,
+    plusFactor: true,
+    multiplier: true,
+    capital: true,
+    addOn: true,
+  })
+  .extend({
+    snapshotId: z.number().int(),
+    restatedAfterSignOff: z.boolean(),
+    /** False when the quarter's window held fewer observations than the rules ask for: its zone is provisional. */
+    windowComplete: z.boolean(),
+  });
+export type CapitalHistoryItem = z.infer<typeof capitalHistoryItemSchema>;
+export const capitalHistorySchema = z.array(capitalHistoryItemSchema);

@@ -49,6 +49,20 @@ export const plainNameSchema = z
   // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), "No line breaks or control characters");
 
+/** The one schema of a numeric id in an address (/api/…/:id). */
+export const idParamSchema = z.object({ id: z.coerce.number().int().positive() });
+/** An entity's code in an address (/api/entities/:code/…). */
+export const entityCodeParamSchema = z.object({ code: entityCodeSchema });
+/** A portfolio's code in an address (/api/portfolios/:code/…), read in capitals. */
+export const portfolioCodeParamSchema = z.object({
+  code: z
+    .string()
+    .trim()
+    .min(1)
+    .max(40)
+    .transform((s) => s.toUpperCase()),
+});
+
 export const apiErrorSchema = z.object({
   error: z.object({
     code: z.string(),

@@ -45,8 +45,6 @@ export const filingSchema = z.object({
 });
 export type Filing = z.infer<typeof filingSchema>;
 export const filingListSchema = z.array(filingSchema);
-export const filingIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
-
 export const filingVerifySchema = z.object({
   valid: z.boolean(),
   sha256: z.string(),

@@ -18,43 +18,6 @@ export const quarterEndSchema = isoDateSchema.refine(
   "A quarter ends on 31 March, 30 June, 30 September or 31 December",
 );
 
-/** The first day of the quarter that ends on `quarterEnd`. */
-export function quarterStart(quarterEnd: string): string {
-  const month = Number(quarterEnd.slice(5, 7)) - 2;
-  return `${quarterEnd.slice(0, 4)}-${String(month).padStart(2, "0")}-01`;
-}
-
-const QUARTER_ENDS = ["03-31", "06-30", "09-30", "12-31"] as const;
-
-/** The end of the calendar quarter `date` (YYYY-MM-DD) falls in. */
-export function quarterEndOf(date: string): string {
-  return `${date.slice(0, 4)}-${QUARTER_ENDS[Math.ceil(Number(date.slice(5, 7)) / 3) - 1]}`;
-}
-
-/**
- * The last `count` calendar quarter ends that are over on `today` (YYYY-MM-DD; a quarter ends at
- * the close of its last day, so on 31 March itself Q1 is still open), newest first.
- */
-export function endedQuarterEnds(today: string, count: number): string[] {
-  const out: string[] = [];
-  let year = Number(today.slice(0, 4));
-  let q = QUARTER_ENDS.length - 1;
-  while (out.length < count) {
-    const end = `${year}-${QUARTER_ENDS[q]}`;
-    if (end < today) out.push(end);
-    if (q === 0) {
-      q = QUARTER_ENDS.length - 1;
-      year -= 1;
-    } else q -= 1;
-  }
-  return out;
-}
-
-/** "Q3 2026" for 2026-09-30. */
-export function quarterLabel(quarterEnd: string): string {
-  return `Q${Math.ceil(Number(quarterEnd.slice(5, 7)) / 3)} ${quarterEnd.slice(0, 4)}`;
-}
-
 export const createSnapshotSchema = z.object({ entity: entityCodeSchema, quarterEnd: quarterEndSchema }).strict();
 export type CreateSnapshotBody = z.infer<typeof createSnapshotSchema>;
 
@@ -73,7 +36,6 @@ export const returnSnapshotSchema = z
   .strict();
 export type ReturnSnapshotBody = z.infer<typeof returnSnapshotSchema>;
 
-export const snapshotIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
 export const snapshotListQuerySchema = z.object({ entity: entityCodeSchema.optional() }).strict();
 
 /** One desk of an FRTB entity at the quarter end. */
@@ -192,25 +154,3 @@ export const chainVerifySchema = z.object({
   detail: z.string(),
 });
 export type ChainVerify = z.infer<typeof chainVerifySchema>;
-
-/** GET /api/entities/:code/capital/history: the entity's quarters as their snapshots hold them, oldest first. */
-export const capitalHistoryItemSchema = snapshotSchema
-  .pick({
-    quarterEnd: true,
-    status: true,
-    zone: true,
-    counted: true,
-    plusFactor: true,
-    multiplier: true,
-    capital: true,
-    addOn: true,
-  })
-  .extend({
-    snapshotId: z.number().int(),
-    restatedAfterSignOff: z.boolean(),
-    /** False when the quarter's window held fewer observations than the rules ask for: its zone is provisional. */
-    windowComplete: z.boolean(),
-  });
-export type CapitalHistoryItem = z.infer<typeof capitalHistoryItemSchema>;
-export const capitalHistorySchema = z.array(capitalHistoryItemSchema);
-export const entityCodeParamSchema = z.object({ code: entityCodeSchema });

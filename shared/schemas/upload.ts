@@ -1,5 +1,4 @@
 import { z } from "zod";
-import { isoDateSchema } from "./common";
 
 /** The daily data file: required and optional columns, in the order the template writes them. */
 export const REQUIRED_COLUMNS = ["portfolio", "date", "actual_pnl", "hypothetical_pnl", "var_99"] as const;
@@ -122,64 +121,3 @@ export const uploadRowsPageSchema = z.object({
   total: z.number().int(),
 });
 export type UploadRowsPage = z.infer<typeof uploadRowsPageSchema>;
-
-export const uploadIdParamSchema = z.object({ id: z.coerce.number().int().positive() });
-
-// ---- observations read back ----
-export const observationsQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
-export const observationSchema = z.object({
-  date: z.string(),
-  actualPnl: z.number().nullable(),
-  hypotheticalPnl: z.number().nullable(),
-  var99: z.number().nullable(),
-  var975: z.number().nullable(),
-  svar99: z.number().nullable(),
-  var10d: z.number().nullable(),
-  svar10d: z.number().nullable(),
-  es975: z.number().nullable(),
-  ses: z.number().nullable(),
-  rtpl: z.number().nullable(),
-  version: z.number().int(),
-});
-export type ObservationDto = z.infer<typeof observationSchema>;
-export const observationListSchema = z.array(observationSchema);
-export const portfolioCodeParamSchema = z.object({
-  code: z
-    .string()
-    .trim()
-    .min(1)
-    .max(40)
-    .transform((s) => s.toUpperCase()),
-});
-
-// ---- data-quality findings ----
-export const findingKindSchema = z.enum(["missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"]);
-export type FindingKind = z.infer<typeof findingKindSchema>;
-export const findingStatusSchema = z.enum(["open", "resolved", "explained"]);
-export const findingSchema = z.object({
-  id: z.number().int(),
-  entity: z.string(),
-  portfolio: z.string(),
-  kind: findingKindSchema,
-  from: z.string(),
-  to: z.string(),
-  detail: z.string(),
-  status: findingStatusSchema,
-  note: z.string().nullable(),
-  closedBy: z.string().nullable(),
-  closedAt: z.string().nullable(),
-  version: z.number().int(),
-});
-export type Finding = z.infer<typeof findingSchema>;
-export const findingListSchema = z.array(findingSchema);
-export const findingsQuerySchema = z.object({
-  entity: z.string().max(20).optional(),
-  portfolio: z.string().max(40).optional(),
-  status: findingStatusSchema.optional(),
-});
-export const closeFindingBodySchema = z.strictObject({
-  status: z.enum(["resolved", "explained"]),
-  note: z.string().trim().min(3, "Say in a few words how it was resolved or why it is acceptable").max(2000),
-  version: z.number().int().positive(),
-});
-export type CloseFindingBody = z.infer<typeof closeFindingBodySchema>;

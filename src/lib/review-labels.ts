@@ -1,4 +1,5 @@
-import type { ExceptionCause, ExceptionDayDto, ExclusionStatus } from "@shared/schemas/backtest";
+import type { ExceptionCause, ExclusionStatus } from "@shared/schemas/review";
+import type { ExceptionDayDto } from "@shared/schemas/backtest";
 
 export const causeLabels: Record<ExceptionCause, string> = {
   market_move: "Market move",

@@ -3,7 +3,7 @@ import userEvent from "@testing-library/user-event";
 import { backtestAt, rollingBacktest } from "@shared/backtest/exceptions";
 import { rollOffs } from "@shared/backtest/forecast";
 import type { BacktestOptions, Observation } from "@shared/backtest/types";
-import type { Review } from "@shared/schemas/backtest";
+import type { Review } from "@shared/schemas/review";
 import { fakeApi, signedInAs, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 

@@ -5,8 +5,9 @@ import {
   whatIfResponseSchema,
   type ForecastResponse,
   type WhatIfResponse,
+  capitalHistorySchema,
+  type CapitalHistoryItem,
 } from "@shared/schemas/capital";
-import { capitalHistorySchema, type CapitalHistoryItem } from "@shared/schemas/snapshot";
 import { binomialPmf } from "@shared/backtest/binomial";
 import { everyFigure } from "@/lib/query-scope";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";

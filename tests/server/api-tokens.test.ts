@@ -8,7 +8,7 @@ import { ApiTokenModel } from "../../server/models/api-token";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { UserModel } from "../../server/models/user";
 import { apiTokenListSchema, createdApiTokenSchema } from "../../shared/schemas/api-token";
-import { capitalHistorySchema } from "../../shared/schemas/snapshot";
+import { capitalHistorySchema } from "../../shared/schemas/capital";
 import { createTestUser, sessionCookieFor, unique } from "./helpers";
 import { preparedAndSubmitted, Q3, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
 

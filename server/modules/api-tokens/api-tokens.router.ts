@@ -1,7 +1,8 @@
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { apiTokenIdParamSchema, createApiTokenBodySchema } from "../../../shared/schemas/api-token";
+import { idParamSchema } from "../../../shared/schemas/common";
+import { createApiTokenBodySchema } from "../../../shared/schemas/api-token";
 import { createApiToken, listApiTokens, revokeApiToken } from "./api-tokens.service";
 
 export function apiTokensRouter() {
@@ -17,7 +18,7 @@ export function apiTokensRouter() {
       );
   });
   r.delete("/api/tokens/:id", async (req, res) => {
-    const { id } = parseInput(apiTokenIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     await revokeApiToken(id, signedInActor(req));
     res.status(204).end();
   });

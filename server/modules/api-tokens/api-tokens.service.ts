@@ -4,10 +4,10 @@ import { sequelize } from "../../db/sequelize";
 import { ApiTokenModel } from "../../models/api-token";
 import { UserModel } from "../../models/user";
 import { ConflictError, NotFoundError } from "../../errors";
-import { TOKEN_HOLDERS } from "../../http/policy";
+import { TOKEN_HOLDERS } from "../../kit/roles";
 import { recordAudit } from "../audit/audit.service";
 import { toSessionUser } from "../auth/auth.service";
-import type { Actor } from "../../http/context";
+import type { Actor, SignedIn } from "../../kit/actor";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import {
   API_TOKEN_MARKER,
@@ -21,7 +21,6 @@ import {
 } from "../../../shared/schemas/api-token";
 import type { z } from "zod";
 
-type SignedInActor = Actor & { user: SessionUser };
 type CreateInput = z.output<typeof createApiTokenBodySchema>;
 
 const DAY_MS = 24 * 60 * 60 * 1000;
@@ -61,7 +60,7 @@ const target = (id: number) => `api token #${id}`;
 const activeWhere = (now: Date) => ({ revokedAt: null, expiresAt: { [Op.gt]: now } });
 
 /** The caller's own tokens, newest first, whatever their status. */
-export async function listApiTokens(actor: SignedInActor): Promise<ApiToken[]> {
+export async function listApiTokens(actor: SignedIn): Promise<ApiToken[]> {
   const rows = await ApiTokenModel.findAll({
     where: { userId: actor.user.id },
     order: [
@@ -85,7 +84,7 @@ async function assertRoomForAnotherToken(userId: number, now: Date, transaction:
 }
 
 /** Issues a token for the caller's scripts; the secret is in this answer and nowhere else, ever. */
-export async function createApiToken(input: CreateInput, actor: SignedInActor): Promise<CreatedApiToken> {
+export async function createApiToken(input: CreateInput, actor: SignedIn): Promise<CreatedApiToken> {
   const secret = newSecret();
   const now = new Date();
   return sequelize.transaction(async (transaction) => {
@@ -110,7 +109,7 @@ export async function createApiToken(input: CreateInput, actor: SignedInActor): 
 }
 
 /** Revokes one of the caller's own tokens; another person's token is "not found" to them. Revoking twice changes nothing. */
-export async function revokeApiToken(id: number, actor: SignedInActor): Promise<void> {
+export async function revokeApiToken(id: number, actor: SignedIn): Promise<void> {
   await sequelize.transaction(async (transaction) => {
     const row = await ApiTokenModel.findOne({
       where: { id, userId: actor.user.id },

@@ -1,7 +1,7 @@
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { assignmentParamSchema, createAssignmentBodySchema } from "../../../shared/schemas/admin";
+import { assignmentParamSchema, createAssignmentBodySchema } from "../../../shared/schemas/assignment";
 import { assignRegulator, listAssignments, unassignRegulator } from "./assignments.service";
 
 export function assignmentsRouter() {

@@ -5,11 +5,8 @@ import { ConflictError, NotFoundError, BadRequestError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { findEntity } from "../entities/entities.service";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-import type { Assignment } from "../../../shared/schemas/admin";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
+import type { Assignment } from "../../../shared/schemas/assignment";
 
 export async function listAssignments(): Promise<Assignment[]> {
   const rows = await RegulatorAssignmentModel.findAll({

@@ -3,7 +3,7 @@ import { sequelize } from "../../db/sequelize";
 import { logger } from "../../logger";
 import { AuditEventModel } from "../../models/audit-event";
 import { canonical, KEY_ID, sign, signatureMatches } from "../snapshot-chain/signing";
-import type { AuditVerify } from "../../../shared/schemas/admin";
+import type { AuditVerify } from "../../../shared/schemas/audit";
 
 /**
  * The audit log as a signed, append-only chain. Each event is signed when it is written (its

@@ -1,6 +1,6 @@
 import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
-import { auditQuerySchema } from "../../../shared/schemas/admin";
+import { auditQuerySchema } from "../../../shared/schemas/audit";
 import { listAuditEvents, verifyAuditLog } from "./audit.service";
 
 export function auditRouter() {

@@ -2,8 +2,8 @@ import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { AuditEventModel } from "../../models/audit-event";
 import { sign } from "../snapshot-chain/signing";
 import { auditEventText, sealAfterCommit, sealAuditLog } from "./audit-chain";
-import type { Actor } from "../../http/context";
-import type { AuditEvent, AuditQuery } from "../../../shared/schemas/admin";
+import type { Actor } from "../../kit/actor";
+import type { AuditEvent, AuditQuery } from "../../../shared/schemas/audit";
 
 /**
  * Writes one audit event — who, what, on which target, from where, before and after — signed with

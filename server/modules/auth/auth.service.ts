@@ -2,7 +2,7 @@ import bcrypt from "bcryptjs";
 import { UserModel } from "../../models/user";
 import { UnauthorizedError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import type { Actor } from "../../http/context";
+import type { Actor, SignedIn } from "../../kit/actor";
 import type { LoginBody, SessionUser } from "../../../shared/schemas/auth";
 import { signSessionToken, verifySessionToken } from "./tokens";
 
@@ -38,7 +38,7 @@ export async function signIn(credentials: LoginBody, actor: Actor): Promise<{ us
 }
 
 /** Ends every session of the user at once by raising the token version. */
-export async function signOut(actor: Actor & { user: SessionUser }): Promise<void> {
+export async function signOut(actor: SignedIn): Promise<void> {
   await UserModel.increment("tokenVersion", { by: 1, where: { id: actor.user.id } });
   await recordAudit(actor, "auth.sign_out", actor.user.email);
 }

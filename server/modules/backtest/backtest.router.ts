@@ -1,6 +1,6 @@
 import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
-import { portfolioCodeParamSchema } from "../../../shared/schemas/upload";
+import { portfolioCodeParamSchema } from "../../../shared/schemas/common";
 import { backtestQuerySchema, rollingQuerySchema } from "../../../shared/schemas/backtest";
 import { getBacktest, getOverview, getRolling } from "./backtest.service";
 

@@ -11,7 +11,8 @@ import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { loadSeries } from "../observations/observations.repository";
 import { deskResults } from "./backtest.service";
 import { loadPortfolioContext } from "./portfolio-context";
-import { quarterLabel, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { quarterLabel } from "../../../shared/backtest/quarters";
+import { type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import type { Observation } from "../../../shared/backtest/types";
 
 export interface QuarterFigures {

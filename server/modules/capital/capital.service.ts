@@ -8,20 +8,13 @@ import { whatIf } from "../../../shared/backtest/what-if";
 import { marginalCostOfNextException } from "../../../shared/backtest/capital";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { loadPortfolioContext, type PortfolioContext } from "../backtest/portfolio-context";
-import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
-import {
-  SIGNED_OFF,
-  quarterEndOf,
-  type CapitalHistoryItem,
-  type SnapshotFigures,
-} from "../../../shared/schemas/snapshot";
+import type { ForecastResponse, WhatIfResponse, whatIfBodySchema } from "../../../shared/schemas/capital";
+import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { quarterEndOf } from "../../../shared/backtest/quarters";
+import { type CapitalHistoryItem } from "../../../shared/schemas/capital";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
-import type { whatIfBodySchema } from "../../../shared/schemas/capital";
-
-type SignedIn = Actor & { user: SessionUser };
 
 /** The entity's top-of-house portfolio with its current data, calendar and approved exclusions. */
 async function topOf(code: string): Promise<{ entity: EntityModel; ctx: PortfolioContext; latest: string }> {

@@ -5,12 +5,12 @@ import {
   createEntityBodySchema,
   createHolidayBodySchema,
   createPortfolioBodySchema,
-  entityParamSchema,
   holidayParamSchema,
   portfolioParamSchema,
   updateEntityBodySchema,
   updatePortfolioBodySchema,
-} from "../../../shared/schemas/admin";
+} from "../../../shared/schemas/entity";
+import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import * as entities from "./entities.service";
 
 export function entitiesRouter() {
@@ -23,16 +23,16 @@ export function entitiesRouter() {
     res.status(201).json(await entities.createEntity(parseInput(createEntityBodySchema, req.body), signedInActor(req)));
   });
   r.patch("/api/entities/:code", async (req, res) => {
-    const { code } = parseInput(entityParamSchema, req.params, "address");
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
     res.json(await entities.updateEntity(code, parseInput(updateEntityBodySchema, req.body), signedInActor(req)));
   });
 
   r.get("/api/entities/:code/portfolios", async (req, res) => {
-    const { code } = parseInput(entityParamSchema, req.params, "address");
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
     res.json(await entities.listPortfolios(code, signedInActor(req).user));
   });
   r.post("/api/entities/:code/portfolios", async (req, res) => {
-    const { code } = parseInput(entityParamSchema, req.params, "address");
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
     res
       .status(201)
       .json(await entities.createPortfolio(code, parseInput(createPortfolioBodySchema, req.body), signedInActor(req)));
@@ -44,11 +44,11 @@ export function entitiesRouter() {
   });
 
   r.get("/api/entities/:code/holidays", async (req, res) => {
-    const { code } = parseInput(entityParamSchema, req.params, "address");
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
     res.json(await entities.listHolidays(code, signedInActor(req).user));
   });
   r.post("/api/entities/:code/holidays", async (req, res) => {
-    const { code } = parseInput(entityParamSchema, req.params, "address");
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
     res
       .status(201)
       .json(await entities.addHoliday(code, parseInput(createHolidayBodySchema, req.body), signedInActor(req)));

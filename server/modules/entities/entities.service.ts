@@ -8,7 +8,7 @@ import { ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
-import type { Actor } from "../../http/context";
+import type { SignedIn } from "../../kit/actor";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import type {
   CreateEntityBody,
@@ -18,9 +18,7 @@ import type {
   Holiday,
   Portfolio,
   UpdateEntityBody,
-} from "../../../shared/schemas/admin";
-
-type SignedIn = Actor & { user: SessionUser };
+} from "../../../shared/schemas/entity";
 
 export function toEntity(row: EntityModel): Entity {
   return {

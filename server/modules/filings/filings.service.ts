@@ -17,13 +17,10 @@ import { recordAudit } from "../audit/audit.service";
 import { lockForFiling, recordAcknowledged, recordFiled } from "../snapshots/snapshots.service";
 import { verifySnapshot } from "../snapshots/snapshots.chain";
 import { signedFilingRecord } from "../snapshot-chain/snapshot-chain";
-import { quarterLabel } from "../../../shared/schemas/snapshot";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import { CAUTION } from "../../../shared/schemas/common";
 import type { Filing, FilingVerify } from "../../../shared/schemas/filing";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
 

@@ -1,11 +1,9 @@
-import { z } from "zod";
+import { idParamSchema } from "../../../shared/schemas/common";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { closeFindingBodySchema, findingsQuerySchema } from "../../../shared/schemas/upload";
+import { closeFindingBodySchema, findingsQuerySchema } from "../../../shared/schemas/finding";
 import { closeFinding, listFindings } from "./findings.service";
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
 
 export function findingsRouter() {
   const r = createGuardedRouter();
@@ -13,7 +11,7 @@ export function findingsRouter() {
     res.json(await listFindings(parseInput(findingsQuerySchema, req.query, "query")));
   });
   r.put("/api/findings/:id", async (req, res) => {
-    const { id } = parseInput(idParam, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await closeFinding(id, parseInput(closeFindingBodySchema, req.body), signedInActor(req)));
   });
   return r.router;

@@ -7,13 +7,11 @@ import { HolidayModel } from "../../models/holiday";
 import { UserModel } from "../../models/user";
 import { ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import { loadQualitySeries, type QualityDay } from "../observations/observations.repository";
+import { loadQualitySeries } from "../observations/observations.repository";
+import { type QualityDay } from "../../../shared/ingest/row-plan";
 import { findDataQualityIssues, type QualityFinding } from "../../../shared/ingest/data-quality";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-import type { CloseFindingBody, Finding } from "../../../shared/schemas/upload";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
+import type { CloseFindingBody, Finding } from "../../../shared/schemas/finding";
 
 /** What a commit already holds in memory: each portfolio's current days inside the span it wrote. */
 export interface KnownSpan {

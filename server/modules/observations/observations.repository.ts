@@ -3,23 +3,10 @@ import { sequelize } from "../../db/sequelize";
 import { connectionOf } from "../../db/raw-connection";
 import { AMOUNT_COLUMNS, type AmountColumn } from "../../../shared/schemas/upload";
 import type { Observation } from "../../../shared/backtest/types";
+import type { NewVersion, QualityDay, StoredDay, VersionKey } from "../../../shared/ingest/row-plan";
 
 /** Column in the table for each CSV amount column (they are the same names). */
 const AMOUNT_SQL = AMOUNT_COLUMNS.join(", ");
-
-export interface StoredDay {
-  portfolioId: number;
-  date: string;
-  version: number;
-  values: Record<AmountColumn, number | null>;
-}
-
-/** A day to write: the parsed row (amounts by CSV column) with its portfolio id and version. */
-export interface NewVersion {
-  portfolioId: number;
-  version: number;
-  row: { date: string } & { [K in AmountColumn]?: number | null };
-}
 
 const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/;
 const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
@@ -166,13 +153,6 @@ function insertBatch(
   return `SET STATEMENT foreign_key_checks = 0 FOR INSERT INTO observations (portfolio_id, business_date${columns}, upload_id) VALUES ${values}`;
 }
 
-/** A stored version, by its key. */
-export interface VersionKey {
-  portfolioId: number;
-  date: string;
-  version: number;
-}
-
 /** Queues clearing the current flag on versions that a restatement replaces (before the new ones are written). */
 export function queueRetireVersions(writes: PipelinedWrites, keys: readonly VersionKey[]): void {
   for (let start = 0; start < keys.length; start += 2000) {
@@ -213,13 +193,6 @@ export async function loadSeries(
     ses: num(r.ses),
     rtpl: num(r.rtpl),
   }));
-}
-
-export interface QualityDay {
-  date: string;
-  actualPnl: number | null;
-  hypotheticalPnl: number | null;
-  var99: number | null;
 }
 
 /**

@@ -1,6 +1,7 @@
 import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
-import { observationsQuerySchema, portfolioCodeParamSchema } from "../../../shared/schemas/upload";
+import { observationsQuerySchema } from "../../../shared/schemas/observation";
+import { portfolioCodeParamSchema } from "../../../shared/schemas/common";
 import { listObservations } from "./observations.service";
 
 export function observationsRouter() {

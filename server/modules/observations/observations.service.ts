@@ -1,7 +1,7 @@
 import { PortfolioModel } from "../../models/portfolio";
 import { NotFoundError } from "../../errors";
 import { loadSeries } from "./observations.repository";
-import type { ObservationDto } from "../../../shared/schemas/upload";
+import type { ObservationDto } from "../../../shared/schemas/observation";
 
 /** The current version of each stored day of one portfolio. */
 export async function listObservations(code: string, range: { from?: string; to?: string }): Promise<ObservationDto[]> {

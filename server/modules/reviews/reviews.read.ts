@@ -2,7 +2,7 @@ import { Op } from "sequelize";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
 import { UserModel } from "../../models/user";
-import type { Review } from "../../../shared/schemas/backtest";
+import type { Review } from "../../../shared/schemas/review";
 
 /** Reviews of a portfolio's exception days (with their evidence), keyed by date. */
 export async function reviewsByDate(portfolioId: number, dates?: string[]): Promise<Map<string, Review>> {

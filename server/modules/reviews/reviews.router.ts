@@ -1,9 +1,9 @@
+import { idParamSchema } from "../../../shared/schemas/common";
 import multer from "multer";
-import { z } from "zod";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
-import { decisionBodySchema, exceptionParamSchema, reviewBodySchema } from "../../../shared/schemas/backtest";
+import { decisionBodySchema, exceptionParamSchema, reviewBodySchema } from "../../../shared/schemas/review";
 import { sendDownload } from "../../http/download";
 import { addEvidence, EVIDENCE_MAX_BYTES, getEvidence, recordDecision, saveReview } from "./reviews.service";
 
@@ -12,8 +12,6 @@ const evidenceUpload = multer({
   preservePath: true,
   limits: { fileSize: EVIDENCE_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
 }).single("file");
-
-const idParam = z.object({ id: z.coerce.number().int().positive() });
 
 export function reviewsRouter() {
   const r = createGuardedRouter();
@@ -41,7 +39,7 @@ export function reviewsRouter() {
   });
   // Always a download, never rendered by the browser: evidence is whatever someone uploaded.
   r.get("/api/evidence/:id", async (req, res) => {
-    const { id } = parseInput(idParam, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     const file = await getEvidence(id);
     sendDownload(res, {
       fileName: file.fileName.replace(/[^\w.-]+/g, "_"),

@@ -7,7 +7,7 @@ import { ObservationModel } from "../../models/observation";
 import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { findPortfolio } from "../backtest/portfolio-context";
-import { plainFileName } from "../../http/file-name";
+import { plainFileName } from "../../kit/file-name";
 import type { Transaction } from "sequelize";
 import type { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
@@ -15,11 +15,8 @@ import { reviewsByDate } from "./reviews.read";
 import { flagExclusionDecision } from "../snapshots/snapshots.restatements";
 import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/backtest";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
+import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/review";
 
 export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
 

@@ -2,7 +2,7 @@ import type { Transaction } from "sequelize";
 import { ChainHeadModel, ChainLinkModel, type ChainLinkKind } from "../../models/snapshot-chain";
 import { sequelize } from "../../db/sequelize";
 import { SnapshotModel } from "../../models/snapshot";
-import { quarterLabel } from "../../../shared/schemas/snapshot";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import type { ChainProblem } from "../../../shared/schemas/snapshot";
 import { canonical, KEY_ID, sha256, sign, signatureMatches } from "./signing";
 

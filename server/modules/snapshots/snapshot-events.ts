@@ -1,9 +1,6 @@
 import type { SnapshotModel } from "../../models/snapshot";
 import type { SnapshotEvent } from "../../../shared/schemas/snapshot";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 /** One line of a snapshot's history: who did what, when, with their comment. */
 export function snapshotEvent(

@@ -3,10 +3,7 @@ import type { ChainVerify, SnapshotVerify } from "../../../shared/schemas/snapsh
 import { verifyChain } from "../snapshot-chain/snapshot-chain";
 import { visibleSnapshotRow } from "./snapshots.read";
 import { NotFoundError } from "../../errors";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 /**
  * Checks the snapshot against the entity's signed chain (server/modules/snapshot-chain): the chain

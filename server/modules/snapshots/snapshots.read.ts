@@ -6,17 +6,9 @@ import { SnapshotModel } from "../../models/snapshot";
 import { UserModel } from "../../models/user";
 import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pack";
 import { countOpenFindings } from "../findings/findings.service";
-import {
-  SIGNED_OFF,
-  quarterStart,
-  type Snapshot,
-  type SnapshotEvent,
-  type SnapshotFigures,
-} from "../../../shared/schemas/snapshot";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import { SIGNED_OFF, type Snapshot, type SnapshotEvent, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { quarterStart } from "../../../shared/backtest/quarters";
+import type { SignedIn } from "../../kit/actor";
 
 /** Treasury reads signed-off figures only (docs/architecture.md#roles). */
 export const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";

@@ -5,10 +5,7 @@ import { recordAudit } from "../audit/audit.service";
 import { appendLink } from "../snapshot-chain/snapshot-chain";
 import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import { snapshotEvent, withEvent } from "./snapshot-events";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-
-type SignedIn = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
 
 // A day restated after sign-off flags the snapshots whose window holds it; their figures stay as approved.
 

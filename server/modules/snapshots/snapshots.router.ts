@@ -3,12 +3,12 @@ import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createSnapshotSchema,
-  entityCodeParamSchema,
   returnSnapshotSchema,
   snapshotActionSchema,
-  snapshotIdParamSchema,
   snapshotListQuerySchema,
 } from "../../../shared/schemas/snapshot";
+import { idParamSchema } from "../../../shared/schemas/common";
+import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import * as snapshots from "./snapshots.service";
 import { getSnapshot, listSnapshots, snapshotPack } from "./snapshots.read";
 import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
@@ -27,28 +27,28 @@ export function snapshotsRouter() {
     res.status(created ? 201 : 200).json(snapshot);
   });
   r.get("/api/snapshots/:id", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await getSnapshot(id, signedInActor(req)));
   });
   r.get("/api/snapshots/:id/pack.pdf", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     const pack = await snapshotPack(id, signedInActor(req));
     sendDownload(res, { fileName: pack.fileName, contentType: "application/pdf", bytes: pack.bytes });
   });
   r.post("/api/snapshots/:id/submit", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await snapshots.submitSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
   });
   r.post("/api/snapshots/:id/approve", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await snapshots.approveSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
   });
   r.post("/api/snapshots/:id/return", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await snapshots.returnSnapshot(id, parseInput(returnSnapshotSchema, req.body ?? {}), signedInActor(req)));
   });
   r.get("/api/snapshots/:id/verify", async (req, res) => {
-    const { id } = parseInput(snapshotIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await verifySnapshot(id, signedInActor(req)));
   });
   r.get("/api/entities/:code/chain/verify", async (req, res) => {

@@ -7,8 +7,8 @@ import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
 import { recordAudit } from "../audit/audit.service";
 import { quarterFigures } from "../backtest/quarter-figures";
+import { quarterLabel } from "../../../shared/backtest/quarters";
 import {
-  quarterLabel,
   type CreateSnapshotBody,
   type ReturnSnapshotBody,
   type Snapshot,
@@ -17,13 +17,10 @@ import {
 import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { appendLink } from "../snapshot-chain/snapshot-chain";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
+import type { SignedIn } from "../../kit/actor";
 
 // The sign-off: an analyst prepares and submits a past quarter, a CRO approves (sealing it into the
 // entity's hash chain) or returns it; filing then locks and marks it.
-
-type SignedIn = Actor & { user: SessionUser };
 
 const today = () => new Date().toISOString().slice(0, 10);
 

@@ -2,14 +2,18 @@ import multer from "multer";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
-import { UPLOAD_MAX_BYTES, uploadIdParamSchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { UPLOAD_MAX_BYTES, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { idParamSchema } from "../../../shared/schemas/common";
 import * as uploads from "./uploads.service";
+import { commitUpload } from "./upload-commit";
+import { templateCsv, uploadStorage } from "./upload-files";
+import { getUploadRows } from "./upload-rows";
 import { sendDownload } from "../../http/download";
 
 // Every limit set (multer defaults to unlimited); mounted on the upload route only. The storage
 // keeps the file in memory and checks it while it arrives.
 const single = multer({
-  storage: uploads.uploadStorage(),
+  storage: uploadStorage(),
   preservePath: true, // keep folders in the name so that such a name is refused, not silently cut
   limits: { fileSize: UPLOAD_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
 }).single("file");
@@ -21,7 +25,7 @@ export function uploadsRouter() {
     sendDownload(res, {
       fileName: "quartermark-daily-template.csv",
       contentType: "text/csv; charset=utf-8",
-      bytes: uploads.templateCsv(),
+      bytes: templateCsv(),
     });
   });
 
@@ -39,19 +43,19 @@ export function uploadsRouter() {
     res.json(await uploads.listUploads());
   });
   r.get("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await uploads.getUpload(id));
   });
   r.get("/api/uploads/:id/rows", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
-    res.json(await uploads.getUploadRows(id, parseInput(uploadRowsQuerySchema, req.query, "query")));
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await getUploadRows(id, parseInput(uploadRowsQuerySchema, req.query, "query")));
   });
   r.post("/api/uploads/:id/commit", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
-    res.json(await uploads.commitUpload(id, signedInActor(req)));
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await commitUpload(id, signedInActor(req)));
   });
   r.delete("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(uploadIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     await uploads.discardUpload(id, signedInActor(req));
     res.status(204).end();
   });

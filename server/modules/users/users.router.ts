@@ -1,12 +1,8 @@
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import {
-  createUserBodySchema,
-  resetPasswordBodySchema,
-  updateUserBodySchema,
-  userIdParamSchema,
-} from "../../../shared/schemas/admin";
+import { createUserBodySchema, resetPasswordBodySchema, updateUserBodySchema } from "../../../shared/schemas/user";
+import { idParamSchema } from "../../../shared/schemas/common";
 import { createUser, listUsers, resetPassword, updateUser } from "./users.service";
 
 export function usersRouter() {
@@ -18,11 +14,11 @@ export function usersRouter() {
     res.status(201).json(await createUser(parseInput(createUserBodySchema, req.body), signedInActor(req)));
   });
   r.patch("/api/users/:id", async (req, res) => {
-    const { id } = parseInput(userIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await updateUser(id, parseInput(updateUserBodySchema, req.body), signedInActor(req)));
   });
   r.post("/api/users/:id/password", async (req, res) => {
-    const { id } = parseInput(userIdParamSchema, req.params, "address");
+    const { id } = parseInput(idParamSchema, req.params, "address");
     await resetPassword(id, parseInput(resetPasswordBodySchema, req.body), signedInActor(req));
     res.status(204).end();
   });

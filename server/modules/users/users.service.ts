@@ -3,14 +3,11 @@ import { AppError, ConflictError, NotFoundError, ForbiddenError } from "../../er
 import { recordAudit } from "../audit/audit.service";
 import { hashPassword } from "../auth/auth.service";
 import { revokeApiTokensOf } from "../api-tokens/api-tokens.service";
-import { TOKEN_HOLDERS } from "../../http/policy";
+import { TOKEN_HOLDERS } from "../../kit/roles";
 import { sequelize } from "../../db/sequelize";
 import type { Transaction } from "sequelize";
-import type { Actor } from "../../http/context";
-import type { SessionUser } from "../../../shared/schemas/auth";
-import type { CreateUserBody, ResetPasswordBody, UpdateUserBody, User } from "../../../shared/schemas/admin";
-
-type AdminActor = Actor & { user: SessionUser };
+import type { SignedIn } from "../../kit/actor";
+import type { CreateUserBody, ResetPasswordBody, UpdateUserBody, User } from "../../../shared/schemas/user";
 
 function toUser(row: UserModel): User {
   return {
@@ -61,7 +58,7 @@ export async function listUsers(): Promise<User[]> {
   return rows.map(toUser);
 }
 
-export async function createUser(input: CreateUserBody, actor: AdminActor): Promise<User> {
+export async function createUser(input: CreateUserBody, actor: SignedIn): Promise<User> {
   if (await UserModel.findOne({ where: { email: input.email } })) {
     throw new ConflictError(`A user with the e-mail ${input.email} already exists.`);
   }
@@ -78,7 +75,7 @@ export async function createUser(input: CreateUserBody, actor: AdminActor): Prom
 }
 
 /** Role and status changes revoke the user's sessions at once (token version). */
-export async function updateUser(id: number, change: UpdateUserBody, actor: AdminActor): Promise<User> {
+export async function updateUser(id: number, change: UpdateUserBody, actor: SignedIn): Promise<User> {
   if (id === actor.user.id && (change.disabled === true || (change.role && change.role !== "admin"))) {
     throw new ForbiddenError("You cannot disable your own account or remove your own admin role.", "self_lockout");
   }
@@ -112,7 +109,7 @@ export async function updateUser(id: number, change: UpdateUserBody, actor: Admi
 export async function resetPassword(
   id: number,
   { password, version }: ResetPasswordBody,
-  actor: AdminActor,
+  actor: SignedIn,
 ): Promise<User> {
   await findUser(id);
   const passwordHash = await hashPassword(password); // slow on purpose: outside the transaction

@@ -1,7 +1,8 @@
 import { useEffect } from "react";
 import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
-import { quarterLabel, type Snapshot } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";

@@ -1,4 +1,4 @@
-import type { FindingKind } from "@shared/schemas/upload";
+import type { FindingKind } from "@shared/schemas/finding";
 
 export const findingKindLabels: Record<FindingKind, string> = {
   missing_day: "Missing business days",

@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import { assignmentListSchema } from "@shared/schemas/admin";
+import { assignmentListSchema } from "@shared/schemas/assignment";
 import { api } from "@/lib/api-client";
 
 export const assignmentQueries = {

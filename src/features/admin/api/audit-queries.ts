@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions } from "@tanstack/react-query";
-import { auditPageSchema } from "@shared/schemas/admin";
+import { auditPageSchema } from "@shared/schemas/audit";
 import { api, withQuery } from "@/lib/api-client";
 
 export const AUDIT_PAGE_SIZE = 50;

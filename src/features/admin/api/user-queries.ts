@@ -6,7 +6,7 @@ import {
   type ResetPasswordBody,
   type UpdateUserBody,
   type User,
-} from "@shared/schemas/admin";
+} from "@shared/schemas/user";
 import { api, isApiError } from "@/lib/api-client";
 import { assignmentQueries } from "./assignment-queries";
 

@@ -1,5 +1,7 @@
 import { useState, type FormEvent } from "react";
-import type { Assignment, Entity, User } from "@shared/schemas/admin";
+import type { Assignment } from "@shared/schemas/assignment";
+import type { Entity } from "@shared/schemas/entity";
+import type { User } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";

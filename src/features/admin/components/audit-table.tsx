@@ -1,4 +1,4 @@
-import type { AuditEvent } from "@shared/schemas/admin";
+import type { AuditEvent } from "@shared/schemas/audit";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { compactJson, formatDateTime } from "@/lib/format";
 

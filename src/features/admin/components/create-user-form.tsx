@@ -1,5 +1,5 @@
 import { useRef, useState, type FormEvent } from "react";
-import { createUserBodySchema } from "@shared/schemas/admin";
+import { createUserBodySchema } from "@shared/schemas/user";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from "react";
-import { resetPasswordBodySchema, type User } from "@shared/schemas/admin";
+import { resetPasswordBodySchema, type User } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";

@@ -1,5 +1,5 @@
 import { Fragment, useState } from "react";
-import type { User } from "@shared/schemas/admin";
+import type { User } from "@shared/schemas/user";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";

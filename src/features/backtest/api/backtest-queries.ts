@@ -1,5 +1,5 @@
 import { queryOptions } from "@tanstack/react-query";
-import { observationListSchema } from "@shared/schemas/upload";
+import { observationListSchema } from "@shared/schemas/observation";
 import { backtestResponseSchema, rollingResponseSchema } from "@shared/schemas/backtest";
 import { api, withQuery } from "@/lib/api-client";
 

@@ -11,17 +11,15 @@ import {
   YAxis,
 } from "recharts";
 import type { BacktestResponse } from "@shared/schemas/backtest";
-import type { ObservationDto } from "@shared/schemas/upload";
+import type { ObservationDto } from "@shared/schemas/observation";
 import { cn } from "@/lib/cn";
 import { compactAmount, formatAmount, plural } from "@/lib/format";
+import { chartColours } from "@/styles/palette";
 
 type Series = "actual" | "hypothetical";
 
-const ink = "#1b2638";
-const muted = "#66728a";
-const rule = "#ddd6c8";
-const accent = "#0e6571";
-const loss = "#a3271d";
+const { ink, label: muted, grid: rule, accent, paper } = chartColours;
+const loss = chartColours.zone.red;
 
 type Point = {
   date: string;
@@ -37,7 +35,7 @@ function Diamond({ cx, cy, fill }: { cx?: number; cy?: number; fill?: string }) 
   return (
     <path
       d={`M${cx},${cy - 5}L${cx + 5},${cy}L${cx},${cy + 5}L${cx - 5},${cy}Z`}
-      fill="#fcfaf6"
+      fill={paper}
       stroke={fill}
       strokeWidth={1.75}
     />

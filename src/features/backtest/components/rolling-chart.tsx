@@ -14,11 +14,9 @@ import type { RollingRowDto } from "@shared/schemas/backtest";
 import type { RegimeId } from "@shared/schemas/common";
 import { zoneBoundariesFor } from "@shared/backtest/regimes";
 import { zoneName } from "@/components/ui/zone-badge";
+import { chartColours } from "@/styles/palette";
 
-const ink = "#1b2638";
-const muted = "#66728a";
-const rule = "#ddd6c8";
-const bands = { green: "#2e6f45", yellow: "#8a6210", red: "#a3271d" } as const;
+const { ink, label: muted, grid: rule, zone: bands } = chartColours;
 
 /**
  * Counted exceptions in the trailing window on every date of the history, drawn over the zone

@@ -1,7 +1,11 @@
 import { queryOptions } from "@tanstack/react-query";
 import type { z } from "zod";
-import { forecastResponseSchema, whatIfResponseSchema, type whatIfBodySchema } from "@shared/schemas/capital";
-import { capitalHistorySchema } from "@shared/schemas/snapshot";
+import {
+  forecastResponseSchema,
+  whatIfResponseSchema,
+  type whatIfBodySchema,
+  capitalHistorySchema,
+} from "@shared/schemas/capital";
 import { api, withQuery } from "@/lib/api-client";
 
 /** A what-if as the form sends it: parsed by the shared schema, so every default is filled in and the key is stable. */

@@ -1,5 +1,5 @@
 import { lazy, Suspense } from "react";
-import type { CapitalHistoryItem } from "@shared/schemas/snapshot";
+import type { CapitalHistoryItem } from "@shared/schemas/capital";
 import { EmptyState } from "@/components/ui/table";
 import { plural } from "@/lib/format";
 import { historyPoints } from "./history-points";

@@ -3,11 +3,10 @@ import { Bar, BarChart, CartesianGrid, Cell, ResponsiveContainer, Tooltip, XAxis
 import type { Zone } from "@shared/backtest/types";
 import { zoneName } from "@/components/ui/zone-badge";
 import { formatChance } from "@/lib/format";
+import { chartColours } from "@/styles/palette";
 
-const ink = "#1b2638";
-const muted = "#66728a";
-const rule = "#ddd6c8";
-const zoneFill: Record<Zone, string> = { green: "#2e6f45", yellow: "#8a6210", red: "#a3271d" };
+const { ink, label: muted, grid: rule } = chartColours;
+const zoneFill: Record<Zone, string> = chartColours.zone;
 
 export type DistributionRow = { exceptions: number; probability: number; zone: Zone };
 

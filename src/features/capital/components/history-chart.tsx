@@ -2,12 +2,9 @@ import { useId } from "react";
 import { Bar, CartesianGrid, Cell, ComposedChart, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import { compactAmount, formatAmount, formatFactor, plural } from "@/lib/format";
 import type { HistoryPoint } from "./history-points";
+import { chartColours } from "@/styles/palette";
 
-const ink = "#1b2638";
-const muted = "#66728a";
-const rule = "#ddd6c8";
-const accent = "#0e6571";
-const paper = "#fcfaf6";
+const { ink, label: muted, grid: rule, accent, paper } = chartColours;
 
 /** A quarter's multiplier: a filled dot when signed off, a hollow one when not; a dagger above when restated after sign-off. */
 function QuarterDot({ cx, cy, payload }: { cx?: number; cy?: number; payload?: HistoryPoint }) {

@@ -1,4 +1,6 @@
-import { quarterLabel, SIGNED_OFF, type CapitalHistoryItem } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { SIGNED_OFF } from "@shared/schemas/snapshot";
+import { type CapitalHistoryItem } from "@shared/schemas/capital";
 
 export type HistoryPoint = CapitalHistoryItem & { label: string; signedOff: boolean };
 

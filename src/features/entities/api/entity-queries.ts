@@ -10,7 +10,7 @@ import {
   type CreateHolidayBody,
   type CreatePortfolioBody,
   type UpdateEntityBody,
-} from "@shared/schemas/admin";
+} from "@shared/schemas/entity";
 import { everyFigure } from "@/lib/query-scope";
 import { api } from "@/lib/api-client";
 

@@ -1,5 +1,5 @@
 import { useRef, useState, type FormEvent } from "react";
-import { createEntityBodySchema, updateEntityBodySchema, type Entity } from "@shared/schemas/admin";
+import { createEntityBodySchema, updateEntityBodySchema, type Entity } from "@shared/schemas/entity";
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";

@@ -1,5 +1,5 @@
 import { Link } from "react-router-dom";
-import type { Entity } from "@shared/schemas/admin";
+import type { Entity } from "@shared/schemas/entity";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDecimal } from "@/lib/format";
 import { pnlBasisLabels, regimeLabels } from "@/lib/regime-labels";

@@ -1,4 +1,4 @@
-import type { Entity } from "@shared/schemas/admin";
+import type { Entity } from "@shared/schemas/entity";
 import type { Role } from "@shared/schemas/common";
 import { Link } from "react-router-dom";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";

@@ -1,5 +1,5 @@
 import { useRef, useState, type FormEvent } from "react";
-import { createHolidayBodySchema, type Holiday } from "@shared/schemas/admin";
+import { createHolidayBodySchema, type Holiday } from "@shared/schemas/entity";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";

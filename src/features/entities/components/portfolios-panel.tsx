@@ -1,5 +1,5 @@
 import { useRef, useState, type FormEvent } from "react";
-import { createPortfolioBodySchema, updatePortfolioBodySchema, type Portfolio } from "@shared/schemas/admin";
+import { createPortfolioBodySchema, updatePortfolioBodySchema, type Portfolio } from "@shared/schemas/entity";
 import type { PortfolioLevel } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";

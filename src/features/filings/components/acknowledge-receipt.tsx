@@ -1,6 +1,6 @@
 import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
-import { quarterLabel } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { isApiError } from "@/lib/api-client";

@@ -1,6 +1,6 @@
 import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
-import { quarterLabel, quarterStart } from "@shared/schemas/snapshot";
+import { quarterLabel, quarterStart } from "@shared/backtest/quarters";
 import { DownloadButton } from "@/components/ui/download-button";
 import { Figure } from "@/components/ui/figure";
 import { FullHash } from "@/components/ui/hash";

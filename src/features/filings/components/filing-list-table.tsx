@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
-import { quarterLabel } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
 import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";

@@ -1,6 +1,6 @@
 import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
-import { quarterLabel } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
 import { formatDateTime, plural } from "@/lib/format";
 
 /**

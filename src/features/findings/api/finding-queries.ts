@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
-import { findingListSchema, findingSchema, type CloseFindingBody, type Finding } from "@shared/schemas/upload";
+import { findingListSchema, findingSchema, type CloseFindingBody, type Finding } from "@shared/schemas/finding";
 import { api, withQuery } from "@/lib/api-client";
 
 export type FindingStatus = Finding["status"];

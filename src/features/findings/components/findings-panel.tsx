@@ -1,6 +1,6 @@
 import { Fragment, useRef, useState, type FormEvent } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { closeFindingBodySchema, findingKindSchema, type Finding, type FindingKind } from "@shared/schemas/upload";
+import { closeFindingBodySchema, findingKindSchema, type Finding, type FindingKind } from "@shared/schemas/finding";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";

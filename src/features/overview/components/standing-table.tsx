@@ -5,7 +5,7 @@ import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
-import { quarterLabel } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
 
 /**
  * One dense row per entity, in the order a reader asks: zone and count first, then what it costs,

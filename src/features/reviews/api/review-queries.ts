@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient, type QueryKey } from "@tanstack/react-query";
 import { apiErrorSchema } from "@shared/schemas/common";
-import { reviewSchema, type DecisionBody, type Review, type ReviewBody } from "@shared/schemas/backtest";
+import { reviewSchema, type DecisionBody, type Review, type ReviewBody } from "@shared/schemas/review";
 import { api, ApiError } from "@/lib/api-client";
 
 const exceptionBase = (code: string, date: string) =>

@@ -5,9 +5,9 @@ import {
   exceptionCauseSchema,
   reviewBodySchema,
   type ExceptionCause,
-  type ExceptionDayDto,
   type Review,
-} from "@shared/schemas/backtest";
+} from "@shared/schemas/review";
+import { type ExceptionDayDto } from "@shared/schemas/backtest";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField, TextField } from "@/components/ui/field";

@@ -1,6 +1,7 @@
 import { useRef, useState, type FormEvent } from "react";
 import { Link } from "react-router-dom";
-import { createSnapshotSchema, quarterLabel, type Snapshot } from "@shared/schemas/snapshot";
+import { createSnapshotSchema, type Snapshot } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";

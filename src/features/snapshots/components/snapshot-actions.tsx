@@ -1,7 +1,8 @@
 import { useRef, useState, type FormEvent, type ReactNode } from "react";
 import { Link } from "react-router-dom";
 import type { z } from "zod";
-import { quarterLabel, returnSnapshotSchema, snapshotActionSchema, type Snapshot } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { returnSnapshotSchema, snapshotActionSchema, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextareaField } from "@/components/ui/field";

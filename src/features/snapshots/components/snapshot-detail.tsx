@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
-import { quarterLabel, quarterStart, type Snapshot } from "@shared/schemas/snapshot";
+import { quarterLabel, quarterStart } from "@shared/backtest/quarters";
+import { type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import type { Filing } from "@shared/schemas/filing";
 import { Notice } from "@/components/ui/notice";

@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
-import { quarterLabel, type Snapshot } from "@shared/schemas/snapshot";
+import { quarterLabel } from "@shared/backtest/quarters";
+import { type Snapshot } from "@shared/schemas/snapshot";
 import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";

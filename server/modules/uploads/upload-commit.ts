@@ -1,0 +1,148 @@
+import { UniqueConstraintError, type Transaction } from "sequelize";
+import { sequelize } from "../../db/sequelize";
+import { lockPortfolios } from "../../db/portfolio-locks";
+import { UploadModel } from "../../models/upload";
+import { PortfolioModel } from "../../models/portfolio";
+import { AppError, ConflictError, NotFoundError } from "../../errors";
+import { recordAudit } from "../audit/audit.service";
+import {
+  PipelinedWrites,
+  loadCurrentDays,
+  queueInsertVersions,
+  INSERT_BATCH_ROWS,
+  queueRetireVersions,
+} from "../observations/observations.repository";
+import { applyFindings, checkFindings, loadFindingInputs } from "../findings/findings.service";
+import { flagChangedSnapshots } from "../snapshots/snapshots.restatements";
+import { unpackBytes } from "./stored-bytes";
+import { checkedRowsOf, forgetCheckedRows } from "./preview-cache";
+import { duplicateError, findCommittedTwin, loadReferenceData, parseFile } from "./upload-files";
+import { recheckReferenceData, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
+import { classify, currentDaysInSpan, spanOf, type NewVersion, type StoredDay } from "../../../shared/ingest/row-plan";
+import type { CommitResult } from "../../../shared/schemas/upload";
+import type { SignedIn } from "../../kit/actor";
+
+/** Portfolio ids the preview named (from its summary), sorted. */
+async function previewPortfolioIds(upload: UploadModel, transaction: Transaction): Promise<number[]> {
+  const codes: string[] = upload.summaryJson ? JSON.parse(upload.summaryJson).portfolios : [];
+  if (codes.length === 0) return [];
+  const found = await PortfolioModel.findAll({ where: { code: codes }, attributes: ["id"], transaction });
+  return found.map((p) => p.id).sort((a, b) => a - b);
+}
+
+/**
+ * Writes a clean preview's rows in one transaction: restated days get a new version and keep
+ * the old one; the same file can be committed only once (unique committed_sha256). The rows are
+ * sent as pipelined multi-row INSERTs, and the data-quality checks run while MariaDB writes them.
+ */
+export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
+  const result = await sequelize.transaction(async (transaction) => {
+    const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!upload) throw new NotFoundError(`No upload #${id}.`);
+    if (upload.status === "committed") throw new ConflictError(`Upload #${id} is already committed.`);
+    if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
+    // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
+    const lockedIds = await previewPortfolioIds(upload, transaction);
+    // The portfolio rows this commit holds: the only parents its rows may name (queueInsertVersions checks).
+    const held = await lockPortfolios(lockedIds, "update", transaction);
+    if (upload.invalidCount > 0) {
+      throw new AppError(
+        422,
+        "preview_has_errors",
+        `Upload #${id} has ${upload.invalidCount} invalid row(s). Fix the file and upload it again; nothing was written.`,
+      );
+    }
+    const twin = await findCommittedTwin(upload.sha256, id);
+    if (twin) throw duplicateError(twin);
+
+    // Re-check against today's reference data, read after the locks (holiday changes take the same locks).
+    const ref = await loadReferenceData(transaction);
+    const rows = checkedRowsOf(id, upload.sha256) ?? (await parseStoredFile(id, ref, transaction));
+    if (recheckReferenceData(rows, ref).length) {
+      throw new ConflictError(
+        "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
+      );
+    }
+    const { range, portfolioIds } = spanOf(rows, ref.ids);
+    const stored = range
+      ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true)
+      : new Map<string, StoredDay>();
+    // What the checks need from the database is read before the writes are queued behind it.
+    const findingInputs = range ? await loadFindingInputs(portfolioIds, { transaction, outside: range }) : [];
+
+    // Sorted and sent a batch at a time, so that MariaDB starts writing while the rest is sorted.
+    const writes = new PipelinedWrites(transaction);
+    const inserts: NewVersion[] = [];
+    let restated = 0;
+    let unchanged = 0;
+    for (let start = 0; start < rows.length; start += INSERT_BATCH_ROWS) {
+      const part = classify(rows.slice(start, start + INSERT_BATCH_ROWS), ref.ids, stored);
+      queueRetireVersions(writes, part.retire);
+      await queueInsertVersions(writes, part.inserts, upload.id, held);
+      for (const written of part.inserts) inserts.push(written);
+      restated += part.restated;
+      unchanged += part.unchanged;
+    }
+    // The checks run here while MariaDB writes; the findings change with the data, in this transaction.
+    const inside = range ? currentDaysInSpan(rows, ref.ids, stored) : undefined;
+    const found = [];
+    for (const input of findingInputs) {
+      found.push(checkFindings(input, inside));
+      await writes.flush();
+    }
+    await writes.done();
+    await applyFindings(found, transaction);
+    // Signed-off figures never change; a day written inside a signed-off window flags that snapshot.
+    await flagChangedSnapshots(inserts, upload.id, actor, transaction);
+
+    upload.status = "committed";
+    upload.committedSha256 = upload.sha256;
+    upload.committedAt = new Date();
+    upload.committedBy = actor.user.id;
+    upload.insertedCount = inserts.length;
+    upload.restatedCount = restated;
+    upload.unchangedCount = unchanged;
+    upload.newCount = inserts.length - restated;
+    try {
+      await upload.save({ transaction });
+    } catch (err) {
+      if (err instanceof UniqueConstraintError) {
+        const other = await findCommittedTwin(upload.sha256, id);
+        throw other
+          ? duplicateError(other)
+          : new ConflictError("This exact file was committed by someone else a moment ago.");
+      }
+      throw err;
+    }
+    await recordAudit(
+      actor,
+      "upload.commit",
+      `upload #${id}`,
+      { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } },
+      transaction,
+    );
+    return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };
+  });
+  forgetCheckedRows(id);
+  return result;
+}
+
+/** The preview's rows when this process no longer holds them: the stored file, parsed again. */
+async function parseStoredFile(
+  id: number,
+  ref: CsvReferenceData,
+  transaction: Transaction,
+): Promise<readonly ParsedRow[]> {
+  const withContent = await UploadModel.scope("withContent").findByPk(id, {
+    attributes: ["id", "content"],
+    transaction,
+  });
+  if (!withContent?.content) throw new ConflictError(`Upload #${id} no longer holds its file; upload it again.`);
+  const parsed = parseFile(unpackBytes(withContent.content), ref);
+  if (parsed.errors.length) {
+    throw new ConflictError(
+      "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
+    );
+  }
+  return parsed.rows;
+}

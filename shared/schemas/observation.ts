@@ -1,0 +1,21 @@
+import { z } from "zod";
+import { isoDateSchema } from "./common";
+
+/** The daily P&L and VaR as stored (the current version of each day), read back. */
+export const observationsQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
+export const observationSchema = z.object({
+  date: z.string(),
+  actualPnl: z.number().nullable(),
+  hypotheticalPnl: z.number().nullable(),
+  var99: z.number().nullable(),
+  var975: z.number().nullable(),
+  svar99: z.number().nullable(),
+  var10d: z.number().nullable(),
+  svar10d: z.number().nullable(),
+  es975: z.number().nullable(),
+  ses: z.number().nullable(),
+  rtpl: z.number().nullable(),
+  version: z.number().int(),
+});
+export type ObservationDto = z.infer<typeof observationSchema>;
+export const observationListSchema = z.array(observationSchema);

@@ -123,13 +123,13 @@ export function parseObservationsCsv(text: string): Map<string, Observation[]> {
     }
     throw err;
   }
-  if (parsed.errors.length) {
+  if (parsed.errorCount) {
     const shown = parsed.errors
       .slice(0, MAX_ERRORS_SHOWN)
       .map((e) => `  line ${e.line}, column ${e.column}: ${e.message}`);
-    if (parsed.errors.length > MAX_ERRORS_SHOWN) shown.push(`  … and ${parsed.errors.length - MAX_ERRORS_SHOWN} more`);
+    if (parsed.errorCount > shown.length) shown.push(`  … and ${parsed.errorCount - shown.length} more`);
     throw new CliInputError(
-      `The file has ${parsed.errors.length} problem${parsed.errors.length > 1 ? "s" : ""}:\n${shown.join("\n")}`,
+      `The file has ${parsed.errorCount} problem${parsed.errorCount > 1 ? "s" : ""}:\n${shown.join("\n")}`,
     );
   }
   const byPortfolio = new Map<string, Observation[]>();

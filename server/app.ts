@@ -13,12 +13,14 @@ import { usersRouter } from "./modules/users/users.router";
 import { entitiesRouter } from "./modules/entities/entities.router";
 import { assignmentsRouter } from "./modules/assignments/assignments.router";
 import { auditRouter } from "./modules/audit/audit.router";
-import { uploadsRouter } from "./modules/uploads/uploads.router";
+import { uploadsRouter, type UploadLimits } from "./modules/uploads/uploads.router";
 import { observationsRouter } from "./modules/observations/observations.router";
 import { findingsRouter } from "./modules/findings/findings.router";
 import { backtestRouter } from "./modules/backtest/backtest.router";
 import { reviewsRouter } from "./modules/reviews/reviews.router";
 import { snapshotsRouter } from "./modules/snapshots/snapshots.router";
+import { determinationsRouter } from "./modules/determinations/determinations.router";
+import { settingsRouter } from "./modules/settings/settings.router";
 import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
@@ -26,6 +28,8 @@ import { outboxRouter } from "./modules/outbox/outbox.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
+  /** The turns large uploads take (tests hold one to see the queue refuse). */
+  uploadLimits?: UploadLimits;
   /** Serve the built client from dist/client (when it exists). */
   serveClient?: boolean;
 }
@@ -84,13 +88,15 @@ export function createApp(options: AppOptions = {}) {
   app.use(usersRouter());
   app.use(assignmentsRouter());
   app.use(auditRouter());
-  app.use(uploadsRouter());
+  app.use(uploadsRouter(options.uploadLimits));
   app.use(observationsRouter());
   app.use(findingsRouter());
   app.use(backtestRouter());
   app.use(reviewsRouter());
   app.use(snapshotsRouter());
   app.use(capitalRouter());
+  app.use(determinationsRouter());
+  app.use(settingsRouter());
   app.use(filingsRouter());
   app.use(apiTokensRouter());
   app.use(outboxRouter());

@@ -27,6 +27,14 @@ const envSchema = z.object({
     .default("quartermark"),
   DB_USER: z.string().optional(),
   DB_PASSWORD: z.string().optional(),
+  /** Pooled database connections per server process (each transaction holds exactly one). */
+  DB_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
+  /** Pooled connections kept for requests outside a transaction (reads) while writers wait at locks. */
+  DB_POOL_READ_RESERVE: z.coerce.number().int().min(0).max(50).default(2),
+  /** How long a request waits for a pooled connection before it is told the server is busy (503). */
+  DB_POOL_ACQUIRE_MS: z.coerce.number().int().min(100).max(120_000).default(10_000),
+  /** How many requests may wait for a connection at once; one more is told at once (503, Retry-After). */
+  DB_POOL_QUEUE: z.coerce.number().int().min(1).max(10_000).default(200),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
   /** Where the local SMTP sink keeps each message as an .eml file; empty: no local sink. */
   MAIL_SINK_DIR: z.string().optional(),
@@ -42,6 +50,12 @@ const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
   LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
+  /** Large uploads (over 1 MB) checked at once per server process; the next ones wait their turn. */
+  UPLOAD_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
+  /** Large uploads that may wait for their turn; one more is refused at once (503, Retry-After). */
+  UPLOAD_QUEUE: z.coerce.number().int().min(0).max(100).default(4),
+  /** How long a large upload waits for its turn before it is refused (503, Retry-After). */
+  UPLOAD_QUEUE_WAIT_MS: z.coerce.number().int().min(0).max(600_000).default(60_000),
   /** Server worker processes (node:cluster); WEB_CONCURRENCY is the name many hosts set. Unset: one per core. */
   WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).optional(),
@@ -92,6 +106,12 @@ function loadConfig() {
       name: env.DB_NAME,
       user: env.DB_USER ?? creds?.user ?? "quartermark",
       password: env.DB_PASSWORD ?? creds?.password ?? "",
+      pool: Object.freeze({
+        max: env.DB_POOL_MAX,
+        readReserve: Math.min(env.DB_POOL_READ_RESERVE, env.DB_POOL_MAX - 1),
+        acquireMs: env.DB_POOL_ACQUIRE_MS,
+        queue: env.DB_POOL_QUEUE,
+      }),
     }),
     smtpPort: env.SMTP_PORT,
     // Unset: .data/mail/ (npm start, npm run dev); set to the empty string: there is no local sink.
@@ -110,6 +130,11 @@ function loadConfig() {
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,
+    uploads: Object.freeze({
+      concurrency: env.UPLOAD_CONCURRENCY,
+      queue: env.UPLOAD_QUEUE,
+      queueWaitMs: env.UPLOAD_QUEUE_WAIT_MS,
+    }),
     workers: env.WORKERS ?? env.WEB_CONCURRENCY ?? os.availableParallelism(),
     /** Whether this process runs the filing delivery loop: the one worker the primary names, or a lone process. */
     runsFilingDelivery: env.QM_DELIVERY_WORKER !== "0",

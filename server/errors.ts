@@ -1,6 +1,12 @@
 import type { ErrorRequestHandler } from "express";
 import { ZodError, type ZodType, z } from "zod";
-import { BaseError, ConnectionError, ForeignKeyConstraintError, UniqueConstraintError } from "sequelize";
+import {
+  BaseError,
+  ConnectionAcquireTimeoutError,
+  ConnectionError,
+  ForeignKeyConstraintError,
+  UniqueConstraintError,
+} from "sequelize";
 import multer from "multer";
 import { UPLOAD_MAX_LABEL } from "../shared/schemas/upload";
 import { EngineInputError } from "../shared/backtest/errors";
@@ -52,6 +58,16 @@ export class TooManyRequestsError extends AppError {
 export class ServiceUnavailableError extends AppError {
   constructor(message = "The database is not reachable at the moment. Nothing was changed; try again shortly.") {
     super(503, "database_unavailable", message);
+  }
+}
+
+/** Too much at once: the request was not started; the client may try again after `retryAfterSeconds`. */
+export class ServerBusyError extends AppError {
+  constructor(
+    what: string,
+    readonly retryAfterSeconds = 5,
+  ) {
+    super(503, "busy", `${what} Nothing was changed; try again in a few seconds.`);
   }
 }
 
@@ -140,6 +156,9 @@ function toAppError(err: unknown): AppError {
     const [status, message] = MULTER_MESSAGES[err.code] ?? [400, err.message];
     return new AppError(status, status === 413 ? "payload_too_large" : "bad_upload", message);
   }
+  // Every pooled connection stayed taken for the whole wait: busy, not broken.
+  if (err instanceof ConnectionAcquireTimeoutError)
+    return new ServerBusyError("The database is busy with other requests.");
   if (lostConnection(err)) return new ServiceUnavailableError();
   // The engine refuses inputs it cannot compute on (e.g. a forecast date before the as-of date).
   if (err instanceof EngineInputError) return new AppError(422, "cannot_compute", err.message);
@@ -169,13 +188,14 @@ export const errorMiddleware: ErrorRequestHandler = (err, req, res, next) => {
   const appError = toAppError(err);
   if (appError.status === 500) {
     logger.error(`[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: ${(err as Error)?.stack ?? String(err)}`);
-  } else if (appError.status === 503) {
+  } else if (appError.status === 503 && !(appError instanceof ServerBusyError)) {
     const cause = err as { code?: string; parent?: { code?: string } };
     logger.error(
       `[${req.requestId ?? "-"}] ${req.method} ${req.originalUrl}: database unavailable (${cause?.parent?.code ?? cause?.code ?? "no code"})`,
     );
   }
   if (res.headersSent) return next(err); // Express closes the half-sent response
+  if (appError instanceof ServerBusyError) res.setHeader("Retry-After", String(appError.retryAfterSeconds));
   res.status(appError.status).json({
     error: {
       code: appError.code,

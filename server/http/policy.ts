@@ -86,6 +86,17 @@ export const POLICY = {
   "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
   "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],
 
+  // Determinations of the multiplier (treasury sees the signed-off ones, filtered in the service) and
+  // capital on a date with the multiplier in force beside the indicative one (current figures).
+  "GET /api/entities/:code/determinations": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/capital": ["analyst", "cro"],
+  // Governed supervisory settings: everyone on staff reads them; an admin proposes a change and a CRO
+  // approves or rejects it (four eyes in the service).
+  "GET /api/entities/:code/settings": STAFF,
+  "POST /api/entities/:code/settings": ["admin"],
+  "POST /api/settings/:id/approve": ["cro"],
+  "POST /api/settings/:id/reject": ["cro"],
+
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
   "GET /api/overview": ["analyst", "cro"],
   "GET /api/portfolios/:code/backtest": ["analyst", "cro"],

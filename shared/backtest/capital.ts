@@ -3,6 +3,7 @@ import { EngineInputError } from "./errors";
 import { getRegime, plusFactorFor, type RegimeRules } from "./regimes";
 import type { Observation } from "./types";
 import { assertIsoDate, lastIndexOnOrBefore, validateObservations } from "./window";
+import { dayNumber } from "./calendar";
 
 /**
  * Capital requirement at a date (docs/rules.md#capital).
@@ -44,6 +45,11 @@ export interface CapitalInputs {
   /** How many of the averaged days used √10 scaling for VaR / sVaR. */
   varScaledFromOneDay?: number;
   svarScaledFromOneDay?: number;
+  /**
+   * US rule: how many weekly stressed VaR-based measures the sVaR average was taken over (12 CFR
+   * 217.204(a)(2)(ii): the most recent weekly measure and the average over the preceding 12 weeks).
+   */
+  svarWeeks?: number;
   esPrev?: number;
   esAvg60?: number;
   sesPrev?: number;
@@ -169,8 +175,17 @@ export function capitalInputsAt(
     (o) => capitalVar(o.svar10d, o.svar99, svarScale),
     (o) => o.svar10d == null,
   );
-  if (s) note("Stressed VaR", s);
-  else warnings.push("No stressed VaR supplied; the stressed VaR term is taken as 0.");
+  if (rules.id === "us" && s) {
+    // 12 CFR 217.204(a)(2)(ii) with 217.206(a), (b)(2): the stressed VaR-based measure is calculated
+    // at least weekly; the requirement takes the most recent one and the average over 12 weeks.
+    const weekly = weeklyMeasures(observations, end, (o) => capitalVar(o.svar10d, o.svar99, svarScale));
+    if (weekly.length < US_SVAR_WEEKS)
+      warnings.push(`Only ${weekly.length} weekly stressed VaR measures on or before ${asOf}; the average uses them.`);
+    s.prev = weekly[0];
+    s.avg = weekly.reduce((a, b) => a + b, 0) / weekly.length;
+    inputs.svarWeeks = weekly.length;
+  } else if (s) note("Stressed VaR", s);
+  if (!s) warnings.push("No stressed VaR supplied; the stressed VaR term is taken as 0.");
   Object.assign(inputs, {
     varPrev: v.prev,
     varAvg60: v.avg,
@@ -182,11 +197,47 @@ export function capitalInputsAt(
   return inputs;
 }
 
-/** The formula of the rule set for a given multiplier. */
+export const US_SVAR_WEEKS = 12;
+
+/**
+ * The weekly measures of the 12 calendar weeks (Monday to Sunday) that end with the week of the
+ * observation at `end`, newest first: each week's measure is the last value reported in it.
+ * Weeks with no value are left out.
+ */
+function weeklyMeasures(
+  observations: readonly Observation[],
+  end: number,
+  valueOf: (o: Observation) => number | null,
+): number[] {
+  const weekOf = (date: string) => {
+    const d = dayNumber(date);
+    return d - ((((d + 4) % 7) + 7 + 6) % 7); // the Monday of the week (1970-01-01 was a Thursday)
+  };
+  const lastWeek = weekOf(observations[end].date);
+  const firstWeek = lastWeek - 7 * (US_SVAR_WEEKS - 1);
+  const out: number[] = [];
+  let current = Number.NaN;
+  for (let i = end; i >= 0; i--) {
+    const week = weekOf(observations[i].date);
+    if (week < firstWeek) break;
+    if (week === current) continue;
+    const v = valueOf(observations[i]);
+    if (v == null) continue;
+    out.push(v);
+    current = week;
+  }
+  return out;
+}
+
+/**
+ * The formula of the rule set for a given multiplier: m_c on VaR and m_s on stressed VaR (equal
+ * unless the supervisor sets separate addends, CRR Art. 366).
+ */
 export function requirementFromInputs(
   inputs: CapitalInputs,
   rules: RegimeRules,
   multiplier: number,
+  multiplierSvar: number = multiplier,
 ): Omit<CapitalResult, "plusFactor" | "inputs"> {
   if (rules.capitalFormula === "es-ses") {
     // MAR33.41: max(IMCC_{t−1} + SES_{t−1}, m_c·IMCC_avg + SES_avg); m_c applies to IMCC only.
@@ -204,7 +255,7 @@ export function requirementFromInputs(
   // CRR Art. 364(1) / BCBS 2009 para 718(Lxxvi) / 12 CFR 217.204(a)(2)(i).
   const varAverage = multiplier * (inputs.varAvg60 ?? 0);
   const varTerm = Math.max(inputs.varPrev ?? 0, varAverage);
-  const svarTerm = Math.max(inputs.svarPrev ?? 0, multiplier * (inputs.svarAvg60 ?? 0));
+  const svarTerm = Math.max(inputs.svarPrev ?? 0, multiplierSvar * (inputs.svarAvg60 ?? 0));
   return {
     requirement: varTerm + svarTerm,
     varTerm,

@@ -1,7 +1,8 @@
 import { EngineInputError } from "./errors";
-import { capitalAddOnFromInputs, capitalInputsAt, requirementFromInputs } from "./capital";
+import { capitalInputsAt } from "./capital";
+import { capitalUnder, multipliersFor, type SupervisorySettings } from "./determination";
 import { backtestAt } from "./exceptions";
-import { getRegime, plusFactorFor, zoneFor } from "./regimes";
+import { getRegime, zoneFor } from "./regimes";
 import type { BacktestOptions, Observation, Zone } from "./types";
 
 /**
@@ -38,7 +39,20 @@ export interface WhatIfResult {
   };
 }
 
-export function whatIf(observations: readonly Observation[], opts: WhatIfOptions): WhatIfResult {
+export interface WhatIfFromCountOptions {
+  regime: WhatIfOptions["regime"];
+  asOf: string;
+  /** The counted exceptions the scenario starts from (today's, or a determination's). */
+  counted: number;
+  /** Addends and floor; default: opts.qualitativeAddend on both multipliers, no floor. */
+  settings?: Pick<SupervisorySettings, "qualitativeAddend" | "qualitativeAddendSvar" | "multiplierFloor">;
+  extraExceptions?: number;
+  varScale?: number;
+  svarScale?: number;
+  windowSize?: number;
+}
+
+function checkScenario(opts: { extraExceptions?: number; varScale?: number; svarScale?: number }): void {
   const extra = opts.extraExceptions ?? 0;
   if (!Number.isInteger(extra) || extra < 0)
     throw new EngineInputError(`extraExceptions must be a non-negative whole number, got ${extra}`);
@@ -49,27 +63,36 @@ export function whatIf(observations: readonly Observation[], opts: WhatIfOptions
     if (v !== undefined && !(Number.isFinite(v) && v >= 0))
       throw new EngineInputError(`${name} must be a non-negative number, got ${v}`);
   }
+}
+
+/**
+ * The what-if from a given count: the base is that count with today's capital inputs, the scenario
+ * adds exceptions and scales VaR / stressed VaR. Multipliers follow the settings (separate addends
+ * for m_c and m_s, the supervisor's floor).
+ */
+export function whatIfFromCount(observations: readonly Observation[], opts: WhatIfFromCountOptions): WhatIfResult {
+  checkScenario(opts);
+  const extra = opts.extraExceptions ?? 0;
   const rules = getRegime(opts.regime);
   const windowSize = opts.windowSize ?? 250;
-  const addend = opts.qualitativeAddend ?? 0;
-  const bt = backtestAt(observations, opts);
+  const settings = opts.settings ?? { qualitativeAddend: 0, qualitativeAddendSvar: null, multiplierFloor: null };
 
   const figures = (counted: number, scales: { varScale?: number; svarScale?: number }): WhatIfFigures => {
     const inputs = capitalInputsAt(observations, opts.regime, opts.asOf, scales);
-    const plusFactor = plusFactorFor(counted, rules, windowSize);
-    const multiplier = rules.baseMultiplier + plusFactor + addend;
+    const m = multipliersFor(counted, opts.regime, settings, windowSize);
+    const c = capitalUnder(inputs, opts.regime, m.plusFactor, settings);
     return {
       zone: zoneFor(counted, rules, windowSize),
       counted,
-      plusFactor,
-      multiplier,
-      capital: requirementFromInputs(inputs, rules, multiplier).requirement,
-      addOn: capitalAddOnFromInputs(inputs, opts.regime, plusFactor, addend),
+      plusFactor: m.plusFactor,
+      multiplier: m.multiplier,
+      capital: c.requirement,
+      addOn: c.addOn,
     };
   };
 
-  const base = figures(bt.exceptions.counted, {});
-  const scenario = figures(bt.exceptions.counted + extra, { varScale: opts.varScale, svarScale: opts.svarScale });
+  const base = figures(opts.counted, {});
+  const scenario = figures(opts.counted + extra, { varScale: opts.varScale, svarScale: opts.svarScale });
   return {
     base,
     scenario,
@@ -82,4 +105,22 @@ export function whatIf(observations: readonly Observation[], opts: WhatIfOptions
       zoneChanged: scenario.zone !== base.zone,
     },
   };
+}
+
+/** The what-if from the rolling count at opts.asOf. */
+export function whatIf(
+  observations: readonly Observation[],
+  opts: WhatIfOptions & { settings?: WhatIfFromCountOptions["settings"] },
+): WhatIfResult {
+  checkScenario(opts);
+  const bt = backtestAt(observations, opts);
+  return whatIfFromCount(observations, {
+    ...opts,
+    counted: bt.exceptions.counted,
+    settings: opts.settings ?? {
+      qualitativeAddend: opts.qualitativeAddend ?? 0,
+      qualitativeAddendSvar: null,
+      multiplierFloor: null,
+    },
+  });
 }

@@ -27,12 +27,29 @@ export interface ParsedCsv {
   columns: CsvColumn[];
   /** Rows that passed every check, in file order. */
   rows: ParsedRow[];
-  /** Every problem found, in line order. */
+  /** The first KEPT_ERRORS problems found, in line order. */
   errors: RowError[];
+  /** Every problem found, kept or not. */
+  errorCount: number;
   /** Data lines in the file (blank lines not counted). */
   totalRows: number;
-  invalidLines: Set<number>;
+  /** Data lines with at least one problem. */
+  invalidCount: number;
 }
+
+/**
+ * How many problems a parse keeps (the rest are counted): a file of nothing but bad cells would
+ * otherwise make an object per cell, and two such 15 MB files exhausted a 256 MB heap.
+ */
+export const KEPT_ERRORS = 1000;
+
+/**
+ * No line of a daily file comes near this (12 columns of at most ~30 characters); a longer line
+ * refuses the file before any pattern looks at it.
+ */
+export const LONGEST_LINE = 64 * 1024;
+/** No cell of a daily file is longer than this (a portfolio code of 40, with spaces around). */
+const LONGEST_CELL = 256;
 
 /** A problem with the file as a whole: nothing in it can be used. */
 export class CsvFileError extends Error {
@@ -44,6 +61,13 @@ export class CsvFileError extends Error {
     super(message);
     this.name = "CsvFileError";
   }
+}
+
+function overlongLine(line: number, length: number): CsvFileError {
+  return new CsvFileError(
+    `Line ${line} is ${length} characters long; no line of a daily data file comes near ${LONGEST_LINE}. Nothing was read.`,
+    [{ line, column: "—", message: `${length} characters on one line` }],
+  );
 }
 
 const KNOWN: ReadonlySet<string> = new Set(ALL_COLUMNS);
@@ -83,7 +107,10 @@ function newRow(line: number, portfolio: string, date: string): ParsedRow {
 }
 
 /** Why a cell failed its pattern, in words a person can act on. */
-function describeCell(column: string, raw: string): string {
+function describeCell(column: string, cell: string): string {
+  // Never a pattern over more than a short cell's worth of text (a 15 MB cell overflowed the stack).
+  if (cell.length > LONGEST_CELL) return `the ${column} cell is ${cell.length} characters long, not a value`;
+  const raw = cell;
   const s = raw.trim();
   if (column === "portfolio")
     return s === ""
@@ -219,7 +246,11 @@ const toCents = (value: number) => (value < 0 ? -Math.round(-value * 100) : Math
 class LineChecks {
   readonly rows: ParsedRow[] = [];
   readonly errors: RowError[] = [];
-  readonly invalidLines = new Set<number>();
+  errorCount = 0;
+  invalidCount = 0;
+  private lastInvalidLine = -1;
+  /** Data lines checked so far (for the hopeless-file stop). */
+  private linesSeen = 0;
   private readonly width: number;
   private readonly amountAt: (AmountColumn | null)[];
   private readonly patternAt: RegExp[];
@@ -262,8 +293,42 @@ class LineChecks {
   }
 
   fail(line: number, column: string, message: string): void {
-    this.errors.push({ line, column, message });
-    this.invalidLines.add(line);
+    if (this.errors.length < KEPT_ERRORS) this.errors.push({ line, column, message });
+    this.errorCount++;
+    if (line !== this.lastInvalidLine) {
+      this.lastInvalidLine = line;
+      this.invalidCount++;
+    }
+  }
+
+  /**
+   * A file is hopeless once the kept problems are full and most lines so far were bad: reading
+   * stops there and the file is refused as a whole, with the problems found so far.
+   */
+  private stopIfHopeless(line: number): void {
+    if (this.errors.length < KEPT_ERRORS || this.rows.length >= this.invalidCount) return;
+    throw new CsvFileError(
+      `Reading stopped at line ${line}: ${this.invalidCount} of the first ${this.linesSeen} data lines have problems ` +
+        `(${this.errorCount} in all), so this does not look like a daily data file. Nothing was read; ` +
+        "the first problems are listed. Check that it is the right file, in the template's columns.",
+      this.errors.slice(0, 200),
+    );
+  }
+
+  /** A data line, checked in place when it is plain, else cell by cell. */
+  line(text: string, start: number, end: number, line: number, plain: boolean): void {
+    if (end - start > LONGEST_LINE) throw overlongLine(line, end - start);
+    this.linesSeen++;
+    if (!plain || !this.plainLine(text, start, end, line)) this.cells(text.slice(start, end).split(","), line);
+    this.stopIfHopeless(line);
+  }
+
+  /** A data line already cut into cells (the quoted way). */
+  cellLine(cells: string[], line: number): void {
+    for (const cell of cells) if (cell.length > LONGEST_LINE) throw overlongLine(line, cell.length);
+    this.linesSeen++;
+    this.cells(cells, line);
+    this.stopIfHopeless(line);
   }
 
   /** A line as cells: the schema's patterns, then the values and the reference data. */
@@ -273,6 +338,15 @@ class LineChecks {
       this.fail(line, "—", `Expected ${this.width} fields as in the header, found ${cells.length}`);
       return;
     }
+    // No pattern ever runs over an overlong cell: it is reported by its length.
+    let longCells = false;
+    for (let c = 0; c < this.width; c++) {
+      if (cells[c].length > LONGEST_CELL) {
+        this.fail(line, columns[c], describeCell(columns[c], cells[c]));
+        longCells = true;
+      }
+    }
+    if (longCells) return;
     // The schema's own patterns first; only a row that fails one goes through zod for its issues.
     let cellsOk = true;
     for (let c = 0; c < this.width; c++) {
@@ -541,25 +615,22 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData, options
       checks.fail(line, "—", "A quoted field is never closed: the rest of the file cannot be read reliably");
     else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") checks.fail(line, "—", e.message);
   }
-  const structural = new Set(checks.invalidLines);
+  const structural = new Set(checks.errors.map((e) => e.line));
   for (let i = 1; i < data.length; i++) {
     const cells = data[i];
     if (cells.length === 1 && isBlank(cells[0])) continue;
     totalRows++;
-    if (!structural.has(i + 1)) checks.cells(cells, i + 1);
+    if (!structural.has(i + 1)) checks.cellLine(cells, i + 1);
   }
   return resultOf(checks, totalRows);
 }
 
 function resultOf(checks: LineChecks, totalRows: number): ParsedCsv {
   if (totalRows === 0) throw new CsvFileError("The file has a header row but no data rows.");
-  const { rows, errors, invalidLines } = checks;
+  const { rows, errors, errorCount, invalidCount } = checks;
   errors.sort((a, b) => a.line - b.line);
-  return { columns: checks.columns, rows, errors, totalRows, invalidLines };
+  return { columns: checks.columns, rows, errors, errorCount, totalRows, invalidCount };
 }
-
-/** Longer than any line of a daily file (12 columns of at most ~30 characters). */
-const LONGEST_STREAMED_LINE = 64 * 1024;
 
 /**
  * A file without quotes, read a line at a time from text that may come in pieces: the header
@@ -604,7 +675,7 @@ class PlainLines {
     }
     this.carry = last ? "" : text.slice(start);
     // A line this long is no daily-data line: rather than join ever longer pieces, read the file whole.
-    if (this.carry.length > LONGEST_STREAMED_LINE) this.unreadable = true;
+    if (this.carry.length > LONGEST_LINE) this.unreadable = true;
   }
 
   private take(text: string, start: number, end: number, withCr: boolean): void {
@@ -632,8 +703,7 @@ class PlainLines {
     const first = text.charCodeAt(start);
     if (start === end || ((first === 32 || first === 9) && isBlank(text.slice(start, end)))) return; // blank line
     this.totalRows++;
-    if (this.options.plainLines === false || !this.checks.plainLine(text, start, end, this.line))
-      this.checks.cells(text.slice(start, end).split(","), this.line);
+    this.checks.line(text, start, end, this.line, this.options.plainLines !== false);
   }
 
   result(): ParsedCsv {
@@ -658,6 +728,7 @@ export class CsvByteStream {
   private readonly decoder = new TextDecoder("utf-8", { fatal: true });
   private readonly lines: PlainLines;
   private started = false;
+  private refused: CsvFileError | undefined;
 
   constructor(
     private readonly ref: CsvReferenceData,
@@ -683,11 +754,19 @@ export class CsvByteStream {
       this.started = true;
       if (piece.charCodeAt(0) === 0xfeff) piece = piece.slice(1); // as decodeCsvBytes
     }
-    this.lines.feed(piece, false);
+    try {
+      this.lines.feed(piece, false);
+    } catch (err) {
+      // A hopeless file or an overlong line: nothing more is read; the parse at the end says why.
+      if (!(err instanceof CsvFileError)) throw err;
+      this.refused = err;
+      this.lines.unreadable = true;
+    }
   }
 
   /** The parse of the whole file, given as `bytes` (what was pushed, in one piece). */
   end(bytes: Uint8Array): ParsedCsv {
+    if (this.refused) throw this.refused;
     if (!this.lines.unreadable) {
       try {
         this.lines.feed(this.decoder.decode(), true);

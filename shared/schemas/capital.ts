@@ -10,6 +10,38 @@ import { snapshotSchema } from "./snapshot";
  * entity's top-of-house portfolio.
  */
 
+/** A determination point: the period end, its last business day, and the day its multiplier is in force from. */
+export const determinationPointSchema = z.object({
+  quarterEnd: z.string(),
+  asOf: z.string(),
+  effectiveFrom: z.string(),
+});
+
+/**
+ * What the figures start from: today's data ("current", the reporting office), or the latest
+ * signed-off determination ("approved", treasury, which reads approved figures only).
+ */
+export const startsFromSchema = z.object({
+  kind: z.enum(["current", "approved"]),
+  /** The signed-off determination's period end (null for current data). */
+  quarterEnd: z.string().nullable(),
+  asOf: z.string(),
+  status: z.enum(["approved", "filed"]).nullable(),
+});
+
+/** The determination in force on the as-of date (null before the first). */
+export const inForceSummarySchema = z
+  .object({
+    quarterEnd: z.string(),
+    effectiveFrom: z.string(),
+    counted: z.number().int(),
+    zone: zoneSchema,
+    plusFactor: z.number(),
+    multiplier: z.number(),
+    status: z.enum(["provisional", "approved", "filed"]),
+  })
+  .nullable();
+
 /** `date`: the future date to forecast (default: the end of the current quarter). */
 export const forecastQuerySchema = z.object({ date: isoDateSchema.optional() }).strict();
 
@@ -48,6 +80,12 @@ export const forecastResponseSchema = z.object({
     windowComplete: z.boolean(),
   }),
   rollOffs: z.array(rollOffSchema),
+  startsFrom: startsFromSchema,
+  inForce: inForceSummarySchema,
+  /** The count at `date` is first used by this determination: its multiplier is in force from its effectiveFrom. */
+  bitesFrom: determinationPointSchema,
+  /** An exception on the next business day would first change the multiplier from this determination on. */
+  nextExceptionBitesFrom: determinationPointSchema,
 });
 export type ForecastResponse = z.infer<typeof forecastResponseSchema>;
 
@@ -91,6 +129,9 @@ export const whatIfResponseSchema = z.object({
     addOn: z.number(),
     zoneChanged: z.boolean(),
   }),
+  startsFrom: startsFromSchema,
+  /** Exceptions after the as-of date would first count in this determination, in force from its effectiveFrom. */
+  bitesFrom: determinationPointSchema,
 });
 export type WhatIfResponse = z.infer<typeof whatIfResponseSchema>;
 

@@ -74,6 +74,21 @@ export const snapshotFiguresSchema = z.object({
   plusFactor: z.number(),
   qualitativeAddend: z.number(),
   multiplier: z.number(),
+  /** m_s, the stressed VaR multiplier (absent in snapshots made before it was kept: then m_c). */
+  multiplierSvar: z.number().optional(),
+  /** The supervisory settings record the figures used (absent in older snapshots). */
+  settings: z
+    .object({
+      id: z.number().int().nullable(),
+      effectiveFrom: z.string(),
+      reference: z.string(),
+      pnlBasis: pnlBasisSchema,
+      qualitativeAddend: z.number(),
+      qualitativeAddendSvar: z.number().nullable(),
+      multiplierFloor: z.number().nullable(),
+      determinationFrequency: z.enum(["quarterly", "monthly"]),
+    })
+    .optional(),
   expected: z.number(),
   cumulativeProbability: z.number(),
   /** Capital requirement and the part the plus factor adds; null when the data holds no capital input. */

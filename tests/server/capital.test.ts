@@ -14,7 +14,8 @@ const SQRT_10 = Math.sqrt(10);
 /**
  * An EU book (higher of actual and hypothetical counts) with 300 business days up to 30 September
  * 2026: VaR 100 or 101 on alternate days, stressed VaR 250, a loss of 50 on most days and 150 on
- * five of the last 250 (yellow zone). Treasury reads its capital.
+ * five of the last 250 (yellow zone). The reporting office plans on current data (treasury reads
+ * approved determinations only: tests/server/in-force.test.ts).
  */
 async function capitalBook() {
   const fx = await ingestFixture();
@@ -48,10 +49,10 @@ beforeAll(async () => {
 });
 
 describe("the zone forecast", () => {
-  it("when treasury asks for a date ten business days ahead, then the count is known exceptions plus Binomial(10, 1%) new ones, and the zone probabilities add up to one", async () => {
+  it("when an analyst asks for a date ten business days ahead, then the count is known exceptions plus Binomial(10, 1%) new ones, and the zone probabilities add up to one", async () => {
     const res = await request(app)
       .get(`/api/entities/${book.entity.code}/capital/forecast?date=2026-10-14`)
-      .set("Cookie", book.treasury);
+      .set("Cookie", book.cookie);
     expect(res.status).toBe(200);
     const f = forecastResponseSchema.parse(res.body);
     // Today: five exceptions, yellow, plus factor 0.40, multiplier 3.40 (BCBS 1996 Table 2; CRR Art. 366, from memory).
@@ -72,9 +73,7 @@ describe("the zone forecast", () => {
   });
 
   it("when asked what the next exception costs, then it is the step from 5 to 6 exceptions (plus factor 0.40 → 0.50, BCBS 1996 Table 2) on the 60-day averages scaled by √10 (CRR Art. 364(1) formula, Art. 365 ten-day VaR, docs/rules.md#capital; the √10 square-root-of-time scaling is common practice)", async () => {
-    const res = await request(app)
-      .get(`/api/entities/${book.entity.code}/capital/forecast`)
-      .set("Cookie", book.treasury);
+    const res = await request(app).get(`/api/entities/${book.entity.code}/capital/forecast`).set("Cookie", book.cookie);
     // Averages over the last 60 days: VaR (100 + 101) / 2, stressed VaR 250; both average terms bind.
     expect(res.body.nextExceptionCost).toBeCloseTo(0.1 * SQRT_10 * (100.5 + 250), 6);
   });
@@ -88,20 +87,20 @@ describe("the zone forecast", () => {
   it("when the date is before the last day with data, or not a date, then 422 says why", async () => {
     const before = await request(app)
       .get(`/api/entities/${book.entity.code}/capital/forecast?date=2026-09-01`)
-      .set("Cookie", book.treasury);
+      .set("Cookie", book.cookie);
     expect(before.status).toBe(422);
     expect(before.body.error.message).toMatch(/before the as-of date 2026-09-30/);
     expect(before.body.error.details.fields.date).toBe("On or after 2026-09-30");
     const bad = await request(app)
       .get(`/api/entities/${book.entity.code}/capital/forecast?date=next-week`)
-      .set("Cookie", book.treasury);
+      .set("Cookie", book.cookie);
     expect(bad.status).toBe(422);
     expect(bad.body.error.details.fields.date).toBeTruthy();
   });
 
   it("when the entity is unknown, then 404", async () => {
     expect(
-      (await request(app).get("/api/entities/NOPE-ENTITY/capital/forecast").set("Cookie", book.treasury)).status,
+      (await request(app).get("/api/entities/NOPE-ENTITY/capital/forecast").set("Cookie", book.cookie)).status,
     ).toBe(404);
   });
 });
@@ -110,7 +109,7 @@ describe("what-if", () => {
   it("when five more exceptions are supposed, then ten counted exceptions are red with plus factor 1.00 and multiplier 4.00 (BCBS 1996 Table 2)", async () => {
     const res = await request(app)
       .post(`/api/entities/${book.entity.code}/capital/what-if`)
-      .set("Cookie", book.treasury)
+      .set("Cookie", book.cookie)
       .send({ extraExceptions: 5 });
     expect(res.status).toBe(200);
     const w = whatIfResponseSchema.parse(res.body);
@@ -135,13 +134,13 @@ describe("what-if", () => {
   it("when the inputs are out of range, then 422 names the field and nothing is computed", async () => {
     const res = await request(app)
       .post(`/api/entities/${book.entity.code}/capital/what-if`)
-      .set("Cookie", book.treasury)
+      .set("Cookie", book.cookie)
       .send({ extraExceptions: 1.5, varScale: -1 });
     expect(res.status).toBe(422);
     expect(Object.keys(res.body.error.details.fields).sort()).toEqual(["extraExceptions", "varScale"]);
     const late = await request(app)
       .post(`/api/entities/${book.entity.code}/capital/what-if`)
-      .set("Cookie", book.treasury)
+      .set("Cookie", book.cookie)
       .send({ asOf: "2026-10-30" });
     expect(late.status).toBe(422);
     expect(late.body.error.details.fields.asOf).toMatch(/At most 2026-09-30/);

@@ -1,4 +1,4 @@
-import { Op, QueryTypes, type Transaction } from "sequelize";
+import { Op, QueryTypes, Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { logger } from "../../logger";
 import { AuditEventModel } from "../../models/audit-event";
@@ -116,99 +116,103 @@ const BATCH = 2000;
 export async function verifyAuditLog(): Promise<AuditVerify> {
   await sealAuditLog();
   const problems: AuditVerify["problems"] = [];
-  const events = await sequelize.transaction(async (transaction) => {
-    const head = await readHead(transaction, false);
-    let expected = 1;
-    let prev: string | null = null;
-    let last: { seq: number; chainMac: string | null; id: number } | null = null;
-    const describe = (e: AuditEventModel) =>
-      `Event #${e.id} (seq ${e.seq}, ${e.action}${e.target ? ` on ${e.target}` : ""})`;
-    for (let from = 0; ;) {
-      const rows = await AuditEventModel.findAll({
-        where: { seq: { [Op.gt]: from } },
-        order: [["seq", "ASC"]],
-        limit: BATCH,
+  // One consistent view of the head and the events (REPEATABLE READ), however transactions are set by default.
+  const events = await sequelize.transaction(
+    { isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ },
+    async (transaction) => {
+      const head = await readHead(transaction, false);
+      let expected = 1;
+      let prev: string | null = null;
+      let last: { seq: number; chainMac: string | null; id: number } | null = null;
+      const describe = (e: AuditEventModel) =>
+        `Event #${e.id} (seq ${e.seq}, ${e.action}${e.target ? ` on ${e.target}` : ""})`;
+      for (let from = 0; ;) {
+        const rows = await AuditEventModel.findAll({
+          where: { seq: { [Op.gt]: from } },
+          order: [["seq", "ASC"]],
+          limit: BATCH,
+          transaction,
+        });
+        for (const e of rows) {
+          const seq = Number(e.seq);
+          const id = Number(e.id);
+          if (seq > expected)
+            problems.push({
+              eventId: id,
+              seq: expected,
+              detail: `${seq - expected === 1 ? `The event with seq ${expected} is` : `Events with seq ${expected}–${seq - 1} are`} missing before event #${id}: deleted.`,
+            });
+          if (!signatureMatches("audit-event", auditEventText(e), e.mac))
+            problems.push({
+              eventId: id,
+              seq,
+              detail: `${describe(e)} was altered after it was written: its content no longer matches its signature.`,
+            });
+          else if (!signatureMatches("audit-link", auditLinkText(seq, id, e.mac!, prev), e.chainMac))
+            problems.push({
+              eventId: id,
+              seq,
+              detail: `${describe(e)} does not link to the event before it: an event was removed, replaced or renumbered.`,
+            });
+          prev = e.chainMac;
+          expected = seq + 1;
+          last = { seq, chainMac: e.chainMac, id };
+        }
+        if (rows.length < BATCH) break;
+        from = Number(rows[rows.length - 1].seq);
+      }
+      if (!head) {
+        problems.push({ eventId: null, seq: null, detail: "The audit log has no signed head." });
+      } else if (!signatureMatches("audit-head", auditHeadText(head.seq, head.chain_mac), head.head_mac)) {
+        problems.push({
+          eventId: null,
+          seq: null,
+          detail: "The audit log's head does not carry a valid signature: it was altered.",
+        });
+      } else if (head.seq > (last?.seq ?? 0)) {
+        const missing = head.seq - (last?.seq ?? 0);
+        problems.push({
+          eventId: null,
+          seq: head.seq,
+          detail: `The signed head counts ${head.seq} events but the newest remaining is seq ${last?.seq ?? 0}: the newest ${missing === 1 ? "event was" : `${missing} events were`} deleted.`,
+        });
+      } else if (last && (head.seq !== last.seq || head.chain_mac !== last.chainMac)) {
+        problems.push({
+          eventId: last.id,
+          seq: last.seq,
+          detail: `The signed head names seq ${head.seq}, not the newest event (seq ${last.seq}): events were added without the key.`,
+        });
+      }
+      // Unsealed events: one with a good signature may be waiting for its sealer (committed a moment
+      // ago); one without, or a copy of a sealed event, was not written by Quartermark.
+      const unsealed = await AuditEventModel.findAll({
+        where: { seq: { [Op.is]: null } },
+        order: [["id", "ASC"]],
         transaction,
       });
-      for (const e of rows) {
-        const seq = Number(e.seq);
-        const id = Number(e.id);
-        if (seq > expected)
-          problems.push({
-            eventId: id,
-            seq: expected,
-            detail: `${seq - expected === 1 ? `The event with seq ${expected} is` : `Events with seq ${expected}–${seq - 1} are`} missing before event #${id}: deleted.`,
-          });
-        if (!signatureMatches("audit-event", auditEventText(e), e.mac))
-          problems.push({
-            eventId: id,
-            seq,
-            detail: `${describe(e)} was altered after it was written: its content no longer matches its signature.`,
-          });
-        else if (!signatureMatches("audit-link", auditLinkText(seq, id, e.mac!, prev), e.chainMac))
-          problems.push({
-            eventId: id,
-            seq,
-            detail: `${describe(e)} does not link to the event before it: an event was removed, replaced or renumbered.`,
-          });
-        prev = e.chainMac;
-        expected = seq + 1;
-        last = { seq, chainMac: e.chainMac, id };
+      const sealedMacs = new Set(
+        (
+          await AuditEventModel.findAll({
+            where: { mac: unsealed.map((e) => e.mac ?? ""), seq: { [Op.not]: null } },
+            attributes: ["mac"],
+            transaction,
+          })
+        ).map((e) => e.mac),
+      );
+      for (const e of unsealed) {
+        const copy = sealedMacs.has(e.mac);
+        if (!copy && signatureMatches("audit-event", auditEventText(e), e.mac)) continue;
+        problems.push({
+          eventId: Number(e.id),
+          seq: null,
+          detail: copy
+            ? `Event #${e.id} (${e.action}) is a copy of an event already in the log: it was not written by Quartermark.`
+            : `Event #${e.id} (${e.action}) carries no valid signature: it was not written by Quartermark, or was altered before it was sealed.`,
+        });
       }
-      if (rows.length < BATCH) break;
-      from = Number(rows[rows.length - 1].seq);
-    }
-    if (!head) {
-      problems.push({ eventId: null, seq: null, detail: "The audit log has no signed head." });
-    } else if (!signatureMatches("audit-head", auditHeadText(head.seq, head.chain_mac), head.head_mac)) {
-      problems.push({
-        eventId: null,
-        seq: null,
-        detail: "The audit log's head does not carry a valid signature: it was altered.",
-      });
-    } else if (head.seq > (last?.seq ?? 0)) {
-      const missing = head.seq - (last?.seq ?? 0);
-      problems.push({
-        eventId: null,
-        seq: head.seq,
-        detail: `The signed head counts ${head.seq} events but the newest remaining is seq ${last?.seq ?? 0}: the newest ${missing === 1 ? "event was" : `${missing} events were`} deleted.`,
-      });
-    } else if (last && (head.seq !== last.seq || head.chain_mac !== last.chainMac)) {
-      problems.push({
-        eventId: last.id,
-        seq: last.seq,
-        detail: `The signed head names seq ${head.seq}, not the newest event (seq ${last.seq}): events were added without the key.`,
-      });
-    }
-    // Unsealed events: one with a good signature may be waiting for its sealer (committed a moment
-    // ago); one without, or a copy of a sealed event, was not written by Quartermark.
-    const unsealed = await AuditEventModel.findAll({
-      where: { seq: { [Op.is]: null } },
-      order: [["id", "ASC"]],
-      transaction,
-    });
-    const sealedMacs = new Set(
-      (
-        await AuditEventModel.findAll({
-          where: { mac: unsealed.map((e) => e.mac ?? ""), seq: { [Op.not]: null } },
-          attributes: ["mac"],
-          transaction,
-        })
-      ).map((e) => e.mac),
-    );
-    for (const e of unsealed) {
-      const copy = sealedMacs.has(e.mac);
-      if (!copy && signatureMatches("audit-event", auditEventText(e), e.mac)) continue;
-      problems.push({
-        eventId: Number(e.id),
-        seq: null,
-        detail: copy
-          ? `Event #${e.id} (${e.action}) is a copy of an event already in the log: it was not written by Quartermark.`
-          : `Event #${e.id} (${e.action}) carries no valid signature: it was not written by Quartermark, or was altered before it was sealed.`,
-      });
-    }
-    return last?.seq ?? 0;
-  });
+      return last?.seq ?? 0;
+    },
+  );
   const detail = problems.length
     ? `${problems[0].detail}${problems.length > 1 ? ` (and ${problems.length - 1} more problem${problems.length > 2 ? "s" : ""})` : ""}`
     : `All ${events} events carry the server's signature, follow each other without a gap and end at the signed head.`;

@@ -2,6 +2,7 @@ import { Op, type Transaction, type WhereOptions } from "sequelize";
 import { AuditEventModel } from "../../models/audit-event";
 import { sign } from "../snapshot-chain/signing";
 import { auditEventText, sealAfterCommit, sealAuditLog } from "./audit-chain";
+import { currentTransaction } from "../../db/transaction-context";
 import type { Actor } from "../../kit/actor";
 import type { AuditEvent, AuditQuery } from "../../../shared/schemas/audit";
 
@@ -28,8 +29,13 @@ export async function recordAudit(
     beforeJson: change.before === undefined ? null : JSON.stringify(change.before),
     afterJson: change.after === undefined ? null : JSON.stringify(change.after),
   };
-  await AuditEventModel.create({ ...content, mac: sign("audit-event", auditEventText(content)) }, { transaction });
-  if (transaction) sealAfterCommit(transaction);
+  // In a transaction (given, or the one the call runs in), the event is chained once it commits.
+  const inside = transaction ?? currentTransaction();
+  await AuditEventModel.create(
+    { ...content, mac: sign("audit-event", auditEventText(content)) },
+    { transaction: inside ?? undefined },
+  );
+  if (inside) sealAfterCommit(inside);
   else await sealAuditLog();
 }
 

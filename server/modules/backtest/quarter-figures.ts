@@ -4,7 +4,10 @@ import { AppError, NotFoundError } from "../../errors";
 import { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { backtestAt } from "../../../shared/backtest/exceptions";
-import { capitalAddOn, capitalRequirement } from "../../../shared/backtest/capital";
+import { capitalInputsAt } from "../../../shared/backtest/capital";
+import { capitalUnder, multipliersFor, settingsOn } from "../../../shared/backtest/determination";
+import { approvedSettings, fallbackSettings } from "../settings/settings.read";
+import type { Transaction } from "sequelize";
 import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
@@ -42,7 +45,11 @@ const dayValues = (o: Observation) => [
  * top portfolio (and, under FRTB, its desks) and the approved exclusions. Refuses a quarter whose
  * last business day has no data yet: its figures would be a guess.
  */
-export async function quarterFigures(entity: EntityModel, quarterEnd: string): Promise<QuarterFigures> {
+export async function quarterFigures(
+  entity: EntityModel,
+  quarterEnd: string,
+  transaction?: Transaction,
+): Promise<QuarterFigures> {
   const portfolios = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["code", "ASC"]] });
   const top = portfolios.find((p) => p.level === "top");
   if (!top)
@@ -63,27 +70,30 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     );
   }
   const asOf = lastBusinessDay;
+  // The settings in force on the quarter's last business day (a later change never reaches back).
+  const settings = settingsOn(await approvedSettings(entity.id, transaction), asOf) ?? fallbackSettings(entity);
   const opts = {
     regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
+    pnlBasis: settings.pnlBasis,
     asOf,
     excludedDates: ctx.excludedDates,
-    qualitativeAddend: entity.qualitativeAddend,
+    qualitativeAddend: settings.qualitativeAddend,
   };
   const bt = backtestAt(series, opts);
+  const multipliers = multipliersFor(bt.exceptions.counted, entity.regime, settings, bt.windowSize);
 
   let capital: number | null = null;
   let addOn: number | null = null;
   let capitalNote: string | null = null;
   try {
-    const capitalOpts = {
-      regime: entity.regime,
-      asOf,
-      count: bt.exceptions.counted,
-      qualitativeAddend: entity.qualitativeAddend,
-    };
-    capital = Math.round(capitalRequirement(series, capitalOpts).requirement * 100) / 100;
-    addOn = Math.round(capitalAddOn(series, capitalOpts) * 100) / 100;
+    const c = capitalUnder(
+      capitalInputsAt(series, entity.regime, asOf),
+      entity.regime,
+      multipliers.plusFactor,
+      settings,
+    );
+    capital = Math.round(c.requirement * 100) / 100;
+    addOn = Math.round(c.addOn * 100) / 100;
   } catch (err) {
     if (!(err instanceof EngineInputError)) throw err;
     capitalNote = `No capital figure: ${err.message}`;
@@ -93,7 +103,7 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
   const figures: SnapshotFigures = {
     portfolio: top.code,
     regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
+    pnlBasis: settings.pnlBasis,
     currency: entity.currency,
     asOf,
     window: bt.window,
@@ -101,9 +111,11 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     exceptionDates: bt.exceptionDays.map((d) => d.date),
     zone: bt.zone,
     zoneLabel: bt.zoneLabel,
-    plusFactor: bt.plusFactor,
-    qualitativeAddend: entity.qualitativeAddend,
-    multiplier: bt.multiplier,
+    plusFactor: multipliers.plusFactor,
+    qualitativeAddend: settings.qualitativeAddend,
+    multiplier: multipliers.multiplier,
+    multiplierSvar: multipliers.multiplierSvar,
+    settings,
     expected: bt.expected,
     cumulativeProbability: bt.tests.cumulativeProbability,
     capital,
@@ -129,9 +141,22 @@ export async function quarterFigures(entity: EntityModel, quarterEnd: string): P
     entity: {
       code: entity.code,
       regime: entity.regime,
-      pnlBasis: entity.pnlBasis,
-      qualitativeAddend: entity.qualitativeAddend,
+      pnlBasis: settings.pnlBasis,
+      qualitativeAddend: settings.qualitativeAddend,
     },
+    // Settings beyond the entity's first ones enter the hash only when set, so the inputs of
+    // snapshots made before settings were governed hash as they did.
+    ...(settings.qualitativeAddendSvar !== null ||
+    settings.multiplierFloor !== null ||
+    settings.determinationFrequency !== "quarterly"
+      ? {
+          settings: {
+            qualitativeAddendSvar: settings.qualitativeAddendSvar,
+            multiplierFloor: settings.multiplierFloor,
+            determinationFrequency: settings.determinationFrequency,
+          },
+        }
+      : {}),
     asOf,
     portfolio: top.code,
     days: series.filter(inWindow).map(dayValues),

@@ -13,11 +13,11 @@ export function capitalRouter() {
   });
   r.get("/api/entities/:code/capital/forecast", async (req, res) => {
     const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await getForecast(code, parseInput(forecastQuerySchema, req.query, "query")));
+    res.json(await getForecast(code, parseInput(forecastQuerySchema, req.query, "query"), signedInActor(req).user));
   });
   r.post("/api/entities/:code/capital/what-if", async (req, res) => {
     const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await getWhatIf(code, parseInput(whatIfBodySchema, req.body ?? {})));
+    res.json(await getWhatIf(code, parseInput(whatIfBodySchema, req.body ?? {}), signedInActor(req).user));
   });
   return r.router;
 }

@@ -1,32 +1,116 @@
 import { AppError, NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
-import { PortfolioModel } from "../../models/portfolio";
-import { SnapshotModel } from "../../models/snapshot";
-import { backtestAt } from "../../../shared/backtest/exceptions";
 import { forecastAt } from "../../../shared/backtest/forecast";
-import { whatIf } from "../../../shared/backtest/what-if";
-import { marginalCostOfNextException } from "../../../shared/backtest/capital";
+import { whatIfFromCount } from "../../../shared/backtest/what-if";
+import { capitalInputsAt } from "../../../shared/backtest/capital";
+import { addBusinessDays } from "../../../shared/backtest/calendar";
+import { capitalUnder, inForceOn, indicativeAt, multipliersFor } from "../../../shared/backtest/determination";
 import { EngineInputError } from "../../../shared/backtest/errors";
-import { loadPortfolioContext, type PortfolioContext } from "../backtest/portfolio-context";
-import type { ForecastResponse, WhatIfResponse, whatIfBodySchema } from "../../../shared/schemas/capital";
+import { zoneFor } from "../../../shared/backtest/regimes";
+import {
+  loadEntityEngineInputs,
+  storedDeterminations,
+  toDeterminationDto,
+} from "../determinations/determinations.store";
+import { bitesFrom } from "../determinations/determinations.service";
+import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
+import type { DeterminationDto } from "../../../shared/schemas/determination";
+import type { SessionUser } from "../../../shared/schemas/auth";
 import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
-import { quarterEndOf } from "../../../shared/backtest/quarters";
-import { type CapitalHistoryItem } from "../../../shared/schemas/capital";
+import { quarterEndOf, quarterLabel } from "../../../shared/backtest/quarters";
+import type { CapitalHistoryItem } from "../../../shared/schemas/capital";
+import { SnapshotModel } from "../../models/snapshot";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
 import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
+import type { whatIfBodySchema } from "../../../shared/schemas/capital";
+import type { DatedSettings } from "../../../shared/backtest/determination";
 
-/** The entity's top-of-house portfolio with its current data, calendar and approved exclusions. */
-async function topOf(code: string): Promise<{ entity: EntityModel; ctx: PortfolioContext; latest: string }> {
+/** Treasury reads approved figures only: its forecast and what-if start from a signed-off determination. */
+const readsApprovedOnly = (viewer: SessionUser) => viewer.role === "treasury";
+
+/**
+ * Where the figures start: for the reporting office, the entity's top-of-house portfolio on its
+ * latest day with data and the settings in force then; for treasury, the latest signed-off
+ * determination (its count, its settings, the data up to its as-of date).
+ */
+async function startingPoint(code: string, viewer: SessionUser) {
   const entity = await EntityModel.findOne({ where: { code } });
   if (!entity) throw new NotFoundError(`No entity ${code}.`);
-  const top = await PortfolioModel.findOne({ where: { entityId: entity.id, level: "top" }, order: [["code", "ASC"]] });
-  if (!top) throw new NotFoundError(`${code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
-  const ctx = await loadPortfolioContext(top.code);
-  if (ctx.series.length === 0)
-    throw new AppError(404, "no_data", `No daily data for ${top.code} yet. An analyst uploads it under Data.`);
-  return { entity, ctx, latest: ctx.series[ctx.series.length - 1].date };
+  const inputs = await loadEntityEngineInputs(entity);
+  const { portfolio } = inputs;
+  if (!portfolio)
+    throw new NotFoundError(`${code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
+  if (inputs.series.length === 0)
+    throw new AppError(404, "no_data", `No daily data for ${portfolio.code} yet. An analyst uploads it under Data.`);
+  const dets = (await storedDeterminations(entity.id)).map((d) => toDeterminationDto(d, entity.regime));
+  const latest = inputs.series[inputs.series.length - 1].date;
+  if (!readsApprovedOnly(viewer)) {
+    const indicative = indicativeAt(inputs.series, latest, inputs.options);
+    const settings = inputs.options.settings.length
+      ? (inForceSettings(inputs.options.settings, latest) ?? inputs.options.fallback)
+      : inputs.options.fallback;
+    return {
+      entity,
+      inputs,
+      portfolio,
+      dets,
+      asOf: latest,
+      latest,
+      counted: indicative.counted,
+      windowComplete: indicative.windowComplete,
+      settings,
+      startsFrom: { kind: "current" as const, quarterEnd: null, asOf: latest, status: null },
+    };
+  }
+  const approved = dets.filter((d) => d.status !== "provisional");
+  const det = approved[approved.length - 1];
+  if (!det) {
+    throw new AppError(
+      404,
+      "no_approved_determination",
+      `No quarter of ${code} is signed off yet, so there is no approved determination: treasury's forecast and what-if start from the latest approved one. They will once the CRO approves a quarter.`,
+    );
+  }
+  return {
+    entity,
+    inputs,
+    portfolio,
+    dets,
+    approved,
+    asOf: det.asOf,
+    latest,
+    counted: det.counted,
+    windowComplete: det.windowComplete,
+    settings: det.settings as DatedSettings,
+    determination: det,
+    startsFrom: {
+      kind: "approved" as const,
+      quarterEnd: det.quarterEnd,
+      asOf: det.asOf,
+      status: det.status === "filed" ? ("filed" as const) : ("approved" as const),
+    },
+  };
 }
+
+function inForceSettings(records: readonly DatedSettings[], date: string): DatedSettings | null {
+  let found: DatedSettings | null = null;
+  for (const r of records) if (r.effectiveFrom <= date && (!found || r.effectiveFrom >= found.effectiveFrom)) found = r;
+  return found;
+}
+
+const summary = (d: DeterminationDto | null) =>
+  d
+    ? {
+        quarterEnd: d.quarterEnd,
+        effectiveFrom: d.effectiveFrom,
+        counted: d.counted,
+        zone: d.zone,
+        plusFactor: d.plusFactor,
+        multiplier: d.multiplier,
+        status: d.status,
+      }
+    : null;
 
 /** The current quarter's end, or the next one when the data already reaches it. */
 function defaultForecastDate(latest: string): string {
@@ -37,82 +121,133 @@ function defaultForecastDate(latest: string): string {
   return quarterEndOf(next.toISOString().slice(0, 10));
 }
 
-const orNull = <T>(compute: () => T): T | null => {
-  try {
-    return compute();
-  } catch (err) {
-    if (err instanceof EngineInputError) return null;
-    throw err;
-  }
-};
-
-/** Where the entity's count may stand at a future date, and what the next exception would cost today. */
-export async function getForecast(code: string, query: { date?: string }): Promise<ForecastResponse> {
-  const { entity, ctx, latest } = await topOf(code);
-  const opts = {
-    regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
-    asOf: latest,
-    excludedDates: ctx.excludedDates,
-    qualitativeAddend: entity.qualitativeAddend,
-  };
-  const date = query.date ?? defaultForecastDate(latest);
-  if (date < latest) {
+/**
+ * Where the entity's count may stand at a future date, what the next exception would cost, and
+ * from which determination on either would change the multiplier in force.
+ */
+export async function getForecast(
+  code: string,
+  query: { date?: string },
+  viewer: SessionUser,
+): Promise<ForecastResponse> {
+  const start = await startingPoint(code, viewer);
+  const { entity, inputs, portfolio, asOf, settings } = start;
+  const series = inputs.series.filter((o) => o.date <= asOf);
+  const date = query.date ?? defaultForecastDate(start.latest);
+  if (date < asOf) {
     throw new AppError(
       422,
       "validation_failed",
-      `The forecast date ${date} is before the as-of date ${latest}, the last day with data of ${ctx.portfolio.code}.`,
-      { fields: { date: `On or after ${latest}` } },
+      `The forecast date ${date} is before the as-of date ${asOf}, ${start.startsFrom.kind === "approved" ? `the last business day of the approved ${quarterLabel(start.startsFrom.quarterEnd!)}` : `the last day with data of ${portfolio.code}`}.`,
+      { fields: { date: `On or after ${asOf}` } },
     );
   }
-  const forecast = forecastAt(ctx.series, { ...opts, date, holidays: ctx.holidays });
-  const today = backtestAt(ctx.series, opts);
+  const forecast = forecastAt(series, {
+    regime: entity.regime,
+    pnlBasis: settings.pnlBasis,
+    asOf,
+    excludedDates: inputs.options.excludedDates,
+    qualitativeAddend: settings.qualitativeAddend,
+    date,
+    holidays: inputs.options.holidays,
+  });
+  const m = multipliersFor(start.counted, entity.regime, settings);
+  let nextExceptionCost: number | null = null;
+  try {
+    const capitalInputs = capitalInputsAt(series, entity.regime, asOf);
+    const next = multipliersFor(start.counted + 1, entity.regime, settings);
+    nextExceptionCost =
+      capitalUnder(capitalInputs, entity.regime, next.plusFactor, settings).requirement -
+      capitalUnder(capitalInputs, entity.regime, m.plusFactor, settings).requirement;
+  } catch (err) {
+    if (!(err instanceof EngineInputError)) throw err;
+  }
+  const holidays = inputs.options.holidays;
   return {
     entity: entity.code,
-    portfolio: ctx.portfolio.code,
+    portfolio: portfolio.code,
     regime: entity.regime,
     currency: entity.currency,
     ...forecast,
-    nextExceptionCost: orNull(() =>
-      marginalCostOfNextException(ctx.series, {
-        regime: entity.regime,
-        asOf: latest,
-        count: today.exceptions.counted,
-        qualitativeAddend: entity.qualitativeAddend,
-      }),
-    ),
+    nextExceptionCost,
     today: {
-      counted: today.exceptions.counted,
-      zone: today.zone,
-      plusFactor: today.plusFactor,
-      multiplier: today.multiplier,
-      windowComplete: today.window.complete,
+      counted: start.counted,
+      zone: zoneFor(start.counted, entity.regime),
+      plusFactor: m.plusFactor,
+      multiplier: m.multiplier,
+      windowComplete: start.windowComplete,
     },
+    startsFrom: start.startsFrom,
+    inForce: summary(inForceOn(start.dets, asOf)),
+    bitesFrom: bitesFrom(date, inputs.options, asOf),
+    nextExceptionBitesFrom: bitesFrom(addBusinessDays(asOf, 1, holidays), inputs.options, asOf),
   };
 }
 
-/** The figures with extra exceptions and VaR / stressed VaR scaled (docs/rules.md#what-if), against today's. */
-export async function getWhatIf(code: string, body: z.output<typeof whatIfBodySchema>): Promise<WhatIfResponse> {
-  const { entity, ctx, latest } = await topOf(code);
-  const asOf = body.asOf ?? latest;
-  if (asOf > latest)
-    throw new AppError(
-      422,
-      "validation_failed",
-      `The data of ${ctx.portfolio.code} ends on ${latest}; choose that day or an earlier one.`,
-      { fields: { asOf: `At most ${latest}` } },
-    );
-  const result = whatIf(ctx.series, {
+/** The figures with extra exceptions and VaR / stressed VaR scaled, against the starting point's. */
+export async function getWhatIf(
+  code: string,
+  body: z.output<typeof whatIfBodySchema>,
+  viewer: SessionUser,
+): Promise<WhatIfResponse> {
+  const start = await startingPoint(code, viewer);
+  const { entity, inputs, portfolio } = start;
+  const asOf = body.asOf ?? start.asOf;
+  let counted = start.counted;
+  let settings = start.settings;
+  let startsFrom: WhatIfResponse["startsFrom"];
+  if (start.startsFrom.kind === "approved") {
+    // Treasury: the as-of date must be a signed-off determination's; its count and settings are the base.
+    const chosen = (start.approved ?? []).find((d) => d.asOf === asOf);
+    if (!chosen) {
+      throw new AppError(
+        422,
+        "validation_failed",
+        `Treasury's what-if starts from an approved determination; ${asOf} is not the as-of date of one. The latest approved is ${quarterLabel(start.startsFrom.quarterEnd!)} (as of ${start.startsFrom.asOf}).`,
+        { fields: { asOf: `The as-of date of an approved quarter, such as ${start.startsFrom.asOf}` } },
+      );
+    }
+    counted = chosen.counted;
+    settings = chosen.settings as DatedSettings;
+    startsFrom = {
+      kind: "approved",
+      quarterEnd: chosen.quarterEnd,
+      asOf: chosen.asOf,
+      status: chosen.status === "filed" ? "filed" : "approved",
+    };
+  } else {
+    if (asOf > start.latest)
+      throw new AppError(
+        422,
+        "validation_failed",
+        `The data of ${portfolio.code} ends on ${start.latest}; choose that day or an earlier one.`,
+        { fields: { asOf: `At most ${start.latest}` } },
+      );
+    if (asOf !== start.asOf) {
+      counted = indicativeAt(inputs.series, asOf, inputs.options).counted;
+      settings = inForceSettings(inputs.options.settings, asOf) ?? inputs.options.fallback;
+    }
+    startsFrom = { kind: "current", quarterEnd: null, asOf, status: null };
+  }
+  const series = inputs.series.filter((o) => o.date <= asOf);
+  const result = whatIfFromCount(series, {
     regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
     asOf,
-    excludedDates: ctx.excludedDates,
-    qualitativeAddend: entity.qualitativeAddend,
+    counted,
+    settings,
     extraExceptions: body.extraExceptions,
     varScale: body.varScale,
     svarScale: body.svarScale,
   });
-  return { entity: entity.code, portfolio: ctx.portfolio.code, currency: entity.currency, asOf, ...result };
+  return {
+    entity: entity.code,
+    portfolio: portfolio.code,
+    currency: entity.currency,
+    asOf,
+    ...result,
+    startsFrom,
+    bitesFrom: bitesFrom(addBusinessDays(asOf, 1, inputs.options.holidays), inputs.options, asOf),
+  };
 }
 
 /** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */

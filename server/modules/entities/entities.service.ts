@@ -4,7 +4,8 @@ import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { HolidayModel } from "../../models/holiday";
 import { RegulatorAssignmentModel } from "../../models/regulator-assignment";
-import { ConflictError, NotFoundError } from "../../errors";
+import { AppError, ConflictError, NotFoundError } from "../../errors";
+import { createInitialSettings, hasGovernedSettings } from "../settings/settings.service";
 import { recordAudit } from "../audit/audit.service";
 import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
@@ -19,6 +20,7 @@ import type {
   Portfolio,
   UpdateEntityBody,
 } from "../../../shared/schemas/entity";
+import { refreshDeterminations } from "../determinations/determinations.store";
 
 export function toEntity(row: EntityModel): Entity {
   return {
@@ -80,6 +82,8 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
         },
         { transaction },
       );
+      // The P&L basis and the addend become the entity's first governed settings record.
+      await createInitialSettings(row, transaction);
       const entity = toEntity(row);
       await recordAudit(actor, "entity.create", entity.code, { after: entity }, transaction);
       return entity;
@@ -104,6 +108,18 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
       );
     }
     const before = toEntity(row);
+    const governed =
+      (change.pnlBasis !== undefined && change.pnlBasis !== row.pnlBasis) ||
+      (change.qualitativeAddend !== undefined && change.qualitativeAddend !== row.qualitativeAddend);
+    if (governed && (await hasGovernedSettings(row.id, transaction))) {
+      throw new AppError(
+        422,
+        "settings_governed",
+        `The P&L basis and the qualitative addend of ${code} are supervisory settings: an admin proposes a change with the supervisor's decision reference and its effective date under Admin › Supervisory settings, and a CRO approves it.`,
+        { fields: { pnlBasis: "Governed setting", qualitativeAddend: "Governed setting" } },
+      );
+    }
+    const regimeChanged = change.regime !== undefined && change.regime !== row.regime;
     row.version = row.version + 1;
     if (change.name !== undefined) row.name = change.name;
     if (change.regime !== undefined) row.regime = change.regime;
@@ -113,6 +129,7 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
     if (change.supervisorName !== undefined) row.supervisorName = change.supervisorName;
     if (change.supervisorEmails !== undefined) row.supervisorEmails = change.supervisorEmails;
     await row.save({ transaction });
+    if (regimeChanged) await refreshDeterminations(row.id, transaction);
     const entity = toEntity(row);
     await recordAudit(actor, "entity.update", code, { before, after: entity }, transaction);
     return entity;
@@ -199,6 +216,7 @@ export async function addHoliday(code: string, input: CreateHolidayBody, actor: 
     const holiday = toHoliday(row);
     await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday
+    await refreshDeterminations(entity.id, transaction); // a quarter's last business day may move
     return holiday;
   });
 }
@@ -212,5 +230,6 @@ export async function removeHoliday(code: string, date: string, actor: SignedIn)
     await row.destroy({ transaction });
     await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // the day is a business day again: data may be missing
+    await refreshDeterminations(entity.id, transaction);
   });
 }

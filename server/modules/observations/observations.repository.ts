@@ -171,13 +171,18 @@ export async function loadSeries(
   portfolioId: number,
   from?: string,
   to?: string,
+  transaction?: Transaction,
 ): Promise<(Observation & { version: number })[]> {
   const rows = await sequelize.query<Record<string, unknown>>(
     `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
        FROM observations
       WHERE portfolio_id = :pid AND current_day BETWEEN :from AND :to
       ORDER BY current_day`,
-    { replacements: { pid: portfolioId, from: from ?? "1900-01-01", to: to ?? "9999-12-31" }, type: QueryTypes.SELECT },
+    {
+      replacements: { pid: portfolioId, from: from ?? "1900-01-01", to: to ?? "9999-12-31" },
+      type: QueryTypes.SELECT,
+      transaction,
+    },
   );
   return rows.map((r) => ({
     date: String(r.d),

@@ -17,6 +17,7 @@ import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
 import type { SignedIn } from "../../kit/actor";
 import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/review";
+import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
 
@@ -178,8 +179,10 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       transaction,
     );
     // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
-    if (before.exclusionStatus === "approved" || body.decision === "approved")
+    if (before.exclusionStatus === "approved" || body.decision === "approved") {
       await flagExclusionDecision(portfolio.id, date, actor, transaction);
+      await refreshDeterminationsOfPortfolios([portfolio.id], transaction);
+    }
   });
   return (await currentReview(portfolio.id, date))!;
 }

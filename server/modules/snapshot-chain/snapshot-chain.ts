@@ -1,6 +1,7 @@
-import type { Transaction } from "sequelize";
+import { Transaction } from "sequelize";
 import { ChainHeadModel, ChainLinkModel, type ChainLinkKind } from "../../models/snapshot-chain";
 import { sequelize } from "../../db/sequelize";
+import { currentTransaction } from "../../db/transaction-context";
 import { SnapshotModel } from "../../models/snapshot";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import type { ChainProblem } from "../../../shared/schemas/snapshot";
@@ -198,15 +199,20 @@ export interface ChainCheck {
  * signed-off snapshot stands as its newest link says. Reads in one consistent view.
  */
 export async function verifyChain(entityId: number, snapshots?: SnapshotFields[]): Promise<ChainCheck> {
-  // One transaction: the head, the links and the snapshots as of one moment (REPEATABLE READ).
-  const { links, head, rows } = await sequelize.transaction(async (transaction) => {
+  // The head, the links and the snapshots as of one moment: inside the caller's transaction (a
+  // filing checks the seal under its own locks), else in a REPEATABLE READ one of their own.
+  const read = async (transaction: Transaction) => {
     const head = await ChainHeadModel.findByPk(entityId, { transaction });
     return {
       head,
       links: await ChainLinkModel.findAll({ where: { entityId }, order: [["seq", "ASC"]], transaction }),
       rows: snapshots ?? (await SnapshotModel.findAll({ where: { entityId }, transaction })),
     };
-  });
+  };
+  const outer = currentTransaction();
+  const { links, head, rows } = outer
+    ? await read(outer)
+    : await sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, read);
   const problems: ChainProblem[] = [];
   const bodies: LinkBody[] = [];
   const latest = new Map<number, { body: LinkBody; mac: string }>();

@@ -1,4 +1,4 @@
-import { type Transaction } from "sequelize";
+import { UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
@@ -18,6 +18,8 @@ import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { appendLink } from "../snapshot-chain/snapshot-chain";
 import type { SignedIn } from "../../kit/actor";
+import { refreshDeterminations } from "../determinations/determinations.store";
+import { DeterminationModel } from "../../models/determination";
 
 // The sign-off: an analyst prepares and submits a past quarter, a CRO approves (sealing it into the
 // entity's hash chain) or returns it; filing then locks and marks it.
@@ -150,21 +152,30 @@ export async function prepareSnapshot(
         transaction,
       );
     } else {
-      row = await SnapshotModel.create(
-        {
-          ...values,
-          entityId: entity.id,
-          quarterEnd: body.quarterEnd,
-          approvedBy: null,
-          approvedAt: null,
-          prevHash: null,
-          hash: null,
-          restatedAt: null,
-          restatementDetail: null,
-          historyJson: JSON.stringify([event(actor, "prepared")]),
-        },
-        { transaction },
-      );
+      try {
+        row = await SnapshotModel.create(
+          {
+            ...values,
+            entityId: entity.id,
+            quarterEnd: body.quarterEnd,
+            approvedBy: null,
+            approvedAt: null,
+            prevHash: null,
+            hash: null,
+            restatedAt: null,
+            restatementDetail: null,
+            historyJson: JSON.stringify([event(actor, "prepared")]),
+          },
+          { transaction },
+        );
+      } catch (err) {
+        // Two first preparations of one quarter at once: the unique (entity, quarter) lets one in.
+        if (err instanceof UniqueConstraintError)
+          throw new ConflictError(
+            `${entity.code} ${quarterLabel(body.quarterEnd)} was prepared by someone else a moment ago. Look at it again.`,
+          );
+        throw err;
+      }
       await recordAudit(
         actor,
         "snapshot.prepare",
@@ -247,6 +258,8 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     row.hash = link.mac;
     row.prevHash = link.prevMac;
     await row.save({ transaction });
+    // The quarter's determination is frozen with the snapshot: approved, never recomputed.
+    await refreshDeterminations(entity.id, transaction);
     await recordAudit(
       actor,
       "snapshot.approve",
@@ -316,6 +329,9 @@ export async function recordFiled(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
     { transaction },
   );
+  // Its determination is filed too (only the status moves; the entity is not locked here, as the
+  // snapshot already is and the lock order puts the entity first).
+  await DeterminationModel.update({ status: "filed" }, { where: { snapshotId: row.id }, transaction });
   await appendLink(row, "filed", transaction, filed);
 }
 

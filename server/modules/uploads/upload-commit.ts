@@ -21,6 +21,7 @@ import { recheckReferenceData, type CsvReferenceData, type ParsedRow } from "../
 import { classify, currentDaysInSpan, spanOf, type NewVersion, type StoredDay } from "../../../shared/ingest/row-plan";
 import type { CommitResult } from "../../../shared/schemas/upload";
 import type { SignedIn } from "../../kit/actor";
+import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 /** Portfolio ids the preview named (from its summary), sorted. */
 async function previewPortfolioIds(upload: UploadModel, transaction: Transaction): Promise<number[]> {
@@ -94,6 +95,8 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await applyFindings(found, transaction);
     // Signed-off figures never change; a day written inside a signed-off window flags that snapshot.
     await flagChangedSnapshots(inserts, upload.id, actor, transaction);
+    // The determinations of the entities whose data this was, recomputed with the data.
+    await refreshDeterminationsOfPortfolios([...held], transaction);
 
     upload.status = "committed";
     upload.committedSha256 = upload.sha256;
@@ -139,7 +142,7 @@ async function parseStoredFile(
   });
   if (!withContent?.content) throw new ConflictError(`Upload #${id} no longer holds its file; upload it again.`);
   const parsed = parseFile(unpackBytes(withContent.content), ref);
-  if (parsed.errors.length) {
+  if (parsed.errorCount) {
     throw new ConflictError(
       "The reference data changed since the preview and some rows are no longer valid. Upload the file again to see why.",
     );

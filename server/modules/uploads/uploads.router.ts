@@ -1,7 +1,10 @@
 import multer from "multer";
+import type { RequestHandler } from "express";
+import { config } from "../../config";
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
-import { BadRequestError, parseInput } from "../../errors";
+import { BadRequestError, ServerBusyError, parseInput } from "../../errors";
+import { Semaphore, SemaphoreRefusal } from "../../semaphore";
 import { UPLOAD_MAX_BYTES, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
 import { idParamSchema } from "../../../shared/schemas/common";
 import * as uploads from "./uploads.service";
@@ -18,7 +21,48 @@ const single = multer({
   limits: { fileSize: UPLOAD_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
 }).single("file");
 
-export function uploadsRouter() {
+/** Over this, an upload is large: it takes a turn before its body is read (or sent without a length). */
+export const LARGE_UPLOAD_BYTES = 1024 * 1024;
+
+export interface UploadLimits {
+  /** The turns large uploads take (per server process). */
+  gate: Semaphore;
+  largeFileBytes: number;
+}
+
+export function defaultUploadLimits(): UploadLimits {
+  return {
+    gate: new Semaphore(config.uploads.concurrency, config.uploads.queue),
+    largeFileBytes: LARGE_UPLOAD_BYTES,
+  };
+}
+
+/**
+ * Large uploads take turns: a file is received, hashed, packed and parsed while it arrives, which
+ * holds it in memory several times over, so only a few run at once and the rest wait (their
+ * bytes stay in the client's socket meanwhile). One more than the queue holds, or one that waited
+ * too long, is refused at once with 503 and Retry-After.
+ */
+function takeTurn({ gate, largeFileBytes }: UploadLimits): RequestHandler {
+  return async (req, res, next) => {
+    const length = Number(req.get("content-length"));
+    if (req.get("content-length") !== undefined && Number.isFinite(length) && length <= largeFileBytes) return next();
+    let release: () => void;
+    try {
+      release = await gate.acquire(config.uploads.queueWaitMs);
+    } catch (err) {
+      if (!(err instanceof SemaphoreRefusal)) throw err;
+      throw new ServerBusyError(
+        `Other large files are being checked right now (${gate.holders} checking, ${gate.waiters} waiting), so yours was not started.`,
+        15,
+      );
+    }
+    res.once("close", release);
+    next();
+  };
+}
+
+export function uploadsRouter(limits: UploadLimits = defaultUploadLimits()) {
   const r = createGuardedRouter();
 
   r.get("/api/uploads/template.csv", (_req, res) => {
@@ -29,7 +73,7 @@ export function uploadsRouter() {
     });
   });
 
-  r.post("/api/uploads", single, async (req, res) => {
+  r.post("/api/uploads", takeTurn(limits), single, async (req, res) => {
     if (!req.file) throw new BadRequestError('Attach the CSV file in the form field "file".');
     const {
       originalname: originalName,

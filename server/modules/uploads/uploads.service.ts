@@ -22,9 +22,11 @@ import type { SignedIn } from "../../kit/actor";
 // An upload's story before and after its commit (upload-commit.ts): the preview of a checked file,
 // the history, one upload, and discarding a preview.
 
-/** How many row errors a preview returns (all are counted; the rows endpoint pages through them). */
+/**
+ * How many row errors a preview returns. The parse keeps the first KEPT_ERRORS (stored with the
+ * upload; the rows endpoint pages through them) and counts all of them (errorCount).
+ */
 export const PREVIEW_ERROR_CAP = 200;
-const STORED_ERROR_CAP = 20_000;
 
 export interface IncomingFile {
   originalName: string;
@@ -99,7 +101,7 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
       )
     : new Map();
   const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored, false);
-  const invalid = parsed.invalidLines.size;
+  const invalid = parsed.invalidCount;
 
   const row = await sequelize.transaction(async (transaction) => {
     const created = await UploadModel.create(
@@ -118,12 +120,12 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
         restatedCount: restated,
         unchangedCount: unchanged,
         insertedCount: null,
-        errorsJson: JSON.stringify(parsed.errors.slice(0, STORED_ERROR_CAP)),
+        errorsJson: JSON.stringify(parsed.errors),
         summaryJson: JSON.stringify({
           portfolios: portfolioCodes,
           from: range?.from ?? null,
           to: range?.to ?? null,
-          errorCount: parsed.errors.length,
+          errorCount: parsed.errorCount,
         }),
         committedAt: null,
       },

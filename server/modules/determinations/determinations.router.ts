@@ -1,0 +1,19 @@
+import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
+import { parseInput } from "../../errors";
+import { entityCodeParamSchema } from "../../../shared/schemas/common";
+import { capitalQuerySchema } from "../../../shared/schemas/determination";
+import { capitalOnDate, listDeterminations } from "./determinations.service";
+
+export function determinationsRouter() {
+  const r = createGuardedRouter();
+  r.get("/api/entities/:code/determinations", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    res.json(await listDeterminations(code, signedInActor(req).user));
+  });
+  r.get("/api/entities/:code/capital", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    res.json(await capitalOnDate(code, parseInput(capitalQuerySchema, req.query, "query")));
+  });
+  return r.router;
+}

@@ -1,0 +1,123 @@
+import { AppError, NotFoundError } from "../../errors";
+import { EntityModel } from "../../models/entity";
+import { capitalInputsAt } from "../../../shared/backtest/capital";
+import {
+  capitalUnder,
+  determinationCounting,
+  inForceOn,
+  indicativeAt,
+  multipliersFor,
+  settingsInForce,
+} from "../../../shared/backtest/determination";
+import { addBusinessDays } from "../../../shared/backtest/calendar";
+import { EngineInputError } from "../../../shared/backtest/errors";
+import type { CapitalOnDate, DeterminationDto } from "../../../shared/schemas/determination";
+import type { SessionUser } from "../../../shared/schemas/auth";
+import { loadEntityEngineInputs, storedDeterminations, toDeterminationDto } from "./determinations.store";
+
+const cents = (v: number) => Math.round(v * 100) / 100;
+const today = () => new Date().toISOString().slice(0, 10);
+
+async function entityByCode(code: string): Promise<EntityModel> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity with code ${code}.`);
+  return entity;
+}
+
+/**
+ * The entity's determinations, oldest first, as stored on write. Treasury reads signed-off
+ * figures only, so it sees the approved and filed ones.
+ */
+export async function listDeterminations(code: string, viewer: SessionUser): Promise<DeterminationDto[]> {
+  const entity = await entityByCode(code);
+  const rows = (await storedDeterminations(entity.id)).map((d) => toDeterminationDto(d, entity.regime));
+  return viewer.role === "treasury" ? rows.filter((d) => d.status !== "provisional") : rows;
+}
+
+/** The latest signed-off determination of an entity, or null (treasury's starting point). */
+export async function latestApprovedDetermination(entity: EntityModel): Promise<DeterminationDto | null> {
+  const rows = (await storedDeterminations(entity.id)).filter((d) => d.status !== "provisional");
+  const last = rows[rows.length - 1];
+  return last ? toDeterminationDto(last, entity.regime) : null;
+}
+
+/**
+ * Capital on a date: the multiplier in force that day (the plus factor of the last determination
+ * in force, with the settings in force that day), beside the indicative figures of the rolling
+ * count as if determined that day.
+ */
+export async function capitalOnDate(code: string, query: { date?: string }): Promise<CapitalOnDate> {
+  const entity = await entityByCode(code);
+  const date = query.date ?? today();
+  const inputs = await loadEntityEngineInputs(entity);
+  if (!inputs.portfolio || inputs.series.length === 0 || inputs.series[0].date > date) {
+    throw new AppError(
+      404,
+      "no_data",
+      `${code} has no daily data on or before ${date}. An analyst uploads it under Data.`,
+    );
+  }
+  const settings = settingsInForce(inputs.options, date);
+  const dets = (await storedDeterminations(entity.id)).map((d) => toDeterminationDto(d, entity.regime));
+  const det = inForceOn(dets, date);
+  const indicative = indicativeAt(inputs.series, date, inputs.options);
+  // The plus factor is the determination's; addends and floor are those in force on the date.
+  const inForce = det
+    ? {
+        quarterEnd: det.quarterEnd,
+        asOf: det.asOf,
+        effectiveFrom: det.effectiveFrom,
+        effectiveTo: det.effectiveTo,
+        counted: det.counted,
+        zone: det.zone,
+        zoneLabel: det.zoneLabel,
+        status: det.status,
+        snapshotId: det.snapshotId,
+        ...multipliersFor(det.counted, entity.regime, settings, 250, det.plusFactor),
+      }
+    : null;
+
+  let requirement: number | null = null;
+  let addOn: number | null = null;
+  let indicativeRequirement: number | null = null;
+  let capitalNote: string | null = null;
+  try {
+    const capitalInputs = capitalInputsAt(inputs.series, entity.regime, date);
+    indicativeRequirement = cents(
+      capitalUnder(capitalInputs, entity.regime, indicative.plusFactor, settings).requirement,
+    );
+    if (inForce) {
+      const c = capitalUnder(capitalInputs, entity.regime, inForce.plusFactor, settings);
+      requirement = cents(c.requirement);
+      addOn = cents(c.addOn);
+    } else {
+      capitalNote = `No determination is in force on ${date} yet: the first follows the first quarter end with data.`;
+    }
+  } catch (err) {
+    if (!(err instanceof EngineInputError)) throw err;
+    capitalNote = `No capital figure: ${err.message}`;
+  }
+  return {
+    entity: entity.code,
+    currency: entity.currency,
+    date,
+    inForce,
+    indicative,
+    requirement,
+    addOn,
+    indicativeRequirement,
+    capitalNote,
+    nextDetermination: bitesFrom(addBusinessDays(date, 1, inputs.options.holidays), inputs.options, date),
+    settings,
+  };
+}
+
+/** The determination that first counts an exception on `day` (the frequency in force on `asOf`). */
+export function bitesFrom(
+  day: string,
+  options: Parameters<typeof settingsInForce>[0] & { holidays: ReadonlySet<string> },
+  asOf: string,
+) {
+  const p = determinationCounting(day, settingsInForce(options, asOf).determinationFrequency, options.holidays);
+  return { quarterEnd: p.periodEnd, asOf: p.asOf, effectiveFrom: p.effectiveFrom };
+}

@@ -14,7 +14,13 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: "shared", environment: "node", include: ["tests/shared/**/*.test.ts"], globals: true },
+        test: {
+          name: "shared",
+          environment: "node",
+          include: ["tests/shared/**/*.test.ts"],
+          globals: true,
+          testTimeout: 30000,
+        },
       },
       {
         resolve: { alias },
@@ -37,6 +43,7 @@ export default defineConfig({
           include: ["tests/client/**/*.test.tsx"],
           setupFiles: ["tests/client/setup.ts"],
           globals: true,
+          testTimeout: 30000,
         },
       },
       {

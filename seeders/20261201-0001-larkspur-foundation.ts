@@ -14,6 +14,8 @@ import type { PnlBasis, RegimeId, Role } from "../shared/schemas/common";
 
 export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
   { email: "admin@larkspur.test", name: "Ines Vantongeren", role: "admin" },
+  // A second administrator: granting the CRO or admin role needs one to propose and another to approve.
+  { email: "admin2@larkspur.test", name: "Jonas Halloran", role: "admin" },
   { email: "analyst@larkspur.test", name: "Theo Marchetti", role: "analyst" },
   { email: "analyst2@larkspur.test", name: "Priya Ramanathan", role: "analyst" },
   { email: "cro@larkspur.test", name: "Margot Ellsworth", role: "cro" },

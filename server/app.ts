@@ -25,9 +25,15 @@ import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
 import { outboxRouter } from "./modules/outbox/outbox.router";
+import {
+  DEFAULT_INVITATION_LIMITS,
+  invitationsRouter,
+  type InvitationLimits,
+} from "./modules/invitations/invitations.router";
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
+  invitationLimits?: InvitationLimits;
   /** The turns large uploads take (tests hold one to see the queue refuse). */
   uploadLimits?: UploadLimits;
   /** Serve the built client from dist/client (when it exists). */
@@ -86,6 +92,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(authRouter(options.signInLimits ?? DEFAULT_SIGN_IN_LIMITS));
   app.use(entitiesRouter());
   app.use(usersRouter());
+  app.use(invitationsRouter(options.invitationLimits ?? DEFAULT_INVITATION_LIMITS));
   app.use(assignmentsRouter());
   app.use(auditRouter());
   app.use(uploadsRouter(options.uploadLimits));

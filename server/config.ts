@@ -50,6 +50,10 @@ const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
   LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
+  /** The address people open Quartermark at: set-password links in e-mails start with it. */
+  PUBLIC_URL: z.url({ protocol: /^https?$/, error: "PUBLIC_URL must be an http(s) address" }).optional(),
+  /** How long an invitation or password-reset link works, in hours. */
+  INVITATION_TTL_HOURS: z.coerce.number().int().min(1).max(720).default(72),
   /** Large uploads (over 1 MB) checked at once per server process; the next ones wait their turn. */
   UPLOAD_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   /** Large uploads that may wait for their turn; one more is refused at once (503, Retry-After). */
@@ -130,6 +134,8 @@ function loadConfig() {
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,
+    publicUrl: (env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`).replace(/\/+$/, ""),
+    invitationTtlHours: env.INVITATION_TTL_HOURS,
     uploads: Object.freeze({
       concurrency: env.UPLOAD_CONCURRENCY,
       queue: env.UPLOAD_QUEUE,

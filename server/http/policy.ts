@@ -19,6 +19,11 @@ export const POLICY = {
   "POST /api/auth/logout": "signed-in",
   "GET /api/auth/me": "signed-in",
   "GET /api/auth/session": "public",
+  // Everyone changes their own password (current + new; other sessions end).
+  "POST /api/auth/password": "signed-in",
+  // A set-password link's holder, before they have a password: rate limited per address in the router.
+  "POST /api/invitations/lookup": "public",
+  "POST /api/invitations/accept": "public",
 
   // Entities: every role reads (a regulator only the entities assigned to them); admin changes.
   "GET /api/entities": "signed-in",
@@ -35,7 +40,14 @@ export const POLICY = {
   "GET /api/users": ["admin"],
   "POST /api/users": ["admin"],
   "PATCH /api/users/:id": ["admin"],
-  "POST /api/users/:id/password": ["admin"],
+  // An admin never sets a password: they send a one-time link (an invitation again, or a reset).
+  "POST /api/users/:id/password-link": ["admin"],
+  "GET /api/invitations": ["admin"],
+  // Granting or removing the CRO or admin role: one admin proposes, another approves (in the service).
+  "GET /api/role-requests": ["admin"],
+  "POST /api/role-requests": ["admin"],
+  "POST /api/role-requests/:id/approve": ["admin"],
+  "POST /api/role-requests/:id/reject": ["admin"],
   "GET /api/regulator-assignments": ["admin"],
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],

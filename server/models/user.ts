@@ -7,7 +7,8 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
   declare email: string;
   declare name: string;
   declare role: Role;
-  declare passwordHash: string;
+  /** Empty until the person sets their first password from their invitation link. */
+  declare passwordHash: string | null;
   declare disabled: CreationOptional<boolean>;
   /** Raised on logout, disable and role change: every token carrying an older version is refused. */
   declare tokenVersion: CreationOptional<number>;
@@ -24,7 +25,7 @@ UserModel.init(
     email: { type: DataTypes.STRING(190), allowNull: false, unique: true },
     name: { type: DataTypes.STRING(120), allowNull: false },
     role: { type: DataTypes.ENUM("analyst", "cro", "treasury", "regulator", "admin"), allowNull: false },
-    passwordHash: { type: DataTypes.STRING(100), allowNull: false },
+    passwordHash: { type: DataTypes.STRING(100), allowNull: true },
     disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },

@@ -10,8 +10,42 @@ export const passwordSchema = z
     "Passwords are limited to 72 bytes (bcrypt ignores anything longer)",
   );
 
-/** Rules for a new password set by an admin. */
-export const newPasswordSchema = passwordSchema.refine((s) => s.length >= 12, "At least 12 characters");
+/**
+ * A new password as it arrives: a string of sane size. The rule itself (length, common and
+ * breached patterns, the owner's own words) needs to know whose password it is and runs in the
+ * service with `newPasswordSchema` (`shared/password/policy.ts`).
+ */
+const newPasswordInputSchema = z.string().min(1, "Enter a new password").max(200, "Too long");
+
+/** Changing one's own password: the current one proves it is the person, not just their open session. */
+export const changePasswordBodySchema = z.strictObject({
+  currentPassword: passwordSchema,
+  newPassword: newPasswordInputSchema,
+});
+export type ChangePasswordBody = z.infer<typeof changePasswordBodySchema>;
+
+/** A set-password link's token: 32 random bytes in base64url (only its SHA-256 is stored). */
+export const invitationTokenSchema = z
+  .string()
+  .regex(/^[A-Za-z0-9_-]{43}$/, "This link is not complete. Open it again from the e-mail, or copy all of it.");
+
+export const invitationLookupBodySchema = z.strictObject({ token: invitationTokenSchema });
+
+/** What the set-password screen shows about an open link: whose it is and until when it works. */
+export const invitationSchema = z.object({
+  purpose: z.enum(["invite", "reset"]),
+  email: z.string(),
+  name: z.string(),
+  role: roleSchema,
+  expiresAt: z.string(),
+});
+export type Invitation = z.infer<typeof invitationSchema>;
+
+export const acceptInvitationBodySchema = z.strictObject({
+  token: invitationTokenSchema,
+  password: newPasswordInputSchema,
+});
+export type AcceptInvitationBody = z.infer<typeof acceptInvitationBodySchema>;
 
 export const loginBodySchema = z.object({
   email: z.string().trim().toLowerCase().pipe(z.email("Enter a valid e-mail address")),

@@ -59,6 +59,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
       ErrorBoundary: RouteErrorBoundary,
       children: [
         { path: paths.signIn.path, ...screen(queryClient, null, () => import("./routes/sign-in")) },
+        { path: paths.setPassword.path, ...screen(queryClient, null, () => import("./routes/set-password")) },
         {
           id: "app",
           ...screen(queryClient, null, () => import("./routes/app-layout")),
@@ -79,6 +80,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
             },
             { path: relative(paths.capital.path), ...screen(queryClient, "capital", () => import("./routes/capital")) },
             { path: relative(paths.filings.path), ...screen(queryClient, "filings", () => import("./routes/filings")) },
+            { path: relative(paths.account.path), ...screen(queryClient, "account", () => import("./routes/account")) },
             { path: relative(paths.tokens.path), ...screen(queryClient, "tokens", () => import("./routes/tokens")) },
             {
               path: relative(paths.adminUsers.path),

@@ -33,7 +33,11 @@ export const paths = {
     href: (redirectTo?: string) =>
       redirectTo && redirectTo !== "/" ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : "/sign-in",
   },
+  /** A set-password link from an e-mail (invitation or reset): the token rides in the fragment. */
+  setPassword: { path: "/set-password", roles: null, label: "Set your password", href: () => "/set-password" },
   overview: { path: "/", roles: allRoles, label: "Overview", href: () => "/" },
+  /** One's own account: change one's own password. */
+  account: { path: "/account", roles: allRoles, label: "Your account", href: () => "/account" },
   data: {
     path: "/data",
     roles: dataReaders,
@@ -160,6 +164,6 @@ export function mayOpen(key: PathKey, role: Role | undefined): boolean {
 /** Only same-site paths are followed after sign-in (no `//host` or absolute URLs). */
 export function safeRedirect(target: string | null | undefined): string {
   if (!target || !target.startsWith("/") || target.startsWith("//") || target.startsWith("/\\")) return "/";
-  if (target.startsWith(paths.signIn.path)) return "/";
+  if (target.startsWith(paths.signIn.path) || target.startsWith(paths.setPassword.path)) return "/";
   return target;
 }

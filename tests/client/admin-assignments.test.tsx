@@ -11,6 +11,7 @@ const regulator = {
   disabled: false,
   createdAt: "2026-01-01T00:00:00Z",
   lastSignInAt: null,
+  passwordSet: true,
   version: 1,
 };
 const analyst = { ...regulator, id: 6, email: "analyst@larkspur.test", name: "Ana Lyst", role: "analyst" };
@@ -24,6 +25,7 @@ const entities = [
     qualitativeAddend: 0,
     supervisorName: null,
     supervisorEmails: [],
+    passwordSet: true,
     version: 1,
   },
   {
@@ -35,6 +37,7 @@ const entities = [
     qualitativeAddend: 0,
     supervisorName: null,
     supervisorEmails: [],
+    passwordSet: true,
     version: 1,
   },
 ];

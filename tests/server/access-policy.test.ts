@@ -131,6 +131,11 @@ const MUST_REFUSE: [Role, string][] = [
   ["analyst", "PUT /api/portfolios/:code/exceptions/:date/decision"], // the CRO records decisions
   ["cro", "POST /api/uploads"], // the CRO reads data; analysts bring it in
   ["analyst", "POST /api/users"],
+  // Separation of duties: only administrators send set-password links and decide role grants.
+  ["cro", "POST /api/users/:id/password-link"],
+  ["analyst", "POST /api/role-requests"],
+  ["cro", "POST /api/role-requests/:id/approve"],
+  ["treasury", "GET /api/invitations"],
   ["cro", "PATCH /api/entities/:code"],
   // Quarter close: the analyst prepares, the CRO signs off; admin has no sign-off rights.
   ["admin", "POST /api/snapshots"],

@@ -7,6 +7,7 @@ import { HolidayModel } from "../../server/models/holiday";
 import { PortfolioModel } from "../../server/models/portfolio";
 import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { UserModel } from "../../server/models/user";
+import { UserInvitationModel } from "../../server/models/user-invitation";
 import { createTestEntity, createTestUser, sessionCookieFor, signIn, testApp, unique } from "./helpers";
 
 const app = testApp();
@@ -21,23 +22,28 @@ beforeAll(async () => {
 afterAll(() => sequelize.close());
 
 describe("managing users", () => {
-  it("when an admin creates a user, then the row exists, the password is hashed with cost 12, and the audit log holds the change without it", async () => {
+  it("when an admin invites a user, then the row exists without any password, and the audit log holds the change", async () => {
     const email = `new-${unique()}@larkspur.test`;
     const res = await request(app)
       .post("/api/users")
       .set("Cookie", admin)
-      .send({ email, name: "Nadia Fern", role: "analyst", password: "a long enough password" });
+      .send({ email, name: "Nadia Fern", role: "analyst" });
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ email, name: "Nadia Fern", role: "analyst", disabled: false, lastSignInAt: null });
+    expect(res.body.outcome).toBe("invited");
+    expect(res.body.user).toMatchObject({
+      email,
+      name: "Nadia Fern",
+      role: "analyst",
+      disabled: false,
+      lastSignInAt: null,
+      passwordSet: false,
+    });
     const row = await UserModel.findOne({ where: { email } });
-    expect(row!.passwordHash).toMatch(/^\$2[aby]\$12\$/);
+    expect(row!.passwordHash).toBeNull();
     const audit = await AuditEventModel.findOne({ where: { action: "user.create", target: email } });
     expect(audit!.actorEmail).toBe(adminEmail);
     expect(audit!.ip).toMatch(/127\.0\.0\.1/);
-    expect(audit!.afterJson).not.toMatch(/\$2[aby]\$/);
     expect(JSON.parse(audit!.afterJson!)).toEqual({ email, name: "Nadia Fern", role: "analyst", disabled: false });
-    // The new user can sign in with that password.
-    await signIn(app, email, "a long enough password");
   });
 
   it("when the e-mail already exists, then 409 and no second row", async () => {
@@ -45,49 +51,36 @@ describe("managing users", () => {
     const res = await request(app)
       .post("/api/users")
       .set("Cookie", admin)
-      .send({ email: existing.email, name: "X", role: "cro", password: "a long enough password" });
+      .send({ email: existing.email, name: "X", role: "treasury" });
     expect(res.status).toBe(409);
     expect(res.body.error.message).toContain(existing.email);
     expect(await UserModel.count({ where: { email: existing.email } })).toBe(1);
   });
 
-  it("when the body smuggles extra fields such as tokenVersion, then 422 and nothing is created", async () => {
-    const email = `smuggle-${unique()}@larkspur.test`;
-    const res = await request(app)
-      .post("/api/users")
-      .set("Cookie", admin)
-      .send({ email, name: "X", role: "analyst", password: "a long enough password", tokenVersion: 99 });
-    expect(res.status).toBe(422);
-    expect(await UserModel.count({ where: { email } })).toBe(0);
+  it("when the body smuggles extra fields such as tokenVersion or a password, then 422 and nothing is created", async () => {
+    for (const extra of [{ tokenVersion: 99 }, { password: "a long enough password" }]) {
+      const email = `smuggle-${unique()}@larkspur.test`;
+      const res = await request(app)
+        .post("/api/users")
+        .set("Cookie", admin)
+        .send({ email, name: "X", role: "analyst", ...extra });
+      expect(res.status).toBe(422);
+      expect(await UserModel.count({ where: { email } })).toBe(0);
+    }
   });
 
-  it("when an admin changes a role, then the audit log keeps before and after", async () => {
+  it("when an admin changes a role that needs no second admin, then it applies at once and the audit log keeps before and after", async () => {
     const user = await createTestUser("analyst");
     const res = await request(app)
       .patch(`/api/users/${user.id}`)
       .set("Cookie", admin)
-      .send({ role: "cro", version: 1 });
+      .send({ role: "treasury", version: 1 });
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ role: "cro", version: 2 });
+    expect(res.body).toMatchObject({ role: "treasury", version: 2 });
     expect((await UserModel.findByPk(user.id))!.version).toBe(2);
     const audit = await AuditEventModel.findOne({ where: { action: "user.update", target: user.email } });
     expect(JSON.parse(audit!.beforeJson!).role).toBe("analyst");
-    expect(JSON.parse(audit!.afterJson!).role).toBe("cro");
-  });
-
-  it("when an admin resets a password, then the old one stops working and the new one works", async () => {
-    const user = await createTestUser("treasury");
-    await request(app)
-      .post(`/api/users/${user.id}/password`)
-      .set("Cookie", admin)
-      .send({ password: "brand new passphrase", version: 1 })
-      .expect(204);
-    expect(
-      (await request(app).post("/api/auth/login").send({ email: user.email, password: "correct horse battery staple" }))
-        .status,
-    ).toBe(401);
-    await signIn(app, user.email, "brand new passphrase");
-    expect((await UserModel.findByPk(user.id))!.version).toBe(2);
+    expect(JSON.parse(audit!.afterJson!).role).toBe("treasury");
   });
 
   it("when an admin tries to disable their own account, then 403 and they stay enabled", async () => {
@@ -103,7 +96,7 @@ describe("managing users", () => {
 });
 
 describe("two admins editing the same user (row version)", () => {
-  const DTO_KEYS = ["createdAt", "disabled", "email", "id", "lastSignInAt", "name", "role", "version"];
+  const DTO_KEYS = ["createdAt", "disabled", "email", "id", "lastSignInAt", "name", "passwordSet", "role", "version"];
   let otherAdmin: string;
   beforeAll(async () => {
     otherAdmin = await sessionCookieFor((await createTestUser("admin")).id);
@@ -151,8 +144,8 @@ describe("two admins editing the same user (row version)", () => {
     expect((await request(app).get("/api/auth/me").set("Cookie", targetSession)).status).toBe(200);
   });
 
-  it("when the second admin resets a password with the old version, then 409 stale and the password and sessions stay as they were", async () => {
-    const target = await createTestUser("cro");
+  it("when the second admin sends a set-password link with the old version, then 409 stale and no link is made", async () => {
+    const target = await createTestUser("analyst");
     await request(app)
       .patch(`/api/users/${target.id}`)
       .set("Cookie", admin)
@@ -160,9 +153,9 @@ describe("two admins editing the same user (row version)", () => {
       .expect(200);
 
     const late = await request(app)
-      .post(`/api/users/${target.id}/password`)
+      .post(`/api/users/${target.id}/password-link`)
       .set("Cookie", otherAdmin)
-      .send({ password: "a second admin's idea", version: 1 });
+      .send({ version: 1 });
 
     expect(late.status).toBe(409);
     expect(late.body.error.code).toBe("stale");
@@ -170,14 +163,14 @@ describe("two admins editing the same user (row version)", () => {
     expect(JSON.stringify(late.body)).not.toMatch(/\$2[aby]\$/);
     const row = (await UserModel.findByPk(target.id))!;
     expect({ version: row.version, tokenVersion: row.tokenVersion }).toEqual({ version: 2, tokenVersion: 2 }); // only the role change's revocation
-    expect(await AuditEventModel.count({ where: { action: "user.reset_password", target: target.email } })).toBe(0);
-    await signIn(app, target.email); // the old password still works
+    expect(await UserInvitationModel.count({ where: { userId: target.id } })).toBe(0);
+    await signIn(app, target.email); // the password still works
   });
 
   it("when both admins send the same version at once, then exactly one wins and the version moves once", async () => {
     const target = await createTestUser("analyst");
     const [a, b] = await Promise.all([
-      request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ role: "cro", version: 1 }),
+      request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ role: "treasury", version: 1 }),
       request(app).patch(`/api/users/${target.id}`).set("Cookie", otherAdmin).send({ role: "regulator", version: 1 }),
     ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
@@ -196,22 +189,19 @@ describe("two admins editing the same user (row version)", () => {
   it("when an edit carries no version or an invalid one, then 422 names the version and nothing is written", async () => {
     const target = await createTestUser("analyst");
     for (const body of [
-      { role: "cro" },
-      { role: "cro", version: "1" },
-      { role: "cro", version: 0 },
-      { role: "cro", version: 1.5 },
-      { role: "cro", version: null },
+      { role: "treasury" },
+      { role: "treasury", version: "1" },
+      { role: "treasury", version: 0 },
+      { role: "treasury", version: 1.5 },
+      { role: "treasury", version: null },
     ]) {
       const res = await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send(body);
       expect(res.status, JSON.stringify(body)).toBe(422);
       expect(Object.keys(res.body.error.details.fields)).toContain("version");
     }
-    const reset = await request(app)
-      .post(`/api/users/${target.id}/password`)
-      .set("Cookie", admin)
-      .send({ password: "a long enough password" });
-    expect(reset.status).toBe(422);
-    expect(Object.keys(reset.body.error.details.fields)).toContain("version");
+    const link = await request(app).post(`/api/users/${target.id}/password-link`).set("Cookie", admin).send({});
+    expect(link.status).toBe(422);
+    expect(Object.keys(link.body.error.details.fields)).toContain("version");
     const row = (await UserModel.findByPk(target.id))!;
     expect({ role: row.role, version: row.version, tokenVersion: row.tokenVersion }).toEqual({
       role: "analyst",

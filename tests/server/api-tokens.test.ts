@@ -412,7 +412,7 @@ describe("tokens that may not be used", () => {
   it("when an admin disables a treasurer or moves them to another role, then their live tokens are revoked in the database and audited", async () => {
     const admin = await createTestUser("admin");
     const adminCookie = await sessionCookieFor(admin.id);
-    for (const change of [{ disabled: true }, { role: "cro" }]) {
+    for (const change of [{ disabled: true }, { role: "analyst" }]) {
       const t = await treasurer();
       const token = await newToken(t.cookie);
       const changed = await request(app)
@@ -424,7 +424,7 @@ describe("tokens that may not be used", () => {
       const [audit] = await auditOf("api_token.revoke_all", `user #${t.user.id}`);
       expect(JSON.parse(audit.afterJson!)).toEqual({
         count: 1,
-        reason: change.disabled ? "account disabled" : "role changed to cro",
+        reason: change.disabled ? "account disabled" : "role changed to analyst",
       });
       // Giving the role back does not revive the old token.
       await request(app)

@@ -22,7 +22,7 @@ describe("HTTP hardening", () => {
       .post("/api/users")
       .set("Cookie", cookie)
       .set("Origin", "https://evil.example")
-      .send({ email, name: "X", role: "admin", password: "a long enough password" });
+      .send({ email, name: "X", role: "analyst" });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe("cross_origin");
     expect(await UserModel.count({ where: { email } })).toBe(0);

@@ -2,8 +2,8 @@ import { rateLimit } from "express-rate-limit";
 import { createGuardedRouter } from "../../http/routes";
 import { actorOf, signedInActor } from "../../http/context";
 import { parseInput, TooManyRequestsError } from "../../errors";
-import { loginBodySchema } from "../../../shared/schemas/auth";
-import { signIn, signOut } from "./auth.service";
+import { changePasswordBodySchema, loginBodySchema } from "../../../shared/schemas/auth";
+import { changeOwnPassword, signIn, signOut } from "./auth.service";
 import { clearSessionCookie, setSessionCookie } from "./session.middleware";
 import { DatabaseCountStore } from "./sign-in-counts";
 
@@ -49,6 +49,26 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
   r.post("/api/auth/login", perAddress, perAccount, async (req, res) => {
     const body = parseInput(loginBodySchema, req.body, "sign-in form");
     const { user, token } = await signIn(body, actorOf(req));
+    setSessionCookie(res, token);
+    res.json({ user });
+  });
+
+  // A session that keeps guessing its own current password is stopped like failed sign-ins.
+  const passwordChangesPerAccount = rateLimit({
+    store: new DatabaseCountStore(`${ns}:password-change`),
+    windowMs: limits.windowMs,
+    limit: limits.perAccount,
+    skipSuccessfulRequests: true,
+    standardHeaders: false,
+    legacyHeaders: false,
+    keyGenerator: (req) => `password-change:${req.user?.id ?? "none"}`,
+    handler: (_req, _res, next) =>
+      next(new TooManyRequestsError("Too many attempts to change your password. Wait 15 minutes and try again.")),
+  });
+
+  r.post("/api/auth/password", passwordChangesPerAccount, async (req, res) => {
+    const body = parseInput(changePasswordBodySchema, req.body, "password form");
+    const { user, token } = await changeOwnPassword(body, signedInActor(req));
     setSessionCookie(res, token);
     res.json({ user });
   });

@@ -1,9 +1,11 @@
 import bcrypt from "bcryptjs";
 import { UserModel } from "../../models/user";
-import { UnauthorizedError } from "../../errors";
+import { AppError, NotFoundError, UnauthorizedError } from "../../errors";
+import { sequelize } from "../../db/sequelize";
+import { assertNewPassword } from "./password-rule";
 import { recordAudit } from "../audit/audit.service";
 import type { Actor, SignedIn } from "../../kit/actor";
-import type { LoginBody, SessionUser } from "../../../shared/schemas/auth";
+import type { ChangePasswordBody, LoginBody, SessionUser } from "../../../shared/schemas/auth";
 import { signSessionToken, verifySessionToken } from "./tokens";
 
 export const BCRYPT_COST = 12;
@@ -26,7 +28,13 @@ export async function signIn(credentials: LoginBody, actor: Actor): Promise<{ us
   const user = await UserModel.findOne({ where: { email: credentials.email } });
   const passwordMatches = await bcrypt.compare(credentials.password, user?.passwordHash ?? DUMMY_HASH);
   if (!user || !passwordMatches || user.disabled) {
-    const reason = !user ? "unknown e-mail" : user.disabled ? "account disabled" : "wrong password";
+    const reason = !user
+      ? "unknown e-mail"
+      : user.disabled
+        ? "account disabled"
+        : !user.passwordHash
+          ? "no password set yet"
+          : "wrong password";
     await recordAudit(actor, "auth.sign_in_failed", credentials.email, { after: { reason } });
     throw new UnauthorizedError(WRONG_CREDENTIALS);
   }
@@ -58,4 +66,37 @@ export async function resolveSession(
   if (user.disabled) return { reason: "account disabled", genuine: true };
   if (user.tokenVersion !== verified.tokenVersion) return { reason: "session revoked", genuine: true };
   return { user: toSessionUser(user) };
+}
+
+/**
+ * Changes the signed-in person's own password: the current one must match, the new one follows
+ * the password rule. Every other session of theirs ends (token version, as sign-out does); this
+ * one continues with the new token returned.
+ */
+export async function changeOwnPassword(
+  { currentPassword, newPassword }: ChangePasswordBody,
+  actor: SignedIn,
+): Promise<{ user: SessionUser; token: string }> {
+  const found = await UserModel.findByPk(actor.user.id);
+  if (!found) throw new NotFoundError("Your account no longer exists.");
+  const matches = await bcrypt.compare(currentPassword, found.passwordHash ?? DUMMY_HASH);
+  if (!found.passwordHash || !matches) {
+    await recordAudit(actor, "auth.password_change_failed", found.email, {
+      after: { reason: "wrong current password" },
+    });
+    throw new AppError(422, "validation_failed", "Your current password is not correct. Nothing was changed.", {
+      fields: { currentPassword: "This is not your current password" },
+    });
+  }
+  assertNewPassword(newPassword, { email: found.email, name: found.name }, "newPassword");
+  const passwordHash = await hashPassword(newPassword);
+  return sequelize.transaction(async (transaction) => {
+    const user = (await UserModel.findByPk(actor.user.id, { transaction, lock: transaction.LOCK.UPDATE }))!;
+    user.passwordHash = passwordHash;
+    user.tokenVersion = user.tokenVersion + 1; // from the locked row: every other session ends
+    user.version = user.version + 1;
+    await user.save({ transaction });
+    await recordAudit(actor, "auth.password_change", user.email, {}, transaction);
+    return { user: toSessionUser(user), token: signSessionToken(user.id, user.tokenVersion) };
+  });
 }

@@ -1,9 +1,20 @@
 import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { createUserBodySchema, resetPasswordBodySchema, updateUserBodySchema } from "../../../shared/schemas/user";
+import {
+  createUserBodySchema,
+  passwordLinkBodySchema,
+  proposeRoleBodySchema,
+  updateUserBodySchema,
+} from "../../../shared/schemas/user";
 import { idParamSchema } from "../../../shared/schemas/common";
-import { createUser, listUsers, resetPassword, updateUser } from "./users.service";
+import { createUser, listUsers, sendPasswordLink, updateUser } from "./users.service";
+import {
+  approveRoleRequest,
+  listPendingRoleRequests,
+  proposeRoleChange,
+  rejectRoleRequest,
+} from "./role-requests.service";
 
 export function usersRouter() {
   const r = createGuardedRouter();
@@ -11,16 +22,32 @@ export function usersRouter() {
     res.json(await listUsers());
   });
   r.post("/api/users", async (req, res) => {
-    res.status(201).json(await createUser(parseInput(createUserBodySchema, req.body), signedInActor(req)));
+    const result = await createUser(parseInput(createUserBodySchema, req.body), signedInActor(req));
+    res.status(result.outcome === "invited" ? 201 : 202).json(result);
   });
   r.patch("/api/users/:id", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await updateUser(id, parseInput(updateUserBodySchema, req.body), signedInActor(req)));
   });
-  r.post("/api/users/:id/password", async (req, res) => {
+  r.post("/api/users/:id/password-link", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
-    await resetPassword(id, parseInput(resetPasswordBodySchema, req.body), signedInActor(req));
-    res.status(204).end();
+    res.json(await sendPasswordLink(id, parseInput(passwordLinkBodySchema, req.body), signedInActor(req)));
+  });
+
+  // Granting or removing the CRO or administrator role: one admin proposes, another decides.
+  r.get("/api/role-requests", async (_req, res) => {
+    res.json(await listPendingRoleRequests());
+  });
+  r.post("/api/role-requests", async (req, res) => {
+    res.status(201).json(await proposeRoleChange(parseInput(proposeRoleBodySchema, req.body), signedInActor(req)));
+  });
+  r.post("/api/role-requests/:id/approve", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await approveRoleRequest(id, signedInActor(req)));
+  });
+  r.post("/api/role-requests/:id/reject", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await rejectRoleRequest(id, signedInActor(req)));
   });
   return r.router;
 }

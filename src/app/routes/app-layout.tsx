@@ -116,10 +116,14 @@ export default function AppLayout() {
           </NavLink>
           <MainNavigation user={user} />
           <div className="ml-auto flex items-center gap-3 py-2 text-sm">
-            <span>
+            <NavLink
+              to={paths.account.href()}
+              className="text-ink! no-underline! hover:underline!"
+              title="Your account"
+            >
               <span className="font-medium">{user.name}</span>
               <span className="text-ink-muted"> · {roleLabels[user.role]}</span>
-            </span>
+            </NavLink>
             <SignOut />
           </div>
         </div>

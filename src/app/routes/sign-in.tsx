@@ -16,6 +16,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 
 const demoUsers = [
   ["admin@larkspur.test", "administrator"],
+  ["admin2@larkspur.test", "second administrator"],
   ["analyst@larkspur.test", "analyst"],
   ["analyst2@larkspur.test", "second analyst"],
   ["cro@larkspur.test", "chief risk officer"],

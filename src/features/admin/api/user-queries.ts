@@ -1,9 +1,15 @@
 import { queryOptions, useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
+import { z } from "zod";
 import {
+  createUserResultSchema,
+  pendingInvitationListSchema,
+  roleRequestListSchema,
+  roleRequestSchema,
   userListSchema,
   userSchema,
   type CreateUserBody,
-  type ResetPasswordBody,
+  type PasswordLinkBody,
+  type ProposeRoleBody,
   type UpdateUserBody,
   type User,
 } from "@shared/schemas/user";
@@ -16,6 +22,18 @@ export const userQueries = {
     queryOptions({
       queryKey: [...userQueries.root(), "list"] as const,
       queryFn: () => api.get("/api/users", userListSchema),
+    }),
+  /** Set-password links not used yet (open or expired). */
+  invitations: () =>
+    queryOptions({
+      queryKey: [...userQueries.root(), "invitations"] as const,
+      queryFn: () => api.get("/api/invitations", pendingInvitationListSchema),
+    }),
+  /** Grants and removals of the CRO or administrator role waiting for a second administrator. */
+  roleRequests: () =>
+    queryOptions({
+      queryKey: [...userQueries.root(), "role-requests"] as const,
+      queryFn: () => api.get("/api/role-requests", roleRequestListSchema),
     }),
 };
 
@@ -44,7 +62,7 @@ function showCurrentState(queryClient: QueryClient, error: unknown) {
 export function useCreateUser() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (body: CreateUserBody) => api.post("/api/users", body, userSchema),
+    mutationFn: (body: CreateUserBody) => api.post("/api/users", body, createUserResultSchema),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
   });
 }
@@ -63,12 +81,42 @@ export function useUpdateUser() {
   });
 }
 
-export function useResetPassword() {
+const passwordLinkResultSchema = z.object({
+  user: userSchema,
+  invitation: z.object({ purpose: z.enum(["invite", "reset"]), expiresAt: z.string() }),
+});
+
+/** Sends a user a new one-time link to set their password (their invitation again, or a reset). */
+export function useSendPasswordLink() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ id, body }: { id: number; body: ResetPasswordBody }) => api.post(`/api/users/${id}/password`, body),
-    // A new password moves the user's version: the next edit must send the new one.
+    mutationFn: ({ id, body }: { id: number; body: PasswordLinkBody }) =>
+      api.post(`/api/users/${id}/password-link`, body, passwordLinkResultSchema),
+    // Sending moves the user's version: the next edit must send the new one.
     onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
     onError: (error) => showCurrentState(queryClient, error),
+  });
+}
+
+export function useProposeRole() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: ProposeRoleBody) => api.post("/api/role-requests", body, roleRequestSchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
+    onError: (error) => showCurrentState(queryClient, error),
+  });
+}
+
+/** Approves or rejects a role request; either way the users, links and requests are read again. */
+export function useDecideRoleRequest() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, decision }: { id: number; decision: "approve" | "reject" }) =>
+      api.post(`/api/role-requests/${id}/${decision}`, undefined, roleRequestSchema),
+    onSettled: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: userQueries.root() }),
+        queryClient.invalidateQueries({ queryKey: assignmentQueries.root() }),
+      ]),
   });
 }

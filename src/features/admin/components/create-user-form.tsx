@@ -1,14 +1,15 @@
 import { useRef, useState, type FormEvent } from "react";
-import { createUserBodySchema } from "@shared/schemas/user";
+import { createUserBodySchema, needsSecondAdmin } from "@shared/schemas/user";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
 import { fieldErrorsOf } from "@/lib/api-client";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import { roleIds, roleLabels } from "@/lib/role-labels";
+import { formatDateTime } from "@/lib/format";
 import { useCreateUser } from "../api/user-queries";
 
-const empty = { name: "", email: "", role: "analyst" as Role, password: "" };
+const empty = { name: "", email: "", role: "analyst" as Role };
 
 export function CreateUserForm() {
   const create = useCreateUser();
@@ -31,9 +32,13 @@ export function CreateUserForm() {
     }
     setErrors({});
     create.mutate(r.data, {
-      onSuccess: (user) => {
+      onSuccess: (result) => {
         setValues(empty);
-        setDone(`${user.name} can now sign in as ${roleLabels[user.role]}.`);
+        setDone(
+          result.outcome === "invited"
+            ? `Invitation sent to ${result.user.email}. ${result.user.name} chooses their own password with the link (valid until ${formatDateTime(result.invitation.expiresAt)}).`
+            : `Inviting ${result.request.name} as ${roleLabels[result.request.toRole]} waits for a second administrator's approval (below). Nothing is sent until then.`,
+        );
       },
       onError: (err) => {
         setErrors(fieldErrorsOf(err));
@@ -52,7 +57,10 @@ export function CreateUserForm() {
       aria-labelledby="create-user-title"
       className="flex flex-col gap-3"
     >
-      <h2 id="create-user-title">Add a user</h2>
+      <h2 id="create-user-title">Invite a user</h2>
+      <p className="text-sm text-ink-muted">
+        The person gets a one-time link by e-mail and chooses their own password; nobody else ever knows it.
+      </p>
       <FormMessage>{formError}</FormMessage>
       <FormMessage tone="done">{done}</FormMessage>
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-2">
@@ -80,20 +88,16 @@ export function CreateUserForm() {
             </option>
           ))}
         </SelectField>
-        <TextField
-          label="Initial password"
-          name="password"
-          type="password"
-          autoComplete="new-password"
-          value={values.password}
-          onChange={set("password")}
-          error={errors.password}
-          hint="At least 12 characters, at most 72 bytes. Hand it over outside e-mail."
-        />
       </div>
+      {needsSecondAdmin(null, values.role) && (
+        <p className="text-sm text-ink-soft" data-testid="invite-needs-approval">
+          Granting the {roleLabels[values.role]} role needs a second administrator: the invitation is sent only once
+          another administrator approves it.
+        </p>
+      )}
       <div>
         <Button type="submit" disabled={create.isPending}>
-          {create.isPending ? "Adding…" : "Add user"}
+          {create.isPending ? "Sending…" : "Send invitation"}
         </Button>
       </div>
     </form>

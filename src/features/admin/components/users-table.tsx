@@ -1,5 +1,5 @@
 import { Fragment, useState } from "react";
-import type { User } from "@shared/schemas/user";
+import { needsSecondAdmin, type RoleRequest, type User } from "@shared/schemas/user";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
@@ -8,32 +8,105 @@ import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { cn } from "@/lib/cn";
-import { staleUserMessage, useUpdateUser } from "../api/user-queries";
-import { ResetPasswordForm } from "./reset-password-form";
+import { staleUserMessage, useProposeRole, useSendPasswordLink, useUpdateUser } from "../api/user-queries";
+import { Confirmation } from "./confirmation";
 
-export function UsersTable({ users, currentUserId }: { users: User[]; currentUserId?: number }) {
+type Pending = { userId: number; kind: "role"; role: Role } | { userId: number; kind: "link" };
+
+function errorText(error: unknown): string | undefined {
+  return (
+    staleUserMessage(error) ??
+    (isApiError(error) ? error.message : error ? "The change could not be saved." : undefined)
+  );
+}
+
+/** What a role change will do, said before it is done. */
+function roleConsequence(u: User, role: Role): string {
+  if (needsSecondAdmin(u.role, role))
+    return `Propose making ${u.name} ${roleLabels[role]}? Nothing changes until another administrator approves; until then ${u.name} stays ${roleLabels[u.role]}. Once approved, their open sessions end.`;
+  const tokens = u.role === "treasury" ? " Their API tokens are revoked and do not come back." : "";
+  return `Make ${u.name} ${roleLabels[role]}? Their open sessions end at once.${tokens}`;
+}
+
+export function UsersTable({
+  users,
+  currentUserId,
+  roleRequests = [],
+}: {
+  users: User[];
+  currentUserId?: number;
+  roleRequests?: RoleRequest[];
+}) {
   const update = useUpdateUser();
-  const [resetFor, setResetFor] = useState<number | null>(null);
+  const propose = useProposeRole();
+  const sendLink = useSendPasswordLink();
+  const [pending, setPending] = useState<Pending | null>(null);
   const [notice, setNotice] = useState<string>();
 
   if (users.length === 0) {
     return (
       <EmptyState title="No users yet">
-        Add the first user with the form on this page: give each person the role of their job (analyst, chief risk
+        Invite the first user with the form on this page: give each person the role of their job (analyst, chief risk
         officer, treasury, regulator or administrator).
       </EmptyState>
     );
   }
 
   const sorted = [...users].sort((a, b) => Number(a.disabled) - Number(b.disabled) || a.name.localeCompare(b.name));
-  const error =
-    staleUserMessage(update.error) ??
-    (isApiError(update.error) ? update.error.message : update.error ? "The change could not be saved." : undefined);
+  const error = errorText(update.error) ?? errorText(propose.error) ?? errorText(sendLink.error);
+  const busy = update.isPending || propose.isPending || sendLink.isPending;
+  const waitingFor = new Map(roleRequests.filter((r) => r.userId !== null).map((r) => [r.userId!, r]));
+
+  function resetAll() {
+    setNotice(undefined);
+    update.reset();
+    propose.reset();
+    sendLink.reset();
+  }
 
   function change(user: User, body: { role?: Role; disabled?: boolean }, message: string) {
-    setNotice(undefined);
+    resetAll();
     // The version shown: if someone else changed this user meanwhile, the server refuses with 409 stale.
-    update.mutate({ id: user.id, body: { ...body, version: user.version } }, { onSuccess: () => setNotice(message) });
+    update.mutate(
+      { id: user.id, body: { ...body, version: user.version } },
+      {
+        onSuccess: () => setNotice(message),
+        onSettled: () => setPending(null),
+      },
+    );
+  }
+
+  function confirmRole(u: User, role: Role) {
+    if (!needsSecondAdmin(u.role, role)) {
+      return change(u, { role }, `${u.name} is now ${roleLabels[role]}. Their open sessions have ended.`);
+    }
+    resetAll();
+    propose.mutate(
+      { userId: u.id, role, version: u.version },
+      {
+        onSuccess: () =>
+          setNotice(
+            `Proposed: ${u.name} as ${roleLabels[role]}. Another administrator approves or rejects it under “Role changes waiting for approval”.`,
+          ),
+        onSettled: () => setPending(null),
+      },
+    );
+  }
+
+  function confirmLink(u: User) {
+    resetAll();
+    sendLink.mutate(
+      { id: u.id, body: { version: u.version } },
+      {
+        onSuccess: ({ invitation }) =>
+          setNotice(
+            invitation.purpose === "invite"
+              ? `A new invitation went to ${u.email}; the earlier link no longer works.`
+              : `A link to set a new password went to ${u.email} (valid until ${formatDateTime(invitation.expiresAt)}). Their current password works until they use it.`,
+          ),
+        onSettled: () => setPending(null),
+      },
+    );
   }
 
   return (
@@ -56,6 +129,8 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
         <tbody>
           {sorted.map((u) => {
             const self = u.id === currentUserId;
+            const waiting = waitingFor.get(u.id);
+            const shownRole = pending?.userId === u.id && pending.kind === "role" ? pending.role : u.role;
             return (
               <Fragment key={u.id}>
                 <Tr className={cn(u.disabled && "text-ink-muted")}>
@@ -70,11 +145,12 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
                     </label>
                     <select
                       id={`role-${u.id}`}
-                      value={u.role}
-                      disabled={update.isPending || self}
+                      value={shownRole}
+                      disabled={busy || self || waiting !== undefined}
                       onChange={(e) => {
+                        resetAll();
                         const role = e.target.value as Role;
-                        change(u, { role }, `${u.name} is now ${roleLabels[role]}. Their open sessions have ended.`);
+                        setPending(role === u.role ? null : { userId: u.id, kind: "role", role });
                       }}
                       className="h-7 rounded-sm border border-rule-strong bg-paper-raised px-1.5 text-sm disabled:opacity-70"
                     >
@@ -84,27 +160,42 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
                         </option>
                       ))}
                     </select>
+                    {waiting && (
+                      <span className="ml-2 text-xs text-ink-muted">
+                        → {roleLabels[waiting.toRole]}, awaiting approval
+                      </span>
+                    )}
                   </Td>
-                  <Td>{u.disabled ? "Disabled" : "Active"}</Td>
+                  <Td>{u.disabled ? "Disabled" : u.passwordSet ? "Active" : "Invited"}</Td>
                   <Td numeric className="whitespace-nowrap">
                     {u.lastSignInAt ? formatDateTime(u.lastSignInAt) : "Never"}
                   </Td>
                   <Td className="text-right whitespace-nowrap">
                     <div className="flex justify-end gap-3">
-                      <Button
-                        variant="quiet"
-                        size="sm"
-                        aria-label={`Reset password of ${u.name}`}
-                        onClick={() => setResetFor(resetFor === u.id ? null : u.id)}
-                        aria-expanded={resetFor === u.id}
-                      >
-                        Reset password
-                      </Button>
+                      {!u.disabled && (
+                        <Button
+                          variant="quiet"
+                          size="sm"
+                          disabled={busy}
+                          aria-label={`${u.passwordSet ? "Send a password reset link to" : "Send the invitation again to"} ${u.name}`}
+                          aria-expanded={pending?.userId === u.id && pending.kind === "link"}
+                          onClick={() => {
+                            resetAll();
+                            setPending(
+                              pending?.userId === u.id && pending.kind === "link"
+                                ? null
+                                : { userId: u.id, kind: "link" },
+                            );
+                          }}
+                        >
+                          {u.passwordSet ? "Send reset link" : "Invite again"}
+                        </Button>
+                      )}
                       {!self && (
                         <Button
                           variant="quiet"
                           size="sm"
-                          disabled={update.isPending}
+                          disabled={busy}
                           aria-label={`${u.disabled ? "Enable" : "Disable"} ${u.name}`}
                           onClick={() =>
                             change(
@@ -122,16 +213,32 @@ export function UsersTable({ users, currentUserId }: { users: User[]; currentUse
                     </div>
                   </Td>
                 </Tr>
-                {resetFor === u.id && (
+                {pending?.userId === u.id && (
                   <tr>
                     <td colSpan={6} className="border-b border-rule bg-paper-sunk/50 px-2 py-2">
-                      <ResetPasswordForm
-                        user={u}
-                        onClose={(message) => {
-                          setResetFor(null);
-                          if (message) setNotice(message);
-                        }}
-                      />
+                      {pending.kind === "role" ? (
+                        <Confirmation
+                          label={`Change the role of ${u.name}`}
+                          text={roleConsequence(u, pending.role)}
+                          confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
+                          busy={busy}
+                          onConfirm={() => confirmRole(u, pending.role)}
+                          onCancel={() => setPending(null)}
+                        />
+                      ) : (
+                        <Confirmation
+                          label={`Send a link to ${u.name}`}
+                          text={
+                            u.passwordSet
+                              ? `Send ${u.name} a link to set a new password? It goes to ${u.email}; their current password keeps working until they use it, and any earlier link stops working.`
+                              : `Send ${u.name} a new invitation? It goes to ${u.email}; the earlier link stops working.`
+                          }
+                          confirm="Send link"
+                          busy={busy}
+                          onConfirm={() => confirmLink(u)}
+                          onCancel={() => setPending(null)}
+                        />
+                      )}
                     </td>
                   </tr>
                 )}

@@ -1,0 +1,47 @@
+import type { PendingInvitation } from "@shared/schemas/user";
+import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { formatDateTime } from "@/lib/format";
+import { roleLabels } from "@/lib/role-labels";
+
+/** Links sent and not used yet: who, for what, by whom, and until when (an expired one needs a new link). */
+export function PendingInvitationsTable({ invitations }: { invitations: PendingInvitation[] }) {
+  if (invitations.length === 0) {
+    return <p className="text-sm text-ink-muted">No links are waiting: everyone invited has set their password.</p>;
+  }
+  return (
+    <Table caption="Links not used yet">
+      <thead>
+        <tr>
+          <Th>Name</Th>
+          <Th>E-mail</Th>
+          <Th>Role</Th>
+          <Th>Link</Th>
+          <Th>Sent by</Th>
+          <Th numeric>Sent</Th>
+          <Th numeric>Works until</Th>
+        </tr>
+      </thead>
+      <tbody>
+        {invitations.map((i) => (
+          <Tr key={i.id}>
+            <Td className="font-medium">{i.name}</Td>
+            <Td>{i.email}</Td>
+            <Td>{roleLabels[i.role]}</Td>
+            <Td>{i.purpose === "invite" ? "Invitation" : "Password reset"}</Td>
+            <Td>{i.createdBy ?? "—"}</Td>
+            <Td numeric className="whitespace-nowrap">
+              {formatDateTime(i.createdAt)}
+            </Td>
+            <Td numeric className="whitespace-nowrap">
+              {i.expired ? (
+                <span className="text-danger">Expired {formatDateTime(i.expiresAt)}: send a new one</span>
+              ) : (
+                formatDateTime(i.expiresAt)
+              )}
+            </Td>
+          </Tr>
+        ))}
+      </tbody>
+    </Table>
+  );
+}

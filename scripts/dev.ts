@@ -24,7 +24,12 @@ async function main() {
 
   const bin = (name: string) => path.join(projectRoot, "node_modules", ".bin", name);
   const children: ChildProcess[] = [
-    spawn(bin("tsx"), ["watch", "--clear-screen=false", "server/index.ts"], { cwd: projectRoot, stdio: "inherit" }),
+    // Set-password links in e-mails open the page people use in development: Vite's.
+    spawn(bin("tsx"), ["watch", "--clear-screen=false", "server/index.ts"], {
+      cwd: projectRoot,
+      stdio: "inherit",
+      env: { ...process.env, PUBLIC_URL: process.env.PUBLIC_URL ?? "http://127.0.0.1:5173" },
+    }),
     spawn(bin("vite"), [], { cwd: projectRoot, stdio: "inherit" }),
   ];
   console.log(`\nAPI on http://127.0.0.1:${config.port} · client with hot reload on http://127.0.0.1:5173\n`);

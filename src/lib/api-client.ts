@@ -56,6 +56,66 @@ export function apiErrorFrom(status: number, statusText: string, json: unknown):
   return new ApiError(status, "http_error", `The server answered ${status} ${statusText || ""}`.trim() + ".");
 }
 
+/**
+ * The row as it now stands, from a 409 `stale` refusal (`details.current`), read with its schema:
+ * the one decoder of optimistic-locking refusals. Undefined for any other error.
+ */
+export function staleCurrent<S extends z.ZodType>(error: unknown, schema: S): z.output<S> | undefined {
+  if (!isApiError(error) || error.status !== 409 || error.code !== "stale") return undefined;
+  const parsed = schema.safeParse((error.details as { current?: unknown } | null | undefined)?.current);
+  return parsed.success ? parsed.data : undefined;
+}
+
+/** The refusal when no answer came back at all. */
+export function unreachable(): ApiError {
+  return new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again.");
+}
+
+/** A body's JSON, or undefined when it is empty or not JSON. */
+export function jsonOf(text: string): unknown {
+  if (text.length === 0) return undefined;
+  try {
+    return JSON.parse(text);
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * What an answer means, for every way of calling the API (fetch or XMLHttpRequest): a refusal
+ * throws the server's ApiError; a success is read with its schema (`what` names the call when the
+ * shape is wrong).
+ */
+export function answerOf<S extends z.ZodType | undefined>(
+  answer: { status: number; statusText: string; text: string },
+  schema: S,
+  what: string,
+): S extends z.ZodType ? z.output<S> : void {
+  const json = jsonOf(answer.text);
+  if (answer.status < 200 || answer.status >= 300) throw apiErrorFrom(answer.status, answer.statusText, json);
+  if (!schema) return undefined as never;
+  const parsed = schema.safeParse(json);
+  if (!parsed.success) {
+    // The server and this client disagree on a payload: say so rather than show wrong figures.
+    throw new ApiError(
+      answer.status,
+      "unexpected_response",
+      `The server's answer to ${what} did not have the expected shape.`,
+      parsed.error.issues,
+    );
+  }
+  return parsed.data as never;
+}
+
+/** fetch() on our own origin with the session cookie; a failure to connect becomes `unreachable()`. */
+export async function fetchApi(path: string, init: RequestInit = {}): Promise<Response> {
+  try {
+    return await fetch(path, { ...init, credentials: "same-origin" });
+  } catch {
+    throw unreachable();
+  }
+}
+
 type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
 async function request<S extends z.ZodType | undefined>(
@@ -65,43 +125,17 @@ async function request<S extends z.ZodType | undefined>(
   schema: S,
 ): Promise<S extends z.ZodType ? z.output<S> : void> {
   const headers: Record<string, string> = { Accept: "application/json" };
-  const init: RequestInit = { method, headers, credentials: "same-origin" };
+  const init: RequestInit = { method, headers };
   if (body !== undefined) {
     headers["Content-Type"] = "application/json";
     init.body = JSON.stringify(body);
   }
-
-  let res: Response;
-  try {
-    res = await fetch(path, init);
-  } catch {
-    throw new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again.");
-  }
-
-  const text = await res.text();
-  let json: unknown = undefined;
-  if (text.length > 0) {
-    try {
-      json = JSON.parse(text);
-    } catch {
-      json = undefined;
-    }
-  }
-
-  if (!res.ok) throw apiErrorFrom(res.status, res.statusText, json);
-
-  if (!schema) return undefined as never;
-  const parsed = schema.safeParse(json);
-  if (!parsed.success) {
-    // The server and this client disagree on a payload: say so rather than show wrong figures.
-    throw new ApiError(
-      res.status,
-      "unexpected_response",
-      `The server's answer to ${method} ${path} did not have the expected shape.`,
-      parsed.error.issues,
-    );
-  }
-  return parsed.data as never;
+  const res = await fetchApi(path, init);
+  return answerOf(
+    { status: res.status, statusText: res.statusText, text: await res.text() },
+    schema,
+    `${method} ${path}`,
+  );
 }
 
 export const api = {

@@ -1,5 +1,5 @@
 import { useCallback, useRef, useState } from "react";
-import { apiErrorFrom } from "@/lib/api-client";
+import { apiErrorFrom, fetchApi, isApiError, jsonOf } from "@/lib/api-client";
 
 /**
  * The file name a server gave in its Content-Disposition header: the RFC 5987 `filename*=UTF-8''…`
@@ -62,23 +62,14 @@ export function useDownload(href: string, fallbackName: string) {
     try {
       let res: Response;
       try {
-        res = await fetch(href, {
-          credentials: "same-origin",
-          headers: { Accept: "application/pdf, application/json;q=0.9" },
-        });
-      } catch {
-        setError("The server could not be reached. Check your connection and try again.");
+        res = await fetchApi(href, { headers: { Accept: "application/pdf, application/json;q=0.9" } });
+      } catch (e) {
+        setError(isApiError(e) ? e.message : String(e));
         return;
       }
       if (!res.ok) {
         const text = await res.text().catch(() => "");
-        let json: unknown = undefined;
-        try {
-          json = text ? JSON.parse(text) : undefined;
-        } catch {
-          json = undefined;
-        }
-        setError(apiErrorFrom(res.status, res.statusText, json).message);
+        setError(apiErrorFrom(res.status, res.statusText, jsonOf(text)).message);
         return;
       }
       const blob = await res.blob();

@@ -2,6 +2,7 @@ import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurEU, larkspurUS } from "./support/entities";
 
 const regulator = {
   id: 5,
@@ -16,30 +17,8 @@ const regulator = {
 };
 const analyst = { ...regulator, id: 6, email: "analyst@larkspur.test", name: "Ana Lyst", role: "analyst" };
 const entities = [
-  {
-    code: "LKS-EU",
-    name: "Larkspur Markets SA",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    passwordSet: true,
-    version: 1,
-  },
-  {
-    code: "LKS-US",
-    name: "Larkspur Securities LLC",
-    regime: "us",
-    pnlBasis: "actual",
-    currency: "USD",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    passwordSet: true,
-    version: 1,
-  },
+  { ...larkspurEU, passwordSet: true },
+  { ...larkspurUS, passwordSet: true },
 ];
 
 describe("Admin › Regulator access", () => {

@@ -138,7 +138,7 @@ describe("Admin › Entities", () => {
               status: 409,
               body: {
                 error: {
-                  code: "conflict",
+                  code: "stale",
                   message: "Someone else changed LKS-UK since you opened it (now version 4).",
                 },
               },

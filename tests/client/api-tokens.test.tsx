@@ -2,6 +2,7 @@ import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs, type Call } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurEU } from "./support/entities";
 
 const SECRET = `qmk_${"Lk7".repeat(14)}x`;
 
@@ -25,19 +26,7 @@ const revoked = {
   revokedAt: "2026-08-14T10:12:00.000Z",
   status: "revoked",
 };
-const entities = [
-  {
-    code: "LKS-EU",
-    name: "Larkspur Markets SA",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurEU];
 
 function created(body: { name: string; expiresInDays?: number }) {
   return {

@@ -6,6 +6,7 @@ import type { BacktestOptions, Observation } from "@shared/backtest/types";
 import type { Review } from "@shared/schemas/review";
 import { fakeApi, signedInAs, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurUS } from "./support/entities";
 
 // The fixture is the engine's own answer for a small invented series (docs/rules.md#exception; the engine's
 // figures are checked against BCBS 1996 Table 2 in tests/shared); the screen must show it unchanged.
@@ -52,19 +53,7 @@ function backtestBody(reviews: Record<string, Review> = {}) {
   };
 }
 
-const entities = [
-  {
-    code: "LKS-US",
-    name: "Larkspur Securities LLC",
-    regime: "us",
-    pnlBasis: "actual",
-    currency: "USD",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurUS];
 
 function routes(
   role: "analyst" | "cro",
@@ -188,7 +177,7 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
             ? {
                 status: 409,
                 body: {
-                  error: { code: "stale_version", message: "Someone else saved first", details: { current: theirs } },
+                  error: { code: "stale", message: "Someone else saved first", details: { current: theirs } },
                 },
               }
             : { status: 200, body: { ...theirs, ...(body as object), version: 5 } };

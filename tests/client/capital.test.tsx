@@ -12,36 +12,14 @@ import { binomialPmf } from "@shared/backtest/binomial";
 import { everyFigure } from "@/lib/query-scope";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurEU, larkspurUK } from "./support/entities";
 
 // Display fixtures: the screen must show what the server computed, unchanged. Zones, plus factors and
 // multipliers follow BCBS 1996 Table 2 (EU CRR Art. 366 uses the same addends): 4 exceptions green 0.00,
 // 5 yellow 0.40, 6 yellow 0.50, 8 yellow 0.75 on a base multiplier of 3. Each fixture is parsed with
 // the shared schema, so a change of contract fails here first.
 
-const entities = [
-  {
-    code: "LKS-EU",
-    name: "Larkspur Markets SA",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-  {
-    code: "LKS-UK",
-    name: "Larkspur Bank plc",
-    regime: "frtb",
-    pnlBasis: "max",
-    currency: "GBP",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurEU, { ...larkspurUK, pnlBasis: "max" }];
 
 function quarter(
   over: Partial<CapitalHistoryItem> & Pick<CapitalHistoryItem, "quarterEnd" | "snapshotId">,

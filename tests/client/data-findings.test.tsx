@@ -2,31 +2,9 @@ import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs, type Call } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurEU, larkspurUS } from "./support/entities";
 
-const entities = [
-  {
-    code: "LKS-EU",
-    name: "Larkspur Markets SA",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-  {
-    code: "LKS-US",
-    name: "Larkspur Securities LLC",
-    regime: "us",
-    pnlBasis: "actual",
-    currency: "USD",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurEU, larkspurUS];
 
 function finding(id: number, over: Record<string, unknown> = {}) {
   return {
@@ -114,7 +92,7 @@ describe("Data › data-quality findings", () => {
           status: 409,
           body: {
             error: {
-              code: "conflict",
+              code: "stale",
               message: "Finding #1 was changed by someone else (now version 4); reload and try again.",
             },
           },

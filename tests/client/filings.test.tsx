@@ -5,34 +5,12 @@ import { vi } from "vitest";
 import { filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurEU, larkspurUK } from "./support/entities";
 
 // Display fixtures: the screen must show what the server sent, unchanged. The SHA-256 of a held
 // file is computed by the browser's Web Crypto and checked here against Node's own hash of the same bytes.
 
-const entities = [
-  {
-    code: "LKS-EU",
-    name: "Larkspur Markets SA",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-  {
-    code: "LKS-UK",
-    name: "Larkspur Bank plc",
-    regime: "frtb",
-    pnlBasis: "hypothetical",
-    currency: "GBP",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurEU, larkspurUK];
 
 /** The bytes of the pack as the bank sent it (a stand-in: only its hash matters to the check). */
 const SENT_PACK = "%PDF-1.7\nLarkspur Markets SA, Q3 2026 backtesting pack\n%%EOF\n";

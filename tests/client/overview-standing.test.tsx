@@ -1,20 +1,9 @@
 import { screen, within } from "@testing-library/react";
 import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurUS } from "./support/entities";
 
-const entities = [
-  {
-    code: "LKS-US",
-    name: "Larkspur Securities LLC",
-    regime: "us",
-    pnlBasis: "actual",
-    currency: "USD",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurUS];
 
 // Figures as the server's engine would return them; the screen only formats them.
 const item = {

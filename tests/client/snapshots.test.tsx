@@ -6,34 +6,12 @@ import { filingSchema, type Filing } from "@shared/schemas/filing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
+import { larkspurEU, larkspurUK } from "./support/entities";
 
 // The figures below are display fixtures: the screen must show what the server froze, unchanged.
 // They follow BCBS 1996 Table 2 for six exceptions (yellow zone, plus factor 0.50, P(X ≤ 6) 98.63%).
 
-const entities = [
-  {
-    code: "LKS-EU",
-    name: "Larkspur Markets SA",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-  {
-    code: "LKS-UK",
-    name: "Larkspur Bank plc",
-    regime: "frtb",
-    pnlBasis: "hypothetical",
-    currency: "GBP",
-    qualitativeAddend: 0,
-    supervisorName: null,
-    supervisorEmails: [],
-    version: 1,
-  },
-];
+const entities = [larkspurEU, larkspurUK];
 
 /** The traffic-light zone classes: kept for zones, never on a notice that is not one. */
 const ZONE_CLASS = /\b(bg|text|border)-zone-/;

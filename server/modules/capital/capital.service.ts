@@ -1,5 +1,4 @@
 import { AppError, NotFoundError } from "../../errors";
-import { EntityModel } from "../../models/entity";
 import { forecastAt } from "../../../shared/backtest/forecast";
 import { whatIfFromCount } from "../../../shared/backtest/what-if";
 import { capitalInputsAt } from "../../../shared/backtest/capital";
@@ -23,6 +22,7 @@ import { SnapshotModel } from "../../models/snapshot";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
 import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
+import { entityByCode } from "../../kit/lookups";
 import type { whatIfBodySchema } from "../../../shared/schemas/capital";
 import type { DatedSettings } from "../../../shared/backtest/determination";
 
@@ -35,8 +35,7 @@ const readsApprovedOnly = (viewer: SessionUser) => viewer.role === "treasury";
  * determination (its count, its settings, the data up to its as-of date).
  */
 async function startingPoint(code: string, viewer: SessionUser) {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const entity = await entityByCode(code);
   const inputs = await loadEntityEngineInputs(entity);
   const { portfolio } = inputs;
   if (!portfolio)
@@ -252,8 +251,7 @@ export async function getWhatIf(
 
 /** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
 export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const entity = await entityByCode(code);
   const rows = await SnapshotModel.findAll({
     where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
     order: [["quarterEnd", "ASC"]],

@@ -20,6 +20,8 @@ import type {
   Portfolio,
   UpdateEntityBody,
 } from "../../../shared/schemas/entity";
+import { checkVersion } from "../../kit/stale";
+import { entityByCode } from "../../kit/lookups";
 import { refreshDeterminations } from "../determinations/determinations.store";
 
 export function toEntity(row: EntityModel): Entity {
@@ -41,8 +43,7 @@ const toHoliday = (row: HolidayModel): Holiday => ({ date: row.date, name: row.n
 
 /** The entity by code, or 404. Regulators only find the entities assigned to them. */
 export async function findEntity(code: string, viewer?: SessionUser): Promise<EntityModel> {
-  const row = await EntityModel.findOne({ where: { code } });
-  if (!row) throw new NotFoundError(`No entity with code ${code}.`);
+  const row = await entityByCode(code);
   if (viewer?.role === "regulator") {
     const assigned = await RegulatorAssignmentModel.findOne({ where: { userId: viewer.id, entityId: row.id } });
     if (!assigned) throw new NotFoundError(`No entity with code ${code}.`);
@@ -97,16 +98,11 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
 
 export async function updateEntity(code: string, change: UpdateEntityBody, actor: SignedIn): Promise<Entity> {
   return sequelize.transaction(async (transaction) => {
-    const row = await EntityModel.findOne({ where: { code }, transaction, lock: transaction.LOCK.UPDATE });
-    if (!row) throw new NotFoundError(`No entity with code ${code}.`);
-    if (row.version !== change.version) {
-      throw new ConflictError(
-        `Someone else changed ${code} since you opened it (now version ${row.version}). Reload and apply your change again.`,
-        {
-          current: toEntity(row),
-        },
-      );
-    }
+    const row = await entityByCode(code, { transaction, lock: true });
+    await checkVersion(row.version, change.version, () => ({
+      message: `Someone else changed ${code} since you opened it (now version ${row.version}). Reload and apply your change again.`,
+      current: toEntity(row),
+    }));
     const before = toEntity(row);
     const governed =
       (change.pnlBasis !== undefined && change.pnlBasis !== row.pnlBasis) ||

@@ -21,6 +21,7 @@ import { quarterLabel } from "../../../shared/backtest/quarters";
 import { CAUTION } from "../../../shared/schemas/common";
 import type { Filing, FilingVerify } from "../../../shared/schemas/filing";
 import type { SignedIn } from "../../kit/actor";
+import { emailsById } from "../../kit/lookups";
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
 
@@ -39,12 +40,7 @@ async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
       (e) => [e.id, e],
     ),
   );
-  const userIds = [
-    ...new Set(rows.flatMap((r) => [r.sentBy, r.acknowledgedBy]).filter((v): v is number => v !== null)),
-  ];
-  const emails = new Map(
-    (await UserModel.findAll({ where: { id: userIds }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
-  );
+  const emails = await emailsById(rows.flatMap((r) => [r.sentBy, r.acknowledgedBy]));
   const deliveries = new Map<number, FilingDeliveryModel[]>();
   for (const d of await FilingDeliveryModel.findAll({
     where: { filingId: rows.map((r) => r.id) },

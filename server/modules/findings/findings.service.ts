@@ -4,14 +4,15 @@ import { DataFindingModel } from "../../models/data-finding";
 import { PortfolioModel } from "../../models/portfolio";
 import { EntityModel } from "../../models/entity";
 import { HolidayModel } from "../../models/holiday";
-import { UserModel } from "../../models/user";
-import { ConflictError, NotFoundError } from "../../errors";
+import { NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { loadQualitySeries } from "../observations/observations.repository";
 import { type QualityDay } from "../../../shared/ingest/row-plan";
 import { findDataQualityIssues, type QualityFinding } from "../../../shared/ingest/data-quality";
 import type { SignedIn } from "../../kit/actor";
 import type { CloseFindingBody, Finding } from "../../../shared/schemas/finding";
+import { checkVersion } from "../../kit/stale";
+import { emailsById } from "../../kit/lookups";
 
 /** What a commit already holds in memory: each portfolio's current days inside the span it wrote. */
 export interface KnownSpan {
@@ -152,8 +153,7 @@ export async function refreshFindings(
 }
 
 async function toFindings(rows: DataFindingModel[]): Promise<Finding[]> {
-  const userIds = [...new Set(rows.map((r) => r.closedBy).filter((v): v is number => v !== null))];
-  const users = new Map((await UserModel.findAll({ where: { id: userIds } })).map((u) => [u.id, u.email]));
+  const users = await emailsById(rows.map((r) => r.closedBy));
   return rows.map((r) => {
     const portfolio = (r as unknown as { portfolio: PortfolioModel & { entity: EntityModel } }).portfolio;
     return {
@@ -200,19 +200,24 @@ export async function listFindings(query: {
   return toFindings(rows);
 }
 
+/** One finding as the API gives it, read inside the caller's transaction. */
+async function findingDto(id: number, transaction: Transaction): Promise<Finding> {
+  const row = await DataFindingModel.findByPk(id, {
+    include: [{ model: PortfolioModel, as: "portfolio", include: [{ model: EntityModel, as: "entity" }] }],
+    transaction,
+  });
+  return (await toFindings([row!]))[0];
+}
+
 /** An analyst resolves or explains a finding; the row version stops two people overwriting each other. */
 export async function closeFinding(id: number, body: CloseFindingBody, actor: SignedIn): Promise<Finding> {
   return sequelize.transaction(async (transaction) => {
     const row = await DataFindingModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!row) throw new NotFoundError(`No finding #${id}.`);
-    if (row.version !== body.version) {
-      throw new ConflictError(
-        `Finding #${id} was changed by someone else (now version ${row.version}); reload and try again.`,
-        {
-          currentVersion: row.version,
-        },
-      );
-    }
+    await checkVersion(row.version, body.version, async () => ({
+      message: `Finding #${id} was changed by someone else (now version ${row.version}); reload and try again.`,
+      current: await findingDto(id, transaction),
+    }));
     const before = { status: row.status, note: row.note };
     await row.update(
       { status: body.status, note: body.note, closedBy: actor.user.id, closedAt: new Date(), version: row.version + 1 },
@@ -225,11 +230,7 @@ export async function closeFinding(id: number, body: CloseFindingBody, actor: Si
       { before, after: { status: body.status, note: body.note } },
       transaction,
     );
-    const reloaded = await DataFindingModel.findByPk(id, {
-      include: [{ model: PortfolioModel, as: "portfolio", include: [{ model: EntityModel, as: "entity" }] }],
-      transaction,
-    });
-    return (await toFindings([reloaded!]))[0];
+    return findingDto(id, transaction);
   });
 }
 

@@ -1,8 +1,8 @@
 import { Op } from "sequelize";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
-import { UserModel } from "../../models/user";
 import type { Review } from "../../../shared/schemas/review";
+import { emailsById } from "../../kit/lookups";
 
 /** Reviews of a portfolio's exception days (with their evidence), keyed by date. */
 export async function reviewsByDate(portfolioId: number, dates?: string[]): Promise<Map<string, Review>> {
@@ -19,9 +19,7 @@ export async function reviewsByDate(portfolioId: number, dates?: string[]): Prom
     if (r.decidedBy) userIds.add(r.decidedBy);
   }
   for (const e of evidence) userIds.add(e.uploadedBy);
-  const emails = new Map(
-    (await UserModel.findAll({ where: { id: [...userIds] }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
-  );
+  const emails = await emailsById(userIds);
   const out = new Map<string, Review>();
   for (const r of rows) {
     out.set(r.businessDate, {

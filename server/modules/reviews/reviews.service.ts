@@ -17,6 +17,7 @@ import { classifyDay } from "../../../shared/backtest/exceptions";
 import { getRegime } from "../../../shared/backtest/regimes";
 import type { SignedIn } from "../../kit/actor";
 import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/review";
+import { checkVersion } from "../../kit/stale";
 import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
@@ -84,15 +85,12 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
       transaction,
       lock: transaction.LOCK.UPDATE,
     });
-    const seen = body.version ?? 0;
-    if ((row?.version ?? 0) !== seen) {
-      throw new ConflictError(
-        row
-          ? `Someone else changed this review (now version ${row.version}). Here is the current one; apply your change to it.`
-          : "This review no longer exists.",
-        { current: await currentReview(portfolio.id, date) },
-      );
-    }
+    await checkVersion(row?.version ?? 0, body.version ?? 0, async () => ({
+      message: row
+        ? `Someone else changed this review (now version ${row.version}). Here is the current one; apply your change to it.`
+        : "This review no longer exists.",
+      current: await currentReview(portfolio.id, date),
+    }));
     const before = row ? { cause: row.cause, narrative: row.narrative, exclusionStatus: row.exclusionStatus } : null;
     let exclusionStatus: ExclusionStatus = row?.exclusionStatus ?? "none";
     if (body.exclusion && (exclusionStatus === "none" || exclusionStatus === "rejected")) exclusionStatus = "requested";
@@ -151,11 +149,10 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       lock: transaction.LOCK.UPDATE,
     });
     if (!row) throw new NotFoundError(`No review of ${code} on ${date}; an analyst explains the exception first.`);
-    if (row.version !== body.version) {
-      throw new ConflictError(`The review changed since you opened it (now version ${row.version}).`, {
-        current: await currentReview(portfolio.id, date),
-      });
-    }
+    await checkVersion(row.version, body.version, async () => ({
+      message: `The review changed since you opened it (now version ${row.version}).`,
+      current: await currentReview(portfolio.id, date),
+    }));
     if (row.exclusionStatus === "none") throw new ConflictError("No exclusion was requested for this exception.");
     const before = { exclusionStatus: row.exclusionStatus, decisionReference: row.decisionReference };
     await row.update(

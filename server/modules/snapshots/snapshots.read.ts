@@ -3,23 +3,15 @@ import { NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
-import { UserModel } from "../../models/user";
 import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pack";
 import { countOpenFindings } from "../findings/findings.service";
 import { SIGNED_OFF, type Snapshot, type SnapshotEvent, type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import { quarterStart } from "../../../shared/backtest/quarters";
 import type { SignedIn } from "../../kit/actor";
+import { emailsById, entityByCode } from "../../kit/lookups";
 
 /** Treasury reads signed-off figures only (docs/architecture.md#roles). */
 export const readsSignedOffOnly = (actor: SignedIn) => actor.user.role === "treasury";
-
-async function emailsOf(ids: (number | null)[]): Promise<Map<number, string>> {
-  const wanted = [...new Set(ids.filter((v): v is number => v !== null))];
-  if (wanted.length === 0) return new Map();
-  return new Map(
-    (await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
-  );
-}
 
 export async function openFindingsInQuarter(
   entityId: number,
@@ -37,7 +29,7 @@ export async function openFindingsInQuarter(
 export async function snapshotDto(row: SnapshotModel, entity?: EntityModel): Promise<Snapshot> {
   const owner = entity ?? (await EntityModel.findByPk(row.entityId))!;
   const history = JSON.parse(row.historyJson) as SnapshotEvent[];
-  const emails = await emailsOf([row.preparedBy, row.submittedBy, row.approvedBy]);
+  const emails = await emailsById([row.preparedBy, row.submittedBy, row.approvedBy]);
   const figures = JSON.parse(row.figuresJson) as SnapshotFigures;
   return {
     id: row.id,
@@ -74,9 +66,7 @@ export async function snapshotDto(row: SnapshotModel, entity?: EntityModel): Pro
 export async function listSnapshots(query: { entity?: string }, actor: SignedIn): Promise<Snapshot[]> {
   const where: Record<string, unknown> = {};
   if (query.entity) {
-    const entity = await EntityModel.findOne({ where: { code: query.entity } });
-    if (!entity) throw new NotFoundError(`No entity ${query.entity}.`);
-    where.entityId = entity.id;
+    where.entityId = (await entityByCode(query.entity)).id;
   }
   if (readsSignedOffOnly(actor)) where.status = [...SIGNED_OFF];
   const rows = await SnapshotModel.findAll({

@@ -18,6 +18,8 @@ import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { appendLink } from "../snapshot-chain/snapshot-chain";
 import type { SignedIn } from "../../kit/actor";
+import { checkVersion } from "../../kit/stale";
+import { entityByCode } from "../../kit/lookups";
 import { refreshDeterminations } from "../determinations/determinations.store";
 import { DeterminationModel } from "../../models/determination";
 
@@ -47,16 +49,10 @@ async function lockSnapshot(
   if (options.holdData) await holdEntityData(peek.entityId, transaction);
   const row = await SnapshotModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!row) throw new NotFoundError(`No snapshot #${id}.`);
-  if (expectedVersion !== undefined && expectedVersion !== row.version) {
-    throw new AppError(
-      409,
-      "stale",
-      `Snapshot #${id} changed since you opened it (now version ${row.version}). Look at it again before acting.`,
-      {
-        current: await snapshotDto(row),
-      },
-    );
-  }
+  await checkVersion(row.version, expectedVersion, async () => ({
+    message: `Snapshot #${id} changed since you opened it (now version ${row.version}). Look at it again before acting.`,
+    current: await snapshotDto(row),
+  }));
   // A locking read: the entity as it is now, not as this transaction's first read saw it.
   const entity = (await EntityModel.findByPk(row.entityId, { transaction, lock: transaction.LOCK.SHARE }))!;
   return { row, entity };
@@ -101,8 +97,7 @@ export async function prepareSnapshot(
       `${quarterLabel(body.quarterEnd)} has not ended yet: its snapshot can be prepared from ${body.quarterEnd} on, once the last day's data is in.`,
     );
   }
-  const entity = await EntityModel.findOne({ where: { code: body.entity } });
-  if (!entity) throw new NotFoundError(`No entity ${body.entity}.`);
+  const entity = await entityByCode(body.entity);
   return sequelize.transaction(async (transaction) => {
     await holdEntityData(entity.id, transaction);
     const existing = await SnapshotModel.findOne({

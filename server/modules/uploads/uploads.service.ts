@@ -1,6 +1,5 @@
 import { sequelize } from "../../db/sequelize";
 import { UploadModel } from "../../models/upload";
-import { UserModel } from "../../models/user";
 import { NotFoundError, ConflictError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { loadCurrentDays } from "../observations/observations.repository";
@@ -18,6 +17,7 @@ import {
 import { classify, dateRange } from "../../../shared/ingest/row-plan";
 import type { RowError, UploadPreview, UploadSummary } from "../../../shared/schemas/upload";
 import type { SignedIn } from "../../kit/actor";
+import { emailsById } from "../../kit/lookups";
 
 // An upload's story before and after its commit (upload-commit.ts): the preview of a checked file,
 // the history, one upload, and discarding a preview.
@@ -37,12 +37,7 @@ export interface IncomingFile {
 
 /** The e-mail of each uploader and committer of these uploads, read once. */
 async function peopleOf(rows: readonly UploadModel[]): Promise<Map<number, string>> {
-  const ids = [
-    ...new Set(rows.flatMap((r) => (r.committedBy === null ? [r.uploadedBy] : [r.uploadedBy, r.committedBy]))),
-  ];
-  return new Map(
-    (await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
-  );
+  return emailsById(rows.flatMap((r) => [r.uploadedBy, r.committedBy]));
 }
 
 async function toPreview(row: UploadModel, people?: ReadonlyMap<number, string>): Promise<UploadPreview> {

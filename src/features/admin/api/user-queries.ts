@@ -13,7 +13,7 @@ import {
   type UpdateUserBody,
   type User,
 } from "@shared/schemas/user";
-import { api, isApiError } from "@/lib/api-client";
+import { api, staleCurrent } from "@/lib/api-client";
 import { assignmentQueries } from "./assignment-queries";
 
 export const userQueries = {
@@ -39,9 +39,7 @@ export const userQueries = {
 
 /** The user as it now stands, from a 409 `stale` refusal (`details.current`): someone else changed them first. */
 export function currentUserOfStale(error: unknown): User | undefined {
-  if (!isApiError(error) || error.status !== 409 || error.code !== "stale") return undefined;
-  const parsed = userSchema.safeParse((error.details as { current?: unknown } | null | undefined)?.current);
-  return parsed.success ? parsed.data : undefined;
+  return staleCurrent(error, userSchema);
 }
 
 /** What a stale refusal tells the admin, in plain words; undefined for any other error. */

@@ -1,17 +1,13 @@
 import { useMutation, useQueryClient, type QueryKey } from "@tanstack/react-query";
-import { apiErrorSchema } from "@shared/schemas/common";
 import { reviewSchema, type DecisionBody, type Review, type ReviewBody } from "@shared/schemas/review";
-import { api, ApiError } from "@/lib/api-client";
+import { answerOf, api, ApiError, fetchApi, staleCurrent } from "@/lib/api-client";
 
 const exceptionBase = (code: string, date: string) =>
   `/api/portfolios/${encodeURIComponent(code)}/exceptions/${encodeURIComponent(date)}`;
 
 /** A 409 answer carries the review as it now stands; read it so the user can see it and re-apply. */
 export function currentReviewOf(error: unknown): Review | null {
-  if (!(error instanceof ApiError) || error.status !== 409) return null;
-  const current = (error.details as { current?: unknown } | null | undefined)?.current;
-  const parsed = reviewSchema.safeParse(current);
-  return parsed.success ? parsed.data : null;
+  return staleCurrent(error, reviewSchema) ?? null;
 }
 
 /**
@@ -48,44 +44,20 @@ export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
 export const EVIDENCE_ACCEPT =
   ".pdf,.png,.jpg,.jpeg,.txt,.csv,.eml,application/pdf,image/png,image/jpeg,text/plain,text/csv,message/rfc822";
 
-/** POST the file as multipart form field "file"; the API client speaks JSON only, so this one call uses fetch directly. */
+/** POST the file as multipart form field "file", through the same request core as the JSON calls. */
 async function sendEvidence(code: string, date: string, file: File): Promise<Review> {
   if (file.size > EVIDENCE_MAX_BYTES) {
     throw new ApiError(413, "too_large", `${file.name} is larger than the 10 MB an evidence file may be.`);
   }
   const form = new FormData();
   form.append("file", file, file.name);
-  let res: Response;
-  try {
-    res = await fetch(`${exceptionBase(code, date)}/evidence`, {
-      method: "POST",
-      body: form,
-      headers: { Accept: "application/json" },
-      credentials: "same-origin",
-    });
-  } catch {
-    throw new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again.");
-  }
-  const text = await res.text();
-  let json: unknown;
-  try {
-    json = text ? JSON.parse(text) : undefined;
-  } catch {
-    json = undefined;
-  }
-  if (!res.ok) {
-    const e = apiErrorSchema.safeParse(json);
-    if (e.success) throw new ApiError(res.status, e.data.error.code, e.data.error.message, e.data.error.details);
-    throw new ApiError(res.status, "http_error", `The server answered ${res.status}.`);
-  }
-  const parsed = reviewSchema.safeParse(json);
-  if (!parsed.success)
-    throw new ApiError(
-      res.status,
-      "unexpected_response",
-      "The server's answer to the evidence upload did not have the expected shape.",
-    );
-  return parsed.data;
+  const res = await fetchApi(`${exceptionBase(code, date)}/evidence`, {
+    method: "POST",
+    body: form,
+    headers: { Accept: "application/json" },
+  });
+  const answer = { status: res.status, statusText: res.statusText, text: await res.text() };
+  return answerOf(answer, reviewSchema, "the evidence upload");
 }
 
 export function useAddEvidence(code: string, date: string, alsoInvalidate: readonly QueryKey[] = []) {

@@ -1,23 +1,13 @@
 import { useState } from "react";
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { UPLOAD_MAX_BYTES, UPLOAD_MAX_LABEL, uploadPreviewSchema, type UploadPreview } from "@shared/schemas/upload";
-import { ApiError, apiErrorFrom } from "@/lib/api-client";
+import { ApiError, answerOf, unreachable } from "@/lib/api-client";
 import { uploadQueries } from "./upload-queries";
 
 export type UploadProgress =
   | { phase: "sending"; loaded: number; total: number }
   /** Every byte is sent; the server parses and checks the rows before it answers. */
   | { phase: "checking" };
-
-function errorOf(status: number, statusText: string, text: string): ApiError {
-  let json: unknown;
-  try {
-    json = text ? JSON.parse(text) : undefined;
-  } catch {
-    json = undefined;
-  }
-  return apiErrorFrom(status, statusText, json);
-}
 
 /**
  * POST /api/uploads with the file in the form field "file". XMLHttpRequest rather than fetch,
@@ -34,30 +24,17 @@ export function sendUpload(file: File, onProgress: (p: UploadProgress) => void =
       else onProgress({ phase: "sending", loaded: e.loaded, total });
     };
     xhr.upload.onload = () => onProgress({ phase: "checking" });
-    xhr.onerror = () =>
-      reject(new ApiError(0, "network_error", "The server could not be reached. Check your connection and try again."));
+    xhr.onerror = () => reject(unreachable());
     xhr.onabort = () => reject(new ApiError(0, "aborted", "The upload was stopped before the server answered."));
     xhr.onload = () => {
       const text = typeof xhr.responseText === "string" ? xhr.responseText : "";
-      if (xhr.status < 200 || xhr.status >= 300) return reject(errorOf(xhr.status, xhr.statusText, text));
-      let json: unknown;
       try {
-        json = JSON.parse(text);
-      } catch {
-        json = undefined;
-      }
-      const parsed = uploadPreviewSchema.safeParse(json);
-      if (!parsed.success) {
-        return reject(
-          new ApiError(
-            xhr.status,
-            "unexpected_response",
-            "The server's answer to POST /api/uploads did not have the expected shape.",
-            parsed.error.issues,
-          ),
+        resolve(
+          answerOf({ status: xhr.status, statusText: xhr.statusText, text }, uploadPreviewSchema, "POST /api/uploads"),
         );
+      } catch (error) {
+        reject(error);
       }
-      resolve(parsed.data);
     };
     const form = new FormData();
     form.append("file", file, file.name);

@@ -5,7 +5,7 @@ import { randomUUID } from "node:crypto";
 import { existsSync } from "node:fs";
 import path from "node:path";
 import { config } from "./config";
-import { errorMiddleware, ForbiddenError, NotFoundError } from "./errors";
+import { AppError, errorMiddleware, ForbiddenError, NotFoundError } from "./errors";
 import { sessionMiddleware } from "./modules/auth/session.middleware";
 import { authRouter, DEFAULT_SIGN_IN_LIMITS, type SignInLimits } from "./modules/auth/auth.router";
 import { healthRouter } from "./modules/health/health.router";
@@ -33,6 +33,10 @@ import {
 
 export interface AppOptions {
   signInLimits?: SignInLimits;
+  /** The Host header values the app answers to (default: config.allowedHosts, from ALLOWED_HOSTS). */
+  allowedHosts?: readonly string[];
+  /** The proxies whose X-Forwarded-For is believed (default: config.trustProxy, from TRUST_PROXY). */
+  trustProxy?: readonly string[];
   invitationLimits?: InvitationLimits;
   /** The turns large uploads take (tests hold one to see the queue refuse). */
   uploadLimits?: UploadLimits;
@@ -49,6 +53,28 @@ export const requestId: RequestHandler = (req, res, next) => {
 
 function hostOf(url: string): string | null {
   return URL.canParse(url) ? new URL(url).host : null;
+}
+
+/**
+ * Answers only to the host names it is configured for (ALLOWED_HOSTS): a page on another name
+ * that resolves to this machine (DNS rebinding) gets 421 and nothing else. An entry without a
+ * port allows that name on any port.
+ */
+export function hostAllowlist(allowed: readonly string[]): RequestHandler {
+  const known = new Set(allowed.map((h) => h.toLowerCase()));
+  return (req, _res, next) => {
+    const host = (req.headers.host ?? "").toLowerCase();
+    const colon = host.lastIndexOf(":");
+    const name = colon > host.lastIndexOf("]") ? host.slice(0, colon) : host;
+    if (host && (known.has(host) || known.has(name))) return next();
+    next(
+      new AppError(
+        421,
+        "unknown_host",
+        `This server does not answer to the host name "${host.slice(0, 100)}". Use the address it is configured for.`,
+      ),
+    );
+  };
 }
 
 /** Refuses state-changing requests that another site's page sent (SameSite=Strict is the first line). */
@@ -70,7 +96,10 @@ const sameOriginOnly: RequestHandler = (req, _res, next) => {
 export function createApp(options: AppOptions = {}) {
   const app = express();
   app.disable("x-powered-by");
-  app.set("trust proxy", "loopback");
+  // Only the proxies TRUST_PROXY names may say who the client is; otherwise the socket's address
+  // is the client's (a header anyone can send must not pick the sign-in limit's key or the audit address).
+  const trusted = options.trustProxy ?? config.trustProxy;
+  app.set("trust proxy", trusted.length ? [...trusted] : false);
   app.use(requestId);
   // Over plain http on loopback (development), asking the browser to upgrade to https would break every asset.
   app.use(
@@ -79,6 +108,7 @@ export function createApp(options: AppOptions = {}) {
       strictTransportSecurity: config.cookieSecure,
     }),
   );
+  app.use(hostAllowlist(options.allowedHosts ?? config.allowedHosts));
   app.use(express.json({ limit: "1mb" }));
   app.use(cookieParser());
   app.use(sameOriginOnly);

@@ -50,6 +50,13 @@ const envSchema = z.object({
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
   LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
+  /**
+   * Host names this server answers to, comma-separated: "name" (any port) or "name:port".
+   * Unset: 127.0.0.1, localhost and [::1] on PORT (and on Vite's 5173 in development; on any port in tests).
+   */
+  ALLOWED_HOSTS: z.string().optional(),
+  /** Proxies allowed to say who the client is (X-Forwarded-For): addresses or subnets, comma-separated. Unset: none. */
+  TRUST_PROXY: z.string().optional(),
   /** The address people open Quartermark at: set-password links in e-mails start with it. */
   PUBLIC_URL: z.url({ protocol: /^https?$/, error: "PUBLIC_URL must be an http(s) address" }).optional(),
   /** How long an invitation or password-reset link works, in hours. */
@@ -87,6 +94,27 @@ function secret(fromEnv: string | undefined, fileName: string): string {
     if ((err as NodeJS.ErrnoException).code !== "EEXIST") throw err;
   }
   return readFileSync(file, "utf8").trim();
+}
+
+/** The Host header values (or bare host names, any port) the server answers to. */
+function allowedHosts(
+  fromEnv: string | undefined,
+  nodeEnv: string,
+  port: number,
+  publicUrl: string | undefined,
+): string[] {
+  if (fromEnv !== undefined)
+    return fromEnv
+      .split(",")
+      .map((h) => h.trim().toLowerCase())
+      .filter(Boolean);
+  const names = ["127.0.0.1", "localhost", "[::1]"];
+  // Supertest and the browser journeys listen on a free port of their own.
+  if (nodeEnv === "test") return names;
+  const ports = nodeEnv === "development" ? [port, 5173] : [port];
+  const loopback = names.flatMap((name) => ports.map((p) => `${name}:${p}`));
+  // The address people open (PUBLIC_URL) is served too, as its Host header names it.
+  return publicUrl ? [...loopback, new URL(publicUrl).host.toLowerCase()] : loopback;
 }
 
 function loadConfig() {
@@ -134,6 +162,13 @@ function loadConfig() {
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,
+    allowedHosts: Object.freeze(allowedHosts(env.ALLOWED_HOSTS, env.NODE_ENV, env.PORT, env.PUBLIC_URL)),
+    trustProxy: Object.freeze(
+      (env.TRUST_PROXY ?? "")
+        .split(",")
+        .map((s) => s.trim())
+        .filter(Boolean),
+    ),
     publicUrl: (env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`).replace(/\/+$/, ""),
     invitationTtlHours: env.INVITATION_TTL_HOURS,
     uploads: Object.freeze({

@@ -26,3 +26,23 @@ export async function lockPortfolios(
   for (const r of rows) held.add(Number(r.id));
   return held;
 }
+
+/**
+ * Locks every portfolio of an entity for update (by primary key, in id order): the writers whose
+ * change refreshes the entity's stored figures take all of its books first, so two of them never
+ * hold part each and wait for the rest.
+ */
+export async function lockEntityPortfolios(entityId: number, transaction: Transaction): Promise<number[]> {
+  const ids = await sequelize.query<{ id: number }>("SELECT id FROM portfolios WHERE entity_id = :entityId", {
+    replacements: { entityId },
+    type: QueryTypes.SELECT,
+    transaction,
+  });
+  return [
+    ...(await lockPortfolios(
+      ids.map((r) => Number(r.id)),
+      "update",
+      transaction,
+    )),
+  ].sort((a, b) => a - b);
+}

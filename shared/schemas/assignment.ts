@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { entityCodeSchema } from "./common";
+import { entityCodeSchema, idSchema } from "./common";
 
 export const assignmentSchema = z.object({
   userId: z.number().int(),
@@ -14,6 +14,6 @@ export const createAssignmentBodySchema = z.strictObject({
   entityCode: entityCodeSchema,
 });
 export const assignmentParamSchema = z.object({
-  userId: z.coerce.number().int().positive(),
+  userId: idSchema,
   entityCode: entityCodeSchema,
 });

@@ -49,8 +49,16 @@ export const plainNameSchema = z
   // eslint-disable-next-line no-control-regex -- control characters are exactly what is refused
   .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), "No line breaks or control characters");
 
+/**
+ * A numeric id as an address writes it: plain decimal digits, no sign, no leading zero, no
+ * spaces, no exponent or hex (Number() would read "1e1", "0x10", " 1" and "01" as 10, 16, 1, 1).
+ */
+export const idSchema = z
+  .string()
+  .regex(/^[1-9][0-9]{0,14}$/, "An id is a whole number written in plain digits (no sign, spaces or leading zero)")
+  .transform(Number);
 /** The one schema of a numeric id in an address (/api/…/:id). */
-export const idParamSchema = z.object({ id: z.coerce.number().int().positive() });
+export const idParamSchema = z.object({ id: idSchema });
 /** An entity's code in an address (/api/entities/:code/…). */
 export const entityCodeParamSchema = z.object({ code: entityCodeSchema });
 /** A portfolio's code in an address (/api/portfolios/:code/…), read in capitals. */

@@ -319,7 +319,8 @@ async function appWith(env: Record<string, string>): Promise<{ url: string; clos
   const tsx = path.join(config.projectRoot, "node_modules", ".bin", "tsx");
   const child: ChildProcess = spawn(tsx, [path.join(import.meta.dirname, "support", "serve-app.ts")], {
     cwd: config.projectRoot,
-    env: { ...process.env, LOG_LEVEL: "error", ...env },
+    // A free port of its own: the loopback name on any port.
+    env: { ...process.env, LOG_LEVEL: "error", ALLOWED_HOSTS: "127.0.0.1", ...env },
     stdio: ["ignore", "pipe", "inherit"],
   });
   const port = await new Promise<number>((resolve, reject) => {

@@ -4,7 +4,8 @@
  * Each server here is the real entry (server/index.ts) in a process of its own.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTestUser, sessionCookieFor, unique } from "./helpers";
+import { PortfolioModel } from "../../server/models/portfolio";
+import { createTestEntity, createTestUser, sessionCookieFor, unique } from "./helpers";
 import { startServerProcess, type ServerProcess } from "./support/server-process";
 
 const alive = (pid: number) => {
@@ -39,6 +40,43 @@ describe("two server processes on the one database", () => {
     const listed = await fetch(`${b.base}/api/entities`, { headers: { cookie } });
     expect(listed.status).toBe(200);
     expect(((await listed.json()) as { code: string }[]).map((e) => e.code)).toContain(code);
+  });
+
+  it("when an analyst commits a day through one process, then the other's backtest stands on that day at once", async () => {
+    const entity = await createTestEntity();
+    const code = `${entity.code}-TOP`;
+    await PortfolioModel.create({ entityId: entity.id, code, name: "Top of house", level: "top" });
+    const cookie = await sessionCookieFor((await createTestUser("analyst")).id);
+    const send = async (csv: string) => {
+      const form = new FormData();
+      form.append("file", new Blob([csv], { type: "text/csv" }), `${unique()}.csv`);
+      const preview = await fetch(`${a.base}/api/uploads`, {
+        method: "POST",
+        headers: { cookie, origin: a.base },
+        body: form,
+      });
+      expect(preview.status).toBe(201);
+      const { id } = (await preview.json()) as { id: number };
+      const commit = await fetch(`${a.base}/api/uploads/${id}/commit`, {
+        method: "POST",
+        headers: { cookie, origin: a.base },
+      });
+      expect(commit.status).toBe(200);
+    };
+    const header = "portfolio,date,actual_pnl,hypothetical_pnl,var_99\n";
+    await send(`${header}${code},2026-03-02,-100.00,-100.00,5000.00\n`);
+    const first = await fetch(`${b.base}/api/portfolios/${code}/backtest`, { headers: { cookie } });
+    expect(((await first.json()) as { latestDate: string }).latestDate).toBe("2026-03-02");
+    // A loss beyond VaR on the next day, written through A: B counts it at once.
+    await send(`${header}${code},2026-03-03,-9000.00,-9000.00,5000.00\n`);
+    const second = (await (
+      await fetch(`${b.base}/api/portfolios/${code}/backtest`, { headers: { cookie } })
+    ).json()) as {
+      latestDate: string;
+      exceptionDays: { date: string }[];
+    };
+    expect(second.latestDate).toBe("2026-03-03");
+    expect(second.exceptionDays.map((d) => d.date)).toEqual(["2026-03-03"]);
   });
 
   it("when an account fails to sign in five times on one process, then the other refuses the sixth (429)", async () => {

@@ -12,8 +12,8 @@ import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calenda
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { loadSeries } from "../observations/observations.repository";
-import { deskResults } from "./backtest.service";
-import { loadPortfolioContext } from "./portfolio-context";
+import { deskResults } from "../figures/stored-figures";
+import { loadPortfolioContext } from "../figures/engine-inputs";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import { type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import type { Observation } from "../../../shared/backtest/types";
@@ -99,7 +99,7 @@ export async function quarterFigures(
     capitalNote = `No capital figure: ${err.message}`;
   }
 
-  const desks = await deskResults(ctx, asOf);
+  const desks = await deskResults(ctx, asOf, portfolios);
   const figures: SnapshotFigures = {
     portfolio: top.code,
     regime: entity.regime,

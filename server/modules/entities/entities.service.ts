@@ -1,4 +1,5 @@
 import { UniqueConstraintError, type Transaction } from "sequelize";
+import { refreshEntityFigures } from "../figures/stored-figures";
 import { refreshFindings } from "../findings/findings.service";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
@@ -22,7 +23,6 @@ import type {
 } from "../../../shared/schemas/entity";
 import { checkVersion } from "../../kit/stale";
 import { entityByCode } from "../../kit/lookups";
-import { refreshDeterminations } from "../determinations/determinations.store";
 
 export function toEntity(row: EntityModel): Entity {
   return {
@@ -97,7 +97,11 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
 }
 
 export async function updateEntity(code: string, change: UpdateEntityBody, actor: SignedIn): Promise<Entity> {
+  const found = await EntityModel.findOne({ where: { code }, attributes: ["id"] });
+  if (!found) throw new NotFoundError(`No entity with code ${code}.`);
   return sequelize.transaction(async (transaction) => {
+    // Portfolios before the entity, the order every writer and sign-off takes them.
+    await lockEntityPortfolios(found.id, transaction);
     const row = await entityByCode(code, { transaction, lock: true });
     await checkVersion(row.version, change.version, () => ({
       message: `Someone else changed ${code} since you opened it (now version ${row.version}). Reload and apply your change again.`,
@@ -115,7 +119,6 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
         { fields: { pnlBasis: "Governed setting", qualitativeAddend: "Governed setting" } },
       );
     }
-    const regimeChanged = change.regime !== undefined && change.regime !== row.regime;
     row.version = row.version + 1;
     if (change.name !== undefined) row.name = change.name;
     if (change.regime !== undefined) row.regime = change.regime;
@@ -125,9 +128,9 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
     if (change.supervisorName !== undefined) row.supervisorName = change.supervisorName;
     if (change.supervisorEmails !== undefined) row.supervisorEmails = change.supervisorEmails;
     await row.save({ transaction });
-    if (regimeChanged) await refreshDeterminations(row.id, transaction);
     const entity = toEntity(row);
     await recordAudit(actor, "entity.update", code, { before, after: entity }, transaction);
+    await refreshEntityFigures([row.id], transaction); // rule set, P&L basis, addend and names feed the figures
     return entity;
   });
 }
@@ -157,6 +160,7 @@ export async function createPortfolio(code: string, input: CreatePortfolioBody, 
     );
     const portfolio = toPortfolio(row);
     await recordAudit(actor, "portfolio.create", `${code}/${portfolio.code}`, { after: portfolio }, transaction);
+    await refreshEntityFigures([entity.id], transaction); // a new top book may become the headline
     return portfolio;
   });
 }
@@ -169,6 +173,7 @@ export async function renamePortfolio(
 ): Promise<Portfolio> {
   const entity = await findEntity(code);
   return sequelize.transaction(async (transaction) => {
+    await lockEntityPortfolios(entity.id, transaction);
     const row = await PortfolioModel.findOne({
       where: { entityId: entity.id, code: portfolioCode },
       transaction,
@@ -180,6 +185,7 @@ export async function renamePortfolio(
     await row.save({ transaction });
     const portfolio = toPortfolio(row);
     await recordAudit(actor, "portfolio.update", `${code}/${portfolioCode}`, { before, after: portfolio }, transaction);
+    await refreshEntityFigures([entity.id], transaction); // the stored figures carry the name
     return portfolio;
   });
 }
@@ -212,7 +218,7 @@ export async function addHoliday(code: string, input: CreateHolidayBody, actor: 
     const holiday = toHoliday(row);
     await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday
-    await refreshDeterminations(entity.id, transaction); // a quarter's last business day may move
+    await refreshEntityFigures([entity.id], transaction); // roll-offs, forecasts and FRTB windows follow the calendar
     return holiday;
   });
 }
@@ -226,6 +232,6 @@ export async function removeHoliday(code: string, date: string, actor: SignedIn)
     await row.destroy({ transaction });
     await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // the day is a business day again: data may be missing
-    await refreshDeterminations(entity.id, transaction);
+    await refreshEntityFigures([entity.id], transaction);
   });
 }

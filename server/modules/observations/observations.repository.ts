@@ -166,7 +166,10 @@ export function queueRetireVersions(writes: PipelinedWrites, keys: readonly Vers
   }
 }
 
-/** One portfolio's current series, sorted by date, in the engine's shape. */
+/**
+ * One portfolio's current series, sorted by date, in the engine's shape. Inside a transaction the
+ * read is a locking one, so it sees the newest committed days and the transaction's own.
+ */
 export async function loadSeries(
   portfolioId: number,
   from?: string,
@@ -177,7 +180,7 @@ export async function loadSeries(
     `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
        FROM observations
       WHERE portfolio_id = :pid AND current_day BETWEEN :from AND :to
-      ORDER BY current_day`,
+      ORDER BY current_day${transaction ? " LOCK IN SHARE MODE" : ""}`,
     {
       replacements: { pid: portfolioId, from: from ?? "1900-01-01", to: to ?? "9999-12-31" },
       type: QueryTypes.SELECT,

@@ -10,6 +10,8 @@ import { addEvidence, EVIDENCE_MAX_BYTES, getEvidence, recordDecision, saveRevie
 const evidenceUpload = multer({
   storage: multer.memoryStorage(),
   preservePath: true,
+  // Browsers send the file name as raw UTF-8 without a charset; busboy would read it as latin1.
+  defParamCharset: "utf8",
   limits: { fileSize: EVIDENCE_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
 }).single("file");
 

@@ -1,12 +1,13 @@
 import { createHash } from "node:crypto";
 import { sequelize } from "../../db/sequelize";
-import { lockPortfolios } from "../../db/portfolio-locks";
+import { lockEntityPortfolios } from "../../db/portfolio-locks";
+import { refreshEntityFigures } from "../figures/stored-figures";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
 import { ObservationModel } from "../../models/observation";
 import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
-import { findPortfolio } from "../backtest/portfolio-context";
+import { findPortfolio } from "../figures/engine-inputs";
 import { plainFileName } from "../../kit/file-name";
 import type { Transaction } from "sequelize";
 import type { PortfolioModel } from "../../models/portfolio";
@@ -18,7 +19,6 @@ import { getRegime } from "../../../shared/backtest/regimes";
 import type { SignedIn } from "../../kit/actor";
 import type { DecisionBody, ExclusionStatus, Review, ReviewBody } from "../../../shared/schemas/review";
 import { checkVersion } from "../../kit/stale";
-import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 export const EVIDENCE_MAX_BYTES = 10 * 1024 * 1024;
 
@@ -78,7 +78,7 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
   await sequelize.transaction(async (transaction) => {
     // Lock the portfolio row first: two first reviews of one day queue instead of deadlocking, and
     // an upload restating the day waits (or is waited for) before the day is judged an exception.
-    await lockPortfolios([portfolio.id], "update", transaction);
+    await lockEntityPortfolios(entity.id, transaction);
     await assertExceptionDay(code, date, portfolio, entity, transaction);
     const row = await ExceptionReviewModel.findOne({
       where: { portfolioId: portfolio.id, businessDate: date },
@@ -135,14 +135,17 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
       { before, after: { cause: body.cause, narrative: body.narrative, exclusionStatus } },
       transaction,
     );
+    await refreshEntityFigures([entity.id], transaction); // the Overview counts exceptions nobody reviewed yet
   });
   return (await currentReview(portfolio.id, date))!;
 }
 
 /** The CRO records the supervisor's decision on an exclusion request. */
 export async function recordDecision(code: string, date: string, body: DecisionBody, actor: SignedIn): Promise<Review> {
-  const { portfolio } = await findPortfolio(code);
+  const { portfolio, entity } = await findPortfolio(code);
   await sequelize.transaction(async (transaction) => {
+    // The entity's books first (the order of every writer), then the review.
+    await lockEntityPortfolios(entity.id, transaction);
     const row = await ExceptionReviewModel.findOne({
       where: { portfolioId: portfolio.id, businessDate: date },
       transaction,
@@ -178,8 +181,9 @@ export async function recordDecision(code: string, date: string, body: DecisionB
     // An approved exclusion changes what the figures would be; a signed-off quarter keeps its own and is flagged.
     if (before.exclusionStatus === "approved" || body.decision === "approved") {
       await flagExclusionDecision(portfolio.id, date, actor, transaction);
-      await refreshDeterminationsOfPortfolios([portfolio.id], transaction);
     }
+    // An exclusion approved or withdrawn changes the count; a decision also settles an open request.
+    await refreshEntityFigures([entity.id], transaction);
   });
   return (await currentReview(portfolio.id, date))!;
 }

@@ -1,6 +1,7 @@
 import { UniqueConstraintError, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
+import { entitiesOfPortfolios, refreshEntityFigures } from "../figures/stored-figures";
 import { UploadModel } from "../../models/upload";
 import { PortfolioModel } from "../../models/portfolio";
 import { AppError, ConflictError, NotFoundError } from "../../errors";
@@ -21,14 +22,20 @@ import { recheckReferenceData, type CsvReferenceData, type ParsedRow } from "../
 import { classify, currentDaysInSpan, spanOf, type NewVersion, type StoredDay } from "../../../shared/ingest/row-plan";
 import type { CommitResult } from "../../../shared/schemas/upload";
 import type { SignedIn } from "../../kit/actor";
-import { refreshDeterminationsOfPortfolios } from "../determinations/determinations.store";
 
 /** Portfolio ids the preview named (from its summary), sorted. */
 async function previewPortfolioIds(upload: UploadModel, transaction: Transaction): Promise<number[]> {
   const codes: string[] = upload.summaryJson ? JSON.parse(upload.summaryJson).portfolios : [];
   if (codes.length === 0) return [];
-  const found = await PortfolioModel.findAll({ where: { code: codes }, attributes: ["id"], transaction });
-  return found.map((p) => p.id).sort((a, b) => a - b);
+  // Every book of the entities named: the figures refresh reads them all (server/modules/figures).
+  const found = await PortfolioModel.findAll({ where: { code: codes }, attributes: ["entityId"], transaction });
+  if (found.length === 0) return [];
+  const books = await PortfolioModel.findAll({
+    where: { entityId: [...new Set(found.map((p) => p.entityId))] },
+    attributes: ["id"],
+    transaction,
+  });
+  return books.map((p) => p.id).sort((a, b) => a - b);
 }
 
 /**
@@ -95,8 +102,8 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await applyFindings(found, transaction);
     // Signed-off figures never change; a day written inside a signed-off window flags that snapshot.
     await flagChangedSnapshots(inserts, upload.id, actor, transaction);
-    // The determinations of the entities whose data this was, recomputed with the data.
-    await refreshDeterminationsOfPortfolios([...held], transaction);
+    // The stored figures follow the data in the same transaction: no reader sees one without the other.
+    await refreshEntityFigures(await entitiesOfPortfolios(portfolioIds, transaction), transaction);
 
     upload.status = "committed";
     upload.committedSha256 = upload.sha256;

@@ -18,6 +18,8 @@ import { sendDownload } from "../../http/download";
 const single = multer({
   storage: uploadStorage(),
   preservePath: true, // keep folders in the name so that such a name is refused, not silently cut
+  // Browsers send the file name as raw UTF-8 without a charset; busboy would read it as latin1.
+  defParamCharset: "utf8",
   limits: { fileSize: UPLOAD_MAX_BYTES, files: 1, fields: 0, parts: 1, headerPairs: 50 },
 }).single("file");
 

@@ -1,0 +1,152 @@
+/**
+ * The one step from the database to the engine and back: which portfolio heads an entity, what
+ * the engine is given for a portfolio (its current days, calendar and approved exclusions), the
+ * engine's options from the entity's settings, a quarter's last business day and whether its data
+ * reaches it, and rounding to cents. Every figure the server stores or shows goes through here.
+ */
+import { QueryTypes, type Transaction } from "sequelize";
+import { sequelize } from "../../db/sequelize";
+import { PortfolioModel } from "../../models/portfolio";
+import { EntityModel } from "../../models/entity";
+import { AppError, NotFoundError } from "../../errors";
+import { loadSeries } from "../observations/observations.repository";
+import type { Observation } from "../../../shared/backtest/types";
+import type { BacktestOptions } from "../../../shared/backtest/types";
+import { getRegime } from "../../../shared/backtest/regimes";
+import { withMissingBusinessDays } from "../../../shared/backtest/window";
+import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
+import { quarterLabel } from "../../../shared/backtest/quarters";
+
+export interface PortfolioContext {
+  portfolio: PortfolioModel;
+  entity: EntityModel;
+  holidays: Set<string>;
+  series: Observation[];
+  /** Dates whose exception the supervisor agreed to disregard. */
+  excludedDates: Set<string>;
+}
+
+/**
+ * How a read inside a writing transaction sees the data: through that transaction, with locking
+ * reads (the newest committed rows and this transaction's own, whatever its snapshot saw first).
+ */
+export interface ReadIn {
+  transaction?: Transaction;
+}
+
+const lockOf = (t?: Transaction) => (t ? { transaction: t, lock: t.LOCK.SHARE } : {});
+
+export async function findPortfolio(code: string): Promise<{ portfolio: PortfolioModel; entity: EntityModel }> {
+  const portfolio = await PortfolioModel.findOne({ where: { code }, include: [{ model: EntityModel, as: "entity" }] });
+  if (!portfolio) throw new NotFoundError(`No portfolio ${code}.`);
+  return { portfolio, entity: (portfolio as unknown as { entity: EntityModel }).entity };
+}
+
+/** The portfolio whose figures are the entity's headline: its top-of-house book (the first by code if several). */
+export function headlinePortfolio<P extends { level: string; code: string }>(portfolios: readonly P[]): P | null {
+  return [...portfolios].filter((p) => p.level === "top").sort((a, b) => a.code.localeCompare(b.code))[0] ?? null;
+}
+
+export function noHeadlineError(entityCode: string): NotFoundError {
+  return new NotFoundError(`${entityCode} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
+}
+
+/** Everything the engine needs for one portfolio: its current data, its calendar and its approved exclusions. */
+export async function loadPortfolioContext(code: string): Promise<PortfolioContext> {
+  const { portfolio, entity } = await findPortfolio(code);
+  return contextOf(portfolio, entity);
+}
+
+export async function contextOf(
+  portfolio: PortfolioModel,
+  entity: EntityModel,
+  read: ReadIn & { from?: string; to?: string } = {},
+): Promise<PortfolioContext> {
+  const [holidays, series, excluded] = await Promise.all([
+    holidaysOf(entity.id, read),
+    loadSeries(portfolio.id, read.from, read.to, read.transaction),
+    sequelize.query<{ d: string }>(
+      `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d FROM exception_reviews
+        WHERE portfolio_id = :pid AND exclusion_status = 'approved'${read.transaction ? " LOCK IN SHARE MODE" : ""}`,
+      { replacements: { pid: portfolio.id }, type: QueryTypes.SELECT, transaction: read.transaction },
+    ),
+  ]);
+  return {
+    portfolio,
+    entity,
+    holidays,
+    // FRTB: a business day never reported counts as an exception (MAR32.5(2)), so it must be in the window.
+    series: getRegime(entity.regime).missingCountsAsException ? withMissingBusinessDays(series, holidays) : series,
+    excludedDates: new Set(excluded.map((r) => r.d)),
+  };
+}
+
+export async function holidaysOf(entityId: number, read: ReadIn = {}): Promise<Set<string>> {
+  const rows = await sequelize.query<{ d: string }>(
+    `SELECT DATE_FORMAT(date, '%Y-%m-%d') AS d FROM holidays WHERE entity_id = :id${read.transaction ? " LOCK IN SHARE MODE" : ""}`,
+    { replacements: { id: entityId }, type: QueryTypes.SELECT, transaction: read.transaction },
+  );
+  return new Set(rows.map((r) => r.d));
+}
+
+/** The entity and its portfolios (by code), read inside the caller's transaction when given. */
+export async function entityWithPortfolios(
+  entityId: number,
+  read: ReadIn = {},
+): Promise<{ entity: EntityModel; portfolios: PortfolioModel[] }> {
+  const entity = await EntityModel.findByPk(entityId, lockOf(read.transaction));
+  if (!entity) throw new NotFoundError(`No entity #${entityId}.`);
+  const portfolios = await PortfolioModel.findAll({
+    where: { entityId },
+    order: [["code", "ASC"]],
+    ...lockOf(read.transaction),
+  });
+  return { entity, portfolios };
+}
+
+/** The engine's options for an entity at a date, from its settings. */
+export function engineOptions(
+  entity: Pick<EntityModel, "regime" | "pnlBasis" | "qualitativeAddend">,
+  asOf: string,
+  excludedDates: ReadonlySet<string>,
+): BacktestOptions & { qualitativeAddend: number } {
+  return {
+    regime: entity.regime,
+    pnlBasis: entity.pnlBasis,
+    asOf,
+    excludedDates: excludedDates as Set<string>,
+    qualitativeAddend: entity.qualitativeAddend,
+  };
+}
+
+/** An amount rounded to the cent, as every stored and shown capital figure is. */
+export function cents(amount: number): number {
+  return Math.round(amount * 100) / 100;
+}
+
+/** The last business day of a quarter (its end, or the business day before it). */
+export function quarterLastBusinessDay(quarterEnd: string, holidays: ReadonlySet<string>): string {
+  return isBusinessDay(quarterEnd, holidays as Set<string>)
+    ? quarterEnd
+    : addBusinessDays(quarterEnd, -1, holidays as Set<string>);
+}
+
+/**
+ * A quarter's data is complete when the portfolio reported on its last business day (or later).
+ * Refuses with 422 otherwise: figures for it would be a guess.
+ */
+export function assertQuarterComplete(ctx: PortfolioContext, quarterEnd: string): string {
+  const lastBusinessDay = quarterLastBusinessDay(quarterEnd, ctx.holidays);
+  const reported = [...ctx.series]
+    .filter((o) => o.date <= quarterEnd)
+    .reverse()
+    .find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
+  if (!reported || reported.date < lastBusinessDay) {
+    throw new AppError(
+      422,
+      "quarter_data_incomplete",
+      `${ctx.portfolio.code} has no daily data for ${lastBusinessDay}, the last business day of ${quarterLabel(quarterEnd)}${reported ? ` (its data ends on ${reported.date})` : ""}. Upload it under Data first.`,
+    );
+  }
+  return lastBusinessDay;
+}

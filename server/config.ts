@@ -43,6 +43,10 @@ const envSchema = z.object({
     .regex(/^[^@\s]+@[^@\s]+$/, "an e-mail address")
     .default("quartermark@localhost"),
   JWT_SECRET: z.string().min(32, "JWT_SECRET must be at least 32 characters").optional(),
+  /** The key that signs the snapshot chain and the audit log (HMAC-SHA256); kept outside the database. */
+  CHAIN_KEY: z.string().min(32, "CHAIN_KEY must be at least 32 characters").optional(),
+  /** Where the mailer notes each hand-over to the SMTP server (outside the database), read by reconciliation. */
+  MAIL_JOURNAL: z.string().optional(),
   DEMO_PASSWORD: z.string().min(8).default("quartermark-demo"),
   COOKIE_SECURE: z.enum(["true", "false"]).optional(),
   LOG_LEVEL: z.enum(["silent", "error", "info"]).default("info"),
@@ -76,15 +80,20 @@ function readDbCredentials(): { user: string; password: string } | null {
   return JSON.parse(readFileSync(file, "utf8"));
 }
 
-/** JWT_SECRET from the environment, else generated once into .data/ and reused. */
-function jwtSecret(fromEnv: string | undefined): string {
+/** A secret from the environment, else generated once into .data/<file> (mode 0600) and reused. */
+function secret(fromEnv: string | undefined, fileName: string): string {
   if (fromEnv) return fromEnv;
-  const file = path.join(dataDir, "jwt-secret");
+  const file = path.join(dataDir, fileName);
   if (existsSync(file)) return readFileSync(file, "utf8").trim();
-  const secret = randomBytes(48).toString("base64url");
+  const generated = randomBytes(48).toString("base64url");
   mkdirSync(dataDir, { recursive: true });
-  writeFileSync(file, secret, { mode: 0o600 });
-  return secret;
+  try {
+    // "wx": of two processes starting at once, one writes and both read the same secret.
+    writeFileSync(file, generated, { mode: 0o600, flag: "wx" });
+  } catch (err) {
+    if ((err as NodeJS.ErrnoException).code !== "EEXIST") throw err;
+  }
+  return readFileSync(file, "utf8").trim();
 }
 
 /** The Host header values (or bare host names, any port) the server answers to. */
@@ -145,7 +154,11 @@ function loadConfig() {
           ? path.resolve(env.MAIL_SINK_DIR)
           : null,
     mailFrom: env.MAIL_FROM,
-    jwtSecret: jwtSecret(env.JWT_SECRET),
+    jwtSecret: secret(env.JWT_SECRET, "jwt-secret"),
+    // Signs the snapshot chain and the audit log: someone who can write to the database cannot
+    // recompute a signature without it (server/modules/chain/signing.ts).
+    chainKey: secret(env.CHAIN_KEY, "chain-key"),
+    mailJournal: env.MAIL_JOURNAL ? path.resolve(env.MAIL_JOURNAL) : path.join(dataDir, "mail-journal.jsonl"),
     demoPassword: env.DEMO_PASSWORD,
     cookieSecure: env.COOKIE_SECURE ? env.COOKIE_SECURE === "true" : env.NODE_ENV === "production",
     logLevel: env.LOG_LEVEL,

@@ -2,29 +2,51 @@ import { SMTPServer } from "smtp-server";
 import { mkdirSync, writeFileSync } from "node:fs";
 import path from "node:path";
 
+export interface MailSinkOptions {
+  /** Refuses a recipient at RCPT TO with this 5xx text (null: accept). Default: the reserved `.invalid` domain. */
+  refuse?: (address: string) => string | null;
+  /** Called once a whole message is in, before the server answers 250 (tests use it to fault what follows). */
+  beforeAccept?: (recipients: string[]) => Promise<void>;
+}
+
+const refuseInvalidDomain = (address: string) => (/\.invalid$/i.test(address) ? `No such mailbox: ${address}` : null);
+
 /**
  * A local SMTP sink for development and tests: accepts every message on 127.0.0.1 and keeps it
  * as an .eml file, so what the product sends can be read back. Like a real server, it refuses
- * recipients it cannot deliver to: any address in the reserved `.invalid` domain (RFC 2606).
+ * recipients it cannot deliver to: any address in the reserved `.invalid` domain (RFC 2606). Like
+ * a real mail server delivering to a mailbox, it adds a `Delivered-To:` line per envelope recipient,
+ * so that what each recipient received can be counted even when the To: header names several.
  */
-export async function startMailSink(port: number, dir: string): Promise<{ port: number; close: () => Promise<void> }> {
+export async function startMailSink(
+  port: number,
+  dir: string,
+  options: MailSinkOptions = {},
+): Promise<{ port: number; close: () => Promise<void> }> {
   mkdirSync(dir, { recursive: true });
+  const refuse = options.refuse ?? refuseInvalidDomain;
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ["STARTTLS"],
     logger: false,
     onRcptTo(address, _session, callback) {
-      if (/\.invalid$/i.test(address.address))
-        return callback(Object.assign(new Error(`No such mailbox: ${address.address}`), { responseCode: 550 }));
+      const reason = refuse(address.address);
+      if (reason) return callback(Object.assign(new Error(reason), { responseCode: 550 }));
       callback();
     },
     onData(stream, session, callback) {
       const chunks: Buffer[] = [];
       stream.on("data", (c: Buffer) => chunks.push(c));
       stream.on("end", () => {
-        const file = path.join(dir, `${new Date().toISOString().replace(/[:.]/g, "-")}-${session.id}.eml`);
-        writeFileSync(file, Buffer.concat(chunks));
-        callback();
+        const recipients = session.envelope.rcptTo.map((r) => r.address);
+        const keep = () => {
+          const file = path.join(dir, `${new Date().toISOString().replace(/[:.]/g, "-")}-${session.id}.eml`);
+          const delivered = recipients.map((r) => `Delivered-To: ${r}\r\n`).join("");
+          writeFileSync(file, Buffer.concat([Buffer.from(delivered), ...chunks]));
+          callback();
+        };
+        if (!options.beforeAccept) return keep();
+        options.beforeAccept(recipients).then(keep, (err: Error) => callback(err));
       });
     },
   });

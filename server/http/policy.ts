@@ -52,6 +52,9 @@ export const POLICY = {
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
   "GET /api/audit-events": ["admin"],
+  // The audit log's signatures and sequence: its keeper, and the CRO, whose sign-offs it records.
+  // Not regulators (the log covers every entity); they check their filings through the filing verify.
+  "GET /api/audit-events/verify": ["cro", "admin"],
   // The development mail outbox (404 in production, in the service): what the local sink received.
   "GET /api/admin/outbox": ["admin"],
   "GET /api/admin/outbox/:id": ["admin"],
@@ -78,11 +81,15 @@ export const POLICY = {
   "POST /api/snapshots/:id/approve": ["cro"],
   "POST /api/snapshots/:id/return": ["cro"],
   "GET /api/snapshots/:id/verify": ["analyst", "cro", "treasury"],
+  // The entity's whole signed chain: whoever may check one of its snapshots may check them all.
+  "GET /api/entities/:code/chain/verify": ["analyst", "cro", "treasury"],
   "GET /api/entities/:code/capital/history": ["analyst", "cro", "treasury"],
   // Packs and filings: the office reads packs, the CRO files; a regulator reads, acknowledges and
   // verifies the filings of the entities assigned to them (filtered in the service).
   "GET /api/snapshots/:id/pack.pdf": ["analyst", "cro"],
   "POST /api/snapshots/:id/filings": ["cro"],
+  // The CRO finishes a filing that did not reach every recipient (only those not yet accepted).
+  "POST /api/filings/:id/deliver": ["cro"],
   "GET /api/filings": ["analyst", "cro", "regulator"],
   "GET /api/filings/:id/pack.pdf": ["analyst", "cro", "regulator"],
   "POST /api/filings/:id/acknowledge": ["regulator"],

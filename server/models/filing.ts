@@ -14,11 +14,14 @@ export class FilingModel extends Model<InferAttributes<FilingModel>, InferCreati
   declare sentBy: number;
   /** When the mail server took it; null while it waits (delivery "pending"). */
   declare sentAt: Date | null;
-  declare delivery: CreationOptional<"pending" | "sent">;
+  /** pending: it reached nobody yet; partial: some recipients accepted it, not all; sent: all did. */
+  declare delivery: CreationOptional<"pending" | "partial" | "sent">;
   declare attempts: CreationOptional<number>;
   declare lastError: string | null;
   declare acknowledgedBy: number | null;
   declare acknowledgedAt: Date | null;
+  /** The pack's sha256 as the supervisor acknowledged it (also signed into the snapshot chain). */
+  declare acknowledgedSha256: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -34,11 +37,12 @@ FilingModel.init(
     messageId: { type: DataTypes.STRING(255), allowNull: true },
     sentBy: { type: DataTypes.INTEGER, allowNull: false },
     sentAt: { type: DataTypes.DATE(3), allowNull: true },
-    delivery: { type: DataTypes.ENUM("pending", "sent"), allowNull: false, defaultValue: "sent" },
+    delivery: { type: DataTypes.ENUM("pending", "partial", "sent"), allowNull: false, defaultValue: "pending" },
     attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     lastError: { type: DataTypes.STRING(500), allowNull: true },
     acknowledgedBy: { type: DataTypes.INTEGER, allowNull: true },
     acknowledgedAt: { type: DataTypes.DATE(3), allowNull: true },
+    acknowledgedSha256: { type: DataTypes.CHAR(64), allowNull: true },
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },

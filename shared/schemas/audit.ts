@@ -18,3 +18,16 @@ export const auditQuerySchema = z.object({
   action: z.string().max(60).optional(),
 });
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
+
+/** GET /api/audit-events/verify: the signed audit chain checked from its first event to its signed head. */
+export const auditVerifySchema = z.object({
+  valid: z.boolean(),
+  /** How many events the signed chain holds. */
+  events: z.number().int(),
+  problems: z.array(
+    z.object({ eventId: z.number().int().nullable(), seq: z.number().int().nullable(), detail: z.string() }),
+  ),
+  /** In words: what was checked, or the first thing that does not hold and how many more there are. */
+  detail: z.string(),
+});
+export type AuditVerify = z.infer<typeof auditVerifySchema>;

@@ -16,15 +16,29 @@ export const filingSchema = z.object({
   sha256: z.string(),
   recipients: z.array(z.string()),
   /**
-   * "sent": the mail server took the pack (messageId, sentAt). "pending": it did not answer when
-   * the CRO filed; the pack is kept and sent by the delivery loop as soon as the server is back.
+   * "sent": every recipient's mail server took the pack. "partial": some did, others refused it or
+   * are still waiting (the CRO can send to the rest). "pending": it reached nobody yet; the delivery
+   * loop sends it as soon as the mail server answers.
    */
-  delivery: z.enum(["pending", "sent"]),
+  delivery: z.enum(["pending", "partial", "sent"]),
+  /** Each recipient's state and the mail server's last answer for them. */
+  deliveries: z.array(
+    z.object({
+      recipient: z.string(),
+      status: z.enum(["pending", "sending", "accepted", "refused", "unknown"]),
+      detail: z.string().nullable(),
+      attempts: z.number().int(),
+      acceptedAt: z.string().nullable(),
+    }),
+  ),
+  /** What happened, in words: "Sent to a@x; refused by b@y: 550 …". */
+  summary: z.string(),
+  /** The one Message-ID of the filing's message, fixed before anything is sent. */
   messageId: z.string().nullable(),
   /** Who filed it. */
   sentBy: z.string(),
   sentAt: z.string().nullable(),
-  /** Why the last attempt failed, while pending. */
+  /** Why the last attempt failed, while some recipient still waits for the mail server. */
   lastError: z.string().nullable(),
   acknowledgedBy: z.string().nullable(),
   acknowledgedAt: z.string().nullable(),

@@ -149,3 +149,23 @@ export const snapshotVerifySchema = z.object({
   detail: z.string(),
 });
 export type SnapshotVerify = z.infer<typeof snapshotVerifySchema>;
+
+/** One thing wrong in an entity's signed snapshot chain, in words, with the link and snapshot it concerns. */
+export const chainProblemSchema = z.object({
+  seq: z.number().int().nullable(),
+  snapshotId: z.number().int().nullable(),
+  detail: z.string(),
+});
+export type ChainProblem = z.infer<typeof chainProblemSchema>;
+
+/** GET /api/entities/:code/chain/verify: the whole signed chain of an entity checked. */
+export const chainVerifySchema = z.object({
+  entity: z.string(),
+  valid: z.boolean(),
+  /** How many signed links the chain holds. */
+  links: z.number().int(),
+  problems: z.array(chainProblemSchema),
+  /** In words: what was checked, or the first thing that does not hold and how many more there are. */
+  detail: z.string(),
+});
+export type ChainVerify = z.infer<typeof chainVerifySchema>;

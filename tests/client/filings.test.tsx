@@ -18,6 +18,19 @@ const sha256Hex = (text: string) => createHash("sha256").update(text).digest("he
 
 /** A filing as the server sends it; parsed with the shared schema so a change of contract fails here. */
 function filing(over: Partial<Filing> = {}): Filing {
+  // Each recipient's delivery and the summary follow the filing's delivery unless the test gives them.
+  const recipients = over.recipients ?? ["backtesting@supervisor.test", "desk-officer@supervisor.test"];
+  const sent = (over.delivery ?? "sent") === "sent";
+  const deliveries = recipients.map((recipient) => ({
+    recipient,
+    status: sent ? ("accepted" as const) : ("pending" as const),
+    detail: sent ? "250 OK: message queued" : (over.lastError ?? null),
+    attempts: 1,
+    acceptedAt: sent ? (over.sentAt ?? "2026-10-08T14:30:00.000Z") : null,
+  }));
+  const summary = sent
+    ? `Sent to ${recipients.join(", ")}.`
+    : `Waiting for the mail server for ${recipients.join(", ")}${over.lastError ? ` (${over.lastError})` : ""}.`;
   return filingSchema.parse({
     id: 31,
     snapshotId: 12,
@@ -37,6 +50,8 @@ function filing(over: Partial<Filing> = {}): Filing {
     sentAt: "2026-10-08T14:30:00.000Z",
     acknowledgedBy: null,
     acknowledgedAt: null,
+    deliveries,
+    summary,
     ...over,
   });
 }
@@ -312,6 +327,81 @@ describe("Filings › the reporting office reads", () => {
     expect(screen.getByTestId("filings-waiting")).toHaveTextContent("1 pack");
     expect(screen.getByTestId("filings-latest-sent")).toHaveTextContent("LKS-EU Q3 2026 · 08 Oct 2026, 14:30 UTC");
     expect(screen.getByTestId("filings-pending")).toHaveTextContent("1 waiting for the mail server");
+  });
+
+  it("when a pack reached one recipient and was refused by another, then the CRO reads each answer and sends it to the refused one only", async () => {
+    const partial = filing({
+      delivery: "partial",
+      deliveries: [
+        {
+          recipient: "backtesting@supervisor.test",
+          status: "accepted",
+          detail: "250 OK: message queued",
+          attempts: 1,
+          acceptedAt: "2026-10-08T14:30:00.000Z",
+        },
+        {
+          recipient: "desk-officer@supervisor.test",
+          status: "refused",
+          detail: "550 No such mailbox: desk-officer@supervisor.test",
+          attempts: 1,
+          acceptedAt: null,
+        },
+      ],
+      summary:
+        "Sent to backtesting@supervisor.test; refused by desk-officer@supervisor.test: 550 No such mailbox: desk-officer@supervisor.test.",
+    });
+    const finished = {
+      ...partial,
+      delivery: "sent" as const,
+      deliveries: partial.deliveries.map((d) => ({ ...d, status: "accepted" as const, detail: "250 OK" })),
+      summary: "Sent to backtesting@supervisor.test, desk-officer@supervisor.test.",
+    };
+    const api = fakeApi(
+      filingRoutes("cro", [partial], { "POST /api/filings/31/deliver": { status: 200, body: finished } }),
+    );
+    const user = userEvent.setup();
+    renderApp("/filings");
+
+    expect(await screen.findByTestId("filing-partial")).toHaveTextContent(
+      "Partly delivered: Sent to backtesting@supervisor.test; refused by desk-officer@supervisor.test: 550 No such mailbox",
+    );
+    expect(screen.getByTestId("filings-partial")).toHaveTextContent("1 pack not yet with every recipient");
+    const rows = screen.getAllByTestId("filing-delivery-row");
+    expect(rows[0]).toHaveTextContent("Received by their mail server");
+    expect(rows[1]).toHaveTextContent("Refused550 No such mailbox");
+
+    await user.click(screen.getByRole("button", { name: "Send to desk-officer@supervisor.test" }));
+    expect(await screen.findByText(finished.summary)).toBeInTheDocument();
+    expect(api.calls.filter((c) => c.method === "POST" && c.path === "/api/filings/31/deliver")).toHaveLength(1);
+  });
+
+  it("when an analyst reads a partly delivered pack, then the answers show but sending is left to the CRO", async () => {
+    const partial = filing({
+      delivery: "partial",
+      deliveries: [
+        {
+          recipient: "backtesting@supervisor.test",
+          status: "accepted",
+          detail: "250 OK",
+          attempts: 1,
+          acceptedAt: "2026-10-08T14:30:00.000Z",
+        },
+        {
+          recipient: "desk-officer@supervisor.test",
+          status: "refused",
+          detail: "550 No such mailbox",
+          attempts: 1,
+          acceptedAt: null,
+        },
+      ],
+      summary: "Sent to backtesting@supervisor.test; refused by desk-officer@supervisor.test: 550 No such mailbox.",
+    });
+    fakeApi(filingRoutes("analyst", [partial]));
+    renderApp("/filings");
+
+    expect(await screen.findByTestId("filing-partial")).toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: /^Send to/ })).not.toBeInTheDocument();
   });
 
   it("when no pack waits for the mail server, then the standing says nothing about it", async () => {

@@ -650,6 +650,19 @@ const filed = (over: Partial<Snapshot> = {}) =>
 
 /** The filing the server answers with; parsed with the shared schema. */
 function filingOf(over: Partial<Filing> = {}): Filing {
+  // Each recipient's delivery and the summary follow the filing's delivery unless the test gives them.
+  const recipients = over.recipients ?? ["backtesting@supervisor.test", "desk-officer@supervisor.test"];
+  const sent = (over.delivery ?? "sent") === "sent";
+  const deliveries = recipients.map((recipient) => ({
+    recipient,
+    status: sent ? ("accepted" as const) : ("pending" as const),
+    detail: sent ? "250 OK: message queued" : (over.lastError ?? null),
+    attempts: 1,
+    acceptedAt: sent ? (over.sentAt ?? "2026-01-14T10:00:00.000Z") : null,
+  }));
+  const summary = sent
+    ? `Sent to ${recipients.join(", ")}.`
+    : `Waiting for the mail server for ${recipients.join(", ")}${over.lastError ? ` (${over.lastError})` : ""}.`;
   return filingSchema.parse({
     id: 31,
     snapshotId: 12,
@@ -669,6 +682,8 @@ function filingOf(over: Partial<Filing> = {}): Filing {
     sentAt: "2026-01-14T10:00:00.000Z",
     acknowledgedBy: null,
     acknowledgedAt: null,
+    deliveries,
+    summary,
     ...over,
   });
 }

@@ -3,7 +3,8 @@ import { deliverPendingFilings } from "./filings.service";
 
 /**
  * Sends the filings that wait for the mail server, every `everyMs` (the server process and
- * `npm start` run it). Each round is bounded by the mailer's timeouts; rounds never overlap.
+ * `npm start` run it); each round first settles deliveries a stop left half-done, from the mail
+ * journal, without sending them again. Each round is bounded by the mailer's timeouts; rounds never overlap.
  */
 export function startFilingDelivery(everyMs = 30_000): () => void {
   let running = false;
@@ -12,8 +13,10 @@ export function startFilingDelivery(everyMs = 30_000): () => void {
     running = true;
     deliverPendingFilings()
       .then((n) => {
-        if (n.sent || n.refused)
-          logger.info(`filing delivery: ${n.sent} sent, ${n.refused} refused, ${n.pending} still waiting`);
+        if (n.sent || n.refused || n.reconciled)
+          logger.info(
+            `filing delivery: ${n.reconciled} settled from the mail journal, ${n.sent} delivered, ${n.refused} withdrawn, ${n.pending} still waiting`,
+          );
       })
       .catch((err) => logger.error(`filing delivery failed: ${(err as Error).message}`))
       .finally(() => {

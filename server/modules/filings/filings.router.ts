@@ -10,8 +10,13 @@ export function filingsRouter() {
   r.post("/api/snapshots/:id/filings", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
     const { filing, delivered } = await filings.fileSnapshot(id, signedInActor(req));
-    // 202: recorded and kept, waiting for the mail server (the delivery loop sends it).
+    // 201: it reached the supervisor (all recipients, or some: `delivery` "partial" and `summary` say
+    // which); 202: recorded and kept, waiting for the mail server (the delivery loop sends it).
     res.status(delivered ? 201 : 202).json(filing);
+  });
+  r.post("/api/filings/:id/deliver", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await filings.finishFiling(id, signedInActor(req)));
   });
   r.get("/api/filings", async (req, res) => {
     res.json(await filings.listFilings(signedInActor(req)));

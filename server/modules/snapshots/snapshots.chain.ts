@@ -1,85 +1,45 @@
-import { createHash } from "node:crypto";
-import stableStringify from "fast-json-stable-stringify";
-import { Op, type Transaction } from "sequelize";
 import { EntityModel } from "../../models/entity";
-import { SnapshotModel } from "../../models/snapshot";
-import type { SnapshotVerify } from "../../../shared/schemas/snapshot";
+import type { ChainVerify, SnapshotVerify } from "../../../shared/schemas/snapshot";
+import { verifyChain } from "../snapshot-chain/snapshot-chain";
 import { visibleSnapshotRow } from "./snapshots.read";
+import { NotFoundError } from "../../errors";
 import type { SignedIn } from "../../kit/actor";
 
-/** What the hash of a signed-off snapshot covers, in a canonical form. */
-export function hashedContent(row: SnapshotModel, entity: EntityModel) {
-  return stableStringify({
-    entity: entity.code,
-    quarterEnd: row.quarterEnd,
-    figures: row.figuresJson,
-    // The headline columns that lists, the capital history and filings read, as stored.
-    zone: row.zone,
-    counted: row.counted,
-    plusFactor: row.plusFactor,
-    multiplier: row.multiplier,
-    capital: row.capital,
-    addOn: row.addOn,
-    windowStart: row.windowStart,
-    asOf: row.asOf,
-    inputsSha256: row.inputsSha256,
-    engineVersion: row.engineVersion,
-    preparedBy: row.preparedBy,
-    preparedAt: row.preparedAt.toISOString(),
-    submittedBy: row.submittedBy,
-    approvedBy: row.approvedBy,
-    approvedAt: row.approvedAt?.toISOString() ?? null,
-    prevHash: row.prevHash,
-  });
-}
-export const sha256 = (text: string) => createHash("sha256").update(text).digest("hex");
-
 /**
- * The entity's signed-off snapshots in the order they were approved: the hash chain. Inside an
- * approval it is a locking read, so it sees an approval that committed while this one waited.
+ * Checks the snapshot against the entity's signed chain (server/modules/snapshot-chain): the chain
+ * must be whole (every link signed, numbered without gaps, ending at the signed head), and the
+ * snapshot must stand as its newest link says — figures, inputs hash, status, restatement, history.
  */
-export async function chainOf(entityId: number, transaction?: Transaction): Promise<SnapshotModel[]> {
-  return SnapshotModel.findAll({
-    where: { entityId, hash: { [Op.ne]: null } },
-    order: [
-      ["approvedAt", "ASC"],
-      ["id", "ASC"],
-    ],
-    transaction,
-    ...(transaction ? { lock: transaction.LOCK.SHARE } : {}),
-  });
-}
-
-/** Recomputes the snapshot's hash from what is stored and checks its link to the one approved before it. */
 export async function verifySnapshot(id: number, actor: SignedIn): Promise<SnapshotVerify> {
   const row = await visibleSnapshotRow(id, actor);
-  if (!row.hash)
-    return { valid: false, hash: null, prevHash: null, detail: "Not signed off yet: there is no hash to verify." };
-  const entity = (await EntityModel.findByPk(row.entityId))!;
-  const recomputed = sha256(hashedContent(row, entity));
-  if (recomputed !== row.hash) {
-    return {
-      valid: false,
-      hash: row.hash,
-      prevHash: row.prevHash,
-      detail: `The stored content no longer gives the stored hash (it gives ${recomputed.slice(0, 12)}…): the snapshot was altered after approval.`,
-    };
-  }
-  const chain = await chainOf(row.entityId);
-  const at = chain.findIndex((s) => s.id === row.id);
-  const expectedPrev = at > 0 ? chain[at - 1].hash : null;
-  if (row.prevHash !== expectedPrev) {
-    return {
-      valid: false,
-      hash: row.hash,
-      prevHash: row.prevHash,
-      detail: "The link to the previously approved snapshot does not match: the chain was altered.",
-    };
-  }
-  return {
-    valid: true,
-    hash: row.hash,
-    prevHash: row.prevHash,
-    detail: `The hash matches the stored figures and inputs, and links to ${expectedPrev ? "the snapshot approved before it" : "nothing before it (the first approved snapshot of the entity)"}.`,
-  };
+  const chain = await verifyChain(row.entityId);
+  const own = chain.problems.filter((p) => p.snapshotId === row.id);
+  const result = (valid: boolean, detail: string) => ({ valid, hash: row.hash, prevHash: row.prevHash, detail });
+  if (own.length) return result(false, own.map((p) => p.detail).join(" "));
+  const signed = chain.bodies.filter((b) => b.snapshotId === row.id);
+  if (!row.hash && signed.length === 0) return result(false, "Not signed off yet: there is no seal to verify.");
+  if (!chain.valid)
+    return result(
+      false,
+      `The snapshot stands as signed, but the entity's chain does not verify: ${chain.problems.map((p) => p.detail).join(" ")}`,
+    );
+  const newest = signed.at(-1)!;
+  return result(
+    true,
+    `The stored figures, inputs hash, status, restatement and history match what link ${newest.seq} of ${chain.links} signed (${newest.kind}), with the server's key; the entity's chain is whole up to its signed head.`,
+  );
+}
+
+/** GET /api/entities/:code/chain/verify: the entity's whole chain, in words. */
+export async function verifyEntityChain(code: string): Promise<ChainVerify> {
+  const entity = await EntityModel.findOne({ where: { code } });
+  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const chain = await verifyChain(entity.id);
+  const more = chain.problems.length - 1;
+  const detail = chain.valid
+    ? chain.links
+      ? `${code}: all ${chain.links} links carry the server's signature, follow each other without a gap up to the signed head, and every signed-off snapshot stands as its newest link says.`
+      : `${code}: nothing is signed off yet, so the chain is empty.`
+    : `${code}: ${chain.problems[0].detail}${more > 0 ? ` (and ${more} more problem${more > 1 ? "s" : ""})` : ""}`;
+  return { entity: code, valid: chain.valid, links: chain.links, problems: chain.problems, detail };
 }

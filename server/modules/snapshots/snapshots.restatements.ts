@@ -2,6 +2,7 @@ import type { Transaction } from "sequelize";
 import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
 import { recordAudit } from "../audit/audit.service";
+import { appendLink } from "../snapshot-chain/snapshot-chain";
 import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import { snapshotEvent, withEvent } from "./snapshot-events";
 import type { SignedIn } from "../../kit/actor";
@@ -83,6 +84,8 @@ async function flagSignedOff(
       },
       { transaction },
     );
+    // The flag is signed into the entity's chain: it cannot be cleared behind the application's back.
+    await appendLink(snapshot, "restated", transaction);
     await recordAudit(
       actor,
       "snapshot.restated",

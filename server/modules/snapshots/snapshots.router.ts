@@ -8,9 +8,10 @@ import {
   snapshotListQuerySchema,
 } from "../../../shared/schemas/snapshot";
 import { idParamSchema } from "../../../shared/schemas/common";
+import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import * as snapshots from "./snapshots.service";
 import { getSnapshot, listSnapshots, snapshotPack } from "./snapshots.read";
-import { verifySnapshot } from "./snapshots.chain";
+import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
 import { sendDownload } from "../../http/download";
 
 export function snapshotsRouter() {
@@ -49,6 +50,10 @@ export function snapshotsRouter() {
   r.get("/api/snapshots/:id/verify", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await verifySnapshot(id, signedInActor(req)));
+  });
+  r.get("/api/entities/:code/chain/verify", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    res.json(await verifyEntityChain(code));
   });
   return r.router;
 }

@@ -16,7 +16,7 @@ import {
 } from "../../../shared/schemas/snapshot";
 import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
-import { chainOf, hashedContent, sha256 } from "./snapshots.chain";
+import { appendLink } from "../snapshot-chain/snapshot-chain";
 import type { SignedIn } from "../../kit/actor";
 import { checkVersion } from "../../kit/stale";
 import { entityByCode } from "../../kit/lookups";
@@ -243,14 +243,15 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     }
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "approved");
-    const chain = await chainOf(entity.id, transaction);
     row.status = "approved";
     row.approvedBy = actor.user.id;
-    row.approvedAt = new Date(); // milliseconds, as DATETIME(3) keeps them: the hash is recomputed from the stored value
-    row.prevHash = chain.length ? chain[chain.length - 1].hash : null;
-    row.hash = sha256(hashedContent(row, entity));
+    row.approvedAt = new Date(); // milliseconds, as DATETIME(3) keeps them: the signature is checked against the stored value
     row.historyJson = withEvent(row, event(actor, "approved", body.comment));
     row.version = row.version + 1;
+    // The seal: a signed link of the entity's chain over everything the snapshot now holds.
+    const link = await appendLink(row, "sealed", transaction);
+    row.hash = link.mac;
+    row.prevHash = link.prevMac;
     await row.save({ transaction });
     // The quarter's determination is frozen with the snapshot: approved, never recomputed.
     await refreshDeterminations(entity.id, transaction);
@@ -308,12 +309,16 @@ export async function lockForFiling(
   return { row, entity, asFiled: { ...dto, status: "filed" } };
 }
 
-/** Filing, last step: the snapshot is filed (its figures and hash do not change). */
+/**
+ * Filing, once the pack reached the supervisor: the snapshot is filed (its figures and seal do not
+ * change) and the chain signs it, with the pack's sha256 and Message-ID.
+ */
 export async function recordFiled(
   row: SnapshotModel,
   detail: string,
   actor: SignedIn,
   transaction: Transaction,
+  filed: { filingId: number; packSha256: string; messageId: string | null },
 ): Promise<void> {
   await row.update(
     { status: "filed", historyJson: withEvent(row, event(actor, "filed", detail)), version: row.version + 1 },
@@ -322,4 +327,15 @@ export async function recordFiled(
   // Its determination is filed too (only the status moves; the entity is not locked here, as the
   // snapshot already is and the lock order puts the entity first).
   await DeterminationModel.update({ status: "filed" }, { where: { snapshotId: row.id }, transaction });
+  await appendLink(row, "filed", transaction, filed);
+}
+
+/** The supervisor acknowledged a filing: the chain signs which pack they acknowledged (the snapshot does not change). */
+export async function recordAcknowledged(
+  snapshotId: number,
+  acknowledged: { filingId: number; packSha256: string; by: string },
+  transaction: Transaction,
+): Promise<void> {
+  const row = (await SnapshotModel.findByPk(snapshotId, { transaction, lock: transaction.LOCK.SHARE }))!;
+  await appendLink(row, "acknowledged", transaction, acknowledged);
 }

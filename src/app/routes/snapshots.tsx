@@ -9,6 +9,7 @@ import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
 import { snapshotKeys, snapshotQueries } from "@/features/snapshots/api/snapshot-queries";
 import { filingQueries } from "@/features/filings/api/filing-queries";
+import { FilingDelivery } from "@/features/filings/components/filing-delivery";
 import { PrepareSnapshotForm } from "@/features/snapshots/components/prepare-snapshot-form";
 import { SnapshotDetail } from "@/features/snapshots/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/snapshots/components/snapshot-list-table";
@@ -111,7 +112,7 @@ function SelectedSnapshot({
   };
   // The pack went while the screen was open: the quarter is filed now, so read the snapshot (and the list's status) again.
   const queryClient = useQueryClient();
-  const sentMeanwhile = data?.status === "approved" && filing.filing?.delivery === "sent";
+  const sentMeanwhile = data?.status === "approved" && !!filing.filing && filing.filing.delivery !== "pending";
   useEffect(() => {
     if (sentMeanwhile) void queryClient.invalidateQueries({ queryKey: snapshotKeys.all() });
   }, [sentMeanwhile, queryClient]);
@@ -135,6 +136,7 @@ function SelectedSnapshot({
         onPrepared={onPrepared}
         filing={filing}
         filingHref={filingHref}
+        filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
       />
     </>

@@ -52,3 +52,20 @@ export function useAcknowledgeFiling(id: number) {
         : undefined,
   });
 }
+
+/**
+ * The CRO sends a filing that did not reach everyone to the recipients not yet accepted; the
+ * answer is the filing as it now stands. The snapshots follow (the first acceptance files the quarter).
+ */
+export function useFinishFiling(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => api.post(`${base(id)}/deliver`, {}, filingSchema),
+    onSuccess: (filing) => {
+      queryClient.setQueryData(filingKeys.list(), (list: Filing[] | undefined) =>
+        list?.map((f) => (f.id === filing.id ? filing : f)),
+      );
+      return queryClient.invalidateQueries();
+    },
+  });
+}

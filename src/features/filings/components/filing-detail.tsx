@@ -8,6 +8,7 @@ import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";
 import { filingPackHref } from "../api/filing-queries";
 import { AcknowledgeReceipt } from "./acknowledge-receipt";
+import { FilingDelivery } from "./filing-delivery";
 import { HeldFileCheck } from "./held-file-check";
 import { ServerCopyCheck } from "./server-copy-check";
 
@@ -46,6 +47,7 @@ export function FilingDetail({ filing, role, regime }: { filing: Filing; role: R
           </span>
         </Figure>
       </dl>
+      {(role === "analyst" || role === "cro") && <FilingDelivery filing={filing} role={role} />}
       <DownloadButton
         href={filingPackHref(filing.id)}
         fallbackName={filing.fileName}

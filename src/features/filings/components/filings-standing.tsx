@@ -4,13 +4,15 @@ import { quarterLabel } from "@shared/backtest/quarters";
 import { formatDateTime, plural } from "@/lib/format";
 
 /**
- * Where the filings stand: how many, how many wait for acknowledgement, the latest one sent, and
- * how many still wait for the mail server. A pending pack has reached nobody, so it neither waits
- * for an acknowledgement nor counts as sent (a regulator never receives one; analysts and the CRO do).
+ * Where the filings stand: how many, how many wait for acknowledgement, the latest one sent, how
+ * many reached only some recipients, and how many still wait for the mail server. A pending pack
+ * has reached nobody, so it neither waits for an acknowledgement nor counts as sent (a regulator
+ * never receives one; analysts and the CRO do); a partly delivered one reached the supervisor.
  */
 export function FilingsStanding({ filings, role }: { filings: Filing[]; role: Role }) {
-  const sent = filings.filter((f) => f.delivery === "sent");
+  const sent = filings.filter((f) => f.delivery !== "pending");
   const pending = filings.length - sent.length;
+  const partial = filings.filter((f) => f.delivery === "partial").length;
   const waiting = sent.filter((f) => f.acknowledgedAt === null).length;
   // The newest by the time the mail server took it: a pack that waited goes out after later ones.
   const latest = sent.reduce<Filing | undefined>(
@@ -48,6 +50,14 @@ export function FilingsStanding({ filings, role }: { filings: Filing[]; role: Ro
           )}
         </dd>
       </div>
+      {partial > 0 && role !== "regulator" && (
+        <div>
+          <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Partly delivered</dt>
+          <dd className="figures font-medium" data-testid="filings-partial">
+            {plural(partial, "pack", "packs")} not yet with every recipient
+          </dd>
+        </div>
+      )}
       {pending > 0 && (
         <div>
           <dt className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Not sent yet</dt>

@@ -1,7 +1,9 @@
+import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import { quarterLabel, quarterStart } from "@shared/backtest/quarters";
 import { type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
+import type { Filing } from "@shared/schemas/filing";
 import { Notice } from "@/components/ui/notice";
 import { formatDateTime, plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -56,6 +58,7 @@ export function SnapshotDetail({
   onPrepared,
   filing,
   filingHref,
+  filingDelivery,
   updating,
 }: {
   snapshot: Snapshot;
@@ -66,6 +69,8 @@ export function SnapshotDetail({
   /** A filed snapshot's filing, looked up by the screen. */
   filing: FilingLookup;
   filingHref: (id: number) => string;
+  /** Where the filing stands for each recipient, with what the CRO can do about it (from the filings feature). */
+  filingDelivery?: (filing: Filing) => ReactNode;
   updating?: boolean;
 }) {
   const quarter = quarterLabel(snapshot.quarterEnd);
@@ -110,6 +115,7 @@ export function SnapshotDetail({
         role={role}
         lookup={filing}
         filingHref={filingHref}
+        delivery={filingDelivery}
       />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <SnapshotRecord snapshot={snapshot} />

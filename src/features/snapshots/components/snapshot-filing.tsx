@@ -1,4 +1,4 @@
-import { useRef, useState } from "react";
+import { useRef, useState, type ReactNode } from "react";
 import { flushSync } from "react-dom";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
@@ -37,11 +37,13 @@ function filingRefusal(error: unknown, entity: string): string | undefined {
   return formLevelMessage(error) ?? error.message;
 }
 
-/** What happened to the pack just filed, by its delivery: the mail server took it, or it is kept until the server answers. */
+/** What happened to the pack just filed, recipient by recipient, in the server's words. */
 function filedInWords(quarter: string, filing: Filing): string {
-  return filing.delivery === "sent"
-    ? `${quarter} is filed with the supervisor: the pack went by e-mail to ${filing.recipients.join(", ")}.`
-    : `${quarter}'s pack is kept; the mail server did not take it yet — it is sent automatically as soon as the server answers, and the quarter becomes filed then.`;
+  if (filing.delivery === "sent")
+    return `${quarter} is filed with the supervisor: the pack went by e-mail to ${filing.recipients.join(", ")}.`;
+  if (filing.delivery === "partial")
+    return `${quarter} is filed, but not every recipient has the pack. ${filing.summary} Send it to the rest below.`;
+  return `${quarter}'s pack is kept; the mail server did not take it yet — it is sent automatically as soon as the server answers, and the quarter becomes filed then.`;
 }
 
 function FileWithSupervisor({
@@ -115,10 +117,18 @@ function FileWithSupervisor({
 }
 
 /** What was sent, to whom, with which SHA-256, and whether the supervisor acknowledged it. */
-function FilingRecord({ filing, filingHref }: { filing: Filing; filingHref: string }) {
+function FilingRecord({
+  filing,
+  filingHref,
+  delivery,
+}: {
+  filing: Filing;
+  filingHref: string;
+  delivery?: (filing: Filing) => ReactNode;
+}) {
   return (
     <div className="flex flex-col gap-2" data-testid="snapshot-filing">
-      {filing.delivery === "pending" && (
+      {!delivery && filing.delivery === "pending" && (
         <Notice role="status" testId="filing-pending">
           Filed by {filing.sentBy} and kept, but the mail server did not take the message
           {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers;
@@ -153,6 +163,7 @@ function FilingRecord({ filing, filingHref }: { filing: Filing; filingHref: stri
           )}
         </dd>
       </dl>
+      {delivery?.(filing)}
       <p className="text-sm">
         <Link to={filingHref}>Open the filing on the Filings screen</Link>
       </p>
@@ -166,11 +177,13 @@ export function SnapshotFiling({
   role,
   lookup,
   filingHref,
+  delivery,
 }: {
   snapshot: Snapshot;
   role: Role;
   lookup: FilingLookup;
   filingHref: (id: number) => string;
+  delivery?: (filing: Filing) => ReactNode;
 }) {
   const [justFiled, setJustFiled] = useState<Filing>();
   const [alreadyFiled, setAlreadyFiled] = useState<AlreadyFiled>();
@@ -180,7 +193,7 @@ export function SnapshotFiling({
   const filing = lookup.filing ?? justFiled;
 
   let filingPart = null;
-  if (filing) filingPart = <FilingRecord filing={filing} filingHref={filingHref(filing.id)} />;
+  if (filing) filingPart = <FilingRecord filing={filing} filingHref={filingHref(filing.id)} delivery={delivery} />;
   else if (snapshot.status === "filed")
     filingPart = lookup.error ? (
       <FormMessage>{isApiError(lookup.error) ? lookup.error.message : "The filing could not be read."}</FormMessage>

@@ -207,7 +207,7 @@ describe("Admin › Users", () => {
     expect(screen.queryByText(/can no longer sign in/)).not.toBeInTheDocument();
     // The next change is built on the version now shown.
     await user.click(screen.getByRole("button", { name: "Disable Ana Lyst" }));
-    await vi.waitFor(() => expect(api.callsTo("PATCH", "/api/users/2")).toHaveLength(2));
+    await vi.waitFor(() => expect(api.callsTo("PATCH", "/api/users/2")).toHaveLength(2), { timeout: 8000 });
     expect(api.callsTo("PATCH", "/api/users/2")[1].body).toEqual({ disabled: true, version: 4 });
   });
 
@@ -314,7 +314,9 @@ describe("Admin › Users", () => {
 
     expect(await screen.findByText("Approved: Ana Lyst is now Chief risk officer.")).toBeInTheDocument();
     expect(api.callsTo("POST", "/api/role-requests/11/approve")).toHaveLength(1);
-    await vi.waitFor(() => expect(screen.getByRole("combobox", { name: "Role of Ana Lyst" })).toHaveValue("cro"));
+    await vi.waitFor(() => expect(screen.getByRole("combobox", { name: "Role of Ana Lyst" })).toHaveValue("cro"), {
+      timeout: 8000,
+    });
   });
 
   it("when a new user is invited as an administrator, then the form says it waits for approval and the list of links shows open and expired ones", async () => {

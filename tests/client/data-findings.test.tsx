@@ -117,7 +117,9 @@ describe("Data › data-quality findings", () => {
       note: "Desk closed for the move; no positions held.",
       version: 3,
     });
-    await vi.waitFor(() => expect(api.callsTo("GET", "/api/findings").length).toBeGreaterThan(before));
+    await vi.waitFor(() => expect(api.callsTo("GET", "/api/findings").length).toBeGreaterThan(before), {
+      timeout: 8000,
+    });
   });
 
   it("resolving with a note closes the finding and says so; too short a note is refused beside the field", async () => {

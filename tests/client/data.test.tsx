@@ -250,8 +250,10 @@ describe("Data › upload preview", () => {
     await user.click(screen.getByRole("button", { name: "Yes, discard" }));
 
     expect(api.callsTo("DELETE", "/api/uploads/41")).toHaveLength(1);
-    await vi.waitFor(() => expect(router.state.location.search).toBe(""));
-    await vi.waitFor(() => expect(screen.queryByLabelText("Summary of the file")).not.toBeInTheDocument());
+    await vi.waitFor(() => expect(router.state.location.search).toBe(""), { timeout: 8000 });
+    await vi.waitFor(() => expect(screen.queryByLabelText("Summary of the file")).not.toBeInTheDocument(), {
+      timeout: 8000,
+    });
   });
 
   it("clicking a row of the history opens that upload's preview", async () => {
@@ -374,7 +376,7 @@ describe("Data › sending a file", () => {
     expect(FakeXhr.last).toBeUndefined();
 
     fireEvent.drop(zone, { dataTransfer: { files: [csv("a.csv")] } });
-    await vi.waitFor(() => expect(FakeXhr.last).toBeDefined());
+    await vi.waitFor(() => expect(FakeXhr.last).toBeDefined(), { timeout: 8000 });
     expect((FakeXhr.last!.body!.get("file") as File).name).toBe("a.csv");
     expect(await screen.findByRole("progressbar", { name: "Sending a.csv" })).toBeInTheDocument();
   });

@@ -71,7 +71,9 @@ describe("Your account › change your password", () => {
     await user.click(screen.getByRole("button", { name: "Change password" }));
 
     const current = screen.getByLabelText("Current password");
-    await vi.waitFor(() => expect(current).toHaveAccessibleDescription("This is not your current password"));
+    await vi.waitFor(() => expect(current).toHaveAccessibleDescription("This is not your current password"), {
+      timeout: 8000,
+    });
   }, 60_000);
 });
 
@@ -108,7 +110,7 @@ describe("the set-password screen (a link from an e-mail)", () => {
     await screen.findByText("Strong enough.", undefined, SLOW);
     await user.click(screen.getByRole("button", { name: "Set password and sign in" }));
 
-    await vi.waitFor(() => expect(api.callsTo("POST", "/api/invitations/accept")).toHaveLength(1));
+    await vi.waitFor(() => expect(api.callsTo("POST", "/api/invitations/accept")).toHaveLength(1), { timeout: 8000 });
     expect(api.callsTo("POST", "/api/invitations/accept")[0].body).toEqual({ token: TOKEN, password: STRONG });
     // Signed in by the server's answer: the app moves on to the Overview.
     await vi.waitFor(() => expect(router.state.location.pathname).toBe("/"), SLOW);

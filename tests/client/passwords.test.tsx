@@ -67,6 +67,8 @@ describe("Your account › change your password", () => {
 
     await user.type(await screen.findByLabelText("Current password", undefined, SLOW), "a wrong guess");
     await user.type(screen.getByLabelText("New password"), STRONG);
+    // The verdict is worked out as one types; the form sends only once it is known, as a person would see it.
+    expect(await screen.findByText("Strong enough.", undefined, SLOW)).toBeInTheDocument();
     await user.type(screen.getByLabelText("Repeat the new password"), STRONG);
     await user.click(screen.getByRole("button", { name: "Change password" }));
 

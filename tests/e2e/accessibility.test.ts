@@ -277,17 +277,17 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await settled(page);
     await expectAccessible(page, "admin: Overview");
 
-    await open(page, "/admin/users", ["heading", { name: "Add a user" }]);
+    await open(page, "/admin/users", ["heading", { name: "Invite a user" }]);
     await expectAccessible(page, "admin: Users");
-    await page.getByRole("button", { name: "Add user" }).click();
+    await page.getByRole("button", { name: "Send invitation" }).click();
     await page.locator("form [aria-invalid='true']").first().waitFor();
     await expectAccessible(page, "admin: Users, add refused with its errors");
     await page
-      .getByRole("button", { name: /^Reset password of / })
+      .getByRole("button", { name: /^Send reset link to / })
       .first()
       .click();
     await settled(page);
-    await expectAccessible(page, "admin: Users, reset password form open");
+    await expectAccessible(page, "admin: Users, the reset link's confirmation open");
     await keepScreenshot(page, "a11y-admin-users");
 
     await open(page, "/admin/entities", ["heading", { name: "Add an entity" }]);

@@ -177,7 +177,7 @@ export function UsersTable({
                           variant="quiet"
                           size="sm"
                           disabled={busy}
-                          aria-label={`${u.passwordSet ? "Send a password reset link to" : "Send the invitation again to"} ${u.name}`}
+                          aria-label={`${u.passwordSet ? "Send reset link to" : "Invite again:"} ${u.name}`}
                           aria-expanded={pending?.userId === u.id && pending.kind === "link"}
                           onClick={() => {
                             resetAll();

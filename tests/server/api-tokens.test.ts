@@ -9,8 +9,12 @@ import { AuditEventModel } from "../../server/models/audit-event";
 import { UserModel } from "../../server/models/user";
 import { apiTokenListSchema, createdApiTokenSchema } from "../../shared/schemas/api-token";
 import { capitalHistorySchema } from "../../shared/schemas/capital";
-import { createTestUser, sessionCookieFor, unique } from "./helpers";
-import { preparedAndSubmitted, Q3, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { createTestUser, sessionCookieFor, testApp, unique } from "./helpers";
+import { preparedAndSubmitted, Q3, signOffBook, type Book } from "./snapshot-helpers";
+
+// The refusals are audited per client address: the app trusts the local proxy, as a deployment that
+// sets TRUST_PROXY does, so each test can speak for an address of its own through X-Forwarded-For.
+const app = testApp({ trustProxy: ["127.0.0.1", "::1"] });
 
 afterAll(() => sequelize.close());
 

@@ -1,15 +1,25 @@
+import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { createTestUser } from "../server/helpers";
-import { signOffBook, type Book } from "../server/snapshot-helpers";
+import { preparedAndSubmitted, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
 let book: Book;
 let treasuryEmail = "";
 
-/** The shared EU book up to 30 September 2026 with five exceptions in the last 250 days (yellow), VaR and stressed VaR. */
+/**
+ * The shared EU book up to 30 September 2026 with five exceptions in the last 250 days (yellow), VaR and stressed
+ * VaR, and Q3 2026 approved: treasury plans from the latest approved determination only.
+ */
 async function loadBook() {
   book = await signOffBook();
+  const submitted = await preparedAndSubmitted(book);
+  const approved = await request(snapshotApp)
+    .post(`/api/snapshots/${submitted.id}/approve`)
+    .set("Cookie", book.croCookie)
+    .send({});
+  expect(approved.status, JSON.stringify(approved.body)).toBe(200);
   treasuryEmail = (await createTestUser("treasury")).email;
 }
 

@@ -104,6 +104,19 @@ function forecast(over: Partial<ForecastResponse> = {}): ForecastResponse {
     expectedAddOn: 9_982_000,
     nextExceptionCost: 1_250_000,
     today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: true },
+    // The reporting office's forecast starts from current data; Q3 2026's determination is in force.
+    startsFrom: { kind: "current", quarterEnd: null, asOf: "2026-11-27", status: null },
+    inForce: {
+      quarterEnd: "2026-09-30",
+      effectiveFrom: "2026-10-01",
+      counted: 6,
+      zone: "yellow",
+      plusFactor: 0.5,
+      multiplier: 3.5,
+      status: "approved",
+    },
+    bitesFrom: { quarterEnd: "2026-12-31", asOf: "2026-12-31", effectiveFrom: "2027-01-04" },
+    nextExceptionBitesFrom: { quarterEnd: "2026-12-31", asOf: "2026-12-31", effectiveFrom: "2027-01-04" },
     rollOffs: [
       {
         date: "2025-12-04",
@@ -173,6 +186,7 @@ const forecastForQ1 = forecast({
   zones: { green: 0.947545389159951, yellow: 0.05245239251165762, red: 0.000002218328391451454 },
   ifNoNewException: { counted: 2, zone: "green", plusFactor: 0, addOn: 0 },
   expectedAddOn: 2_850_000,
+  bitesFrom: { quarterEnd: "2027-03-31", asOf: "2027-03-31", effectiveFrom: "2027-04-01" },
 });
 
 /** +2 exceptions: 6 → 8, plus factor 0.50 → 0.75, so the requirement grows by 0.25 / 3.5 of itself. */
@@ -184,6 +198,8 @@ const whatIfAnswer: WhatIfResponse = whatIfResponseSchema.parse({
   base: { zone: "yellow", counted: 6, plusFactor: 0.5, multiplier: 3.5, capital: 412_500_000, addOn: 58_928_571 },
   scenario: { zone: "yellow", counted: 8, plusFactor: 0.75, multiplier: 3.75, capital: 441_964_286, addOn: 88_392_857 },
   delta: { counted: 2, plusFactor: 0.25, multiplier: 0.25, capital: 29_464_286, addOn: 29_464_286, zoneChanged: false },
+  startsFrom: { kind: "current", quarterEnd: null, asOf: "2026-11-27", status: null },
+  bitesFrom: { quarterEnd: "2026-12-31", asOf: "2026-12-31", effectiveFrom: "2027-01-04" },
 });
 
 type Handler = Reply | ((c: Call) => Reply);

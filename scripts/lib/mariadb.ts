@@ -64,6 +64,30 @@ function serverAccount(): { user: string; uid: number; gid: number } | null {
   return { user: "mysql", uid: Number(uid), gid: Number(gid) };
 }
 
+/**
+ * The mysql account must be able to walk to .data/: a checkout inside a folder only root may enter
+ * (/root is 0700) leaves no choice but to run mariadbd as root, which is said in the log and in
+ * .data/mariadb-run/account (tests/server/database-privileges.test.ts reads it).
+ */
+function reachableAccount<T extends { user: string }>(account: T | null, dir: string): T | null {
+  const note = path.join(dataRoot, "mariadb-run", "account");
+  mkdirSync(path.dirname(note), { recursive: true });
+  if (!account) {
+    writeFileSync(note, `${process.env.USER ?? "the starting user"}\n`);
+    return null;
+  }
+  try {
+    execFileSync("runuser", ["-u", account.user, "--", "test", "-x", dir], { stdio: "ignore" });
+    writeFileSync(note, `${account.user}\n`);
+    return account;
+  } catch {
+    const why = `the ${account.user} account cannot enter ${dir} (a folder on its path is closed to it)`;
+    console.warn(`[db] running mariadbd as root: ${why}; move the checkout to run it as ${account.user}`);
+    writeFileSync(note, `root\n${why}\n`);
+    return null;
+  }
+}
+
 /** Hands a folder tree to the server's account (once: skipped when it already owns the top). */
 function handOver(dir: string, account: { uid: number; gid: number } | null): void {
   mkdirSync(dir, { recursive: true });
@@ -143,7 +167,7 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
   ensureSystemPackages([MARIADB]);
   const { dataDir, runDir, filesDir, socket, pidFile, logFile } = dirs(port);
   mkdirSync(dataRoot, { recursive: true });
-  const account = serverAccount();
+  const account = reachableAccount(serverAccount(), dataRoot);
   await stopLegacyInstance(port);
 
   const existing = readPid(pidFile);
@@ -167,7 +191,8 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
   handOver(runDir, account);
   handOver(filesDir, account);
   handOver(dataDir, account);
-  const runAs = account ? [`--user=${account.user}`] : [];
+  // mariadbd started by root needs --user; root only where the mysql account cannot reach .data/.
+  const runAs = account ? [`--user=${account.user}`] : process.getuid?.() === 0 ? ["--user=root"] : [];
   if (!existsSync(path.join(dataDir, "mysql"))) {
     console.log(`[db] initialising a private data directory in ${dataDir}`);
     execFileSync(

@@ -39,13 +39,25 @@ describe("the database account and server are confined", () => {
     expect(path.resolve(row.priv!)).toBe(path.join(config.dataDir, "mariadb-run", "files"));
   });
 
-  it("when the private server was started by root, then mariadbd itself runs as another account", () => {
+  it("when the private server was started by root, then mariadbd runs as the mysql account wherever that account can reach the checkout", () => {
     const pidFile = path.join(config.dataDir, "mariadb-run", `mysqld-${config.db.port}.pid`);
     const pid = readFileSync(pidFile, "utf8").trim();
     const owner = execFileSync("ps", ["-o", "user=", "-p", pid], { encoding: "utf8" }).trim();
     const me = execFileSync("id", ["-un"], { encoding: "utf8" }).trim();
-    // Started by root: Debian's mysql account; started by anyone else: that user (never root).
-    expect(owner).not.toBe("root");
-    expect(owner).toBe(me === "root" ? "mysql" : me);
+    const [account, why] = readFileSync(path.join(config.dataDir, "mariadb-run", "account"), "utf8").split("\n");
+    expect(owner).toBe(account);
+    if (me !== "root") {
+      expect(owner).toBe(me);
+      return;
+    }
+    if (owner === "root") {
+      // Only allowed when the mysql account really cannot reach the checkout (e.g. under /root, 0700).
+      expect(why).toMatch(/cannot enter/);
+      expect(() =>
+        execFileSync("runuser", ["-u", "mysql", "--", "test", "-x", config.dataDir], { stdio: "ignore" }),
+      ).toThrow();
+      return;
+    }
+    expect(owner).toBe("mysql");
   });
 });

@@ -25,6 +25,11 @@ export class ObservationModel extends Model<
   declare es975: number | null;
   declare ses: number | null;
   declare rtpl: number | null;
+  declare imaDrc: number | null;
+  declare sbm: number | null;
+  declare rrao: number | null;
+  declare saDrc: number | null;
+  declare saGa: number | null;
   /** The upload whose commit wrote this version: its committer and commit time are the version's who and when. */
   declare uploadId: number;
 }
@@ -49,6 +54,11 @@ ObservationModel.init(
     es975: money("es975", "es_975"),
     ses: money("ses", "ses"),
     rtpl: money("rtpl", "rtpl"),
+    imaDrc: money("imaDrc", "ima_drc"),
+    sbm: money("sbm", "sbm"),
+    rrao: money("rrao", "rrao"),
+    saDrc: money("saDrc", "sa_drc"),
+    saGa: money("saGa", "sa_ga"),
     uploadId: { type: DataTypes.INTEGER, allowNull: false },
   },
   { sequelize, tableName: "observations", timestamps: false },

@@ -18,6 +18,14 @@ export interface Observation {
   ses?: number | null;
   /** Risk-theoretical P&L (FRTB P&L attribution). */
   rtpl?: number | null;
+  /** FRTB internal-model default risk charge (MAR33.18): the desk's own, or the desks in the model together. */
+  imaDrc?: number | null;
+  /** FRTB standardised figures (MAR20.2): sensitivities-based method, residual risk add-on, default risk charge. */
+  sbm?: number | null;
+  rrao?: number | null;
+  saDrc?: number | null;
+  /** Top of house only: the standardised charge of the desks in the model together, where the upstream engine supplies it. */
+  saGa?: number | null;
 }
 
 export type Zone = "green" | "yellow" | "red";

@@ -38,6 +38,11 @@ const NUMERIC_FIELDS = [
   "es975",
   "ses",
   "rtpl",
+  "imaDrc",
+  "sbm",
+  "rrao",
+  "saDrc",
+  "saGa",
 ] as const;
 
 /**

@@ -4,6 +4,7 @@ import {
   CELL_PATTERNS,
   ALL_COLUMNS,
   AMOUNT_COLUMNS,
+  NOT_NEGATIVE_COLUMNS,
   POSITIVE_COLUMNS,
   REQUIRED_COLUMNS,
   observationCellsSchema,
@@ -103,6 +104,11 @@ function newRow(line: number, portfolio: string, date: string): ParsedRow {
     es_975: null,
     ses: null,
     rtpl: null,
+    ima_drc: null,
+    sbm: null,
+    rrao: null,
+    sa_drc: null,
+    sa_ga: null,
   };
 }
 
@@ -189,6 +195,11 @@ const SET_AMOUNT_ORDER = [
   "es_975",
   "ses",
   "rtpl",
+  "ima_drc",
+  "sbm",
+  "rrao",
+  "sa_drc",
+  "sa_ga",
 ];
 if (SET_AMOUNT_ORDER.join() !== AMOUNT_COLUMNS.join()) throw new Error("setAmount() must follow AMOUNT_COLUMNS");
 
@@ -223,6 +234,21 @@ function setAmount(row: ParsedRow, index: number, value: number): void {
       break;
     case 9:
       row.rtpl = value;
+      break;
+    case 10:
+      row.ima_drc = value;
+      break;
+    case 11:
+      row.sbm = value;
+      break;
+    case 12:
+      row.rrao = value;
+      break;
+    case 13:
+      row.sa_drc = value;
+      break;
+    case 14:
+      row.sa_ga = value;
       break;
     default:
       throw new Error(`no amount column ${index}`);
@@ -285,7 +311,7 @@ class LineChecks {
         ? KIND_TEXT
         : POSITIVE_COLUMNS.has(c as AmountColumn)
           ? KIND_POSITIVE
-          : c === "ses"
+          : NOT_NEGATIVE_COLUMNS.has(c as AmountColumn)
             ? KIND_NOT_NEGATIVE
             : KIND_SIGNED,
     );
@@ -386,8 +412,8 @@ class LineChecks {
       if (POSITIVE_COLUMNS.has(column) && !(value > 0)) {
         this.fail(line, column, `${column} must be a positive amount (VaR is reported as a loss amount above zero)`);
         bad = true;
-      } else if (column === "ses" && value < 0) {
-        this.fail(line, column, "ses cannot be negative");
+      } else if (NOT_NEGATIVE_COLUMNS.has(column) && value < 0) {
+        this.fail(line, column, `${column} cannot be negative`);
         bad = true;
       }
       row[column] = value;

@@ -15,6 +15,11 @@ export const observationSchema = z.object({
   es975: z.number().nullable(),
   ses: z.number().nullable(),
   rtpl: z.number().nullable(),
+  imaDrc: z.number().nullable(),
+  sbm: z.number().nullable(),
+  rrao: z.number().nullable(),
+  saDrc: z.number().nullable(),
+  saGa: z.number().nullable(),
   version: z.number().int(),
 });
 export type ObservationDto = z.infer<typeof observationSchema>;

@@ -2,7 +2,22 @@ import { z } from "zod";
 
 /** The daily data file: required and optional columns, in the order the template writes them. */
 export const REQUIRED_COLUMNS = ["portfolio", "date", "actual_pnl", "hypothetical_pnl", "var_99"] as const;
-export const OPTIONAL_COLUMNS = ["var_975", "svar_99", "var_10d", "svar_10d", "es_975", "ses", "rtpl"] as const;
+export const OPTIONAL_COLUMNS = [
+  "var_975",
+  "svar_99",
+  "var_10d",
+  "svar_10d",
+  "es_975",
+  "ses",
+  "rtpl",
+  // FRTB charges (docs/rules.md#frtb-aggregation): IMA default risk charge; standardised SBM, RRAO, DRC; and at
+  // the top of house the standardised charge of the desks in the model together.
+  "ima_drc",
+  "sbm",
+  "rrao",
+  "sa_drc",
+  "sa_ga",
+] as const;
 export const ALL_COLUMNS = [...REQUIRED_COLUMNS, ...OPTIONAL_COLUMNS] as const;
 export type CsvColumn = (typeof ALL_COLUMNS)[number];
 export const AMOUNT_COLUMNS = ALL_COLUMNS.filter((c) => c !== "portfolio" && c !== "date") as AmountColumn[];
@@ -12,7 +27,7 @@ export type AmountColumn = Exclude<CsvColumn, "portfolio" | "date">;
 export const UPLOAD_MAX_BYTES = 16 * 1024 * 1024;
 export const UPLOAD_MAX_LABEL = "16 MB";
 
-/** Risk measures must be positive; P&L may have any sign; SES may be zero. */
+/** Risk measures must be positive; P&L may have any sign; SES and the FRTB charges may be zero. */
 export const POSITIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set([
   "var_99",
   "var_975",
@@ -20,6 +35,16 @@ export const POSITIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set([
   "var_10d",
   "svar_10d",
   "es_975",
+]);
+
+/** Charges that may be zero but never negative. */
+export const NOT_NEGATIVE_COLUMNS: ReadonlySet<AmountColumn> = new Set([
+  "ses",
+  "ima_drc",
+  "sbm",
+  "rrao",
+  "sa_drc",
+  "sa_ga",
 ]);
 
 /**

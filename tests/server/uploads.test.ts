@@ -263,13 +263,35 @@ describe("uploading daily data", () => {
     expect((await UploadModel.scope("withContent").findByPk(res.body.id))!.content).toBeNull();
   });
 
+  it("when a file carries the FRTB charges, then they are stored and read back; a negative charge is refused with its line", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const [d1, d2] = weekdays("2026-11-02", 2);
+    const header = `${HEADER},ima_drc,sbm,rrao,sa_drc,sa_ga`;
+    const bad = await uploadCsv(app, cookie, `${header}\n${portfolio.code},${d1},1,1,10,5,-40,2,3,\n`);
+    expect(bad.status).toBe(201);
+    expect(bad.body).toMatchObject({ valid: 0, invalid: 1 });
+    expect(bad.body.errors).toEqual([
+      expect.objectContaining({ line: 2, column: "sbm", message: "sbm cannot be negative" }),
+    ]);
+
+    const csv = `${header}\n${portfolio.code},${d1},1,1,10,5,40,2,3,\n${portfolio.code},${d2},1,1,10,0,41.5,0,3,30\n`;
+    const res = await uploadCsv(app, cookie, csv);
+    expect(res.body).toMatchObject({ valid: 2, invalid: 0 });
+    expect((await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie)).status).toBe(200);
+    const stored = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: d2 } });
+    expect(stored).toMatchObject({ imaDrc: 0, sbm: 41.5, rrao: 0, saDrc: 3, saGa: 30 });
+    const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations`).set("Cookie", cookie);
+    expect(read.body[0]).toMatchObject({ imaDrc: 5, sbm: 40, rrao: 2, saDrc: 3, saGa: null });
+  });
+
   it("when the template is downloaded, then it has every column in order and its example rows parse", async () => {
     const { cookie } = await ingestFixture();
     const res = await request(app).get("/api/uploads/template.csv").set("Cookie", cookie);
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toMatch(/text\/csv/);
     expect(res.text.split("\n")[0]).toBe(
-      "portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,svar_99,var_10d,svar_10d,es_975,ses,rtpl",
+      "portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,svar_99,var_10d,svar_10d,es_975,ses,rtpl," +
+        "ima_drc,sbm,rrao,sa_drc,sa_ga",
     );
   });
 

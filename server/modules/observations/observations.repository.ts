@@ -200,6 +200,11 @@ export async function loadSeries(
     es975: num(r.es_975),
     ses: num(r.ses),
     rtpl: num(r.rtpl),
+    imaDrc: num(r.ima_drc),
+    sbm: num(r.sbm),
+    rrao: num(r.rrao),
+    saDrc: num(r.sa_drc),
+    saGa: num(r.sa_ga),
   }));
 }
 

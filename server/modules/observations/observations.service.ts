@@ -20,6 +20,11 @@ export async function listObservations(code: string, range: { from?: string; to?
     es975: o.es975 ?? null,
     ses: o.ses ?? null,
     rtpl: o.rtpl ?? null,
+    imaDrc: o.imaDrc ?? null,
+    sbm: o.sbm ?? null,
+    rrao: o.rrao ?? null,
+    saDrc: o.saDrc ?? null,
+    saGa: o.saGa ?? null,
     version: o.version,
   }));
 }

@@ -111,6 +111,11 @@ export function templateCsv(): string {
     es_975: null,
     ses: null,
     rtpl: null,
+    ima_drc: null,
+    sbm: null,
+    rrao: null,
+    sa_drc: null,
+    sa_ga: null,
   });
   return serialiseObservationCsv(
     [example("2026-09-29", -1250000.5, -1180000), example("2026-09-30", 860000, 910250.25)],

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
 import { zoneSchema } from "./backtest";
+import { frtbFiguresSchema } from "./frtb";
 
 /**
  * Quarter snapshots: the figures of one entity at one quarter end, frozen for sign-off.
@@ -96,6 +97,13 @@ export const snapshotFiguresSchema = z.object({
   addOn: z.number().nullable(),
   capitalNote: z.string().nullable(),
   desks: z.array(snapshotDeskSchema),
+  /**
+   * FRTB: the MAR33 aggregation at the quarter's last business day with the desks' statuses this
+   * quarter's determination set (absent in snapshots made before it was kept; null without its
+   * inputs, `frtbNote` says why).
+   */
+  frtb: frtbFiguresSchema.nullable().optional(),
+  frtbNote: z.string().nullable().optional(),
 });
 export type SnapshotFigures = z.infer<typeof snapshotFiguresSchema>;
 

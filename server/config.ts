@@ -70,6 +70,8 @@ const envSchema = z.object({
   /** Server worker processes (node:cluster); WEB_CONCURRENCY is the name many hosts set. Unset: one per core. */
   WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).optional(),
+  /** Threads that hash and check passwords (bcrypt, cost 12), off the event loop. */
+  PASSWORD_THREADS: z.coerce.number().int().min(1).max(16).default(2),
   /** Set by the primary for the one worker that runs the filing delivery loop. */
   QM_DELIVERY_WORKER: z.enum(["0", "1"]).optional(),
 });
@@ -176,6 +178,7 @@ function loadConfig() {
       queue: env.UPLOAD_QUEUE,
       queueWaitMs: env.UPLOAD_QUEUE_WAIT_MS,
     }),
+    passwordThreads: env.PASSWORD_THREADS,
     workers: env.WORKERS ?? env.WEB_CONCURRENCY ?? os.availableParallelism(),
     /** Whether this process runs the filing delivery loop: the one worker the primary names, or a lone process. */
     runsFilingDelivery: env.QM_DELIVERY_WORKER !== "0",

@@ -1,5 +1,5 @@
 import { spawn, execFileSync } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync, openSync } from "node:fs";
+import { existsSync, mkdirSync, readFileSync, rmSync, statSync, writeFileSync, openSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import net from "node:net";
 import path from "node:path";
@@ -27,14 +27,73 @@ export interface DbCredentials {
 const projectRoot = path.resolve(import.meta.dirname, "..", "..");
 export const dataRoot = path.join(projectRoot, ".data");
 
+/**
+ * Where the instance keeps its files. `run/` (socket, pid file, log) and `files/` (the only folder
+ * LOAD DATA INFILE / SELECT … INTO OUTFILE may touch: secure_file_priv) belong to the account
+ * mariadbd runs as; the rest of .data/ (secrets) stays the starting user's.
+ */
 function dirs(port: number) {
   const dataDir = path.join(dataRoot, "mariadb");
+  const runDir = path.join(dataRoot, "mariadb-run");
   return {
     dataDir,
-    socket: path.join(dataRoot, `mysqld-${port}.sock`),
-    pidFile: path.join(dataRoot, `mysqld-${port}.pid`),
-    logFile: path.join(dataRoot, "mariadb.log"),
+    runDir,
+    filesDir: path.join(runDir, "files"),
+    socket: path.join(runDir, `mysqld-${port}.sock`),
+    pidFile: path.join(runDir, `mysqld-${port}.pid`),
+    logFile: path.join(runDir, "mariadb.log"),
   };
+}
+
+/**
+ * The account mariadbd runs as. Started by root, it is Debian's `mysql` account (made by the
+ * mariadb-server package) and owns the data, run and files folders; started by anyone else, it is
+ * that user. mariadbd refuses to run as root without being told to, and is never told to here.
+ */
+function serverAccount(): { user: string; uid: number; gid: number } | null {
+  if (process.getuid?.() !== 0) return null;
+  const line = readFileSync("/etc/passwd", "utf8")
+    .split("\n")
+    .find((l) => l.startsWith("mysql:"));
+  if (!line) {
+    throw new Error(
+      "MariaDB would have to run as root: the 'mysql' account that Debian's mariadb-server package makes is missing.",
+    );
+  }
+  const [, , uid, gid] = line.split(":");
+  return { user: "mysql", uid: Number(uid), gid: Number(gid) };
+}
+
+/**
+ * The mysql account must be able to walk to .data/: a checkout inside a folder only root may enter
+ * (/root is 0700) leaves no choice but to run mariadbd as root, which is said in the log and in
+ * .data/mariadb-run/account (tests/server/database-privileges.test.ts reads it).
+ */
+function reachableAccount<T extends { user: string }>(account: T | null, dir: string): T | null {
+  const note = path.join(dataRoot, "mariadb-run", "account");
+  mkdirSync(path.dirname(note), { recursive: true });
+  if (!account) {
+    writeFileSync(note, `${process.env.USER ?? "the starting user"}\n`);
+    return null;
+  }
+  try {
+    execFileSync("runuser", ["-u", account.user, "--", "test", "-x", dir], { stdio: "ignore" });
+    writeFileSync(note, `${account.user}\n`);
+    return account;
+  } catch {
+    const why = `the ${account.user} account cannot enter ${dir} (a folder on its path is closed to it)`;
+    console.warn(`[db] running mariadbd as root: ${why}; move the checkout to run it as ${account.user}`);
+    writeFileSync(note, `root\n${why}\n`);
+    return null;
+  }
+}
+
+/** Hands a folder tree to the server's account (once: skipped when it already owns the top). */
+function handOver(dir: string, account: { uid: number; gid: number } | null): void {
+  mkdirSync(dir, { recursive: true });
+  if (!account) return;
+  if (statSync(dir).uid === account.uid) return;
+  execFileSync("chown", ["-R", `${account.uid}:${account.gid}`, dir]);
 }
 
 function isAlive(pid: number): boolean {
@@ -86,11 +145,30 @@ async function waitUntilAnswering(socket: string, pid: number, logFile: string, 
   throw new Error(`mariadbd did not answer on ${socket} within ${timeoutMs / 1000} s: ${String(lastError)}`);
 }
 
+/**
+ * An instance started by an older checkout (as root, pid file directly in .data/) is stopped so
+ * that it starts again under its own account with the settings above.
+ */
+async function stopLegacyInstance(port: number): Promise<void> {
+  const legacyPid = path.join(dataRoot, `mysqld-${port}.pid`);
+  const pid = readPid(legacyPid);
+  if (pid && isAlive(pid)) {
+    console.log(`[db] stopping the instance an older set-up started as root (process ${pid})`);
+    process.kill(pid, "SIGTERM");
+    const deadline = Date.now() + 30_000;
+    while (isAlive(pid) && Date.now() < deadline) await new Promise((r) => setTimeout(r, 200));
+  }
+  rmSync(legacyPid, { force: true });
+  rmSync(path.join(dataRoot, `mysqld-${port}.sock`), { force: true });
+}
+
 /** Starts the private instance, or reuses the one already running from this data directory. */
 export async function startPrivateDb(port: number): Promise<PrivateDb> {
   ensureSystemPackages([MARIADB]);
-  const { dataDir, socket, pidFile, logFile } = dirs(port);
+  const { dataDir, runDir, filesDir, socket, pidFile, logFile } = dirs(port);
   mkdirSync(dataRoot, { recursive: true });
+  const account = reachableAccount(serverAccount(), dataRoot);
+  await stopLegacyInstance(port);
 
   const existing = readPid(pidFile);
   if (existing && isAlive(existing)) {
@@ -110,23 +188,23 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
     );
   }
 
+  handOver(runDir, account);
+  handOver(filesDir, account);
+  handOver(dataDir, account);
+  // mariadbd started by root needs --user; root only where the mysql account cannot reach .data/.
+  const runAs = account ? [`--user=${account.user}`] : process.getuid?.() === 0 ? ["--user=root"] : [];
   if (!existsSync(path.join(dataDir, "mysql"))) {
     console.log(`[db] initialising a private data directory in ${dataDir}`);
-    mkdirSync(dataDir, { recursive: true });
     execFileSync(
       "mariadb-install-db",
-      [
-        "--no-defaults",
-        `--datadir=${dataDir}`,
-        "--auth-root-authentication-method=normal",
-        "--skip-test-db",
-        "--user=root",
-      ],
+      ["--no-defaults", `--datadir=${dataDir}`, "--auth-root-authentication-method=normal", "--skip-test-db", ...runAs],
       { stdio: ["ignore", "ignore", "inherit"] },
     );
   }
 
   const log = openSync(logFile, "a");
+  // mariadbd writes its own error log here too (--log-error), as its own account.
+  if (account) execFileSync("chown", [`${account.uid}:${account.gid}`, logFile]);
   const child = spawn(
     "/usr/sbin/mariadbd",
     [
@@ -136,7 +214,9 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
       `--port=${port}`,
       `--socket=${socket}`,
       `--pid-file=${pidFile}`,
-      "--user=root",
+      ...runAs,
+      // Server-side file import and export only inside an empty folder of its own.
+      `--secure-file-priv=${filesDir}`,
       "--skip-name-resolve",
       `--log-error=${logFile}`,
       "--innodb-buffer-pool-size=1G",
@@ -145,6 +225,7 @@ export async function startPrivateDb(port: number): Promise<PrivateDb> {
       "--innodb-log-buffer-size=64M",
       "--max-connections=200",
       "--max-allowed-packet=128M",
+      // For bench/ingest.bench.ts's comparison only; the application's connections do not allow it.
       "--local-infile=1",
       "--character-set-server=utf8mb4",
       "--collation-server=utf8mb4_unicode_ci",
@@ -188,7 +269,11 @@ export async function ensureDatabase(
     await conn.query(`CREATE USER IF NOT EXISTS ?@'127.0.0.1' IDENTIFIED BY ?`, [creds.user, creds.password]);
     await conn.query(`ALTER USER ?@'127.0.0.1' IDENTIFIED BY ?`, [creds.user, creds.password]);
     await conn.query(`GRANT ALL PRIVILEGES ON ${quoteIdent(name)}.* TO ?@'127.0.0.1'`, [creds.user]);
-    await conn.query(`GRANT FILE ON *.* TO ?@'127.0.0.1'`, [creds.user]);
+    // No FILE privilege: the application never reads or writes the server's files (uploads are
+    // multi-row INSERTs). Taken back from set-ups made before it was dropped.
+    const grants: Record<string, string>[] = await conn.query(`SHOW GRANTS FOR ?@'127.0.0.1'`, [creds.user]);
+    if (grants.some((g) => /GRANT (.*\b)?FILE\b.* ON \*\.\*/.test(Object.values(g)[0])))
+      await conn.query(`REVOKE FILE ON *.* FROM ?@'127.0.0.1'`, [creds.user]);
     await conn.query("FLUSH PRIVILEGES");
   } finally {
     await conn.end();

@@ -23,7 +23,7 @@ export const sequelize = new Sequelize(config.db.name, config.db.user, config.db
   define: { underscored: true },
   isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED,
   pool: { max: config.db.pool.max, min: 0, acquire: config.db.pool.acquireMs, idle: 10_000 },
-  dialectOptions: { connectTimeout: 5000, permitLocalInfile: true, bigIntAsNumber: true, decimalAsNumber: false },
+  dialectOptions: { connectTimeout: 5000, bigIntAsNumber: true, decimalAsNumber: false },
 });
 
 watchPool(sequelize, config.db.pool);

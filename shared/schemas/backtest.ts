@@ -7,7 +7,7 @@ export const zoneSchema = z.enum(["green", "yellow", "red"]);
 // ---- requests ----
 export const backtestQuerySchema = z.object({ asOf: isoDateSchema.optional() });
 export const rollingQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
-const testOutcomeSchema = z.object({
+export const testOutcomeSchema = z.object({
   statistic: z.number(),
   pValue: z.number(),
   reject: z.boolean(),

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
-import { zoneSchema } from "./backtest";
+import { testOutcomeSchema, zoneSchema } from "./backtest";
+import { exceptionCauseSchema, exclusionStatusSchema } from "./review";
 import { frtbFiguresSchema } from "./frtb";
 
 /**
@@ -48,6 +49,63 @@ export const snapshotDeskSchema = z.object({
   passes: z.boolean(),
   plaZone: z.enum(["green", "amber", "red"]).nullable(),
 });
+
+/** One business day of the window as the pack and the return data read it (frozen with the figures). */
+export const snapshotDaySchema = z.object({
+  date: z.string(),
+  actual: z.number().nullable(),
+  hypothetical: z.number().nullable(),
+  /** One-day 99% VaR, the figure backtested. */
+  var99: z.number().nullable(),
+  /** The capital VaR and stressed VaR (10-day: var_10d, or the one-day figure × √10; docs/rules.md#capital). */
+  varCapital: z.number().nullable(),
+  svarCapital: z.number().nullable(),
+  /** FRTB: expected shortfall at 97.5%. */
+  es: z.number().nullable(),
+});
+export type SnapshotDay = z.infer<typeof snapshotDaySchema>;
+
+/** An exception of the window with its amounts and, as they stood when the figures were prepared, its review. */
+export const snapshotExceptionSchema = z.object({
+  date: z.string(),
+  actualPnl: z.number().nullable(),
+  hypotheticalPnl: z.number().nullable(),
+  var99: z.number().nullable(),
+  actual: z.boolean(),
+  hypothetical: z.boolean(),
+  excluded: z.boolean(),
+  excessActual: z.number().nullable(),
+  excessHypothetical: z.number().nullable(),
+  cause: exceptionCauseSchema.nullable(),
+  narrative: z.string().nullable(),
+  exclusionStatus: exclusionStatusSchema,
+  decisionReference: z.string().nullable(),
+  decisionDate: z.string().nullable(),
+});
+export type SnapshotException = z.infer<typeof snapshotExceptionSchema>;
+
+/** The capital formula's inputs and terms at the quarter end (docs/rules.md#capital). */
+export const snapshotCapitalDetailSchema = z.object({
+  formula: z.enum(["var-svar", "es-ses"]),
+  previousDate: z.string(),
+  averagedObservations: z.number().int(),
+  varPrev: z.number().nullable(),
+  varAvg60: z.number().nullable(),
+  svarPrev: z.number().nullable(),
+  svarAvg60: z.number().nullable(),
+  svarWeeks: z.number().int().nullable(),
+  esPrev: z.number().nullable(),
+  esAvg60: z.number().nullable(),
+  sesPrev: z.number().nullable(),
+  sesAvg60: z.number().nullable(),
+  varTerm: z.number().nullable(),
+  svarTerm: z.number().nullable(),
+  esTerm: z.number().nullable(),
+  sesTerm: z.number().nullable(),
+  binding: z.enum(["previous", "average"]),
+  warnings: z.array(z.string()),
+});
+export type SnapshotCapitalDetail = z.infer<typeof snapshotCapitalDetailSchema>;
 
 /** The figures frozen in a snapshot: computed by the engine (shared/backtest) at the quarter end. */
 export const snapshotFiguresSchema = z.object({
@@ -97,6 +155,22 @@ export const snapshotFiguresSchema = z.object({
   addOn: z.number().nullable(),
   capitalNote: z.string().nullable(),
   desks: z.array(snapshotDeskSchema),
+  // What the pack and the return data read besides the headline figures; absent in snapshots made
+  // before they were kept (the pack then says so).
+  /** The multiplier before the plus factor and addend, and the day the determination is in force from. */
+  determination: z.object({ baseMultiplier: z.number(), effectiveFrom: z.string() }).optional(),
+  /** The statistical tests on the counted series (docs/rules.md#statistics). */
+  tests: z
+    .object({
+      series: z.enum(["actual", "hypothetical"]),
+      kupiec: testOutcomeSchema,
+      independence: testOutcomeSchema,
+      conditionalCoverage: testOutcomeSchema,
+    })
+    .optional(),
+  capitalDetail: snapshotCapitalDetailSchema.nullable().optional(),
+  exceptionDetail: z.array(snapshotExceptionSchema).optional(),
+  days: z.array(snapshotDaySchema).optional(),
   /**
    * FRTB: the MAR33 aggregation at the quarter's last business day with the desks' statuses this
    * quarter's determination set (absent in snapshots made before it was kept; null without its

@@ -6,6 +6,8 @@ import { RegulatorAssignmentModel } from "../../server/models/regulator-assignme
 import { createTestEntity, createTestUser } from "../server/helpers";
 import { HEADER } from "../server/ingest-helpers";
 import { prepare, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
+import { latestLinkTokenFor } from "../server/mail-helpers";
+import { sessionCookieFor, unique } from "../server/helpers";
 import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
 
@@ -20,7 +22,7 @@ let emptyPortfolio = "";
 let q1Filing = 0;
 let q2Approved = 0;
 let q3Submitted = 0;
-const emails = { treasury: "", regulator: "", admin: "" };
+const emails = { treasury: "", regulator: "", admin: "", invitee: "" };
 
 async function signedOff(quarterEnd: string, file: boolean) {
   const draft = await prepare(book, quarterEnd);
@@ -68,7 +70,15 @@ async function loadBooks() {
   const regulator = await createTestUser("regulator");
   await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
   emails.regulator = regulator.email;
-  emails.admin = (await createTestUser("admin")).email;
+  const admin = await createTestUser("admin");
+  emails.admin = admin.email;
+  // An invitation waiting to be used: its set-password screen is checked below.
+  emails.invitee = `invitee-${unique()}@larkspur.test`;
+  await request(snapshotApp)
+    .post("/api/users")
+    .set("Cookie", await sessionCookieFor(admin.id))
+    .send({ email: emails.invitee, name: "Iris Vale", role: "analyst" })
+    .expect(201);
 }
 
 const suite = browserSuite(loadBooks);
@@ -309,6 +319,36 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await open(page, "/admin/outbox", ["heading", { level: 1 }]);
     await expectAccessible(page, "admin: Outbox");
     expect(errors).toEqual([]);
+    await page.close();
+  }, 240_000);
+
+  it("when someone opens their account and an invitee their set-password link, with a weak password and an empty form refused and an unusable link, there is no violation", async () => {
+    const page = await suite.context.newPage();
+    const errors = watchConsole(page);
+    const token = await latestLinkTokenFor(emails.invitee);
+    await page.goto(`${suite.app.baseUrl}/set-password#${token}`);
+    await page.getByRole("heading", { name: "Welcome, Iris Vale" }).waitFor({ timeout: 20_000 });
+    await settled(page);
+    await expectAccessible(page, "invitee: Set password");
+    await page.getByLabel("New password", { exact: true }).fill("123456789012");
+    await page.getByText("This is a commonly used password.", { exact: false }).waitFor({ timeout: 30_000 });
+    await page.getByRole("button", { name: "Set password and sign in" }).click();
+    await page.locator("form [aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "invitee: Set password, weak password refused");
+    await keepScreenshot(page, "a11y-set-password-refused");
+    await page.goto(`${suite.app.baseUrl}/set-password#${"x".repeat(43)}`);
+    await page.getByRole("heading", { name: "This link cannot be used" }).waitFor({ timeout: 20_000 });
+    await expectAccessible(page, "invitee: Set password, unknown link");
+
+    await signInAs(page, suite.app.baseUrl, book.analyst.email);
+    await open(page, "/account", ["heading", { name: "Your account" }]);
+    await expectAccessible(page, "analyst: Your account");
+    await page.getByRole("button", { name: "Change password" }).click();
+    await page.locator("form [aria-invalid='true']").first().waitFor();
+    await expectAccessible(page, "analyst: Your account, change refused with its errors");
+    await keepScreenshot(page, "a11y-account-refused");
+    // The unknown link's lookup is refused on purpose (the browser logs that answer); nothing else may be.
+    expect(errors.filter((e) => !/^Failed to load resource: .* status of 404/.test(e))).toEqual([]);
     await page.close();
   }, 240_000);
 });

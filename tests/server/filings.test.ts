@@ -91,7 +91,7 @@ describe("the quarterly pack", () => {
     expect(text).toMatch(/Q3 2026: 2026-07-01 to 2026-09-30/);
     expect(text).toMatch(/Traffic-light zone\s+Yellow/);
     expect(text).toMatch(/Counted exceptions\s+5/);
-    expect(text).toMatch(/Multiplier\s+3\.40/);
+    expect(text).toMatch(/Multiplier in force\s+3\.40/);
     const snapshot = (await request(app).get(`/api/snapshots/${snapshotId}`).set("Cookie", book.cookie)).body;
     expect(text.replace(/\s+/g, "")).toContain(snapshot.hash);
     expect(text.replace(/\s+/g, " ")).toContain("Figures are decision support.");

@@ -76,9 +76,11 @@ describe("a snapshot's pack as a PDF", () => {
     const text = execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8").replace(/\s+/g, " ");
     expect(text).toContain("Lärkspur Bänk Zürich AG — Genève (LKS-CH)");
     expect(text).toContain("Freigegeben — für das Quartal");
-    expect(text).toContain("P(X ≤ counted), binomial 75.90%");
+    expect(text).toContain("The probability of 3 or fewer under the binomial distribution is 75.90%");
     expect(text).toMatch(/Capital requirement 1,234,568 CHF/);
-    expect(text).toMatch(/Page 1 of 1/);
+    expect(text).toMatch(/Page 1 of 2/);
+    // A snapshot from before the pack kept the exceptions' amounts says so rather than leaving them out silently.
+    expect(text).toContain("prepared before the pack kept each exception's amounts");
   });
 
   it("when the same snapshot is rendered twice, then the bytes are the same (its dates are the snapshot's own)", async () => {

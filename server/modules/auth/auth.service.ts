@@ -1,4 +1,3 @@
-import bcrypt from "bcryptjs";
 import { UserModel } from "../../models/user";
 import { AppError, NotFoundError, UnauthorizedError } from "../../errors";
 import { sequelize } from "../../db/sequelize";
@@ -7,11 +6,13 @@ import { recordAudit } from "../audit/audit.service";
 import type { Actor, SignedIn } from "../../kit/actor";
 import type { ChangePasswordBody, LoginBody, SessionUser } from "../../../shared/schemas/auth";
 import { signSessionToken, verifySessionToken } from "./tokens";
+import { hashPassword, passwordMatches as checkPassword } from "./password-hashing";
 
-export const BCRYPT_COST = 12;
+export { hashPassword };
 
-// Compared against when the e-mail is unknown, so a wrong e-mail costs as long as a wrong password.
-const DUMMY_HASH = bcrypt.hashSync("quartermark-timing-equaliser", BCRYPT_COST);
+// Compared against when the e-mail is unknown, so a wrong e-mail costs as long as a wrong password
+// (a cost-12 bcrypt hash of a throw-away phrase).
+const DUMMY_HASH = "$2b$12$oCr/2hbF00ueDRp4ozjaVeNBas.cDdWCFyiWGL/lJSbbD4215YFu.";
 
 const WRONG_CREDENTIALS = "The e-mail address or password is not correct.";
 
@@ -19,14 +20,10 @@ export function toSessionUser(user: UserModel): SessionUser {
   return { id: user.id, email: user.email, name: user.name, role: user.role };
 }
 
-export async function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, BCRYPT_COST);
-}
-
 /** Checks the credentials, records the attempt, and issues a session token. */
 export async function signIn(credentials: LoginBody, actor: Actor): Promise<{ user: SessionUser; token: string }> {
   const user = await UserModel.findOne({ where: { email: credentials.email } });
-  const passwordMatches = await bcrypt.compare(credentials.password, user?.passwordHash ?? DUMMY_HASH);
+  const passwordMatches = await checkPassword(credentials.password, user?.passwordHash ?? DUMMY_HASH);
   if (!user || !passwordMatches || user.disabled) {
     const reason = !user
       ? "unknown e-mail"
@@ -79,7 +76,7 @@ export async function changeOwnPassword(
 ): Promise<{ user: SessionUser; token: string }> {
   const found = await UserModel.findByPk(actor.user.id);
   if (!found) throw new NotFoundError("Your account no longer exists.");
-  const matches = await bcrypt.compare(currentPassword, found.passwordHash ?? DUMMY_HASH);
+  const matches = await checkPassword(currentPassword, found.passwordHash ?? DUMMY_HASH);
   if (!found.passwordHash || !matches) {
     await recordAudit(actor, "auth.password_change_failed", found.email, {
       after: { reason: "wrong current password" },

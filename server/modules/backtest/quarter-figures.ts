@@ -4,8 +4,10 @@ import { AppError, NotFoundError } from "../../errors";
 import { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { backtestAt } from "../../../shared/backtest/exceptions";
-import { capitalInputsAt } from "../../../shared/backtest/capital";
-import { capitalUnder, multipliersFor, settingsOn } from "../../../shared/backtest/determination";
+import { capitalInputsAt, requirementFromInputs, type CapitalInputs } from "../../../shared/backtest/capital";
+import { capitalUnder, determinationPoint, multipliersFor, settingsOn } from "../../../shared/backtest/determination";
+import { getRegime } from "../../../shared/backtest/regimes";
+import { ExceptionReviewModel } from "../../models/exception-review";
 import { approvedSettings, fallbackSettings } from "../settings/settings.read";
 import type { Transaction } from "sequelize";
 import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
@@ -16,7 +18,12 @@ import { deskResults } from "../figures/stored-figures";
 import { frtbFiguresOn } from "../frtb/frtb.store";
 import { loadPortfolioContext } from "../figures/engine-inputs";
 import { quarterLabel } from "../../../shared/backtest/quarters";
-import { type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import {
+  type SnapshotCapitalDetail,
+  type SnapshotDay,
+  type SnapshotException,
+  type SnapshotFigures,
+} from "../../../shared/schemas/snapshot";
 import type { Observation } from "../../../shared/backtest/types";
 
 export interface QuarterFigures {
@@ -93,15 +100,13 @@ export async function quarterFigures(
   let capital: number | null = null;
   let addOn: number | null = null;
   let capitalNote: string | null = null;
+  let capitalDetail: SnapshotCapitalDetail | null = null;
   try {
-    const c = capitalUnder(
-      capitalInputsAt(series, entity.regime, asOf),
-      entity.regime,
-      multipliers.plusFactor,
-      settings,
-    );
+    const inputs = capitalInputsAt(series, entity.regime, asOf);
+    const c = capitalUnder(inputs, entity.regime, multipliers.plusFactor, settings);
     capital = Math.round(c.requirement * 100) / 100;
     addOn = Math.round(c.addOn * 100) / 100;
+    capitalDetail = capitalDetailOf(inputs, entity.regime, multipliers.multiplier, multipliers.multiplierSvar);
   } catch (err) {
     if (!(err instanceof EngineInputError)) throw err;
     capitalNote = `No capital figure: ${err.message}`;
@@ -119,6 +124,44 @@ export async function quarterFigures(
       frtbNote = `No aggregate capital requirement: ${err.message}`;
     }
   }
+  const from = bt.window.start ?? asOf;
+  const inWindow = (o: Observation) => o.date >= from && o.date <= asOf;
+  const reviews = new Map(
+    (
+      await ExceptionReviewModel.findAll({
+        where: { portfolioId: top.id, businessDate: bt.exceptionDays.map((d) => d.date) },
+        transaction,
+      })
+    ).map((r) => [r.businessDate, r]),
+  );
+  const exceptionDetail: SnapshotException[] = bt.exceptionDays.map((d) => {
+    const r = reviews.get(d.date);
+    return {
+      date: d.date,
+      actualPnl: d.actualPnl,
+      hypotheticalPnl: d.hypotheticalPnl,
+      var99: d.var99,
+      actual: d.actual,
+      hypothetical: d.hypothetical,
+      excluded: d.excluded,
+      excessActual: d.excessActual,
+      excessHypothetical: d.excessHypothetical,
+      cause: r?.cause ?? null,
+      narrative: r?.narrative ?? null,
+      exclusionStatus: r?.exclusionStatus ?? "none",
+      decisionReference: r?.decisionReference ?? null,
+      decisionDate: r?.decisionDate ?? null,
+    };
+  });
+  const days: SnapshotDay[] = series.filter(inWindow).map((o) => ({
+    date: o.date,
+    actual: o.actualPnl,
+    hypothetical: o.hypotheticalPnl,
+    var99: o.var99,
+    varCapital: tenDay(o.var10d, o.var99),
+    svarCapital: tenDay(o.svar10d, o.svar99),
+    es: o.es975 ?? null,
+  }));
   const figures: SnapshotFigures = {
     portfolio: top.code,
     regime: entity.regime,
@@ -140,6 +183,19 @@ export async function quarterFigures(
     capital,
     addOn,
     capitalNote,
+    determination: {
+      baseMultiplier: getRegime(entity.regime).baseMultiplier,
+      effectiveFrom: determinationPoint(quarterEnd, ctx.holidays).effectiveFrom,
+    },
+    tests: {
+      series: bt.testedSeries,
+      kupiec: bt.tests.kupiec,
+      independence: bt.tests.independence,
+      conditionalCoverage: bt.tests.conditionalCoverage,
+    },
+    capitalDetail,
+    exceptionDetail,
+    days,
     desks: desks.map((d) => ({
       portfolio: d.portfolio,
       exceptions99: d.backtest.at99.count,
@@ -151,8 +207,6 @@ export async function quarterFigures(
   };
 
   // The inputs: what a second computation would need to give the same figures.
-  const from = bt.window.start ?? asOf;
-  const inWindow = (o: Observation) => o.date >= from && o.date <= asOf;
   const deskSeries = [];
   for (const desk of portfolios.filter((p) => p.level === "desk")) {
     deskSeries.push([desk.code, (await loadSeries(desk.id, from, asOf)).map((o) => dayValues(o))]);
@@ -187,5 +241,42 @@ export async function quarterFigures(
     figures,
     inputsSha256: createHash("sha256").update(stableStringify(inputs)).digest("hex"),
     engineVersion: ENGINE_VERSION,
+  };
+}
+
+/** The capital VaR of a day: the 10-day figure, or the one-day figure × √10 (CRR Art. 365(1)). */
+function tenDay(tenDayValue: number | null | undefined, oneDay: number | null | undefined): number | null {
+  if (tenDayValue != null) return tenDayValue;
+  return oneDay != null ? oneDay * Math.sqrt(10) : null;
+}
+
+/** The inputs and terms of the capital formula with the multipliers of the determination. */
+function capitalDetailOf(
+  inputs: CapitalInputs,
+  regime: EntityModel["regime"],
+  multiplier: number,
+  multiplierSvar: number,
+): SnapshotCapitalDetail {
+  const rules = getRegime(regime);
+  const r = requirementFromInputs(inputs, rules, multiplier, multiplierSvar);
+  return {
+    formula: rules.capitalFormula === "es-ses" ? "es-ses" : "var-svar",
+    previousDate: inputs.previousDate,
+    averagedObservations: inputs.averagedObservations,
+    varPrev: inputs.varPrev ?? null,
+    varAvg60: inputs.varAvg60 ?? null,
+    svarPrev: inputs.svarPrev ?? null,
+    svarAvg60: inputs.svarAvg60 ?? null,
+    svarWeeks: inputs.svarWeeks ?? null,
+    esPrev: inputs.esPrev ?? null,
+    esAvg60: inputs.esAvg60 ?? null,
+    sesPrev: inputs.sesPrev ?? null,
+    sesAvg60: inputs.sesAvg60 ?? null,
+    varTerm: r.varTerm ?? null,
+    svarTerm: r.svarTerm ?? null,
+    esTerm: r.esTerm ?? null,
+    sesTerm: r.sesTerm ?? null,
+    binding: r.binding,
+    warnings: inputs.warnings,
   };
 }

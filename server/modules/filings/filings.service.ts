@@ -16,6 +16,7 @@ import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pac
 import { recordAudit } from "../audit/audit.service";
 import { lockForFiling, recordAcknowledged, recordFiled } from "../snapshots/snapshots.service";
 import { verifySnapshot } from "../snapshots/snapshots.chain";
+import { signatoriesOf } from "../snapshots/snapshots.read";
 import { signedFilingRecord } from "../snapshot-chain/snapshot-chain";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import { CAUTION } from "../../../shared/schemas/common";
@@ -403,7 +404,7 @@ export async function fileSnapshot(
   actor: SignedIn,
 ): Promise<{ filing: Filing; delivered: boolean }> {
   const filingId = await sequelize.transaction(async (transaction) => {
-    const { entity, asFiled } = await lockForFiling(snapshotId, transaction);
+    const { row: snapshotRow, entity, asFiled } = await lockForFiling(snapshotId, transaction);
     const waiting = await FilingModel.findOne({ where: { snapshotId }, transaction });
     if (waiting)
       throw new ConflictError(
@@ -422,7 +423,7 @@ export async function fileSnapshot(
         `${entity.code} has no supervisor e-mail address; an admin adds one under Admin › Entities before filing.`,
       );
     }
-    const pack = await renderSnapshotPack(asFiled);
+    const pack = await renderSnapshotPack(asFiled, { signatories: await signatoriesOf(snapshotRow) });
     const packSha256 = sha256(pack);
     const filing = await FilingModel.create(
       {

@@ -3,7 +3,9 @@ import { NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
-import { renderSnapshotPack, snapshotPackFileName } from "../../pdf/snapshot-pack";
+import { renderSnapshotPack, snapshotPackFileName, type Signatory } from "../../pdf/snapshot-pack";
+import { UserModel } from "../../models/user";
+import type { Role } from "../../../shared/schemas/common";
 import { countOpenFindings } from "../findings/findings.service";
 import { SIGNED_OFF, type Snapshot, type SnapshotEvent, type SnapshotFigures } from "../../../shared/schemas/snapshot";
 import { quarterStart } from "../../../shared/backtest/quarters";
@@ -91,8 +93,38 @@ export async function getSnapshot(id: number, actor: SignedIn): Promise<Snapshot
   return snapshotDto(await visibleSnapshotRow(id, actor));
 }
 
-/** The pack of any snapshot, for the reporting office to read before filing (drafts say so on the page). */
+/** How the pack titles a signatory: by the role they sign in. */
+const SIGNING_TITLES: Record<Role, string> = {
+  analyst: "Market risk analyst",
+  cro: "Chief Risk Officer",
+  treasury: "Treasury",
+  regulator: "Regulator",
+  admin: "Administrator",
+};
+
+/** Who prepared, submitted and approved a snapshot, by name and title, with the dates they did. */
+export async function signatoriesOf(row: SnapshotModel): Promise<Signatory[]> {
+  const acts: [string, number | null, Date | null][] = [
+    ["Prepared by", row.preparedBy, row.preparedAt],
+    ["Submitted by", row.submittedBy, row.submittedAt],
+    ["Approved by", row.approvedBy, row.approvedAt],
+  ];
+  const ids = acts.map(([, id]) => id).filter((id): id is number => id !== null);
+  const users = new Map((await UserModel.findAll({ where: { id: ids } })).map((u) => [u.id, u]));
+  return acts.flatMap(([act, id, at]) => {
+    const u = id === null ? undefined : users.get(id);
+    return u
+      ? [{ act, name: u.name, title: SIGNING_TITLES[u.role], email: u.email, at: at ? at.toISOString() : null }]
+      : [];
+  });
+}
+
+/** The pack of any snapshot, for the reporting office to read before filing (drafts say so on every page). */
 export async function snapshotPack(id: number, actor: SignedIn): Promise<{ fileName: string; bytes: Buffer }> {
-  const snapshot = await getSnapshot(id, actor);
-  return { fileName: snapshotPackFileName(snapshot), bytes: await renderSnapshotPack(snapshot) };
+  const row = await visibleSnapshotRow(id, actor);
+  const snapshot = await snapshotDto(row);
+  return {
+    fileName: snapshotPackFileName(snapshot),
+    bytes: await renderSnapshotPack(snapshot, { signatories: await signatoriesOf(row) }),
+  };
 }

@@ -25,6 +25,9 @@ export const POLICY = {
   "POST /api/invitations/lookup": "public",
   "POST /api/invitations/accept": "public",
 
+  // "Waiting for me": each person's own open work across every entity and quarter (by role, in the service).
+  "GET /api/queue": "signed-in",
+
   // Entities: every role reads (a regulator only the entities assigned to them); admin changes.
   "GET /api/entities": "signed-in",
   "POST /api/entities": ["admin"],

@@ -3,6 +3,7 @@ import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createSnapshotSchema,
+  returnInputsBodySchema,
   returnSnapshotSchema,
   snapshotActionSchema,
   snapshotListQuerySchema,
@@ -13,6 +14,7 @@ import * as snapshots from "./snapshots.service";
 import { getSnapshot, listSnapshots, snapshotPack } from "./snapshots.read";
 import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
 import { sendDownload } from "../../http/download";
+import { getSnapshotReturn, setReturnInputs } from "./snapshots.return";
 
 export function snapshotsRouter() {
   const r = createGuardedRouter();
@@ -34,6 +36,14 @@ export function snapshotsRouter() {
     const { id } = parseInput(idParamSchema, req.params, "address");
     const pack = await snapshotPack(id, signedInActor(req));
     sendDownload(res, { fileName: pack.fileName, contentType: "application/pdf", bytes: pack.bytes });
+  });
+  r.get("/api/snapshots/:id/return", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await getSnapshotReturn(id, signedInActor(req)));
+  });
+  r.put("/api/snapshots/:id/return-inputs", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await setReturnInputs(id, parseInput(returnInputsBodySchema, req.body ?? {}), signedInActor(req)));
   });
   r.post("/api/snapshots/:id/submit", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

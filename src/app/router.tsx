@@ -73,6 +73,10 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               path: relative(paths.backtest.path),
               ...screen(queryClient, "backtest", () => import("./routes/backtest/portfolio")),
             },
+            {
+              path: relative(paths.waiting.path),
+              ...screen(queryClient, "waiting", () => import("./routes/waiting")),
+            },
             { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
             {
               path: relative(paths.snapshots.path),

@@ -14,6 +14,8 @@ const filingReaders: readonly Role[] = ["analyst", "cro", "regulator"];
  * policy holds the same rule.
  */
 const tokenHolders: readonly Role[] = ["treasury"];
+/** Everyone whose work waits on others' (treasury plans on what is signed off; nothing waits for it). */
+const queueHolders: readonly Role[] = ["analyst", "cro", "admin", "regulator"];
 
 export type AppPath = {
   /** The route pattern as React Router reads it. */
@@ -36,6 +38,8 @@ export const paths = {
   /** A set-password link from an e-mail (invitation or reset): the token rides in the fragment. */
   setPassword: { path: "/set-password", roles: null, label: "Set your password", href: () => "/set-password" },
   overview: { path: "/", roles: allRoles, label: "Overview", href: () => "/" },
+  /** "Waiting for me": one's open work across every entity and quarter, each item linking to where it is done. */
+  waiting: { path: "/waiting", roles: queueHolders, label: "Waiting for me", href: () => "/waiting" },
   /** One's own account: change one's own password. */
   account: { path: "/account", roles: allRoles, label: "Your account", href: () => "/account" },
   data: {
@@ -142,6 +146,7 @@ export type PathKey = keyof typeof paths;
 /** Navigation entries in display order; each shows only for the roles of its path. */
 export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = [
   { key: "overview", group: "main" },
+  { key: "waiting", group: "main" },
   { key: "backtestIndex", group: "main" },
   { key: "data", group: "main" },
   { key: "snapshots", group: "main" },

@@ -1,4 +1,4 @@
-import type { KeyboardEvent } from "react";
+import { useCallback, useRef, type KeyboardEvent } from "react";
 
 /**
  * A ref callback that moves the focus to an element when it appears: an outcome that replaces the
@@ -17,4 +17,19 @@ export function cancelOnEscape(cancel: () => void) {
     e.preventDefault();
     cancel();
   };
+}
+
+/**
+ * For the control that opens an inline confirmation it is replaced by: `returnFocus()` on Cancel or
+ * Escape, and the control takes the focus again as soon as it is back on screen.
+ */
+export function useFocusReturn<T extends HTMLElement>() {
+  const pending = useRef(false);
+  const ref = useCallback((el: T | null) => {
+    if (el && pending.current) {
+      pending.current = false;
+      el.focus();
+    }
+  }, []);
+  return { ref, returnFocus: () => (pending.current = true) };
 }

@@ -366,6 +366,16 @@ describe("Quarter close › the chief risk officer signs off", () => {
     expect(within(form).queryByRole("note")).not.toBeInTheDocument();
     await user.type(within(form).getByLabelText("Comment"), "Multiplier 3.50 agreed with model validation.");
     await user.click(within(form).getByRole("button", { name: "Approve and seal" }));
+    // Nothing is sent until the confirmation, which says what sealing does, is accepted.
+    const confirm = within(form).getByRole("group", { name: "Approve and seal Q4 2025" });
+    expect(confirm).toHaveTextContent(/signed into the entity's chain and never change again\. This cannot be undone/);
+    expect(api.callsTo("POST", "/api/snapshots/12/approve")).toHaveLength(0);
+    await user.click(within(confirm).getByRole("button", { name: "Cancel" }));
+    expect(within(form).queryByRole("group", { name: "Approve and seal Q4 2025" })).not.toBeInTheDocument();
+    expect(within(form).getByRole("button", { name: "Approve and seal" })).toHaveFocus();
+    expect(api.callsTo("POST", "/api/snapshots/12/approve")).toHaveLength(0);
+    await user.click(within(form).getByRole("button", { name: "Approve and seal" }));
+    await user.click(within(form).getByRole("button", { name: "Approve and seal Q4 2025" }));
 
     expect(api.callsTo("POST", "/api/snapshots/12/approve")[0].body).toEqual({
       comment: "Multiplier 3.50 agreed with model validation.",
@@ -428,6 +438,7 @@ describe("Quarter close › the chief risk officer signs off", () => {
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
     await user.click(within(form).getByRole("button", { name: "Approve and seal" }));
+    await user.click(within(form).getByRole("button", { name: "Approve and seal Q4 2025" }));
     expect(await within(form).findByRole("alert")).toHaveTextContent(
       "The daily data inside Q4 2025 changed after it was submitted. Return it, so that the analyst prepares it again on the current data.",
     );

@@ -64,6 +64,9 @@ describe("closing a quarter with the keyboard alone", () => {
     await cro.getByRole("button", { name: "Approve and seal" }).waitFor({ timeout: 20_000 });
     await tabTo(cro, /^Approve and seal$/);
     await cro.keyboard.press("Enter");
+    // The confirmation says what sealing does and takes the focus; Enter on it approves.
+    expect((await expectVisibleFocus(cro, "approval confirmation open")).name).toBe("Approve and seal Q3 2026");
+    await cro.keyboard.press("Enter");
     await cro
       .getByText(/is approved and sealed/)
       .first()

@@ -40,6 +40,7 @@ describe("closing a quarter in a real browser", () => {
     await signInAs(croPage, suite.app.baseUrl, book.cro.email);
     await croPage.goto(`${suite.app.baseUrl}/quarters?entity=${book.entity.code}&snapshot=${row!.id}`);
     await croPage.getByRole("button", { name: "Approve and seal" }).click();
+    await croPage.getByRole("button", { name: "Approve and seal Q3 2026" }).click();
     await croPage.getByRole("button", { name: "Verify the hash" }).click({ timeout: 15_000 });
     await croPage.getByText("Valid: the figures are as signed off.").waitFor({ timeout: 15_000 });
     await croPage.waitForLoadState("networkidle");

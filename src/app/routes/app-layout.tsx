@@ -8,10 +8,11 @@ import {
   useNavigation,
   type LoaderFunctionArgs,
 } from "react-router-dom";
-import { useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
+import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { SessionUser } from "@shared/schemas/auth";
 import { mayOpen, navigation, paths } from "@/config/paths";
 import { authQueries, useLogout } from "@/features/auth/api/auth-queries";
+import { queueQueries } from "@/features/queue/api/queue-queries";
 import { Button } from "@/components/ui/button";
 import { QuartermarkMark } from "@/components/ui/mark";
 import { roleLabels } from "@/lib/role-labels";
@@ -25,6 +26,26 @@ export const clientLoader =
     await requireUser(queryClient, request);
     return null;
   };
+
+/** "Waiting for me" with the number of items beside it (read again every minute and after each change). */
+function WaitingLabel() {
+  const { data } = useQuery(queueQueries.list());
+  const count = data?.length;
+  return (
+    <>
+      {paths.waiting.label}
+      {count !== undefined && count > 0 && (
+        <>
+          {" "}
+          <span className="figures ml-0.5 rounded-full bg-accent px-1.5 py-px text-2xs font-semibold text-paper-raised">
+            {count}
+          </span>
+          <span className="sr-only"> {count === 1 ? "item" : "items"}</span>
+        </>
+      )}
+    </>
+  );
+}
 
 export function MainNavigation({ user }: { user: SessionUser }) {
   const main = navigation.filter((n) => n.group === "main" && mayOpen(n.key, user.role));
@@ -40,7 +61,7 @@ export function MainNavigation({ user }: { user: SessionUser }) {
         {main.map((n) => (
           <li key={n.key}>
             <NavLink to={paths[n.key].path} end={paths[n.key].path === "/"} className={link}>
-              {paths[n.key].label}
+              {n.key === "waiting" ? <WaitingLabel /> : paths[n.key].label}
             </NavLink>
           </li>
         ))}

@@ -7,7 +7,7 @@ import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
 import { useDecideRoleRequest } from "../api/user-queries";
-import { Confirmation } from "./confirmation";
+import { Confirmation } from "@/components/ui/confirmation";
 
 type Decision = { id: number; decision: "approve" | "reject" };
 

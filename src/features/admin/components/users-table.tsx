@@ -9,7 +9,7 @@ import { formatDateTime } from "@/lib/format";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { cn } from "@/lib/cn";
 import { staleUserMessage, useProposeRole, useSendPasswordLink, useUpdateUser } from "../api/user-queries";
-import { Confirmation } from "./confirmation";
+import { Confirmation } from "@/components/ui/confirmation";
 
 type Pending = { userId: number; kind: "role"; role: Role } | { userId: number; kind: "link" };
 

@@ -5,11 +5,13 @@ import { quarterLabel } from "@shared/backtest/quarters";
 import { returnSnapshotSchema, snapshotActionSchema, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
+import { Confirmation } from "@/components/ui/confirmation";
+import { zoneName } from "@/components/ui/zone-badge";
 import { FormMessage, TextareaField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusWhenShown } from "@/lib/focus";
-import { formatDateTime, shortHash } from "@/lib/format";
+import { focusWhenShown, useFocusReturn } from "@/lib/focus";
+import { formatDateTime, formatFactor, shortHash } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import {
   isChangedMeanwhile,
@@ -144,12 +146,15 @@ function SignOffForm({
   const approve = useApproveSnapshot(snapshot.id);
   const giveBack = useReturnSnapshot(snapshot.id);
   const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
+  const [confirming, setConfirming] = useState(false);
+  const opener = useFocusReturn<HTMLButtonElement>();
   // Four eyes (docs/architecture.md#roles): whoever prepared or submitted it may not approve it.
   const ownWork = sameUser(snapshot.preparedBy, userEmail) || sameUser(snapshot.submittedBy, userEmail);
 
   function sendApprove() {
     giveBack.reset();
     approve.reset();
+    setConfirming(false);
     const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
     if (!body) return;
     approve
@@ -205,16 +210,46 @@ function SignOffForm({
         maxLength={2000}
         error={errors.comment}
       />
-      <div className="flex flex-wrap items-center gap-3">
-        {!ownWork && (
-          <Button onClick={sendApprove} disabled={busy}>
-            {approve.isPending ? "Approving…" : "Approve and seal"}
+      {confirming ? (
+        <Confirmation
+          label={`Approve and seal ${quarterLabel(snapshot.quarterEnd)}`}
+          text={
+            <>
+              Approving seals {quarterLabel(snapshot.quarterEnd)} of {snapshot.entity}: its figures (
+              {zoneName(snapshot.zone, snapshot.figures.regime)} zone, {snapshot.counted} counted exceptions, multiplier{" "}
+              {formatFactor(snapshot.multiplier)}) are signed into the entity's chain and never change again. This
+              cannot be undone: a later restatement is only recorded beside them, and the next step is filing the pack
+              with the supervisor.
+            </>
+          }
+          confirm={`Approve and seal ${quarterLabel(snapshot.quarterEnd)}`}
+          busy={busy}
+          onConfirm={sendApprove}
+          onCancel={() => {
+            opener.returnFocus();
+            setConfirming(false);
+          }}
+        />
+      ) : (
+        <div className="flex flex-wrap items-center gap-3">
+          {!ownWork && (
+            <Button
+              ref={opener.ref}
+              onClick={() => {
+                approve.reset();
+                giveBack.reset();
+                setConfirming(true);
+              }}
+              disabled={busy}
+            >
+              {approve.isPending ? "Approving…" : "Approve and seal"}
+            </Button>
+          )}
+          <Button type="submit" variant={ownWork ? "primary" : "danger"} disabled={busy}>
+            {giveBack.isPending ? "Returning…" : "Return to the analysts"}
           </Button>
-        )}
-        <Button type="submit" variant={ownWork ? "primary" : "danger"} disabled={busy}>
-          {giveBack.isPending ? "Returning…" : "Return to the analysts"}
-        </Button>
-      </div>
+        </div>
+      )}
     </form>
   );
 }

@@ -1,11 +1,12 @@
+import type { ReactNode } from "react";
 import { Button } from "@/components/ui/button";
+import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
 
-// Stable, so the focus moves once, when the confirmation appears.
-const focusWhenShown = (el: HTMLElement | null) => {
-  el?.focus();
-};
-
-/** Asks before a change that cannot simply be taken back, and says what it will do. */
+/**
+ * Asks before a change that cannot simply be taken back, and says what it will do. The confirming
+ * button takes the focus when it appears; Cancel or Escape closes it (the screen gives the focus
+ * back to the control that opened it).
+ */
 export function Confirmation({
   label,
   text,
@@ -16,7 +17,7 @@ export function Confirmation({
   onCancel,
 }: {
   label: string;
-  text: string;
+  text: ReactNode;
   confirm: string;
   busy: boolean;
   danger?: boolean;
@@ -24,8 +25,13 @@ export function Confirmation({
   onCancel: () => void;
 }) {
   return (
-    <div role="group" aria-label={label} className="flex flex-col gap-2 border-l-2 border-accent pl-3">
-      <p className="text-sm">{text}</p>
+    <div
+      role="group"
+      aria-label={label}
+      onKeyDown={cancelOnEscape(() => !busy && onCancel())}
+      className="flex flex-col gap-2 border-l-2 border-accent pl-3"
+    >
+      <div className="text-sm">{text}</div>
       <div className="flex items-center gap-3">
         <Button
           variant={danger ? "danger" : "primary"}

@@ -55,6 +55,7 @@ export const POLICY = {
   "POST /api/regulator-assignments": ["admin"],
   "DELETE /api/regulator-assignments/:userId/:entityCode": ["admin"],
   "GET /api/audit-events": ["admin"],
+  "GET /api/audit-events.:format": ["admin"],
   // The audit log's signatures and sequence: its keeper, and the CRO, whose sign-offs it records.
   // Not regulators (the log covers every entity); they check their filings through the filing verify.
   "GET /api/audit-events/verify": ["cro", "admin"],
@@ -67,17 +68,20 @@ export const POLICY = {
   "GET /api/uploads/template.csv": ["analyst", "cro", "admin"],
   "POST /api/uploads": ["analyst"],
   "GET /api/uploads": ["analyst", "cro"],
+  "GET /api/uploads.:format": ["analyst", "cro"],
   "GET /api/uploads/:id": ["analyst", "cro"],
   "GET /api/uploads/:id/rows": ["analyst", "cro"],
   "POST /api/uploads/:id/commit": ["analyst"],
   "DELETE /api/uploads/:id": ["analyst"],
   "GET /api/portfolios/:code/observations": ["analyst", "cro"],
   "GET /api/findings": ["analyst", "cro"],
+  "GET /api/findings.:format": ["analyst", "cro"],
   "PUT /api/findings/:id": ["analyst"],
 
   // Quarter snapshots: analysts prepare and submit, the CRO approves or returns (four eyes in the
   // service); treasury reads signed-off snapshots only (filtered in the service).
   "GET /api/snapshots": ["analyst", "cro", "treasury"],
+  "GET /api/snapshots.:format": ["analyst", "cro", "treasury"],
   "POST /api/snapshots": ["analyst"],
   "GET /api/snapshots/:id": ["analyst", "cro", "treasury"],
   "POST /api/snapshots/:id/submit": ["analyst"],
@@ -87,6 +91,7 @@ export const POLICY = {
   // The entity's whole signed chain: whoever may check one of its snapshots may check them all.
   "GET /api/entities/:code/chain/verify": ["analyst", "cro", "treasury"],
   "GET /api/entities/:code/capital/history": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/capital/history.:format": ["analyst", "cro", "treasury"],
   // Packs and filings: the office reads packs, the CRO files; a regulator reads, acknowledges and
   // verifies the filings of the entities assigned to them (filtered in the service).
   "GET /api/snapshots/:id/pack.pdf": ["analyst", "cro"],
@@ -94,6 +99,7 @@ export const POLICY = {
   // The CRO finishes a filing that did not reach every recipient (only those not yet accepted).
   "POST /api/filings/:id/deliver": ["cro"],
   "GET /api/filings": ["analyst", "cro", "regulator"],
+  "GET /api/filings.:format": ["analyst", "cro", "regulator"],
   "GET /api/filings/:id/pack.pdf": ["analyst", "cro", "regulator"],
   "POST /api/filings/:id/acknowledge": ["regulator"],
   "GET /api/filings/:id/verify": ["analyst", "cro", "regulator"],
@@ -104,6 +110,7 @@ export const POLICY = {
   // Determinations of the multiplier (treasury sees the signed-off ones, filtered in the service) and
   // capital on a date with the multiplier in force beside the indicative one (current figures).
   "GET /api/entities/:code/determinations": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/determinations.:format": ["analyst", "cro", "treasury"],
   "GET /api/entities/:code/capital": ["analyst", "cro"],
   // Governed supervisory settings: everyone on staff reads them; an admin proposes a change and a CRO
   // approves or rejects it (four eyes in the service).
@@ -116,6 +123,8 @@ export const POLICY = {
   "GET /api/overview": ["analyst", "cro"],
   "GET /api/portfolios/:code/backtest": ["analyst", "cro"],
   "GET /api/portfolios/:code/rolling": ["analyst", "cro"],
+  "GET /api/portfolios/:code/rolling.:format": ["analyst", "cro"],
+  "GET /api/portfolios/:code/exceptions.:format": ["analyst", "cro"],
   "PUT /api/portfolios/:code/exceptions/:date/review": ["analyst"],
   "PUT /api/portfolios/:code/exceptions/:date/decision": ["cro"],
   "POST /api/portfolios/:code/exceptions/:date/evidence": ["analyst"],

@@ -25,3 +25,9 @@ export async function emailsById(ids: Iterable<number | null | undefined>): Prom
   const rows = await UserModel.findAll({ where: { id: wanted }, attributes: ["id", "email"] });
   return new Map(rows.map((u) => [u.id, u.email]));
 }
+
+/** Each entity's reporting currency by code (the tables that list several entities show it per row). */
+export async function currenciesByEntity(): Promise<Map<string, string>> {
+  const rows = await EntityModel.findAll({ attributes: ["code", "currency"] });
+  return new Map(rows.map((e) => [e.code, e.currency]));
+}

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { isoDateSchema } from "./common";
 
 export const auditEventSchema = z.object({
   id: z.number().int(),
@@ -12,12 +13,26 @@ export const auditEventSchema = z.object({
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
 export const auditPageSchema = z.object({ items: z.array(auditEventSchema), total: z.number().int() });
-export const auditQuerySchema = z.object({
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
-  action: z.string().max(60).optional(),
-});
+/** What the audit log is narrowed to: the action's start, the person's e-mail, a span of days (UTC). */
+export const auditFilterSchema = z
+  .object({
+    action: z.string().max(60).optional(),
+    actor: z.string().trim().max(190).optional(),
+    from: isoDateSchema.optional(),
+    to: isoDateSchema.optional(),
+  })
+  .refine((f) => !f.from || !f.to || f.from <= f.to, { message: "The first day comes after the last", path: ["to"] });
+export type AuditFilter = z.infer<typeof auditFilterSchema>;
+export const auditQuerySchema = z.intersection(
+  auditFilterSchema,
+  z.object({
+    limit: z.coerce.number().int().min(1).max(200).default(50),
+    offset: z.coerce.number().int().min(0).default(0),
+  }),
+);
 export type AuditQuery = z.infer<typeof auditQuerySchema>;
+/** An export holds at most this many events; a wider filter is refused with a message to narrow it. */
+export const AUDIT_EXPORT_MAX = 50_000;
 
 /** GET /api/audit-events/verify: the signed audit chain checked from its first event to its signed head. */
 export const auditVerifySchema = z.object({

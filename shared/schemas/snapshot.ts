@@ -2,6 +2,7 @@ import { z } from "zod";
 import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
 import { testOutcomeSchema, zoneSchema } from "./backtest";
 import { exceptionCauseSchema, exclusionStatusSchema } from "./review";
+import { frtbFiguresSchema } from "./frtb";
 
 /**
  * Quarter snapshots: the figures of one entity at one quarter end, frozen for sign-off.
@@ -170,6 +171,13 @@ export const snapshotFiguresSchema = z.object({
   capitalDetail: snapshotCapitalDetailSchema.nullable().optional(),
   exceptionDetail: z.array(snapshotExceptionSchema).optional(),
   days: z.array(snapshotDaySchema).optional(),
+  /**
+   * FRTB: the MAR33 aggregation at the quarter's last business day with the desks' statuses this
+   * quarter's determination set (absent in snapshots made before it was kept; null without its
+   * inputs, `frtbNote` says why).
+   */
+  frtb: frtbFiguresSchema.nullable().optional(),
+  frtbNote: z.string().nullable().optional(),
 });
 export type SnapshotFigures = z.infer<typeof snapshotFiguresSchema>;
 

@@ -57,6 +57,7 @@ beforeAll(async () => {
     userId: String(cookies.get("regulator")),
     entityCode: entity.code,
     index: "0",
+    format: "csv",
   };
 });
 afterAll(() => sequelize.close());

@@ -1,7 +1,11 @@
 import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
-import { auditQuerySchema } from "../../../shared/schemas/audit";
-import { listAuditEvents, verifyAuditLog } from "./audit.service";
+import { auditFilterSchema, auditQuerySchema } from "../../../shared/schemas/audit";
+import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
+import { tableDownload } from "../../kit/table-export";
+import { sendDownload } from "../../http/download";
+import { auditTable } from "./audit.tables";
+import { auditEventsForExport, listAuditEvents, verifyAuditLog } from "./audit.service";
 
 export function auditRouter() {
   const r = createGuardedRouter();
@@ -10,6 +14,11 @@ export function auditRouter() {
   });
   r.get("/api/audit-events", async (req, res) => {
     res.json(await listAuditEvents(parseInput(auditQuerySchema, req.query, "query")));
+  });
+  r.get("/api/audit-events.:format", async (req, res) => {
+    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const filter = parseInput(auditFilterSchema, req.query, "query");
+    sendDownload(res, await tableDownload(auditTable(await auditEventsForExport(filter), filter), format));
   });
   return r.router;
 }

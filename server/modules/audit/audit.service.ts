@@ -4,7 +4,8 @@ import { sign } from "../snapshot-chain/signing";
 import { auditEventText, sealAfterCommit, sealAuditLog } from "./audit-chain";
 import { currentTransaction } from "../../db/transaction-context";
 import type { Actor } from "../../kit/actor";
-import type { AuditEvent, AuditQuery } from "../../../shared/schemas/audit";
+import { AUDIT_EXPORT_MAX, type AuditEvent, type AuditFilter, type AuditQuery } from "../../../shared/schemas/audit";
+import { AppError } from "../../errors";
 
 /**
  * Writes one audit event — who, what, on which target, from where, before and after — signed with
@@ -54,10 +55,38 @@ function toAuditEvent(row: AuditEventModel): AuditEvent {
 
 export { verifyAuditLog } from "./audit-chain";
 
+const likeText = (text: string) => text.replace(/[%_\\]/g, "\\$&");
+
+function auditWhere(filter: AuditFilter): WhereOptions {
+  const where: Record<string | symbol, unknown> = {};
+  if (filter.action) where.action = { [Op.like]: `${likeText(filter.action)}%` };
+  if (filter.actor) where.actorEmail = { [Op.like]: `%${likeText(filter.actor)}%` };
+  if (filter.from || filter.to)
+    where.at = {
+      ...(filter.from ? { [Op.gte]: new Date(`${filter.from}T00:00:00Z`) } : {}),
+      ...(filter.to ? { [Op.lt]: new Date(Date.parse(`${filter.to}T00:00:00Z`) + 86_400_000) } : {}),
+    };
+  return where;
+}
+
+/** Every event the filter selects, newest first, for an export; refused when there are too many. */
+export async function auditEventsForExport(filter: AuditFilter): Promise<AuditEvent[]> {
+  const where = auditWhere(filter);
+  const total = await AuditEventModel.count({ where });
+  if (total > AUDIT_EXPORT_MAX)
+    throw new AppError(
+      422,
+      "validation_failed",
+      `The audit log holds ${total.toLocaleString("en-GB")} events for this filter; an export takes at most ` +
+        `${AUDIT_EXPORT_MAX.toLocaleString("en-GB")}. Narrow it by days, person or action.`,
+      { fields: { from: "Narrow the span of days" } },
+    );
+  const rows = await AuditEventModel.findAll({ where, order: [["id", "DESC"]] });
+  return rows.map(toAuditEvent);
+}
+
 export async function listAuditEvents(query: AuditQuery): Promise<{ items: AuditEvent[]; total: number }> {
-  const where: WhereOptions = query.action
-    ? { action: { [Op.like]: `${query.action.replace(/[%_\\]/g, "\\$&")}%` } }
-    : {};
+  const where = auditWhere(query);
   const { rows, count } = await AuditEventModel.findAndCountAll({
     where,
     order: [["id", "DESC"]],

@@ -3,7 +3,10 @@ import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import { idParamSchema } from "../../../shared/schemas/common";
 import * as filings from "./filings.service";
+import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
+import { tableDownload } from "../../kit/table-export";
 import { sendDownload } from "../../http/download";
+import { filingsTable } from "./filings.tables";
 
 export function filingsRouter() {
   const r = createGuardedRouter();
@@ -20,6 +23,10 @@ export function filingsRouter() {
   });
   r.get("/api/filings", async (req, res) => {
     res.json(await filings.listFilings(signedInActor(req)));
+  });
+  r.get("/api/filings.:format", async (req, res) => {
+    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    sendDownload(res, await tableDownload(filingsTable(await filings.listFilings(signedInActor(req))), format));
   });
   r.get("/api/filings/:id/pack.pdf", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

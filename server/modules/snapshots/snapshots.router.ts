@@ -12,7 +12,11 @@ import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import * as snapshots from "./snapshots.service";
 import { getSnapshot, listSnapshots, snapshotPack } from "./snapshots.read";
 import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
+import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
+import { tableDownload } from "../../kit/table-export";
 import { sendDownload } from "../../http/download";
+import { currenciesByEntity } from "../../kit/lookups";
+import { snapshotsTable } from "./snapshots.tables";
 
 export function snapshotsRouter() {
   const r = createGuardedRouter();
@@ -25,6 +29,12 @@ export function snapshotsRouter() {
       signedInActor(req),
     );
     res.status(created ? 201 : 200).json(snapshot);
+  });
+  r.get("/api/snapshots.:format", async (req, res) => {
+    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const query = parseInput(snapshotListQuerySchema, req.query, "query");
+    const rows = await listSnapshots(query, signedInActor(req));
+    sendDownload(res, await tableDownload(snapshotsTable(rows, await currenciesByEntity(), query.entity), format));
   });
   r.get("/api/snapshots/:id", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

@@ -11,7 +11,10 @@ import * as uploads from "./uploads.service";
 import { commitUpload } from "./upload-commit";
 import { templateCsv, uploadStorage } from "./upload-files";
 import { getUploadRows } from "./upload-rows";
+import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
+import { tableDownload } from "../../kit/table-export";
 import { sendDownload } from "../../http/download";
+import { uploadsTable } from "./uploads.tables";
 
 // Every limit set (multer defaults to unlimited); mounted on the upload route only. The storage
 // keeps the file in memory and checks it while it arrives.
@@ -87,6 +90,10 @@ export function uploadsRouter(limits: UploadLimits = defaultUploadLimits()) {
 
   r.get("/api/uploads", async (_req, res) => {
     res.json(await uploads.listUploads());
+  });
+  r.get("/api/uploads.:format", async (req, res) => {
+    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    sendDownload(res, await tableDownload(uploadsTable(await uploads.listUploads()), format));
   });
   r.get("/api/uploads/:id", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

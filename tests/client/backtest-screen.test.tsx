@@ -329,6 +329,93 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     await waitFor(() => expect(api.callsTo("GET", "/api/portfolios/LKS-US-TOTAL/backtest").length).toBeGreaterThan(1));
   });
 
+  it("when a decision is already recorded, then the CRO corrects it with a reason, a future date is refused before sending, and every record stays listed", async () => {
+    const day = engine.exceptionDays[0].date;
+    const decisions = [
+      {
+        id: 5,
+        decision: "approved" as const,
+        reference: "SUP-2026-014",
+        decidedOn: "2026-01-20",
+        recordedBy: "Cora Ruiz",
+        recordedAt: "2026-01-21T09:00:00.000Z",
+        supersedes: null,
+        correctionReason: null,
+        superseded: true,
+      },
+      {
+        id: 6,
+        decision: "rejected" as const,
+        reference: "SUP-2026-014a",
+        decidedOn: "2026-01-27",
+        recordedBy: "Cora Ruiz",
+        recordedAt: "2026-01-28T09:00:00.000Z",
+        supersedes: 5,
+        correctionReason: "The supervisor withdrew its letter",
+        superseded: false,
+      },
+    ];
+    const api = fakeApi(
+      routes(
+        "cro",
+        backtestBody({
+          [day]: review(day, {
+            exclusionStatus: "rejected",
+            decisionReference: "SUP-2026-014a",
+            decisionDate: "2026-01-27",
+            decidedBy: "Cora Ruiz",
+            version: 4,
+            decisions,
+          }),
+        }),
+        {
+          [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`]: () => ({
+            status: 200,
+            body: review(day, { exclusionStatus: "approved", version: 5, decisions }),
+          }),
+        },
+      ),
+    );
+    const user = userEvent.setup();
+    renderApp("/backtest/LKS-US-TOTAL");
+    await user.click(await screen.findByRole("button", { name: `Review the exception of ${day}` }));
+
+    const history = await screen.findByRole("list", { name: "Decisions recorded" });
+    const items = within(history).getAllByRole("listitem");
+    expect(items[0]).toHaveTextContent(/Approved \(SUP-2026-014, 2026-01-20\).*superseded by a correction/);
+    expect(items[1]).toHaveTextContent(/Refused \(SUP-2026-014a, 2026-01-27\).*“The supervisor withdrew its letter”/);
+
+    const form = screen.getByRole("form", { name: "Supervisor's decision on the exclusion" });
+    expect(within(form).getByRole("heading", { name: "Correct the recorded decision" })).toBeInTheDocument();
+    await user.click(within(form).getByRole("radio", { name: /Approved/ }));
+    await user.type(within(form).getByLabelText("Supervisor's reference"), "SUP-2026-014b");
+    await user.type(within(form).getByLabelText("Decided on"), "2999-01-01");
+    await user.click(within(form).getByRole("button", { name: "Record the correction" }));
+    expect(within(form).getByLabelText("Decided on")).toHaveAccessibleDescription(
+      "The supervisor's decision cannot be dated in the future",
+    );
+    expect(within(form).getByLabelText("Why the recorded decision is corrected")).toHaveAttribute(
+      "aria-invalid",
+      "true",
+    );
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`)).toHaveLength(0);
+
+    await user.clear(within(form).getByLabelText("Decided on"));
+    await user.type(within(form).getByLabelText("Decided on"), "2026-02-03");
+    await user.type(within(form).getByLabelText("Why the recorded decision is corrected"), "A second letter");
+    await user.click(within(form).getByRole("button", { name: "Record the correction" }));
+    await waitFor(() =>
+      expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`)).toHaveLength(1),
+    );
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`)[0].body).toEqual({
+      decision: "approved",
+      reference: "SUP-2026-014b",
+      decidedOn: "2026-02-03",
+      correctionReason: "A second letter",
+      version: 4,
+    });
+  });
+
   it('evidence uploads as the form field "file" and is listed as a download once the server has it', async () => {
     const day = engine.exceptionDays[1].date;
     const file = {

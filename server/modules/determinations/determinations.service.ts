@@ -22,6 +22,7 @@ import { EngineInputError } from "../../../shared/backtest/errors";
 import type { CapitalOnDate, DeterminationDto } from "../../../shared/schemas/determination";
 import type { SessionUser } from "../../../shared/schemas/auth";
 import { loadEntityEngineInputs, storedDeterminations, toDeterminationDto } from "./determinations.store";
+import { deskStatusTimeline, frtbFiguresOn } from "../frtb/frtb.store";
 
 const cents = (v: number) => Math.round(v * 100) / 100;
 const today = () => new Date().toISOString().slice(0, 10);
@@ -168,6 +169,26 @@ export async function capitalOnDate(code: string, query: { date?: string }): Pro
     if (!(err instanceof EngineInputError)) throw err;
     capitalNote = `No capital figure: ${err.message}`;
   }
+  let frtb: CapitalOnDate["frtb"] = null;
+  let frtbNote: string | null = null;
+  let frtbTimeline: CapitalOnDate["frtbTimeline"];
+  if (entity.regime === "frtb") {
+    // MAR33.41–33.45: the desks' statuses and m_c are those of the determination in force on the date.
+    try {
+      frtb = await frtbFiguresOn(
+        entity,
+        inputs.series,
+        date,
+        (inForce ?? indicative).multiplier,
+        inForce?.quarterEnd ?? null,
+        inputs.options.holidays,
+      );
+    } catch (err) {
+      if (!(err instanceof EngineInputError)) throw err;
+      frtbNote = `No aggregate capital requirement: ${err.message}`;
+    }
+    frtbTimeline = await deskStatusTimeline(entity.id);
+  }
   return {
     entity: entity.code,
     currency: entity.currency,
@@ -180,6 +201,7 @@ export async function capitalOnDate(code: string, query: { date?: string }): Pro
     capitalNote,
     nextDetermination: bitesFrom(addBusinessDays(date, 1, inputs.options.holidays), inputs.options, date),
     settings,
+    ...(entity.regime === "frtb" ? { frtb, frtbNote, frtbTimeline } : {}),
   };
 }
 

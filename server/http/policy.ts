@@ -84,6 +84,9 @@ export const POLICY = {
   "GET /api/snapshots.:format": ["analyst", "cro", "treasury"],
   "POST /api/snapshots": ["analyst"],
   "GET /api/snapshots/:id": ["analyst", "cro", "treasury"],
+  // The return data: read by whoever reads the snapshot; its analyst inputs entered before submitting.
+  "GET /api/snapshots/:id/return": ["analyst", "cro", "treasury"],
+  "PUT /api/snapshots/:id/return-inputs": ["analyst"],
   "POST /api/snapshots/:id/submit": ["analyst"],
   "POST /api/snapshots/:id/approve": ["cro"],
   "POST /api/snapshots/:id/return": ["cro"],

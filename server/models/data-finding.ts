@@ -27,7 +27,14 @@ DataFindingModel.init(
     id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
     portfolioId: { type: DataTypes.INTEGER, allowNull: false },
     kind: {
-      type: DataTypes.ENUM("missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"),
+      type: DataTypes.ENUM(
+        "missing_day",
+        "stale_var",
+        "pnl_without_var",
+        "var_without_pnl",
+        "hpl_without_rtpl",
+        "outlier",
+      ),
       allowNull: false,
     },
     dateFrom: { type: DataTypes.DATEONLY, allowNull: false },

@@ -35,9 +35,11 @@ export function drawPnlVarChart(
   const present = values.filter((v): v is number => v !== null);
   const lo = Math.min(0, ...present);
   const hi = Math.max(0, ...present);
-  const yTicks = ticks(lo, hi);
-  const yMin = Math.min(lo, yTicks[0]);
-  const yMax = Math.max(hi, yTicks[yTicks.length - 1]);
+  // Room below the lowest point and above the highest, so no mark sits on the frame or the dates.
+  const pad = (hi - lo || 1) * 0.08;
+  const yTicks = ticks(lo - pad, hi + pad);
+  const yMin = Math.min(lo - pad, yTicks[0]);
+  const yMax = Math.max(hi + pad, yTicks[yTicks.length - 1]);
   const axisWidth = 52;
   const x0 = left + axisWidth;
   const plotWidth = width - axisWidth - 4;

@@ -14,6 +14,8 @@ export const amount = (v: number | null | undefined, currency?: string) =>
   v == null
     ? "—"
     : `${v.toLocaleString("en-GB", { minimumFractionDigits: 0, maximumFractionDigits: 0 })}${currency ? ` ${currency}` : ""}`;
+/** An amount with its cents, as a return reports it. */
+export const amount2 = (v: number) => v.toLocaleString("en-GB", { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 export const factor = (v: number) => v.toFixed(2);
 export const percent = (v: number) => `${(v * 100).toFixed(2)}%`;
 export const when = (iso: string | null) => (iso ? `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC` : "—");

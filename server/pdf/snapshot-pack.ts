@@ -10,7 +10,8 @@ import { quarterLabel, quarterStart } from "../../shared/backtest/quarters";
 import { SIGNED_OFF, type Snapshot, type SnapshotException } from "../../shared/schemas/snapshot";
 import type { ExceptionCause } from "../../shared/schemas/review";
 import { drawPnlVarChart } from "./pack-chart";
-import { INK, MUTED, PackLayout, WARN, amount, factor, percent, when, type Column } from "./pack-layout";
+import { returnData } from "../../shared/backtest/return-data";
+import { INK, MUTED, PackLayout, WARN, amount, amount2, factor, percent, when, type Column } from "./pack-layout";
 
 /**
  * The quarterly pack of one snapshot as a PDF, from its frozen figures: the cover (entity, quarter,
@@ -358,6 +359,38 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
       })),
     );
   }
+
+  // ── Return data ────────────────────────────────────────────────────────────────────────────
+  L.heading("Return data", 80);
+  const ret = returnData(f, s.quarterEnd);
+  L.paragraph(
+    `What the quarter's supervisory return and disclosure take from this snapshot, with the template row where the standard names one. Amounts in ${cur}; “not entered” is a value the product does not hold and the analyst has not entered yet.`,
+    { colour: MUTED, size: 8.5 },
+  );
+  L.table(
+    [
+      { header: "Template row", width: 92 },
+      { header: "Field", width: 190 },
+      { header: "Value", width: 72, align: "right" },
+      { header: "Source", width: width - 354 },
+    ],
+    ret.fields.map((x) => ({
+      cells: [
+        x.templateRow ?? "—",
+        x.label,
+        x.value === null
+          ? x.analystInput
+            ? "not entered"
+            : "—"
+          : x.unit === "amount"
+            ? amount2(x.value)
+            : x.unit === "factor"
+              ? factor(x.value)
+              : String(x.value),
+        x.source,
+      ],
+    })),
+  );
 
   if (s.restatedAfterSignOff) {
     L.heading("Changed after sign-off");

@@ -6,6 +6,7 @@ export interface QualityInput {
   actualPnl: number | null;
   hypotheticalPnl: number | null;
   var99: number | null;
+  rtpl?: number | null;
 }
 
 export interface QualityFinding {
@@ -47,7 +48,7 @@ const span = (a: string, b: string) => (a === b ? a : `${a} to ${b}`);
 
 /**
  * Data-quality checks on one portfolio's current daily series (sorted by date): missing
- * business days, stale VaR, P&L without VaR or VaR without P&L, and outliers.
+ * business days, stale VaR, P&L without VaR or VaR without P&L, HPL without RTPL, and outliers.
  */
 export function findDataQualityIssues(
   series: readonly QualityInput[],
@@ -115,6 +116,13 @@ export function findDataQualityIssues(
           : "hypothetical";
     return `VaR reported without ${missingSeries} P&L on ${o.date}`;
   });
+  // FRTB: a day with HPL but no RTPL drops out of the P&L attribution test (docs/rules.md#pla); said, not silent.
+  if (series.some((o) => o.rtpl != null))
+    perDay("hpl_without_rtpl", (o) =>
+      o.hypotheticalPnl !== null && o.rtpl == null
+        ? `Hypothetical P&L without risk-theoretical P&L on ${o.date}: the P&L attribution test leaves the day out`
+        : null,
+    );
   perDay("outlier", (o) => {
     if (o.var99 === null || o.var99 <= 0) return null;
     const worst = Math.max(Math.abs(o.actualPnl ?? 0), Math.abs(o.hypotheticalPnl ?? 0));

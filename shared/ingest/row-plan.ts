@@ -33,6 +33,8 @@ export interface QualityDay {
   actualPnl: number | null;
   hypotheticalPnl: number | null;
   var99: number | null;
+  /** Risk-theoretical P&L: a day with HPL but none is a finding where the portfolio reports RTPL at all. */
+  rtpl?: number | null;
 }
 
 const sameValues = (stored: Record<AmountColumn, number | null>, row: ParsedRow) =>
@@ -104,6 +106,7 @@ export function currentDaysInSpan(
       actualPnl: r.actual_pnl ?? null,
       hypotheticalPnl: r.hypothetical_pnl ?? null,
       var99: r.var_99 ?? null,
+      rtpl: r.rtpl ?? null,
     });
     if (stored.size) written.add(`${portfolioId}|${r.date}`);
   }
@@ -114,6 +117,7 @@ export function currentDaysInSpan(
         actualPnl: day.values.actual_pnl,
         hypotheticalPnl: day.values.hypothetical_pnl,
         var99: day.values.var_99,
+        rtpl: day.values.rtpl,
       });
   }
   return byPortfolio;

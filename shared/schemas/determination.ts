@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { isoDateSchema, pnlBasisSchema, plainNameSchema } from "./common";
 import { zoneSchema } from "./backtest";
+import { frtbFiguresSchema, frtbStatusPointSchema } from "./frtb";
 
 /**
  * Determinations of the multiplier and the figures in force (shared/backtest/determination.ts),
@@ -101,6 +102,15 @@ export const capitalOnDateSchema = z.object({
     effectiveFrom: z.string(),
     reference: z.string(),
   }),
+  /**
+   * FRTB entities: the MAR33 aggregation on `date` with m_c in force and the desks' statuses of the
+   * determination in force (docs/rules.md#frtb-aggregation); null for other rule sets or without
+   * the inputs (`frtbNote` says why).
+   */
+  frtb: frtbFiguresSchema.nullable().optional(),
+  frtbNote: z.string().nullable().optional(),
+  /** FRTB entities: each desk's status at each determination, oldest first. */
+  frtbTimeline: z.array(frtbStatusPointSchema).optional(),
 });
 export type CapitalOnDate = z.infer<typeof capitalOnDateSchema>;
 
@@ -133,9 +143,12 @@ export const settingsRecordSchema = settingsValuesSchema.extend({
   effectiveFrom: z.string(),
   reference: z.string(),
   status: z.enum(["proposed", "approved", "rejected"]),
+  /** The proposer's e-mail and name (null for a record made with the entity or by the migration). */
   proposedBy: z.string().nullable(),
+  proposedByName: z.string().nullable(),
   proposedAt: z.string().nullable(),
   decidedBy: z.string().nullable(),
+  decidedByName: z.string().nullable(),
   decidedAt: z.string().nullable(),
   decisionComment: z.string().nullable(),
   /** Whether this record is the one in force today. */

@@ -1,7 +1,14 @@
 import { z } from "zod";
 
 /** Data-quality findings: what the checks found in the daily data, and how an analyst closed it. */
-export const findingKindSchema = z.enum(["missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"]);
+export const findingKindSchema = z.enum([
+  "missing_day",
+  "stale_var",
+  "pnl_without_var",
+  "var_without_pnl",
+  "hpl_without_rtpl",
+  "outlier",
+]);
 export type FindingKind = z.infer<typeof findingKindSchema>;
 export const findingStatusSchema = z.enum(["open", "resolved", "explained"]);
 export const findingSchema = z.object({

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
 import { testOutcomeSchema, zoneSchema } from "./backtest";
 import { exceptionCauseSchema, exclusionStatusSchema } from "./review";
+import { frtbFiguresSchema } from "./frtb";
 
 /**
  * Quarter snapshots: the figures of one entity at one quarter end, frozen for sign-off.
@@ -170,6 +171,19 @@ export const snapshotFiguresSchema = z.object({
   capitalDetail: snapshotCapitalDetailSchema.nullable().optional(),
   exceptionDetail: z.array(snapshotExceptionSchema).optional(),
   days: z.array(snapshotDaySchema).optional(),
+  /**
+   * Values of the return the product does not hold (IRC, CRM, specific risk, standardised
+   * charges), entered by the analyst before submitting and sealed with the figures
+   * (docs/rules.md#return-data); a key absent or null is not entered yet.
+   */
+  analystInputs: z.record(z.string(), z.number().nullable()).optional(),
+  /**
+   * FRTB: the MAR33 aggregation at the quarter's last business day with the desks' statuses this
+   * quarter's determination set (absent in snapshots made before it was kept; null without its
+   * inputs, `frtbNote` says why).
+   */
+  frtb: frtbFiguresSchema.nullable().optional(),
+  frtbNote: z.string().nullable().optional(),
 });
 export type SnapshotFigures = z.infer<typeof snapshotFiguresSchema>;
 
@@ -243,3 +257,62 @@ export const chainVerifySchema = z.object({
   detail: z.string(),
 });
 export type ChainVerify = z.infer<typeof chainVerifySchema>;
+
+/** PUT /api/snapshots/:id/return-inputs: the analyst's values for the return, in the entity's currency. */
+export const returnInputsBodySchema = z
+  .object({
+    values: z.record(
+      z.string(),
+      z
+        .number({ message: "Enter an amount in the entity's currency, or leave it empty" })
+        .finite()
+        .min(0, "An amount of the return is never negative")
+        .max(1e15, "That amount is larger than any return holds")
+        .nullable(),
+    ),
+    version: z.number().int().positive(),
+  })
+  .strict();
+export type ReturnInputsBody = z.infer<typeof returnInputsBodySchema>;
+
+export const returnFieldSchema = z.object({
+  key: z.string(),
+  label: z.string(),
+  templateRow: z.string().optional(),
+  value: z.number().nullable(),
+  unit: z.enum(["amount", "count", "factor"]),
+  currency: z.string().optional(),
+  source: z.string(),
+  analystInput: z.literal(true).optional(),
+});
+export const snapshotReturnSchema = z.object({
+  regime: regimeSchema,
+  quarterEnd: z.string(),
+  asOf: z.string(),
+  currency: z.string(),
+  fields: z.array(returnFieldSchema),
+  backtesting: z
+    .object({
+      window: z.object({ start: z.string().nullable(), end: z.string().nullable(), observations: z.number().int() }),
+      days: z.array(
+        z.object({
+          date: z.string(),
+          actual: z.number().nullable(),
+          hypothetical: z.number().nullable(),
+          var99: z.number().nullable(),
+        }),
+      ),
+      exceptions: z.array(
+        z.object({
+          date: z.string(),
+          actual: z.number().nullable(),
+          hypothetical: z.number().nullable(),
+          var99: z.number().nullable(),
+          cause: z.string().nullable(),
+          excluded: z.boolean(),
+        }),
+      ),
+    })
+    .nullable(),
+});
+export type SnapshotReturn = z.infer<typeof snapshotReturnSchema>;

@@ -128,6 +128,10 @@ describe("the quarterly pack, read back page by page", () => {
     expect(text).toMatch(
       /Requirement = max\(VaR_t−1, m_c × VaR_avg\) \+ max\(sVaR_t−1, m_s × sVaR_avg\) = max\(3\d\d, 3\.40 × 3\d\d\)/,
     );
+    // The return data table (docs/rules.md#return-data): C 24.00 rows with their values, inputs not entered said so.
+    expect(text).toMatch(/C 24\.00 r010 c150 VaR multiplication factor \(m_c\) 3\.40/);
+    expect(text).toMatch(/C 24\.00 r010 c140 Number of overshootings during previous 250 (working days )?5 Engine/);
+    expect(text).toMatch(/C 24\.00 r010 c080 Incremental default and migration risk: last (measure )?not entered/);
     expect(text).toContain("Daily P&L against VaR over the window");
     expect(text).toMatch(/250 business days from \d{4}-\d\d-\d\d to 2026-09-30/);
   });

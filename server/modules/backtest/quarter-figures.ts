@@ -15,6 +15,7 @@ import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { loadSeries } from "../observations/observations.repository";
 import { deskResults } from "../figures/stored-figures";
+import { frtbFiguresOn } from "../frtb/frtb.store";
 import { loadPortfolioContext } from "../figures/engine-inputs";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import {
@@ -32,20 +33,27 @@ export interface QuarterFigures {
   engineVersion: string;
 }
 
-/** The values of a day that feed the figures, in a fixed order (for the inputs hash). */
-const dayValues = (o: Observation) => [
-  o.date,
-  o.actualPnl,
-  o.hypotheticalPnl,
-  o.var99,
-  o.var975,
-  o.svar99,
-  o.var10d,
-  o.svar10d,
-  o.es975,
-  o.ses,
-  o.rtpl,
-];
+/**
+ * The values of a day that feed the figures, in a fixed order (for the inputs hash). The FRTB
+ * charges join only on days that carry one, so days stored before they existed hash as they did.
+ */
+const dayValues = (o: Observation) => {
+  const base = [
+    o.date,
+    o.actualPnl,
+    o.hypotheticalPnl,
+    o.var99,
+    o.var975,
+    o.svar99,
+    o.var10d,
+    o.svar10d,
+    o.es975,
+    o.ses,
+    o.rtpl,
+  ];
+  const charges = [o.imaDrc, o.sbm, o.rrao, o.saDrc, o.saGa];
+  return charges.some((v) => v != null) ? [...base, ...charges] : base;
+};
 
 /**
  * An entity's figures at a quarter end, computed by the engine from the current daily data of its
@@ -105,6 +113,17 @@ export async function quarterFigures(
   }
 
   const desks = await deskResults(ctx, asOf, portfolios);
+  // FRTB: the MAR33 aggregation with the desks' statuses of this quarter's determination (docs/rules.md#frtb-aggregation).
+  let frtb: SnapshotFigures["frtb"] = null;
+  let frtbNote: string | null = null;
+  if (entity.regime === "frtb") {
+    try {
+      frtb = await frtbFiguresOn(entity, series, asOf, multipliers.multiplier, quarterEnd, ctx.holidays);
+    } catch (err) {
+      if (!(err instanceof EngineInputError)) throw err;
+      frtbNote = `No aggregate capital requirement: ${err.message}`;
+    }
+  }
   const from = bt.window.start ?? asOf;
   const inWindow = (o: Observation) => o.date >= from && o.date <= asOf;
   const reviews = new Map(
@@ -184,6 +203,7 @@ export async function quarterFigures(
       passes: d.backtest.passes,
       plaZone: d.pla?.zone ?? null,
     })),
+    ...(entity.regime === "frtb" ? { frtb, frtbNote } : {}),
   };
 
   // The inputs: what a second computation would need to give the same figures.

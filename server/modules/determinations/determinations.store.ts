@@ -19,6 +19,7 @@ import { getRegime } from "../../../shared/backtest/regimes";
 import { zoneLabel, type Observation } from "../../../shared/backtest/types";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { snapshotFiguresSchema } from "../../../shared/schemas/snapshot";
+import { refreshDeskStatuses } from "../frtb/frtb.store";
 import type { DeterminationDto } from "../../../shared/schemas/determination";
 
 /** What the engine needs to determine an entity's multiplier: the top portfolio's data and the entity's rules. */
@@ -172,6 +173,8 @@ export async function refreshDeterminations(entityId: number, transaction: Trans
     );
   }
   const ordered = withSpans([...rows.values()].sort((a, b) => (a.periodEnd < b.periodEnd ? -1 : 1)));
+  // FRTB: each desk's status at each determination (docs/rules.md#frtb-eligibility), in the same transaction.
+  await refreshDeskStatuses(entity, ordered, inputs.options.holidays, transaction);
 
   const keep = new Set(ordered.map((d) => d.periodEnd));
   const gone = stored.filter((d) => !keep.has(d.periodEnd)).map((d) => d.id);

@@ -209,7 +209,7 @@ export async function loadSeries(
 }
 
 /**
- * The four columns the data-quality checks read, for each portfolio's current series (sorted);
+ * The columns the data-quality checks read, for each portfolio's current series (sorted);
  * with `outside`, only the days before or after that span (the caller knows the days inside it).
  */
 export async function loadQualitySeries(
@@ -220,12 +220,14 @@ export async function loadQualitySeries(
   const out = new Map<number, QualityDay[]>(portfolioIds.map((id) => [id, []]));
   if (portfolioIds.length === 0) return out;
   const span = outside ? " AND (current_day < :from OR current_day > :to)" : "";
-  const rows = await sequelize.query<{ p: number; d: string; a: unknown; h: unknown; v: unknown }>(
-    `SELECT portfolio_id AS p, DATE_FORMAT(current_day, '%Y-%m-%d') AS d, actual_pnl AS a, hypothetical_pnl AS h, var_99 AS v
+  const rows = await sequelize.query<{ p: number; d: string; a: unknown; h: unknown; v: unknown; r: unknown }>(
+    `SELECT portfolio_id AS p, DATE_FORMAT(current_day, '%Y-%m-%d') AS d, actual_pnl AS a, hypothetical_pnl AS h, var_99 AS v, rtpl AS r
        FROM observations WHERE portfolio_id IN (:ids) AND current_day IS NOT NULL${span} ORDER BY portfolio_id, current_day`,
     { replacements: { ids: portfolioIds, from: outside?.from, to: outside?.to }, type: QueryTypes.SELECT, transaction },
   );
   for (const r of rows)
-    out.get(Number(r.p))?.push({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v) });
+    out
+      .get(Number(r.p))
+      ?.push({ date: r.d, actualPnl: num(r.a), hypotheticalPnl: num(r.h), var99: num(r.v), rtpl: num(r.r) });
   return out;
 }

@@ -3,6 +3,7 @@ import { signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createSnapshotSchema,
+  returnInputsBodySchema,
   returnSnapshotSchema,
   snapshotActionSchema,
   snapshotListQuerySchema,
@@ -15,6 +16,7 @@ import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
 import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
 import { tableDownload } from "../../kit/table-export";
 import { sendDownload } from "../../http/download";
+import { getSnapshotReturn, setReturnInputs } from "./snapshots.return";
 import { currenciesByEntity } from "../../kit/lookups";
 import { snapshotsTable } from "./snapshots.tables";
 
@@ -44,6 +46,14 @@ export function snapshotsRouter() {
     const { id } = parseInput(idParamSchema, req.params, "address");
     const pack = await snapshotPack(id, signedInActor(req));
     sendDownload(res, { fileName: pack.fileName, contentType: "application/pdf", bytes: pack.bytes });
+  });
+  r.get("/api/snapshots/:id/return", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await getSnapshotReturn(id, signedInActor(req)));
+  });
+  r.put("/api/snapshots/:id/return-inputs", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await setReturnInputs(id, parseInput(returnInputsBodySchema, req.body ?? {}), signedInActor(req)));
   });
   r.post("/api/snapshots/:id/submit", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

@@ -13,6 +13,7 @@ import {
   type ReturnSnapshotBody,
   type Snapshot,
   type SnapshotActionBody,
+  type SnapshotFigures,
 } from "../../../shared/schemas/snapshot";
 import { openFindingsInQuarter, snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
@@ -112,7 +113,9 @@ export async function prepareSnapshot(
       );
     }
     const computed = await quarterFigures(entity, body.quarterEnd);
-    const { figures } = computed;
+    // The analyst's return values stay with the quarter when it is prepared again.
+    const kept = existing ? (JSON.parse(existing.figuresJson) as SnapshotFigures).analystInputs : undefined;
+    const figures: SnapshotFigures = kept ? { ...computed.figures, analystInputs: kept } : computed.figures;
     const values = {
       status: "draft" as const,
       zone: figures.zone,

@@ -5,6 +5,7 @@ export const findingKindLabels: Record<FindingKind, string> = {
   stale_var: "Stale VaR",
   pnl_without_var: "P&L without VaR",
   var_without_pnl: "VaR without P&L",
+  hpl_without_rtpl: "HPL without RTPL",
   outlier: "Outlier",
 };
 

@@ -11,6 +11,7 @@ import { SnapshotActions } from "./snapshot-actions";
 import { SnapshotFigures } from "./snapshot-figures";
 import { SnapshotFiling, type FilingLookup } from "./snapshot-filing";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
+import { SnapshotReturn } from "./snapshot-return";
 
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
 function RestatedWarning({ restated }: { restated: NonNullable<Snapshot["restatedAfterSignOff"]> }) {
@@ -101,6 +102,7 @@ export function SnapshotDetail({
         <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />
       )}
       <SnapshotFigures snapshot={snapshot} />
+      <SnapshotReturn snapshot={snapshot} role={role} />
       <SnapshotActions
         key={snapshot.id}
         snapshot={snapshot}

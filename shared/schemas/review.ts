@@ -29,10 +29,21 @@ export const reviewBodySchema = z.strictObject({
 export type ReviewBody = z.infer<typeof reviewBodySchema>;
 
 /** The CRO records what the supervisor decided about an exclusion request. */
+/** Today's date in UTC, the calendar the server keeps. */
+const todayUtc = () => new Date().toISOString().slice(0, 10);
+
 export const decisionBodySchema = z.strictObject({
   decision: z.enum(["approved", "rejected"]),
   reference: z.string().trim().min(1, "Give the supervisor's reference for the decision").max(120),
-  decidedOn: isoDateSchema,
+  // A decision is recorded once the supervisor has taken it: never on a date still to come.
+  decidedOn: isoDateSchema.refine((d) => d <= todayUtc(), "The supervisor's decision cannot be dated in the future"),
+  /** Required when a decision is already recorded: the new record supersedes it, and says why. */
+  correctionReason: z
+    .string()
+    .trim()
+    .min(5, "Say in a few words why the recorded decision is corrected")
+    .max(500, "At most 500 characters")
+    .optional(),
   version: z.number().int().positive(),
 });
 export type DecisionBody = z.infer<typeof decisionBodySchema>;
@@ -46,6 +57,20 @@ export const evidenceSchema = z.object({
   uploadedAt: z.string(),
 });
 export type Evidence = z.infer<typeof evidenceSchema>;
+/** One recorded decision; a correction names the one it supersedes. Both stay. */
+export const exclusionDecisionSchema = z.object({
+  id: z.number().int(),
+  decision: z.enum(["approved", "rejected"]),
+  reference: z.string(),
+  decidedOn: z.string(),
+  recordedBy: z.string().nullable(),
+  recordedAt: z.string(),
+  supersedes: z.number().int().nullable(),
+  correctionReason: z.string().nullable(),
+  /** Whether a later record corrected this one. */
+  superseded: z.boolean(),
+});
+export type ExclusionDecision = z.infer<typeof exclusionDecisionSchema>;
 export const reviewSchema = z.object({
   date: z.string(),
   cause: exceptionCauseSchema,
@@ -58,5 +83,7 @@ export const reviewSchema = z.object({
   reviewedAt: z.string(),
   version: z.number().int(),
   evidence: z.array(evidenceSchema),
+  /** Every decision recorded on the exclusion request, oldest first (absent where none was ever asked). */
+  decisions: z.array(exclusionDecisionSchema).optional(),
 });
 export type Review = z.infer<typeof reviewSchema>;

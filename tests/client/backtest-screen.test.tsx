@@ -55,6 +55,55 @@ function backtestBody(reviews: Record<string, Review> = {}) {
 
 const entities = [larkspurUS];
 
+/**
+ * Capital on the latest day as the server answers it: the determination of the quarter end before
+ * (four exceptions, green 3.00, approved) is in force; the rolling count has since reached seven.
+ */
+const capitalOnDate = {
+  entity: "LKS-US",
+  currency: "USD",
+  date: asOf,
+  inForce: {
+    quarterEnd: "2025-09-30",
+    asOf: "2025-09-30",
+    effectiveFrom: "2025-10-01",
+    effectiveTo: null,
+    counted: 4,
+    zone: "green",
+    zoneLabel: "green",
+    plusFactor: 0,
+    multiplier: 3,
+    multiplierSvar: 3,
+    status: "approved",
+    snapshotId: 4,
+  },
+  indicative: {
+    asOf,
+    counted: 7,
+    zone: "yellow",
+    zoneLabel: "yellow",
+    plusFactor: 0.65,
+    multiplier: 3.65,
+    multiplierSvar: 3.65,
+    windowComplete: true,
+  },
+  requirement: null,
+  addOn: null,
+  indicativeRequirement: null,
+  capitalNote: "No capital figure: no stressed VaR in the data",
+  nextDetermination: { quarterEnd: "2025-12-31", asOf: "2025-12-31", effectiveFrom: "2026-01-02" },
+  settings: {
+    id: 1,
+    effectiveFrom: "1900-01-01",
+    reference: "Settings entered when the entity was created",
+    pnlBasis: "actual",
+    qualitativeAddend: 0,
+    qualitativeAddendSvar: null,
+    multiplierFloor: null,
+    determinationFrequency: "quarterly",
+  },
+};
+
 function routes(
   role: "analyst" | "cro",
   body: unknown,
@@ -68,6 +117,7 @@ function routes(
       body: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities — total trading", level: "top" }],
     },
     "GET /api/portfolios/LKS-US-TOTAL/backtest": { status: 200, body },
+    "GET /api/entities/LKS-US/capital": { status: 200, body: capitalOnDate },
     "GET /api/portfolios/LKS-US-TOTAL/rolling": {
       status: 200,
       body: rollingBacktest(observations, { regime: "us", pnlBasis: "actual" }),
@@ -132,7 +182,13 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
       `${engine.window.start} to ${engine.window.end}`,
     );
     const zoneName = engine.zone[0].toUpperCase() + engine.zone.slice(1);
-    expect(within(standing).getByText(zoneName)).toBeInTheDocument();
+    expect(within(standing).getAllByText(zoneName).length).toBeGreaterThan(0);
+    // Which multiplier is which: the last determination's is in force, the rolling count's is indicative.
+    expect(await within(standing).findByTestId("multiplier-in-force")).toHaveTextContent("3.00");
+    expect(within(standing).getByText(/in force since 2025-10-01 \(Q3 2025, approved\)/)).toBeInTheDocument();
+    expect(within(standing).getByText("Green")).toBeInTheDocument();
+    expect(within(standing).getByText("Indicative if determined today")).toBeInTheDocument();
+    expect(within(standing).getByTestId("multiplier-indicative")).toHaveTextContent(engine.multiplier.toFixed(2));
     // Sanity on the invented series: seven actual exceptions in the last 250 days, US rule → yellow.
     expect(engine.exceptions.counted).toBe(7);
     expect(engine.zone).toBe("yellow");
@@ -271,6 +327,93 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     });
     // After the decision the figures are read again from the server.
     await waitFor(() => expect(api.callsTo("GET", "/api/portfolios/LKS-US-TOTAL/backtest").length).toBeGreaterThan(1));
+  });
+
+  it("when a decision is already recorded, then the CRO corrects it with a reason, a future date is refused before sending, and every record stays listed", async () => {
+    const day = engine.exceptionDays[0].date;
+    const decisions = [
+      {
+        id: 5,
+        decision: "approved" as const,
+        reference: "SUP-2026-014",
+        decidedOn: "2026-01-20",
+        recordedBy: "Cora Ruiz",
+        recordedAt: "2026-01-21T09:00:00.000Z",
+        supersedes: null,
+        correctionReason: null,
+        superseded: true,
+      },
+      {
+        id: 6,
+        decision: "rejected" as const,
+        reference: "SUP-2026-014a",
+        decidedOn: "2026-01-27",
+        recordedBy: "Cora Ruiz",
+        recordedAt: "2026-01-28T09:00:00.000Z",
+        supersedes: 5,
+        correctionReason: "The supervisor withdrew its letter",
+        superseded: false,
+      },
+    ];
+    const api = fakeApi(
+      routes(
+        "cro",
+        backtestBody({
+          [day]: review(day, {
+            exclusionStatus: "rejected",
+            decisionReference: "SUP-2026-014a",
+            decisionDate: "2026-01-27",
+            decidedBy: "Cora Ruiz",
+            version: 4,
+            decisions,
+          }),
+        }),
+        {
+          [`PUT /api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`]: () => ({
+            status: 200,
+            body: review(day, { exclusionStatus: "approved", version: 5, decisions }),
+          }),
+        },
+      ),
+    );
+    const user = userEvent.setup();
+    renderApp("/backtest/LKS-US-TOTAL");
+    await user.click(await screen.findByRole("button", { name: `Review the exception of ${day}` }));
+
+    const history = await screen.findByRole("list", { name: "Decisions recorded" });
+    const items = within(history).getAllByRole("listitem");
+    expect(items[0]).toHaveTextContent(/Approved \(SUP-2026-014, 2026-01-20\).*superseded by a correction/);
+    expect(items[1]).toHaveTextContent(/Refused \(SUP-2026-014a, 2026-01-27\).*“The supervisor withdrew its letter”/);
+
+    const form = screen.getByRole("form", { name: "Supervisor's decision on the exclusion" });
+    expect(within(form).getByRole("heading", { name: "Correct the recorded decision" })).toBeInTheDocument();
+    await user.click(within(form).getByRole("radio", { name: /Approved/ }));
+    await user.type(within(form).getByLabelText("Supervisor's reference"), "SUP-2026-014b");
+    await user.type(within(form).getByLabelText("Decided on"), "2999-01-01");
+    await user.click(within(form).getByRole("button", { name: "Record the correction" }));
+    expect(within(form).getByLabelText("Decided on")).toHaveAccessibleDescription(
+      "The supervisor's decision cannot be dated in the future",
+    );
+    expect(within(form).getByLabelText("Why the recorded decision is corrected")).toHaveAttribute(
+      "aria-invalid",
+      "true",
+    );
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`)).toHaveLength(0);
+
+    await user.clear(within(form).getByLabelText("Decided on"));
+    await user.type(within(form).getByLabelText("Decided on"), "2026-02-03");
+    await user.type(within(form).getByLabelText("Why the recorded decision is corrected"), "A second letter");
+    await user.click(within(form).getByRole("button", { name: "Record the correction" }));
+    await waitFor(() =>
+      expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`)).toHaveLength(1),
+    );
+    expect(api.callsTo("PUT", `/api/portfolios/LKS-US-TOTAL/exceptions/${day}/decision`)[0].body).toEqual({
+      decision: "approved",
+      reference: "SUP-2026-014b",
+      decidedOn: "2026-02-03",
+      correctionReason: "A second letter",
+      version: 4,
+    });
   });
 
   it('evidence uploads as the form field "file" and is listed as a download once the server has it', async () => {

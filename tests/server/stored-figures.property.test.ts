@@ -176,6 +176,8 @@ async function apply(run: Run, c: Command): Promise<void> {
             decision: c.approve ? "approved" : "rejected",
             reference: "SUP-2026-1",
             decidedOn: day.date,
+            // A decision already recorded is corrected by a superseding record, which says why.
+            correctionReason: day.status === "approved" ? "The supervisor corrected its letter" : undefined,
             version: day.version,
           },
           run.cro,

@@ -1,6 +1,7 @@
 import { Op } from "sequelize";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
+import { ExclusionDecisionModel } from "../../models/exclusion-decision";
 import type { Review } from "../../../shared/schemas/review";
 import { emailsById } from "../../kit/lookups";
 
@@ -13,7 +14,13 @@ export async function reviewsByDate(portfolioId: number, dates?: string[]): Prom
     where: { reviewId: rows.map((r) => r.id) },
     order: [["id", "ASC"]],
   });
+  const decisions = await ExclusionDecisionModel.findAll({
+    where: { reviewId: rows.map((r) => r.id) },
+    order: [["id", "ASC"]],
+  });
+  const supersededIds = new Set(decisions.map((d) => d.supersedesId).filter((id): id is number => id !== null));
   const userIds = new Set<number>();
+  for (const d of decisions) if (d.decidedBy) userIds.add(d.decidedBy);
   for (const r of rows) {
     userIds.add(r.reviewedBy);
     if (r.decidedBy) userIds.add(r.decidedBy);
@@ -43,6 +50,19 @@ export async function reviewsByDate(portfolioId: number, dates?: string[]): Prom
           sha256: e.sha256,
           uploadedBy: emails.get(e.uploadedBy) ?? "unknown",
           uploadedAt: e.createdAt.toISOString(),
+        })),
+      decisions: decisions
+        .filter((d) => d.reviewId === r.id)
+        .map((d) => ({
+          id: d.id,
+          decision: d.decision,
+          reference: d.reference,
+          decidedOn: d.decidedOn,
+          recordedBy: d.decidedBy ? (emails.get(d.decidedBy) ?? null) : null,
+          recordedAt: d.recordedAt.toISOString(),
+          supersedes: d.supersedesId,
+          correctionReason: d.correctionReason,
+          superseded: supersededIds.has(d.id),
         })),
     });
   }

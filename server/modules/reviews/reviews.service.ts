@@ -4,8 +4,10 @@ import { lockEntityPortfolios } from "../../db/portfolio-locks";
 import { refreshEntityFigures } from "../figures/stored-figures";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
+import { ExclusionDecisionModel } from "../../models/exclusion-decision";
 import { ObservationModel } from "../../models/observation";
-import { AppError, BadRequestError, ConflictError, NotFoundError } from "../../errors";
+import { ZodError } from "zod";
+import { AppError, BadRequestError, ConflictError, NotFoundError, ValidationError } from "../../errors";
 import { recordAudit } from "../audit/audit.service";
 import { findPortfolio } from "../figures/engine-inputs";
 import { plainFileName } from "../../kit/file-name";
@@ -157,7 +159,38 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       current: await currentReview(portfolio.id, date),
     }));
     if (row.exclusionStatus === "none") throw new ConflictError("No exclusion was requested for this exception.");
+    // A recorded decision is never edited: a correction supersedes it with a new record and its reason.
+    const previous = await ExclusionDecisionModel.findOne({
+      where: { reviewId: row.id },
+      order: [["id", "DESC"]],
+      transaction,
+    });
+    const correcting = row.exclusionStatus !== "requested" && previous !== null;
+    if (correcting && !body.correctionReason)
+      throw new ValidationError(
+        new ZodError([
+          {
+            code: "custom",
+            path: ["correctionReason"],
+            message: "A decision is already recorded: say why this one supersedes it",
+            input: undefined,
+          },
+        ]),
+      );
     const before = { exclusionStatus: row.exclusionStatus, decisionReference: row.decisionReference };
+    const record = await ExclusionDecisionModel.create(
+      {
+        reviewId: row.id,
+        decision: body.decision,
+        reference: body.reference,
+        decidedOn: body.decidedOn,
+        decidedBy: actor.user.id,
+        recordedAt: new Date(),
+        supersedesId: correcting ? previous.id : null,
+        correctionReason: correcting ? body.correctionReason! : null,
+      },
+      { transaction },
+    );
     await row.update(
       {
         exclusionStatus: body.decision,
@@ -174,7 +207,13 @@ export async function recordDecision(code: string, date: string, body: DecisionB
       `${code}/${date}`,
       {
         before,
-        after: { exclusionStatus: body.decision, decisionReference: body.reference, decisionDate: body.decidedOn },
+        after: {
+          exclusionStatus: body.decision,
+          decisionReference: body.reference,
+          decisionDate: body.decidedOn,
+          decisionRecord: record.id,
+          ...(correcting ? { supersedes: previous.id, correctionReason: body.correctionReason } : {}),
+        },
       },
       transaction,
     );

@@ -1,6 +1,7 @@
 import { useId, useRef, useState, type FormEvent } from "react";
 import type { QueryKey } from "@tanstack/react-query";
 import {
+  type ExclusionDecision,
   decisionBodySchema,
   exceptionCauseSchema,
   reviewBodySchema,
@@ -27,6 +28,22 @@ import { seriesOf } from "@/lib/pnl-series";
 import { causeIds, causeLabels, exclusionStatusLabels } from "@/lib/review-labels";
 
 /** A review as it stands: who explained it, why, and what the supervisor decided. */
+/** Every decision recorded, oldest first: a correction never replaces the record it supersedes. */
+function DecisionHistory({ decisions }: { decisions: ExclusionDecision[] }) {
+  return (
+    <ol className="flex flex-col gap-1" aria-label="Decisions recorded">
+      {decisions.map((d) => (
+        <li key={d.id} className={d.superseded ? "text-ink-muted" : undefined}>
+          {d.decision === "approved" ? "Approved" : "Refused"} ({d.reference}, {d.decidedOn}), recorded by{" "}
+          {d.recordedBy ?? "—"} on {formatDateTime(d.recordedAt)}
+          {d.correctionReason && <> — corrects the record before: “{d.correctionReason}”</>}
+          {d.superseded && <> — superseded by a correction</>}
+        </li>
+      ))}
+    </ol>
+  );
+}
+
 export function ReviewRecord({ review }: { review: Review }) {
   return (
     <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
@@ -46,6 +63,14 @@ export function ReviewRecord({ review }: { review: Review }) {
             <span className="figures">{review.decisionReference}</span> of{" "}
             <span className="figures">{review.decisionDate ?? "—"}</span>
             {review.decidedBy && `, recorded by ${review.decidedBy}`}
+          </dd>
+        </>
+      )}
+      {(review.decisions?.length ?? 0) > 1 && (
+        <>
+          <dt className="text-ink-muted">Decisions recorded</dt>
+          <dd>
+            <DecisionHistory decisions={review.decisions!} />
           </dd>
         </>
       )}
@@ -308,6 +333,9 @@ function CroDecisionForm({
   const [decision, setDecision] = useState<"approved" | "rejected" | "">("");
   const [reference, setReference] = useState("");
   const [decidedOn, setDecidedOn] = useState("");
+  const [correctionReason, setCorrectionReason] = useState("");
+  // A decision already recorded is corrected by a new record that says why; the first stays visible.
+  const correcting = review.exclusionStatus === "approved" || review.exclusionStatus === "rejected";
   const [errors, setErrors] = useState<FieldErrors>({});
   const [conflict, setConflict] = useState<Review | null>(null);
   const formRef = useRef<HTMLFormElement>(null);
@@ -317,19 +345,34 @@ function CroDecisionForm({
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const checked = validate(decisionBodySchema, { decision: decision || undefined, reference, decidedOn, version });
+    const checked = validate(decisionBodySchema, {
+      decision: decision || undefined,
+      reference,
+      decidedOn,
+      version,
+      correctionReason: correcting ? correctionReason : undefined,
+    });
     if (!checked.ok) {
       setErrors({
         ...checked.errors,
         decision: checked.errors.decision ? "Choose what the supervisor decided" : undefined,
-        decidedOn: checked.errors.decidedOn ? "Give the date of the supervisor's decision" : undefined,
+        decidedOn:
+          checked.errors.decidedOn && decidedOn.trim() === ""
+            ? "Give the date of the supervisor's decision"
+            : checked.errors.decidedOn,
       });
       focusFirstInvalid(formRef.current);
       return;
     }
     setErrors({});
     record.mutate(checked.data, {
-      onSuccess: () => setConflict(null),
+      onSuccess: () => {
+        setConflict(null);
+        setDecision("");
+        setReference("");
+        setDecidedOn("");
+        setCorrectionReason("");
+      },
       onError: (err) => {
         const current = currentReviewOf(err);
         if (current) setConflict(current);
@@ -351,10 +394,13 @@ function CroDecisionForm({
       aria-label="Supervisor's decision on the exclusion"
       className="flex max-w-2xl flex-col gap-3"
     >
-      <h4 className="text-sm font-semibold">Record the supervisor's decision</h4>
+      <h4 className="text-sm font-semibold">
+        {correcting ? "Correct the recorded decision" : "Record the supervisor's decision"}
+      </h4>
       <p className="text-xs text-ink-muted">
-        The analyst asked the supervisor to disregard this exception. An approval takes it out of the counted figure
-        where the rule set allows it.
+        {correcting
+          ? "A recorded decision is never edited: the correction is a new record that supersedes it, with your reason, and both stay visible."
+          : "The analyst asked the supervisor to disregard this exception. An approval takes it out of the counted figure where the rule set allows it."}
       </p>
       {conflict && (
         <SavedMeanwhile
@@ -407,9 +453,19 @@ function CroDecisionForm({
           className="w-44"
         />
       </div>
+      {correcting && (
+        <TextareaField
+          label="Why the recorded decision is corrected"
+          rows={2}
+          maxLength={500}
+          value={correctionReason}
+          onChange={(e) => setCorrectionReason(e.target.value)}
+          error={errors.correctionReason}
+        />
+      )}
       <div>
         <Button type="submit" disabled={record.isPending}>
-          {record.isPending ? "Recording…" : "Record decision"}
+          {record.isPending ? "Recording…" : correcting ? "Record the correction" : "Record decision"}
         </Button>
       </div>
     </form>
@@ -464,10 +520,15 @@ export function ReviewPanel({
                 : ` (${review.decisionReference ?? "no reference"}, ${review.decisionDate ?? "—"}${review.decidedBy ? `, recorded by ${review.decidedBy}` : ""}).`}
             </p>
           )}
+          {role === "analyst" && (review?.decisions?.length ?? 0) > 1 && (
+            <div className="max-w-2xl text-sm text-ink-soft">
+              <DecisionHistory decisions={review!.decisions!} />
+            </div>
+          )}
         </div>
         <div className="flex flex-col gap-5 lg:border-l lg:border-rule lg:pl-6">
           <EvidencePanel code={code} day={day} canUpload={role === "analyst"} alsoInvalidate={alsoInvalidate} />
-          {role === "cro" && review?.exclusionStatus === "requested" && (
+          {role === "cro" && review && review.exclusionStatus !== "none" && (
             <CroDecisionForm
               key={day.date}
               code={code}

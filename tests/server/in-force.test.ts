@@ -6,6 +6,7 @@ import { DeterminationModel } from "../../server/models/determination";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { SupervisorySettingsModel } from "../../server/models/supervisory-settings";
 import { UserModel } from "../../server/models/user";
+import { overviewResponseSchema } from "../../shared/schemas/backtest";
 import { capitalOnDateSchema, determinationListSchema } from "../../shared/schemas/determination";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { ingestFixture } from "./ingest-helpers";
@@ -131,6 +132,21 @@ describe("the multiplier in force and the indicative one", () => {
     expect(mid.addOn).toBe(0);
     expect(mid.indicativeRequirement).toBeCloseTo(3.4 * SQRT_10 * 350.5, 2);
     expect(mid.nextDetermination).toEqual({ quarterEnd: Q3, asOf: Q3, effectiveFrom: "2026-10-01" });
+    // The Overview names both: Q2's multiplier stays in force (Q3 has no determination without data on
+    // its last business day), beside the indicative one of the rolling count.
+    const overview = await request(app).get("/api/overview").set("Cookie", b.cookie);
+    const line = overviewResponseSchema.parse(overview.body).find((i) => i.entity === b.entity.code)!;
+    expect(line).toMatchObject({ counted: 5, zone: "yellow", multiplier: 3.4 });
+    expect(line.inForce).toEqual({
+      quarterEnd: Q2,
+      effectiveFrom: "2026-07-01",
+      counted: 3,
+      zone: "green",
+      zoneLabel: "green",
+      plusFactor: 0,
+      multiplier: 3,
+      status: "provisional",
+    });
 
     // The quarter ends: Q3 is determined on 30 September and in force from 1 October.
     await uploadAndCommit(

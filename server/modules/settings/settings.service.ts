@@ -66,8 +66,9 @@ function refuseSignedOffPast(effectiveFrom: string, signedOff: string | null, co
 async function toRecord(rows: SupervisorySettingsModel[], entity: EntityModel): Promise<SettingsRecord[]> {
   const ids = [...new Set(rows.flatMap((r) => [r.proposedBy, r.decidedBy]).filter((v): v is number => v !== null))];
   const people = new Map(
-    (await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+    (await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email", "name"] })).map((u) => [u.id, u]),
   );
+  const person = (id: number | null) => (id ? (people.get(id) ?? null) : null);
   const inForce = settingsOn(rows.filter((r) => r.status === "approved").map(toDated), today());
   return rows.map((r) => ({
     id: r.id,
@@ -80,9 +81,11 @@ async function toRecord(rows: SupervisorySettingsModel[], entity: EntityModel): 
     multiplierFloor: r.multiplierFloor,
     determinationFrequency: r.determinationFrequency,
     status: r.status,
-    proposedBy: r.proposedBy ? (people.get(r.proposedBy) ?? null) : null,
+    proposedBy: person(r.proposedBy)?.email ?? null,
+    proposedByName: person(r.proposedBy)?.name ?? null,
     proposedAt: r.proposedAt?.toISOString() ?? null,
-    decidedBy: r.decidedBy ? (people.get(r.decidedBy) ?? null) : null,
+    decidedBy: person(r.decidedBy)?.email ?? null,
+    decidedByName: person(r.decidedBy)?.name ?? null,
     decidedAt: r.decidedAt?.toISOString() ?? null,
     decisionComment: r.decisionComment,
     inForceToday: inForce?.id === r.id,

@@ -13,6 +13,7 @@ import { FilingDelivery } from "@/features/filings/components/filing-delivery";
 import { PrepareSnapshotForm } from "@/features/snapshots/components/prepare-snapshot-form";
 import { SnapshotDetail } from "@/features/snapshots/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/snapshots/components/snapshot-list-table";
+import { MultiplierStanding } from "@/features/snapshots/components/multiplier-standing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -95,6 +96,7 @@ function SelectedSnapshot({
 }) {
   // The list already holds the snapshot: show it at once while its own answer is read.
   const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
+  const determinations = useQuery({ ...snapshotQueries.determinations(data?.entity ?? ""), enabled: !!data });
   // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
   // server; the filings list is the one place they are read from (treasury may not read it).
   const readsFiling =
@@ -138,6 +140,7 @@ function SelectedSnapshot({
         filingHref={filingHref}
         filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
+        determination={determinations.data?.find((d) => d.quarterEnd === data.quarterEnd)}
       />
     </>
   );
@@ -159,6 +162,14 @@ export default function SnapshotsRoute() {
   const snapshotHref = (id: number) => paths.snapshots.href({ entity, snapshot: id });
   const current = entities.find((e) => e.code === entity);
   const latest = snapshots[0];
+  const capitalToday = useQuery({
+    ...snapshotQueries.inForceToday(entity),
+    enabled: entity !== "" && role !== "treasury",
+  });
+  const signedOff = useQuery({
+    ...snapshotQueries.determinations(entity),
+    enabled: entity !== "" && role === "treasury",
+  });
   const waiting = snapshots.filter((s) => s.status === "submitted").length;
 
   return (
@@ -226,6 +237,15 @@ export default function SnapshotsRoute() {
                 </div>
               )}
             </dl>
+          )}
+          {current && (capitalToday.data || signedOff.data) && (
+            <section aria-label="Multiplier in force" className="flex flex-col gap-1">
+              <MultiplierStanding
+                regime={current.regime}
+                capital={capitalToday.data?.entity === entity ? capitalToday.data : undefined}
+                signedOff={role === "treasury" ? signedOff.data : undefined}
+              />
+            </section>
           )}
           {role === "analyst" && (
             <section className="border-t border-rule pt-4">

@@ -233,6 +233,8 @@ export default function BacktestRoute() {
   const bt = backtest.data && backtest.data.portfolio.code === code.toUpperCase() ? backtest.data : undefined;
   const entity = bt?.entity.code ?? entities[0]?.code ?? "";
   const portfolios = useQuery({ ...entityQueries.portfolios(entity), enabled: entity !== "" });
+  const inForceDate = bt && bt.asOf !== bt.latestDate ? bt.asOf : undefined;
+  const capital = useQuery({ ...backtestQueries.inForce(bt?.entity.code ?? "", inForceDate), enabled: !!bt });
 
   const openEntity = async (e: string) => {
     const list = await queryClient.ensureQueryData(entityQueries.portfolios(e));
@@ -289,7 +291,17 @@ export default function BacktestRoute() {
               {isApiError(backtest.error) ? backtest.error.message : "The backtest could not be updated."}
             </FormMessage>
           )}
-          <WhereWeStand bt={bt} />
+          <WhereWeStand
+            bt={bt}
+            capital={capital.data?.entity === bt.entity.code ? capital.data : undefined}
+            capitalError={
+              capital.error
+                ? isApiError(capital.error)
+                  ? capital.error.message
+                  : "The multiplier in force could not be read."
+                : undefined
+            }
+          />
           <Why bt={bt} code={code} />
           <WhatNext bt={bt} code={code} role={user!.role} />
           <p className="text-2xs text-ink-faint">Figures by the backtesting engine {bt.engineVersion}.</p>

@@ -9,6 +9,7 @@ import {
   type SnapshotActionBody,
 } from "@shared/schemas/snapshot";
 import { filingSchema } from "@shared/schemas/filing";
+import { capitalOnDateSchema, determinationListSchema } from "@shared/schemas/determination";
 import { api, isApiError, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
 
@@ -25,6 +26,8 @@ export const snapshotKeys = {
   details: () => [...snapshotKeys.all(), "detail"] as const,
   detail: (id: number) => [...snapshotKeys.details(), id] as const,
   verify: (id: number) => [...snapshotKeys.detail(id), "verify"] as const,
+  determinations: (entity: string) => [...snapshotKeys.all(), "determinations", entity] as const,
+  inForceToday: (entity: string) => [...snapshotKeys.all(), "in-force-today", entity] as const,
 };
 
 export const snapshotQueries = {
@@ -38,6 +41,18 @@ export const snapshotQueries = {
     queryOptions({
       queryKey: snapshotKeys.detail(id),
       queryFn: () => api.get(base(id), snapshotSchema),
+    }),
+  /** The entity's determinations of the multiplier, oldest first (treasury receives the signed-off ones only). */
+  determinations: (entity: string) =>
+    queryOptions({
+      queryKey: snapshotKeys.determinations(entity),
+      queryFn: () => api.get(`/api/entities/${encodeURIComponent(entity)}/determinations`, determinationListSchema),
+    }),
+  /** The multiplier in force today beside the indicative one (the reporting office and the CRO only). */
+  inForceToday: (entity: string) =>
+    queryOptions({
+      queryKey: snapshotKeys.inForceToday(entity),
+      queryFn: () => api.get(`/api/entities/${encodeURIComponent(entity)}/capital`, capitalOnDateSchema),
     }),
   /** The server recomputes the hash chain each time it is asked; a cached answer would prove nothing. */
   verify: (id: number) =>

@@ -4,6 +4,7 @@ import { quarterLabel, quarterStart } from "@shared/backtest/quarters";
 import { type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import type { Filing } from "@shared/schemas/filing";
+import type { DeterminationDto } from "@shared/schemas/determination";
 import { Notice } from "@/components/ui/notice";
 import { formatDateTime, plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -60,8 +61,11 @@ export function SnapshotDetail({
   filingHref,
   filingDelivery,
   updating,
+  determination,
 }: {
   snapshot: Snapshot;
+  /** The quarter's determination of the multiplier (its span in force and status). */
+  determination?: DeterminationDto;
   role: Role;
   userEmail: string;
   findingsHref: string;
@@ -100,7 +104,7 @@ export function SnapshotDetail({
       {open && snapshot.openFindings > 0 && (
         <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />
       )}
-      <SnapshotFigures snapshot={snapshot} />
+      <SnapshotFigures snapshot={snapshot} determination={determination} />
       <SnapshotActions
         key={snapshot.id}
         snapshot={snapshot}

@@ -341,6 +341,62 @@ describe("Quarter close › the analyst prepares and submits", () => {
   });
 });
 
+describe("Quarter close › the return data", () => {
+  it("when an analyst opens a draft, then the return's C 24.00 rows show with their sources, and the values the product does not hold are entered and sent with the version read", async () => {
+    const store = [snapshot({ id: 14, version: 4 })];
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes(store, {
+        "PUT /api/snapshots/14/return-inputs": (c) =>
+          answer(
+            store,
+            snapshot({
+              id: 14,
+              version: 5,
+              figures: figures({ analystInputs: (c.body as { values: Record<string, number | null> }).values }),
+            }),
+          ),
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=14");
+
+    const table = await screen.findByRole("table", { name: /Return data of LKS-EU/ });
+    // C 24.00 c150 and c140: the frozen multiplier and count (CRR Art. 366), as the server froze them.
+    const c150 = within(table).getByText("C 24.00 r010 c150").closest("tr")!;
+    expect(c150).toHaveTextContent("VaR multiplication factor (m_c)");
+    expect(c150).toHaveTextContent("3.50");
+    expect(within(table).getByText("C 24.00 r010 c140").closest("tr")!).toHaveTextContent("6");
+    expect(screen.getByTestId("return-ircLatest")).toHaveTextContent("not entered");
+    expect(screen.getByText(/5 values the product does not hold are not entered yet/)).toBeInTheDocument();
+
+    await user.type(screen.getByLabelText(/Incremental default and migration risk: last measure/), "-3");
+    await user.click(screen.getByRole("button", { name: "Save return values" }));
+    expect(await screen.findByText("Enter an amount of 0 or more, or leave it empty")).toBeInTheDocument();
+    expect(api.callsTo("PUT", "/api/snapshots/14/return-inputs")).toHaveLength(0);
+
+    await user.clear(screen.getByLabelText(/Incremental default and migration risk: last measure/));
+    await user.type(screen.getByLabelText(/Incremental default and migration risk: last measure/), "1200000");
+    await user.type(screen.getByLabelText(/CTP: floor/), "0");
+    await user.click(screen.getByRole("button", { name: "Save return values" }));
+    await waitFor(() => expect(api.callsTo("PUT", "/api/snapshots/14/return-inputs")).toHaveLength(1));
+    expect(api.callsTo("PUT", "/api/snapshots/14/return-inputs")[0].body).toEqual({
+      values: { ircAverage: null, ircLatest: 1200000, ctpFloor: 0, ctpAverage: null, ctpLatest: null },
+      version: 4,
+    });
+    expect(await screen.findByText("Return values saved.")).toBeInTheDocument();
+    await waitFor(() => expect(screen.getByTestId("return-ircLatest")).toHaveTextContent("1,200,000"));
+    expect(screen.getByText(/3 values the product does not hold are not entered yet/)).toBeInTheDocument();
+  });
+
+  it("when the chief risk officer reads a submitted snapshot, then the return data shows and nothing can be entered", async () => {
+    fakeApi({ "GET /api/auth/session": signedInAs("cro"), ...snapshotRoutes([submitted()]) });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    expect(await screen.findByRole("table", { name: /Return data of LKS-EU/ })).toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: "Save return values" })).not.toBeInTheDocument();
+  });
+});
+
 describe("Quarter close › the chief risk officer signs off", () => {
   it("when the chief risk officer prepared the snapshot, then Approve is not offered and the screen says why", async () => {
     fakeApi({

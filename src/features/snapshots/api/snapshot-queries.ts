@@ -4,6 +4,7 @@ import {
   snapshotSchema,
   snapshotVerifySchema,
   type CreateSnapshotBody,
+  type ReturnInputsBody,
   type ReturnSnapshotBody,
   type Snapshot,
   type SnapshotActionBody,
@@ -137,6 +138,17 @@ export function useApproveSnapshot(id: number) {
   const reread = useRereadOnRefusal();
   return useMutation({
     mutationFn: (body: SnapshotActionBody) => api.post(`${base(id)}/approve`, body, snapshotSchema),
+    onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}
+
+/** The analyst's values of the return that the product does not hold, on a draft or returned snapshot. */
+export function useSetReturnInputs(id: number) {
+  const store = useStoreAnswer();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: (body: ReturnInputsBody) => api.put(`${base(id)}/return-inputs`, body, snapshotSchema),
     onSuccess: (snapshot) => store(snapshot),
     onError: (error) => reread(error),
   });

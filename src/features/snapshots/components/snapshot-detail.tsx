@@ -12,6 +12,7 @@ import { SnapshotActions } from "./snapshot-actions";
 import { SnapshotFigures } from "./snapshot-figures";
 import { SnapshotFiling, type FilingLookup } from "./snapshot-filing";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
+import { SnapshotReturn } from "./snapshot-return";
 
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
 function RestatedWarning({ restated }: { restated: NonNullable<Snapshot["restatedAfterSignOff"]> }) {
@@ -105,6 +106,7 @@ export function SnapshotDetail({
         <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />
       )}
       <SnapshotFigures snapshot={snapshot} determination={determination} />
+      <SnapshotReturn snapshot={snapshot} role={role} />
       <SnapshotActions
         key={snapshot.id}
         snapshot={snapshot}

@@ -199,6 +199,11 @@ describe("governed supervisory settings", () => {
     expect(before.inForce).toMatchObject({ quarterEnd: Q2, multiplier: 3 });
     const q2Snapshot = await SnapshotModel.findOne({ where: { entityId: b.entity.id, quarterEnd: Q2 } });
 
+    const backtest = async () =>
+      (await request(app).get(`/api/portfolios/${b.portfolio.code}/backtest`).set("Cookie", b.cookie)).body;
+    // The stored backtest on 30 September: five exceptions, yellow, 3.00 + 0.40 (BCBS 1996 Table 2, from memory).
+    expect(await backtest()).toMatchObject({ asOf: Q3, plusFactor: 0.4, multiplier: 3.4 });
+
     const proposed = await propose({ effectiveFrom: "2026-08-03", reference: "SUP-2026-021", qualitativeAddend: 0.5 });
     expect(proposed.status, JSON.stringify(proposed.body)).toBe(201);
     expect(proposed.body).toMatchObject({ id: expect.any(Number), status: "proposed" });
@@ -231,6 +236,9 @@ describe("governed supervisory settings", () => {
     expect(after.inForce).toMatchObject({ quarterEnd: Q2, multiplier: 3.5 });
     expect(after.requirement).toBeCloseTo(3.5 * SQRT_10 * 350.5, 2);
 
+    // The stored figures (portfolio_figures) were refreshed in the approval's transaction with the
+    // settings in force on their day: 3.00 + 0.40 + 0.50 on 30 September (CRR Art. 366, worked by hand).
+    expect(await backtest()).toMatchObject({ asOf: Q3, plusFactor: 0.4, multiplier: 3.9 });
     // Q3's determination (provisional) was recomputed in the approval's transaction: 3 + 0.40 + 0.50.
     const q3 = await DeterminationModel.findOne({ where: { entityId: b.entity.id, periodEnd: Q3 } });
     expect(q3!.multiplier).toBeCloseTo(3.9, 10);

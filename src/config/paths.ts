@@ -131,9 +131,9 @@ export const paths = {
     path: "/admin/audit",
     roles: adminOnly,
     label: "Audit log",
-    href: (q?: { action?: string; page?: number }) => {
+    href: (q?: { action?: string; actor?: string; from?: string; to?: string; page?: number }) => {
       const s = new URLSearchParams();
-      if (q?.action) s.set("action", q.action);
+      for (const key of ["action", "actor", "from", "to"] as const) if (q?.[key]) s.set(key, q[key]);
       if (q?.page && q.page > 1) s.set("page", String(q.page));
       const qs = s.toString();
       return qs ? `/admin/audit?${qs}` : "/admin/audit";

@@ -8,6 +8,7 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { capitalQueries } from "@/features/capital/api/capital-queries";
 import { CapitalStanding } from "@/features/capital/components/capital-standing";
 import { CapitalHistory } from "@/features/capital/components/capital-history";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { ZoneForecast } from "@/features/capital/components/zone-forecast";
 import { WhatIfForm } from "@/features/capital/components/what-if-form";
 import { FrtbAggregation } from "@/features/capital/components/frtb-aggregation";
@@ -182,7 +183,15 @@ export default function CapitalRoute() {
               {isApiError(history.error) ? history.error.message : "The capital history could not be read."}
             </FormMessage>
           ) : history.data ? (
-            <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
+            <>
+              <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
+              {items.length > 0 && (
+                <TableDownloads
+                  path={`/api/entities/${entity}/capital/history`}
+                  what={`the capital history of ${entity}`}
+                />
+              )}
+            </>
           ) : (
             <p className="text-sm text-ink-muted">Reading the capital history…</p>
           )}

@@ -13,6 +13,7 @@ import { FilingDelivery } from "@/features/filings/components/filing-delivery";
 import { PrepareSnapshotForm } from "@/features/snapshots/components/prepare-snapshot-form";
 import { SnapshotDetail } from "@/features/snapshots/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/snapshots/components/snapshot-list-table";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { MultiplierStanding } from "@/features/snapshots/components/multiplier-standing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
@@ -283,6 +284,9 @@ export default function SnapshotsRoute() {
               />
             ) : (
               <p className="text-sm text-ink-muted">Reading the snapshots…</p>
+            )}
+            {snapshots.length > 0 && (
+              <TableDownloads path="/api/snapshots" query={{ entity }} what={`the snapshots of ${entity}`} />
             )}
           </section>
           {selectedId !== undefined && (

@@ -13,6 +13,7 @@ import { TestsPanel } from "@/features/backtest/components/tests-panel";
 import { RollOffTable } from "@/components/ui/roll-off-table";
 import { DesksTable } from "@/features/backtest/components/desks-table";
 import { ExceptionTable } from "@/features/backtest/components/exception-table";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { ReviewPanel } from "@/features/reviews/components/review-panel";
 import { PortfolioPicker } from "@/features/backtest/components/portfolio-picker";
 import { plural } from "@/lib/format";
@@ -98,6 +99,9 @@ const Why = memo(function Why({ bt, code }: { bt: BacktestResponse; code: string
           <ChartSlot height={220} />
         )}
       </Suspense>
+      {rolling.data && rolling.data.length > 0 && (
+        <TableDownloads path={`/api/portfolios/${bt.portfolio.code}/rolling`} what="the rolling count" />
+      )}
       <TestsPanel bt={bt} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
         <RollOffTable rollOffs={bt.rollOffs} regime={bt.regime} />
@@ -140,6 +144,13 @@ function WhatNext({ bt, code, role }: { bt: BacktestResponse; code: string; role
         <h2 id="next-title">What next: exceptions and their reviews</h2>
         <p className="text-sm text-ink-soft">{todo}</p>
       </div>
+      {bt.exceptionDays.length > 0 && (
+        <TableDownloads
+          path={`/api/portfolios/${bt.portfolio.code}/exceptions`}
+          query={{ asOf: bt.asOf }}
+          what="the exceptions and their reviews"
+        />
+      )}
       <ExceptionTable
         days={bt.exceptionDays}
         currency={bt.entity.currency}

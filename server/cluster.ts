@@ -2,7 +2,8 @@
  * Several server processes on the one port (node:cluster): the primary forks the workers, hands
  * them the listening socket, and starts a new worker whenever one dies (the crash is logged with
  * the exit code or signal). The workers keep no state that another could contradict: every
- * figure, session and sign-in count is in MariaDB (README, "More than one process").
+ * figure, session and sign-in count is in MariaDB; what is per process, and why that is safe, is in
+ * the README ("Several processes, and past one machine").
  */
 import cluster, { type Worker } from "node:cluster";
 import { config } from "./config";

@@ -49,7 +49,21 @@ export interface PortfolioSpec {
   /** FRTB desks: how closely the risk-theoretical P&L follows the hypothetical (correlation of the draws). */
   rtplLoading?: number;
   withEs?: boolean;
+  /**
+   * FRTB desks: a period in which the desk's reported VaR understated its risk (a risk factor left out
+   * of the model), counted back from the last day: the desk fails desk backtesting and leaves the model.
+   */
+  varUnderstated?: { startsDaysBeforeEnd: number; days: number; factor: number };
 }
+
+/**
+ * FRTB charges against the desk's IMCC (es_975), in proportions of the order the FRTB impact studies
+ * report: the standardised charge about 2.3 times IMCC (SBM 1.9, RRAO 0.06, SA DRC 0.35), the IMA default
+ * risk charge about 0.18. The bank's own choice of illustration, not a rule.
+ */
+const CHARGES = { imaDrc: 0.18, sbm: 1.9, rrao: 0.06, saDrc: 0.35 } as const;
+/** The top of house's standardised charges of all desks together: SBM and SA DRC diversify, RRAO adds up. */
+const TOP_DIVERSIFICATION = { imaDrc: 0.9, sbm: 0.85, rrao: 1, saDrc: 0.9 } as const;
 
 /** The bank's VaR adds a margin over the plain historical-simulation quantile (its model choice; ours is 1.2). */
 export const VAR_MARGIN = 1.2;
@@ -149,6 +163,7 @@ function rowsFor(
   withEs: boolean,
   withRtpl: boolean,
   stressSample: Float64Array,
+  spec?: Pick<PortfolioSpec, "varUnderstated"> & { charges?: boolean },
 ): DemoRow[] {
   const rows: DemoRow[] = [];
   const scratch = new Float64Array(250);
@@ -156,12 +171,17 @@ function rowsFor(
   const offset = total - dates.length;
   const sVarBase = kthLoss(stressSample, 0, 250, 3, scratch);
   const position = positionsFor(seed, total);
+  const under = spec?.varUnderstated;
+  const underFrom = under ? dates.length - under.startsDaysBeforeEnd : Infinity;
+  const underTo = under ? underFrom + under.days : -Infinity;
   for (let i = 0; i < dates.length; i++) {
     const t = offset + i;
     const size = position[t];
+    // The risk measures see a smaller book while the model understates (the P&L does not).
+    const risk = size * (i >= underFrom && i < underTo ? (under as { factor: number }).factor : 1);
     // 99%: the 3rd worst of 250 days; 97.5%: the 7th worst (common practice for a 250-day HS), with the margin.
-    const var99 = VAR_MARGIN * size * kthLoss(book.hpl, t - 250, t, 3, scratch);
-    const var975 = VAR_MARGIN * size * kthLoss(book.hpl, t - 250, t, 7, scratch);
+    const var99 = VAR_MARGIN * risk * kthLoss(book.hpl, t - 250, t, 3, scratch);
+    const var975 = VAR_MARGIN * risk * kthLoss(book.hpl, t - 250, t, 7, scratch);
     const row: DemoRow = {
       portfolio: code,
       date: dates[i],
@@ -169,12 +189,18 @@ function rowsFor(
       hypothetical_pnl: money(book.hpl[t] * size),
       var_99: money(var99),
       var_975: money(var975),
-      svar_99: money(Math.max(sVarBase * size, var99 * 1.1)),
+      svar_99: money(Math.max(sVarBase * risk, var99 * 1.1)),
     };
     if (withEs) {
-      const es = size * meanOfWorst(book.hpl, t - 250, t, 6, scratch);
+      const es = risk * meanOfWorst(book.hpl, t - 250, t, 6, scratch);
       row.es_975 = money(es);
       row.ses = money(es * (0.15 + 0.02 * Math.sin(t / 17)));
+      if (spec?.charges) {
+        row.ima_drc = money(es * CHARGES.imaDrc);
+        row.sbm = money(es * CHARGES.sbm * (1 + 0.03 * Math.sin(t / 23)));
+        row.rrao = money(es * CHARGES.rrao);
+        row.sa_drc = money(es * CHARGES.saDrc);
+      }
     }
     if (withRtpl) row.rtpl = money(book.rtpl[t] * size);
     rows.push(row);
@@ -238,6 +264,17 @@ export function generateDeskedRows(
     true,
     stressSampleFor({ code: top.code, seed: top.seed, dailyVol: topVol }),
   );
-  desks.forEach((d, i) => rows.push(...rowsFor(d.code, d.seed, books[i], dates, true, true, stressSampleFor(d))));
+  const deskRows = desks.map((d, i) =>
+    rowsFor(d.code, d.seed, books[i], dates, true, true, stressSampleFor(d), { ...d, charges: true }),
+  );
+  // The top of house carries the standardised charges of all desks together and the IMA DRC of all desks.
+  rows.forEach((row, i) => {
+    const sum = (c: "ima_drc" | "sbm" | "rrao" | "sa_drc") => deskRows.reduce((s, r) => s + Number(r[i][c] ?? 0), 0);
+    row.ima_drc = money(sum("ima_drc") * TOP_DIVERSIFICATION.imaDrc);
+    row.sbm = money(sum("sbm") * TOP_DIVERSIFICATION.sbm);
+    row.rrao = money(sum("rrao") * TOP_DIVERSIFICATION.rrao);
+    row.sa_drc = money(sum("sa_drc") * TOP_DIVERSIFICATION.saDrc);
+  });
+  for (const r of deskRows) rows.push(...r);
   return rows;
 }

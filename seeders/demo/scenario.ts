@@ -1,6 +1,7 @@
 /**
  * Who is who in the invented Larkspur daily data (docs/architecture.md#demo-data): one entity turns
- * yellow after a stress episode, one FRTB desk sits amber on P&L attribution.
+ * yellow after a stress episode, one FRTB desk sits amber on P&L attribution, and another left the
+ * model for a while after failing desk backtesting.
  */
 import { generateDeskedRows, generatePortfolioRows, type DemoRow, type PortfolioSpec } from "./daily-data";
 
@@ -32,8 +33,17 @@ export const SCENARIO: Record<string, EntityScenario> = {
       { code: "LKS-UK-RATES", seed: 4413, dailyVol: 1_800_000, rtplLoading: 0.97, withEs: true },
       { code: "LKS-UK-FX", seed: 4416, dailyVol: 1_200_000, rtplLoading: 0.96, withEs: true },
       // The risk model misses part of this desk's basis risk: RTPL follows HPL only loosely.
-      { code: "LKS-UK-CREDIT", seed: 4433, dailyVol: 1_000_000, rtplLoading: 0.78, withEs: true },
-      { code: "LKS-UK-EQUITIES", seed: 4444, dailyVol: 1_500_000, rtplLoading: 0.95, withEs: true },
+      { code: "LKS-UK-CREDIT", seed: 4433, dailyVol: 1_000_000, rtplLoading: 0.8, withEs: true },
+      // About two years ago this desk's VaR left out a risk factor for 150 days: it failed desk backtesting,
+      // left the model, and returned once its 250-day count was back within the limits with PLA green.
+      {
+        code: "LKS-UK-EQUITIES",
+        seed: 4444,
+        dailyVol: 1_500_000,
+        rtplLoading: 0.95,
+        withEs: true,
+        varUnderstated: { startsDaysBeforeEnd: 560, days: 150, factor: 0.4 },
+      },
     ],
   },
 };

@@ -324,6 +324,21 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
     );
   }
   if (f.capital !== null) L.pairs([["Of which the plus factor adds", amount(f.addOn, cur)]]);
+  if (f.frtb) {
+    const a = f.frtb;
+    L.paragraph(
+      `Aggregate capital (MAR33.45) = min(IMA_G,A + surcharge + C_U, SA all desks) + max(0, IMA_G,A − SA_G,A) = min(${amount(a.imaGA)} + ${amount(a.surcharge)} + ${amount(a.cU)}, ${amount(a.saAll)}) + max(0, ${amount(a.imaGA)} − ${amount(a.saGA)}) = ${amount(a.acrTotal, cur)}`,
+      { font: "semibold" },
+    );
+    L.pairs([
+      ["C_A (IMCC and SES)", amount(a.ca, cur)],
+      ["Default risk charge", amount(a.drc, cur)],
+      ["IMA_G,A (C_A + DRC)", amount(a.imaGA, cur)],
+      ["C_U (desks out of the model)", amount(a.cU, cur)],
+      ["Surcharge for amber desks", `${amount(a.surcharge, cur)} (k = ${a.k})`],
+    ]);
+    for (const n of a.notes) L.paragraph(n, { colour: MUTED, size: 8.5 });
+  } else if (f.frtbNote) L.paragraph(f.frtbNote, { colour: MUTED, size: 8.5 });
   if (c) {
     L.paragraph(`Formula: ${rules.capitalCitation}.`, { colour: MUTED, size: 8.5 });
     for (const w of c.warnings) L.paragraph(w, { colour: WARN, size: 8.5 });

@@ -90,6 +90,15 @@ const FRTB_INPUTS: AnalystInputDef[] = [
   { key: "standardisedCharge", label: "Standardised approach charge for desks outside the internal model" },
 ];
 
+/**
+ * The analyst inputs a snapshot's return asks for. Under FRTB the default risk charge and the
+ * standardised charges come from the MAR33 aggregation when the snapshot holds it (`frtb`), so
+ * they are asked for only when it does not.
+ */
+export function returnInputsFor(figures: Pick<SnapshotFigures, "regime" | "frtb">): AnalystInputDef[] {
+  return figures.regime === "frtb" && figures.frtb ? [] : RETURN_INPUTS[figures.regime];
+}
+
 /** The analyst inputs each rule set asks for, in the order the return lists them. */
 export const RETURN_INPUTS: Record<RegimeId, AnalystInputDef[]> = {
   eu: EU_INPUTS,
@@ -392,7 +401,17 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       f.capital,
       engine(getRegime("frtb").capitalCitation),
     );
-    for (const d of FRTB_INPUTS) inputField(d);
+    const a = f.frtb;
+    if (a) {
+      // MAR33.41–33.45 as the engine aggregated them at the quarter end (docs/rules.md#frtb-aggregation).
+      const agg = (what: string) => `Engine, FRTB aggregation at ${f.asOf}: ${what} (docs/rules.md#frtb-aggregation)`;
+      amountField("drc", "Default risk charge (internal model)", a.drc, agg(`DRC from ${a.sources.drc}`));
+      amountField("imaGA", "IMA capital of the eligible desks (C_A + DRC)", a.imaGA, agg("MAR33.43"));
+      amountField("cU", "Standardised charge of the desks out of the model (C_U)", a.cU, agg("MAR33.45"));
+      amountField("saAll", "Standardised charge of all desks", a.saAll, agg(`from ${a.sources.saAll}`));
+      amountField("surcharge", "Capital surcharge for amber desks", a.surcharge, agg(`k = ${a.k}, MAR33.45`));
+      amountField("aggregateCapital", "Aggregate capital requirement", a.acrTotal, agg("MAR33.45"));
+    } else for (const d of FRTB_INPUTS) inputField(d);
     plain(
       "desksPassing",
       "Desks passing backtesting and P&L attribution (green)",

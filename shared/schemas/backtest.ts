@@ -131,6 +131,23 @@ export const rollingRowSchema = z.object({
 export const rollingResponseSchema = z.array(rollingRowSchema);
 export type RollingRowDto = z.infer<typeof rollingRowSchema>;
 
+/**
+ * The determination whose multiplier is in force on a date (docs/api.md#determinations): its period
+ * end, the day it took effect, its count and zone, and the multiplier with the settings in force
+ * that day; `status` says whether the quarter is signed off.
+ */
+export const inForceTodaySchema = z.object({
+  quarterEnd: z.string(),
+  effectiveFrom: z.string(),
+  counted: z.number().int(),
+  zone: zoneSchema,
+  zoneLabel: z.string(),
+  plusFactor: z.number(),
+  multiplier: z.number(),
+  status: z.enum(["provisional", "approved", "filed"]),
+});
+export type InForceToday = z.infer<typeof inForceTodaySchema>;
+
 export const overviewItemSchema = z.object({
   entity: z.string(),
   name: z.string(),
@@ -143,8 +160,11 @@ export const overviewItemSchema = z.object({
   zoneLabel: z.string().nullable(),
   counted: z.number().int().nullable(),
   plusFactor: z.number().nullable(),
+  /** The multiplier of the rolling count on `asOf`: indicative, as if determined that day. */
   multiplier: z.number().nullable(),
   addOn: z.number().nullable(),
+  /** The determination in force today (null before the first quarter end with data). */
+  inForce: inForceTodaySchema.nullable(),
   nextRollOff: rollOffSchema.nullable(),
   openReviews: z.number().int(),
   openFindings: z.number().int(),

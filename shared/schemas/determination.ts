@@ -143,9 +143,12 @@ export const settingsRecordSchema = settingsValuesSchema.extend({
   effectiveFrom: z.string(),
   reference: z.string(),
   status: z.enum(["proposed", "approved", "rejected"]),
+  /** The proposer's e-mail and name (null for a record made with the entity or by the migration). */
   proposedBy: z.string().nullable(),
+  proposedByName: z.string().nullable(),
   proposedAt: z.string().nullable(),
   decidedBy: z.string().nullable(),
+  decidedByName: z.string().nullable(),
   decidedAt: z.string().nullable(),
   decisionComment: z.string().nullable(),
   /** Whether this record is the one in force today. */

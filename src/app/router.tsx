@@ -79,6 +79,10 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
             },
             { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
             {
+              path: relative(paths.settings.path),
+              ...screen(queryClient, "settings", () => import("./routes/settings")),
+            },
+            {
               path: relative(paths.snapshots.path),
               ...screen(queryClient, "snapshots", () => import("./routes/snapshots")),
             },

@@ -7,6 +7,8 @@ const dataReaders: readonly Role[] = ["analyst", "cro"];
 const quarterReaders: readonly Role[] = ["analyst", "cro", "treasury"];
 /** Treasury plans capital on these figures; analysts and the CRO read them beside the close. */
 const capitalReaders: readonly Role[] = ["analyst", "cro", "treasury"];
+/** The supervisor's settings: an admin proposes, a CRO approves; analysts and treasury read them (the server's policy). */
+const settingsReaders: readonly Role[] = ["admin", "cro", "analyst", "treasury"];
 /** Supervisors read the packs filed with them; the reporting office follows what was sent and acknowledged. */
 const filingReaders: readonly Role[] = ["analyst", "cro", "regulator"];
 /**
@@ -96,6 +98,13 @@ export const paths = {
       return qs ? `/capital?${qs}` : "/capital";
     },
   },
+  settings: {
+    path: "/settings",
+    roles: settingsReaders,
+    label: "Supervisory settings",
+    /** Without `entity` the screen starts on the first entity. */
+    href: (q?: { entity?: string }) => (q?.entity ? `/settings?entity=${encodeURIComponent(q.entity)}` : "/settings"),
+  },
   filings: {
     path: "/filings",
     roles: filingReaders,
@@ -122,9 +131,9 @@ export const paths = {
     path: "/admin/audit",
     roles: adminOnly,
     label: "Audit log",
-    href: (q?: { action?: string; page?: number }) => {
+    href: (q?: { action?: string; actor?: string; from?: string; to?: string; page?: number }) => {
       const s = new URLSearchParams();
-      if (q?.action) s.set("action", q.action);
+      for (const key of ["action", "actor", "from", "to"] as const) if (q?.[key]) s.set(key, q[key]);
       if (q?.page && q.page > 1) s.set("page", String(q.page));
       const qs = s.toString();
       return qs ? `/admin/audit?${qs}` : "/admin/audit";
@@ -151,6 +160,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "data", group: "main" },
   { key: "snapshots", group: "main" },
   { key: "capital", group: "main" },
+  { key: "settings", group: "main" },
   { key: "filings", group: "main" },
   { key: "tokens", group: "main" },
   { key: "adminUsers", group: "admin" },

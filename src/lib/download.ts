@@ -49,7 +49,7 @@ export function saveBlob(blob: Blob, name: string): void {
  * server gave, so a refused download says why in the server's words instead of failing in the
  * browser's download bar. `error` holds that message until the next try.
  */
-export function useDownload(href: string, fallbackName: string) {
+export function useDownload(href: string, fallbackName: string, accept = "application/pdf, application/json;q=0.9") {
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const inFlight = useRef(false);
@@ -62,7 +62,7 @@ export function useDownload(href: string, fallbackName: string) {
     try {
       let res: Response;
       try {
-        res = await fetchApi(href, { headers: { Accept: "application/pdf, application/json;q=0.9" } });
+        res = await fetchApi(href, { headers: { Accept: accept } });
       } catch (e) {
         setError(isApiError(e) ? e.message : String(e));
         return;
@@ -80,7 +80,7 @@ export function useDownload(href: string, fallbackName: string) {
       inFlight.current = false;
       setBusy(false);
     }
-  }, [href, fallbackName]);
+  }, [href, fallbackName, accept]);
 
   return { start, busy, error };
 }

@@ -59,10 +59,61 @@ describe("Admin › Audit log", () => {
 
     await user.type(screen.getByLabelText("Action"), "auth.sign_in_failed");
     await user.click(screen.getByRole("button", { name: "Filter" }));
-    expect(await screen.findByText("No events with this action")).toBeInTheDocument();
+    expect(await screen.findByText("No events match this filter")).toBeInTheDocument();
     const last = new URLSearchParams(asked.at(-1)!.search);
     expect(last.get("action")).toBe("auth.sign_in_failed");
     expect(last.get("offset")).toBe("0");
+  });
+
+  it("filters by person and days, and downloads exactly that slice as CSV under the server's file name", async () => {
+    const asked: Call[] = [];
+    fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/audit-events": (call) => {
+        asked.push(call);
+        return { status: 200, body: { items: [event(7, "snapshot.approve")], total: 1 } };
+      },
+      "GET /api/audit-events.csv": (call) => {
+        asked.push(call);
+        return {
+          status: 200,
+          raw: "\ufeffEvent,At\r\n7,2026-03-31T17:45:00.000Z\r\n",
+          headers: { "Content-Type": "text/csv", "Content-Disposition": 'attachment; filename="Audit-log.csv"' },
+        };
+      },
+    });
+    const saved: string[] = [];
+    URL.createObjectURL = vi.fn(() => "blob:quartermark.test/1");
+    URL.revokeObjectURL = vi.fn();
+    vi.spyOn(HTMLAnchorElement.prototype, "click").mockImplementation(function (this: HTMLAnchorElement) {
+      saved.push(this.download);
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/audit");
+    await screen.findByText("snapshot.approve");
+
+    await user.type(screen.getByLabelText("Person (e-mail)"), "a.moreau");
+    await user.type(screen.getByLabelText("From"), "2026-03-01");
+    await user.type(screen.getByLabelText("To"), "2026-02-01");
+    expect(screen.getByText("The last day comes before the first")).toBeInTheDocument();
+    await user.clear(screen.getByLabelText("To"));
+    await user.type(screen.getByLabelText("To"), "2026-03-31");
+    await user.click(screen.getByRole("button", { name: "Filter" }));
+    await vi.waitFor(() => expect(new URLSearchParams(asked.at(-1)!.search).get("actor")).toBe("a.moreau"));
+    const filtered = new URLSearchParams(asked.at(-1)!.search);
+    expect([filtered.get("from"), filtered.get("to")]).toEqual(["2026-03-01", "2026-03-31"]);
+
+    await screen.findByRole("link", { name: "Clear filter" }); // the screen now stands on the filter
+    await user.click(await screen.findByRole("button", { name: "Download these events as CSV" }));
+    await vi.waitFor(() => expect(saved).toEqual(["Audit-log.csv"]));
+    const download = asked.at(-1)!;
+    expect(download.path).toBe("/api/audit-events.csv");
+    expect(Object.fromEntries(new URLSearchParams(download.search))).toEqual({
+      actor: "a.moreau",
+      from: "2026-03-01",
+      to: "2026-03-31",
+    });
+    vi.restoreAllMocks();
   });
 
   it("when nothing has been recorded, then the empty state says what will appear", async () => {

@@ -55,6 +55,55 @@ function backtestBody(reviews: Record<string, Review> = {}) {
 
 const entities = [larkspurUS];
 
+/**
+ * Capital on the latest day as the server answers it: the determination of the quarter end before
+ * (four exceptions, green 3.00, approved) is in force; the rolling count has since reached seven.
+ */
+const capitalOnDate = {
+  entity: "LKS-US",
+  currency: "USD",
+  date: asOf,
+  inForce: {
+    quarterEnd: "2025-09-30",
+    asOf: "2025-09-30",
+    effectiveFrom: "2025-10-01",
+    effectiveTo: null,
+    counted: 4,
+    zone: "green",
+    zoneLabel: "green",
+    plusFactor: 0,
+    multiplier: 3,
+    multiplierSvar: 3,
+    status: "approved",
+    snapshotId: 4,
+  },
+  indicative: {
+    asOf,
+    counted: 7,
+    zone: "yellow",
+    zoneLabel: "yellow",
+    plusFactor: 0.65,
+    multiplier: 3.65,
+    multiplierSvar: 3.65,
+    windowComplete: true,
+  },
+  requirement: null,
+  addOn: null,
+  indicativeRequirement: null,
+  capitalNote: "No capital figure: no stressed VaR in the data",
+  nextDetermination: { quarterEnd: "2025-12-31", asOf: "2025-12-31", effectiveFrom: "2026-01-02" },
+  settings: {
+    id: 1,
+    effectiveFrom: "1900-01-01",
+    reference: "Settings entered when the entity was created",
+    pnlBasis: "actual",
+    qualitativeAddend: 0,
+    qualitativeAddendSvar: null,
+    multiplierFloor: null,
+    determinationFrequency: "quarterly",
+  },
+};
+
 function routes(
   role: "analyst" | "cro",
   body: unknown,
@@ -68,6 +117,7 @@ function routes(
       body: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities — total trading", level: "top" }],
     },
     "GET /api/portfolios/LKS-US-TOTAL/backtest": { status: 200, body },
+    "GET /api/entities/LKS-US/capital": { status: 200, body: capitalOnDate },
     "GET /api/portfolios/LKS-US-TOTAL/rolling": {
       status: 200,
       body: rollingBacktest(observations, { regime: "us", pnlBasis: "actual" }),
@@ -83,6 +133,11 @@ function routes(
         es975: null,
         ses: null,
         rtpl: null,
+        imaDrc: null,
+        sbm: null,
+        rrao: null,
+        saDrc: null,
+        saGa: null,
         version: 1,
       })),
     },
@@ -132,7 +187,13 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
       `${engine.window.start} to ${engine.window.end}`,
     );
     const zoneName = engine.zone[0].toUpperCase() + engine.zone.slice(1);
-    expect(within(standing).getByText(zoneName)).toBeInTheDocument();
+    expect(within(standing).getAllByText(zoneName).length).toBeGreaterThan(0);
+    // Which multiplier is which: the last determination's is in force, the rolling count's is indicative.
+    expect(await within(standing).findByTestId("multiplier-in-force")).toHaveTextContent("3.00");
+    expect(within(standing).getByText(/in force since 2025-10-01 \(Q3 2025, approved\)/)).toBeInTheDocument();
+    expect(within(standing).getByText("Green")).toBeInTheDocument();
+    expect(within(standing).getByText("Indicative if determined today")).toBeInTheDocument();
+    expect(within(standing).getByTestId("multiplier-indicative")).toHaveTextContent(engine.multiplier.toFixed(2));
     // Sanity on the invented series: seven actual exceptions in the last 250 days, US rule → yellow.
     expect(engine.exceptions.counted).toBe(7);
     expect(engine.zone).toBe("yellow");
@@ -140,9 +201,11 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
     const table = screen.getByRole("table", { name: "Exceptions in the window" });
     expect(within(table).getAllByRole("row")).toHaveLength(engine.exceptionDays.length + 1);
     expect(screen.getByRole("table", { name: "Roll-off calendar" })).toBeInTheDocument();
-    expect(await screen.findByRole("figure", { name: /Daily actual P&L against −VaR/ })).toBeInTheDocument();
+    // The charts are lazy chunks (recharts): on a busy machine their first import takes a while.
+    const lazyChart = { timeout: 25_000 };
+    expect(await screen.findByRole("figure", { name: /Daily actual P&L against −VaR/ }, lazyChart)).toBeInTheDocument();
     expect(
-      await screen.findByRole("figure", { name: /Counted exceptions in the trailing window/ }),
+      await screen.findByRole("figure", { name: /Counted exceptions in the trailing window/ }, lazyChart),
     ).toBeInTheDocument();
   });
 

@@ -202,6 +202,25 @@ const whatIfAnswer: WhatIfResponse = whatIfResponseSchema.parse({
   bitesFrom: { quarterEnd: "2026-12-31", asOf: "2026-12-31", effectiveFrom: "2027-01-04" },
 });
 
+/**
+ * Treasury reads approved figures only: its forecast starts from the latest signed-off determination
+ * (Q4 2025, six exceptions, yellow, 3.50), which is the one it reads as in force.
+ */
+const treasuryStart: Partial<ForecastResponse> = {
+  asOf: "2025-12-31",
+  startsFrom: { kind: "approved", quarterEnd: "2025-12-31", asOf: "2025-12-31", status: "approved" },
+  inForce: {
+    quarterEnd: "2025-12-31",
+    effectiveFrom: "2026-01-02",
+    counted: 6,
+    zone: "yellow",
+    plusFactor: 0.5,
+    multiplier: 3.5,
+    status: "approved",
+  },
+  nextExceptionBitesFrom: { quarterEnd: "2026-03-31", asOf: "2026-03-31", effectiveFrom: "2026-04-01" },
+};
+
 type Handler = Reply | ((c: Call) => Reply);
 
 function routes(role: "analyst" | "cro" | "treasury", extra: Record<string, Handler> = {}): Record<string, Handler> {
@@ -214,7 +233,8 @@ function routes(role: "analyst" | "cro" | "treasury", extra: Record<string, Hand
     },
     "GET /api/entities/LKS-EU/capital/forecast": (c) => {
       const date = new URLSearchParams(c.search).get("date");
-      return { status: 200, body: date === "2027-03-31" ? forecastForQ1 : date ? forecast({ date }) : forecast() };
+      const body = date === "2027-03-31" ? forecastForQ1 : date ? forecast({ date }) : forecast();
+      return { status: 200, body: role === "treasury" ? { ...body, ...treasuryStart } : body };
     },
     ...extra,
   };
@@ -242,13 +262,18 @@ describe("Capital screen", { timeout: 20_000 }, () => {
 
     const standing = await screen.findByRole("region", { name: "Where we stand" });
     expect(within(standing).getByTestId("today-counted")).toHaveTextContent("6");
-    expect(within(standing).getByText("Yellow")).toBeInTheDocument();
+    expect(within(standing).getAllByText("Yellow")).toHaveLength(2);
     expect(within(standing).getByTestId("today-plus-factor")).toHaveTextContent("0.50");
     expect(within(standing).getByTestId("today-multiplier")).toHaveTextContent("3.50");
     expect(within(standing).getByTestId("next-exception-cost")).toHaveTextContent("1,250,000 EUR");
-    expect(
-      within(standing).getByText("One more exception today would raise the capital requirement by 1,250,000 EUR."),
-    ).toBeInTheDocument();
+    // Which multiplier: treasury's figures start from the approved Q4 2025 determination, and nothing indicative.
+    expect(within(standing).getByText(/starts from the approved Q4 2025 determination/)).toBeInTheDocument();
+    expect(within(standing).getByTestId("capital-multiplier-in-force")).toHaveTextContent("3.50");
+    expect(within(standing).getByText(/in force since 2026-01-02 \(Q4 2025, approved\)/)).toBeInTheDocument();
+    expect(within(standing).queryByTestId("capital-multiplier-indicative")).not.toBeInTheDocument();
+    expect(within(standing).getByTestId("next-exception-words")).toHaveTextContent(
+      "One more exception would raise the capital requirement by 1,250,000 EUR from 2026-04-01 (the Q1 2026 determination); until then the multiplier in force stays as it is.",
+    );
 
     const table = screen.getByRole("table", { name: "Capital history by quarter end, oldest first" });
     const rows = within(table).getAllByRole("row").slice(1);
@@ -266,6 +291,24 @@ describe("Capital screen", { timeout: 20_000 }, () => {
       await screen.findByRole("figure", { name: "Multiplier and capital add-on at each quarter end, EUR" }),
     ).toBeInTheDocument();
     expect(api.callsTo("GET", "/api/entities/LKS-EU/capital/history")).toHaveLength(1);
+  });
+
+  it("when an analyst opens Capital, then the multiplier in force and the indicative one are named, and the forecast and next exception say from when they would bite", async () => {
+    fakeApi(routes("analyst"));
+    renderApp("/capital?entity=LKS-EU");
+
+    const standing = await screen.findByRole("region", { name: "Where we stand" });
+    expect(within(standing).getByText(/last day with data/)).toBeInTheDocument();
+    expect(within(standing).getByTestId("capital-multiplier-in-force")).toHaveTextContent("3.50");
+    expect(within(standing).getByText(/in force since 2026-10-01 \(Q3 2026, approved\)/)).toBeInTheDocument();
+    expect(within(standing).getByText("Indicative if determined today")).toBeInTheDocument();
+    expect(within(standing).getByTestId("capital-multiplier-indicative")).toHaveTextContent("3.50");
+    expect(within(standing).getByTestId("next-exception-words")).toHaveTextContent(
+      "from 2027-01-04 (the Q4 2026 determination)",
+    );
+    expect(await screen.findByTestId("forecast-bites-from")).toHaveTextContent(
+      "The count on 2026-12-31 sets the multiplier in force from 2027-01-04 (the Q4 2026 determination).",
+    );
   });
 
   it("when an analyst opens Capital, then the open quarter's draft is listed too and marked as not signed off", async () => {
@@ -290,6 +333,7 @@ describe("Capital screen", { timeout: 20_000 }, () => {
         "GET /api/entities/LKS-EU/capital/forecast": {
           status: 200,
           body: forecast({
+            ...treasuryStart,
             today: { counted: 6, zone: "yellow", plusFactor: 0.5, multiplier: 3.5, windowComplete: false },
           }),
         },
@@ -425,6 +469,9 @@ describe("Capital screen", { timeout: 20_000 }, () => {
     expect(cells("what-if-multiplier")).toEqual(["3.50", "3.75", "+0.25"]);
     expect(cells("what-if-capital")).toEqual(["412,500,000 EUR", "441,964,286 EUR", "+29,464,286 EUR"]);
     expect(cells("what-if-add-on")).toEqual(["58,928,571 EUR", "88,392,857 EUR", "+29,464,286 EUR"]);
+    expect(screen.getByTestId("what-if-bites-from")).toHaveTextContent(
+      "Exceptions after 2026-11-27 would change the multiplier in force from 2027-01-04 (the Q4 2026 determination).",
+    );
   });
 
   it("when the what-if input is invalid, then the schema's message shows under the field and nothing is sent", async () => {

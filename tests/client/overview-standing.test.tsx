@@ -20,6 +20,17 @@ const item = {
   plusFactor: 0.65,
   multiplier: 3.65,
   addOn: 48_215_003.4,
+  // The Q3 determination counted 5 (yellow, 3.40); the rolling count has since reached 7.
+  inForce: {
+    quarterEnd: "2026-09-30",
+    effectiveFrom: "2026-10-01",
+    counted: 5,
+    zone: "yellow",
+    zoneLabel: "yellow",
+    plusFactor: 0.4,
+    multiplier: 3.4,
+    status: "approved",
+  },
   nextRollOff: {
     date: "2026-02-11",
     leavesOn: "2027-02-08",
@@ -46,13 +57,17 @@ describe("Overview", () => {
     const table = await screen.findByRole("table", { name: "Where each entity stands" });
     const row = within(table).getAllByRole("row")[1];
     const cells = within(row).getAllByRole("cell");
+    expect(within(cells[1]).getByText("3.40")).toBeInTheDocument();
     expect(within(cells[1]).getByText("Yellow")).toBeInTheDocument();
+    expect(within(cells[1]).getByText("in force since 2026-10-01 (Q3 2026, approved)")).toBeInTheDocument();
+    expect(within(cells[2]).getByText("Yellow")).toBeInTheDocument();
     expect(within(row).getByText("7")).toHaveClass("text-right", "figures");
-    expect(within(row).getByText("3.65")).toBeInTheDocument();
+    expect(within(cells[5]).getByText("3.65")).toBeInTheDocument();
+    expect(within(table).getByRole("columnheader", { name: "Indicative multiplier" })).toBeInTheDocument();
     expect(within(row).getByText("0.65")).toBeInTheDocument();
     expect(within(row).getByText("48,215,003 USD")).toBeInTheDocument();
     expect(within(row).getByText("2027-02-08")).toBeInTheDocument();
-    expect(within(cells[7]).getByText("Yellow")).toBeInTheDocument();
+    expect(within(cells[8]).getByText("Yellow")).toBeInTheDocument();
     expect(within(row).getByRole("link", { name: "LKS-US" })).toHaveAttribute("href", "/backtest/LKS-US-TOTAL");
     expect(within(row).getByRole("link", { name: "3 open reviews for LKS-US" })).toHaveAttribute(
       "href",
@@ -79,6 +94,17 @@ describe("Overview", () => {
     expect(within(row).getByText("No snapshot yet")).toBeInTheDocument();
   });
 
+  it("when no quarter end with data has passed, then the multiplier in force says no determination exists yet", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      "GET /api/entities": { status: 200, body: entities },
+      "GET /api/overview": { status: 200, body: [{ ...item, inForce: null }] },
+    });
+    renderApp("/");
+    const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
+    expect(within(row).getAllByRole("cell")[1]).toHaveTextContent("No determination yet");
+  });
+
   it("when the window is short, then the count says provisional; an FRTB entity's middle zone reads Amber", async () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
@@ -91,7 +117,7 @@ describe("Overview", () => {
     renderApp("/");
     const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
     expect(within(row).getByText("provisional")).toBeInTheDocument();
-    expect(within(row).getByText("Amber")).toBeInTheDocument();
+    expect(within(row).getAllByText("Amber")).toHaveLength(2);
     expect(within(row).getByText("None in the window")).toBeInTheDocument();
   });
 

@@ -145,6 +145,35 @@ afterEach(() => {
   vi.useRealTimers();
 });
 
+/** Q4 2025's determination as the server lists it: six exceptions, yellow, 3.50, approved with its snapshot. */
+const q4Determination = {
+  quarterEnd: "2025-12-31",
+  asOf: "2025-12-31",
+  effectiveFrom: "2026-01-02",
+  effectiveTo: null,
+  counted: 6,
+  actual: 6,
+  hypothetical: 4,
+  zone: "yellow",
+  zoneLabel: "yellow",
+  plusFactor: 0.5,
+  multiplier: 3.5,
+  multiplierSvar: 3.5,
+  windowComplete: true,
+  status: "approved",
+  snapshotId: 12,
+  settings: {
+    id: 1,
+    effectiveFrom: "1900-01-01",
+    reference: "Settings entered when the entity was created",
+    pnlBasis: "max",
+    qualitativeAddend: 0,
+    qualitativeAddendSvar: null,
+    multiplierFloor: null,
+    determinationFrequency: "quarterly",
+  },
+};
+
 describe("Quarter close › the analyst prepares and submits", () => {
   it("when an analyst opens the screen, then the entity's quarters are listed with their figures and a new one is prepared for the latest ended quarter", async () => {
     vi.useFakeTimers({ toFake: ["Date"], now: new Date("2026-05-14T09:00:00Z") });
@@ -312,6 +341,62 @@ describe("Quarter close › the analyst prepares and submits", () => {
   });
 });
 
+describe("Quarter close › the return data", () => {
+  it("when an analyst opens a draft, then the return's C 24.00 rows show with their sources, and the values the product does not hold are entered and sent with the version read", async () => {
+    const store = [snapshot({ id: 14, version: 4 })];
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes(store, {
+        "PUT /api/snapshots/14/return-inputs": (c) =>
+          answer(
+            store,
+            snapshot({
+              id: 14,
+              version: 5,
+              figures: figures({ analystInputs: (c.body as { values: Record<string, number | null> }).values }),
+            }),
+          ),
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=14");
+
+    const table = await screen.findByRole("table", { name: /Return data of LKS-EU/ });
+    // C 24.00 c150 and c140: the frozen multiplier and count (CRR Art. 366), as the server froze them.
+    const c150 = within(table).getByText("C 24.00 r010 c150").closest("tr")!;
+    expect(c150).toHaveTextContent("VaR multiplication factor (m_c)");
+    expect(c150).toHaveTextContent("3.50");
+    expect(within(table).getByText("C 24.00 r010 c140").closest("tr")!).toHaveTextContent("6");
+    expect(screen.getByTestId("return-ircLatest")).toHaveTextContent("not entered");
+    expect(screen.getByText(/5 values the product does not hold are not entered yet/)).toBeInTheDocument();
+
+    await user.type(screen.getByLabelText(/Incremental default and migration risk: last measure/), "-3");
+    await user.click(screen.getByRole("button", { name: "Save return values" }));
+    expect(await screen.findByText("Enter an amount of 0 or more, or leave it empty")).toBeInTheDocument();
+    expect(api.callsTo("PUT", "/api/snapshots/14/return-inputs")).toHaveLength(0);
+
+    await user.clear(screen.getByLabelText(/Incremental default and migration risk: last measure/));
+    await user.type(screen.getByLabelText(/Incremental default and migration risk: last measure/), "1200000");
+    await user.type(screen.getByLabelText(/CTP: floor/), "0");
+    await user.click(screen.getByRole("button", { name: "Save return values" }));
+    await waitFor(() => expect(api.callsTo("PUT", "/api/snapshots/14/return-inputs")).toHaveLength(1));
+    expect(api.callsTo("PUT", "/api/snapshots/14/return-inputs")[0].body).toEqual({
+      values: { ircAverage: null, ircLatest: 1200000, ctpFloor: 0, ctpAverage: null, ctpLatest: null },
+      version: 4,
+    });
+    expect(await screen.findByText("Return values saved.")).toBeInTheDocument();
+    await waitFor(() => expect(screen.getByTestId("return-ircLatest")).toHaveTextContent("1,200,000"));
+    expect(screen.getByText(/3 values the product does not hold are not entered yet/)).toBeInTheDocument();
+  });
+
+  it("when the chief risk officer reads a submitted snapshot, then the return data shows and nothing can be entered", async () => {
+    fakeApi({ "GET /api/auth/session": signedInAs("cro"), ...snapshotRoutes([submitted()]) });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    expect(await screen.findByRole("table", { name: /Return data of LKS-EU/ })).toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: "Save return values" })).not.toBeInTheDocument();
+  });
+});
+
 describe("Quarter close › the chief risk officer signs off", () => {
   it("when the chief risk officer prepared the snapshot, then Approve is not offered and the screen says why", async () => {
     fakeApi({
@@ -446,8 +531,53 @@ describe("Quarter close › the chief risk officer signs off", () => {
 });
 
 describe("Quarter close › reading signed-off quarters", () => {
+  it("when the chief risk officer opens the screen, then the multiplier in force today and the indicative one are named, zones included", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("cro"),
+      ...snapshotRoutes([approved()]),
+      "GET /api/entities/LKS-EU/determinations": { status: 200, body: [q4Determination] },
+      "GET /api/entities/LKS-EU/capital": {
+        status: 200,
+        body: {
+          entity: "LKS-EU",
+          currency: "EUR",
+          date: "2026-02-10",
+          inForce: { ...q4Determination },
+          // Two more exceptions since the quarter end: eight, still yellow, 3.75 if determined today.
+          indicative: {
+            asOf: "2026-02-10",
+            counted: 8,
+            zone: "yellow",
+            zoneLabel: "yellow",
+            plusFactor: 0.75,
+            multiplier: 3.75,
+            multiplierSvar: 3.75,
+            windowComplete: true,
+          },
+          requirement: 412_500_000,
+          addOn: 58_928_571,
+          indicativeRequirement: 441_964_286,
+          capitalNote: null,
+          nextDetermination: { quarterEnd: "2026-03-31", asOf: "2026-03-31", effectiveFrom: "2026-04-01" },
+          settings: q4Determination.settings,
+        },
+      },
+    });
+    renderApp("/quarters");
+    const inForce = await screen.findByRole("region", { name: "Multiplier in force" });
+    expect(within(inForce).getByTestId("quarters-multiplier-in-force")).toHaveTextContent("3.50");
+    expect(within(inForce).getByText(/in force since 2026-01-02 \(Q4 2025, approved\)/)).toBeInTheDocument();
+    expect(within(inForce).getByText("Indicative if determined today")).toBeInTheDocument();
+    expect(within(inForce).getByTestId("quarters-multiplier-indicative")).toHaveTextContent("3.75");
+    expect(within(inForce).getAllByText("Yellow")).toHaveLength(2);
+  });
+
   it("when treasury opens an approved quarter, then the frozen figures show and no action but the hash check is offered", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("treasury"), ...snapshotRoutes([approved()]) });
+    fakeApi({
+      "GET /api/auth/session": signedInAs("treasury"),
+      ...snapshotRoutes([approved()]),
+      "GET /api/entities/LKS-EU/determinations": { status: 200, body: [q4Determination] },
+    });
     renderApp("/quarters");
 
     const detail = await screen.findByRole("region", { name: "Q4 2025 · Larkspur Markets SA" });
@@ -460,6 +590,15 @@ describe("Quarter close › reading signed-off quarters", () => {
     expect(within(detail).getByTestId("snapshot-add-on")).toHaveTextContent("58,928,571 EUR");
     expect(within(detail).getByText("98.63%")).toBeInTheDocument();
     expect(within(detail).getByText(/Approved by cro2@larkspur.test/)).toBeInTheDocument();
+    // Which multiplier it is: the quarter's determination, in force from the next business day.
+    expect(await within(detail).findByTestId("snapshot-in-force")).toHaveTextContent(
+      "This quarter's multiplier of 3.50 is in force from 2026-01-02 until the next determination (Q4 2025, approved).",
+    );
+    const inForce = screen.getByRole("region", { name: "Multiplier in force" });
+    expect(within(inForce).getByTestId("quarters-multiplier-in-force")).toHaveTextContent("3.50");
+    expect(within(inForce).getByText(/in force since 2026-01-02 \(Q4 2025, approved\)/)).toBeInTheDocument();
+    // Treasury reads signed-off figures only: nothing indicative.
+    expect(within(inForce).queryByText(/Indicative/)).not.toBeInTheDocument();
 
     expect(screen.queryByRole("form", { name: "Prepare a snapshot" })).not.toBeInTheDocument();
     for (const name of [

@@ -31,9 +31,7 @@ describe("planning capital in a real browser", () => {
     const errors = watchConsole(page);
     await signInAs(page, suite.app.baseUrl, treasuryEmail);
     await page.goto(`${suite.app.baseUrl}/capital?entity=${book.entity.code}`);
-    await page
-      .getByText(/One more exception today would raise the capital requirement by/)
-      .waitFor({ timeout: 20_000 });
+    await page.getByText(/One more exception would raise the capital requirement by/).waitFor({ timeout: 20_000 });
     const form = page.getByRole("form", { name: "What-if scenario" });
     await form.getByLabel(/Extra exceptions/).fill("5");
     await form.getByRole("button").click();

@@ -22,6 +22,12 @@ describe("closing a quarter in a real browser", () => {
     await analystPage.getByRole("button", { name: "Prepare the snapshot" }).click();
     await analystPage.getByRole("button", { name: "Submit for sign-off" }).waitFor({ timeout: 20_000 });
     await analystPage.getByText("Yellow").first().waitFor();
+    // The return data of the draft, with the values the product does not hold entered and saved.
+    await analystPage.getByLabel(/Incremental default and migration risk: last measure/).fill("1200");
+    await analystPage.getByRole("button", { name: "Save return values" }).click();
+    await analystPage.getByText("Return values saved.").waitFor();
+    await expectAccessible(analystPage, "quarter-close-analyst-return-values-saved");
+    await keepScreenshot(analystPage, "quarter-close-analyst-return-values");
     await analystPage.getByRole("button", { name: "Submit for sign-off" }).click();
     await analystPage
       .getByText(/Submitted for sign-off/)
@@ -32,6 +38,7 @@ describe("closing a quarter in a real browser", () => {
     await keepScreenshot(analystPage, "quarter-close-analyst-submitted");
     const row = await SnapshotModel.findOne({ where: { entityId: book.entity.id, quarterEnd: "2026-09-30" } });
     expect(row).toMatchObject({ status: "submitted", counted: 5, zone: "yellow" });
+    expect(JSON.parse(row!.figuresJson).analystInputs).toMatchObject({ ircLatest: 1200 });
     await analystPage.close();
 
     // The CRO signs out the analyst's work (a fresh context would do as well; sign-in replaces the cookie).

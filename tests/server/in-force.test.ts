@@ -6,6 +6,7 @@ import { DeterminationModel } from "../../server/models/determination";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { SupervisorySettingsModel } from "../../server/models/supervisory-settings";
 import { UserModel } from "../../server/models/user";
+import { overviewResponseSchema } from "../../shared/schemas/backtest";
 import { capitalOnDateSchema, determinationListSchema } from "../../shared/schemas/determination";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { ingestFixture } from "./ingest-helpers";
@@ -131,6 +132,21 @@ describe("the multiplier in force and the indicative one", () => {
     expect(mid.addOn).toBe(0);
     expect(mid.indicativeRequirement).toBeCloseTo(3.4 * SQRT_10 * 350.5, 2);
     expect(mid.nextDetermination).toEqual({ quarterEnd: Q3, asOf: Q3, effectiveFrom: "2026-10-01" });
+    // The Overview names both: Q2's multiplier stays in force (Q3 has no determination without data on
+    // its last business day), beside the indicative one of the rolling count.
+    const overview = await request(app).get("/api/overview").set("Cookie", b.cookie);
+    const line = overviewResponseSchema.parse(overview.body).find((i) => i.entity === b.entity.code)!;
+    expect(line).toMatchObject({ counted: 5, zone: "yellow", multiplier: 3.4 });
+    expect(line.inForce).toEqual({
+      quarterEnd: Q2,
+      effectiveFrom: "2026-07-01",
+      counted: 3,
+      zone: "green",
+      zoneLabel: "green",
+      plusFactor: 0,
+      multiplier: 3,
+      status: "provisional",
+    });
 
     // The quarter ends: Q3 is determined on 30 September and in force from 1 October.
     await uploadAndCommit(
@@ -183,6 +199,11 @@ describe("governed supervisory settings", () => {
     expect(before.inForce).toMatchObject({ quarterEnd: Q2, multiplier: 3 });
     const q2Snapshot = await SnapshotModel.findOne({ where: { entityId: b.entity.id, quarterEnd: Q2 } });
 
+    const backtest = async () =>
+      (await request(app).get(`/api/portfolios/${b.portfolio.code}/backtest`).set("Cookie", b.cookie)).body;
+    // The stored backtest on 30 September: five exceptions, yellow, 3.00 + 0.40 (BCBS 1996 Table 2, from memory).
+    expect(await backtest()).toMatchObject({ asOf: Q3, plusFactor: 0.4, multiplier: 3.4 });
+
     const proposed = await propose({ effectiveFrom: "2026-08-03", reference: "SUP-2026-021", qualitativeAddend: 0.5 });
     expect(proposed.status, JSON.stringify(proposed.body)).toBe(201);
     expect(proposed.body).toMatchObject({ id: expect.any(Number), status: "proposed" });
@@ -215,6 +236,9 @@ describe("governed supervisory settings", () => {
     expect(after.inForce).toMatchObject({ quarterEnd: Q2, multiplier: 3.5 });
     expect(after.requirement).toBeCloseTo(3.5 * SQRT_10 * 350.5, 2);
 
+    // The stored figures (portfolio_figures) were refreshed in the approval's transaction with the
+    // settings in force on their day: 3.00 + 0.40 + 0.50 on 30 September (CRR Art. 366, worked by hand).
+    expect(await backtest()).toMatchObject({ asOf: Q3, plusFactor: 0.4, multiplier: 3.9 });
     // Q3's determination (provisional) was recomputed in the approval's transaction: 3 + 0.40 + 0.50.
     const q3 = await DeterminationModel.findOne({ where: { entityId: b.entity.id, periodEnd: Q3 } });
     expect(q3!.multiplier).toBeCloseTo(3.9, 10);

@@ -5,6 +5,7 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { renderSnapshotPack } from "../../server/pdf/snapshot-pack";
 import { snapshotSchema, type Snapshot } from "../../shared/schemas/snapshot";
+import { returnData, returnInputsFor } from "../../shared/backtest/return-data";
 
 function written(bytes: Buffer): string {
   const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
@@ -86,5 +87,64 @@ describe("a snapshot's pack as a PDF", () => {
   it("when the same snapshot is rendered twice, then the bytes are the same (its dates are the snapshot's own)", async () => {
     const [a, b] = [await renderSnapshotPack(snapshot), await renderSnapshotPack(snapshot)];
     expect(a.equals(b)).toBe(true);
+  });
+});
+
+describe("an FRTB snapshot's pack and return data", () => {
+  // Display figures, as the engine froze them: what the pack and the return must print unchanged.
+  const frtb = snapshotSchema.parse({
+    ...snapshot,
+    figures: {
+      ...snapshot.figures,
+      regime: "frtb",
+      desks: [
+        { portfolio: "LKS-CH-RATES", exceptions99: 3, exceptions975: 8, passes: true, plaZone: "green" },
+        { portfolio: "LKS-CH-CREDIT", exceptions99: 14, exceptions975: 33, passes: false, plaZone: "amber" },
+      ],
+      frtb: {
+        statusQuarterEnd: "2026-06-30",
+        multiplier: 1.5,
+        imccPrev: 100,
+        imccAvg: 90,
+        sesPrev: 20,
+        sesAvg: 18,
+        binding: "average",
+        ca: 153,
+        drc: 40,
+        imaGA: 193,
+        cU: 70,
+        saAll: 400,
+        saGA: 250,
+        saAmber: 0,
+        k: 0,
+        surcharge: 0,
+        acrTotal: 263,
+        sources: { imcc: "top", drc: "top", saAll: "top", saGA: "top" },
+        desks: [],
+        notes: [],
+      },
+    },
+  });
+
+  it("when rendered, then each desk's backtesting and P&L attribution show with what follows, and the MAR33.45 aggregation with its numbers", async () => {
+    const text = execFileSync("pdftotext", ["-layout", written(await renderSnapshotPack(frtb)), "-"])
+      .toString("utf8")
+      .replace(/\s+/g, " ");
+    // MAR32.19 / CRR Art. 325bf(3) (docs/rules.md#frtb-desks): 14 at 99% fails; the desk leaves the model.
+    expect(text).toMatch(/LKS-CH-RATES 3 8 Passes Green Internal model/);
+    expect(text).toMatch(/LKS-CH-CREDIT 14 33 Fails Amber Capital on the standardised approach/);
+    // MAR33.45 (docs/rules.md#frtb-aggregation): min(193 + 0 + 70, 400) + max(0, 193 − 250) = 263.
+    expect(text).toContain("min(193 + 0 + 70, 400) + max(0, 193 − 250) = 263 CHF");
+  });
+
+  it("when its return data is read, then the aggregation's figures are listed and no FRTB value is asked of the analyst", () => {
+    const ret = returnData(frtb.figures, frtb.quarterEnd);
+    const value = (key: string) => ret.fields.find((f) => f.key === key)?.value;
+    expect(value("drc")).toBe(40);
+    expect(value("cU")).toBe(70);
+    expect(value("aggregateCapital")).toBe(263);
+    expect(value("desksOut")).toBe(1);
+    expect(ret.fields.some((f) => f.analystInput)).toBe(false);
+    expect(returnInputsFor(frtb.figures)).toEqual([]);
   });
 });

@@ -1,10 +1,13 @@
 /**
  * Stored figures equal a fresh computation, whatever the writes (server/modules/figures): random
  * sequences of upload commits (new days and restated days), exception reviews with exclusion
- * requests, the CRO's exclusion decisions and holidays added or removed run against the real
- * database through the services the routes call; after each write, every stored figure of the
- * entity (backtest, rolling series, Overview line) is compared with a recomputation
- * from the data as it now is. Bounded: 20 runs of at most 6 writes each.
+ * requests, the CRO's exclusion decisions, holidays added or removed, and supervisory settings
+ * proposed by an admin and approved by a CRO (effective inside the window, or after the last day
+ * so that later commits carry the data past it) run against the real database through the
+ * services the routes call; after each write, every stored figure of the entity (backtest, rolling
+ * series, Overview line, the determinations of the multiplier) is compared with a recomputation
+ * from the data as it now is, and the stored backtest with the settings in force on its day
+ * (docs/rules.md#settings). Bounded: 20 runs of at most 6 writes each.
  */
 import fc from "fast-check";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -20,6 +23,11 @@ import { recordDecision, saveReview } from "../../server/modules/reviews/reviews
 import { addHoliday, removeHoliday } from "../../server/modules/entities/entities.service";
 import { computePortfolioFigures } from "../../server/modules/figures/stored-figures";
 import { entityWithPortfolios } from "../../server/modules/figures/engine-inputs";
+import { approveSettings, proposeSettings } from "../../server/modules/settings/settings.service";
+import { approvedSettings, fallbackSettings } from "../../server/modules/settings/settings.read";
+import { loadEntityEngineInputs, storedDeterminations } from "../../server/modules/determinations/determinations.store";
+import { determinationsFor, multipliersFor, settingsOn } from "../../shared/backtest/determination";
+import type { BacktestResponse } from "../../shared/schemas/backtest";
 import { createTestEntity, createTestUser, unique } from "./helpers";
 
 type Actor = Parameters<typeof commitUpload>[1];
@@ -65,7 +73,14 @@ type Command =
   | { kind: "review"; pick: number; exclusion: boolean }
   | { kind: "decide"; pick: number; approve: boolean }
   | { kind: "addHoliday"; pick: number }
-  | { kind: "removeHoliday"; pick: number };
+  | { kind: "removeHoliday"; pick: number }
+  | {
+      kind: "settings";
+      when: number;
+      addend: number;
+      floor: number | null;
+      basis: "actual" | "hypothetical" | "max" | null;
+    };
 
 const command: fc.Arbitrary<Command> = fc.oneof(
   fc.record({
@@ -84,6 +99,14 @@ const command: fc.Arbitrary<Command> = fc.oneof(
   fc.record({ kind: fc.constant("decide" as const), pick: fc.nat(), approve: fc.boolean() }),
   fc.record({ kind: fc.constant("addHoliday" as const), pick: fc.nat() }),
   fc.record({ kind: fc.constant("removeHoliday" as const), pick: fc.nat() }),
+  fc.record({
+    kind: fc.constant("settings" as const),
+    // 0–59: a day inside the last 60 of the window; 60–69: a weekday after the last day with data.
+    when: fc.integer({ min: 0, max: 69 }),
+    addend: fc.constantFrom(0, 0.25, 0.5, 1),
+    floor: fc.constantFrom(null, 3.5, 4),
+    basis: fc.constantFrom(null, "actual" as const, "hypothetical" as const, "max" as const),
+  }),
 );
 
 interface Run {
@@ -192,6 +215,26 @@ async function apply(run: Run, c: Command): Promise<void> {
       await ignoreRefusal(() => addHoliday(run.entity.code, { date, name: "Bank holiday" }, run.admin));
       return;
     }
+    case "settings": {
+      const last = run.dates[run.dates.length - 1];
+      const effectiveFrom =
+        c.when < 60 ? run.dates[run.dates.length - 1 - c.when] : weekdays(last, c.when - 58).at(-1)!;
+      await ignoreRefusal(async () => {
+        const proposed = await proposeSettings(
+          run.entity.code,
+          {
+            effectiveFrom,
+            reference: `SUP-${unique()}`,
+            qualitativeAddend: c.addend,
+            multiplierFloor: c.floor,
+            ...(c.basis ? { pnlBasis: c.basis } : {}),
+          },
+          run.admin,
+        );
+        await approveSettings(proposed.id, {}, run.cro);
+      });
+      return;
+    }
     case "removeHoliday": {
       const list = await holidays();
       if (!list.length) return;
@@ -222,7 +265,39 @@ async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
     expect(parse(row.backtest_json)).toEqual(fresh.backtest);
     expect(parse(row.rolling_json)).toEqual(fresh.rolling);
     expect(parse(row.overview_json)).toEqual(fresh.overview);
+
+    // Beside the recompute, an oracle from the engine: the stored backtest counts on the basis and
+    // carries the multiplier of the settings in force on its own day, not the entity's columns.
+    const stored = parse(row.backtest_json) as BacktestResponse | null;
+    if (stored) {
+      const settings = settingsOn(await approvedSettings(entityId), stored.asOf) ?? fallbackSettings(entity);
+      expect(stored.pnlBasis).toBe(settings.pnlBasis);
+      expect(stored.multiplier).toBe(
+        multipliersFor(stored.exceptions.counted, entity.regime, settings, 250, stored.plusFactor).multiplier,
+      );
+    }
   }
+  // The determinations (none signed off here) against the engine on the data and settings as they now are.
+  const inputs = await loadEntityEngineInputs(entity);
+  const fresh = determinationsFor(inputs.series, inputs.options).map((d) => ({
+    periodEnd: d.periodEnd,
+    effectiveFrom: d.effectiveFrom,
+    effectiveTo: d.effectiveTo,
+    counted: d.counted,
+    plusFactor: d.plusFactor,
+    multiplier: d.multiplier,
+    settingsId: d.settings.id,
+  }));
+  const storedDets = (await storedDeterminations(entityId)).map((d) => ({
+    periodEnd: d.periodEnd,
+    effectiveFrom: d.effectiveFrom,
+    effectiveTo: d.effectiveTo,
+    counted: d.counted,
+    plusFactor: d.plusFactor,
+    multiplier: d.multiplier,
+    settingsId: d.settingsId,
+  }));
+  expect(storedDets).toEqual(fresh);
 }
 
 describe("stored figures (property)", () => {

@@ -10,6 +10,7 @@ import {
   storedByCode,
   storedOverviewRows,
 } from "../figures/stored-figures";
+import { inForceOnDate } from "../determinations/determinations.service";
 import type { BacktestResponse, OverviewItem, RollingRowDto } from "../../../shared/schemas/backtest";
 
 /** The exception days with their reviews, read now (a review's text is not a figure). */
@@ -61,7 +62,7 @@ export async function getOverview(): Promise<OverviewItem[]> {
     await fillMissing(stale);
     rows = await storedOverviewRows();
   }
-  const [snapshots, findings] = await Promise.all([
+  const [snapshots, findings, inForce] = await Promise.all([
     sequelize.query<{ entity_id: number; id: number; quarter_end: string; status: string }>(
       `SELECT s.entity_id, s.id, DATE_FORMAT(s.quarter_end, '%Y-%m-%d') AS quarter_end, s.status
          FROM snapshots s
@@ -75,6 +76,7 @@ export async function getOverview(): Promise<OverviewItem[]> {
         WHERE f.status = 'open'`,
       { type: QueryTypes.SELECT },
     ),
+    inForceOnDate(rows.map((r) => ({ id: r.entityId, regime: r.regime }))),
   ]);
   const newest = new Map(snapshots.map((s) => [Number(s.entity_id), s]));
   return rows.map((r) => {
@@ -95,6 +97,7 @@ export async function getOverview(): Promise<OverviewItem[]> {
       plusFactor: o?.plusFactor ?? null,
       multiplier: o?.multiplier ?? null,
       addOn: o?.addOn ?? null,
+      inForce: inForce.get(r.entityId) ?? null,
       nextRollOff: o?.nextRollOff ?? null,
       openReviews: o?.openReviews ?? 0,
       // Open data-quality findings of any of the entity's books that touch the current window.

@@ -177,7 +177,8 @@ export async function getForecast(
       windowComplete: start.windowComplete,
     },
     startsFrom: start.startsFrom,
-    inForce: summary(inForceOn(start.dets, asOf)),
+    // Treasury's figures start from the latest signed-off determination: that is the one it reads as in force.
+    inForce: summary(start.determination ?? inForceOn(start.dets, asOf)),
     bitesFrom: bitesFrom(date, inputs.options, asOf),
     nextExceptionBitesFrom: bitesFrom(addBusinessDays(asOf, 1, holidays), inputs.options, asOf),
   };

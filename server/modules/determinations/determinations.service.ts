@@ -1,4 +1,8 @@
+import { Op, QueryTypes } from "sequelize";
+import { sequelize } from "../../db/sequelize";
 import { AppError, NotFoundError } from "../../errors";
+import { SupervisorySettingsModel } from "../../models/supervisory-settings";
+import { toDated } from "../settings/settings.read";
 import { EntityModel } from "../../models/entity";
 import { capitalInputsAt } from "../../../shared/backtest/capital";
 import {
@@ -8,7 +12,11 @@ import {
   indicativeAt,
   multipliersFor,
   settingsInForce,
+  settingsOn,
 } from "../../../shared/backtest/determination";
+import { zoneLabel, type Zone } from "../../../shared/backtest/types";
+import type { RegimeId } from "../../../shared/schemas/common";
+import type { InForceToday } from "../../../shared/schemas/backtest";
 import { addBusinessDays } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import type { CapitalOnDate, DeterminationDto } from "../../../shared/schemas/determination";
@@ -33,6 +41,69 @@ export async function listDeterminations(code: string, viewer: SessionUser): Pro
   const entity = await entityByCode(code);
   const rows = (await storedDeterminations(entity.id)).map((d) => toDeterminationDto(d, entity.regime));
   return viewer.role === "treasury" ? rows.filter((d) => d.status !== "provisional") : rows;
+}
+
+/**
+ * The determination in force on `date` for each of these entities (two indexed reads, whatever the
+ * history): its plus factor with the addends and floor of the settings record in force that day,
+ * as capital on that date uses them.
+ */
+export async function inForceOnDate(
+  entities: readonly { id: number; regime: RegimeId }[],
+  date: string = today(),
+): Promise<Map<number, InForceToday>> {
+  const out = new Map<number, InForceToday>();
+  if (entities.length === 0) return out;
+  const ids = entities.map((e) => e.id);
+  const [rows, records] = await Promise.all([
+    sequelize.query<{
+      entity_id: number;
+      period_end: string;
+      effective_from: string;
+      counted: number;
+      zone: Zone;
+      plus_factor: string;
+      multiplier: string;
+      status: InForceToday["status"];
+    }>(
+      `SELECT d.entity_id, DATE_FORMAT(d.period_end, '%Y-%m-%d') AS period_end,
+              DATE_FORMAT(d.effective_from, '%Y-%m-%d') AS effective_from, d.counted, d.zone, d.plus_factor,
+              d.multiplier, d.status
+         FROM determinations d
+         JOIN (SELECT entity_id, MAX(effective_from) AS f FROM determinations
+                WHERE entity_id IN (:ids) AND effective_from <= :date GROUP BY entity_id) m
+           ON m.entity_id = d.entity_id AND m.f = d.effective_from`,
+      { replacements: { ids, date }, type: QueryTypes.SELECT },
+    ),
+    SupervisorySettingsModel.findAll({
+      where: { entityId: ids, status: "approved", effectiveFrom: { [Op.lte]: date } },
+      order: [
+        ["effectiveFrom", "ASC"],
+        ["decidedAt", "ASC"],
+        ["id", "ASC"],
+      ],
+    }),
+  ]);
+  const regimeOf = new Map(entities.map((e) => [e.id, e.regime]));
+  for (const r of rows) {
+    const entityId = Number(r.entity_id);
+    const regime = regimeOf.get(entityId)!;
+    const settings = settingsOn(records.filter((s) => s.entityId === entityId).map(toDated), date);
+    const plusFactor = Number(r.plus_factor);
+    out.set(entityId, {
+      quarterEnd: r.period_end,
+      effectiveFrom: r.effective_from,
+      counted: Number(r.counted),
+      zone: r.zone,
+      zoneLabel: zoneLabel(r.zone, regime),
+      plusFactor,
+      multiplier: settings
+        ? multipliersFor(Number(r.counted), regime, settings, 250, plusFactor).multiplier
+        : Number(r.multiplier),
+      status: r.status,
+    });
+  }
+  return out;
 }
 
 /** The latest signed-off determination of an entity, or null (treasury's starting point). */

@@ -16,6 +16,8 @@ import { getRegime } from "../../../shared/backtest/regimes";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { quarterLabel } from "../../../shared/backtest/quarters";
+import { settingsOn, type DatedSettings } from "../../../shared/backtest/determination";
+import { approvedSettings, fallbackSettings } from "../settings/settings.read";
 
 export interface PortfolioContext {
   portfolio: PortfolioModel;
@@ -24,6 +26,10 @@ export interface PortfolioContext {
   series: Observation[];
   /** Dates whose exception the supervisor agreed to disregard. */
   excludedDates: Set<string>;
+  /** The entity's approved settings records, oldest first: a figure for a date uses the one in force that day. */
+  settings: DatedSettings[];
+  /** Stands in before the first record (the entity's own columns). */
+  fallback: DatedSettings;
 }
 
 /**
@@ -62,7 +68,7 @@ export async function contextOf(
   entity: EntityModel,
   read: ReadIn & { from?: string; to?: string } = {},
 ): Promise<PortfolioContext> {
-  const [holidays, series, excluded] = await Promise.all([
+  const [holidays, series, excluded, settings] = await Promise.all([
     holidaysOf(entity.id, read),
     loadSeries(portfolio.id, read.from, read.to, read.transaction),
     sequelize.query<{ d: string }>(
@@ -70,6 +76,7 @@ export async function contextOf(
         WHERE portfolio_id = :pid AND exclusion_status = 'approved'${read.transaction ? " LOCK IN SHARE MODE" : ""}`,
       { replacements: { pid: portfolio.id }, type: QueryTypes.SELECT, transaction: read.transaction },
     ),
+    approvedSettings(entity.id, read.transaction),
   ]);
   return {
     portfolio,
@@ -78,7 +85,14 @@ export async function contextOf(
     // FRTB: a business day never reported counts as an exception (MAR32.5(2)), so it must be in the window.
     series: getRegime(entity.regime).missingCountsAsException ? withMissingBusinessDays(series, holidays) : series,
     excludedDates: new Set(excluded.map((r) => r.d)),
+    settings,
+    fallback: fallbackSettings(entity),
   };
+}
+
+/** The settings record in force on a date (never the entity's current columns once records exist). */
+export function settingsAt(ctx: Pick<PortfolioContext, "settings" | "fallback">, date: string): DatedSettings {
+  return settingsOn(ctx.settings, date) ?? ctx.fallback;
 }
 
 export async function holidaysOf(entityId: number, read: ReadIn = {}): Promise<Set<string>> {
@@ -104,18 +118,15 @@ export async function entityWithPortfolios(
   return { entity, portfolios };
 }
 
-/** The engine's options for an entity at a date, from its settings. */
-export function engineOptions(
-  entity: Pick<EntityModel, "regime" | "pnlBasis" | "qualitativeAddend">,
-  asOf: string,
-  excludedDates: ReadonlySet<string>,
-): BacktestOptions & { qualitativeAddend: number } {
+/** The engine's options for a portfolio at a date, from the settings in force that day. */
+export function engineOptions(ctx: PortfolioContext, asOf: string): BacktestOptions & { qualitativeAddend: number } {
+  const settings = settingsAt(ctx, asOf);
   return {
-    regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
+    regime: ctx.entity.regime,
+    pnlBasis: settings.pnlBasis,
     asOf,
-    excludedDates: excludedDates as Set<string>,
-    qualitativeAddend: entity.qualitativeAddend,
+    excludedDates: ctx.excludedDates,
+    qualitativeAddend: settings.qualitativeAddend,
   };
 }
 

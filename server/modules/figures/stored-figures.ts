@@ -1,7 +1,9 @@
 /**
  * The engine's results, stored per portfolio (table portfolio_figures) and refreshed inside the
  * transaction of every write that changes them: an upload commit, an exception review or exclusion
- * decision, a holiday added or removed, an entity's settings or a portfolio's name changed. A
+ * decision, a holiday added or removed, an entity's settings or a portfolio's name changed, a
+ * supervisory settings record approved. Each figure uses the settings record in force on its own
+ * day (engine-inputs.ts, settingsAt), never the entity's current columns. A
  * reader reads the stored row and never sees figures that disagree with the data it could read
  * at the same moment, because the row and the data are committed together. Reads cost the same
  * whatever the length of the history.
@@ -19,7 +21,10 @@ import { backtestAt, rollingBacktest } from "../../../shared/backtest/exceptions
 import { rollOffs } from "../../../shared/backtest/forecast";
 import { deskBacktest } from "../../../shared/backtest/frtb-desk";
 import { deskPla } from "../../../shared/backtest/pla";
-import { capitalAddOn } from "../../../shared/backtest/capital";
+import { capitalInputsAt } from "../../../shared/backtest/capital";
+import { capitalUnder, multipliersFor } from "../../../shared/backtest/determination";
+import { plusFactorFor } from "../../../shared/backtest/regimes";
+import type { PnlBasis } from "../../../shared/schemas/common";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
@@ -32,6 +37,7 @@ import {
   engineOptions,
   entityWithPortfolios,
   headlinePortfolio,
+  settingsAt,
   type PortfolioContext,
   type ReadIn,
 } from "./engine-inputs";
@@ -104,10 +110,19 @@ export async function backtestResponse(
   read: ReadIn = {},
 ): Promise<BacktestResponse> {
   const latestDate = ctx.series[ctx.series.length - 1].date;
-  const opts = engineOptions(ctx.entity, at, ctx.excludedDates);
+  const opts = engineOptions(ctx, at);
   const result = backtestAt(ctx.series, opts);
+  // The multiplier under the settings in force that day: its addend and the supervisor's floor.
+  const { multiplier } = multipliersFor(
+    result.exceptions.counted,
+    ctx.entity.regime,
+    settingsAt(ctx, at),
+    result.windowSize,
+    result.plusFactor,
+  );
   return {
     ...result,
+    multiplier,
     portfolio: { code: ctx.portfolio.code, name: ctx.portfolio.name, level: ctx.portfolio.level },
     entity: { code: ctx.entity.code, name: ctx.entity.name, currency: ctx.entity.currency },
     latestDate,
@@ -116,6 +131,25 @@ export async function backtestResponse(
     desks: await deskResults(ctx, at, portfolios, read),
     engineVersion: ENGINE_VERSION,
   };
+}
+
+/**
+ * The rolling count of every date, each counted on the P&L basis in force that day: a basis change
+ * from a date on changes the rows from that date and none before it.
+ */
+export function rollingUnderSettings(ctx: PortfolioContext): RollingRowDto[] {
+  const basisOn = ctx.series.map((o) => settingsAt(ctx, o.date).pnlBasis);
+  const byBasis = new Map<PnlBasis, RollingRowDto[]>();
+  for (const basis of new Set(basisOn)) {
+    byBasis.set(
+      basis,
+      rollingBacktest(ctx.series, { regime: ctx.entity.regime, pnlBasis: basis, excludedDates: ctx.excludedDates }),
+    );
+  }
+  const [first] = byBasis.values();
+  if (byBasis.size <= 1) return first ?? [];
+  // Every basis's rows have the same dates, in the same order.
+  return first.map((row, i) => byBasis.get(settingsAt(ctx, row.date).pnlBasis)![i]);
 }
 
 /** A fresh computation of everything stored for one portfolio (the property test compares it with the row). */
@@ -129,11 +163,7 @@ export async function computePortfolioFigures(
   if (ctx.series.length === 0) return { asOf: null, backtest: null, rolling: [], overview: null };
   const asOf = ctx.series[ctx.series.length - 1].date;
   const backtest = await backtestResponse(ctx, asOf, portfolios, read);
-  const rolling = rollingBacktest(ctx.series, {
-    regime: entity.regime,
-    pnlBasis: entity.pnlBasis,
-    excludedDates: ctx.excludedDates,
-  });
+  const rolling = rollingUnderSettings(ctx);
   if (headlinePortfolio(portfolios)?.id !== portfolio.id) return { asOf, backtest, rolling, overview: null };
 
   // An exception is open while nobody reviewed it or its exclusion request waits for the CRO.
@@ -158,13 +188,15 @@ export async function computePortfolioFigures(
       counted: backtest.exceptions.counted,
       plusFactor: backtest.plusFactor,
       multiplier: backtest.multiplier,
-      addOn: orNull(() =>
-        capitalAddOn(ctx.series, {
-          regime: entity.regime,
-          asOf,
-          count: backtest.exceptions.counted,
-          qualitativeAddend: entity.qualitativeAddend,
-        }),
+      // The add-on the plus factor causes under the settings in force on the day (addends and floor).
+      addOn: orNull(
+        () =>
+          capitalUnder(
+            capitalInputsAt(ctx.series, entity.regime, asOf),
+            entity.regime,
+            plusFactorFor(backtest.exceptions.counted, entity.regime),
+            settingsAt(ctx, asOf),
+          ).addOn,
       ),
       nextRollOff: backtest.rollOffs[0] ?? null,
       openReviews: counted.length - settled.length,

@@ -20,6 +20,7 @@ import type { Observation } from "../../../shared/backtest/types";
 import type { FrtbFigures, FrtbStatusPoint } from "../../../shared/schemas/frtb";
 
 const cents = (v: number) => Math.round(v * 100) / 100;
+const centsOrNull = (v: number | null | undefined) => (v == null ? null : cents(v));
 
 interface Point {
   periodEnd: string;
@@ -190,7 +191,7 @@ export async function frtbFiguresOn(
       plaZone: d.plaZone,
       plaObservations: d.plaObservations,
       reason: d.reason,
-      sa: saOf.get(d.code) ?? null,
+      sa: centsOrNull(saOf.get(d.code)),
     })),
     notes: [...notes, ...r.notes],
   };

@@ -6,7 +6,8 @@ import { SnapshotModel } from "../../models/snapshot";
 import { SupervisorySettingsModel } from "../../models/supervisory-settings";
 import { UserModel } from "../../models/user";
 import { recordAudit } from "../audit/audit.service";
-import { refreshDeterminations } from "../determinations/determinations.store";
+import { refreshEntityFigures } from "../figures/stored-figures";
+import { lockEntityPortfolios } from "../../db/portfolio-locks";
 import { approvedSettings, fallbackSettings, toDated } from "./settings.read";
 import { settingsOn, type DatedSettings } from "../../../shared/backtest/determination";
 import type { SignedIn } from "../../kit/actor";
@@ -66,8 +67,9 @@ function refuseSignedOffPast(effectiveFrom: string, signedOff: string | null, co
 async function toRecord(rows: SupervisorySettingsModel[], entity: EntityModel): Promise<SettingsRecord[]> {
   const ids = [...new Set(rows.flatMap((r) => [r.proposedBy, r.decidedBy]).filter((v): v is number => v !== null))];
   const people = new Map(
-    (await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email"] })).map((u) => [u.id, u.email]),
+    (await UserModel.findAll({ where: { id: ids }, attributes: ["id", "email", "name"] })).map((u) => [u.id, u]),
   );
+  const person = (id: number | null) => (id ? (people.get(id) ?? null) : null);
   const inForce = settingsOn(rows.filter((r) => r.status === "approved").map(toDated), today());
   return rows.map((r) => ({
     id: r.id,
@@ -80,9 +82,11 @@ async function toRecord(rows: SupervisorySettingsModel[], entity: EntityModel): 
     multiplierFloor: r.multiplierFloor,
     determinationFrequency: r.determinationFrequency,
     status: r.status,
-    proposedBy: r.proposedBy ? (people.get(r.proposedBy) ?? null) : null,
+    proposedBy: person(r.proposedBy)?.email ?? null,
+    proposedByName: person(r.proposedBy)?.name ?? null,
     proposedAt: r.proposedAt?.toISOString() ?? null,
-    decidedBy: r.decidedBy ? (people.get(r.decidedBy) ?? null) : null,
+    decidedBy: person(r.decidedBy)?.email ?? null,
+    decidedByName: person(r.decidedBy)?.name ?? null,
     decidedAt: r.decidedAt?.toISOString() ?? null,
     decisionComment: r.decisionComment,
     inForceToday: inForce?.id === r.id,
@@ -158,6 +162,11 @@ export async function proposeSettings(code: string, body: ProposeBody, actor: Si
 }
 
 async function lockProposal(id: number, transaction: Transaction) {
+  const found = await SupervisorySettingsModel.findByPk(id, { transaction, attributes: ["id", "entityId"] });
+  if (!found) throw new NotFoundError(`No settings record #${id}.`);
+  // An approval changes what the engine is given: the entity's portfolios first (the lock order
+  // portfolios → entity → the record), as every write that refreshes figures takes them.
+  await lockEntityPortfolios(found.entityId, transaction);
   const row = await SupervisorySettingsModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
   if (!row) throw new NotFoundError(`No settings record #${id}.`);
   if (row.status !== "proposed")
@@ -168,7 +177,8 @@ async function lockProposal(id: number, transaction: Transaction) {
 
 /**
  * The CRO approves a proposed change (four eyes: never their own proposal). From its effective
- * date on, every figure uses it; the determinations are recomputed in the same transaction.
+ * date on, every figure uses it; the stored figures and determinations are recomputed in the same
+ * transaction.
  */
 export async function approveSettings(id: number, body: DecisionBody, actor: SignedIn): Promise<SettingsRecord> {
   return sequelize.transaction(async (transaction) => {
@@ -187,7 +197,9 @@ export async function approveSettings(id: number, body: DecisionBody, actor: Sig
     row.decidedAt = new Date();
     row.decisionComment = body.comment ?? null;
     await row.save({ transaction });
-    await refreshDeterminations(entity.id, transaction);
+    // Every stored figure of the entity (portfolio_figures and the determinations) with the settings
+    // in force on each date, in this transaction: no reader sees the approval without its figures.
+    await refreshEntityFigures([entity.id], transaction);
     await recordAudit(
       actor,
       "settings.approve",

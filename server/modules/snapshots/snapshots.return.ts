@@ -2,7 +2,7 @@ import { sequelize } from "../../db/sequelize";
 import { AppError, ConflictError, NotFoundError } from "../../errors";
 import { SnapshotModel } from "../../models/snapshot";
 import { recordAudit } from "../audit/audit.service";
-import { RETURN_INPUTS, returnData } from "../../../shared/backtest/return-data";
+import { returnData, returnInputsFor } from "../../../shared/backtest/return-data";
 import type { ReturnInputsBody, Snapshot, SnapshotFigures, SnapshotReturn } from "../../../shared/schemas/snapshot";
 import { snapshotDto, visibleSnapshotRow } from "./snapshots.read";
 import type { SignedIn } from "../../kit/actor";
@@ -37,13 +37,13 @@ export async function setReturnInputs(id: number, body: ReturnInputsBody, actor:
         `Snapshot #${id} is ${row.status}: its return values are frozen. Only a draft or returned snapshot takes new values.`,
       );
     const figures = JSON.parse(row.figuresJson) as SnapshotFigures;
-    const asked = new Set(RETURN_INPUTS[figures.regime].map((d) => d.key));
+    const asked = new Set(returnInputsFor(figures).map((d) => d.key));
     const unknown = Object.keys(body.values).filter((k) => !asked.has(k));
     if (unknown.length) {
       throw new AppError(
         422,
         "validation_failed",
-        `The request is not valid. ${getRegime(figures.regime).label} does not ask for ${unknown.join(", ")}; it asks for ${[...asked].join(", ")}.`,
+        `The request is not valid. ${getRegime(figures.regime).label} does not ask for ${unknown.join(", ")}; it asks for ${asked.size ? [...asked].join(", ") : "none"}.`,
         {
           fields: Object.fromEntries(
             unknown.map((k) => [`values.${k}`, "Not a value this rule set's return asks for"]),

@@ -129,7 +129,7 @@ export default function AppLayout() {
       >
         Skip to content
       </a>
-      <header className="border-b border-rule bg-paper-raised">
+      <header className="border-b border-rule bg-paper-raised print:hidden">
         <div className="mx-auto flex max-w-screen-2xl flex-wrap items-center gap-x-8 px-6">
           <NavLink to={paths.overview.href()} className="flex items-center gap-2 py-2 text-ink! no-underline!">
             <QuartermarkMark className="size-5" />

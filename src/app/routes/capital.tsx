@@ -8,8 +8,10 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { capitalQueries } from "@/features/capital/api/capital-queries";
 import { CapitalStanding } from "@/features/capital/components/capital-standing";
 import { CapitalHistory } from "@/features/capital/components/capital-history";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { ZoneForecast } from "@/features/capital/components/zone-forecast";
 import { WhatIfForm } from "@/features/capital/components/what-if-form";
+import { FrtbAggregation } from "@/features/capital/components/frtb-aggregation";
 import { RollOffTable } from "@/components/ui/roll-off-table";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
@@ -108,6 +110,11 @@ export default function CapitalRoute() {
   const currency = current?.currency ?? standing?.currency ?? "";
   const regime = current?.regime ?? standing?.regime ?? "";
   const noData = isApiError(entityError) && entityError.code === "no_data";
+  // FRTB: the MAR33 aggregation today (the reporting office's current figures; treasury reads signed-off quarters).
+  const onDate = useQuery({
+    ...capitalQueries.onDate(entity),
+    enabled: entity !== "" && regime === "frtb" && role !== "treasury",
+  });
 
   return (
     <section aria-labelledby="capital-title" className="flex flex-col gap-6">
@@ -159,12 +166,32 @@ export default function CapitalRoute() {
             <p className="text-sm text-ink-muted">Reading today's figures…</p>
           )}
 
+          {onDate.data &&
+            onDate.data.entity.toUpperCase() === entity.toUpperCase() &&
+            onDate.data.frtbTimeline !== undefined && (
+              <FrtbAggregation
+                figures={onDate.data.frtb}
+                note={onDate.data.frtbNote}
+                timeline={onDate.data.frtbTimeline}
+                currency={onDate.data.currency}
+                date={onDate.data.date}
+              />
+            )}
+
           {history.error ? (
             <FormMessage>
               {isApiError(history.error) ? history.error.message : "The capital history could not be read."}
             </FormMessage>
           ) : history.data ? (
-            <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
+            <>
+              <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
+              {items.length > 0 && (
+                <TableDownloads
+                  path={`/api/entities/${entity}/capital/history`}
+                  what={`the capital history of ${entity}`}
+                />
+              )}
+            </>
           ) : (
             <p className="text-sm text-ink-muted">Reading the capital history…</p>
           )}

@@ -11,6 +11,7 @@ import { UploadPanel } from "@/features/uploads/components/upload-panel";
 import { UploadPreviewPanel } from "@/features/uploads/components/upload-preview";
 import { UploadHistoryTable } from "@/features/uploads/components/upload-history-table";
 import { FindingsPanel } from "@/features/findings/components/findings-panel";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { isApiError } from "@/lib/api-client";
@@ -151,6 +152,19 @@ export default function DataRoute() {
           onDiscarded={() => navigate(paths.data.href({ ...current, upload: undefined }))}
         />
       )}
+      <FindingsPanel
+        filters={filters}
+        entities={entities}
+        canClose={isAnalyst}
+        onFilter={(f) =>
+          navigate(paths.data.href({ upload, entity: f.entity, status: f.status ?? "all" }), { replace: true })
+        }
+      />
+      <TableDownloads
+        path="/api/findings"
+        query={{ entity: filters.entity, status: filters.status }}
+        what="these findings"
+      />
       <section aria-labelledby="history-title" className="flex flex-col gap-2 border-t border-rule pt-4">
         <div className="flex items-baseline justify-between gap-4">
           <h2 id="history-title">Upload history</h2>
@@ -163,15 +177,8 @@ export default function DataRoute() {
           onOpen={(id) => navigate(uploadHref(id))}
           canUpload={isAnalyst}
         />
+        {uploads.length > 0 && <TableDownloads path="/api/uploads" what="the upload history" />}
       </section>
-      <FindingsPanel
-        filters={filters}
-        entities={entities}
-        canClose={isAnalyst}
-        onFilter={(f) =>
-          navigate(paths.data.href({ upload, entity: f.entity, status: f.status ?? "all" }), { replace: true })
-        }
-      />
     </section>
   );
 }

@@ -7,6 +7,7 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { filingQueries } from "@/features/filings/api/filing-queries";
 import { FilingDetail } from "@/features/filings/components/filing-detail";
 import { FilingListTable } from "@/features/filings/components/filing-list-table";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { FilingsStanding } from "@/features/filings/components/filings-standing";
 import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
@@ -89,6 +90,7 @@ export default function FilingsRoute() {
           regimeOf={regimeOf}
           empty={emptyFor(role)}
         />
+        {filings.length > 0 && <TableDownloads path="/api/filings" what="the filings" />}
       </section>
       {selected ? (
         <FilingDetail key={selected.id} filing={selected} role={role} regime={regimeOf(selected.entity)} />

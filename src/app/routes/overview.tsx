@@ -39,8 +39,10 @@ function Standing() {
   return (
     <>
       <p className="text-sm text-ink-muted">
-        Each entity's top-of-house portfolio on its latest day of data. Open an entity for its backtest, the exceptions
-        to explain and the roll-off calendar.
+        Each entity's top-of-house portfolio on its latest day of data. The multiplier in force is the last quarterly
+        determination's and stays until the next quarter end; the zone, count, multiplier and add-on beside it are
+        indicative: the rolling count as if determined today. Open an entity for its backtest, the exceptions to explain
+        and the roll-off calendar.
       </p>
       <StandingTable
         items={items}

@@ -13,6 +13,8 @@ import { FilingDelivery } from "@/features/filings/components/filing-delivery";
 import { PrepareSnapshotForm } from "@/features/snapshots/components/prepare-snapshot-form";
 import { SnapshotDetail } from "@/features/snapshots/components/snapshot-detail";
 import { SnapshotListTable } from "@/features/snapshots/components/snapshot-list-table";
+import { TableDownloads } from "@/components/ui/table-downloads";
+import { MultiplierStanding } from "@/features/snapshots/components/multiplier-standing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -99,6 +101,7 @@ function SelectedSnapshot({
   const entities = useQuery(entityQueries.all());
   const entityRow = entities.data?.find((e) => e.code === data?.entity);
   const recipients = entityRow ? { name: entityRow.supervisorName, emails: entityRow.supervisorEmails } : undefined;
+  const determinations = useQuery({ ...snapshotQueries.determinations(data?.entity ?? ""), enabled: !!data });
   // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
   // server; the filings list is the one place they are read from (treasury may not read it).
   const readsFiling =
@@ -143,6 +146,7 @@ function SelectedSnapshot({
         filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
         recipients={recipients}
+        determination={determinations.data?.find((d) => d.quarterEnd === data.quarterEnd)}
       />
     </>
   );
@@ -164,6 +168,14 @@ export default function SnapshotsRoute() {
   const snapshotHref = (id: number) => paths.snapshots.href({ entity, snapshot: id });
   const current = entities.find((e) => e.code === entity);
   const latest = snapshots[0];
+  const capitalToday = useQuery({
+    ...snapshotQueries.inForceToday(entity),
+    enabled: entity !== "" && role !== "treasury",
+  });
+  const signedOff = useQuery({
+    ...snapshotQueries.determinations(entity),
+    enabled: entity !== "" && role === "treasury",
+  });
   const waiting = snapshots.filter((s) => s.status === "submitted").length;
 
   return (
@@ -232,6 +244,15 @@ export default function SnapshotsRoute() {
               )}
             </dl>
           )}
+          {current && (capitalToday.data || signedOff.data) && (
+            <section aria-label="Multiplier in force" className="flex flex-col gap-1">
+              <MultiplierStanding
+                regime={current.regime}
+                capital={capitalToday.data?.entity === entity ? capitalToday.data : undefined}
+                signedOff={role === "treasury" ? signedOff.data : undefined}
+              />
+            </section>
+          )}
           {role === "analyst" && (
             <section className="border-t border-rule pt-4">
               <PrepareSnapshotForm
@@ -268,6 +289,9 @@ export default function SnapshotsRoute() {
               />
             ) : (
               <p className="text-sm text-ink-muted">Reading the snapshots…</p>
+            )}
+            {snapshots.length > 0 && (
+              <TableDownloads path="/api/snapshots" query={{ entity }} what={`the snapshots of ${entity}`} />
             )}
           </section>
           {selectedId !== undefined && (

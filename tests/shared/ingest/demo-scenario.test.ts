@@ -6,6 +6,7 @@ import { plaTest } from "../../../shared/backtest/pla";
 import type { Observation } from "../../../shared/backtest/types";
 import { findDataQualityIssues } from "../../../shared/ingest/data-quality";
 import type { RegimeId } from "../../../shared/schemas/common";
+import { deskStatusHistory, frtbAggregation } from "../../../shared/backtest/frtb-capital";
 
 const REGIME: Record<string, RegimeId> = { "LKS-EU": "eu", "LKS-US": "us", "LKS-AP": "basel", "LKS-UK": "frtb" };
 
@@ -44,6 +45,13 @@ function seriesByPortfolio(entity: string, today: string) {
       hypotheticalPnl: r.hypothetical_pnl ?? null,
       var99: r.var_99 ?? null,
       rtpl: r.rtpl ?? null,
+      var975: r.var_975 ?? null,
+      es975: r.es_975 ?? null,
+      ses: r.ses ?? null,
+      imaDrc: r.ima_drc ?? null,
+      sbm: r.sbm ?? null,
+      rrao: r.rrao ?? null,
+      saDrc: r.sa_drc ?? null,
     });
   }
   return { dates, out };
@@ -105,6 +113,46 @@ describe.each([
       "LKS-UK-CREDIT": "amber",
       "LKS-UK-EQUITIES": "green",
     });
+  });
+
+  it("an FRTB desk left the model after failing desk backtesting and came back; today Credit is amber, so the surcharge is above 0 (MAR32.19, 32.45, 33.45)", () => {
+    const { dates, out } = seriesByPortfolio("LKS-UK", today);
+    // Each quarter's last business day with data: the determinations (docs/rules.md#frtb-eligibility).
+    const asOfs = dates.filter(
+      (d, i) =>
+        ["03", "06", "09", "12"].includes(d.slice(5, 7)) &&
+        dates[i + 1]?.slice(5, 7) !== d.slice(5, 7) &&
+        i + 1 < dates.length,
+    );
+    const desks = (SCENARIO["LKS-UK"].desks ?? []).map((d) => ({ code: d.code, series: out.get(d.code)! }));
+    const history = deskStatusHistory(desks, asOfs);
+    const statusOf = (code: string) => history.map((h) => h.desks.find((d) => d.code === code)!.status);
+    const equities = statusOf("LKS-UK-EQUITIES");
+    const left = equities.indexOf("out-of-model");
+    expect(left, equities.join(",")).toBeGreaterThan(0);
+    expect(history[left].desks.find((d) => d.code === "LKS-UK-EQUITIES")!.backtestPasses).toBe(false);
+    expect(equities.slice(left).includes("in-model"), equities.join(",")).toBe(true);
+    expect(equities[equities.length - 1]).toBe("in-model");
+    const last = history[history.length - 1].desks;
+    expect(last.find((d) => d.code === "LKS-UK-CREDIT")!.status).toBe("amber");
+    for (const code of ["LKS-UK-RATES", "LKS-UK-FX"])
+      expect(
+        statusOf(code).every((s) => s === "in-model"),
+        code,
+      ).toBe(true);
+
+    const top = out.get(SCENARIO["LKS-UK"].top.code)!;
+    const r = frtbAggregation(
+      top,
+      last.map((d) => ({ code: d.code, status: d.status, series: out.get(d.code)! })),
+      dates[dates.length - 1],
+      1.5,
+    );
+    expect(r.k).toBeGreaterThan(0);
+    expect(r.surcharge).toBeGreaterThan(0);
+    // Realistic proportions: the standardised charge of all desks above the internal-model figure.
+    expect(r.saAll).toBeGreaterThan(r.imaGA);
+    expect(r.acrTotal).toBeLessThanOrEqual(r.saAll + Math.max(0, r.imaGA - r.saGA));
   });
 
   it("leaves exactly two data problems for the Data screen: a missing day for LKS-EU and a VaR without hypothetical P&L for LKS-AP; VaR moves every day", () => {

@@ -2,18 +2,29 @@ import { useEffect, useState, type FormEvent } from "react";
 import { Link, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useQuery, type QueryClient } from "@tanstack/react-query";
 import { paths } from "@/config/paths";
-import { AUDIT_PAGE_SIZE, auditQueries, type AuditPageParams } from "@/features/admin/api/audit-queries";
+import {
+  AUDIT_PAGE_SIZE,
+  auditQueries,
+  type AuditFilter,
+  type AuditPageParams,
+} from "@/features/admin/api/audit-queries";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { AuditTable } from "@/features/admin/components/audit-table";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { isApiError } from "@/lib/api-client";
 import { PageTitle } from "@/components/ui/page-title";
 
+const DAY = /^\d{4}-\d{2}-\d{2}$/;
+
 function pageParams(search: URLSearchParams): AuditPageParams {
   const page = Math.max(1, Math.floor(Number(search.get("page") ?? "1")) || 1);
-  const action = search.get("action")?.trim() || undefined;
-  return { page, action };
+  const text = (key: string) => search.get(key)?.trim() || undefined;
+  const day = (key: string) => (DAY.test(search.get(key) ?? "") ? (search.get(key) as string) : undefined);
+  return { page, action: text("action"), actor: text("actor"), from: day("from"), to: day("to") };
 }
+
+const filterOf = ({ action, actor, from, to }: AuditFilter): AuditFilter => ({ action, actor, from, to });
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -27,8 +38,14 @@ export default function AuditRoute() {
   const navigate = useNavigate();
   const params = pageParams(search);
   const { data, error, isFetching, isPlaceholderData } = useQuery(auditQueries.page(params));
-  const [action, setAction] = useState(params.action ?? "");
-  useEffect(() => setAction(params.action ?? ""), [params.action]);
+  const applied = filterOf(params);
+  const filtered = Object.values(applied).some(Boolean);
+  const [draft, setDraft] = useState<AuditFilter>(applied);
+  const appliedKey = JSON.stringify(applied);
+  useEffect(() => setDraft(JSON.parse(appliedKey) as AuditFilter), [appliedKey]);
+  const set = (key: keyof AuditFilter) => (e: { target: { value: string } }) =>
+    setDraft((d) => ({ ...d, [key]: e.target.value }));
+  const spanReversed = Boolean(draft.from && draft.to && draft.from > draft.to);
 
   const total = data?.total ?? 0;
   const pages = Math.max(1, Math.ceil(total / AUDIT_PAGE_SIZE));
@@ -38,7 +55,16 @@ export default function AuditRoute() {
 
   function filter(e: FormEvent) {
     e.preventDefault();
-    navigate(paths.adminAudit.href({ action: action.trim() || undefined }));
+    if (spanReversed) return;
+    const clean = (v?: string) => v?.trim() || undefined;
+    navigate(
+      paths.adminAudit.href({
+        action: clean(draft.action),
+        actor: clean(draft.actor),
+        from: clean(draft.from),
+        to: clean(draft.to),
+      }),
+    );
   }
 
   return (
@@ -65,10 +91,26 @@ export default function AuditRoute() {
         <TextField
           label="Action"
           list="audit-actions"
-          value={action}
-          onChange={(e) => setAction(e.target.value)}
-          className="w-64"
+          value={draft.action ?? ""}
+          onChange={set("action")}
+          className="w-56"
           placeholder="e.g. user.create"
+        />
+        <TextField
+          label="Person (e-mail)"
+          value={draft.actor ?? ""}
+          onChange={set("actor")}
+          className="w-56"
+          placeholder="e.g. a.moreau"
+        />
+        <TextField label="From" type="date" value={draft.from ?? ""} onChange={set("from")} className="w-40" />
+        <TextField
+          label="To"
+          type="date"
+          value={draft.to ?? ""}
+          onChange={set("to")}
+          className="w-40"
+          error={spanReversed ? "The last day comes before the first" : undefined}
         />
         <datalist id="audit-actions">
           {knownActions.map((a) => (
@@ -78,22 +120,23 @@ export default function AuditRoute() {
         <Button type="submit" variant="secondary">
           Filter
         </Button>
-        {params.action && (
+        {filtered && (
           <Link to={paths.adminAudit.href()} className="pb-2 text-sm">
             Clear filter
           </Link>
         )}
       </form>
+      {total > 0 && <TableDownloads path="/api/audit-events" query={applied} what="these events" />}
       <FormMessage>
         {error ? (isApiError(error) ? error.message : "The audit log could not load.") : undefined}
       </FormMessage>
       <div className={isPlaceholderData ? "opacity-60" : undefined}>
-        <AuditTable events={data?.items ?? []} filtered={Boolean(params.action)} />
+        <AuditTable events={data?.items ?? []} filtered={filtered} />
       </div>
       {pages > 1 && (
         <nav aria-label="Audit log pages" className="flex items-center gap-4 text-sm">
           {params.page > 1 ? (
-            <Link to={paths.adminAudit.href({ action: params.action, page: params.page - 1 })}>Newer</Link>
+            <Link to={paths.adminAudit.href({ ...applied, page: params.page - 1 })}>Newer</Link>
           ) : (
             <span className="text-ink-faint">Newer</span>
           )}
@@ -101,7 +144,7 @@ export default function AuditRoute() {
             Page {params.page} of {pages}
           </span>
           {params.page < pages ? (
-            <Link to={paths.adminAudit.href({ action: params.action, page: params.page + 1 })}>Older</Link>
+            <Link to={paths.adminAudit.href({ ...applied, page: params.page + 1 })}>Older</Link>
           ) : (
             <span className="text-ink-faint">Older</span>
           )}

@@ -13,6 +13,7 @@ import { TestsPanel } from "@/features/backtest/components/tests-panel";
 import { RollOffTable } from "@/components/ui/roll-off-table";
 import { DesksTable } from "@/features/backtest/components/desks-table";
 import { ExceptionTable } from "@/features/backtest/components/exception-table";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { ReviewPanel } from "@/features/reviews/components/review-panel";
 import { PortfolioPicker } from "@/features/backtest/components/portfolio-picker";
 import { plural } from "@/lib/format";
@@ -98,6 +99,9 @@ const Why = memo(function Why({ bt, code }: { bt: BacktestResponse; code: string
           <ChartSlot height={220} />
         )}
       </Suspense>
+      {rolling.data && rolling.data.length > 0 && (
+        <TableDownloads path={`/api/portfolios/${bt.portfolio.code}/rolling`} what="the rolling count" />
+      )}
       <TestsPanel bt={bt} />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,5fr)_minmax(0,7fr)]">
         <RollOffTable rollOffs={bt.rollOffs} regime={bt.regime} />
@@ -140,6 +144,13 @@ function WhatNext({ bt, code, role }: { bt: BacktestResponse; code: string; role
         <h2 id="next-title">What next: exceptions and their reviews</h2>
         <p className="text-sm text-ink-soft">{todo}</p>
       </div>
+      {bt.exceptionDays.length > 0 && (
+        <TableDownloads
+          path={`/api/portfolios/${bt.portfolio.code}/exceptions`}
+          query={{ asOf: bt.asOf }}
+          what="the exceptions and their reviews"
+        />
+      )}
       <ExceptionTable
         days={bt.exceptionDays}
         currency={bt.entity.currency}
@@ -233,6 +244,8 @@ export default function BacktestRoute() {
   const bt = backtest.data && backtest.data.portfolio.code === code.toUpperCase() ? backtest.data : undefined;
   const entity = bt?.entity.code ?? entities[0]?.code ?? "";
   const portfolios = useQuery({ ...entityQueries.portfolios(entity), enabled: entity !== "" });
+  const inForceDate = bt && bt.asOf !== bt.latestDate ? bt.asOf : undefined;
+  const capital = useQuery({ ...backtestQueries.inForce(bt?.entity.code ?? "", inForceDate), enabled: !!bt });
 
   const openEntity = async (e: string) => {
     const list = await queryClient.ensureQueryData(entityQueries.portfolios(e));
@@ -289,7 +302,17 @@ export default function BacktestRoute() {
               {isApiError(backtest.error) ? backtest.error.message : "The backtest could not be updated."}
             </FormMessage>
           )}
-          <WhereWeStand bt={bt} />
+          <WhereWeStand
+            bt={bt}
+            capital={capital.data?.entity === bt.entity.code ? capital.data : undefined}
+            capitalError={
+              capital.error
+                ? isApiError(capital.error)
+                  ? capital.error.message
+                  : "The multiplier in force could not be read."
+                : undefined
+            }
+          />
           <Why bt={bt} code={code} />
           <WhatNext bt={bt} code={code} role={user!.role} />
           <p className="text-2xs text-ink-faint">Figures by the backtesting engine {bt.engineVersion}.</p>

@@ -4,16 +4,29 @@ import { api, withQuery } from "@/lib/api-client";
 
 export const AUDIT_PAGE_SIZE = 50;
 
-export type AuditPageParams = { page: number; action?: string };
+/** The audit log's filter: the action's start, part of the person's e-mail, a span of days (UTC). */
+export type AuditFilter = { action?: string; actor?: string; from?: string; to?: string };
+export type AuditPageParams = AuditFilter & { page: number };
 
 export const auditQueries = {
   root: () => ["audit-events"] as const,
-  page: ({ page, action }: AuditPageParams) =>
+  page: ({ page, action, actor, from, to }: AuditPageParams) =>
     queryOptions({
-      queryKey: [...auditQueries.root(), "page", { page, action: action ?? "" }] as const,
+      queryKey: [
+        ...auditQueries.root(),
+        "page",
+        { page, action: action ?? "", actor: actor ?? "", from: from ?? "", to: to ?? "" },
+      ] as const,
       queryFn: () =>
         api.get(
-          withQuery("/api/audit-events", { limit: AUDIT_PAGE_SIZE, offset: (page - 1) * AUDIT_PAGE_SIZE, action }),
+          withQuery("/api/audit-events", {
+            limit: AUDIT_PAGE_SIZE,
+            offset: (page - 1) * AUDIT_PAGE_SIZE,
+            action,
+            actor,
+            from,
+            to,
+          }),
           auditPageSchema,
         ),
       placeholderData: keepPreviousData,

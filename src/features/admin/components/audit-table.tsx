@@ -21,8 +21,8 @@ function Change({ before, after }: { before: unknown; after: unknown }) {
 export function AuditTable({ events, filtered }: { events: AuditEvent[]; filtered: boolean }) {
   if (events.length === 0) {
     return filtered ? (
-      <EmptyState title="No events with this action">
-        Clear the filter or check the spelling of the action name.
+      <EmptyState title="No events match this filter">
+        Clear the filter, widen the days, or check the spelling of the action or e-mail.
       </EmptyState>
     ) : (
       <EmptyState title="No events recorded yet">

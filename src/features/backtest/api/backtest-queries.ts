@@ -1,6 +1,7 @@
 import { queryOptions } from "@tanstack/react-query";
 import { observationListSchema } from "@shared/schemas/observation";
 import { backtestResponseSchema, rollingResponseSchema } from "@shared/schemas/backtest";
+import { capitalOnDateSchema } from "@shared/schemas/determination";
 import { api, withQuery } from "@/lib/api-client";
 
 const base = (code: string) => `/api/portfolios/${encodeURIComponent(code)}`;
@@ -18,6 +19,16 @@ export const backtestQueries = {
     queryOptions({
       queryKey: [...backtestQueries.root(), "rolling", code] as const,
       queryFn: () => api.get(`${base(code)}/rolling`, rollingResponseSchema),
+    }),
+  /**
+   * The entity's multiplier in force on a date (the last determination's) beside the indicative one
+   * of the rolling count; `undefined` asks for today.
+   */
+  inForce: (entity: string, date?: string) =>
+    queryOptions({
+      queryKey: [...backtestQueries.root(), "in-force", entity, date ?? "today"] as const,
+      queryFn: () =>
+        api.get(withQuery(`/api/entities/${encodeURIComponent(entity)}/capital`, { date }), capitalOnDateSchema),
     }),
   /** The daily P&L and VaR as stored (current versions), for the chart. */
   observations: (code: string, from?: string, to?: string) =>

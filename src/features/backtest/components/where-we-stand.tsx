@@ -1,4 +1,6 @@
 import type { BacktestResponse } from "@shared/schemas/backtest";
+import type { CapitalOnDate } from "@shared/schemas/determination";
+import { MultiplierInForce } from "@/components/ui/multiplier-in-force";
 import { Figure } from "@/components/ui/figure";
 import { Notice } from "@/components/ui/notice";
 import { ZoneBadge } from "@/components/ui/zone-badge";
@@ -40,8 +42,48 @@ export function DataGaps({ gaps }: { gaps: string[] }) {
   );
 }
 
+/**
+ * The entity's multiplier in force on the as-of date beside this book's indicative one. The
+ * determination is the entity's, counted on its top-of-house portfolio.
+ */
+function InForcePair({ bt, capital, error }: { bt: BacktestResponse; capital?: CapitalOnDate; error?: string }) {
+  const latest = bt.asOf === bt.latestDate;
+  return (
+    <div className="flex flex-col gap-1.5">
+      {capital ? (
+        <MultiplierInForce
+          inForce={capital.inForce}
+          indicative={{
+            counted: bt.exceptions.counted,
+            zone: bt.zone,
+            multiplier: bt.multiplier,
+            windowComplete: bt.window.complete,
+          }}
+          indicativeOn={latest ? "today" : bt.asOf}
+          regime={bt.regime}
+        />
+      ) : (
+        <p className="text-sm text-ink-muted">{error ?? "Reading the multiplier in force…"}</p>
+      )}
+      <p className="text-xs text-ink-muted">
+        {bt.entity.code}'s multiplier is determined each quarter end on its top-of-house portfolio and stays in force
+        until the next determination; the rolling count below says where the next one is heading.
+      </p>
+    </div>
+  );
+}
+
 /** "Where we stand": the window, the counts and what they mean for capital, all as the engine returned them. */
-export function WhereWeStand({ bt }: { bt: BacktestResponse }) {
+export function WhereWeStand({
+  bt,
+  capital,
+  capitalError,
+}: {
+  bt: BacktestResponse;
+  /** The entity's capital on the as-of date: the multiplier in force (absent while it is read). */
+  capital?: CapitalOnDate;
+  capitalError?: string;
+}) {
   const provisional = !bt.window.complete || bt.provisionalBoundaries;
   return (
     <section aria-labelledby="standing-title" className="flex flex-col gap-3">
@@ -53,8 +95,9 @@ export function WhereWeStand({ bt }: { bt: BacktestResponse }) {
         </span>
         , {plural(bt.window.observations, "observation", "observations")}.
       </p>
+      <InForcePair bt={bt} capital={capital} error={capitalError} />
       <dl className="grid grid-cols-2 gap-x-4 gap-y-3 border-y border-rule py-3 sm:grid-cols-4 lg:grid-cols-9">
-        <Figure look="ruled" label="Traffic-light zone">
+        <Figure look="ruled" label="Zone if determined now">
           <ZoneBadge zone={bt.zone} regime={bt.regime} provisional={provisional} className="text-sm" />
         </Figure>
         <Figure look="ruled" label="Counted exceptions" hint={provisional ? "provisional" : undefined}>
@@ -63,7 +106,7 @@ export function WhereWeStand({ bt }: { bt: BacktestResponse }) {
         <Figure look="ruled" label="Plus factor">
           <span data-testid="plus-factor">{formatFactor(bt.plusFactor)}</span>
         </Figure>
-        <Figure look="ruled" label="Multiplier">
+        <Figure look="ruled" label="Indicative multiplier">
           <span data-testid="multiplier">{formatFactor(bt.multiplier)}</span>
         </Figure>
         <Figure look="ruled" label="Actual P&L exceptions">

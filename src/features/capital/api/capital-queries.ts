@@ -6,6 +6,7 @@ import {
   type whatIfBodySchema,
   capitalHistorySchema,
 } from "@shared/schemas/capital";
+import { capitalOnDateSchema } from "@shared/schemas/determination";
 import { api, withQuery } from "@/lib/api-client";
 
 /** A what-if as the form sends it: parsed by the shared schema, so every default is filled in and the key is stable. */
@@ -24,6 +25,7 @@ export const capitalKeys = {
   history: (code: string) => [...capitalKeys.entity(code), "history"] as const,
   forecast: (code: string, date?: string) => [...capitalKeys.entity(code), "forecast", date ?? "default"] as const,
   whatIf: (code: string, inputs: WhatIfInputs) => [...capitalKeys.entity(code), "what-if", inputs] as const,
+  onDate: (code: string) => [...capitalKeys.entity(code), "on-date"] as const,
 };
 
 export const capitalQueries = {
@@ -38,6 +40,12 @@ export const capitalQueries = {
     queryOptions({
       queryKey: capitalKeys.forecast(code, date),
       queryFn: () => api.get(withQuery(`${base(code)}/forecast`, { date }), forecastResponseSchema),
+    }),
+  /** Capital today with the determination in force; for FRTB entities the MAR33 aggregation and the desks' timeline. */
+  onDate: (code: string) =>
+    queryOptions({
+      queryKey: capitalKeys.onDate(code),
+      queryFn: () => api.get(base(code), capitalOnDateSchema),
     }),
   /**
    * A what-if is a query keyed by its inputs, not a mutation: the POST only carries the parameters

@@ -8,6 +8,7 @@ import { ZoneBadge } from "@/components/ui/zone-badge";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
 import { formatAmount, formatChange, formatFactor } from "@/lib/format";
+import { bitesFromWords, periodLabel } from "@/lib/determination-words";
 import { capitalQueries, type WhatIfInputs } from "../api/capital-queries";
 
 const FIELDS = ["extraExceptions", "varScale", "svarScale"] as const;
@@ -184,6 +185,12 @@ export function WhatIfForm({ entity, regime }: { entity: string; regime: string 
             {regime === "frtb" ? " (ES and SES for FRTB)" : ""}.
           </p>
           <ResultTable result={shown} regime={regime} />
+          <p className="text-sm text-ink-soft" data-testid="what-if-bites-from">
+            {shown.startsFrom.kind === "approved" && shown.startsFrom.quarterEnd
+              ? `Starts from the ${shown.startsFrom.status ?? "approved"} ${periodLabel(shown.startsFrom.quarterEnd)} determination. `
+              : ""}
+            Exceptions after {shown.asOf} would change the multiplier in force {bitesFromWords(shown.bitesFrom)}.
+          </p>
         </div>
       )}
     </section>

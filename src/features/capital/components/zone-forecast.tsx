@@ -9,6 +9,7 @@ import { ZoneBadge, zoneName } from "@/components/ui/zone-badge";
 import { validate } from "@/lib/form";
 import { formatAmount, formatChance, formatFactor, plural } from "@/lib/format";
 import { NO_CAPITAL_INPUTS, SHOWN_FROM } from "../words";
+import { bitesFromWords } from "@/lib/determination-words";
 import type { DistributionRow } from "./distribution-chart";
 
 const DistributionChart = lazy(() => import("./charts").then((m) => ({ default: m.DistributionChart })));
@@ -174,6 +175,11 @@ export function ZoneForecast({
         <div className="flex flex-col gap-1">
           <h2 id="forecast-title">Zone forecast{forecast ? ` for ${forecast.date}` : ""}</h2>
           {forecast && <p className="text-sm text-ink-soft">{remainingInWords(forecast)}</p>}
+          {forecast && (
+            <p className="text-sm text-ink-soft" data-testid="forecast-bites-from">
+              The count on {forecast.date} sets the multiplier in force {bitesFromWords(forecast.bitesFrom)}.
+            </p>
+          )}
         </div>
         <ForecastDateForm
           shown={forecast?.date ?? requested}

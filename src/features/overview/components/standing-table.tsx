@@ -5,11 +5,14 @@ import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
+import { inForceSince } from "@/lib/determination-words";
 import { quarterLabel } from "@shared/backtest/quarters";
 
 /**
- * One dense row per entity, in the order a reader asks: zone and count first, then what it costs,
- * then what rolls off next and what work is open. Every figure is the server's.
+ * One dense row per entity, in the order a reader asks: the multiplier in force (the last
+ * determination's) first, then the indicative zone and count of the rolling count as if determined
+ * today and what it would cost, then what rolls off next and what work is open. Every figure is the
+ * server's.
  */
 export function StandingTable({
   items,
@@ -35,11 +38,12 @@ export function StandingTable({
       <thead>
         <tr>
           <Th>Entity</Th>
-          <Th>Zone</Th>
+          <Th>Multiplier in force</Th>
+          <Th>Zone if determined today</Th>
           <Th numeric>Counted exceptions</Th>
           <Th numeric>Plus factor</Th>
-          <Th numeric>Multiplier</Th>
-          <Th numeric>Capital add-on</Th>
+          <Th numeric>Indicative multiplier</Th>
+          <Th numeric>Indicative add-on</Th>
           <Th>As of</Th>
           <Th>Next roll-off</Th>
           <Th numeric>Open reviews</Th>
@@ -64,11 +68,24 @@ export function StandingTable({
                 <span className="block text-xs text-ink-muted">{e.name}</span>
               </Td>
               {noData ? (
-                <Td colSpan={7} className="text-sm text-ink-muted">
+                <Td colSpan={8} className="text-sm text-ink-muted">
                   {e.portfolio ? "No daily data yet: an analyst uploads it under Data." : "No portfolio set up yet."}
                 </Td>
               ) : (
                 <>
+                  <Td className="whitespace-nowrap">
+                    {e.inForce ? (
+                      <>
+                        <span className="flex items-center gap-2">
+                          <span className="figures font-medium">{formatFactor(e.inForce.multiplier)}</span>
+                          <ZoneBadge zone={e.inForce.zone} regime={e.regime} />
+                        </span>
+                        <span className="block text-2xs text-ink-muted">{inForceSince(e.inForce)}</span>
+                      </>
+                    ) : (
+                      <span className="text-xs text-ink-muted">No determination yet</span>
+                    )}
+                  </Td>
                   <Td>
                     <ZoneBadge zone={e.zone!} regime={e.regime} />
                   </Td>
@@ -77,9 +94,7 @@ export function StandingTable({
                     {!e.complete && <span className="block text-2xs text-ink-muted">provisional</span>}
                   </Td>
                   <Td numeric>{formatFactor(e.plusFactor)}</Td>
-                  <Td numeric className="font-medium">
-                    {formatFactor(e.multiplier)}
-                  </Td>
+                  <Td numeric>{formatFactor(e.multiplier)}</Td>
                   <Td numeric className="whitespace-nowrap">
                     {e.addOn === null ? (
                       <span className="text-ink-muted" title="No capital input (VaR/sVaR or ES) in the data">

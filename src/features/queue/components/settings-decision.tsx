@@ -24,7 +24,7 @@ function Values({ r }: { r: SettingsRecord }) {
     ["Qualitative addend on sVaR", r.qualitativeAddendSvar === null ? "none" : formatFactor(r.qualitativeAddendSvar)],
     ["Multiplier floor", r.multiplierFloor === null ? "none" : formatFactor(r.multiplierFloor)],
     ["Determined", r.determinationFrequency],
-    ["Proposed", `${r.proposedBy ?? "—"}, ${formatDateTime(r.proposedAt)}`],
+    ["Proposed", `${r.proposedByName ?? r.proposedBy ?? "—"}, ${formatDateTime(r.proposedAt)}`],
   ];
   return (
     <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-0.5 text-sm">

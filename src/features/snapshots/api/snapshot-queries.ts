@@ -4,11 +4,13 @@ import {
   snapshotSchema,
   snapshotVerifySchema,
   type CreateSnapshotBody,
+  type ReturnInputsBody,
   type ReturnSnapshotBody,
   type Snapshot,
   type SnapshotActionBody,
 } from "@shared/schemas/snapshot";
 import { filingSchema } from "@shared/schemas/filing";
+import { capitalOnDateSchema, determinationListSchema } from "@shared/schemas/determination";
 import { api, isApiError, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
 
@@ -25,6 +27,8 @@ export const snapshotKeys = {
   details: () => [...snapshotKeys.all(), "detail"] as const,
   detail: (id: number) => [...snapshotKeys.details(), id] as const,
   verify: (id: number) => [...snapshotKeys.detail(id), "verify"] as const,
+  determinations: (entity: string) => [...snapshotKeys.all(), "determinations", entity] as const,
+  inForceToday: (entity: string) => [...snapshotKeys.all(), "in-force-today", entity] as const,
 };
 
 export const snapshotQueries = {
@@ -38,6 +42,18 @@ export const snapshotQueries = {
     queryOptions({
       queryKey: snapshotKeys.detail(id),
       queryFn: () => api.get(base(id), snapshotSchema),
+    }),
+  /** The entity's determinations of the multiplier, oldest first (treasury receives the signed-off ones only). */
+  determinations: (entity: string) =>
+    queryOptions({
+      queryKey: snapshotKeys.determinations(entity),
+      queryFn: () => api.get(`/api/entities/${encodeURIComponent(entity)}/determinations`, determinationListSchema),
+    }),
+  /** The multiplier in force today beside the indicative one (the reporting office and the CRO only). */
+  inForceToday: (entity: string) =>
+    queryOptions({
+      queryKey: snapshotKeys.inForceToday(entity),
+      queryFn: () => api.get(`/api/entities/${encodeURIComponent(entity)}/capital`, capitalOnDateSchema),
     }),
   /** The server recomputes the hash chain each time it is asked; a cached answer would prove nothing. */
   verify: (id: number) =>
@@ -122,6 +138,17 @@ export function useApproveSnapshot(id: number) {
   const reread = useRereadOnRefusal();
   return useMutation({
     mutationFn: (body: SnapshotActionBody) => api.post(`${base(id)}/approve`, body, snapshotSchema),
+    onSuccess: (snapshot) => store(snapshot),
+    onError: (error) => reread(error),
+  });
+}
+
+/** The analyst's values of the return that the product does not hold, on a draft or returned snapshot. */
+export function useSetReturnInputs(id: number) {
+  const store = useStoreAnswer();
+  const reread = useRereadOnRefusal();
+  return useMutation({
+    mutationFn: (body: ReturnInputsBody) => api.put(`${base(id)}/return-inputs`, body, snapshotSchema),
     onSuccess: (snapshot) => store(snapshot),
     onError: (error) => reread(error),
   });

@@ -4,6 +4,7 @@ import { quarterLabel, quarterStart } from "@shared/backtest/quarters";
 import { type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import type { Filing } from "@shared/schemas/filing";
+import type { DeterminationDto } from "@shared/schemas/determination";
 import { Notice } from "@/components/ui/notice";
 import { formatDateTime, plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -11,6 +12,7 @@ import { SnapshotActions } from "./snapshot-actions";
 import { SnapshotFigures } from "./snapshot-figures";
 import { SnapshotFiling, type FilingLookup } from "./snapshot-filing";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
+import { SnapshotReturn } from "./snapshot-return";
 
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
 function RestatedWarning({ restated }: { restated: NonNullable<Snapshot["restatedAfterSignOff"]> }) {
@@ -61,8 +63,11 @@ export function SnapshotDetail({
   filingDelivery,
   updating,
   recipients,
+  determination,
 }: {
   snapshot: Snapshot;
+  /** The quarter's determination of the multiplier (its span in force and status). */
+  determination?: DeterminationDto;
   role: Role;
   userEmail: string;
   findingsHref: string;
@@ -103,7 +108,8 @@ export function SnapshotDetail({
       {open && snapshot.openFindings > 0 && (
         <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />
       )}
-      <SnapshotFigures snapshot={snapshot} />
+      <SnapshotFigures snapshot={snapshot} determination={determination} />
+      <SnapshotReturn snapshot={snapshot} role={role} />
       <SnapshotActions
         key={snapshot.id}
         snapshot={snapshot}

@@ -1,11 +1,20 @@
 import type { Snapshot } from "@shared/schemas/snapshot";
+import type { DeterminationDto } from "@shared/schemas/determination";
+import { determinationSpan } from "./multiplier-standing";
 import { Figure } from "@/components/ui/figure";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatAmount, formatFactor, formatPercent, plural } from "@/lib/format";
 
 /** The figures the engine froze at the quarter end, exactly as stored: nothing here is computed again. */
-export function SnapshotFigures({ snapshot }: { snapshot: Snapshot }) {
+export function SnapshotFigures({
+  snapshot,
+  determination,
+}: {
+  snapshot: Snapshot;
+  /** The quarter's determination of the multiplier, when the entity's list holds it. */
+  determination?: DeterminationDto;
+}) {
   const f = snapshot.figures;
   const { window, exceptions } = f;
   return (
@@ -60,6 +69,13 @@ export function SnapshotFigures({ snapshot }: { snapshot: Snapshot }) {
           <span data-testid="snapshot-add-on">{formatAmount(f.addOn, f.currency)}</span>
         </Figure>
       </dl>
+      {determination && (
+        <p className="text-sm text-ink-soft" data-testid="snapshot-in-force">
+          This quarter's multiplier of {formatFactor(determination.multiplier)} is {determinationSpan(determination)}.
+          {determination.status === "provisional" &&
+            " It becomes official when the chief risk officer approves this snapshot."}
+        </p>
+      )}
       {f.capitalNote && <p className="text-sm text-ink-soft">{f.capitalNote}</p>}
       {f.exceptionDates.length > 0 && (
         <div className="text-sm">

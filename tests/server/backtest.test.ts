@@ -63,6 +63,16 @@ describe("the backtest of a portfolio", () => {
     expect(res.body.exceptions.counted).toBe(3);
   });
 
+  it("when asked as of a day before the first stored day, then 404 names the first day instead of a green zone from no observations", async () => {
+    const res = await request(app)
+      .get(`/api/portfolios/${book.portfolio.code}/backtest?asOf=2020-01-06`)
+      .set("Cookie", book.cookie);
+    expect(res.status).toBe(404);
+    expect(res.body.error.code).toBe("no_data_before");
+    expect(res.body.error.message).toContain(`its first stored day is ${book.dates[0]}`);
+    expect(res.body.zone).toBeUndefined();
+  });
+
   it("when the rolling count is read, then its last row agrees with the backtest", async () => {
     const res = await request(app)
       .get(`/api/portfolios/${book.portfolio.code}/rolling?from=${book.dates[250]}`)

@@ -1,6 +1,7 @@
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { PortfolioModel } from "../../models/portfolio";
+import { AppError } from "../../errors";
 import { reviewsByDate } from "../reviews/reviews.read";
 import { loadPortfolioContext } from "../figures/engine-inputs";
 import {
@@ -35,6 +36,15 @@ export async function getBacktest(code: string, asOf?: string): Promise<Backtest
   if (!asOf || asOf === stored.asOf)
     return withReviews(stored.portfolioId, JSON.parse(stored.backtest_json) as BacktestResponse);
   const ctx = await loadPortfolioContext(code);
+  const first = ctx.series[0]?.date;
+  // Before the first stored day there is nothing to count: no zone from an empty window.
+  if (!first || asOf < first)
+    throw new AppError(
+      404,
+      "no_data_before",
+      `No daily data for ${code} on or before ${asOf}: its first stored day is ${first ?? "not there yet"}. ` +
+        "Choose a later as-of date.",
+    );
   const portfolios = await PortfolioModel.findAll({ where: { entityId: ctx.entity.id } });
   return withReviews(ctx.portfolio.id, await backtestResponse(ctx, asOf, portfolios));
 }

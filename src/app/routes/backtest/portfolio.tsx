@@ -294,6 +294,12 @@ export default function BacktestRoute() {
       ) : !bt ? (
         <FormMessage>
           {isApiError(backtest.error) ? backtest.error.message : "The backtest could not be read."}
+          {isApiError(backtest.error) && backtest.error.code === "no_data_before" && (
+            <>
+              {" "}
+              <Link to={paths.backtest.href(code)}>Show the latest day</Link>
+            </>
+          )}
         </FormMessage>
       ) : (
         <>

@@ -39,6 +39,8 @@ export function HistoryChart({
   const multipliers = points.map((p) => p.multiplier);
   const low = Math.max(0, Math.floor(Math.min(...multipliers) * 4) / 4 - 0.25);
   const high = Math.ceil(Math.max(...multipliers) * 4) / 4 + 0.25;
+  // With every add-on at zero the axis would invent a 0–4 scale; it shows 0 alone instead.
+  const noAddOn = points.every((p) => !p.addOn);
   const open = points.filter((p) => !p.signedOff).length;
   const restated = points.filter((p) => p.restatedAfterSignOff).length;
   const latest = points.at(-1);
@@ -84,6 +86,8 @@ export function HistoryChart({
             <YAxis
               yAxisId="addOn"
               orientation="right"
+              domain={noAddOn ? [0, 1] : [0, "auto"]}
+              ticks={noAddOn ? [0] : undefined}
               tickFormatter={compactAmount}
               tick={{ fill: muted, fontSize: 11 }}
               tickLine={false}

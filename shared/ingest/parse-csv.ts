@@ -36,7 +36,16 @@ export interface ParsedCsv {
   totalRows: number;
   /** Data lines with at least one problem. */
   invalidCount: number;
+  /** The template's example lines (portfolio `example`), skipped. */
+  exampleRows: number;
 }
+
+/**
+ * The portfolio of the template's example lines. Lower case, so no real portfolio code (capitals,
+ * digits, - and _) can ever be it: an untouched template never writes or restates a day.
+ */
+export const EXAMPLE_PORTFOLIO = "example";
+const isExampleLine = (text: string, start: number) => text.startsWith(`${EXAMPLE_PORTFOLIO},`, start);
 
 /**
  * How many problems a parse keeps (the rest are counted): a file of nothing but bad cells would
@@ -642,20 +651,30 @@ export function parseObservationCsv(text: string, ref: CsvReferenceData, options
     else if (e.code !== "TooFewFields" && e.code !== "TooManyFields") checks.fail(line, "—", e.message);
   }
   const structural = new Set(checks.errors.map((e) => e.line));
+  let exampleRows = 0;
   for (let i = 1; i < data.length; i++) {
     const cells = data[i];
     if (cells.length === 1 && isBlank(cells[0])) continue;
+    if (cells[0] === EXAMPLE_PORTFOLIO) {
+      exampleRows++;
+      continue;
+    }
     totalRows++;
     if (!structural.has(i + 1)) checks.cellLine(cells, i + 1);
   }
-  return resultOf(checks, totalRows);
+  return resultOf(checks, totalRows, exampleRows);
 }
 
-function resultOf(checks: LineChecks, totalRows: number): ParsedCsv {
+function resultOf(checks: LineChecks, totalRows: number, exampleRows: number): ParsedCsv {
+  if (totalRows === 0 && exampleRows > 0)
+    throw new CsvFileError(
+      `The file holds only the template's example lines (portfolio "${EXAMPLE_PORTFOLIO}"): ` +
+        "put your own days in their place. Nothing was stored.",
+    );
   if (totalRows === 0) throw new CsvFileError("The file has a header row but no data rows.");
   const { rows, errors, errorCount, invalidCount } = checks;
   errors.sort((a, b) => a.line - b.line);
-  return { columns: checks.columns, rows, errors, errorCount, totalRows, invalidCount };
+  return { columns: checks.columns, rows, errors, errorCount, totalRows, invalidCount, exampleRows };
 }
 
 /**
@@ -672,6 +691,7 @@ class PlainLines {
   private carry = "";
   private line = 0;
   private totalRows = 0;
+  private exampleRows = 0;
 
   constructor(
     private readonly ref: CsvReferenceData,
@@ -728,13 +748,17 @@ class PlainLines {
     }
     const first = text.charCodeAt(start);
     if (start === end || ((first === 32 || first === 9) && isBlank(text.slice(start, end)))) return; // blank line
+    if (isExampleLine(text, start)) {
+      this.exampleRows++;
+      return;
+    }
     this.totalRows++;
     this.checks.line(text, start, end, this.line, this.options.plainLines !== false);
   }
 
   result(): ParsedCsv {
     if (!this.checks) throw new CsvFileError("The file has a header row but no data rows.");
-    return resultOf(this.checks, this.totalRows);
+    return resultOf(this.checks, this.totalRows, this.exampleRows);
   }
 
   /** Whether `result()` is the whole file's: read to the end, a header, at least one data row. */

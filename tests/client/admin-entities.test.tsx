@@ -1,4 +1,4 @@
-import { screen, within } from "@testing-library/react";
+import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
@@ -123,6 +123,31 @@ describe("Admin › Entities", () => {
       .slice(1)
       .map((r) => (r as HTMLTableRowElement).cells[2].textContent);
     expect(levels).toEqual(["Top of house", "Trading desk"]);
+  });
+
+  it("when an admin removes a holiday, then a confirmation says the windows move, Cancel sends nothing, and only the confirmation deletes it", async () => {
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [entity] },
+      "GET /api/entities/LKS-UK/portfolios": { status: 200, body: [] },
+      "GET /api/entities/LKS-UK/holidays": { status: 200, body: [{ date: "2026-12-25", name: "Christmas Day" }] },
+      "DELETE /api/entities/LKS-UK/holidays/2026-12-25": { status: 204 },
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/entities/LKS-UK");
+
+    await user.click(await screen.findByRole("button", { name: "Remove holiday 2026-12-25" }));
+    const confirm = screen.getByRole("group", { name: "Remove holiday 2026-12-25" });
+    expect(confirm).toHaveTextContent(
+      /It becomes a business day of LKS-UK: every backtesting window, exception count and roll-off date that reaches it moves/,
+    );
+    await user.click(within(confirm).getByRole("button", { name: "Cancel" }));
+    expect(screen.queryByRole("group", { name: "Remove holiday 2026-12-25" })).not.toBeInTheDocument();
+    expect(api.callsTo("DELETE", "/api/entities/LKS-UK/holidays/2026-12-25")).toHaveLength(0);
+
+    await user.click(screen.getByRole("button", { name: "Remove holiday 2026-12-25" }));
+    await user.click(screen.getByRole("button", { name: "Remove the holiday" }));
+    await waitFor(() => expect(api.callsTo("DELETE", "/api/entities/LKS-UK/holidays/2026-12-25")).toHaveLength(1));
   });
 
   it("when an admin saves the addend, then only the change and the version read are sent; a 409 shows the server's message", async () => {

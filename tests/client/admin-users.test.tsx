@@ -194,6 +194,12 @@ describe("Admin › Users", () => {
     renderApp("/admin/users");
 
     await user.click(await screen.findByRole("button", { name: "Disable Ana Lyst" }));
+    // Disabling asks first and says what it does; nothing is sent before the confirmation.
+    expect(screen.getByRole("group", { name: "Disable Ana Lyst" })).toHaveTextContent(
+      "Disable Ana Lyst? They can no longer sign in, their open sessions end at once.",
+    );
+    expect(api.callsTo("PATCH", "/api/users/2")).toHaveLength(0);
+    await user.click(screen.getByRole("button", { name: "Disable the account" }));
 
     expect(
       await screen.findByText(
@@ -207,6 +213,7 @@ describe("Admin › Users", () => {
     expect(screen.queryByText(/can no longer sign in/)).not.toBeInTheDocument();
     // The next change is built on the version now shown.
     await user.click(screen.getByRole("button", { name: "Disable Ana Lyst" }));
+    await user.click(screen.getByRole("button", { name: "Disable the account" }));
     await vi.waitFor(() => expect(api.callsTo("PATCH", "/api/users/2")).toHaveLength(2), { timeout: 8000 });
     expect(api.callsTo("PATCH", "/api/users/2")[1].body).toEqual({ disabled: true, version: 4 });
   });

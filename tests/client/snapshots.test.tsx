@@ -845,6 +845,14 @@ describe("Quarter close › the pack and its filing", () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("cro"),
       ...snapshotRoutes(store, {
+        "GET /api/entities": {
+          status: 200,
+          body: entities.map((e) =>
+            e.code === "LKS-EU"
+              ? { ...e, supervisorName: "Banking Supervisor", supervisorEmails: ["market-risk@supervisor.test"] }
+              : e,
+          ),
+        },
         "GET /api/filings": () => ({ status: 200, body: filings }),
         "POST /api/snapshots/12/filings": () => {
           answer(store, filed());
@@ -860,7 +868,8 @@ describe("Quarter close › the pack and its filing", () => {
     expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
     await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
     expect(within(pack).getByTestId("filing-confirmation")).toHaveTextContent(
-      "The pack goes by e-mail to LKS-EU's supervisor contacts and is kept as sent; Q4 2025 becomes filed.",
+      // The recipients are named before anything is sent.
+      "The pack goes by e-mail to Banking Supervisor: market-risk@supervisor.test and is kept as sent; Q4 2025 becomes filed. A filing cannot be taken back.",
     );
     expect(api.callsTo("POST", "/api/snapshots/12/filings")).toHaveLength(0);
     await user.click(within(pack).getByRole("button", { name: "Send the pack" }));

@@ -295,6 +295,25 @@ describe("uploading daily data", () => {
     );
   });
 
+  it("when the downloaded template is uploaded as it is, then nothing is previewed, restated or stored: it says to put real days in place of the examples", async () => {
+    const { portfolio, cookie } = await ingestFixture();
+    const template = (await request(app).get("/api/uploads/template.csv").set("Cookie", cookie)).text;
+    const lines = template.trim().split(/\r?\n/);
+    expect(lines.length).toBeGreaterThan(1);
+    for (const line of lines.slice(1)) expect(line.startsWith("example,")).toBe(true);
+    const before = await UploadModel.count();
+    const res = await uploadCsv(app, cookie, template);
+    expect(res.status).toBe(422);
+    expect(res.body.error.message).toMatch(/only the template's example lines/);
+    expect(await UploadModel.count()).toBe(before);
+
+    // With one real day added, the examples are skipped and only that day is previewed, as new.
+    const withDay = `${template.trimEnd()}\n${portfolio.code},2026-11-02,-1,-1,10${",".repeat(12)}\n`;
+    const preview = await uploadCsv(app, cookie, withDay);
+    expect(preview.status, JSON.stringify(preview.body)).toBe(201);
+    expect(preview.body).toMatchObject({ rows: 1, valid: 1, invalid: 0, newRows: 1, restatements: 0 });
+  });
+
   it("when the preview rows are paged with invalidOnly, then only rows with errors come back, each with its messages", async () => {
     const { portfolio, cookie } = await ingestFixture();
     const csv = `${HEADER}\n${portfolio.code},2026-11-02,-1,-1,10\n${portfolio.code},2026-11-03,-1,-1,-10\n${portfolio.code},2026-11-04,-1,-1,10\n`;

@@ -12,6 +12,7 @@ import { receivingStorage, type ReceivedFile } from "./receiving-storage";
 import {
   CsvFileError,
   decodeCsvBytes,
+  EXAMPLE_PORTFOLIO,
   parseObservationCsv,
   serialiseObservationCsv,
   type CsvReferenceData,
@@ -99,7 +100,7 @@ export function duplicateError(twin: UploadModel): ConflictError {
 /** The header and two example rows an analyst can fill in. */
 export function templateCsv(): string {
   const example = (date: string, a: number, h: number) => ({
-    portfolio: "LKS-EU-TOTAL",
+    portfolio: EXAMPLE_PORTFOLIO,
     date,
     actual_pnl: a,
     hypothetical_pnl: h,

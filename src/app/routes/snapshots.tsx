@@ -97,6 +97,10 @@ function SelectedSnapshot({
 }) {
   // The list already holds the snapshot: show it at once while its own answer is read.
   const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
+  // The supervisor contacts the filing confirmation names before anything is sent.
+  const entities = useQuery(entityQueries.all());
+  const entityRow = entities.data?.find((e) => e.code === data?.entity);
+  const recipients = entityRow ? { name: entityRow.supervisorName, emails: entityRow.supervisorEmails } : undefined;
   const determinations = useQuery({ ...snapshotQueries.determinations(data?.entity ?? ""), enabled: !!data });
   // A filed quarter shows its filing, and an approved one may have a filing waiting for the mail
   // server; the filings list is the one place they are read from (treasury may not read it).
@@ -141,6 +145,7 @@ function SelectedSnapshot({
         filingHref={filingHref}
         filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
+        recipients={recipients}
         determination={determinations.data?.find((d) => d.quarterEnd === data.quarterEnd)}
       />
     </>

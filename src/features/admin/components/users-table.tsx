@@ -11,7 +11,8 @@ import { cn } from "@/lib/cn";
 import { staleUserMessage, useProposeRole, useSendPasswordLink, useUpdateUser } from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
 
-type Pending = { userId: number; kind: "role"; role: Role } | { userId: number; kind: "link" };
+type Pending =
+  { userId: number; kind: "role"; role: Role } | { userId: number; kind: "link" } | { userId: number; kind: "disable" };
 
 function errorText(error: unknown): string | undefined {
   return (
@@ -197,15 +198,19 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`${u.disabled ? "Enable" : "Disable"} ${u.name}`}
-                          onClick={() =>
-                            change(
-                              u,
-                              { disabled: !u.disabled },
-                              u.disabled
-                                ? `${u.name} can sign in again.`
-                                : `${u.name} can no longer sign in; open sessions have ended.`,
-                            )
+                          aria-expanded={
+                            u.disabled ? undefined : pending?.userId === u.id && pending.kind === "disable"
                           }
+                          onClick={() => {
+                            if (u.disabled) return change(u, { disabled: false }, `${u.name} can sign in again.`);
+                            // Disabling ends the person's sessions at once: it asks first, saying so.
+                            resetAll();
+                            setPending(
+                              pending?.userId === u.id && pending.kind === "disable"
+                                ? null
+                                : { userId: u.id, kind: "disable" },
+                            );
+                          }}
                         >
                           {u.disabled ? "Enable" : "Disable"}
                         </Button>
@@ -223,6 +228,20 @@ export function UsersTable({
                           confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
                           busy={busy}
                           onConfirm={() => confirmRole(u, pending.role)}
+                          onCancel={() => setPending(null)}
+                        />
+                      ) : pending.kind === "disable" ? (
+                        <Confirmation
+                          label={`Disable ${u.name}`}
+                          text={`Disable ${u.name}? They can no longer sign in, their open sessions end at once${
+                            u.role === "treasury" ? " and their API tokens are revoked for good" : ""
+                          }. An administrator can enable them again later.`}
+                          confirm="Disable the account"
+                          danger
+                          busy={busy}
+                          onConfirm={() =>
+                            change(u, { disabled: true }, `${u.name} can no longer sign in; open sessions have ended.`)
+                          }
                           onCancel={() => setPending(null)}
                         />
                       ) : (

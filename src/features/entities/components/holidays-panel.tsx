@@ -1,6 +1,7 @@
 import { useRef, useState, type FormEvent } from "react";
 import { createHolidayBodySchema, type Holiday } from "@shared/schemas/entity";
 import { Button } from "@/components/ui/button";
+import { Confirmation } from "@/components/ui/confirmation";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
@@ -71,6 +72,7 @@ function AddHolidayForm({ entityCode }: { entityCode: string }) {
 
 export function HolidaysPanel({ entityCode, holidays }: { entityCode: string; holidays: Holiday[] }) {
   const remove = useRemoveHoliday(entityCode);
+  const [removing, setRemoving] = useState<string | null>(null);
   const sorted = [...holidays].sort((a, b) => a.date.localeCompare(b.date));
   const removeError = isApiError(remove.error) ? remove.error.message : undefined;
 
@@ -108,10 +110,27 @@ export function HolidaysPanel({ entityCode, holidays }: { entityCode: string; ho
                     size="sm"
                     disabled={remove.isPending}
                     aria-label={`Remove holiday ${h.date}`}
-                    onClick={() => remove.mutate(h.date)}
+                    aria-expanded={removing === h.date}
+                    onClick={() => {
+                      remove.reset();
+                      setRemoving(removing === h.date ? null : h.date);
+                    }}
                   >
                     Remove
                   </Button>
+                  {removing === h.date && (
+                    <div className="mt-2 text-left">
+                      <Confirmation
+                        label={`Remove holiday ${h.date}`}
+                        text={`Remove ${h.date} (${h.name})? It becomes a business day of ${entityCode}: every backtesting window, exception count and roll-off date that reaches it moves, and the figures are computed again. Signed-off quarters keep their figures.`}
+                        confirm="Remove the holiday"
+                        danger
+                        busy={remove.isPending}
+                        onConfirm={() => remove.mutate(h.date, { onSettled: () => setRemoving(null) })}
+                        onCancel={() => setRemoving(null)}
+                      />
+                    </div>
+                  )}
                 </Td>
               </Tr>
             ))}

@@ -62,6 +62,7 @@ export function SnapshotDetail({
   filingHref,
   filingDelivery,
   updating,
+  recipients,
   determination,
 }: {
   snapshot: Snapshot;
@@ -77,6 +78,8 @@ export function SnapshotDetail({
   /** Where the filing stands for each recipient, with what the CRO can do about it (from the filings feature). */
   filingDelivery?: (filing: Filing) => ReactNode;
   updating?: boolean;
+  /** The entity's supervisor contacts, shown in the filing confirmation before anything is sent. */
+  recipients?: { name: string | null; emails: string[] };
 }) {
   const quarter = quarterLabel(snapshot.quarterEnd);
   const open = snapshot.status === "draft" || snapshot.status === "submitted";
@@ -122,6 +125,7 @@ export function SnapshotDetail({
         lookup={filing}
         filingHref={filingHref}
         delivery={filingDelivery}
+        recipients={recipients}
       />
       <div className="grid gap-6 xl:grid-cols-[minmax(0,2fr)_minmax(0,3fr)]">
         <SnapshotRecord snapshot={snapshot} />

@@ -46,12 +46,23 @@ function filedInWords(quarter: string, filing: Filing): string {
   return `${quarter}'s pack is kept; the mail server did not take it yet — it is sent automatically as soon as the server answers, and the quarter becomes filed then.`;
 }
 
+type Recipients = { name: string | null; emails: string[] };
+
+/** Who the pack goes to, said before it is sent. */
+function recipientsInWords(entity: string, r: Recipients | undefined): string {
+  if (!r) return `${entity}'s supervisor contacts`;
+  if (r.emails.length === 0) return `${entity}'s supervisor contacts (none are set up: an administrator adds them)`;
+  return `${r.name ? `${r.name}: ` : ""}${r.emails.join(", ")}`;
+}
+
 function FileWithSupervisor({
   snapshot,
+  recipients,
   onFiled,
   onAlreadyFiled,
 }: {
   snapshot: Snapshot;
+  recipients?: Recipients;
   onFiled: (filing: Filing) => void;
   onAlreadyFiled: (refusal: AlreadyFiled) => void;
 }) {
@@ -95,8 +106,8 @@ function FileWithSupervisor({
           onKeyDown={cancelOnEscape(() => !file.isPending && cancel())}
         >
           <p className="text-sm" data-testid="filing-confirmation">
-            The pack goes by e-mail to {snapshot.entity}'s supervisor contacts and is kept as sent; {quarter} becomes
-            filed.
+            The pack goes by e-mail to {recipientsInWords(snapshot.entity, recipients)} and is kept as sent; {quarter}{" "}
+            becomes filed. A filing cannot be taken back.
           </p>
           <Button ref={sendButton} onClick={send} disabled={file.isPending}>
             {file.isPending ? "Sending the pack…" : "Send the pack"}
@@ -178,12 +189,14 @@ export function SnapshotFiling({
   lookup,
   filingHref,
   delivery,
+  recipients,
 }: {
   snapshot: Snapshot;
   role: Role;
   lookup: FilingLookup;
   filingHref: (id: number) => string;
   delivery?: (filing: Filing) => ReactNode;
+  recipients?: Recipients;
 }) {
   const [justFiled, setJustFiled] = useState<Filing>();
   const [alreadyFiled, setAlreadyFiled] = useState<AlreadyFiled>();
@@ -205,7 +218,12 @@ export function SnapshotFiling({
   else if (snapshot.status === "approved")
     filingPart =
       role === "cro" ? (
-        <FileWithSupervisor snapshot={snapshot} onFiled={setJustFiled} onAlreadyFiled={setAlreadyFiled} />
+        <FileWithSupervisor
+          snapshot={snapshot}
+          recipients={recipients}
+          onFiled={setJustFiled}
+          onAlreadyFiled={setAlreadyFiled}
+        />
       ) : (
         <p className="text-sm text-ink-soft">
           A chief risk officer files {quarter} with the supervisor: the pack goes by e-mail to the entity's supervisor

@@ -86,6 +86,7 @@ export const POLICY = {
   "GET /api/snapshots/:id": ["analyst", "cro", "treasury"],
   // The return data: read by whoever reads the snapshot; its analyst inputs entered before submitting.
   "GET /api/snapshots/:id/return": ["analyst", "cro", "treasury"],
+  "GET /api/snapshots/:id/return.:format": ["analyst", "cro", "treasury"],
   "PUT /api/snapshots/:id/return-inputs": ["analyst"],
   "POST /api/snapshots/:id/submit": ["analyst"],
   "POST /api/snapshots/:id/approve": ["cro"],

@@ -14,6 +14,7 @@ import { preparedAndSubmitted, signOffBook, snapshotApp as app, type Book } from
  */
 let book: Book;
 let adminCookie = "";
+let snapshotId = 0;
 const INJECTION = '=HYPERLINK("http://attacker.test","click") and a stale FX rate overstated the loss';
 
 type Cell = string | number | boolean | Date | null;
@@ -80,6 +81,7 @@ beforeAll(async () => {
     .send({ cause: "data_issue", narrative: INJECTION, exclusion: false });
   expect(review.status, JSON.stringify(review.body)).toBe(200);
   const submitted = await preparedAndSubmitted(book);
+  snapshotId = submitted.id;
   await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
   await book.entity.update({ supervisorEmails: ["market-risk@bank-supervisor.test"] });
   const filed = await request(app)
@@ -252,6 +254,23 @@ describe("the lists of quarters, capital, filings, findings, uploads and the aud
     );
     expect(none.rows).toEqual([]);
     expect(none.header[0]).toBe("Event");
+  });
+
+  it("when a snapshot's return data is downloaded, then each template row, value and source equals the API's", async () => {
+    const json = (await request(app).get(`/api/snapshots/${snapshotId}/return`).set("Cookie", book.cookie)).body;
+    const fields = json.fields as Array<{ key: string; templateRow?: string; value: number | null; source: string }>;
+    expect(fields.length).toBeGreaterThan(5);
+    const csv = await csvOf(`/api/snapshots/${snapshotId}/return.csv`, book.cookie);
+    expect(csv.header).toEqual(["Template row", "Item", "Value", "Unit", "Source", "Entered by the analyst", "Key"]);
+    expect(csv.rows.map((r) => [r[6], r[0], r[2] === "" ? null : Number(r[2]), r[4]])).toEqual(
+      fields.map((f) => [f.key, f.templateRow ?? "", f.value, f.source]),
+    );
+    const xlsx = await xlsxOf(`/api/snapshots/${snapshotId}/return.xlsx`, book.cookie);
+    expect(xlsx.sheet.name).toMatch(/^Return data /);
+    fields.forEach((f, i) => {
+      expectCell(xlsx.rows[i].getCell(3), f.value);
+      expectCell(xlsx.rows[i].getCell(7), f.key);
+    });
   });
 
   it("when a format other than csv or xlsx, or a reversed span, is asked for, then 422 with a clear message", async () => {

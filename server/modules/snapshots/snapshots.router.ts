@@ -18,7 +18,7 @@ import { tableDownload } from "../../kit/table-export";
 import { sendDownload } from "../../http/download";
 import { getSnapshotReturn, setReturnInputs } from "./snapshots.return";
 import { currenciesByEntity } from "../../kit/lookups";
-import { snapshotsTable } from "./snapshots.tables";
+import { returnTable, snapshotsTable } from "./snapshots.tables";
 
 export function snapshotsRouter() {
   const r = createGuardedRouter();
@@ -62,6 +62,13 @@ export function snapshotsRouter() {
   r.post("/api/snapshots/:id/approve", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await snapshots.approveSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
+  });
+  r.get("/api/snapshots/:id/return.:format", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const actor = signedInActor(req);
+    const snapshot = await getSnapshot(id, actor);
+    sendDownload(res, await tableDownload(returnTable(snapshot.entity, await getSnapshotReturn(id, actor)), format));
   });
   r.post("/api/snapshots/:id/return", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

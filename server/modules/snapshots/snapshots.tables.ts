@@ -1,4 +1,4 @@
-import type { Snapshot } from "../../../shared/schemas/snapshot";
+import type { Snapshot, SnapshotReturn } from "../../../shared/schemas/snapshot";
 import type { Column, Table } from "../../kit/table-export";
 
 /** The quarters' snapshots, as Quarter close lists them (several entities: the currency is a column). */
@@ -35,4 +35,21 @@ export function snapshotsTable(
   const inRows = new Set(rows.map((s) => currencies.get(s.entity)));
   const currency = entity ? currencies.get(entity) : inRows.size === 1 ? [...inRows][0] : null;
   return { title: `Snapshots${entity ? ` ${entity}` : ""}`, columns, rows, currency };
+}
+
+type ReturnField = SnapshotReturn["fields"][number];
+
+const returnColumns: Column<ReturnField>[] = [
+  { header: "Template row", kind: "text", value: (f) => f.templateRow },
+  { header: "Item", kind: "text", value: (f) => f.label },
+  { header: "Value", kind: "number", value: (f) => f.value },
+  { header: "Unit", kind: "text", value: (f) => (f.unit === "amount" ? (f.currency ?? "amount") : f.unit) },
+  { header: "Source", kind: "text", value: (f) => f.source },
+  { header: "Entered by the analyst", kind: "yes-no", value: (f) => f.analystInput === true },
+  { header: "Key", kind: "text", value: (f) => f.key },
+];
+
+/** A snapshot's return data: each value with the template row it goes to and where it comes from. */
+export function returnTable(entity: string, data: SnapshotReturn): Table<ReturnField> {
+  return { title: `Return data ${entity} ${data.quarterEnd}`, columns: returnColumns, rows: data.fields };
 }

@@ -1,4 +1,5 @@
 import { useState, type FormEvent } from "react";
+import { TableDownloads } from "@/components/ui/table-downloads";
 import { returnData, type ReturnField } from "@shared/backtest/return-data";
 import type { Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
@@ -101,6 +102,7 @@ export function SnapshotReturn({ snapshot, role }: { snapshot: Snapshot; role: R
         {missing > 0 &&
           ` ${missing} value${missing === 1 ? "" : "s"} the product does not hold ${missing === 1 ? "is" : "are"} not entered yet.`}
       </p>
+      <TableDownloads path={`/api/snapshots/${snapshot.id}/return`} what="the return data" />
       {editable && inputs.length > 0 && <ReturnInputsForm key={snapshot.id} snapshot={snapshot} inputs={inputs} />}
       <Table caption={`Return data of ${snapshot.entity} for the quarter ending ${snapshot.quarterEnd}`}>
         <thead>

@@ -157,11 +157,13 @@ export interface DeskStatusPoint {
 /**
  * Each desk's status at each determination (as-of dates in order), each one from the status the
  * determination before left it in. A desk with no data on or before an as-of date is left out of
- * that determination.
+ * that determination. `frozen` holds the standings a signed-off quarter froze (by as-of date and
+ * desk code): they stand as signed off, and the next determination starts from them.
  */
 export function deskStatusHistory(
   desks: readonly { code: string; series: readonly Observation[] }[],
   asOfDates: readonly string[],
+  frozen: ReadonlyMap<string, ReadonlyMap<string, DeskStanding>> = new Map(),
 ): DeskStatusPoint[] {
   const previous = new Map<string, DeskStatus>();
   const out: DeskStatusPoint[] = [];
@@ -169,7 +171,7 @@ export function deskStatusHistory(
     const standings: DeskStanding[] = [];
     for (const d of desks) {
       if (lastIndexOnOrBefore(d.series, asOf) < 0) continue;
-      const s = deskStandingAt(d.code, d.series, asOf, previous.get(d.code) ?? null);
+      const s = frozen.get(asOf)?.get(d.code) ?? deskStandingAt(d.code, d.series, asOf, previous.get(d.code) ?? null);
       previous.set(d.code, s.status);
       standings.push(s);
     }

@@ -43,12 +43,13 @@ async function frtbFixture() {
   const dates = weekdays("2025-04-01", 600).filter((d) => d <= "2026-03-31");
   const q1 = dates.filter((d) => d >= "2026-01-05").slice(0, 13);
   const lines = [HEADER];
-  for (const d of dates) {
-    lines.push(`${top.code},${d},10,10,100,80,300,50,40,900,20,80`);
+  dates.forEach((d, i) => {
+    const v = 100 + (i % 5); // VaR moves daily (no stale-VaR finding)
+    lines.push(`${top.code},${d},10,10,${v},80,300,50,40,900,20,80`);
     const loss = q1.includes(d) ? -150 : 10;
-    lines.push(`${a.code},${d},${loss},10,100,80,200,30,25,500,10,40`);
-    lines.push(`${b.code},${d},10,10,100,80,150,20,20,400,5,45`);
-  }
+    lines.push(`${a.code},${d},${loss},10,${v},80,200,30,25,500,10,40`);
+    lines.push(`${b.code},${d},10,10,${v},80,150,20,20,400,5,45`);
+  });
   const res = await uploadCsv(app, cookie, `${lines.join("\n")}\n`);
   expect(res.body).toMatchObject({ invalid: 0 });
   const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
@@ -133,6 +134,38 @@ describe("FRTB capital on a date (MAR33.41–33.45)", () => {
       type: QueryTypes.SELECT,
     });
     expect(JSON.parse(stored[0].f).frtb).toMatchObject({ imaGA: 265, saGA: 450, acrTotal: 815 });
+  });
+
+  it("when a signed-off quarter's desk data is restated, then the desk keeps the status the quarter froze", async () => {
+    const { entity, a, cookie } = await frtbFixture();
+    const cro = await createTestUser("cro");
+    const croCookie = await sessionCookieFor(cro.id);
+    const draft = await request(app)
+      .post("/api/snapshots")
+      .set("Cookie", cookie)
+      .send({ entity: entity.code, quarterEnd: "2025-12-31" });
+    expect(draft.status).toBe(201);
+    const submitted = await request(app)
+      .post(`/api/snapshots/${draft.body.id}/submit`)
+      .set("Cookie", cookie)
+      .send({ comment: "Figures checked", version: draft.body.version });
+    expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
+    const approved = await request(app)
+      .post(`/api/snapshots/${draft.body.id}/approve`)
+      .set("Cookie", croCookie)
+      .send({ version: submitted.body.version });
+    expect(approved.status, JSON.stringify(approved.body)).toBe(200);
+
+    // A restatement puts 13 losses beyond VaR into desk A's 2025 Q4: computed afresh, A would be out at Q4.
+    const q4 = weekdays("2025-10-01", 13);
+    const csv = [HEADER, ...q4.map((d) => `${a.code},${d},-150,10,100,80,200,30,25,500,10,40`)].join("\n");
+    const res = await uploadCsv(app, cookie, `${csv}\n`);
+    expect((await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie)).status).toBe(200);
+
+    const q4Row = await FrtbDeskStatusModel.findOne({ where: { portfolioId: a.id, periodEnd: "2025-12-31" } });
+    expect(q4Row).toMatchObject({ status: "in-model", backtest99: 0 }); // as signed off
+    const q1Row = await FrtbDeskStatusModel.findOne({ where: { portfolioId: a.id, periodEnd: "2026-03-31" } });
+    expect(q1Row).toMatchObject({ status: "out-of-model", backtest99: 26 }); // the open quarter follows the data
   });
 
   it("when the entity reports under another rule set, then the capital on a date carries no FRTB block", async () => {

@@ -219,4 +219,23 @@ describe("FRTB desk eligibility (MAR32.19, 32.43–32.45)", () => {
     expect(history[0].desks[0]).toMatchObject({ status: "out-of-model", backtest99: 13, backtestPasses: false });
     expect(history[1].desks[0]).toMatchObject({ status: "in-model", backtest99: 0, plaZone: "green" });
   });
+
+  it("when a signed-off quarter froze a desk's status, then that status stands and the next determination starts from it", () => {
+    const dates = businessDates(500);
+    const series: Observation[] = dates.map((date, i) => ({
+      date,
+      actualPnl: i < 13 ? -150 : 10 + (i % 7),
+      hypotheticalPnl: 10 + (i % 7),
+      var99: 100,
+      var975: 80,
+      rtpl: i >= 250 && i % 10 === 0 ? null : 10 + (i % 7), // the second year's PLA is provisional (225 days)
+    }));
+    const computed = deskStatusHistory([{ code: "FX", series }], [dates[249], dates[499]]);
+    expect(computed.map((h) => h.desks[0].status)).toEqual(["out-of-model", "out-of-model"]);
+    // Signed off with the desk in the model (as the data stood then): the next quarter keeps it in unless it fails.
+    const frozen = new Map([[dates[249], new Map([["FX", { ...computed[0].desks[0], status: "in-model" as const }]])]]);
+    const history = deskStatusHistory([{ code: "FX", series }], [dates[249], dates[499]], frozen);
+    expect(history[0].desks[0].status).toBe("in-model");
+    expect(history[1].desks[0]).toMatchObject({ status: "in-model", plaZone: null, backtest99: 0 });
+  });
 });

@@ -174,7 +174,7 @@ export async function refreshDeterminations(entityId: number, transaction: Trans
   }
   const ordered = withSpans([...rows.values()].sort((a, b) => (a.periodEnd < b.periodEnd ? -1 : 1)));
   // FRTB: each desk's status at each determination (docs/rules.md#frtb-eligibility), in the same transaction.
-  await refreshDeskStatuses(entity, ordered, inputs.options.holidays, transaction);
+  await refreshDeskStatuses(entity, ordered, inputs.options.holidays, transaction, signedOff);
 
   const keep = new Set(ordered.map((d) => d.periodEnd));
   const gone = stored.filter((d) => !keep.has(d.periodEnd)).map((d) => d.id);

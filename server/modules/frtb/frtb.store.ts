@@ -12,12 +12,15 @@ import {
   deskStandingAt,
   deskStatusHistory,
   frtbAggregation,
+  type DeskStanding,
   type DeskStatus,
   type FrtbDeskInput,
 } from "../../../shared/backtest/frtb-capital";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import type { Observation } from "../../../shared/backtest/types";
 import type { FrtbFigures, FrtbStatusPoint } from "../../../shared/schemas/frtb";
+import { snapshotFiguresSchema } from "../../../shared/schemas/snapshot";
+import { DESK_LIMITS } from "../../../shared/backtest/frtb-desk";
 
 const cents = (v: number) => Math.round(v * 100) / 100;
 const centsOrNull = (v: number | null | undefined) => (v == null ? null : cents(v));
@@ -57,6 +60,7 @@ export async function refreshDeskStatuses(
   points: readonly Point[],
   holidays: ReadonlySet<string>,
   transaction: Transaction,
+  signedOff: readonly { figuresJson: string }[] = [],
 ): Promise<void> {
   await FrtbDeskStatusModel.destroy({ where: { entityId: entity.id }, transaction });
   if (entity.regime !== "frtb" || points.length === 0) return;
@@ -65,6 +69,7 @@ export async function refreshDeskStatuses(
   const history = deskStatusHistory(
     desks.map((d) => ({ code: d.portfolio.code, series: d.series })),
     points.map((p) => p.asOf),
+    frozenStandings(signedOff),
   );
   const idOf = new Map(desks.map((d) => [d.portfolio.code, d.portfolio.id]));
   const rows = history.flatMap((h, i) =>
@@ -86,6 +91,41 @@ export async function refreshDeskStatuses(
     })),
   );
   if (rows.length) await FrtbDeskStatusModel.bulkCreate(rows, { transaction });
+}
+
+/**
+ * The desk statuses a signed-off quarter froze in its figures (by as-of date, then desk code):
+ * a signed-off determination's statuses never change, and the next one starts from them.
+ */
+function frozenStandings(signedOff: readonly { figuresJson: string }[]): Map<string, Map<string, DeskStanding>> {
+  const out = new Map<string, Map<string, DeskStanding>>();
+  for (const s of signedOff) {
+    const parsed = snapshotFiguresSchema.safeParse(JSON.parse(s.figuresJson));
+    const f = parsed.success ? parsed.data : null;
+    if (!f?.frtb) continue;
+    out.set(
+      f.asOf,
+      new Map(
+        f.frtb.desks.map((d) => [
+          d.code,
+          {
+            code: d.code,
+            status: d.status,
+            reason: d.reason,
+            backtest99: d.backtest99,
+            backtest975: d.backtest975,
+            backtestPasses: d.backtest99 <= DESK_LIMITS.var99 && d.backtest975 <= DESK_LIMITS.var975,
+            plaZone: d.plaZone,
+            plaProvisional: d.plaZone === null,
+            plaObservations: d.plaObservations,
+            spearman: null,
+            ks: null,
+          },
+        ]),
+      ),
+    );
+  }
+  return out;
 }
 
 /** The stored statuses, one point per determination, oldest first. */

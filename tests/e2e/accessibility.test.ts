@@ -238,6 +238,8 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "treasury: Quarter close");
     await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
     await expectAccessible(page, "treasury: Capital");
+    await open(page, `/settings?entity=${book.entity.code}`, ["heading", { level: 1 }]);
+    await expectAccessible(page, "treasury: Supervisory settings, read only");
 
     await open(page, "/tokens", ["heading", { name: "API tokens" }]);
     await expectAccessible(page, "treasury: API tokens, none yet");
@@ -276,6 +278,8 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
       .waitFor({ timeout: 15_000 });
     await settled(page);
     await expectAccessible(page, "regulator: Filings, acknowledged");
+    await open(page, "/waiting", ["heading", { name: "Waiting for me" }]);
+    await expectAccessible(page, "regulator: Waiting for me");
     expect(errors).toEqual([]);
     await page.close();
   }, 240_000);
@@ -318,6 +322,8 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "admin: Audit log");
     await open(page, "/admin/outbox", ["heading", { level: 1 }]);
     await expectAccessible(page, "admin: Outbox");
+    await open(page, "/waiting", ["heading", { name: "Waiting for me" }]);
+    await expectAccessible(page, "admin: Waiting for me");
     expect(errors).toEqual([]);
     await page.close();
   }, 240_000);

@@ -45,7 +45,13 @@ export async function focusState(page: Page): Promise<FocusState> {
 
 /** The focus is on an element (never lost to <body>), which shows a focus indicator and is on screen. */
 export async function expectVisibleFocus(page: Page, step: string): Promise<FocusState> {
-  const f = await focusState(page);
+  let f = await focusState(page);
+  // An outcome takes the focus when React has drawn it; on a busy machine that is a moment after the
+  // control it replaces went away. Lost for good is what fails: still on <body> after two seconds.
+  for (let waited = 0; f.onBody && waited < 2_000; waited += 100) {
+    await page.waitForTimeout(100);
+    f = await focusState(page);
+  }
   expect(f.onBody, `${step}: the focus fell back to <body>`).toBe(false);
   expect(f.visible, `${step}: the focused ${f.tag} "${f.name}" is not on screen`).toBe(true);
   expect(f.indicator, `${step}: the focused ${f.tag} "${f.name}" shows no focus indicator`).toBe(true);

@@ -49,7 +49,7 @@ describe("Backtest and Capital print on A4 landscape", () => {
       expect(w).toBeCloseTo(A4_LANDSCAPE[0], 0);
       expect(h).toBeCloseTo(A4_LANDSCAPE[1], 0);
     }
-    expect(backtest.text).toMatch(/Traffic-light zone/i);
+    expect(backtest.text).toMatch(/Multiplier in force/i);
     expect(backtest.text).toMatch(/Counted exceptions in the trailing window/);
     expect(backtest.text).toMatch(/What next: exceptions and their reviews/);
     expect(backtest.text).toMatch(/Figures are decision support/);

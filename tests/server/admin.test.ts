@@ -326,6 +326,13 @@ describe("managing entities, portfolios and calendars", () => {
       .send({ date: "2027-02-30", name: "Nope" });
     expect(bad.status).toBe(422);
     expect(await HolidayModel.count({ where: { entityId: entity.id } })).toBe(1);
+    const saturday = await request(app)
+      .post(`/api/entities/${entity.code}/holidays`)
+      .set("Cookie", admin)
+      .send({ date: "2027-12-25", name: "Christmas Day" });
+    expect(saturday.status).toBe(422);
+    expect(saturday.body.error.message).toBe("2027-12-25 is a Saturday; only a weekday can be added as a holiday.");
+    expect(await HolidayModel.count({ where: { entityId: entity.id } })).toBe(1);
     await request(app).delete(`/api/entities/${entity.code}/holidays/2027-12-27`).set("Cookie", admin).expect(204);
     expect(await HolidayModel.count({ where: { entityId: entity.id } })).toBe(0);
   });

@@ -209,6 +209,12 @@ export async function listHolidays(code: string, viewer: SessionUser): Promise<H
 
 export async function addHoliday(code: string, input: CreateHolidayBody, actor: SignedIn): Promise<Holiday> {
   const entity = await findEntity(code);
+  const weekday = new Date(`${input.date}T00:00:00Z`).getUTCDay();
+  if (weekday === 0 || weekday === 6) {
+    // Business days are weekdays minus holidays: a weekend day is never a business day to begin with.
+    const day = weekday === 0 ? "Sunday" : "Saturday";
+    throw new AppError(422, "weekend_holiday", `${input.date} is a ${day}; only a weekday can be added as a holiday.`);
+  }
   if (await HolidayModel.findOne({ where: { entityId: entity.id, date: input.date } })) {
     throw new ConflictError(`${input.date} is already a holiday in the ${code} calendar.`);
   }

@@ -25,6 +25,7 @@ import { capitalRouter } from "./modules/capital/capital.router";
 import { filingsRouter } from "./modules/filings/filings.router";
 import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
 import { outboxRouter } from "./modules/outbox/outbox.router";
+import { notificationsRouter } from "./modules/notifications/notifications.router";
 import { queueRouter } from "./modules/queue/queue.router";
 import {
   DEFAULT_INVITATION_LIMITS,
@@ -139,6 +140,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(apiTokensRouter());
   app.use(outboxRouter());
   app.use(queueRouter());
+  app.use(notificationsRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));
 

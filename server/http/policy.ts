@@ -17,6 +17,9 @@ export const POLICY = {
   "GET /api/health": "public",
   "POST /api/auth/login": "public",
   "POST /api/auth/logout": "signed-in",
+  // Each person chooses the e-mails they receive (of those for their role).
+  "GET /api/notifications/choices": "signed-in",
+  "PUT /api/notifications/choices": "signed-in",
   "GET /api/auth/me": "signed-in",
   "GET /api/auth/session": "public",
   // Everyone changes their own password (current + new; other sessions end).

@@ -1,4 +1,5 @@
 import { UniqueConstraintError, type Transaction } from "sequelize";
+import { notifySnapshotEvent } from "../notifications/notices";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
@@ -195,7 +196,7 @@ export async function prepareSnapshot(
 }
 
 export async function submitSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
-  return sequelize.transaction(async (transaction) => {
+  const snapshot = await sequelize.transaction(async (transaction) => {
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: true });
     if (row.status !== "draft")
       throw new ConflictError(`Snapshot #${id} is ${row.status}; only a draft can be submitted.`);
@@ -220,6 +221,8 @@ export async function submitSnapshot(id: number, body: SnapshotActionBody, actor
     );
     return snapshotDto(row, entity);
   });
+  void notifySnapshotEvent("snapshot_submitted", snapshot, actor.user.name, body.comment);
+  return snapshot;
 }
 
 /**
@@ -228,7 +231,7 @@ export async function submitSnapshot(id: number, body: SnapshotActionBody, actor
  * the approval extends the entity's hash chain.
  */
 export async function approveSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
-  return sequelize.transaction(async (transaction) => {
+  const snapshot = await sequelize.transaction(async (transaction) => {
     // Approvals of one entity take turns (the entity row); the chain is then read with a locking
     // read, which sees the approval committed just before, so the chain never forks.
     const peek = await SnapshotModel.findByPk(id, { attributes: ["id", "entityId"], transaction });
@@ -270,10 +273,12 @@ export async function approveSnapshot(id: number, body: SnapshotActionBody, acto
     );
     return snapshotDto(row, entity);
   });
+  void notifySnapshotEvent("snapshot_approved", snapshot, actor.user.name, null);
+  return snapshot;
 }
 
 export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor: SignedIn): Promise<Snapshot> {
-  return sequelize.transaction(async (transaction) => {
+  const snapshot = await sequelize.transaction(async (transaction) => {
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: false });
     if (row.status !== "submitted")
       throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be returned.`);
@@ -294,6 +299,8 @@ export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor
     );
     return snapshotDto(row, entity);
   });
+  void notifySnapshotEvent("snapshot_returned", snapshot, actor.user.name, body.comment);
+  return snapshot;
 }
 
 /**

@@ -1,4 +1,5 @@
 import { UniqueConstraintError, type Transaction } from "sequelize";
+import { notifyNewExceptions } from "../notifications/notices";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { entitiesOfPortfolios, refreshEntityFigures } from "../figures/stored-figures";
@@ -44,6 +45,7 @@ async function previewPortfolioIds(upload: UploadModel, transaction: Transaction
  * sent as pipelined multi-row INSERTs, and the data-quality checks run while MariaDB writes them.
  */
 export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
+  let written: { portfolioId: number; date: string }[] = [];
   const result = await sequelize.transaction(async (transaction) => {
     const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
@@ -124,6 +126,7 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
       }
       throw err;
     }
+    written = inserts.map((v) => ({ portfolioId: v.portfolioId, date: v.row.date }));
     await recordAudit(
       actor,
       "upload.commit",
@@ -134,6 +137,8 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };
   });
   forgetCheckedRows(id);
+  // Told once the days are committed, from the figures now stored; a mail failure changes nothing here.
+  void notifyNewExceptions(written);
   return result;
 }
 

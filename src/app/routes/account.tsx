@@ -1,6 +1,7 @@
 import { useSuspenseQuery } from "@tanstack/react-query";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { ChangePasswordForm } from "@/features/auth/components/change-password-form";
+import { NotificationChoicesForm } from "@/features/notifications/components/notification-choices-form";
 import { PageTitle } from "@/components/ui/page-title";
 import { roleLabels } from "@/lib/role-labels";
 
@@ -19,6 +20,9 @@ export default function AccountRoute() {
       </section>
       <section className="border-t border-rule pt-5">
         <ChangePasswordForm user={me} />
+      </section>
+      <section className="border-t border-rule pt-5">
+        <NotificationChoicesForm />
       </section>
     </div>
   );

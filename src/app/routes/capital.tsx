@@ -1,4 +1,5 @@
 import { Link, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { EntitySelect } from "@/components/ui/entity-select";
 import { keepPreviousData, useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import { SIGNED_OFF } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
@@ -13,7 +14,7 @@ import { ZoneForecast } from "@/features/capital/components/zone-forecast";
 import { WhatIfForm } from "@/features/capital/components/what-if-form";
 import { FrtbAggregation } from "@/features/capital/components/frtb-aggregation";
 import { RollOffTable } from "@/components/ui/roll-off-table";
-import { FormMessage, SelectField } from "@/components/ui/field";
+import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { EmptyState } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
@@ -124,20 +125,11 @@ export default function CapitalRoute() {
           <h1 id="capital-title">Capital{current ? `: ${current.name}` : ""}</h1>
           <p className="text-sm text-ink-muted">{intro[role]}</p>
         </div>
-        {entities.length > 0 && (
-          <SelectField
-            label="Entity"
-            value={current?.code ?? entity}
-            onChange={(e) => navigate(paths.capital.href({ entity: e.target.value }))}
-            className="w-72"
-          >
-            {entities.map((e) => (
-              <option key={e.code} value={e.code}>
-                {e.code} · {e.name}
-              </option>
-            ))}
-          </SelectField>
-        )}
+        <EntitySelect
+          entities={entities}
+          value={current?.code ?? entity}
+          onChoose={(code) => navigate(paths.capital.href({ entity: code }))}
+        />
       </header>
       {entities.length === 0 ? (
         <EmptyState title="No legal entities are set up yet">

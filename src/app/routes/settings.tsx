@@ -1,4 +1,5 @@
 import { useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { EntitySelect } from "@/components/ui/entity-select";
 import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
@@ -9,7 +10,7 @@ import { SettingsTable } from "@/features/settings/components/settings-table";
 import { SettingsDecision } from "@/features/settings/components/settings-decision";
 import { ProposeSettingsForm } from "@/features/settings/components/propose-settings-form";
 import { settingsSummary } from "@/features/settings/words";
-import { FormMessage, SelectField } from "@/components/ui/field";
+import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { EmptyState } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
@@ -60,20 +61,11 @@ export default function SettingsRoute() {
           <h1 id="settings-title">Supervisory settings{current ? `: ${current.name}` : ""}</h1>
           <p className="text-sm text-ink-muted">{intro[role]}</p>
         </div>
-        {entities.length > 0 && (
-          <SelectField
-            label="Entity"
-            value={current?.code ?? entity}
-            onChange={(e) => navigate(paths.settings.href({ entity: e.target.value }))}
-            className="w-72"
-          >
-            {entities.map((e) => (
-              <option key={e.code} value={e.code}>
-                {e.code} · {e.name}
-              </option>
-            ))}
-          </SelectField>
-        )}
+        <EntitySelect
+          entities={entities}
+          value={current?.code ?? entity}
+          onChoose={(code) => navigate(paths.settings.href({ entity: code }))}
+        />
       </header>
       {entities.length === 0 ? (
         <EmptyState title="No legal entities are set up yet">

@@ -1,4 +1,5 @@
 import { useEffect } from "react";
+import { EntitySelect } from "@/components/ui/entity-select";
 import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import { quarterLabel } from "@shared/backtest/quarters";
@@ -18,7 +19,7 @@ import { MultiplierStanding } from "@/features/snapshots/components/multiplier-s
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
-import { FormMessage, SelectField } from "@/components/ui/field";
+import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
 import { EmptyState } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
@@ -186,20 +187,11 @@ export default function SnapshotsRoute() {
           <h1 id="quarters-title">Quarter close</h1>
           <p className="text-sm text-ink-muted">{intro[role]}</p>
         </div>
-        {entities.length > 0 && (
-          <SelectField
-            label="Entity"
-            value={entity}
-            onChange={(e) => navigate(paths.snapshots.href({ entity: e.target.value }))}
-            className="w-72"
-          >
-            {entities.map((e) => (
-              <option key={e.code} value={e.code}>
-                {e.code} · {e.name}
-              </option>
-            ))}
-          </SelectField>
-        )}
+        <EntitySelect
+          entities={entities}
+          value={entity}
+          onChoose={(code) => navigate(paths.snapshots.href({ entity: code }))}
+        />
       </header>
       {entities.length === 0 ? (
         <EmptyState title="No legal entities are set up yet">

@@ -87,12 +87,18 @@ function xlsxValue(kind: ColumnKind, value: Cell): ExcelJS.CellValue {
   if (kind === "yes-no") return value ? "yes" : "no";
   if ((kind === "date" || kind === "datetime") && typeof value === "string") return dateCell(value);
   if (typeof value === "string") return inertText(value);
+  // Amounts are cents, as in the CSV: no binary remainder (1044562.9699999997) in the cell.
+  if (kind === "money" && typeof value === "number") return Number(value.toFixed(2));
   return value;
 }
 
 /** Excel's sheet names: at most 31 characters, none of []:*?/\ */
 function sheetName(title: string): string {
-  return title.replace(/[[\]:*?/\\]/g, " ").slice(0, 31);
+  const plain = title.replace(/[[\]:*?/\\]/g, " ");
+  if (plain.length <= 31) return plain;
+  // Cut at a word, so a date is left out whole rather than shown cut ("2026-12").
+  const cut = plain.slice(0, 32).lastIndexOf(" ");
+  return plain.slice(0, cut > 0 ? cut : 31);
 }
 
 async function toXlsx<Row>(table: Table<Row>): Promise<Buffer> {

@@ -478,13 +478,14 @@ describe("after sign-off", () => {
     const [item] = list.body;
     // Light: no history, no window days, exceptions or capital details (GET /api/snapshots/:id has them).
     expect(item).not.toHaveProperty("history");
+    expect(item).not.toHaveProperty("amendment");
     for (const heavy of ["days", "exceptionDetail", "exceptionDates", "capitalDetail", "desks", "tests", "settings"])
       expect(item.figures).not.toHaveProperty(heavy);
     const detail = (await request(app).get(`/api/snapshots/${q3.id}`).set("Cookie", book.cookie)).body;
     expect(detail.figures.days).toHaveLength(250);
     expect(detail.figures.exceptionDates).toEqual(book.exceptionDays);
     // Everything the item carries is the detail's own, the open finding in Q3 (not in Q2) included.
-    const { history: _history, figures, ...rest } = detail;
+    const { history: _history, amendment: _amendment, figures, ...rest } = detail;
     expect(item).toEqual({ ...rest, figures: snapshotHeadlineFiguresSchema.parse(figures) });
     expect([item.openFindings, list.body[1].openFindings]).toEqual([1, 0]);
     expect(JSON.stringify(item).length).toBeLessThan(JSON.stringify(detail).length / 5);

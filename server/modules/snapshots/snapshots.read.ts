@@ -16,7 +16,9 @@ import {
   type SnapshotFigures,
   type SnapshotHeadlineFigures,
   type SnapshotListItem,
+  type AmendmentRecord,
 } from "../../../shared/schemas/snapshot";
+import { FilingModel } from "../../models/filing";
 import { quarterStart } from "../../../shared/backtest/quarters";
 import type { SignedIn } from "../../kit/actor";
 import { emailsById, entityByCode } from "../../kit/lookups";
@@ -37,11 +39,49 @@ export async function openFindingsInQuarter(
   );
 }
 
+/**
+ * The snapshot that amends this one, if any, and — once that amendment is filed — when: a filed
+ * amendment resolves the restatement flag of the quarter (docs/api.md#amendments).
+ */
+export async function amendedByOf(snapshotId: number, transaction?: Transaction): Promise<AmendedBy | null> {
+  return (await amendedByOfMany([snapshotId], transaction)).get(snapshotId) ?? null;
+}
+
+type AmendedBy = { id: number; status: SnapshotModel["status"]; filedAt: string | null };
+
+/** amendedByOf for many snapshots at once (two queries whatever their number). */
+async function amendedByOfMany(snapshotIds: number[], transaction?: Transaction): Promise<Map<number, AmendedBy>> {
+  const out = new Map<number, AmendedBy>();
+  if (snapshotIds.length === 0) return out;
+  const by = await SnapshotModel.findAll({
+    where: { amendsId: snapshotIds },
+    attributes: ["id", "status", "amendsId"],
+    transaction,
+  });
+  if (by.length === 0) return out;
+  const filedIds = by.filter((b) => b.status === "filed").map((b) => b.id);
+  const filings = filedIds.length
+    ? await FilingModel.findAll({
+        where: { snapshotId: filedIds },
+        attributes: ["id", "snapshotId", "sentAt"],
+        transaction,
+      })
+    : [];
+  const sentAt = new Map(filings.map((f) => [f.snapshotId, f.sentAt]));
+  for (const b of [...by].sort((x, y) => x.id - y.id)) {
+    if (out.has(b.amendsId!)) continue;
+    const at = b.status === "filed" ? sentAt.get(b.id) : null;
+    out.set(b.amendsId!, { id: b.id, status: b.status, filedAt: at ? at.toISOString() : null });
+  }
+  return out;
+}
+
 /** What a snapshot and a list item share: everything but the figures, the history and the open findings. */
 function dtoFields(
   row: SnapshotModel,
   owner: Pick<EntityModel, "code" | "name">,
   emails: Map<number, string>,
+  amendedBy: AmendedBy | null,
 ): Omit<SnapshotListItem, "figures" | "openFindings"> {
   return {
     id: row.id,
@@ -66,8 +106,14 @@ function dtoFields(
     prevHash: row.prevHash,
     hash: row.hash,
     restatedAfterSignOff: row.restatedAt
-      ? { at: row.restatedAt.toISOString(), detail: row.restatementDetail ?? "" }
+      ? {
+          at: row.restatedAt.toISOString(),
+          detail: row.restatementDetail ?? "",
+          resolvedBy: amendedBy?.status === "filed" ? { snapshotId: amendedBy.id, filedAt: amendedBy.filedAt } : null,
+        }
       : null,
+    amends: row.amendsId,
+    amendedBy: amendedBy?.id ?? null,
     version: row.version,
   };
 }
@@ -75,11 +121,13 @@ function dtoFields(
 /** One snapshot with everything it froze (GET /api/snapshots/:id and every write's answer). */
 export async function snapshotDto(row: SnapshotModel, entity?: EntityModel): Promise<Snapshot> {
   const owner = entity ?? (await EntityModel.findByPk(row.entityId))!;
+  const amendedBy = await amendedByOf(row.id);
   const emails = await emailsById([row.preparedBy, row.submittedBy, row.approvedBy]);
   return {
-    ...dtoFields(row, owner, emails),
+    ...dtoFields(row, owner, emails, amendedBy),
     figures: JSON.parse(row.figuresJson) as SnapshotFigures,
     history: JSON.parse(row.historyJson) as SnapshotEvent[],
+    amendment: row.amendmentJson ? (JSON.parse(row.amendmentJson) as AmendmentRecord) : null,
     openFindings: await openFindingsInQuarter(row.entityId, row.quarterEnd),
   };
 }
@@ -122,7 +170,7 @@ export async function listSnapshots(query: { entity?: string }, actor: SignedIn)
   const rows = await SnapshotModel.findAll({
     where,
     attributes: {
-      exclude: ["figuresJson", "historyJson"],
+      exclude: ["figuresJson", "historyJson", "amendmentJson"],
       include: [[sequelize.literal(`JSON_REMOVE(figures_json, ${HEAVY_FIGURES.join(", ")})`), "headlineJson"]],
     },
     order: [
@@ -132,17 +180,18 @@ export async function listSnapshots(query: { entity?: string }, actor: SignedIn)
   });
   if (rows.length === 0) return [];
   const entityIds = [...new Set(rows.map((r) => r.entityId))];
-  const [entities, emails, findings] = await Promise.all([
+  const [entities, emails, findings, amended] = await Promise.all([
     EntityModel.findAll({ where: { id: entityIds }, attributes: ["id", "code", "name"] }),
     emailsById(rows.flatMap((r) => [r.preparedBy, r.submittedBy, r.approvedBy])),
     openFindingSpans(entityIds),
+    amendedByOfMany(rows.map((r) => r.id)),
   ]);
   const entityOf = new Map(entities.map((e) => [e.id, e]));
   return rows.map((row) => {
     const owner = entityOf.get(row.entityId)!;
     const from = quarterStart(row.quarterEnd);
     return {
-      ...dtoFields(row, owner, emails),
+      ...dtoFields(row, owner, emails, amended.get(row.id) ?? null),
       figures: headlineOf(jsonObject(row.get("headlineJson"))),
       openFindings: findings.filter(
         (f) => f.entityId === row.entityId && f.dateFrom <= row.quarterEnd && f.dateTo >= from,

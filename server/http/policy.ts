@@ -41,6 +41,8 @@ export const POLICY = {
   "GET /api/entities/:code/holidays": STAFF,
   "POST /api/entities/:code/holidays": ["admin"],
   "DELETE /api/entities/:code/holidays/:date": ["admin"],
+  "GET /api/entities/:code/holiday-import": ["admin"],
+  "POST /api/entities/:code/holiday-import": ["admin"],
 
   // Users, assignments and the audit log are the administrator's.
   "GET /api/users": ["admin"],

@@ -138,6 +138,11 @@ export const POLICY = {
   "PUT /api/portfolios/:code/exceptions/:date/decision": ["cro"],
   "POST /api/portfolios/:code/exceptions/:date/evidence": ["analyst"],
   "GET /api/evidence/:id": ["analyst", "cro"],
+  // Overshooting notices (EU): the office reads them; an analyst drafts the cause, the CRO sends it
+  // to the supervisor (four eyes: the one who drafts is never the one who sends).
+  "GET /api/notices": ["analyst", "cro"],
+  "PUT /api/notices/:id/draft": ["analyst"],
+  "POST /api/notices/:id/send": ["cro"],
 
   // Personal API tokens: each holder lists, creates and revokes their own (filtered in the service).
   "GET /api/tokens": TOKEN_HOLDERS,

@@ -112,6 +112,7 @@ export async function listSnapshots(query: { entity?: string }, actor: SignedIn)
     order: [
       ["quarterEnd", "DESC"],
       ["entityId", "ASC"],
+      ["id", "DESC"], // an amendment before what it amends
     ],
   });
   return Promise.all(rows.map((r) => snapshotDto(r)));

@@ -36,7 +36,7 @@ const fontFile = (pkg: string, name: string) =>
   path.join(path.dirname(require.resolve(`${pkg}/package.json`)), "fonts", "complete", "woff", name);
 let fonts: { regular: Buffer; semibold: Buffer; mono: Buffer } | undefined;
 /** The weights the pack uses, read and unpacked once per process. */
-function packFonts() {
+export function packFonts() {
   fonts ??= {
     regular: woffToSfnt(readFileSync(fontFile("@ibm/plex-sans", "IBMPlexSans-Regular.woff"))),
     semibold: woffToSfnt(readFileSync(fontFile("@ibm/plex-sans", "IBMPlexSans-SemiBold.woff"))),

@@ -10,7 +10,9 @@ import { PortfolioModel } from "../server/models/portfolio";
 import { HolidayModel } from "../server/models/holiday";
 import { RegulatorAssignmentModel } from "../server/models/regulator-assignment";
 import { hashPassword } from "../server/modules/auth/auth.service";
+import { publicHolidays } from "../server/modules/entities/holiday-library";
 import type { PnlBasis, RegimeId, Role } from "../shared/schemas/common";
+import type { CalendarCountry } from "../shared/schemas/entity";
 
 export const DEMO_USERS: { email: string; name: string; role: Role }[] = [
   { email: "admin@larkspur.test", name: "Ines Vantongeren", role: "admin" },
@@ -30,10 +32,13 @@ interface DemoEntity {
   regime: RegimeId;
   pnlBasis: PnlBasis;
   currency: string;
+  /** Whose public holidays the calendar imports from the library (docs/rules.md#business-days). */
+  country: CalendarCountry;
   supervisorName: string;
   supervisorEmails: string[];
   portfolios: { code: string; name: string; level: "top" | "desk" }[];
-  holidays: [monthDay: string, name: string][];
+  /** The bank's own closing days on top of the public holidays, by month and day. */
+  bankDays: [monthDay: string, name: string][];
 }
 
 export const DEMO_ENTITIES: DemoEntity[] = [
@@ -43,15 +48,11 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     regime: "eu",
     pnlBasis: "max",
     currency: "EUR",
+    country: "LU",
     supervisorName: "Northern Banking Authority (fictional)",
     supervisorEmails: ["market-risk@nba-supervision.test"],
     portfolios: [{ code: "LKS-EU-TOTAL", name: "Larkspur Markets SA — trading book", level: "top" }],
-    holidays: [
-      ["01-01", "New Year's Day"],
-      ["05-01", "Labour Day"],
-      ["12-25", "Christmas Day"],
-      ["12-26", "St Stephen's Day"],
-    ],
+    bankDays: [["12-24", "Christmas Eve (offices closed)"]],
   },
   {
     code: "LKS-US",
@@ -59,15 +60,11 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     regime: "us",
     pnlBasis: "actual",
     currency: "USD",
+    country: "US",
     supervisorName: "Federal Capital Review Office (fictional)",
     supervisorEmails: ["backtesting@fcro-supervision.test"],
     portfolios: [{ code: "LKS-US-TOTAL", name: "Larkspur Securities LLC — covered positions", level: "top" }],
-    holidays: [
-      ["01-01", "New Year's Day"],
-      ["06-19", "Juneteenth"],
-      ["07-04", "Independence Day"],
-      ["12-25", "Christmas Day"],
-    ],
+    bankDays: [],
   },
   {
     code: "LKS-AP",
@@ -75,15 +72,11 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     regime: "basel",
     pnlBasis: "max",
     currency: "SGD",
+    country: "SG",
     supervisorName: "Straits Prudential Board (fictional)",
     supervisorEmails: ["imm-returns@spb-supervision.test"],
     portfolios: [{ code: "LKS-AP-TOTAL", name: "Larkspur Asia Ltd — trading book", level: "top" }],
-    holidays: [
-      ["01-01", "New Year's Day"],
-      ["05-01", "Labour Day"],
-      ["08-09", "National Day"],
-      ["12-25", "Christmas Day"],
-    ],
+    bankDays: [],
   },
   {
     code: "LKS-UK",
@@ -91,6 +84,7 @@ export const DEMO_ENTITIES: DemoEntity[] = [
     regime: "frtb",
     pnlBasis: "max",
     currency: "GBP",
+    country: "GB",
     supervisorName: "Thames Prudential Office (fictional)",
     supervisorEmails: ["frtb-ima@tpo-supervision.test", "desk-reviews@tpo-supervision.test"],
     portfolios: [
@@ -100,11 +94,7 @@ export const DEMO_ENTITIES: DemoEntity[] = [
       { code: "LKS-UK-CREDIT", name: "Credit desk", level: "desk" },
       { code: "LKS-UK-EQUITIES", name: "Equities desk", level: "desk" },
     ],
-    holidays: [
-      ["01-01", "New Year's Day"],
-      ["12-25", "Christmas Day"],
-      ["12-26", "Boxing Day"],
-    ],
+    bankDays: [["12-24", "Christmas Eve (offices closed)"]],
   },
 ];
 
@@ -114,7 +104,7 @@ export const DEMO_ASSIGNMENTS: Record<string, string[]> = {
   "regulator2@larkspur.test": ["LKS-US"],
 };
 
-/** The fixed-date holiday in each year, where it falls on a weekday (a weekend holiday changes no business day). */
+/** The fixed-date closing day in each year, where it falls on a weekday (a weekend changes no business day). */
 function holidayDates(monthDay: string, fromYear: number, toYear: number): string[] {
   const dates: string[] = [];
   for (let y = fromYear; y <= toYear; y++) {
@@ -140,6 +130,7 @@ export async function up(): Promise<void> {
           regime: e.regime,
           pnlBasis: e.pnlBasis,
           currency: e.currency,
+          country: e.country,
           qualitativeAddend: 0,
           supervisorName: e.supervisorName,
           supervisorEmails: e.supervisorEmails,
@@ -147,11 +138,17 @@ export async function up(): Promise<void> {
         { transaction },
       );
       for (const p of e.portfolios) await PortfolioModel.create({ ...p, entityId: entity.id }, { transaction });
-      for (const [monthDay, name] of e.holidays) {
+      // The calendar as an admin's yearly import leaves it: the library's public holidays, then the bank's own days.
+      const days = new Map<string, { name: string; source: "library" | "bank" }>();
+      for (let year = thisYear - 4; year <= thisYear + 1; year++) {
+        for (const h of publicHolidays(e.country, year)) days.set(h.date, { name: h.name, source: "library" });
+      }
+      for (const [monthDay, name] of e.bankDays) {
         for (const date of holidayDates(monthDay, thisYear - 4, thisYear + 1)) {
-          await HolidayModel.create({ entityId: entity.id, date, name }, { transaction });
+          if (!days.has(date)) days.set(date, { name, source: "bank" });
         }
       }
+      for (const [date, day] of days) await HolidayModel.create({ entityId: entity.id, date, ...day }, { transaction });
       for (const [email, codes] of Object.entries(DEMO_ASSIGNMENTS)) {
         if (codes.includes(e.code)) {
           await RegulatorAssignmentModel.create({ userId: users.get(email)!.id, entityId: entity.id }, { transaction });

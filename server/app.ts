@@ -27,6 +27,7 @@ import { apiTokensRouter } from "./modules/api-tokens/api-tokens.router";
 import { outboxRouter } from "./modules/outbox/outbox.router";
 import { notificationsRouter } from "./modules/notifications/notifications.router";
 import { queueRouter } from "./modules/queue/queue.router";
+import { noticesRouter } from "./modules/notices/notices.router";
 import {
   DEFAULT_INVITATION_LIMITS,
   invitationsRouter,
@@ -140,6 +141,7 @@ export function createApp(options: AppOptions = {}) {
   app.use(apiTokensRouter());
   app.use(outboxRouter());
   app.use(queueRouter());
+  app.use(noticesRouter());
   app.use(notificationsRouter());
 
   app.use("/api", (req, _res, next) => next(new NotFoundError(`No API route ${req.method} ${req.originalUrl}.`)));

@@ -2,6 +2,7 @@ import type { Server } from "node:http";
 import { createApp } from "./app";
 import { config } from "./config";
 import { startFilingDelivery } from "./modules/filings/delivery-loop";
+import { startNoticeReminders } from "./modules/notices/notices.reminders";
 
 /**
  * One server process: the API and the built client on PORT (shared with the other workers through
@@ -14,7 +15,11 @@ export function startWorker(): Promise<Server> {
     server.once("error", (err: NodeJS.ErrnoException) =>
       reject(err.code === "EADDRINUSE" ? new Error(`Port ${config.port} is in use; set PORT to a free port.`) : err),
     );
-    if (config.runsFilingDelivery) startFilingDelivery();
+    if (config.runsFilingDelivery) {
+      startFilingDelivery();
+      // Claimed per notice in the database, so a second process running it would send nothing twice.
+      startNoticeReminders();
+    }
     for (const signal of ["SIGINT", "SIGTERM"] as const)
       process.once(signal, () => {
         server.close(() => process.exit(0));

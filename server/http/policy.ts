@@ -41,6 +41,8 @@ export const POLICY = {
   "GET /api/entities/:code/holidays": STAFF,
   "POST /api/entities/:code/holidays": ["admin"],
   "DELETE /api/entities/:code/holidays/:date": ["admin"],
+  "GET /api/entities/:code/holiday-import": ["admin"],
+  "POST /api/entities/:code/holiday-import": ["admin"],
 
   // Users, assignments and the audit log are the administrator's.
   "GET /api/users": ["admin"],
@@ -136,6 +138,11 @@ export const POLICY = {
   "PUT /api/portfolios/:code/exceptions/:date/decision": ["cro"],
   "POST /api/portfolios/:code/exceptions/:date/evidence": ["analyst"],
   "GET /api/evidence/:id": ["analyst", "cro"],
+  // Overshooting notices (EU): the office reads them; an analyst drafts the cause, the CRO sends it
+  // to the supervisor (four eyes: the one who drafts is never the one who sends).
+  "GET /api/notices": ["analyst", "cro"],
+  "PUT /api/notices/:id/draft": ["analyst"],
+  "POST /api/notices/:id/send": ["cro"],
 
   // Personal API tokens: each holder lists, creates and revokes their own (filtered in the service).
   "GET /api/tokens": TOKEN_HOLDERS,

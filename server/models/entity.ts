@@ -9,6 +9,8 @@ export class EntityModel extends Model<InferAttributes<EntityModel>, InferCreati
   declare regime: RegimeId;
   declare pnlBasis: PnlBasis;
   declare currency: string;
+  /** Whose public holidays the calendar imports (docs/rules.md#business-days); null until chosen. */
+  declare country: string | null;
   declare qualitativeAddend: CreationOptional<number>;
   declare supervisorName: string | null;
   declare supervisorEmails: string[];
@@ -25,6 +27,7 @@ EntityModel.init(
     regime: { type: DataTypes.ENUM("basel", "us", "eu", "frtb"), allowNull: false },
     pnlBasis: { type: DataTypes.ENUM("actual", "hypothetical", "max"), allowNull: false },
     currency: { type: DataTypes.CHAR(3), allowNull: false },
+    country: { type: DataTypes.CHAR(2), allowNull: true },
     // DECIMAL comes back as a string: convert here, once.
     qualitativeAddend: {
       type: DataTypes.DECIMAL(6, 4),

@@ -32,6 +32,9 @@ export class SnapshotModel extends Model<InferAttributes<SnapshotModel>, InferCr
   declare hash: string | null;
   declare restatedAt: Date | null;
   declare restatementDetail: string | null;
+  /** The filed snapshot this one amends, and what the amendment changes (frozen when prepared). */
+  declare amendsId: number | null;
+  declare amendmentJson: string | null;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -72,6 +75,8 @@ SnapshotModel.init(
     hash: { type: DataTypes.CHAR(64), allowNull: true },
     restatedAt: { type: DataTypes.DATE(3), allowNull: true },
     restatementDetail: { type: DataTypes.TEXT, allowNull: true },
+    amendsId: { type: DataTypes.INTEGER, allowNull: true },
+    amendmentJson: { type: DataTypes.TEXT("long"), allowNull: true },
     version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),

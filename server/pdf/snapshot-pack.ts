@@ -7,7 +7,13 @@ import { woffToSfnt } from "./woff-to-sfnt";
 import { getRegime } from "../../shared/backtest/regimes";
 import { CAUTION } from "../../shared/schemas/common";
 import { quarterLabel, quarterStart } from "../../shared/backtest/quarters";
-import { SIGNED_OFF, type Snapshot, type SnapshotException } from "../../shared/schemas/snapshot";
+import {
+  SIGNED_OFF,
+  type AmendmentChange,
+  type AmendmentRecord,
+  type Snapshot,
+  type SnapshotException,
+} from "../../shared/schemas/snapshot";
 import type { ExceptionCause } from "../../shared/schemas/review";
 import { drawPnlVarChart } from "./pack-chart";
 import { returnData } from "../../shared/backtest/return-data";
@@ -30,7 +36,7 @@ const fontFile = (pkg: string, name: string) =>
   path.join(path.dirname(require.resolve(`${pkg}/package.json`)), "fonts", "complete", "woff", name);
 let fonts: { regular: Buffer; semibold: Buffer; mono: Buffer } | undefined;
 /** The weights the pack uses, read and unpacked once per process. */
-function packFonts() {
+export function packFonts() {
   fonts ??= {
     regular: woffToSfnt(readFileSync(fontFile("@ibm/plex-sans", "IBMPlexSans-Regular.woff"))),
     semibold: woffToSfnt(readFileSync(fontFile("@ibm/plex-sans", "IBMPlexSans-SemiBold.woff"))),
@@ -91,7 +97,67 @@ function drawWatermark(doc: PDFKit.PDFDocument, word: string) {
 }
 
 export function snapshotPackFileName(s: Snapshot): string {
-  return `quartermark-${s.entity.toLowerCase()}-${s.quarterEnd}-pack.pdf`;
+  return `quartermark-${s.entity.toLowerCase()}-${s.quarterEnd}${s.amendment ? `-amendment-${s.id}` : ""}-pack.pdf`;
+}
+
+/** A value of the before/after table as the pack prints it. */
+function changedValue(c: AmendmentChange, v: AmendmentChange["before"]): string {
+  if (v === null) return "—";
+  if (typeof v === "string") return c.key === "zone" && v in ZONE_WORDS ? ZONE_WORDS[v as keyof typeof ZONE_WORDS] : v;
+  return c.unit === "amount" ? amount2(v) : c.unit === "factor" ? factor(v) : String(v);
+}
+
+/**
+ * An amendment's own section: why it was made, the filed snapshot it amends (filing date, who filed
+ * it, its hash unbroken), its capital impact and the before/after of every figure that changed,
+ * all read from the record frozen when the amendment was prepared.
+ */
+function drawAmendment(L: PackLayout, a: AmendmentRecord, cur: string) {
+  const o = a.original;
+  L.heading("What this amendment changes", 140);
+  L.paragraph(
+    `This pack amends the filing of ${o.filedAt ? when(o.filedAt) : "an earlier date"}${o.filedBy ? ` by ${o.filedBy}` : ""} (snapshot #${o.snapshotId}${o.filingId ? `, filing #${o.filingId}` : ""}). That filing and its pack stand unchanged; this one corrects it after data inside the quarter was restated.`,
+  );
+  if (a.reason) L.paragraph(`Why: ${a.reason}`, { colour: MUTED, size: 8.5 });
+  L.hash("Original snapshot hash (the filed snapshot this pack amends)", o.hash, "—");
+  if (o.packSha256) L.hash("SHA-256 of the original filed pack", o.packSha256, "—");
+  const impact = a.capitalImpact;
+  L.pairs([
+    ["Capital requirement as filed", impact.before === null ? "—" : `${amount2(impact.before)} ${cur}`],
+    ["Capital requirement as amended", impact.after === null ? "—" : `${amount2(impact.after)} ${cur}`],
+    [
+      "Capital impact",
+      impact.change === null
+        ? "Not available: one side has no capital figure."
+        : `${impact.change > 0 ? "+" : ""}${amount2(impact.change)} ${cur} (${impact.change > 0 ? "an increase" : impact.change < 0 ? "a decrease" : "no change"})`,
+    ],
+  ]);
+  L.paragraph(`Before and after, ${a.changes.length} figure${a.changes.length === 1 ? "" : "s"} changed:`, {
+    font: "semibold",
+  });
+  if (a.changes.length === 0) L.paragraph("No figure changed.", { colour: MUTED });
+  else
+    L.table(
+      [
+        { header: "Figure", width: 170 },
+        { header: "Template row", width: 100 },
+        { header: "Before (as filed)", width: (L.width - 270) / 2, align: "right" },
+        { header: "After (amended)", width: (L.width - 270) / 2, align: "right" },
+      ],
+      a.changes.map((c) => ({
+        cells: [c.label, c.templateRow ?? "—", changedValue(c, c.before), changedValue(c, c.after)],
+      })),
+    );
+  L.paragraph(`Exceptions added, removed or changed: ${a.exceptions.length || "none"}.`, { font: "semibold" });
+  if (a.exceptions.length)
+    L.table(
+      [
+        { header: "Date", width: 70 },
+        { header: "Change", width: 70 },
+        { header: "What changed", width: L.width - 140 },
+      ],
+      a.exceptions.map((e) => ({ cells: [e.date, e.change.charAt(0).toUpperCase() + e.change.slice(1), e.detail] })),
+    );
 }
 
 /** The supervisor's decision on an exclusion, in words. */
@@ -122,7 +188,7 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
     margins: { top: 64, bottom: 64, left: 56, right: 56 },
     bufferPages: true,
     info: {
-      Title: `${s.entity} ${quarterLabel(s.quarterEnd)} backtesting pack`,
+      Title: `${s.entity} ${quarterLabel(s.quarterEnd)} backtesting pack${s.amendment ? ` (amendment of snapshot #${s.amendment.amends})` : ""}`,
       Author: "Quartermark",
       Subject: `Backtesting and capital multiplier, quarter ending ${s.quarterEnd}`,
       CreationDate: created,
@@ -142,7 +208,20 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
   const basisWords = f.pnlBasis === "max" ? "the higher of actual and hypothetical P&L" : `${f.pnlBasis} P&L`;
 
   // ── Cover: where the entity stands ────────────────────────────────────────────────────────
-  doc.font("regular").fontSize(8.5).fillColor(MUTED).text("QUARTERMARK · QUARTERLY BACKTESTING PACK", left);
+  const amendment = s.amendment;
+  doc
+    .font("regular")
+    .fontSize(8.5)
+    .fillColor(MUTED)
+    .text(`QUARTERMARK · QUARTERLY BACKTESTING PACK${amendment ? " · AMENDMENT" : ""}`, left);
+  if (amendment) {
+    doc
+      .moveDown(0.3)
+      .font("semibold")
+      .fontSize(13)
+      .fillColor(WARN)
+      .text(`Amendment of snapshot #${amendment.amends}, filed ${amendment.original.filedAt?.slice(0, 10) ?? "—"}`);
+  }
   doc.moveDown(0.3).font("semibold").fontSize(18).fillColor(INK).text(`${s.entityName} (${s.entity})`);
   doc
     .font("regular")
@@ -165,6 +244,8 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
     doc.y,
     { width },
   );
+
+  if (amendment) drawAmendment(L, amendment, cur);
 
   const effectiveFrom = f.determination?.effectiveFrom;
   L.heading("Determination at the quarter end");
@@ -444,9 +525,17 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
     const who = (p?: Signatory) => (p ? `${p.name}, ${p.title}` : "—");
     L.heading("Attestation", 130);
     L.paragraph(
-      `${s.entityName} files this pack as its record of the backtesting of its internal market-risk model for ${quarterLabel(s.quarterEnd)}. The figures were prepared by ${who(preparer)}, and approved by ${who(approver)} on ${when(s.approvedAt)}; they were computed by Quartermark engine ${s.engineVersion} from the data sealed by the inputs hash above, and have not changed since approval.`,
+      `${s.entityName} files this pack as its record of the backtesting of its internal market-risk model for ${quarterLabel(s.quarterEnd)}. The figures were prepared by ${who(preparer)}, and approved by ${who(approver)} on ${when(s.approvedAt)}; they were computed by Quartermark engine ${s.engineVersion} from the data sealed by the inputs hash above, and have not changed since approval.${amendment ? ` This pack amends the filing of snapshot #${amendment.amends}, which stands unchanged; its before and after is under “What this amendment changes”.` : ""}`,
     );
     L.pairs([
+      ...(amendment
+        ? ([
+            [
+              "Amends",
+              `Snapshot #${amendment.amends}, filed ${when(amendment.original.filedAt)}${amendment.original.filedBy ? ` by ${amendment.original.filedBy}` : ""}`,
+            ],
+          ] as [string, string][])
+        : []),
       ["Prepared by", who(preparer)],
       ["Approved by", who(approver)],
       ["Engine version", s.engineVersion],
@@ -478,7 +567,7 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
       .fontSize(7.5)
       .fillColor(signedOff ? MUTED : WARN)
       .text(
-        `${signedOff ? "" : "DRAFT · "}${s.entity} · ${quarterLabel(s.quarterEnd)} backtesting pack · snapshot #${s.id}`,
+        `${signedOff ? "" : "DRAFT · "}${amendment ? `AMENDMENT of snapshot #${amendment.amends} · ` : ""}${s.entity} · ${quarterLabel(s.quarterEnd)} backtesting pack · snapshot #${s.id}`,
         left,
         32,
         { width, lineBreak: false },

@@ -42,6 +42,11 @@ export const filingSchema = z.object({
   lastError: z.string().nullable(),
   acknowledgedBy: z.string().nullable(),
   acknowledgedAt: z.string().nullable(),
+  /** The filed snapshot's seal (its hash in the entity's signed chain). */
+  snapshotHash: z.string().nullable(),
+  /** Snapshot ids: the snapshot this filing's snapshot amends, and the one that amends it (docs/api.md#amendments). */
+  amends: z.number().int().nullable(),
+  amendedBy: z.number().int().nullable(),
 });
 export type Filing = z.infer<typeof filingSchema>;
 export const filingListSchema = z.array(filingSchema);

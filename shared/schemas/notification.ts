@@ -7,6 +7,7 @@ export const notificationKindSchema = z.enum([
   "snapshot_submitted",
   "snapshot_returned",
   "snapshot_approved",
+  "notice_due",
 ]);
 export type NotificationKind = z.infer<typeof notificationKindSchema>;
 
@@ -19,6 +20,11 @@ export const NOTIFICATION_KINDS: readonly {
   { kind: "snapshot_submitted", label: "A quarter is submitted for sign-off", audience: ["cro"] },
   { kind: "snapshot_returned", label: "A quarter is returned to the analysts", audience: ["analyst"] },
   { kind: "snapshot_approved", label: "A quarter is approved and sealed", audience: ["analyst", "cro", "treasury"] },
+  {
+    kind: "notice_due",
+    label: "An overshooting notice is due in one working day and not sent",
+    audience: ["analyst", "cro"],
+  },
 ];
 
 export const notificationChoicesSchema = z.object({

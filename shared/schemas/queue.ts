@@ -10,11 +10,13 @@ export const queueKindSchema = z.enum([
   "exclusion_request",
   "settings_proposal",
   "approved_not_filed",
+  "notice_to_send",
   // the analysts'
   "snapshot_returned",
   "unexplained_exception",
   "open_finding",
   "quarter_without_snapshot",
+  "notice_to_draft",
   // an administrator's: a role change another administrator proposed
   "role_request",
   // a supervisor's: a filed pack not yet acknowledged

@@ -20,7 +20,14 @@ export const quarterEndSchema = isoDateSchema.refine(
   "A quarter ends on 31 March, 30 June, 30 September or 31 December",
 );
 
-export const createSnapshotSchema = z.object({ entity: entityCodeSchema, quarterEnd: quarterEndSchema }).strict();
+export const createSnapshotSchema = z
+  .object({
+    entity: entityCodeSchema,
+    quarterEnd: quarterEndSchema,
+    /** The id of a filed snapshot of the same entity and quarter that this one amends (docs/api.md#amendments). */
+    amends: z.number().int().positive().optional(),
+  })
+  .strict();
 export type CreateSnapshotBody = z.infer<typeof createSnapshotSchema>;
 
 /** submit / approve: an optional comment; `version` (the row version the client read) guards against a stale screen. */
@@ -195,6 +202,61 @@ export const snapshotEventSchema = z.object({
 });
 export type SnapshotEvent = z.infer<typeof snapshotEventSchema>;
 
+/** A value of an amendment's before/after table: a number, a word (the zone), or nothing. */
+const amendedValueSchema = z.union([z.number(), z.string()]).nullable();
+
+/** One figure an amendment changed, before (the filed snapshot) and after (the amendment). */
+export const amendmentChangeSchema = z.object({
+  key: z.string(),
+  label: z.string(),
+  /** headline: the determination and capital; return: a field of the return data (docs/rules.md#return-data). */
+  group: z.enum(["headline", "return"]),
+  templateRow: z.string().optional(),
+  unit: z.enum(["amount", "count", "factor", "text"]),
+  before: amendedValueSchema,
+  after: amendedValueSchema,
+});
+export type AmendmentChange = z.infer<typeof amendmentChangeSchema>;
+
+/** An exception of the window that the amendment added, removed or changed. */
+export const amendmentExceptionSchema = z.object({
+  date: z.string(),
+  change: z.enum(["added", "removed", "changed"]),
+  /** In words, what changed: "actual P&L -1,200 → -900; no longer an exception on actual P&L". */
+  detail: z.string(),
+});
+export type AmendmentException = z.infer<typeof amendmentExceptionSchema>;
+
+/**
+ * What an amendment changes, computed by the engine (shared/backtest/amendment.ts) when the
+ * amendment is prepared and frozen with it: the filed snapshot it amends (its seal and filing),
+ * every figure that changed, the exceptions added, removed or changed, and the capital impact.
+ */
+export const amendmentRecordSchema = z.object({
+  amends: z.number().int(),
+  original: z.object({
+    snapshotId: z.number().int(),
+    hash: z.string(),
+    approvedAt: z.string().nullable(),
+    filingId: z.number().int().nullable(),
+    filedAt: z.string().nullable(),
+    filedBy: z.string().nullable(),
+    packSha256: z.string().nullable(),
+  }),
+  /** The restatement flag of the filed snapshot when the amendment was prepared: why it is amended. */
+  reason: z.string(),
+  changes: z.array(amendmentChangeSchema),
+  exceptions: z.array(amendmentExceptionSchema),
+  capitalImpact: z.object({
+    before: z.number().nullable(),
+    after: z.number().nullable(),
+    /** after − before; null when either side has no capital figure. */
+    change: z.number().nullable(),
+    currency: z.string(),
+  }),
+});
+export type AmendmentRecord = z.infer<typeof amendmentRecordSchema>;
+
 export const snapshotSchema = z.object({
   id: z.number().int(),
   entity: z.string(),
@@ -220,8 +282,23 @@ export const snapshotSchema = z.object({
   history: z.array(snapshotEventSchema),
   prevHash: z.string().nullable(),
   hash: z.string().nullable(),
-  /** Set when a day inside the snapshot's window was restated after sign-off: the figures stay as approved. */
-  restatedAfterSignOff: z.object({ at: z.string(), detail: z.string() }).nullable(),
+  /**
+   * Set when a day inside the snapshot's window was restated after sign-off: the figures stay as
+   * approved. `resolvedBy`: the filed amendment that corrected the quarter (null while none is filed).
+   */
+  restatedAfterSignOff: z
+    .object({
+      at: z.string(),
+      detail: z.string(),
+      resolvedBy: z.object({ snapshotId: z.number().int(), filedAt: z.string().nullable() }).nullable().optional(),
+    })
+    .nullable(),
+  /** The id of the filed snapshot this one amends (null for a quarter's original snapshot). */
+  amends: z.number().int().nullable(),
+  /** The id of the snapshot that amends this one, whatever its status (null while none is prepared). */
+  amendedBy: z.number().int().nullable(),
+  /** An amendment's before/after, frozen when it was prepared (null for an original). */
+  amendment: amendmentRecordSchema.nullable(),
   /** Open data-quality findings inside the quarter now (they block submit and approve). */
   openFindings: z.number().int(),
   version: z.number().int(),

@@ -150,6 +150,88 @@ describe("Admin › Entities", () => {
     await waitFor(() => expect(api.callsTo("DELETE", "/api/entities/LKS-UK/holidays/2026-12-25")).toHaveLength(1));
   });
 
+  it("the calendar says which days come from the library and which are the bank's own", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [{ ...entity, country: "GB" }] },
+      "GET /api/entities/LKS-UK/portfolios": { status: 200, body: [] },
+      "GET /api/entities/LKS-UK/holidays": {
+        status: 200,
+        body: [
+          { date: "2026-04-03", name: "Good Friday", source: "library" },
+          { date: "2026-04-06", name: "Easter Monday", source: "library" },
+          { date: "2026-12-24", name: "Christmas Eve (offices closed)", source: "bank" },
+        ],
+      },
+    });
+    renderApp("/admin/entities/LKS-UK");
+    const table = await screen.findByRole("table", { name: "Holidays of LKS-UK" });
+    const sources = within(table)
+      .getAllByRole("row")
+      .slice(1)
+      .map((r) => (r as HTMLTableRowElement).cells[2].textContent);
+    expect(sources).toEqual(["Public holiday (library)", "Public holiday (library)", "Bank closing day"]);
+    expect(screen.getByText("2 public holidays from the library · 1 bank closing day")).toBeInTheDocument();
+    expect(screen.getByLabelText("Calendar country")).toHaveValue("GB");
+  });
+
+  it("when an admin imports a year, then the confirmation states how many days change and that windows move; only it imports", async () => {
+    const plan = {
+      year: 2026,
+      country: "GB",
+      countryName: "United Kingdom (England and Wales)",
+      add: [
+        { date: "2026-04-03", name: "Good Friday" },
+        { date: "2026-04-06", name: "Easter Monday" },
+      ],
+      remove: [{ date: "2026-06-01", name: "Old day" }],
+      rename: [],
+      alreadyBank: [],
+      changes: 3,
+    };
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [{ ...entity, country: "GB" }] },
+      "GET /api/entities/LKS-UK/portfolios": { status: 200, body: [] },
+      "GET /api/entities/LKS-UK/holidays": { status: 200, body: [] },
+      "GET /api/entities/LKS-UK/holiday-import": { status: 200, body: plan },
+      "POST /api/entities/LKS-UK/holiday-import": { status: 200, body: plan },
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/entities/LKS-UK");
+    const year = await screen.findByLabelText("Year");
+    await user.clear(year);
+    await user.type(year, "2026");
+    await user.click(screen.getByRole("button", { name: "Check what changes" }));
+    const confirm = await screen.findByRole("group", { name: "Import the 2026 public holidays" });
+    expect(confirm).toHaveTextContent(
+      "Import the 2026 public holidays of United Kingdom (England and Wales) into LKS-UK? 2 days stop being business days and 1 day becomes a business day again. Every backtesting window, exception count and roll-off date that reaches them moves",
+    );
+    expect(confirm).toHaveTextContent("2026-04-03 (Fri) Good Friday");
+    await user.click(within(confirm).getByRole("button", { name: "Cancel" }));
+    expect(api.callsTo("POST", "/api/entities/LKS-UK/holiday-import")).toHaveLength(0);
+    expect(api.callsTo("GET", "/api/entities/LKS-UK/holiday-import")[0].search).toBe("?year=2026");
+
+    await user.click(screen.getByRole("button", { name: "Check what changes" }));
+    await user.click(await screen.findByRole("button", { name: "Import and move 3 days" }));
+    await waitFor(() => expect(api.callsTo("POST", "/api/entities/LKS-UK/holiday-import")).toHaveLength(1));
+    expect(api.callsTo("POST", "/api/entities/LKS-UK/holiday-import")[0].body).toEqual({ year: 2026, changes: 3 });
+    expect(await screen.findByText(/Imported the 2026 public holidays/)).toBeInTheDocument();
+  });
+
+  it("when a euro entity has no calendar country, then the calendar says to choose one instead of offering an import", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/entities": { status: 200, body: [{ ...entity, currency: "EUR", country: null }] },
+      "GET /api/entities/LKS-UK/portfolios": { status: 200, body: [] },
+      "GET /api/entities/LKS-UK/holidays": { status: 200, body: [] },
+    });
+    renderApp("/admin/entities/LKS-UK");
+    expect(await screen.findByText(/No calendar country is chosen for LKS-UK/)).toBeInTheDocument();
+    expect(screen.queryByRole("button", { name: "Check what changes" })).not.toBeInTheDocument();
+    expect(screen.getByLabelText("Calendar country")).toHaveValue("");
+  });
+
   it("when an admin saves the addend, then only the change and the version read are sent; a 409 shows the server's message", async () => {
     let conflict = false;
     const api = fakeApi({

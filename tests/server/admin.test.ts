@@ -226,6 +226,7 @@ describe("managing entities, portfolios and calendars", () => {
       regime: "us",
       pnlBasis: "actual",
       currency: "USD",
+      country: "US", // derived from the currency (docs/rules.md#business-days)
       qualitativeAddend: 0,
       supervisorName: null,
       supervisorEmails: ["desk@sup.test"],

@@ -36,6 +36,7 @@ describe("e-mail notifications, each person's choice", () => {
       "new_exception",
       "snapshot_returned",
       "snapshot_approved",
+      "notice_due",
     ]);
     expect(first.body.choices.every((c: { on: boolean }) => !c.on)).toBe(true); // nothing until chosen
     // "snapshot_submitted" goes to the CRO: asked for by an analyst, it is not kept.

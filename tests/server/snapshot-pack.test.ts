@@ -66,6 +66,9 @@ const snapshot: Snapshot = snapshotSchema.parse({
   prevHash: null,
   hash: "b".repeat(64),
   restatedAfterSignOff: null,
+  amends: null,
+  amendedBy: null,
+  amendment: null,
   openFindings: 0,
   version: 3,
 });

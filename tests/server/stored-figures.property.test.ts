@@ -20,7 +20,12 @@ import { toSessionUser } from "../../server/modules/auth/auth.service";
 import { previewUpload } from "../../server/modules/uploads/uploads.service";
 import { commitUpload } from "../../server/modules/uploads/upload-commit";
 import { recordDecision, saveReview } from "../../server/modules/reviews/reviews.service";
-import { addHoliday, removeHoliday } from "../../server/modules/entities/entities.service";
+import {
+  addHoliday,
+  importLibraryHolidays,
+  previewHolidayImport,
+  removeHoliday,
+} from "../../server/modules/entities/entities.service";
 import { computePortfolioFigures } from "../../server/modules/figures/stored-figures";
 import { entityWithPortfolios } from "../../server/modules/figures/engine-inputs";
 import { approveSettings, proposeSettings } from "../../server/modules/settings/settings.service";
@@ -74,6 +79,7 @@ type Command =
   | { kind: "decide"; pick: number; approve: boolean }
   | { kind: "addHoliday"; pick: number }
   | { kind: "removeHoliday"; pick: number }
+  | { kind: "importHolidays"; country: "GB" | "US"; year: 2025 | 2026 }
   | {
       kind: "settings";
       when: number;
@@ -99,6 +105,11 @@ const command: fc.Arbitrary<Command> = fc.oneof(
   fc.record({ kind: fc.constant("decide" as const), pick: fc.nat(), approve: fc.boolean() }),
   fc.record({ kind: fc.constant("addHoliday" as const), pick: fc.nat() }),
   fc.record({ kind: fc.constant("removeHoliday" as const), pick: fc.nat() }),
+  fc.record({
+    kind: fc.constant("importHolidays" as const),
+    country: fc.constantFrom("GB" as const, "US" as const),
+    year: fc.constantFrom(2025 as const, 2026 as const),
+  }),
   fc.record({
     kind: fc.constant("settings" as const),
     // 0–59: a day inside the last 60 of the window; 60–69: a weekday after the last day with data.
@@ -233,6 +244,15 @@ async function apply(run: Run, c: Command): Promise<void> {
         );
         await approveSettings(proposed.id, {}, run.cro);
       });
+      return;
+    }
+    case "importHolidays": {
+      // The country alone moves no figure; the import that follows does (another country's days leave).
+      await EntityModel.update({ country: c.country }, { where: { id: run.entity.id } });
+      const plan = await previewHolidayImport(run.entity.code, c.year);
+      await ignoreRefusal(() =>
+        importLibraryHolidays(run.entity.code, { year: c.year, changes: plan.changes }, run.admin),
+      );
       return;
     }
     case "removeHoliday": {

@@ -255,9 +255,16 @@ export async function capitalHistory(code: string, actor: SignedIn): Promise<Cap
   const entity = await entityByCode(code);
   const rows = await SnapshotModel.findAll({
     where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
-    order: [["quarterEnd", "ASC"]],
+    order: [
+      ["quarterEnd", "ASC"],
+      ["id", "ASC"],
+    ],
   });
-  return rows.map((r) => ({
+  // One row per quarter: the figures that stand. A signed-off amendment replaces what it amends; an
+  // amendment still in sign-off is not yet the quarter's figures (docs/api.md#amendments).
+  const superseded = new Set(rows.filter((r) => r.amendsId && SIGNED_OFF.has(r.status)).map((r) => r.amendsId));
+  const standing = rows.filter((r) => !superseded.has(r.id) && !(r.amendsId && !SIGNED_OFF.has(r.status)));
+  return standing.map((r) => ({
     quarterEnd: r.quarterEnd,
     status: r.status,
     zone: r.zone,

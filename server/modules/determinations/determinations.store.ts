@@ -153,7 +153,12 @@ export async function refreshDeterminations(entityId: number, transaction: Trans
   const inputs = await loadEntityEngineInputs(entity, transaction);
   const [stored, signedOff, open] = await Promise.all([
     DeterminationModel.findAll({ where: { entityId }, transaction }),
-    SnapshotModel.findAll({ where: { entityId, status: { [Op.in]: ["approved", "filed"] } }, transaction }),
+    // Oldest first: a quarter's signed-off amendment comes after (and stands instead of) what it amends.
+    SnapshotModel.findAll({
+      where: { entityId, status: { [Op.in]: ["approved", "filed"] } },
+      order: [["id", "ASC"]],
+      transaction,
+    }),
     SnapshotModel.findAll({
       where: { entityId, status: { [Op.notIn]: ["approved", "filed"] } },
       attributes: ["id", "quarterEnd"],

@@ -4,6 +4,8 @@ import { parseInput } from "../../errors";
 import {
   createEntityBodySchema,
   createHolidayBodySchema,
+  holidayImportBodySchema,
+  holidayImportQuerySchema,
   createPortfolioBodySchema,
   holidayParamSchema,
   portfolioParamSchema,
@@ -57,6 +59,18 @@ export function entitiesRouter() {
     const { code, date } = parseInput(holidayParamSchema, req.params, "address");
     await entities.removeHoliday(code, date, signedInActor(req));
     res.status(204).end();
+  });
+
+  // The library's public holidays of a year: what an import would change, then the import itself.
+  r.get("/api/entities/:code/holiday-import", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const { year } = parseInput(holidayImportQuerySchema, req.query, "query");
+    res.json(await entities.previewHolidayImport(code, year));
+  });
+  r.post("/api/entities/:code/holiday-import", async (req, res) => {
+    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const body = parseInput(holidayImportBodySchema, req.body);
+    res.json(await entities.importLibraryHolidays(code, body, signedInActor(req)));
   });
 
   return r.router;

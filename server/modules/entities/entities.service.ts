@@ -1,4 +1,4 @@
-import { UniqueConstraintError, type Transaction } from "sequelize";
+import { Op, UniqueConstraintError, type Transaction } from "sequelize";
 import { refreshEntityFigures } from "../figures/stored-figures";
 import { refreshFindings } from "../findings/findings.service";
 import { EntityModel } from "../../models/entity";
@@ -12,17 +12,22 @@ import { sequelize } from "../../db/sequelize";
 import { getRegime } from "../../../shared/backtest/regimes";
 import type { SignedIn } from "../../kit/actor";
 import type { SessionUser } from "../../../shared/schemas/auth";
+import { defaultCountryOf } from "../../../shared/schemas/entity";
 import type {
   CreateEntityBody,
   CreateHolidayBody,
   CreatePortfolioBody,
   Entity,
   Holiday,
+  HolidayImportBody,
+  HolidayImportPreview,
   Portfolio,
   UpdateEntityBody,
 } from "../../../shared/schemas/entity";
-import { checkVersion } from "../../kit/stale";
+import { checkVersion, StaleError } from "../../kit/stale";
 import { entityByCode } from "../../kit/lookups";
+import { countryName, publicHolidays } from "./holiday-library";
+import type { CalendarCountry } from "../../../shared/schemas/entity";
 
 export function toEntity(row: EntityModel): Entity {
   return {
@@ -31,6 +36,7 @@ export function toEntity(row: EntityModel): Entity {
     regime: row.regime,
     pnlBasis: row.pnlBasis,
     currency: row.currency,
+    country: row.country,
     qualitativeAddend: row.qualitativeAddend,
     supervisorName: row.supervisorName,
     supervisorEmails: row.supervisorEmails,
@@ -39,7 +45,7 @@ export function toEntity(row: EntityModel): Entity {
 }
 
 const toPortfolio = (row: PortfolioModel): Portfolio => ({ code: row.code, name: row.name, level: row.level });
-const toHoliday = (row: HolidayModel): Holiday => ({ date: row.date, name: row.name });
+const toHoliday = (row: HolidayModel): Holiday => ({ date: row.date, name: row.name, source: row.source });
 
 /** The entity by code, or 404. Regulators only find the entities assigned to them. */
 export async function findEntity(code: string, viewer?: SessionUser): Promise<EntityModel> {
@@ -77,6 +83,8 @@ export async function createEntity(input: CreateEntityBody, actor: SignedIn): Pr
           // Each rule set has its own default basis for counting exceptions (docs/rules.md#pnl-basis).
           pnlBasis: input.pnlBasis ?? getRegime(input.regime).defaultPnlBasis,
           currency: input.currency,
+          // The schema refuses a currency without a country of its own (EUR) unless one is named.
+          country: input.country ?? defaultCountryOf(input.currency),
           qualitativeAddend: input.qualitativeAddend ?? 0,
           supervisorName: input.supervisorName ?? null,
           supervisorEmails: input.supervisorEmails ?? [],
@@ -124,6 +132,8 @@ export async function updateEntity(code: string, change: UpdateEntityBody, actor
     if (change.regime !== undefined) row.regime = change.regime;
     if (change.pnlBasis !== undefined) row.pnlBasis = change.pnlBasis;
     if (change.currency !== undefined) row.currency = change.currency;
+    // The calendar's rows move only with an import (importLibraryHolidays), which states how many days change.
+    if (change.country !== undefined) row.country = change.country;
     if (change.qualitativeAddend !== undefined) row.qualitativeAddend = change.qualitativeAddend;
     if (change.supervisorName !== undefined) row.supervisorName = change.supervisorName;
     if (change.supervisorEmails !== undefined) row.supervisorEmails = change.supervisorEmails;
@@ -220,7 +230,10 @@ export async function addHoliday(code: string, input: CreateHolidayBody, actor: 
   }
   return sequelize.transaction(async (transaction) => {
     const portfolioIds = await lockEntityPortfolios(entity.id, transaction);
-    const row = await HolidayModel.create({ entityId: entity.id, date: input.date, name: input.name }, { transaction });
+    const row = await HolidayModel.create(
+      { entityId: entity.id, date: input.date, name: input.name, source: "bank" },
+      { transaction },
+    );
     const holiday = toHoliday(row);
     await recordAudit(actor, "holiday.create", `${code}/${holiday.date}`, { after: holiday }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday
@@ -239,5 +252,102 @@ export async function removeHoliday(code: string, date: string, actor: SignedIn)
     await recordAudit(actor, "holiday.delete", `${code}/${date}`, { before: toHoliday(row) }, transaction);
     await refreshFindings(portfolioIds, { transaction }); // the day is a business day again: data may be missing
     await refreshEntityFigures([entity.id], transaction);
+  });
+}
+
+/**
+ * The year's public holidays from the library (holiday-library.ts) set against the entity's calendar: the days an
+ * import adds, the imported days it removes (no longer listed, or another country's), the names it corrects, and
+ * the library days the bank already keeps as its own (left as they are). Bank days are never touched.
+ */
+async function planImport(entity: EntityModel, year: number, transaction?: Transaction): Promise<HolidayImportPreview> {
+  if (!entity.country) {
+    throw new AppError(
+      422,
+      "no_country",
+      `${entity.code} has no country for its calendar yet: choose one on the entity form, then import its public holidays.`,
+      { fields: { country: "Choose the country whose public holidays the entity keeps" } },
+    );
+  }
+  const library = publicHolidays(entity.country as CalendarCountry, year);
+  const rows = await HolidayModel.findAll({
+    where: { entityId: entity.id, date: { [Op.between]: [`${year}-01-01`, `${year}-12-31`] } },
+    order: [["date", "ASC"]],
+    transaction,
+    ...(transaction ? { lock: transaction.LOCK.UPDATE } : {}),
+  });
+  const byDate = new Map(rows.map((r) => [r.date, r]));
+  const listed = new Set(library.map((h) => h.date));
+  const add = library.filter((h) => !byDate.has(h.date));
+  const rename = library.filter((h) => byDate.get(h.date)?.source === "library" && byDate.get(h.date)!.name !== h.name);
+  const alreadyBank = library.filter((h) => byDate.get(h.date)?.source === "bank");
+  const remove = rows
+    .filter((r) => r.source === "library" && !listed.has(r.date))
+    .map((r) => ({ date: r.date, name: r.name }));
+  return {
+    year,
+    country: entity.country,
+    countryName: countryName(entity.country),
+    add,
+    remove,
+    rename,
+    alreadyBank,
+    changes: add.length + remove.length,
+  };
+}
+
+export async function previewHolidayImport(code: string, year: number): Promise<HolidayImportPreview> {
+  return planImport(await findEntity(code), year);
+}
+
+/**
+ * Imports the year's public holidays as "library" rows, in one transaction with the refresh of findings and stored
+ * figures (as adding a holiday by hand does). The admin confirmed a number of changing days: when the calendar
+ * now gives another number (someone else imported or edited it), nothing is written and the answer is 409 with
+ * the plan as it now stands.
+ */
+export async function importLibraryHolidays(
+  code: string,
+  input: HolidayImportBody,
+  actor: SignedIn,
+): Promise<HolidayImportPreview> {
+  const found = await findEntity(code);
+  return sequelize.transaction(async (transaction) => {
+    const portfolioIds = await lockEntityPortfolios(found.id, transaction);
+    const entity = await entityByCode(code, { transaction, lock: true });
+    const plan = await planImport(entity, input.year, transaction);
+    if (plan.changes !== input.changes) {
+      throw new StaleError(
+        `The ${code} calendar for ${input.year} changed since you looked: the import now changes ${plan.changes} days, not ${input.changes}. Read the new figures and confirm again.`,
+        plan,
+      );
+    }
+    if (plan.remove.length > 0) {
+      await HolidayModel.destroy({
+        where: { entityId: entity.id, source: "library", date: plan.remove.map((h) => h.date) },
+        transaction,
+      });
+    }
+    if (plan.add.length > 0) {
+      await HolidayModel.bulkCreate(
+        plan.add.map((h) => ({ entityId: entity.id, date: h.date, name: h.name, source: "library" as const })),
+        { transaction },
+      );
+    }
+    for (const h of plan.rename) {
+      await HolidayModel.update({ name: h.name }, { where: { entityId: entity.id, date: h.date }, transaction });
+    }
+    await recordAudit(
+      actor,
+      "holiday.import",
+      `${code}/${input.year}`,
+      { before: { removed: plan.remove }, after: { country: plan.country, added: plan.add, renamed: plan.rename } },
+      transaction,
+    );
+    if (plan.changes > 0) {
+      await refreshFindings(portfolioIds, { transaction }); // a missing day may now be a holiday, or no longer
+      await refreshEntityFigures([entity.id], transaction); // windows, roll-offs and forecasts follow the calendar
+    }
+    return plan;
   });
 }

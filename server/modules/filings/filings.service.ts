@@ -41,6 +41,14 @@ async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
       (e) => [e.id, e],
     ),
   );
+  const amendedBy = new Map(
+    (
+      await SnapshotModel.findAll({
+        where: { amendsId: rows.map((r) => r.snapshotId) },
+        attributes: ["id", "amendsId"],
+      })
+    ).map((s) => [s.amendsId!, s.id]),
+  );
   const emails = await emailsById(rows.flatMap((r) => [r.sentBy, r.acknowledgedBy]));
   const deliveries = new Map<number, FilingDeliveryModel[]>();
   for (const d of await FilingDeliveryModel.findAll({
@@ -79,6 +87,9 @@ async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
       lastError: own.some((d) => d.status === "pending") ? r.lastError : null,
       acknowledgedBy: r.acknowledgedBy ? (emails.get(r.acknowledgedBy) ?? "unknown") : null,
       acknowledgedAt: r.acknowledgedAt ? r.acknowledgedAt.toISOString() : null,
+      snapshotHash: s.hash,
+      amends: s.amendsId,
+      amendedBy: amendedBy.get(s.id) ?? null,
     };
   });
 }
@@ -107,11 +118,16 @@ function packMail(entity: EntityModel, snapshot: SnapshotModel, filing: FilingMo
   return {
     to: JSON.parse(filing.recipientsJson) as string[],
     messageId: filing.messageId!,
-    subject: `${entity.name}: backtesting pack for ${quarterLabel(snapshot.quarterEnd)}`,
+    subject: `${entity.name}: ${snapshot.amendsId ? "amended " : ""}backtesting pack for ${quarterLabel(snapshot.quarterEnd)}`,
     text: [
       `${entity.supervisorName ? `Dear ${entity.supervisorName},` : "Dear colleagues,"}`,
       "",
-      `Please find attached the backtesting and capital multiplier pack of ${entity.name} (${entity.code}) for the quarter ending ${snapshot.quarterEnd}.`,
+      `Please find attached the ${snapshot.amendsId ? "amendment of the " : ""}backtesting and capital multiplier pack of ${entity.name} (${entity.code}) for the quarter ending ${snapshot.quarterEnd}.`,
+      ...(snapshot.amendsId
+        ? [
+            `It amends the filed snapshot #${snapshot.amendsId} after a restatement of data inside the quarter; the pack lists every figure that changed.`,
+          ]
+        : []),
       `Traffic-light zone ${snapshot.zone}, ${snapshot.counted} counted exceptions, multiplier ${snapshot.multiplier.toFixed(2)}.`,
       "",
       `SHA-256 of the attached file: ${filing.packSha256}`,

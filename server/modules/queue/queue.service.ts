@@ -9,6 +9,7 @@ import type { SignedIn } from "../../kit/actor";
 import { endedQuarterEnds, quarterEndOf, quarterLabel } from "../../../shared/backtest/quarters";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import type { QueueItem } from "../../../shared/schemas/queue";
+import { noticeIsLate } from "../../../shared/backtest/notice-deadline";
 
 const today = () => new Date().toISOString().slice(0, 10);
 const q = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
@@ -25,7 +26,31 @@ const hrefs = {
   settings: (id: number) => `/waiting#settings-${id}`,
   users: () => "/admin/users",
   filing: (id: number) => `/filings?filing=${id}`,
+  notice: (entity: string, id: number) => `/notices?entity=${encodeURIComponent(entity)}&notice=${id}`,
 };
+
+/** Open overshooting notices, drafted or not, soonest due first, with whether each is late. */
+async function openNotices(drafted: boolean): Promise<QueueItem[]> {
+  const rows = await q<{ id: number; entity: string; portfolio: string; date: string; due_on: string }>(
+    `SELECT n.id, e.code AS entity, p.code AS portfolio, DATE_FORMAT(n.business_date, '%Y-%m-%d') AS date,
+            DATE_FORMAT(n.due_on, '%Y-%m-%d') AS due_on
+       FROM overshooting_notices n JOIN portfolios p ON p.id = n.portfolio_id JOIN entities e ON e.id = p.entity_id
+      WHERE n.status = 'open' AND n.drafted_at IS ${drafted ? "NOT NULL" : "NULL"}
+      ORDER BY n.due_on, n.business_date, n.id`,
+  );
+  return rows.map((n) => {
+    const late = noticeIsLate({ status: "open", dueOn: n.due_on, sentOn: null }, today());
+    return {
+      kind: drafted ? ("notice_to_send" as const) : ("notice_to_draft" as const),
+      entity: n.entity,
+      title: `${late ? "Late: o" : "O"}vershooting notice of ${n.entity} for ${n.date} in ${n.portfolio} ${
+        drafted ? "drafted, to send to the supervisor" : "to draft"
+      } by ${n.due_on}`,
+      href: hrefs.notice(n.entity, Number(n.id)),
+      due: n.due_on,
+    };
+  });
+}
 
 /** How many ended quarters back an analyst is reminded of a quarter without a snapshot. */
 const QUARTERS_LOOKED_BACK = 4;
@@ -48,7 +73,7 @@ async function snapshotsIn(status: "submitted" | "returned" | "approved"): Promi
 }
 
 async function croItems(): Promise<QueueItem[]> {
-  const [submitted, exclusions, proposals, approved] = await Promise.all([
+  const [submitted, exclusions, proposals, approved, notices] = await Promise.all([
     snapshotsIn("submitted"),
     q<{ entity: string; portfolio: string; date: string; who: string | null }>(
       `SELECT e.code AS entity, p.code AS portfolio, DATE_FORMAT(r.business_date, '%Y-%m-%d') AS date, u.name AS who
@@ -63,8 +88,10 @@ async function croItems(): Promise<QueueItem[]> {
         WHERE s.status = 'proposed' ORDER BY s.proposed_at, s.id`,
     ),
     snapshotsIn("approved"),
+    openNotices(true),
   ]);
   return [
+    ...notices,
     ...submitted.map((s) => ({
       kind: "snapshot_submitted" as const,
       entity: s.entity,
@@ -162,7 +189,8 @@ async function quartersWithoutSnapshot(): Promise<QueueItem[]> {
 }
 
 async function analystItems(): Promise<QueueItem[]> {
-  const [returned, unexplained, findings, quarters] = await Promise.all([
+  const [notices, returned, unexplained, findings, quarters] = await Promise.all([
+    openNotices(false),
     snapshotsIn("returned"),
     unexplainedExceptions(),
     q<{ entity: string; portfolio: string; kind: string; date_from: string; date_to: string }>(
@@ -181,6 +209,7 @@ async function analystItems(): Promise<QueueItem[]> {
     outlier: "outlier",
   };
   return [
+    ...notices,
     ...returned.map((s) => ({
       kind: "snapshot_returned" as const,
       entity: s.entity,

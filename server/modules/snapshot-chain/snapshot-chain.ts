@@ -44,6 +44,8 @@ export type SnapshotFields = Pick<
   | "prevHash"
   | "restatedAt"
   | "restatementDetail"
+  | "amendsId"
+  | "amendmentJson"
 >;
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
@@ -75,6 +77,10 @@ export function snapshotState(s: SnapshotFields) {
     historySha256: sha256(s.historyJson),
     restatedAt: iso(s.restatedAt),
     restatementDetail: s.restatementDetail,
+    // An amendment signs what it amends and its frozen before/after; an original's state is as it always was.
+    ...(s.amendsId !== null && s.amendsId !== undefined
+      ? { amendsId: s.amendsId, amendmentSha256: s.amendmentJson === null ? null : sha256(s.amendmentJson) }
+      : {}),
   };
 }
 type SnapshotState = ReturnType<typeof snapshotState>;
@@ -166,6 +172,8 @@ const FIELD_WORDS: Partial<Record<keyof SnapshotState, string>> = {
   historySha256: "history events (sha256)",
   restatedAt: "restatement flag",
   restatementDetail: "restatement detail",
+  amendsId: "amended snapshot",
+  amendmentSha256: "before/after of the amendment (sha256)",
   approvedBy: "approver",
   approvedAt: "approval time",
   preparedBy: "preparer",

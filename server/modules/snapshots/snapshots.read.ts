@@ -7,7 +7,14 @@ import { renderSnapshotPack, snapshotPackFileName, type Signatory } from "../../
 import { UserModel } from "../../models/user";
 import type { Role } from "../../../shared/schemas/common";
 import { countOpenFindings } from "../findings/findings.service";
-import { SIGNED_OFF, type Snapshot, type SnapshotEvent, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import {
+  SIGNED_OFF,
+  type AmendmentRecord,
+  type Snapshot,
+  type SnapshotEvent,
+  type SnapshotFigures,
+} from "../../../shared/schemas/snapshot";
+import { FilingModel } from "../../models/filing";
 import { quarterStart } from "../../../shared/backtest/quarters";
 import type { SignedIn } from "../../kit/actor";
 import { emailsById, entityByCode } from "../../kit/lookups";
@@ -28,8 +35,30 @@ export async function openFindingsInQuarter(
   );
 }
 
+/**
+ * The snapshot that amends this one, if any, and — once that amendment is filed — when: a filed
+ * amendment resolves the restatement flag of the quarter (docs/api.md#amendments).
+ */
+export async function amendedByOf(
+  snapshotId: number,
+  transaction?: Transaction,
+): Promise<{ id: number; status: SnapshotModel["status"]; filedAt: string | null } | null> {
+  const by = await SnapshotModel.findOne({
+    where: { amendsId: snapshotId },
+    attributes: ["id", "status"],
+    transaction,
+  });
+  if (!by) return null;
+  const filing =
+    by.status === "filed"
+      ? await FilingModel.findOne({ where: { snapshotId: by.id }, attributes: ["id", "sentAt"], transaction })
+      : null;
+  return { id: by.id, status: by.status, filedAt: filing?.sentAt ? filing.sentAt.toISOString() : null };
+}
+
 export async function snapshotDto(row: SnapshotModel, entity?: EntityModel): Promise<Snapshot> {
   const owner = entity ?? (await EntityModel.findByPk(row.entityId))!;
+  const amendedBy = await amendedByOf(row.id);
   const history = JSON.parse(row.historyJson) as SnapshotEvent[];
   const emails = await emailsById([row.preparedBy, row.submittedBy, row.approvedBy]);
   const figures = JSON.parse(row.figuresJson) as SnapshotFigures;
@@ -58,8 +87,15 @@ export async function snapshotDto(row: SnapshotModel, entity?: EntityModel): Pro
     prevHash: row.prevHash,
     hash: row.hash,
     restatedAfterSignOff: row.restatedAt
-      ? { at: row.restatedAt.toISOString(), detail: row.restatementDetail ?? "" }
+      ? {
+          at: row.restatedAt.toISOString(),
+          detail: row.restatementDetail ?? "",
+          resolvedBy: amendedBy?.status === "filed" ? { snapshotId: amendedBy.id, filedAt: amendedBy.filedAt } : null,
+        }
       : null,
+    amends: row.amendsId,
+    amendedBy: amendedBy?.id ?? null,
+    amendment: row.amendmentJson ? (JSON.parse(row.amendmentJson) as AmendmentRecord) : null,
     openFindings: await openFindingsInQuarter(row.entityId, row.quarterEnd),
     version: row.version,
   };

@@ -32,15 +32,28 @@ async function signedOffOf(portfolioIds: number[], transaction: Transaction) {
     transaction,
   });
   const entityIds = [...new Set(portfolios.map((p) => p.entityId))];
-  const snapshots = entityIds.length
+  const signedOff = entityIds.length
     ? await SnapshotModel.findAll({
         where: { entityId: entityIds, status: [...SIGNED_OFF] },
         transaction,
         lock: transaction.LOCK.UPDATE,
       })
     : [];
+  // A snapshot that has an amendment is never touched again: the change flags the amendment once
+  // it is signed off, and a draft amendment is recomputed when prepared again (docs/api.md#amendments).
+  const amended = new Set(
+    signedOff.length
+      ? (
+          await SnapshotModel.findAll({
+            where: { amendsId: signedOff.map((s) => s.id) },
+            attributes: ["amendsId"],
+            transaction,
+          })
+        ).map((s) => s.amendsId)
+      : [],
+  );
   return {
-    snapshots,
+    snapshots: signedOff.filter((s) => !amended.has(s.id)),
     entityOf: new Map(portfolios.map((p) => [p.id, p.entityId])),
     codeOf: new Map(portfolios.map((p) => [p.id, p.code])),
   };

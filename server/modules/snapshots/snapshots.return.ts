@@ -8,6 +8,7 @@ import { snapshotDto, visibleSnapshotRow } from "./snapshots.read";
 import type { SignedIn } from "../../kit/actor";
 import { checkVersion } from "../../kit/stale";
 import { getRegime } from "../../../shared/backtest/regimes";
+import { recomputeAmendment } from "./snapshots.amendments";
 
 /**
  * The return data of a snapshot (docs/rules.md#return-data), read from its frozen figures and the
@@ -53,8 +54,14 @@ export async function setReturnInputs(id: number, body: ReturnInputsBody, actor:
     }
     const before = figures.analystInputs ?? {};
     const after = { ...before, ...body.values };
+    const changed: SnapshotFigures = { ...figures, analystInputs: after };
     await row.update(
-      { figuresJson: JSON.stringify({ ...figures, analystInputs: after }), version: row.version + 1 },
+      {
+        figuresJson: JSON.stringify(changed),
+        // An amendment's before/after follows its figures (computed at write time, docs/api.md#amendments).
+        amendmentJson: await recomputeAmendment(row, changed, transaction),
+        version: row.version + 1,
+      },
       { transaction },
     );
     await recordAudit(actor, "snapshot.return-inputs", `snapshot #${id}`, { before, after }, transaction);

@@ -17,6 +17,7 @@ import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
 import { tableDownload } from "../../kit/table-export";
 import { sendDownload } from "../../http/download";
 import { getSnapshotReturn, setReturnInputs } from "./snapshots.return";
+import { prepareAmendment } from "./snapshots.amendments";
 import { currenciesByEntity } from "../../kit/lookups";
 import { returnTable, snapshotsTable } from "./snapshots.tables";
 
@@ -26,10 +27,11 @@ export function snapshotsRouter() {
     res.json(await listSnapshots(parseInput(snapshotListQuerySchema, req.query, "query"), signedInActor(req)));
   });
   r.post("/api/snapshots", async (req, res) => {
-    const { created, snapshot } = await snapshots.prepareSnapshot(
-      parseInput(createSnapshotSchema, req.body),
-      signedInActor(req),
-    );
+    const body = parseInput(createSnapshotSchema, req.body);
+    const { created, snapshot } =
+      body.amends === undefined
+        ? await snapshots.prepareSnapshot(body, signedInActor(req))
+        : await prepareAmendment({ ...body, amends: body.amends }, signedInActor(req));
     res.status(created ? 201 : 200).json(snapshot);
   });
   r.get("/api/snapshots.:format", async (req, res) => {

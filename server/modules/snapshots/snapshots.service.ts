@@ -31,7 +31,7 @@ import { DeterminationModel } from "../../models/determination";
 const today = () => new Date().toISOString().slice(0, 10);
 
 /** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
-async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
+export async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
   const ids = (await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction })).map((p) => p.id);
   await lockPortfolios(ids, "share", transaction);
 }
@@ -103,13 +103,13 @@ export async function prepareSnapshot(
   return sequelize.transaction(async (transaction) => {
     await holdEntityData(entity.id, transaction);
     const existing = await SnapshotModel.findOne({
-      where: { entityId: entity.id, quarterEnd: body.quarterEnd },
+      where: { entityId: entity.id, quarterEnd: body.quarterEnd, amendsId: null },
       transaction,
       lock: transaction.LOCK.UPDATE,
     });
     if (existing && existing.status !== "draft" && existing.status !== "returned") {
       throw new ConflictError(
-        `${entity.code} ${quarterLabel(body.quarterEnd)} is already ${existing.status}: it cannot be prepared again.`,
+        `${entity.code} ${quarterLabel(body.quarterEnd)} is already ${existing.status}: it cannot be prepared again.${existing.status === "filed" && existing.restatedAt ? ` A day inside it was restated since: prepare an amendment of snapshot #${existing.id} instead.` : ""}`,
         { snapshotId: existing.id },
       );
     }
@@ -163,6 +163,8 @@ export async function prepareSnapshot(
             hash: null,
             restatedAt: null,
             restatementDetail: null,
+            amendsId: null,
+            amendmentJson: null,
             historyJson: JSON.stringify([event(actor, "prepared")]),
           },
           { transaction },
@@ -337,7 +339,8 @@ export async function recordFiled(
   // Its determination is filed too (only the status moves; the entity is not locked here, as the
   // snapshot already is and the lock order puts the entity first).
   await DeterminationModel.update({ status: "filed" }, { where: { snapshotId: row.id }, transaction });
-  await appendLink(row, "filed", transaction, filed);
+  // An amendment's filing resolves the restatement flag of what it amends: the chain says which.
+  await appendLink(row, "filed", transaction, row.amendsId ? { ...filed, amends: row.amendsId } : filed);
 }
 
 /** The supervisor acknowledged a filing: the chain signs which pack they acknowledged (the snapshot does not change). */

@@ -1,5 +1,6 @@
 import { UniqueConstraintError, type Transaction } from "sequelize";
 import { notifyNewExceptions } from "../notifications/notices";
+import { openNoticesForCommit } from "../notices/notices.open";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
 import { entitiesOfPortfolios, refreshEntityFigures } from "../figures/stored-figures";
@@ -106,6 +107,13 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     await flagChangedSnapshots(inserts, upload.id, actor, transaction);
     // The stored figures follow the data in the same transaction: no reader sees one without the other.
     await refreshEntityFigures(await entitiesOfPortfolios(portfolioIds, transaction), transaction);
+    // EU entities: each new overshooting of the top-of-house book opens its notice with the data (CRR Art. 366(5)).
+    await openNoticesForCommit(
+      inserts.map((v) => ({ portfolioId: v.portfolioId, date: v.row.date })),
+      upload.id,
+      actor,
+      transaction,
+    );
 
     upload.status = "committed";
     upload.committedSha256 = upload.sha256;

@@ -55,7 +55,7 @@ export default function EntityRoute() {
       </section>
       <div className="grid grid-cols-1 gap-10 border-t border-rule pt-5 xl:grid-cols-2">
         <PortfoliosPanel entityCode={entity.code} portfolios={portfolios} isFrtb={entity.regime === "frtb"} />
-        <HolidaysPanel entityCode={entity.code} holidays={holidays} />
+        <HolidaysPanel entityCode={entity.code} country={entity.country} holidays={holidays} />
       </div>
     </div>
   );

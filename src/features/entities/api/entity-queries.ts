@@ -2,6 +2,7 @@ import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query
 import {
   entityListSchema,
   entitySchema,
+  holidayImportPreviewSchema,
   holidayListSchema,
   holidaySchema,
   portfolioListSchema,
@@ -9,10 +10,11 @@ import {
   type CreateEntityBody,
   type CreateHolidayBody,
   type CreatePortfolioBody,
+  type HolidayImportBody,
   type UpdateEntityBody,
 } from "@shared/schemas/entity";
 import { everyFigure } from "@/lib/query-scope";
-import { api } from "@/lib/api-client";
+import { api, withQuery } from "@/lib/api-client";
 
 const base = (code: string) => `/api/entities/${encodeURIComponent(code)}`;
 
@@ -82,6 +84,23 @@ export function useRemoveHoliday(code: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (date: string) => api.del(`${base(code)}/holidays/${encodeURIComponent(date)}`),
+    onSuccess: () => queryClient.invalidateQueries(everyFigure),
+  });
+}
+
+/** What importing a year of the library's public holidays would change (read on demand, never cached). */
+export function useHolidayImportPreview(code: string) {
+  return useMutation({
+    mutationFn: (year: number) =>
+      api.get(withQuery(`${base(code)}/holiday-import`, { year }), holidayImportPreviewSchema),
+  });
+}
+
+export function useImportHolidays(code: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: HolidayImportBody) => api.post(`${base(code)}/holiday-import`, body, holidayImportPreviewSchema),
+    // Like a holiday added by hand: windows, roll-off dates and findings move.
     onSuccess: () => queryClient.invalidateQueries(everyFigure),
   });
 }

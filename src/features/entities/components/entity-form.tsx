@@ -1,5 +1,12 @@
 import { useRef, useState, type FormEvent } from "react";
-import { createEntityBodySchema, updateEntityBodySchema, type Entity } from "@shared/schemas/entity";
+import {
+  CALENDAR_COUNTRIES,
+  createEntityBodySchema,
+  defaultCountryOf,
+  updateEntityBodySchema,
+  type CalendarCountry,
+  type Entity,
+} from "@shared/schemas/entity";
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
@@ -14,6 +21,8 @@ type Values = {
   regime: RegimeId;
   pnlBasis: PnlBasis;
   currency: string;
+  /** "" = not chosen: the server takes the currency's country (none for EUR). */
+  country: string;
   qualitativeAddend: string;
   supervisorName: string;
   supervisorEmails: string;
@@ -25,6 +34,7 @@ const blank: Values = {
   regime: "eu",
   pnlBasis: defaultPnlBasis.eu,
   currency: "",
+  country: "",
   qualitativeAddend: "0",
   supervisorName: "",
   supervisorEmails: "",
@@ -37,6 +47,7 @@ function valuesOf(e: Entity): Values {
     regime: e.regime,
     pnlBasis: e.pnlBasis,
     currency: e.currency,
+    country: e.country ?? "",
     qualitativeAddend: String(e.qualitativeAddend),
     supervisorName: e.supervisorName ?? "",
     supervisorEmails: e.supervisorEmails.join(", "),
@@ -52,10 +63,23 @@ function toBody(v: Values) {
     regime: v.regime,
     pnlBasis: v.pnlBasis,
     currency: v.currency.trim().toUpperCase(),
+    country: v.country === "" ? undefined : v.country,
     qualitativeAddend: Number.isFinite(addend) ? addend : undefined,
     supervisorName: v.supervisorName.trim() === "" ? null : v.supervisorName,
     supervisorEmails: splitList(v.supervisorEmails),
   };
+}
+
+const countryCodes = (Object.keys(CALENDAR_COUNTRIES) as CalendarCountry[]).sort((a, b) =>
+  CALENDAR_COUNTRIES[a].localeCompare(CALENDAR_COUNTRIES[b]),
+);
+
+/** What the country field decides: whose public holidays the calendar imports. */
+function countryHint(v: Values): string {
+  if (v.country !== "") return "Its public holidays are imported into the calendar, a year at a time";
+  const derived = defaultCountryOf(v.currency.trim());
+  if (derived) return `Unset: ${CALENDAR_COUNTRIES[derived]}, from the currency`;
+  return "Choose one to import its public holidays; the euro names no country";
 }
 
 type Props = { mode: "create"; onCreated?: (e: Entity) => void } | { mode: "edit"; entity: Entity };
@@ -196,6 +220,22 @@ export function EntityForm(props: Props) {
           hint="ISO 4217, e.g. EUR"
           maxLength={3}
         />
+        <SelectField
+          label="Calendar country"
+          name="country"
+          value={values.country}
+          onChange={set("country")}
+          error={errors.country}
+          hint={countryHint(values)}
+        >
+          {/* A chosen country can be changed, not cleared: the imported days stay until the next import. */}
+          {!editing?.country && <option value="">Not chosen</option>}
+          {countryCodes.map((c) => (
+            <option key={c} value={c}>
+              {CALENDAR_COUNTRIES[c]}
+            </option>
+          ))}
+        </SelectField>
         <TextField
           label="Qualitative addend"
           name="qualitativeAddend"

@@ -2,13 +2,19 @@ import { Link } from "react-router-dom";
 import type { QueueItem, QueueKind } from "@shared/schemas/queue";
 import { EmptyState } from "@/components/ui/table";
 import { formatBusinessDate, plural } from "@/lib/format";
+import { LateBadge } from "@/components/ui/late-badge";
+
+/** Today as the server counts due days (UTC). */
+const todayIso = () => new Date().toISOString().slice(0, 10);
 
 /** Each kind's heading, in the order the list shows them (the most pressing sign-off first). */
 export const queueKindLabels: Record<QueueKind, string> = {
   snapshot_submitted: "Quarters to sign off",
+  notice_to_send: "Overshooting notices to send",
   approved_not_filed: "Approved quarters to file",
   exclusion_request: "Exclusion requests to decide",
   settings_proposal: "Settings changes to decide",
+  notice_to_draft: "Overshooting notices to draft",
   snapshot_returned: "Returned quarters to prepare again",
   quarter_without_snapshot: "Ended quarters without a snapshot",
   unexplained_exception: "Exceptions to explain",
@@ -42,7 +48,8 @@ export function QueueList({ items, empty }: { items: QueueItem[]; empty: string 
                   {item.title}
                 </Link>
                 {item.due && (
-                  <span className="figures text-sm whitespace-nowrap text-ink-muted">
+                  <span className="figures flex items-baseline gap-2 text-sm whitespace-nowrap text-ink-muted">
+                    {item.due < todayIso() && <LateBadge title="Not sent by its due day" />}
                     due {formatBusinessDate(item.due)}
                   </span>
                 )}

@@ -1,0 +1,21 @@
+import { createGuardedRouter } from "../../http/routes";
+import { signedInActor } from "../../http/context";
+import { parseInput } from "../../errors";
+import { idParamSchema } from "../../../shared/schemas/common";
+import { draftNotice, listNotices, sendNotice } from "./notices.service";
+
+export function noticesRouter() {
+  const r = createGuardedRouter();
+  r.get("/api/notices", async (req, res) => {
+    res.json(await listNotices(req.query));
+  });
+  r.put("/api/notices/:id/draft", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await draftNotice(id, req.body, signedInActor(req)));
+  });
+  r.post("/api/notices/:id/send", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await sendNotice(id, req.body, signedInActor(req)));
+  });
+  return r.router;
+}

@@ -147,6 +147,7 @@ function SelectedSnapshot({
         onPrepared={onPrepared}
         filing={filing}
         filingHref={filingHref}
+        snapshotHref={(other) => paths.snapshots.href({ entity: data.entity, snapshot: other })}
         filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
         recipients={recipients}

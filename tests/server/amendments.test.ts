@@ -285,5 +285,16 @@ describe("amended filings", () => {
       .get(`/api/entities/${book.entity.code}/chain/verify`)
       .set("Cookie", book.croCookie);
     expect(verify.body.valid, JSON.stringify(verify.body)).toBe(true);
+
+    // The filed amendment's before/after is signed with it: edited behind the application's back, it shows.
+    await sequelize.query(
+      "UPDATE snapshots SET amendment_json = REPLACE(amendment_json, '\"before\":5', '\"before\":3') WHERE id = :id",
+      { replacements: { id: draft.body.id } },
+    );
+    const tampered = await request(app)
+      .get(`/api/entities/${book.entity.code}/chain/verify`)
+      .set("Cookie", book.croCookie);
+    expect(tampered.body.valid).toBe(false);
+    expect(JSON.stringify(tampered.body.problems)).toContain("before/after of the amendment (sha256)");
   });
 });

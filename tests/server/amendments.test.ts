@@ -147,6 +147,11 @@ describe("amended filings", () => {
     expect(a.original).toMatchObject({ snapshotId: originalId, hash: flagged.hash, filingId: filing.id });
     expect(a.original.filedBy).toBe("Bram Oduya");
 
+    // The draft's pack: DRAFT and AMENDMENT on every page, never to be filed as it is.
+    const draftPack = await download(`/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
+    keepPages(draftPack, "amendment_draft");
+    for (const p of pagesText(draftPack)) expect(p).toContain(`DRAFT · AMENDMENT of snapshot #${originalId}`);
+
     // Prepared again while a draft: the same amendment, recomputed — not a second one.
     const again = await amend(book, originalId);
     expect(again.status).toBe(200);

@@ -187,7 +187,30 @@ export async function loadSeries(
       transaction,
     },
   );
-  return rows.map((r) => ({
+  return rows.map(observationOf);
+}
+
+/**
+ * The last `count` current days of a portfolio dated on or before `to`, sorted by date: one range
+ * read of the (portfolio_id, current_day) index backwards, whatever the length of the history.
+ */
+export async function loadSeriesTail(
+  portfolioId: number,
+  to: string,
+  count: number,
+): Promise<(Observation & { version: number })[]> {
+  const rows = await sequelize.query<Record<string, unknown>>(
+    `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
+       FROM observations
+      WHERE portfolio_id = :pid AND current_day <= :to
+      ORDER BY current_day DESC LIMIT :count`,
+    { replacements: { pid: portfolioId, to, count }, type: QueryTypes.SELECT },
+  );
+  return rows.reverse().map(observationOf);
+}
+
+function observationOf(r: Record<string, unknown>): Observation & { version: number } {
+  return {
     date: String(r.d),
     version: Number(r.version),
     actualPnl: num(r.actual_pnl),
@@ -205,7 +228,7 @@ export async function loadSeries(
     rrao: num(r.rrao),
     saDrc: num(r.sa_drc),
     saGa: num(r.sa_ga),
-  }));
+  };
 }
 
 /**

@@ -71,7 +71,7 @@ export async function contextOf(
 ): Promise<PortfolioContext> {
   const [holidays, series, excluded, settings] = await Promise.all([
     holidaysOf(entity.id, read),
-    loadSeries(portfolio.id, read.from, read.to, read.transaction),
+    loadSeries(portfolio.id, entity.regime, read.from, read.to, read.transaction),
     sequelize.query<{ d: string }>(
       `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d FROM exception_reviews
         WHERE portfolio_id = :pid AND exclusion_status = 'approved'${read.transaction ? " LOCK IN SHARE MODE" : ""}`,
@@ -89,6 +89,22 @@ export async function contextOf(
     settings,
     fallback: fallbackSettings(entity),
   };
+}
+
+/** Each portfolio's approved exclusions (dates whose exception the supervisor agreed to disregard). */
+export async function approvedExclusions(
+  portfolioIds: readonly number[],
+  read: ReadIn = {},
+): Promise<Map<number, Set<string>>> {
+  const out = new Map<number, Set<string>>(portfolioIds.map((id) => [id, new Set<string>()]));
+  if (portfolioIds.length === 0) return out;
+  const rows = await sequelize.query<{ pid: number; d: string }>(
+    `SELECT portfolio_id AS pid, DATE_FORMAT(business_date, '%Y-%m-%d') AS d FROM exception_reviews
+      WHERE portfolio_id IN (:ids) AND exclusion_status = 'approved'${read.transaction ? " LOCK IN SHARE MODE" : ""}`,
+    { replacements: { ids: portfolioIds }, type: QueryTypes.SELECT, transaction: read.transaction },
+  );
+  for (const r of rows) out.get(Number(r.pid))?.add(r.d);
+  return out;
 }
 
 /** The settings record in force on a date (never the entity's current columns once records exist). */
@@ -235,7 +251,7 @@ export async function loadStartingPoint(
   portfolioId: number,
   at: string,
 ): Promise<StartingPoint | null> {
-  const tail = await loadSeriesTail(portfolioId, at, STARTING_POINT_OBSERVATIONS);
+  const tail = await loadSeriesTail(portfolioId, entity.regime, at, STARTING_POINT_OBSERVATIONS);
   if (tail.length === 0) return null;
   const first = tail[0].date;
   const [holidays, excluded, settings] = await Promise.all([

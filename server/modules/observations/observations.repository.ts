@@ -3,6 +3,8 @@ import { sequelize } from "../../db/sequelize";
 import { connectionOf } from "../../db/raw-connection";
 import { AMOUNT_COLUMNS, type AmountColumn } from "../../../shared/schemas/upload";
 import type { Observation } from "../../../shared/backtest/types";
+import type { RegimeId } from "../../../shared/schemas/common";
+import { withPnlDefinition } from "../../../shared/backtest/pnl-definition";
 import type { NewVersion, QualityDay, StoredDay, VersionKey } from "../../../shared/ingest/row-plan";
 
 /** Column in the table for each CSV amount column (they are the same names). */
@@ -167,11 +169,13 @@ export function queueRetireVersions(writes: PipelinedWrites, keys: readonly Vers
 }
 
 /**
- * One portfolio's current series, sorted by date, in the engine's shape. Inside a transaction the
+ * One portfolio's current series, sorted by date, in the engine's shape, its actual P&L derived by
+ * the rule set given (or as supplied, for a reader of the stored days). Inside a transaction the
  * read is a locking one, so it sees the newest committed days and the transaction's own.
  */
 export async function loadSeries(
   portfolioId: number,
+  pnlDefinition: RegimeId | "as supplied",
   from?: string,
   to?: string,
   transaction?: Transaction,
@@ -187,15 +191,18 @@ export async function loadSeries(
       transaction,
     },
   );
-  return rows.map(observationOf);
+  const series = rows.map(observationOf);
+  return pnlDefinition === "as supplied" ? series : withPnlDefinition(series, pnlDefinition);
 }
 
 /**
- * The last `count` current days of a portfolio dated on or before `to`, sorted by date: one range
- * read of the (portfolio_id, current_day) index backwards, whatever the length of the history.
+ * The last `count` current days of a portfolio dated on or before `to`, sorted by date, actual P&L
+ * as loadSeries derives it: one range read of the (portfolio_id, current_day) index backwards,
+ * whatever the length of the history.
  */
 export async function loadSeriesTail(
   portfolioId: number,
+  pnlDefinition: RegimeId | "as supplied",
   to: string,
   count: number,
 ): Promise<(Observation & { version: number })[]> {
@@ -206,7 +213,9 @@ export async function loadSeriesTail(
       ORDER BY current_day DESC LIMIT :count`,
     { replacements: { pid: portfolioId, to, count }, type: QueryTypes.SELECT },
   );
-  return rows.reverse().map(observationOf);
+  const series = rows.reverse().map(observationOf);
+  // Each rule set backtests on its own definition of actual P&L (docs/rules.md#pnl-definition).
+  return pnlDefinition === "as supplied" ? series : withPnlDefinition(series, pnlDefinition);
 }
 
 function observationOf(r: Record<string, unknown>): Observation & { version: number } {
@@ -228,6 +237,11 @@ function observationOf(r: Record<string, unknown>): Observation & { version: num
     rrao: num(r.rrao),
     saDrc: num(r.sa_drc),
     saGa: num(r.sa_ga),
+    feesCommissions: num(r.fees_commissions),
+    reservesAdjustments: num(r.reserves_adjustments),
+    netInterestIncome: num(r.net_interest_income),
+    intradayPnl: num(r.intraday_pnl),
+    newTradePnl: num(r.new_trade_pnl),
   };
 }
 

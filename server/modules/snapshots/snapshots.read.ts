@@ -176,6 +176,7 @@ export async function listSnapshots(query: { entity?: string }, actor: SignedIn)
     order: [
       ["quarterEnd", "DESC"],
       ["entityId", "ASC"],
+      ["id", "DESC"], // an amendment before what it amends
     ],
   });
   if (rows.length === 0) return [];

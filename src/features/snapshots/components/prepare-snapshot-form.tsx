@@ -36,7 +36,8 @@ export function PrepareSnapshotForm({
 }) {
   const prepare = usePrepareSnapshot();
   const formRef = useRef<HTMLFormElement>(null);
-  const existingOf = (q: string) => snapshots.find((s) => s.quarterEnd === q);
+  // The quarter's original snapshot: an amendment of a filed quarter is prepared from that snapshot's view.
+  const existingOf = (q: string) => snapshots.find((s) => s.quarterEnd === q && s.amends === null);
   const preparable = (q: string) => {
     const s = existingOf(q);
     return !s || s.status === "draft" || s.status === "returned";

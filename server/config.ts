@@ -67,6 +67,8 @@ const envSchema = z.object({
   UPLOAD_QUEUE: z.coerce.number().int().min(0).max(100).default(4),
   /** How long a large upload waits for its turn before it is refused (503, Retry-After). */
   UPLOAD_QUEUE_WAIT_MS: z.coerce.number().int().min(0).max(600_000).default(60_000),
+  /** How long a checked file waits to be committed; after that it must be uploaded again (checked against today). */
+  UPLOAD_PREVIEW_TTL_HOURS: z.coerce.number().int().min(1).max(720).default(8),
   /** Server worker processes (node:cluster); WEB_CONCURRENCY is the name many hosts set. Unset: one per core. */
   WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   WEB_CONCURRENCY: z.coerce.number().int().min(1).max(64).optional(),
@@ -177,6 +179,7 @@ function loadConfig() {
       concurrency: env.UPLOAD_CONCURRENCY,
       queue: env.UPLOAD_QUEUE,
       queueWaitMs: env.UPLOAD_QUEUE_WAIT_MS,
+      previewTtlHours: env.UPLOAD_PREVIEW_TTL_HOURS,
     }),
     passwordThreads: env.PASSWORD_THREADS,
     workers: env.WORKERS ?? env.WEB_CONCURRENCY ?? os.availableParallelism(),

@@ -79,6 +79,44 @@ export function classify(
   return { inserts, retire, fresh, restated, unchanged };
 }
 
+/** One restated day: the cells that change, stored value → file value (null: empty). */
+export interface RestatedDay {
+  portfolioId: number;
+  portfolio: string;
+  date: string;
+  changes: { column: AmountColumn; from: number | null; to: number | null }[];
+}
+
+/**
+ * The days a file restates (a stored day whose amounts differ), in file order: every day's key, and the changed cells
+ * of the first `detailed` of them (a preview shows those; a large restatement lists only so many).
+ */
+export function restatedDays(
+  rows: readonly ParsedRow[],
+  ids: Map<string, number>,
+  stored: Map<string, StoredDay>,
+  detailed = Number.POSITIVE_INFINITY,
+): { keys: { portfolioId: number; date: string }[]; detail: RestatedDay[] } {
+  const keys: { portfolioId: number; date: string }[] = [];
+  const detail: RestatedDay[] = [];
+  if (stored.size === 0) return { keys, detail };
+  for (const row of rows) {
+    const portfolioId = ids.get(row.portfolio)!;
+    const current = stored.get(`${portfolioId}|${row.date}`);
+    if (!current || sameValues(current.values, row)) continue;
+    keys.push({ portfolioId, date: row.date });
+    if (detail.length < detailed) {
+      const changes = AMOUNT_COLUMNS.filter((c) => (current.values[c] ?? null) !== (row[c] ?? null)).map((c) => ({
+        column: c,
+        from: current.values[c] ?? null,
+        to: row[c] ?? null,
+      }));
+      detail.push({ portfolioId, portfolio: row.portfolio, date: row.date, changes });
+    }
+  }
+  return { keys, detail };
+}
+
 /** Each portfolio's current days inside the committed span once the commit is written: the file's days, and the stored days it leaves as they are. */
 export function currentDaysInSpan(
   rows: readonly ParsedRow[],

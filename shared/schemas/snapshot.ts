@@ -304,7 +304,44 @@ export const snapshotSchema = z.object({
   version: z.number().int(),
 });
 export type Snapshot = z.infer<typeof snapshotSchema>;
-export const snapshotListSchema = z.array(snapshotSchema);
+
+/**
+ * The headline of the frozen figures, as a list item carries them: what the list shows and the
+ * window's span, without the window's days, the exceptions, the desks or the capital details
+ * (GET /api/snapshots/:id has everything).
+ */
+export const snapshotHeadlineFiguresSchema = snapshotFiguresSchema.pick({
+  portfolio: true,
+  regime: true,
+  pnlBasis: true,
+  currency: true,
+  asOf: true,
+  window: true,
+  exceptions: true,
+  zone: true,
+  zoneLabel: true,
+  plusFactor: true,
+  qualitativeAddend: true,
+  multiplier: true,
+  multiplierSvar: true,
+  expected: true,
+  cumulativeProbability: true,
+  capital: true,
+  addOn: true,
+  capitalNote: true,
+});
+export type SnapshotHeadlineFigures = z.infer<typeof snapshotHeadlineFiguresSchema>;
+/** The keys of the headline figures, in the order a list item carries them. */
+export const SNAPSHOT_HEADLINE_KEYS = Object.keys(
+  snapshotHeadlineFiguresSchema.shape,
+) as (keyof SnapshotHeadlineFigures)[];
+
+/** One snapshot in GET /api/snapshots: everything but its history, its amendment and the heavy part of its figures. */
+export const snapshotListItemSchema = snapshotSchema
+  .omit({ figures: true, history: true, amendment: true })
+  .extend({ figures: snapshotHeadlineFiguresSchema });
+export type SnapshotListItem = z.infer<typeof snapshotListItemSchema>;
+export const snapshotListSchema = z.array(snapshotListItemSchema);
 
 export const snapshotVerifySchema = z.object({
   valid: z.boolean(),

@@ -87,6 +87,26 @@ export type RowError = z.infer<typeof rowErrorSchema>;
 
 export const uploadStatusSchema = z.enum(["preview", "committed", "discarded"]);
 
+/** A quarter that a snapshot has signed off: approved (sealed) or filed with the supervisor. */
+export const signedOffQuarterSchema = z.object({
+  entity: z.string(),
+  quarterEnd: z.string(),
+  status: z.enum(["approved", "filed"]),
+});
+export type SignedOffQuarter = z.infer<typeof signedOffQuarterSchema>;
+
+/** A day the file restates: each changed cell as stored → as in the file, and the signed-off quarter it lies in. */
+export const restatedDaySchema = z.object({
+  portfolio: z.string(),
+  date: z.string(),
+  changes: z.array(z.object({ column: z.string(), from: z.number().nullable(), to: z.number().nullable() })),
+  signedOff: signedOffQuarterSchema.nullable(),
+});
+export type RestatedDayView = z.infer<typeof restatedDaySchema>;
+
+/** How many restated days a preview lists cell by cell (the count of all is `restatements`). */
+export const RESTATED_DAYS_SHOWN = 200;
+
 export const uploadPreviewSchema = z.object({
   id: z.number().int(),
   status: uploadStatusSchema,
@@ -112,10 +132,27 @@ export const uploadPreviewSchema = z.object({
   /** Who committed it: the who of every version it wrote (committedAt is their when). */
   committedBy: z.string().nullable(),
   inserted: z.number().int().nullable(),
+  /** The first RESTATED_DAYS_SHOWN restated days, old → new per changed cell (as at the preview). */
+  restatedDays: z.array(restatedDaySchema).default([]),
+  /** Restated days that lie in a signed-off quarter (as at the preview); committing them needs `confirmSignedOff`. */
+  signedOffRestatements: z.number().int().default(0),
+  /** Those quarters, each with how many of its days the file restates. */
+  signedOffQuarters: z.array(signedOffQuarterSchema.extend({ days: z.number().int() })).default([]),
+  /** When a waiting preview can no longer be committed (then it must be uploaded again); null once decided. */
+  expiresAt: z.string().nullable().default(null),
+  expired: z.boolean().default(false),
 });
 export type UploadPreview = z.infer<typeof uploadPreviewSchema>;
-export const uploadListSchema = z.array(uploadPreviewSchema.omit({ errors: true }));
+export const uploadListSchema = z.array(uploadPreviewSchema.omit({ errors: true, restatedDays: true }));
 export type UploadSummary = z.infer<typeof uploadListSchema>[number];
+
+export const commitUploadBodySchema = z
+  .strictObject({
+    /** Required (true) when the file restates a day in an approved or filed quarter: 409 `signed_off_restatement` otherwise. */
+    confirmSignedOff: z.boolean().optional(),
+  })
+  .default({});
+export type CommitUploadBody = z.infer<typeof commitUploadBodySchema>;
 
 export const commitResultSchema = z.object({
   id: z.number().int(),

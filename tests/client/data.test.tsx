@@ -235,6 +235,94 @@ describe("Data › upload preview", () => {
     expect(screen.queryByRole("button", { name: /Commit/ })).not.toBeInTheDocument();
   });
 
+  it("a restated day shows each changed cell old → new; one in an approved quarter is warned of and commits only once confirmed", async () => {
+    const quarter = { entity: "LKS-EU", quarterEnd: "2026-03-31", status: "approved" };
+    const restating = preview({
+      invalid: 0,
+      valid: 2,
+      rows: 2,
+      newRows: 0,
+      restatements: 2,
+      errors: [],
+      errorCount: 0,
+      restatedDays: [
+        {
+          portfolio: "LKS-EU-TOTAL",
+          date: "2026-03-27",
+          changes: [
+            { column: "actual_pnl", from: 310000, to: -120000.5 },
+            { column: "var_99", from: 4100000, to: null },
+          ],
+          signedOff: quarter,
+        },
+        {
+          portfolio: "LKS-EU-TOTAL",
+          date: "2026-04-01",
+          changes: [{ column: "svar_99", from: 1, to: 2 }],
+          signedOff: null,
+        },
+      ],
+      signedOffRestatements: 1,
+      signedOffQuarters: [{ ...quarter, days: 1 }],
+      expiresAt: "2026-04-01T02:02:00.000Z",
+      expired: false,
+    });
+    const api = fakeApi({
+      ...baseRoutes(),
+      "GET /api/uploads": { status: 200, body: [summary(restating)] },
+      "GET /api/uploads/41": { status: 200, body: restating },
+      "GET /api/uploads/41/rows": { status: 200, body: { columns, rows: [goodRow], total: 2 } },
+      "POST /api/uploads/41/commit": {
+        status: 200,
+        body: { id: 41, status: "committed", inserted: 2, restated: 2, unchanged: 0 },
+      },
+    });
+    const user = userEvent.setup();
+    renderApp("/data?upload=41");
+
+    const table = await screen.findByRole("table", { name: "Restated days of upload #41" });
+    const [first, second] = within(table).getAllByRole("row").slice(1);
+    expect(first).toHaveTextContent("actual_pnl 310,000.00 → −120,000.50");
+    expect(first).toHaveTextContent("var_99 4,100,000.00 → empty");
+    expect(first).toHaveTextContent("LKS-EU Q1 2026 (approved)");
+    expect(second).toHaveTextContent("svar_99 1.00 → 2.00");
+    expect(second.lastElementChild).toHaveTextContent("—");
+    expect(screen.getByRole("note")).toHaveTextContent(
+      "This file restates 1 day in signed-off quarters: LKS-EU Q1 2026 (approved), 1 day.",
+    );
+    expect(screen.getByText(/Can be committed until/)).toBeInTheDocument();
+
+    const commit = screen.getByRole("button", { name: "Commit 2 rows" });
+    expect(commit).toBeDisabled();
+    await user.click(screen.getByRole("checkbox", { name: "I mean to restate 1 day of signed-off quarters" }));
+    expect(commit).toBeEnabled();
+    await user.click(commit);
+    await screen.findByText(/Upload #41 is committed/);
+    expect(api.callsTo("POST", "/api/uploads/41/commit")[0].body).toEqual({ confirmSignedOff: true });
+  });
+
+  it("an expired preview says so and cannot be committed", async () => {
+    const old = preview({
+      invalid: 0,
+      valid: 1250,
+      errors: [],
+      errorCount: 0,
+      expiresAt: "2026-04-01T02:02:00.000Z",
+      expired: true,
+    });
+    fakeApi({
+      ...baseRoutes(),
+      "GET /api/uploads": { status: 200, body: [summary(old)] },
+      "GET /api/uploads/41": { status: 200, body: old },
+      "GET /api/uploads/41/rows": { status: 200, body: { columns, rows: [goodRow], total: 1250 } },
+    });
+    renderApp("/data?upload=41");
+    expect(await screen.findByText(/^Expired .*: upload the file again to commit it$/)).toBeInTheDocument();
+    expect(screen.getByRole("button", { name: "Commit 1,250 rows" })).toBeDisabled();
+    const history = screen.getByRole("table", { name: "Uploads, newest first" });
+    expect(within(history).getByText("Expired (not committed)")).toBeInTheDocument();
+  });
+
   it("discarding a preview asks once more, sends DELETE and closes the preview", async () => {
     const api = fakeApi({
       ...baseRoutes(),

@@ -496,3 +496,43 @@ describe("Filings › the pack download", () => {
     expect(await within(detail).findByRole("alert")).toHaveTextContent("No filing 31.");
   });
 });
+
+describe("Filings › an amended quarter", () => {
+  const ORIGINAL_HASH = "1a2b3c4d5e6f708192a3b4c5d6e7f8091a2b3c4d5e6f708192a3b4c5d6e7f809";
+  const AMENDMENT_HASH = "9f8e7d6c5b4a39281706f5e4d3c2b1a09f8e7d6c5b4a39281706f5e4d3c2b1a0";
+  const original = () => filing({ snapshotHash: ORIGINAL_HASH, amendedBy: 15 });
+  const amendment = () =>
+    filing({
+      id: 34,
+      snapshotId: 15,
+      counted: 5,
+      multiplier: 3.4,
+      fileName: "quartermark-lks-eu-2026-09-30-amendment-15-pack.pdf",
+      sentAt: "2026-11-20T09:30:00.000Z",
+      snapshotHash: AMENDMENT_HASH,
+      amends: 12,
+    });
+
+  it("when the supervisor opens an amendment's filing, then it names the original filing with a link, and both snapshots' hashes show", async () => {
+    fakeApi(filingRoutes("regulator", [amendment(), original()]));
+    const user = userEvent.setup();
+    renderApp("/filings?filing=34");
+
+    const table = await screen.findByRole("table", { name: "Filed packs, newest first" });
+    expect(within(table).getByText("Amendment of snapshot #12")).toBeInTheDocument();
+    expect(within(table).getByText("Amended by snapshot #15")).toBeInTheDocument();
+    const link = screen.getByRole("region", { name: "Amendment of an earlier filing" });
+    expect(link).toHaveTextContent(
+      "This pack amends the filing of snapshot #12 (filing #31, sent 08 Oct 2026, 14:30 UTC)",
+    );
+    expect(within(link).getByText(AMENDMENT_HASH)).toBeInTheDocument();
+    expect(within(link).getByText(ORIGINAL_HASH)).toBeInTheDocument();
+
+    await user.click(within(link).getByRole("link", { name: "filing #31" }));
+    const back = await screen.findByRole("region", { name: "Amended" });
+    expect(back).toHaveTextContent("Snapshot #15 amends this filing: filing #34, sent 20 Nov 2026, 09:30 UTC.");
+    expect(back).toHaveTextContent("This pack stands as it was sent.");
+    expect(within(back).getByText(ORIGINAL_HASH)).toBeInTheDocument();
+    expect(within(back).getByText(AMENDMENT_HASH)).toBeInTheDocument();
+  });
+});

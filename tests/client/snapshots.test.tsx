@@ -1229,3 +1229,168 @@ describe("Quarter close › which quarter ends may be prepared", () => {
     ]);
   });
 });
+
+// Amended filings (docs/api.md#amendments). Display fixtures: the amendment below drops one of six
+// exceptions, so the zone stays yellow and the plus factor falls from 0.50 to 0.40 (BCBS 1996 Table 2).
+const RESTATED = {
+  at: "2026-02-03T14:20:00.000Z",
+  detail: "1 day inside this snapshot's window changed by upload #88: 1 restated (LKS-EU-TOTAL 2025-11-14).",
+};
+
+const amendmentOf12 = (over: Partial<Snapshot> = {}) =>
+  snapshot({
+    id: 13,
+    status: "draft",
+    counted: 5,
+    plusFactor: 0.4,
+    multiplier: 3.4,
+    capital: 400_714_286,
+    figures: figures({
+      exceptions: { actual: 4, hypothetical: 4, counted: 5, excluded: 1 },
+      plusFactor: 0.4,
+      multiplier: 3.4,
+      capital: 400_714_286,
+    }),
+    amends: 12,
+    amendment: {
+      amends: 12,
+      original: {
+        snapshotId: 12,
+        hash: HASH,
+        approvedAt: "2026-01-12T09:05:00.000Z",
+        filingId: 31,
+        filedAt: "2026-01-14T10:00:00.000Z",
+        filedBy: "Bram Oduya",
+        packSha256: PACK_SHA256,
+      },
+      reason: RESTATED.detail,
+      changes: [
+        { key: "counted", label: "Counted exceptions", group: "headline", unit: "count", before: 6, after: 5 },
+        { key: "plusFactor", label: "Plus factor", group: "headline", unit: "factor", before: 0.5, after: 0.4 },
+        {
+          key: "capital",
+          label: "Capital requirement",
+          group: "headline",
+          unit: "amount",
+          before: 412_500_000,
+          after: 400_714_286,
+        },
+        {
+          key: "c24.r010.c140",
+          label: "Number of overshootings during previous 250 working days",
+          group: "return",
+          templateRow: "C 24.00 r010 c140",
+          unit: "count",
+          before: 6,
+          after: 5,
+        },
+      ],
+      exceptions: [{ date: "2025-11-14", change: "removed", detail: "No longer an exception after the restatement." }],
+      capitalImpact: { before: 412_500_000, after: 400_714_286, change: -11_785_714, currency: "EUR" },
+    },
+    history: [
+      { at: "2026-02-04T09:00:00.000Z", by: "analyst@larkspur.test", action: "prepared", comment: "Amends #12." },
+    ],
+    ...over,
+  });
+
+describe("Quarter close › amending a filed quarter", () => {
+  it("when a filed quarter carries a restatement flag, then the analyst confirms and prepares its amendment, and its view shows what changed", async () => {
+    const store = [filed({ restatedAfterSignOff: RESTATED })];
+    const api = fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes(store, {
+        "GET /api/filings": { status: 200, body: [filingOf()] },
+        "POST /api/snapshots": () => {
+          store[0] = { ...store[0], amendedBy: 13 };
+          return answer(store, amendmentOf12(), 201);
+        },
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    expect(await screen.findByText(/A day inside it was restated since: prepare an amendment/)).toBeInTheDocument();
+    await user.click(screen.getByRole("button", { name: "Prepare amendment" }));
+    const confirm = screen.getByRole("group", { name: "Prepare an amendment" });
+    expect(confirm).toHaveTextContent("computed on today's data as a new draft that names snapshot #12");
+    expect(confirm).toHaveTextContent("Snapshot #12, its filing and its pack stay exactly as filed.");
+    expect(api.callsTo("POST", "/api/snapshots")).toHaveLength(0);
+    await user.click(within(confirm).getByRole("button", { name: "Prepare the amendment" }));
+
+    expect(api.callsTo("POST", "/api/snapshots")[0].body).toEqual({
+      entity: "LKS-EU",
+      quarterEnd: "2025-12-31",
+      amends: 12,
+    });
+    expect(await screen.findByText(/The amendment of Q4 2025 \(#13\) is prepared as a draft/)).toBeInTheDocument();
+    await waitFor(() =>
+      expect(screen.getByTestId("amendment-links")).toHaveTextContent("Amends #12 (filed 14 Jan 2026, 10:00 UTC)"),
+    );
+    const links = screen.getByTestId("amendment-links");
+    expect(within(links).getByRole("link", { name: "Amends #12" })).toHaveAttribute(
+      "href",
+      "/quarters?entity=LKS-EU&snapshot=12",
+    );
+    const table = screen.getByRole("table", { name: "Before and after: 4 figures changed" });
+    const row = (name: string) => within(table).getByText(name).closest("tr")!.textContent!.replace(/\s+/g, " ");
+    expect(row("Counted exceptions")).toBe("Counted exceptions—65");
+    expect(row("Plus factor")).toBe("Plus factor—0.500.40");
+    expect(row("Capital requirement")).toBe("Capital requirement—412,500,000 EUR400,714,286 EUR");
+    expect(row("Number of overshootings during previous 250 working days")).toContain("C 24.00 r010 c140");
+    expect(screen.getByTestId("capital-impact")).toHaveTextContent("−11,785,714 EUR");
+    expect(screen.getByRole("table", { name: "Exceptions added, removed or changed" })).toHaveTextContent(
+      "2025-11-14RemovedNo longer an exception after the restatement.",
+    );
+    expect(screen.getByText(HASH)).toBeInTheDocument();
+  });
+
+  it("when the amendment is filed, then the original says its restatement is resolved, links to it, and offers no second amendment", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes(
+        [
+          filed({
+            restatedAfterSignOff: { ...RESTATED, resolvedBy: { snapshotId: 13, filedAt: "2026-02-06T08:00:00.000Z" } },
+            amendedBy: 13,
+          }),
+        ],
+        { "GET /api/filings": { status: 200, body: [filingOf()] } },
+      ),
+    });
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    const resolved = await screen.findByRole("note", { name: "Restatement resolved" });
+    expect(resolved).toHaveTextContent(
+      "Restatement resolved: the amendment #13 corrects this quarter and was filed on 06 Feb 2026, 08:00 UTC.",
+    );
+    expect(screen.queryByRole("note", { name: "Restated after sign-off" })).not.toBeInTheDocument();
+    expect(within(screen.getByTestId("amendment-links")).getByRole("link", { name: "Amended by #13" })).toHaveAttribute(
+      "href",
+      "/quarters?entity=LKS-EU&snapshot=13",
+    );
+    expect(screen.queryByRole("button", { name: "Prepare amendment" })).not.toBeInTheDocument();
+  });
+
+  it("when the server refuses the amendment (one is already in sign-off), then its reason shows and nothing changes", async () => {
+    const store = [filed({ restatedAfterSignOff: RESTATED })];
+    fakeApi({
+      "GET /api/auth/session": signedInAs("analyst"),
+      ...snapshotRoutes(store, {
+        "GET /api/filings": { status: 200, body: [filingOf()] },
+        "POST /api/snapshots": error(
+          409,
+          "amendment_open",
+          "Snapshot #12 already has an amendment in sign-off (#13, submitted); finish or return that one first.",
+        ),
+      }),
+    });
+    const user = userEvent.setup();
+    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+
+    await user.click(await screen.findByRole("button", { name: "Prepare amendment" }));
+    await user.click(screen.getByRole("button", { name: "Prepare the amendment" }));
+    expect(await screen.findByText(/already has an amendment in sign-off \(#13, submitted\)/)).toBeInTheDocument();
+    expect(screen.getByTestId("snapshot-status")).toHaveTextContent("Filed");
+  });
+});

@@ -160,7 +160,9 @@ describe("FRTB capital on a date (MAR33.41–33.45)", () => {
     const q4 = weekdays("2025-10-01", 13);
     const csv = [HEADER, ...q4.map((d) => `${a.code},${d},-150,10,100,80,200,30,25,500,10,40`)].join("\n");
     const res = await uploadCsv(app, cookie, `${csv}\n`);
-    expect((await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie)).status).toBe(200);
+    expect(res.body.signedOffRestatements).toBe(13); // the preview warns: Q4 2025 is approved
+    const commit = request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
+    expect((await commit.send({ confirmSignedOff: true })).status).toBe(200);
 
     const q4Row = await FrtbDeskStatusModel.findOne({ where: { portfolioId: a.id, periodEnd: "2025-12-31" } });
     expect(q4Row).toMatchObject({ status: "in-model", backtest99: 0 }); // as signed off

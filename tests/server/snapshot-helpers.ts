@@ -50,10 +50,14 @@ export async function signOffBook() {
   };
 }
 
+/** Commits a file; a restatement of a signed-off quarter is confirmed (uploads.test.ts checks the refusal without). */
 export async function uploadAndCommit(cookie: string, csv: string) {
   const preview = await uploadCsv(app, cookie, csv, `daily-${Math.random().toString(36).slice(2)}.csv`);
   expect(preview.body.invalid, JSON.stringify(preview.body.errors)).toBe(0);
-  const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
+  const commit = await request(app)
+    .post(`/api/uploads/${preview.body.id}/commit`)
+    .set("Cookie", cookie)
+    .send({ confirmSignedOff: true });
   expect(commit.status).toBe(200);
   return commit.body as { inserted: number; restated: number };
 }

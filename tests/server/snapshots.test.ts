@@ -8,7 +8,12 @@ import { quarterFigures } from "../../server/modules/backtest/quarter-figures";
 import { UserModel } from "../../server/models/user";
 import { capitalAddOn, capitalRequirement } from "../../shared/backtest/capital";
 import { capitalHistorySchema } from "../../shared/schemas/capital";
-import { snapshotSchema, snapshotVerifySchema } from "../../shared/schemas/snapshot";
+import {
+  snapshotHeadlineFiguresSchema,
+  snapshotListSchema,
+  snapshotSchema,
+  snapshotVerifySchema,
+} from "../../shared/schemas/snapshot";
 import type { Observation } from "../../shared/backtest/types";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { ingestFixture } from "./ingest-helpers";
@@ -450,6 +455,40 @@ describe("after sign-off", () => {
       [Q2, "draft"],
       [Q3, "approved"],
     ]);
+  });
+
+  it("when an analyst lists snapshots, then each item carries the headline of its figures without the window's days, and the detail keeps everything", async () => {
+    const book = await signOffBook();
+    await DataFindingModel.create({
+      portfolioId: book.portfolio.id,
+      kind: "outlier",
+      dateFrom: "2026-08-12",
+      dateTo: "2026-08-12",
+      detail: "check",
+      note: null,
+      closedBy: null,
+      closedAt: null,
+    });
+    const q3 = (await prepare(book)).body;
+    const q2 = (await prepare(book, Q2)).body;
+    const list = await request(app).get(`/api/snapshots?entity=${book.entity.code}`).set("Cookie", book.cookie);
+    expect(list.status).toBe(200);
+    expect(() => snapshotListSchema.parse(list.body)).not.toThrow();
+    expect(list.body.map((s: { id: number }) => s.id)).toEqual([q3.id, q2.id]);
+    const [item] = list.body;
+    // Light: no history, no window days, exceptions or capital details (GET /api/snapshots/:id has them).
+    expect(item).not.toHaveProperty("history");
+    expect(item).not.toHaveProperty("amendment");
+    for (const heavy of ["days", "exceptionDetail", "exceptionDates", "capitalDetail", "desks", "tests", "settings"])
+      expect(item.figures).not.toHaveProperty(heavy);
+    const detail = (await request(app).get(`/api/snapshots/${q3.id}`).set("Cookie", book.cookie)).body;
+    expect(detail.figures.days).toHaveLength(250);
+    expect(detail.figures.exceptionDates).toEqual(book.exceptionDays);
+    // Everything the item carries is the detail's own, the open finding in Q3 (not in Q2) included.
+    const { history: _history, amendment: _amendment, figures, ...rest } = detail;
+    expect(item).toEqual({ ...rest, figures: snapshotHeadlineFiguresSchema.parse(figures) });
+    expect([item.openFindings, list.body[1].openFindings]).toEqual([1, 0]);
+    expect(JSON.stringify(item).length).toBeLessThan(JSON.stringify(detail).length / 5);
   });
 
   it("when a quarter's window held fewer than 250 days, then its capital history says the window is short (the zone is provisional)", async () => {

@@ -1,13 +1,13 @@
-import type { Snapshot, SnapshotReturn } from "../../../shared/schemas/snapshot";
+import type { SnapshotListItem, SnapshotReturn } from "../../../shared/schemas/snapshot";
 import type { Column, Table } from "../../kit/table-export";
 
 /** The quarters' snapshots, as Quarter close lists them (several entities: the currency is a column). */
 export function snapshotsTable(
-  rows: Snapshot[],
+  rows: SnapshotListItem[],
   currencies: Map<string, string>,
   entity: string | undefined,
-): Table<Snapshot> {
-  const columns: Column<Snapshot>[] = [
+): Table<SnapshotListItem> {
+  const columns: Column<SnapshotListItem>[] = [
     { header: "Snapshot", kind: "integer", value: (s) => s.id },
     { header: "Entity", kind: "text", value: (s) => s.entity },
     { header: "Entity name", kind: "text", value: (s) => s.entityName },

@@ -21,8 +21,19 @@ import { unpackBytes } from "./stored-bytes";
 import { checkedRowsOf, forgetCheckedRows } from "./preview-cache";
 import { duplicateError, findCommittedTwin, loadReferenceData, parseFile } from "./upload-files";
 import { recheckReferenceData, type CsvReferenceData, type ParsedRow } from "../../../shared/ingest/parse-csv";
-import { classify, currentDaysInSpan, spanOf, type NewVersion, type StoredDay } from "../../../shared/ingest/row-plan";
-import type { CommitResult } from "../../../shared/schemas/upload";
+import {
+  classify,
+  currentDaysInSpan,
+  restatedDays,
+  spanOf,
+  type NewVersion,
+  type StoredDay,
+} from "../../../shared/ingest/row-plan";
+import { quarterLabel } from "../../../shared/backtest/quarters";
+import type { CommitResult, CommitUploadBody } from "../../../shared/schemas/upload";
+import { signedOffDays } from "./signed-off-days";
+import { previewExpiry } from "./uploads.service";
+import { config } from "../../config";
 import type { SignedIn } from "../../kit/actor";
 
 /** Portfolio ids the preview named (from its summary), sorted. */
@@ -45,13 +56,21 @@ async function previewPortfolioIds(upload: UploadModel, transaction: Transaction
  * the old one; the same file can be committed only once (unique committed_sha256). The rows are
  * sent as pipelined multi-row INSERTs, and the data-quality checks run while MariaDB writes them.
  */
-export async function commitUpload(id: number, actor: SignedIn): Promise<CommitResult> {
+export async function commitUpload(id: number, actor: SignedIn, body: CommitUploadBody = {}): Promise<CommitResult> {
   let written: { portfolioId: number; date: string }[] = [];
   const result = await sequelize.transaction(async (transaction) => {
     const upload = await UploadModel.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
     if (!upload) throw new NotFoundError(`No upload #${id}.`);
     if (upload.status === "committed") throw new ConflictError(`Upload #${id} is already committed.`);
     if (upload.status === "discarded") throw new ConflictError(`Upload #${id} was discarded; upload the file again.`);
+    const expiry = previewExpiry(upload.createdAt);
+    if (expiry.getTime() <= Date.now()) {
+      throw new AppError(
+        409,
+        "preview_expired",
+        `The preview of upload #${id} expired at ${expiry.toISOString().slice(0, 16).replace("T", " ")} UTC (previews wait ${config.uploads.previewTtlHours} hours). Upload the file again: it is checked against the data as it now stands. Nothing was written.`,
+      );
+    }
     // Commits touching the same portfolios take turns (locks in id order, so no deadlock).
     const lockedIds = await previewPortfolioIds(upload, transaction);
     // The portfolio rows this commit holds: the only parents its rows may name (queueInsertVersions checks).
@@ -78,6 +97,21 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
     const stored = range
       ? await loadCurrentDays(portfolioIds, range.from, range.to, transaction, true)
       : new Map<string, StoredDay>();
+    // A day restated in an approved or filed quarter is committed only when the person said so, knowing it.
+    const signedOff = await signedOffDays(restatedDays(rows, ref.ids, stored).keys, transaction);
+    if (signedOff.count > 0 && body.confirmSignedOff !== true) {
+      const quarters = signedOff.quarters
+        .map(
+          (q) => `${q.entity} ${quarterLabel(q.quarterEnd)} (${q.status}, ${q.days} ${q.days === 1 ? "day" : "days"})`,
+        )
+        .join(", ");
+      throw new AppError(
+        409,
+        "signed_off_restatement",
+        `This file restates ${signedOff.count} ${signedOff.count === 1 ? "day" : "days"} in signed-off quarters: ${quarters}. Their snapshots keep the figures as signed off and are marked restated. Confirm that you mean to restate them and commit again; nothing was written.`,
+        { quarters: signedOff.quarters },
+      );
+    }
     // What the checks need from the database is read before the writes are queued behind it.
     const findingInputs = range ? await loadFindingInputs(portfolioIds, { transaction, outside: range }) : [];
 
@@ -139,7 +173,15 @@ export async function commitUpload(id: number, actor: SignedIn): Promise<CommitR
       actor,
       "upload.commit",
       `upload #${id}`,
-      { after: { inserted: inserts.length, restated, unchanged, sha256: upload.sha256 } },
+      {
+        after: {
+          inserted: inserts.length,
+          restated,
+          unchanged,
+          sha256: upload.sha256,
+          ...(signedOff.count > 0 ? { signedOffRestated: signedOff.count, signedOffQuarters: signedOff.quarters } : {}),
+        },
+      },
       transaction,
     );
     return { id, status: "committed" as const, inserted: inserts.length, restated, unchanged };

@@ -5,7 +5,7 @@ import { createGuardedRouter } from "../../http/routes";
 import { signedInActor } from "../../http/context";
 import { BadRequestError, ServerBusyError, parseInput } from "../../errors";
 import { Semaphore, SemaphoreRefusal } from "../../semaphore";
-import { UPLOAD_MAX_BYTES, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
+import { UPLOAD_MAX_BYTES, commitUploadBodySchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
 import { idParamSchema } from "../../../shared/schemas/common";
 import * as uploads from "./uploads.service";
 import { commitUpload } from "./upload-commit";
@@ -105,7 +105,7 @@ export function uploadsRouter(limits: UploadLimits = defaultUploadLimits()) {
   });
   r.post("/api/uploads/:id/commit", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await commitUpload(id, signedInActor(req)));
+    res.json(await commitUpload(id, signedInActor(req), parseInput(commitUploadBodySchema, req.body ?? {})));
   });
   r.delete("/api/uploads/:id", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

@@ -14,8 +14,17 @@ import {
   receiveWhole,
   type Reference,
 } from "./upload-files";
-import { classify, dateRange } from "../../../shared/ingest/row-plan";
-import type { RowError, UploadPreview, UploadSummary } from "../../../shared/schemas/upload";
+import { classify, dateRange, restatedDays } from "../../../shared/ingest/row-plan";
+import {
+  RESTATED_DAYS_SHOWN,
+  type RestatedDayView,
+  type RowError,
+  type SignedOffQuarter,
+  type UploadPreview,
+  type UploadSummary,
+} from "../../../shared/schemas/upload";
+import { signedOffDays } from "./signed-off-days";
+import { config } from "../../config";
 import type { SignedIn } from "../../kit/actor";
 import { emailsById } from "../../kit/lookups";
 
@@ -40,6 +49,11 @@ async function peopleOf(rows: readonly UploadModel[]): Promise<Map<number, strin
   return emailsById(rows.flatMap((r) => [r.uploadedBy, r.committedBy]));
 }
 
+/** When a preview made at `createdAt` stops being committable (config.uploads.previewTtlHours later). */
+export function previewExpiry(createdAt: Date): Date {
+  return new Date(createdAt.getTime() + config.uploads.previewTtlHours * 3_600_000);
+}
+
 async function toPreview(row: UploadModel, people?: ReadonlyMap<number, string>): Promise<UploadPreview> {
   const known = people ?? (await peopleOf([row]));
   const emailOf = (id: number | null) => (id === null ? null : (known.get(id) ?? "unknown"));
@@ -49,8 +63,12 @@ async function toPreview(row: UploadModel, people?: ReadonlyMap<number, string>)
         from: string | null;
         to: string | null;
         errorCount: number;
+        restatedDays?: RestatedDayView[];
+        signedOffRestatements?: number;
+        signedOffQuarters?: (SignedOffQuarter & { days: number })[];
       })
     : null;
+  const expiresAt = row.status === "preview" ? previewExpiry(row.createdAt) : null;
   const errors = row.errorsJson ? (JSON.parse(row.errorsJson) as RowError[]) : [];
   return {
     id: row.id,
@@ -73,6 +91,11 @@ async function toPreview(row: UploadModel, people?: ReadonlyMap<number, string>)
     committedAt: row.committedAt ? row.committedAt.toISOString() : null,
     committedBy: emailOf(row.committedBy),
     inserted: row.insertedCount,
+    restatedDays: summary?.restatedDays ?? [],
+    signedOffRestatements: summary?.signedOffRestatements ?? 0,
+    signedOffQuarters: summary?.signedOffQuarters ?? [],
+    expiresAt: expiresAt ? expiresAt.toISOString() : null,
+    expired: expiresAt !== null && expiresAt.getTime() <= Date.now(),
   };
 }
 
@@ -97,6 +120,15 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
     : new Map();
   const { fresh, restated, unchanged } = classify(parsed.rows, ref.ids, stored, false);
   const invalid = parsed.invalidCount;
+  // Each restated day, old → new per changed cell, and whether its quarter is signed off (checked again at commit).
+  const restatement = restatedDays(parsed.rows, ref.ids, stored, RESTATED_DAYS_SHOWN);
+  const signedOff = await signedOffDays(restatement.keys);
+  const shownDays: RestatedDayView[] = restatement.detail.map((d) => ({
+    portfolio: d.portfolio,
+    date: d.date,
+    changes: d.changes,
+    signedOff: signedOff.quarterOf(d.portfolioId, d.date),
+  }));
 
   const row = await sequelize.transaction(async (transaction) => {
     const created = await UploadModel.create(
@@ -121,6 +153,9 @@ export async function previewUpload(file: IncomingFile, actor: SignedIn): Promis
           from: range?.from ?? null,
           to: range?.to ?? null,
           errorCount: parsed.errorCount,
+          restatedDays: shownDays,
+          signedOffRestatements: signedOff.count,
+          signedOffQuarters: signedOff.quarters,
         }),
         committedAt: null,
       },
@@ -158,7 +193,7 @@ export async function listUploads(): Promise<UploadSummary[]> {
   const rows = await UploadModel.findAll({ order: [["id", "DESC"]], limit: 200 });
   const people = await peopleOf(rows);
   const previews = await Promise.all(rows.map((r) => toPreview(r, people)));
-  return previews.map(({ errors: _errors, ...rest }) => rest);
+  return previews.map(({ errors: _errors, restatedDays: _days, ...rest }) => rest);
 }
 
 export async function getUpload(id: number): Promise<UploadPreview> {

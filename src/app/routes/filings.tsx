@@ -93,7 +93,18 @@ export default function FilingsRoute() {
         {filings.length > 0 && <TableDownloads path="/api/filings" what="the filings" />}
       </section>
       {selected ? (
-        <FilingDetail key={selected.id} filing={selected} role={role} regime={regimeOf(selected.entity)} />
+        <FilingDetail
+          key={selected.id}
+          filing={selected}
+          role={role}
+          regime={regimeOf(selected.entity)}
+          filingHref={filingHref}
+          related={filings.find(
+            (f) =>
+              (selected.amends !== null && f.snapshotId === selected.amends) ||
+              (selected.amendedBy !== null && f.snapshotId === selected.amendedBy),
+          )}
+        />
       ) : (
         params.filing !== undefined && (
           <FormMessage>

@@ -46,7 +46,12 @@ export const clientLoader =
     if (opened && entity !== undefined && opened.entity !== entity)
       throw redirect(paths.snapshots.href({ entity: opened.entity, snapshot: opened.id }));
     const code = opened?.entity ?? entity ?? entities[0]?.code;
-    if (code) await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined);
+    const list = code
+      ? await queryClient.ensureQueryData(snapshotQueries.list(code)).catch(() => undefined)
+      : undefined;
+    // The list carries headlines only: the newest quarter, opened by default, is read in full before the screen shows.
+    if (!snapshot && list?.[0])
+      await queryClient.ensureQueryData(snapshotQueries.detail(list[0].id)).catch(() => undefined);
     return null;
   };
 
@@ -81,7 +86,6 @@ function emptyFor(role: Role, entity: string) {
 
 function SelectedSnapshot({
   id,
-  listed,
   role,
   userEmail,
   findingsHref,
@@ -89,15 +93,14 @@ function SelectedSnapshot({
   onPrepared,
 }: {
   id: number;
-  listed?: Snapshot;
   role: Role;
   userEmail: string;
   findingsHref: (entity: string) => string;
   filingHref: (id: number) => string;
   onPrepared: (s: Snapshot) => void;
 }) {
-  // The list already holds the snapshot: show it at once while its own answer is read.
-  const { data, error, isFetching } = useQuery({ ...snapshotQueries.detail(id), placeholderData: listed });
+  // The list carries each quarter's headline only: days, exceptions and history come with the snapshot's own answer.
+  const { data, error, isFetching } = useQuery(snapshotQueries.detail(id));
   // The supervisor contacts the filing confirmation names before anything is sent.
   const entities = useQuery(entityQueries.all());
   const entityRow = entities.data?.find((e) => e.code === data?.entity);
@@ -144,6 +147,7 @@ function SelectedSnapshot({
         onPrepared={onPrepared}
         filing={filing}
         filingHref={filingHref}
+        snapshotHref={(other) => paths.snapshots.href({ entity: data.entity, snapshot: other })}
         filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
         recipients={recipients}
@@ -290,7 +294,6 @@ export default function SnapshotsRoute() {
             <SelectedSnapshot
               key={selectedId}
               id={selectedId}
-              listed={snapshots.find((s) => s.id === selectedId)}
               role={role}
               userEmail={user!.email}
               findingsHref={(e) => paths.data.href({ entity: e })}

@@ -53,6 +53,12 @@ export function FilingListTable({
                   {quarter}
                 </Link>
                 <span className="figures block text-2xs text-ink-muted">{f.quarterEnd}</span>
+                {f.amends !== null && (
+                  <span className="block text-2xs font-medium">Amendment of snapshot #{f.amends}</span>
+                )}
+                {f.amendedBy !== null && (
+                  <span className="block text-2xs font-medium">Amended by snapshot #{f.amendedBy}</span>
+                )}
               </Td>
               <Td>
                 <ZoneBadge zone={f.zone} regime={regimeOf(f.entity)} />

@@ -1,6 +1,6 @@
 import { useRef, useState, type FormEvent } from "react";
 import { Link } from "react-router-dom";
-import { createSnapshotSchema, type Snapshot } from "@shared/schemas/snapshot";
+import { createSnapshotSchema, type Snapshot, type SnapshotListItem } from "@shared/schemas/snapshot";
 import { quarterLabel } from "@shared/backtest/quarters";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
@@ -11,7 +11,7 @@ import { blockingSnapshotOf, usePrepareSnapshot } from "../api/snapshot-queries"
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 
 /** What preparing this quarter again would do, said before the button is pressed. */
-function hintFor(quarterEnd: string, existing: Snapshot | undefined): string {
+function hintFor(quarterEnd: string, existing: SnapshotListItem | undefined): string {
   const label = quarterLabel(quarterEnd);
   if (!existing) return `Freezes ${label}'s figures as they stand on today's data, as a draft to check and submit.`;
   if (existing.status === "draft" || existing.status === "returned")
@@ -30,13 +30,14 @@ export function PrepareSnapshotForm({
   entity: string;
   /** Ended quarter ends, newest first; the first is the default. */
   quarterEnds: string[];
-  snapshots: Snapshot[];
+  snapshots: SnapshotListItem[];
   snapshotHref: (id: number) => string;
   onPrepared: (snapshot: Snapshot) => void;
 }) {
   const prepare = usePrepareSnapshot();
   const formRef = useRef<HTMLFormElement>(null);
-  const existingOf = (q: string) => snapshots.find((s) => s.quarterEnd === q);
+  // The quarter's original snapshot: an amendment of a filed quarter is prepared from that snapshot's view.
+  const existingOf = (q: string) => snapshots.find((s) => s.quarterEnd === q && s.amends === null);
   const preparable = (q: string) => {
     const s = existingOf(q);
     return !s || s.status === "draft" || s.status === "returned";

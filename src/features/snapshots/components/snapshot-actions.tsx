@@ -274,20 +274,101 @@ function PrepareAgain({
           disabled={prepare.isPending}
           onClick={() =>
             // The promise outlives this button, which the new draft replaces; a refusal shows through prepare.error.
-            prepare.mutateAsync({ entity: snapshot.entity, quarterEnd: snapshot.quarterEnd }).then(
-              (s) => {
-                onDone(
-                  `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
-                );
-                onPrepared(s);
-              },
-              () => undefined,
-            )
+            prepare
+              .mutateAsync({
+                entity: snapshot.entity,
+                quarterEnd: snapshot.quarterEnd,
+                // A returned amendment is prepared again as the amendment it is.
+                ...(snapshot.amends !== null ? { amends: snapshot.amends } : {}),
+              })
+              .then(
+                (s) => {
+                  onDone(
+                    `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
+                  );
+                  onPrepared(s);
+                },
+                () => undefined,
+              )
           }
         >
           {prepare.isPending ? "Computing the figures…" : "Prepare again"}
         </Button>
       </div>
+    </div>
+  );
+}
+
+/**
+ * A day inside a filed quarter was restated: the analyst prepares an amendment, after a confirmation
+ * that says what will happen (a new draft, the same sign-off, the filed snapshot left as it is).
+ */
+function PrepareAmendment({
+  snapshot,
+  findingsHref,
+  onDone,
+  onPrepared,
+}: {
+  snapshot: Snapshot;
+  findingsHref: string;
+  onDone: (message: string) => void;
+  onPrepared: (s: Snapshot) => void;
+}) {
+  const prepare = usePrepareSnapshot();
+  const [confirming, setConfirming] = useState(false);
+  const opener = useFocusReturn<HTMLButtonElement>();
+  const quarter = quarterLabel(snapshot.quarterEnd);
+  return (
+    <div className="flex flex-col gap-2">
+      <Refusal error={prepare.error} findingsHref={findingsHref} />
+      {confirming ? (
+        <Confirmation
+          label="Prepare an amendment"
+          text={
+            <>
+              <p>
+                An amendment of {quarter} is computed on today's data as a new draft that names snapshot #{snapshot.id}.
+                It lists every figure that changed against the filed one and the capital impact.
+              </p>
+              <p className="mt-1">
+                It then goes through the same sign-off: you submit it, a chief risk officer who did not prepare it
+                approves it and files it with the supervisor. Snapshot #{snapshot.id}, its filing and its pack stay
+                exactly as filed.
+              </p>
+            </>
+          }
+          confirm={prepare.isPending ? "Computing the figures…" : "Prepare the amendment"}
+          busy={prepare.isPending}
+          onConfirm={() =>
+            // The promise outlives this form, which the new draft replaces; a refusal shows through prepare.error.
+            prepare.mutateAsync({ entity: snapshot.entity, quarterEnd: snapshot.quarterEnd, amends: snapshot.id }).then(
+              (s) => {
+                onDone(
+                  `The amendment of ${quarter} (#${s.id}) is prepared as a draft: check what changed, then submit it for sign-off.`,
+                );
+                onPrepared(s);
+              },
+              () => setConfirming(false),
+            )
+          }
+          onCancel={() => {
+            opener.returnFocus();
+            setConfirming(false);
+          }}
+        />
+      ) : (
+        <div>
+          <Button
+            ref={opener.ref}
+            onClick={() => {
+              prepare.reset();
+              setConfirming(true);
+            }}
+          >
+            Prepare amendment
+          </Button>
+        </div>
+      )}
     </div>
   );
 }
@@ -345,6 +426,13 @@ function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
         <>
           Approved by {snapshot.approvedBy ?? "—"} and filed with the supervisor. The figures are sealed and no longer
           change.
+          {snapshot.restatedAfterSignOff &&
+            !snapshot.restatedAfterSignOff.resolvedBy &&
+            (snapshot.amendedBy !== null
+              ? ` Its amendment #${snapshot.amendedBy} is in sign-off.`
+              : role === "analyst"
+                ? " A day inside it was restated since: prepare an amendment to file the corrected figures."
+                : " A day inside it was restated since: the analysts prepare an amendment to file the corrected figures.")}
         </>
       );
   }
@@ -388,6 +476,16 @@ export function SnapshotActions({
     );
   else if (role === "analyst" && snapshot.status === "returned")
     action = <PrepareAgain snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />;
+  else if (
+    role === "analyst" &&
+    snapshot.status === "filed" &&
+    snapshot.restatedAfterSignOff &&
+    !snapshot.restatedAfterSignOff.resolvedBy &&
+    snapshot.amendedBy === null
+  )
+    action = (
+      <PrepareAmendment snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />
+    );
   else if (role === "cro" && snapshot.status === "submitted")
     action = (
       <SignOffForm

@@ -13,9 +13,26 @@ import { SnapshotFigures } from "./snapshot-figures";
 import { SnapshotFiling, type FilingLookup } from "./snapshot-filing";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
 import { SnapshotReturn } from "./snapshot-return";
+import { AmendmentChanges } from "./amendment-changes";
 
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
-function RestatedWarning({ restated }: { restated: NonNullable<Snapshot["restatedAfterSignOff"]> }) {
+function RestatedWarning({
+  restated,
+  snapshotHref,
+}: {
+  restated: NonNullable<Snapshot["restatedAfterSignOff"]>;
+  snapshotHref: (id: number) => string;
+}) {
+  const resolved = restated.resolvedBy;
+  if (resolved)
+    return (
+      <Notice label="Restatement resolved">
+        <strong className="font-semibold">Restatement resolved:</strong> the amendment{" "}
+        <Link to={snapshotHref(resolved.snapshotId)}>#{resolved.snapshotId}</Link> corrects this quarter and was filed
+        {resolved.filedAt ? ` on ${formatDateTime(resolved.filedAt)}` : ""}. These figures stay as they were filed.
+        <span className="mt-0.5 block text-xs text-ink-muted">{restated.detail}</span>
+      </Notice>
+    );
   return (
     <div
       role="note"
@@ -60,6 +77,7 @@ export function SnapshotDetail({
   onPrepared,
   filing,
   filingHref,
+  snapshotHref,
   filingDelivery,
   updating,
   recipients,
@@ -75,6 +93,8 @@ export function SnapshotDetail({
   /** A filed snapshot's filing, looked up by the screen. */
   filing: FilingLookup;
   filingHref: (id: number) => string;
+  /** Where another snapshot of the entity opens (the one this amends, or its amendment). */
+  snapshotHref: (id: number) => string;
   /** Where the filing stands for each recipient, with what the CRO can do about it (from the filings feature). */
   filingDelivery?: (filing: Filing) => ReactNode;
   updating?: boolean;
@@ -96,6 +116,22 @@ export function SnapshotDetail({
             {formatDateTime(snapshot.preparedAt)}
             {updating && <span className="text-ink-muted"> · updating…</span>}
           </p>
+          {(snapshot.amendment || snapshot.amendedBy !== null) && (
+            <p className="text-sm font-medium" data-testid="amendment-links">
+              {snapshot.amendment && (
+                <>
+                  <Link to={snapshotHref(snapshot.amendment.amends)}>Amends #{snapshot.amendment.amends}</Link>
+                  {snapshot.amendment.original.filedAt && (
+                    <> (filed {formatDateTime(snapshot.amendment.original.filedAt)})</>
+                  )}
+                </>
+              )}
+              {snapshot.amendment && snapshot.amendedBy !== null && " · "}
+              {snapshot.amendedBy !== null && (
+                <Link to={snapshotHref(snapshot.amendedBy)}>Amended by #{snapshot.amendedBy}</Link>
+              )}
+            </p>
+          )}
         </div>
         <p className="text-sm">
           <span className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Status </span>
@@ -104,11 +140,21 @@ export function SnapshotDetail({
           </span>
         </p>
       </header>
-      {snapshot.restatedAfterSignOff && <RestatedWarning restated={snapshot.restatedAfterSignOff} />}
+      {snapshot.restatedAfterSignOff && (
+        <RestatedWarning restated={snapshot.restatedAfterSignOff} snapshotHref={snapshotHref} />
+      )}
       {open && snapshot.openFindings > 0 && (
         <OpenFindingsNotice count={snapshot.openFindings} quarter={quarter} findingsHref={findingsHref} />
       )}
       <SnapshotFigures snapshot={snapshot} determination={determination} />
+      {snapshot.amendment && (
+        <AmendmentChanges
+          amendment={snapshot.amendment}
+          currency={snapshot.figures.currency}
+          regime={snapshot.figures.regime}
+          snapshotHref={snapshotHref}
+        />
+      )}
       <SnapshotReturn snapshot={snapshot} role={role} />
       <SnapshotActions
         key={snapshot.id}

@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import { quarterLabel } from "@shared/backtest/quarters";
-import { type Snapshot } from "@shared/schemas/snapshot";
+import { type SnapshotListItem } from "@shared/schemas/snapshot";
 import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
@@ -16,7 +16,7 @@ export function SnapshotListTable({
   onOpen,
   empty,
 }: {
-  snapshots: Snapshot[];
+  snapshots: SnapshotListItem[];
   selectedId?: number;
   snapshotHref: (id: number) => string;
   onOpen: (id: number) => void;

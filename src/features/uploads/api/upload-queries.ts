@@ -57,7 +57,9 @@ const allButRows = {
 export function useCommitUpload() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (id: number) => api.post(`/api/uploads/${id}/commit`, undefined, commitResultSchema),
+    // confirmSignedOff: the person ticked that the file may restate days of signed-off quarters.
+    mutationFn: ({ id, confirmSignedOff }: { id: number; confirmSignedOff?: boolean }) =>
+      api.post(`/api/uploads/${id}/commit`, confirmSignedOff ? { confirmSignedOff } : {}, commitResultSchema),
     // Committed rows change the history, the findings and every figure computed from the data
     // (zone, count, multiplier, add-on on the Overview and Backtest screens): all but the rows of files.
     onSuccess: () =>

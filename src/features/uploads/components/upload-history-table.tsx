@@ -69,8 +69,10 @@ export function UploadHistoryTable({
                 {formatCount(u.invalid)}
               </Td>
               <Td numeric>{formatCount(u.restatements)}</Td>
-              <Td className={cn("whitespace-nowrap", u.status === "preview" && "font-medium text-accent")}>
-                {uploadStatusLabels[u.status]}
+              <Td
+                className={cn("whitespace-nowrap", u.status === "preview" && !u.expired && "font-medium text-accent")}
+              >
+                {u.status === "preview" && u.expired ? "Expired (not committed)" : uploadStatusLabels[u.status]}
               </Td>
               <Td>
                 <code className="text-xs" title={u.sha256}>

@@ -8,6 +8,7 @@ import { cn } from "@/lib/cn";
 import { firstRowsPage, useCommitUpload, useDiscardUpload } from "../api/upload-queries";
 import { shortSha, uploadStatusLabels } from "../words";
 import { PreviewRowsTable } from "./preview-rows-table";
+import { quarterWords, RestatedDays } from "./restated-days";
 
 /** A count in the upload's summary, right-aligned; a count of errors above zero is marked in red with an arrow. */
 function CountFigure({ label, value, tone }: { label: string; value: number; tone?: "bad" }) {
@@ -90,9 +91,13 @@ export function UploadPreviewPanel({
   const commit = useCommitUpload();
   const discard = useDiscardUpload();
   const [askDiscard, setAskDiscard] = useState(false);
+  const [signedOffConfirmed, setSignedOffConfirmed] = useState(false);
   const blockedId = useId();
+  const warningId = useId();
   const p = preview;
   const pending = p.status === "preview";
+  const expired = pending && p.expired;
+  const needsConfirmation = p.signedOffRestatements > 0;
   const busy = commit.isPending || discard.isPending;
   const actionError = commit.error ?? discard.error;
   const range = p.from && p.to ? (p.from === p.to ? p.from : `${p.from} to ${p.to}`) : "—";
@@ -104,8 +109,15 @@ export function UploadPreviewPanel({
           Upload #{p.id} <span className="font-normal text-ink-soft">· {p.fileName}</span>
         </h2>
         <span className={cn("text-xs font-medium", pending ? "text-accent" : "text-ink-muted")}>
-          {uploadStatusLabels[p.status]}
+          {expired ? "Expired" : uploadStatusLabels[p.status]}
         </span>
+        {pending && p.expiresAt && (
+          <span className={cn("text-xs", expired ? "font-medium text-danger" : "text-ink-muted")}>
+            {expired
+              ? `Expired ${formatDateTime(p.expiresAt)}: upload the file again to commit it`
+              : `Can be committed until ${formatDateTime(p.expiresAt)}`}
+          </span>
+        )}
         <span className="text-xs text-ink-muted">
           by {p.uploadedBy}, {formatDateTime(p.uploadedAt)}
           {p.committedAt &&
@@ -136,6 +148,20 @@ export function UploadPreviewPanel({
         </p>
       )}
 
+      {pending && needsConfirmation && (
+        <div id={warningId} role="note" className="flex flex-col gap-1 border-l-2 border-danger pl-3 text-sm">
+          <p className="font-medium text-danger">
+            This file restates {plural(p.signedOffRestatements, "day", "days")} in signed-off quarters:{" "}
+            {p.signedOffQuarters.map((q) => `${quarterWords(q)}, ${plural(q.days, "day", "days")}`).join("; ")}.
+          </p>
+          <p>
+            Their snapshots keep the figures as signed off and are marked restated; the CRO and the supervisor may need
+            to hear why. Commit only if the data really was wrong.
+          </p>
+        </div>
+      )}
+      <RestatedDays preview={p} />
+
       {commit.data && <FormMessage tone="done">{committedLine(commit.data)}</FormMessage>}
       <FormMessage>
         {actionError ? (isApiError(actionError) ? actionError.message : "The change could not be saved.") : undefined}
@@ -143,10 +169,22 @@ export function UploadPreviewPanel({
 
       {canChange && pending && (
         <div className="flex flex-wrap items-center gap-3">
+          {needsConfirmation && !expired && (
+            <label className="flex basis-full items-center gap-2 text-sm">
+              <input
+                type="checkbox"
+                checked={signedOffConfirmed}
+                onChange={(e) => setSignedOffConfirmed(e.target.checked)}
+                aria-describedby={warningId}
+                className="size-4 accent-accent"
+              />
+              I mean to restate {plural(p.signedOffRestatements, "day", "days")} of signed-off quarters
+            </label>
+          )}
           <Button
-            disabled={p.invalid > 0 || busy}
+            disabled={p.invalid > 0 || busy || expired || (needsConfirmation && !signedOffConfirmed)}
             aria-describedby={p.invalid > 0 ? blockedId : undefined}
-            onClick={() => commit.mutate(p.id)}
+            onClick={() => commit.mutate({ id: p.id, confirmSignedOff: needsConfirmation && signedOffConfirmed })}
           >
             {commit.isPending ? "Committing…" : `Commit ${formatCount(p.valid)} ${p.valid === 1 ? "row" : "rows"}`}
           </Button>

@@ -9,6 +9,7 @@ import { pathToFileURL } from "node:url";
 import { CsvFileError, parseObservationCsv, splitCsv } from "../shared/ingest/parse-csv";
 import { EngineInputError } from "../shared/backtest/errors";
 import { backtestAt, type BacktestResult } from "../shared/backtest/exceptions";
+import { withPnlDefinition } from "../shared/backtest/pnl-definition";
 import { getRegime } from "../shared/backtest/regimes";
 import type { Observation } from "../shared/backtest/types";
 import { ENGINE_VERSION } from "../shared/backtest/version";
@@ -35,8 +36,10 @@ Usage:
 Options:
   --file PATH      CSV with a header row (any order): portfolio, date, actual_pnl,
                    hypothetical_pnl, var_99; optional var_975, svar_99, var_10d, svar_10d,
-                   es_975, ses, rtpl. Dates YYYY-MM-DD, amounts with a dot decimal; an empty
-                   amount is a missing value.
+                   es_975, ses, rtpl, and the parts of actual_pnl that the rule set
+                   may take out (fees_commissions, reserves_adjustments, net_interest_income,
+                   intraday_pnl, new_trade_pnl). Dates YYYY-MM-DD, amounts with a dot decimal;
+                   an empty amount is a missing value.
   --regime ID      basel | us | eu | frtb
   --as-of DATE     the window is the last 250 observations on or before this date
   --basis BASIS    actual | hypothetical | max (default: the rule set's own basis)
@@ -148,6 +151,11 @@ export function parseObservationsCsv(text: string): Map<string, Observation[]> {
       es975: r.es_975 ?? null,
       ses: r.ses ?? null,
       rtpl: r.rtpl ?? null,
+      feesCommissions: r.fees_commissions ?? null,
+      reservesAdjustments: r.reserves_adjustments ?? null,
+      netInterestIncome: r.net_interest_income ?? null,
+      intradayPnl: r.intraday_pnl ?? null,
+      newTradePnl: r.new_trade_pnl ?? null,
     });
   }
   for (const list of byPortfolio.values()) list.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
@@ -233,7 +241,7 @@ export function runBacktestCli(argv: readonly string[], io: CliIo = defaultIo): 
       try {
         return {
           portfolio,
-          result: backtestAt(portfolios.get(portfolio)!, {
+          result: backtestAt(withPnlDefinition(portfolios.get(portfolio)!, opts.regime), {
             regime: opts.regime,
             pnlBasis: opts.basis,
             asOf: opts.asOf,

@@ -30,6 +30,11 @@ export class ObservationModel extends Model<
   declare rrao: number | null;
   declare saDrc: number | null;
   declare saGa: number | null;
+  declare feesCommissions: number | null;
+  declare reservesAdjustments: number | null;
+  declare netInterestIncome: number | null;
+  declare intradayPnl: number | null;
+  declare newTradePnl: number | null;
   /** The upload whose commit wrote this version: its committer and commit time are the version's who and when. */
   declare uploadId: number;
 }
@@ -59,6 +64,11 @@ ObservationModel.init(
     rrao: money("rrao", "rrao"),
     saDrc: money("saDrc", "sa_drc"),
     saGa: money("saGa", "sa_ga"),
+    feesCommissions: money("feesCommissions", "fees_commissions"),
+    reservesAdjustments: money("reservesAdjustments", "reserves_adjustments"),
+    netInterestIncome: money("netInterestIncome", "net_interest_income"),
+    intradayPnl: money("intradayPnl", "intraday_pnl"),
+    newTradePnl: money("newTradePnl", "new_trade_pnl"),
     uploadId: { type: DataTypes.INTEGER, allowNull: false },
   },
   { sequelize, tableName: "observations", timestamps: false },

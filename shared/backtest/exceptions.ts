@@ -1,6 +1,7 @@
 import type { PnlBasis, RegimeId } from "../schemas/common";
 import { binomialCdf } from "./binomial";
 import { EngineInputError } from "./errors";
+import { pnlMakeUp, type PnlMakeUp } from "./pnl-definition";
 import { getRegime, multiplierFor, plusFactorFor, zoneBoundariesFor, zoneFor, type RegimeRules } from "./regimes";
 import { plusFactorAt, rollingArrays, zoneAt } from "./rolling";
 import { christoffersenIndependence, conditionalCoverage, kupiecPof } from "./statistics";
@@ -45,6 +46,13 @@ export interface ExceptionDay {
   /** Loss beyond VaR (−pnl − var), null when a value is missing. */
   excessActual: number | null;
   excessHypothetical: number | null;
+  /** How the actual P&L was made up under the rule set; absent for a day without parts (P&L as supplied). */
+  actualMakeUp?: PnlMakeUp;
+}
+
+function withMakeUp(o: Observation, regime: RegimeId): { actualMakeUp?: PnlMakeUp } {
+  const makeUp = pnlMakeUp(o, regime);
+  return makeUp ? { actualMakeUp: makeUp } : {};
 }
 
 export interface SeriesTests {
@@ -176,6 +184,7 @@ export function backtestAt(observations: readonly Observation[], opts: BacktestO
         missing: day.missing,
         excessActual: excessOf(o.actualPnl, v),
         excessHypothetical: excessOf(o.hypotheticalPnl, v),
+        ...withMakeUp(o, opts.regime),
       });
     }
   }

@@ -26,6 +26,17 @@ export interface Observation {
   saDrc?: number | null;
   /** Top of house only: the standardised charge of the desks in the model together, where the upstream engine supplies it. */
   saGa?: number | null;
+  /**
+   * Parts of actualPnl that the rule sets treat differently (docs/rules.md#pnl-definition), each
+   * already inside actualPnl; shared/backtest/pnl-definition.ts derives each rule set's P&L from them.
+   */
+  feesCommissions?: number | null;
+  reservesAdjustments?: number | null;
+  netInterestIncome?: number | null;
+  intradayPnl?: number | null;
+  newTradePnl?: number | null;
+  /** Set by withPnlDefinition when actualPnl was derived: the file's actual_pnl. */
+  suppliedActualPnl?: number | null;
 }
 
 export type Zone = "green" | "yellow" | "red";

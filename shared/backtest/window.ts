@@ -43,6 +43,11 @@ const NUMERIC_FIELDS = [
   "rrao",
   "saDrc",
   "saGa",
+  "feesCommissions",
+  "reservesAdjustments",
+  "netInterestIncome",
+  "intradayPnl",
+  "newTradePnl",
 ] as const;
 
 /**

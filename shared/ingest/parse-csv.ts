@@ -118,6 +118,11 @@ function newRow(line: number, portfolio: string, date: string): ParsedRow {
     rrao: null,
     sa_drc: null,
     sa_ga: null,
+    fees_commissions: null,
+    reserves_adjustments: null,
+    net_interest_income: null,
+    intraday_pnl: null,
+    new_trade_pnl: null,
   };
 }
 
@@ -209,6 +214,11 @@ const SET_AMOUNT_ORDER = [
   "rrao",
   "sa_drc",
   "sa_ga",
+  "fees_commissions",
+  "reserves_adjustments",
+  "net_interest_income",
+  "intraday_pnl",
+  "new_trade_pnl",
 ];
 if (SET_AMOUNT_ORDER.join() !== AMOUNT_COLUMNS.join()) throw new Error("setAmount() must follow AMOUNT_COLUMNS");
 
@@ -258,6 +268,21 @@ function setAmount(row: ParsedRow, index: number, value: number): void {
       break;
     case 14:
       row.sa_ga = value;
+      break;
+    case 15:
+      row.fees_commissions = value;
+      break;
+    case 16:
+      row.reserves_adjustments = value;
+      break;
+    case 17:
+      row.net_interest_income = value;
+      break;
+    case 18:
+      row.intraday_pnl = value;
+      break;
+    case 19:
+      row.new_trade_pnl = value;
       break;
     default:
       throw new Error(`no amount column ${index}`);

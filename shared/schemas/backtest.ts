@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { isoDateSchema, pnlBasisSchema, regimeSchema } from "./common";
+import { isoDateSchema, pnlBasisSchema, pnlComponentSchema, regimeSchema } from "./common";
 import { reviewSchema } from "./review";
 
 export const zoneSchema = z.enum(["green", "yellow", "red"]);
@@ -19,6 +19,21 @@ const seriesTestsSchema = z.object({
   conditionalCoverage: testOutcomeSchema,
 });
 
+export const pnlMakeUpSchema = z.object({
+  supplied: z.number(),
+  lines: z.array(
+    z.object({
+      component: pnlComponentSchema,
+      label: z.string(),
+      amount: z.number().nullable(),
+      removed: z.boolean(),
+    }),
+  ),
+  backtesting: z.number(),
+  source: z.string(),
+});
+export type PnlMakeUpDto = z.infer<typeof pnlMakeUpSchema>;
+
 export const exceptionDaySchema = z.object({
   date: z.string(),
   actualPnl: z.number().nullable(),
@@ -30,6 +45,8 @@ export const exceptionDaySchema = z.object({
   missing: z.boolean(),
   excessActual: z.number().nullable(),
   excessHypothetical: z.number().nullable(),
+  /** docs/rules.md#pnl-definition: present when the day's file carried the parts of its P&L. */
+  actualMakeUp: pnlMakeUpSchema.optional(),
   review: reviewSchema.nullable(),
 });
 export type ExceptionDayDto = z.infer<typeof exceptionDaySchema>;

@@ -6,6 +6,16 @@ export type Role = z.infer<typeof roleSchema>;
 export const regimeSchema = z.enum(["basel", "us", "eu", "frtb"]);
 export type RegimeId = z.infer<typeof regimeSchema>;
 
+/** Parts of a day's actual P&L that the rule sets treat differently (docs/rules.md#pnl-definition). */
+export const PNL_COMPONENTS = [
+  "feesCommissions",
+  "reservesAdjustments",
+  "netInterestIncome",
+  "intradayPnl",
+  "newTradePnl",
+] as const;
+export const pnlComponentSchema = z.enum(PNL_COMPONENTS);
+
 export const pnlBasisSchema = z.enum(["actual", "hypothetical", "max"]);
 export type PnlBasis = z.infer<typeof pnlBasisSchema>;
 

@@ -20,6 +20,11 @@ export const observationSchema = z.object({
   rrao: z.number().nullable(),
   saDrc: z.number().nullable(),
   saGa: z.number().nullable(),
+  feesCommissions: z.number().nullable(),
+  reservesAdjustments: z.number().nullable(),
+  netInterestIncome: z.number().nullable(),
+  intradayPnl: z.number().nullable(),
+  newTradePnl: z.number().nullable(),
   version: z.number().int(),
 });
 export type ObservationDto = z.infer<typeof observationSchema>;

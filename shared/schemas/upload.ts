@@ -17,6 +17,12 @@ export const OPTIONAL_COLUMNS = [
   "rrao",
   "sa_drc",
   "sa_ga",
+  // Parts of actual_pnl the rule sets treat differently (docs/rules.md#pnl-definition), signed like the P&L.
+  "fees_commissions",
+  "reserves_adjustments",
+  "net_interest_income",
+  "intraday_pnl",
+  "new_trade_pnl",
 ] as const;
 export const ALL_COLUMNS = [...REQUIRED_COLUMNS, ...OPTIONAL_COLUMNS] as const;
 export type CsvColumn = (typeof ALL_COLUMNS)[number];

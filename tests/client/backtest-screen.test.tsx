@@ -2,6 +2,8 @@ import { configure, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { backtestAt, rollingBacktest } from "@shared/backtest/exceptions";
 import { rollOffs } from "@shared/backtest/forecast";
+import { pnlMakeUp, withPnlDefinition } from "@shared/backtest/pnl-definition";
+import { formatAmount } from "@/lib/format";
 import type { BacktestOptions, Observation } from "@shared/backtest/types";
 import type { Review } from "@shared/schemas/review";
 import { fakeApi, signedInAs, type Reply } from "./support/fake-api";
@@ -138,6 +140,11 @@ function routes(
         rrao: null,
         saDrc: null,
         saGa: null,
+        feesCommissions: null,
+        reservesAdjustments: null,
+        netInterestIncome: null,
+        intradayPnl: null,
+        newTradePnl: null,
         version: 1,
       })),
     },
@@ -282,6 +289,52 @@ describe("Backtest screen", { timeout: 20_000 }, () => {
       version: 4,
     });
     expect(await within(form).findByText("Review saved (version 5).")).toBeInTheDocument();
+  });
+
+  it("an exception shows how its actual P&L was made up under the rule set, or that the file's P&L was used as supplied", async () => {
+    const [withParts, plain] = engine.exceptionDays;
+    // The file gave the day's parts: fees 15,000, NII 5,000, intraday −30,000, new trades 2,000. Under the US
+    // rule (docs/rules.md#pnl-definition) the first three come out, so the supplied figure is chosen to leave
+    // exactly the engine's exception P&L: supplied − 15,000 − 5,000 + 30,000.
+    const supplied = withParts.actualPnl! - 10_000;
+    const day = observations.find((o) => o.date === withParts.date)!;
+    const [derived] = withPnlDefinition(
+      [
+        {
+          ...day,
+          actualPnl: supplied,
+          feesCommissions: 15_000,
+          netInterestIncome: 5_000,
+          intradayPnl: -30_000,
+          newTradePnl: 2_000,
+        },
+      ],
+      "us",
+    );
+    const makeUp = pnlMakeUp(derived, "us")!;
+    expect(makeUp.backtesting).toBe(withParts.actualPnl);
+    const body = backtestBody();
+    body.exceptionDays = body.exceptionDays.map((d) =>
+      d.date === withParts.date ? { ...d, actualMakeUp: makeUp } : d,
+    );
+    fakeApi(routes("cro", body));
+    const user = userEvent.setup();
+    renderApp("/backtest/LKS-US-TOTAL");
+
+    await user.click(await screen.findByRole("button", { name: `Review the exception of ${withParts.date}` }));
+    const table = await screen.findByRole("table", { name: "How the actual P&L was made up" });
+    const row = (name: RegExp) => within(table).getByRole("row", { name });
+    expect(row(/Actual P&L in the file/)).toHaveTextContent(formatAmount(supplied, "USD"));
+    expect(row(/Fees and commissions/)).toHaveTextContent(/15,000 USD\s*taken out/);
+    expect(row(/Reserves and valuation adjustments/)).toHaveTextContent(/not given\s*none to take out/);
+    expect(row(/Intraday trading/)).toHaveTextContent(/−30,000 USD\s*taken out/);
+    expect(row(/New and modified trades/)).toHaveTextContent(/2,000 USD\s*kept in/);
+    expect(row(/Backtested against VaR/)).toHaveTextContent(formatAmount(withParts.actualPnl, "USD"));
+    expect(within(table).getByText(/12 CFR 217\.204\(b\)/)).toBeInTheDocument();
+
+    await user.click(screen.getByRole("button", { name: `Review the exception of ${plain.date}` }));
+    expect(await screen.findByText(/Actual P&L as supplied: the file gave no parts of it/)).toBeInTheDocument();
+    expect(screen.queryByRole("table", { name: "How the actual P&L was made up" })).not.toBeInTheDocument();
   });
 
   it("the CRO's decision form appears only for an exception whose exclusion is requested, and sends the review's version", async () => {

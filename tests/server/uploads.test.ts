@@ -284,6 +284,43 @@ describe("uploading daily data", () => {
     expect(read.body[0]).toMatchObject({ imaDrc: 5, sbm: 40, rrao: 2, saDrc: 3, saGa: null });
   });
 
+  it("when a file carries the parts of its actual P&L, then each rule set backtests its own P&L and shows the make-up (docs/rules.md#pnl-definition)", async () => {
+    const header = `${HEADER},fees_commissions,reserves_adjustments,net_interest_income,intraday_pnl,new_trade_pnl`;
+    const [d1, d2, d3] = weekdays("2026-11-02", 3);
+    const backtestOf = async (regime: "us" | "eu") => {
+      const { entity, portfolio, cookie } = await ingestFixture();
+      await entity.update({ regime, pnlBasis: "actual" });
+      // d2: actual −95 against VaR 100 (no exception as supplied), with fee income 12, NII 3, intraday −20, new trades 4.
+      const csv =
+        `${header}\n${portfolio.code},${d1},5,5,100,,,,,\n` +
+        `${portfolio.code},${d2},-95,-40,100,12,,3,-20,4\n${portfolio.code},${d3},5,5,100,,,,,\n`;
+      const up = await uploadCsv(app, cookie, csv);
+      expect(up.body).toMatchObject({ valid: 3, invalid: 0 });
+      expect((await request(app).post(`/api/uploads/${up.body.id}/commit`).set("Cookie", cookie)).status).toBe(200);
+      const stored = await ObservationModel.findOne({ where: { portfolioId: portfolio.id, businessDate: d2 } });
+      expect(stored).toMatchObject({
+        actualPnl: -95,
+        feesCommissions: 12,
+        reservesAdjustments: null,
+        intradayPnl: -20,
+      });
+      const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations`).set("Cookie", cookie);
+      expect(read.body[1]).toMatchObject({ actualPnl: -95, netInterestIncome: 3, newTradePnl: 4 }); // as supplied
+      return (await request(app).get(`/api/portfolios/${portfolio.code}/backtest`).set("Cookie", cookie)).body;
+    };
+
+    // CRR Art. 366(3): fees, commissions and NII out: −95 − 12 − 3 = −110, an overshooting of 10.
+    const eu = await backtestOf("eu");
+    expect(eu.exceptions.actual).toBe(1);
+    expect(eu.exceptionDays[0]).toMatchObject({ date: d2, actualPnl: -110, excessActual: 10 });
+    expect(eu.exceptionDays[0].actualMakeUp).toMatchObject({ supplied: -95, backtesting: -110 });
+    expect(eu.exceptionDays[0].actualMakeUp.source).toMatch(/366\(3\)/);
+    // 12 CFR 217.204(b)(1) (from memory): intraday trading out as well: −95 − 12 − 3 + 20 = −90, no exception.
+    const us = await backtestOf("us");
+    expect(us.exceptions.actual).toBe(0);
+    expect(us.exceptionDays).toEqual([]);
+  });
+
   it("when the template is downloaded, then it has every column in order and its example rows parse", async () => {
     const { cookie } = await ingestFixture();
     const res = await request(app).get("/api/uploads/template.csv").set("Cookie", cookie);
@@ -291,7 +328,8 @@ describe("uploading daily data", () => {
     expect(res.headers["content-type"]).toMatch(/text\/csv/);
     expect(res.text.split("\n")[0]).toBe(
       "portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,svar_99,var_10d,svar_10d,es_975,ses,rtpl," +
-        "ima_drc,sbm,rrao,sa_drc,sa_ga",
+        "ima_drc,sbm,rrao,sa_drc,sa_ga,fees_commissions,reserves_adjustments,net_interest_income,intraday_pnl," +
+        "new_trade_pnl",
     );
   });
 
@@ -308,7 +346,8 @@ describe("uploading daily data", () => {
     expect(await UploadModel.count()).toBe(before);
 
     // With one real day added, the examples are skipped and only that day is previewed, as new.
-    const withDay = `${template.trimEnd()}\n${portfolio.code},2026-11-02,-1,-1,10${",".repeat(12)}\n`;
+    const emptyOptional = ",".repeat(lines[0].split(",").length - 5);
+    const withDay = `${template.trimEnd()}\n${portfolio.code},2026-11-02,-1,-1,10${emptyOptional}\n`;
     const preview = await uploadCsv(app, cookie, withDay);
     expect(preview.status, JSON.stringify(preview.body)).toBe(201);
     expect(preview.body).toMatchObject({ rows: 1, valid: 1, invalid: 0, newRows: 1, restatements: 0 });

@@ -13,6 +13,7 @@ import type { Transaction } from "sequelize";
 import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
+import { PNL_COMPONENTS } from "../../../shared/backtest/pnl-definition";
 import { loadSeries } from "../observations/observations.repository";
 import { deskResults } from "../figures/stored-figures";
 import { frtbFiguresOn } from "../frtb/frtb.store";
@@ -34,13 +35,14 @@ export interface QuarterFigures {
 }
 
 /**
- * The values of a day that feed the figures, in a fixed order (for the inputs hash). The FRTB
- * charges join only on days that carry one, so days stored before they existed hash as they did.
+ * The values of a day that feed the figures, in a fixed order (for the inputs hash): the stored
+ * values, the actual P&L as supplied. The FRTB charges and the parts of the P&L join only on days
+ * that carry one, so days stored before they existed hash as they did.
  */
 const dayValues = (o: Observation) => {
   const base = [
     o.date,
-    o.actualPnl,
+    o.suppliedActualPnl ?? o.actualPnl,
     o.hypotheticalPnl,
     o.var99,
     o.var975,
@@ -52,7 +54,9 @@ const dayValues = (o: Observation) => {
     o.rtpl,
   ];
   const charges = [o.imaDrc, o.sbm, o.rrao, o.saDrc, o.saGa];
-  return charges.some((v) => v != null) ? [...base, ...charges] : base;
+  const parts = PNL_COMPONENTS.map((c) => o[c] ?? null);
+  const withCharges = charges.some((v) => v != null) ? [...base, ...charges] : base;
+  return parts.some((v) => v != null) ? [...withCharges, ...parts] : withCharges;
 };
 
 /**
@@ -209,7 +213,7 @@ export async function quarterFigures(
   // The inputs: what a second computation would need to give the same figures.
   const deskSeries = [];
   for (const desk of portfolios.filter((p) => p.level === "desk")) {
-    deskSeries.push([desk.code, (await loadSeries(desk.id, from, asOf)).map((o) => dayValues(o))]);
+    deskSeries.push([desk.code, (await loadSeries(desk.id, "as supplied", from, asOf)).map((o) => dayValues(o))]);
   }
   const inputs = {
     entity: {

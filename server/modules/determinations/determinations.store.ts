@@ -49,7 +49,7 @@ export async function loadEntityEngineInputs(
   let excluded: string[] = [];
   if (portfolio) {
     const [raw, approved] = await Promise.all([
-      loadSeries(portfolio.id, undefined, undefined, transaction),
+      loadSeries(portfolio.id, entity.regime, undefined, undefined, transaction),
       ExceptionReviewModel.findAll({
         where: { portfolioId: portfolio.id, exclusionStatus: "approved" },
         attributes: ["businessDate"],

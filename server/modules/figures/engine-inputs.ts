@@ -70,7 +70,7 @@ export async function contextOf(
 ): Promise<PortfolioContext> {
   const [holidays, series, excluded, settings] = await Promise.all([
     holidaysOf(entity.id, read),
-    loadSeries(portfolio.id, read.from, read.to, read.transaction),
+    loadSeries(portfolio.id, entity.regime, read.from, read.to, read.transaction),
     sequelize.query<{ d: string }>(
       `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d FROM exception_reviews
         WHERE portfolio_id = :pid AND exclusion_status = 'approved'${read.transaction ? " LOCK IN SHARE MODE" : ""}`,

@@ -86,7 +86,7 @@ export async function deskResults(
   for (const desk of [...desks].filter((d) => d.level === "desk").sort((a, b) => a.code.localeCompare(b.code))) {
     // MAR32.5(2): a desk's unreported business day counts as an exception too.
     const series = withMissingBusinessDays(
-      (await loadSeries(desk.id, undefined, asOf, read.transaction)) as Observation[],
+      (await loadSeries(desk.id, ctx.entity.regime, undefined, asOf, read.transaction)) as Observation[],
       ctx.holidays,
     );
     if (series.length === 0) continue;

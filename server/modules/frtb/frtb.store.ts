@@ -45,7 +45,7 @@ async function deskSeries(
   const out = [];
   for (const portfolio of desks) {
     // MAR32.5(2): a desk's unreported business day counts as an exception.
-    const raw = await loadSeries(portfolio.id, undefined, to, transaction);
+    const raw = await loadSeries(portfolio.id, entity.regime, undefined, to, transaction);
     out.push({ portfolio, series: withMissingBusinessDays(raw, holidays as Set<string>) });
   }
   return out;

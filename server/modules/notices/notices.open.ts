@@ -87,7 +87,7 @@ async function settleDays(
   revealedOn: string,
 ): Promise<void> {
   const [series, settings] = await Promise.all([
-    loadSeries(headline.id, dates[0], dates.at(-1), transaction),
+    loadSeries(headline.id, entity.regime, dates[0], dates.at(-1), transaction),
     approvedSettings(entity.id, transaction),
   ]);
   const ctx = { settings, fallback: fallbackSettings(entity) };

@@ -3,6 +3,8 @@ import { sequelize } from "../../db/sequelize";
 import { connectionOf } from "../../db/raw-connection";
 import { AMOUNT_COLUMNS, type AmountColumn } from "../../../shared/schemas/upload";
 import type { Observation } from "../../../shared/backtest/types";
+import type { RegimeId } from "../../../shared/schemas/common";
+import { withPnlDefinition } from "../../../shared/backtest/pnl-definition";
 import type { NewVersion, QualityDay, StoredDay, VersionKey } from "../../../shared/ingest/row-plan";
 
 /** Column in the table for each CSV amount column (they are the same names). */
@@ -167,11 +169,13 @@ export function queueRetireVersions(writes: PipelinedWrites, keys: readonly Vers
 }
 
 /**
- * One portfolio's current series, sorted by date, in the engine's shape. Inside a transaction the
+ * One portfolio's current series, sorted by date, in the engine's shape, its actual P&L derived by
+ * the rule set given (or as supplied, for a reader of the stored days). Inside a transaction the
  * read is a locking one, so it sees the newest committed days and the transaction's own.
  */
 export async function loadSeries(
   portfolioId: number,
+  pnlDefinition: RegimeId | "as supplied",
   from?: string,
   to?: string,
   transaction?: Transaction,
@@ -187,7 +191,7 @@ export async function loadSeries(
       transaction,
     },
   );
-  return rows.map((r) => ({
+  const series = rows.map((r) => ({
     date: String(r.d),
     version: Number(r.version),
     actualPnl: num(r.actual_pnl),
@@ -205,7 +209,14 @@ export async function loadSeries(
     rrao: num(r.rrao),
     saDrc: num(r.sa_drc),
     saGa: num(r.sa_ga),
+    feesCommissions: num(r.fees_commissions),
+    reservesAdjustments: num(r.reserves_adjustments),
+    netInterestIncome: num(r.net_interest_income),
+    intradayPnl: num(r.intraday_pnl),
+    newTradePnl: num(r.new_trade_pnl),
   }));
+  // Each rule set backtests on its own definition of actual P&L (docs/rules.md#pnl-definition).
+  return pnlDefinition === "as supplied" ? series : withPnlDefinition(series, pnlDefinition);
 }
 
 /**

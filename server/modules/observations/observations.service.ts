@@ -7,7 +7,7 @@ import type { ObservationDto } from "../../../shared/schemas/observation";
 export async function listObservations(code: string, range: { from?: string; to?: string }): Promise<ObservationDto[]> {
   const portfolio = await PortfolioModel.findOne({ where: { code } });
   if (!portfolio) throw new NotFoundError(`No portfolio ${code}.`);
-  const series = await loadSeries(portfolio.id, range.from, range.to);
+  const series = await loadSeries(portfolio.id, "as supplied", range.from, range.to);
   return series.map((o) => ({
     date: o.date,
     actualPnl: o.actualPnl,
@@ -25,6 +25,11 @@ export async function listObservations(code: string, range: { from?: string; to?
     rrao: o.rrao ?? null,
     saDrc: o.saDrc ?? null,
     saGa: o.saGa ?? null,
+    feesCommissions: o.feesCommissions ?? null,
+    reservesAdjustments: o.reservesAdjustments ?? null,
+    netInterestIncome: o.netInterestIncome ?? null,
+    intradayPnl: o.intradayPnl ?? null,
+    newTradePnl: o.newTradePnl ?? null,
     version: o.version,
   }));
 }

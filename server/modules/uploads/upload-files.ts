@@ -117,6 +117,11 @@ export function templateCsv(): string {
     rrao: null,
     sa_drc: null,
     sa_ga: null,
+    fees_commissions: null,
+    reserves_adjustments: null,
+    net_interest_income: null,
+    intraday_pnl: null,
+    new_trade_pnl: null,
   });
   return serialiseObservationCsv(
     [example("2026-09-29", -1250000.5, -1180000), example("2026-09-30", 860000, 910250.25)],

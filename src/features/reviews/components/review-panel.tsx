@@ -25,6 +25,7 @@ import {
   useSaveReview,
 } from "../api/review-queries";
 import { seriesOf } from "@/lib/pnl-series";
+import { PnlMakeUp } from "./pnl-make-up";
 import { causeIds, causeLabels, exclusionStatusLabels } from "@/lib/review-labels";
 
 /** A review as it stands: who explained it, why, and what the supervisor decided. */
@@ -501,6 +502,7 @@ export function ReviewPanel({
           {day.excluded && " · excluded from the count"}
         </p>
       </div>
+      <PnlMakeUp day={day} currency={currency} />
       <div className="grid gap-6 lg:grid-cols-2">
         <div className="flex flex-col gap-4">
           {role === "analyst" ? (

@@ -131,8 +131,9 @@ export function deskStandingAt(
   series: readonly Observation[],
   asOf: string,
   previous: DeskStatus | null,
+  excluded?: ReadonlySet<string>,
 ): DeskStanding {
-  const backtest = deskBacktest(series, asOf);
+  const backtest = deskBacktest(series, asOf, excluded);
   const pla = deskPlaStanding(series, asOf);
   const next = nextDeskStatus(previous, backtest, pla);
   return {
@@ -161,7 +162,7 @@ export interface DeskStatusPoint {
  * desk code): they stand as signed off, and the next determination starts from them.
  */
 export function deskStatusHistory(
-  desks: readonly { code: string; series: readonly Observation[] }[],
+  desks: readonly { code: string; series: readonly Observation[]; excluded?: ReadonlySet<string> }[],
   asOfDates: readonly string[],
   frozen: ReadonlyMap<string, ReadonlyMap<string, DeskStanding>> = new Map(),
 ): DeskStatusPoint[] {
@@ -171,7 +172,9 @@ export function deskStatusHistory(
     const standings: DeskStanding[] = [];
     for (const d of desks) {
       if (lastIndexOnOrBefore(d.series, asOf) < 0) continue;
-      const s = frozen.get(asOf)?.get(d.code) ?? deskStandingAt(d.code, d.series, asOf, previous.get(d.code) ?? null);
+      const s =
+        frozen.get(asOf)?.get(d.code) ??
+        deskStandingAt(d.code, d.series, asOf, previous.get(d.code) ?? null, d.excluded);
       previous.set(d.code, s.status);
       standings.push(s);
     }

@@ -78,6 +78,8 @@ export const deskResultSchema = z.object({
       count: z.number().int(),
       limit: z.number().int(),
       fails: z.boolean(),
+      /** Exceptions disregarded by the supervisor's approved exclusions (docs/rules.md#frtb-desks). */
+      excludedDays: z.number().int().optional(),
     }),
     at975: z.object({
       actual: z.number().int(),
@@ -85,6 +87,8 @@ export const deskResultSchema = z.object({
       count: z.number().int(),
       limit: z.number().int(),
       fails: z.boolean(),
+      /** Exceptions disregarded by the supervisor's approved exclusions (docs/rules.md#frtb-desks). */
+      excludedDays: z.number().int().optional(),
     }),
     passes: z.boolean(),
   }),

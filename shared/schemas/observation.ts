@@ -5,7 +5,10 @@ import { isoDateSchema } from "./common";
 export const observationsQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
 export const observationSchema = z.object({
   date: z.string(),
+  /** The file's actual P&L, as supplied. */
   actualPnl: z.number().nullable(),
+  /** The actual P&L the entity's rule set backtests (docs/rules.md#pnl-definition): the same without parts. */
+  backtestActualPnl: z.number().nullable(),
   hypotheticalPnl: z.number().nullable(),
   var99: z.number().nullable(),
   var975: z.number().nullable(),

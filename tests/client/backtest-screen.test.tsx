@@ -128,6 +128,7 @@ function routes(
       status: 200,
       body: observations.map((o) => ({
         ...o,
+        backtestActualPnl: o.actualPnl,
         var975: null,
         svar99: null,
         var10d: null,

@@ -147,6 +147,11 @@ describe("amended filings", () => {
     expect(a.original).toMatchObject({ snapshotId: originalId, hash: flagged.hash, filingId: filing.id });
     expect(a.original.filedBy).toBe("Bram Oduya");
 
+    // The draft's pack: DRAFT and AMENDMENT on every page, never to be filed as it is.
+    const draftPack = await download(`/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
+    keepPages(draftPack, "amendment_draft");
+    for (const p of pagesText(draftPack)) expect(p).toContain(`DRAFT · AMENDMENT of snapshot #${originalId}`);
+
     // Prepared again while a draft: the same amendment, recomputed — not a second one.
     const again = await amend(book, originalId);
     expect(again.status).toBe(200);
@@ -285,5 +290,16 @@ describe("amended filings", () => {
       .get(`/api/entities/${book.entity.code}/chain/verify`)
       .set("Cookie", book.croCookie);
     expect(verify.body.valid, JSON.stringify(verify.body)).toBe(true);
+
+    // The filed amendment's before/after is signed with it: edited behind the application's back, it shows.
+    await sequelize.query(
+      "UPDATE snapshots SET amendment_json = REPLACE(amendment_json, '\"before\":5', '\"before\":3') WHERE id = :id",
+      { replacements: { id: draft.body.id } },
+    );
+    const tampered = await request(app)
+      .get(`/api/entities/${book.entity.code}/chain/verify`)
+      .set("Cookie", book.croCookie);
+    expect(tampered.body.valid).toBe(false);
+    expect(JSON.stringify(tampered.body.problems)).toContain("before/after of the amendment (sha256)");
   });
 });

@@ -54,8 +54,35 @@ async function frtbFixture() {
   expect(res.body).toMatchObject({ invalid: 0 });
   const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
   expect(commit.status).toBe(200);
-  return { entity, a, b, cookie };
+  return { entity, a, b, cookie, q1 };
 }
+
+describe("FRTB desk backtests and approved exclusions", () => {
+  it("when the supervisor agrees to disregard one of a desk's 13 exceptions, then the desk counts 12 and stays in the model (CRR Art. 325bf, verified-secondary)", async () => {
+    const { entity, a, cookie, q1 } = await frtbFixture();
+    const statusAt = async () =>
+      (await FrtbDeskStatusModel.findOne({ where: { portfolioId: a.id, periodEnd: "2026-03-31" } }))!;
+    expect(await statusAt()).toMatchObject({ status: "out-of-model", backtest99: 13 });
+
+    const review = await request(app)
+      .put(`/api/portfolios/${a.code}/exceptions/${q1[0]}/review`)
+      .set("Cookie", cookie)
+      .send({ cause: "data_issue", narrative: "A non-modellable basis moved; SES covers the loss.", exclusion: true });
+    expect(review.status).toBe(200);
+    const cro = await createTestUser("cro");
+    const decision = await request(app)
+      .put(`/api/portfolios/${a.code}/exceptions/${q1[0]}/decision`)
+      .set("Cookie", await sessionCookieFor(cro.id))
+      .send({ decision: "approved", reference: "SUP-FRTB-7", decidedOn: "2026-04-10", version: review.body.version });
+    expect(decision.status).toBe(200);
+
+    // MAR32.19: 12 at 99% is within the limit, so desk A stays in the model at 2026 Q1.
+    expect(await statusAt()).toMatchObject({ status: "in-model", backtest99: 12, backtestPasses: true });
+    const top = await request(app).get(`/api/portfolios/${entity.code}-TOP/backtest`).set("Cookie", cookie);
+    const deskA = top.body.desks.find((d: { portfolio: string }) => d.portfolio === a.code);
+    expect(deskA.backtest.at99).toMatchObject({ count: 12, excludedDays: 1, fails: false });
+  });
+});
 
 describe("FRTB capital on a date (MAR33.41–33.45)", () => {
   it("when a desk fails backtesting in a quarter, then it is out of the model from that determination and its SA moves into C_U", async () => {

@@ -305,7 +305,9 @@ describe("uploading daily data", () => {
         intradayPnl: -20,
       });
       const read = await request(app).get(`/api/portfolios/${portfolio.code}/observations`).set("Cookie", cookie);
-      expect(read.body[1]).toMatchObject({ actualPnl: -95, netInterestIncome: 3, newTradePnl: 4 }); // as supplied
+      // As supplied, with the figure the rule set backtests beside it.
+      expect(read.body[1]).toMatchObject({ actualPnl: -95, netInterestIncome: 3, newTradePnl: 4 });
+      expect(read.body[1].backtestActualPnl).toBe(regime === "eu" ? -110 : -90);
       return (await request(app).get(`/api/portfolios/${portfolio.code}/backtest`).set("Cookie", cookie)).body;
     };
 

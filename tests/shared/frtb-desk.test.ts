@@ -38,6 +38,25 @@ describe("FRTB desk backtesting", () => {
   });
 });
 
+describe("FRTB desk backtesting with approved exclusions", () => {
+  it("when the supervisor agreed to disregard one of 13 exceptions, then the desk counts 12 and passes; a missing day is never excluded (CRR Art. 325bf, verified-secondary; MAR32.5(2))", () => {
+    const thirteen = buildSeries({ days: 250, actualAt: range(13), extra: { var975: 50 } });
+    const asOf = thirteen[249].date;
+    const excluded = new Set([thirteen[4].date]);
+    expect(deskBacktest(thirteen, asOf, excluded)).toMatchObject({
+      at99: { count: 12, excludedDays: 1, fails: false },
+      at975: { count: 12, excludedDays: 1 },
+      passes: true,
+    });
+    // Without the exclusion the same desk fails (MAR32.19: more than 12 at 99%).
+    expect(deskBacktest(thirteen, asOf).passes).toBe(false);
+
+    thirteen[20].var99 = null; // a missing VaR counts whatever was agreed for its date
+    const r = deskBacktest(thirteen, asOf, new Set([thirteen[20].date]));
+    expect(r.at99).toMatchObject({ count: 14, missingDays: 1, excludedDays: 0 });
+  });
+});
+
 describe("P&L attribution test zones at their thresholds (MAR32.42)", () => {
   it.each([
     [0.81, 0.05, "green"],

@@ -90,6 +90,22 @@ export async function contextOf(
   };
 }
 
+/** Each portfolio's approved exclusions (dates whose exception the supervisor agreed to disregard). */
+export async function approvedExclusions(
+  portfolioIds: readonly number[],
+  read: ReadIn = {},
+): Promise<Map<number, Set<string>>> {
+  const out = new Map<number, Set<string>>(portfolioIds.map((id) => [id, new Set<string>()]));
+  if (portfolioIds.length === 0) return out;
+  const rows = await sequelize.query<{ pid: number; d: string }>(
+    `SELECT portfolio_id AS pid, DATE_FORMAT(business_date, '%Y-%m-%d') AS d FROM exception_reviews
+      WHERE portfolio_id IN (:ids) AND exclusion_status = 'approved'${read.transaction ? " LOCK IN SHARE MODE" : ""}`,
+    { replacements: { ids: portfolioIds }, type: QueryTypes.SELECT, transaction: read.transaction },
+  );
+  for (const r of rows) out.get(Number(r.pid))?.add(r.d);
+  return out;
+}
+
 /** The settings record in force on a date (never the entity's current columns once records exist). */
 export function settingsAt(ctx: Pick<PortfolioContext, "settings" | "fallback">, date: string): DatedSettings {
   return settingsOn(ctx.settings, date) ?? ctx.fallback;

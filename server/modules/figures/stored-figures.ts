@@ -33,6 +33,7 @@ import { refreshDeterminations } from "../determinations/determinations.store";
 import type { BacktestResponse, DeskResult, OverviewItem, RollingRowDto } from "../../../shared/schemas/backtest";
 import type { Observation } from "../../../shared/backtest/types";
 import {
+  approvedExclusions,
   contextOf,
   engineOptions,
   entityWithPortfolios,
@@ -83,7 +84,12 @@ export async function deskResults(
 ): Promise<DeskResult[]> {
   if (ctx.entity.regime !== "frtb" || ctx.portfolio.level !== "top") return [];
   const results: DeskResult[] = [];
-  for (const desk of [...desks].filter((d) => d.level === "desk").sort((a, b) => a.code.localeCompare(b.code))) {
+  const deskList = [...desks].filter((d) => d.level === "desk").sort((a, b) => a.code.localeCompare(b.code));
+  const exclusions = await approvedExclusions(
+    deskList.map((d) => d.id),
+    read,
+  );
+  for (const desk of deskList) {
     // MAR32.5(2): a desk's unreported business day counts as an exception too.
     const series = withMissingBusinessDays(
       (await loadSeries(desk.id, ctx.entity.regime, undefined, asOf, read.transaction)) as Observation[],
@@ -94,7 +100,7 @@ export async function deskResults(
     results.push({
       portfolio: desk.code,
       name: desk.name,
-      backtest: deskBacktest(series, asOf),
+      backtest: deskBacktest(series, asOf, exclusions.get(desk.id)),
       pla,
       plaUnavailable: pla ? null : "No risk-theoretical P&L (rtpl) reported for this desk.",
     });

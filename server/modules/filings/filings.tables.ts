@@ -19,6 +19,9 @@ const columns: Column<Filing>[] = [
   { header: "Pack file", kind: "text", value: (f) => f.fileName },
   { header: "Pack sha256", kind: "text", value: (f) => f.sha256 },
   { header: "Snapshot", kind: "integer", value: (f) => f.snapshotId },
+  { header: "Snapshot hash", kind: "text", value: (f) => f.snapshotHash },
+  { header: "Amends snapshot", kind: "integer", value: (f) => f.amends },
+  { header: "Amended by snapshot", kind: "integer", value: (f) => f.amendedBy },
 ];
 
 /** The filings the reader may see, as the Filings screen lists them. */

@@ -8,6 +8,7 @@ import type { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { FrtbDeskStatusModel } from "../../models/frtb-desk-status";
 import { loadSeries } from "../observations/observations.repository";
+import { approvedExclusions } from "../figures/engine-inputs";
 import {
   deskStandingAt,
   deskStatusHistory,
@@ -36,17 +37,25 @@ async function deskSeries(
   holidays: ReadonlySet<string>,
   to: string | undefined,
   transaction?: Transaction,
-): Promise<{ portfolio: PortfolioModel; series: Observation[] }[]> {
+): Promise<{ portfolio: PortfolioModel; series: Observation[]; excluded: Set<string> }[]> {
   const desks = await PortfolioModel.findAll({
     where: { entityId: entity.id, level: "desk" },
     order: [["code", "ASC"]],
     transaction,
   });
   const out = [];
+  const exclusions = await approvedExclusions(
+    desks.map((d) => d.id),
+    { transaction },
+  );
   for (const portfolio of desks) {
     // MAR32.5(2): a desk's unreported business day counts as an exception.
     const raw = await loadSeries(portfolio.id, entity.regime, undefined, to, transaction);
-    out.push({ portfolio, series: withMissingBusinessDays(raw, holidays as Set<string>) });
+    out.push({
+      portfolio,
+      series: withMissingBusinessDays(raw, holidays as Set<string>),
+      excluded: exclusions.get(portfolio.id) ?? new Set<string>(),
+    });
   }
   return out;
 }
@@ -67,7 +76,7 @@ export async function refreshDeskStatuses(
   const desks = await deskSeries(entity, holidays, undefined, transaction);
   if (desks.length === 0) return;
   const history = deskStatusHistory(
-    desks.map((d) => ({ code: d.portfolio.code, series: d.series })),
+    desks.map((d) => ({ code: d.portfolio.code, series: d.series, excluded: d.excluded })),
     points.map((p) => p.asOf),
     frozenStandings(signedOff),
   );
@@ -197,7 +206,7 @@ export async function frtbFiguresOn(
           series: d.series,
         };
       // No determination has assessed this desk yet: it is taken as in the model, with today's counts.
-      const live = deskStandingAt(d.portfolio.code, d.series, date, null);
+      const live = deskStandingAt(d.portfolio.code, d.series, date, null, d.excluded);
       notes.push(`${d.portfolio.code} has not been through a determination yet: it is taken as in the model.`);
       return { ...live, status: "in-model" as DeskStatus, series: d.series };
     });

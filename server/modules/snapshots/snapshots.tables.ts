@@ -30,6 +30,8 @@ export function snapshotsTable(
     { header: "Open findings", kind: "integer", value: (s) => s.openFindings },
     { header: "Signature (hash)", kind: "text", value: (s) => s.hash },
     { header: "Inputs sha256", kind: "text", value: (s) => s.inputsSha256 },
+    { header: "Amends snapshot", kind: "integer", value: (s) => s.amends },
+    { header: "Amended by snapshot", kind: "integer", value: (s) => s.amendedBy },
   ];
   // One currency in the format when every row shares it; otherwise the Currency column says it per row.
   const inRows = new Set(rows.map((s) => currencies.get(s.entity)));

@@ -151,7 +151,10 @@ function SelectedSnapshot({
         filingDelivery={(f) => <FilingDelivery filing={f} role={role} />}
         updating={isFetching}
         recipients={recipients}
-        determination={determinations.data?.find((d) => d.quarterEnd === data.quarterEnd)}
+        // A quarter with an amendment has one determination, that of the snapshot that stands (docs/api.md#amendments).
+        determination={determinations.data?.find(
+          (d) => d.quarterEnd === data.quarterEnd && (d.snapshotId === null || d.snapshotId === data.id),
+        )}
       />
     </>
   );

@@ -3,10 +3,23 @@ import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 
-function Count({ count, limit, fails }: { count: number; limit: number; fails: boolean }) {
+function Count({
+  count,
+  limit,
+  fails,
+  excludedDays,
+}: {
+  count: number;
+  limit: number;
+  fails: boolean;
+  excludedDays?: number;
+}) {
   return (
     <span className={cn(fails && "font-semibold text-danger")}>
       {count} <span className="text-ink-muted">/ {limit}</span>
+      {excludedDays ? (
+        <span className="block text-2xs font-normal text-ink-muted">{excludedDays} excluded by the supervisor</span>
+      ) : null}
     </span>
   );
 }
@@ -21,7 +34,8 @@ export function DesksTable({ desks }: { desks: DeskResult[] }) {
       </h3>
       <p className="text-xs text-ink-muted">
         A desk fails backtesting above 12 exceptions at 99% or above 30 at 97.5% in 250 days. The P&amp;L attribution
-        test compares hypothetical with risk-theoretical P&amp;L.
+        test compares hypothetical with risk-theoretical P&amp;L. Exceptions whose exclusion the supervisor approved are
+        not counted; a day without P&amp;L or VaR always counts.
       </p>
       <Table caption="Trading desks">
         <thead>

@@ -75,7 +75,8 @@ export function PnlChart({
   const points = useMemo<Point[]>(
     () =>
       observations.map((o) => {
-        const pnl = series === "actual" ? o.actualPnl : o.hypotheticalPnl;
+        // The actual P&L the rule set backtests (the file's figure less the parts it takes out, if any).
+        const pnl = series === "actual" ? o.backtestActualPnl : o.hypotheticalPnl;
         const day = days.get(o.date);
         const hit = day ? day[series] : false;
         return {

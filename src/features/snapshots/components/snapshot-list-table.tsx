@@ -54,6 +54,10 @@ export function SnapshotListTable({
                   {label}
                 </Link>
                 <span className="figures block text-2xs text-ink-muted">{s.quarterEnd}</span>
+                {s.amends !== null && <span className="block text-2xs font-medium">Amends #{s.amends}</span>}
+                {s.amendedBy !== null && (
+                  <span className="block text-2xs text-ink-muted">Amended by #{s.amendedBy}</span>
+                )}
               </Td>
               <Td
                 className={cn(

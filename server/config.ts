@@ -57,6 +57,13 @@ const envSchema = z.object({
   ALLOWED_HOSTS: z.string().optional(),
   /** Proxies allowed to say who the client is (X-Forwarded-For): addresses or subnets, comma-separated. Unset: none. */
   TRUST_PROXY: z.string().optional(),
+  /**
+   * Sign-in lockout: an account is refused after SIGN_IN_MAX_FAILURES failed attempts within SIGN_IN_WINDOW_MINUTES
+   * (until the window ends or an admin unlocks it); one client address after SIGN_IN_MAX_FAILURES_PER_ADDRESS.
+   */
+  SIGN_IN_MAX_FAILURES: z.coerce.number().int().min(1).max(100).default(5),
+  SIGN_IN_WINDOW_MINUTES: z.coerce.number().int().min(1).max(1440).default(15),
+  SIGN_IN_MAX_FAILURES_PER_ADDRESS: z.coerce.number().int().min(1).max(10_000).default(30),
   /** The address people open Quartermark at: set-password links in e-mails start with it. */
   PUBLIC_URL: z.url({ protocol: /^https?$/, error: "PUBLIC_URL must be an http(s) address" }).optional(),
   /** How long an invitation or password-reset link works, in hours. */
@@ -175,6 +182,11 @@ function loadConfig() {
     ),
     publicUrl: (env.PUBLIC_URL ?? `http://127.0.0.1:${env.PORT}`).replace(/\/+$/, ""),
     invitationTtlHours: env.INVITATION_TTL_HOURS,
+    signIn: Object.freeze({
+      windowMs: env.SIGN_IN_WINDOW_MINUTES * 60_000,
+      perAccount: env.SIGN_IN_MAX_FAILURES,
+      perAddress: env.SIGN_IN_MAX_FAILURES_PER_ADDRESS,
+    }),
     uploads: Object.freeze({
       concurrency: env.UPLOAD_CONCURRENCY,
       queue: env.UPLOAD_QUEUE,

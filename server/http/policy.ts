@@ -50,6 +50,8 @@ export const POLICY = {
   "PATCH /api/users/:id": ["admin"],
   // An admin never sets a password: they send a one-time link (an invitation again, or a reset).
   "POST /api/users/:id/password-link": ["admin"],
+  // An account locked out by failed sign-ins, unlocked by an administrator (audit-logged).
+  "POST /api/users/:id/unlock": ["admin"],
   "GET /api/invitations": ["admin"],
   // Granting or removing the CRO or admin role: one admin proposes, another approves (in the service).
   "GET /api/role-requests": ["admin"],

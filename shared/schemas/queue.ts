@@ -13,6 +13,7 @@ export const queueKindSchema = z.enum([
   "notice_to_send",
   // the analysts'
   "snapshot_returned",
+  "amendment_to_prepare",
   "unexplained_exception",
   "open_finding",
   "quarter_without_snapshot",

@@ -11,6 +11,8 @@ export const userSchema = z.object({
   lastSignInAt: z.string().nullable(),
   /** False until the person has set their first password from their invitation link. */
   passwordSet: z.boolean(),
+  /** Locked out by failed sign-ins until then (the lockout window's end); null when not locked. Only in the list. */
+  lockedUntil: z.string().nullable().default(null),
   /** Row version, sent back with an edit: a stale one is refused (409 stale). */
   version: z.number().int(),
 });

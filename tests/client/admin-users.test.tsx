@@ -141,6 +141,38 @@ describe("Admin › Users", () => {
     expect(email).toHaveAccessibleDescription("This domain is not allowed");
   });
 
+  it("when an account is locked out, then the list says until when; Unlock asks first, Cancel sends nothing, and the confirmation unlocks it", async () => {
+    const locked = [{ ...users[0] }, { ...users[1], lockedUntil: "2026-03-05T14:22:00.000Z" }, users[2]];
+    const api = fakeApi({
+      "GET /api/auth/session": {
+        status: 200,
+        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
+      },
+      "GET /api/users": { status: 200, body: locked },
+      ...emptyQueues,
+      "POST /api/users/2/unlock": { status: 200, body: { ...users[1], lockedUntil: null } },
+    });
+    const user = userEvent.setup();
+    renderApp("/admin/users");
+
+    expect(
+      await screen.findByText("Locked out until 05 Mar 2026, 14:22 UTC", {}, { timeout: 10_000 }),
+    ).toBeInTheDocument();
+    await user.click(screen.getByRole("button", { name: "Unlock Ana Lyst" }));
+    const ask = screen.getByRole("group", { name: "Unlock Ana Lyst" });
+    expect(ask).toHaveTextContent(
+      "Unlock Ana Lyst? Their failed sign-ins are forgotten and they can try again at once.",
+    );
+    await user.click(within(ask).getByRole("button", { name: "Cancel" }));
+    expect(api.callsTo("POST", "/api/users/2/unlock")).toHaveLength(0);
+
+    await user.click(screen.getByRole("button", { name: "Unlock Ana Lyst" }));
+    await user.click(screen.getByRole("button", { name: "Unlock the account" }));
+    expect(await screen.findByText("Ana Lyst is unlocked and can sign in again now.")).toBeInTheDocument();
+    expect(api.callsTo("POST", "/api/users/2/unlock")).toHaveLength(1);
+    expect(screen.queryByRole("button", { name: "Unlock Ada Admin" })).not.toBeInTheDocument();
+  });
+
   it("when an admin changes a role, then the consequence is stated first and the version shown is sent with the change", async () => {
     const api = fakeApi({
       "GET /api/auth/session": {

@@ -96,7 +96,18 @@ describe("managing users", () => {
 });
 
 describe("two admins editing the same user (row version)", () => {
-  const DTO_KEYS = ["createdAt", "disabled", "email", "id", "lastSignInAt", "name", "passwordSet", "role", "version"];
+  const DTO_KEYS = [
+    "createdAt",
+    "disabled",
+    "email",
+    "id",
+    "lastSignInAt",
+    "lockedUntil",
+    "name",
+    "passwordSet",
+    "role",
+    "version",
+  ];
   let otherAdmin: string;
   beforeAll(async () => {
     otherAdmin = await sessionCookieFor((await createTestUser("admin")).id);

@@ -121,6 +121,18 @@ describe("amended filings", () => {
     expect(flagged.restatedAfterSignOff?.resolvedBy).toBeNull();
     const originalRow = (await SnapshotModel.findByPk(originalId))!.toJSON();
 
+    // The analysts are waited for: the filed quarter needs an amendment.
+    const waiting = async () =>
+      (await request(app).get("/api/queue").set("Cookie", book.cookie).expect(200)).body.filter(
+        (i: { kind: string; entity: string }) => i.kind === "amendment_to_prepare" && i.entity === book.entity.code,
+      );
+    expect(await waiting()).toEqual([
+      expect.objectContaining({
+        title: `Q3 2026 of ${book.entity.code} is filed and a day inside it was restated: prepare an amendment`,
+        href: `/quarters?entity=${book.entity.code}&snapshot=${originalId}`,
+      }),
+    ]);
+
     // Prepare: the figures recomputed on today's data, the before/after frozen with them.
     const prepared = await amend(book, originalId);
     expect(prepared.status, JSON.stringify(prepared.body)).toBe(201);
@@ -146,6 +158,13 @@ describe("amended filings", () => {
     expect(a.capitalImpact.change).toBeCloseTo(-0.4 * Math.sqrt(10) * (100.5 + 250), 0);
     expect(a.original).toMatchObject({ snapshotId: originalId, hash: flagged.hash, filingId: filing.id });
     expect(a.original.filedBy).toBe("Bram Oduya");
+
+    // The draft's pack: DRAFT and AMENDMENT on every page, never to be filed as it is.
+    const draftPack = await download(`/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
+    keepPages(draftPack, "amendment_draft");
+    for (const p of pagesText(draftPack)) expect(p).toContain(`DRAFT · AMENDMENT of snapshot #${originalId}`);
+
+    expect(await waiting()).toEqual([]);
 
     // Prepared again while a draft: the same amendment, recomputed — not a second one.
     const again = await amend(book, originalId);

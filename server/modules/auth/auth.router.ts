@@ -5,7 +5,8 @@ import { parseInput, TooManyRequestsError } from "../../errors";
 import { changePasswordBodySchema, loginBodySchema } from "../../../shared/schemas/auth";
 import { changeOwnPassword, signIn, signOut } from "./auth.service";
 import { clearSessionCookie, setSessionCookie } from "./session.middleware";
-import { DatabaseCountStore } from "./sign-in-counts";
+import { accountCounterKey, DatabaseCountStore, passwordChangeCounterKey, SIGN_IN_NAMESPACE } from "./sign-in-counts";
+import { config } from "../../config";
 
 export interface SignInLimits {
   windowMs: number;
@@ -15,14 +16,21 @@ export interface SignInLimits {
   namespace?: string;
 }
 
-export const DEFAULT_SIGN_IN_LIMITS: SignInLimits = { windowMs: 15 * 60 * 1000, perAccount: 5, perAddress: 30 };
+/** The lockout policy from the environment (SIGN_IN_MAX_FAILURES, SIGN_IN_WINDOW_MINUTES, …; README.md). */
+export const DEFAULT_SIGN_IN_LIMITS: SignInLimits = { ...config.signIn };
+
+const minutes = (ms: number) => {
+  const m = Math.max(1, Math.round(ms / 60_000));
+  return `${m} ${m === 1 ? "minute" : "minutes"}`;
+};
 
 export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
   const r = createGuardedRouter();
   // Only failed attempts count; the message is the same whichever limit was reached.
-  const tooMany = () => new TooManyRequestsError("Too many sign-in attempts. Wait 15 minutes and try again.");
+  const tooMany = () =>
+    new TooManyRequestsError(`Too many sign-in attempts. Wait ${minutes(limits.windowMs)} and try again.`);
   // The counts live in MariaDB, so every worker process enforces the one limit (server/cluster.ts).
-  const ns = limits.namespace ?? "sign-in";
+  const ns = limits.namespace ?? SIGN_IN_NAMESPACE;
   const perAddress = rateLimit({
     store: new DatabaseCountStore(`${ns}:address`),
     windowMs: limits.windowMs,
@@ -39,10 +47,7 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
     skipSuccessfulRequests: true,
     standardHeaders: false,
     legacyHeaders: false,
-    keyGenerator: (req) =>
-      `account:${String(req.body?.email ?? "")
-        .trim()
-        .toLowerCase()}`,
+    keyGenerator: (req) => accountCounterKey(String(req.body?.email ?? "")),
     handler: (_req, _res, next) => next(tooMany()),
   });
 
@@ -61,9 +66,13 @@ export function authRouter(limits: SignInLimits = DEFAULT_SIGN_IN_LIMITS) {
     skipSuccessfulRequests: true,
     standardHeaders: false,
     legacyHeaders: false,
-    keyGenerator: (req) => `password-change:${req.user?.id ?? "none"}`,
+    keyGenerator: (req) => passwordChangeCounterKey(req.user?.id ?? "none"),
     handler: (_req, _res, next) =>
-      next(new TooManyRequestsError("Too many attempts to change your password. Wait 15 minutes and try again.")),
+      next(
+        new TooManyRequestsError(
+          `Too many attempts to change your password. Wait ${minutes(limits.windowMs)} and try again.`,
+        ),
+      ),
   });
 
   r.post("/api/auth/password", passwordChangesPerAccount, async (req, res) => {

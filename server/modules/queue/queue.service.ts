@@ -188,10 +188,25 @@ async function quartersWithoutSnapshot(): Promise<QueueItem[]> {
   return out;
 }
 
+/**
+ * Filed snapshots a restatement flagged that no amendment corrects yet (docs/api.md#amendments): a
+ * snapshot that has an amendment, whatever its status, is no longer waiting for one.
+ */
+async function amendmentsToPrepare(): Promise<SnapshotRow[]> {
+  return q<SnapshotRow>(
+    `SELECT s.id, e.code AS entity, DATE_FORMAT(s.quarter_end, '%Y-%m-%d') AS quarter_end, NULL AS who
+       FROM snapshots s JOIN entities e ON e.id = s.entity_id
+      WHERE s.status = 'filed' AND s.restated_at IS NOT NULL
+        AND NOT EXISTS (SELECT 1 FROM snapshots a WHERE a.amends_id = s.id)
+      ORDER BY s.quarter_end, e.code`,
+  );
+}
+
 async function analystItems(): Promise<QueueItem[]> {
-  const [notices, returned, unexplained, findings, quarters] = await Promise.all([
+  const [notices, returned, toAmend, unexplained, findings, quarters] = await Promise.all([
     openNotices(false),
     snapshotsIn("returned"),
+    amendmentsToPrepare(),
     unexplainedExceptions(),
     q<{ entity: string; portfolio: string; kind: string; date_from: string; date_to: string }>(
       `SELECT e.code AS entity, p.code AS portfolio, f.kind, DATE_FORMAT(f.date_from, '%Y-%m-%d') AS date_from,
@@ -214,6 +229,12 @@ async function analystItems(): Promise<QueueItem[]> {
       kind: "snapshot_returned" as const,
       entity: s.entity,
       title: `${quarterLabel(s.quarter_end)} of ${s.entity} was returned: prepare it again`,
+      href: hrefs.snapshot(s.entity, Number(s.id)),
+    })),
+    ...toAmend.map((s) => ({
+      kind: "amendment_to_prepare" as const,
+      entity: s.entity,
+      title: `${quarterLabel(s.quarter_end)} of ${s.entity} is filed and a day inside it was restated: prepare an amendment`,
       href: hrefs.snapshot(s.entity, Number(s.id)),
     })),
     ...unexplained,

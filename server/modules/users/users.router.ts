@@ -8,7 +8,7 @@ import {
   updateUserBodySchema,
 } from "../../../shared/schemas/user";
 import { idParamSchema } from "../../../shared/schemas/common";
-import { createUser, listUsers, sendPasswordLink, updateUser } from "./users.service";
+import { createUser, listUsers, sendPasswordLink, unlockUser, updateUser } from "./users.service";
 import {
   approveRoleRequest,
   listPendingRoleRequests,
@@ -28,6 +28,10 @@ export function usersRouter() {
   r.patch("/api/users/:id", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");
     res.json(await updateUser(id, parseInput(updateUserBodySchema, req.body), signedInActor(req)));
+  });
+  r.post("/api/users/:id/unlock", async (req, res) => {
+    const { id } = parseInput(idParamSchema, req.params, "address");
+    res.json(await unlockUser(id, signedInActor(req)));
   });
   r.post("/api/users/:id/password-link", async (req, res) => {
     const { id } = parseInput(idParamSchema, req.params, "address");

@@ -7,6 +7,8 @@ import { revokeApiTokensOf } from "../api-tokens/api-tokens.service";
 import { issuePasswordLink } from "../invitations/invitations.service";
 import { TOKEN_HOLDERS } from "../../kit/roles";
 import { sequelize } from "../../db/sequelize";
+import { config } from "../../config";
+import { forgetFailures, lockedAccounts } from "../auth/sign-in-counts";
 import type { Transaction } from "sequelize";
 import type { SignedIn } from "../../kit/actor";
 import type { Role } from "../../../shared/schemas/common";
@@ -32,6 +34,7 @@ export function toUser(row: UserModel): User {
     createdAt: row.createdAt.toISOString(),
     lastSignInAt: row.lastSignInAt ? row.lastSignInAt.toISOString() : null,
     passwordSet: row.passwordHash !== null,
+    lockedUntil: null,
     version: row.version,
   };
 }
@@ -71,7 +74,36 @@ export function pendingRequestFor(email: string, transaction?: Transaction) {
 
 export async function listUsers(): Promise<User[]> {
   const rows = await UserModel.findAll({ order: [["email", "ASC"]] });
-  return rows.map(toUser);
+  const locked = await lockedAccounts(
+    rows.map((r) => r.email),
+    config.signIn.perAccount,
+  );
+  return rows.map((r) => ({ ...toUser(r), lockedUntil: locked.get(r.email)?.until.toISOString() ?? null }));
+}
+
+/**
+ * Unlocks an account locked out by failed sign-ins: its failed attempts are forgotten and the person may try again
+ * at once. The limit per client address stays (it protects every account). Audit-logged with what was forgotten.
+ */
+export async function unlockUser(id: number, actor: AdminActor): Promise<User> {
+  const row = await UserModel.findByPk(id);
+  if (!row) throw new AppError(404, "not_found", `No user with id ${id}.`);
+  const locked = (await lockedAccounts([row.email], config.signIn.perAccount)).get(row.email);
+  if (!locked) throw new ConflictError(`${row.name} (${row.email}) is not locked out; nothing to unlock.`);
+  await sequelize.transaction(async (transaction) => {
+    await forgetFailures(row.email, row.id);
+    await recordAudit(
+      actor,
+      "user.unlock",
+      row.email,
+      {
+        before: { failedSignIns: locked.failures, lockedUntil: locked.until.toISOString() },
+        after: { lockedUntil: null },
+      },
+      transaction,
+    );
+  });
+  return toUser(row);
 }
 
 /**

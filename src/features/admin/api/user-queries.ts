@@ -96,6 +96,15 @@ export function useSendPasswordLink() {
   });
 }
 
+/** Unlocks an account locked out by failed sign-ins; the person may try again at once. */
+export function useUnlockUser() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => api.post(`/api/users/${id}/unlock`, {}, userSchema),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
+  });
+}
+
 export function useProposeRole() {
   const queryClient = useQueryClient();
   return useMutation({

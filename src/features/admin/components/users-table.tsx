@@ -8,11 +8,20 @@ import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { cn } from "@/lib/cn";
-import { staleUserMessage, useProposeRole, useSendPasswordLink, useUpdateUser } from "../api/user-queries";
+import {
+  staleUserMessage,
+  useProposeRole,
+  useSendPasswordLink,
+  useUnlockUser,
+  useUpdateUser,
+} from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
 
 type Pending =
-  { userId: number; kind: "role"; role: Role } | { userId: number; kind: "link" } | { userId: number; kind: "disable" };
+  | { userId: number; kind: "role"; role: Role }
+  | { userId: number; kind: "link" }
+  | { userId: number; kind: "disable" }
+  | { userId: number; kind: "unlock" };
 
 function errorText(error: unknown): string | undefined {
   return (
@@ -41,6 +50,7 @@ export function UsersTable({
   const update = useUpdateUser();
   const propose = useProposeRole();
   const sendLink = useSendPasswordLink();
+  const unlock = useUnlockUser();
   const [pending, setPending] = useState<Pending | null>(null);
   const [notice, setNotice] = useState<string>();
 
@@ -54,8 +64,9 @@ export function UsersTable({
   }
 
   const sorted = [...users].sort((a, b) => Number(a.disabled) - Number(b.disabled) || a.name.localeCompare(b.name));
-  const error = errorText(update.error) ?? errorText(propose.error) ?? errorText(sendLink.error);
-  const busy = update.isPending || propose.isPending || sendLink.isPending;
+  const error =
+    errorText(update.error) ?? errorText(propose.error) ?? errorText(sendLink.error) ?? errorText(unlock.error);
+  const busy = update.isPending || propose.isPending || sendLink.isPending || unlock.isPending;
   const waitingFor = new Map(roleRequests.filter((r) => r.userId !== null).map((r) => [r.userId!, r]));
 
   function resetAll() {
@@ -63,6 +74,15 @@ export function UsersTable({
     update.reset();
     propose.reset();
     sendLink.reset();
+    unlock.reset();
+  }
+
+  function confirmUnlock(u: User) {
+    resetAll();
+    unlock.mutate(u.id, {
+      onSuccess: () => setNotice(`${u.name} is unlocked and can sign in again now.`),
+      onSettled: () => setPending(null),
+    });
   }
 
   function change(user: User, body: { role?: Role; disabled?: boolean }, message: string) {
@@ -167,12 +187,38 @@ export function UsersTable({
                       </span>
                     )}
                   </Td>
-                  <Td>{u.disabled ? "Disabled" : u.passwordSet ? "Active" : "Invited"}</Td>
+                  <Td>
+                    {u.disabled ? "Disabled" : u.passwordSet ? "Active" : "Invited"}
+                    {u.lockedUntil && (
+                      <span className="block text-xs font-medium text-danger">
+                        Locked out until {formatDateTime(u.lockedUntil)}
+                      </span>
+                    )}
+                  </Td>
                   <Td numeric className="whitespace-nowrap">
                     {u.lastSignInAt ? formatDateTime(u.lastSignInAt) : "Never"}
                   </Td>
                   <Td className="text-right whitespace-nowrap">
                     <div className="flex justify-end gap-3">
+                      {u.lockedUntil && (
+                        <Button
+                          variant="quiet"
+                          size="sm"
+                          disabled={busy}
+                          aria-label={`Unlock ${u.name}`}
+                          aria-expanded={pending?.userId === u.id && pending.kind === "unlock"}
+                          onClick={() => {
+                            resetAll();
+                            setPending(
+                              pending?.userId === u.id && pending.kind === "unlock"
+                                ? null
+                                : { userId: u.id, kind: "unlock" },
+                            );
+                          }}
+                        >
+                          Unlock
+                        </Button>
+                      )}
                       {!u.disabled && (
                         <Button
                           variant="quiet"
@@ -228,6 +274,15 @@ export function UsersTable({
                           confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
                           busy={busy}
                           onConfirm={() => confirmRole(u, pending.role)}
+                          onCancel={() => setPending(null)}
+                        />
+                      ) : pending.kind === "unlock" ? (
+                        <Confirmation
+                          label={`Unlock ${u.name}`}
+                          text={`Unlock ${u.name}? Their failed sign-ins are forgotten and they can try again at once. Do it only once you know the attempts were theirs; the limit per address stays in force.`}
+                          confirm="Unlock the account"
+                          busy={busy}
+                          onConfirm={() => confirmUnlock(u)}
                           onCancel={() => setPending(null)}
                         />
                       ) : pending.kind === "disable" ? (

@@ -16,6 +16,7 @@ export const queueKindLabels: Record<QueueKind, string> = {
   settings_proposal: "Settings changes to decide",
   notice_to_draft: "Overshooting notices to draft",
   snapshot_returned: "Returned quarters to prepare again",
+  amendment_to_prepare: "Filed quarters to amend",
   quarter_without_snapshot: "Ended quarters without a snapshot",
   unexplained_exception: "Exceptions to explain",
   open_finding: "Open data-quality findings",

@@ -1,12 +1,12 @@
 import type { PnlBasis } from "../schemas/common";
 import { binomialPmf } from "./binomial";
 import { businessDaysBetween, nextBusinessDays } from "./calendar";
-import { capitalAddOnFromInputs, capitalInputsAt, type CapitalInputs } from "./capital";
+import { AVERAGING_DAYS, capitalAddOnFromInputs, capitalInputsAt, type CapitalInputs } from "./capital";
 import { EngineInputError } from "./errors";
 import { classifyDay, countedFromBasis } from "./exceptions";
 import { getRegime, plusFactorFor, zoneFor, type RegimeRules } from "./regimes";
 import type { BacktestOptions, Observation, Zone } from "./types";
-import { assertIsoDate, validateObservations, varFieldFor, windowAt } from "./window";
+import { assertIsoDate, lastIndexOnOrBefore, validateObservations, varFieldFor, windowAt } from "./window";
 
 /**
  * Roll-off and forecast (docs/rules.md#forecast). Each exception leaves the window 250 observations after it
@@ -15,6 +15,24 @@ import { assertIsoDate, validateObservations, varFieldFor, windowAt } from "./wi
  * Binomial(h, 1 − confidence) for the h business days still to come; for the `max` basis this adds
  * them to the higher count, a slight overstatement of the chance of leaving the green zone.
  */
+
+/**
+ * How many observations up to an as-of date the forecast, the roll-offs, the what-if, the
+ * indicative count and capital on that date read: the backtesting window and the days the capital
+ * averages (the US stressed VaR's 12 weeks lie inside them). Nothing before them changes a figure.
+ */
+export const STARTING_POINT_OBSERVATIONS = Math.max(250, AVERAGING_DAYS);
+
+/**
+ * The starting point of the forecast and the what-if at `asOf`: the last
+ * STARTING_POINT_OBSERVATIONS observations dated on or before it. Every figure of forecastAt,
+ * rollOffs, whatIfFromCount and capitalInputsAt at `asOf` (window of 250) is the same on these as
+ * on the whole history, so a reader keeps only these (docs/rules.md#forecast).
+ */
+export function startingSeries<T extends { date: string }>(observations: readonly T[], asOf: string): T[] {
+  const end = lastIndexOnOrBefore(observations, asOf);
+  return observations.slice(Math.max(0, end - STARTING_POINT_OBSERVATIONS + 1), end + 1);
+}
 
 interface ScoredDay {
   index: number;

@@ -5,9 +5,10 @@
  * proposed by an admin and approved by a CRO (effective inside the window, or after the last day
  * so that later commits carry the data past it) run against the real database through the
  * services the routes call; after each write, every stored figure of the entity (backtest, rolling
- * series, Overview line, the determinations of the multiplier) is compared with a recomputation
- * from the data as it now is, and the stored backtest with the settings in force on its day
- * (docs/rules.md#settings). Bounded: 20 runs of at most 6 writes each.
+ * series, Overview line, the determinations of the multiplier, the starting point of the forecast
+ * and the what-if) is compared with a recomputation from the data as it now is, the stored backtest
+ * with the settings in force on its day (docs/rules.md#settings), and the forecast, what-if and
+ * indicative count from the stored starting point with the engine on the whole history. Bounded: 20 runs of at most 6 writes each.
  */
 import fc from "fast-check";
 import { beforeAll, describe, expect, it } from "vitest";
@@ -26,12 +27,25 @@ import {
   previewHolidayImport,
   removeHoliday,
 } from "../../server/modules/entities/entities.service";
-import { computePortfolioFigures } from "../../server/modules/figures/stored-figures";
-import { entityWithPortfolios } from "../../server/modules/figures/engine-inputs";
+import { computePortfolioFigures, storedStart } from "../../server/modules/figures/stored-figures";
+import {
+  entityWithPortfolios,
+  loadStartingPoint,
+  storedStartingPoint,
+} from "../../server/modules/figures/engine-inputs";
+import { addBusinessDays } from "../../shared/backtest/calendar";
+import { forecastAt } from "../../shared/backtest/forecast";
+import { whatIfFromCount } from "../../shared/backtest/what-if";
 import { approveSettings, proposeSettings } from "../../server/modules/settings/settings.service";
 import { approvedSettings, fallbackSettings } from "../../server/modules/settings/settings.read";
 import { loadEntityEngineInputs, storedDeterminations } from "../../server/modules/determinations/determinations.store";
-import { determinationsFor, multipliersFor, settingsOn } from "../../shared/backtest/determination";
+import {
+  determinationsFor,
+  indicativeAt,
+  multipliersFor,
+  settingsInForce,
+  settingsOn,
+} from "../../shared/backtest/determination";
 import type { BacktestResponse } from "../../shared/schemas/backtest";
 import { createTestEntity, createTestUser, unique } from "./helpers";
 
@@ -274,8 +288,9 @@ async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
       backtest_json: string | null;
       rolling_json: string;
       overview_json: string | null;
+      start_json: string | null;
     }>(
-      `SELECT DATE_FORMAT(as_of, '%Y-%m-%d') AS as_of, backtest_json, rolling_json, overview_json
+      `SELECT DATE_FORMAT(as_of, '%Y-%m-%d') AS as_of, backtest_json, rolling_json, overview_json, start_json
          FROM portfolio_figures WHERE portfolio_id = :id`,
       { replacements: { id: p.id }, type: QueryTypes.SELECT },
     );
@@ -285,6 +300,7 @@ async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
     expect(parse(row.backtest_json)).toEqual(fresh.backtest);
     expect(parse(row.rolling_json)).toEqual(fresh.rolling);
     expect(parse(row.overview_json)).toEqual(fresh.overview);
+    expect(parse(row.start_json)).toEqual(fresh.start);
 
     // Beside the recompute, an oracle from the engine: the stored backtest counts on the basis and
     // carries the multiplier of the settings in force on its own day, not the entity's columns.
@@ -299,6 +315,34 @@ async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
   }
   // The determinations (none signed off here) against the engine on the data and settings as they now are.
   const inputs = await loadEntityEngineInputs(entity);
+
+  // The stored starting point gives the forecast, the what-if and the in-force count that the whole
+  // history gives (docs/rules.md#forecast), and the one read back from the database at the last day
+  // is the stored one.
+  const { start } = await storedStart(entity);
+  expect(start === null).toBe(inputs.series.length === 0);
+  if (start) {
+    const asOf = inputs.series[inputs.series.length - 1].date;
+    expect(start.asOf).toBe(asOf);
+    const date = addBusinessDays(asOf, 40, inputs.options.holidays);
+    const settings = settingsInForce(inputs.options, asOf);
+    const opts = {
+      regime: entity.regime,
+      pnlBasis: settings.pnlBasis,
+      asOf,
+      qualitativeAddend: settings.qualitativeAddend,
+      date,
+    };
+    expect(forecastAt(start.series, { ...opts, ...start.options })).toEqual(
+      forecastAt(inputs.series, { ...opts, ...inputs.options }),
+    );
+    expect(indicativeAt(start.series, asOf, start.options)).toEqual(indicativeAt(inputs.series, asOf, inputs.options));
+    const scenario = { regime: entity.regime, asOf, counted: 2, settings, extraExceptions: 1, varScale: 1.1 };
+    expect(whatIfFromCount(start.series, scenario)).toEqual(whatIfFromCount(inputs.series, scenario));
+    expect(settingsInForce(start.options, asOf)).toEqual(settings);
+    const read = await loadStartingPoint(entity, inputs.portfolio!.id, asOf);
+    expect(read && storedStartingPoint(read)).toEqual(storedStartingPoint(start));
+  }
   const fresh = determinationsFor(inputs.series, inputs.options).map((d) => ({
     periodEnd: d.periodEnd,
     effectiveFrom: d.effectiveFrom,

@@ -1,6 +1,10 @@
 import { addBusinessDays } from "../../shared/backtest/calendar";
-import { forecastAt, rollOffs } from "../../shared/backtest/forecast";
-import { buildSeries } from "./build-observations";
+import fc from "fast-check";
+import { capitalInputsAt } from "../../shared/backtest/capital";
+import { forecastAt, rollOffs, startingSeries, STARTING_POINT_OBSERVATIONS } from "../../shared/backtest/forecast";
+import type { Observation } from "../../shared/backtest/types";
+import { whatIfFromCount } from "../../shared/backtest/what-if";
+import { buildSeries, businessDates } from "./build-observations";
 
 const SQRT10 = Math.sqrt(10);
 // 250 days, VaR 100 and sVaR 200 every day; five exceptions (yellow) at these indices on both series.
@@ -69,5 +73,53 @@ describe("forecast at a future date", () => {
 
   it("when the date is before the as-of date, then it throws", () => {
     expect(() => forecastAt(obs, { ...opts, date: obs[100].date })).toThrow(/before the as-of date/);
+  });
+});
+
+describe("the starting point of the forecast and the what-if", () => {
+  const REGIMES = ["basel", "us", "eu", "frtb"] as const;
+  const amount = fc.option(fc.integer({ min: -300, max: 300 }), { nil: null, freq: 10 });
+  const day = fc.record({
+    actualPnl: amount,
+    hypotheticalPnl: amount,
+    var99: fc.option(fc.integer({ min: 50, max: 200 }), { nil: null, freq: 10 }),
+    svar99: fc.option(fc.integer({ min: 100, max: 400 }), { nil: null, freq: 10 }),
+    es975: fc.option(fc.integer({ min: 50, max: 200 }), { nil: null, freq: 10 }),
+  });
+
+  it("when the forecast, what-if and capital read only the last 250 observations, then every figure equals the one on the whole history (property)", () => {
+    fc.assert(
+      fc.property(
+        fc.array(day, { minLength: 1, maxLength: 700 }),
+        fc.constantFrom(...REGIMES),
+        fc.integer({ min: 0, max: 400 }),
+        fc.integer({ min: 0, max: 3 }),
+        (days, regime, ahead, extra) => {
+          const series: Observation[] = businessDates(days.length).map((date, i) => ({ date, ...days[i] }));
+          const asOf = series[series.length - 1].date;
+          const start = startingSeries(series, asOf);
+          expect(start.length).toBe(Math.min(series.length, STARTING_POINT_OBSERVATIONS));
+          const date = addBusinessDays(asOf, ahead);
+          const excludedDates = series.filter((_, i) => i % 37 === 5).map((o) => o.date);
+          const opts = { regime, asOf, date, excludedDates, qualitativeAddend: 0.25 };
+          expect(forecastAt(start, opts)).toEqual(forecastAt(series, opts));
+          const scenario = { regime, asOf, counted: 3, extraExceptions: extra, varScale: 1.2 };
+          const safely = <T>(f: () => T) => {
+            try {
+              return f();
+            } catch (e) {
+              return String(e);
+            }
+          };
+          expect(safely(() => whatIfFromCount(start, scenario))).toEqual(
+            safely(() => whatIfFromCount(series, scenario)),
+          );
+          expect(safely(() => capitalInputsAt(start, regime, asOf))).toEqual(
+            safely(() => capitalInputsAt(series, regime, asOf)),
+          );
+        },
+      ),
+      { numRuns: 150 },
+    );
   });
 });

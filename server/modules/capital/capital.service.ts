@@ -1,17 +1,16 @@
-import { AppError, NotFoundError } from "../../errors";
+import { AppError } from "../../errors";
 import { forecastAt } from "../../../shared/backtest/forecast";
 import { whatIfFromCount } from "../../../shared/backtest/what-if";
 import { capitalInputsAt } from "../../../shared/backtest/capital";
 import { addBusinessDays } from "../../../shared/backtest/calendar";
-import { capitalUnder, inForceOn, indicativeAt, multipliersFor } from "../../../shared/backtest/determination";
+import { capitalUnder, indicativeAt, multipliersFor, settingsInForce } from "../../../shared/backtest/determination";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { zoneFor } from "../../../shared/backtest/regimes";
-import {
-  loadEntityEngineInputs,
-  storedDeterminations,
-  toDeterminationDto,
-} from "../determinations/determinations.store";
+import { determinationInForce, signedOffDetermination } from "../determinations/determinations.store";
 import { bitesFrom } from "../determinations/determinations.service";
+import { loadStartingPoint, noHeadlineError } from "../figures/engine-inputs";
+import { noDataError, storedStart } from "../figures/stored-figures";
+import type { EntityModel } from "../../models/entity";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
 import type { DeterminationDto } from "../../../shared/schemas/determination";
 import type { SessionUser } from "../../../shared/schemas/auth";
@@ -30,40 +29,33 @@ import type { DatedSettings } from "../../../shared/backtest/determination";
 const readsApprovedOnly = (viewer: SessionUser) => viewer.role === "treasury";
 
 /**
- * Where the figures start: for the reporting office, the entity's top-of-house portfolio on its
- * latest day with data and the settings in force then; for treasury, the latest signed-off
- * determination (its count, its settings, the data up to its as-of date).
+ * Where the figures start: for the reporting office, the starting point stored with the entity's
+ * top-of-house portfolio at its latest day and the settings in force then; for treasury, the
+ * latest signed-off determination (its count, its settings, the 250 days up to its as-of date).
+ * Either way the read is a few indexed rows and 250 days, whatever the length of the history.
  */
 async function startingPoint(code: string, viewer: SessionUser) {
   const entity = await entityByCode(code);
-  const inputs = await loadEntityEngineInputs(entity);
-  const { portfolio } = inputs;
-  if (!portfolio)
-    throw new NotFoundError(`${code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
-  if (inputs.series.length === 0)
-    throw new AppError(404, "no_data", `No daily data for ${portfolio.code} yet. An analyst uploads it under Data.`);
-  const dets = (await storedDeterminations(entity.id)).map((d) => toDeterminationDto(d, entity.regime));
-  const latest = inputs.series[inputs.series.length - 1].date;
+  const { portfolio, start: latestStart } = await storedStart(entity);
+  if (!portfolio) throw noHeadlineError(code);
+  if (!latestStart) throw noDataError(portfolio.code);
+  const latest = latestStart.asOf;
   if (!readsApprovedOnly(viewer)) {
-    const indicative = indicativeAt(inputs.series, latest, inputs.options);
-    const settings = inputs.options.settings.length
-      ? (inForceSettings(inputs.options.settings, latest) ?? inputs.options.fallback)
-      : inputs.options.fallback;
+    const indicative = indicativeAt(latestStart.series, latest, latestStart.options);
     return {
       entity,
-      inputs,
       portfolio,
-      dets,
+      start: latestStart,
       asOf: latest,
       latest,
       counted: indicative.counted,
       windowComplete: indicative.windowComplete,
-      settings,
+      settings: settingsInForce(latestStart.options, latest),
+      determination: undefined as DeterminationDto | undefined,
       startsFrom: { kind: "current" as const, quarterEnd: null, asOf: latest, status: null },
     };
   }
-  const approved = dets.filter((d) => d.status !== "provisional");
-  const det = approved[approved.length - 1];
+  const det = await signedOffDetermination(entity);
   if (!det) {
     throw new AppError(
       404,
@@ -73,10 +65,8 @@ async function startingPoint(code: string, viewer: SessionUser) {
   }
   return {
     entity,
-    inputs,
     portfolio,
-    dets,
-    approved,
+    start: det.asOf === latest ? latestStart : await startAt(entity, portfolio, det.asOf),
     asOf: det.asOf,
     latest,
     counted: det.counted,
@@ -92,10 +82,14 @@ async function startingPoint(code: string, viewer: SessionUser) {
   };
 }
 
-function inForceSettings(records: readonly DatedSettings[], date: string): DatedSettings | null {
-  let found: DatedSettings | null = null;
-  for (const r of records) if (r.effectiveFrom <= date && (!found || r.effectiveFrom >= found.effectiveFrom)) found = r;
-  return found;
+/** The starting point at an earlier date, read from the database (250 days up to it). */
+async function startAt(entity: EntityModel, portfolio: { id: number; code: string }, at: string) {
+  const start = await loadStartingPoint(entity, portfolio.id, at);
+  if (!start)
+    throw new AppError(422, "validation_failed", `${portfolio.code} has no daily data on or before ${at}.`, {
+      fields: { asOf: `A day on or after the first day with data of ${portfolio.code}` },
+    });
+  return start;
 }
 
 const summary = (d: DeterminationDto | null) =>
@@ -130,8 +124,8 @@ export async function getForecast(
   viewer: SessionUser,
 ): Promise<ForecastResponse> {
   const start = await startingPoint(code, viewer);
-  const { entity, inputs, portfolio, asOf, settings } = start;
-  const series = inputs.series.filter((o) => o.date <= asOf);
+  const { entity, portfolio, asOf, settings } = start;
+  const { series, options } = start.start;
   const date = query.date ?? defaultForecastDate(start.latest);
   if (date < asOf) {
     throw new AppError(
@@ -145,10 +139,10 @@ export async function getForecast(
     regime: entity.regime,
     pnlBasis: settings.pnlBasis,
     asOf,
-    excludedDates: inputs.options.excludedDates,
+    excludedDates: options.excludedDates,
     qualitativeAddend: settings.qualitativeAddend,
     date,
-    holidays: inputs.options.holidays,
+    holidays: options.holidays,
   });
   const m = multipliersFor(start.counted, entity.regime, settings);
   let nextExceptionCost: number | null = null;
@@ -161,7 +155,7 @@ export async function getForecast(
   } catch (err) {
     if (!(err instanceof EngineInputError)) throw err;
   }
-  const holidays = inputs.options.holidays;
+  const holidays = options.holidays;
   return {
     entity: entity.code,
     portfolio: portfolio.code,
@@ -178,9 +172,9 @@ export async function getForecast(
     },
     startsFrom: start.startsFrom,
     // Treasury's figures start from the latest signed-off determination: that is the one it reads as in force.
-    inForce: summary(start.determination ?? inForceOn(start.dets, asOf)),
-    bitesFrom: bitesFrom(date, inputs.options, asOf),
-    nextExceptionBitesFrom: bitesFrom(addBusinessDays(asOf, 1, holidays), inputs.options, asOf),
+    inForce: summary(start.determination ?? (await determinationInForce(entity, asOf))),
+    bitesFrom: bitesFrom(date, options, asOf),
+    nextExceptionBitesFrom: bitesFrom(addBusinessDays(asOf, 1, holidays), options, asOf),
   };
 }
 
@@ -191,14 +185,15 @@ export async function getWhatIf(
   viewer: SessionUser,
 ): Promise<WhatIfResponse> {
   const start = await startingPoint(code, viewer);
-  const { entity, inputs, portfolio } = start;
+  const { entity, portfolio } = start;
   const asOf = body.asOf ?? start.asOf;
   let counted = start.counted;
   let settings = start.settings;
+  let from = start.start;
   let startsFrom: WhatIfResponse["startsFrom"];
   if (start.startsFrom.kind === "approved") {
     // Treasury: the as-of date must be a signed-off determination's; its count and settings are the base.
-    const chosen = (start.approved ?? []).find((d) => d.asOf === asOf);
+    const chosen = asOf === start.asOf ? start.determination : await signedOffDetermination(entity, asOf);
     if (!chosen) {
       throw new AppError(
         422,
@@ -209,6 +204,7 @@ export async function getWhatIf(
     }
     counted = chosen.counted;
     settings = chosen.settings as DatedSettings;
+    if (asOf !== start.asOf) from = await startAt(entity, portfolio, asOf);
     startsFrom = {
       kind: "approved",
       quarterEnd: chosen.quarterEnd,
@@ -224,13 +220,13 @@ export async function getWhatIf(
         { fields: { asOf: `At most ${start.latest}` } },
       );
     if (asOf !== start.asOf) {
-      counted = indicativeAt(inputs.series, asOf, inputs.options).counted;
-      settings = inForceSettings(inputs.options.settings, asOf) ?? inputs.options.fallback;
+      from = await startAt(entity, portfolio, asOf);
+      counted = indicativeAt(from.series, asOf, from.options).counted;
+      settings = settingsInForce(from.options, asOf);
     }
     startsFrom = { kind: "current", quarterEnd: null, asOf, status: null };
   }
-  const series = inputs.series.filter((o) => o.date <= asOf);
-  const result = whatIfFromCount(series, {
+  const result = whatIfFromCount(from.series, {
     regime: entity.regime,
     asOf,
     counted,
@@ -246,7 +242,7 @@ export async function getWhatIf(
     asOf,
     ...result,
     startsFrom,
-    bitesFrom: bitesFrom(addBusinessDays(asOf, 1, inputs.options.holidays), inputs.options, asOf),
+    bitesFrom: bitesFrom(addBusinessDays(asOf, 1, from.options.holidays), from.options, asOf),
   };
 }
 

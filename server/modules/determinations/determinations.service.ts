@@ -8,7 +8,6 @@ import { capitalInputsAt } from "../../../shared/backtest/capital";
 import {
   capitalUnder,
   determinationCounting,
-  inForceOn,
   indicativeAt,
   multipliersFor,
   settingsInForce,
@@ -21,7 +20,9 @@ import { addBusinessDays } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import type { CapitalOnDate, DeterminationDto } from "../../../shared/schemas/determination";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import { loadEntityEngineInputs, storedDeterminations, toDeterminationDto } from "./determinations.store";
+import { determinationInForce, storedDeterminations, toDeterminationDto } from "./determinations.store";
+import { holidaysOf, loadStartingPoint } from "../figures/engine-inputs";
+import { PortfolioModel } from "../../models/portfolio";
 import { deskStatusTimeline, frtbFiguresOn } from "../frtb/frtb.store";
 
 const cents = (v: number) => Math.round(v * 100) / 100;
@@ -121,17 +122,23 @@ export async function latestApprovedDetermination(entity: EntityModel): Promise<
 export async function capitalOnDate(code: string, query: { date?: string }): Promise<CapitalOnDate> {
   const entity = await entityByCode(code);
   const date = query.date ?? today();
-  const inputs = await loadEntityEngineInputs(entity);
-  if (!inputs.portfolio || inputs.series.length === 0 || inputs.series[0].date > date) {
+  // The rows it needs, whatever the history: the 250 days up to the date and the determination in force.
+  const portfolio = await headlineOf(entity);
+  const [start, stored] = await Promise.all([
+    portfolio ? loadStartingPoint(entity, portfolio.id, date) : null,
+    determinationInForce(entity, date),
+  ]);
+  if (!start) {
     throw new AppError(
       404,
       "no_data",
       `${code} has no daily data on or before ${date}. An analyst uploads it under Data.`,
     );
   }
+  const inputs = { series: start.series, options: start.options };
   const settings = settingsInForce(inputs.options, date);
-  const dets = (await storedDeterminations(entity.id)).map((d) => toDeterminationDto(d, entity.regime));
-  const det = inForceOn(dets, date);
+  const det = stored;
+
   const indicative = indicativeAt(inputs.series, date, inputs.options);
   // The plus factor is the determination's; addends and floor are those in force on the date.
   const inForce = det
@@ -181,7 +188,8 @@ export async function capitalOnDate(code: string, query: { date?: string }): Pro
         date,
         (inForce ?? indicative).multiplier,
         inForce?.quarterEnd ?? null,
-        inputs.options.holidays,
+        // The desks' own series run over their whole history: the whole calendar.
+        await holidaysOf(entity.id),
       );
     } catch (err) {
       if (!(err instanceof EngineInputError)) throw err;
@@ -203,6 +211,15 @@ export async function capitalOnDate(code: string, query: { date?: string }): Pro
     settings,
     ...(entity.regime === "frtb" ? { frtb, frtbNote, frtbTimeline } : {}),
   };
+}
+
+/** The entity's top-of-house portfolio (the first by code), as the determinations count it. */
+async function headlineOf(entity: EntityModel): Promise<PortfolioModel | null> {
+  return PortfolioModel.findOne({
+    where: { entityId: entity.id, level: "top" },
+    order: [["code", "ASC"]],
+    attributes: ["id", "code"],
+  });
 }
 
 /** The determination that first counts an exception on `day` (the frequency in force on `asOf`). */

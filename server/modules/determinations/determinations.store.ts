@@ -271,3 +271,27 @@ export function toDeterminationDto(d: DeterminationModel, regime: EntityModel["r
 export async function storedDeterminations(entityId: number, transaction?: Transaction) {
   return DeterminationModel.findAll({ where: { entityId }, order: [["periodEnd", "ASC"]], transaction });
 }
+
+/** The determination in force on a date (the last one effective on or before it), or null: one indexed row. */
+export async function determinationInForce(entity: EntityModel, date: string): Promise<DeterminationDto | null> {
+  const row = await DeterminationModel.findOne({
+    where: { entityId: entity.id, effectiveFrom: { [Op.lte]: date } },
+    order: [
+      ["effectiveFrom", "DESC"],
+      ["periodEnd", "DESC"],
+    ],
+  });
+  return row ? toDeterminationDto(row, entity.regime) : null;
+}
+
+/**
+ * The latest signed-off (approved or filed) determination of an entity, or with `asOf` the first
+ * one counted on that day; null when there is none. One indexed row.
+ */
+export async function signedOffDetermination(entity: EntityModel, asOf?: string): Promise<DeterminationDto | null> {
+  const row = await DeterminationModel.findOne({
+    where: { entityId: entity.id, status: { [Op.ne]: "provisional" }, ...(asOf ? { asOf } : {}) },
+    order: [["periodEnd", asOf ? "ASC" : "DESC"]],
+  });
+  return row ? toDeterminationDto(row, entity.regime) : null;
+}

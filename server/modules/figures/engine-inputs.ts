@@ -9,14 +9,15 @@ import { sequelize } from "../../db/sequelize";
 import { PortfolioModel } from "../../models/portfolio";
 import { EntityModel } from "../../models/entity";
 import { AppError, NotFoundError } from "../../errors";
-import { loadSeries } from "../observations/observations.repository";
+import { loadSeries, loadSeriesTail } from "../observations/observations.repository";
 import type { Observation } from "../../../shared/backtest/types";
 import type { BacktestOptions } from "../../../shared/backtest/types";
 import { getRegime } from "../../../shared/backtest/regimes";
 import { withMissingBusinessDays } from "../../../shared/backtest/window";
 import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { quarterLabel } from "../../../shared/backtest/quarters";
-import { settingsOn, type DatedSettings } from "../../../shared/backtest/determination";
+import { settingsOn, type DatedSettings, type DeterminationOptions } from "../../../shared/backtest/determination";
+import { startingSeries, STARTING_POINT_OBSERVATIONS } from "../../../shared/backtest/forecast";
 import { approvedSettings, fallbackSettings } from "../settings/settings.read";
 
 export interface PortfolioContext {
@@ -176,4 +177,144 @@ export function assertQuarterComplete(ctx: PortfolioContext, quarterEnd: string)
     );
   }
   return lastBusinessDay;
+}
+
+/**
+ * What the forecast, the what-if and capital on a date read at a date (docs/rules.md#forecast):
+ * the last 250 observations on or before it (`startingSeries`), and of the calendar and the
+ * exclusions only what can touch them; the settings records are all kept (a handful per entity).
+ */
+export interface StartingPoint {
+  /** The last day with data on or before the date asked for. */
+  asOf: string;
+  series: Observation[];
+  options: DeterminationOptions;
+}
+
+/** A starting point as portfolio_figures.start_json keeps it (amounts that are null are left out). */
+export interface StoredStartingPoint {
+  asOf: string;
+  series: Partial<Observation>[];
+  holidays: string[];
+  excludedDates: string[];
+  settings: DatedSettings[];
+  fallback: DatedSettings;
+}
+
+function startingPointFrom(
+  series: readonly Observation[],
+  at: string,
+  regime: EntityModel["regime"],
+  holidays: ReadonlySet<string>,
+  excludedDates: ReadonlySet<string>,
+  settings: DatedSettings[],
+  fallback: DatedSettings,
+): StartingPoint | null {
+  const kept = startingSeries(series, at);
+  if (kept.length === 0) return null;
+  const first = kept[0].date;
+  const last = kept[kept.length - 1].date;
+  return {
+    asOf: last,
+    series: kept,
+    options: {
+      regime,
+      // Only days from the first kept one on: the projection runs forward from the last day.
+      holidays: new Set([...holidays].filter((d) => d >= first).sort()),
+      excludedDates: new Set([...excludedDates].filter((d) => d >= first && d <= last).sort()),
+      settings,
+      fallback,
+    },
+  };
+}
+
+/** The starting point at `at` from a portfolio's whole context (a write computes it with the stored figures). */
+export function startingPointOf(ctx: PortfolioContext, at: string): StartingPoint | null {
+  return startingPointFrom(
+    ctx.series,
+    at,
+    ctx.entity.regime,
+    ctx.holidays,
+    ctx.excludedDates,
+    ctx.settings,
+    ctx.fallback,
+  );
+}
+
+/**
+ * The starting point at any date, read from the database: the last 250 days on or before it (one
+ * backwards range read of the index), the entity's calendar from the first of them on, the
+ * approved exclusions among them, the settings records. The read does not grow with the history.
+ */
+export async function loadStartingPoint(
+  entity: EntityModel,
+  portfolioId: number,
+  at: string,
+): Promise<StartingPoint | null> {
+  const tail = await loadSeriesTail(portfolioId, entity.regime, at, STARTING_POINT_OBSERVATIONS);
+  if (tail.length === 0) return null;
+  const first = tail[0].date;
+  const [holidays, excluded, settings] = await Promise.all([
+    sequelize.query<{ d: string }>(
+      "SELECT DATE_FORMAT(date, '%Y-%m-%d') AS d FROM holidays WHERE entity_id = :id AND date >= :first",
+      { replacements: { id: entity.id, first }, type: QueryTypes.SELECT },
+    ),
+    sequelize.query<{ d: string }>(
+      `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d FROM exception_reviews
+        WHERE portfolio_id = :pid AND exclusion_status = 'approved' AND business_date BETWEEN :first AND :at`,
+      { replacements: { pid: portfolioId, first, at }, type: QueryTypes.SELECT },
+    ),
+    approvedSettings(entity.id),
+  ]);
+  const holidaySet = new Set(holidays.map((r) => r.d));
+  // FRTB: a business day never reported counts as an exception (MAR32.5(2)); the 250 stored days
+  // with the missing ones between them always hold the window.
+  const series = getRegime(entity.regime).missingCountsAsException ? withMissingBusinessDays(tail, holidaySet) : tail;
+  return startingPointFrom(
+    series,
+    at,
+    entity.regime,
+    holidaySet,
+    new Set(excluded.map((r) => r.d)),
+    settings,
+    fallbackSettings(entity),
+  );
+}
+
+/** The stored form: plain arrays, and only the amounts a day has. */
+export function storedStartingPoint(p: StartingPoint): StoredStartingPoint {
+  return {
+    asOf: p.asOf,
+    series: p.series.map((o) => {
+      const out: Partial<Observation> = {};
+      for (const [k, v] of Object.entries(o) as [keyof Observation, unknown][])
+        if (k !== ("version" as keyof Observation) && v !== null && v !== undefined)
+          (out as Record<string, unknown>)[k] = v;
+      return out;
+    }),
+    holidays: [...p.options.holidays],
+    excludedDates: [...(p.options.excludedDates ?? [])],
+    settings: [...p.options.settings],
+    fallback: p.options.fallback,
+  };
+}
+
+export function startingPointFromStored(s: StoredStartingPoint, regime: EntityModel["regime"]): StartingPoint {
+  return {
+    asOf: s.asOf,
+    series: s.series.map((o) => ({
+      ...o,
+      date: o.date!,
+      actualPnl: o.actualPnl ?? null,
+      hypotheticalPnl: o.hypotheticalPnl ?? null,
+      var99: o.var99 ?? null,
+    })),
+    options: {
+      regime,
+      holidays: new Set(s.holidays),
+      excludedDates: new Set(s.excludedDates),
+      settings: s.settings,
+      fallback: s.fallback,
+    },
+  };
 }

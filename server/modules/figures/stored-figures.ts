@@ -39,8 +39,13 @@ import {
   entityWithPortfolios,
   headlinePortfolio,
   settingsAt,
+  startingPointFromStored,
+  startingPointOf,
+  storedStartingPoint,
   type PortfolioContext,
   type ReadIn,
+  type StartingPoint,
+  type StoredStartingPoint,
 } from "./engine-inputs";
 
 /** The engine-computed part of an entity's Overview line (the rest is read live: snapshots, findings). */
@@ -64,6 +69,8 @@ export interface PortfolioFigures {
   backtest: BacktestResponse | null;
   rolling: RollingRowDto[];
   overview: StoredOverview | null;
+  /** The headline book only: what the forecast and the what-if start from at the latest day. */
+  start: StoredStartingPoint | null;
 }
 
 const orNull = <T>(compute: () => T): T | null => {
@@ -166,11 +173,13 @@ export async function computePortfolioFigures(
   read: ReadIn = {},
 ): Promise<PortfolioFigures> {
   const ctx = await contextOf(portfolio, entity, read);
-  if (ctx.series.length === 0) return { asOf: null, backtest: null, rolling: [], overview: null };
+  if (ctx.series.length === 0) return { asOf: null, backtest: null, rolling: [], overview: null, start: null };
   const asOf = ctx.series[ctx.series.length - 1].date;
   const backtest = await backtestResponse(ctx, asOf, portfolios, read);
   const rolling = rollingUnderSettings(ctx);
-  if (headlinePortfolio(portfolios)?.id !== portfolio.id) return { asOf, backtest, rolling, overview: null };
+  if (headlinePortfolio(portfolios)?.id !== portfolio.id)
+    return { asOf, backtest, rolling, overview: null, start: null };
+  const start = startingPointOf(ctx, asOf);
 
   // An exception is open while nobody reviewed it or its exclusion request waits for the CRO.
   const counted = backtest.exceptionDays.filter((d) => d.actual || d.hypothetical).map((d) => d.date);
@@ -207,6 +216,7 @@ export async function computePortfolioFigures(
       nextRollOff: backtest.rollOffs[0] ?? null,
       openReviews: counted.length - settled.length,
     },
+    start: start ? storedStartingPoint(start) : null,
   };
 }
 
@@ -227,11 +237,12 @@ export async function refreshEntityFigures(entityIds: Iterable<number>, transact
       const figures = await computePortfolioFigures(portfolio, entity, portfolios, { transaction });
       await sequelize.query(
         `INSERT INTO portfolio_figures
-           (portfolio_id, entity_id, engine_version, as_of, backtest_json, rolling_json, overview_json, refreshed_at)
-         VALUES (:pid, :eid, :engine, :asOf, :backtest, :rolling, :overview, NOW(3))
+           (portfolio_id, entity_id, engine_version, as_of, backtest_json, rolling_json, overview_json, start_json,
+            refreshed_at)
+         VALUES (:pid, :eid, :engine, :asOf, :backtest, :rolling, :overview, :start, NOW(3))
          ON DUPLICATE KEY UPDATE entity_id = VALUES(entity_id), engine_version = VALUES(engine_version),
            as_of = VALUES(as_of), backtest_json = VALUES(backtest_json), rolling_json = VALUES(rolling_json),
-           overview_json = VALUES(overview_json), refreshed_at = NOW(3)`,
+           overview_json = VALUES(overview_json), start_json = VALUES(start_json), refreshed_at = NOW(3)`,
         {
           replacements: {
             pid: portfolio.id,
@@ -241,6 +252,7 @@ export async function refreshEntityFigures(entityIds: Iterable<number>, transact
             backtest: figures.backtest ? JSON.stringify(figures.backtest) : null,
             rolling: JSON.stringify(figures.rolling),
             overview: figures.overview ? JSON.stringify(figures.overview) : null,
+            start: figures.start ? JSON.stringify(figures.start) : null,
           },
           transaction,
         },
@@ -353,6 +365,41 @@ export async function storedOverviewRows(): Promise<
     overview: r.overview_json ? (JSON.parse(r.overview_json) as StoredOverview) : null,
     stale: r.pid !== null && r.engine_version !== ENGINE_VERSION,
   }));
+}
+
+/**
+ * The entity's headline book and the starting point stored for it at its latest day (computed and
+ * stored first when missing or from another engine): one indexed read, whatever the history.
+ */
+export async function storedStart(
+  entity: EntityModel,
+): Promise<{ portfolio: { id: number; code: string } | null; start: StartingPoint | null }> {
+  const read = () =>
+    sequelize.query<{
+      pid: number;
+      pcode: string;
+      engine_version: string | null;
+      as_of: string | null;
+      start_json: string | null;
+    }>(
+      `SELECT p.id AS pid, p.code AS pcode, f.engine_version, DATE_FORMAT(f.as_of, '%Y-%m-%d') AS as_of, f.start_json
+         FROM portfolios p LEFT JOIN portfolio_figures f ON f.portfolio_id = p.id
+        WHERE p.entity_id = :eid AND p.level = 'top'
+        ORDER BY p.code LIMIT 1`,
+      { replacements: { eid: entity.id }, type: QueryTypes.SELECT },
+    );
+  let [row] = await read();
+  if (!row) return { portfolio: null, start: null };
+  if (row.engine_version !== ENGINE_VERSION || (row.as_of !== null && row.start_json === null)) {
+    await fillMissing([entity.id]);
+    [row] = await read();
+  }
+  return {
+    portfolio: { id: Number(row.pid), code: row.pcode },
+    start: row.start_json
+      ? startingPointFromStored(JSON.parse(row.start_json) as StoredStartingPoint, entity.regime)
+      : null,
+  };
 }
 
 export function noDataError(code: string): AppError {

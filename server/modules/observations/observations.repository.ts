@@ -191,7 +191,35 @@ export async function loadSeries(
       transaction,
     },
   );
-  const series = rows.map((r) => ({
+  const series = rows.map(observationOf);
+  return pnlDefinition === "as supplied" ? series : withPnlDefinition(series, pnlDefinition);
+}
+
+/**
+ * The last `count` current days of a portfolio dated on or before `to`, sorted by date, actual P&L
+ * as loadSeries derives it: one range read of the (portfolio_id, current_day) index backwards,
+ * whatever the length of the history.
+ */
+export async function loadSeriesTail(
+  portfolioId: number,
+  pnlDefinition: RegimeId | "as supplied",
+  to: string,
+  count: number,
+): Promise<(Observation & { version: number })[]> {
+  const rows = await sequelize.query<Record<string, unknown>>(
+    `SELECT DATE_FORMAT(business_date, '%Y-%m-%d') AS d, version, ${AMOUNT_SQL}
+       FROM observations
+      WHERE portfolio_id = :pid AND current_day <= :to
+      ORDER BY current_day DESC LIMIT :count`,
+    { replacements: { pid: portfolioId, to, count }, type: QueryTypes.SELECT },
+  );
+  const series = rows.reverse().map(observationOf);
+  // Each rule set backtests on its own definition of actual P&L (docs/rules.md#pnl-definition).
+  return pnlDefinition === "as supplied" ? series : withPnlDefinition(series, pnlDefinition);
+}
+
+function observationOf(r: Record<string, unknown>): Observation & { version: number } {
+  return {
     date: String(r.d),
     version: Number(r.version),
     actualPnl: num(r.actual_pnl),
@@ -214,9 +242,7 @@ export async function loadSeries(
     netInterestIncome: num(r.net_interest_income),
     intradayPnl: num(r.intraday_pnl),
     newTradePnl: num(r.new_trade_pnl),
-  }));
-  // Each rule set backtests on its own definition of actual P&L (docs/rules.md#pnl-definition).
-  return pnlDefinition === "as supplied" ? series : withPnlDefinition(series, pnlDefinition);
+  };
 }
 
 /**

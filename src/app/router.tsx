@@ -88,6 +88,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
             },
             { path: relative(paths.capital.path), ...screen(queryClient, "capital", () => import("./routes/capital")) },
             { path: relative(paths.filings.path), ...screen(queryClient, "filings", () => import("./routes/filings")) },
+            { path: relative(paths.notices.path), ...screen(queryClient, "notices", () => import("./routes/notices")) },
             { path: relative(paths.account.path), ...screen(queryClient, "account", () => import("./routes/account")) },
             { path: relative(paths.tokens.path), ...screen(queryClient, "tokens", () => import("./routes/tokens")) },
             {

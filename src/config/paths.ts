@@ -112,6 +112,20 @@ export const paths = {
     /** `filing` opens that filing; without it the screen opens the newest one. */
     href: (q?: { filing?: number }) => (q?.filing ? `/filings?filing=${q.filing}` : "/filings"),
   },
+  /** Overshooting notices of the EU entities: the analyst drafts, the CRO sends (the server's policy). */
+  notices: {
+    path: "/notices",
+    roles: dataReaders,
+    label: "Notices",
+    /** Without `entity` the screen starts on the first EU entity; `notice` opens that notice. */
+    href: (q?: { entity?: string; notice?: number }) => {
+      const s = new URLSearchParams();
+      if (q?.entity) s.set("entity", q.entity);
+      if (q?.notice) s.set("notice", String(q.notice));
+      const qs = s.toString();
+      return qs ? `/notices?${qs}` : "/notices";
+    },
+  },
   tokens: { path: "/tokens", roles: tokenHolders, label: "API tokens", href: () => "/tokens" },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
   adminEntities: { path: "/admin/entities", roles: adminOnly, label: "Entities", href: () => "/admin/entities" },
@@ -162,6 +176,7 @@ export const navigation: readonly { key: PathKey; group: "main" | "admin" }[] = 
   { key: "capital", group: "main" },
   { key: "settings", group: "main" },
   { key: "filings", group: "main" },
+  { key: "notices", group: "main" },
   { key: "tokens", group: "main" },
   { key: "adminUsers", group: "admin" },
   { key: "adminEntities", group: "admin" },

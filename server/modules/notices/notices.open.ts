@@ -10,7 +10,7 @@
  * (kept visible, never deleted), a sent one keeps "sent" and says the day was restated since. A
  * withdrawn notice whose day becomes an overshooting again opens again, due from this commit.
  */
-import { QueryTypes, type Transaction } from "sequelize";
+import { QueryTypes, type CreationAttributes, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
@@ -101,7 +101,11 @@ async function settleDays(
       })
     ).map((n) => [n.businessDate, n]),
   );
-  const target = (date: string) => `${entity.code} ${headline.code} ${date}`;
+  // Sent in bulk: a first load of a year's data may reveal many overshootings at once. Each kind of
+  // change is one audit event per commit and book, listing the days.
+  const opened: CreationAttributes<OvershootingNoticeModel>[] = [];
+  const events = new Map<string, unknown[]>();
+  const note = (action: string, detail: unknown) => events.set(action, [...(events.get(action) ?? []), detail]);
   for (const date of dates) {
     const day = byDate.get(date);
     const amounts = {
@@ -112,26 +116,16 @@ async function settleDays(
     const over = countedOvershooting(amounts, settingsAt(ctx, date).pnlBasis);
     const notice = existing.get(date);
     if (over && !notice) {
-      const created = await OvershootingNoticeModel.create(
-        {
-          portfolioId: headline.id,
-          businessDate: date,
-          revealedOn,
-          dueOn: noticeDueOn(revealedOn, holidays),
-          uploadId,
-          series: over.series,
-          ...amounts,
-          excess: over.excess,
-        },
-        { transaction },
-      );
-      await recordAudit(
-        actor,
-        "notice.open",
-        target(date),
-        { after: { notice: created.id, dueOn: created.dueOn, upload: uploadId, ...amounts, excess: over.excess } },
-        transaction,
-      );
+      opened.push({
+        portfolioId: headline.id,
+        businessDate: date,
+        revealedOn,
+        dueOn: noticeDueOn(revealedOn, holidays),
+        uploadId,
+        series: over.series,
+        ...amounts,
+        excess: over.excess,
+      });
     } else if (over && notice) {
       const reopened = notice.status === "withdrawn";
       const before = { status: notice.status, ...pick(notice) };
@@ -150,13 +144,12 @@ async function settleDays(
       notice.uploadId = uploadId;
       notice.version += 1;
       await notice.save({ transaction });
-      await recordAudit(
-        actor,
-        reopened ? "notice.reopen" : "notice.restated",
-        target(date),
-        { before, after: { status: notice.status, dueOn: notice.dueOn, ...pick(notice) } },
-        transaction,
-      );
+      note(reopened ? "notice.reopen" : "notice.restated", {
+        notice: notice.id,
+        date,
+        before,
+        after: { status: notice.status, dueOn: notice.dueOn, ...pick(notice) },
+      });
     } else if (!over && notice && notice.status !== "withdrawn") {
       const before = { status: notice.status, ...pick(notice) };
       if (notice.status === "open") {
@@ -170,15 +163,27 @@ async function settleDays(
       notice.uploadId = uploadId;
       notice.version += 1;
       await notice.save({ transaction });
-      await recordAudit(
-        actor,
-        notice.status === "withdrawn" ? "notice.withdraw" : "notice.restated",
-        target(date),
-        { before, after: { status: notice.status, note: notice.note, ...amounts } },
-        transaction,
-      );
+      note(notice.status === "withdrawn" ? "notice.withdraw" : "notice.restated", {
+        notice: notice.id,
+        date,
+        before,
+        after: { status: notice.status, note: notice.note, ...amounts },
+      });
     }
   }
+  if (opened.length) {
+    const created = await OvershootingNoticeModel.bulkCreate(opened, { transaction });
+    for (const n of created)
+      note("notice.open", { notice: n.id, date: n.businessDate, dueOn: n.dueOn, excess: n.excess, series: n.series });
+  }
+  for (const [action, days] of events)
+    await recordAudit(
+      actor,
+      action,
+      `${entity.code} ${headline.code}`,
+      { after: { upload: uploadId, days } },
+      transaction,
+    );
 }
 
 const pick = (n: OvershootingNoticeModel) => ({

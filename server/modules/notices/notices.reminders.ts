@@ -2,7 +2,7 @@
  * "An overshooting notice is due in one working day and not sent" (the notice_due notification). A
  * round looks for open notices whose reminder day (one business day before the due day, on the
  * entity's calendar) has come, claims each one with a conditional UPDATE of `reminded_at` (so with
- * several server processes exactly one sends it), and tells whoever chose it. The server process
+ * several server processes exactly one sends it), and tells whoever chose it, one message per entity. The server process
  * that runs the filing delivery runs a round every minute; no cron needed.
  */
 import { QueryTypes } from "sequelize";
@@ -14,7 +14,7 @@ import { noticeReminderOn } from "../../../shared/backtest/notice-deadline";
 
 const todayUtc = () => new Date().toISOString().slice(0, 10);
 
-/** One round; returns how many reminders this process claimed and sent. `today` is fixed by the tests. */
+/** One round; returns how many notices this process claimed and told of. `today` is fixed by the tests. */
 export async function remindNoticesComingDue(today: string = todayUtc()): Promise<number> {
   const rows = await sequelize.query<{
     id: number;
@@ -34,34 +34,45 @@ export async function remindNoticesComingDue(today: string = todayUtc()): Promis
       ORDER BY n.due_on, n.id`,
     { replacements: { today }, type: QueryTypes.SELECT },
   );
-  let sent = 0;
   const calendars = new Map<number, Set<string>>();
+  const claimed = new Map<number, typeof rows>();
   for (const r of rows) {
     const entityId = Number(r.entity_id);
     if (!calendars.has(entityId)) calendars.set(entityId, await holidaysOf(entityId));
     if (today < noticeReminderOn(r.due_on, calendars.get(entityId)!)) continue;
     // The claim: only the process whose UPDATE changes the row sends the reminder.
     const [, affected] = await sequelize.query(
-      "UPDATE overshooting_notices SET reminded_at = CURRENT_TIMESTAMP(3) WHERE id = :id AND reminded_at IS NULL AND status = 'open'",
+      `UPDATE overshooting_notices SET reminded_at = CURRENT_TIMESTAMP(3)
+        WHERE id = :id AND reminded_at IS NULL AND status = 'open'`,
       { replacements: { id: r.id }, type: QueryTypes.UPDATE },
     );
-    if (Number(affected) !== 1) continue;
-    const late = today > r.due_on;
+    if (Number(affected) === 1) claimed.set(entityId, [...(claimed.get(entityId) ?? []), r]);
+  }
+  // One message per entity and round, listing its notices (a large first load must not send hundreds).
+  for (const notices of claimed.values()) {
+    const first = notices[0];
+    const lines = notices.map((r) => {
+      const late = today > r.due_on;
+      return (
+        `- ${r.portfolio} on ${r.date}: due on ${r.due_on}${late ? ", late" : ""}; ` +
+        (Number(r.drafted) ? "drafted, waits for the chief risk officer to send it" : "no draft yet")
+      );
+    });
+    const late = notices.some((r) => today > r.due_on);
     await notify({
       kind: "notice_due",
-      subject: `overshooting notice of ${r.entity} ${late ? "late since" : "due on"} ${r.due_on}`,
+      subject:
+        notices.length === 1
+          ? `overshooting notice of ${first.entity} ${late ? "late since" : "due on"} ${first.due_on}`
+          : `${notices.length} overshooting notices of ${first.entity} due by ${notices.at(-1)!.due_on}`,
       text:
-        `The overshooting notice of ${r.entity_name} (${r.entity}) for ${r.portfolio} on ${r.date} is due on ` +
-        `${r.due_on} and has not been sent${late ? ": it is late" : ""}. ` +
-        (Number(r.drafted)
-          ? "It is drafted and waits for the chief risk officer to send it."
-          : "It has no draft yet: an analyst drafts the cause, then the chief risk officer sends it."),
-      href: `/notices?entity=${encodeURIComponent(r.entity)}&notice=${Number(r.id)}`,
-      target: `${r.entity} ${r.portfolio} ${r.date}`,
+        `${first.entity_name} (${first.entity}) has overshooting notices due within one working day and not sent:\n` +
+        `${lines.join("\n")}\n\nAn analyst drafts the cause; the chief risk officer sends the notice to the supervisor.`,
+      href: `/notices?entity=${encodeURIComponent(first.entity)}${notices.length === 1 ? `&notice=${Number(first.id)}` : ""}`,
+      target: `${first.entity} overshooting notices`,
     });
-    sent++;
   }
-  return sent;
+  return [...claimed.values()].reduce((n, list) => n + list.length, 0);
 }
 
 /** Runs a round every `everyMs` in this process; rounds never overlap. */

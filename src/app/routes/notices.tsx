@@ -1,0 +1,115 @@
+import { Link, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
+import type { Role } from "@shared/schemas/common";
+import type { Entity } from "@shared/schemas/entity";
+import { paths } from "@/config/paths";
+import { authQueries } from "@/features/auth/api/auth-queries";
+import { entityQueries } from "@/features/entities/api/entity-queries";
+import { noticeQueries } from "@/features/notices/api/notice-queries";
+import { NoticeDetail } from "@/features/notices/components/notice-detail";
+import { NoticeListTable } from "@/features/notices/components/notice-list-table";
+import { EntitySelect } from "@/components/ui/entity-select";
+import { FormMessage } from "@/components/ui/field";
+import { PageTitle } from "@/components/ui/page-title";
+import { EmptyState } from "@/components/ui/table";
+import { isApiError } from "@/lib/api-client";
+import { plural } from "@/lib/format";
+
+/** Only entities under the EU rule set notify overshootings (docs/rules.md#overshooting-notice). */
+const euOf = (entities: readonly Entity[]) => entities.filter((e) => e.regime === "eu");
+
+function entityOf(entities: readonly { code: string }[], asked: string | null): string {
+  const code = asked?.trim() || entities[0]?.code || "";
+  return entities.find((e) => e.code.toUpperCase() === code.toUpperCase())?.code ?? code;
+}
+
+export const clientLoader =
+  (queryClient: QueryClient) =>
+  async ({ request }: LoaderFunctionArgs) => {
+    const entities = euOf(await queryClient.ensureQueryData(entityQueries.all()));
+    const code = entityOf(entities, new URL(request.url).searchParams.get("entity"));
+    if (code) await queryClient.ensureQueryData(noticeQueries.list(code)).catch(() => undefined);
+    return null;
+  };
+
+const RULE = "An EU entity tells its supervisor of each overshooting within five working days (CRR Art. 366(5)).";
+const intro: Partial<Record<Role, string>> = {
+  analyst: `${RULE} You draft the cause; the chief risk officer sends the notice.`,
+  cro: `${RULE} An analyst drafts the cause; you send the notice to the supervisor contacts.`,
+};
+
+export default function NoticesRoute() {
+  const { data: user } = useSuspenseQuery(authQueries.me());
+  const { data: all } = useSuspenseQuery(entityQueries.all());
+  const [search] = useSearchParams();
+  const navigate = useNavigate();
+  const role = user!.role;
+  const entities = euOf(all);
+  const entity = entityOf(entities, search.get("entity"));
+  const current = entities.find((e) => e.code === entity);
+  const list = useQuery({ ...noticeQueries.list(entity), enabled: entity !== "" });
+  const notices = list.data ?? [];
+  const asked = Number(search.get("notice"));
+  const selected = Number.isInteger(asked) && asked > 0 ? notices.find((n) => n.id === asked) : notices[0];
+  const open = notices.filter((n) => n.status === "open");
+  const late = notices.filter((n) => n.late && n.status === "open");
+  const noticeHref = (id: number) => paths.notices.href({ entity, notice: id });
+
+  return (
+    <section aria-labelledby="notices-title" className="flex flex-col gap-5">
+      <PageTitle>{paths.notices.label}</PageTitle>
+      <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
+        <div className="flex flex-col gap-1">
+          <h1 id="notices-title">Overshooting notices{current ? `: ${current.name}` : ""}</h1>
+          <p className="max-w-3xl text-sm text-ink-muted">{intro[role]}</p>
+        </div>
+        <EntitySelect
+          entities={entities}
+          value={current?.code ?? entity}
+          onChoose={(code) => navigate(paths.notices.href({ entity: code }))}
+        />
+      </header>
+      {entities.length === 0 ? (
+        <EmptyState title="No entity reports under the EU rule set">
+          Overshooting notices concern EU entities only; the other rule sets ask for none.
+        </EmptyState>
+      ) : list.error ? (
+        <FormMessage>{isApiError(list.error) ? list.error.message : "The notices could not be read."}</FormMessage>
+      ) : !list.data ? (
+        <p className="text-sm text-ink-muted">Reading the notices…</p>
+      ) : (
+        <>
+          <p className="text-sm" data-testid="notices-standing">
+            {open.length === 0
+              ? "No notice waits to be sent."
+              : `${plural(open.length, "notice waits", "notices wait")} to be sent${
+                  late.length ? `, ${plural(late.length, "of them late", "of them late")}` : ""
+                }.`}
+          </p>
+          <NoticeListTable
+            notices={notices}
+            selectedId={selected?.id}
+            noticeHref={noticeHref}
+            onOpen={(id) => navigate(noticeHref(id), { preventScrollReset: true })}
+          />
+          {selected ? (
+            <NoticeDetail
+              key={selected.id}
+              notice={selected}
+              role={role}
+              recipients={current?.supervisorEmails ?? []}
+              supervisorName={current?.supervisorName ?? null}
+            />
+          ) : (
+            asked > 0 && (
+              <FormMessage>
+                Notice #{asked} is not among the notices of {entity}.{" "}
+                <Link to={paths.notices.href({ entity })}>Open the newest notice</Link>
+              </FormMessage>
+            )
+          )}
+        </>
+      )}
+    </section>
+  );
+}

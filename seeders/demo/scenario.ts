@@ -3,7 +3,15 @@
  * yellow after a stress episode, one FRTB desk sits amber on P&L attribution, and another left the
  * model for a while after failing desk backtesting.
  */
-import { generateDeskedRows, generatePortfolioRows, type DemoRow, type PortfolioSpec } from "./daily-data";
+import {
+  generateDeskedRows,
+  generatePortfolioRows,
+  normal,
+  seededRandom,
+  type DemoRow,
+  type PortfolioSpec,
+} from "./daily-data";
+import { PNL_DEFINITIONS } from "../../shared/backtest/pnl-definition";
 
 export const DEMO_YEARS = 3;
 
@@ -13,6 +21,12 @@ interface EntityScenario {
   /** Data problems for the Data screen to find: a business day never sent, a P&L never sent (days before the last). */
   missingDayBeforeEnd?: number;
   blankHypotheticalBeforeEnd?: number;
+  /**
+   * The finance system sends the parts of the actual P&L (docs/rules.md#pnl-definition): fee income, reserves,
+   * net interest income, intraday trading and new-trade P&L, of about these sizes against the daily volatility.
+   * The supplied actual P&L carries them, so the rule set's own P&L (the simulated one) is what is backtested.
+   */
+  pnlParts?: { seed: number };
 }
 
 export const SCENARIO: Record<string, EntityScenario> = {
@@ -25,6 +39,7 @@ export const SCENARIO: Record<string, EntityScenario> = {
       dailyVol: 4_500_000,
       stress: { startsDaysBeforeEnd: 85, days: 20, factor: 4 },
     },
+    pnlParts: { seed: 2290 },
   },
   "LKS-AP": { top: { code: "LKS-AP-TOTAL", seed: 3303, dailyVol: 2_100_000 }, blankHypotheticalBeforeEnd: 7 },
   "LKS-UK": {
@@ -72,9 +87,43 @@ export function demoRowsFor(entityCode: string, dates: string[]): DemoRow[] {
     const gone = dates[dates.length - 1 - spec.missingDayBeforeEnd];
     rows = rows.filter((r) => r.date !== gone);
   }
+  if (spec.pnlParts) rows = withPnlParts(rows, spec.pnlParts.seed, spec.top.dailyVol);
   if (spec.blankHypotheticalBeforeEnd !== undefined) {
     const blank = dates[dates.length - 1 - spec.blankHypotheticalBeforeEnd];
     rows = rows.map((r) => (r.date === blank ? { ...r, hypothetical_pnl: null } : r));
   }
   return rows;
+}
+
+const cents = (x: number) => Math.round(x * 100) / 100;
+
+/**
+ * Adds the parts of the actual P&L to a US entity's rows: the simulated actual P&L is what the US rule
+ * backtests (12 CFR 217.204(b), docs/rules.md#pnl-definition), so the file's actual P&L is it plus the
+ * parts that rule takes out. New-trade P&L is already inside the simulated figure (no rule takes it out).
+ */
+function withPnlParts(rows: DemoRow[], seed: number, dailyVol: number): DemoRow[] {
+  const rand = seededRandom(seed);
+  const excluded = new Set<string>(PNL_DEFINITIONS.us.excludes);
+  return rows.map((r) => {
+    const parts = {
+      fees_commissions: cents(dailyVol * (0.018 + 0.008 * rand())),
+      reserves_adjustments: cents(-dailyVol * 0.004 * rand()),
+      net_interest_income: cents(dailyVol * 0.006 * normal(rand)),
+      intraday_pnl: cents(dailyVol * 0.03 * normal(rand)),
+      new_trade_pnl: cents(dailyVol * 0.01 * normal(rand)),
+    };
+    if (typeof r.actual_pnl !== "number") return { ...r, ...parts };
+    const camel = {
+      fees_commissions: "feesCommissions",
+      reserves_adjustments: "reservesAdjustments",
+      net_interest_income: "netInterestIncome",
+      intraday_pnl: "intradayPnl",
+      new_trade_pnl: "newTradePnl",
+    } as const;
+    let supplied = r.actual_pnl;
+    for (const [column, amount] of Object.entries(parts))
+      if (excluded.has(camel[column as keyof typeof camel])) supplied += amount;
+    return { ...r, ...parts, actual_pnl: cents(supplied) };
+  });
 }

@@ -5,8 +5,12 @@ export const auditEventSchema = z.object({
   id: z.number().int(),
   at: z.string(),
   actorEmail: z.string().nullable(),
+  /** The person's name as the users table now has it (the signed record keeps the e-mail). */
+  actorName: z.string().nullable().default(null),
   action: z.string(),
   target: z.string().nullable(),
+  /** The target in words ("LKS-EU Q3 2026 snapshot", a person's name); null when the stored text says it already. */
+  targetWords: z.string().nullable().default(null),
   ip: z.string().nullable(),
   before: z.unknown().nullable(),
   after: z.unknown().nullable(),

@@ -33,6 +33,33 @@ describe("Admin › Audit log", () => {
     expect(within(row).getByText('{"qualitativeAddend":0.25}').closest("details")).not.toBeNull();
   });
 
+  it("names the person and the target in words, with the recorded e-mail and reference on hover", async () => {
+    fakeApi({
+      "GET /api/auth/session": signedInAs("admin"),
+      "GET /api/audit-events": {
+        status: 200,
+        body: {
+          items: [
+            {
+              ...event(2, "snapshot.approve"),
+              actorName: "Margot Ellsworth",
+              actorEmail: "cro@larkspur.test",
+              target: "snapshot #17",
+              targetWords: "LKS-EU Q3 2026 snapshot",
+            },
+          ],
+          total: 1,
+        },
+      },
+    });
+    renderApp("/admin/audit");
+    const table = await screen.findByRole("table", { name: "Audit events, newest first" });
+    const row = within(table).getAllByRole("row")[1];
+    expect(within(row).getByText("Margot Ellsworth")).toHaveAttribute("title", "cro@larkspur.test");
+    expect(within(row).getByText("LKS-EU Q3 2026 snapshot")).toHaveAttribute("title", "snapshot #17");
+    expect(within(row).queryByText("snapshot #17")).not.toBeInTheDocument();
+  });
+
   it("pages through the log and filters by action, asking the server for that slice", async () => {
     const asked: Call[] = [];
     fakeApi({

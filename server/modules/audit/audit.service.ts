@@ -6,6 +6,7 @@ import { currentTransaction } from "../../db/transaction-context";
 import type { Actor } from "../../kit/actor";
 import { AUDIT_EXPORT_MAX, type AuditEvent, type AuditFilter, type AuditQuery } from "../../../shared/schemas/audit";
 import { AppError } from "../../errors";
+import { auditWords } from "./audit-targets";
 
 /**
  * Writes one audit event — who, what, on which target, from where, before and after — signed with
@@ -45,8 +46,10 @@ function toAuditEvent(row: AuditEventModel): AuditEvent {
     id: Number(row.id),
     at: row.at.toISOString(),
     actorEmail: row.actorEmail,
+    actorName: null,
     action: row.action,
     target: row.target,
+    targetWords: null,
     ip: row.ip,
     before: row.beforeJson ? JSON.parse(row.beforeJson) : null,
     after: row.afterJson ? JSON.parse(row.afterJson) : null,
@@ -93,5 +96,14 @@ export async function listAuditEvents(query: AuditQuery): Promise<{ items: Audit
     limit: query.limit,
     offset: query.offset,
   });
-  return { items: rows.map(toAuditEvent), total: count };
+  const items = rows.map(toAuditEvent);
+  const { targets, names } = await auditWords(items);
+  return {
+    items: items.map((e) => ({
+      ...e,
+      actorName: e.actorEmail ? (names.get(e.actorEmail) ?? null) : null,
+      targetWords: e.target ? (targets.get(e.target) ?? null) : null,
+    })),
+    total: count,
+  };
 }

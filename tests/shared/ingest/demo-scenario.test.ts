@@ -2,6 +2,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { demoDates, demoRowsFor, SCENARIO } from "../../../seeders/demo/scenario";
 import { parseObservationCsv, serialiseObservationCsv } from "../../../shared/ingest/parse-csv";
 import { backtestAt } from "../../../shared/backtest/exceptions";
+import { withPnlDefinition } from "../../../shared/backtest/pnl-definition";
 import { plaTest } from "../../../shared/backtest/pla";
 import type { Observation } from "../../../shared/backtest/types";
 import { findDataQualityIssues } from "../../../shared/ingest/data-quality";
@@ -52,13 +53,51 @@ function seriesByPortfolio(entity: string, today: string) {
       sbm: r.sbm ?? null,
       rrao: r.rrao ?? null,
       saDrc: r.sa_drc ?? null,
+      feesCommissions: r.fees_commissions ?? null,
+      reservesAdjustments: r.reserves_adjustments ?? null,
+      netInterestIncome: r.net_interest_income ?? null,
+      intradayPnl: r.intraday_pnl ?? null,
+      newTradePnl: r.new_trade_pnl ?? null,
     });
   }
+  // Each rule set backtests its own actual P&L, as the server's read does (docs/rules.md#pnl-definition).
+  for (const [code, series] of out) out.set(code, withPnlDefinition(series, REGIME[entity]));
   return { dates, out };
 }
 
 // The demo story (docs/architecture.md#demo-data), checked with the engine for two different "today"s: the
 // generator works relative to the last business day, so the story holds whenever it is seeded.
+describe("the demo's parts of the P&L", () => {
+  it("when LKS-US sends the parts of its P&L, then the US rule's P&L is the simulated one and the file's carries the parts it takes out", () => {
+    const dates = demoDates("2026-11-30", new Set());
+    const day = demoRowsFor("LKS-US", dates)[100];
+    expect(day.fees_commissions).toBeGreaterThan(0);
+    const n = (v: unknown) => Number(v);
+    const [derived] = withPnlDefinition<Observation>(
+      [
+        {
+          date: String(day.date),
+          actualPnl: n(day.actual_pnl),
+          hypotheticalPnl: n(day.hypothetical_pnl),
+          var99: n(day.var_99),
+          feesCommissions: n(day.fees_commissions),
+          reservesAdjustments: n(day.reserves_adjustments),
+          netInterestIncome: n(day.net_interest_income),
+          intradayPnl: n(day.intraday_pnl),
+          newTradePnl: n(day.new_trade_pnl),
+        },
+      ],
+      "us",
+    );
+    // 12 CFR 217.204(b)(1) (from memory): fees, commissions, reserves, NII and intraday trading come out.
+    const parts =
+      n(day.fees_commissions) + n(day.reserves_adjustments) + n(day.net_interest_income) + n(day.intraday_pnl);
+    expect(derived.actualPnl).toBeCloseTo(n(day.actual_pnl) - parts, 2);
+    expect(derived.suppliedActualPnl).toBe(day.actual_pnl);
+    expect(demoRowsFor("LKS-EU", dates)[100].fees_commissions).toBeUndefined(); // the others send none
+  });
+});
+
 describe.each([
   ["2026-12-01", "no holidays"],
   ["2027-05-14", "no holidays"],

@@ -46,11 +46,26 @@ export function AuditTable({ events, filtered }: { events: AuditEvent[]; filtere
         {events.map((e) => (
           <Tr key={e.id}>
             <Td className="figures whitespace-nowrap">{formatDateTime(e.at)}</Td>
-            <Td>{e.actorEmail ?? <span className="text-ink-muted">Anonymous</span>}</Td>
+            <Td>
+              {e.actorEmail ? (
+                <span title={e.actorEmail}>{e.actorName ?? e.actorEmail}</span>
+              ) : (
+                <span className="text-ink-muted">Anonymous</span>
+              )}
+            </Td>
             <Td>
               <code className="text-xs">{e.action}</code>
             </Td>
-            <Td className="break-all">{e.target ?? <span className="text-ink-faint">—</span>}</Td>
+            <Td className="break-words">
+              {e.target === null ? (
+                <span className="text-ink-faint">—</span>
+              ) : e.targetWords ? (
+                // The words for reading; the stored reference (as signed) on hover.
+                <span title={e.target}>{e.targetWords}</span>
+              ) : (
+                e.target
+              )}
+            </Td>
             <Td className="figures whitespace-nowrap">{e.ip ?? <span className="text-ink-faint">—</span>}</Td>
             <Td>
               <Change before={e.before} after={e.after} />

@@ -198,30 +198,6 @@ const KIND_NOT_NEGATIVE = 3;
  * Sets an amount by its index in AMOUNT_COLUMNS with a named store each: one shape of row, and
  * no store keyed by a column name that changes from cell to cell (which V8 makes slow).
  */
-const SET_AMOUNT_ORDER = [
-  "actual_pnl",
-  "hypothetical_pnl",
-  "var_99",
-  "var_975",
-  "svar_99",
-  "var_10d",
-  "svar_10d",
-  "es_975",
-  "ses",
-  "rtpl",
-  "ima_drc",
-  "sbm",
-  "rrao",
-  "sa_drc",
-  "sa_ga",
-  "fees_commissions",
-  "reserves_adjustments",
-  "net_interest_income",
-  "intraday_pnl",
-  "new_trade_pnl",
-];
-if (SET_AMOUNT_ORDER.join() !== AMOUNT_COLUMNS.join()) throw new Error("setAmount() must follow AMOUNT_COLUMNS");
-
 function setAmount(row: ParsedRow, index: number, value: number): void {
   switch (index) {
     case 0:
@@ -288,6 +264,16 @@ function setAmount(row: ParsedRow, index: number, value: number): void {
       throw new Error(`no amount column ${index}`);
   }
 }
+
+// setAmount() must follow AMOUNT_COLUMNS: each index sets the column of that index (checked once, at load).
+{
+  const probe = newRow(0, "", "");
+  AMOUNT_COLUMNS.forEach((column, i) => {
+    setAmount(probe, i, i + 1);
+    if (probe[column] !== i + 1) throw new Error(`setAmount(${i}) must set ${column}`);
+  });
+}
+
 const MINUS = 45;
 const DOT = 46;
 const isDigit = (ch: number) => ch >= 48 && ch <= 57;

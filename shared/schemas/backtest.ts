@@ -34,7 +34,8 @@ export const pnlMakeUpSchema = z.object({
 });
 export type PnlMakeUpDto = z.infer<typeof pnlMakeUpSchema>;
 
-export const exceptionDaySchema = z.object({
+/** An exception's date and amounts: what the backtest and a snapshot's exception list both carry. */
+export const exceptionAmountsSchema = z.object({
   date: z.string(),
   actualPnl: z.number().nullable(),
   hypotheticalPnl: z.number().nullable(),
@@ -42,9 +43,12 @@ export const exceptionDaySchema = z.object({
   actual: z.boolean(),
   hypothetical: z.boolean(),
   excluded: z.boolean(),
-  missing: z.boolean(),
   excessActual: z.number().nullable(),
   excessHypothetical: z.number().nullable(),
+});
+
+export const exceptionDaySchema = exceptionAmountsSchema.extend({
+  missing: z.boolean(),
   /** docs/rules.md#pnl-definition: present when the day's file carried the parts of its P&L. */
   actualMakeUp: pnlMakeUpSchema.optional(),
   review: reviewSchema.nullable(),
@@ -62,6 +66,17 @@ export const rollOffSchema = z.object({
 });
 export type RollOffDto = z.infer<typeof rollOffSchema>;
 
+/** A desk's backtest at one confidence level (MAR32.18–32.19). */
+const deskLevelSchema = z.object({
+  actual: z.number().int(),
+  hypothetical: z.number().int(),
+  count: z.number().int(),
+  limit: z.number().int(),
+  fails: z.boolean(),
+  /** Exceptions disregarded by the supervisor's approved exclusions (docs/rules.md#frtb-desks). */
+  excludedDays: z.number().int().optional(),
+});
+
 export const deskResultSchema = z.object({
   portfolio: z.string(),
   name: z.string(),
@@ -72,24 +87,8 @@ export const deskResultSchema = z.object({
       observations: z.number().int(),
       complete: z.boolean(),
     }),
-    at99: z.object({
-      actual: z.number().int(),
-      hypothetical: z.number().int(),
-      count: z.number().int(),
-      limit: z.number().int(),
-      fails: z.boolean(),
-      /** Exceptions disregarded by the supervisor's approved exclusions (docs/rules.md#frtb-desks). */
-      excludedDays: z.number().int().optional(),
-    }),
-    at975: z.object({
-      actual: z.number().int(),
-      hypothetical: z.number().int(),
-      count: z.number().int(),
-      limit: z.number().int(),
-      fails: z.boolean(),
-      /** Exceptions disregarded by the supervisor's approved exclusions (docs/rules.md#frtb-desks). */
-      excludedDays: z.number().int().optional(),
-    }),
+    at99: deskLevelSchema,
+    at975: deskLevelSchema,
     passes: z.boolean(),
   }),
   pla: z

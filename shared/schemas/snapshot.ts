@@ -1,6 +1,6 @@
 import { z } from "zod";
 import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
-import { testOutcomeSchema, zoneSchema } from "./backtest";
+import { exceptionAmountsSchema, testOutcomeSchema, zoneSchema } from "./backtest";
 import { exceptionCauseSchema, exclusionStatusSchema } from "./review";
 import { frtbFiguresSchema } from "./frtb";
 
@@ -73,16 +73,7 @@ export const snapshotDaySchema = z.object({
 export type SnapshotDay = z.infer<typeof snapshotDaySchema>;
 
 /** An exception of the window with its amounts and, as they stood when the figures were prepared, its review. */
-export const snapshotExceptionSchema = z.object({
-  date: z.string(),
-  actualPnl: z.number().nullable(),
-  hypotheticalPnl: z.number().nullable(),
-  var99: z.number().nullable(),
-  actual: z.boolean(),
-  hypothetical: z.boolean(),
-  excluded: z.boolean(),
-  excessActual: z.number().nullable(),
-  excessHypothetical: z.number().nullable(),
+export const snapshotExceptionSchema = exceptionAmountsSchema.extend({
   cause: exceptionCauseSchema.nullable(),
   narrative: z.string().nullable(),
   exclusionStatus: exclusionStatusSchema,

@@ -18,7 +18,7 @@ import {
   type CsvReferenceData,
   type ParsedCsv,
 } from "../../../shared/ingest/parse-csv";
-import { ALL_COLUMNS } from "../../../shared/schemas/upload";
+import { ALL_COLUMNS, AMOUNT_COLUMNS, type AmountColumn } from "../../../shared/schemas/upload";
 
 // The daily file itself: its name, the reference data it is checked against, its parse, and
 // whether the same bytes were committed before.
@@ -100,6 +100,7 @@ export function duplicateError(twin: UploadModel): ConflictError {
 /** The header and two example rows an analyst can fill in. */
 export function templateCsv(): string {
   const example = (date: string, a: number, h: number) => ({
+    ...(Object.fromEntries(AMOUNT_COLUMNS.map((c) => [c, null])) as Record<AmountColumn, null>),
     portfolio: EXAMPLE_PORTFOLIO,
     date,
     actual_pnl: a,
@@ -107,21 +108,6 @@ export function templateCsv(): string {
     var_99: 4200000,
     var_975: 3500000,
     svar_99: 9800000,
-    var_10d: null,
-    svar_10d: null,
-    es_975: null,
-    ses: null,
-    rtpl: null,
-    ima_drc: null,
-    sbm: null,
-    rrao: null,
-    sa_drc: null,
-    sa_ga: null,
-    fees_commissions: null,
-    reserves_adjustments: null,
-    net_interest_income: null,
-    intraday_pnl: null,
-    new_trade_pnl: null,
   });
   return serialiseObservationCsv(
     [example("2026-09-29", -1250000.5, -1180000), example("2026-09-30", 860000, 910250.25)],

@@ -290,6 +290,8 @@ describe("Data › upload preview", () => {
     expect(screen.getByRole("note")).toHaveTextContent(
       "This file restates 1 day in signed-off quarters: LKS-EU Q1 2026 (approved), 1 day.",
     );
+    // An approved quarter is not filed yet: no amendment to prepare (docs/api.md#amendments).
+    expect(screen.getByRole("note")).not.toHaveTextContent("amendment");
     expect(screen.getByText(/Can be committed until/)).toBeInTheDocument();
 
     const commit = screen.getByRole("button", { name: "Commit 2 rows" });

@@ -157,6 +157,8 @@ export function UploadPreviewPanel({
           <p>
             Their snapshots keep the figures as signed off and are marked restated; the CRO and the supervisor may need
             to hear why. Commit only if the data really was wrong.
+            {p.signedOffQuarters.some((q) => q.status === "filed") &&
+              " A filed quarter is then corrected by preparing its amendment on Quarter close; the filing itself stays as sent."}
           </p>
         </div>
       )}

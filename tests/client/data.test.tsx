@@ -303,6 +303,37 @@ describe("Data › upload preview", () => {
     expect(api.callsTo("POST", "/api/uploads/41/commit")[0].body).toEqual({ confirmSignedOff: true });
   });
 
+  it("people appear by name with their e-mail on hover, in the history and the preview", async () => {
+    const committed = preview({
+      invalid: 0,
+      errors: [],
+      errorCount: 0,
+      status: "committed",
+      committedAt: "2026-03-31T18:05:00.000Z",
+      committedBy: "analyst2@larkspur.test",
+    });
+    fakeApi({
+      ...baseRoutes(),
+      "GET /api/people": {
+        status: 200,
+        body: [
+          { email: "analyst@larkspur.test", name: "Theo Marchetti" },
+          { email: "analyst2@larkspur.test", name: "Priya Ramanathan" },
+        ],
+      },
+      "GET /api/uploads": { status: 200, body: [summary(committed)] },
+      "GET /api/uploads/41": { status: 200, body: committed },
+      "GET /api/uploads/41/rows": { status: 200, body: { columns, rows: [goodRow], total: 1250 } },
+    });
+    renderApp("/data?upload=41");
+    const history = await screen.findByRole("table", { name: "Uploads, newest first" });
+    expect(await within(history).findByText("Theo Marchetti")).toHaveAttribute("title", "analyst@larkspur.test");
+    expect(within(history).getByText("Priya Ramanathan")).toHaveAttribute("title", "analyst2@larkspur.test");
+    expect(within(history).queryByText("analyst@larkspur.test")).not.toBeInTheDocument();
+    const panel = screen.getByRole("region", { name: /Upload #41/ });
+    expect(within(panel).getByText("Theo Marchetti")).toHaveAttribute("title", "analyst@larkspur.test");
+  });
+
   it("an expired preview says so and cannot be committed", async () => {
     const old = preview({
       invalid: 0,

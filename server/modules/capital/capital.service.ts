@@ -14,10 +14,11 @@ import type { EntityModel } from "../../models/entity";
 import type { ForecastResponse, WhatIfResponse } from "../../../shared/schemas/capital";
 import type { DeterminationDto } from "../../../shared/schemas/determination";
 import type { SessionUser } from "../../../shared/schemas/auth";
-import { SIGNED_OFF, type SnapshotFigures } from "../../../shared/schemas/snapshot";
+import { SIGNED_OFF } from "../../../shared/schemas/snapshot";
 import { quarterEndOf, quarterLabel } from "../../../shared/backtest/quarters";
 import type { CapitalHistoryItem } from "../../../shared/schemas/capital";
 import { SnapshotModel } from "../../models/snapshot";
+import { sequelize } from "../../db/sequelize";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
 import type { SignedIn } from "../../kit/actor";
 import type { z } from "zod";
@@ -246,11 +247,31 @@ export async function getWhatIf(
   };
 }
 
+const HISTORY_COLUMNS = [
+  "id",
+  "quarterEnd",
+  "status",
+  "zone",
+  "counted",
+  "plusFactor",
+  "multiplier",
+  "capital",
+  "addOn",
+  "restatedAt",
+  "amendsId",
+] as const;
+
 /** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
 export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {
   const entity = await entityByCode(code);
   const rows = await SnapshotModel.findAll({
     where: { entityId: entity.id, ...(readsSignedOffOnly(actor) ? { status: [...SIGNED_OFF] } : {}) },
+    // The headline columns and the window's completeness, not the frozen figures and history.
+    attributes: [
+      ...HISTORY_COLUMNS,
+      // MariaDB gives a JSON true as '1' (MySQL as 'true').
+      [sequelize.literal("JSON_VALUE(figures_json, '$.window.complete') IN ('1', 'true')"), "windowComplete"],
+    ],
     order: [
       ["quarterEnd", "ASC"],
       ["id", "ASC"],
@@ -271,6 +292,6 @@ export async function capitalHistory(code: string, actor: SignedIn): Promise<Cap
     addOn: r.addOn,
     snapshotId: r.id,
     restatedAfterSignOff: r.restatedAt !== null,
-    windowComplete: (JSON.parse(r.figuresJson) as SnapshotFigures).window.complete,
+    windowComplete: Number(r.get("windowComplete")) === 1,
   }));
 }

@@ -34,7 +34,13 @@ async function visibleEntityIds(actor: SignedIn): Promise<number[] | null> {
 
 async function toDtos(rows: FilingModel[]): Promise<Filing[]> {
   const snapshots = new Map(
-    (await SnapshotModel.findAll({ where: { id: rows.map((r) => r.snapshotId) } })).map((s) => [s.id, s]),
+    (
+      await SnapshotModel.findAll({
+        where: { id: rows.map((r) => r.snapshotId) },
+        // The columns a filing shows, not the frozen figures and history (tens of kilobytes a row).
+        attributes: ["id", "entityId", "quarterEnd", "zone", "counted", "multiplier", "hash", "amendsId"],
+      })
+    ).map((s) => [s.id, s]),
   );
   const entities = new Map(
     (await EntityModel.findAll({ where: { id: [...new Set([...snapshots.values()].map((s) => s.entityId))] } })).map(

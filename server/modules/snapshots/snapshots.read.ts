@@ -132,21 +132,6 @@ export async function snapshotDto(row: SnapshotModel, entity?: EntityModel): Pro
   };
 }
 
-/** The frozen parts a list item leaves out: MariaDB removes them before the row is sent (the rest is picked below). */
-const HEAVY_FIGURES = [
-  "days",
-  "exceptionDetail",
-  "exceptionDates",
-  "desks",
-  "capitalDetail",
-  "tests",
-  "frtb",
-  "frtbNote",
-  "analystInputs",
-  "settings",
-  "determination",
-].map((k) => `'$.${k}'`);
-
 /** A JSON function's result: the driver hands it over parsed, or as text on a connection that does not. */
 const jsonObject = (v: unknown): Record<string, unknown> =>
   (typeof v === "string" ? JSON.parse(v) : v) as Record<string, unknown>;
@@ -171,7 +156,8 @@ export async function listSnapshots(query: { entity?: string }, actor: SignedIn)
     where,
     attributes: {
       exclude: ["figuresJson", "historyJson", "amendmentJson"],
-      include: [[sequelize.literal(`JSON_REMOVE(figures_json, ${HEAVY_FIGURES.join(", ")})`), "headlineJson"]],
+      // The headline MariaDB keeps beside the figures (migration 20261202-33-02): the rest is picked below.
+      include: [[sequelize.col("figures_headline"), "headlineJson"]],
     },
     order: [
       ["quarterEnd", "DESC"],

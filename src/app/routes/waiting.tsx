@@ -19,9 +19,9 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 };
 
 const intro: Partial<Record<Role, string>> = {
-  cro: "Everything waiting for your decision across every entity and quarter: quarters to sign off and to file, exclusion requests and settings changes.",
+  cro: "Everything waiting for your decision across every entity and quarter: quarters to sign off and to file, overshooting notices to send, exclusion requests and settings changes.",
   analyst:
-    "Everything waiting for the reporting office across every entity and quarter: returned quarters, exceptions to explain, open findings and ended quarters without a snapshot.",
+    "Everything waiting for the reporting office across every entity and quarter: overshooting notices to draft, returned quarters, exceptions to explain, open findings and ended quarters without a snapshot.",
   admin: "Role changes another administrator proposed, waiting for a second administrator.",
   regulator: "Packs filed with you that you have not yet acknowledged.",
 };

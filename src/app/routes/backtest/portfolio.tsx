@@ -3,6 +3,7 @@ import { Link, useNavigate, useParams, useSearchParams, type LoaderFunctionArgs 
 import { keepPreviousData, useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { Role } from "@shared/schemas/common";
+import { NoticesStanding } from "@/features/notices/components/notices-standing";
 import { paths } from "@/config/paths";
 import { authQueries } from "@/features/auth/api/auth-queries";
 import { entityQueries } from "@/features/entities/api/entity-queries";
@@ -307,6 +308,9 @@ export default function BacktestRoute() {
             <FormMessage>
               {isApiError(backtest.error) ? backtest.error.message : "The backtest could not be updated."}
             </FormMessage>
+          )}
+          {bt.regime === "eu" && bt.portfolio.level === "top" && user!.role !== "treasury" && (
+            <NoticesStanding entity={bt.entity.code} />
           )}
           <WhereWeStand
             bt={bt}

@@ -4,6 +4,7 @@ import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { formatCount, formatDateTime } from "@/lib/format";
 import { cn } from "@/lib/cn";
 import { shortSha, uploadStatusLabels } from "../words";
+import { PersonName } from "@/lib/people";
 
 /** Every file sent in, newest first; a row opens its preview. */
 export function UploadHistoryTable({
@@ -54,9 +55,11 @@ export function UploadHistoryTable({
               </Td>
               <Td className="figures whitespace-nowrap">{formatDateTime(u.uploadedAt)}</Td>
               <Td>
-                {u.uploadedBy}
+                <PersonName email={u.uploadedBy} />
                 {u.committedBy && u.committedBy !== u.uploadedBy ? (
-                  <span className="block text-xs text-ink-muted">committed by {u.committedBy}</span>
+                  <span className="block text-xs text-ink-muted">
+                    committed by <PersonName email={u.committedBy} />
+                  </span>
                 ) : null}
               </Td>
               <Td className="break-all">

@@ -44,6 +44,8 @@ export const POLICY = {
   "GET /api/entities/:code/holiday-import": ["admin"],
   "POST /api/entities/:code/holiday-import": ["admin"],
 
+  // Names by e-mail, so that every screen shows people by name (the records keep the e-mail).
+  "GET /api/people": "signed-in",
   // Users, assignments and the audit log are the administrator's.
   "GET /api/users": ["admin"],
   "POST /api/users": ["admin"],

@@ -407,3 +407,84 @@ export function frtbAggregation(
     notes,
   };
 }
+
+// ---- the scope of the bank-wide backtest ---------------------------------------------------------
+
+/** Two P&L figures are the same within this much (each desk's amount is rounded to the cent). */
+const SCOPE_TOLERANCE = 1;
+
+export interface TopScope {
+  /** Days of the window on which the top of house and every desk reported actual P&L. */
+  daysCompared: number;
+  /** Days on which the top's P&L is the sum of the desks in the model. */
+  matchesInModel: number;
+  /** Days on which it is the sum of all desks. */
+  matchesAll: number;
+  /** Desks out of the model (the scope question arises only when there are some). */
+  outOfModel: string[];
+}
+
+/**
+ * Which desks the top-of-house P&L covers over the 250 days up to `asOf`, and only after `after` (the
+ * quarter end whose determination set the statuses: before it, other statuses stood) (docs/rules.md#frtb-scope).
+ * The bank-wide backtest runs on the desks in the model (MAR32, from memory: backtesting at the level
+ * of all desks in the scope of the internal model); P&L adds up, so the sums show what the upstream
+ * engine sent. VaR does not add up, so Quartermark cannot rebuild it: it can only say what it sees.
+ */
+export function topOfHouseScope(
+  top: readonly Observation[],
+  desks: readonly { code: string; status: DeskStatus; series: readonly Observation[] }[],
+  asOf: string,
+  after = "",
+): TopScope {
+  const end = lastIndexOnOrBefore(top, asOf);
+  const byDate = desks.map((d) => ({ d, pnl: new Map(d.series.map((o) => [o.date, o.actualPnl])) }));
+  let daysCompared = 0;
+  let matchesInModel = 0;
+  let matchesAll = 0;
+  for (let i = Math.max(0, end - 249); i <= end; i++) {
+    const o = top[i];
+    if (o.actualPnl == null || o.date <= after) continue;
+    let all = 0;
+    let inModel = 0;
+    let complete = true;
+    for (const { d, pnl } of byDate) {
+      const v = pnl.get(o.date);
+      if (v == null) {
+        complete = false;
+        break;
+      }
+      all += v;
+      if (d.status !== "out-of-model") inModel += v;
+    }
+    if (!complete) continue;
+    daysCompared++;
+    if (Math.abs(o.actualPnl - inModel) <= SCOPE_TOLERANCE) matchesInModel++;
+    if (Math.abs(o.actualPnl - all) <= SCOPE_TOLERANCE) matchesAll++;
+  }
+  const outOfModel = desks.filter((d) => d.status === "out-of-model").map((d) => d.code);
+  return { daysCompared, matchesInModel, matchesAll, outOfModel };
+}
+
+/** What the screen and the pack say about the scope, when there is something to say. */
+export function topScopeNote(scope: TopScope): string | null {
+  if (scope.outOfModel.length === 0 || scope.daysCompared === 0) return null;
+  const out = scope.outOfModel.join(", ");
+  const most = (n: number) => n >= scope.daysCompared * 0.95;
+  if (most(scope.matchesInModel))
+    return (
+      `The top-of-house P&L is the sum of the desks in the model on ${scope.matchesInModel} of the ` +
+      `${scope.daysCompared} days compared: the bank-wide backtest runs on them, without ${out}.`
+    );
+  if (most(scope.matchesAll))
+    return (
+      `The top-of-house P&L is the sum of all desks on ${scope.matchesAll} of the ${scope.daysCompared} days ` +
+      `compared, ` +
+      `including ${out}, which ${scope.outOfModel.length > 1 ? "are" : "is"} out of the model: the bank-wide ` +
+      `backtest should cover the desks in the model only. Ask the risk system for a top of house without ${out}.`
+    );
+  return (
+    `The top-of-house P&L is neither the sum of the desks in the model nor of all desks on most of the ` +
+    `${scope.daysCompared} days compared: check which desks the top of house covers.`
+  );
+}

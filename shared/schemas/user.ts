@@ -19,6 +19,11 @@ export const userSchema = z.object({
 export type User = z.infer<typeof userSchema>;
 export const userListSchema = z.array(userSchema);
 
+/** The people directory every signed-in reader may see: to show a person by name where a record keeps the e-mail. */
+export const personSchema = z.object({ email: z.string(), name: z.string() });
+export const peopleSchema = z.array(personSchema);
+export type Person = z.infer<typeof personSchema>;
+
 export const createUserBodySchema = z.strictObject({
   email: z.string().trim().toLowerCase().pipe(z.email("Enter a valid e-mail address")),
   name: plainNameSchema,

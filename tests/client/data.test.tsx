@@ -303,6 +303,71 @@ describe("Data › upload preview", () => {
     expect(api.callsTo("POST", "/api/uploads/41/commit")[0].body).toEqual({ confirmSignedOff: true });
   });
 
+  it("people appear by name with their e-mail on hover, in the history and the preview", async () => {
+    const committed = preview({
+      invalid: 0,
+      errors: [],
+      errorCount: 0,
+      status: "committed",
+      committedAt: "2026-03-31T18:05:00.000Z",
+      committedBy: "analyst2@larkspur.test",
+    });
+    fakeApi({
+      ...baseRoutes(),
+      "GET /api/people": {
+        status: 200,
+        body: [
+          { email: "analyst@larkspur.test", name: "Theo Marchetti" },
+          { email: "analyst2@larkspur.test", name: "Priya Ramanathan" },
+        ],
+      },
+      "GET /api/uploads": { status: 200, body: [summary(committed)] },
+      "GET /api/uploads/41": { status: 200, body: committed },
+      "GET /api/uploads/41/rows": { status: 200, body: { columns, rows: [goodRow], total: 1250 } },
+    });
+    renderApp("/data?upload=41");
+    const history = await screen.findByRole("table", { name: "Uploads, newest first" });
+    expect(await within(history).findByText("Theo Marchetti")).toHaveAttribute("title", "analyst@larkspur.test");
+    expect(within(history).getByText("Priya Ramanathan")).toHaveAttribute("title", "analyst2@larkspur.test");
+    expect(within(history).queryByText("analyst@larkspur.test")).not.toBeInTheDocument();
+    const panel = screen.getByRole("region", { name: /Upload #41/ });
+    expect(within(panel).getByText("Theo Marchetti")).toHaveAttribute("title", "analyst@larkspur.test");
+  });
+
+  it("the upload history pages twenty files at a time, newest first", async () => {
+    const many = Array.from({ length: 45 }, (_, i) =>
+      summary(
+        preview({
+          id: i + 1,
+          fileName: `daily-${i + 1}.csv`,
+          uploadedAt: new Date(Date.UTC(2026, 2, 1, 9, i)).toISOString(),
+          status: "committed",
+        }),
+      ),
+    );
+    fakeApi({ ...baseRoutes(), "GET /api/uploads": { status: 200, body: many } });
+    const user = userEvent.setup();
+    renderApp("/data");
+    const history = await screen.findByRole("table", { name: "Uploads, newest first" });
+    const files = () =>
+      within(screen.getByRole("table", { name: "Uploads, newest first" }))
+        .getAllByRole("row")
+        .slice(1)
+        .map((r) => (r as HTMLTableRowElement).cells[0].textContent);
+    expect(within(history).getAllByRole("row")).toHaveLength(21);
+    expect(files()[0]).toBe("45");
+    const pager = screen.getByRole("navigation", { name: "Pages of the upload history" });
+    expect(pager).toHaveTextContent("1–20 of 45");
+    expect(within(pager).getByRole("button", { name: "Newer" })).toBeDisabled();
+    await user.click(within(pager).getByRole("button", { name: "Older" }));
+    expect(pager).toHaveTextContent("21–40 of 45");
+    expect(pager).toHaveTextContent("Page 2 of 3");
+    expect(files()[0]).toBe("25");
+    await user.click(within(pager).getByRole("button", { name: "Older" }));
+    expect(files()).toEqual(["5", "4", "3", "2", "1"]);
+    expect(within(pager).getByRole("button", { name: "Older" })).toBeDisabled();
+  });
+
   it("an expired preview says so and cannot be committed", async () => {
     const old = preview({
       invalid: 0,

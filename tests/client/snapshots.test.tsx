@@ -1316,7 +1316,17 @@ describe("Quarter close › amending a filed quarter", () => {
     expect(confirm).toHaveTextContent("computed on today's data as a new draft that names snapshot #12");
     expect(confirm).toHaveTextContent("Snapshot #12, its filing and its pack stay exactly as filed.");
     expect(api.callsTo("POST", "/api/snapshots")).toHaveLength(0);
-    await user.click(within(confirm).getByRole("button", { name: "Prepare the amendment" }));
+    // The confirmation takes the focus; Escape closes it and gives the focus back to the button that opened it.
+    expect(within(confirm).getByRole("button", { name: "Prepare the amendment" })).toHaveFocus();
+    await user.keyboard("{Escape}");
+    expect(screen.queryByRole("group", { name: "Prepare an amendment" })).not.toBeInTheDocument();
+    expect(screen.getByRole("button", { name: "Prepare amendment" })).toHaveFocus();
+    await user.click(screen.getByRole("button", { name: "Prepare amendment" }));
+    await user.click(
+      within(screen.getByRole("group", { name: "Prepare an amendment" })).getByRole("button", {
+        name: "Prepare the amendment",
+      }),
+    );
 
     expect(api.callsTo("POST", "/api/snapshots")[0].body).toEqual({
       entity: "LKS-EU",

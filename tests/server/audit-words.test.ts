@@ -41,4 +41,13 @@ describe("the audit log in words", () => {
     const event = res.body.items.find((e: { target: string }) => e.target === person.email);
     expect(event).toMatchObject({ targetWords: "Nadia Fern-Ash", actorName: "Ines Example" });
   });
+
+  it("when any signed-in person reads the people directory, then each e-mail comes with its name, and nothing else", async () => {
+    const person = await createTestUser("analyst", { name: "Olu Directory" });
+    const treasury = await sessionCookieFor((await createTestUser("treasury")).id);
+    const res = await request(app).get("/api/people").set("Cookie", treasury);
+    expect(res.status).toBe(200);
+    expect(res.body).toContainEqual({ email: person.email, name: "Olu Directory" });
+    expect(Object.keys(res.body[0]).sort()).toEqual(["email", "name"]);
+  });
 });

@@ -6,6 +6,8 @@ import {
   nextDeskStatus,
   type DeskStatus,
   type FrtbDeskInput,
+  topOfHouseScope,
+  topScopeNote,
 } from "../../shared/backtest/frtb-capital";
 import type { Observation } from "../../shared/backtest/types";
 import { businessDates } from "./build-observations";
@@ -237,5 +239,37 @@ describe("FRTB desk eligibility (MAR32.19, 32.43–32.45)", () => {
     const history = deskStatusHistory([{ code: "FX", series }], [dates[249], dates[499]], frozen);
     expect(history[0].desks[0].status).toBe("in-model");
     expect(history[1].desks[0]).toMatchObject({ status: "in-model", plaZone: null, backtest99: 0 });
+  });
+});
+
+describe("the scope of the bank-wide backtest (docs/rules.md#frtb-scope)", () => {
+  const days = businessDates(60);
+  const desk = (code: string, pnl: number, status: DeskStatus) => ({
+    code,
+    status,
+    series: days.map((date) => ({ date, actualPnl: pnl, hypotheticalPnl: pnl, var99: 100 })),
+  });
+  const top = (pnl: number) => days.map((date) => ({ date, actualPnl: pnl, hypotheticalPnl: pnl, var99: 100 }));
+  const desksNow = [desk("FX", 30, "in-model"), desk("RATES", 20, "amber"), desk("EQ", 50, "out-of-model")];
+
+  it("when the top of house is the sum of the desks in the model, then the note says the backtest runs on them", () => {
+    const scope = topOfHouseScope(top(50), desksNow, days[59]);
+    expect(scope).toEqual({ daysCompared: 60, matchesInModel: 60, matchesAll: 0, outOfModel: ["EQ"] });
+    expect(topScopeNote(scope)).toMatch(/sum of the desks in the model on 60 of the 60 days.*without EQ/);
+  });
+
+  it("when the top of house still carries a desk out of the model, then the note asks for a top of house without it (MAR32, from memory)", () => {
+    const scope = topOfHouseScope(top(100), desksNow, days[59]);
+    expect(scope.matchesAll).toBe(60);
+    expect(topScopeNote(scope)).toMatch(/sum of all desks on 60 of the 60 days compared, including EQ.*without EQ/);
+  });
+
+  it("when the statuses took effect after a quarter end, then only the days after it are compared; with every desk in the model there is nothing to say", () => {
+    const scope = topOfHouseScope(top(100), desksNow, days[59], days[49]);
+    expect(scope.daysCompared).toBe(10);
+    expect(
+      topScopeNote(topOfHouseScope(top(50), [desk("FX", 30, "in-model"), desk("R", 20, "amber")], days[59])),
+    ).toBeNull();
+    expect(topScopeNote(topOfHouseScope(top(7), desksNow, days[59]))).toMatch(/neither the sum/);
   });
 });

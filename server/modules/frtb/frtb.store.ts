@@ -13,6 +13,8 @@ import {
   deskStandingAt,
   deskStatusHistory,
   frtbAggregation,
+  topOfHouseScope,
+  topScopeNote,
   type DeskStanding,
   type DeskStatus,
   type FrtbDeskInput,
@@ -211,6 +213,9 @@ export async function frtbFiguresOn(
       return { ...live, status: "in-model" as DeskStatus, series: d.series };
     });
   const inputs: FrtbDeskInput[] = standing.map((d) => ({ code: d.code, status: d.status, series: d.series }));
+  // The bank-wide backtest should run on the desks in the model: say what the top of house covers.
+  const scope = topScopeNote(topOfHouseScope(top, inputs, date, statusQuarterEnd ?? ""));
+  if (scope) notes.push(scope);
   const r = frtbAggregation(top, inputs, date, multiplier);
   const saOf = new Map(r.desks.map((d) => [d.code, d.sa]));
   return {

@@ -8,7 +8,7 @@ import {
   updateUserBodySchema,
 } from "../../../shared/schemas/user";
 import { idParamSchema } from "../../../shared/schemas/common";
-import { createUser, listUsers, sendPasswordLink, unlockUser, updateUser } from "./users.service";
+import { createUser, listPeople, listUsers, sendPasswordLink, unlockUser, updateUser } from "./users.service";
 import {
   approveRoleRequest,
   listPendingRoleRequests,
@@ -18,6 +18,9 @@ import {
 
 export function usersRouter() {
   const r = createGuardedRouter();
+  r.get("/api/people", async (_req, res) => {
+    res.json(await listPeople());
+  });
   r.get("/api/users", async (_req, res) => {
     res.json(await listUsers());
   });

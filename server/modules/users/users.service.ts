@@ -72,6 +72,12 @@ export function pendingRequestFor(email: string, transaction?: Transaction) {
   return RoleRequestModel.findOne({ where: { email, status: "pending" }, transaction });
 }
 
+/** Everyone's name by e-mail (disabled people too: they stay in the records), for showing people by name. */
+export async function listPeople(): Promise<{ email: string; name: string }[]> {
+  const rows = await UserModel.findAll({ attributes: ["email", "name"], order: [["name", "ASC"]] });
+  return rows.map((r) => ({ email: r.email, name: r.name }));
+}
+
 export async function listUsers(): Promise<User[]> {
   const rows = await UserModel.findAll({ order: [["email", "ASC"]] });
   const locked = await lockedAccounts(

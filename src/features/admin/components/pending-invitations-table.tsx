@@ -2,6 +2,7 @@ import type { PendingInvitation } from "@shared/schemas/user";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
+import { PersonName } from "@/lib/people";
 
 /** Links sent and not used yet: who, for what, by whom, and until when (an expired one needs a new link). */
 export function PendingInvitationsTable({ invitations }: { invitations: PendingInvitation[] }) {
@@ -28,7 +29,9 @@ export function PendingInvitationsTable({ invitations }: { invitations: PendingI
             <Td>{i.email}</Td>
             <Td>{roleLabels[i.role]}</Td>
             <Td>{i.purpose === "invite" ? "Invitation" : "Password reset"}</Td>
-            <Td>{i.createdBy ?? "—"}</Td>
+            <Td>
+              <PersonName email={i.createdBy} />
+            </Td>
             <Td numeric className="whitespace-nowrap">
               {formatDateTime(i.createdAt)}
             </Td>

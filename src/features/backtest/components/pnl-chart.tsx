@@ -9,6 +9,7 @@ import {
   Tooltip,
   XAxis,
   YAxis,
+  type TooltipContentProps,
 } from "recharts";
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/observation";
@@ -52,6 +53,30 @@ function Cross({ cx, cy, fill }: { cx?: number; cy?: number; fill?: string }) {
       stroke={fill}
       strokeWidth={1.75}
     />
+  );
+}
+
+/**
+ * The hovered day: its date and only the figures it has (a day that is no exception has no exception line, and the
+ * scatter series do not repeat the date), each once.
+ */
+export function PnlTooltip({ active, payload, label, currency }: Partial<TooltipContentProps> & { currency: string }) {
+  if (!active || !payload?.length) return null;
+  const lines = new Map<string, number>();
+  for (const entry of payload) {
+    const name = String(entry.name ?? "");
+    if (typeof entry.value === "number" && name !== "" && name !== "date" && !lines.has(name))
+      lines.set(name, entry.value);
+  }
+  return (
+    <div className="rounded-xs border border-rule bg-paper-raised px-2 py-1.5 text-xs shadow-sm">
+      <p className="font-semibold text-ink">{label}</p>
+      {[...lines].map(([name, value]) => (
+        <p key={name} className="text-ink-soft">
+          {name}: <span className="figures text-ink">{formatAmount(value, currency)}</span>
+        </p>
+      ))}
+    </div>
   );
 }
 
@@ -162,14 +187,7 @@ export function PnlChart({
               width={56}
               label={{ value: bt.entity.currency, angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
             />
-            <Tooltip
-              formatter={(value, name) => [
-                formatAmount(typeof value === "number" ? value : null, bt.entity.currency),
-                name,
-              ]}
-              labelStyle={{ color: ink, fontWeight: 600 }}
-              contentStyle={{ fontSize: 12, borderColor: rule, borderRadius: 2 }}
-            />
+            <Tooltip content={(props) => <PnlTooltip {...props} currency={bt.entity.currency} />} />
             <Line
               type="linear"
               dataKey="pnl"

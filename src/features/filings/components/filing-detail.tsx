@@ -13,6 +13,7 @@ import { AcknowledgeReceipt } from "./acknowledge-receipt";
 import { FilingDelivery } from "./filing-delivery";
 import { HeldFileCheck } from "./held-file-check";
 import { ServerCopyCheck } from "./server-copy-check";
+import { PersonName } from "@/lib/people";
 
 /**
  * The original and its amendment, linked both ways with both snapshots' hashes (docs/api.md#amendments).
@@ -97,7 +98,7 @@ export function FilingDetail({
         </h2>
         <p className="text-sm text-ink-soft">
           Quarter <span className="figures">{quarterStart(filing.quarterEnd)}</span> to{" "}
-          <span className="figures">{filing.quarterEnd}</span> · sent by {filing.sentBy}{" "}
+          <span className="figures">{filing.quarterEnd}</span> · sent by <PersonName email={filing.sentBy} />{" "}
           {filing.sentAt ? (
             <>
               on <span className="figures">{formatDateTime(filing.sentAt)}</span>

@@ -5,6 +5,7 @@ import { quarterLabel } from "@shared/backtest/quarters";
 import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";
+import { PersonName } from "@/lib/people";
 
 /** The packs sent, newest first, with the figures each one carried; a row opens its filing. */
 export function FilingListTable({
@@ -71,7 +72,9 @@ export function FilingListTable({
                 ) : (
                   <span className="font-medium">Waiting for the mail server</span>
                 )}
-                <span className="block text-2xs text-ink-muted">{f.sentBy}</span>
+                <span className="block text-2xs text-ink-muted">
+                  <PersonName email={f.sentBy} />
+                </span>
               </Td>
               <Td className="text-xs">
                 <ul>

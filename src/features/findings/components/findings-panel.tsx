@@ -10,6 +10,7 @@ import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
 import { cn } from "@/lib/cn";
 import { findingQueries, useCloseFinding, type FindingFilters } from "../api/finding-queries";
 import { findingKindLabels, findingStatusLabels } from "../words";
+import { PersonName } from "@/lib/people";
 
 type Closing = "resolved" | "explained";
 
@@ -237,7 +238,7 @@ export function FindingsPanel({
                     <Td className="text-xs">
                       {f.closedBy ? (
                         <>
-                          {f.closedBy}
+                          <PersonName email={f.closedBy} />
                           <br />
                           <span className="figures text-ink-muted">{formatDateTime(f.closedAt)}</span>
                         </>

@@ -27,6 +27,7 @@ import {
 import { seriesOf } from "@/lib/pnl-series";
 import { PnlMakeUp } from "./pnl-make-up";
 import { causeIds, causeLabels, exclusionStatusLabels } from "@/lib/review-labels";
+import { PersonName } from "@/lib/people";
 
 /** A review as it stands: who explained it, why, and what the supervisor decided. */
 /** Every decision recorded, oldest first: a correction never replaces the record it supersedes. */
@@ -77,7 +78,7 @@ export function ReviewRecord({ review }: { review: Review }) {
       )}
       <dt className="text-ink-muted">Reviewed by</dt>
       <dd>
-        {review.reviewedBy}, {formatDateTime(review.reviewedAt)}{" "}
+        <PersonName email={review.reviewedBy} />, {formatDateTime(review.reviewedAt)}{" "}
         <span className="text-ink-muted">· version {review.version}</span>
       </dd>
     </dl>
@@ -266,8 +267,8 @@ function EvidencePanel({
                 {f.fileName}
               </a>
               <span className="figures text-xs text-ink-muted">
-                {formatBytes(f.sizeBytes)} · {f.uploadedBy}, {formatDateTime(f.uploadedAt)} · sha256{" "}
-                {f.sha256.slice(0, 12)}
+                {formatBytes(f.sizeBytes)} · <PersonName email={f.uploadedBy} />, {formatDateTime(f.uploadedAt)} ·
+                sha256 {f.sha256.slice(0, 12)}
               </span>
             </li>
           ))}

@@ -20,6 +20,7 @@ import {
   useReturnSnapshot,
   useSubmitSnapshot,
 } from "../api/snapshot-queries";
+import { PersonName } from "@/lib/people";
 
 const sameUser = (a: string | null, b: string) => a !== null && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -392,13 +393,13 @@ function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
     case "submitted":
       return role === "cro" ? (
         <>
-          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}. Approve it to
-          seal the figures, or return it saying what to change.
+          Submitted by <PersonName email={snapshot.submittedBy} fallback="an analyst" /> on{" "}
+          {formatDateTime(snapshot.submittedAt)}. Approve it to seal the figures, or return it saying what to change.
         </>
       ) : (
         <>
-          Submitted by {snapshot.submittedBy ?? "an analyst"} on {formatDateTime(snapshot.submittedAt)}; waiting for a
-          chief risk officer to approve or return it.
+          Submitted by <PersonName email={snapshot.submittedBy} fallback="an analyst" /> on{" "}
+          {formatDateTime(snapshot.submittedAt)}; waiting for a chief risk officer to approve or return it.
         </>
       );
     case "returned": {
@@ -416,16 +417,16 @@ function Standing({ snapshot, role }: { snapshot: Snapshot; role: Role }) {
     case "approved":
       return (
         <>
-          Approved by {snapshot.approvedBy ?? "—"} on {formatDateTime(snapshot.approvedAt)}. The figures are sealed and
-          no longer change.
+          Approved by <PersonName email={snapshot.approvedBy} /> on {formatDateTime(snapshot.approvedAt)}. The figures
+          are sealed and no longer change.
           {role === "cro" && " Read the pack, then file it with the supervisor below."}
         </>
       );
     case "filed":
       return (
         <>
-          Approved by {snapshot.approvedBy ?? "—"} and filed with the supervisor. The figures are sealed and no longer
-          change.
+          Approved by <PersonName email={snapshot.approvedBy} /> and filed with the supervisor. The figures are sealed
+          and no longer change.
           {snapshot.restatedAfterSignOff &&
             !snapshot.restatedAfterSignOff.resolvedBy &&
             (snapshot.amendedBy !== null

@@ -14,6 +14,7 @@ import { SnapshotFiling, type FilingLookup } from "./snapshot-filing";
 import { SnapshotHistory, SnapshotRecord } from "./snapshot-record";
 import { SnapshotReturn } from "./snapshot-return";
 import { AmendmentChanges } from "./amendment-changes";
+import { PersonName } from "@/lib/people";
 
 /** A day inside the window changed after sign-off: the sealed figures stand, and the reader is told so. */
 function RestatedWarning({
@@ -112,8 +113,8 @@ export function SnapshotDetail({
           </h2>
           <p className="text-sm text-ink-soft">
             Quarter <span className="figures">{quarterStart(snapshot.quarterEnd)}</span> to{" "}
-            <span className="figures">{snapshot.quarterEnd}</span> · prepared by {snapshot.preparedBy} on{" "}
-            {formatDateTime(snapshot.preparedAt)}
+            <span className="figures">{snapshot.quarterEnd}</span> · prepared by{" "}
+            <PersonName email={snapshot.preparedBy} /> on {formatDateTime(snapshot.preparedAt)}
             {updating && <span className="text-ink-muted"> · updating…</span>}
           </p>
           {(snapshot.amendment || snapshot.amendedBy !== null) && (

@@ -7,6 +7,7 @@ import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
+import { PersonName } from "@/lib/people";
 
 /** The entity's quarters, newest first, with the headline figures each one froze; a row opens its snapshot. */
 export function SnapshotListTable({
@@ -80,8 +81,12 @@ export function SnapshotListTable({
               <Td numeric className="whitespace-nowrap">
                 {formatAmount(s.addOn, s.figures.currency)}
               </Td>
-              <Td className="text-xs">{s.preparedBy}</Td>
-              <Td className="text-xs">{s.approvedBy ?? <span className="text-ink-faint">—</span>}</Td>
+              <Td className="text-xs">
+                <PersonName email={s.preparedBy} />
+              </Td>
+              <Td className="text-xs">
+                {s.approvedBy ? <PersonName email={s.approvedBy} /> : <span className="text-ink-faint">—</span>}
+              </Td>
             </SelectableTr>
           );
         })}

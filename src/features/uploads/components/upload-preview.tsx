@@ -9,6 +9,7 @@ import { firstRowsPage, useCommitUpload, useDiscardUpload } from "../api/upload-
 import { shortSha, uploadStatusLabels } from "../words";
 import { PreviewRowsTable } from "./preview-rows-table";
 import { quarterWords, RestatedDays } from "./restated-days";
+import { PersonName } from "@/lib/people";
 
 /** A count in the upload's summary, right-aligned; a count of errors above zero is marked in red with an arrow. */
 function CountFigure({ label, value, tone }: { label: string; value: number; tone?: "bad" }) {
@@ -119,9 +120,18 @@ export function UploadPreviewPanel({
           </span>
         )}
         <span className="text-xs text-ink-muted">
-          by {p.uploadedBy}, {formatDateTime(p.uploadedAt)}
-          {p.committedAt &&
-            ` · committed ${p.committedBy && p.committedBy !== p.uploadedBy ? `by ${p.committedBy}, ` : ""}${formatDateTime(p.committedAt)}`}
+          by <PersonName email={p.uploadedBy} />, {formatDateTime(p.uploadedAt)}
+          {p.committedAt && (
+            <>
+              {" · committed "}
+              {p.committedBy && p.committedBy !== p.uploadedBy && (
+                <>
+                  by <PersonName email={p.committedBy} />,{" "}
+                </>
+              )}
+              {formatDateTime(p.committedAt)}
+            </>
+          )}
         </span>
       </div>
 

@@ -147,6 +147,7 @@ export const POLICY = {
   "GET /api/notices": ["analyst", "cro"],
   "PUT /api/notices/:id/draft": ["analyst"],
   "POST /api/notices/:id/send": ["cro"],
+  "GET /api/notices/:id/notice.pdf": ["analyst", "cro"],
 
   // Personal API tokens: each holder lists, creates and revokes their own (filtered in the service).
   "GET /api/tokens": TOKEN_HOLDERS,

@@ -28,6 +28,8 @@ export class OvershootingNoticeModel extends Model<
   declare recipientsJson: CreationOptional<string | null>;
   declare messageId: CreationOptional<string | null>;
   declare pdfSha256: CreationOptional<string | null>;
+  /** The PDF as sent (read only through the "withPdf" scope). */
+  declare pdf: CreationOptional<Buffer | null>;
   declare withdrawnAt: CreationOptional<Date | null>;
   declare note: CreationOptional<string | null>;
   declare remindedAt: CreationOptional<Date | null>;
@@ -60,6 +62,7 @@ OvershootingNoticeModel.init(
     recipientsJson: { type: DataTypes.TEXT, allowNull: true },
     messageId: { type: DataTypes.STRING(200), allowNull: true },
     pdfSha256: { type: DataTypes.CHAR(64), allowNull: true },
+    pdf: { type: DataTypes.BLOB("medium"), allowNull: true },
     withdrawnAt: { type: DataTypes.DATE(3), allowNull: true },
     note: { type: DataTypes.STRING(500), allowNull: true },
     remindedAt: { type: DataTypes.DATE(3), allowNull: true },
@@ -67,5 +70,10 @@ OvershootingNoticeModel.init(
     createdAt: DataTypes.DATE(3),
     updatedAt: DataTypes.DATE(3),
   },
-  { sequelize, tableName: "overshooting_notices" },
+  {
+    sequelize,
+    tableName: "overshooting_notices",
+    defaultScope: { attributes: { exclude: ["pdf"] } },
+    scopes: { withPdf: {} },
+  },
 );

@@ -95,6 +95,7 @@ describe("Overshooting notices in a real browser", () => {
     const sent = (await OvershootingNoticeModel.findByPk(notice!.id))!;
     expect(sent.status).toBe("sent");
     expect(sent.sentBy).toBe(cro.id);
+    await page.getByText("Download the notice as sent (PDF)").waitFor();
     await expectAccessible(page, "cro: Notices, sent");
     await keepScreenshot(page, "notices-cro-sent");
 

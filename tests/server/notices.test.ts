@@ -1,4 +1,5 @@
 import { execFileSync } from "node:child_process";
+import { createHash } from "node:crypto";
 import { mkdirSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import request from "supertest";
@@ -225,6 +226,22 @@ describe("overshooting notices (CRR Art. 366(5))", () => {
     expect(row?.sentBy).toBe(cro.id);
     expect(row?.sentAt).toBeInstanceOf(Date);
     expect(await AuditEventModel.count({ where: { action: "notice.send", actorEmail: cro.email } })).toBe(1);
+
+    // The PDF as sent can be read back by the office, byte for byte, with its sha256.
+    const copy = await request(app)
+      .get(`/api/notices/${n.id}/notice.pdf`)
+      .set("Cookie", fx.cookie)
+      .buffer(true)
+      .parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => done(null, Buffer.concat(chunks)));
+      });
+    expect(copy.status).toBe(200);
+    expect(Buffer.compare(copy.body as Buffer, mail.attachments[0].content)).toBe(0);
+    expect(copy.headers["x-notice-sha256"]).toBe(
+      createHash("sha256").update(mail.attachments[0].content).digest("hex"),
+    );
 
     // Sent once: again is 409, and a sent notice no longer takes a draft.
     const again = await request(app)

@@ -128,6 +128,16 @@ const staleOf = (id: number) => async () => ({
   current: await noticeById(id),
 });
 
+/** The PDF of a sent notice exactly as the supervisor received it, with its sha256. */
+export async function sentNoticePdf(id: number): Promise<{ fileName: string; bytes: Buffer; sha256: string }> {
+  const row = await OvershootingNoticeModel.scope("withPdf").findByPk(id);
+  if (!row) throw new NotFoundError(`No overshooting notice #${id}.`);
+  if (row.status !== "sent" || !row.pdf)
+    throw new NotFoundError(`Notice #${id} has not been sent, so there is no PDF of it yet.`);
+  const notice = await noticeById(id);
+  return { fileName: noticePdfFileName(notice), bytes: row.pdf, sha256: row.pdfSha256 ?? "" };
+}
+
 /** The analyst writes (or rewrites) the cause so far; only a notice not yet sent. */
 export async function draftNotice(id: number, body: unknown, actor: SignedIn): Promise<Notice> {
   const input = parseInput(noticeDraftBodySchema, body);
@@ -217,6 +227,7 @@ export async function sendNotice(id: number, body: unknown, actor: SignedIn): Pr
     row.recipientsJson = JSON.stringify(recipients);
     row.messageId = messageId;
     row.pdfSha256 = pdfSha256;
+    row.pdf = pdf;
     row.version += 1;
     await row.save({ transaction });
     const notice = await noticeById(id);

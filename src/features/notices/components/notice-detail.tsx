@@ -3,6 +3,7 @@ import type { Role } from "@shared/schemas/common";
 import { noticeSchema, type Notice } from "@shared/schemas/notice";
 import { Button } from "@/components/ui/button";
 import { Confirmation } from "@/components/ui/confirmation";
+import { DownloadButton } from "@/components/ui/download-button";
 import { FormMessage, TextareaField } from "@/components/ui/field";
 import { LateBadge } from "@/components/ui/late-badge";
 import { Notice as NoteBox } from "@/components/ui/notice";
@@ -77,6 +78,11 @@ export function NoticeDetail({
           </>
         )}
       </dl>
+      {notice.status === "sent" && (
+        <DownloadButton href={`/api/notices/${notice.id}/notice.pdf`} fallbackName="overshooting-notice.pdf">
+          Download the notice as sent (PDF)
+        </DownloadButton>
+      )}
       {role === "analyst" && notice.status === "open" ? (
         <DraftForm notice={notice} />
       ) : (

@@ -80,15 +80,57 @@ export function SnapshotFigures({
       {f.exceptionDates.length > 0 && (
         <div className="text-sm">
           <p className="text-2xs font-semibold tracking-wide text-ink-muted uppercase">Exception days in the window</p>
-          <ul className="figures mt-1 flex flex-wrap gap-x-4 gap-y-0.5 text-xs">
-            {f.exceptionDates.map((d) => (
-              <li key={d}>{d}</li>
-            ))}
-          </ul>
+          {f.exceptionDetail ? (
+            <ExceptionSeries snapshot={snapshot} />
+          ) : (
+            <ul className="figures mt-1 flex flex-wrap gap-x-4 gap-y-0.5 text-xs">
+              {f.exceptionDates.map((d) => (
+                <li key={d}>{d}</li>
+              ))}
+            </ul>
+          )}
         </div>
       )}
       <DesksAtQuarterEnd snapshot={snapshot} />
     </section>
+  );
+}
+
+type Series = "actual" | "hypothetical";
+const seriesWords: Record<Series, string> = { actual: "actual P&L", hypothetical: "hypothetical P&L" };
+
+/**
+ * Each exception day with the P&L series its loss went beyond VaR on, and whether the count holds it: the count is on
+ * one series (the basis, or under "the higher of the two" the series with more exceptions; docs/rules.md#pnl-basis).
+ */
+function ExceptionSeries({ snapshot }: { snapshot: Snapshot }) {
+  const f = snapshot.figures;
+  const counts: Series =
+    f.pnlBasis === "max" ? (f.exceptions.actual >= f.exceptions.hypothetical ? "actual" : "hypothetical") : f.pnlBasis;
+  return (
+    <>
+      <p className="mt-1 text-xs text-ink-muted">The count is on {seriesWords[counts]}.</p>
+      <ul className="mt-1 flex flex-col gap-0.5 text-xs" aria-label="Exception days and their series">
+        {(f.exceptionDetail ?? []).map((d) => {
+          const on: Series[] = [
+            ...(d.actual ? ["actual" as const] : []),
+            ...(d.hypothetical ? ["hypothetical" as const] : []),
+          ];
+          const counted = on.includes(counts) && !d.excluded;
+          return (
+            <li key={d.date}>
+              <span className="figures">{d.date}</span>: beyond VaR on{" "}
+              {on.length === 2 ? "actual and hypothetical P&L" : on.map((x) => seriesWords[x]).join("")}
+              {d.excluded
+                ? " · excluded by the supervisor"
+                : counted
+                  ? ` · counts on ${seriesWords[counts]}`
+                  : ` · not in the count (${seriesWords[counts]} stayed within VaR)`}
+            </li>
+          );
+        })}
+      </ul>
+    </>
   );
 }
 

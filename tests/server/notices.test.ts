@@ -280,6 +280,40 @@ describe("overshooting notices (CRR Art. 366(5))", () => {
     expect(queue.body.filter((i: { href: string }) => i.href.includes(`notice=${n.id}`))).toEqual([]);
   });
 
+  it("when a withdrawn day is restated into an overshooting again, then its notice opens again; a sent notice restated stays sent and says so", async () => {
+    const fx = await euOvershooting();
+    const line = (pnl: string) =>
+      `portfolio,date,actual_pnl,hypothetical_pnl,var_99\n${fx.portfolio.code},${DATES[29]},${pnl},-400,1000\n`;
+    await commit(fx.cookie, line("-500"));
+    const [withdrawn] = await listOf(fx.entity.code, fx.cookie);
+    expect(withdrawn.status).toBe("withdrawn");
+    await commit(fx.cookie, line("-1300"));
+    const [reopened] = await listOf(fx.entity.code, fx.cookie);
+    expect(reopened).toMatchObject({ id: withdrawn.id, status: "open", actualPnl: -1300, excess: 300 });
+    expect(reopened.note).toMatch(/^Opened again/);
+
+    const drafted = await request(app)
+      .put(`/api/notices/${reopened.id}/draft`)
+      .set("Cookie", fx.cookie)
+      .send({ cause: "Market move.", version: reopened.version });
+    const cro = await createTestUser("cro");
+    const sent = await request(app)
+      .post(`/api/notices/${reopened.id}/send`)
+      .set("Cookie", await sessionCookieFor(cro.id))
+      .send({ version: drafted.body.version });
+    expect(sent.status).toBe(200);
+    await commit(fx.cookie, line("-600"));
+    const [after] = await listOf(fx.entity.code, fx.cookie);
+    // What was sent stays as sent (amounts included); the note tells of the restatement since.
+    expect(after).toMatchObject({ status: "sent", actualPnl: -1300 });
+    expect(after.note).toMatch(/after it was sent: no longer an overshooting/);
+    const audit = await AuditEventModel.findAll({
+      where: { target: `${fx.entity.code} ${fx.portfolio.code}` },
+      order: [["id", "ASC"]],
+    });
+    expect(audit.map((a) => a.action)).toEqual(["notice.open", "notice.withdraw", "notice.reopen", "notice.restated"]);
+  });
+
   it("when a notice is past its due day and not sent, then it is late in the list and in the queue with its due day; sent after the due day it stays late", async () => {
     const fx = await euOvershooting();
     const [n] = await listOf(fx.entity.code, fx.cookie);

@@ -62,6 +62,7 @@ async function loadBooks() {
   q3Submitted = q3.body.id;
 
   const empty = await createTestEntity();
+  await empty.update({ country: "GB" }); // its calendar offers the import of public holidays
   emptyEntity = empty.code;
   emptyPortfolio = (
     await PortfolioModel.create({ entityId: empty.id, code: `${empty.code}-BOOK`, name: "Empty book", level: "top" })
@@ -315,6 +316,10 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await page.getByRole("button", { name: "Add holiday" }).click();
     await page.locator("form [aria-invalid='true']").first().waitFor();
     await expectAccessible(page, "admin: Entity, holiday refused with its errors");
+    await page.getByRole("button", { name: "Check what changes" }).click();
+    await page.getByRole("group", { name: /^Import the \d{4} public holidays$/ }).waitFor();
+    await expectAccessible(page, "admin: Entity, the holiday import's confirmation open");
+    await page.getByRole("button", { name: "Cancel" }).click();
 
     await open(page, "/admin/assignments", ["heading", { level: 1 }]);
     await expectAccessible(page, "admin: Regulator access");

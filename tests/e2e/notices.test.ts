@@ -75,7 +75,7 @@ describe("Overshooting notices in a real browser", () => {
     const errors = watchConsole(page);
     await signInAs(page, suite.app.baseUrl, cro.email);
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Notices" }).click();
-    await page.getByLabel("Entity").selectOption(fx.entity.code);
+    await page.getByLabel("Entity", { exact: true }).selectOption(fx.entity.code);
     await page.getByRole("link", { name: day }).click();
     await page.getByRole("heading", { name: `Overshooting of ${fx.portfolio.code} on ${day}` }).waitFor();
     await page.getByRole("button", { name: "Send to the supervisor…" }).click();

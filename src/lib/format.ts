@@ -24,9 +24,11 @@ export function formatBusinessDate(iso: string): string {
   return `${iso} (${weekday.format(d)})`;
 }
 
-/** A decimal figure with a fixed number of places and thousands separators. */
+/** A decimal figure with a fixed number of places, thousands separators and a true minus sign: −1,250.50. */
 export function formatDecimal(value: number, places = 2): string {
-  return value.toLocaleString("en-GB", { minimumFractionDigits: places, maximumFractionDigits: places });
+  return value
+    .toLocaleString("en-GB", { minimumFractionDigits: places, maximumFractionDigits: places })
+    .replace("-", "−");
 }
 
 /** A count with thousands separators: 12,480. */

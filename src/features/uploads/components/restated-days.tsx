@@ -10,7 +10,7 @@ export function quarterWords(q: SignedOffQuarter): string {
   return `${q.entity} ${quarterLabel(q.quarterEnd)} (${signedOffWords[q.status]})`;
 }
 
-const cell = (v: number | null) => (v === null ? "empty" : formatDecimal(v).replace("-", "−"));
+const cell = (v: number | null) => (v === null ? "empty" : formatDecimal(v));
 
 /**
  * The days a file restates: each changed cell as stored → as in the file, and a mark on a day whose quarter is

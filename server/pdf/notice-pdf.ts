@@ -1,6 +1,5 @@
-import PDFDocument from "pdfkit";
-import { packFonts } from "./snapshot-pack";
-import { INK, MUTED, PackLayout, WARN, amount2, when } from "./pack-layout";
+import { startPackDocument } from "./snapshot-pack";
+import { INK, MUTED, WARN, amount2, when } from "./pack-layout";
 import type { Notice } from "../../shared/schemas/notice";
 
 /**
@@ -25,26 +24,12 @@ export async function renderNoticePdf(
   extras: { supervisorName: string | null },
 ): Promise<Buffer> {
   const created = new Date(n.sentAt);
-  const doc = new PDFDocument({
-    size: "A4",
-    margins: { top: 64, bottom: 64, left: 56, right: 56 },
-    bufferPages: true,
-    info: {
-      Title: `${n.entity} overshooting notice ${n.date}`,
-      Author: n.entityName,
-      Subject: `Overshooting of ${n.portfolio} on ${n.date} (CRR Art. 366(5))`,
-      CreationDate: created,
-      ModDate: created,
-    },
+  const { doc, L, done } = startPackDocument({
+    Title: `${n.entity} overshooting notice ${n.date}`,
+    Author: n.entityName,
+    Subject: `Overshooting of ${n.portfolio} on ${n.date} (CRR Art. 366(5))`,
+    created,
   });
-  const fonts = packFonts();
-  doc.registerFont("regular", fonts.regular);
-  doc.registerFont("semibold", fonts.semibold);
-  doc.registerFont("mono", fonts.mono);
-  const chunks: Buffer[] = [];
-  doc.on("data", (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  const L = new PackLayout(doc);
   const { left, width } = L;
   const money = (v: number | null) => (v === null ? "—" : `${amount2(v)} ${n.currency}`);
 

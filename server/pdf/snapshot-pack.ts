@@ -45,6 +45,28 @@ export function packFonts() {
   return fonts;
 }
 
+/**
+ * An A4 document in the pack's margins, fonts and drawing kit, dated `created` (so the same record always
+ * gives the same bytes), and the promise of its bytes once it ends. The notice uses it too.
+ */
+export function startPackDocument(info: { Title: string; Author: string; Subject: string; created: Date }) {
+  const { created, ...names } = info;
+  const doc = new PDFDocument({
+    size: "A4",
+    margins: { top: 64, bottom: 64, left: 56, right: 56 },
+    bufferPages: true,
+    info: { ...names, CreationDate: created, ModDate: created },
+  });
+  const packed = packFonts();
+  doc.registerFont("regular", packed.regular);
+  doc.registerFont("semibold", packed.semibold);
+  doc.registerFont("mono", packed.mono);
+  const chunks: Buffer[] = [];
+  doc.on("data", (c: Buffer) => chunks.push(c));
+  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
+  return { doc, L: new PackLayout(doc), done };
+}
+
 const ZONE_WORDS = { green: "Green", yellow: "Yellow", red: "Red" } as const;
 const CAUSE_WORDS: Record<ExceptionCause, string> = {
   market_move: "Market move",
@@ -183,26 +205,12 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
   const signedOff = SIGNED_OFF.has(s.status);
   const filed = s.status === "filed";
   const created = new Date(s.approvedAt ?? s.preparedAt);
-  const doc = new PDFDocument({
-    size: "A4",
-    margins: { top: 64, bottom: 64, left: 56, right: 56 },
-    bufferPages: true,
-    info: {
-      Title: `${s.entity} ${quarterLabel(s.quarterEnd)} backtesting pack${s.amendment ? ` (amendment of snapshot #${s.amendment.amends})` : ""}`,
-      Author: "Quartermark",
-      Subject: `Backtesting and capital multiplier, quarter ending ${s.quarterEnd}`,
-      CreationDate: created,
-      ModDate: created,
-    },
+  const { doc, L, done } = startPackDocument({
+    Title: `${s.entity} ${quarterLabel(s.quarterEnd)} backtesting pack${s.amendment ? ` (amendment of snapshot #${s.amendment.amends})` : ""}`,
+    Author: "Quartermark",
+    Subject: `Backtesting and capital multiplier, quarter ending ${s.quarterEnd}`,
+    created,
   });
-  const packed = packFonts();
-  doc.registerFont("regular", packed.regular);
-  doc.registerFont("semibold", packed.semibold);
-  doc.registerFont("mono", packed.mono);
-  const chunks: Buffer[] = [];
-  doc.on("data", (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on("end", () => resolve(Buffer.concat(chunks))));
-  const L = new PackLayout(doc);
   const { left, width } = L;
   const cur = f.currency;
   const basisWords = f.pnlBasis === "max" ? "the higher of actual and hypothetical P&L" : `${f.pnlBasis} P&L`;

@@ -13,7 +13,7 @@ import type { SignedIn } from "../../kit/actor";
 import { entityByCode } from "../../kit/lookups";
 import { snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
-import { holdEntityData } from "./snapshots.service";
+import { draftOf, holdEntityData } from "./snapshots.service";
 
 // Amended filings (docs/api.md#amendments): a day inside a filed quarter was restated, so the
 // analyst prepares an amendment of that quarter's snapshot. It is a snapshot of its own — same
@@ -116,30 +116,10 @@ export async function prepareAmendment(
         { snapshotId: original.id },
       );
 
-    const computed = await quarterFigures(entity, body.quarterEnd);
     // The analyst's return values carry over: from the open amendment, else from the filed snapshot.
-    const kept = (JSON.parse((open ?? original).figuresJson) as SnapshotFigures).analystInputs;
-    const figures: SnapshotFigures = kept ? { ...computed.figures, analystInputs: kept } : computed.figures;
-    const record = await amendmentRecord(original, figures, transaction);
-    const values = {
-      status: "draft" as const,
-      zone: figures.zone,
-      counted: figures.exceptions.counted,
-      plusFactor: figures.plusFactor,
-      multiplier: figures.multiplier,
-      capital: figures.capital,
-      addOn: figures.addOn,
-      windowStart: figures.window.start,
-      asOf: figures.asOf,
-      figuresJson: JSON.stringify(figures),
-      inputsSha256: computed.inputsSha256,
-      engineVersion: computed.engineVersion,
-      amendmentJson: JSON.stringify(record),
-      preparedBy: actor.user.id,
-      preparedAt: new Date(),
-      submittedBy: null,
-      submittedAt: null,
-    };
+    const draft = draftOf(await quarterFigures(entity, body.quarterEnd), open ?? original, actor);
+    const record = await amendmentRecord(original, draft.figures, transaction);
+    const values = { ...draft.values, amendmentJson: JSON.stringify(record) };
     const summary = {
       amends: original.id,
       changes: record.changes.length,

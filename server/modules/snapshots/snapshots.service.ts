@@ -7,7 +7,7 @@ import { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { SnapshotModel } from "../../models/snapshot";
 import { recordAudit } from "../audit/audit.service";
-import { quarterFigures } from "../backtest/quarter-figures";
+import { quarterFigures, type QuarterFigures } from "../backtest/quarter-figures";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import {
   type CreateSnapshotBody,
@@ -31,6 +31,38 @@ import { DeterminationModel } from "../../models/determination";
 const today = () => new Date().toISOString().slice(0, 10);
 
 /** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
+/**
+ * The columns of a freshly prepared draft: the engine's figures, with the analyst's return values
+ * carried over from `keptFrom` (the quarter prepared before, or the snapshot an amendment amends).
+ */
+export function draftOf(
+  computed: QuarterFigures,
+  keptFrom: Pick<SnapshotModel, "figuresJson"> | null | undefined,
+  actor: SignedIn,
+) {
+  const kept = keptFrom ? (JSON.parse(keptFrom.figuresJson) as SnapshotFigures).analystInputs : undefined;
+  const figures: SnapshotFigures = kept ? { ...computed.figures, analystInputs: kept } : computed.figures;
+  const values = {
+    status: "draft" as const,
+    zone: figures.zone,
+    counted: figures.exceptions.counted,
+    plusFactor: figures.plusFactor,
+    multiplier: figures.multiplier,
+    capital: figures.capital,
+    addOn: figures.addOn,
+    windowStart: figures.window.start,
+    asOf: figures.asOf,
+    figuresJson: JSON.stringify(figures),
+    inputsSha256: computed.inputsSha256,
+    engineVersion: computed.engineVersion,
+    preparedBy: actor.user.id,
+    preparedAt: new Date(),
+    submittedBy: null,
+    submittedAt: null,
+  };
+  return { figures, values };
+}
+
 export async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
   const ids = (await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction })).map((p) => p.id);
   await lockPortfolios(ids, "share", transaction);
@@ -113,28 +145,8 @@ export async function prepareSnapshot(
         { snapshotId: existing.id },
       );
     }
-    const computed = await quarterFigures(entity, body.quarterEnd);
     // The analyst's return values stay with the quarter when it is prepared again.
-    const kept = existing ? (JSON.parse(existing.figuresJson) as SnapshotFigures).analystInputs : undefined;
-    const figures: SnapshotFigures = kept ? { ...computed.figures, analystInputs: kept } : computed.figures;
-    const values = {
-      status: "draft" as const,
-      zone: figures.zone,
-      counted: figures.exceptions.counted,
-      plusFactor: figures.plusFactor,
-      multiplier: figures.multiplier,
-      capital: figures.capital,
-      addOn: figures.addOn,
-      windowStart: figures.window.start,
-      asOf: figures.asOf,
-      figuresJson: JSON.stringify(figures),
-      inputsSha256: computed.inputsSha256,
-      engineVersion: computed.engineVersion,
-      preparedBy: actor.user.id,
-      preparedAt: new Date(),
-      submittedBy: null,
-      submittedAt: null,
-    };
+    const { values } = draftOf(await quarterFigures(entity, body.quarterEnd), existing, actor);
     let row: SnapshotModel;
     if (existing) {
       const before = { status: existing.status, inputsSha256: existing.inputsSha256, multiplier: existing.multiplier };

@@ -1,8 +1,4 @@
-import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
@@ -24,47 +20,11 @@ import {
   uploadAndCommit,
   type Book,
 } from "./snapshot-helpers";
+import { download, flat, keepPages, pagesText } from "./pdf-helpers";
 
 afterAll(() => sequelize.close());
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
-const PAGES_DIR = path.resolve(import.meta.dirname, "..", "..", "test-results", "pack-pages");
-
-function pdfFile(bytes: Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-amend-")), "pack.pdf");
-  writeFileSync(file, bytes);
-  return file;
-}
-/** The text of each page, read back with poppler's pdftotext. */
-function pagesText(bytes: Buffer): string[] {
-  const file = pdfFile(bytes);
-  const pages = Number(/Pages:\s+(\d+)/.exec(execFileSync("pdfinfo", [file]).toString())![1]);
-  return Array.from({ length: pages }, (_, i) =>
-    execFileSync("pdftotext", ["-layout", "-f", String(i + 1), "-l", String(i + 1), file, "-"]).toString("utf8"),
-  );
-}
-/** Every page as a PNG under test-results/pack-pages/<name>-N.png, to be looked at. */
-function keepPages(bytes: Buffer, name: string) {
-  mkdirSync(PAGES_DIR, { recursive: true });
-  for (const f of readdirSync(PAGES_DIR)) if (f.startsWith(`${name}-`)) rmSync(path.join(PAGES_DIR, f));
-  execFileSync("pdftoppm", ["-png", "-r", "80", pdfFile(bytes), path.join(PAGES_DIR, name)]);
-}
-const flat = (s: string) => s.replace(/\s+/g, " ");
-
-async function download(url: string, cookie: string): Promise<Buffer> {
-  const res = await request(app)
-    .get(url)
-    .set("Cookie", cookie)
-    .buffer(true)
-    .parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => done(null, Buffer.concat(chunks)));
-    });
-  expect(res.status).toBe(200);
-  return res.body as Buffer;
-}
-
 const amend = (book: Book, amends: number, quarterEnd = Q3, cookie = book.cookie) =>
   request(app).post("/api/snapshots").set("Cookie", cookie).send({ entity: book.entity.code, quarterEnd, amends });
 
@@ -107,7 +67,7 @@ const getSnapshot = async (id: number, cookie: string): Promise<Snapshot> =>
 describe("amended filings", () => {
   it("when a day of a filed quarter is restated, then an amendment is prepared, signed off by four eyes and filed, and the original stays as filed", async () => {
     const { book, originalId, filing, regulatorCookie } = await filedBook();
-    const originalPack = await download(`/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
+    const originalPack = await download(app, `/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
     expect(sha256(originalPack)).toBe(filing.sha256);
 
     // Nothing restated yet: nothing to amend.
@@ -160,7 +120,7 @@ describe("amended filings", () => {
     expect(a.original.filedBy).toBe("Bram Oduya");
 
     // The draft's pack: DRAFT and AMENDMENT on every page, never to be filed as it is.
-    const draftPack = await download(`/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
+    const draftPack = await download(app, `/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
     keepPages(draftPack, "amendment_draft");
     for (const p of pagesText(draftPack)) expect(p).toContain(`DRAFT · AMENDMENT of snapshot #${originalId}`);
 
@@ -212,7 +172,7 @@ describe("amended filings", () => {
     });
 
     // The original: same pack bytes, same hash, same row; its flag is now resolved.
-    const originalAgain = await download(`/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
+    const originalAgain = await download(app, `/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
     expect(Buffer.compare(originalAgain, originalPack)).toBe(0);
     expect(sha256(originalAgain)).toBe(filing.sha256);
     expect((await FilingModel.scope("withPack").findByPk(filing.id))!.packSha256).toBe(filing.sha256);
@@ -232,7 +192,7 @@ describe("amended filings", () => {
     ).toBe(true);
 
     // The amendment's pack, as the supervisor downloads it.
-    const pack = await download(`/api/filings/${amendmentFiling.id}/pack.pdf`, regulatorCookie);
+    const pack = await download(app, `/api/filings/${amendmentFiling.id}/pack.pdf`, regulatorCookie);
     keepPages(pack, "amendment");
     const pages = pagesText(pack);
     for (const p of pages) expect(p).toContain(`AMENDMENT of snapshot #${originalId}`);

@@ -1,6 +1,5 @@
-import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readdirSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import net from "node:net";
 import path from "node:path";
@@ -17,6 +16,7 @@ import { deliverPendingFilings } from "../../server/modules/filings/filings.serv
 import { startMailSink } from "../../scripts/lib/mail-sink";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { preparedAndSubmitted, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { asBytes, pdfText } from "./pdf-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -30,13 +30,6 @@ function freePort(): Promise<number> {
 }
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
-
-/** The text of a PDF, read back with poppler's pdftotext. */
-function pdfText(bytes: Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
-  writeFileSync(file, bytes);
-  return execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8");
-}
 
 /** Every message the run's mail sink (scripts/test.ts) received for this address, raw. */
 function mailsTo(address: string): string[] {
@@ -73,15 +66,7 @@ async function regulatorFor(book: Book) {
 describe("the quarterly pack", () => {
   it("when the office downloads a snapshot's pack, then it is a real PDF with the frozen figures, the seal and the caution", async () => {
     const { book, snapshotId } = await approvedBook(`supervisor-${Date.now()}@bank-supervisor.test`);
-    const res = await request(app)
-      .get(`/api/snapshots/${snapshotId}/pack.pdf`)
-      .set("Cookie", book.cookie)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on("data", (c: Buffer) => chunks.push(c));
-        r.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+    const res = await asBytes(request(app).get(`/api/snapshots/${snapshotId}/pack.pdf`).set("Cookie", book.cookie));
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toBe("application/pdf");
     expect(res.headers["content-disposition"]).toMatch(/attachment; filename="quartermark-.*-2026-09-30-pack\.pdf"/);
@@ -103,15 +88,7 @@ describe("the quarterly pack", () => {
       .post("/api/snapshots")
       .set("Cookie", book.cookie)
       .send({ entity: book.entity.code, quarterEnd: "2026-09-30" });
-    const res = await request(app)
-      .get(`/api/snapshots/${draft.body.id}/pack.pdf`)
-      .set("Cookie", book.cookie)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on("data", (c: Buffer) => chunks.push(c));
-        r.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+    const res = await asBytes(request(app).get(`/api/snapshots/${draft.body.id}/pack.pdf`).set("Cookie", book.cookie));
     expect(pdfText(res.body as Buffer)).toMatch(
       /Not signed off \(draft\): these figures are a working copy and must not be filed/,
     );
@@ -252,15 +229,7 @@ describe("the supervisor's side", () => {
     ).not.toContain(filing.id);
     expect((await request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", stranger)).status).toBe(404);
 
-    const pack = await request(app)
-      .get(`/api/filings/${filing.id}/pack.pdf`)
-      .set("Cookie", assigned.cookie)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on("data", (c: Buffer) => chunks.push(c));
-        r.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+    const pack = await asBytes(request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", assigned.cookie));
     expect(sha256(pack.body as Buffer)).toBe(filing.sha256);
     expect(pack.headers["x-pack-sha256"]).toBe(filing.sha256);
 

@@ -16,6 +16,7 @@ import { filingSchema } from "../../shared/schemas/filing";
 import { outboxListSchema, outboxMessageDetailSchema, type OutboxMessage } from "../../shared/schemas/outbox";
 import { createTestUser, sessionCookieFor, unique } from "./helpers";
 import { preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { asBytes } from "./pdf-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -29,14 +30,6 @@ let adminCookie: string;
 beforeAll(async () => {
   adminCookie = await sessionCookieFor((await createTestUser("admin")).id);
 });
-
-function asBytes(call: request.Test) {
-  return call.buffer(true).parse((r, done) => {
-    const chunks: Buffer[] = [];
-    r.on("data", (c: Buffer) => chunks.push(c));
-    r.on("end", () => done(null, Buffer.concat(chunks)));
-  });
-}
 
 async function outboxList() {
   const res = await request(app).get("/api/admin/outbox").set("Cookie", adminCookie);

@@ -10,15 +10,17 @@ import { filingListSchema, filingSchema } from "../../shared/schemas/filing";
 import { snapshotSchema, type Snapshot } from "../../shared/schemas/snapshot";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import {
+  approve,
+  type Book,
   HEADER,
-  preparedAndSubmitted,
   prepare,
+  preparedAndSubmitted,
   Q2,
   Q3,
   signOffBook,
   snapshotApp as app,
+  submit,
   uploadAndCommit,
-  type Book,
 } from "./snapshot-helpers";
 import { download, flat, keepPages, pagesText } from "./pdf-helpers";
 
@@ -35,10 +37,7 @@ async function filedBook() {
   await book.cro.update({ name: "Bram Oduya" });
   await book.entity.update({ supervisorEmails: [`supervisor-${Date.now()}@bank-supervisor.test`] });
   const submitted = await preparedAndSubmitted(book);
-  const approved = await request(app)
-    .post(`/api/snapshots/${submitted.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({ version: submitted.version });
+  const approved = await approve(submitted.id, book.croCookie, { version: submitted.version });
   expect(approved.status, JSON.stringify(approved.body)).toBe(200);
   const filed = await request(app).post(`/api/snapshots/${submitted.id}/filings`).set("Cookie", book.croCookie);
   expect(filed.status, JSON.stringify(filed.body)).toBe(201);
@@ -133,18 +132,12 @@ describe("amended filings", () => {
     expect((await getSnapshot(originalId, book.cookie)).amendedBy).toBe(draft.id);
 
     // Four eyes, as for any snapshot.
-    const submitted = await request(app)
-      .post(`/api/snapshots/${draft.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: again.body.version });
+    const submitted = await submit(draft.id, book.cookie, { version: again.body.version });
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
     const second = await amend(book, originalId, Q3, book.analyst2Cookie);
     expect(second.status).toBe(409);
     expect(second.body.error.code).toBe("amendment_open");
-    const approved = await request(app)
-      .post(`/api/snapshots/${draft.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version });
+    const approved = await approve(draft.id, book.croCookie, { version: submitted.body.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
     expect(approved.body.hash).toMatch(/^[0-9a-f]{64}$/);
     expect(approved.body.hash).not.toBe(flagged.hash);
@@ -236,15 +229,8 @@ describe("amended filings", () => {
     const { book, originalId } = await filedBook();
     await restateLastException(book);
     const draft = await amend(book, originalId);
-    const submitted = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: draft.body.version });
-    await request(app)
-      .post(`/api/snapshots/${draft.body.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version })
-      .expect(200);
+    const submitted = await submit(draft.body.id, book.cookie, { version: draft.body.version });
+    await approve(draft.body.id, book.croCookie, { version: submitted.body.version }).expect(200);
     await request(app).post(`/api/snapshots/${draft.body.id}/filings`).set("Cookie", book.croCookie).expect(201);
     const originalRow = (await SnapshotModel.findByPk(originalId))!.toJSON();
 

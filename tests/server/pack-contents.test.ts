@@ -4,7 +4,7 @@ import { sequelize } from "../../server/db/sequelize";
 import { FilingModel } from "../../server/models/filing";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { CAUTION } from "../../shared/schemas/common";
-import { prepare, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { approve, type Book, prepare, signOffBook, snapshotApp as app, submit } from "./snapshot-helpers";
 import { download, flat, keepPages, pagesText } from "./pdf-helpers";
 
 /** A page's text without its page number (in -layout it sits beside the footer's lines). */
@@ -97,15 +97,9 @@ describe("the quarterly pack, read back page by page", () => {
 
   it("when approved, then DRAFT is gone, the caution stays, the signatories are named with titles, and the hash is printed whole in groups", async () => {
     const row = (await SnapshotModel.findByPk(snapshotId))!;
-    const submitted = await request(app)
-      .post(`/api/snapshots/${snapshotId}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: row.version });
+    const submitted = await submit(snapshotId, book.cookie, { version: row.version });
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
-    const approved = await request(app)
-      .post(`/api/snapshots/${snapshotId}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version });
+    const approved = await approve(snapshotId, book.croCookie, { version: submitted.body.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
     const pdf = await download(app, `/api/snapshots/${snapshotId}/pack.pdf`, book.cookie);
     const pages = pagesText(pdf);

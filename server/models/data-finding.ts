@@ -2,7 +2,7 @@ import { type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
 import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { PortfolioModel } from "./portfolio";
-import type { FindingKind } from "../../shared/schemas/finding";
+import { findingKindSchema, type FindingKind } from "../../shared/schemas/finding";
 
 export class DataFindingModel extends TableModel<DataFindingModel> {
   declare id: CreationOptional<number>;
@@ -24,14 +24,7 @@ DataFindingModel.init(
   {
     ...idColumn(),
     portfolioId: notNull.integer(),
-    kind: notNull.oneOf(
-      "missing_day",
-      "stale_var",
-      "pnl_without_var",
-      "var_without_pnl",
-      "hpl_without_rtpl",
-      "outlier",
-    ),
+    kind: notNull.oneOf(...findingKindSchema.options),
     dateFrom: notNull.dateOnly(),
     dateTo: notNull.dateOnly(),
     detail: notNull.varchar(500),

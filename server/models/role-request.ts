@@ -2,7 +2,7 @@ import { DataTypes, type CreationOptional, type NonAttribute } from "sequelize";
 import { sequelize } from "../db/sequelize";
 import { TableModel, idColumn, notNull, nullable } from "./kit";
 import { UserModel } from "./user";
-import type { Role } from "../../shared/schemas/common";
+import { roleSchema, type Role } from "../../shared/schemas/common";
 
 export type RoleRequestKind = "invite" | "change";
 export type RoleRequestStatus = "pending" | "approved" | "rejected";
@@ -29,8 +29,6 @@ export class RoleRequestModel extends TableModel<RoleRequestModel> {
   declare decider?: NonAttribute<UserModel | null>;
 }
 
-const ROLES = ["analyst", "cro", "treasury", "regulator", "admin"];
-
 RoleRequestModel.init(
   {
     ...idColumn(),
@@ -38,8 +36,8 @@ RoleRequestModel.init(
     userId: nullable.integer(),
     email: notNull.varchar(190),
     name: notNull.varchar(120),
-    fromRole: nullable.oneOf(...ROLES),
-    toRole: notNull.oneOf(...ROLES),
+    fromRole: nullable.oneOf(...roleSchema.options),
+    toRole: notNull.oneOf(...roleSchema.options),
     status: { ...notNull.oneOf("pending", "approved", "rejected"), defaultValue: "pending" },
     proposedBy: notNull.integer(),
     proposedAt: DataTypes.DATE(3),

@@ -1,7 +1,7 @@
 import { type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
 import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
-import type { Role } from "../../shared/schemas/common";
+import { roleSchema, type Role } from "../../shared/schemas/common";
 
 export class UserModel extends TableModel<UserModel> {
   declare id: CreationOptional<number>;
@@ -25,7 +25,7 @@ UserModel.init(
     ...idColumn(),
     email: { ...notNull.varchar(190), unique: true },
     name: notNull.varchar(120),
-    role: notNull.oneOf("analyst", "cro", "treasury", "regulator", "admin"),
+    role: notNull.oneOf(...roleSchema.options),
     passwordHash: nullable.varchar(100),
     disabled: { ...notNull.boolean(), defaultValue: false },
     tokenVersion: { ...notNull.integer(), defaultValue: 1 },

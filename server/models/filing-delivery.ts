@@ -1,5 +1,6 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 
 export type DeliveryStatus = "pending" | "sending" | "accepted" | "refused" | "unknown";
 
@@ -9,10 +10,7 @@ export type DeliveryStatus = "pending" | "sending" | "accepted" | "refused" | "u
  * answer — accepted, refused, back to pending (it did not answer), or unknown (the connection
  * broke mid-message and the mail journal cannot tell).
  */
-export class FilingDeliveryModel extends Model<
-  InferAttributes<FilingDeliveryModel>,
-  InferCreationAttributes<FilingDeliveryModel>
-> {
+export class FilingDeliveryModel extends TableModel<FilingDeliveryModel> {
   declare id: CreationOptional<number>;
   declare filingId: number;
   declare recipient: string;
@@ -27,20 +25,15 @@ export class FilingDeliveryModel extends Model<
 
 FilingDeliveryModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    filingId: { type: DataTypes.INTEGER, allowNull: false },
-    recipient: { type: DataTypes.STRING(254), allowNull: false },
-    status: {
-      type: DataTypes.ENUM("pending", "sending", "accepted", "refused", "unknown"),
-      allowNull: false,
-      defaultValue: "pending",
-    },
-    attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    claimedAt: { type: DataTypes.DATE(3), allowNull: true },
-    detail: { type: DataTypes.STRING(500), allowNull: true },
-    acceptedAt: { type: DataTypes.DATE(3), allowNull: true },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    filingId: notNull.integer(),
+    recipient: notNull.varchar(254),
+    status: { ...notNull.oneOf("pending", "sending", "accepted", "refused", "unknown"), defaultValue: "pending" },
+    attempts: { ...notNull.integer(), defaultValue: 0 },
+    claimedAt: nullable.dateTime(),
+    detail: nullable.varchar(500),
+    acceptedAt: nullable.dateTime(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "filing_deliveries" },
 );

@@ -8,13 +8,8 @@ import { mkdtempSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { startMailSink } from "../../scripts/lib/mail-sink";
-import {
-  appCredentials,
-  ensureDatabase,
-  startPrivateDb,
-  stopPrivateDb,
-  type PrivateDb,
-} from "../../scripts/lib/mariadb";
+import { stopPrivateDb, type PrivateDb } from "../../scripts/lib/mariadb";
+import { migratedFreshDatabase } from "./bench-server";
 
 export interface LoadDatabase {
   name: string;
@@ -28,19 +23,13 @@ export interface LoadDatabase {
 const REGIMES = ["eu", "us", "basel"] as const;
 
 export async function prepareLoadDatabase(name: string, generated = 20): Promise<LoadDatabase> {
-  process.env.DB_NAME = name;
   const mailDir = mkdtempSync(path.join(os.tmpdir(), "qm-load-mail-"));
   const sink = await startMailSink(0, mailDir);
   process.env.SMTP_PORT = String(sink.port);
   process.env.MAIL_SINK_DIR = mailDir;
-  const creds = appCredentials();
-  const { config } = await import("../../server/config");
-  const db = await startPrivateDb(config.db.port);
-  await ensureDatabase(db, name, creds, { fresh: true });
-  const { migrateUp } = await import("../../server/db/migrator");
+  const { db, config } = await migratedFreshDatabase(name);
   const { seedDemo } = await import("../../server/db/seeder");
   const { sequelize } = await import("../../server/db/sequelize");
-  await migrateUp();
   await seedDemo();
 
   const { EntityModel } = await import("../../server/models/entity");

@@ -22,6 +22,8 @@ export interface LoadDatabase {
   /** Portfolio codes of every entity's top-of-house book, and the entity codes. */
   portfolios: string[];
   entities: string[];
+  /** The demo's snapshots (every quarter it signed off or left in draft). */
+  snapshotIds: number[];
   /** Entities alike but for the years of history they hold (not in the lists above). */
   histories: { years: number; entity: string; portfolio: string }[];
   stop: () => Promise<void>;
@@ -101,6 +103,9 @@ export async function prepareLoadDatabase(
   }
   const tops = (await PortfolioModel.findAll({ where: { level: "top" }, order: [["code", "ASC"]] })).map((p) => p.code);
   const entities = (await EntityModel.findAll({ order: [["code", "ASC"]] })).map((e) => e.code);
+  const snapshotIds = ((await sequelize.query("SELECT id FROM snapshots ORDER BY id"))[0] as { id: number }[]).map(
+    (r) => Number(r.id),
+  );
 
   // The same book over more or fewer years: the same seed, so the recent days are alike and only
   // the length of the history differs (what the read cost must not follow).
@@ -120,6 +125,7 @@ export async function prepareLoadDatabase(
     portfolios: tops,
     entities,
     histories,
+    snapshotIds,
     stop: async () => {
       if (db.startedHere) await stopPrivateDb(config.db.port);
     },

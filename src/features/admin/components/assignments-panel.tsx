@@ -5,6 +5,7 @@ import type { User } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { ActionsTh } from "@/components/ui/row-actions";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formLevelMessage } from "@/lib/form";
 import { useAddAssignment, useRemoveAssignment } from "../api/assignment-queries";
@@ -124,9 +125,7 @@ export function AssignmentsPanel(props: Props) {
                 <Th>Regulator</Th>
                 <Th>E-mail</Th>
                 <Th>Entity</Th>
-                <Th>
-                  <span className="sr-only">Actions</span>
-                </Th>
+                <ActionsTh />
               </tr>
             </thead>
             <tbody>

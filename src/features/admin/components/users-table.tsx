@@ -16,6 +16,7 @@ import {
   useUpdateUser,
 } from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
+import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
 
 type Pending =
   | { userId: number; kind: "role"; role: Role }
@@ -142,9 +143,7 @@ export function UsersTable({
             <Th>Role</Th>
             <Th>Status</Th>
             <Th numeric>Last sign-in</Th>
-            <Th>
-              <span className="sr-only">Actions</span>
-            </Th>
+            <ActionsTh />
           </tr>
         </thead>
         <tbody>
@@ -265,56 +264,54 @@ export function UsersTable({
                   </Td>
                 </Tr>
                 {pending?.userId === u.id && (
-                  <tr>
-                    <td colSpan={6} className="border-b border-rule bg-paper-sunk/50 px-2 py-2">
-                      {pending.kind === "role" ? (
-                        <Confirmation
-                          label={`Change the role of ${u.name}`}
-                          text={roleConsequence(u, pending.role)}
-                          confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
-                          busy={busy}
-                          onConfirm={() => confirmRole(u, pending.role)}
-                          onCancel={() => setPending(null)}
-                        />
-                      ) : pending.kind === "unlock" ? (
-                        <Confirmation
-                          label={`Unlock ${u.name}`}
-                          text={`Unlock ${u.name}? Their failed sign-ins are forgotten and they can try again at once. Do it only once you know the attempts were theirs; the limit per address stays in force.`}
-                          confirm="Unlock the account"
-                          busy={busy}
-                          onConfirm={() => confirmUnlock(u)}
-                          onCancel={() => setPending(null)}
-                        />
-                      ) : pending.kind === "disable" ? (
-                        <Confirmation
-                          label={`Disable ${u.name}`}
-                          text={`Disable ${u.name}? They can no longer sign in, their open sessions end at once${
-                            u.role === "treasury" ? " and their API tokens are revoked for good" : ""
-                          }. An administrator can enable them again later.`}
-                          confirm="Disable the account"
-                          danger
-                          busy={busy}
-                          onConfirm={() =>
-                            change(u, { disabled: true }, `${u.name} can no longer sign in; open sessions have ended.`)
-                          }
-                          onCancel={() => setPending(null)}
-                        />
-                      ) : (
-                        <Confirmation
-                          label={`Send a link to ${u.name}`}
-                          text={
-                            u.passwordSet
-                              ? `Send ${u.name} a link to set a new password? It goes to ${u.email}; their current password keeps working until they use it, and any earlier link stops working.`
-                              : `Send ${u.name} a new invitation? It goes to ${u.email}; the earlier link stops working.`
-                          }
-                          confirm="Send link"
-                          busy={busy}
-                          onConfirm={() => confirmLink(u)}
-                          onCancel={() => setPending(null)}
-                        />
-                      )}
-                    </td>
-                  </tr>
+                  <OpenedRow colSpan={6}>
+                    {pending.kind === "role" ? (
+                      <Confirmation
+                        label={`Change the role of ${u.name}`}
+                        text={roleConsequence(u, pending.role)}
+                        confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
+                        busy={busy}
+                        onConfirm={() => confirmRole(u, pending.role)}
+                        onCancel={() => setPending(null)}
+                      />
+                    ) : pending.kind === "unlock" ? (
+                      <Confirmation
+                        label={`Unlock ${u.name}`}
+                        text={`Unlock ${u.name}? Their failed sign-ins are forgotten and they can try again at once. Do it only once you know the attempts were theirs; the limit per address stays in force.`}
+                        confirm="Unlock the account"
+                        busy={busy}
+                        onConfirm={() => confirmUnlock(u)}
+                        onCancel={() => setPending(null)}
+                      />
+                    ) : pending.kind === "disable" ? (
+                      <Confirmation
+                        label={`Disable ${u.name}`}
+                        text={`Disable ${u.name}? They can no longer sign in, their open sessions end at once${
+                          u.role === "treasury" ? " and their API tokens are revoked for good" : ""
+                        }. An administrator can enable them again later.`}
+                        confirm="Disable the account"
+                        danger
+                        busy={busy}
+                        onConfirm={() =>
+                          change(u, { disabled: true }, `${u.name} can no longer sign in; open sessions have ended.`)
+                        }
+                        onCancel={() => setPending(null)}
+                      />
+                    ) : (
+                      <Confirmation
+                        label={`Send a link to ${u.name}`}
+                        text={
+                          u.passwordSet
+                            ? `Send ${u.name} a link to set a new password? It goes to ${u.email}; their current password keeps working until they use it, and any earlier link stops working.`
+                            : `Send ${u.name} a new invitation? It goes to ${u.email}; the earlier link stops working.`
+                        }
+                        confirm="Send link"
+                        busy={busy}
+                        onConfirm={() => confirmLink(u)}
+                        onCancel={() => setPending(null)}
+                      />
+                    )}
+                  </OpenedRow>
                 )}
               </Fragment>
             );

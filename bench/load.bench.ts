@@ -9,6 +9,10 @@
  * p99 (from every response's own time), requests per second, errors, and the ratios to the floor.
  * Asserts nothing. The last line is one JSON object with everything.
  *
+ * With one process it also reads the same book held over 1 and over 6 years (YRS-1, YRS-6), one
+ * request at a time, the two alternating, and prints each endpoint's median time on both and their
+ * ratio: what a read costs must not follow the years of history.
+ *
  * LOAD_REQUESTS, LOAD_SECONDS and LOAD_WORKERS ("1,default") change the bounds and the runs.
  */
 import autocannon from "autocannon";
@@ -114,8 +118,75 @@ async function measure(server: BenchServer, endpoint: Endpoint, workers: string)
   };
 }
 
-function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
+/** The per-book reads, for one entity and its top-of-house book. */
+function historyPaths(entity: string, portfolio: string): { name: string; method?: "POST"; path: string }[] {
   const since = new Date(Date.now() - 90 * 86_400_000).toISOString().slice(0, 10);
+  const yearAgo = new Date(Date.now() - 365 * 86_400_000).toISOString().slice(0, 10);
+  const today = new Date().toISOString().slice(0, 10);
+  return [
+    { name: "backtest", path: `/api/portfolios/${portfolio}/backtest` },
+    { name: "rolling, last year", path: `/api/portfolios/${portfolio}/rolling?from=${yearAgo}` },
+    { name: "rolling, whole history", path: `/api/portfolios/${portfolio}/rolling` },
+    { name: "observations, 90 days", path: `/api/portfolios/${portfolio}/observations?from=${since}` },
+    { name: "capital on a date", path: `/api/entities/${entity}/capital?date=${today}` },
+    { name: "determinations", path: `/api/entities/${entity}/determinations` },
+    { name: "capital forecast", path: `/api/entities/${entity}/capital/forecast` },
+    { name: "capital what-if", method: "POST", path: `/api/entities/${entity}/capital/what-if` },
+  ];
+}
+
+const ROUNDS = Number(process.env.LOAD_HISTORY_ROUNDS ?? 60);
+
+/** Each read on the short and the long history, one request at a time, alternating; medians and their ratio. */
+async function historyCheck(server: BenchServer, histories: { years: number; entity: string; portfolio: string }[]) {
+  const [short, long] = [...histories].sort((a, b) => a.years - b.years);
+  if (!short || !long || short === long) return [];
+  const out = [];
+  const shortPaths = historyPaths(short.entity, short.portfolio);
+  const longPaths = historyPaths(long.entity, long.portfolio);
+  for (let e = 0; e < shortPaths.length; e++) {
+    const times: [number[], number[]] = [[], []];
+    const bytes: [number, number] = [0, 0];
+    for (let round = 0; round < ROUNDS; round++) {
+      for (const side of round % 2 ? [1, 0] : [0, 1]) {
+        const target = (side ? longPaths : shortPaths)[e];
+        const t0 = performance.now();
+        const r = await fetch(`${server.base}${target.path}`, {
+          method: target.method ?? "GET",
+          headers: { cookie: server.cookie, origin: server.base, "content-type": "application/json" },
+          body: target.method === "POST" ? JSON.stringify({ extraExceptions: 1 }) : undefined,
+        });
+        const body = await r.arrayBuffer();
+        if (!r.ok) throw new Error(`${target.path} answered ${r.status}`);
+        times[side].push(performance.now() - t0);
+        bytes[side] = body.byteLength;
+      }
+    }
+    const median = (xs: number[]) =>
+      percentile(
+        [...xs].sort((a, b) => a - b),
+        50,
+      );
+    const line = {
+      bench: "load-history",
+      endpoint: shortPaths[e].name,
+      shortYears: short.years,
+      longYears: long.years,
+      shortP50Ms: median(times[0]),
+      longP50Ms: median(times[1]),
+      longVsShort: Math.round((median(times[1]) / median(times[0])) * 100) / 100,
+      shortBytes: bytes[0],
+      longBytes: bytes[1],
+    };
+    console.log(JSON.stringify(line));
+    out.push(line);
+  }
+  return out;
+}
+
+function endpointsFor(portfolios: string[], entities: string[], snapshotIds: number[]): Endpoint[] {
+  const since = new Date(Date.now() - 90 * 86_400_000).toISOString().slice(0, 10);
+  const today = new Date().toISOString().slice(0, 10);
   return [
     { name: "GET /api/health (floor)", paths: ["/api/health"] },
     { name: "GET /api/auth/me", paths: ["/api/auth/me"] },
@@ -141,7 +212,17 @@ function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
       paths: entities.map((e) => `/api/entities/${e}/capital/what-if`),
       body: JSON.stringify({ extraExceptions: 1 }),
     },
+    {
+      name: "GET /api/entities/:code/capital?date",
+      paths: entities.map((e) => `/api/entities/${e}/capital?date=${today}`),
+    },
+    { name: "GET /api/entities/:code/determinations", paths: entities.map((e) => `/api/entities/${e}/determinations`) },
+    { name: "GET /api/entities/:code/settings", paths: entities.map((e) => `/api/entities/${e}/settings`) },
     { name: "GET /api/snapshots", paths: ["/api/snapshots"] },
+    { name: "GET /api/snapshots/:id", paths: snapshotIds.map((id) => `/api/snapshots/${id}`) },
+    { name: "GET /api/notices?entity", paths: entities.map((e) => `/api/notices?entity=${e}`) },
+    { name: "GET /api/queue", paths: ["/api/queue"] },
+    { name: "GET /api/people", paths: ["/api/people"] },
     { name: "GET /api/filings", paths: ["/api/filings"] },
     { name: "GET /api/findings", paths: ["/api/findings"] },
     { name: "GET /api/uploads", paths: ["/api/uploads"] },
@@ -150,9 +231,10 @@ function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
 
 async function main() {
   const data = await prepareLoadDatabase("quartermark_load", 20);
-  const endpoints = endpointsFor(data.portfolios, data.entities);
+  const endpoints = endpointsFor(data.portfolios, data.entities, data.snapshotIds);
   const runs = (process.env.LOAD_WORKERS ?? "1,default").split(",").map((s) => s.trim());
   const all: Figures[] = [];
+  let history: Awaited<ReturnType<typeof historyCheck>> = [];
   let built = false;
   for (const run of runs) {
     const server = await startBuiltServer(data.name, {
@@ -190,6 +272,12 @@ async function main() {
           }),
         );
       }
+      if (run === "1") {
+        console.log(
+          `\nthe same book over ${data.histories.map((h) => h.years).join(" and ")} years, one request at a time`,
+        );
+        history = await historyCheck(server, data.histories);
+      }
     } finally {
       server.stop();
       await new Promise((r) => setTimeout(r, 1000));
@@ -215,6 +303,7 @@ async function main() {
       worstP95Ms: Math.max(...reads.map((f) => f.p95Ms)),
       errors: all.reduce((s, f) => s + f.errors + f.non2xx, 0),
       endpoints: all,
+      history,
     }),
   );
 }

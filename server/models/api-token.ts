@@ -1,16 +1,10 @@
-import {
-  DataTypes,
-  Model,
-  type CreationOptional,
-  type InferAttributes,
-  type InferCreationAttributes,
-  type NonAttribute,
-} from "sequelize";
+import { DataTypes, type CreationOptional, type NonAttribute } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull, nullable } from "./kit";
 import { UserModel } from "./user";
 
 /** A personal API token: its owner, the SHA-256 of its secret (never the secret) and its life. */
-export class ApiTokenModel extends Model<InferAttributes<ApiTokenModel>, InferCreationAttributes<ApiTokenModel>> {
+export class ApiTokenModel extends TableModel<ApiTokenModel> {
   declare id: CreationOptional<number>;
   declare userId: number;
   declare name: string;
@@ -25,15 +19,15 @@ export class ApiTokenModel extends Model<InferAttributes<ApiTokenModel>, InferCr
 
 ApiTokenModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    userId: { type: DataTypes.INTEGER, allowNull: false },
-    name: { type: DataTypes.STRING(80), allowNull: false },
-    tokenHash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
-    prefix: { type: DataTypes.STRING(16), allowNull: false },
+    ...idColumn(),
+    userId: notNull.integer(),
+    name: notNull.varchar(80),
+    tokenHash: { ...notNull.char(64), unique: true },
+    prefix: notNull.varchar(16),
     createdAt: DataTypes.DATE(3),
-    lastUsedAt: { type: DataTypes.DATE(3), allowNull: true },
-    expiresAt: { type: DataTypes.DATE(3), allowNull: false },
-    revokedAt: { type: DataTypes.DATE(3), allowNull: true },
+    lastUsedAt: nullable.dateTime(),
+    expiresAt: notNull.dateTime(),
+    revokedAt: nullable.dateTime(),
   },
   { sequelize, tableName: "api_tokens", updatedAt: false },
 );

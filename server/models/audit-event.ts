@@ -1,8 +1,9 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, notNull, nullable } from "./kit";
 
 /** The audit log: one row per event, only ever added; signed and chained (server/modules/audit/audit-chain.ts). */
-export class AuditEventModel extends Model<InferAttributes<AuditEventModel>, InferCreationAttributes<AuditEventModel>> {
+export class AuditEventModel extends TableModel<AuditEventModel> {
   declare id: CreationOptional<number>;
   declare at: CreationOptional<Date>;
   declare actorUserId: number | null;
@@ -23,18 +24,18 @@ export class AuditEventModel extends Model<InferAttributes<AuditEventModel>, Inf
 AuditEventModel.init(
   {
     id: { type: DataTypes.BIGINT, primaryKey: true, autoIncrement: true },
-    at: { type: DataTypes.DATE(3), allowNull: false, defaultValue: DataTypes.NOW },
-    actorUserId: { type: DataTypes.INTEGER, allowNull: true },
-    actorEmail: { type: DataTypes.STRING(190), allowNull: true },
-    action: { type: DataTypes.STRING(60), allowNull: false },
-    target: { type: DataTypes.STRING(190), allowNull: true },
-    ip: { type: DataTypes.STRING(64), allowNull: true },
-    requestId: { type: DataTypes.STRING(64), allowNull: true },
-    beforeJson: { type: DataTypes.TEXT("long"), allowNull: true },
-    afterJson: { type: DataTypes.TEXT("long"), allowNull: true },
-    mac: { type: DataTypes.CHAR(64), allowNull: true },
+    at: { ...notNull.dateTime(), defaultValue: DataTypes.NOW },
+    actorUserId: nullable.integer(),
+    actorEmail: nullable.varchar(190),
+    action: notNull.varchar(60),
+    target: nullable.varchar(190),
+    ip: nullable.varchar(64),
+    requestId: nullable.varchar(64),
+    beforeJson: nullable.text("long"),
+    afterJson: nullable.text("long"),
+    mac: nullable.char(64),
     seq: { type: DataTypes.BIGINT, allowNull: true },
-    chainMac: { type: DataTypes.CHAR(64), allowNull: true },
+    chainMac: nullable.char(64),
   },
   { sequelize, tableName: "audit_events", timestamps: false },
 );

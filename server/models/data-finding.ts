@@ -1,13 +1,10 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { PortfolioModel } from "./portfolio";
-import type { FindingKind } from "../../shared/schemas/finding";
+import { findingKindSchema, type FindingKind } from "../../shared/schemas/finding";
 
-export class DataFindingModel extends Model<
-  InferAttributes<DataFindingModel>,
-  InferCreationAttributes<DataFindingModel>
-> {
-  declare id: CreationOptional<number>;
+export class DataFindingModel extends RowModel<DataFindingModel> {
   declare portfolioId: number;
   declare kind: FindingKind;
   declare dateFrom: string;
@@ -18,35 +15,22 @@ export class DataFindingModel extends Model<
   declare closedBy: number | null;
   declare closedAt: Date | null;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 DataFindingModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    portfolioId: { type: DataTypes.INTEGER, allowNull: false },
-    kind: {
-      type: DataTypes.ENUM(
-        "missing_day",
-        "stale_var",
-        "pnl_without_var",
-        "var_without_pnl",
-        "hpl_without_rtpl",
-        "outlier",
-      ),
-      allowNull: false,
-    },
-    dateFrom: { type: DataTypes.DATEONLY, allowNull: false },
-    dateTo: { type: DataTypes.DATEONLY, allowNull: false },
-    detail: { type: DataTypes.STRING(500), allowNull: false },
-    status: { type: DataTypes.ENUM("open", "resolved", "explained"), allowNull: false, defaultValue: "open" },
-    note: { type: DataTypes.TEXT, allowNull: true },
-    closedBy: { type: DataTypes.INTEGER, allowNull: true },
-    closedAt: { type: DataTypes.DATE(3), allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    portfolioId: notNull.integer(),
+    kind: notNull.oneOf(...findingKindSchema.options),
+    dateFrom: notNull.dateOnly(),
+    dateTo: notNull.dateOnly(),
+    detail: notNull.varchar(500),
+    status: { ...notNull.oneOf("open", "resolved", "explained"), defaultValue: "open" },
+    note: nullable.text(),
+    closedBy: nullable.integer(),
+    closedAt: nullable.dateTime(),
+    ...versionColumn(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "data_findings" },
 );

@@ -1,16 +1,13 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { Zone } from "../../shared/backtest/types";
 
 export type DeterminationStatus = "provisional" | "approved" | "filed";
 
 /** One stored determination of an entity's multiplier at a period end (server/modules/determinations). */
-export class DeterminationModel extends Model<
-  InferAttributes<DeterminationModel>,
-  InferCreationAttributes<DeterminationModel>
-> {
-  declare id: CreationOptional<number>;
+export class DeterminationModel extends RowModel<DeterminationModel> {
   declare entityId: number;
   declare periodEnd: string;
   declare asOf: string;
@@ -30,8 +27,6 @@ export class DeterminationModel extends Model<
   declare settingsJson: string;
   declare status: DeterminationStatus;
   declare snapshotId: number | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 const factor = (attribute: keyof InferAttributes<DeterminationModel>) =>
@@ -39,28 +34,27 @@ const factor = (attribute: keyof InferAttributes<DeterminationModel>) =>
 
 DeterminationModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    entityId: { type: DataTypes.INTEGER, allowNull: false },
-    periodEnd: { type: DataTypes.DATEONLY, allowNull: false },
-    asOf: { type: DataTypes.DATEONLY, allowNull: false },
-    effectiveFrom: { type: DataTypes.DATEONLY, allowNull: false },
-    effectiveTo: { type: DataTypes.DATEONLY, allowNull: true },
-    counted: { type: DataTypes.INTEGER, allowNull: false },
-    actual: { type: DataTypes.INTEGER, allowNull: false },
-    hypothetical: { type: DataTypes.INTEGER, allowNull: false },
-    zone: { type: DataTypes.ENUM("green", "yellow", "red"), allowNull: false },
+    ...idColumn(),
+    entityId: notNull.integer(),
+    periodEnd: notNull.dateOnly(),
+    asOf: notNull.dateOnly(),
+    effectiveFrom: notNull.dateOnly(),
+    effectiveTo: nullable.dateOnly(),
+    counted: notNull.integer(),
+    actual: notNull.integer(),
+    hypothetical: notNull.integer(),
+    zone: notNull.oneOf("green", "yellow", "red"),
     plusFactor: factor("plusFactor"),
     multiplier: factor("multiplier"),
     multiplierSvar: factor("multiplierSvar"),
-    windowStart: { type: DataTypes.DATEONLY, allowNull: true },
-    windowObservations: { type: DataTypes.INTEGER, allowNull: false },
-    windowComplete: { type: DataTypes.BOOLEAN, allowNull: false },
-    settingsId: { type: DataTypes.INTEGER, allowNull: true },
-    settingsJson: { type: DataTypes.TEXT, allowNull: false },
-    status: { type: DataTypes.ENUM("provisional", "approved", "filed"), allowNull: false },
-    snapshotId: { type: DataTypes.INTEGER, allowNull: true },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    windowStart: nullable.dateOnly(),
+    windowObservations: notNull.integer(),
+    windowComplete: notNull.boolean(),
+    settingsId: nullable.integer(),
+    settingsJson: notNull.text(),
+    status: notNull.oneOf("provisional", "approved", "filed"),
+    snapshotId: nullable.integer(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "determinations" },
 );

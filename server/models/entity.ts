@@ -1,9 +1,9 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import type { PnlBasis, RegimeId } from "../../shared/schemas/common";
 
-export class EntityModel extends Model<InferAttributes<EntityModel>, InferCreationAttributes<EntityModel>> {
-  declare id: CreationOptional<number>;
+export class EntityModel extends RowModel<EntityModel> {
   declare code: string;
   declare name: string;
   declare regime: RegimeId;
@@ -15,19 +15,17 @@ export class EntityModel extends Model<InferAttributes<EntityModel>, InferCreati
   declare supervisorName: string | null;
   declare supervisorEmails: string[];
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 EntityModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    code: { type: DataTypes.STRING(20), allowNull: false, unique: true },
-    name: { type: DataTypes.STRING(120), allowNull: false },
-    regime: { type: DataTypes.ENUM("basel", "us", "eu", "frtb"), allowNull: false },
-    pnlBasis: { type: DataTypes.ENUM("actual", "hypothetical", "max"), allowNull: false },
-    currency: { type: DataTypes.CHAR(3), allowNull: false },
-    country: { type: DataTypes.CHAR(2), allowNull: true },
+    ...idColumn(),
+    code: { ...notNull.varchar(20), unique: true },
+    name: notNull.varchar(120),
+    regime: notNull.oneOf("basel", "us", "eu", "frtb"),
+    pnlBasis: notNull.oneOf("actual", "hypothetical", "max"),
+    currency: notNull.char(3),
+    country: nullable.char(2),
     // DECIMAL comes back as a string: convert here, once.
     qualitativeAddend: {
       type: DataTypes.DECIMAL(6, 4),
@@ -37,10 +35,9 @@ EntityModel.init(
         return Number(this.getDataValue("qualitativeAddend"));
       },
     },
-    supervisorName: { type: DataTypes.STRING(120), allowNull: true },
+    supervisorName: nullable.varchar(120),
     supervisorEmails: {
-      type: DataTypes.TEXT,
-      allowNull: false,
+      ...notNull.text(),
       get() {
         const raw = this.getDataValue("supervisorEmails") as unknown as string | null;
         return raw ? (JSON.parse(raw) as string[]) : [];
@@ -49,9 +46,8 @@ EntityModel.init(
         this.setDataValue("supervisorEmails", JSON.stringify(value ?? []) as unknown as string[]);
       },
     },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...versionColumn(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "entities" },
 );

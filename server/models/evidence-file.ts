@@ -1,10 +1,8 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull } from "./kit";
 
-export class EvidenceFileModel extends Model<
-  InferAttributes<EvidenceFileModel>,
-  InferCreationAttributes<EvidenceFileModel>
-> {
+export class EvidenceFileModel extends TableModel<EvidenceFileModel> {
   declare id: CreationOptional<number>;
   declare reviewId: number;
   declare fileName: string;
@@ -18,14 +16,14 @@ export class EvidenceFileModel extends Model<
 
 EvidenceFileModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    reviewId: { type: DataTypes.INTEGER, allowNull: false },
-    fileName: { type: DataTypes.STRING(255), allowNull: false },
-    contentType: { type: DataTypes.STRING(100), allowNull: false },
-    sizeBytes: { type: DataTypes.INTEGER, allowNull: false },
-    sha256: { type: DataTypes.CHAR(64), allowNull: false },
-    content: { type: DataTypes.BLOB("long"), allowNull: false },
-    uploadedBy: { type: DataTypes.INTEGER, allowNull: false },
+    ...idColumn(),
+    reviewId: notNull.integer(),
+    fileName: notNull.varchar(255),
+    contentType: notNull.varchar(100),
+    sizeBytes: notNull.integer(),
+    sha256: notNull.char(64),
+    content: notNull.blob("long"),
+    uploadedBy: notNull.integer(),
     createdAt: DataTypes.DATE(3),
   },
   {

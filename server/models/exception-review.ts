@@ -1,12 +1,9 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import type { ExceptionCause, ExclusionStatus } from "../../shared/schemas/review";
 
-export class ExceptionReviewModel extends Model<
-  InferAttributes<ExceptionReviewModel>,
-  InferCreationAttributes<ExceptionReviewModel>
-> {
-  declare id: CreationOptional<number>;
+export class ExceptionReviewModel extends RowModel<ExceptionReviewModel> {
   declare portfolioId: number;
   declare businessDate: string;
   declare cause: ExceptionCause;
@@ -17,32 +14,22 @@ export class ExceptionReviewModel extends Model<
   declare decidedBy: number | null;
   declare reviewedBy: number;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 ExceptionReviewModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    portfolioId: { type: DataTypes.INTEGER, allowNull: false },
-    businessDate: { type: DataTypes.DATEONLY, allowNull: false },
-    cause: {
-      type: DataTypes.ENUM("market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"),
-      allowNull: false,
-    },
-    narrative: { type: DataTypes.TEXT, allowNull: false },
-    exclusionStatus: {
-      type: DataTypes.ENUM("none", "requested", "approved", "rejected"),
-      allowNull: false,
-      defaultValue: "none",
-    },
-    decisionReference: { type: DataTypes.STRING(120), allowNull: true },
-    decisionDate: { type: DataTypes.DATEONLY, allowNull: true },
-    decidedBy: { type: DataTypes.INTEGER, allowNull: true },
-    reviewedBy: { type: DataTypes.INTEGER, allowNull: false },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    portfolioId: notNull.integer(),
+    businessDate: notNull.dateOnly(),
+    cause: notNull.oneOf("market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"),
+    narrative: notNull.text(),
+    exclusionStatus: { ...notNull.oneOf("none", "requested", "approved", "rejected"), defaultValue: "none" },
+    decisionReference: nullable.varchar(120),
+    decisionDate: nullable.dateOnly(),
+    decidedBy: nullable.integer(),
+    reviewedBy: notNull.integer(),
+    ...versionColumn(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "exception_reviews" },
 );

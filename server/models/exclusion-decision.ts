@@ -1,14 +1,12 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull, nullable } from "./kit";
 
 /**
  * A decision the CRO recorded on an exclusion request; never updated. A correction is a new row
  * naming the one it supersedes, with its reason (migrations/20261202-23-01-exclusion-decisions.cjs).
  */
-export class ExclusionDecisionModel extends Model<
-  InferAttributes<ExclusionDecisionModel>,
-  InferCreationAttributes<ExclusionDecisionModel>
-> {
+export class ExclusionDecisionModel extends TableModel<ExclusionDecisionModel> {
   declare id: CreationOptional<number>;
   declare reviewId: number;
   declare decision: "approved" | "rejected";
@@ -22,15 +20,15 @@ export class ExclusionDecisionModel extends Model<
 
 ExclusionDecisionModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    reviewId: { type: DataTypes.INTEGER, allowNull: false },
-    decision: { type: DataTypes.ENUM("approved", "rejected"), allowNull: false },
-    reference: { type: DataTypes.STRING(120), allowNull: false },
-    decidedOn: { type: DataTypes.DATEONLY, allowNull: false },
-    decidedBy: { type: DataTypes.INTEGER, allowNull: true },
-    recordedAt: { type: DataTypes.DATE(3), allowNull: false },
-    supersedesId: { type: DataTypes.INTEGER, allowNull: true },
-    correctionReason: { type: DataTypes.STRING(500), allowNull: true },
+    ...idColumn(),
+    reviewId: notNull.integer(),
+    decision: notNull.oneOf("approved", "rejected"),
+    reference: notNull.varchar(120),
+    decidedOn: notNull.dateOnly(),
+    decidedBy: nullable.integer(),
+    recordedAt: notNull.dateTime(),
+    supersedesId: nullable.integer(),
+    correctionReason: nullable.varchar(500),
   },
   { sequelize, tableName: "exclusion_decisions", timestamps: false },
 );

@@ -1,5 +1,6 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 
 export type DeliveryStatus = "pending" | "sending" | "accepted" | "refused" | "unknown";
 
@@ -9,11 +10,7 @@ export type DeliveryStatus = "pending" | "sending" | "accepted" | "refused" | "u
  * answer — accepted, refused, back to pending (it did not answer), or unknown (the connection
  * broke mid-message and the mail journal cannot tell).
  */
-export class FilingDeliveryModel extends Model<
-  InferAttributes<FilingDeliveryModel>,
-  InferCreationAttributes<FilingDeliveryModel>
-> {
-  declare id: CreationOptional<number>;
+export class FilingDeliveryModel extends RowModel<FilingDeliveryModel> {
   declare filingId: number;
   declare recipient: string;
   declare status: CreationOptional<DeliveryStatus>;
@@ -21,26 +18,19 @@ export class FilingDeliveryModel extends Model<
   declare claimedAt: Date | null;
   declare detail: string | null;
   declare acceptedAt: Date | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 FilingDeliveryModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    filingId: { type: DataTypes.INTEGER, allowNull: false },
-    recipient: { type: DataTypes.STRING(254), allowNull: false },
-    status: {
-      type: DataTypes.ENUM("pending", "sending", "accepted", "refused", "unknown"),
-      allowNull: false,
-      defaultValue: "pending",
-    },
-    attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    claimedAt: { type: DataTypes.DATE(3), allowNull: true },
-    detail: { type: DataTypes.STRING(500), allowNull: true },
-    acceptedAt: { type: DataTypes.DATE(3), allowNull: true },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    filingId: notNull.integer(),
+    recipient: notNull.varchar(254),
+    status: { ...notNull.oneOf("pending", "sending", "accepted", "refused", "unknown"), defaultValue: "pending" },
+    attempts: { ...notNull.integer(), defaultValue: 0 },
+    claimedAt: nullable.dateTime(),
+    detail: nullable.varchar(500),
+    acceptedAt: nullable.dateTime(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "filing_deliveries" },
 );

@@ -1,9 +1,9 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 
 /** A signed-off snapshot's pack as sent to the supervisor (server/modules/filings). */
-export class FilingModel extends Model<InferAttributes<FilingModel>, InferCreationAttributes<FilingModel>> {
-  declare id: CreationOptional<number>;
+export class FilingModel extends RowModel<FilingModel> {
   declare snapshotId: number;
   declare packPdf: Buffer;
   declare packSha256: string;
@@ -22,29 +22,26 @@ export class FilingModel extends Model<InferAttributes<FilingModel>, InferCreati
   declare acknowledgedAt: Date | null;
   /** The pack's sha256 as the supervisor acknowledged it (also signed into the snapshot chain). */
   declare acknowledgedSha256: CreationOptional<string | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 FilingModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    snapshotId: { type: DataTypes.INTEGER, allowNull: false },
-    packPdf: { type: DataTypes.BLOB("long"), allowNull: false },
-    packSha256: { type: DataTypes.CHAR(64), allowNull: false },
-    fileName: { type: DataTypes.STRING(255), allowNull: false },
-    recipientsJson: { type: DataTypes.TEXT, allowNull: false },
-    messageId: { type: DataTypes.STRING(255), allowNull: true },
-    sentBy: { type: DataTypes.INTEGER, allowNull: false },
-    sentAt: { type: DataTypes.DATE(3), allowNull: true },
-    delivery: { type: DataTypes.ENUM("pending", "partial", "sent"), allowNull: false, defaultValue: "pending" },
-    attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    lastError: { type: DataTypes.STRING(500), allowNull: true },
-    acknowledgedBy: { type: DataTypes.INTEGER, allowNull: true },
-    acknowledgedAt: { type: DataTypes.DATE(3), allowNull: true },
-    acknowledgedSha256: { type: DataTypes.CHAR(64), allowNull: true },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    snapshotId: notNull.integer(),
+    packPdf: notNull.blob("long"),
+    packSha256: notNull.char(64),
+    fileName: notNull.varchar(255),
+    recipientsJson: notNull.text(),
+    messageId: nullable.varchar(255),
+    sentBy: notNull.integer(),
+    sentAt: nullable.dateTime(),
+    delivery: { ...notNull.oneOf("pending", "partial", "sent"), defaultValue: "pending" },
+    attempts: { ...notNull.integer(), defaultValue: 1 },
+    lastError: nullable.varchar(500),
+    acknowledgedBy: nullable.integer(),
+    acknowledgedAt: nullable.dateTime(),
+    acknowledgedSha256: nullable.char(64),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "filings", defaultScope: { attributes: { exclude: ["packPdf"] } }, scopes: { withPack: {} } },
 );

@@ -1,13 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull, nullable } from "./kit";
 import type { DeskStatus } from "../../shared/backtest/frtb-capital";
 import type { PlaZone } from "../../shared/backtest/pla";
 
 /** One FRTB desk's status at one determination of its entity (docs/rules.md#frtb-eligibility). */
-export class FrtbDeskStatusModel extends Model<
-  InferAttributes<FrtbDeskStatusModel>,
-  InferCreationAttributes<FrtbDeskStatusModel>
-> {
+export class FrtbDeskStatusModel extends TableModel<FrtbDeskStatusModel> {
   declare id: CreationOptional<number>;
   declare entityId: number;
   declare portfolioId: number;
@@ -27,21 +25,21 @@ export class FrtbDeskStatusModel extends Model<
 
 FrtbDeskStatusModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    entityId: { type: DataTypes.INTEGER, allowNull: false },
-    portfolioId: { type: DataTypes.INTEGER, allowNull: false },
-    periodEnd: { type: DataTypes.DATEONLY, allowNull: false },
-    asOf: { type: DataTypes.DATEONLY, allowNull: false },
-    effectiveFrom: { type: DataTypes.DATEONLY, allowNull: false },
-    status: { type: DataTypes.ENUM("in-model", "amber", "out-of-model"), allowNull: false },
-    reason: { type: DataTypes.STRING(300), allowNull: false },
-    backtest99: { type: DataTypes.INTEGER, allowNull: false, field: "backtest99" },
-    backtest975: { type: DataTypes.INTEGER, allowNull: false, field: "backtest975" },
-    backtestPasses: { type: DataTypes.BOOLEAN, allowNull: false },
-    plaZone: { type: DataTypes.ENUM("green", "amber", "red"), allowNull: true },
-    plaObservations: { type: DataTypes.INTEGER, allowNull: false },
-    spearman: { type: DataTypes.DOUBLE, allowNull: true },
-    ks: { type: DataTypes.DOUBLE, allowNull: true },
+    ...idColumn(),
+    entityId: notNull.integer(),
+    portfolioId: notNull.integer(),
+    periodEnd: notNull.dateOnly(),
+    asOf: notNull.dateOnly(),
+    effectiveFrom: notNull.dateOnly(),
+    status: notNull.oneOf("in-model", "amber", "out-of-model"),
+    reason: notNull.varchar(300),
+    backtest99: { ...notNull.integer(), field: "backtest99" },
+    backtest975: { ...notNull.integer(), field: "backtest975" },
+    backtestPasses: notNull.boolean(),
+    plaZone: nullable.oneOf("green", "amber", "red"),
+    plaObservations: notNull.integer(),
+    spearman: nullable.double(),
+    ks: nullable.double(),
   },
   { sequelize, tableName: "frtb_desk_statuses", timestamps: false },
 );

@@ -1,12 +1,10 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel } from "./kit";
 import type { NotificationKind } from "../../shared/schemas/notification";
 
 /** A kind of e-mail notification one person has chosen to receive. */
-export class NotificationSubscriptionModel extends Model<
-  InferAttributes<NotificationSubscriptionModel>,
-  InferCreationAttributes<NotificationSubscriptionModel>
-> {
+export class NotificationSubscriptionModel extends TableModel<NotificationSubscriptionModel> {
   declare userId: number;
   declare kind: NotificationKind;
   declare createdAt: CreationOptional<Date>;

@@ -1,5 +1,6 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional, type InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, notNull } from "./kit";
 import { decimalAttribute } from "./decimal";
 
 /**
@@ -7,10 +8,7 @@ import { decimalAttribute } from "./decimal";
  * is_current on the old one; the database allows one current version per day. Bulk writes go
  * through server/modules/observations/observations.repository.ts (multi-row INSERTs).
  */
-export class ObservationModel extends Model<
-  InferAttributes<ObservationModel>,
-  InferCreationAttributes<ObservationModel>
-> {
+export class ObservationModel extends TableModel<ObservationModel> {
   declare portfolioId: number;
   declare businessDate: string;
   declare version: CreationOptional<number>;
@@ -48,7 +46,7 @@ ObservationModel.init(
     portfolioId: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true },
     businessDate: { type: DataTypes.DATEONLY, allowNull: false, primaryKey: true },
     version: { type: DataTypes.INTEGER, allowNull: false, primaryKey: true, defaultValue: 1 },
-    isCurrent: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    isCurrent: { ...notNull.boolean(), defaultValue: true },
     actualPnl: money("actualPnl", "actual_pnl"),
     hypotheticalPnl: money("hypotheticalPnl", "hypothetical_pnl"),
     var99: money("var99", "var_99"),
@@ -69,7 +67,7 @@ ObservationModel.init(
     netInterestIncome: money("netInterestIncome", "net_interest_income"),
     intradayPnl: money("intradayPnl", "intraday_pnl"),
     newTradePnl: money("newTradePnl", "new_trade_pnl"),
-    uploadId: { type: DataTypes.INTEGER, allowNull: false },
+    uploadId: notNull.integer(),
   },
   { sequelize, tableName: "observations", timestamps: false },
 );

@@ -1,14 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { NoticeStatus } from "../../shared/schemas/notice";
 
 /** An overshooting notice to the supervisor (docs/rules.md#overshooting-notice). */
-export class OvershootingNoticeModel extends Model<
-  InferAttributes<OvershootingNoticeModel>,
-  InferCreationAttributes<OvershootingNoticeModel>
-> {
-  declare id: CreationOptional<number>;
+export class OvershootingNoticeModel extends RowModel<OvershootingNoticeModel> {
   declare portfolioId: number;
   declare businessDate: string;
   declare status: CreationOptional<NoticeStatus>;
@@ -34,41 +31,38 @@ export class OvershootingNoticeModel extends Model<
   declare note: CreationOptional<string | null>;
   declare remindedAt: CreationOptional<Date | null>;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 type M = OvershootingNoticeModel;
 
 OvershootingNoticeModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    portfolioId: { type: DataTypes.INTEGER, allowNull: false },
-    businessDate: { type: DataTypes.DATEONLY, allowNull: false },
-    status: { type: DataTypes.ENUM("open", "sent", "withdrawn"), allowNull: false, defaultValue: "open" },
-    revealedOn: { type: DataTypes.DATEONLY, allowNull: false },
-    dueOn: { type: DataTypes.DATEONLY, allowNull: false },
-    uploadId: { type: DataTypes.INTEGER, allowNull: true },
-    series: { type: DataTypes.ENUM("actual", "hypothetical", "both"), allowNull: false },
+    ...idColumn(),
+    portfolioId: notNull.integer(),
+    businessDate: notNull.dateOnly(),
+    status: { ...notNull.oneOf("open", "sent", "withdrawn"), defaultValue: "open" },
+    revealedOn: notNull.dateOnly(),
+    dueOn: notNull.dateOnly(),
+    uploadId: nullable.integer(),
+    series: notNull.oneOf("actual", "hypothetical", "both"),
     actualPnl: decimalAttribute<M>("actualPnl", 20, 2, { allowNull: true }),
     hypotheticalPnl: decimalAttribute<M>("hypotheticalPnl", 20, 2, { allowNull: true }),
     var99: decimalAttribute<M>("var99", 20, 2, { allowNull: true, field: "var_99" }),
     excess: decimalAttribute<M>("excess", 20, 2, { allowNull: true }),
-    cause: { type: DataTypes.TEXT, allowNull: true },
-    draftedBy: { type: DataTypes.INTEGER, allowNull: true },
-    draftedAt: { type: DataTypes.DATE(3), allowNull: true },
-    sentBy: { type: DataTypes.INTEGER, allowNull: true },
-    sentAt: { type: DataTypes.DATE(3), allowNull: true },
-    recipientsJson: { type: DataTypes.TEXT, allowNull: true },
-    messageId: { type: DataTypes.STRING(200), allowNull: true },
-    pdfSha256: { type: DataTypes.CHAR(64), allowNull: true },
-    pdf: { type: DataTypes.BLOB("medium"), allowNull: true },
-    withdrawnAt: { type: DataTypes.DATE(3), allowNull: true },
-    note: { type: DataTypes.STRING(500), allowNull: true },
-    remindedAt: { type: DataTypes.DATE(3), allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    cause: nullable.text(),
+    draftedBy: nullable.integer(),
+    draftedAt: nullable.dateTime(),
+    sentBy: nullable.integer(),
+    sentAt: nullable.dateTime(),
+    recipientsJson: nullable.text(),
+    messageId: nullable.varchar(200),
+    pdfSha256: nullable.char(64),
+    pdf: nullable.blob("medium"),
+    withdrawnAt: nullable.dateTime(),
+    note: nullable.varchar(500),
+    remindedAt: nullable.dateTime(),
+    ...versionColumn(),
+    ...timestampColumns(),
   },
   {
     sequelize,

@@ -1,33 +1,23 @@
-import {
-  DataTypes,
-  Model,
-  type CreationOptional,
-  type ForeignKey,
-  type InferAttributes,
-  type InferCreationAttributes,
-} from "sequelize";
+import type { ForeignKey } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, timestampColumns } from "./kit";
 import type { PortfolioLevel } from "../../shared/schemas/common";
 import { EntityModel } from "./entity";
 
-export class PortfolioModel extends Model<InferAttributes<PortfolioModel>, InferCreationAttributes<PortfolioModel>> {
-  declare id: CreationOptional<number>;
+export class PortfolioModel extends RowModel<PortfolioModel> {
   declare entityId: ForeignKey<EntityModel["id"]>;
   declare code: string;
   declare name: string;
   declare level: PortfolioLevel;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 PortfolioModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    code: { type: DataTypes.STRING(40), allowNull: false, unique: true },
-    name: { type: DataTypes.STRING(120), allowNull: false },
-    level: { type: DataTypes.ENUM("top", "desk"), allowNull: false },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    code: { ...notNull.varchar(40), unique: true },
+    name: notNull.varchar(120),
+    level: notNull.oneOf("top", "desk"),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "portfolios" },
 );

@@ -1,13 +1,11 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel } from "./kit";
 import { EntityModel } from "./entity";
 import { UserModel } from "./user";
 
 /** Which supervisor's staff member may read which entity's filed packs. */
-export class RegulatorAssignmentModel extends Model<
-  InferAttributes<RegulatorAssignmentModel>,
-  InferCreationAttributes<RegulatorAssignmentModel>
-> {
+export class RegulatorAssignmentModel extends TableModel<RegulatorAssignmentModel> {
   declare userId: number;
   declare entityId: number;
   declare createdAt: CreationOptional<Date>;

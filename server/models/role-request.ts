@@ -1,14 +1,8 @@
-import {
-  DataTypes,
-  Model,
-  type CreationOptional,
-  type InferAttributes,
-  type InferCreationAttributes,
-  type NonAttribute,
-} from "sequelize";
+import { DataTypes, type CreationOptional, type NonAttribute } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull, nullable } from "./kit";
 import { UserModel } from "./user";
-import type { Role } from "../../shared/schemas/common";
+import { roleSchema, type Role } from "../../shared/schemas/common";
 
 export type RoleRequestKind = "invite" | "change";
 export type RoleRequestStatus = "pending" | "approved" | "rejected";
@@ -18,10 +12,7 @@ export type RoleRequestStatus = "pending" | "approved" | "rejected";
  * `invite` creates the person (nobody yet: `userId` is null until approval), `change` moves an
  * existing user from `fromRole` to `toRole`.
  */
-export class RoleRequestModel extends Model<
-  InferAttributes<RoleRequestModel>,
-  InferCreationAttributes<RoleRequestModel>
-> {
+export class RoleRequestModel extends TableModel<RoleRequestModel> {
   declare id: CreationOptional<number>;
   declare kind: RoleRequestKind;
   declare userId: number | null;
@@ -38,22 +29,20 @@ export class RoleRequestModel extends Model<
   declare decider?: NonAttribute<UserModel | null>;
 }
 
-const ROLE = DataTypes.ENUM("analyst", "cro", "treasury", "regulator", "admin");
-
 RoleRequestModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    kind: { type: DataTypes.ENUM("invite", "change"), allowNull: false },
-    userId: { type: DataTypes.INTEGER, allowNull: true },
-    email: { type: DataTypes.STRING(190), allowNull: false },
-    name: { type: DataTypes.STRING(120), allowNull: false },
-    fromRole: { type: ROLE, allowNull: true },
-    toRole: { type: ROLE, allowNull: false },
-    status: { type: DataTypes.ENUM("pending", "approved", "rejected"), allowNull: false, defaultValue: "pending" },
-    proposedBy: { type: DataTypes.INTEGER, allowNull: false },
+    ...idColumn(),
+    kind: notNull.oneOf("invite", "change"),
+    userId: nullable.integer(),
+    email: notNull.varchar(190),
+    name: notNull.varchar(120),
+    fromRole: nullable.oneOf(...roleSchema.options),
+    toRole: notNull.oneOf(...roleSchema.options),
+    status: { ...notNull.oneOf("pending", "approved", "rejected"), defaultValue: "pending" },
+    proposedBy: notNull.integer(),
     proposedAt: DataTypes.DATE(3),
-    decidedBy: { type: DataTypes.INTEGER, allowNull: true },
-    decidedAt: { type: DataTypes.DATE(3), allowNull: true },
+    decidedBy: nullable.integer(),
+    decidedAt: nullable.dateTime(),
   },
   { sequelize, tableName: "role_requests", createdAt: "proposedAt", updatedAt: false },
 );

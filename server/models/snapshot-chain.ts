@@ -1,5 +1,6 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull } from "./kit";
 
 export type ChainLinkKind = "sealed" | "filed" | "restated" | "acknowledged" | "backfilled";
 
@@ -9,7 +10,7 @@ export type ChainLinkKind = "sealed" | "filed" | "restated" | "acknowledged" | "
  * linked to the link before it. Rows are only ever added. `body` is the canonical JSON that `mac`
  * signs; the other columns repeat parts of it for lookups and are checked against it.
  */
-export class ChainLinkModel extends Model<InferAttributes<ChainLinkModel>, InferCreationAttributes<ChainLinkModel>> {
+export class ChainLinkModel extends TableModel<ChainLinkModel> {
   declare id: CreationOptional<number>;
   declare entityId: number;
   declare seq: number;
@@ -22,20 +23,20 @@ export class ChainLinkModel extends Model<InferAttributes<ChainLinkModel>, Infer
 
 ChainLinkModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    entityId: { type: DataTypes.INTEGER, allowNull: false },
-    seq: { type: DataTypes.INTEGER, allowNull: false },
-    snapshotId: { type: DataTypes.INTEGER, allowNull: false },
-    kind: { type: DataTypes.ENUM("sealed", "filed", "restated", "acknowledged", "backfilled"), allowNull: false },
-    body: { type: DataTypes.TEXT("long"), allowNull: false },
-    mac: { type: DataTypes.CHAR(64), allowNull: false },
+    ...idColumn(),
+    entityId: notNull.integer(),
+    seq: notNull.integer(),
+    snapshotId: notNull.integer(),
+    kind: notNull.oneOf("sealed", "filed", "restated", "acknowledged", "backfilled"),
+    body: notNull.text("long"),
+    mac: notNull.char(64),
     createdAt: DataTypes.DATE(3),
   },
   { sequelize, tableName: "snapshot_chain_links", updatedAt: false },
 );
 
 /** The signed head of an entity's chain: its length and newest link, so that a deleted newest link shows. */
-export class ChainHeadModel extends Model<InferAttributes<ChainHeadModel>, InferCreationAttributes<ChainHeadModel>> {
+export class ChainHeadModel extends TableModel<ChainHeadModel> {
   declare entityId: number;
   declare seq: number;
   declare mac: string;
@@ -46,9 +47,9 @@ export class ChainHeadModel extends Model<InferAttributes<ChainHeadModel>, Infer
 ChainHeadModel.init(
   {
     entityId: { type: DataTypes.INTEGER, primaryKey: true },
-    seq: { type: DataTypes.INTEGER, allowNull: false },
-    mac: { type: DataTypes.CHAR(64), allowNull: false },
-    headMac: { type: DataTypes.CHAR(64), allowNull: false },
+    seq: notNull.integer(),
+    mac: notNull.char(64),
+    headMac: notNull.char(64),
     updatedAt: DataTypes.DATE(3),
   },
   { sequelize, tableName: "snapshot_chain_heads", createdAt: false },

@@ -1,12 +1,12 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional, InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { SnapshotStatus } from "../../shared/schemas/snapshot";
 import type { Zone } from "../../shared/backtest/types";
 
 /** One entity's figures at one quarter end, frozen for sign-off (server/modules/snapshots). */
-export class SnapshotModel extends Model<InferAttributes<SnapshotModel>, InferCreationAttributes<SnapshotModel>> {
-  declare id: CreationOptional<number>;
+export class SnapshotModel extends RowModel<SnapshotModel> {
   declare entityId: number;
   declare quarterEnd: string;
   declare status: SnapshotStatus;
@@ -36,8 +36,6 @@ export class SnapshotModel extends Model<InferAttributes<SnapshotModel>, InferCr
   declare amendsId: number | null;
   declare amendmentJson: string | null;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 const decimal = (
@@ -49,37 +47,36 @@ const decimal = (
 
 SnapshotModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    entityId: { type: DataTypes.INTEGER, allowNull: false },
-    quarterEnd: { type: DataTypes.DATEONLY, allowNull: false },
-    status: { type: DataTypes.ENUM("draft", "submitted", "approved", "returned", "filed"), allowNull: false },
-    zone: { type: DataTypes.ENUM("green", "yellow", "red"), allowNull: false },
-    counted: { type: DataTypes.INTEGER, allowNull: false },
+    ...idColumn(),
+    entityId: notNull.integer(),
+    quarterEnd: notNull.dateOnly(),
+    status: notNull.oneOf("draft", "submitted", "approved", "returned", "filed"),
+    zone: notNull.oneOf("green", "yellow", "red"),
+    counted: notNull.integer(),
     plusFactor: decimal("plusFactor", 6, 4, false),
     multiplier: decimal("multiplier", 6, 4, false),
     capital: decimal("capital", 20, 2, true),
     addOn: decimal("addOn", 20, 2, true),
-    windowStart: { type: DataTypes.DATEONLY, allowNull: true },
-    asOf: { type: DataTypes.DATEONLY, allowNull: false },
-    figuresJson: { type: DataTypes.TEXT("long"), allowNull: false },
-    inputsSha256: { type: DataTypes.CHAR(64), allowNull: false },
-    engineVersion: { type: DataTypes.STRING(20), allowNull: false },
-    preparedBy: { type: DataTypes.INTEGER, allowNull: false },
-    preparedAt: { type: DataTypes.DATE(3), allowNull: false },
-    submittedBy: { type: DataTypes.INTEGER, allowNull: true },
-    submittedAt: { type: DataTypes.DATE(3), allowNull: true },
-    approvedBy: { type: DataTypes.INTEGER, allowNull: true },
-    approvedAt: { type: DataTypes.DATE(3), allowNull: true },
-    historyJson: { type: DataTypes.TEXT("long"), allowNull: false },
-    prevHash: { type: DataTypes.CHAR(64), allowNull: true },
-    hash: { type: DataTypes.CHAR(64), allowNull: true },
-    restatedAt: { type: DataTypes.DATE(3), allowNull: true },
-    restatementDetail: { type: DataTypes.TEXT, allowNull: true },
-    amendsId: { type: DataTypes.INTEGER, allowNull: true },
-    amendmentJson: { type: DataTypes.TEXT("long"), allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    windowStart: nullable.dateOnly(),
+    asOf: notNull.dateOnly(),
+    figuresJson: notNull.text("long"),
+    inputsSha256: notNull.char(64),
+    engineVersion: notNull.varchar(20),
+    preparedBy: notNull.integer(),
+    preparedAt: notNull.dateTime(),
+    submittedBy: nullable.integer(),
+    submittedAt: nullable.dateTime(),
+    approvedBy: nullable.integer(),
+    approvedAt: nullable.dateTime(),
+    historyJson: notNull.text("long"),
+    prevHash: nullable.char(64),
+    hash: nullable.char(64),
+    restatedAt: nullable.dateTime(),
+    restatementDetail: nullable.text(),
+    amendsId: nullable.integer(),
+    amendmentJson: nullable.text("long"),
+    ...versionColumn(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "snapshots" },
 );

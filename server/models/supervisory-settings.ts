@@ -1,5 +1,6 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { PnlBasis } from "../../shared/schemas/common";
 import type { DeterminationFrequency } from "../../shared/backtest/determination";
@@ -7,11 +8,7 @@ import type { DeterminationFrequency } from "../../shared/backtest/determination
 export type SettingsStatus = "proposed" | "approved" | "rejected";
 
 /** One dated, governed record of an entity's supervisory settings (server/modules/settings). */
-export class SupervisorySettingsModel extends Model<
-  InferAttributes<SupervisorySettingsModel>,
-  InferCreationAttributes<SupervisorySettingsModel>
-> {
-  declare id: CreationOptional<number>;
+export class SupervisorySettingsModel extends RowModel<SupervisorySettingsModel> {
   declare entityId: number;
   declare effectiveFrom: string;
   declare reference: string;
@@ -26,8 +23,6 @@ export class SupervisorySettingsModel extends Model<
   declare decidedBy: number | null;
   declare decidedAt: Date | null;
   declare decisionComment: string | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 const decimal = (attribute: keyof InferAttributes<SupervisorySettingsModel>, allowNull: boolean) =>
@@ -35,23 +30,22 @@ const decimal = (attribute: keyof InferAttributes<SupervisorySettingsModel>, all
 
 SupervisorySettingsModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    entityId: { type: DataTypes.INTEGER, allowNull: false },
-    effectiveFrom: { type: DataTypes.DATEONLY, allowNull: false },
-    reference: { type: DataTypes.STRING(200), allowNull: false },
-    pnlBasis: { type: DataTypes.ENUM("actual", "hypothetical", "max"), allowNull: false },
+    ...idColumn(),
+    entityId: notNull.integer(),
+    effectiveFrom: notNull.dateOnly(),
+    reference: notNull.varchar(200),
+    pnlBasis: notNull.oneOf("actual", "hypothetical", "max"),
     qualitativeAddend: decimal("qualitativeAddend", false) as never,
     qualitativeAddendSvar: decimal("qualitativeAddendSvar", true),
     multiplierFloor: decimal("multiplierFloor", true),
-    determinationFrequency: { type: DataTypes.ENUM("quarterly", "monthly"), allowNull: false },
-    status: { type: DataTypes.ENUM("proposed", "approved", "rejected"), allowNull: false },
-    proposedBy: { type: DataTypes.INTEGER, allowNull: true },
-    proposedAt: { type: DataTypes.DATE(3), allowNull: true },
-    decidedBy: { type: DataTypes.INTEGER, allowNull: true },
-    decidedAt: { type: DataTypes.DATE(3), allowNull: true },
-    decisionComment: { type: DataTypes.STRING(500), allowNull: true },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    determinationFrequency: notNull.oneOf("quarterly", "monthly"),
+    status: notNull.oneOf("proposed", "approved", "rejected"),
+    proposedBy: nullable.integer(),
+    proposedAt: nullable.dateTime(),
+    decidedBy: nullable.integer(),
+    decidedAt: nullable.dateTime(),
+    decisionComment: nullable.varchar(500),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "supervisory_settings" },
 );

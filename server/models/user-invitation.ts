@@ -1,21 +1,12 @@
-import {
-  DataTypes,
-  Model,
-  type CreationOptional,
-  type InferAttributes,
-  type InferCreationAttributes,
-  type NonAttribute,
-} from "sequelize";
+import { DataTypes, type CreationOptional, type NonAttribute } from "sequelize";
 import { sequelize } from "../db/sequelize";
+import { TableModel, idColumn, notNull, nullable } from "./kit";
 import { UserModel } from "./user";
 
 export type InvitationPurpose = "invite" | "reset";
 
 /** A one-time link to set a password: for whom, why, the SHA-256 of its token (never the token) and its life. */
-export class UserInvitationModel extends Model<
-  InferAttributes<UserInvitationModel>,
-  InferCreationAttributes<UserInvitationModel>
-> {
+export class UserInvitationModel extends TableModel<UserInvitationModel> {
   declare id: CreationOptional<number>;
   declare userId: number;
   declare purpose: InvitationPurpose;
@@ -31,15 +22,15 @@ export class UserInvitationModel extends Model<
 
 UserInvitationModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    userId: { type: DataTypes.INTEGER, allowNull: false },
-    purpose: { type: DataTypes.ENUM("invite", "reset"), allowNull: false },
-    tokenHash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
-    createdBy: { type: DataTypes.INTEGER, allowNull: true },
+    ...idColumn(),
+    userId: notNull.integer(),
+    purpose: notNull.oneOf("invite", "reset"),
+    tokenHash: { ...notNull.char(64), unique: true },
+    createdBy: nullable.integer(),
     createdAt: DataTypes.DATE(3),
-    expiresAt: { type: DataTypes.DATE(3), allowNull: false },
-    usedAt: { type: DataTypes.DATE(3), allowNull: true },
-    revokedAt: { type: DataTypes.DATE(3), allowNull: true },
+    expiresAt: notNull.dateTime(),
+    usedAt: nullable.dateTime(),
+    revokedAt: nullable.dateTime(),
   },
   { sequelize, tableName: "user_invitations", updatedAt: false },
 );

@@ -1,9 +1,9 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import type { Role } from "../../shared/schemas/common";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { roleSchema, type Role } from "../../shared/schemas/common";
 
-export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAttributes<UserModel>> {
-  declare id: CreationOptional<number>;
+export class UserModel extends RowModel<UserModel> {
   declare email: string;
   declare name: string;
   declare role: Role;
@@ -15,23 +15,20 @@ export class UserModel extends Model<InferAttributes<UserModel>, InferCreationAt
   /** Row version of the admin's edits (optimistic locking): a stale one is refused with 409. */
   declare version: CreationOptional<number>;
   declare lastSignInAt: Date | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 UserModel.init(
   {
-    id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-    email: { type: DataTypes.STRING(190), allowNull: false, unique: true },
-    name: { type: DataTypes.STRING(120), allowNull: false },
-    role: { type: DataTypes.ENUM("analyst", "cro", "treasury", "regulator", "admin"), allowNull: false },
-    passwordHash: { type: DataTypes.STRING(100), allowNull: true },
-    disabled: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
-    tokenVersion: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-    lastSignInAt: { type: DataTypes.DATE(3), allowNull: true },
-    createdAt: DataTypes.DATE(3),
-    updatedAt: DataTypes.DATE(3),
+    ...idColumn(),
+    email: { ...notNull.varchar(190), unique: true },
+    name: notNull.varchar(120),
+    role: notNull.oneOf(...roleSchema.options),
+    passwordHash: nullable.varchar(100),
+    disabled: { ...notNull.boolean(), defaultValue: false },
+    tokenVersion: { ...notNull.integer(), defaultValue: 1 },
+    ...versionColumn(),
+    lastSignInAt: nullable.dateTime(),
+    ...timestampColumns(),
   },
   { sequelize, tableName: "users" },
 );

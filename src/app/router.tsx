@@ -53,6 +53,11 @@ function Starting() {
 const relative = (p: string) => p.replace(/^\//, "");
 
 export function createRoutes(queryClient: QueryClient): RouteObject[] {
+  /** The screen at a path of the table, below the signed-in layout. */
+  const at = (key: PathKey, load: () => Promise<RouteModule>): RouteObject => ({
+    path: relative(paths[key].path),
+    ...screen(queryClient, key, load),
+  });
   return [
     {
       HydrateFallback: Starting,
@@ -65,56 +70,23 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           ...screen(queryClient, null, () => import("./routes/app-layout")),
           children: [
             { index: true, ...screen(queryClient, "overview", () => import("./routes/overview")) },
-            {
-              path: relative(paths.backtestIndex.path),
-              ...screen(queryClient, "backtestIndex", () => import("./routes/backtest/index")),
-            },
-            {
-              path: relative(paths.backtest.path),
-              ...screen(queryClient, "backtest", () => import("./routes/backtest/portfolio")),
-            },
-            {
-              path: relative(paths.waiting.path),
-              ...screen(queryClient, "waiting", () => import("./routes/waiting")),
-            },
-            { path: relative(paths.data.path), ...screen(queryClient, "data", () => import("./routes/data")) },
-            {
-              path: relative(paths.settings.path),
-              ...screen(queryClient, "settings", () => import("./routes/settings")),
-            },
-            {
-              path: relative(paths.snapshots.path),
-              ...screen(queryClient, "snapshots", () => import("./routes/snapshots")),
-            },
-            { path: relative(paths.capital.path), ...screen(queryClient, "capital", () => import("./routes/capital")) },
-            { path: relative(paths.filings.path), ...screen(queryClient, "filings", () => import("./routes/filings")) },
-            { path: relative(paths.notices.path), ...screen(queryClient, "notices", () => import("./routes/notices")) },
-            { path: relative(paths.account.path), ...screen(queryClient, "account", () => import("./routes/account")) },
-            { path: relative(paths.tokens.path), ...screen(queryClient, "tokens", () => import("./routes/tokens")) },
-            {
-              path: relative(paths.adminUsers.path),
-              ...screen(queryClient, "adminUsers", () => import("./routes/admin/users")),
-            },
-            {
-              path: relative(paths.adminEntities.path),
-              ...screen(queryClient, "adminEntities", () => import("./routes/admin/entities")),
-            },
-            {
-              path: relative(paths.adminEntity.path),
-              ...screen(queryClient, "adminEntity", () => import("./routes/admin/entity")),
-            },
-            {
-              path: relative(paths.adminAssignments.path),
-              ...screen(queryClient, "adminAssignments", () => import("./routes/admin/assignments")),
-            },
-            {
-              path: relative(paths.adminAudit.path),
-              ...screen(queryClient, "adminAudit", () => import("./routes/admin/audit")),
-            },
-            {
-              path: relative(paths.adminOutbox.path),
-              ...screen(queryClient, "adminOutbox", () => import("./routes/admin/outbox")),
-            },
+            at("backtestIndex", () => import("./routes/backtest/index")),
+            at("backtest", () => import("./routes/backtest/portfolio")),
+            at("waiting", () => import("./routes/waiting")),
+            at("data", () => import("./routes/data")),
+            at("settings", () => import("./routes/settings")),
+            at("snapshots", () => import("./routes/snapshots")),
+            at("capital", () => import("./routes/capital")),
+            at("filings", () => import("./routes/filings")),
+            at("notices", () => import("./routes/notices")),
+            at("account", () => import("./routes/account")),
+            at("tokens", () => import("./routes/tokens")),
+            at("adminUsers", () => import("./routes/admin/users")),
+            at("adminEntities", () => import("./routes/admin/entities")),
+            at("adminEntity", () => import("./routes/admin/entity")),
+            at("adminAssignments", () => import("./routes/admin/assignments")),
+            at("adminAudit", () => import("./routes/admin/audit")),
+            at("adminOutbox", () => import("./routes/admin/outbox")),
             { path: "*", ...screen(queryClient, null, () => import("./routes/not-found")) },
           ],
         },

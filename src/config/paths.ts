@@ -19,6 +19,14 @@ const tokenHolders: readonly Role[] = ["treasury"];
 /** Everyone whose work waits on others' (treasury plans on what is signed off; nothing waits for it). */
 const queueHolders: readonly Role[] = ["analyst", "cro", "admin", "regulator"];
 
+/** `path` with each given value as a search parameter, in the order given; empty ones are left out. */
+function withParams(path: string, params: Record<string, string | number | undefined>): string {
+  const s = new URLSearchParams();
+  for (const [key, value] of Object.entries(params)) if (value) s.set(key, String(value));
+  const qs = s.toString();
+  return qs ? `${path}?${qs}` : path;
+}
+
 export type AppPath = {
   /** The route pattern as React Router reads it. */
   readonly path: string;
@@ -49,14 +57,12 @@ export const paths = {
     roles: dataReaders,
     label: "Data",
     /** `upload` opens that upload's preview; findings default to open ones, `status: "all"` shows every status. */
-    href: (q?: { upload?: number; entity?: string; status?: "open" | "resolved" | "explained" | "all" }) => {
-      const s = new URLSearchParams();
-      if (q?.upload) s.set("upload", String(q.upload));
-      if (q?.entity) s.set("entity", q.entity);
-      if (q?.status && q.status !== "open") s.set("status", q.status);
-      const qs = s.toString();
-      return qs ? `/data?${qs}` : "/data";
-    },
+    href: (q?: { upload?: number; entity?: string; status?: "open" | "resolved" | "explained" | "all" }) =>
+      withParams("/data", {
+        upload: q?.upload,
+        entity: q?.entity,
+        status: q?.status === "open" ? undefined : q?.status,
+      }),
   },
   backtestIndex: { path: "/backtest", roles: dataReaders, label: "Backtest", href: () => "/backtest" },
   backtest: {
@@ -64,39 +70,23 @@ export const paths = {
     roles: dataReaders,
     label: "Backtest",
     /** `asOf` (YYYY-MM-DD) backtests an earlier date; `exception` opens that exception's review. */
-    href: (portfolio: string, q?: { asOf?: string; exception?: string }) => {
-      const s = new URLSearchParams();
-      if (q?.asOf) s.set("asOf", q.asOf);
-      if (q?.exception) s.set("exception", q.exception);
-      const qs = s.toString();
-      return `/backtest/${encodeURIComponent(portfolio)}${qs ? `?${qs}` : ""}`;
-    },
+    href: (portfolio: string, q?: { asOf?: string; exception?: string }) =>
+      withParams(`/backtest/${encodeURIComponent(portfolio)}`, { asOf: q?.asOf, exception: q?.exception }),
   },
   snapshots: {
     path: "/quarters",
     roles: quarterReaders,
     label: "Quarter close",
     /** `snapshot` opens that snapshot; without `entity` the screen starts on the first entity. */
-    href: (q?: { entity?: string; snapshot?: number }) => {
-      const s = new URLSearchParams();
-      if (q?.entity) s.set("entity", q.entity);
-      if (q?.snapshot) s.set("snapshot", String(q.snapshot));
-      const qs = s.toString();
-      return qs ? `/quarters?${qs}` : "/quarters";
-    },
+    href: (q?: { entity?: string; snapshot?: number }) =>
+      withParams("/quarters", { entity: q?.entity, snapshot: q?.snapshot }),
   },
   capital: {
     path: "/capital",
     roles: capitalReaders,
     label: "Capital",
     /** Without `entity` the screen starts on the first entity; without `date` the forecast is for the server's default (the current quarter end). */
-    href: (q?: { entity?: string; date?: string }) => {
-      const s = new URLSearchParams();
-      if (q?.entity) s.set("entity", q.entity);
-      if (q?.date) s.set("date", q.date);
-      const qs = s.toString();
-      return qs ? `/capital?${qs}` : "/capital";
-    },
+    href: (q?: { entity?: string; date?: string }) => withParams("/capital", { entity: q?.entity, date: q?.date }),
   },
   settings: {
     path: "/settings",
@@ -118,13 +108,8 @@ export const paths = {
     roles: dataReaders,
     label: "Notices",
     /** Without `entity` the screen starts on the first EU entity; `notice` opens that notice. */
-    href: (q?: { entity?: string; notice?: number }) => {
-      const s = new URLSearchParams();
-      if (q?.entity) s.set("entity", q.entity);
-      if (q?.notice) s.set("notice", String(q.notice));
-      const qs = s.toString();
-      return qs ? `/notices?${qs}` : "/notices";
-    },
+    href: (q?: { entity?: string; notice?: number }) =>
+      withParams("/notices", { entity: q?.entity, notice: q?.notice }),
   },
   tokens: { path: "/tokens", roles: tokenHolders, label: "API tokens", href: () => "/tokens" },
   adminUsers: { path: "/admin/users", roles: adminOnly, label: "Users", href: () => "/admin/users" },
@@ -145,13 +130,14 @@ export const paths = {
     path: "/admin/audit",
     roles: adminOnly,
     label: "Audit log",
-    href: (q?: { action?: string; actor?: string; from?: string; to?: string; page?: number }) => {
-      const s = new URLSearchParams();
-      for (const key of ["action", "actor", "from", "to"] as const) if (q?.[key]) s.set(key, q[key]);
-      if (q?.page && q.page > 1) s.set("page", String(q.page));
-      const qs = s.toString();
-      return qs ? `/admin/audit?${qs}` : "/admin/audit";
-    },
+    href: (q?: { action?: string; actor?: string; from?: string; to?: string; page?: number }) =>
+      withParams("/admin/audit", {
+        action: q?.action,
+        actor: q?.actor,
+        from: q?.from,
+        to: q?.to,
+        page: q?.page && q.page > 1 ? q.page : undefined,
+      }),
   },
   /** The development mail outbox: what the local mail sink kept (the server refuses it in production). */
   adminOutbox: {

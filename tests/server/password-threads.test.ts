@@ -1,5 +1,4 @@
 import request from "supertest";
-import bcrypt from "bcryptjs";
 import { performance } from "node:perf_hooks";
 import { afterAll, describe, expect, it } from "vitest";
 import { createTestUser, testApp, TEST_PASSWORD, unique } from "./helpers";
@@ -24,14 +23,9 @@ describe("password hashing runs off the event loop", () => {
     await sequelize.close();
   });
 
-  it("when twelve people sign in at once, then the main thread does less than half the work of twelve checks", async () => {
+  it("when twelve people sign in at once, then the twelve checks run in the password threads", async () => {
     const app = testApp(limitsOfItsOwn());
     const users = await Promise.all(Array.from({ length: 12 }, () => createTestUser("analyst")));
-    const hash = users[0].passwordHash!;
-    // What one cost-12 check costs on this machine, now: the stall a check on the main thread would cause.
-    const started = performance.now();
-    bcrypt.compareSync(TEST_PASSWORD, hash);
-    const oneCheckMs = performance.now() - started;
 
     const jobsBefore = passwordJobsDone();
     const statuses: number[] = [];
@@ -47,10 +41,9 @@ describe("password hashing runs off the event loop", () => {
     );
     expect(statuses).toEqual(Array(12).fill(200));
     expect(passwordJobsDone() - jobsBefore).toBe(12);
-    // On the main thread the twelve checks alone would keep it busy for 12 × oneCheckMs; in the pool
-    // it only routes the requests and the database work. Logged to compare runs.
-    console.info(`sign-ins: main thread busy ${busyMs.toFixed(0)} ms; one check ${oneCheckMs.toFixed(0)} ms`);
-    expect(busyMs).toBeLessThan(6 * oneCheckMs);
+    // The pool counts the checks its threads finished: all twelve left the main thread. How busy the
+    // main thread was is logged to compare runs, not asserted (timings belong to the benchmarks).
+    console.info(`sign-ins: main thread busy ${busyMs.toFixed(0)} ms`);
   });
 
   it("when a password is wrong, then the check in the pool says so", async () => {

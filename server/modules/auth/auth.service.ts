@@ -16,7 +16,7 @@ const DUMMY_HASH = "$2b$12$oCr/2hbF00ueDRp4ozjaVeNBas.cDdWCFyiWGL/lJSbbD4215YFu.
 
 const WRONG_CREDENTIALS = "The e-mail address or password is not correct.";
 
-export function toSessionUser(user: UserModel): SessionUser {
+export function toSessionUser(user: Pick<UserModel, "id" | "email" | "name" | "role">): SessionUser {
   return { id: user.id, email: user.email, name: user.name, role: user.role };
 }
 
@@ -58,7 +58,11 @@ export async function resolveSession(
 ): Promise<{ user: SessionUser } | { reason: string; genuine: boolean }> {
   const verified = verifySessionToken(token);
   if (!verified.ok) return { reason: verified.reason, genuine: /expired/i.test(verified.reason) };
-  const user = await UserModel.findByPk(verified.userId);
+  // Every signed-in request reads this row: only the columns the check needs, as plain values.
+  const user = await UserModel.findByPk(verified.userId, {
+    attributes: ["id", "email", "name", "role", "disabled", "tokenVersion"],
+    raw: true,
+  });
   if (!user) return { reason: "user no longer exists", genuine: true };
   if (user.disabled) return { reason: "account disabled", genuine: true };
   if (user.tokenVersion !== verified.tokenVersion) return { reason: "session revoked", genuine: true };

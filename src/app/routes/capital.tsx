@@ -1,5 +1,4 @@
 import { Link, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
-import { EntitySelect } from "@/components/ui/entity-select";
 import { keepPreviousData, useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import { SIGNED_OFF } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
@@ -15,9 +14,10 @@ import { WhatIfForm } from "@/features/capital/components/what-if-form";
 import { FrtbAggregation } from "@/features/capital/components/frtb-aggregation";
 import { RollOffTable } from "@/components/ui/roll-off-table";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { entityOf } from "@/lib/entity-choice";
 
 const isoDate = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -26,23 +26,12 @@ function screenParams(search: URLSearchParams): { entity?: string; date?: string
   return { entity: search.get("entity")?.trim() || undefined, date: date && isoDate.test(date) ? date : undefined };
 }
 
-/**
- * The entity the address names, matched ignoring case ("lks-eu" is LKS-EU); the matched entity's own
- * code is what is sent and cached, so the server and every key see one spelling. Without a match the
- * code is sent as written and the server says it does not know it.
- */
-function matchedEntity(entities: readonly { code: string }[], asked: string | undefined): string | undefined {
-  const code = asked ?? entities[0]?.code;
-  if (code === undefined) return undefined;
-  return entities.find((e) => e.code.toUpperCase() === code.toUpperCase())?.code ?? code;
-}
-
 export const clientLoader =
   (queryClient: QueryClient) =>
   async ({ request }: LoaderFunctionArgs) => {
     const { entity, date } = screenParams(new URL(request.url).searchParams);
     const entities = await queryClient.ensureQueryData(entityQueries.all());
-    const code = matchedEntity(entities, entity);
+    const code = entityOf(entities, entity);
     // No data yet, or a refused date, is said inside the screen rather than instead of it.
     if (code)
       await Promise.all([
@@ -81,7 +70,7 @@ export default function CapitalRoute() {
   const navigate = useNavigate();
   const params = screenParams(search);
   const role = user!.role;
-  const entity = matchedEntity(entities, params.entity) ?? "";
+  const entity = entityOf(entities, params.entity);
   const current = entities.find((e) => e.code === entity);
 
   const history = useQuery({ ...capitalQueries.history(entity), enabled: entity !== "" });
@@ -119,18 +108,9 @@ export default function CapitalRoute() {
 
   return (
     <section aria-labelledby="capital-title" className="flex flex-col gap-6">
-      <PageTitle>{paths.capital.label}</PageTitle>
-      <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
-        <div className="flex flex-col gap-1">
-          <h1 id="capital-title">Capital{current ? `: ${current.name}` : ""}</h1>
-          <p className="text-sm text-ink-muted">{intro[role]}</p>
-        </div>
-        <EntitySelect
-          entities={entities}
-          value={current?.code ?? entity}
-          onChoose={(code) => navigate(paths.capital.href({ entity: code }))}
-        />
-      </header>
+      <EntityScreenHeader screen={paths.capital} titleId="capital-title" entities={entities} entity={entity}>
+        {intro[role]}
+      </EntityScreenHeader>
       {entities.length === 0 ? (
         <EmptyState title="No legal entities are set up yet">
           An administrator adds the entities; their capital figures appear here once they have data.

@@ -8,20 +8,15 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { noticeQueries } from "@/features/notices/api/notice-queries";
 import { NoticeDetail } from "@/features/notices/components/notice-detail";
 import { NoticeListTable } from "@/features/notices/components/notice-list-table";
-import { EntitySelect } from "@/components/ui/entity-select";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
+import { entityOf } from "@/lib/entity-choice";
 import { plural } from "@/lib/format";
 
 /** Only entities under the EU rule set notify overshootings (docs/rules.md#overshooting-notice). */
 const euOf = (entities: readonly Entity[]) => entities.filter((e) => e.regime === "eu");
-
-function entityOf(entities: readonly { code: string }[], asked: string | null): string {
-  const code = asked?.trim() || entities[0]?.code || "";
-  return entities.find((e) => e.code.toUpperCase() === code.toUpperCase())?.code ?? code;
-}
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -57,18 +52,16 @@ export default function NoticesRoute() {
 
   return (
     <section aria-labelledby="notices-title" className="flex flex-col gap-5">
-      <PageTitle>{paths.notices.label}</PageTitle>
-      <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
-        <div className="flex flex-col gap-1">
-          <h1 id="notices-title">Overshooting notices{current ? `: ${current.name}` : ""}</h1>
-          <p className="max-w-3xl text-sm text-ink-muted">{intro[role]}</p>
-        </div>
-        <EntitySelect
-          entities={entities}
-          value={current?.code ?? entity}
-          onChoose={(code) => navigate(paths.notices.href({ entity: code }))}
-        />
-      </header>
+      <EntityScreenHeader
+        screen={paths.notices}
+        titleId="notices-title"
+        title="Overshooting notices"
+        entities={entities}
+        entity={entity}
+        introClassName="max-w-3xl"
+      >
+        {intro[role]}
+      </EntityScreenHeader>
       {entities.length === 0 ? (
         <EmptyState title="No entity reports under the EU rule set">
           Overshooting notices concern EU entities only; the other rule sets ask for none.

@@ -1,5 +1,4 @@
-import { useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
-import { EntitySelect } from "@/components/ui/entity-select";
+import { useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
@@ -11,15 +10,11 @@ import { SettingsDecision } from "@/features/settings/components/settings-decisi
 import { ProposeSettingsForm } from "@/features/settings/components/propose-settings-form";
 import { settingsSummary } from "@/features/settings/words";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
+import { entityOf } from "@/lib/entity-choice";
 import { plural } from "@/lib/format";
-
-function entityOf(entities: readonly { code: string }[], asked: string | null): string {
-  const code = asked?.trim() || entities[0]?.code || "";
-  return entities.find((e) => e.code.toUpperCase() === code.toUpperCase())?.code ?? code;
-}
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -44,7 +39,6 @@ export default function SettingsRoute() {
   const { data: user } = useSuspenseQuery(authQueries.me());
   const { data: entities } = useSuspenseQuery(entityQueries.all());
   const [search] = useSearchParams();
-  const navigate = useNavigate();
   const role = user!.role;
   const entity = entityOf(entities, search.get("entity"));
   const current = entities.find((e) => e.code === entity);
@@ -55,18 +49,9 @@ export default function SettingsRoute() {
 
   return (
     <section aria-labelledby="settings-title" className="flex flex-col gap-6">
-      <PageTitle>{paths.settings.label}</PageTitle>
-      <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
-        <div className="flex flex-col gap-1">
-          <h1 id="settings-title">Supervisory settings{current ? `: ${current.name}` : ""}</h1>
-          <p className="text-sm text-ink-muted">{intro[role]}</p>
-        </div>
-        <EntitySelect
-          entities={entities}
-          value={current?.code ?? entity}
-          onChoose={(code) => navigate(paths.settings.href({ entity: code }))}
-        />
-      </header>
+      <EntityScreenHeader screen={paths.settings} titleId="settings-title" entities={entities} entity={entity}>
+        {intro[role]}
+      </EntityScreenHeader>
       {entities.length === 0 ? (
         <EmptyState title="No legal entities are set up yet">
           An administrator adds the entities; their supervisory settings are kept here.

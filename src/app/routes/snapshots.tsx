@@ -1,5 +1,4 @@
 import { useEffect } from "react";
-import { EntitySelect } from "@/components/ui/entity-select";
 import { redirect, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useQuery, useQueryClient, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import { quarterLabel } from "@shared/backtest/quarters";
@@ -20,7 +19,7 @@ import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 
@@ -188,18 +187,9 @@ export default function SnapshotsRoute() {
 
   return (
     <section aria-labelledby="quarters-title" className="flex flex-col gap-5">
-      <PageTitle>{paths.snapshots.label}</PageTitle>
-      <header className="flex flex-wrap items-end justify-between gap-4 border-b border-rule pb-3">
-        <div className="flex flex-col gap-1">
-          <h1 id="quarters-title">Quarter close</h1>
-          <p className="text-sm text-ink-muted">{intro[role]}</p>
-        </div>
-        <EntitySelect
-          entities={entities}
-          value={entity}
-          onChoose={(code) => navigate(paths.snapshots.href({ entity: code }))}
-        />
-      </header>
+      <EntityScreenHeader screen={paths.snapshots} titleId="quarters-title" plain entities={entities} entity={entity}>
+        {intro[role]}
+      </EntityScreenHeader>
       {entities.length === 0 ? (
         <EmptyState title="No legal entities are set up yet">
           An administrator adds the entities; their quarters can be closed here once they have data.

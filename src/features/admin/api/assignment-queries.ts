@@ -1,29 +1,23 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
 import { assignmentListSchema } from "@shared/schemas/assignment";
 import { api } from "@/lib/api-client";
+import { getQuery, useRefreshingMutation } from "@/lib/queries";
 
 export const assignmentQueries = {
   root: () => ["regulator-assignments"] as const,
-  all: () =>
-    queryOptions({
-      queryKey: [...assignmentQueries.root(), "list"] as const,
-      queryFn: () => api.get("/api/regulator-assignments", assignmentListSchema),
-    }),
+  all: () => getQuery([...assignmentQueries.root(), "list"], "/api/regulator-assignments", assignmentListSchema),
 };
 
 export function useAddAssignment() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: { userId: number; entityCode: string }) => api.post("/api/regulator-assignments", body),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: assignmentQueries.root() }),
-  });
+  return useRefreshingMutation(
+    (body: { userId: number; entityCode: string }) => api.post("/api/regulator-assignments", body),
+    { queryKey: assignmentQueries.root() },
+  );
 }
 
 export function useRemoveAssignment() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: ({ userId, entityCode }: { userId: number; entityCode: string }) =>
+  return useRefreshingMutation(
+    ({ userId, entityCode }: { userId: number; entityCode: string }) =>
       api.del(`/api/regulator-assignments/${userId}/${encodeURIComponent(entityCode)}`),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: assignmentQueries.root() }),
-  });
+    { queryKey: assignmentQueries.root() },
+  );
 }

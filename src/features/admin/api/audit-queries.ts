@@ -1,6 +1,7 @@
-import { keepPreviousData, queryOptions } from "@tanstack/react-query";
+import { keepPreviousData } from "@tanstack/react-query";
 import { auditPageSchema } from "@shared/schemas/audit";
-import { api, withQuery } from "@/lib/api-client";
+import { withQuery } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 export const AUDIT_PAGE_SIZE = 50;
 
@@ -11,25 +12,21 @@ export type AuditPageParams = AuditFilter & { page: number };
 export const auditQueries = {
   root: () => ["audit-events"] as const,
   page: ({ page, action, actor, from, to }: AuditPageParams) =>
-    queryOptions({
-      queryKey: [
+    getQuery(
+      [
         ...auditQueries.root(),
         "page",
         { page, action: action ?? "", actor: actor ?? "", from: from ?? "", to: to ?? "" },
-      ] as const,
-      queryFn: () =>
-        api.get(
-          withQuery("/api/audit-events", {
-            limit: AUDIT_PAGE_SIZE,
-            offset: (page - 1) * AUDIT_PAGE_SIZE,
-            action,
-            actor,
-            from,
-            to,
-          }),
-          auditPageSchema,
-        ),
-      placeholderData: keepPreviousData,
-      staleTime: 5_000,
-    }),
+      ],
+      withQuery("/api/audit-events", {
+        limit: AUDIT_PAGE_SIZE,
+        offset: (page - 1) * AUDIT_PAGE_SIZE,
+        action,
+        actor,
+        from,
+        to,
+      }),
+      auditPageSchema,
+      { placeholderData: keepPreviousData, staleTime: 5_000 },
+    ),
 };

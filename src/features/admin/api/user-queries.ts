@@ -1,4 +1,4 @@
-import { queryOptions, useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
 import { z } from "zod";
 import {
   createUserResultSchema,
@@ -14,27 +14,16 @@ import {
   type User,
 } from "@shared/schemas/user";
 import { api, staleCurrent } from "@/lib/api-client";
+import { getQuery, useRefreshingMutation } from "@/lib/queries";
 import { assignmentQueries } from "./assignment-queries";
 
 export const userQueries = {
   root: () => ["users"] as const,
-  all: () =>
-    queryOptions({
-      queryKey: [...userQueries.root(), "list"] as const,
-      queryFn: () => api.get("/api/users", userListSchema),
-    }),
+  all: () => getQuery([...userQueries.root(), "list"], "/api/users", userListSchema),
   /** Set-password links not used yet (open or expired). */
-  invitations: () =>
-    queryOptions({
-      queryKey: [...userQueries.root(), "invitations"] as const,
-      queryFn: () => api.get("/api/invitations", pendingInvitationListSchema),
-    }),
+  invitations: () => getQuery([...userQueries.root(), "invitations"], "/api/invitations", pendingInvitationListSchema),
   /** Grants and removals of the CRO or administrator role waiting for a second administrator. */
-  roleRequests: () =>
-    queryOptions({
-      queryKey: [...userQueries.root(), "role-requests"] as const,
-      queryFn: () => api.get("/api/role-requests", roleRequestListSchema),
-    }),
+  roleRequests: () => getQuery([...userQueries.root(), "role-requests"], "/api/role-requests", roleRequestListSchema),
 };
 
 /** The user as it now stands, from a 409 `stale` refusal (`details.current`): someone else changed them first. */
@@ -58,10 +47,8 @@ function showCurrentState(queryClient: QueryClient, error: unknown) {
 }
 
 export function useCreateUser() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: CreateUserBody) => api.post("/api/users", body, createUserResultSchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
+  return useRefreshingMutation((body: CreateUserBody) => api.post("/api/users", body, createUserResultSchema), {
+    queryKey: userQueries.root(),
   });
 }
 
@@ -98,10 +85,8 @@ export function useSendPasswordLink() {
 
 /** Unlocks an account locked out by failed sign-ins; the person may try again at once. */
 export function useUnlockUser() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (id: number) => api.post(`/api/users/${id}/unlock`, {}, userSchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: userQueries.root() }),
+  return useRefreshingMutation((id: number) => api.post(`/api/users/${id}/unlock`, {}, userSchema), {
+    queryKey: userQueries.root(),
   });
 }
 

@@ -8,6 +8,7 @@ import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
 import { useDecideRoleRequest } from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
+import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
 
 type Decision = { id: number; decision: "approve" | "reject" };
 
@@ -59,9 +60,7 @@ export function RoleRequestsTable({ requests, currentUserId }: { requests: RoleR
             <Th>Change</Th>
             <Th>Proposed by</Th>
             <Th numeric>Proposed</Th>
-            <Th>
-              <span className="sr-only">Decision</span>
-            </Th>
+            <ActionsTh label="Decision" />
           </tr>
         </thead>
         <tbody>
@@ -111,29 +110,27 @@ export function RoleRequestsTable({ requests, currentUserId }: { requests: RoleR
                   </Td>
                 </Tr>
                 {asking?.id === r.id && (
-                  <tr>
-                    <td colSpan={5} className="border-b border-rule bg-paper-sunk/50 px-2 py-2">
-                      <Confirmation
-                        label={`${asking.decision === "approve" ? "Approve" : "Reject"} the request for ${r.name}`}
-                        text={consequence(r, asking.decision)}
-                        confirm={asking.decision === "approve" ? "Approve change" : "Reject request"}
-                        danger={asking.decision === "reject"}
-                        busy={decide.isPending}
-                        onCancel={() => setAsking(null)}
-                        onConfirm={() =>
-                          decide.mutate(asking, {
-                            onSuccess: (done) =>
-                              setNotice(
-                                done.status === "approved"
-                                  ? `Approved: ${done.name} is now ${roleLabels[done.toRole]}${done.kind === "invite" ? "; the invitation went out" : ""}.`
-                                  : `Rejected: ${done.name}'s role stays as it was.`,
-                              ),
-                            onSettled: () => setAsking(null),
-                          })
-                        }
-                      />
-                    </td>
-                  </tr>
+                  <OpenedRow colSpan={5}>
+                    <Confirmation
+                      label={`${asking.decision === "approve" ? "Approve" : "Reject"} the request for ${r.name}`}
+                      text={consequence(r, asking.decision)}
+                      confirm={asking.decision === "approve" ? "Approve change" : "Reject request"}
+                      danger={asking.decision === "reject"}
+                      busy={decide.isPending}
+                      onCancel={() => setAsking(null)}
+                      onConfirm={() =>
+                        decide.mutate(asking, {
+                          onSuccess: (done) =>
+                            setNotice(
+                              done.status === "approved"
+                                ? `Approved: ${done.name} is now ${roleLabels[done.toRole]}${done.kind === "invite" ? "; the invitation went out" : ""}.`
+                                : `Rejected: ${done.name}'s role stays as it was.`,
+                            ),
+                          onSettled: () => setAsking(null),
+                        })
+                      }
+                    />
+                  </OpenedRow>
                 )}
               </Fragment>
             );

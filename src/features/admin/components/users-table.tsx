@@ -16,6 +16,7 @@ import {
   useUpdateUser,
 } from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
+import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
 
 type Pending =
   | { userId: number; kind: "role"; role: Role }
@@ -75,6 +76,14 @@ export function UsersTable({
     propose.reset();
     sendLink.reset();
     unlock.reset();
+  }
+
+  type Step = "link" | "disable" | "unlock";
+  const isOpen = (u: User, kind: Step) => pending?.userId === u.id && pending.kind === kind;
+  /** Opens the confirmation of one step on one user, or closes it when it is open already. */
+  function toggle(u: User, kind: Step) {
+    resetAll();
+    setPending(isOpen(u, kind) ? null : { userId: u.id, kind });
   }
 
   function confirmUnlock(u: User) {
@@ -142,9 +151,7 @@ export function UsersTable({
             <Th>Role</Th>
             <Th>Status</Th>
             <Th numeric>Last sign-in</Th>
-            <Th>
-              <span className="sr-only">Actions</span>
-            </Th>
+            <ActionsTh />
           </tr>
         </thead>
         <tbody>
@@ -206,15 +213,8 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`Unlock ${u.name}`}
-                          aria-expanded={pending?.userId === u.id && pending.kind === "unlock"}
-                          onClick={() => {
-                            resetAll();
-                            setPending(
-                              pending?.userId === u.id && pending.kind === "unlock"
-                                ? null
-                                : { userId: u.id, kind: "unlock" },
-                            );
-                          }}
+                          aria-expanded={isOpen(u, "unlock")}
+                          onClick={() => toggle(u, "unlock")}
                         >
                           Unlock
                         </Button>
@@ -225,15 +225,8 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`${u.passwordSet ? "Send reset link to" : "Invite again:"} ${u.name}`}
-                          aria-expanded={pending?.userId === u.id && pending.kind === "link"}
-                          onClick={() => {
-                            resetAll();
-                            setPending(
-                              pending?.userId === u.id && pending.kind === "link"
-                                ? null
-                                : { userId: u.id, kind: "link" },
-                            );
-                          }}
+                          aria-expanded={isOpen(u, "link")}
+                          onClick={() => toggle(u, "link")}
                         >
                           {u.passwordSet ? "Send reset link" : "Invite again"}
                         </Button>
@@ -244,18 +237,11 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`${u.disabled ? "Enable" : "Disable"} ${u.name}`}
-                          aria-expanded={
-                            u.disabled ? undefined : pending?.userId === u.id && pending.kind === "disable"
-                          }
+                          aria-expanded={u.disabled ? undefined : isOpen(u, "disable")}
                           onClick={() => {
                             if (u.disabled) return change(u, { disabled: false }, `${u.name} can sign in again.`);
                             // Disabling ends the person's sessions at once: it asks first, saying so.
-                            resetAll();
-                            setPending(
-                              pending?.userId === u.id && pending.kind === "disable"
-                                ? null
-                                : { userId: u.id, kind: "disable" },
-                            );
+                            toggle(u, "disable");
                           }}
                         >
                           {u.disabled ? "Enable" : "Disable"}
@@ -265,56 +251,54 @@ export function UsersTable({
                   </Td>
                 </Tr>
                 {pending?.userId === u.id && (
-                  <tr>
-                    <td colSpan={6} className="border-b border-rule bg-paper-sunk/50 px-2 py-2">
-                      {pending.kind === "role" ? (
-                        <Confirmation
-                          label={`Change the role of ${u.name}`}
-                          text={roleConsequence(u, pending.role)}
-                          confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
-                          busy={busy}
-                          onConfirm={() => confirmRole(u, pending.role)}
-                          onCancel={() => setPending(null)}
-                        />
-                      ) : pending.kind === "unlock" ? (
-                        <Confirmation
-                          label={`Unlock ${u.name}`}
-                          text={`Unlock ${u.name}? Their failed sign-ins are forgotten and they can try again at once. Do it only once you know the attempts were theirs; the limit per address stays in force.`}
-                          confirm="Unlock the account"
-                          busy={busy}
-                          onConfirm={() => confirmUnlock(u)}
-                          onCancel={() => setPending(null)}
-                        />
-                      ) : pending.kind === "disable" ? (
-                        <Confirmation
-                          label={`Disable ${u.name}`}
-                          text={`Disable ${u.name}? They can no longer sign in, their open sessions end at once${
-                            u.role === "treasury" ? " and their API tokens are revoked for good" : ""
-                          }. An administrator can enable them again later.`}
-                          confirm="Disable the account"
-                          danger
-                          busy={busy}
-                          onConfirm={() =>
-                            change(u, { disabled: true }, `${u.name} can no longer sign in; open sessions have ended.`)
-                          }
-                          onCancel={() => setPending(null)}
-                        />
-                      ) : (
-                        <Confirmation
-                          label={`Send a link to ${u.name}`}
-                          text={
-                            u.passwordSet
-                              ? `Send ${u.name} a link to set a new password? It goes to ${u.email}; their current password keeps working until they use it, and any earlier link stops working.`
-                              : `Send ${u.name} a new invitation? It goes to ${u.email}; the earlier link stops working.`
-                          }
-                          confirm="Send link"
-                          busy={busy}
-                          onConfirm={() => confirmLink(u)}
-                          onCancel={() => setPending(null)}
-                        />
-                      )}
-                    </td>
-                  </tr>
+                  <OpenedRow colSpan={6}>
+                    {pending.kind === "role" ? (
+                      <Confirmation
+                        label={`Change the role of ${u.name}`}
+                        text={roleConsequence(u, pending.role)}
+                        confirm={needsSecondAdmin(u.role, pending.role) ? "Propose change" : "Change role"}
+                        busy={busy}
+                        onConfirm={() => confirmRole(u, pending.role)}
+                        onCancel={() => setPending(null)}
+                      />
+                    ) : pending.kind === "unlock" ? (
+                      <Confirmation
+                        label={`Unlock ${u.name}`}
+                        text={`Unlock ${u.name}? Their failed sign-ins are forgotten and they can try again at once. Do it only once you know the attempts were theirs; the limit per address stays in force.`}
+                        confirm="Unlock the account"
+                        busy={busy}
+                        onConfirm={() => confirmUnlock(u)}
+                        onCancel={() => setPending(null)}
+                      />
+                    ) : pending.kind === "disable" ? (
+                      <Confirmation
+                        label={`Disable ${u.name}`}
+                        text={`Disable ${u.name}? They can no longer sign in, their open sessions end at once${
+                          u.role === "treasury" ? " and their API tokens are revoked for good" : ""
+                        }. An administrator can enable them again later.`}
+                        confirm="Disable the account"
+                        danger
+                        busy={busy}
+                        onConfirm={() =>
+                          change(u, { disabled: true }, `${u.name} can no longer sign in; open sessions have ended.`)
+                        }
+                        onCancel={() => setPending(null)}
+                      />
+                    ) : (
+                      <Confirmation
+                        label={`Send a link to ${u.name}`}
+                        text={
+                          u.passwordSet
+                            ? `Send ${u.name} a link to set a new password? It goes to ${u.email}; their current password keeps working until they use it, and any earlier link stops working.`
+                            : `Send ${u.name} a new invitation? It goes to ${u.email}; the earlier link stops working.`
+                        }
+                        confirm="Send link"
+                        busy={busy}
+                        onConfirm={() => confirmLink(u)}
+                        onCancel={() => setPending(null)}
+                      />
+                    )}
+                  </OpenedRow>
                 )}
               </Fragment>
             );

@@ -1,14 +1,13 @@
-import { useRef, useState, type FormEvent } from "react";
+import type { FormEvent } from "react";
 import {
   API_TOKEN_DEFAULT_DAYS,
   API_TOKEN_MAX_DAYS,
   createApiTokenBodySchema,
   type CreatedApiToken,
 } from "@shared/schemas/api-token";
-import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
-import { fieldErrorsOf } from "@/lib/api-client";
-import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
+import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
+import { formLevelMessage } from "@/lib/form";
 import { useCreateApiToken } from "../api/api-token-queries";
 
 const empty = { name: "", expiresInDays: String(API_TOKEN_DEFAULT_DAYS) };
@@ -22,35 +21,21 @@ function daysOf(text: string): number | string {
 /** Names a new token and how long it lives; checked with the server's own schema before anything is sent. */
 export function CreateTokenForm({ onCreated }: { onCreated: (token: CreatedApiToken) => void }) {
   const create = useCreateApiToken();
-  const formRef = useRef<HTMLFormElement>(null);
-  const [values, setValues] = useState(empty);
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const set = (k: keyof typeof empty) => (e: { target: { value: string } }) =>
-    setValues((v) => ({ ...v, [k]: e.target.value }));
+  const { formRef, values, setValues, check, send, field } = useFormKit(empty);
 
   function submit(e: FormEvent) {
     e.preventDefault();
     create.reset();
-    const r = validate(createApiTokenBodySchema, { name: values.name, expiresInDays: daysOf(values.expiresInDays) });
-    if (!r.ok) {
-      setErrors(
-        typeof daysOf(values.expiresInDays) === "string" && r.errors.expiresInDays
-          ? { ...r.errors, expiresInDays: "Enter a number of days" }
-          : r.errors,
-      );
-      focusFirstInvalid(formRef.current);
-      return;
-    }
-    setErrors({});
-    create.mutate(r.data, {
-      onSuccess: (token) => {
-        setValues(empty);
-        onCreated(token);
-      },
-      onError: (err) => {
-        setErrors(fieldErrorsOf(err));
-        focusFirstInvalid(formRef.current);
-      },
+    const days = daysOf(values.expiresInDays);
+    const data = check(createApiTokenBodySchema, { name: values.name, expiresInDays: days }, (errors) =>
+      typeof days === "string" && errors.expiresInDays
+        ? { ...errors, expiresInDays: "Enter a number of days" }
+        : errors,
+    );
+    if (!data) return;
+    send(create, data, (token) => {
+      setValues(empty);
+      onCreated(token);
     });
   }
 
@@ -67,30 +52,24 @@ export function CreateTokenForm({ onCreated }: { onCreated: (token: CreatedApiTo
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
         <TextField
           label="Name"
-          name="name"
           autoComplete="off"
-          value={values.name}
-          onChange={set("name")}
-          error={errors.name}
+          {...field("name")}
           hint="What the script does or where it runs, e.g. “Monthly capital pack, finance server”."
         />
         <TextField
           label="Valid for (days)"
-          name="expiresInDays"
           type="number"
           inputMode="numeric"
           min={1}
           max={API_TOKEN_MAX_DAYS}
-          value={values.expiresInDays}
-          onChange={set("expiresInDays")}
-          error={errors.expiresInDays}
+          {...field("expiresInDays")}
           hint={`1 to ${API_TOKEN_MAX_DAYS} days. Shorter is safer; make a new token when it runs out.`}
         />
       </div>
       <div>
-        <Button type="submit" disabled={create.isPending}>
-          {create.isPending ? "Creating…" : "Create token"}
-        </Button>
+        <SubmitButton pending={create.isPending} busyLabel="Creating…">
+          Create token
+        </SubmitButton>
       </div>
     </form>
   );

@@ -4,6 +4,7 @@ import type { ApiToken, ApiTokenStatus } from "@shared/schemas/api-token";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
@@ -93,9 +94,7 @@ export function TokensTable({ tokens }: { tokens: ApiToken[] }) {
             <Th numeric>Last used</Th>
             <Th numeric>Expires</Th>
             <Th>Status</Th>
-            <Th>
-              <span className="sr-only">Actions</span>
-            </Th>
+            <ActionsTh />
           </tr>
         </thead>
         <tbody>
@@ -140,11 +139,9 @@ export function TokensTable({ tokens }: { tokens: ApiToken[] }) {
                 </Td>
               </Tr>
               {confirmFor === t.id && (
-                <tr>
-                  <td colSpan={7} className="border-b border-rule bg-paper-sunk/50 px-2 py-2">
-                    <RevokeConfirmation token={t} onClose={(message) => close(t.id, message)} />
-                  </td>
-                </tr>
+                <OpenedRow colSpan={7}>
+                  <RevokeConfirmation token={t} onClose={(message) => close(t.id, message)} />
+                </OpenedRow>
               )}
             </Fragment>
           ))}

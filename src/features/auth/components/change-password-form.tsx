@@ -1,48 +1,41 @@
 import { useRef, useState, type FormEvent } from "react";
 import type { SessionUser } from "@shared/schemas/auth";
-import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
+import { SubmitButton } from "@/components/ui/form-kit";
 import { fieldErrorsOf } from "@/lib/api-client";
 import { focusFirstInvalid, formLevelMessage } from "@/lib/form";
 import { useChangePassword } from "../api/auth-queries";
-import { usePasswordVerdict } from "../password-rule";
-import { NewPasswordFields, newPasswordErrors } from "./new-password-fields";
-
-type Errors = { currentPassword?: string; password?: string; repeat?: string };
+import { NewPasswordFields, useNewPassword } from "./new-password-fields";
 
 /** Changes one's own password: the current one, then the new one twice. Other sessions end. */
 export function ChangePasswordForm({ user }: { user: SessionUser }) {
   const change = useChangePassword();
   const formRef = useRef<HTMLFormElement>(null);
   const [current, setCurrent] = useState("");
-  const [password, setPassword] = useState("");
-  const [repeat, setRepeat] = useState("");
-  const [errors, setErrors] = useState<Errors>({});
+  const [currentError, setCurrentError] = useState<string>();
   const [done, setDone] = useState<string>();
-  const verdict = usePasswordVerdict(password, user);
+  const newPassword = useNewPassword(user);
 
   function submit(e: FormEvent) {
     e.preventDefault();
     setDone(undefined);
     change.reset();
-    const found: Errors = {
-      ...(current ? {} : { currentPassword: "Enter your current password" }),
-      ...newPasswordErrors(password, repeat, verdict),
-    };
-    setErrors(found);
-    if (Object.keys(found).length) return focusFirstInvalid(formRef.current);
+    const missing = current ? undefined : "Enter your current password";
+    setCurrentError(missing);
+    const found = newPassword.check();
+    if (missing || Object.keys(found).length) return focusFirstInvalid(formRef.current);
     change.mutate(
-      { currentPassword: current, newPassword: password },
+      { currentPassword: current, newPassword: newPassword.password },
       {
         onSuccess: () => {
           setCurrent("");
-          setPassword("");
-          setRepeat("");
+          newPassword.clear();
           setDone("Your password is changed. You stay signed in here; every other session of yours has ended.");
         },
         onError: (err) => {
           const f = fieldErrorsOf(err);
-          setErrors({ currentPassword: f.currentPassword, password: f.newPassword });
+          setCurrentError(f.currentPassword);
+          newPassword.setErrors({ password: f.newPassword });
           focusFirstInvalid(formRef.current);
         },
       },
@@ -67,26 +60,13 @@ export function ChangePasswordForm({ user }: { user: SessionUser }) {
         autoComplete="current-password"
         value={current}
         onChange={(e) => setCurrent(e.target.value)}
-        error={errors.currentPassword}
+        error={currentError}
       />
-      <NewPasswordFields
-        password={password}
-        repeat={repeat}
-        onPassword={(v) => {
-          setPassword(v);
-          setErrors((e) => ({ ...e, password: undefined })); // the live verdict takes over again
-        }}
-        onRepeat={(v) => {
-          setRepeat(v);
-          setErrors((e) => ({ ...e, repeat: undefined }));
-        }}
-        verdict={verdict}
-        errors={errors}
-      />
+      <NewPasswordFields {...newPassword.fields} />
       <div>
-        <Button type="submit" disabled={change.isPending}>
-          {change.isPending ? "Changing…" : "Change password"}
-        </Button>
+        <SubmitButton pending={change.isPending} busyLabel="Changing…">
+          Change password
+        </SubmitButton>
       </div>
     </form>
   );

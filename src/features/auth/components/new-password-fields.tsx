@@ -1,7 +1,11 @@
+import { useState } from "react";
+import type { PasswordOwner } from "@shared/password/policy";
 import { TextField } from "@/components/ui/field";
 import { cn } from "@/lib/cn";
 import type { PasswordVerdict } from "../password-rule";
-import { verdictHint } from "../password-rule";
+import { usePasswordVerdict, verdictHint } from "../password-rule";
+
+type NewPasswordErrors = { password?: string; repeat?: string };
 
 /** A new password and its repetition; the line under the first says, as one types, what the rule thinks of it. */
 export function NewPasswordFields({
@@ -17,7 +21,7 @@ export function NewPasswordFields({
   onPassword: (v: string) => void;
   onRepeat: (v: string) => void;
   verdict: PasswordVerdict;
-  errors: { password?: string; repeat?: string };
+  errors: NewPasswordErrors;
 }) {
   return (
     <>
@@ -53,13 +57,49 @@ export function NewPasswordFields({
 }
 
 /** What stops the form before it is sent: the rule's own message, or two entries that differ. */
-export function newPasswordErrors(
-  password: string,
-  repeat: string,
-  verdict: PasswordVerdict,
-): { password?: string; repeat?: string } {
+export function newPasswordErrors(password: string, repeat: string, verdict: PasswordVerdict): NewPasswordErrors {
   if (!password) return { password: "Enter a new password" };
   if (verdict.state === "weak") return { password: verdict.message };
   if (password !== repeat) return { repeat: "The two entries differ" };
   return {};
+}
+
+/**
+ * The state behind NewPasswordFields: the two entries, the live verdict on the first and the errors
+ * beside them. Typing into a field takes its error away: for the password the live verdict takes over again.
+ */
+export function useNewPassword(owner: PasswordOwner | null) {
+  const [password, setPassword] = useState("");
+  const [repeat, setRepeat] = useState("");
+  const [errors, setErrors] = useState<NewPasswordErrors>({});
+  const verdict = usePasswordVerdict(password, owner);
+  return {
+    password,
+    setErrors,
+    /** Shows and returns what stops the form before it is sent. */
+    check() {
+      const found = newPasswordErrors(password, repeat, verdict);
+      setErrors(found);
+      return found;
+    },
+    clear() {
+      setPassword("");
+      setRepeat("");
+    },
+    /** The props of NewPasswordFields. */
+    fields: {
+      password,
+      repeat,
+      verdict,
+      errors,
+      onPassword: (v: string) => {
+        setPassword(v);
+        setErrors((e) => ({ ...e, password: undefined }));
+      },
+      onRepeat: (v: string) => {
+        setRepeat(v);
+        setErrors((e) => ({ ...e, repeat: undefined }));
+      },
+    },
+  };
 }

@@ -1,10 +1,9 @@
-import { useId, useMemo, useState } from "react";
+import { useMemo, useState } from "react";
 import {
   CartesianGrid,
   ComposedChart,
   Line,
   ReferenceArea,
-  ResponsiveContainer,
   Scatter,
   Tooltip,
   XAxis,
@@ -13,6 +12,7 @@ import {
 } from "recharts";
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/observation";
+import { ChartFigure, ChartKey, KeyItem, chartLook } from "@/components/ui/chart-frame";
 import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
@@ -21,7 +21,7 @@ import { chartColours } from "@/styles/palette";
 
 type Series = "actual" | "hypothetical";
 
-const { ink, label: muted, grid: rule, accent, paper } = chartColours;
+const { ink, label: muted, accent, paper } = chartColours;
 const loss = chartColours.zone.red;
 
 type Point = {
@@ -94,8 +94,6 @@ export function PnlChart({
   width?: number;
 }) {
   const [series, setSeries] = useState<Series>(bt.pnlBasis === "hypothetical" ? "hypothetical" : "actual");
-  const titleId = useId();
-  const summaryId = useId();
   const days = useMemo(() => new Map(bt.exceptionDays.map((d) => [d.date, d])), [bt.exceptionDays]);
   const points = useMemo<Point[]>(
     () =>
@@ -119,11 +117,9 @@ export function PnlChart({
   const last = points.at(-1);
 
   return (
-    <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
-      <div className="flex flex-wrap items-baseline justify-between gap-3">
-        <figcaption id={titleId} className="text-sm font-medium text-ink">
-          Daily {label} against −VaR (99%, one day), {bt.entity.currency}
-        </figcaption>
+    <ChartFigure
+      caption={`Daily ${label} against −VaR (99%, one day), ${bt.entity.currency}`}
+      captionAside={
         <div role="group" aria-label="P&L series" className="inline-flex rounded-sm border border-rule-strong text-xs">
           {(["actual", "hypothetical"] as const).map((s) => (
             <button
@@ -140,106 +136,92 @@ export function PnlChart({
             </button>
           ))}
         </div>
-      </div>
-      <p id={summaryId} className="text-xs text-ink-muted">
-        {plural(observations.length, "business day", "business days")} from {observations[0]?.date ?? "—"} to{" "}
-        {last?.date ?? "—"}; the backtesting window {bt.window.start} to {bt.window.end} is shaded;{" "}
-        {plural(marked, "exception", "exceptions")} on {label} in the window are marked.
-        {last && (
-          <>
-            {" "}
-            On {last.date}: {label} {formatAmount(last.pnl, bt.entity.currency)} against a VaR of{" "}
-            {formatAmount(last.negVar === null ? null : -last.negVar, bt.entity.currency)}.
-          </>
-        )}
-      </p>
-      <div style={{ height: 300 }} className="w-full">
-        <ResponsiveContainer
-          width={width ?? "100%"}
-          height={300}
-          initialDimension={{ width: width ?? 960, height: 300 }}
-        >
-          <ComposedChart data={points} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
-            <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
-            {bt.window.start && bt.window.end && (
-              <ReferenceArea
-                x1={bt.window.start}
-                x2={bt.window.end}
-                fill={accent}
-                fillOpacity={0.06}
-                stroke="none"
-                label={{ value: "Backtesting window", position: "insideTopLeft", fill: muted, fontSize: 11 }}
-              />
-            )}
-            <XAxis
-              dataKey="date"
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={{ stroke: rule }}
-              minTickGap={48}
-              label={{ value: "Business date", position: "insideBottom", offset: -10, fill: muted, fontSize: 11 }}
+      }
+      summary={
+        <>
+          {plural(observations.length, "business day", "business days")} from {observations[0]?.date ?? "—"} to{" "}
+          {last?.date ?? "—"}; the backtesting window {bt.window.start} to {bt.window.end} is shaded;{" "}
+          {plural(marked, "exception", "exceptions")} on {label} in the window are marked.
+          {last && (
+            <>
+              {" "}
+              On {last.date}: {label} {formatAmount(last.pnl, bt.entity.currency)} against a VaR of{" "}
+              {formatAmount(last.negVar === null ? null : -last.negVar, bt.entity.currency)}.
+            </>
+          )}
+        </>
+      }
+      height={300}
+      width={width}
+      chart={
+        <ComposedChart data={points} margin={{ top: 8, right: 12, bottom: 18, left: 8 }}>
+          <CartesianGrid {...chartLook.grid} />
+          {bt.window.start && bt.window.end && (
+            <ReferenceArea
+              x1={bt.window.start}
+              x2={bt.window.end}
+              fill={accent}
+              fillOpacity={0.06}
+              stroke="none"
+              label={{ value: "Backtesting window", position: "insideTopLeft", fill: muted, fontSize: 11 }}
             />
-            <YAxis
-              tickFormatter={compactAmount}
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={false}
-              width={56}
-              label={{ value: bt.entity.currency, angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
-            />
-            <Tooltip content={(props) => <PnlTooltip {...props} currency={bt.entity.currency} />} />
-            <Line
-              type="linear"
-              dataKey="pnl"
-              name={series === "actual" ? "Actual P&L" : "Hypothetical P&L"}
-              stroke={ink}
-              strokeWidth={1}
-              dot={false}
-              isAnimationActive={false}
-              connectNulls={false}
-            />
-            <Line
-              type="stepAfter"
-              dataKey="negVar"
-              name="−VaR 99%"
-              stroke={accent}
-              strokeWidth={1.25}
-              dot={false}
-              isAnimationActive={false}
-            />
-            <Scatter dataKey="exception" name="Exception" fill={loss} shape={<Diamond />} isAnimationActive={false} />
-            <Scatter
-              dataKey="excluded"
-              name="Exception excluded by the supervisor"
-              fill={muted}
-              shape={<Cross />}
-              isAnimationActive={false}
-            />
-          </ComposedChart>
-        </ResponsiveContainer>
-      </div>
-      <ul className="flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-soft" aria-label="Chart key">
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-px w-4 bg-ink" />{" "}
+          )}
+          <XAxis dataKey="date" {...chartLook.xAxis("Business date")} minTickGap={48} />
+          <YAxis tickFormatter={compactAmount} {...chartLook.yAxis(bt.entity.currency, 56)} />
+          <Tooltip content={(props) => <PnlTooltip {...props} currency={bt.entity.currency} />} />
+          <Line
+            type="linear"
+            dataKey="pnl"
+            name={series === "actual" ? "Actual P&L" : "Hypothetical P&L"}
+            stroke={ink}
+            strokeWidth={1}
+            dot={false}
+            isAnimationActive={false}
+            connectNulls={false}
+          />
+          <Line
+            type="stepAfter"
+            dataKey="negVar"
+            name="−VaR 99%"
+            stroke={accent}
+            strokeWidth={1.25}
+            dot={false}
+            isAnimationActive={false}
+          />
+          <Scatter dataKey="exception" name="Exception" fill={loss} shape={<Diamond />} isAnimationActive={false} />
+          <Scatter
+            dataKey="excluded"
+            name="Exception excluded by the supervisor"
+            fill={muted}
+            shape={<Cross />}
+            isAnimationActive={false}
+          />
+        </ComposedChart>
+      }
+    >
+      <ChartKey>
+        <KeyItem sample={<span aria-hidden="true" className="inline-block h-px w-4 bg-ink" />}>
           {series === "actual" ? "Actual P&L" : "Hypothetical P&L"}
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-accent" /> −VaR 99%
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block size-2 rotate-45 border-[1.5px] border-zone-red" /> Exception
-          (loss beyond VaR)
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="font-semibold text-ink-muted">
-            ×
-          </span>{" "}
+        </KeyItem>
+        <KeyItem sample={<span aria-hidden="true" className="inline-block h-0.5 w-4 bg-accent" />}>−VaR 99%</KeyItem>
+        <KeyItem
+          sample={<span aria-hidden="true" className="inline-block size-2 rotate-45 border-[1.5px] border-zone-red" />}
+        >
+          Exception (loss beyond VaR)
+        </KeyItem>
+        <KeyItem
+          sample={
+            <span aria-hidden="true" className="font-semibold text-ink-muted">
+              ×
+            </span>
+          }
+        >
           Excluded by the supervisor
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-2.5 w-4 bg-accent/10" /> Current backtesting window
-        </li>
-      </ul>
+        </KeyItem>
+        <KeyItem sample={<span aria-hidden="true" className="inline-block h-2.5 w-4 bg-accent/10" />}>
+          Current backtesting window
+        </KeyItem>
+      </ChartKey>
       <FiguresDisclosure label={`Daily ${label} and VaR, ${bt.entity.currency}`}>
         {() => (
           <Table caption={`Daily ${label} against VaR (99%, one day), ${bt.entity.currency}, oldest first`}>
@@ -266,6 +248,6 @@ export function PnlChart({
           </Table>
         )}
       </FiguresDisclosure>
-    </figure>
+    </ChartFigure>
   );
 }

@@ -1,24 +1,14 @@
-import { useId } from "react";
-import {
-  CartesianGrid,
-  Line,
-  LineChart,
-  ReferenceArea,
-  ReferenceLine,
-  ResponsiveContainer,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from "recharts";
+import { CartesianGrid, Line, LineChart, ReferenceArea, ReferenceLine, Tooltip, XAxis, YAxis } from "recharts";
 import type { RollingRowDto } from "@shared/schemas/backtest";
 import type { RegimeId } from "@shared/schemas/common";
 import { zoneBoundariesFor } from "@shared/backtest/regimes";
+import { ChartFigure, chartLook } from "@/components/ui/chart-frame";
 import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { zoneName } from "@/components/ui/zone-badge";
 import { chartColours } from "@/styles/palette";
 
-const { ink, label: muted, grid: rule, zone: bands } = chartColours;
+const { ink, label: muted, zone: bands } = chartColours;
 
 /**
  * Counted exceptions in the trailing window on every date of the history, drawn over the zone
@@ -35,105 +25,76 @@ export function RollingChart({
   asOf: string;
   width?: number;
 }) {
-  const titleId = useId();
-  const summaryId = useId();
   const b = zoneBoundariesFor(regime);
   const top = Math.max(b.redFrom + 3, ...rows.map((r) => r.counted + 1));
   const current = rows.find((r) => r.date === asOf);
   const provisionalUntil = rows.filter((r) => !r.complete).at(-1)?.date;
   const band = (zone: "green" | "yellow" | "red") => `${zoneName(zone, regime)} zone`;
+  // Each zone's band of counts, from the boundary below it to the one above, half a count either side.
+  const zoneBands = [
+    { zone: "green", y1: 0, y2: b.yellowFrom - 0.5, opacity: 0.09 },
+    { zone: "yellow", y1: b.yellowFrom - 0.5, y2: b.redFrom - 0.5, opacity: 0.1 },
+    { zone: "red", y1: b.redFrom - 0.5, y2: top, opacity: 0.08 },
+  ] as const;
 
   return (
-    <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
-      <figcaption id={titleId} className="text-sm font-medium text-ink">
-        Counted exceptions in the trailing window, over the whole history
-        <span className="ml-2 text-xs font-normal text-ink-muted">dashed line: as of {asOf}</span>
-      </figcaption>
-      <p id={summaryId} className="text-xs text-ink-muted">
-        {rows.length} dates from {rows[0]?.date ?? "—"} to {rows.at(-1)?.date ?? "—"}. {band("green")} below{" "}
-        {b.yellowFrom}, {band("yellow")} from {b.yellowFrom}, {band("red")} from {b.redFrom} exceptions.
-        {current ? ` On ${asOf}: ${current.counted} counted, ${zoneName(current.zone, regime)} zone.` : ""}
-      </p>
-      <div style={{ height: 220 }} className="w-full">
-        <ResponsiveContainer
-          width={width ?? "100%"}
-          height={220}
-          initialDimension={{ width: width ?? 960, height: 220 }}
-        >
-          <LineChart data={rows} margin={{ top: 22, right: 16, bottom: 18, left: 8 }}>
+    <ChartFigure
+      caption={
+        <>
+          Counted exceptions in the trailing window, over the whole history
+          <span className="ml-2 text-xs font-normal text-ink-muted">dashed line: as of {asOf}</span>
+        </>
+      }
+      summary={
+        <>
+          {rows.length} dates from {rows[0]?.date ?? "—"} to {rows.at(-1)?.date ?? "—"}. {band("green")} below{" "}
+          {b.yellowFrom}, {band("yellow")} from {b.yellowFrom}, {band("red")} from {b.redFrom} exceptions.
+          {current ? ` On ${asOf}: ${current.counted} counted, ${zoneName(current.zone, regime)} zone.` : ""}
+        </>
+      }
+      height={220}
+      width={width}
+      chart={
+        <LineChart data={rows} margin={{ top: 22, right: 16, bottom: 18, left: 8 }}>
+          {zoneBands.map(({ zone, y1, y2, opacity }) => (
             <ReferenceArea
-              y1={0}
-              y2={b.yellowFrom - 0.5}
-              fill={bands.green}
-              fillOpacity={0.09}
+              key={zone}
+              y1={y1}
+              y2={y2}
+              fill={bands[zone]}
+              fillOpacity={opacity}
               stroke="none"
               ifOverflow="hidden"
-              label={{ value: band("green"), position: "insideTopRight", fill: bands.green, fontSize: 11 }}
+              label={{ value: band(zone), position: "insideTopRight", fill: bands[zone], fontSize: 11 }}
             />
+          ))}
+          <CartesianGrid {...chartLook.grid} />
+          {provisionalUntil && (
             <ReferenceArea
-              y1={b.yellowFrom - 0.5}
-              y2={b.redFrom - 0.5}
-              fill={bands.yellow}
-              fillOpacity={0.1}
-              stroke="none"
-              ifOverflow="hidden"
-              label={{ value: band("yellow"), position: "insideTopRight", fill: bands.yellow, fontSize: 11 }}
-            />
-            <ReferenceArea
-              y1={b.redFrom - 0.5}
-              y2={top}
-              fill={bands.red}
+              x1={rows[0]?.date}
+              x2={provisionalUntil}
+              fill={muted}
               fillOpacity={0.08}
               stroke="none"
-              ifOverflow="hidden"
-              label={{ value: band("red"), position: "insideTopRight", fill: bands.red, fontSize: 11 }}
+              label={{ value: "Short window (provisional)", position: "insideBottomLeft", fill: muted, fontSize: 11 }}
             />
-            <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
-            {provisionalUntil && (
-              <ReferenceArea
-                x1={rows[0]?.date}
-                x2={provisionalUntil}
-                fill={muted}
-                fillOpacity={0.08}
-                stroke="none"
-                label={{ value: "Short window (provisional)", position: "insideBottomLeft", fill: muted, fontSize: 11 }}
-              />
-            )}
-            <XAxis
-              dataKey="date"
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={{ stroke: rule }}
-              minTickGap={56}
-              label={{ value: "As-of date", position: "insideBottom", offset: -10, fill: muted, fontSize: 11 }}
-            />
-            <YAxis
-              domain={[0, top]}
-              allowDecimals={false}
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={false}
-              width={56}
-              label={{ value: "Exceptions", angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
-            />
-            <ReferenceLine x={asOf} stroke={ink} strokeDasharray="3 3" />
-            <Tooltip
-              formatter={(value) => [String(value), "Counted exceptions"]}
-              labelStyle={{ color: ink, fontWeight: 600 }}
-              contentStyle={{ fontSize: 12, borderColor: rule, borderRadius: 2 }}
-            />
-            <Line
-              type="stepAfter"
-              dataKey="counted"
-              name="Counted exceptions"
-              stroke={ink}
-              strokeWidth={1.5}
-              dot={false}
-              isAnimationActive={false}
-            />
-          </LineChart>
-        </ResponsiveContainer>
-      </div>
+          )}
+          <XAxis dataKey="date" {...chartLook.xAxis("As-of date")} minTickGap={56} />
+          <YAxis domain={[0, top]} allowDecimals={false} {...chartLook.yAxis("Exceptions", 56)} />
+          <ReferenceLine x={asOf} stroke={ink} strokeDasharray="3 3" />
+          <Tooltip formatter={(value) => [String(value), "Counted exceptions"]} {...chartLook.tooltip} />
+          <Line
+            type="stepAfter"
+            dataKey="counted"
+            name="Counted exceptions"
+            stroke={ink}
+            strokeWidth={1.5}
+            dot={false}
+            isAnimationActive={false}
+          />
+        </LineChart>
+      }
+    >
       <FiguresDisclosure label="Counted exceptions on each date">
         {() => (
           <Table caption="Counted exceptions in the trailing window on each as-of date, oldest first">
@@ -163,6 +124,6 @@ export function RollingChart({
           </Table>
         )}
       </FiguresDisclosure>
-    </figure>
+    </ChartFigure>
   );
 }

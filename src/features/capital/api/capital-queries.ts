@@ -8,6 +8,7 @@ import {
 } from "@shared/schemas/capital";
 import { capitalOnDateSchema } from "@shared/schemas/determination";
 import { api, withQuery } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 /** A what-if as the form sends it: parsed by the shared schema, so every default is filled in and the key is stable. */
 export type WhatIfInputs = z.output<typeof whatIfBodySchema>;
@@ -30,23 +31,12 @@ export const capitalKeys = {
 
 export const capitalQueries = {
   /** Each quarter's figures as its snapshot holds them, oldest first (treasury receives only signed-off quarters). */
-  history: (code: string) =>
-    queryOptions({
-      queryKey: capitalKeys.history(code),
-      queryFn: () => api.get(`${base(code)}/history`, capitalHistorySchema),
-    }),
+  history: (code: string) => getQuery(capitalKeys.history(code), `${base(code)}/history`, capitalHistorySchema),
   /** The zone forecast for `date`; without it the server forecasts the end of the current quarter. */
   forecast: (code: string, date?: string) =>
-    queryOptions({
-      queryKey: capitalKeys.forecast(code, date),
-      queryFn: () => api.get(withQuery(`${base(code)}/forecast`, { date }), forecastResponseSchema),
-    }),
+    getQuery(capitalKeys.forecast(code, date), withQuery(`${base(code)}/forecast`, { date }), forecastResponseSchema),
   /** Capital today with the determination in force; for FRTB entities the MAR33 aggregation and the desks' timeline. */
-  onDate: (code: string) =>
-    queryOptions({
-      queryKey: capitalKeys.onDate(code),
-      queryFn: () => api.get(base(code), capitalOnDateSchema),
-    }),
+  onDate: (code: string) => getQuery(capitalKeys.onDate(code), base(code), capitalOnDateSchema),
   /**
    * A what-if is a query keyed by its inputs, not a mutation: the POST only carries the parameters
    * and changes nothing on the server. As a query the answer is cached per scenario (going back to

@@ -1,11 +1,10 @@
-import { useId } from "react";
-import { Bar, BarChart, CartesianGrid, Cell, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { Bar, BarChart, CartesianGrid, Cell, Tooltip, XAxis, YAxis } from "recharts";
 import type { Zone } from "@shared/backtest/types";
+import { ChartFigure, ChartKey, KeyItem, chartLook } from "@/components/ui/chart-frame";
 import { zoneName } from "@/components/ui/zone-badge";
 import { formatChance } from "@/lib/format";
 import { chartColours } from "@/styles/palette";
 
-const { ink, label: muted, grid: rule } = chartColours;
 const zoneFill: Record<Zone, string> = chartColours.zone;
 
 export type DistributionRow = { exceptions: number; probability: number; zone: Zone };
@@ -22,8 +21,6 @@ export function DistributionChart({
   regime: string;
   width?: number;
 }) {
-  const titleId = useId();
-  const summaryId = useId();
   // The count the engine gives the highest chance (the first, on a tie), named in the caption.
   const likeliest = rows.reduce<DistributionRow | undefined>(
     (a, r) => (a && a.probability >= r.probability ? a : r),
@@ -32,65 +29,53 @@ export function DistributionChart({
   const zones = [...new Set(rows.map((r) => r.zone))];
   const data = rows.map((r) => ({ ...r, percent: r.probability * 100 }));
   return (
-    <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
-      <figcaption id={titleId} className="text-sm font-medium text-ink">
-        Chance of each count of exceptions on {date}
-      </figcaption>
-      <p id={summaryId} className="text-xs text-ink-muted">
-        {rows.length > 0 && `Counts ${rows[0].exceptions} to ${rows.at(-1)!.exceptions} are drawn`}
-        {likeliest &&
-          `; the likeliest is ${likeliest.exceptions} (${formatChance(likeliest.probability)}, ${zoneName(likeliest.zone, regime)} zone)`}
-        . The table beside the chart gives every count's chance.
-      </p>
-      <div style={{ height: 200 }} className="w-full">
-        <ResponsiveContainer
-          width={width ?? "100%"}
-          height={200}
-          initialDimension={{ width: width ?? 480, height: 200 }}
-        >
-          <BarChart data={data} margin={{ top: 8, right: 8, bottom: 18, left: 8 }}>
-            <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
-            <XAxis
-              dataKey="exceptions"
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={{ stroke: rule }}
-              label={{ value: "Counted exceptions", position: "insideBottom", offset: -10, fill: muted, fontSize: 11 }}
-            />
-            <YAxis
-              tickFormatter={(v: number) => `${v}%`}
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={false}
-              width={48}
-              label={{ value: "Probability", angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
-            />
-            <Tooltip
-              formatter={(value) => [formatChance((typeof value === "number" ? value : 0) / 100), "Probability"]}
-              labelFormatter={(k) => `${k} exceptions`}
-              labelStyle={{ color: ink, fontWeight: 600 }}
-              contentStyle={{ fontSize: 12, borderColor: rule, borderRadius: 2 }}
-            />
-            <Bar dataKey="percent" name="Probability" isAnimationActive={false}>
-              {data.map((r) => (
-                <Cell key={r.exceptions} fill={zoneFill[r.zone]} fillOpacity={0.75} />
-              ))}
-            </Bar>
-          </BarChart>
-        </ResponsiveContainer>
-      </div>
-      <ul className="flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-soft" aria-label="Chart key">
+    <ChartFigure
+      caption={`Chance of each count of exceptions on ${date}`}
+      summary={
+        <>
+          {rows.length > 0 && `Counts ${rows[0].exceptions} to ${rows.at(-1)!.exceptions} are drawn`}
+          {likeliest &&
+            `; the likeliest is ${likeliest.exceptions} (${formatChance(likeliest.probability)}, ${zoneName(likeliest.zone, regime)} zone)`}
+          . The table beside the chart gives every count's chance.
+        </>
+      }
+      height={200}
+      width={width}
+      initialWidth={480}
+      chart={
+        <BarChart data={data} margin={{ top: 8, right: 8, bottom: 18, left: 8 }}>
+          <CartesianGrid {...chartLook.grid} />
+          <XAxis dataKey="exceptions" {...chartLook.xAxis("Counted exceptions")} />
+          <YAxis tickFormatter={(v: number) => `${v}%`} {...chartLook.yAxis("Probability", 48)} />
+          <Tooltip
+            formatter={(value) => [formatChance((typeof value === "number" ? value : 0) / 100), "Probability"]}
+            labelFormatter={(k) => `${k} exceptions`}
+            {...chartLook.tooltip}
+          />
+          <Bar dataKey="percent" name="Probability" isAnimationActive={false}>
+            {data.map((r) => (
+              <Cell key={r.exceptions} fill={zoneFill[r.zone]} fillOpacity={0.75} />
+            ))}
+          </Bar>
+        </BarChart>
+      }
+    >
+      <ChartKey>
         {zones.map((z) => (
-          <li key={z} className="flex items-center gap-1.5">
-            <span
-              aria-hidden="true"
-              className="inline-block h-2.5 w-3"
-              style={{ background: zoneFill[z], opacity: 0.75 }}
-            />{" "}
+          <KeyItem
+            key={z}
+            sample={
+              <span
+                aria-hidden="true"
+                className="inline-block h-2.5 w-3"
+                style={{ background: zoneFill[z], opacity: 0.75 }}
+              />
+            }
+          >
             {zoneName(z, regime)} zone
-          </li>
+          </KeyItem>
         ))}
-      </ul>
-    </figure>
+      </ChartKey>
+    </ChartFigure>
   );
 }

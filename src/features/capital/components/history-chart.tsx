@@ -1,10 +1,10 @@
-import { useId } from "react";
-import { Bar, CartesianGrid, Cell, ComposedChart, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
+import { Bar, CartesianGrid, Cell, ComposedChart, Line, Tooltip, XAxis, YAxis } from "recharts";
+import { ChartFigure, ChartKey, KeyItem, chartLook } from "@/components/ui/chart-frame";
 import { compactAmount, formatAmount, formatFactor, plural } from "@/lib/format";
 import type { HistoryPoint } from "./history-points";
 import { chartColours } from "@/styles/palette";
 
-const { ink, label: muted, grid: rule, accent, paper } = chartColours;
+const { ink, accent, paper } = chartColours;
 
 /** A quarter's multiplier: a filled dot when signed off, a hollow one when not; a dagger above when restated after sign-off. */
 function QuarterDot({ cx, cy, payload }: { cx?: number; cy?: number; payload?: HistoryPoint }) {
@@ -34,8 +34,6 @@ export function HistoryChart({
   currency: string;
   width?: number;
 }) {
-  const titleId = useId();
-  const summaryId = useId();
   const multipliers = points.map((p) => p.multiplier);
   const low = Math.max(0, Math.floor(Math.min(...multipliers) * 4) / 4 - 0.25);
   const high = Math.ceil(Math.max(...multipliers) * 4) / 4 + 0.25;
@@ -46,117 +44,108 @@ export function HistoryChart({
   const latest = points.at(-1);
 
   return (
-    <figure aria-labelledby={titleId} aria-describedby={summaryId} className="flex flex-col gap-2">
-      <figcaption id={titleId} className="text-sm font-medium text-ink">
-        Multiplier and capital add-on at each quarter end, {currency}
-      </figcaption>
-      <p id={summaryId} className="text-xs text-ink-muted">
-        {plural(points.length, "quarter", "quarters")} from {points[0]?.label ?? "—"} to {latest?.label ?? "—"}
-        {latest &&
-          `; at ${latest.label} the multiplier is ${formatFactor(latest.multiplier)} and the add-on ${formatAmount(latest.addOn, currency)}`}
-        {open > 0 ? `; ${plural(open, "quarter is", "quarters are")} not signed off and drawn hollow` : ""}
-        {restated > 0 ? `; ${plural(restated, "quarter was", "quarters were")} restated after sign-off` : ""}. The table
-        below holds the same figures.
-      </p>
-      <div style={{ height: 260 }} className="w-full">
-        <ResponsiveContainer
-          width={width ?? "100%"}
-          height={260}
-          initialDimension={{ width: width ?? 960, height: 260 }}
+    <ChartFigure
+      caption={`Multiplier and capital add-on at each quarter end, ${currency}`}
+      summary={
+        <>
+          {plural(points.length, "quarter", "quarters")} from {points[0]?.label ?? "—"} to {latest?.label ?? "—"}
+          {latest &&
+            `; at ${latest.label} the multiplier is ${formatFactor(latest.multiplier)} and the add-on ${formatAmount(latest.addOn, currency)}`}
+          {open > 0 ? `; ${plural(open, "quarter is", "quarters are")} not signed off and drawn hollow` : ""}
+          {restated > 0 ? `; ${plural(restated, "quarter was", "quarters were")} restated after sign-off` : ""}. The
+          table below holds the same figures.
+        </>
+      }
+      height={260}
+      width={width}
+      chart={
+        <ComposedChart data={points} margin={{ top: 18, right: 8, bottom: 18, left: 8 }}>
+          <CartesianGrid {...chartLook.grid} />
+          <XAxis dataKey="label" {...chartLook.xAxis("Quarter end")} />
+          <YAxis
+            yAxisId="multiplier"
+            domain={[low, high]}
+            tickFormatter={(v: number) => formatFactor(v)}
+            {...chartLook.yAxis("Multiplier", 56)}
+          />
+          <YAxis
+            yAxisId="addOn"
+            orientation="right"
+            domain={noAddOn ? [0, 1] : [0, "auto"]}
+            ticks={noAddOn ? [0] : undefined}
+            tickFormatter={compactAmount}
+            {...chartLook.yAxis(`Add-on, ${currency}`, 64, "right")}
+          />
+          <Tooltip
+            formatter={(value, name) => [
+              name === "Multiplier"
+                ? formatFactor(typeof value === "number" ? value : null)
+                : formatAmount(typeof value === "number" ? value : null, currency),
+              name,
+            ]}
+            {...chartLook.tooltip}
+          />
+          <Bar yAxisId="addOn" dataKey="addOn" name="Capital add-on" barSize={28} isAnimationActive={false}>
+            {points.map((p) => (
+              <Cell
+                key={p.snapshotId}
+                fill={p.signedOff ? accent : paper}
+                fillOpacity={p.signedOff ? 0.55 : 1}
+                stroke={accent}
+                strokeDasharray={p.signedOff ? undefined : "3 2"}
+              />
+            ))}
+          </Bar>
+          <Line
+            yAxisId="multiplier"
+            type="stepAfter"
+            dataKey="multiplier"
+            name="Multiplier"
+            stroke={ink}
+            strokeWidth={1.5}
+            dot={<QuarterDot />}
+            activeDot={false}
+            isAnimationActive={false}
+          />
+        </ComposedChart>
+      }
+    >
+      <ChartKey>
+        <KeyItem sample={<span aria-hidden="true" className="inline-block h-0.5 w-4 bg-ink" />}>
+          Multiplier (left axis)
+        </KeyItem>
+        <KeyItem
+          sample={<span aria-hidden="true" className="inline-block h-2.5 w-3 border border-accent bg-accent/55" />}
         >
-          <ComposedChart data={points} margin={{ top: 18, right: 8, bottom: 18, left: 8 }}>
-            <CartesianGrid stroke={rule} strokeDasharray="2 3" vertical={false} />
-            <XAxis
-              dataKey="label"
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={{ stroke: rule }}
-              label={{ value: "Quarter end", position: "insideBottom", offset: -10, fill: muted, fontSize: 11 }}
-            />
-            <YAxis
-              yAxisId="multiplier"
-              domain={[low, high]}
-              tickFormatter={(v: number) => formatFactor(v)}
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={false}
-              width={56}
-              label={{ value: "Multiplier", angle: -90, position: "insideLeft", fill: muted, fontSize: 11 }}
-            />
-            <YAxis
-              yAxisId="addOn"
-              orientation="right"
-              domain={noAddOn ? [0, 1] : [0, "auto"]}
-              ticks={noAddOn ? [0] : undefined}
-              tickFormatter={compactAmount}
-              tick={{ fill: muted, fontSize: 11 }}
-              tickLine={false}
-              axisLine={false}
-              width={64}
-              label={{ value: `Add-on, ${currency}`, angle: 90, position: "insideRight", fill: muted, fontSize: 11 }}
-            />
-            <Tooltip
-              formatter={(value, name) => [
-                name === "Multiplier"
-                  ? formatFactor(typeof value === "number" ? value : null)
-                  : formatAmount(typeof value === "number" ? value : null, currency),
-                name,
-              ]}
-              labelStyle={{ color: ink, fontWeight: 600 }}
-              contentStyle={{ fontSize: 12, borderColor: rule, borderRadius: 2 }}
-            />
-            <Bar yAxisId="addOn" dataKey="addOn" name="Capital add-on" barSize={28} isAnimationActive={false}>
-              {points.map((p) => (
-                <Cell
-                  key={p.snapshotId}
-                  fill={p.signedOff ? accent : paper}
-                  fillOpacity={p.signedOff ? 0.55 : 1}
-                  stroke={accent}
-                  strokeDasharray={p.signedOff ? undefined : "3 2"}
-                />
-              ))}
-            </Bar>
-            <Line
-              yAxisId="multiplier"
-              type="stepAfter"
-              dataKey="multiplier"
-              name="Multiplier"
-              stroke={ink}
-              strokeWidth={1.5}
-              dot={<QuarterDot />}
-              activeDot={false}
-              isAnimationActive={false}
-            />
-          </ComposedChart>
-        </ResponsiveContainer>
-      </div>
-      <ul className="flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink-soft" aria-label="Chart key">
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-0.5 w-4 bg-ink" /> Multiplier (left axis)
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-accent bg-accent/55" /> Capital
-          add-on (right axis)
-        </li>
-        <li className="flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block size-2 rounded-full bg-ink" /> Signed off (approved or filed)
-        </li>
+          Capital add-on (right axis)
+        </KeyItem>
+        <KeyItem sample={<span aria-hidden="true" className="inline-block size-2 rounded-full bg-ink" />}>
+          Signed off (approved or filed)
+        </KeyItem>
         {open > 0 && (
-          <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="inline-block size-2 rounded-full border-[1.5px] border-ink" />
-            <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-dashed border-accent" /> Not signed
-            off
-          </li>
+          <KeyItem
+            sample={
+              <>
+                <span aria-hidden="true" className="inline-block size-2 rounded-full border-[1.5px] border-ink" />
+                <span aria-hidden="true" className="inline-block h-2.5 w-3 border border-dashed border-accent" />
+              </>
+            }
+          >
+            Not signed off
+          </KeyItem>
         )}
         {restated > 0 && (
-          <li className="flex items-center gap-1.5">
-            <span aria-hidden="true" className="font-semibold text-ink">
-              †
-            </span>{" "}
+          <KeyItem
+            sample={
+              <span aria-hidden="true" className="font-semibold text-ink">
+                †
+              </span>
+            }
+          >
             Restated after sign-off (figures stay as approved)
-          </li>
+          </KeyItem>
         )}
-      </ul>
-    </figure>
+      </ChartKey>
+    </ChartFigure>
   );
 }

@@ -1,7 +1,7 @@
 import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { QuarterFigureCells, QuarterFigureHeads } from "@/components/ui/quarter-figure-cells";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
-import { formatAmount, formatFactor } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { NO_CAPITAL_INPUTS } from "../words";
 import type { HistoryPoint } from "./history-points";
@@ -23,11 +23,7 @@ export function HistoryTable({
           <Th>Quarter</Th>
           <Th>Status</Th>
           <Th>Zone</Th>
-          <Th numeric>Counted exceptions</Th>
-          <Th numeric>Plus factor</Th>
-          <Th numeric>Multiplier</Th>
-          <Th numeric>Capital requirement</Th>
-          <Th numeric>Capital add-on</Th>
+          <QuarterFigureHeads />
           <Th>Note</Th>
         </tr>
       </thead>
@@ -45,15 +41,7 @@ export function HistoryTable({
             <Td>
               <ZoneBadge zone={p.zone} regime={regime} provisional={!p.windowComplete} />
             </Td>
-            <Td numeric>{p.counted}</Td>
-            <Td numeric>{formatFactor(p.plusFactor)}</Td>
-            <Td numeric>{formatFactor(p.multiplier)}</Td>
-            <Td numeric className="whitespace-nowrap">
-              {formatAmount(p.capital, currency)}
-            </Td>
-            <Td numeric className="whitespace-nowrap">
-              {formatAmount(p.addOn, currency)}
-            </Td>
+            <QuarterFigureCells quarter={p} currency={currency} />
             <Td className="text-xs">
               {p.restatedAfterSignOff && (
                 <span>

@@ -1,4 +1,4 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation } from "@tanstack/react-query";
 import {
   entityListSchema,
   entitySchema,
@@ -15,77 +15,58 @@ import {
 } from "@shared/schemas/entity";
 import { everyFigure } from "@/lib/query-scope";
 import { api, withQuery } from "@/lib/api-client";
+import { getQuery, useRefreshingMutation } from "@/lib/queries";
 
 const base = (code: string) => `/api/entities/${encodeURIComponent(code)}`;
 
 export const entityQueries = {
   root: () => ["entities"] as const,
-  all: () =>
-    queryOptions({
-      queryKey: [...entityQueries.root(), "list"] as const,
-      queryFn: () => api.get("/api/entities", entityListSchema),
-    }),
+  all: () => getQuery([...entityQueries.root(), "list"], "/api/entities", entityListSchema),
   portfolios: (code: string) =>
-    queryOptions({
-      queryKey: [...entityQueries.root(), "detail", code, "portfolios"] as const,
-      queryFn: () => api.get(`${base(code)}/portfolios`, portfolioListSchema),
-    }),
+    getQuery([...entityQueries.root(), "detail", code, "portfolios"], `${base(code)}/portfolios`, portfolioListSchema),
   holidays: (code: string) =>
-    queryOptions({
-      queryKey: [...entityQueries.root(), "detail", code, "holidays"] as const,
-      queryFn: () => api.get(`${base(code)}/holidays`, holidayListSchema),
-    }),
+    getQuery([...entityQueries.root(), "detail", code, "holidays"], `${base(code)}/holidays`, holidayListSchema),
 };
 
 export function useCreateEntity() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: CreateEntityBody) => api.post("/api/entities", body, entitySchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.all().queryKey }),
+  return useRefreshingMutation((body: CreateEntityBody) => api.post("/api/entities", body, entitySchema), {
+    queryKey: entityQueries.all().queryKey,
   });
 }
 
 export function useUpdateEntity(code: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: UpdateEntityBody) => api.patch(base(code), body, entitySchema),
-    // Rule set, basis and addend move the entity's zone, multiplier and capital everywhere.
-    onSuccess: () => queryClient.invalidateQueries(everyFigure),
-  });
+  // Rule set, basis and addend move the entity's zone, multiplier and capital everywhere.
+  return useRefreshingMutation((body: UpdateEntityBody) => api.patch(base(code), body, entitySchema), everyFigure);
 }
 
 export function useCreatePortfolio(code: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: CreatePortfolioBody) => api.post(`${base(code)}/portfolios`, body, portfolioSchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.portfolios(code).queryKey }),
-  });
+  return useRefreshingMutation(
+    (body: CreatePortfolioBody) => api.post(`${base(code)}/portfolios`, body, portfolioSchema),
+    { queryKey: entityQueries.portfolios(code).queryKey },
+  );
 }
 
 export function useRenamePortfolio(code: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: ({ portfolio, name }: { portfolio: string; name: string }) =>
+  return useRefreshingMutation(
+    ({ portfolio, name }: { portfolio: string; name: string }) =>
       api.patch(`${base(code)}/portfolios/${encodeURIComponent(portfolio)}`, { name }, portfolioSchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: entityQueries.portfolios(code).queryKey }),
-  });
+    { queryKey: entityQueries.portfolios(code).queryKey },
+  );
 }
 
 export function useAddHoliday(code: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: CreateHolidayBody) => api.post(`${base(code)}/holidays`, body, holidaySchema),
-    // A calendar change moves roll-off dates and data-quality findings too.
-    onSuccess: () => queryClient.invalidateQueries(everyFigure),
-  });
+  // A calendar change moves roll-off dates and data-quality findings too.
+  return useRefreshingMutation(
+    (body: CreateHolidayBody) => api.post(`${base(code)}/holidays`, body, holidaySchema),
+    everyFigure,
+  );
 }
 
 export function useRemoveHoliday(code: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (date: string) => api.del(`${base(code)}/holidays/${encodeURIComponent(date)}`),
-    onSuccess: () => queryClient.invalidateQueries(everyFigure),
-  });
+  return useRefreshingMutation(
+    (date: string) => api.del(`${base(code)}/holidays/${encodeURIComponent(date)}`),
+    everyFigure,
+  );
 }
 
 /** What importing a year of the library's public holidays would change (read on demand, never cached). */
@@ -97,10 +78,9 @@ export function useHolidayImportPreview(code: string) {
 }
 
 export function useImportHolidays(code: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: HolidayImportBody) => api.post(`${base(code)}/holiday-import`, body, holidayImportPreviewSchema),
-    // Like a holiday added by hand: windows, roll-off dates and findings move.
-    onSuccess: () => queryClient.invalidateQueries(everyFigure),
-  });
+  // Like a holiday added by hand: windows, roll-off dates and findings move.
+  return useRefreshingMutation(
+    (body: HolidayImportBody) => api.post(`${base(code)}/holiday-import`, body, holidayImportPreviewSchema),
+    everyFigure,
+  );
 }

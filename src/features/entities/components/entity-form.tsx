@@ -1,4 +1,4 @@
-import { useRef, useState, type FormEvent } from "react";
+import { useState, type FormEvent } from "react";
 import {
   CALENDAR_COUNTRIES,
   createEntityBodySchema,
@@ -8,10 +8,9 @@ import {
   type Entity,
 } from "@shared/schemas/entity";
 import type { PnlBasis, RegimeId } from "@shared/schemas/common";
-import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
-import { fieldErrorsOf } from "@/lib/api-client";
-import { focusFirstInvalid, formLevelMessage, splitList, validate, type FieldErrors } from "@/lib/form";
+import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
+import { formLevelMessage, splitList, validate } from "@/lib/form";
 import { useCreateEntity, useUpdateEntity } from "../api/entity-queries";
 import { defaultPnlBasis, pnlBasisIds, pnlBasisLabels, regimeIds, regimeLabels } from "@/lib/regime-labels";
 
@@ -89,23 +88,14 @@ export function EntityForm(props: Props) {
   const create = useCreateEntity();
   const update = useUpdateEntity(editing?.code ?? "");
   const mutation = editing ? update : create;
-  const formRef = useRef<HTMLFormElement>(null);
-  const [values, setValues] = useState<Values>(editing ? valuesOf(editing) : blank);
+  const { formRef, values, setValues, setErrors, done, setDone, fail, check, send, field } = useFormKit(
+    editing ? valuesOf(editing) : blank,
+  );
   const [pnlTouched, setPnlTouched] = useState(Boolean(editing));
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const [done, setDone] = useState<string>();
-
-  const set = (k: keyof Values) => (e: { target: { value: string } }) =>
-    setValues((v) => ({ ...v, [k]: e.target.value }));
 
   function setRegime(regime: RegimeId) {
     // The P&L basis follows the rule set's default until someone picks one on purpose.
     setValues((v) => ({ ...v, regime, pnlBasis: pnlTouched ? v.pnlBasis : defaultPnlBasis[regime] }));
-  }
-
-  function fail(next: FieldErrors) {
-    setErrors(next);
-    focusFirstInvalid(formRef.current);
   }
 
   function submit(e: FormEvent) {
@@ -119,15 +109,11 @@ export function EntityForm(props: Props) {
     if (!editing) {
       const r = validate(createEntityBodySchema, body);
       if (!r.ok || addendError.qualitativeAddend) return fail({ ...(r.ok ? {} : r.errors), ...addendError });
-      setErrors({});
-      create.mutate(r.data, {
-        onSuccess: (entity) => {
-          setValues(blank);
-          setPnlTouched(false);
-          setDone(`${entity.code} added. Open it to add portfolios and its holiday calendar.`);
-          if (props.mode === "create") props.onCreated?.(entity);
-        },
-        onError: (err) => fail(fieldErrorsOf(err)),
+      send(create, r.data, (entity) => {
+        setValues(blank);
+        setPnlTouched(false);
+        setDone(`${entity.code} added. Open it to add portfolios and its holiday calendar.`);
+        if (props.mode === "create") props.onCreated?.(entity);
       });
       return;
     }
@@ -145,49 +131,22 @@ export function EntityForm(props: Props) {
       return;
     }
     // The version we read: if someone else saved in between, the server refuses with 409.
-    const r = validate(updateEntityBodySchema, { ...changed, version: editing.version });
-    if (!r.ok) return fail(r.errors);
-    setErrors({});
-    update.mutate(r.data, {
-      onSuccess: () => setDone("Changes saved."),
-      onError: (err) => fail(fieldErrorsOf(err)),
-    });
+    const data = check(updateEntityBodySchema, { ...changed, version: editing.version });
+    if (data) send(update, data, () => setDone("Changes saved."));
   }
 
-  const formError = formLevelMessage(mutation.error);
   const titleId = editing ? "edit-entity-title" : "create-entity-title";
+  const pnlBasis = field("pnlBasis");
 
   return (
     <form ref={formRef} onSubmit={submit} noValidate aria-labelledby={titleId} className="flex flex-col gap-3">
       <h2 id={titleId}>{editing ? "Entity settings" : "Add an entity"}</h2>
-      <FormMessage>{formError}</FormMessage>
+      <FormMessage>{formLevelMessage(mutation.error)}</FormMessage>
       <FormMessage tone="done">{done}</FormMessage>
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-2 lg:grid-cols-4">
-        {!editing && (
-          <TextField
-            label="Code"
-            name="code"
-            value={values.code}
-            onChange={set("code")}
-            error={errors.code}
-            hint="e.g. LKS-EU; cannot change later"
-          />
-        )}
-        <TextField
-          label="Name"
-          name="name"
-          value={values.name}
-          onChange={set("name")}
-          error={errors.name}
-          className={editing ? "lg:col-span-2" : ""}
-        />
-        <SelectField
-          label="Rule set"
-          name="regime"
-          value={values.regime}
-          onChange={(e) => setRegime(e.target.value as RegimeId)}
-          error={errors.regime}
-        >
+        {!editing && <TextField label="Code" {...field("code")} hint="e.g. LKS-EU; cannot change later" />}
+        <TextField label="Name" {...field("name")} className={editing ? "lg:col-span-2" : ""} />
+        <SelectField label="Rule set" {...field("regime")} onChange={(e) => setRegime(e.target.value as RegimeId)}>
           {regimeIds.map((r) => (
             <option key={r} value={r}>
               {regimeLabels[r]}
@@ -196,13 +155,11 @@ export function EntityForm(props: Props) {
         </SelectField>
         <SelectField
           label="P&L basis for the count"
-          name="pnlBasis"
-          value={values.pnlBasis}
+          {...pnlBasis}
           onChange={(e) => {
             setPnlTouched(true);
-            set("pnlBasis")(e);
+            pnlBasis.onChange(e);
           }}
-          error={errors.pnlBasis}
           hint={`Default for ${regimeLabels[values.regime]}: ${pnlBasisLabels[defaultPnlBasis[values.regime]]}`}
         >
           {pnlBasisIds.map((b) => (
@@ -211,23 +168,8 @@ export function EntityForm(props: Props) {
             </option>
           ))}
         </SelectField>
-        <TextField
-          label="Currency"
-          name="currency"
-          value={values.currency}
-          onChange={set("currency")}
-          error={errors.currency}
-          hint="ISO 4217, e.g. EUR"
-          maxLength={3}
-        />
-        <SelectField
-          label="Calendar country"
-          name="country"
-          value={values.country}
-          onChange={set("country")}
-          error={errors.country}
-          hint={countryHint(values)}
-        >
+        <TextField label="Currency" {...field("currency")} hint="ISO 4217, e.g. EUR" maxLength={3} />
+        <SelectField label="Calendar country" {...field("country")} hint={countryHint(values)}>
           {/* A chosen country can be changed, not cleared: the imported days stay until the next import. */}
           {!editing?.country && <option value="">Not chosen</option>}
           {countryCodes.map((c) => (
@@ -238,36 +180,23 @@ export function EntityForm(props: Props) {
         </SelectField>
         <TextField
           label="Qualitative addend"
-          name="qualitativeAddend"
           inputMode="decimal"
-          value={values.qualitativeAddend}
-          onChange={set("qualitativeAddend")}
-          error={errors.qualitativeAddend}
+          {...field("qualitativeAddend")}
           hint="Set by the supervisor, 0 to 1; added to the multiplier"
           className="figures"
         />
-        <TextField
-          label="Supervisor"
-          name="supervisorName"
-          value={values.supervisorName}
-          onChange={set("supervisorName")}
-          error={errors.supervisorName}
-          hint="Optional"
-        />
+        <TextField label="Supervisor" {...field("supervisorName")} hint="Optional" />
         <TextField
           label="Supervisor contact e-mails"
-          name="supervisorEmails"
-          value={values.supervisorEmails}
-          onChange={set("supervisorEmails")}
-          error={errors.supervisorEmails}
+          {...field("supervisorEmails")}
           hint="Separate with commas; filing packs go to these addresses"
-          className={editing ? "lg:col-span-2" : "lg:col-span-2"}
+          className="lg:col-span-2"
         />
       </div>
       <div>
-        <Button type="submit" disabled={mutation.isPending}>
-          {mutation.isPending ? "Saving…" : editing ? "Save changes" : "Add entity"}
-        </Button>
+        <SubmitButton pending={mutation.isPending} busyLabel="Saving…">
+          {editing ? "Save changes" : "Add entity"}
+        </SubmitButton>
       </div>
     </form>
   );

@@ -10,9 +10,11 @@ import {
 import { Button } from "@/components/ui/button";
 import { Confirmation } from "@/components/ui/confirmation";
 import { FormMessage, TextField } from "@/components/ui/field";
+import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { fieldErrorsOf, isApiError, staleCurrent } from "@/lib/api-client";
-import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
+import { ActionsTh } from "@/components/ui/row-actions";
+import { isApiError, staleCurrent } from "@/lib/api-client";
+import { formLevelMessage } from "@/lib/form";
 import { formatBusinessDate } from "@/lib/format";
 import { useAddHoliday, useHolidayImportPreview, useImportHolidays, useRemoveHoliday } from "../api/entity-queries";
 
@@ -152,28 +154,14 @@ function ImportHolidays({ entityCode, country }: { entityCode: string; country: 
 
 function AddHolidayForm({ entityCode }: { entityCode: string }) {
   const add = useAddHoliday(entityCode);
-  const formRef = useRef<HTMLFormElement>(null);
-  const [values, setValues] = useState({ date: "", name: "" });
-  const [errors, setErrors] = useState<FieldErrors>({});
+  const { formRef, values, setValues, check, send, field } = useFormKit({ date: "", name: "" });
 
   function submit(e: FormEvent) {
     e.preventDefault();
     add.reset();
-    const r = validate(createHolidayBodySchema, values);
-    if (!r.ok) {
-      setErrors(r.errors);
-      return focusFirstInvalid(formRef.current);
-    }
-    setErrors({});
-    add.mutate(r.data, {
-      onSuccess: () => setValues({ date: "", name: "" }),
-      onError: (err) => {
-        setErrors(fieldErrorsOf(err));
-        focusFirstInvalid(formRef.current);
-      },
-    });
+    const data = check(createHolidayBodySchema, values);
+    if (data) send(add, data, () => setValues({ date: "", name: "" }));
   }
-  const formError = formLevelMessage(add.error);
 
   return (
     <form
@@ -186,26 +174,13 @@ function AddHolidayForm({ entityCode }: { entityCode: string }) {
       <h3 id="add-holiday-title" className="text-sm font-semibold">
         Add a bank closing day
       </h3>
-      <FormMessage>{formError}</FormMessage>
+      <FormMessage>{formLevelMessage(add.error)}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
-        <TextField
-          label="Date"
-          type="date"
-          value={values.date}
-          onChange={(e) => setValues((v) => ({ ...v, date: e.target.value }))}
-          error={errors.date}
-          className="w-44"
-        />
-        <TextField
-          label="Name"
-          value={values.name}
-          onChange={(e) => setValues((v) => ({ ...v, name: e.target.value }))}
-          error={errors.name}
-          className="w-64"
-        />
-        <Button type="submit" className="mt-5" disabled={add.isPending}>
-          {add.isPending ? "Adding…" : "Add holiday"}
-        </Button>
+        <TextField label="Date" type="date" {...field("date")} className="w-44" />
+        <TextField label="Name" {...field("name")} className="w-64" />
+        <SubmitButton pending={add.isPending} busyLabel="Adding…" className="mt-5">
+          Add holiday
+        </SubmitButton>
       </div>
     </form>
   );
@@ -253,9 +228,7 @@ export function HolidaysPanel({
               <Th>Date</Th>
               <Th>Name</Th>
               <Th>Source</Th>
-              <Th>
-                <span className="sr-only">Actions</span>
-              </Th>
+              <ActionsTh />
             </tr>
           </thead>
           <tbody>

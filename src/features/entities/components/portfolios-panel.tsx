@@ -1,11 +1,13 @@
-import { useRef, useState, type FormEvent } from "react";
+import { useState, type FormEvent } from "react";
 import { createPortfolioBodySchema, updatePortfolioBodySchema, type Portfolio } from "@shared/schemas/entity";
 import type { PortfolioLevel } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
+import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { ActionsTh } from "@/components/ui/row-actions";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
+import { formLevelMessage, validate } from "@/lib/form";
 import { useCreatePortfolio, useRenamePortfolio } from "../api/entity-queries";
 
 const levelLabels: Record<PortfolioLevel, string> = { top: "Top of house", desk: "Trading desk" };
@@ -61,31 +63,18 @@ function RenameRow({
 
 function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: boolean }) {
   const create = useCreatePortfolio(entityCode);
-  const formRef = useRef<HTMLFormElement>(null);
-  const initial = { code: "", name: "", level: (hasTop ? "desk" : "top") as PortfolioLevel };
-  const [values, setValues] = useState(initial);
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const set = (k: keyof typeof initial) => (e: { target: { value: string } }) =>
-    setValues((v) => ({ ...v, [k]: e.target.value }));
+  const { formRef, values, setValues, check, send, field } = useFormKit({
+    code: "",
+    name: "",
+    level: (hasTop ? "desk" : "top") as PortfolioLevel,
+  });
 
   function submit(e: FormEvent) {
     e.preventDefault();
     create.reset();
-    const r = validate(createPortfolioBodySchema, { ...values, code: values.code.trim().toUpperCase() });
-    if (!r.ok) {
-      setErrors(r.errors);
-      return focusFirstInvalid(formRef.current);
-    }
-    setErrors({});
-    create.mutate(r.data, {
-      onSuccess: () => setValues({ code: "", name: "", level: "desk" }),
-      onError: (err) => {
-        setErrors(fieldErrorsOf(err));
-        focusFirstInvalid(formRef.current);
-      },
-    });
+    const data = check(createPortfolioBodySchema, { ...values, code: values.code.trim().toUpperCase() });
+    if (data) send(create, data, () => setValues({ code: "", name: "", level: "desk" }));
   }
-  const formError = formLevelMessage(create.error);
 
   return (
     <form
@@ -98,24 +87,17 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
       <h3 id="add-portfolio-title" className="text-sm font-semibold">
         Add a portfolio
       </h3>
-      <FormMessage>{formError}</FormMessage>
+      <FormMessage>{formLevelMessage(create.error)}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
-        <TextField
-          label="Code"
-          value={values.code}
-          onChange={set("code")}
-          error={errors.code}
-          className="w-40"
-          hint="e.g. LKS-UK-RATES"
-        />
-        <TextField label="Name" value={values.name} onChange={set("name")} error={errors.name} className="w-64" />
-        <SelectField label="Level" value={values.level} onChange={set("level")} error={errors.level} className="w-40">
+        <TextField label="Code" {...field("code")} className="w-40" hint="e.g. LKS-UK-RATES" />
+        <TextField label="Name" {...field("name")} className="w-64" />
+        <SelectField label="Level" {...field("level")} className="w-40">
           <option value="top">{levelLabels.top}</option>
           <option value="desk">{levelLabels.desk}</option>
         </SelectField>
-        <Button type="submit" className="mt-5" disabled={create.isPending}>
-          {create.isPending ? "Adding…" : "Add portfolio"}
-        </Button>
+        <SubmitButton pending={create.isPending} busyLabel="Adding…" className="mt-5">
+          Add portfolio
+        </SubmitButton>
       </div>
     </form>
   );
@@ -157,9 +139,7 @@ export function PortfoliosPanel({
               <Th>Code</Th>
               <Th>Name</Th>
               <Th>Level</Th>
-              <Th>
-                <span className="sr-only">Actions</span>
-              </Th>
+              <ActionsTh />
             </tr>
           </thead>
           <tbody>

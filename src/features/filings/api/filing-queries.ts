@@ -1,6 +1,7 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { filingListSchema, filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
 import { api, isApiError } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 const base = (id: number) => `/api/filings/${id}`;
 
@@ -19,19 +20,10 @@ export const filingKeys = {
 
 export const filingQueries = {
   /** Newest first; a regulator receives only the entities assigned to them. */
-  list: () =>
-    queryOptions({
-      queryKey: filingKeys.list(),
-      queryFn: () => api.get("/api/filings", filingListSchema),
-    }),
+  list: () => getQuery(filingKeys.list(), "/api/filings", filingListSchema),
   /** The server hashes the kept pack and checks its snapshot's chain each time it is asked; a cached answer would prove nothing. */
   verify: (id: number) =>
-    queryOptions({
-      queryKey: filingKeys.verify(id),
-      queryFn: () => api.get(`${base(id)}/verify`, filingVerifySchema),
-      staleTime: 0,
-      gcTime: 0,
-    }),
+    getQuery(filingKeys.verify(id), `${base(id)}/verify`, filingVerifySchema, { staleTime: 0, gcTime: 0 }),
 };
 
 /** The supervisor confirms receipt; the answer carries who and when (asking twice changes nothing). */

@@ -1,6 +1,7 @@
-import { keepPreviousData, queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { keepPreviousData, useMutation, useQueryClient } from "@tanstack/react-query";
 import { findingListSchema, findingSchema, type CloseFindingBody, type Finding } from "@shared/schemas/finding";
 import { api, withQuery } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 export type FindingStatus = Finding["status"];
 export type FindingFilters = { entity?: string; status?: FindingStatus };
@@ -8,11 +9,12 @@ export type FindingFilters = { entity?: string; status?: FindingStatus };
 export const findingQueries = {
   root: () => ["findings"] as const,
   list: ({ entity, status }: FindingFilters) =>
-    queryOptions({
-      queryKey: [...findingQueries.root(), "list", { entity: entity ?? "", status: status ?? "" }] as const,
-      queryFn: () => api.get(withQuery("/api/findings", { entity, status }), findingListSchema),
-      placeholderData: keepPreviousData,
-    }),
+    getQuery(
+      [...findingQueries.root(), "list", { entity: entity ?? "", status: status ?? "" }],
+      withQuery("/api/findings", { entity, status }),
+      findingListSchema,
+      { placeholderData: keepPreviousData },
+    ),
 };
 
 export function useCloseFinding() {

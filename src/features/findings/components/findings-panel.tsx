@@ -4,6 +4,7 @@ import { closeFindingBodySchema, findingKindSchema, type Finding, type FindingKi
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField } from "@/components/ui/field";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
 import { isApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
@@ -215,11 +216,7 @@ export function FindingsPanel({
                 <Th>Detail</Th>
                 <Th>Status</Th>
                 <Th>Closed by</Th>
-                {canClose && (
-                  <Th>
-                    <span className="sr-only">Actions</span>
-                  </Th>
-                )}
+                {canClose && <ActionsTh />}
               </tr>
             </thead>
             <tbody>
@@ -276,21 +273,19 @@ export function FindingsPanel({
                     )}
                   </Tr>
                   {open?.id === f.id && (
-                    <tr>
-                      <td colSpan={columns} className="border-b border-rule bg-paper-sunk/50 px-2 py-2">
-                        <CloseFindingForm
-                          key={open.as}
-                          finding={f}
-                          as={open.as}
-                          onConflict={setConflict}
-                          onDone={(message) => {
-                            setConflict(undefined);
-                            setOpen(null);
-                            if (message) setNotice(message);
-                          }}
-                        />
-                      </td>
-                    </tr>
+                    <OpenedRow colSpan={columns}>
+                      <CloseFindingForm
+                        key={open.as}
+                        finding={f}
+                        as={open.as}
+                        onConflict={setConflict}
+                        onDone={(message) => {
+                          setConflict(undefined);
+                          setOpen(null);
+                          if (message) setNotice(message);
+                        }}
+                      />
+                    </OpenedRow>
                   )}
                 </Fragment>
               ))}

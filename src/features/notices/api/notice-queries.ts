@@ -1,6 +1,7 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { noticeListSchema, noticeSchema, type Notice } from "@shared/schemas/notice";
 import { api } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 /**
  * Every key of the overshooting notices; they start with "notices", so the shared "every figure" rule
@@ -14,10 +15,7 @@ export const noticeKeys = {
 export const noticeQueries = {
   /** The entity's notices, newest overshooting first (GET /api/notices?entity=…). */
   list: (entity: string) =>
-    queryOptions({
-      queryKey: noticeKeys.list(entity),
-      queryFn: () => api.get(`/api/notices?entity=${encodeURIComponent(entity)}`, noticeListSchema),
-    }),
+    getQuery(noticeKeys.list(entity), `/api/notices?entity=${encodeURIComponent(entity)}`, noticeListSchema),
 };
 
 /** Puts the notice the server answered into the entity's list, then reads the list and the queue again. */

@@ -1,14 +1,12 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { notificationChoicesSchema, type NotificationKind } from "@shared/schemas/notification";
 import { api } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 export const notificationQueries = {
   all: () => ["notifications"] as const,
   choices: () =>
-    queryOptions({
-      queryKey: [...notificationQueries.all(), "choices"] as const,
-      queryFn: () => api.get("/api/notifications/choices", notificationChoicesSchema),
-    }),
+    getQuery([...notificationQueries.all(), "choices"], "/api/notifications/choices", notificationChoicesSchema),
 };
 
 export function useSetNotificationChoices() {

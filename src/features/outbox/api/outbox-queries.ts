@@ -1,6 +1,6 @@
-import { queryOptions } from "@tanstack/react-query";
 import { outboxListSchema, outboxMessageDetailSchema } from "@shared/schemas/outbox";
-import { api, isApiError } from "@/lib/api-client";
+import { isApiError } from "@/lib/api-client";
+import { getQuery } from "@/lib/queries";
 
 const base = "/api/admin/outbox";
 
@@ -19,17 +19,10 @@ export const outboxKeys = {
 
 export const outboxQueries = {
   /** The newest messages the local mail sink holds, newest first. */
-  list: () =>
-    queryOptions({
-      queryKey: outboxKeys.list(),
-      queryFn: () => api.get(base, outboxListSchema),
-      staleTime: 5_000,
-    }),
+  list: () => getQuery(outboxKeys.list(), base, outboxListSchema, { staleTime: 5_000 }),
   /** A stored message never changes, so once read it stays read. */
   message: (id: string) =>
-    queryOptions({
-      queryKey: outboxKeys.message(id),
-      queryFn: () => api.get(`${base}/${encodeURIComponent(id)}`, outboxMessageDetailSchema),
+    getQuery(outboxKeys.message(id), `${base}/${encodeURIComponent(id)}`, outboxMessageDetailSchema, {
       staleTime: Infinity,
     }),
 };

@@ -1,7 +1,8 @@
-import { queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { settingsListSchema, settingsRecordSchema, type ProposeSettingsBody } from "@shared/schemas/determination";
 import { api } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
+import { getQuery, useRefreshingMutation } from "@/lib/queries";
 
 const entityBase = (code: string) => `/api/entities/${encodeURIComponent(code)}/settings`;
 
@@ -13,20 +14,15 @@ export const settingsKeys = {
 
 export const settingsQueries = {
   /** The entity's dated records, newest effective date first (proposed, approved and rejected). */
-  list: (entity: string) =>
-    queryOptions({
-      queryKey: settingsKeys.list(entity),
-      queryFn: () => api.get(entityBase(entity), settingsListSchema),
-    }),
+  list: (entity: string) => getQuery(settingsKeys.list(entity), entityBase(entity), settingsListSchema),
 };
 
 /** An admin proposes a change; nothing moves until a CRO approves it, so only the list is read again. */
 export function useProposeSettings(entity: string) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (body: ProposeSettingsBody) => api.post(entityBase(entity), body, settingsRecordSchema),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: settingsKeys.list(entity) }),
-  });
+  return useRefreshingMutation(
+    (body: ProposeSettingsBody) => api.post(entityBase(entity), body, settingsRecordSchema),
+    { queryKey: settingsKeys.list(entity) },
+  );
 }
 
 /**

@@ -1,10 +1,10 @@
-import { useRef, useState, type FormEvent } from "react";
+import type { FormEvent } from "react";
 import { proposeSettingsSchema } from "@shared/schemas/determination";
 import type { RegimeId } from "@shared/schemas/common";
-import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
+import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
+import type { FieldErrors } from "@/lib/form";
 import { pnlBasisIds, pnlBasisLabels } from "@/lib/regime-labels";
 import { useProposeSettings } from "../api/settings-queries";
 import { frequencyLabels } from "../words";
@@ -44,20 +44,15 @@ const numberOrUnset = (text: string): number | string | undefined => {
  */
 export function ProposeSettingsForm({ entity, regime }: { entity: string; regime: RegimeId }) {
   const propose = useProposeSettings(entity);
-  const formRef = useRef<HTMLFormElement>(null);
-  const [values, setValues] = useState<Values>(blank);
-  const [errors, setErrors] = useState<FieldErrors>({});
-  const [done, setDone] = useState<string>();
-  const shown: FieldErrors = { ...fieldErrorsOf(propose.error), ...errors };
-  const set = (k: keyof Values) => (e: { target: { value: string } }) => {
-    setValues((v) => ({ ...v, [k]: e.target.value }));
-    setErrors((x) => ({ ...x, [k]: undefined }));
-    setDone(undefined);
-  };
+  const { formRef, values, setValues, errors, done, setDone, check, send, field } = useFormKit(blank, {
+    clearOnEdit: true,
+  });
+  // The server's refusals of single fields stand beside them until the field is edited.
+  const bound = (k: keyof Values) => ({ ...field(k), error: { ...fieldErrorsOf(propose.error), ...errors }[k] });
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const r = validate(proposeSettingsSchema, {
+    const input = {
       effectiveFrom: values.effectiveFrom.trim(),
       reference: values.reference,
       qualitativeAddend: numberOrUnset(values.qualitativeAddend),
@@ -65,25 +60,21 @@ export function ProposeSettingsForm({ entity, regime }: { entity: string; regime
       multiplierFloor: numberOrUnset(values.multiplierFloor),
       pnlBasis: values.pnlBasis || undefined,
       determinationFrequency: values.determinationFrequency || undefined,
-    });
-    if (!r.ok) {
-      const typed: FieldErrors = { ...r.errors };
+    };
+    const data = check(proposeSettingsSchema, input, (errors) => {
+      const typed: FieldErrors = { ...errors };
       // A number field with letters in it reads "Expected number" from zod; say it plainly.
       for (const k of ["qualitativeAddend", "qualitativeAddendSvar", "multiplierFloor"] as const)
         if (typed[k] && typeof numberOrUnset(values[k]) === "string") typed[k] = "A number, such as 0.5";
       if (typed.effectiveFrom) typed.effectiveFrom = "A date as YYYY-MM-DD";
-      setErrors(typed);
-      return focusFirstInvalid(formRef.current);
-    }
-    setErrors({});
-    propose.mutate(r.data, {
-      onSuccess: (record) => {
-        setValues(blank);
-        setDone(
-          `Proposed: ${record.reference}, from ${record.effectiveFrom}. Nothing changes until a chief risk officer approves it.`,
-        );
-      },
-      onError: () => focusFirstInvalid(formRef.current),
+      return typed;
+    });
+    if (!data) return;
+    send(propose, data, (record) => {
+      setValues(blank);
+      setDone(
+        `Proposed: ${record.reference}, from ${record.effectiveFrom}. Nothing changes until a chief risk officer approves it.`,
+      );
     });
   }
 
@@ -101,21 +92,15 @@ export function ProposeSettingsForm({ entity, regime }: { entity: string; regime
       <div className="flex flex-wrap items-start gap-4">
         <TextField
           label="Effective from"
-          name="effectiveFrom"
           inputMode="numeric"
           placeholder="YYYY-MM-DD"
-          value={values.effectiveFrom}
-          onChange={set("effectiveFrom")}
-          error={shown.effectiveFrom}
+          {...bound("effectiveFrom")}
           hint="The first day the change applies"
           className="w-44"
         />
         <TextField
           label="Supervisor's decision reference"
-          name="reference"
-          value={values.reference}
-          onChange={set("reference")}
-          error={shown.reference}
+          {...bound("reference")}
           hint="As written on the supervisor's letter"
           className="w-72"
         />
@@ -124,43 +109,28 @@ export function ProposeSettingsForm({ entity, regime }: { entity: string; regime
       <div className="flex flex-wrap items-start gap-4">
         <TextField
           label="Qualitative addend"
-          name="qualitativeAddend"
           inputMode="decimal"
-          value={values.qualitativeAddend}
-          onChange={set("qualitativeAddend")}
-          error={shown.qualitativeAddend}
+          {...bound("qualitativeAddend")}
           hint="0 to 3"
           className="w-40"
         />
         {regime === "eu" && (
           <TextField
             label="Stressed VaR addend"
-            name="qualitativeAddendSvar"
             inputMode="decimal"
-            value={values.qualitativeAddendSvar}
-            onChange={set("qualitativeAddendSvar")}
-            error={shown.qualitativeAddendSvar}
+            {...bound("qualitativeAddendSvar")}
             hint="0 to 3 (CRR Art. 366)"
             className="w-44"
           />
         )}
         <TextField
           label="Multiplier floor"
-          name="multiplierFloor"
           inputMode="decimal"
-          value={values.multiplierFloor}
-          onChange={set("multiplierFloor")}
-          error={shown.multiplierFloor}
+          {...bound("multiplierFloor")}
           hint="The lowest multiplier allowed"
           className="w-44"
         />
-        <SelectField
-          label="P&L basis"
-          value={values.pnlBasis}
-          onChange={set("pnlBasis")}
-          error={shown.pnlBasis}
-          className="w-60"
-        >
+        <SelectField label="P&L basis" {...bound("pnlBasis")} className="w-60">
           <option value="">As in force</option>
           {pnlBasisIds.map((b) => (
             <option key={b} value={b}>
@@ -168,13 +138,7 @@ export function ProposeSettingsForm({ entity, regime }: { entity: string; regime
             </option>
           ))}
         </SelectField>
-        <SelectField
-          label="Determination frequency"
-          value={values.determinationFrequency}
-          onChange={set("determinationFrequency")}
-          error={shown.determinationFrequency}
-          className="w-48"
-        >
+        <SelectField label="Determination frequency" {...bound("determinationFrequency")} className="w-48">
           <option value="">As in force</option>
           {(Object.keys(frequencyLabels) as (keyof typeof frequencyLabels)[]).map((f) => (
             <option key={f} value={f}>
@@ -184,9 +148,9 @@ export function ProposeSettingsForm({ entity, regime }: { entity: string; regime
         </SelectField>
       </div>
       <div>
-        <Button type="submit" disabled={propose.isPending}>
-          {propose.isPending ? "Proposing…" : "Propose the change"}
-        </Button>
+        <SubmitButton pending={propose.isPending} busyLabel="Proposing…">
+          Propose the change
+        </SubmitButton>
       </div>
     </form>
   );

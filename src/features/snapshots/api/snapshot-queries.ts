@@ -1,4 +1,4 @@
-import { queryOptions, useMutation, useQueryClient, type Query } from "@tanstack/react-query";
+import { useMutation, useQueryClient, type Query } from "@tanstack/react-query";
 import {
   snapshotListSchema,
   snapshotSchema,
@@ -13,6 +13,7 @@ import { filingSchema } from "@shared/schemas/filing";
 import { capitalOnDateSchema, determinationListSchema } from "@shared/schemas/determination";
 import { api, isApiError, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
+import { getQuery } from "@/lib/queries";
 
 const base = (id: number) => `/api/snapshots/${id}`;
 
@@ -34,35 +35,25 @@ export const snapshotKeys = {
 export const snapshotQueries = {
   /** The entity's snapshots, newest quarter first (treasury receives only the signed-off ones). */
   list: (entity: string) =>
-    queryOptions({
-      queryKey: snapshotKeys.list(entity),
-      queryFn: () => api.get(withQuery("/api/snapshots", { entity }), snapshotListSchema),
-    }),
-  detail: (id: number) =>
-    queryOptions({
-      queryKey: snapshotKeys.detail(id),
-      queryFn: () => api.get(base(id), snapshotSchema),
-    }),
+    getQuery(snapshotKeys.list(entity), withQuery("/api/snapshots", { entity }), snapshotListSchema),
+  detail: (id: number) => getQuery(snapshotKeys.detail(id), base(id), snapshotSchema),
   /** The entity's determinations of the multiplier, oldest first (treasury receives the signed-off ones only). */
   determinations: (entity: string) =>
-    queryOptions({
-      queryKey: snapshotKeys.determinations(entity),
-      queryFn: () => api.get(`/api/entities/${encodeURIComponent(entity)}/determinations`, determinationListSchema),
-    }),
+    getQuery(
+      snapshotKeys.determinations(entity),
+      `/api/entities/${encodeURIComponent(entity)}/determinations`,
+      determinationListSchema,
+    ),
   /** The multiplier in force today beside the indicative one (the reporting office and the CRO only). */
   inForceToday: (entity: string) =>
-    queryOptions({
-      queryKey: snapshotKeys.inForceToday(entity),
-      queryFn: () => api.get(`/api/entities/${encodeURIComponent(entity)}/capital`, capitalOnDateSchema),
-    }),
+    getQuery(
+      snapshotKeys.inForceToday(entity),
+      `/api/entities/${encodeURIComponent(entity)}/capital`,
+      capitalOnDateSchema,
+    ),
   /** The server recomputes the hash chain each time it is asked; a cached answer would prove nothing. */
   verify: (id: number) =>
-    queryOptions({
-      queryKey: snapshotKeys.verify(id),
-      queryFn: () => api.get(`${base(id)}/verify`, snapshotVerifySchema),
-      staleTime: 0,
-      gcTime: 0,
-    }),
+    getQuery(snapshotKeys.verify(id), `${base(id)}/verify`, snapshotVerifySchema, { staleTime: 0, gcTime: 0 }),
 };
 
 /** The error codes after which the snapshot still stands as the screen shows it (the reader fixes the cause, not the screen). */
@@ -112,56 +103,37 @@ function useRereadOnRefusal() {
       : undefined;
 }
 
-/** Freezes the quarter's figures as a draft; for a draft or returned quarter the server recomputes it (200). */
-export function usePrepareSnapshot() {
+/** A change to one snapshot: its answer is stored (useStoreAnswer), a refusal that is news about it reads it again. */
+function useSnapshotChange<T>(mutationFn: (body: T) => Promise<Snapshot>) {
   const store = useStoreAnswer();
   const reread = useRereadOnRefusal();
   return useMutation({
-    mutationFn: (body: CreateSnapshotBody) => api.post("/api/snapshots", body, snapshotSchema),
+    mutationFn,
     onSuccess: (snapshot) => store(snapshot),
     onError: (error) => reread(error),
   });
+}
+
+/** Freezes the quarter's figures as a draft; for a draft or returned quarter the server recomputes it (200). */
+export function usePrepareSnapshot() {
+  return useSnapshotChange((body: CreateSnapshotBody) => api.post("/api/snapshots", body, snapshotSchema));
 }
 
 export function useSubmitSnapshot(id: number) {
-  const store = useStoreAnswer();
-  const reread = useRereadOnRefusal();
-  return useMutation({
-    mutationFn: (body: SnapshotActionBody) => api.post(`${base(id)}/submit`, body, snapshotSchema),
-    onSuccess: (snapshot) => store(snapshot),
-    onError: (error) => reread(error),
-  });
+  return useSnapshotChange((body: SnapshotActionBody) => api.post(`${base(id)}/submit`, body, snapshotSchema));
 }
 
 export function useApproveSnapshot(id: number) {
-  const store = useStoreAnswer();
-  const reread = useRereadOnRefusal();
-  return useMutation({
-    mutationFn: (body: SnapshotActionBody) => api.post(`${base(id)}/approve`, body, snapshotSchema),
-    onSuccess: (snapshot) => store(snapshot),
-    onError: (error) => reread(error),
-  });
+  return useSnapshotChange((body: SnapshotActionBody) => api.post(`${base(id)}/approve`, body, snapshotSchema));
 }
 
 /** The analyst's values of the return that the product does not hold, on a draft or returned snapshot. */
 export function useSetReturnInputs(id: number) {
-  const store = useStoreAnswer();
-  const reread = useRereadOnRefusal();
-  return useMutation({
-    mutationFn: (body: ReturnInputsBody) => api.put(`${base(id)}/return-inputs`, body, snapshotSchema),
-    onSuccess: (snapshot) => store(snapshot),
-    onError: (error) => reread(error),
-  });
+  return useSnapshotChange((body: ReturnInputsBody) => api.put(`${base(id)}/return-inputs`, body, snapshotSchema));
 }
 
 export function useReturnSnapshot(id: number) {
-  const store = useStoreAnswer();
-  const reread = useRereadOnRefusal();
-  return useMutation({
-    mutationFn: (body: ReturnSnapshotBody) => api.post(`${base(id)}/return`, body, snapshotSchema),
-    onSuccess: (snapshot) => store(snapshot),
-    onError: (error) => reread(error),
-  });
+  return useSnapshotChange((body: ReturnSnapshotBody) => api.post(`${base(id)}/return`, body, snapshotSchema));
 }
 
 /**

@@ -3,9 +3,9 @@ import { Link } from "react-router-dom";
 import { quarterLabel } from "@shared/backtest/quarters";
 import { type SnapshotListItem } from "@shared/schemas/snapshot";
 import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
+import { QuarterFigureCells, QuarterFigureHeads } from "@/components/ui/quarter-figure-cells";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
-import { formatAmount, formatFactor } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { PersonName } from "@/lib/people";
 
@@ -31,11 +31,7 @@ export function SnapshotListTable({
           <Th>Quarter</Th>
           <Th>Status</Th>
           <Th>Zone</Th>
-          <Th numeric>Counted exceptions</Th>
-          <Th numeric>Plus factor</Th>
-          <Th numeric>Multiplier</Th>
-          <Th numeric>Capital requirement</Th>
-          <Th numeric>Capital add-on</Th>
+          <QuarterFigureHeads />
           <Th>Prepared by</Th>
           <Th>Approved by</Th>
         </tr>
@@ -72,15 +68,7 @@ export function SnapshotListTable({
                 {/* A window short of 250 observations gives a provisional zone (docs/rules.md#window), here as in the snapshot's figures. */}
                 <ZoneBadge zone={s.zone} regime={s.figures.regime} provisional={!s.figures.window.complete} />
               </Td>
-              <Td numeric>{s.counted}</Td>
-              <Td numeric>{formatFactor(s.plusFactor)}</Td>
-              <Td numeric>{formatFactor(s.multiplier)}</Td>
-              <Td numeric className="whitespace-nowrap">
-                {formatAmount(s.capital, s.figures.currency)}
-              </Td>
-              <Td numeric className="whitespace-nowrap">
-                {formatAmount(s.addOn, s.figures.currency)}
-              </Td>
+              <QuarterFigureCells quarter={s} currency={s.figures.currency} />
               <Td className="text-xs">
                 <PersonName email={s.preparedBy} />
               </Td>

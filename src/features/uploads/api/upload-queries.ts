@@ -1,4 +1,4 @@
-import { keepPreviousData, queryOptions, useMutation, useQueryClient } from "@tanstack/react-query";
+import { keepPreviousData } from "@tanstack/react-query";
 import {
   commitResultSchema,
   uploadListSchema,
@@ -7,6 +7,7 @@ import {
 } from "@shared/schemas/upload";
 import { api, withQuery } from "@/lib/api-client";
 import { everyFigure } from "@/lib/query-scope";
+import { getQuery, useRefreshingMutation } from "@/lib/queries";
 
 /** The empty file with the header row and two example days; a plain download. */
 export const TEMPLATE_URL = "/api/uploads/template.csv";
@@ -18,29 +19,16 @@ export type UploadRowsParams = { offset: number; limit: number; invalidOnly: boo
 
 export const uploadQueries = {
   root: () => ["uploads"] as const,
-  list: () =>
-    queryOptions({
-      queryKey: [...uploadQueries.root(), "list"] as const,
-      queryFn: () => api.get("/api/uploads", uploadListSchema),
-      staleTime: 10_000,
-    }),
-  detail: (id: number) =>
-    queryOptions({
-      queryKey: [...uploadQueries.root(), "detail", id] as const,
-      queryFn: () => api.get(`/api/uploads/${id}`, uploadPreviewSchema),
-    }),
+  list: () => getQuery([...uploadQueries.root(), "list"], "/api/uploads", uploadListSchema, { staleTime: 10_000 }),
+  detail: (id: number) => getQuery([...uploadQueries.root(), "detail", id], `/api/uploads/${id}`, uploadPreviewSchema),
+  // A file's rows never change once uploaded.
   rows: (id: number, { offset, limit, invalidOnly }: UploadRowsParams) =>
-    queryOptions({
-      queryKey: [...uploadQueries.root(), "detail", id, "rows", { offset, limit, invalidOnly }] as const,
-      queryFn: () =>
-        api.get(
-          withQuery(`/api/uploads/${id}/rows`, { offset, limit, invalidOnly: String(invalidOnly) }),
-          uploadRowsPageSchema,
-        ),
-      placeholderData: keepPreviousData,
-      // A file's rows never change once uploaded.
-      staleTime: Infinity,
-    }),
+    getQuery(
+      [...uploadQueries.root(), "detail", id, "rows", { offset, limit, invalidOnly }],
+      withQuery(`/api/uploads/${id}/rows`, { offset, limit, invalidOnly: String(invalidOnly) }),
+      uploadRowsPageSchema,
+      { placeholderData: keepPreviousData, staleTime: Infinity },
+    ),
 };
 
 /** The first page a preview opens on: only the rows with errors when there are any. */
@@ -55,25 +43,19 @@ const allButRows = {
 };
 
 export function useCommitUpload() {
-  const queryClient = useQueryClient();
-  return useMutation({
+  return useRefreshingMutation(
     // confirmSignedOff: the person ticked that the file may restate days of signed-off quarters.
-    mutationFn: ({ id, confirmSignedOff }: { id: number; confirmSignedOff?: boolean }) =>
+    ({ id, confirmSignedOff }: { id: number; confirmSignedOff?: boolean }) =>
       api.post(`/api/uploads/${id}/commit`, confirmSignedOff ? { confirmSignedOff } : {}, commitResultSchema),
     // Committed rows change the history, the findings and every figure computed from the data
     // (zone, count, multiplier, add-on on the Overview and Backtest screens): all but the rows of files.
-    onSuccess: () =>
-      queryClient.invalidateQueries({
-        predicate: (q) =>
-          everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows"),
-      }),
-  });
+    {
+      predicate: (q) =>
+        everyFigure.predicate(q) && !(q.queryKey[0] === uploadQueries.root()[0] && q.queryKey[3] === "rows"),
+    },
+  );
 }
 
 export function useDiscardUpload() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: (id: number) => api.del(`/api/uploads/${id}`),
-    onSuccess: () => queryClient.invalidateQueries(allButRows),
-  });
+  return useRefreshingMutation((id: number) => api.del(`/api/uploads/${id}`), allButRows);
 }

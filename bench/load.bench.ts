@@ -184,8 +184,9 @@ async function historyCheck(server: BenchServer, histories: { years: number; ent
   return out;
 }
 
-function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
+function endpointsFor(portfolios: string[], entities: string[], snapshotIds: number[]): Endpoint[] {
   const since = new Date(Date.now() - 90 * 86_400_000).toISOString().slice(0, 10);
+  const today = new Date().toISOString().slice(0, 10);
   return [
     { name: "GET /api/health (floor)", paths: ["/api/health"] },
     { name: "GET /api/auth/me", paths: ["/api/auth/me"] },
@@ -211,7 +212,17 @@ function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
       paths: entities.map((e) => `/api/entities/${e}/capital/what-if`),
       body: JSON.stringify({ extraExceptions: 1 }),
     },
+    {
+      name: "GET /api/entities/:code/capital?date",
+      paths: entities.map((e) => `/api/entities/${e}/capital?date=${today}`),
+    },
+    { name: "GET /api/entities/:code/determinations", paths: entities.map((e) => `/api/entities/${e}/determinations`) },
+    { name: "GET /api/entities/:code/settings", paths: entities.map((e) => `/api/entities/${e}/settings`) },
     { name: "GET /api/snapshots", paths: ["/api/snapshots"] },
+    { name: "GET /api/snapshots/:id", paths: snapshotIds.map((id) => `/api/snapshots/${id}`) },
+    { name: "GET /api/notices?entity", paths: entities.map((e) => `/api/notices?entity=${e}`) },
+    { name: "GET /api/queue", paths: ["/api/queue"] },
+    { name: "GET /api/people", paths: ["/api/people"] },
     { name: "GET /api/filings", paths: ["/api/filings"] },
     { name: "GET /api/findings", paths: ["/api/findings"] },
     { name: "GET /api/uploads", paths: ["/api/uploads"] },
@@ -220,7 +231,7 @@ function endpointsFor(portfolios: string[], entities: string[]): Endpoint[] {
 
 async function main() {
   const data = await prepareLoadDatabase("quartermark_load", 20);
-  const endpoints = endpointsFor(data.portfolios, data.entities);
+  const endpoints = endpointsFor(data.portfolios, data.entities, data.snapshotIds);
   const runs = (process.env.LOAD_WORKERS ?? "1,default").split(",").map((s) => s.trim());
   const all: Figures[] = [];
   let history: Awaited<ReturnType<typeof historyCheck>> = [];

@@ -19,50 +19,37 @@ const base = args.includes("--base")
 const details = args.includes("--details");
 const password = process.env.DEMO_PASSWORD ?? "quartermark-demo";
 
-type Screen = { name: string; path: string };
-const analystScreens: Screen[] = [
-  { name: "Overview", path: "/" },
-  { name: "Backtest", path: "/backtest" },
-  { name: "Data", path: "/data" },
-  { name: "Quarter close", path: "/quarters" },
-  { name: "Capital", path: "/capital" },
-  { name: "Filings", path: "/filings" },
-];
-const roles: { role: string; email: string; screens: Screen[] }[] = [
-  { role: "analyst", email: "analyst@larkspur.test", screens: analystScreens },
-  { role: "cro", email: "cro@larkspur.test", screens: analystScreens },
-  {
-    role: "treasury",
-    email: "treasury@larkspur.test",
-    screens: [
-      { name: "Overview", path: "/" },
-      { name: "Quarter close", path: "/quarters" },
-      { name: "Capital", path: "/capital" },
-      { name: "API tokens", path: "/tokens" },
-    ],
-  },
-  {
-    role: "regulator",
-    email: "regulator@larkspur.test",
-    screens: [
-      { name: "Overview", path: "/" },
-      { name: "Filings", path: "/filings" },
-    ],
-  },
-  {
-    role: "admin",
-    email: "admin@larkspur.test",
-    screens: [
-      { name: "Overview", path: "/" },
-      { name: "Users", path: "/admin/users" },
-      { name: "Entities", path: "/admin/entities" },
-      { name: "Entity", path: "/admin/entities/LKS-UK" },
-      { name: "Regulator access", path: "/admin/assignments" },
-      { name: "Audit log", path: "/admin/audit" },
-      { name: "Outbox", path: "/admin/outbox" },
-    ],
-  },
-];
+/** Each screen's address, by the name the report gives it. */
+const PATHS = {
+  Overview: "/",
+  Backtest: "/backtest",
+  Data: "/data",
+  "Quarter close": "/quarters",
+  Capital: "/capital",
+  Filings: "/filings",
+  "API tokens": "/tokens",
+  Users: "/admin/users",
+  Entities: "/admin/entities",
+  Entity: "/admin/entities/LKS-UK",
+  "Regulator access": "/admin/assignments",
+  "Audit log": "/admin/audit",
+  Outbox: "/admin/outbox",
+};
+type ScreenName = keyof typeof PATHS;
+const analystScreens: ScreenName[] = ["Overview", "Backtest", "Data", "Quarter close", "Capital", "Filings"];
+/** The screens each demo role may open; each signs in as <role>@larkspur.test. */
+const SCREENS: Record<string, ScreenName[]> = {
+  analyst: analystScreens,
+  cro: analystScreens,
+  treasury: ["Overview", "Quarter close", "Capital", "API tokens"],
+  regulator: ["Overview", "Filings"],
+  admin: ["Overview", "Users", "Entities", "Entity", "Regulator access", "Audit log", "Outbox"],
+};
+const roles = Object.entries(SCREENS).map(([role, names]) => ({
+  role,
+  email: `${role}@larkspur.test`,
+  screens: names.map((name) => ({ name, path: PATHS[name] })),
+}));
 
 /** Settled: no request in flight, no "Loading…" placeholder left, lazy charts drawn. */
 async function settle(page: Page) {

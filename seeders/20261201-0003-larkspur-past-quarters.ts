@@ -9,23 +9,16 @@ import { AppError } from "../server/errors";
 import { DataFindingModel } from "../server/models/data-finding";
 import { EntityModel } from "../server/models/entity";
 import { PortfolioModel } from "../server/models/portfolio";
-import { UserModel } from "../server/models/user";
-import { toSessionUser } from "../server/modules/auth/auth.service";
 import { closeFinding } from "../server/modules/findings/findings.service";
 import { approveSnapshot, prepareSnapshot, submitSnapshot } from "../server/modules/snapshots/snapshots.service";
 import { endedQuarterEnds, quarterLabel, quarterStart } from "../shared/backtest/quarters";
+import { demoActor } from "./demo/actor";
 
 const QUARTERS = 4;
 
-async function actorFor(email: string) {
-  const user = await UserModel.findOne({ where: { email } });
-  if (!user) throw new Error(`The demo user ${email} is missing: the foundation seed must run first.`);
-  return { user: toSessionUser(user), ip: "127.0.0.1", requestId: "demo-seed" };
-}
-
 export async function up(): Promise<void> {
-  const analyst = await actorFor("analyst@larkspur.test");
-  const cro = await actorFor("cro@larkspur.test");
+  const analyst = await demoActor("analyst@larkspur.test");
+  const cro = await demoActor("cro@larkspur.test");
   const quarters = endedQuarterEnds(new Date().toISOString().slice(0, 10), QUARTERS).reverse();
   for (const entity of await EntityModel.findAll({ order: [["code", "ASC"]] })) {
     const portfolioIds = (await PortfolioModel.findAll({ where: { entityId: entity.id } })).map((p) => p.id);

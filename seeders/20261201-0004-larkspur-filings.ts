@@ -8,17 +8,11 @@ import { SnapshotModel } from "../server/models/snapshot";
 import { EntityModel } from "../server/models/entity";
 import { RegulatorAssignmentModel } from "../server/models/regulator-assignment";
 import { UserModel } from "../server/models/user";
-import { toSessionUser } from "../server/modules/auth/auth.service";
 import { acknowledgeFiling, fileSnapshot } from "../server/modules/filings/filings.service";
-
-async function actorFor(email: string) {
-  const user = await UserModel.findOne({ where: { email } });
-  if (!user) throw new Error(`The demo user ${email} is missing: the foundation seed must run first.`);
-  return { user: toSessionUser(user), ip: "127.0.0.1", requestId: "demo-seed" };
-}
+import { actorOf, demoActor } from "./demo/actor";
 
 export async function up(): Promise<void> {
-  const cro = await actorFor("cro@larkspur.test");
+  const cro = await demoActor("cro@larkspur.test");
   for (const entity of await EntityModel.findAll({ order: [["code", "ASC"]] })) {
     const approved = await SnapshotModel.findAll({
       where: { entityId: entity.id, status: "approved" },
@@ -31,12 +25,7 @@ export async function up(): Promise<void> {
       if (i === toFile.length - 1) continue;
       for (const assignment of regulators.slice(0, 1)) {
         const regulator = await UserModel.findByPk(assignment.userId);
-        if (regulator)
-          await acknowledgeFiling(filing.id, {
-            user: toSessionUser(regulator),
-            ip: "127.0.0.1",
-            requestId: "demo-seed",
-          });
+        if (regulator) await acknowledgeFiling(filing.id, actorOf(regulator));
       }
     }
   }

@@ -8,19 +8,12 @@
 import { EntityModel } from "../server/models/entity";
 import { OvershootingNoticeModel } from "../server/models/overshooting-notice";
 import { PortfolioModel } from "../server/models/portfolio";
-import { UserModel } from "../server/models/user";
-import { toSessionUser } from "../server/modules/auth/auth.service";
 import { draftNotice, sendNotice } from "../server/modules/notices/notices.service";
-
-async function actorFor(email: string) {
-  const user = await UserModel.findOne({ where: { email } });
-  if (!user) throw new Error(`The demo user ${email} is missing: the foundation seed must run first.`);
-  return { user: toSessionUser(user), ip: "127.0.0.1", requestId: "demo-seed" };
-}
+import { demoActor } from "./demo/actor";
 
 export async function up(): Promise<void> {
-  const analyst = await actorFor("analyst@larkspur.test");
-  const cro = await actorFor("cro@larkspur.test");
+  const analyst = await demoActor("analyst@larkspur.test");
+  const cro = await demoActor("cro@larkspur.test");
   for (const entity of await EntityModel.findAll({ where: { regime: "eu" }, order: [["code", "ASC"]] })) {
     const books = await PortfolioModel.findAll({ where: { entityId: entity.id }, attributes: ["id"] });
     const open = await OvershootingNoticeModel.findAll({

@@ -29,16 +29,25 @@ export interface BenchDatabase {
   stop: () => Promise<void>;
 }
 
-/** A freshly migrated database with one EU entity, these portfolios and one analyst. */
-export async function prepareBenchDatabase(name: string, portfolioCodes: string[]): Promise<BenchDatabase> {
+/**
+ * The database `name` on the private MariaDB, dropped, created and migrated. The server's config is
+ * read here for the first time: set the environment it needs before.
+ */
+export async function migratedFreshDatabase(name: string) {
   process.env.DB_NAME = name;
   const creds = appCredentials();
   const { config } = await import("../../server/config");
   const db = await startPrivateDb(config.db.port);
   await ensureDatabase(db, name, creds, { fresh: true });
   const { migrateUp } = await import("../../server/db/migrator");
-  const { sequelize } = await import("../../server/db/sequelize");
   await migrateUp();
+  return { db, creds, config };
+}
+
+/** A freshly migrated database with one EU entity, these portfolios and one analyst. */
+export async function prepareBenchDatabase(name: string, portfolioCodes: string[]): Promise<BenchDatabase> {
+  const { db, creds, config } = await migratedFreshDatabase(name);
+  const { sequelize } = await import("../../server/db/sequelize");
   const hash = await bcrypt.hash(BENCH_PASSWORD, 12);
   await sequelize.query(
     "INSERT INTO users (email, name, role, password_hash) VALUES ('bench@quartermark.test', 'Bench Analyst', 'analyst', :hash)",

@@ -8,13 +8,8 @@ import { mkdtempSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { startMailSink } from "../../scripts/lib/mail-sink";
-import {
-  appCredentials,
-  ensureDatabase,
-  startPrivateDb,
-  stopPrivateDb,
-  type PrivateDb,
-} from "../../scripts/lib/mariadb";
+import { stopPrivateDb, type PrivateDb } from "../../scripts/lib/mariadb";
+import { migratedFreshDatabase } from "./bench-server";
 
 export interface LoadDatabase {
   name: string;
@@ -22,6 +17,8 @@ export interface LoadDatabase {
   /** Portfolio codes of every entity's top-of-house book, and the entity codes. */
   portfolios: string[];
   entities: string[];
+  /** The demo's snapshots (every quarter it signed off or left in draft). */
+  snapshotIds: number[];
   /** Entities alike but for the years of history they hold (not in the lists above). */
   histories: { years: number; entity: string; portfolio: string }[];
   stop: () => Promise<void>;
@@ -34,19 +31,13 @@ export async function prepareLoadDatabase(
   generated = 20,
   historyYears: readonly number[] = [1, 6],
 ): Promise<LoadDatabase> {
-  process.env.DB_NAME = name;
   const mailDir = mkdtempSync(path.join(os.tmpdir(), "qm-load-mail-"));
   const sink = await startMailSink(0, mailDir);
   process.env.SMTP_PORT = String(sink.port);
   process.env.MAIL_SINK_DIR = mailDir;
-  const creds = appCredentials();
-  const { config } = await import("../../server/config");
-  const db = await startPrivateDb(config.db.port);
-  await ensureDatabase(db, name, creds, { fresh: true });
-  const { migrateUp } = await import("../../server/db/migrator");
+  const { db, config } = await migratedFreshDatabase(name);
   const { seedDemo } = await import("../../server/db/seeder");
   const { sequelize } = await import("../../server/db/sequelize");
-  await migrateUp();
   await seedDemo();
 
   const { EntityModel } = await import("../../server/models/entity");
@@ -101,6 +92,9 @@ export async function prepareLoadDatabase(
   }
   const tops = (await PortfolioModel.findAll({ where: { level: "top" }, order: [["code", "ASC"]] })).map((p) => p.code);
   const entities = (await EntityModel.findAll({ order: [["code", "ASC"]] })).map((e) => e.code);
+  const snapshotIds = ((await sequelize.query("SELECT id FROM snapshots ORDER BY id"))[0] as { id: number }[]).map(
+    (r) => Number(r.id),
+  );
 
   // The same book over more or fewer years: the same seed, so the recent days are alike and only
   // the length of the history differs (what the read cost must not follow).
@@ -120,6 +114,7 @@ export async function prepareLoadDatabase(
     portfolios: tops,
     entities,
     histories,
+    snapshotIds,
     stop: async () => {
       if (db.startedHere) await stopPrivateDb(config.db.port);
     },

@@ -1,11 +1,10 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { PortfolioModel } from "./portfolio";
 import { findingKindSchema, type FindingKind } from "../../shared/schemas/finding";
 
-export class DataFindingModel extends TableModel<DataFindingModel> {
-  declare id: CreationOptional<number>;
+export class DataFindingModel extends RowModel<DataFindingModel> {
   declare portfolioId: number;
   declare kind: FindingKind;
   declare dateFrom: string;
@@ -16,8 +15,6 @@ export class DataFindingModel extends TableModel<DataFindingModel> {
   declare closedBy: number | null;
   declare closedAt: Date | null;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 DataFindingModel.init(

@@ -1,14 +1,13 @@
-import { type CreationOptional, type InferAttributes } from "sequelize";
+import type { InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { Zone } from "../../shared/backtest/types";
 
 export type DeterminationStatus = "provisional" | "approved" | "filed";
 
 /** One stored determination of an entity's multiplier at a period end (server/modules/determinations). */
-export class DeterminationModel extends TableModel<DeterminationModel> {
-  declare id: CreationOptional<number>;
+export class DeterminationModel extends RowModel<DeterminationModel> {
   declare entityId: number;
   declare periodEnd: string;
   declare asOf: string;
@@ -28,8 +27,6 @@ export class DeterminationModel extends TableModel<DeterminationModel> {
   declare settingsJson: string;
   declare status: DeterminationStatus;
   declare snapshotId: number | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 const factor = (attribute: keyof InferAttributes<DeterminationModel>) =>

@@ -1,10 +1,9 @@
 import { DataTypes, type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import type { PnlBasis, RegimeId } from "../../shared/schemas/common";
 
-export class EntityModel extends TableModel<EntityModel> {
-  declare id: CreationOptional<number>;
+export class EntityModel extends RowModel<EntityModel> {
   declare code: string;
   declare name: string;
   declare regime: RegimeId;
@@ -16,8 +15,6 @@ export class EntityModel extends TableModel<EntityModel> {
   declare supervisorName: string | null;
   declare supervisorEmails: string[];
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 EntityModel.init(

@@ -1,10 +1,9 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import type { ExceptionCause, ExclusionStatus } from "../../shared/schemas/review";
 
-export class ExceptionReviewModel extends TableModel<ExceptionReviewModel> {
-  declare id: CreationOptional<number>;
+export class ExceptionReviewModel extends RowModel<ExceptionReviewModel> {
   declare portfolioId: number;
   declare businessDate: string;
   declare cause: ExceptionCause;
@@ -15,8 +14,6 @@ export class ExceptionReviewModel extends TableModel<ExceptionReviewModel> {
   declare decidedBy: number | null;
   declare reviewedBy: number;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 ExceptionReviewModel.init(

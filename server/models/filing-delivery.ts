@@ -1,6 +1,6 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 
 export type DeliveryStatus = "pending" | "sending" | "accepted" | "refused" | "unknown";
 
@@ -10,8 +10,7 @@ export type DeliveryStatus = "pending" | "sending" | "accepted" | "refused" | "u
  * answer — accepted, refused, back to pending (it did not answer), or unknown (the connection
  * broke mid-message and the mail journal cannot tell).
  */
-export class FilingDeliveryModel extends TableModel<FilingDeliveryModel> {
-  declare id: CreationOptional<number>;
+export class FilingDeliveryModel extends RowModel<FilingDeliveryModel> {
   declare filingId: number;
   declare recipient: string;
   declare status: CreationOptional<DeliveryStatus>;
@@ -19,8 +18,6 @@ export class FilingDeliveryModel extends TableModel<FilingDeliveryModel> {
   declare claimedAt: Date | null;
   declare detail: string | null;
   declare acceptedAt: Date | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 FilingDeliveryModel.init(

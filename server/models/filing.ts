@@ -1,10 +1,9 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 
 /** A signed-off snapshot's pack as sent to the supervisor (server/modules/filings). */
-export class FilingModel extends TableModel<FilingModel> {
-  declare id: CreationOptional<number>;
+export class FilingModel extends RowModel<FilingModel> {
   declare snapshotId: number;
   declare packPdf: Buffer;
   declare packSha256: string;
@@ -23,8 +22,6 @@ export class FilingModel extends TableModel<FilingModel> {
   declare acknowledgedAt: Date | null;
   /** The pack's sha256 as the supervisor acknowledged it (also signed into the snapshot chain). */
   declare acknowledgedSha256: CreationOptional<string | null>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 FilingModel.init(

@@ -1,4 +1,4 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
 import { TableModel, idColumn, notNull, nullable } from "./kit";
 import type { DeskStatus } from "../../shared/backtest/frtb-capital";

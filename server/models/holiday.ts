@@ -1,17 +1,14 @@
-import { type CreationOptional, type ForeignKey } from "sequelize";
+import type { CreationOptional, ForeignKey } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, timestampColumns } from "./kit";
 import { EntityModel } from "./entity";
 import type { HolidaySource } from "../../shared/schemas/entity";
 
-export class HolidayModel extends TableModel<HolidayModel> {
-  declare id: CreationOptional<number>;
+export class HolidayModel extends RowModel<HolidayModel> {
   declare entityId: ForeignKey<EntityModel["id"]>;
   declare date: string;
   declare name: string;
   declare source: CreationOptional<HolidaySource>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 HolidayModel.init(

@@ -1,4 +1,4 @@
-import { DataTypes, Model, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
 
 /**
  * What every model repeats, written once. The migrations hold the schema; these only describe its
@@ -7,6 +7,13 @@ import { DataTypes, Model, type InferAttributes, type InferCreationAttributes } 
 
 /** A model whose attributes are the fields it declares (`class UserModel extends TableModel<UserModel>`). */
 export abstract class TableModel<M extends Model> extends Model<InferAttributes<M>, InferCreationAttributes<M>> {}
+
+/** A table model with the columns of idColumn() and timestampColumns(). */
+export abstract class RowModel<M extends Model> extends TableModel<M> {
+  declare id: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
 
 /** The INTEGER AUTO_INCREMENT primary key `id`. */
 export const idColumn = () => ({ id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true } });

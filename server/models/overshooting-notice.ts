@@ -1,12 +1,11 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { NoticeStatus } from "../../shared/schemas/notice";
 
 /** An overshooting notice to the supervisor (docs/rules.md#overshooting-notice). */
-export class OvershootingNoticeModel extends TableModel<OvershootingNoticeModel> {
-  declare id: CreationOptional<number>;
+export class OvershootingNoticeModel extends RowModel<OvershootingNoticeModel> {
   declare portfolioId: number;
   declare businessDate: string;
   declare status: CreationOptional<NoticeStatus>;
@@ -32,8 +31,6 @@ export class OvershootingNoticeModel extends TableModel<OvershootingNoticeModel>
   declare note: CreationOptional<string | null>;
   declare remindedAt: CreationOptional<Date | null>;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 type M = OvershootingNoticeModel;

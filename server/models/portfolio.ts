@@ -1,17 +1,14 @@
-import { type CreationOptional, type ForeignKey } from "sequelize";
+import type { ForeignKey } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, timestampColumns } from "./kit";
 import type { PortfolioLevel } from "../../shared/schemas/common";
 import { EntityModel } from "./entity";
 
-export class PortfolioModel extends TableModel<PortfolioModel> {
-  declare id: CreationOptional<number>;
+export class PortfolioModel extends RowModel<PortfolioModel> {
   declare entityId: ForeignKey<EntityModel["id"]>;
   declare code: string;
   declare name: string;
   declare level: PortfolioLevel;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 PortfolioModel.init(

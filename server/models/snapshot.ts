@@ -1,13 +1,12 @@
-import { type CreationOptional, type InferAttributes } from "sequelize";
+import type { CreationOptional, InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { SnapshotStatus } from "../../shared/schemas/snapshot";
 import type { Zone } from "../../shared/backtest/types";
 
 /** One entity's figures at one quarter end, frozen for sign-off (server/modules/snapshots). */
-export class SnapshotModel extends TableModel<SnapshotModel> {
-  declare id: CreationOptional<number>;
+export class SnapshotModel extends RowModel<SnapshotModel> {
   declare entityId: number;
   declare quarterEnd: string;
   declare status: SnapshotStatus;
@@ -37,8 +36,6 @@ export class SnapshotModel extends TableModel<SnapshotModel> {
   declare amendsId: number | null;
   declare amendmentJson: string | null;
   declare version: CreationOptional<number>;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 const decimal = (

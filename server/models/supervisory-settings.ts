@@ -1,6 +1,6 @@
-import { type CreationOptional, type InferAttributes } from "sequelize";
+import type { InferAttributes } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 import { decimalAttribute } from "./decimal";
 import type { PnlBasis } from "../../shared/schemas/common";
 import type { DeterminationFrequency } from "../../shared/backtest/determination";
@@ -8,8 +8,7 @@ import type { DeterminationFrequency } from "../../shared/backtest/determination
 export type SettingsStatus = "proposed" | "approved" | "rejected";
 
 /** One dated, governed record of an entity's supervisory settings (server/modules/settings). */
-export class SupervisorySettingsModel extends TableModel<SupervisorySettingsModel> {
-  declare id: CreationOptional<number>;
+export class SupervisorySettingsModel extends RowModel<SupervisorySettingsModel> {
   declare entityId: number;
   declare effectiveFrom: string;
   declare reference: string;
@@ -24,8 +23,6 @@ export class SupervisorySettingsModel extends TableModel<SupervisorySettingsMode
   declare decidedBy: number | null;
   declare decidedAt: Date | null;
   declare decisionComment: string | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 const decimal = (attribute: keyof InferAttributes<SupervisorySettingsModel>, allowNull: boolean) =>

@@ -1,10 +1,8 @@
-import { type CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns } from "./kit";
 import { UserModel } from "./user";
 
-export class UploadModel extends TableModel<UploadModel> {
-  declare id: CreationOptional<number>;
+export class UploadModel extends RowModel<UploadModel> {
   declare fileName: string;
   declare sha256: string;
   declare committedSha256: string | null;
@@ -24,8 +22,6 @@ export class UploadModel extends TableModel<UploadModel> {
   declare committedAt: Date | null;
   /** Who committed it: the who of every version it wrote (committedAt is their when). */
   declare committedBy: number | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 UploadModel.init(

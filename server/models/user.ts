@@ -1,10 +1,9 @@
-import { type CreationOptional } from "sequelize";
+import type { CreationOptional } from "sequelize";
 import { sequelize } from "../db/sequelize";
-import { TableModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
+import { RowModel, idColumn, notNull, nullable, timestampColumns, versionColumn } from "./kit";
 import { roleSchema, type Role } from "../../shared/schemas/common";
 
-export class UserModel extends TableModel<UserModel> {
-  declare id: CreationOptional<number>;
+export class UserModel extends RowModel<UserModel> {
   declare email: string;
   declare name: string;
   declare role: Role;
@@ -16,8 +15,6 @@ export class UserModel extends TableModel<UserModel> {
   /** Row version of the admin's edits (optimistic locking): a stale one is refused with 409. */
   declare version: CreationOptional<number>;
   declare lastSignInAt: Date | null;
-  declare createdAt: CreationOptional<Date>;
-  declare updatedAt: CreationOptional<Date>;
 }
 
 UserModel.init(

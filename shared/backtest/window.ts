@@ -1,6 +1,7 @@
 import { EngineInputError } from "./errors";
 import { dayNumber, fromDayNumber } from "./calendar";
 import type { Observation } from "./types";
+import { PNL_COMPONENTS } from "./pnl-definition";
 
 /** Digits at positions [from, from + length) of s as a number, or −1 if any is not a digit. */
 function digits(s: string, from: number, length: number): number {
@@ -43,11 +44,7 @@ const NUMERIC_FIELDS = [
   "rrao",
   "saDrc",
   "saGa",
-  "feesCommissions",
-  "reservesAdjustments",
-  "netInterestIncome",
-  "intradayPnl",
-  "newTradePnl",
+  ...PNL_COMPONENTS,
 ] as const;
 
 /**

@@ -66,6 +66,22 @@ export const rollOffSchema = z.object({
 });
 export type RollOffDto = z.infer<typeof rollOffSchema>;
 
+/** The window of business days a backtest covers: its first and last day, how many, and whether it is full. */
+export const backtestWindowSchema = z.object({
+  start: z.string().nullable(),
+  end: z.string().nullable(),
+  observations: z.number().int(),
+  complete: z.boolean(),
+});
+
+/** The window's exceptions on each P&L, the number counted for the zone, and those excluded. */
+export const exceptionCountsSchema = z.object({
+  actual: z.number().int(),
+  hypothetical: z.number().int(),
+  counted: z.number().int(),
+  excluded: z.number().int(),
+});
+
 /** A desk's backtest at one confidence level (MAR32.18–32.19). */
 const deskLevelSchema = z.object({
   actual: z.number().int(),
@@ -81,12 +97,7 @@ export const deskResultSchema = z.object({
   portfolio: z.string(),
   name: z.string(),
   backtest: z.object({
-    window: z.object({
-      start: z.string().nullable(),
-      end: z.string().nullable(),
-      observations: z.number().int(),
-      complete: z.boolean(),
-    }),
+    window: backtestWindowSchema,
     at99: deskLevelSchema,
     at975: deskLevelSchema,
     passes: z.boolean(),
@@ -110,18 +121,8 @@ export const backtestResponseSchema = z.object({
   pnlBasis: pnlBasisSchema,
   asOf: z.string(),
   latestDate: z.string(),
-  window: z.object({
-    start: z.string().nullable(),
-    end: z.string().nullable(),
-    observations: z.number().int(),
-    complete: z.boolean(),
-  }),
-  exceptions: z.object({
-    actual: z.number().int(),
-    hypothetical: z.number().int(),
-    counted: z.number().int(),
-    excluded: z.number().int(),
-  }),
+  window: backtestWindowSchema,
+  exceptions: exceptionCountsSchema,
   zone: zoneSchema,
   zoneLabel: z.string(),
   plusFactor: z.number(),

@@ -1,6 +1,12 @@
 import { z } from "zod";
 import { entityCodeSchema, isoDateSchema, regimeSchema, pnlBasisSchema } from "./common";
-import { exceptionAmountsSchema, testOutcomeSchema, zoneSchema } from "./backtest";
+import {
+  backtestWindowSchema,
+  exceptionAmountsSchema,
+  exceptionCountsSchema,
+  testOutcomeSchema,
+  zoneSchema,
+} from "./backtest";
 import { exceptionCauseSchema, exclusionStatusSchema } from "./review";
 import { frtbFiguresSchema } from "./frtb";
 
@@ -113,18 +119,8 @@ export const snapshotFiguresSchema = z.object({
   currency: z.string(),
   /** The last day with data on or before the quarter end. */
   asOf: z.string(),
-  window: z.object({
-    start: z.string().nullable(),
-    end: z.string().nullable(),
-    observations: z.number().int(),
-    complete: z.boolean(),
-  }),
-  exceptions: z.object({
-    actual: z.number().int(),
-    hypothetical: z.number().int(),
-    counted: z.number().int(),
-    excluded: z.number().int(),
-  }),
+  window: backtestWindowSchema,
+  exceptions: exceptionCountsSchema,
   exceptionDates: z.array(z.string()),
   zone: zoneSchema,
   zoneLabel: z.string(),

@@ -189,48 +189,37 @@ export async function refreshDeterminations(entityId: number, transaction: Trans
     ordered.map((d) => ({
       entityId,
       periodEnd: d.periodEnd,
-      asOf: d.asOf,
-      effectiveFrom: d.effectiveFrom,
-      effectiveTo: d.effectiveTo,
-      counted: d.counted,
-      actual: d.actual,
-      hypothetical: d.hypothetical,
-      zone: d.zone,
-      plusFactor: d.plusFactor,
-      multiplier: d.multiplier,
-      multiplierSvar: d.multiplierSvar,
-      windowStart: d.windowStart,
-      windowObservations: d.windowObservations,
-      windowComplete: d.windowComplete,
+      ...copiedColumns(d),
       settingsId: d.settings.id,
       settingsJson: JSON.stringify(d.settings),
-      status: d.status,
-      snapshotId: d.snapshotId,
     })),
-    {
-      transaction,
-      updateOnDuplicate: [
-        "asOf",
-        "effectiveFrom",
-        "effectiveTo",
-        "counted",
-        "actual",
-        "hypothetical",
-        "zone",
-        "plusFactor",
-        "multiplier",
-        "multiplierSvar",
-        "windowStart",
-        "windowObservations",
-        "windowComplete",
-        "settingsId",
-        "settingsJson",
-        "status",
-        "snapshotId",
-        "updatedAt",
-      ],
-    },
+    { transaction, updateOnDuplicate: [...COPIED_COLUMNS, "settingsId", "settingsJson", "updatedAt"] },
   );
+}
+
+/** The columns a refresh takes from the engine's determination as they are, named alike on both sides. */
+const COPIED_COLUMNS = [
+  "asOf",
+  "effectiveFrom",
+  "effectiveTo",
+  "counted",
+  "actual",
+  "hypothetical",
+  "zone",
+  "plusFactor",
+  "multiplier",
+  "multiplierSvar",
+  "windowStart",
+  "windowObservations",
+  "windowComplete",
+  "status",
+  "snapshotId",
+] as const;
+
+type CopiedColumn = (typeof COPIED_COLUMNS)[number];
+
+function copiedColumns<D extends Record<CopiedColumn, unknown>>(d: D): Pick<D, CopiedColumn> {
+  return Object.fromEntries(COPIED_COLUMNS.map((column) => [column, d[column]])) as Pick<D, CopiedColumn>;
 }
 
 /** Refreshes every entity that owns one of these portfolios (an upload names portfolios). */

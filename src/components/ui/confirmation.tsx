@@ -1,6 +1,20 @@
-import type { ReactNode } from "react";
+import { useState, type ReactNode } from "react";
 import { Button } from "@/components/ui/button";
-import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
+import { cancelOnEscape, focusWhenShown, useFocusReturn } from "@/lib/focus";
+
+/**
+ * Whether a Confirmation stands in place of the button that opened it. `opener` goes on that button:
+ * `cancel()` closes the confirmation and gives the focus back to it.
+ */
+export function useConfirmStep() {
+  const [confirming, setConfirming] = useState(false);
+  const opener = useFocusReturn<HTMLButtonElement>();
+  function cancel() {
+    opener.returnFocus();
+    setConfirming(false);
+  }
+  return { confirming, setConfirming, opener, cancel };
+}
 
 /**
  * Asks before a change that cannot simply be taken back, and says what it will do. The confirming

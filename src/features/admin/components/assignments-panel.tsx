@@ -1,12 +1,13 @@
-import { useState, type FormEvent } from "react";
+import type { FormEvent } from "react";
 import type { Assignment } from "@shared/schemas/assignment";
 import type { Entity } from "@shared/schemas/entity";
 import type { User } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
+import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
 import { ActionsTh } from "@/components/ui/row-actions";
-import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { isApiError } from "@/lib/api-client";
 import { formLevelMessage } from "@/lib/form";
 import { useAddAssignment, useRemoveAssignment } from "../api/assignment-queries";
 
@@ -15,10 +16,8 @@ type Props = { assignments: Assignment[]; users: User[]; entities: Pick<Entity, 
 function AddAssignmentForm({ assignments, users, entities }: Props) {
   const add = useAddAssignment();
   const regulators = users.filter((u) => u.role === "regulator" && !u.disabled);
-  const [userId, setUserId] = useState("");
-  const [entityCode, setEntityCode] = useState("");
-  const [errors, setErrors] = useState<{ userId?: string; entityCode?: string }>({});
-  const [done, setDone] = useState<string>();
+  const { values, setValues, setErrors, done, setDone, send, field } = useFormKit({ userId: "", entityCode: "" });
+  const { userId, entityCode } = values;
 
   function submit(e: FormEvent) {
     e.preventDefault();
@@ -37,17 +36,11 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
     }
     setErrors(next);
     if (next.userId || next.entityCode) return;
-    add.mutate(
-      { userId: Number(userId), entityCode },
-      {
-        onSuccess: () => {
-          const who = regulators.find((u) => u.id === Number(userId));
-          setDone(`${who?.name ?? "The regulator"} can now see filings of ${entityCode}.`);
-          setEntityCode("");
-        },
-        onError: (err) => setErrors(fieldErrorsOf(err)),
-      },
-    );
+    send(add, { userId: Number(userId), entityCode }, () => {
+      const who = regulators.find((u) => u.id === Number(userId));
+      setDone(`${who?.name ?? "The regulator"} can now see filings of ${entityCode}.`);
+      setValues((v) => ({ ...v, entityCode: "" }));
+    });
   }
 
   if (regulators.length === 0) {
@@ -57,21 +50,14 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
       </EmptyState>
     );
   }
-  const formError = formLevelMessage(add.error);
 
   return (
     <form onSubmit={submit} noValidate aria-labelledby="add-assignment-title" className="flex flex-col gap-2">
       <h2 id="add-assignment-title">Grant access</h2>
-      <FormMessage>{formError}</FormMessage>
+      <FormMessage>{formLevelMessage(add.error)}</FormMessage>
       <FormMessage tone="done">{done}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
-        <SelectField
-          label="Regulator"
-          value={userId}
-          onChange={(e) => setUserId(e.target.value)}
-          error={errors.userId}
-          className="w-72"
-        >
+        <SelectField label="Regulator" {...field("userId")} className="w-72">
           <option value="">Choose…</option>
           {regulators.map((u) => (
             <option key={u.id} value={u.id}>
@@ -79,13 +65,7 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
             </option>
           ))}
         </SelectField>
-        <SelectField
-          label="Entity"
-          value={entityCode}
-          onChange={(e) => setEntityCode(e.target.value)}
-          error={errors.entityCode}
-          className="w-72"
-        >
+        <SelectField label="Entity" {...field("entityCode")} className="w-72">
           <option value="">Choose…</option>
           {entities.map((en) => (
             <option key={en.code} value={en.code}>
@@ -93,9 +73,9 @@ function AddAssignmentForm({ assignments, users, entities }: Props) {
             </option>
           ))}
         </SelectField>
-        <Button type="submit" className="mt-5" disabled={add.isPending}>
-          {add.isPending ? "Granting…" : "Grant access"}
-        </Button>
+        <SubmitButton pending={add.isPending} busyLabel="Granting…" className="mt-5">
+          Grant access
+        </SubmitButton>
       </div>
     </form>
   );

@@ -78,6 +78,14 @@ export function UsersTable({
     unlock.reset();
   }
 
+  type Step = "link" | "disable" | "unlock";
+  const isOpen = (u: User, kind: Step) => pending?.userId === u.id && pending.kind === kind;
+  /** Opens the confirmation of one step on one user, or closes it when it is open already. */
+  function toggle(u: User, kind: Step) {
+    resetAll();
+    setPending(isOpen(u, kind) ? null : { userId: u.id, kind });
+  }
+
   function confirmUnlock(u: User) {
     resetAll();
     unlock.mutate(u.id, {
@@ -205,15 +213,8 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`Unlock ${u.name}`}
-                          aria-expanded={pending?.userId === u.id && pending.kind === "unlock"}
-                          onClick={() => {
-                            resetAll();
-                            setPending(
-                              pending?.userId === u.id && pending.kind === "unlock"
-                                ? null
-                                : { userId: u.id, kind: "unlock" },
-                            );
-                          }}
+                          aria-expanded={isOpen(u, "unlock")}
+                          onClick={() => toggle(u, "unlock")}
                         >
                           Unlock
                         </Button>
@@ -224,15 +225,8 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`${u.passwordSet ? "Send reset link to" : "Invite again:"} ${u.name}`}
-                          aria-expanded={pending?.userId === u.id && pending.kind === "link"}
-                          onClick={() => {
-                            resetAll();
-                            setPending(
-                              pending?.userId === u.id && pending.kind === "link"
-                                ? null
-                                : { userId: u.id, kind: "link" },
-                            );
-                          }}
+                          aria-expanded={isOpen(u, "link")}
+                          onClick={() => toggle(u, "link")}
                         >
                           {u.passwordSet ? "Send reset link" : "Invite again"}
                         </Button>
@@ -243,18 +237,11 @@ export function UsersTable({
                           size="sm"
                           disabled={busy}
                           aria-label={`${u.disabled ? "Enable" : "Disable"} ${u.name}`}
-                          aria-expanded={
-                            u.disabled ? undefined : pending?.userId === u.id && pending.kind === "disable"
-                          }
+                          aria-expanded={u.disabled ? undefined : isOpen(u, "disable")}
                           onClick={() => {
                             if (u.disabled) return change(u, { disabled: false }, `${u.name} can sign in again.`);
                             // Disabling ends the person's sessions at once: it asks first, saying so.
-                            resetAll();
-                            setPending(
-                              pending?.userId === u.id && pending.kind === "disable"
-                                ? null
-                                : { userId: u.id, kind: "disable" },
-                            );
+                            toggle(u, "disable");
                           }}
                         >
                           {u.disabled ? "Enable" : "Disable"}

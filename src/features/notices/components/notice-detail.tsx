@@ -2,14 +2,14 @@ import { useState } from "react";
 import type { Role } from "@shared/schemas/common";
 import { noticeSchema, type Notice } from "@shared/schemas/notice";
 import { Button } from "@/components/ui/button";
-import { Confirmation } from "@/components/ui/confirmation";
+import { Confirmation, useConfirmStep } from "@/components/ui/confirmation";
 import { DownloadButton } from "@/components/ui/download-button";
 import { FormMessage, TextareaField } from "@/components/ui/field";
 import { LateBadge } from "@/components/ui/late-badge";
 import { Notice as NoteBox } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError, staleCurrent } from "@/lib/api-client";
 import { formatBusinessDate, formatDateTime, formatDecimal } from "@/lib/format";
-import { focusWhenShown, useFocusReturn } from "@/lib/focus";
+import { focusWhenShown } from "@/lib/focus";
 import { useDraftNotice, useSendNotice } from "../api/notice-queries";
 import { seriesWords, standingOf } from "../words";
 
@@ -154,9 +154,8 @@ function SendNotice({
   supervisorName: string | null;
 }) {
   const send = useSendNotice(notice.entity, notice.id);
-  const [asking, setAsking] = useState(false);
+  const { confirming: asking, setConfirming: setAsking, opener, cancel } = useConfirmStep();
   const [outcome, setOutcome] = useState<string>();
-  const opener = useFocusReturn<HTMLButtonElement>();
   // Once sent, the send is gone: what it did takes its place (and the focus).
   if (notice.status !== "open")
     return outcome ? (
@@ -203,10 +202,7 @@ function SendNotice({
             }
             setAsking(false);
           }}
-          onCancel={() => {
-            setAsking(false);
-            opener.returnFocus();
-          }}
+          onCancel={cancel}
         />
       ) : (
         <div>

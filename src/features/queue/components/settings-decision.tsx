@@ -2,10 +2,9 @@ import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
 import type { SettingsRecord } from "@shared/schemas/determination";
 import { Button } from "@/components/ui/button";
-import { Confirmation } from "@/components/ui/confirmation";
+import { Confirmation, useConfirmStep } from "@/components/ui/confirmation";
 import { FormMessage, TextareaField } from "@/components/ui/field";
 import { formLevelMessage } from "@/lib/form";
-import { useFocusReturn } from "@/lib/focus";
 import { formatDateTime, formatFactor } from "@/lib/format";
 import { queueQueries, useDecideSettings } from "../api/queue-queries";
 
@@ -55,10 +54,9 @@ export function SettingsDecision({
 }) {
   const records = useQuery(queueQueries.settings(entity));
   const decide = useDecideSettings(id);
-  const [confirming, setConfirming] = useState(false);
+  const { confirming, setConfirming, opener, cancel } = useConfirmStep();
   const [comment, setComment] = useState("");
   const [commentError, setCommentError] = useState<string>();
-  const opener = useFocusReturn<HTMLButtonElement>();
   const record = records.data?.find((r) => r.id === id);
   const heading = `Settings of ${entity}${record ? ` from ${record.effectiveFrom}` : ""}`;
 
@@ -112,10 +110,7 @@ export function SettingsDecision({
               confirm="Approve the settings"
               busy={decide.isPending}
               onConfirm={() => send("approve")}
-              onCancel={() => {
-                opener.returnFocus();
-                setConfirming(false);
-              }}
+              onCancel={cancel}
             />
           ) : (
             <div className="flex gap-3">

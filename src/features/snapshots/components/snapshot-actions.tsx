@@ -5,12 +5,13 @@ import { quarterLabel } from "@shared/backtest/quarters";
 import { returnSnapshotSchema, snapshotActionSchema, type Snapshot } from "@shared/schemas/snapshot";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
-import { Confirmation } from "@/components/ui/confirmation";
+import { Confirmation, useConfirmStep } from "@/components/ui/confirmation";
 import { zoneName } from "@/components/ui/zone-badge";
 import { FormMessage, TextareaField } from "@/components/ui/field";
+import { SubmitButton } from "@/components/ui/form-kit";
 import { Notice } from "@/components/ui/notice";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
-import { focusWhenShown, useFocusReturn } from "@/lib/focus";
+import { focusWhenShown } from "@/lib/focus";
 import { formatDateTime, formatFactor, shortHash } from "@/lib/format";
 import { focusFirstInvalid, formLevelMessage, validate, type FieldErrors } from "@/lib/form";
 import {
@@ -47,7 +48,7 @@ function Refusal({ error, findingsHref }: { error: unknown; findingsHref: string
 const commentOf = (text: string) => (text.trim() === "" ? undefined : text);
 
 /** The comment, its field errors and the two ways a send can fail, shared by the submit and sign-off forms. */
-function useCommentForm(onChanged: (message: string) => void) {
+function useCommentForm({ onDone, onChanged }: Pick<CommentFormProps, "onDone" | "onChanged">) {
   const formRef = useRef<HTMLFormElement>(null);
   const [comment, setComment] = useState("");
   const [errors, setErrors] = useState<FieldErrors>({});
@@ -69,45 +70,57 @@ function useCommentForm(onChanged: (message: string) => void) {
     setErrors(fieldErrorsOf(err));
   };
 
-  return { formRef, comment, setComment, errors, checked, onError };
+  /** Checks the input, sends it, and says what it did (`said`) with the snapshot as stored. */
+  function send<S extends z.ZodType>(
+    mutation: { mutateAsync: (body: z.output<S>) => Promise<Snapshot> },
+    schema: S,
+    input: unknown,
+    said: (s: Snapshot) => string,
+  ) {
+    const body = checked(schema, input);
+    if (!body) return;
+    // The promise, not mutate's callbacks: storing the answer replaces this form (the snapshot has moved
+    // on), and callbacks given to mutate() do not run once their component is gone.
+    mutation.mutateAsync(body).then((s) => onDone(said(s)), onError);
+  }
+
+  /** The props of the comment's TextareaField. */
+  const commentField = {
+    value: comment,
+    onChange: (e: { target: { value: string } }) => setComment(e.target.value),
+    rows: 3,
+    maxLength: 2000,
+    error: errors.comment,
+  };
+
+  return { formRef, comment, commentField, send };
 }
 
-function SubmitForm({
-  snapshot,
-  findingsHref,
-  onDone,
-  onChanged,
-}: {
-  snapshot: Snapshot;
-  findingsHref: string;
-  onDone: (message: string) => void;
-  onChanged: (message: string) => void;
-}) {
-  const submit = useSubmitSnapshot(snapshot.id);
-  const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
+/** What every action below is given: the snapshot, where its findings are, and how to say what it did. */
+type ActionProps = { snapshot: Snapshot; findingsHref: string; onDone: (message: string) => void };
 
-  function send(e: FormEvent) {
+type CommentFormProps = ActionProps & { onChanged: (message: string) => void };
+
+function SubmitForm({ snapshot, findingsHref, ...tell }: CommentFormProps) {
+  const submit = useSubmitSnapshot(snapshot.id);
+  const { formRef, comment, commentField, send } = useCommentForm(tell);
+
+  function submitForSignOff(e: FormEvent) {
     e.preventDefault();
     submit.reset();
-    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
-    if (!body) return;
-    // The promise, not mutate's callbacks: storing the answer replaces this form (the snapshot is no
-    // longer a draft), and callbacks given to mutate() do not run once their component is gone.
-    submit
-      .mutateAsync(body)
-      .then(
-        (s) =>
-          onDone(
-            `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
-          ),
-        onError,
-      );
+    send(
+      submit,
+      snapshotActionSchema,
+      { comment: commentOf(comment), version: snapshot.version },
+      (s) =>
+        `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
+    );
   }
 
   return (
     <form
       ref={formRef}
-      onSubmit={send}
+      onSubmit={submitForSignOff}
       noValidate
       aria-label="Submit for sign-off"
       className="flex max-w-2xl flex-col gap-3"
@@ -116,39 +129,22 @@ function SubmitForm({
       <TextareaField
         label="Comment for the sign-off (optional)"
         hint="What the chief risk officer should know: exceptions explained, exclusions asked, anything unusual in the quarter."
-        value={comment}
-        onChange={(e) => setComment(e.target.value)}
-        rows={3}
-        maxLength={2000}
-        error={errors.comment}
+        {...commentField}
       />
       <div>
-        <Button type="submit" disabled={submit.isPending}>
-          {submit.isPending ? "Submitting…" : "Submit for sign-off"}
-        </Button>
+        <SubmitButton pending={submit.isPending} busyLabel="Submitting…">
+          Submit for sign-off
+        </SubmitButton>
       </div>
     </form>
   );
 }
 
-function SignOffForm({
-  snapshot,
-  userEmail,
-  findingsHref,
-  onDone,
-  onChanged,
-}: {
-  snapshot: Snapshot;
-  userEmail: string;
-  findingsHref: string;
-  onDone: (message: string) => void;
-  onChanged: (message: string) => void;
-}) {
+function SignOffForm({ snapshot, userEmail, findingsHref, ...tell }: CommentFormProps & { userEmail: string }) {
   const approve = useApproveSnapshot(snapshot.id);
   const giveBack = useReturnSnapshot(snapshot.id);
-  const { formRef, comment, setComment, errors, checked, onError } = useCommentForm(onChanged);
-  const [confirming, setConfirming] = useState(false);
-  const opener = useFocusReturn<HTMLButtonElement>();
+  const { formRef, comment, commentField, send } = useCommentForm(tell);
+  const { confirming, setConfirming, opener, cancel } = useConfirmStep();
   // Four eyes (docs/architecture.md#roles): whoever prepared or submitted it may not approve it.
   const ownWork = sameUser(snapshot.preparedBy, userEmail) || sameUser(snapshot.submittedBy, userEmail);
 
@@ -156,28 +152,25 @@ function SignOffForm({
     giveBack.reset();
     approve.reset();
     setConfirming(false);
-    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
-    if (!body) return;
-    approve
-      .mutateAsync(body)
-      .then(
-        (s) =>
-          onDone(
-            `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
-          ),
-        onError,
-      );
+    send(
+      approve,
+      snapshotActionSchema,
+      { comment: commentOf(comment), version: snapshot.version },
+      (s) =>
+        `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
+    );
   }
 
   function sendReturn(e?: FormEvent) {
     e?.preventDefault();
     approve.reset();
     giveBack.reset();
-    const body = checked(returnSnapshotSchema, { comment, version: snapshot.version });
-    if (!body) return;
-    giveBack
-      .mutateAsync(body)
-      .then((s) => onDone(`${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`), onError);
+    send(
+      giveBack,
+      returnSnapshotSchema,
+      { comment, version: snapshot.version },
+      (s) => `${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`,
+    );
   }
 
   const error = approve.error ?? giveBack.error;
@@ -205,11 +198,7 @@ function SignOffForm({
             ? "Required to return it; the analysts read it before they prepare it again."
             : "Optional to approve; required to return it, saying what to change."
         }
-        value={comment}
-        onChange={(e) => setComment(e.target.value)}
-        rows={3}
-        maxLength={2000}
-        error={errors.comment}
+        {...commentField}
       />
       {confirming ? (
         <Confirmation
@@ -226,10 +215,7 @@ function SignOffForm({
           confirm={`Approve and seal ${quarterLabel(snapshot.quarterEnd)}`}
           busy={busy}
           onConfirm={sendApprove}
-          onCancel={() => {
-            opener.returnFocus();
-            setConfirming(false);
-          }}
+          onCancel={cancel}
         />
       ) : (
         <div className="flex flex-wrap items-center gap-3">
@@ -255,44 +241,39 @@ function SignOffForm({
   );
 }
 
-function PrepareAgain({
-  snapshot,
-  findingsHref,
-  onDone,
-  onPrepared,
-}: {
-  snapshot: Snapshot;
-  findingsHref: string;
-  onDone: (message: string) => void;
-  onPrepared: (s: Snapshot) => void;
-}) {
+type PrepareProps = ActionProps & { onPrepared: (s: Snapshot) => void };
+
+/**
+ * Prepares the quarter on today's data as a new draft (`amends`: the filed snapshot it corrects). The
+ * promise outlives the control, which the new draft replaces; a refusal shows through `prepare.error`.
+ */
+function usePrepareDraft({ snapshot, onDone, onPrepared }: PrepareProps) {
   const prepare = usePrepareSnapshot();
+  function run(amends: number | null, said: (s: Snapshot) => string, onRefused: () => void) {
+    const body = { entity: snapshot.entity, quarterEnd: snapshot.quarterEnd, ...(amends !== null ? { amends } : {}) };
+    prepare.mutateAsync(body).then((s) => {
+      onDone(said(s));
+      onPrepared(s);
+    }, onRefused);
+  }
+  return { prepare, run };
+}
+
+function PrepareAgain(props: PrepareProps) {
+  const { prepare, run } = usePrepareDraft(props);
+  // A returned amendment is prepared again as the amendment it is.
+  const prepareAgain = () =>
+    run(
+      props.snapshot.amends,
+      (s) =>
+        `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
+      () => undefined,
+    );
   return (
     <div className="flex flex-col gap-2">
-      <Refusal error={prepare.error} findingsHref={findingsHref} />
+      <Refusal error={prepare.error} findingsHref={props.findingsHref} />
       <div>
-        <Button
-          disabled={prepare.isPending}
-          onClick={() =>
-            // The promise outlives this button, which the new draft replaces; a refusal shows through prepare.error.
-            prepare
-              .mutateAsync({
-                entity: snapshot.entity,
-                quarterEnd: snapshot.quarterEnd,
-                // A returned amendment is prepared again as the amendment it is.
-                ...(snapshot.amends !== null ? { amends: snapshot.amends } : {}),
-              })
-              .then(
-                (s) => {
-                  onDone(
-                    `${quarterLabel(s.quarterEnd)} is computed again on today's data and is a draft: check it, then submit it.`,
-                  );
-                  onPrepared(s);
-                },
-                () => undefined,
-              )
-          }
-        >
+        <Button disabled={prepare.isPending} onClick={prepareAgain}>
           {prepare.isPending ? "Computing the figures…" : "Prepare again"}
         </Button>
       </div>
@@ -304,24 +285,14 @@ function PrepareAgain({
  * A day inside a filed quarter was restated: the analyst prepares an amendment, after a confirmation
  * that says what will happen (a new draft, the same sign-off, the filed snapshot left as it is).
  */
-function PrepareAmendment({
-  snapshot,
-  findingsHref,
-  onDone,
-  onPrepared,
-}: {
-  snapshot: Snapshot;
-  findingsHref: string;
-  onDone: (message: string) => void;
-  onPrepared: (s: Snapshot) => void;
-}) {
-  const prepare = usePrepareSnapshot();
-  const [confirming, setConfirming] = useState(false);
-  const opener = useFocusReturn<HTMLButtonElement>();
+function PrepareAmendment(props: PrepareProps) {
+  const { snapshot } = props;
+  const { prepare, run } = usePrepareDraft(props);
+  const { confirming, setConfirming, opener, cancel } = useConfirmStep();
   const quarter = quarterLabel(snapshot.quarterEnd);
   return (
     <div className="flex flex-col gap-2">
-      <Refusal error={prepare.error} findingsHref={findingsHref} />
+      <Refusal error={prepare.error} findingsHref={props.findingsHref} />
       {confirming ? (
         <Confirmation
           label="Prepare an amendment"
@@ -341,21 +312,14 @@ function PrepareAmendment({
           confirm={prepare.isPending ? "Computing the figures…" : "Prepare the amendment"}
           busy={prepare.isPending}
           onConfirm={() =>
-            // The promise outlives this form, which the new draft replaces; a refusal shows through prepare.error.
-            prepare.mutateAsync({ entity: snapshot.entity, quarterEnd: snapshot.quarterEnd, amends: snapshot.id }).then(
-              (s) => {
-                onDone(
-                  `The amendment of ${quarter} (#${s.id}) is prepared as a draft: check what changed, then submit it for sign-off.`,
-                );
-                onPrepared(s);
-              },
+            run(
+              snapshot.id,
+              (s) =>
+                `The amendment of ${quarter} (#${s.id}) is prepared as a draft: check what changed, then submit it for sign-off.`,
               () => setConfirming(false),
             )
           }
-          onCancel={() => {
-            opener.returnFocus();
-            setConfirming(false);
-          }}
+          onCancel={cancel}
         />
       ) : (
         <div>

@@ -48,7 +48,7 @@ function Refusal({ error, findingsHref }: { error: unknown; findingsHref: string
 const commentOf = (text: string) => (text.trim() === "" ? undefined : text);
 
 /** The comment, its field errors and the two ways a send can fail, shared by the submit and sign-off forms. */
-function useCommentForm(onChanged: (message: string) => void) {
+function useCommentForm({ onDone, onChanged }: Pick<CommentFormProps, "onDone" | "onChanged">) {
   const formRef = useRef<HTMLFormElement>(null);
   const [comment, setComment] = useState("");
   const [errors, setErrors] = useState<FieldErrors>({});
@@ -70,6 +70,20 @@ function useCommentForm(onChanged: (message: string) => void) {
     setErrors(fieldErrorsOf(err));
   };
 
+  /** Checks the input, sends it, and says what it did (`said`) with the snapshot as stored. */
+  function send<S extends z.ZodType>(
+    mutation: { mutateAsync: (body: z.output<S>) => Promise<Snapshot> },
+    schema: S,
+    input: unknown,
+    said: (s: Snapshot) => string,
+  ) {
+    const body = checked(schema, input);
+    if (!body) return;
+    // The promise, not mutate's callbacks: storing the answer replaces this form (the snapshot has moved
+    // on), and callbacks given to mutate() do not run once their component is gone.
+    mutation.mutateAsync(body).then((s) => onDone(said(s)), onError);
+  }
+
   /** The props of the comment's TextareaField. */
   const commentField = {
     value: comment,
@@ -79,7 +93,7 @@ function useCommentForm(onChanged: (message: string) => void) {
     error: errors.comment,
   };
 
-  return { formRef, comment, commentField, checked, onError };
+  return { formRef, comment, commentField, send };
 }
 
 /** What every action below is given: the snapshot, where its findings are, and how to say what it did. */
@@ -87,32 +101,26 @@ type ActionProps = { snapshot: Snapshot; findingsHref: string; onDone: (message:
 
 type CommentFormProps = ActionProps & { onChanged: (message: string) => void };
 
-function SubmitForm({ snapshot, findingsHref, onDone, onChanged }: CommentFormProps) {
+function SubmitForm({ snapshot, findingsHref, ...tell }: CommentFormProps) {
   const submit = useSubmitSnapshot(snapshot.id);
-  const { formRef, comment, commentField, checked, onError } = useCommentForm(onChanged);
+  const { formRef, comment, commentField, send } = useCommentForm(tell);
 
-  function send(e: FormEvent) {
+  function submitForSignOff(e: FormEvent) {
     e.preventDefault();
     submit.reset();
-    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
-    if (!body) return;
-    // The promise, not mutate's callbacks: storing the answer replaces this form (the snapshot is no
-    // longer a draft), and callbacks given to mutate() do not run once their component is gone.
-    submit
-      .mutateAsync(body)
-      .then(
-        (s) =>
-          onDone(
-            `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
-          ),
-        onError,
-      );
+    send(
+      submit,
+      snapshotActionSchema,
+      { comment: commentOf(comment), version: snapshot.version },
+      (s) =>
+        `${quarterLabel(s.quarterEnd)} is submitted for sign-off. A chief risk officer who did not prepare it approves or returns it.`,
+    );
   }
 
   return (
     <form
       ref={formRef}
-      onSubmit={send}
+      onSubmit={submitForSignOff}
       noValidate
       aria-label="Submit for sign-off"
       className="flex max-w-2xl flex-col gap-3"
@@ -132,16 +140,10 @@ function SubmitForm({ snapshot, findingsHref, onDone, onChanged }: CommentFormPr
   );
 }
 
-function SignOffForm({
-  snapshot,
-  userEmail,
-  findingsHref,
-  onDone,
-  onChanged,
-}: CommentFormProps & { userEmail: string }) {
+function SignOffForm({ snapshot, userEmail, findingsHref, ...tell }: CommentFormProps & { userEmail: string }) {
   const approve = useApproveSnapshot(snapshot.id);
   const giveBack = useReturnSnapshot(snapshot.id);
-  const { formRef, comment, commentField, checked, onError } = useCommentForm(onChanged);
+  const { formRef, comment, commentField, send } = useCommentForm(tell);
   const { confirming, setConfirming, opener, cancel } = useConfirmStep();
   // Four eyes (docs/architecture.md#roles): whoever prepared or submitted it may not approve it.
   const ownWork = sameUser(snapshot.preparedBy, userEmail) || sameUser(snapshot.submittedBy, userEmail);
@@ -150,28 +152,25 @@ function SignOffForm({
     giveBack.reset();
     approve.reset();
     setConfirming(false);
-    const body = checked(snapshotActionSchema, { comment: commentOf(comment), version: snapshot.version });
-    if (!body) return;
-    approve
-      .mutateAsync(body)
-      .then(
-        (s) =>
-          onDone(
-            `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
-          ),
-        onError,
-      );
+    send(
+      approve,
+      snapshotActionSchema,
+      { comment: commentOf(comment), version: snapshot.version },
+      (s) =>
+        `${quarterLabel(s.quarterEnd)} is approved and sealed${s.hash ? ` with hash ${shortHash(s.hash)}` : ""}. Its figures no longer change.`,
+    );
   }
 
   function sendReturn(e?: FormEvent) {
     e?.preventDefault();
     approve.reset();
     giveBack.reset();
-    const body = checked(returnSnapshotSchema, { comment, version: snapshot.version });
-    if (!body) return;
-    giveBack
-      .mutateAsync(body)
-      .then((s) => onDone(`${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`), onError);
+    send(
+      giveBack,
+      returnSnapshotSchema,
+      { comment, version: snapshot.version },
+      (s) => `${quarterLabel(s.quarterEnd)} is returned to the analysts with your comment.`,
+    );
   }
 
   const error = approve.error ?? giveBack.error;

@@ -1,5 +1,5 @@
 import { formatAmount, formatFactor } from "@/lib/format";
-import { Td, Th } from "./table";
+import { Td, type Column } from "./table";
 
 type QuarterFigures = {
   counted: number;
@@ -9,20 +9,16 @@ type QuarterFigures = {
   addOn: number | null;
 };
 
-/** The heads of a quarter's frozen figures, in the order every list of quarters shows them. */
-export function QuarterFigureHeads() {
-  return (
-    <>
-      <Th numeric>Counted exceptions</Th>
-      <Th numeric>Plus factor</Th>
-      <Th numeric>Multiplier</Th>
-      <Th numeric>Capital requirement</Th>
-      <Th numeric>Capital add-on</Th>
-    </>
-  );
-}
+/** The columns of a quarter's frozen figures, in the order every list of quarters shows them. */
+export const quarterFigureColumns: readonly Column[] = [
+  { numeric: "Counted exceptions" },
+  { numeric: "Plus factor" },
+  { numeric: "Multiplier" },
+  { numeric: "Capital requirement" },
+  { numeric: "Capital add-on" },
+];
 
-/** A quarter's frozen figures under QuarterFigureHeads, the amounts in `currency`. */
+/** A quarter's frozen figures under quarterFigureColumns, the amounts in `currency`. */
 export function QuarterFigureCells({ quarter, currency }: { quarter: QuarterFigures; currency: string }) {
   return (
     <>

@@ -1,6 +1,6 @@
 import { useId } from "react";
 import type { RollOffDto } from "@shared/schemas/backtest";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatBusinessDate, formatFactor } from "@/lib/format";
@@ -37,17 +37,17 @@ export function RollOffTable({
             Dates projected on the entity's business-day calendar, assuming no new exception in between.
           </p>
           <Table caption="Roll-off calendar">
-            <thead>
-              <tr>
-                <Th>Exception date</Th>
-                <Th>Series</Th>
-                <Th>Leaves the window on</Th>
-                {by && <Th>By {by}</Th>}
-                <Th numeric>Count after</Th>
-                <Th>Zone after</Th>
-                <Th numeric>Plus factor after</Th>
-              </tr>
-            </thead>
+            <TableHead
+              columns={[
+                "Exception date",
+                "Series",
+                "Leaves the window on",
+                ...(by ? [`By ${by}`] : []),
+                { numeric: "Count after" },
+                "Zone after",
+                { numeric: "Plus factor after" },
+              ]}
+            />
             <tbody>
               {rollOffs.map((r) => {
                 const gone = by !== undefined && r.leavesOn <= by;

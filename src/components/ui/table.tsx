@@ -27,6 +27,28 @@ export function Th({ numeric, className, ...rest }: ThHTMLAttributes<HTMLTableCe
   );
 }
 
+/** A column of a table's head: its name, or `{ numeric: name }` for a column of figures (right-aligned). */
+export type Column = string | { numeric: ReactNode };
+
+/** A table's head: one row naming each column, in order. */
+export function TableHead({ columns }: { columns: readonly Column[] }) {
+  return (
+    <thead>
+      <tr>
+        {columns.map((column, i) =>
+          typeof column === "string" ? (
+            <Th key={i}>{column}</Th>
+          ) : (
+            <Th key={i} numeric>
+              {column.numeric}
+            </Th>
+          ),
+        )}
+      </tr>
+    </thead>
+  );
+}
+
 export function Td({ numeric, className, ...rest }: TdHTMLAttributes<HTMLTableCellElement> & { numeric?: boolean }) {
   return (
     <td

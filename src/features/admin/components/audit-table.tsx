@@ -1,5 +1,5 @@
 import type { AuditEvent } from "@shared/schemas/audit";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { compactJson, formatDateTime } from "@/lib/format";
 
 function Change({ before, after }: { before: unknown; after: unknown }) {
@@ -32,16 +32,7 @@ export function AuditTable({ events, filtered }: { events: AuditEvent[]; filtere
   }
   return (
     <Table caption="Audit events, newest first">
-      <thead>
-        <tr>
-          <Th>When</Th>
-          <Th>Who</Th>
-          <Th>Action</Th>
-          <Th>Target</Th>
-          <Th>From address</Th>
-          <Th>Change</Th>
-        </tr>
-      </thead>
+      <TableHead columns={["When", "Who", "Action", "Target", "From address", "Change"]} />
       <tbody>
         {events.map((e) => (
           <Tr key={e.id}>

@@ -1,5 +1,5 @@
 import type { PendingInvitation } from "@shared/schemas/user";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
 import { PersonName } from "@/lib/people";
@@ -11,17 +11,9 @@ export function PendingInvitationsTable({ invitations }: { invitations: PendingI
   }
   return (
     <Table caption="Links not used yet">
-      <thead>
-        <tr>
-          <Th>Name</Th>
-          <Th>E-mail</Th>
-          <Th>Role</Th>
-          <Th>Link</Th>
-          <Th>Sent by</Th>
-          <Th numeric>Sent</Th>
-          <Th numeric>Works until</Th>
-        </tr>
-      </thead>
+      <TableHead
+        columns={["Name", "E-mail", "Role", "Link", "Sent by", { numeric: "Sent" }, { numeric: "Works until" }]}
+      />
       <tbody>
         {invitations.map((i) => (
           <Tr key={i.id}>

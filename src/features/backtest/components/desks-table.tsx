@@ -1,5 +1,5 @@
 import type { DeskResult } from "@shared/schemas/backtest";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 
@@ -38,17 +38,17 @@ export function DesksTable({ desks }: { desks: DeskResult[] }) {
         not counted; a day without P&amp;L or VaR always counts.
       </p>
       <Table caption="Trading desks">
-        <thead>
-          <tr>
-            <Th>Desk</Th>
-            <Th numeric>99% exceptions / limit</Th>
-            <Th numeric>97.5% exceptions / limit</Th>
-            <Th>Backtesting</Th>
-            <Th numeric>PLA Spearman</Th>
-            <Th numeric>PLA KS</Th>
-            <Th>PLA zone</Th>
-          </tr>
-        </thead>
+        <TableHead
+          columns={[
+            "Desk",
+            { numeric: "99% exceptions / limit" },
+            { numeric: "97.5% exceptions / limit" },
+            "Backtesting",
+            { numeric: "PLA Spearman" },
+            { numeric: "PLA KS" },
+            "PLA zone",
+          ]}
+        />
         <tbody>
           {desks.map((d) => (
             <Tr key={d.portfolio}>

@@ -14,7 +14,7 @@ import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/observation";
 import { ChartFigure, ChartKey, KeyItem, chartLook } from "@/components/ui/chart-frame";
 import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
 import { compactAmount, formatAmount, plural } from "@/lib/format";
 import { chartColours } from "@/styles/palette";
@@ -225,14 +225,14 @@ export function PnlChart({
       <FiguresDisclosure label={`Daily ${label} and VaR, ${bt.entity.currency}`}>
         {() => (
           <Table caption={`Daily ${label} against VaR (99%, one day), ${bt.entity.currency}, oldest first`}>
-            <thead>
-              <tr>
-                <Th>Business date</Th>
-                <Th numeric>{series === "actual" ? "Actual P&L" : "Hypothetical P&L"}</Th>
-                <Th numeric>VaR 99%</Th>
-                <Th>Exception</Th>
-              </tr>
-            </thead>
+            <TableHead
+              columns={[
+                "Business date",
+                { numeric: series === "actual" ? "Actual P&L" : "Hypothetical P&L" },
+                { numeric: "VaR 99%" },
+                "Exception",
+              ]}
+            />
             <tbody>
               {points.map((p) => (
                 <Tr key={p.date}>

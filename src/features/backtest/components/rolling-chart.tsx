@@ -4,7 +4,7 @@ import type { RegimeId } from "@shared/schemas/common";
 import { zoneBoundariesFor } from "@shared/backtest/regimes";
 import { ChartFigure, chartLook } from "@/components/ui/chart-frame";
 import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { zoneName } from "@/components/ui/zone-badge";
 import { chartColours } from "@/styles/palette";
 
@@ -98,15 +98,15 @@ export function RollingChart({
       <FiguresDisclosure label="Counted exceptions on each date">
         {() => (
           <Table caption="Counted exceptions in the trailing window on each as-of date, oldest first">
-            <thead>
-              <tr>
-                <Th>As-of date</Th>
-                <Th numeric>Actual P&amp;L exceptions</Th>
-                <Th numeric>Hypothetical P&amp;L exceptions</Th>
-                <Th numeric>Counted</Th>
-                <Th>Zone</Th>
-              </tr>
-            </thead>
+            <TableHead
+              columns={[
+                "As-of date",
+                { numeric: "Actual P&L exceptions" },
+                { numeric: "Hypothetical P&L exceptions" },
+                { numeric: "Counted" },
+                "Zone",
+              ]}
+            />
             <tbody>
               {rows.map((r) => (
                 <Tr key={r.date}>

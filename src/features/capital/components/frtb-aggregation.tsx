@@ -1,5 +1,5 @@
 import type { FrtbFigures, FrtbStatusPoint, DeskStatusDto } from "@shared/schemas/frtb";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Th, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatAmount, formatBusinessDate, formatDecimal, formatFactor } from "@/lib/format";
 import { quarterLabel } from "@shared/backtest/quarters";
@@ -53,14 +53,7 @@ export function FrtbAggregation({
               : " (no determination yet: every desk is taken as in the model)."}
           </p>
           <Table caption="The aggregation step by step (Basel Framework MAR33.41–33.45)">
-            <thead>
-              <tr>
-                <Th>Figure</Th>
-                <Th>Rule</Th>
-                <Th>From</Th>
-                <Th numeric>Amount</Th>
-              </tr>
-            </thead>
+            <TableHead columns={["Figure", "Rule", "From", { numeric: "Amount" }]} />
             <tbody>
               <Tr>
                 <Td>
@@ -167,17 +160,17 @@ export function FrtbAggregation({
             </div>
           )}
           <Table caption="Desks on this date: status, desk backtesting and P&L attribution">
-            <thead>
-              <tr>
-                <Th>Desk</Th>
-                <Th>Status</Th>
-                <Th numeric>Exceptions at 99% (limit 12)</Th>
-                <Th numeric>Exceptions at 97.5% (limit 30)</Th>
-                <Th>PLA zone</Th>
-                <Th numeric>Standardised charge</Th>
-                <Th>Why</Th>
-              </tr>
-            </thead>
+            <TableHead
+              columns={[
+                "Desk",
+                "Status",
+                { numeric: "Exceptions at 99% (limit 12)" },
+                { numeric: "Exceptions at 97.5% (limit 30)" },
+                "PLA zone",
+                { numeric: "Standardised charge" },
+                "Why",
+              ]}
+            />
             <tbody>
               {figures.desks.map((d) => (
                 <Tr key={d.code}>

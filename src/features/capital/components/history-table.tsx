@@ -1,5 +1,5 @@
-import { Table, Td, Th, Tr } from "@/components/ui/table";
-import { QuarterFigureCells, QuarterFigureHeads } from "@/components/ui/quarter-figure-cells";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
+import { QuarterFigureCells, quarterFigureColumns } from "@/components/ui/quarter-figure-cells";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -18,15 +18,7 @@ export function HistoryTable({
 }) {
   return (
     <Table caption="Capital history by quarter end, oldest first">
-      <thead>
-        <tr>
-          <Th>Quarter</Th>
-          <Th>Status</Th>
-          <Th>Zone</Th>
-          <QuarterFigureHeads />
-          <Th>Note</Th>
-        </tr>
-      </thead>
+      <TableHead columns={["Quarter", "Status", "Zone", ...quarterFigureColumns, "Note"]} />
       <tbody>
         {points.map((p) => (
           <Tr key={p.snapshotId}>

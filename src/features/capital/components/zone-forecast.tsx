@@ -4,7 +4,7 @@ import { zoneFor } from "@shared/backtest/regimes";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/field";
 import { Figure } from "@/components/ui/figure";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { ZoneBadge, zoneName } from "@/components/ui/zone-badge";
 import { validate } from "@/lib/form";
 import { formatAmount, formatChance, formatFactor, plural } from "@/lib/format";
@@ -114,13 +114,7 @@ function DistributionTable({
   return (
     <div className="flex flex-col gap-1">
       <Table caption={`Chance of each count of exceptions on ${date}`}>
-        <thead>
-          <tr>
-            <Th numeric>Counted exceptions</Th>
-            <Th>Zone</Th>
-            <Th numeric>Probability</Th>
-          </tr>
-        </thead>
+        <TableHead columns={[{ numeric: "Counted exceptions" }, "Zone", { numeric: "Probability" }]} />
         <tbody>
           {rows.map((r) => (
             <Tr key={r.exceptions}>

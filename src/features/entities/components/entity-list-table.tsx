@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import type { Entity } from "@shared/schemas/entity";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { formatDecimal } from "@/lib/format";
 import { pnlBasisLabels, regimeLabels } from "@/lib/regime-labels";
 
@@ -15,17 +15,9 @@ export function EntityListTable({ entities, hrefFor }: { entities: Entity[]; hre
   }
   return (
     <Table caption="Legal entities">
-      <thead>
-        <tr>
-          <Th>Code</Th>
-          <Th>Name</Th>
-          <Th>Rule set</Th>
-          <Th>P&amp;L basis</Th>
-          <Th>Currency</Th>
-          <Th numeric>Qualitative addend</Th>
-          <Th>Supervisor</Th>
-        </tr>
-      </thead>
+      <TableHead
+        columns={["Code", "Name", "Rule set", "P&L basis", "Currency", { numeric: "Qualitative addend" }, "Supervisor"]}
+      />
       <tbody>
         {entities.map((e) => (
           <Tr key={e.code}>

@@ -1,7 +1,7 @@
 import type { Entity } from "@shared/schemas/entity";
 import type { Role } from "@shared/schemas/common";
 import { Link } from "react-router-dom";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { formatDecimal } from "@/lib/format";
 import { pnlBasisLabels, regimeLabels } from "@/lib/regime-labels";
 
@@ -41,16 +41,16 @@ export function EntityOverviewTable({
   if (entities.length === 0) return <NextStepWhenEmpty role={role} addEntityHref={addEntityHref} />;
   return (
     <Table caption="Legal entities and their backtesting rules">
-      <thead>
-        <tr>
-          <Th>Code</Th>
-          <Th>Entity</Th>
-          <Th>Rule set</Th>
-          <Th>P&amp;L basis for the count</Th>
-          <Th>Currency</Th>
-          <Th numeric>Qualitative addend</Th>
-        </tr>
-      </thead>
+      <TableHead
+        columns={[
+          "Code",
+          "Entity",
+          "Rule set",
+          "P&L basis for the count",
+          "Currency",
+          { numeric: "Qualitative addend" },
+        ]}
+      />
       <tbody>
         {entities.map((e) => (
           <Tr key={e.code}>

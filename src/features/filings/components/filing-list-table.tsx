@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
 import { quarterLabel } from "@shared/backtest/quarters";
-import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
+import { EmptyState, SelectableTr, Table, TableHead, Td } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";
 import { PersonName } from "@/lib/people";
@@ -27,18 +27,18 @@ export function FilingListTable({
   if (filings.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
   return (
     <Table caption="Filed packs, newest first">
-      <thead>
-        <tr>
-          <Th>Entity</Th>
-          <Th>Quarter</Th>
-          <Th>Zone</Th>
-          <Th numeric>Counted exceptions</Th>
-          <Th numeric>Multiplier</Th>
-          <Th>Sent</Th>
-          <Th>Recipients</Th>
-          <Th>Acknowledged</Th>
-        </tr>
-      </thead>
+      <TableHead
+        columns={[
+          "Entity",
+          "Quarter",
+          "Zone",
+          { numeric: "Counted exceptions" },
+          { numeric: "Multiplier" },
+          "Sent",
+          "Recipients",
+          "Acknowledged",
+        ]}
+      />
       <tbody>
         {filings.map((f) => {
           const selected = f.id === selectedId;

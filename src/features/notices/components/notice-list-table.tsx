@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import type { Notice } from "@shared/schemas/notice";
-import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
+import { EmptyState, SelectableTr, Table, TableHead, Td } from "@/components/ui/table";
 import { LateBadge } from "@/components/ui/late-badge";
 import { formatDecimal } from "@/lib/format";
 import { standingOf } from "../words";
@@ -25,15 +25,9 @@ export function NoticeListTable({
     );
   return (
     <Table caption="Overshooting notices">
-      <thead>
-        <tr>
-          <Th>Overshooting day</Th>
-          <Th>Portfolio</Th>
-          <Th numeric>Loss beyond VaR</Th>
-          <Th>Due</Th>
-          <Th>Where it stands</Th>
-        </tr>
-      </thead>
+      <TableHead
+        columns={["Overshooting day", "Portfolio", { numeric: "Loss beyond VaR" }, "Due", "Where it stands"]}
+      />
       <tbody>
         {notices.map((n) => (
           <SelectableTr key={n.id} selected={n.id === selectedId} onOpen={() => onOpen(n.id)}>

@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import type { OutboxMessage } from "@shared/schemas/outbox";
-import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
+import { EmptyState, SelectableTr, Table, TableHead, Td } from "@/components/ui/table";
 import { formatDateTime, plural } from "@/lib/format";
 
 /** The messages the local mail sink holds, newest first; a row opens its message. */
@@ -24,14 +24,7 @@ export function OutboxListTable({
     );
   return (
     <Table caption="Messages kept by the local mail sink, newest first">
-      <thead>
-        <tr>
-          <Th>Received</Th>
-          <Th>To</Th>
-          <Th>Subject</Th>
-          <Th>Attachments</Th>
-        </tr>
-      </thead>
+      <TableHead columns={["Received", "To", "Subject", "Attachments"]} />
       <tbody>
         {messages.map((m) => {
           const selected = m.id === selectedId;

@@ -1,6 +1,6 @@
 import type { OverviewItem } from "@shared/schemas/backtest";
 import { Link } from "react-router-dom";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { formatAmount, formatFactor } from "@/lib/format";
@@ -35,22 +35,22 @@ export function StandingTable({
   }
   return (
     <Table caption="Where each entity stands">
-      <thead>
-        <tr>
-          <Th>Entity</Th>
-          <Th>Multiplier in force</Th>
-          <Th>Zone if determined today</Th>
-          <Th numeric>Counted exceptions</Th>
-          <Th numeric>Plus factor</Th>
-          <Th numeric>Indicative multiplier</Th>
-          <Th numeric>Indicative add-on</Th>
-          <Th>As of</Th>
-          <Th>Next roll-off</Th>
-          <Th numeric>Open reviews</Th>
-          <Th numeric>Open findings</Th>
-          <Th>Quarter close</Th>
-        </tr>
-      </thead>
+      <TableHead
+        columns={[
+          "Entity",
+          "Multiplier in force",
+          "Zone if determined today",
+          { numeric: "Counted exceptions" },
+          { numeric: "Plus factor" },
+          { numeric: "Indicative multiplier" },
+          { numeric: "Indicative add-on" },
+          "As of",
+          "Next roll-off",
+          { numeric: "Open reviews" },
+          { numeric: "Open findings" },
+          "Quarter close",
+        ]}
+      />
       <tbody>
         {items.map((e) => {
           const href = e.portfolio ? backtestHref(e.portfolio) : null;

@@ -2,7 +2,7 @@ import { Link } from "react-router-dom";
 import type { AmendmentChange, AmendmentRecord } from "@shared/schemas/snapshot";
 import { Figure } from "@/components/ui/figure";
 import { FullHash } from "@/components/ui/hash";
-import { Table, Td, Th } from "@/components/ui/table";
+import { Table, TableHead, Td } from "@/components/ui/table";
 import { zoneName } from "@/components/ui/zone-badge";
 import { formatAmount, formatDateTime, formatFactor } from "@/lib/format";
 
@@ -64,14 +64,9 @@ export function AmendmentChanges({
         <p className="text-sm text-ink-muted">No figure changed against the filed snapshot.</p>
       ) : (
         <Table caption={`Before and after: ${amendment.changes.length} figures changed`}>
-          <thead>
-            <tr>
-              <Th>Figure</Th>
-              <Th>Template row</Th>
-              <Th numeric>Before (as filed)</Th>
-              <Th numeric>After (amended)</Th>
-            </tr>
-          </thead>
+          <TableHead
+            columns={["Figure", "Template row", { numeric: "Before (as filed)" }, { numeric: "After (amended)" }]}
+          />
           <tbody>
             {amendment.changes.map((c) => (
               <tr key={`${c.group}-${c.key}`}>
@@ -88,13 +83,7 @@ export function AmendmentChanges({
       )}
       {amendment.exceptions.length > 0 && (
         <Table caption="Exceptions added, removed or changed">
-          <thead>
-            <tr>
-              <Th>Date</Th>
-              <Th>Change</Th>
-              <Th>What changed</Th>
-            </tr>
-          </thead>
+          <TableHead columns={["Date", "Change", "What changed"]} />
           <tbody>
             {amendment.exceptions.map((e) => (
               <tr key={e.date}>

@@ -2,7 +2,7 @@ import type { Snapshot } from "@shared/schemas/snapshot";
 import type { DeterminationDto } from "@shared/schemas/determination";
 import { determinationSpan } from "./multiplier-standing";
 import { Figure } from "@/components/ui/figure";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatAmount, formatFactor, formatPercent, plural } from "@/lib/format";
 
@@ -143,15 +143,15 @@ function DesksAtQuarterEnd({ snapshot }: { snapshot: Snapshot }) {
         Trading desks at the quarter end
       </h4>
       <Table caption="Trading desks at the quarter end">
-        <thead>
-          <tr>
-            <Th>Desk</Th>
-            <Th numeric>Exceptions at 99%</Th>
-            <Th numeric>Exceptions at 97.5%</Th>
-            <Th>Backtesting</Th>
-            <Th>P&amp;L attribution zone</Th>
-          </tr>
-        </thead>
+        <TableHead
+          columns={[
+            "Desk",
+            { numeric: "Exceptions at 99%" },
+            { numeric: "Exceptions at 97.5%" },
+            "Backtesting",
+            "P&L attribution zone",
+          ]}
+        />
         <tbody>
           {desks.map((d) => (
             <Tr key={d.portfolio}>

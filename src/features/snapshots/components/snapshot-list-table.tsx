@@ -2,8 +2,8 @@ import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import { quarterLabel } from "@shared/backtest/quarters";
 import { type SnapshotListItem } from "@shared/schemas/snapshot";
-import { EmptyState, SelectableTr, Table, Td, Th } from "@/components/ui/table";
-import { QuarterFigureCells, QuarterFigureHeads } from "@/components/ui/quarter-figure-cells";
+import { EmptyState, SelectableTr, Table, TableHead, Td } from "@/components/ui/table";
+import { QuarterFigureCells, quarterFigureColumns } from "@/components/ui/quarter-figure-cells";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
@@ -26,16 +26,7 @@ export function SnapshotListTable({
   if (snapshots.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
   return (
     <Table caption="Quarter snapshots, newest first">
-      <thead>
-        <tr>
-          <Th>Quarter</Th>
-          <Th>Status</Th>
-          <Th>Zone</Th>
-          <QuarterFigureHeads />
-          <Th>Prepared by</Th>
-          <Th>Approved by</Th>
-        </tr>
-      </thead>
+      <TableHead columns={["Quarter", "Status", "Zone", ...quarterFigureColumns, "Prepared by", "Approved by"]} />
       <tbody>
         {snapshots.map((s) => {
           const selected = s.id === selectedId;

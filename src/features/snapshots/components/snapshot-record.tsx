@@ -4,7 +4,7 @@ import type { Snapshot } from "@shared/schemas/snapshot";
 import { Button } from "@/components/ui/button";
 import { CheckVerdict } from "@/components/ui/check-verdict";
 import { Hash } from "@/components/ui/hash";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
 import { snapshotQueries } from "../api/snapshot-queries";
 import { snapshotEventLabels } from "../words";
@@ -83,14 +83,7 @@ export function SnapshotHistory({ snapshot }: { snapshot: Snapshot }) {
         <EmptyState title="Nothing recorded yet" />
       ) : (
         <Table caption="History of the snapshot">
-          <thead>
-            <tr>
-              <Th>When</Th>
-              <Th>Who</Th>
-              <Th>What</Th>
-              <Th>Comment</Th>
-            </tr>
-          </thead>
+          <TableHead columns={["When", "Who", "What", "Comment"]} />
           <tbody>
             {events.map((e, i) => (
               <Tr key={`${e.at}-${i}`}>

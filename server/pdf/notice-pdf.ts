@@ -78,24 +78,14 @@ export async function renderNoticePdf(
       `on ${when(n.sentAt)} to ${n.recipients.join(", ")}.`,
   );
 
-  const range = doc.bufferedPageRange();
   const footer = `Sent by ${n.entityName}: overshooting notice of ${n.date}, attested under “Attestation” in this notice.`;
-  for (let i = range.start; i < range.start + range.count; i++) {
-    doc.switchToPage(i);
-    const bottom = doc.page.height - doc.page.margins.bottom;
-    doc.page.margins.bottom = 0;
-    doc.page.margins.top = 0;
+  L.stampPages(footer, () =>
     doc
       .font("regular")
       .fontSize(7.5)
       .fillColor(MUTED)
-      .text(`${n.entity} · overshooting notice · ${n.portfolio} · ${n.date}`, left, 32, { width, lineBreak: false });
-    doc.text(footer, left, bottom + 18, { width: width - 70 });
-    doc.text(`Page ${i - range.start + 1} of ${range.count}`, left + width - 60, bottom + 18, {
-      width: 60,
-      align: "right",
-    });
-  }
+      .text(`${n.entity} · overshooting notice · ${n.portfolio} · ${n.date}`, left, 32, { width, lineBreak: false }),
+  );
   doc.end();
   return done;
 }

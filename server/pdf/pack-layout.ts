@@ -41,6 +41,27 @@ export class PackLayout {
     return this.doc.page.height - this.doc.page.margins.bottom;
   }
 
+  /**
+   * Once every page exists: on each, `head` draws what goes at the top, then the footer and
+   * "Page n of N" go at the bottom, in the margin.
+   */
+  stampPages(footer: string, head: () => void) {
+    const { doc, left, width } = this;
+    const range = doc.bufferedPageRange();
+    for (let i = range.start; i < range.start + range.count; i++) {
+      doc.switchToPage(i);
+      const bottom = this.bottom;
+      doc.page.margins.bottom = 0; // writing in the margin must not start a new page
+      doc.page.margins.top = 0;
+      head();
+      doc.text(footer, left, bottom + 18, { width: width - 70 });
+      doc.text(`Page ${i - range.start + 1} of ${range.count}`, left + width - 60, bottom + 18, {
+        width: 60,
+        align: "right",
+      });
+    }
+  }
+
   /** Starts a new page when less than `height` points are left on this one. */
   room(height: number) {
     if (this.doc.y + height > this.bottom) this.doc.addPage();

@@ -560,15 +560,10 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
   }
 
   // ── Every page: DRAFT, the running head, the caution or the filed line, the page number ────
-  const range = doc.bufferedPageRange();
   const footer = filed
     ? `Filed record of ${s.entityName}, ${quarterLabel(s.quarterEnd)}, snapshot #${s.id}: attested under “Attestation” in this pack.`
     : CAUTION;
-  for (let i = range.start; i < range.start + range.count; i++) {
-    doc.switchToPage(i);
-    const bottom = doc.page.height - doc.page.margins.bottom;
-    doc.page.margins.bottom = 0; // writing in the margin must not start a new page
-    doc.page.margins.top = 0;
+  L.stampPages(footer, () => {
     if (!signedOff) drawWatermark(doc, "DRAFT");
     doc
       .font("regular")
@@ -581,12 +576,7 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
         { width, lineBreak: false },
       );
     doc.font("regular").fontSize(7.5).fillColor(MUTED);
-    doc.text(footer, left, bottom + 18, { width: width - 70 });
-    doc.text(`Page ${i - range.start + 1} of ${range.count}`, left + width - 60, bottom + 18, {
-      width: 60,
-      align: "right",
-    });
-  }
+  });
   doc.end();
   return done;
 }

@@ -2,10 +2,11 @@ import { createHash } from "node:crypto";
 import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { vi } from "vitest";
-import { filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
+import { filingVerifySchema, type Filing } from "@shared/schemas/filing";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU, larkspurUK } from "./support/entities";
+import { filingFixture } from "./support/snapshots";
 
 // Display fixtures: the screen must show what the server sent, unchanged. The SHA-256 of a held
 // file is computed by the browser's Web Crypto and checked here against Node's own hash of the same bytes.
@@ -16,48 +17,8 @@ const entities = [larkspurEU, larkspurUK];
 const SENT_PACK = "%PDF-1.7\nLarkspur Markets SA, Q3 2026 backtesting pack\n%%EOF\n";
 const sha256Hex = (text: string) => createHash("sha256").update(text).digest("hex");
 
-/** A filing as the server sends it; parsed with the shared schema so a change of contract fails here. */
-function filing(over: Partial<Filing> = {}): Filing {
-  // Each recipient's delivery and the summary follow the filing's delivery unless the test gives them.
-  const recipients = over.recipients ?? ["backtesting@supervisor.test", "desk-officer@supervisor.test"];
-  const sent = (over.delivery ?? "sent") === "sent";
-  const deliveries = recipients.map((recipient) => ({
-    recipient,
-    status: sent ? ("accepted" as const) : ("pending" as const),
-    detail: sent ? "250 OK: message queued" : (over.lastError ?? null),
-    attempts: 1,
-    acceptedAt: sent ? (over.sentAt ?? "2026-10-08T14:30:00.000Z") : null,
-  }));
-  const summary = sent
-    ? `Sent to ${recipients.join(", ")}.`
-    : `Waiting for the mail server for ${recipients.join(", ")}${over.lastError ? ` (${over.lastError})` : ""}.`;
-  return filingSchema.parse({
-    id: 31,
-    snapshotId: 12,
-    entity: "LKS-EU",
-    entityName: "Larkspur Markets SA",
-    quarterEnd: "2026-09-30",
-    zone: "yellow",
-    counted: 6,
-    multiplier: 3.5,
-    fileName: "LKS-EU-2026-09-30-pack.pdf",
-    sha256: sha256Hex(SENT_PACK),
-    recipients: ["backtesting@supervisor.test", "desk-officer@supervisor.test"],
-    delivery: "sent",
-    messageId: "<31.pack@quartermark.test>",
-    lastError: null,
-    sentBy: "cro@larkspur.test",
-    sentAt: "2026-10-08T14:30:00.000Z",
-    acknowledgedBy: null,
-    acknowledgedAt: null,
-    snapshotHash: "4e1d0c9b8a7f6e5d4c3b2a1908f7e6d5c4b3a29180f7e6d5c4b3a2918f7e6d5c",
-    amends: null,
-    amendedBy: null,
-    deliveries,
-    summary,
-    ...over,
-  });
-}
+/** A filing as the server sends it (Q3 2026 of LKS-EU unless `over` says otherwise), its hash that of SENT_PACK. */
+const filing = (over: Partial<Filing> = {}): Filing => filingFixture({ sha256: sha256Hex(SENT_PACK), ...over });
 
 const older = () =>
   filing({

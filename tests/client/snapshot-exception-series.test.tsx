@@ -1,6 +1,7 @@
 import { render, screen, within } from "@testing-library/react";
-import { snapshotSchema, type SnapshotFigures } from "@shared/schemas/snapshot";
+import type { SnapshotFigures } from "@shared/schemas/snapshot";
 import { SnapshotFigures as FiguresPanel } from "@/features/snapshots/components/snapshot-figures";
+import { figures, snapshot } from "./support/snapshots";
 
 // A snapshot's exception list says which P&L series each day is an exception on and whether the count holds it
 // (issue 13 item 7). Under "the higher of the two" the count is on the series with more exceptions
@@ -22,63 +23,27 @@ const day = (date: string, actual: boolean, hypothetical: boolean, excluded = fa
   decisionDate: null,
 });
 
+/** A draft of Q4 2025 (support/snapshots.ts) in the green zone, its three exception days on the series given. */
 function snapshotWith(pnlBasis: "max" | "actual" | "hypothetical", counts: { actual: number; hypothetical: number }) {
-  const figures: SnapshotFigures = {
-    portfolio: "LKS-EU-TOTAL",
-    regime: "eu",
-    pnlBasis,
-    currency: "EUR",
-    asOf: "2025-12-31",
-    window: { start: "2025-01-02", end: "2025-12-31", observations: 250, complete: true },
-    exceptions: { ...counts, counted: Math.max(counts.actual, counts.hypothetical), excluded: 1 },
-    exceptionDates: ["2025-03-10", "2025-04-07", "2025-06-13"],
-    exceptionDetail: [
-      day("2025-03-10", true, true),
-      day("2025-04-07", false, true),
-      day("2025-06-13", true, false, true),
-    ] as SnapshotFigures["exceptionDetail"],
-    zone: "green",
-    zoneLabel: "Green",
-    plusFactor: 0,
-    qualitativeAddend: 0,
-    multiplier: 3,
-    expected: 2.5,
-    cumulativeProbability: 0.5,
-    capital: null,
-    addOn: null,
-    capitalNote: null,
-    desks: [],
-  };
-  return snapshotSchema.parse({
-    id: 12,
-    entity: "LKS-EU",
-    entityName: "Larkspur Markets SA",
-    quarterEnd: "2025-12-31",
-    status: "draft",
-    zone: "green",
-    counted: figures.exceptions.counted,
-    plusFactor: 0,
-    multiplier: 3,
-    capital: null,
-    addOn: null,
-    figures,
-    inputsSha256: "9c1f0a7e55d2b8e4c3a1f6d0b9e8c7a6f5e4d3c2b1a09f8e7d6c5b4a39281706",
-    engineVersion: "1.4.0",
-    preparedBy: "analyst@larkspur.test",
-    preparedAt: "2026-01-08T10:15:00.000Z",
-    submittedBy: null,
-    submittedAt: null,
-    approvedBy: null,
-    approvedAt: null,
+  return snapshot({
     history: [],
-    prevHash: null,
-    hash: null,
-    restatedAfterSignOff: null,
-    amends: null,
-    amendedBy: null,
-    amendment: null,
-    openFindings: 0,
-    version: 1,
+    figures: figures({
+      pnlBasis,
+      exceptions: { ...counts, counted: Math.max(counts.actual, counts.hypothetical), excluded: 1 },
+      exceptionDates: ["2025-03-10", "2025-04-07", "2025-06-13"],
+      exceptionDetail: [
+        day("2025-03-10", true, true),
+        day("2025-04-07", false, true),
+        day("2025-06-13", true, false, true),
+      ] as SnapshotFigures["exceptionDetail"],
+      zone: "green",
+      zoneLabel: "Green",
+      plusFactor: 0,
+      multiplier: 3,
+      cumulativeProbability: 0.5,
+      capital: null,
+      addOn: null,
+    }),
   });
 }
 

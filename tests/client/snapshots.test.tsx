@@ -1,114 +1,20 @@
 import { act, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { vi } from "vitest";
-import { snapshotSchema, snapshotVerifySchema, type Snapshot, type SnapshotFigures } from "@shared/schemas/snapshot";
-import { filingSchema, type Filing } from "@shared/schemas/filing";
+import { snapshotVerifySchema, type Snapshot } from "@shared/schemas/snapshot";
+import { type Filing } from "@shared/schemas/filing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU, larkspurUK } from "./support/entities";
+import { approved, filingFixture, figures, HASH, PREV_HASH, snapshot, submitted } from "./support/snapshots";
 
-// The figures below are display fixtures: the screen must show what the server froze, unchanged.
-// They follow BCBS 1996 Table 2 for six exceptions (yellow zone, plus factor 0.50, P(X ≤ 6) 98.63%).
+// The figures are display fixtures (support/snapshots.ts): the screen must show what the server froze, unchanged.
 
 const entities = [larkspurEU, larkspurUK];
 
 /** The traffic-light zone classes: kept for zones, never on a notice that is not one. */
 const ZONE_CLASS = /\b(bg|text|border)-zone-/;
-
-const HASH = "ab12cd34ef5678901234567890abcdef1234567890abcdef1234567890abcdef";
-const PREV_HASH = "0f1e2d3c4b5a69788796a5b4c3d2e1f00f1e2d3c4b5a69788796a5b4c3d2e1f0";
-
-function figures(over: Partial<SnapshotFigures> = {}): SnapshotFigures {
-  return {
-    portfolio: "LKS-EU-TOTAL",
-    regime: "eu",
-    pnlBasis: "max",
-    currency: "EUR",
-    asOf: "2025-12-31",
-    window: { start: "2025-01-02", end: "2025-12-31", observations: 250, complete: true },
-    exceptions: { actual: 5, hypothetical: 4, counted: 6, excluded: 1 },
-    exceptionDates: ["2025-03-10", "2025-04-07", "2025-06-13", "2025-08-05", "2025-10-22", "2025-11-14"],
-    zone: "yellow",
-    zoneLabel: "Yellow",
-    plusFactor: 0.5,
-    qualitativeAddend: 0,
-    multiplier: 3.5,
-    expected: 2.5,
-    cumulativeProbability: 0.9863,
-    capital: 412_500_000,
-    addOn: 58_928_571,
-    capitalNote: null,
-    desks: [],
-    ...over,
-  };
-}
-
-/** A snapshot as the server sends it; parsed with the shared schema so a change of contract fails here. */
-function snapshot(over: Partial<Snapshot> = {}): Snapshot {
-  const f = over.figures ?? figures();
-  return snapshotSchema.parse({
-    id: 12,
-    entity: "LKS-EU",
-    entityName: "Larkspur Markets SA",
-    quarterEnd: "2025-12-31",
-    status: "draft",
-    zone: f.zone,
-    counted: f.exceptions.counted,
-    plusFactor: f.plusFactor,
-    multiplier: f.multiplier,
-    capital: f.capital,
-    addOn: f.addOn,
-    figures: f,
-    inputsSha256: "9c1f0a7e55d2b8e4c3a1f6d0b9e8c7a6f5e4d3c2b1a09f8e7d6c5b4a39281706",
-    engineVersion: "1.4.0",
-    preparedBy: "analyst@larkspur.test",
-    preparedAt: "2026-01-08T10:15:00.000Z",
-    submittedBy: null,
-    submittedAt: null,
-    approvedBy: null,
-    approvedAt: null,
-    history: [{ at: "2026-01-08T10:15:00.000Z", by: "analyst@larkspur.test", action: "prepared", comment: null }],
-    prevHash: null,
-    hash: null,
-    restatedAfterSignOff: null,
-    amends: null,
-    amendedBy: null,
-    amendment: null,
-    openFindings: 0,
-    version: 1,
-    ...over,
-  });
-}
-
-const submitted = (over: Partial<Snapshot> = {}) =>
-  snapshot({
-    status: "submitted",
-    submittedBy: "analyst@larkspur.test",
-    submittedAt: "2026-01-09T16:40:00.000Z",
-    history: [
-      { at: "2026-01-08T10:15:00.000Z", by: "analyst@larkspur.test", action: "prepared", comment: null },
-      {
-        at: "2026-01-09T16:40:00.000Z",
-        by: "analyst@larkspur.test",
-        action: "submitted",
-        comment: "All six exceptions explained; one exclusion approved.",
-      },
-    ],
-    version: 5,
-    ...over,
-  });
-
-const approved = (over: Partial<Snapshot> = {}) =>
-  submitted({
-    status: "approved",
-    approvedBy: "cro2@larkspur.test",
-    approvedAt: "2026-01-12T09:05:00.000Z",
-    hash: HASH,
-    prevHash: PREV_HASH,
-    version: 6,
-    ...over,
-  });
 
 const error = (status: number, code: string, message: string): Reply => ({
   status,
@@ -134,6 +40,19 @@ function snapshotRoutes(store: Snapshot[], extra: Record<string, Reply | ((c: Ca
     };
   }
   return { ...routes, ...extra };
+}
+
+/** `role` signs in to a server holding `store` (and the `extra` routes) and opens snapshot #`id` of LKS-EU. */
+function openSnapshot(
+  role: Parameters<typeof signedInAs>[0],
+  store: Snapshot[],
+  extra: Record<string, Reply | ((c: Call) => Reply)> = {},
+  id = 12,
+) {
+  const api = fakeApi({ "GET /api/auth/session": signedInAs(role), ...snapshotRoutes(store, extra) });
+  const user = userEvent.setup();
+  renderApp(`/quarters?entity=LKS-EU&snapshot=${id}`);
+  return { api, user };
 }
 
 /** Puts the server's answer in the store, as the server would have, and sends it. */
@@ -240,18 +159,18 @@ describe("Quarter close › the analyst prepares and submits", () => {
 
   it("when open data-quality findings block the submit (409), then the server's message shows beside the form with a link to those findings on Data", async () => {
     const store = [snapshot({ id: 14, quarterEnd: "2026-03-31", openFindings: 2, version: 4 })];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(store, {
+    const { api, user } = openSnapshot(
+      "analyst",
+      store,
+      {
         "POST /api/snapshots/14/submit": error(
           409,
           "open_findings",
           "2 open data-quality findings inside Q1 2026 block sign-off: resolve or explain them on the Data screen.",
         ),
-      }),
-    });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=14");
+      },
+      14,
+    );
 
     const notice = await screen.findByRole("note", { name: "Open data-quality findings" });
     expect(notice).toHaveTextContent("2 open data-quality findings inside Q1 2026 hold up its sign-off");
@@ -274,9 +193,10 @@ describe("Quarter close › the analyst prepares and submits", () => {
 
   it("when someone else changed the snapshot first (409 stale), then the message stays on screen and the snapshot is read again as it now stands", async () => {
     const store = [snapshot({ id: 14, quarterEnd: "2026-03-31", version: 4 })];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(store, {
+    const { api, user } = openSnapshot(
+      "analyst",
+      store,
+      {
         "POST /api/snapshots/14/submit": (c) => {
           store[0] = snapshot({
             ...store[0],
@@ -292,10 +212,9 @@ describe("Quarter close › the analyst prepares and submits", () => {
             "Snapshot #14 changed since you opened it (now version 5). Look at it again before acting.",
           );
         },
-      }),
-    });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=14");
+      },
+      14,
+    );
 
     await user.type(await screen.findByLabelText("Comment for the sign-off (optional)"), "Ready for the CRO.");
     await user.click(screen.getByRole("button", { name: "Submit for sign-off" }));
@@ -326,14 +245,9 @@ describe("Quarter close › the analyst prepares and submits", () => {
       version: 6,
     });
     const store = [returned];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(store, {
-        "POST /api/snapshots": () => answer(store, snapshot({ status: "draft", version: 7 })),
-      }),
+    const { api, user } = openSnapshot("analyst", store, {
+      "POST /api/snapshots": () => answer(store, snapshot({ status: "draft", version: 7 })),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     expect(await screen.findByText(/“The 14 November exception needs the desk's explanation\.”/)).toBeInTheDocument();
     await user.click(screen.getByRole("button", { name: "Prepare again" }));
@@ -347,9 +261,10 @@ describe("Quarter close › the analyst prepares and submits", () => {
 describe("Quarter close › the return data", () => {
   it("when an analyst opens a draft, then the return's C 24.00 rows show with their sources, and the values the product does not hold are entered and sent with the version read", async () => {
     const store = [snapshot({ id: 14, version: 4 })];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(store, {
+    const { api, user } = openSnapshot(
+      "analyst",
+      store,
+      {
         "PUT /api/snapshots/14/return-inputs": (c) =>
           answer(
             store,
@@ -359,10 +274,9 @@ describe("Quarter close › the return data", () => {
               figures: figures({ analystInputs: (c.body as { values: Record<string, number | null> }).values }),
             }),
           ),
-      }),
-    });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=14");
+      },
+      14,
+    );
 
     const table = await screen.findByRole("table", { name: /Return data of LKS-EU/ });
     // C 24.00 c150 and c140: the frozen multiplier and count (CRR Art. 366), as the server froze them.
@@ -393,8 +307,7 @@ describe("Quarter close › the return data", () => {
   });
 
   it("when the chief risk officer reads a submitted snapshot, then the return data shows and nothing can be entered", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("cro"), ...snapshotRoutes([submitted()]) });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    openSnapshot("cro", [submitted()]);
     expect(await screen.findByRole("table", { name: /Return data of LKS-EU/ })).toBeInTheDocument();
     expect(screen.queryByRole("button", { name: "Save return values" })).not.toBeInTheDocument();
   });
@@ -402,11 +315,7 @@ describe("Quarter close › the return data", () => {
 
 describe("Quarter close › the chief risk officer signs off", () => {
   it("when the chief risk officer prepared the snapshot, then Approve is not offered and the screen says why", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([submitted({ preparedBy: "cro@larkspur.test" })]),
-    });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    openSnapshot("cro", [submitted({ preparedBy: "cro@larkspur.test" })]);
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
     const fourEyes = within(form).getByRole("note");
@@ -424,31 +333,26 @@ describe("Quarter close › the chief risk officer signs off", () => {
 
   it("when the chief risk officer approves another's submitted snapshot, then the comment and version read are sent and the seal's hash shows", async () => {
     const store = [submitted()];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes(store, {
-        "POST /api/snapshots/12/approve": (c) => {
-          const body = c.body as { comment?: string };
-          return answer(
-            store,
-            approved({
-              approvedBy: "cro@larkspur.test",
-              history: [
-                ...submitted().history,
-                {
-                  at: "2026-01-12T09:05:00.000Z",
-                  by: "cro@larkspur.test",
-                  action: "approved",
-                  comment: body.comment ?? null,
-                },
-              ],
-            }),
-          );
-        },
-      }),
+    const { api, user } = openSnapshot("cro", store, {
+      "POST /api/snapshots/12/approve": (c) => {
+        const body = c.body as { comment?: string };
+        return answer(
+          store,
+          approved({
+            approvedBy: "cro@larkspur.test",
+            history: [
+              ...submitted().history,
+              {
+                at: "2026-01-12T09:05:00.000Z",
+                by: "cro@larkspur.test",
+                action: "approved",
+                comment: body.comment ?? null,
+              },
+            ],
+          }),
+        );
+      },
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
     expect(within(form).queryByRole("note")).not.toBeInTheDocument();
@@ -483,14 +387,9 @@ describe("Quarter close › the chief risk officer signs off", () => {
 
   it("when the chief risk officer returns a snapshot without a comment, then the field says why one is needed and nothing is sent", async () => {
     const store = [submitted()];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes(store, {
-        "POST /api/snapshots/12/return": () => answer(store, submitted({ status: "returned", version: 6 })),
-      }),
+    const { api, user } = openSnapshot("cro", store, {
+      "POST /api/snapshots/12/return": () => answer(store, submitted({ status: "returned", version: 6 })),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
     await user.click(within(form).getByRole("button", { name: "Return to the analysts" }));
@@ -511,18 +410,13 @@ describe("Quarter close › the chief risk officer signs off", () => {
   });
 
   it("when the daily data changed since submission (409 inputs_changed), then the server's message says so and suggests returning it", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([submitted()], {
-        "POST /api/snapshots/12/approve": error(
-          409,
-          "inputs_changed",
-          "The daily data inside Q4 2025 changed after it was submitted.",
-        ),
-      }),
+    const { user } = openSnapshot("cro", [submitted()], {
+      "POST /api/snapshots/12/approve": error(
+        409,
+        "inputs_changed",
+        "The daily data inside Q4 2025 changed after it was submitted.",
+      ),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const form = await screen.findByRole("form", { name: "Sign-off" });
     await user.click(within(form).getByRole("button", { name: "Approve and seal" }));
@@ -620,18 +514,14 @@ describe("Quarter close › reading signed-off quarters", () => {
   });
 
   it("when a day inside a signed-off window was restated, then a warning says the figures stay as approved, with the detail", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([
-        approved({
-          restatedAfterSignOff: {
-            at: "2026-02-03T14:20:00.000Z",
-            detail: "LKS-EU-TOTAL 2025-11-14 was restated by upload #88.",
-          },
-        }),
-      ]),
-    });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    openSnapshot("cro", [
+      approved({
+        restatedAfterSignOff: {
+          at: "2026-02-03T14:20:00.000Z",
+          detail: "LKS-EU-TOTAL 2025-11-14 was restated by upload #88.",
+        },
+      }),
+    ]);
 
     const warning = await screen.findByRole("note", { name: "Restated after sign-off" });
     expect(warning).toHaveTextContent(
@@ -656,14 +546,9 @@ describe("Quarter close › reading signed-off quarters", () => {
         detail: "The link to the previously approved snapshot does not match: the chain was altered.",
       }),
     ];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("treasury"),
-      ...snapshotRoutes([approved()], {
-        "GET /api/snapshots/12/verify": () => ({ status: 200, body: checks.shift() }),
-      }),
+    const { api, user } = openSnapshot("treasury", [approved()], {
+      "GET /api/snapshots/12/verify": () => ({ status: 200, body: checks.shift() }),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     await user.click(await screen.findByRole("button", { name: "Verify the hash" }));
     const result = await screen.findByRole("status", { name: "Hash check" });
@@ -690,12 +575,7 @@ describe("Quarter close › reading signed-off quarters", () => {
       error(503, "database_unavailable", "The database did not answer; try again in a moment."),
       error(503, "database_unavailable", "The database did not answer; try again in a moment."),
     ];
-    fakeApi({
-      "GET /api/auth/session": signedInAs("treasury"),
-      ...snapshotRoutes([approved()], { "GET /api/snapshots/12/verify": () => checks.shift()! }),
-    });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    const { user } = openSnapshot("treasury", [approved()], { "GET /api/snapshots/12/verify": () => checks.shift()! });
 
     await user.click(await screen.findByRole("button", { name: "Verify the hash" }));
     expect(await screen.findByRole("status", { name: "Hash check" })).toHaveTextContent(
@@ -801,74 +681,36 @@ const filed = (over: Partial<Snapshot> = {}) =>
     ...over,
   });
 
-/** The filing the server answers with; parsed with the shared schema. */
-function filingOf(over: Partial<Filing> = {}): Filing {
-  // Each recipient's delivery and the summary follow the filing's delivery unless the test gives them.
-  const recipients = over.recipients ?? ["backtesting@supervisor.test", "desk-officer@supervisor.test"];
-  const sent = (over.delivery ?? "sent") === "sent";
-  const deliveries = recipients.map((recipient) => ({
-    recipient,
-    status: sent ? ("accepted" as const) : ("pending" as const),
-    detail: sent ? "250 OK: message queued" : (over.lastError ?? null),
-    attempts: 1,
-    acceptedAt: sent ? (over.sentAt ?? "2026-01-14T10:00:00.000Z") : null,
-  }));
-  const summary = sent
-    ? `Sent to ${recipients.join(", ")}.`
-    : `Waiting for the mail server for ${recipients.join(", ")}${over.lastError ? ` (${over.lastError})` : ""}.`;
-  return filingSchema.parse({
-    id: 31,
-    snapshotId: 12,
-    entity: "LKS-EU",
-    entityName: "Larkspur Markets SA",
+/** The filing the server answers with for Q4 2025's pack. */
+const filingOf = (over: Partial<Filing> = {}): Filing =>
+  filingFixture({
     quarterEnd: "2025-12-31",
-    zone: "yellow",
-    counted: 6,
-    multiplier: 3.5,
     fileName: "LKS-EU-2025-12-31-pack.pdf",
     sha256: PACK_SHA256,
-    recipients: ["backtesting@supervisor.test", "desk-officer@supervisor.test"],
-    delivery: "sent",
-    messageId: "<31.pack@quartermark.test>",
-    lastError: null,
-    sentBy: "cro@larkspur.test",
     sentAt: "2026-01-14T10:00:00.000Z",
-    acknowledgedBy: null,
-    acknowledgedAt: null,
-    snapshotHash: "4e1d0c9b8a7f6e5d4c3b2a1908f7e6d5c4b3a29180f7e6d5c4b3a2918f7e6d5c",
-    amends: null,
-    amendedBy: null,
-    deliveries,
-    summary,
     ...over,
   });
-}
 
 describe("Quarter close › the pack and its filing", () => {
   it("when the chief risk officer files an approved quarter, then the pack is sent and the recipients, SHA-256 and a link to the filing show", async () => {
     const store = [approved()];
     const filings: Filing[] = [];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes(store, {
-        "GET /api/entities": {
-          status: 200,
-          body: entities.map((e) =>
-            e.code === "LKS-EU"
-              ? { ...e, supervisorName: "Banking Supervisor", supervisorEmails: ["market-risk@supervisor.test"] }
-              : e,
-          ),
-        },
-        "GET /api/filings": () => ({ status: 200, body: filings }),
-        "POST /api/snapshots/12/filings": () => {
-          answer(store, filed());
-          filings.unshift(filingOf());
-          return { status: 201, body: filings[0] };
-        },
-      }),
+    const { api, user } = openSnapshot("cro", store, {
+      "GET /api/entities": {
+        status: 200,
+        body: entities.map((e) =>
+          e.code === "LKS-EU"
+            ? { ...e, supervisorName: "Banking Supervisor", supervisorEmails: ["market-risk@supervisor.test"] }
+            : e,
+        ),
+      },
+      "GET /api/filings": () => ({ status: 200, body: filings }),
+      "POST /api/snapshots/12/filings": () => {
+        answer(store, filed());
+        filings.unshift(filingOf());
+        return { status: 201, body: filings[0] };
+      },
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
@@ -899,18 +741,13 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the mail server refuses the message for good (502 mail_not_sent), then its message shows and the quarter stays approved, ready to file again", async () => {
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([approved()], {
-        "POST /api/snapshots/12/filings": error(
-          502,
-          "mail_not_sent",
-          "The mail server refused the message (550 5.1.1 <desk-officer@supervisor.test>: recipient unknown). Nothing was sent; check the supervisor contacts under Admin › Entities and file again.",
-        ),
-      }),
+    const { api, user } = openSnapshot("cro", [approved()], {
+      "POST /api/snapshots/12/filings": error(
+        502,
+        "mail_not_sent",
+        "The mail server refused the message (550 5.1.1 <desk-officer@supervisor.test>: recipient unknown). Nothing was sent; check the supervisor contacts under Admin › Entities and file again.",
+      ),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
@@ -937,18 +774,13 @@ describe("Quarter close › the pack and its filing", () => {
       sentAt: null,
       lastError: "connect ECONNREFUSED 127.0.0.1:2525",
     });
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes(store, {
-        "GET /api/filings": () => ({ status: 200, body: filings }),
-        "POST /api/snapshots/12/filings": () => {
-          filings.unshift(waiting);
-          return { status: 202, body: waiting };
-        },
-      }),
+    const { api, user } = openSnapshot("cro", store, {
+      "GET /api/filings": () => ({ status: 200, body: filings }),
+      "POST /api/snapshots/12/filings": () => {
+        filings.unshift(waiting);
+        return { status: 202, body: waiting };
+      },
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
@@ -993,30 +825,25 @@ describe("Quarter close › the pack and its filing", () => {
 
   it("when the quarter was filed meanwhile (409 with the filing's id), then the message links to that filing and the File button gives way to the filing", async () => {
     const filings: Filing[] = [];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([approved()], {
-        "GET /api/filings": () => ({ status: 200, body: filings }),
-        "POST /api/snapshots/12/filings": () => {
-          // Another chief risk officer filed it a moment ago; the pack still waits for the mail server.
-          filings.unshift(
-            filingOf({ id: 33, sentBy: "cro2@larkspur.test", delivery: "pending", messageId: null, sentAt: null }),
-          );
-          return {
-            status: 409,
-            body: {
-              error: {
-                code: "conflict",
-                message: "Snapshot #12 is already filed (filing #33, waiting for the mail server).",
-                details: { filingId: 33 },
-              },
+    const { api, user } = openSnapshot("cro", [approved()], {
+      "GET /api/filings": () => ({ status: 200, body: filings }),
+      "POST /api/snapshots/12/filings": () => {
+        // Another chief risk officer filed it a moment ago; the pack still waits for the mail server.
+        filings.unshift(
+          filingOf({ id: 33, sentBy: "cro2@larkspur.test", delivery: "pending", messageId: null, sentAt: null }),
+        );
+        return {
+          status: 409,
+          body: {
+            error: {
+              code: "conflict",
+              message: "Snapshot #12 is already filed (filing #33, waiting for the mail server).",
+              details: { filingId: 33 },
             },
-          };
-        },
-      }),
+          },
+        };
+      },
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     await waitFor(() => expect(api.callsTo("GET", "/api/filings")).toHaveLength(1));
@@ -1036,18 +863,13 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the confirmation opens, then focus is on Send the pack; Cancel gives it back to File with the supervisor; an error takes it to its message", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([approved()], {
-        "POST /api/snapshots/12/filings": error(
-          422,
-          "no_supervisor_contacts",
-          "LKS-EU has no supervisor e-mail address.",
-        ),
-      }),
+    const { user } = openSnapshot("cro", [approved()], {
+      "POST /api/snapshots/12/filings": error(
+        422,
+        "no_supervisor_contacts",
+        "LKS-EU has no supervisor e-mail address.",
+      ),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
@@ -1066,12 +888,7 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the reader copies the filed pack's SHA-256, then all 64 characters go to the clipboard and the button says Copied", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([filed()], { "GET /api/filings": { status: 200, body: [filingOf()] } }),
-    });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    const { user } = openSnapshot("cro", [filed()], { "GET /api/filings": { status: 200, body: [filingOf()] } });
 
     const sha = await screen.findByTestId("filing-sha256");
     expect(within(sha).getByText(PACK_SHA256).tagName).toBe("CODE");
@@ -1082,18 +899,13 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the entity has no supervisor contacts (422), then the screen says an administrator adds them", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([approved()], {
-        "POST /api/snapshots/12/filings": error(
-          422,
-          "no_supervisor_contacts",
-          "LKS-EU has no supervisor e-mail address.",
-        ),
-      }),
+    const { user } = openSnapshot("cro", [approved()], {
+      "POST /api/snapshots/12/filings": error(
+        422,
+        "no_supervisor_contacts",
+        "LKS-EU has no supervisor e-mail address.",
+      ),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
@@ -1105,8 +917,7 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when an analyst opens an approved quarter, then the pack can be downloaded but filing is not offered", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("analyst"), ...snapshotRoutes([approved()]) });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    openSnapshot("analyst", [approved()]);
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
@@ -1116,8 +927,7 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when a draft is opened, then its pack is offered with the warning that it is not signed off", async () => {
-    fakeApi({ "GET /api/auth/session": signedInAs("analyst"), ...snapshotRoutes([snapshot()]) });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    openSnapshot("analyst", [snapshot()]);
 
     const pack = await screen.findByRole("region", { name: "Pack and filing" });
     expect(within(pack).getByRole("button", { name: "Download the pack (PDF)" })).toBeInTheDocument();
@@ -1152,19 +962,15 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when a filed quarter is opened, then its filing is found in the filings list and shows who sent it and who acknowledged it", async () => {
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes([filed()], {
-        "GET /api/filings": {
-          status: 200,
-          body: [
-            filingOf({ id: 35, snapshotId: 14, quarterEnd: "2026-03-31", sha256: "f".repeat(64) }),
-            filingOf({ acknowledgedBy: "regulator@larkspur.test", acknowledgedAt: "2026-01-15T08:30:00.000Z" }),
-          ],
-        },
-      }),
+    const { api } = openSnapshot("analyst", [filed()], {
+      "GET /api/filings": {
+        status: 200,
+        body: [
+          filingOf({ id: 35, snapshotId: 14, quarterEnd: "2026-03-31", sha256: "f".repeat(64) }),
+          filingOf({ acknowledgedBy: "regulator@larkspur.test", acknowledgedAt: "2026-01-15T08:30:00.000Z" }),
+        ],
+      },
     });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const record = await screen.findByTestId("snapshot-filing");
     expect(record).toHaveTextContent("14 Jan 2026, 10:00 UTC by cro@larkspur.test");
@@ -1180,23 +986,19 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when an approved quarter's filing waits for the mail server, then it says so and does not offer to file again", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      ...snapshotRoutes([approved()], {
-        "GET /api/filings": {
-          status: 200,
-          body: [
-            filingOf({
-              delivery: "pending",
-              messageId: null,
-              sentAt: null,
-              lastError: "connect ECONNREFUSED 127.0.0.1:2525",
-            }),
-          ],
-        },
-      }),
+    openSnapshot("cro", [approved()], {
+      "GET /api/filings": {
+        status: 200,
+        body: [
+          filingOf({
+            delivery: "pending",
+            messageId: null,
+            sentAt: null,
+            lastError: "connect ECONNREFUSED 127.0.0.1:2525",
+          }),
+        ],
+      },
     });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     const pending = await screen.findByTestId("filing-pending");
     expect(pending).toHaveTextContent("the mail server did not take the message (connect ECONNREFUSED 127.0.0.1:2525)");
@@ -1205,8 +1007,7 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when treasury opens a filed quarter, then neither the pack nor the filing is offered and no filing is asked for", async () => {
-    const api = fakeApi({ "GET /api/auth/session": signedInAs("treasury"), ...snapshotRoutes([filed()]) });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    const { api } = openSnapshot("treasury", [filed()]);
 
     expect(await screen.findByTestId("snapshot-status")).toHaveTextContent("Filed");
     expect(screen.queryByRole("region", { name: "Pack and filing" })).not.toBeInTheDocument();
@@ -1297,18 +1098,13 @@ const amendmentOf12 = (over: Partial<Snapshot> = {}) =>
 describe("Quarter close › amending a filed quarter", () => {
   it("when a filed quarter carries a restatement flag, then the analyst confirms and prepares its amendment, and its view shows what changed", async () => {
     const store = [filed({ restatedAfterSignOff: RESTATED })];
-    const api = fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(store, {
-        "GET /api/filings": { status: 200, body: [filingOf()] },
-        "POST /api/snapshots": () => {
-          store[0] = { ...store[0], amendedBy: 13 };
-          return answer(store, amendmentOf12(), 201);
-        },
-      }),
+    const { api, user } = openSnapshot("analyst", store, {
+      "GET /api/filings": { status: 200, body: [filingOf()] },
+      "POST /api/snapshots": () => {
+        store[0] = { ...store[0], amendedBy: 13 };
+        return answer(store, amendmentOf12(), 201);
+      },
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     expect(await screen.findByText(/A day inside it was restated since: prepare an amendment/)).toBeInTheDocument();
     await user.click(screen.getByRole("button", { name: "Prepare amendment" }));
@@ -1356,19 +1152,16 @@ describe("Quarter close › amending a filed quarter", () => {
   });
 
   it("when the amendment is filed, then the original says its restatement is resolved, links to it, and offers no second amendment", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(
-        [
-          filed({
-            restatedAfterSignOff: { ...RESTATED, resolvedBy: { snapshotId: 13, filedAt: "2026-02-06T08:00:00.000Z" } },
-            amendedBy: 13,
-          }),
-        ],
-        { "GET /api/filings": { status: 200, body: [filingOf()] } },
-      ),
-    });
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
+    openSnapshot(
+      "analyst",
+      [
+        filed({
+          restatedAfterSignOff: { ...RESTATED, resolvedBy: { snapshotId: 13, filedAt: "2026-02-06T08:00:00.000Z" } },
+          amendedBy: 13,
+        }),
+      ],
+      { "GET /api/filings": { status: 200, body: [filingOf()] } },
+    );
 
     const resolved = await screen.findByRole("note", { name: "Restatement resolved" });
     expect(resolved).toHaveTextContent(
@@ -1384,19 +1177,14 @@ describe("Quarter close › amending a filed quarter", () => {
 
   it("when the server refuses the amendment (one is already in sign-off), then its reason shows and nothing changes", async () => {
     const store = [filed({ restatedAfterSignOff: RESTATED })];
-    fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      ...snapshotRoutes(store, {
-        "GET /api/filings": { status: 200, body: [filingOf()] },
-        "POST /api/snapshots": error(
-          409,
-          "amendment_open",
-          "Snapshot #12 already has an amendment in sign-off (#13, submitted); finish or return that one first.",
-        ),
-      }),
+    const { user } = openSnapshot("analyst", store, {
+      "GET /api/filings": { status: 200, body: [filingOf()] },
+      "POST /api/snapshots": error(
+        409,
+        "amendment_open",
+        "Snapshot #12 already has an amendment in sign-off (#13, submitted); finish or return that one first.",
+      ),
     });
-    const user = userEvent.setup();
-    renderApp("/quarters?entity=LKS-EU&snapshot=12");
 
     await user.click(await screen.findByRole("button", { name: "Prepare amendment" }));
     await user.click(screen.getByRole("button", { name: "Prepare the amendment" }));

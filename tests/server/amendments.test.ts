@@ -1,8 +1,4 @@
-import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
@@ -14,57 +10,23 @@ import { filingListSchema, filingSchema } from "../../shared/schemas/filing";
 import { snapshotSchema, type Snapshot } from "../../shared/schemas/snapshot";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import {
+  approve,
+  type Book,
   HEADER,
-  preparedAndSubmitted,
   prepare,
+  preparedAndSubmitted,
   Q2,
   Q3,
   signOffBook,
   snapshotApp as app,
+  submit,
   uploadAndCommit,
-  type Book,
 } from "./snapshot-helpers";
+import { download, flat, keepPages, pagesText } from "./pdf-helpers";
 
 afterAll(() => sequelize.close());
 
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
-const PAGES_DIR = path.resolve(import.meta.dirname, "..", "..", "test-results", "pack-pages");
-
-function pdfFile(bytes: Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-amend-")), "pack.pdf");
-  writeFileSync(file, bytes);
-  return file;
-}
-/** The text of each page, read back with poppler's pdftotext. */
-function pagesText(bytes: Buffer): string[] {
-  const file = pdfFile(bytes);
-  const pages = Number(/Pages:\s+(\d+)/.exec(execFileSync("pdfinfo", [file]).toString())![1]);
-  return Array.from({ length: pages }, (_, i) =>
-    execFileSync("pdftotext", ["-layout", "-f", String(i + 1), "-l", String(i + 1), file, "-"]).toString("utf8"),
-  );
-}
-/** Every page as a PNG under test-results/pack-pages/<name>-N.png, to be looked at. */
-function keepPages(bytes: Buffer, name: string) {
-  mkdirSync(PAGES_DIR, { recursive: true });
-  for (const f of readdirSync(PAGES_DIR)) if (f.startsWith(`${name}-`)) rmSync(path.join(PAGES_DIR, f));
-  execFileSync("pdftoppm", ["-png", "-r", "80", pdfFile(bytes), path.join(PAGES_DIR, name)]);
-}
-const flat = (s: string) => s.replace(/\s+/g, " ");
-
-async function download(url: string, cookie: string): Promise<Buffer> {
-  const res = await request(app)
-    .get(url)
-    .set("Cookie", cookie)
-    .buffer(true)
-    .parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => done(null, Buffer.concat(chunks)));
-    });
-  expect(res.status).toBe(200);
-  return res.body as Buffer;
-}
-
 const amend = (book: Book, amends: number, quarterEnd = Q3, cookie = book.cookie) =>
   request(app).post("/api/snapshots").set("Cookie", cookie).send({ entity: book.entity.code, quarterEnd, amends });
 
@@ -75,10 +37,7 @@ async function filedBook() {
   await book.cro.update({ name: "Bram Oduya" });
   await book.entity.update({ supervisorEmails: [`supervisor-${Date.now()}@bank-supervisor.test`] });
   const submitted = await preparedAndSubmitted(book);
-  const approved = await request(app)
-    .post(`/api/snapshots/${submitted.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({ version: submitted.version });
+  const approved = await approve(submitted.id, book.croCookie, { version: submitted.version });
   expect(approved.status, JSON.stringify(approved.body)).toBe(200);
   const filed = await request(app).post(`/api/snapshots/${submitted.id}/filings`).set("Cookie", book.croCookie);
   expect(filed.status, JSON.stringify(filed.body)).toBe(201);
@@ -107,7 +66,7 @@ const getSnapshot = async (id: number, cookie: string): Promise<Snapshot> =>
 describe("amended filings", () => {
   it("when a day of a filed quarter is restated, then an amendment is prepared, signed off by four eyes and filed, and the original stays as filed", async () => {
     const { book, originalId, filing, regulatorCookie } = await filedBook();
-    const originalPack = await download(`/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
+    const originalPack = await download(app, `/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
     expect(sha256(originalPack)).toBe(filing.sha256);
 
     // Nothing restated yet: nothing to amend.
@@ -160,7 +119,7 @@ describe("amended filings", () => {
     expect(a.original.filedBy).toBe("Bram Oduya");
 
     // The draft's pack: DRAFT and AMENDMENT on every page, never to be filed as it is.
-    const draftPack = await download(`/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
+    const draftPack = await download(app, `/api/snapshots/${draft.id}/pack.pdf`, book.cookie);
     keepPages(draftPack, "amendment_draft");
     for (const p of pagesText(draftPack)) expect(p).toContain(`DRAFT · AMENDMENT of snapshot #${originalId}`);
 
@@ -173,18 +132,12 @@ describe("amended filings", () => {
     expect((await getSnapshot(originalId, book.cookie)).amendedBy).toBe(draft.id);
 
     // Four eyes, as for any snapshot.
-    const submitted = await request(app)
-      .post(`/api/snapshots/${draft.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: again.body.version });
+    const submitted = await submit(draft.id, book.cookie, { version: again.body.version });
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
     const second = await amend(book, originalId, Q3, book.analyst2Cookie);
     expect(second.status).toBe(409);
     expect(second.body.error.code).toBe("amendment_open");
-    const approved = await request(app)
-      .post(`/api/snapshots/${draft.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version });
+    const approved = await approve(draft.id, book.croCookie, { version: submitted.body.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
     expect(approved.body.hash).toMatch(/^[0-9a-f]{64}$/);
     expect(approved.body.hash).not.toBe(flagged.hash);
@@ -212,7 +165,7 @@ describe("amended filings", () => {
     });
 
     // The original: same pack bytes, same hash, same row; its flag is now resolved.
-    const originalAgain = await download(`/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
+    const originalAgain = await download(app, `/api/filings/${filing.id}/pack.pdf`, regulatorCookie);
     expect(Buffer.compare(originalAgain, originalPack)).toBe(0);
     expect(sha256(originalAgain)).toBe(filing.sha256);
     expect((await FilingModel.scope("withPack").findByPk(filing.id))!.packSha256).toBe(filing.sha256);
@@ -232,7 +185,7 @@ describe("amended filings", () => {
     ).toBe(true);
 
     // The amendment's pack, as the supervisor downloads it.
-    const pack = await download(`/api/filings/${amendmentFiling.id}/pack.pdf`, regulatorCookie);
+    const pack = await download(app, `/api/filings/${amendmentFiling.id}/pack.pdf`, regulatorCookie);
     keepPages(pack, "amendment");
     const pages = pagesText(pack);
     for (const p of pages) expect(p).toContain(`AMENDMENT of snapshot #${originalId}`);
@@ -276,15 +229,8 @@ describe("amended filings", () => {
     const { book, originalId } = await filedBook();
     await restateLastException(book);
     const draft = await amend(book, originalId);
-    const submitted = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: draft.body.version });
-    await request(app)
-      .post(`/api/snapshots/${draft.body.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version })
-      .expect(200);
+    const submitted = await submit(draft.body.id, book.cookie, { version: draft.body.version });
+    await approve(draft.body.id, book.croCookie, { version: submitted.body.version }).expect(200);
     await request(app).post(`/api/snapshots/${draft.body.id}/filings`).set("Cookie", book.croCookie).expect(201);
     const originalRow = (await SnapshotModel.findByPk(originalId))!.toJSON();
 

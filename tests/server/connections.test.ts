@@ -2,7 +2,7 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { connectionsAskedInsideTransactions } from "../../server/db/transaction-context";
-import { preparedAndSubmitted, signOffBook, snapshotApp as app, Q2, Q3, type Book } from "./snapshot-helpers";
+import { approvedQuarter, type Book, Q2, Q3, signOffBook, snapshotApp as app } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -35,8 +35,7 @@ beforeAll(async () => {
   await filed.entity.update({
     supervisorEmails: [`supervisor-${filed.entity.code.toLowerCase()}@tests.quartermark.test`],
   });
-  const submitted = await preparedAndSubmitted(filed, Q2);
-  await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", filed.croCookie).send({}).expect(200);
+  const submitted = await approvedQuarter(filed, Q2);
   approvedId = submitted.id;
 }, 120_000);
 

@@ -5,30 +5,20 @@
  */
 import { mkdtempSync, readdirSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
-import net from "node:net";
 import path from "node:path";
-import mariadb from "mariadb";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
-import { config } from "../../server/config";
 import { sequelize } from "../../server/db/sequelize";
 import { FilingModel } from "../../server/models/filing";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { useSmtpPort } from "../../server/mail/mailer";
 import { deliverPendingFilings } from "../../server/modules/filings/filings.service";
 import { startMailSink, type MailSinkOptions } from "../../scripts/lib/mail-sink";
-import { preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { approvedBookFiledTo, snapshotApp as app } from "./snapshot-helpers";
+import { freePort } from "./support/free-port";
+import { outsideSession } from "./support/outside-session";
 
 afterAll(() => sequelize.close());
-
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const srv = net.createServer().listen(0, "127.0.0.1", () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
-}
 
 /** A sink of the test's own, with the mailer pointed at it until `close`. */
 async function ownSink(options: MailSinkOptions) {
@@ -49,14 +39,6 @@ async function ownSink(options: MailSinkOptions) {
   };
 }
 
-async function approvedWith(recipients: string[]) {
-  const book = await signOffBook();
-  await book.entity.update({ supervisorEmails: recipients, supervisorName: "Ms Rowan Vale" });
-  const submitted = await preparedAndSubmitted(book);
-  await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
-  return { book, snapshotId: submitted.id as number };
-}
-
 describe("a filing reaches some recipients and not others", () => {
   it("fault: one supervisor address accepted and one refused (550) → the filing is kept as partially delivered, the quarter is filed, the accepted recipient got exactly one message, and the CRO finishes by retrying only the refused one", async () => {
     const stamp = Date.now();
@@ -65,7 +47,7 @@ describe("a filing reaches some recipients and not others", () => {
     let mailboxExists = false; // the supervisor's archive mailbox is created later
     const sink = await ownSink({ refuse: (a) => (a === bad && !mailboxExists ? `No such mailbox: ${a}` : null) });
     try {
-      const { book, snapshotId } = await approvedWith([good, bad]);
+      const { book, snapshotId } = await approvedBookFiledTo([good, bad]);
       const res = await request(app)
         .post(`/api/snapshots/${snapshotId}/filings`)
         .set("Cookie", book.croCookie)
@@ -116,7 +98,7 @@ describe("a filing reaches some recipients and not others", () => {
   it("fault: every supervisor address refused → 502 says what each refusal was, nothing reached anyone, so the filing is withdrawn and the quarter stays approved", async () => {
     const sink = await ownSink({});
     try {
-      const { book, snapshotId } = await approvedWith(["nobody@supervisor.invalid"]);
+      const { book, snapshotId } = await approvedBookFiledTo(["nobody@supervisor.invalid"]);
       const res = await request(app)
         .post(`/api/snapshots/${snapshotId}/filings`)
         .set("Cookie", book.croCookie)
@@ -136,13 +118,7 @@ describe("a filing reaches some recipients and not others", () => {
 describe("the database dies right after the mail server took the pack", () => {
   it("fault: the post-send database write is cut off → the CRO is told the pack went out, and after restart reconciliation records it from the journal and sends nothing twice", async () => {
     const supervisor = `journal-${Date.now()}@bank-supervisor.test`;
-    const admin = await mariadb.createConnection({
-      host: config.db.host,
-      port: config.db.port,
-      user: config.db.user,
-      password: config.db.password,
-      database: config.db.name,
-    });
+    const admin = await outsideSession();
     const [{ id: adminThread }] = (await admin.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
     const snapshotIdRef = { id: 0 };
     let filingRowHeld = false;
@@ -163,7 +139,7 @@ describe("the database dies right after the mail server took the pack", () => {
       },
     });
     try {
-      const { book, snapshotId } = await approvedWith([supervisor]);
+      const { book, snapshotId } = await approvedBookFiledTo([supervisor]);
       snapshotIdRef.id = snapshotId;
       const filing = request(app)
         .post(`/api/snapshots/${snapshotId}/filings`)

@@ -1,8 +1,6 @@
-import { execFileSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readdirSync, readFileSync } from "node:fs";
 import { tmpdir } from "node:os";
-import net from "node:net";
 import path from "node:path";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
@@ -16,27 +14,13 @@ import { useSmtpPort } from "../../server/mail/mailer";
 import { deliverPendingFilings } from "../../server/modules/filings/filings.service";
 import { startMailSink } from "../../scripts/lib/mail-sink";
 import { createTestUser, sessionCookieFor } from "./helpers";
-import { preparedAndSubmitted, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { approvedBookFiledTo, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { asBytes, pdfText } from "./pdf-helpers";
+import { freePort } from "./support/free-port";
 
 afterAll(() => sequelize.close());
 
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const srv = net.createServer().listen(0, "127.0.0.1", () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
-}
-
 const sha256 = (bytes: Buffer) => createHash("sha256").update(bytes).digest("hex");
-
-/** The text of a PDF, read back with poppler's pdftotext. */
-function pdfText(bytes: Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
-  writeFileSync(file, bytes);
-  return execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8");
-}
 
 /** Every message the run's mail sink (scripts/test.ts) received for this address, raw. */
 function mailsTo(address: string): string[] {
@@ -56,14 +40,6 @@ function attachedPdf(raw: string): Buffer {
   return Buffer.from(body.replace(/[^A-Za-z0-9+/=]/g, ""), "base64");
 }
 
-async function approvedBook(supervisor: string) {
-  const book = await signOffBook();
-  await book.entity.update({ supervisorEmails: [supervisor], supervisorName: "Ms Rowan Vale" });
-  const submitted = await preparedAndSubmitted(book);
-  await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
-  return { book, snapshotId: submitted.id as number };
-}
-
 async function regulatorFor(book: Book) {
   const regulator = await createTestUser("regulator");
   await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
@@ -72,16 +48,8 @@ async function regulatorFor(book: Book) {
 
 describe("the quarterly pack", () => {
   it("when the office downloads a snapshot's pack, then it is a real PDF with the frozen figures, the seal and the caution", async () => {
-    const { book, snapshotId } = await approvedBook(`supervisor-${Date.now()}@bank-supervisor.test`);
-    const res = await request(app)
-      .get(`/api/snapshots/${snapshotId}/pack.pdf`)
-      .set("Cookie", book.cookie)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on("data", (c: Buffer) => chunks.push(c));
-        r.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+    const { book, snapshotId } = await approvedBookFiledTo([`supervisor-${Date.now()}@bank-supervisor.test`]);
+    const res = await asBytes(request(app).get(`/api/snapshots/${snapshotId}/pack.pdf`).set("Cookie", book.cookie));
     expect(res.status).toBe(200);
     expect(res.headers["content-type"]).toBe("application/pdf");
     expect(res.headers["content-disposition"]).toMatch(/attachment; filename="quartermark-.*-2026-09-30-pack\.pdf"/);
@@ -103,15 +71,7 @@ describe("the quarterly pack", () => {
       .post("/api/snapshots")
       .set("Cookie", book.cookie)
       .send({ entity: book.entity.code, quarterEnd: "2026-09-30" });
-    const res = await request(app)
-      .get(`/api/snapshots/${draft.body.id}/pack.pdf`)
-      .set("Cookie", book.cookie)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on("data", (c: Buffer) => chunks.push(c));
-        r.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+    const res = await asBytes(request(app).get(`/api/snapshots/${draft.body.id}/pack.pdf`).set("Cookie", book.cookie));
     expect(pdfText(res.body as Buffer)).toMatch(
       /Not signed off \(draft\): these figures are a working copy and must not be filed/,
     );
@@ -121,7 +81,7 @@ describe("the quarterly pack", () => {
 describe("filing with the supervisor", () => {
   it("when the CRO files an approved snapshot, then the pack goes by e-mail over SMTP, is kept with its sha256, and the snapshot is filed", async () => {
     const supervisor = `supervisor-${Date.now()}@bank-supervisor.test`;
-    const { book, snapshotId } = await approvedBook(supervisor);
+    const { book, snapshotId } = await approvedBookFiledTo([supervisor]);
     const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const filing = filingSchema.parse(res.body);
@@ -158,7 +118,7 @@ describe("filing with the supervisor", () => {
 
   it("when the mail server is down at filing, then the filing waits as pending (202), and once it is back exactly one e-mail arrives", async () => {
     const supervisor = `waiting-${Date.now()}@bank-supervisor.test`;
-    const { book, snapshotId } = await approvedBook(supervisor);
+    const { book, snapshotId } = await approvedBookFiledTo([supervisor]);
     const port = await freePort(); // nothing listens there: the mail server is down
     useSmtpPort(port);
     try {
@@ -205,7 +165,7 @@ describe("filing with the supervisor", () => {
   });
 
   it("when the mail server refuses the supervisor's address, then 502 says nothing was sent, the filing is withdrawn and the quarter stays approved", async () => {
-    const { book, snapshotId } = await approvedBook("nobody@supervisor.invalid");
+    const { book, snapshotId } = await approvedBookFiledTo(["nobody@supervisor.invalid"]);
     const res = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(res.status).toBe(502);
     expect(res.body.error).toMatchObject({
@@ -217,7 +177,7 @@ describe("filing with the supervisor", () => {
   });
 
   it("when the entity has no supervisor address, or the snapshot is not approved, then filing is refused and nothing is sent", async () => {
-    const { book, snapshotId } = await approvedBook("x@bank-supervisor.test");
+    const { book, snapshotId } = await approvedBookFiledTo(["x@bank-supervisor.test"]);
     await book.entity.update({ supervisorEmails: [] });
     const none = await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({});
     expect(none.status).toBe(422);
@@ -238,7 +198,7 @@ describe("filing with the supervisor", () => {
 describe("the supervisor's side", () => {
   it("when an assigned regulator lists, downloads, verifies and acknowledges a filing, then each works once and others' filings stay invisible", async () => {
     const supervisor = `supervisor-${Date.now()}@bank-supervisor.test`;
-    const { book, snapshotId } = await approvedBook(supervisor);
+    const { book, snapshotId } = await approvedBookFiledTo([supervisor]);
     const filing = (
       await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
     ).body;
@@ -252,15 +212,7 @@ describe("the supervisor's side", () => {
     ).not.toContain(filing.id);
     expect((await request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", stranger)).status).toBe(404);
 
-    const pack = await request(app)
-      .get(`/api/filings/${filing.id}/pack.pdf`)
-      .set("Cookie", assigned.cookie)
-      .buffer(true)
-      .parse((r, done) => {
-        const chunks: Buffer[] = [];
-        r.on("data", (c: Buffer) => chunks.push(c));
-        r.on("end", () => done(null, Buffer.concat(chunks)));
-      });
+    const pack = await asBytes(request(app).get(`/api/filings/${filing.id}/pack.pdf`).set("Cookie", assigned.cookie));
     expect(sha256(pack.body as Buffer)).toBe(filing.sha256);
     expect(pack.headers["x-pack-sha256"]).toBe(filing.sha256);
 
@@ -283,7 +235,7 @@ describe("the supervisor's side", () => {
   });
 
   it("when both the kept pack and its sha256 are replaced, then verify still catches it against the signed record", async () => {
-    const { book, snapshotId } = await approvedBook(`s2-${Date.now()}@bank-supervisor.test`);
+    const { book, snapshotId } = await approvedBookFiledTo([`s2-${Date.now()}@bank-supervisor.test`]);
     const filing = (
       await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
     ).body;
@@ -300,7 +252,7 @@ describe("the supervisor's side", () => {
 
   it("when an approved snapshot no longer verifies, then it cannot be filed and nothing is sent", async () => {
     const supervisor = `s3-${Date.now()}@bank-supervisor.test`;
-    const { book, snapshotId } = await approvedBook(supervisor);
+    const { book, snapshotId } = await approvedBookFiledTo([supervisor]);
     await sequelize.query("UPDATE snapshots SET multiplier = 3.00 WHERE id = :id", {
       replacements: { id: snapshotId },
     });
@@ -312,7 +264,7 @@ describe("the supervisor's side", () => {
   });
 
   it("when a regulator asks for another entity's filing, then 404 and the attempt is audited", async () => {
-    const { book, snapshotId } = await approvedBook(`s4-${Date.now()}@bank-supervisor.test`);
+    const { book, snapshotId } = await approvedBookFiledTo([`s4-${Date.now()}@bank-supervisor.test`]);
     const filing = (
       await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
     ).body;
@@ -333,7 +285,7 @@ describe("the supervisor's side", () => {
   });
 
   it("when the kept pack is altered behind the application's back, then verify says it is not the file that was sent", async () => {
-    const { book, snapshotId } = await approvedBook(`s-${Date.now()}@bank-supervisor.test`);
+    const { book, snapshotId } = await approvedBookFiledTo([`s-${Date.now()}@bank-supervisor.test`]);
     const filing = (
       await request(app).post(`/api/snapshots/${snapshotId}/filings`).set("Cookie", book.croCookie).send({}).expect(201)
     ).body;

@@ -10,7 +10,7 @@ import { overviewResponseSchema } from "../../shared/schemas/backtest";
 import { capitalOnDateSchema, determinationListSchema } from "../../shared/schemas/determination";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { ingestFixture } from "./ingest-helpers";
-import { HEADER, snapshotApp as app, uploadAndCommit, weekdaysEndingOn } from "./snapshot-helpers";
+import { approve, HEADER, snapshotApp as app, submit, uploadAndCommit, weekdaysEndingOn } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -62,15 +62,9 @@ async function approveQuarter(b: Book, quarterEnd: string) {
     .set("Cookie", b.cookie)
     .send({ entity: b.entity.code, quarterEnd });
   expect(draft.status, JSON.stringify(draft.body)).toBe(201);
-  const submitted = await request(app)
-    .post(`/api/snapshots/${draft.body.id}/submit`)
-    .set("Cookie", b.cookie)
-    .send({ version: draft.body.version });
+  const submitted = await submit(draft.body.id, b.cookie, { version: draft.body.version });
   expect(submitted.status).toBe(200);
-  const approved = await request(app)
-    .post(`/api/snapshots/${draft.body.id}/approve`)
-    .set("Cookie", b.croCookie)
-    .send({ version: submitted.body.version });
+  const approved = await approve(draft.body.id, b.croCookie, { version: submitted.body.version });
   expect(approved.status, JSON.stringify(approved.body)).toBe(200);
   return approved.body as { id: number };
 }

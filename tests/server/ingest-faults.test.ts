@@ -1,25 +1,18 @@
 import request from "supertest";
-import mariadb from "mariadb";
 import { afterAll, describe, expect, it } from "vitest";
-import { config } from "../../server/config";
 import { sequelize } from "../../server/db/sequelize";
 import { ObservationModel } from "../../server/models/observation";
 import { UploadModel } from "../../server/models/upload";
 import { testApp } from "./helpers";
 import { csvFor, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
+import { outsideSession } from "./support/outside-session";
 
 const app = testApp();
 afterAll(() => sequelize.close());
 
 /** Kills, from outside, the database connection that is running the commit's INSERT into observations. */
 async function killCommitConnection(deadlineMs: number): Promise<boolean> {
-  const admin = await mariadb.createConnection({
-    host: config.db.host,
-    port: config.db.port,
-    user: config.db.user,
-    password: config.db.password,
-    database: config.db.name,
-  });
+  const admin = await outsideSession();
   try {
     const until = Date.now() + deadlineMs;
     while (Date.now() < until) {

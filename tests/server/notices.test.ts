@@ -15,6 +15,7 @@ import { CAUTION } from "../../shared/schemas/common";
 import { createTestEntity, createTestUser, sessionCookieFor, testApp, unique } from "./helpers";
 import { csvFor, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
 import { messagesTo } from "./mail-helpers";
+import { fileText, flat } from "./pdf-helpers";
 
 const app = testApp();
 afterAll(() => sequelize.close());
@@ -256,7 +257,7 @@ describe("overshooting notices (CRR Art. 366(5))", () => {
     mkdirSync(dir, { recursive: true });
     const file = path.join(dir, "notice.pdf");
     writeFileSync(file, mail.attachments[0].content);
-    const text = execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8").replace(/\s+/g, " ");
+    const text = flat(fileText(file));
     expect(text).toContain(`Overshooting of ${fx.portfolio.code} on ${DATES[29]}`);
     expect(text).toContain("Actual P&L -1,250.50 EUR");
     expect(text).toContain("Value at risk (99%, one day) 1,000.00 EUR");

@@ -15,7 +15,8 @@ import { NotFoundError } from "../../server/errors";
 import { filingSchema } from "../../shared/schemas/filing";
 import { outboxListSchema, outboxMessageDetailSchema, type OutboxMessage } from "../../shared/schemas/outbox";
 import { createTestUser, sessionCookieFor, unique } from "./helpers";
-import { preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { approvedQuarter, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { asBytes } from "./pdf-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -29,14 +30,6 @@ let adminCookie: string;
 beforeAll(async () => {
   adminCookie = await sessionCookieFor((await createTestUser("admin")).id);
 });
-
-function asBytes(call: request.Test) {
-  return call.buffer(true).parse((r, done) => {
-    const chunks: Buffer[] = [];
-    r.on("data", (c: Buffer) => chunks.push(c));
-    r.on("end", () => done(null, Buffer.concat(chunks)));
-  });
-}
 
 async function outboxList() {
   const res = await request(app).get("/api/admin/outbox").set("Cookie", adminCookie);
@@ -153,12 +146,7 @@ describe("the development mail outbox", () => {
     const book = await signOffBook();
     const supervisor = `outbox-filing-${unique()}@bank-supervisor.test`;
     await book.entity.update({ supervisorEmails: [supervisor], supervisorName: "Ms Rowan Vale" });
-    const submitted = await preparedAndSubmitted(book);
-    await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    const submitted = await approvedQuarter(book);
     const filed = await request(app)
       .post(`/api/snapshots/${submitted.id}/filings`)
       .set("Cookie", book.croCookie)

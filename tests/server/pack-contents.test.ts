@@ -1,57 +1,16 @@
-import { execFileSync } from "node:child_process";
-import { mkdirSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { FilingModel } from "../../server/models/filing";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { CAUTION } from "../../shared/schemas/common";
-import { prepare, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { approve, type Book, prepare, signOffBook, snapshotApp as app, submit } from "./snapshot-helpers";
+import { download, flat, keepPages, pagesText } from "./pdf-helpers";
 
-afterAll(() => sequelize.close());
-
-/** Where the pages of every pack this file reads are kept as PNGs, to be looked at. */
-const PAGES_DIR = path.resolve(import.meta.dirname, "..", "..", "test-results", "pack-pages");
-
-function pdfFile(bytes: Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
-  writeFileSync(file, bytes);
-  return file;
-}
-const pageCount = (file: string) => Number(/Pages:\s+(\d+)/.exec(execFileSync("pdfinfo", [file]).toString())![1]);
-/** The text of each page, read back with poppler's pdftotext. */
-function pagesText(bytes: Buffer): string[] {
-  const file = pdfFile(bytes);
-  return Array.from({ length: pageCount(file) }, (_, i) =>
-    execFileSync("pdftotext", ["-layout", "-f", String(i + 1), "-l", String(i + 1), file, "-"]).toString("utf8"),
-  );
-}
-/** Every page as a PNG under test-results/pack-pages/<name>-N.png; returns how many were written. */
-function keepPages(bytes: Buffer, name: string): number {
-  mkdirSync(PAGES_DIR, { recursive: true });
-  for (const f of readdirSync(PAGES_DIR)) if (f.startsWith(`${name}-`)) rmSync(path.join(PAGES_DIR, f));
-  execFileSync("pdftoppm", ["-png", "-r", "80", pdfFile(bytes), path.join(PAGES_DIR, name)]);
-  return readdirSync(PAGES_DIR).filter((f) => f.startsWith(`${name}-`) && f.endsWith(".png")).length;
-}
-const flat = (s: string) => s.replace(/\s+/g, " ");
 /** A page's text without its page number (in -layout it sits beside the footer's lines). */
 const footerless = (s: string) => flat(s.replace(/Page \d+ of \d+/, ""));
 
-async function download(url: string, cookie: string): Promise<Buffer> {
-  const res = await request(app)
-    .get(url)
-    .set("Cookie", cookie)
-    .buffer(true)
-    .parse((r, done) => {
-      const chunks: Buffer[] = [];
-      r.on("data", (c: Buffer) => chunks.push(c));
-      r.on("end", () => done(null, Buffer.concat(chunks)));
-    });
-  expect(res.status).toBe(200);
-  return res.body as Buffer;
-}
+afterAll(() => sequelize.close());
 
 let book: Book;
 let snapshotId: number;
@@ -93,7 +52,7 @@ beforeAll(async () => {
 
 describe("the quarterly pack, read back page by page", () => {
   it("when the snapshot is a draft, then every page says DRAFT and carries the caution, and every exception is there with its amounts and explanation", async () => {
-    const pdf = await download(`/api/snapshots/${snapshotId}/pack.pdf`, book.cookie);
+    const pdf = await download(app, `/api/snapshots/${snapshotId}/pack.pdf`, book.cookie);
     const pages = pagesText(pdf);
     expect(keepPages(pdf, "draft")).toBe(pages.length);
     expect(pages.length).toBeGreaterThanOrEqual(3);
@@ -115,7 +74,7 @@ describe("the quarterly pack, read back page by page", () => {
   });
 
   it("when read, then the determination's formula is filled in with its numbers and the tests are in words", async () => {
-    const text = flat(pagesText(await download(`/api/snapshots/${snapshotId}/pack.pdf`, book.cookie)).join("\n"));
+    const text = flat(pagesText(await download(app, `/api/snapshots/${snapshotId}/pack.pdf`, book.cookie)).join("\n"));
     // EU CRR Art. 366 Table 1 (docs/rules.md#rule-sets, from memory): 5 overshootings → addend 0.40; base 3 (Art. 364).
     expect(text).toContain("Multiplier m_c = base 3.00 + plus factor 0.40 + qualitative addend 0.00 = 3.40");
     expect(text).toMatch(/Multiplier in force 3\.40 from 2026-10-01 until the next determination/);
@@ -138,17 +97,11 @@ describe("the quarterly pack, read back page by page", () => {
 
   it("when approved, then DRAFT is gone, the caution stays, the signatories are named with titles, and the hash is printed whole in groups", async () => {
     const row = (await SnapshotModel.findByPk(snapshotId))!;
-    const submitted = await request(app)
-      .post(`/api/snapshots/${snapshotId}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: row.version });
+    const submitted = await submit(snapshotId, book.cookie, { version: row.version });
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
-    const approved = await request(app)
-      .post(`/api/snapshots/${snapshotId}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version });
+    const approved = await approve(snapshotId, book.croCookie, { version: submitted.body.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
-    const pdf = await download(`/api/snapshots/${snapshotId}/pack.pdf`, book.cookie);
+    const pdf = await download(app, `/api/snapshots/${snapshotId}/pack.pdf`, book.cookie);
     const pages = pagesText(pdf);
     keepPages(pdf, "approved");
     for (const p of pages) {

@@ -5,7 +5,7 @@ import { DataFindingModel } from "../../server/models/data-finding";
 import { RoleRequestModel } from "../../server/models/role-request";
 import { queueSchema, type QueueItem } from "../../shared/schemas/queue";
 import { createTestUser, sessionCookieFor } from "./helpers";
-import { prepare, preparedAndSubmitted, Q2, Q3, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { approve, prepare, preparedAndSubmitted, Q2, Q3, signOffBook, snapshotApp as app } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -101,10 +101,7 @@ describe("waiting for me", () => {
     const book = await signOffBook();
     const code = book.entity.code;
     const submitted = await preparedAndSubmitted(book, Q3);
-    const approved = await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.version });
+    const approved = await approve(submitted.id, book.croCookie, { version: submitted.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
     expect(await queueOf(book.croCookie, code)).toEqual([
       {

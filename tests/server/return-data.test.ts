@@ -4,7 +4,7 @@ import { sequelize } from "../../server/db/sequelize";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { snapshotReturnSchema, type SnapshotReturn } from "../../shared/schemas/snapshot";
-import { prepare, signOffBook, snapshotApp as app, Q3, type Book } from "./snapshot-helpers";
+import { approve, type Book, prepare, Q3, signOffBook, snapshotApp as app, submit, verify } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
 
@@ -135,15 +135,9 @@ describe("the return data of an EU snapshot (C 24.00 MKR IM, EU MR3)", () => {
     // Preparing again keeps the values; submitting and approving seals them; after that they are refused.
     const again = await prepare(book);
     expect(again.body.figures.analystInputs).toEqual(values);
-    const submitted = await request(app)
-      .post(`/api/snapshots/${draft.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: again.body.version });
+    const submitted = await submit(draft.id, book.cookie, { version: again.body.version });
     expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
-    const approved = await request(app)
-      .post(`/api/snapshots/${draft.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ version: submitted.body.version });
+    const approved = await approve(draft.id, book.croCookie, { version: submitted.body.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
     const late = await request(app)
       .put(`/api/snapshots/${draft.id}/return-inputs`)
@@ -152,8 +146,8 @@ describe("the return data of an EU snapshot (C 24.00 MKR IM, EU MR3)", () => {
     expect(late.status).toBe(409);
     expect(late.body.error.message).toMatch(/frozen/);
     expect(JSON.parse((await SnapshotModel.findByPk(draft.id))!.figuresJson).analystInputs).toEqual(values);
-    const verify = await request(app).get(`/api/snapshots/${draft.id}/verify`).set("Cookie", book.cookie);
-    expect(verify.body.valid).toBe(true);
+    const verified = await verify(draft.id, book.cookie);
+    expect(verified.body.valid).toBe(true);
     expect(await returnOf(draft.id, book.croCookie)).toEqual(ret);
   });
 

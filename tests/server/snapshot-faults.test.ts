@@ -1,12 +1,11 @@
 import request from "supertest";
-import mariadb from "mariadb";
 import { afterAll, describe, expect, it } from "vitest";
-import { config } from "../../server/config";
 import { sequelize } from "../../server/db/sequelize";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { uploadCsv } from "./ingest-helpers";
-import { HEADER, preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { approve, HEADER, preparedAndSubmitted, signOffBook, snapshotApp as app, verify } from "./snapshot-helpers";
+import { outsideSession } from "./support/outside-session";
 
 afterAll(() => sequelize.close());
 
@@ -16,21 +15,11 @@ describe("the database goes away in the middle of an approval", () => {
     const submitted = await preparedAndSubmitted(book);
 
     // Another session holds the entity row, so the approval stops at its entity lock; then its connection is killed.
-    const admin = await mariadb.createConnection({
-      host: config.db.host,
-      port: config.db.port,
-      user: config.db.user,
-      password: config.db.password,
-      database: config.db.name,
-    });
+    const admin = await outsideSession();
     const [{ id: adminThread }] = (await admin.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
     await admin.beginTransaction();
     await admin.query("SELECT id FROM entities WHERE id = ? FOR UPDATE", [book.entity.id]);
-    const approving = request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .then((r) => r);
+    const approving = approve(submitted.id, book.croCookie).then((r) => r);
     let killed = false;
     for (const until = Date.now() + 20_000; Date.now() < until && !killed;) {
       const rows: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
@@ -64,14 +53,9 @@ describe("the database goes away in the middle of an approval", () => {
       await AuditEventModel.count({ where: { action: "snapshot.approve", target: `snapshot #${submitted.id}` } }),
     ).toBe(0);
 
-    const again = await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({});
+    const again = await approve(submitted.id, book.croCookie);
     expect(again.status).toBe(200);
-    expect(
-      (await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie)).body.valid,
-    ).toBe(true);
+    expect((await verify(submitted.id, book.croCookie)).body.valid).toBe(true);
   });
 });
 
@@ -81,25 +65,15 @@ describe("an approval and an upload commit take turns on the entity's portfolios
     const submitted = await preparedAndSubmitted(book);
 
     // Another session locks the portfolio row exactly as an upload commit does.
-    const commitLike = await mariadb.createConnection({
-      host: config.db.host,
-      port: config.db.port,
-      user: config.db.user,
-      password: config.db.password,
-      database: config.db.name,
-    });
+    const commitLike = await outsideSession();
     const [{ id: ownThread }] = (await commitLike.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
     await commitLike.beginTransaction();
     await commitLike.query("SELECT id FROM portfolios WHERE id IN (?) ORDER BY id FOR UPDATE", [[book.portfolio.id]]);
     let finished = false;
-    const approving = request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .then((r) => {
-        finished = true;
-        return r;
-      });
+    const approving = approve(submitted.id, book.croCookie).then((r) => {
+      finished = true;
+      return r;
+    });
     let waitingAtPortfolios = false;
     for (const until = Date.now() + 10_000; Date.now() < until && !waitingAtPortfolios && !finished;) {
       const rows: { Id: number; Info: string | null; State: string | null }[] =
@@ -135,17 +109,17 @@ describe("an approval races an upload that restates a day in the quarter", () =>
       [HEADER, book.row(book.dates[day], day, 150)].join("\n"),
       "race.csv",
     );
-    const [commit, approve] = await Promise.all([
+    const [commit, approval] = await Promise.all([
       // Confirmed in advance: if the approval lands first, the day lies in a signed-off quarter (a 409 otherwise).
       request(app)
         .post(`/api/uploads/${preview.body.id}/commit`)
         .set("Cookie", book.cookie)
         .send({ confirmSignedOff: true }),
-      request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}),
+      approve(submitted.id, book.croCookie),
     ]);
     expect(commit.status).toBe(200); // the data always gets in
     const row = (await SnapshotModel.findByPk(submitted.id))!;
-    if (approve.status === 200) {
+    if (approval.status === 200) {
       // The approval went first: it sealed what was reviewed, and the restatement flagged it afterwards.
       expect(row).toMatchObject({
         status: "approved",
@@ -155,8 +129,8 @@ describe("an approval races an upload that restates a day in the quarter", () =>
       expect(row.restatedAt).not.toBeNull();
     } else {
       // The upload went first: the approval saw the inputs move and refused.
-      expect(approve.status).toBe(409);
-      expect(approve.body.error.code).toBe("inputs_changed");
+      expect(approval.status).toBe(409);
+      expect(approval.body.error.code).toBe("inputs_changed");
       expect(row).toMatchObject({ status: "submitted", hash: null });
     }
     expect(JSON.parse(row.figuresJson).exceptions.counted).toBe(submitted.counted);

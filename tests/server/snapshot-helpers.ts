@@ -68,13 +68,44 @@ export async function prepare(book: Book, quarterEnd = Q3, cookie = book.cookie)
   return request(app).post("/api/snapshots").set("Cookie", cookie).send({ entity: book.entity.code, quarterEnd });
 }
 
+/** Whoever holds `cookie` submits a draft for approval; the caller checks the answer. */
+export function submit(id: number, cookie: string, body: { comment?: string; version?: number } = {}) {
+  return request(app).post(`/api/snapshots/${id}/submit`).set("Cookie", cookie).send(body);
+}
+
 export async function preparedAndSubmitted(book: Book, quarterEnd = Q3) {
   const draft = await prepare(book, quarterEnd);
   expect(draft.status).toBe(201);
-  const submitted = await request(app)
-    .post(`/api/snapshots/${draft.body.id}/submit`)
-    .set("Cookie", book.cookie)
-    .send({ comment: "Figures checked", version: draft.body.version });
+  const submitted = await submit(draft.body.id, book.cookie, {
+    comment: "Figures checked",
+    version: draft.body.version,
+  });
   expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
   return submitted.body;
+}
+
+/** Whoever holds `cookie` approves a submitted snapshot; the caller checks the answer. */
+export function approve(id: number, cookie: string, body: { comment?: string; version?: number } = {}) {
+  return request(app).post(`/api/snapshots/${id}/approve`).set("Cookie", cookie).send(body);
+}
+
+/** A quarter prepared and submitted by the analyst and approved by the CRO; the submitted snapshot. */
+export async function approvedQuarter(book: Book, quarterEnd = Q3) {
+  const submitted = await preparedAndSubmitted(book, quarterEnd);
+  const approved = await approve(submitted.id, book.croCookie);
+  expect(approved.status, JSON.stringify(approved.body)).toBe(200);
+  return submitted;
+}
+
+/** A sign-off book whose entity files with `supervisorEmails`, its Q3 2026 approved and not yet filed. */
+export async function approvedBookFiledTo(supervisorEmails: string[]) {
+  const book = await signOffBook();
+  await book.entity.update({ supervisorEmails, supervisorName: "Ms Rowan Vale" });
+  const submitted = await approvedQuarter(book);
+  return { book, snapshotId: submitted.id as number };
+}
+
+/** Whether a snapshot's seal and chain still verify, as `cookie` reads it. */
+export function verify(id: number, cookie: string) {
+  return request(app).get(`/api/snapshots/${id}/verify`).set("Cookie", cookie);
 }

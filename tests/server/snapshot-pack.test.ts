@@ -1,17 +1,9 @@
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { renderSnapshotPack } from "../../server/pdf/snapshot-pack";
 import { snapshotSchema, type Snapshot } from "../../shared/schemas/snapshot";
 import { returnData, returnInputsFor } from "../../shared/backtest/return-data";
-
-function written(bytes: Buffer): string {
-  const file = path.join(mkdtempSync(path.join(tmpdir(), "qm-pack-")), "pack.pdf");
-  writeFileSync(file, bytes);
-  return file;
-}
+import { fileText, flat, pdfFile, pdfText } from "./pdf-helpers";
 
 // An invented snapshot, as the API would give it, with letters beyond ASCII in its names.
 const snapshot: Snapshot = snapshotSchema.parse({
@@ -75,9 +67,9 @@ const snapshot: Snapshot = snapshotSchema.parse({
 
 describe("a snapshot's pack as a PDF", () => {
   it("when rendered, then IBM Plex is embedded and letters beyond ASCII read back as written (pdfkit reads .woff, not .woff2, with these letters)", async () => {
-    const file = written(await renderSnapshotPack(snapshot));
+    const file = pdfFile(await renderSnapshotPack(snapshot));
     expect(execFileSync("pdffonts", [file]).toString()).toMatch(/IBMPlexSans\s.*yes yes yes/);
-    const text = execFileSync("pdftotext", ["-layout", file, "-"]).toString("utf8").replace(/\s+/g, " ");
+    const text = flat(fileText(file));
     expect(text).toContain("Lärkspur Bänk Zürich AG — Genève (LKS-CH)");
     expect(text).toContain("Freigegeben — für das Quartal");
     expect(text).toContain("The probability of 3 or fewer under the binomial distribution is 75.90%");
@@ -130,9 +122,7 @@ describe("an FRTB snapshot's pack and return data", () => {
   });
 
   it("when rendered, then each desk's backtesting and P&L attribution show with what follows, and the MAR33.45 aggregation with its numbers", async () => {
-    const text = execFileSync("pdftotext", ["-layout", written(await renderSnapshotPack(frtb)), "-"])
-      .toString("utf8")
-      .replace(/\s+/g, " ");
+    const text = flat(pdfText(await renderSnapshotPack(frtb)));
     // MAR32.19 / CRR Art. 325bf(3) (docs/rules.md#frtb-desks): 14 at 99% fails; the desk leaves the model.
     expect(text).toMatch(/LKS-CH-RATES 3 8 Passes Green Internal model/);
     expect(text).toMatch(/LKS-CH-CREDIT 14 33 Fails Amber Capital on the standardised approach/);

@@ -18,6 +18,7 @@ import type { Observation } from "../../shared/backtest/types";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { ingestFixture } from "./ingest-helpers";
 import {
+  approve,
   HEADER,
   prepare,
   preparedAndSubmitted,
@@ -25,8 +26,11 @@ import {
   Q3,
   signOffBook,
   snapshotApp as app,
+  submit,
   uploadAndCommit,
+  verify,
   weekdaysEndingOn,
+  approvedQuarter,
 } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
@@ -106,10 +110,7 @@ describe("the four-eyes sign-off", () => {
     const submitted = await preparedAndSubmitted(book);
     expect(submitted).toMatchObject({ status: "submitted", submittedBy: submitted.preparedBy });
 
-    const approved = await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({ comment: "Agreed", version: submitted.version });
+    const approved = await approve(submitted.id, book.croCookie, { comment: "Agreed", version: submitted.version });
     expect(approved.status, JSON.stringify(approved.body)).toBe(200);
     expect(approved.body).toMatchObject({
       status: "approved",
@@ -129,15 +130,12 @@ describe("the four-eyes sign-off", () => {
     });
 
     const second = await preparedAndSubmitted(book, Q2);
-    const approvedQ2 = await request(app)
-      .post(`/api/snapshots/${second.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({});
+    const approvedQ2 = await approve(second.id, book.croCookie);
     expect(approvedQ2.body.prevHash).toBe(approved.body.hash);
 
     for (const id of [submitted.id, second.id]) {
-      const verify = await request(app).get(`/api/snapshots/${id}/verify`).set("Cookie", book.treasuryCookie);
-      expect(snapshotVerifySchema.parse(verify.body)).toMatchObject({ valid: true });
+      const verified = await verify(id, book.treasuryCookie);
+      expect(snapshotVerifySchema.parse(verified.body)).toMatchObject({ valid: true });
     }
   });
 
@@ -146,47 +144,32 @@ describe("the four-eyes sign-off", () => {
     const q3 = await preparedAndSubmitted(book, Q3);
     const q2 = await preparedAndSubmitted(book, Q2);
     const otherCro = await sessionCookieFor((await createTestUser("cro")).id);
-    const [a, b] = await Promise.all([
-      request(app).post(`/api/snapshots/${q3.id}/approve`).set("Cookie", book.croCookie).send({}),
-      request(app).post(`/api/snapshots/${q2.id}/approve`).set("Cookie", otherCro).send({}),
-    ]);
+    const [a, b] = await Promise.all([approve(q3.id, book.croCookie), approve(q2.id, otherCro)]);
     expect([a.status, b.status]).toEqual([200, 200]);
     const [first, second] = [a.body, b.body].sort((x, y) => (x.approvedAt < y.approvedAt ? -1 : 1));
     expect(first.prevHash).toBeNull();
     expect(second.prevHash).toBe(first.hash);
     for (const id of [q3.id, q2.id]) {
-      expect((await request(app).get(`/api/snapshots/${id}/verify`).set("Cookie", book.cookie)).body.valid).toBe(true);
+      expect((await verify(id, book.cookie)).body.valid).toBe(true);
     }
   });
 
   it("when the capital figure column is altered behind the application's back, then verify says it is not valid", async () => {
     const book = await signOffBook();
-    const submitted = await preparedAndSubmitted(book);
-    await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    const submitted = await approvedQuarter(book);
     await sequelize.query("UPDATE snapshots SET capital = capital - 1 WHERE id = :id", {
       replacements: { id: submitted.id },
     });
-    const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
-    expect(verify.body).toMatchObject({ valid: false });
+    const verified = await verify(submitted.id, book.croCookie);
+    expect(verified.body).toMatchObject({ valid: false });
   });
 
   it("when the person who prepared it (now a CRO) tries to approve it, then 403 says four eyes and the snapshot stays submitted", async () => {
     const book = await signOffBook();
     const draft = await prepare(book, Q3, book.analyst2Cookie);
-    await request(app)
-      .post(`/api/snapshots/${draft.body.id}/submit`)
-      .set("Cookie", book.analyst2Cookie)
-      .send({})
-      .expect(200);
+    await submit(draft.body.id, book.analyst2Cookie).expect(200);
     await UserModel.update({ role: "cro" }, { where: { id: book.analyst2.id } });
-    const res = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/approve`)
-      .set("Cookie", await sessionCookieFor(book.analyst2.id))
-      .send({});
+    const res = await approve(draft.body.id, await sessionCookieFor(book.analyst2.id));
     expect(res.status).toBe(403);
     expect(res.body.error).toMatchObject({
       code: "four_eyes",
@@ -209,10 +192,7 @@ describe("the four-eyes sign-off", () => {
     });
     const draft = await prepare(book);
     expect(draft.body.openFindings).toBe(1);
-    const refused = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({});
+    const refused = await submit(draft.body.id, book.cookie);
     expect(refused.status).toBe(409);
     expect(refused.body.error).toMatchObject({
       code: "open_findings",
@@ -221,10 +201,7 @@ describe("the four-eyes sign-off", () => {
     expect((await SnapshotModel.findByPk(draft.body.id))!.status).toBe("draft");
 
     await finding.update({ status: "explained", note: "Confirmed with the desk" });
-    const submitted = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({});
+    const submitted = await submit(draft.body.id, book.cookie);
     expect(submitted.body).toMatchObject({ status: "submitted", openFindings: 0 });
   });
 
@@ -233,10 +210,7 @@ describe("the four-eyes sign-off", () => {
     const submitted = await preparedAndSubmitted(book);
     const day = book.dates.indexOf("2026-09-15");
     await uploadAndCommit(book.cookie, [HEADER, book.row(book.dates[day], day, 150)].join("\n")); // a sixth exception
-    const refused = await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({});
+    const refused = await approve(submitted.id, book.croCookie);
     expect(refused.status).toBe(409);
     expect(refused.body.error.code).toBe("inputs_changed");
 
@@ -272,16 +246,10 @@ describe("the four-eyes sign-off", () => {
   it("when someone acts on a version they no longer see, or on the wrong status, then 409 says so", async () => {
     const book = await signOffBook();
     const draft = await prepare(book);
-    const stale = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({ version: draft.body.version + 5 });
+    const stale = await submit(draft.body.id, book.cookie, { version: draft.body.version + 5 });
     expect(stale.status).toBe(409);
     expect(stale.body.error).toMatchObject({ code: "stale" });
-    const early = await request(app)
-      .post(`/api/snapshots/${draft.body.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({});
+    const early = await approve(draft.body.id, book.croCookie);
     expect(early.status).toBe(409);
     expect(early.body.error.message).toMatch(/only a submitted snapshot can be approved/);
   });
@@ -291,9 +259,7 @@ describe("after sign-off", () => {
   it("when a day inside an approved snapshot's window is restated, then the upload is accepted, the snapshot is flagged and its figures and hash stay as approved", async () => {
     const book = await signOffBook();
     const submitted = await preparedAndSubmitted(book);
-    const approved = (
-      await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({})
-    ).body;
+    const approved = (await approve(submitted.id, book.croCookie)).body;
     const day = book.dates.indexOf("2026-09-15");
     const commit = await uploadAndCommit(book.cookie, [HEADER, book.row(book.dates[day], day, 150)].join("\n"));
     expect(commit).toMatchObject({ inserted: 1, restated: 1 });
@@ -307,8 +273,8 @@ describe("after sign-off", () => {
     expect(
       await AuditEventModel.count({ where: { action: "snapshot.restated", target: `snapshot #${submitted.id}` } }),
     ).toBe(1);
-    const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
-    expect(verify.body.valid).toBe(true);
+    const verified = await verify(submitted.id, book.croCookie);
+    expect(verified.body.valid).toBe(true);
   });
 
   it("when a day that had no data inside an approved window is filled in later, then the snapshot is flagged as well", async () => {
@@ -339,9 +305,9 @@ describe("after sign-off", () => {
       .post("/api/snapshots")
       .set("Cookie", fx.cookie)
       .send({ entity: fx.entity.code, quarterEnd: Q3 });
-    await request(app).post(`/api/snapshots/${draft.body.id}/submit`).set("Cookie", fx.cookie).send({}).expect(200);
+    await submit(draft.body.id, fx.cookie).expect(200);
     const cro = await sessionCookieFor((await createTestUser("cro")).id);
-    await request(app).post(`/api/snapshots/${draft.body.id}/approve`).set("Cookie", cro).send({}).expect(200);
+    await approve(draft.body.id, cro).expect(200);
 
     await uploadAndCommit(fx.cookie, [HEADER, line(gap)].join("\n"));
     const after = await request(app).get(`/api/snapshots/${draft.body.id}`).set("Cookie", fx.cookie);
@@ -353,12 +319,7 @@ describe("after sign-off", () => {
 
   it("when the supervisor's decision to disregard an exception inside an approved window is recorded later, then the snapshot is flagged and keeps its count", async () => {
     const book = await signOffBook();
-    const submitted = await preparedAndSubmitted(book);
-    await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    const submitted = await approvedQuarter(book);
     const day = book.exceptionDays[3];
     const review = await request(app)
       .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
@@ -379,12 +340,7 @@ describe("after sign-off", () => {
 
   it("when a signed quarter is recomputed from today's unchanged data, then the engine gives exactly the stored figures and inputs hash", async () => {
     const book = await signOffBook();
-    const submitted = await preparedAndSubmitted(book);
-    await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    const submitted = await approvedQuarter(book);
     const row = (await SnapshotModel.findByPk(submitted.id))!;
     const again = await quarterFigures(book.entity, Q3);
     expect(again.figures).toEqual(JSON.parse(row.figuresJson));
@@ -393,18 +349,13 @@ describe("after sign-off", () => {
 
   it("when a signed-off snapshot's stored figures are altered behind the application's back, then verify says it is not valid", async () => {
     const book = await signOffBook();
-    const submitted = await preparedAndSubmitted(book);
-    await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    const submitted = await approvedQuarter(book);
     await sequelize.query(
       "UPDATE snapshots SET figures_json = REPLACE(figures_json, '\"counted\":5', '\"counted\":3') WHERE id = :id",
       { replacements: { id: submitted.id } },
     );
-    const verify = await request(app).get(`/api/snapshots/${submitted.id}/verify`).set("Cookie", book.croCookie);
-    expect(verify.body).toMatchObject({
+    const verified = await verify(submitted.id, book.croCookie);
+    expect(verified.body).toMatchObject({
       valid: false,
       detail: expect.stringMatching(/figures \(sha256\) is now .* signed as .*changed behind the application's back/),
     });
@@ -412,12 +363,7 @@ describe("after sign-off", () => {
 
   it("when treasury lists snapshots, then only signed-off ones are there, and a draft is not found", async () => {
     const book = await signOffBook();
-    const submitted = await preparedAndSubmitted(book);
-    await request(app)
-      .post(`/api/snapshots/${submitted.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    const submitted = await approvedQuarter(book);
     const draft = await prepare(book, Q2);
     const list = await request(app).get(`/api/snapshots?entity=${book.entity.code}`).set("Cookie", book.treasuryCookie);
     expect(list.body.map((s: { id: number; status: string }) => [s.id, s.status])).toEqual([

@@ -4,7 +4,7 @@ import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { createTestUser, sessionCookieFor } from "./helpers";
-import { preparedAndSubmitted, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { approve, type Book, preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
 
 /**
  * Every table a user reads downloads as CSV and XLSX. Each test reads the file back (papaparse,
@@ -82,7 +82,7 @@ beforeAll(async () => {
   expect(review.status, JSON.stringify(review.body)).toBe(200);
   const submitted = await preparedAndSubmitted(book);
   snapshotId = submitted.id;
-  await request(app).post(`/api/snapshots/${submitted.id}/approve`).set("Cookie", book.croCookie).send({}).expect(200);
+  await approve(submitted.id, book.croCookie).expect(200);
   await book.entity.update({ supervisorEmails: ["market-risk@bank-supervisor.test"] });
   const filed = await request(app)
     .post(`/api/snapshots/${submitted.id}/filings`)

@@ -11,6 +11,8 @@ import { sequelize } from "../../server/db/sequelize";
 import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import {
+  approve,
+  type Book,
   HEADER,
   preparedAndSubmitted,
   Q2,
@@ -18,7 +20,7 @@ import {
   signOffBook,
   snapshotApp as app,
   uploadAndCommit,
-  type Book,
+  verify,
 } from "./snapshot-helpers";
 
 afterAll(() => sequelize.close());
@@ -38,12 +40,10 @@ async function tableExists(name: string): Promise<boolean> {
   return Number(found[0].n) > 0;
 }
 
-async function approve(book: Book, quarterEnd: string) {
+/** A quarter prepared, submitted and approved with a comment: the approved snapshot. */
+async function signedOff(book: Book, quarterEnd: string) {
   const submitted = await preparedAndSubmitted(book, quarterEnd);
-  const res = await request(app)
-    .post(`/api/snapshots/${submitted.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({ comment: "Looks right" });
+  const res = await approve(submitted.id, book.croCookie, { comment: "Looks right" });
   expect(res.status, JSON.stringify(res.body)).toBe(200);
   return res.body as { id: number; hash: string; version: number };
 }
@@ -55,8 +55,7 @@ async function fileIt(book: Book, snapshotId: number) {
   return res.body as { id: number; sha256: string };
 }
 
-const snapshotVerify = async (book: Book, id: number) =>
-  (await request(app).get(`/api/snapshots/${id}/verify`).set("Cookie", book.croCookie)).body;
+const snapshotVerify = async (book: Book, id: number) => (await verify(id, book.croCookie)).body;
 const chainVerify = async (book: Book) =>
   request(app).get(`/api/entities/${book.entity.code}/chain/verify`).set("Cookie", book.croCookie);
 
@@ -123,7 +122,7 @@ async function rehashWithPlainSha256(snapshotId: number, entityCode: string) {
 describe("attacks on signed-off quarters", () => {
   it("attack: a sealed, filed quarter changed from yellow/3.40 to green/3.00 and rehashed with plain SHA-256 → snapshot verify, chain verify and filing verify all see it", async () => {
     const book = await signOffBook();
-    const approved = await approve(book, Q3);
+    const approved = await signedOff(book, Q3);
     const filing = await fileIt(book, approved.id);
     expect((await snapshotVerify(book, approved.id)).valid).toBe(true);
 
@@ -158,7 +157,7 @@ describe("attacks on signed-off quarters", () => {
 
   it("attack: fields the old seal did not cover edited — status put back from filed to approved, the restatement flag cleared, an event removed from the history → each is detected", async () => {
     const book = await signOffBook();
-    const approved = await approve(book, Q3);
+    const approved = await signedOff(book, Q3);
     await fileIt(book, approved.id);
     // A day inside the window restated after sign-off: the snapshot is flagged (its figures stay).
     const day = book.dates.indexOf("2026-09-15");
@@ -214,8 +213,8 @@ describe("attacks on signed-off quarters", () => {
 
   it("attack: the newest signed-off snapshot deleted (with every row that points to it) → chain verify says the chain is shorter than its signed head", async () => {
     const book = await signOffBook();
-    const older = await approve(book, Q2);
-    const newest = await approve(book, Q3);
+    const older = await signedOff(book, Q2);
+    const newest = await signedOff(book, Q3);
     expect((await chainVerify(book)).body).toMatchObject({ valid: true });
 
     // Every row of every table that points to the snapshot goes first, as a careful attacker would.
@@ -237,7 +236,7 @@ describe("attacks on signed-off quarters", () => {
 
   it("attack: the kept pack, its sha256 and the audit log's record of it all replaced → filing verify still catches it against the signed record and the acknowledged sha256", async () => {
     const book = await signOffBook();
-    const approved = await approve(book, Q3);
+    const approved = await signedOff(book, Q3);
     const filing = await fileIt(book, approved.id);
     const regulator = await createTestUser("regulator");
     await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
@@ -286,7 +285,7 @@ describe("attacks on the audit log", () => {
 
   async function approvalEvent() {
     const book = await signOffBook();
-    const approved = await approve(book, Q3);
+    const approved = await signedOff(book, Q3);
     const [event] = await rows(
       "SELECT * FROM audit_events WHERE action = 'snapshot.approve' AND target = :t ORDER BY id DESC LIMIT 1",
       { t: `snapshot #${approved.id}` },

@@ -209,6 +209,36 @@ export async function prepareSnapshot(
   });
 }
 
+/**
+ * A step of the sign-off that only moves the row: its new status with the event in its history
+ * and a new version (plus `also`, who and when), audited from the status it left.
+ */
+async function moveSnapshot(
+  row: SnapshotModel,
+  actor: SignedIn,
+  action: string,
+  step: { to: "submitted" | "returned"; comment: string | undefined; also?: Partial<SnapshotModel> },
+  transaction: Transaction,
+): Promise<void> {
+  const from = row.status;
+  await row.update(
+    {
+      status: step.to,
+      ...step.also,
+      historyJson: withEvent(row, event(actor, step.to, step.comment)),
+      version: row.version + 1,
+    },
+    { transaction },
+  );
+  await recordAudit(
+    actor,
+    action,
+    `snapshot #${row.id}`,
+    { before: { status: from }, after: { status: step.to, comment: step.comment ?? null } },
+    transaction,
+  );
+}
+
 export async function submitSnapshot(id: number, body: SnapshotActionBody, actor: SignedIn): Promise<Snapshot> {
   const snapshot = await sequelize.transaction(async (transaction) => {
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: true });
@@ -216,21 +246,11 @@ export async function submitSnapshot(id: number, body: SnapshotActionBody, actor
       throw new ConflictError(`Snapshot #${id} is ${row.status}; only a draft can be submitted.`);
     await refuseOpenFindings(row, entity, transaction);
     await refuseChangedInputs(row, entity, "submitted");
-    await row.update(
-      {
-        status: "submitted",
-        submittedBy: actor.user.id,
-        submittedAt: new Date(),
-        historyJson: withEvent(row, event(actor, "submitted", body.comment)),
-        version: row.version + 1,
-      },
-      { transaction },
-    );
-    await recordAudit(
+    await moveSnapshot(
+      row,
       actor,
       "snapshot.submit",
-      `snapshot #${id}`,
-      { before: { status: "draft" }, after: { status: "submitted", comment: body.comment ?? null } },
+      { to: "submitted", comment: body.comment, also: { submittedBy: actor.user.id, submittedAt: new Date() } },
       transaction,
     );
     return snapshotDto(row, entity);
@@ -296,21 +316,7 @@ export async function returnSnapshot(id: number, body: ReturnSnapshotBody, actor
     const { row, entity } = await lockSnapshot(id, transaction, body.version, { holdData: false });
     if (row.status !== "submitted")
       throw new ConflictError(`Snapshot #${id} is ${row.status}; only a submitted snapshot can be returned.`);
-    await row.update(
-      {
-        status: "returned",
-        historyJson: withEvent(row, event(actor, "returned", body.comment)),
-        version: row.version + 1,
-      },
-      { transaction },
-    );
-    await recordAudit(
-      actor,
-      "snapshot.return",
-      `snapshot #${id}`,
-      { before: { status: "submitted" }, after: { status: "returned", comment: body.comment } },
-      transaction,
-    );
+    await moveSnapshot(row, actor, "snapshot.return", { to: "returned", comment: body.comment }, transaction);
     return snapshotDto(row, entity);
   });
   void notifySnapshotEvent("snapshot_returned", snapshot, actor.user.name, body.comment);

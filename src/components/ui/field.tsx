@@ -54,11 +54,18 @@ function FieldShell({
   );
 }
 
-/** The ids that tie a control to its hint and error text (aria-describedby). */
+/** The ids that tie a control to its hint and error text, and the control's own props that use them. */
 function useFieldIds(givenId: string | undefined, error: unknown, hint: unknown) {
   const autoId = useId();
   const id = givenId ?? autoId;
-  return { id, errorId: error ? `${id}-error` : undefined, hintId: hint && !error ? `${id}-hint` : undefined };
+  const errorId = error ? `${id}-error` : undefined;
+  const hintId = hint && !error ? `${id}-hint` : undefined;
+  const controlProps = {
+    id,
+    "aria-invalid": error ? true : undefined,
+    "aria-describedby": describedBy(hintId, errorId),
+  };
+  return { id, errorId, hintId, controlProps };
 }
 
 export function TextField({
@@ -69,13 +76,11 @@ export function TextField({
   id: givenId,
   ...input
 }: Common & InputHTMLAttributes<HTMLInputElement>) {
-  const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
+  const { id, errorId, hintId, controlProps } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
       <input
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(hintId, errorId)}
+        {...controlProps}
         className={cn(
           control,
           error ? "border-danger" : "border-rule-control",
@@ -96,13 +101,11 @@ export function SelectField({
   children,
   ...select
 }: Common & SelectHTMLAttributes<HTMLSelectElement>) {
-  const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
+  const { id, errorId, hintId, controlProps } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }}>
       <select
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(hintId, errorId)}
+        {...controlProps}
         className={cn(control, "pr-7", error ? "border-danger" : "border-rule-control")}
         {...select}
       >
@@ -121,13 +124,11 @@ export function TextareaField({
   id: givenId,
   ...textarea
 }: Common & TextareaHTMLAttributes<HTMLTextAreaElement>) {
-  const { id, errorId, hintId } = useFieldIds(givenId, error, hint);
+  const { id, errorId, hintId, controlProps } = useFieldIds(givenId, error, hint);
   return (
     <FieldShell {...{ id, label, error, hint, hintId, errorId, className }} hintClassName="text-xs">
       <textarea
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy(hintId, errorId)}
+        {...controlProps}
         className={cn(textareaControl, error ? "border-danger" : "border-rule-control")}
         {...textarea}
       />

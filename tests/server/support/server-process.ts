@@ -3,8 +3,8 @@
  * own on a free loopback port, on the test database; its output is kept for the test to read.
  */
 import { spawn, type ChildProcess } from "node:child_process";
-import net from "node:net";
 import path from "node:path";
+import { freePort } from "./free-port";
 
 const root = path.resolve(import.meta.dirname, "..", "..", "..");
 
@@ -15,15 +15,6 @@ export interface ServerProcess {
   /** Resolves when the output matches, or rejects after `ms`. */
   waitFor: (pattern: RegExp, ms?: number) => Promise<RegExpMatchArray>;
   stop: () => Promise<void>;
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const srv = net.createServer().listen(0, "127.0.0.1", () => {
-      const { port } = srv.address() as net.AddressInfo;
-      srv.close(() => resolve(port));
-    });
-  });
 }
 
 export async function startServerProcess(workers: number): Promise<ServerProcess> {

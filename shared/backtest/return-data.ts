@@ -169,6 +169,9 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       analystInput: true,
     });
   const engine = (what: string) => `Engine, ${what} at ${f.asOf} (docs/rules.md#capital)`;
+  /** Basel and FRTB: a measure's average over the previous 60 business days. */
+  const average60 = (key: string, measure: string, value: number | null | undefined) =>
+    amountField(key, `${measure}: average of the previous 60 business days`, value ?? null, engine("60-day average"));
   const ms = f.multiplierSvar ?? f.multiplier;
   const count = `Engine, counted exceptions over the ${f.window.observations} business days to ${f.asOf} (docs/rules.md#exception)`;
 
@@ -320,19 +323,9 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       c?.varPrev ?? null,
       engine("10-day VaR of the previous day"),
     );
-    amountField(
-      "varAverage",
-      "VaR: average of the previous 60 business days",
-      c?.varAvg60 ?? null,
-      engine("60-day average"),
-    );
+    average60("varAverage", "VaR", c?.varAvg60);
     amountField("svarLatest", "Stressed VaR: latest", c?.svarPrev ?? null, engine("latest stressed VaR"));
-    amountField(
-      "svarAverage",
-      "Stressed VaR: average of the previous 60 business days",
-      c?.svarAvg60 ?? null,
-      engine("60-day average"),
-    );
+    average60("svarAverage", "Stressed VaR", c?.svarAvg60);
     plain(
       "multiplierVar",
       "Multiplication factor (m_c)",
@@ -368,19 +361,9 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       c?.esPrev ?? null,
       engine("IMCC of the previous day"),
     );
-    amountField(
-      "imccAverage",
-      "IMCC: average of the previous 60 business days",
-      c?.esAvg60 ?? null,
-      engine("60-day average"),
-    );
+    average60("imccAverage", "IMCC", c?.esAvg60);
     amountField("sesPrevious", "SES: previous day", c?.sesPrev ?? null, engine("SES of the previous day"));
-    amountField(
-      "sesAverage",
-      "SES: average of the previous 60 business days",
-      c?.sesAvg60 ?? null,
-      engine("60-day average"),
-    );
+    average60("sesAverage", "SES", c?.sesAvg60);
     plain(
       "multiplier",
       "Multiplier (m_c)",

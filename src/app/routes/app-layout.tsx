@@ -18,7 +18,7 @@ import { QuartermarkMark } from "@/components/ui/mark";
 import { roleLabels } from "@/lib/role-labels";
 import { cn } from "@/lib/cn";
 import { requireUser } from "../require-user";
-import { CAUTION } from "../caution";
+import { CautionFooter } from "../public-page";
 
 export const clientLoader =
   (queryClient: QueryClient) =>
@@ -154,9 +154,7 @@ export default function AppLayout() {
           <Outlet />
         </Suspense>
       </main>
-      <footer className="border-t border-rule">
-        <p className="mx-auto max-w-screen-2xl px-6 py-2 text-2xs text-ink-muted">{CAUTION}</p>
-      </footer>
+      <CautionFooter wide />
     </div>
   );
 }

@@ -6,11 +6,10 @@ import { invitationQueries } from "@/features/auth/api/auth-queries";
 import { SetPasswordForm } from "@/features/auth/components/set-password-form";
 import { QuartermarkMark } from "@/components/ui/mark";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
-import { CAUTION } from "../caution";
+import { PublicPage } from "../public-page";
 
 /** The token of the link: after `#`, where the browser never sends it to a server. */
 function tokenOf(hash: string): string | null {
@@ -20,21 +19,13 @@ function tokenOf(hash: string): string | null {
 
 function Shell({ children }: { children: React.ReactNode }) {
   return (
-    <div className="flex min-h-screen flex-col">
-      <main className="flex flex-1 items-start justify-center px-6 pt-[12vh]">
-        <PageTitle>Set your password</PageTitle>
-        <div className="w-full max-w-sm">
-          <div className="mb-6 flex items-center gap-2.5">
-            <QuartermarkMark className="size-7" />
-            <p className="text-lg leading-tight font-semibold tracking-tight">Quartermark</p>
-          </div>
-          <div className="border-t border-rule-strong pt-5">{children}</div>
-        </div>
-      </main>
-      <footer className="border-t border-rule">
-        <p className="px-6 py-2 text-2xs text-ink-muted">{CAUTION}</p>
-      </footer>
-    </div>
+    <PublicPage title="Set your password">
+      <div className="mb-6 flex items-center gap-2.5">
+        <QuartermarkMark className="size-7" />
+        <p className="text-lg leading-tight font-semibold tracking-tight">Quartermark</p>
+      </div>
+      <div className="border-t border-rule-strong pt-5">{children}</div>
+    </PublicPage>
   );
 }
 

@@ -32,6 +32,18 @@ function catchSaves() {
   return { blobs, saved };
 }
 
+/** The download button for `href` on its own, its saves caught; the user who clicks it. */
+function renderDownloadButton(href: string, fallbackName: string, label = "Download the pack (PDF)") {
+  const saves = catchSaves();
+  const user = userEvent.setup();
+  render(
+    <DownloadButton href={href} fallbackName={fallbackName}>
+      {label}
+    </DownloadButton>,
+  );
+  return { saves, user };
+}
+
 describe("DownloadButton", () => {
   it("when the server sends the PDF, then it is saved through a Blob URL under the name in its Content-Disposition", async () => {
     const api = fakeApi({
@@ -44,13 +56,7 @@ describe("DownloadButton", () => {
         },
       },
     });
-    const saves = catchSaves();
-    const user = userEvent.setup();
-    render(
-      <DownloadButton href="/api/filings/31/pack.pdf" fallbackName="pack.pdf">
-        Download the pack (PDF)
-      </DownloadButton>,
-    );
+    const { saves, user } = renderDownloadButton("/api/filings/31/pack.pdf", "pack.pdf");
 
     await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
 
@@ -72,12 +78,10 @@ describe("DownloadButton", () => {
         headers: { "Content-Type": "application/pdf" },
       },
     });
-    const saves = catchSaves();
-    const user = userEvent.setup();
-    render(
-      <DownloadButton href="/api/snapshots/12/pack.pdf" fallbackName="quartermark-lks-eu-2025-12-31-pack.pdf">
-        Download
-      </DownloadButton>,
+    const { saves, user } = renderDownloadButton(
+      "/api/snapshots/12/pack.pdf",
+      "quartermark-lks-eu-2025-12-31-pack.pdf",
+      "Download",
     );
 
     await user.click(screen.getByRole("button", { name: "Download" }));
@@ -92,13 +96,7 @@ describe("DownloadButton", () => {
     "when the server refuses with %i, then its message shows beside the control and nothing is saved",
     async (status, code, message) => {
       fakeApi({ "GET /api/snapshots/12/pack.pdf": { status, body: { error: { code, message } } } });
-      const saves = catchSaves();
-      const user = userEvent.setup();
-      render(
-        <DownloadButton href="/api/snapshots/12/pack.pdf" fallbackName="pack.pdf">
-          Download the pack (PDF)
-        </DownloadButton>,
-      );
+      const { saves, user } = renderDownloadButton("/api/snapshots/12/pack.pdf", "pack.pdf");
 
       await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
 
@@ -119,13 +117,7 @@ describe("DownloadButton", () => {
       });
     });
     vi.stubGlobal("fetch", fetchStub);
-    const saves = catchSaves();
-    const user = userEvent.setup();
-    render(
-      <DownloadButton href="/api/filings/31/pack.pdf" fallbackName="pack.pdf">
-        Download the pack (PDF)
-      </DownloadButton>,
-    );
+    const { saves, user } = renderDownloadButton("/api/filings/31/pack.pdf", "pack.pdf");
 
     await user.click(screen.getByRole("button", { name: "Download the pack (PDF)" }));
     const busy = await screen.findByRole("button", { name: "Downloading…" });

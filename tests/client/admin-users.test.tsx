@@ -45,13 +45,16 @@ const emptyQueues = {
   "GET /api/role-requests": { status: 200, body: [] },
 };
 
+/** The session of Ada Admin (user #1), the administrator at the keyboard. */
+const adaSignedIn = {
+  status: 200,
+  body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
+};
+
 describe("Admin › Users", () => {
   it("lists the users the server returns with role, status and last sign-in", async () => {
     fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": { status: 200, body: users },
       ...emptyQueues,
     });
@@ -144,10 +147,7 @@ describe("Admin › Users", () => {
   it("when an account is locked out, then the list says until when; Unlock asks first, Cancel sends nothing, and the confirmation unlocks it", async () => {
     const locked = [{ ...users[0] }, { ...users[1], lockedUntil: "2026-03-05T14:22:00.000Z" }, users[2]];
     const api = fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": { status: 200, body: locked },
       ...emptyQueues,
       "POST /api/users/2/unlock": { status: 200, body: { ...users[1], lockedUntil: null } },
@@ -175,10 +175,7 @@ describe("Admin › Users", () => {
 
   it("when an admin changes a role, then the consequence is stated first and the version shown is sent with the change", async () => {
     const api = fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": { status: 200, body: users },
       ...emptyQueues,
       "GET /api/regulator-assignments": { status: 200, body: [] },
@@ -201,10 +198,7 @@ describe("Admin › Users", () => {
     const current = { ...users[1], name: "Ana Lyst", role: "treasury", version: 4 };
     let listed = users;
     const api = fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": () => ({ status: 200, body: listed }),
       ...emptyQueues,
       "PATCH /api/users/2": () => {
@@ -253,10 +247,7 @@ describe("Admin › Users", () => {
   it("when a reset link meets a stale version, then the screen says someone else changed the user and nothing is reported as sent", async () => {
     const current = { ...users[1], role: "treasury", version: 5 };
     const api = fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": { status: 200, body: users },
       ...emptyQueues,
       "POST /api/users/2/password-link": {
@@ -287,10 +278,7 @@ describe("Admin › Users", () => {
 
   it("when an admin picks the CRO role, then the confirmation says a second admin must approve, and a proposal is sent instead of a change", async () => {
     const api = fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": { status: 200, body: users },
       ...emptyQueues,
       "POST /api/role-requests": { status: 201, body: request({ proposedBy: ada }) },
@@ -314,10 +302,7 @@ describe("Admin › Users", () => {
     const waiting = request({ proposedBy: bea });
     let approved = false;
     const api = fakeApi({
-      "GET /api/auth/session": {
-        status: 200,
-        body: { user: { id: 1, email: "admin@larkspur.test", name: "Ada Admin", role: "admin" } },
-      },
+      "GET /api/auth/session": adaSignedIn,
       "GET /api/users": () => ({
         status: 200,
         body: users.map((u) => (u.id === 2 && approved ? { ...u, role: "cro", version: 4 } : u)),

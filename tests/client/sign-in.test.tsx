@@ -3,6 +3,19 @@ import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs, signedOut } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
+/** Types an e-mail address and a password into the sign-in form and sends it. */
+async function signInWith(user: ReturnType<typeof userEvent.setup>, email: string, password: string) {
+  await user.type(await screen.findByLabelText("E-mail"), email);
+  await user.type(screen.getByLabelText("Password"), password);
+  await user.click(screen.getByRole("button", { name: "Sign in" }));
+}
+
+/** The server refusing a sign-in with its status, code and message. */
+const loginRefused = (status: number, code: string, message: string) => ({
+  status,
+  body: { error: { code, message } },
+});
+
 describe("sign-in", () => {
   it("when the e-mail is left empty, then the field says so beside it and nothing is sent", async () => {
     const api = fakeApi({ "GET /api/auth/session": signedOut });
@@ -20,17 +33,12 @@ describe("sign-in", () => {
   it("when the server answers 401, then its message is shown for the whole form", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedOut,
-      "POST /api/auth/login": {
-        status: 401,
-        body: { error: { code: "invalid_credentials", message: "E-mail or password is not right." } },
-      },
+      "POST /api/auth/login": loginRefused(401, "invalid_credentials", "E-mail or password is not right."),
     });
     const user = userEvent.setup();
     renderApp("/sign-in");
 
-    await user.type(await screen.findByLabelText("E-mail"), "analyst@larkspur.test");
-    await user.type(screen.getByLabelText("Password"), "wrong password");
-    await user.click(screen.getByRole("button", { name: "Sign in" }));
+    await signInWith(user, "analyst@larkspur.test", "wrong password");
 
     expect(await screen.findByRole("alert")).toHaveTextContent("E-mail or password is not right.");
     expect(api.callsTo("POST", "/api/auth/login")[0].body).toEqual({
@@ -43,17 +51,12 @@ describe("sign-in", () => {
   it("when there were too many attempts (429), then the server's message says to wait", async () => {
     fakeApi({
       "GET /api/auth/session": signedOut,
-      "POST /api/auth/login": {
-        status: 429,
-        body: { error: { code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." } },
-      },
+      "POST /api/auth/login": loginRefused(429, "rate_limited", "Too many sign-in attempts. Try again in 15 minutes."),
     });
     const user = userEvent.setup();
     renderApp("/sign-in");
 
-    await user.type(await screen.findByLabelText("E-mail"), "cro@larkspur.test");
-    await user.type(screen.getByLabelText("Password"), "anything");
-    await user.click(screen.getByRole("button", { name: "Sign in" }));
+    await signInWith(user, "cro@larkspur.test", "anything");
 
     expect(await screen.findByRole("alert")).toHaveTextContent("Try again in 15 minutes.");
   });
@@ -63,9 +66,7 @@ describe("sign-in", () => {
     const user = userEvent.setup();
     renderApp("/sign-in");
 
-    await user.type(await screen.findByLabelText("E-mail"), "admin@larkspur.test");
-    await user.type(screen.getByLabelText("Password"), "x".repeat(73));
-    await user.click(screen.getByRole("button", { name: "Sign in" }));
+    await signInWith(user, "admin@larkspur.test", "x".repeat(73));
 
     expect(screen.getByLabelText("Password")).toHaveAccessibleDescription(/limited to 72 bytes/);
     expect(api.callsTo("POST", "/api/auth/login")).toHaveLength(0);
@@ -85,9 +86,7 @@ describe("sign-in", () => {
     const ue = userEvent.setup();
     const { router } = renderApp("/sign-in?redirectTo=%2F");
 
-    await ue.type(await screen.findByLabelText("E-mail"), "treasury@larkspur.test");
-    await ue.type(screen.getByLabelText("Password"), "quartermark-demo");
-    await ue.click(screen.getByRole("button", { name: "Sign in" }));
+    await signInWith(ue, "treasury@larkspur.test", "quartermark-demo");
 
     expect(await screen.findByRole("heading", { name: "Overview" })).toBeInTheDocument();
     await waitFor(() => expect(router.state.location.pathname).toBe("/"));

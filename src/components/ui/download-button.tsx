@@ -3,6 +3,34 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { useDownload } from "@/lib/download";
 
+/** The control that starts a download: quiet, and marked busy (not disabled, so it keeps focus) while it runs. */
+export function DownloadControl({
+  busy,
+  onStart,
+  label,
+  children,
+}: {
+  busy: boolean;
+  onStart: () => void;
+  /** The control's accessible name where its text alone does not say what downloads. */
+  label?: string;
+  children: ReactNode;
+}) {
+  return (
+    <Button
+      variant="quiet"
+      size="sm"
+      className="h-auto aria-disabled:cursor-progress aria-disabled:opacity-70"
+      onClick={onStart}
+      aria-disabled={busy || undefined}
+      aria-busy={busy || undefined}
+      aria-label={label}
+    >
+      {children}
+    </Button>
+  );
+}
+
 /**
  * Downloads a file from our API (a pack PDF) by fetching it, so the reader sees why a download was
  * refused — in the server's words, beside the control — rather than a failed item in the browser's
@@ -26,16 +54,9 @@ export function DownloadButton({
   return (
     <div className="flex flex-col gap-1.5">
       <p className="flex flex-wrap items-baseline gap-x-3 text-sm">
-        <Button
-          variant="quiet"
-          size="sm"
-          className="h-auto aria-disabled:cursor-progress aria-disabled:opacity-70"
-          onClick={() => void start()}
-          aria-disabled={busy || undefined}
-          aria-busy={busy || undefined}
-        >
+        <DownloadControl busy={busy} onStart={() => void start()}>
           {busy ? busyText : children}
-        </Button>
+        </DownloadControl>
         {note}
       </p>
       <FormMessage>{error}</FormMessage>

@@ -1,4 +1,4 @@
-import { Button } from "@/components/ui/button";
+import { DownloadControl } from "./download-button";
 import { FormMessage } from "@/components/ui/field";
 import { useDownload } from "@/lib/download";
 import { withQuery } from "@/lib/api-client";
@@ -24,17 +24,9 @@ function FormatButton({ href, what, format }: { href: string; what: string; form
   const { start, busy, error } = useDownload(href, `${what}.${format}`, FORMATS[format].accept);
   return (
     <>
-      <Button
-        variant="quiet"
-        size="sm"
-        className="h-auto aria-disabled:cursor-progress aria-disabled:opacity-70"
-        onClick={() => void start()}
-        aria-disabled={busy || undefined}
-        aria-busy={busy || undefined}
-        aria-label={`Download ${what} as ${FORMATS[format].label}`}
-      >
+      <DownloadControl busy={busy} onStart={() => void start()} label={`Download ${what} as ${FORMATS[format].label}`}>
         {busy ? "Downloading…" : FORMATS[format].label}
-      </Button>
+      </DownloadControl>
       {error && <FormMessage>{error}</FormMessage>}
     </>
   );

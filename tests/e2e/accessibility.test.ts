@@ -5,11 +5,11 @@ import { PortfolioModel } from "../../server/models/portfolio";
 import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { createTestEntity, createTestUser } from "../server/helpers";
 import { HEADER } from "../server/ingest-helpers";
-import { prepare, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
+import { approve, type Book, prepare, signOffBook, snapshotApp, submit } from "../server/snapshot-helpers";
 import { latestLinkTokenFor } from "../server/mail-helpers";
 import { sessionCookieFor, unique } from "../server/helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs, signInAs, watchConsole } from "./browser";
 
 /**
  * Every screen each role can open, checked with axe-core (WCAG 2.0/2.1 A and AA) in each state a
@@ -27,16 +27,8 @@ const emails = { treasury: "", regulator: "", admin: "", invitee: "" };
 async function signedOff(quarterEnd: string, file: boolean) {
   const draft = await prepare(book, quarterEnd);
   expect(draft.status, JSON.stringify(draft.body)).toBe(201);
-  await request(snapshotApp)
-    .post(`/api/snapshots/${draft.body.id}/submit`)
-    .set("Cookie", book.cookie)
-    .send({ comment: "Figures checked", version: draft.body.version })
-    .expect(200);
-  await request(snapshotApp)
-    .post(`/api/snapshots/${draft.body.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({})
-    .expect(200);
+  await submit(draft.body.id, book.cookie, { comment: "Figures checked", version: draft.body.version }).expect(200);
+  await approve(draft.body.id, book.croCookie).expect(200);
   if (!file) return draft.body.id as number;
   const filed = await request(snapshotApp)
     .post(`/api/snapshots/${draft.body.id}/filings`)
@@ -54,10 +46,7 @@ async function loadBooks() {
   q2Approved = await signedOff("2026-06-30", false);
   const q3 = await prepare(book);
   expect(q3.status).toBe(201);
-  const submitted = await request(snapshotApp)
-    .post(`/api/snapshots/${q3.body.id}/submit`)
-    .set("Cookie", book.cookie)
-    .send({ version: q3.body.version });
+  const submitted = await submit(q3.body.id, book.cookie, { version: q3.body.version });
   expect(submitted.status, JSON.stringify(submitted.body)).toBe(200);
   q3Submitted = q3.body.id;
 
@@ -117,9 +106,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   });
 
   it("when the analyst opens the Overview and the Backtest, with the charts' tables open, a review form with its errors and a portfolio without data, there is no violation", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, book.analyst.email);
+    const { page, errors } = await pageSignedInAs(suite, book.analyst.email);
     await settled(page);
     await expectAccessible(page, "analyst: Overview");
 
@@ -148,9 +135,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   }, 240_000);
 
   it("when the analyst opens Data, Quarter close, Capital and Filings, with a refused upload, a refused what-if and an entity without data, there is no violation", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, book.analyst.email);
+    const { page, errors } = await pageSignedInAs(suite, book.analyst.email);
     await open(page, "/data", ["heading", { name: /upload history/i }]);
     await expectAccessible(page, "analyst: Data");
     const code = book.portfolio.code;
@@ -194,9 +179,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   }, 240_000);
 
   it("when the CRO returns a quarter without a comment, opens the filing confirmation and reads the filings, there is no violation", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, book.cro.email);
+    const { page, errors } = await pageSignedInAs(suite, book.cro.email);
     await settled(page);
     await expectAccessible(page, "cro: Overview");
     await open(page, `/quarters?entity=${book.entity.code}&snapshot=${q3Submitted}`, [
@@ -230,9 +213,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   }, 240_000);
 
   it("when treasury reads its screens, creates a token with an error first and opens the revoke confirmation, there is no violation", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, emails.treasury);
+    const { page, errors } = await pageSignedInAs(suite, emails.treasury);
     await settled(page);
     await expectAccessible(page, "treasury: Overview");
     await open(page, `/quarters?entity=${book.entity.code}`, ["heading", { name: /Quarter close/ }]);
@@ -265,9 +246,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   }, 240_000);
 
   it("when the regulator reads and acknowledges a filing, there is no violation", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, emails.regulator);
+    const { page, errors } = await pageSignedInAs(suite, emails.regulator);
     await settled(page);
     await expectAccessible(page, "regulator: Overview");
     await open(page, `/filings?filing=${q1Filing}`, ["button", { name: "Acknowledge receipt" }]);
@@ -286,9 +265,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   }, 240_000);
 
   it("when the administrator opens every admin screen and sends each form empty, there is no violation", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, emails.admin);
+    const { page, errors } = await pageSignedInAs(suite, emails.admin);
     await settled(page);
     await expectAccessible(page, "admin: Overview");
 

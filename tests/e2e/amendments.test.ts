@@ -5,15 +5,17 @@ import { RegulatorAssignmentModel } from "../../server/models/regulator-assignme
 import { SnapshotModel } from "../../server/models/snapshot";
 import { createTestUser } from "../server/helpers";
 import {
+  approve,
+  approvedQuarter,
+  type Book,
   HEADER,
-  preparedAndSubmitted,
   signOffBook,
   snapshotApp,
+  submit,
   uploadAndCommit,
-  type Book,
 } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let book: Book;
 let originalId = 0;
@@ -26,12 +28,7 @@ let regulatorEmail = "";
 async function restatedFiledQuarter() {
   book = await signOffBook();
   await book.entity.update({ supervisorEmails: [`market-risk-${Date.now()}@bank-supervisor.test`] });
-  const submitted = await preparedAndSubmitted(book);
-  await request(snapshotApp)
-    .post(`/api/snapshots/${submitted.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({})
-    .expect(200);
+  const submitted = await approvedQuarter(book);
   await request(snapshotApp).post(`/api/snapshots/${submitted.id}/filings`).set("Cookie", book.croCookie).expect(201);
   originalId = submitted.id;
   const day = book.exceptionDays[4];
@@ -45,10 +42,11 @@ const suite = browserSuite(restatedFiledQuarter);
 
 describe("amending a filed quarter in a real browser", () => {
   it("when the analyst prepares the amendment and it is filed, then Quarter close and Filings show it linked, with no console errors", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, book.analyst.email);
-    await page.goto(`${suite.app.baseUrl}/quarters?entity=${book.entity.code}&snapshot=${originalId}`);
+    const { page, errors } = await pageSignedInAs(
+      suite,
+      book.analyst.email,
+      `/quarters?entity=${book.entity.code}&snapshot=${originalId}`,
+    );
     await page.getByRole("button", { name: "Prepare amendment" }).click({ timeout: 20_000 });
     await page.getByRole("button", { name: "Prepare the amendment" }).waitFor();
     await expectAccessible(page, "quarter-close-amendment-confirmation");
@@ -64,33 +62,24 @@ describe("amending a filed quarter in a real browser", () => {
     await page.close();
 
     // Submitted, approved by the CRO and filed through the API, as the sign-off journeys do in the browser.
-    await request(snapshotApp)
-      .post(`/api/snapshots/${amendment.id}/submit`)
-      .set("Cookie", book.cookie)
-      .send({})
-      .expect(200);
-    await request(snapshotApp)
-      .post(`/api/snapshots/${amendment.id}/approve`)
-      .set("Cookie", book.croCookie)
-      .send({})
-      .expect(200);
+    await submit(amendment.id, book.cookie).expect(200);
+    await approve(amendment.id, book.croCookie).expect(200);
     await request(snapshotApp).post(`/api/snapshots/${amendment.id}/filings`).set("Cookie", book.croCookie).expect(201);
     const filing = (await FilingModel.findOne({ where: { snapshotId: amendment.id } }))!;
 
-    const analyst = await suite.context.newPage();
-    errors.push(...watchConsole(analyst));
-    await signInAs(analyst, suite.app.baseUrl, book.analyst.email);
-    await analyst.goto(`${suite.app.baseUrl}/quarters?entity=${book.entity.code}&snapshot=${originalId}`);
+    const { page: analyst } = await pageSignedInAs(
+      suite,
+      book.analyst.email,
+      `/quarters?entity=${book.entity.code}&snapshot=${originalId}`,
+      errors,
+    );
     await analyst.getByRole("note", { name: "Restatement resolved" }).waitFor({ timeout: 20_000 });
     await analyst.waitForLoadState("networkidle");
     await expectAccessible(analyst, "quarter-close-restatement-resolved");
     await keepScreenshot(analyst, "quarter-close-restatement-resolved");
     await analyst.close();
 
-    const regulator = await suite.context.newPage();
-    errors.push(...watchConsole(regulator));
-    await signInAs(regulator, suite.app.baseUrl, regulatorEmail);
-    await regulator.goto(`${suite.app.baseUrl}/filings?filing=${filing.id}`);
+    const { page: regulator } = await pageSignedInAs(suite, regulatorEmail, `/filings?filing=${filing.id}`, errors);
     await regulator.getByRole("region", { name: "Amendment of an earlier filing" }).waitFor({ timeout: 20_000 });
     await regulator.waitForLoadState("networkidle");
     await expectAccessible(regulator, "filings-amendment-regulator");

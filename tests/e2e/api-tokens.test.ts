@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { ApiTokenModel } from "../../server/models/api-token";
 import { createTestEntity, createTestUser } from "../server/helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let treasuryEmail = "";
 
@@ -13,9 +13,7 @@ const suite = browserSuite(async () => {
 
 describe("a treasurer's API token in a real browser", () => {
   it("when treasury creates a token on the API tokens screen, then the shown secret reads the capital history from a script, and after revoking it on screen the script is refused", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, treasuryEmail);
+    const { page, errors } = await pageSignedInAs(suite, treasuryEmail);
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "API tokens" }).click();
     await page.getByRole("heading", { name: "API tokens" }).waitFor({ timeout: 15_000 });
 

@@ -58,9 +58,8 @@ export async function signInAs(page: Page, baseUrl: string, email: string, passw
   await page.getByRole("heading", { name: /overview/i }).waitFor({ timeout: 15_000 });
 }
 
-/** Collects console errors and failed page scripts, so a journey can assert there were none. */
-export function watchConsole(page: Page): string[] {
-  const errors: string[] = [];
+/** Collects console errors and failed page scripts into `errors`, so a journey can assert there were none. */
+export function watchConsole(page: Page, errors: string[] = []): string[] {
   page.on("console", (msg) => {
     if (msg.type() === "error") errors.push(msg.text());
   });
@@ -94,4 +93,21 @@ export function browserSuite(before?: () => Promise<void>) {
     await sequelize.close();
   });
   return suite;
+}
+
+/**
+ * A new page of the suite's browser, its console watched (into `errors`, a fresh list unless given), signed in as
+ * `email` and, with `path`, at that address of the app.
+ */
+export async function pageSignedInAs(
+  suite: ReturnType<typeof browserSuite>,
+  email: string,
+  path?: string,
+  errors: string[] = [],
+) {
+  const page = await suite.context.newPage();
+  watchConsole(page, errors);
+  await signInAs(page, suite.app.baseUrl, email);
+  if (path) await page.goto(`${suite.app.baseUrl}${path}`);
+  return { page, errors };
 }

@@ -4,7 +4,7 @@ import { PortfolioModel } from "../../server/models/portfolio";
 import { createTestEntity, createTestUser, sessionCookieFor, testApp } from "../server/helpers";
 import { uploadCsv, weekdays } from "../server/ingest-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let code = "";
 let analystEmail = "";
@@ -41,10 +41,7 @@ const suite = browserSuite(loadBook);
 
 describe("FRTB capital in a real browser", () => {
   it("when an analyst opens Capital for an FRTB entity, then the aggregation, the desks and their timeline show and the page is accessible", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, analystEmail);
-    await page.goto(`${suite.app.baseUrl}/capital?entity=${code}`);
+    const { page, errors } = await pageSignedInAs(suite, analystEmail, `/capital?entity=${code}`);
     const section = page.getByRole("region", { name: "FRTB aggregate capital requirement" });
     await section.getByTestId("frtb-acr").waitFor({ timeout: 20_000 });
     // Today is after 1 April 2026, so the Q1 determination is in force: desk A out, C_U 550, ACR 815.

@@ -1,9 +1,8 @@
-import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { createTestUser } from "../server/helpers";
-import { preparedAndSubmitted, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
+import { approve, type Book, preparedAndSubmitted, signOffBook } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let book: Book;
 let treasuryEmail = "";
@@ -15,10 +14,7 @@ let treasuryEmail = "";
 async function loadBook() {
   book = await signOffBook();
   const submitted = await preparedAndSubmitted(book);
-  const approved = await request(snapshotApp)
-    .post(`/api/snapshots/${submitted.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({});
+  const approved = await approve(submitted.id, book.croCookie);
   expect(approved.status, JSON.stringify(approved.body)).toBe(200);
   treasuryEmail = (await createTestUser("treasury")).email;
 }
@@ -27,10 +23,7 @@ const suite = browserSuite(loadBook);
 
 describe("planning capital in a real browser", () => {
   it("when treasury opens Capital and supposes five more exceptions, then the scenario is red with multiplier 4.00 (ten exceptions: BCBS 1996 Table 2), and there were no console errors", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, treasuryEmail);
-    await page.goto(`${suite.app.baseUrl}/capital?entity=${book.entity.code}`);
+    const { page, errors } = await pageSignedInAs(suite, treasuryEmail, `/capital?entity=${book.entity.code}`);
     await page.getByText(/One more exception would raise the capital requirement by/).waitFor({ timeout: 20_000 });
     const form = page.getByRole("form", { name: "What-if scenario" });
     await form.getByLabel(/Extra exceptions/).fill("5");

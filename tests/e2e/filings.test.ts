@@ -1,43 +1,32 @@
-import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { FilingModel } from "../../server/models/filing";
 import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { createTestUser } from "../server/helpers";
-import { preparedAndSubmitted, signOffBook, snapshotApp, type Book } from "../server/snapshot-helpers";
+import { approvedBookFiledTo, type Book } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let book: Book;
 let snapshotId = 0;
 let regulatorEmail = "";
 
 /** An approved Q3 2026 snapshot of an entity with a supervisor contact and an assigned regulator, made through the API. */
-async function approvedQuarter() {
-  book = await signOffBook();
-  await book.entity.update({
-    supervisorEmails: [`market-risk-${Date.now()}@bank-supervisor.test`],
-    supervisorName: "Ms Rowan Vale",
-  });
-  const submitted = await preparedAndSubmitted(book);
-  await request(snapshotApp)
-    .post(`/api/snapshots/${submitted.id}/approve`)
-    .set("Cookie", book.croCookie)
-    .send({})
-    .expect(200);
-  snapshotId = submitted.id;
+async function approvedQuarterWithRegulator() {
+  ({ book, snapshotId } = await approvedBookFiledTo([`market-risk-${Date.now()}@bank-supervisor.test`]));
   const regulator = await createTestUser("regulator");
   await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
   regulatorEmail = regulator.email;
 }
 
-const suite = browserSuite(approvedQuarter);
+const suite = browserSuite(approvedQuarterWithRegulator);
 
 describe("filing a quarter in a real browser", () => {
   it("when the CRO files the approved quarter and the regulator acknowledges it, then both see it done, with no console errors", async () => {
-    const croPage = await suite.context.newPage();
-    const errors = watchConsole(croPage);
-    await signInAs(croPage, suite.app.baseUrl, book.cro.email);
-    await croPage.goto(`${suite.app.baseUrl}/quarters?entity=${book.entity.code}&snapshot=${snapshotId}`);
+    const { page: croPage, errors } = await pageSignedInAs(
+      suite,
+      book.cro.email,
+      `/quarters?entity=${book.entity.code}&snapshot=${snapshotId}`,
+    );
     await croPage.getByRole("button", { name: "File with the supervisor" }).click({ timeout: 20_000 });
     await croPage.getByRole("button", { name: "Send the pack" }).click();
     await croPage.getByRole("link", { name: /Open the filing on the Filings screen/ }).waitFor({ timeout: 20_000 });
@@ -48,10 +37,12 @@ describe("filing a quarter in a real browser", () => {
     expect(filing).not.toBeNull();
     await croPage.close();
 
-    const regulatorPage = await suite.context.newPage();
-    errors.push(...watchConsole(regulatorPage));
-    await signInAs(regulatorPage, suite.app.baseUrl, regulatorEmail);
-    await regulatorPage.goto(`${suite.app.baseUrl}/filings?filing=${filing!.id}`);
+    const { page: regulatorPage } = await pageSignedInAs(
+      suite,
+      regulatorEmail,
+      `/filings?filing=${filing!.id}`,
+      errors,
+    );
     await regulatorPage.getByRole("button", { name: "Acknowledge receipt" }).click({ timeout: 20_000 });
     await regulatorPage
       .getByText(/Acknowledged by/)

@@ -7,7 +7,7 @@ import { OvershootingNoticeModel } from "../../server/models/overshooting-notice
 import { createTestUser, sessionCookieFor, testApp, unique } from "../server/helpers";
 import { csvFor, ingestFixture, uploadCsv, weekdays } from "../server/ingest-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 /**
  * An EU book whose committed upload holds an overshooting on its last day: the commit opens the
@@ -48,10 +48,7 @@ describe("Overshooting notices in a real browser", () => {
     expect(notice?.status).toBe("open");
 
     // The analyst finds it under Waiting for me and drafts the cause.
-    const analystPage = await suite.context.newPage();
-    const analystErrors = watchConsole(analystPage);
-    await signInAs(analystPage, suite.app.baseUrl, fx.analyst.email);
-    await analystPage.goto(`${suite.app.baseUrl}/waiting`);
+    const { page: analystPage, errors: analystErrors } = await pageSignedInAs(suite, fx.analyst.email, `/waiting`);
     const toDraft = analystPage
       .getByRole("region", { name: "Overshooting notices to draft" })
       .getByRole("link", { name: new RegExp(`overshooting notice of ${fx.entity.code} for ${day}`, "i") });
@@ -71,9 +68,7 @@ describe("Overshooting notices in a real browser", () => {
     await analystPage.close();
 
     // The CRO opens Notices from the navigation, asks to send, sees the recipients, and confirms.
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, cro.email);
+    const { page, errors } = await pageSignedInAs(suite, cro.email);
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Notices" }).click();
     await page.getByLabel("Entity", { exact: true }).selectOption(fx.entity.code);
     await page.getByRole("link", { name: day }).click();

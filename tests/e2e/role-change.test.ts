@@ -3,7 +3,7 @@ import { UserModel } from "../../server/models/user";
 import { RoleRequestModel } from "../../server/models/role-request";
 import { createTestUser } from "../server/helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let adminEmail = "";
 let regulator: UserModel;
@@ -14,10 +14,7 @@ const suite = browserSuite(async () => {
 
 describe("a role change in a real browser", () => {
   it("when an administrator picks another role by mistake, then the confirmation says what it would do, and Cancel leaves the person, their sessions and the list as they were", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, adminEmail);
-    await page.goto(`${suite.app.baseUrl}/admin/users`);
+    const { page, errors } = await pageSignedInAs(suite, adminEmail, `/admin/users`);
     const role = page.getByRole("combobox", { name: `Role of ${regulator.name}` });
     await role.selectOption("treasury");
     const confirmation = page.getByRole("group", { name: `Change the role of ${regulator.name}` });

@@ -5,7 +5,7 @@ import { ObservationModel } from "../../server/models/observation";
 import { createTestUser, sessionCookieFor } from "../server/helpers";
 import { HEADER, ingestFixture, uploadCsv, weekdays } from "../server/ingest-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs, signInAs } from "./browser";
 
 let fixture: Awaited<ReturnType<typeof ingestFixture>>;
 let bookDates: string[] = [];
@@ -31,10 +31,7 @@ const suite = browserSuite(loadBook);
 
 describe("the analyst's screens in a real browser", () => {
   it("when the analyst opens the Backtest screen of a portfolio with six exceptions, then it shows the yellow zone by name, with no console errors", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, fixture.analyst.email);
-    await page.goto(`${suite.app.baseUrl}/backtest/${fixture.portfolio.code}`);
+    const { page, errors } = await pageSignedInAs(suite, fixture.analyst.email, `/backtest/${fixture.portfolio.code}`);
     await page
       .getByText(/yellow/i)
       .first()
@@ -47,10 +44,7 @@ describe("the analyst's screens in a real browser", () => {
   });
 
   it("when the analyst opens the Data screen, then the upload panel and the history are there, with no console errors", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, fixture.analyst.email);
-    await page.goto(`${suite.app.baseUrl}/data`);
+    const { page, errors } = await pageSignedInAs(suite, fixture.analyst.email, `/data`);
     await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
     await page.waitForLoadState("networkidle");
     await expectAccessible(page, "data-analyst");
@@ -60,10 +54,7 @@ describe("the analyst's screens in a real browser", () => {
   });
 
   it("when the analyst uploads a file with a weekend day through the Data screen, then the error stands beside its cell and nothing can be committed; the corrected file commits, and the restated day keeps its earlier version", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, fixture.analyst.email);
-    await page.goto(`${suite.app.baseUrl}/data`);
+    const { page, errors } = await pageSignedInAs(suite, fixture.analyst.email, `/data`);
     await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
     const code = fixture.portfolio.code;
     const next = weekdays(bookDates[bookDates.length - 1], 2)[1]; // the weekday after the book's last day

@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { createTestUser } from "../server/helpers";
-import { signOffBook, type Book } from "../server/snapshot-helpers";
+import { type Book, signOffBook } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let book: Book;
 let adminEmail = "";
@@ -17,9 +17,7 @@ const suite = browserSuite(loadBook);
 
 describe("governing the supervisory settings in a real browser", () => {
   it("when an admin proposes an addend (after a refused empty form) and a CRO approves it with the consequence stated, each state has no violation and no console error", async () => {
-    const admin = await suite.context.newPage();
-    const errors = watchConsole(admin);
-    await signInAs(admin, suite.app.baseUrl, adminEmail);
+    const { page: admin, errors } = await pageSignedInAs(suite, adminEmail);
     await admin.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Supervisory settings" }).click();
     await admin.getByRole("heading", { name: /^Supervisory settings/ }).waitFor({ timeout: 15_000 });
     await admin.goto(`${suite.app.baseUrl}/settings?entity=${book.entity.code}`);
@@ -42,10 +40,11 @@ describe("governing the supervisory settings in a real browser", () => {
     await admin.getByRole("button", { name: /^sign in$/i }).waitFor({ timeout: 15_000 });
     await admin.close();
 
-    const cro = await suite.context.newPage();
-    const croErrors = watchConsole(cro);
-    await signInAs(cro, suite.app.baseUrl, book.cro.email);
-    await cro.goto(`${suite.app.baseUrl}/settings?entity=${book.entity.code}`);
+    const { page: cro, errors: croErrors } = await pageSignedInAs(
+      suite,
+      book.cro.email,
+      `/settings?entity=${book.entity.code}`,
+    );
     const waiting = cro.getByRole("region", { name: "SUP-2026-021: from 2026-08-03" });
     await waiting.getByRole("button", { name: "Approve…" }).click();
     const confirm = waiting.getByRole("group", { name: "Confirm the approval" });

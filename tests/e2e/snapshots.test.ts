@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { SnapshotModel } from "../../server/models/snapshot";
-import { signOffBook, type Book } from "../server/snapshot-helpers";
+import { type Book, signOffBook } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 let book: Book;
 
@@ -15,10 +15,11 @@ const suite = browserSuite(loadBook);
 
 describe("closing a quarter in a real browser", () => {
   it("when the analyst prepares and submits Q3 2026 and the CRO approves it, then the snapshot is sealed, its hash verifies, and there were no console errors", async () => {
-    const analystPage = await suite.context.newPage();
-    const errors = watchConsole(analystPage);
-    await signInAs(analystPage, suite.app.baseUrl, book.analyst.email);
-    await analystPage.goto(`${suite.app.baseUrl}/quarters?entity=${book.entity.code}`);
+    const { page: analystPage, errors } = await pageSignedInAs(
+      suite,
+      book.analyst.email,
+      `/quarters?entity=${book.entity.code}`,
+    );
     await analystPage.getByRole("button", { name: "Prepare the snapshot" }).click();
     await analystPage.getByRole("button", { name: "Submit for sign-off" }).waitFor({ timeout: 20_000 });
     await analystPage.getByText("Yellow").first().waitFor();
@@ -42,10 +43,12 @@ describe("closing a quarter in a real browser", () => {
     await analystPage.close();
 
     // The CRO signs out the analyst's work (a fresh context would do as well; sign-in replaces the cookie).
-    const croPage = await suite.context.newPage();
-    errors.push(...watchConsole(croPage));
-    await signInAs(croPage, suite.app.baseUrl, book.cro.email);
-    await croPage.goto(`${suite.app.baseUrl}/quarters?entity=${book.entity.code}&snapshot=${row!.id}`);
+    const { page: croPage } = await pageSignedInAs(
+      suite,
+      book.cro.email,
+      `/quarters?entity=${book.entity.code}&snapshot=${row!.id}`,
+      errors,
+    );
     await croPage.getByRole("button", { name: "Approve and seal" }).click();
     await croPage.getByRole("button", { name: "Approve and seal Q3 2026" }).click();
     await croPage.getByRole("button", { name: "Verify the hash" }).click({ timeout: 15_000 });

@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { SnapshotModel } from "../../server/models/snapshot";
-import { prepare, preparedAndSubmitted, Q2, signOffBook, type Book } from "../server/snapshot-helpers";
+import { type Book, prepare, preparedAndSubmitted, Q2, signOffBook } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
-import { browserSuite, keepScreenshot, signInAs, watchConsole } from "./browser";
+import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
 
 /**
  * The EU book up to 30 September 2026 (tests/server/snapshot-helpers.ts): Q3 2026 is a draft with the
@@ -19,9 +19,7 @@ const suite = browserSuite(async () => {
 
 describe("Waiting for me in a real browser", () => {
   it("when an older quarter is submitted, then the CRO finds it under Waiting for me, approves it after the confirmation, and it leaves the list", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, book.cro.email);
+    const { page, errors } = await pageSignedInAs(suite, book.cro.email);
     const nav = page.getByRole("navigation", { name: "Main" });
     // The count beside the link: at least this entity's submitted quarter (other journeys' items may be there too).
     await nav.getByRole("link", { name: /Waiting for me\s*\d+\s*items?/ }).click();
@@ -67,10 +65,7 @@ describe("Waiting for me in a real browser", () => {
   }, 180_000);
 
   it("when the analyst opens Waiting for me, then the exceptions to explain and the ended quarters show, and the screen passes axe", async () => {
-    const page = await suite.context.newPage();
-    const errors = watchConsole(page);
-    await signInAs(page, suite.app.baseUrl, book.analyst.email);
-    await page.goto(`${suite.app.baseUrl}/waiting`);
+    const { page, errors } = await pageSignedInAs(suite, book.analyst.email, `/waiting`);
     const exceptions = page.getByRole("region", { name: "Exceptions to explain" });
     await exceptions
       .getByRole("link", {

@@ -45,6 +45,17 @@ const item = {
   quarterClose: { snapshotId: 12, quarterEnd: "2026-09-30", status: "approved" },
 };
 
+/** `role` opens the Overview with `overviewItem` as the server's only entity; its row of the standing table. */
+async function standingRow(role: Parameters<typeof signedInAs>[0], overviewItem: object) {
+  fakeApi({
+    "GET /api/auth/session": signedInAs(role),
+    "GET /api/entities": { status: 200, body: entities },
+    "GET /api/overview": { status: 200, body: [overviewItem] },
+  });
+  renderApp("/");
+  return within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
+}
+
 describe("Overview", () => {
   it("for an analyst, each entity's row shows its zone by name, counted exceptions, multiplier and capital add-on with the currency", async () => {
     fakeApi({
@@ -84,38 +95,24 @@ describe("Overview", () => {
   });
 
   it("when an entity has no snapshot yet, then its quarter-close cell says so", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      "GET /api/entities": { status: 200, body: entities },
-      "GET /api/overview": { status: 200, body: [{ ...item, quarterClose: null }] },
-    });
-    renderApp("/");
-    const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
+    const row = await standingRow("cro", { ...item, quarterClose: null });
     expect(within(row).getByText("No snapshot yet")).toBeInTheDocument();
   });
 
   it("when no quarter end with data has passed, then the multiplier in force says no determination exists yet", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("analyst"),
-      "GET /api/entities": { status: 200, body: entities },
-      "GET /api/overview": { status: 200, body: [{ ...item, inForce: null }] },
-    });
-    renderApp("/");
-    const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
+    const row = await standingRow("analyst", { ...item, inForce: null });
     expect(within(row).getAllByRole("cell")[1]).toHaveTextContent("No determination yet");
   });
 
   it("when the window is short, then the count says provisional; an FRTB entity's middle zone reads Amber", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedInAs("cro"),
-      "GET /api/entities": { status: 200, body: entities },
-      "GET /api/overview": {
-        status: 200,
-        body: [{ ...item, regime: "frtb", currency: "GBP", complete: false, nextRollOff: null, addOn: null }],
-      },
+    const row = await standingRow("cro", {
+      ...item,
+      regime: "frtb",
+      currency: "GBP",
+      complete: false,
+      nextRollOff: null,
+      addOn: null,
     });
-    renderApp("/");
-    const row = within(await screen.findByRole("table", { name: "Where each entity stands" })).getAllByRole("row")[1];
     expect(within(row).getByText("provisional")).toBeInTheDocument();
     expect(within(row).getAllByText("Amber")).toHaveLength(2);
     expect(within(row).getByText("None in the window")).toBeInTheDocument();

@@ -53,16 +53,19 @@ const brokenFile = {
   problem: "The file has no From or To header: it is not an e-mail message.",
 };
 
+/** The sink's folder as the server lists it: the pack, an older message and a file that is no message. */
+const threeKept = {
+  status: 200,
+  body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] },
+};
+
 const detailOf = (m: typeof packMessage, text: string) => ({ status: 200, body: { ...m, text } });
 
 describe("Admin › Outbox (development only)", () => {
   it("lists what the mail sink kept, newest first, and opens the newest with its text and each attachment's SHA-256 and download", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
-      "GET /api/admin/outbox": {
-        status: 200,
-        body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] },
-      },
+      "GET /api/admin/outbox": threeKept,
       [`GET /api/admin/outbox/${packMessage.id}`]: detailOf(
         packMessage,
         "Dear Ms Rowan Vale,\n\nPlease find attached the pack.\nSHA-256 of the attached file: " + PACK_SHA,
@@ -104,10 +107,7 @@ describe("Admin › Outbox (development only)", () => {
   it("when another row is chosen, then that message opens, and an unreadable file says why and where it lies", async () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("admin"),
-      "GET /api/admin/outbox": {
-        status: 200,
-        body: { folder: FOLDER, total: 3, messages: [packMessage, olderMessage, brokenFile] },
-      },
+      "GET /api/admin/outbox": threeKept,
       [`GET /api/admin/outbox/${packMessage.id}`]: detailOf(packMessage, "Newest"),
       [`GET /api/admin/outbox/${olderMessage.id}`]: detailOf(olderMessage, "The Q2 pack and the exception list."),
       [`GET /api/admin/outbox/${brokenFile.id}`]: { status: 200, body: brokenFile },

@@ -2,8 +2,9 @@
  * Load benchmark (`npm run bench:load`): every read endpoint of the production server bundle, one
  * after another, at 50 concurrent connections on loopback, on the Larkspur demo data plus 20
  * entities made by the demo generator (three years each). Each endpoint's requests go round all
- * entities (or their top-of-house books). `/api/health` (one `SELECT 1`) is the floor: the same
- * server, the same session check skipped, no figures. Every run is bounded: at most REQUESTS
+ * entities (or their top-of-house books). Two floors come first: `/` (the client's index.html from
+ * disk: the same server, its middleware, no database, no session) and `/api/health` (one `SELECT 1`,
+ * no figures); every ratio is to the static one. Every run is bounded: at most REQUESTS
  * requests and SECONDS seconds per endpoint. It runs once with one server process (WORKERS=1) and
  * once with the server's default count, and prints, per endpoint, one JSON line with p50 / p95 /
  * p99 (from every response's own time), requests per second, errors, and the ratios to the floor.
@@ -15,7 +16,11 @@
  *
  * LOAD_REQUESTS, LOAD_SECONDS and LOAD_WORKERS ("1,default") change the bounds and the runs.
  */
+import { spawnSync } from "node:child_process";
+import { existsSync } from "node:fs";
+import path from "node:path";
 import autocannon from "autocannon";
+import { projectRoot } from "../scripts/lib/run";
 import { prepareLoadDatabase } from "./lib/load-data";
 import { startBuiltServer, type BenchServer } from "./lib/bench-server";
 
@@ -188,7 +193,8 @@ function endpointsFor(portfolios: string[], entities: string[], snapshotIds: num
   const since = new Date(Date.now() - 90 * 86_400_000).toISOString().slice(0, 10);
   const today = new Date().toISOString().slice(0, 10);
   return [
-    { name: "GET /api/health (floor)", paths: ["/api/health"] },
+    { name: "GET / (static floor)", paths: ["/"] },
+    { name: "GET /api/health (database floor)", paths: ["/api/health"] },
     { name: "GET /api/auth/me", paths: ["/api/auth/me"] },
     { name: "GET /api/overview", paths: ["/api/overview"] },
     { name: "GET /api/entities", paths: ["/api/entities"] },
@@ -229,7 +235,15 @@ function endpointsFor(portfolios: string[], entities: string[], snapshotIds: num
   ];
 }
 
+/** The static floor is the built client's index.html: build it when this checkout has none. */
+function ensureClientBuilt(): void {
+  if (existsSync(path.join(projectRoot, "dist/client/index.html"))) return;
+  const build = spawnSync("npx", ["vite", "build", "--logLevel", "warn"], { cwd: projectRoot, stdio: "inherit" });
+  if (build.status !== 0) throw new Error("vite build failed");
+}
+
 async function main() {
+  ensureClientBuilt();
   const data = await prepareLoadDatabase("quartermark_load", 20);
   const endpoints = endpointsFor(data.portfolios, data.entities, data.snapshotIds);
   const runs = (process.env.LOAD_WORKERS ?? "1,default").split(",").map((s) => s.trim());

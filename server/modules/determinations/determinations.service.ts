@@ -1,6 +1,7 @@
 import { Op, QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { AppError, NotFoundError } from "../../errors";
+import { entityByCode } from "../../kit/lookups";
+import { AppError } from "../../errors";
 import { SupervisorySettingsModel } from "../../models/supervisory-settings";
 import { toDated } from "../settings/settings.read";
 import { EntityModel } from "../../models/entity";
@@ -27,12 +28,6 @@ import { deskStatusTimeline, frtbFiguresOn } from "../frtb/frtb.store";
 
 const cents = (v: number) => Math.round(v * 100) / 100;
 const today = () => new Date().toISOString().slice(0, 10);
-
-async function entityByCode(code: string): Promise<EntityModel> {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity with code ${code}.`);
-  return entity;
-}
 
 /**
  * The entity's determinations, oldest first, as stored on write. Treasury reads signed-off

@@ -1,5 +1,6 @@
 import { Op, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
+import { entityByCode } from "../../kit/lookups";
 import { AppError, ConflictError, ForbiddenError, NotFoundError } from "../../errors";
 import { EntityModel } from "../../models/entity";
 import { SnapshotModel } from "../../models/snapshot";
@@ -23,12 +24,6 @@ const today = () => new Date().toISOString().slice(0, 10);
 /** 422 with the field the message is about, as a refused schema says it. */
 const invalid = (message: string, fields: Record<string, string> = {}) =>
   new AppError(422, "validation_failed", message, { fields });
-
-async function entityByCode(code: string, transaction?: Transaction): Promise<EntityModel> {
-  const entity = await EntityModel.findOne({ where: { code }, transaction });
-  if (!entity) throw new NotFoundError(`No entity with code ${code}.`);
-  return entity;
-}
 
 /** What a record sets (the values the audit log keeps before and after). */
 const valuesOf = (s: DatedSettings) => ({
@@ -113,7 +108,7 @@ export async function listSettings(code: string): Promise<SettingsRecord[]> {
  */
 export async function proposeSettings(code: string, body: ProposeBody, actor: SignedIn): Promise<SettingsRecord> {
   return sequelize.transaction(async (transaction) => {
-    const entity = await entityByCode(code, transaction);
+    const entity = await entityByCode(code, { transaction });
     if (body.qualitativeAddendSvar != null && entity.regime !== "eu") {
       throw invalid(
         "A separate stressed VaR addend is an EU CRR setting (Art. 366: m_c and m_s); this rule set applies one addend.",

@@ -1,8 +1,7 @@
-import { EntityModel } from "../../models/entity";
+import { entityByCode } from "../../kit/lookups";
 import type { ChainVerify, SnapshotVerify } from "../../../shared/schemas/snapshot";
 import { verifyChain } from "../snapshot-chain/snapshot-chain";
 import { visibleSnapshotRow } from "./snapshots.read";
-import { NotFoundError } from "../../errors";
 import type { SignedIn } from "../../kit/actor";
 
 /**
@@ -32,8 +31,7 @@ export async function verifySnapshot(id: number, actor: SignedIn): Promise<Snaps
 
 /** GET /api/entities/:code/chain/verify: the entity's whole chain, in words. */
 export async function verifyEntityChain(code: string): Promise<ChainVerify> {
-  const entity = await EntityModel.findOne({ where: { code } });
-  if (!entity) throw new NotFoundError(`No entity ${code}.`);
+  const entity = await entityByCode(code);
   const chain = await verifyChain(entity.id);
   const more = chain.problems.length - 1;
   const detail = chain.valid

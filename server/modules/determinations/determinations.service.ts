@@ -23,7 +23,7 @@ import type { CapitalOnDate, DeterminationDto } from "../../../shared/schemas/de
 import type { SessionUser } from "../../../shared/schemas/auth";
 import { determinationInForce, storedDeterminations, toDeterminationDto } from "./determinations.store";
 import { holidaysOf, loadStartingPoint } from "../figures/engine-inputs";
-import { PortfolioModel } from "../../models/portfolio";
+import { storedStart } from "../figures/stored-figures";
 import { deskStatusTimeline, frtbFiguresOn } from "../frtb/frtb.store";
 
 const cents = (v: number) => Math.round(v * 100) / 100;
@@ -117,12 +117,15 @@ export async function latestApprovedDetermination(entity: EntityModel): Promise<
 export async function capitalOnDate(code: string, query: { date?: string }): Promise<CapitalOnDate> {
   const entity = await entityByCode(code);
   const date = query.date ?? today();
-  // The rows it needs, whatever the history: the 250 days up to the date and the determination in force.
-  const portfolio = await headlineOf(entity);
-  const [start, stored] = await Promise.all([
-    portfolio ? loadStartingPoint(entity, portfolio.id, date) : null,
+  // The rows it needs, whatever the history: the 250 days up to the date and the determination in
+  // force. On or after the latest day they are the starting point stored with the headline book
+  // (refreshed by every write that changes it); an earlier date reads its own 250 days.
+  const [{ portfolio, start: latest }, stored] = await Promise.all([
+    storedStart(entity),
     determinationInForce(entity, date),
   ]);
+  const start =
+    !portfolio || !latest ? null : date >= latest.asOf ? latest : await loadStartingPoint(entity, portfolio.id, date);
   if (!start) {
     throw new AppError(
       404,
@@ -206,15 +209,6 @@ export async function capitalOnDate(code: string, query: { date?: string }): Pro
     settings,
     ...(entity.regime === "frtb" ? { frtb, frtbNote, frtbTimeline } : {}),
   };
-}
-
-/** The entity's top-of-house portfolio (the first by code), as the determinations count it. */
-async function headlineOf(entity: EntityModel): Promise<PortfolioModel | null> {
-  return PortfolioModel.findOne({
-    where: { entityId: entity.id, level: "top" },
-    order: [["code", "ASC"]],
-    attributes: ["id", "code"],
-  });
 }
 
 /** The determination that first counts an exception on `day` (the frequency in force on `asOf`). */

@@ -7,7 +7,8 @@ import type { Transaction } from "sequelize";
 import type { EntityModel } from "../../models/entity";
 import { PortfolioModel } from "../../models/portfolio";
 import { FrtbDeskStatusModel } from "../../models/frtb-desk-status";
-import { loadSeries } from "../observations/observations.repository";
+import { loadSeries, loadSeriesTail } from "../observations/observations.repository";
+import { STARTING_POINT_OBSERVATIONS } from "../../../shared/backtest/forecast";
 import { approvedExclusions } from "../figures/engine-inputs";
 import {
   deskStandingAt,
@@ -51,8 +52,12 @@ async function deskSeries(
     { transaction },
   );
   for (const portfolio of desks) {
-    // MAR32.5(2): a desk's unreported business day counts as an exception.
-    const raw = await loadSeries(portfolio.id, entity.regime, undefined, to, transaction);
+    // MAR32.5(2): a desk's unreported business day counts as an exception. A figure on a date
+    // reads only the days its windows reach (250, docs/rules.md), whatever the desk's history.
+    const raw =
+      to === undefined
+        ? await loadSeries(portfolio.id, entity.regime, undefined, undefined, transaction)
+        : await loadSeriesTail(portfolio.id, entity.regime, to, STARTING_POINT_OBSERVATIONS);
     out.push({
       portfolio,
       series: withMissingBusinessDays(raw, holidays as Set<string>),

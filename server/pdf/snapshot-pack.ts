@@ -14,7 +14,7 @@ import {
   type Snapshot,
   type SnapshotException,
 } from "../../shared/schemas/snapshot";
-import type { ExceptionCause } from "../../shared/schemas/review";
+import { causeLabels } from "../../shared/schemas/review";
 import { drawPnlVarChart } from "./pack-chart";
 import { returnData } from "../../shared/backtest/return-data";
 import { INK, MUTED, PackLayout, WARN, amount, amount2, factor, percent, when, type Column } from "./pack-layout";
@@ -68,14 +68,6 @@ export function startPackDocument(info: { Title: string; Author: string; Subject
 }
 
 const ZONE_WORDS = { green: "Green", yellow: "Yellow", red: "Red" } as const;
-const CAUSE_WORDS: Record<ExceptionCause, string> = {
-  market_move: "Market move",
-  model_limitation: "Model limitation",
-  data_issue: "Data issue",
-  intraday_trading: "Intraday trading",
-  pricing: "Pricing",
-  other: "Other",
-};
 
 /** A person who signed the snapshot, as the pack names them. */
 export interface Signatory {
@@ -338,7 +330,7 @@ export async function renderSnapshotPack(s: Snapshot, extras: PackExtras = {}): 
           e.actual ? amount(e.excessActual) : "—",
           e.hypothetical ? amount(e.excessHypothetical) : "—",
           `${[e.actual ? "actual" : null, e.hypothetical ? "hyp." : null].filter(Boolean).join(", ")}${e.excluded ? " (excluded)" : ""}`,
-          e.cause ? CAUSE_WORDS[e.cause] : "Not reviewed",
+          e.cause ? causeLabels[e.cause] : "Not reviewed",
         ],
         note: `${e.narrative ? `Explanation: ${e.narrative}` : "No explanation recorded when the figures were prepared."} Supervisor: ${decisionWords(e)}`,
         noteColour: e.narrative ? INK : WARN,

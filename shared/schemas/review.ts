@@ -11,6 +11,16 @@ export const exceptionCauseSchema = z.enum([
   "other",
 ]);
 export type ExceptionCause = z.infer<typeof exceptionCauseSchema>;
+
+/** Each cause in words, as the screens and the pack name it. */
+export const causeLabels: Record<ExceptionCause, string> = {
+  market_move: "Market move",
+  model_limitation: "Model limitation",
+  data_issue: "Data issue",
+  intraday_trading: "Intraday trading",
+  pricing: "Pricing",
+  other: "Other",
+};
 export const exclusionStatusSchema = z.enum(["none", "requested", "approved", "rejected"]);
 export type ExclusionStatus = z.infer<typeof exclusionStatusSchema>;
 export const exceptionParamSchema = portfolioCodeParamSchema.extend({ date: isoDateSchema });

@@ -1,14 +1,7 @@
-import type { ExceptionCause, ExclusionStatus } from "@shared/schemas/review";
+import { causeLabels, type ExceptionCause, type ExclusionStatus } from "@shared/schemas/review";
 import type { ExceptionDayDto } from "@shared/schemas/backtest";
 
-export const causeLabels: Record<ExceptionCause, string> = {
-  market_move: "Market move",
-  model_limitation: "Model limitation",
-  data_issue: "Data issue",
-  intraday_trading: "Intraday trading",
-  pricing: "Pricing",
-  other: "Other",
-};
+export { causeLabels };
 export const causeIds = Object.keys(causeLabels) as ExceptionCause[];
 
 export const exclusionStatusLabels: Record<ExclusionStatus, string> = {

@@ -1,6 +1,6 @@
 import { createHash } from "node:crypto";
 import stableStringify from "fast-json-stable-stringify";
-import { AppError, NotFoundError } from "../../errors";
+import { NotFoundError } from "../../errors";
 import { PortfolioModel } from "../../models/portfolio";
 import type { EntityModel } from "../../models/entity";
 import { backtestAt } from "../../../shared/backtest/exceptions";
@@ -10,15 +10,13 @@ import { getRegime } from "../../../shared/backtest/regimes";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { approvedSettings, fallbackSettings } from "../settings/settings.read";
 import type { Transaction } from "sequelize";
-import { addBusinessDays, isBusinessDay } from "../../../shared/backtest/calendar";
 import { EngineInputError } from "../../../shared/backtest/errors";
 import { ENGINE_VERSION } from "../../../shared/backtest/version";
 import { PNL_COMPONENTS } from "../../../shared/backtest/pnl-definition";
 import { loadSeries } from "../observations/observations.repository";
 import { deskResults } from "../figures/stored-figures";
 import { frtbFiguresOn } from "../frtb/frtb.store";
-import { loadPortfolioContext } from "../figures/engine-inputs";
-import { quarterLabel } from "../../../shared/backtest/quarters";
+import { assertQuarterComplete, loadPortfolioContext } from "../figures/engine-inputs";
 import {
   type SnapshotCapitalDetail,
   type SnapshotDay,
@@ -75,20 +73,8 @@ export async function quarterFigures(
     throw new NotFoundError(`${entity.code} has no top-of-house portfolio; an admin adds one under Admin › Entities.`);
   const ctx = await loadPortfolioContext(top.code);
   const series = ctx.series.filter((o) => o.date <= quarterEnd);
-  const lastBusinessDay = isBusinessDay(quarterEnd, ctx.holidays)
-    ? quarterEnd
-    : addBusinessDays(quarterEnd, -1, ctx.holidays);
-  const reported = [...series]
-    .reverse()
-    .find((o) => o.actualPnl !== null || o.hypotheticalPnl !== null || o.var99 !== null);
-  if (!reported || reported.date < lastBusinessDay) {
-    throw new AppError(
-      422,
-      "quarter_data_incomplete",
-      `${top.code} has no daily data for ${lastBusinessDay}, the last business day of ${quarterLabel(quarterEnd)}${reported ? ` (its data ends on ${reported.date})` : ""}. Upload it under Data first.`,
-    );
-  }
-  const asOf = lastBusinessDay;
+  // Complete on its last business day, or refused (one rule, with the stored figures' own).
+  const asOf = assertQuarterComplete(ctx, quarterEnd);
   // The settings in force on the quarter's last business day (a later change never reaches back).
   const settings = settingsOn(await approvedSettings(entity.id, transaction), asOf) ?? fallbackSettings(entity);
   const opts = {

@@ -1,3 +1,4 @@
+import { rollingRowsBetween } from "../figures/rolling-slice";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { PortfolioModel } from "../../models/portfolio";
@@ -49,15 +50,12 @@ export async function getBacktest(code: string, asOf?: string): Promise<Backtest
   return withReviews(ctx.portfolio.id, await backtestResponse(ctx, asOf, portfolios));
 }
 
-/** The rolling series as stored JSON (the whole history), or the rows between two dates. */
+/** The rolling series as stored JSON (the whole history), or the rows between two dates cut from its text. */
 export async function getRollingJson(code: string, range: { from?: string; to?: string }): Promise<string> {
   const stored = await storedByCode(code, ["rolling_json"]);
   const json = stored.rolling_json ?? "[]";
   if (!range.from && !range.to) return json;
-  const rows = (JSON.parse(json) as RollingRowDto[]).filter(
-    (r) => (!range.from || r.date >= range.from) && (!range.to || r.date <= range.to),
-  );
-  return JSON.stringify(rows);
+  return rollingRowsBetween(json, range.from || undefined, range.to || undefined);
 }
 
 export async function getRolling(code: string, range: { from?: string; to?: string }): Promise<RollingRowDto[]> {

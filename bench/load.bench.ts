@@ -18,11 +18,10 @@
  * LOAD_REQUESTS, LOAD_SECONDS and LOAD_WORKERS ("1,default") change the bounds and the runs;
  * LOAD_ONLY picks endpoints by a part of their name.
  */
-import { spawnSync } from "node:child_process";
 import { existsSync } from "node:fs";
 import path from "node:path";
 import autocannon from "autocannon";
-import { projectRoot } from "../scripts/lib/run";
+import { projectRoot, runBin } from "../scripts/lib/run";
 import { prepareLoadDatabase } from "./lib/load-data";
 import { startBuiltServer, type BenchServer } from "./lib/bench-server";
 
@@ -246,14 +245,13 @@ function endpointsFor(portfolios: string[], entities: string[], snapshotIds: num
 }
 
 /** The static floor is the built client's index.html: build it when this checkout has none. */
-function ensureClientBuilt(): void {
+async function ensureClientBuilt(): Promise<void> {
   if (existsSync(path.join(projectRoot, "dist/client/index.html"))) return;
-  const build = spawnSync("npx", ["vite", "build", "--logLevel", "warn"], { cwd: projectRoot, stdio: "inherit" });
-  if (build.status !== 0) throw new Error("vite build failed");
+  if ((await runBin("vite", ["build", "--logLevel", "warn"])) !== 0) throw new Error("vite build failed");
 }
 
 async function main() {
-  ensureClientBuilt();
+  await ensureClientBuilt();
   const data = await prepareLoadDatabase("quartermark_load", 20);
   // LOAD_ONLY=queue measures only the endpoints whose name holds that text (with the floors).
   const only = process.env.LOAD_ONLY;

@@ -27,7 +27,7 @@ import {
   previewHolidayImport,
   removeHoliday,
 } from "../../server/modules/entities/entities.service";
-import { computePortfolioFigures, storedStart } from "../../server/modules/figures/stored-figures";
+import { storedStart } from "../../server/modules/figures/stored-figures";
 import {
   entityWithPortfolios,
   loadStartingPoint,
@@ -48,6 +48,7 @@ import {
 } from "../../shared/backtest/determination";
 import type { BacktestResponse } from "../../shared/schemas/backtest";
 import { createTestEntity, createTestUser, unique } from "./helpers";
+import { storedAndFresh } from "./support/stored-and-fresh";
 
 type Actor = Parameters<typeof commitUpload>[1];
 
@@ -280,31 +281,18 @@ async function apply(run: Run, c: Command): Promise<void> {
 
 /** Every stored row of the entity against a fresh computation from the data as it now is. */
 async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
-  const { entity, portfolios } = await entityWithPortfolios(entityId);
-  for (const p of portfolios) {
-    const fresh = JSON.parse(JSON.stringify(await computePortfolioFigures(p, entity, portfolios)));
-    const [row] = await sequelize.query<{
-      as_of: string | null;
-      backtest_json: string | null;
-      rolling_json: string;
-      overview_json: string | null;
-      start_json: string | null;
-    }>(
-      `SELECT DATE_FORMAT(as_of, '%Y-%m-%d') AS as_of, backtest_json, rolling_json, overview_json, start_json
-         FROM portfolio_figures WHERE portfolio_id = :id`,
-      { replacements: { id: p.id }, type: QueryTypes.SELECT },
-    );
+  const { entity } = await entityWithPortfolios(entityId);
+  for (const { portfolio: p, stored: row, fresh } of await storedAndFresh(entityId)) {
     expect(row, `a stored row for ${p.code}`).toBeDefined();
-    const parse = (s: string | null) => (s === null ? null : JSON.parse(s));
-    expect(row.as_of).toEqual(fresh.asOf);
-    expect(parse(row.backtest_json)).toEqual(fresh.backtest);
-    expect(parse(row.rolling_json)).toEqual(fresh.rolling);
-    expect(parse(row.overview_json)).toEqual(fresh.overview);
-    expect(parse(row.start_json)).toEqual(fresh.start);
+    expect(row!.asOf).toEqual(fresh.asOf);
+    expect(row!.backtest).toEqual(fresh.backtest);
+    expect(row!.rolling).toEqual(fresh.rolling);
+    expect(row!.overview).toEqual(fresh.overview);
+    expect(row!.start).toEqual(fresh.start);
 
     // Beside the recompute, an oracle from the engine: the stored backtest counts on the basis and
     // carries the multiplier of the settings in force on its own day, not the entity's columns.
-    const stored = parse(row.backtest_json) as BacktestResponse | null;
+    const stored = row!.backtest as BacktestResponse | null;
     if (stored) {
       const settings = settingsOn(await approvedSettings(entityId), stored.asOf) ?? fallbackSettings(entity);
       expect(stored.pnlBasis).toBe(settings.pnlBasis);

@@ -22,28 +22,18 @@ await migrateUp();
 const { seedDemo } = await import("../../../server/db/seeder");
 const seeded = await seedDemo();
 
-const { QueryTypes } = await import("sequelize");
 const { sequelize } = await import("../../../server/db/sequelize");
-const { computePortfolioFigures } = await import("../../../server/modules/figures/stored-figures");
 const { EntityModel } = await import("../../../server/models/entity");
-const { PortfolioModel } = await import("../../../server/models/portfolio");
+const { storedAndFresh } = await import("./stored-and-fresh");
 
-const parts = ["backtest", "rolling", "overview", "start"] as const;
+const parts = ["asOf", "backtest", "rolling", "overview", "start"] as const;
 const differences: string[] = [];
 let compared = 0;
 for (const entity of await EntityModel.findAll({ order: [["code", "ASC"]] })) {
-  const portfolios = await PortfolioModel.findAll({ where: { entityId: entity.id }, order: [["code", "ASC"]] });
-  for (const p of portfolios) {
-    const fresh = JSON.parse(JSON.stringify(await computePortfolioFigures(p, entity, portfolios)));
-    const [row] = await sequelize.query<Record<string, string | null>>(
-      `SELECT backtest_json AS backtest, rolling_json AS rolling, overview_json AS overview, start_json AS start
-         FROM portfolio_figures WHERE portfolio_id = ?`,
-      { replacements: [p.id], type: QueryTypes.SELECT },
-    );
+  for (const { portfolio, stored, fresh } of await storedAndFresh(entity.id)) {
     for (const part of parts) {
       compared++;
-      const stored = row?.[part] ? JSON.parse(row[part]!) : null;
-      if (JSON.stringify(stored) !== JSON.stringify(fresh[part] ?? null)) differences.push(`${p.code} ${part}`);
+      if (JSON.stringify(stored?.[part]) !== JSON.stringify(fresh[part])) differences.push(`${portfolio.code} ${part}`);
     }
   }
 }

@@ -1,61 +1,57 @@
 "use strict";
 /** Uploads, versioned daily observations and data-quality findings. */
-module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    const now = () => ({
-      type: DataTypes.DATE(3),
-      allowNull: false,
-      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-    });
-    const money = () => ({ type: DataTypes.DECIMAL(20, 2), allowNull: true });
+const { id, bigId, now, timestamps, version, notNull, nullable } = require("./support/columns.cjs");
 
+/** One of the upload's row counts, 0 until the file is checked. */
+const count = () => ({ ...notNull.integer(), defaultValue: 0 });
+
+module.exports = {
+  async up(qi) {
     await qi.createTable("uploads", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      file_name: { type: DataTypes.STRING(255), allowNull: false },
-      sha256: { type: DataTypes.CHAR(64), allowNull: false },
+      id: id(),
+      file_name: notNull.varchar(255),
+      sha256: notNull.char(64),
       // Set only once committed: the unique index makes "the same file twice" impossible, even at once.
-      committed_sha256: { type: DataTypes.CHAR(64), allowNull: true, unique: true },
-      size_bytes: { type: DataTypes.INTEGER, allowNull: false },
+      committed_sha256: { ...nullable.char(64), unique: true },
+      size_bytes: notNull.integer(),
       // The uploaded file, gzip-compressed (server/modules/uploads/stored-bytes.ts).
-      content: { type: DataTypes.BLOB("long"), allowNull: true },
+      content: nullable.blob("long"),
       // The preview's valid rows, already checked and converted, so the commit need not parse the file again (gzip).
-      checked_rows: { type: DataTypes.BLOB("long"), allowNull: true },
-      uploaded_by: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" } },
-      status: { type: DataTypes.ENUM("preview", "committed", "discarded"), allowNull: false },
-      row_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      valid_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      invalid_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      new_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      restated_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      unchanged_count: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      inserted_count: { type: DataTypes.INTEGER, allowNull: true },
-      errors_json: { type: DataTypes.TEXT("long"), allowNull: true },
-      summary_json: { type: DataTypes.TEXT, allowNull: true },
-      committed_at: { type: DataTypes.DATE(3), allowNull: true },
-      created_at: now(),
-      updated_at: now(),
+      checked_rows: nullable.blob("long"),
+      uploaded_by: notNull.ref("users"),
+      status: notNull.oneOf("preview", "committed", "discarded"),
+      row_count: count(),
+      valid_count: count(),
+      invalid_count: count(),
+      new_count: count(),
+      restated_count: count(),
+      unchanged_count: count(),
+      inserted_count: nullable.integer(),
+      errors_json: nullable.text("long"),
+      summary_json: nullable.text(),
+      committed_at: nullable.dateTime(),
+      ...timestamps(),
     });
     await qi.addIndex("uploads", ["sha256"], { name: "uploads_sha256" });
 
     await qi.createTable("observations", {
-      id: { type: DataTypes.BIGINT, primaryKey: true, autoIncrement: true },
-      portfolio_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "portfolios", key: "id" } },
-      business_date: { type: DataTypes.DATEONLY, allowNull: false },
-      version: { type: DataTypes.INTEGER, allowNull: false },
-      is_current: { type: DataTypes.BOOLEAN, allowNull: false },
-      actual_pnl: money(),
-      hypothetical_pnl: money(),
-      var_99: money(),
-      var_975: money(),
-      svar_99: money(),
-      var_10d: money(),
-      svar_10d: money(),
-      es_975: money(),
-      ses: money(),
-      rtpl: money(),
-      upload_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "uploads", key: "id" } },
-      created_by: { type: DataTypes.INTEGER, allowNull: false },
+      id: bigId(),
+      portfolio_id: notNull.ref("portfolios"),
+      business_date: notNull.dateOnly(),
+      version: notNull.integer(),
+      is_current: notNull.boolean(),
+      actual_pnl: nullable.money(),
+      hypothetical_pnl: nullable.money(),
+      var_99: nullable.money(),
+      var_975: nullable.money(),
+      svar_99: nullable.money(),
+      var_10d: nullable.money(),
+      svar_10d: nullable.money(),
+      es_975: nullable.money(),
+      ses: nullable.money(),
+      rtpl: nullable.money(),
+      upload_id: notNull.ref("uploads"),
+      created_by: notNull.integer(),
       created_at: now(),
     });
     await qi.addIndex("observations", ["portfolio_id", "business_date", "version"], {
@@ -70,22 +66,18 @@ module.exports = {
     );
 
     await qi.createTable("data_findings", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      portfolio_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "portfolios", key: "id" } },
-      kind: {
-        type: DataTypes.ENUM("missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"),
-        allowNull: false,
-      },
-      date_from: { type: DataTypes.DATEONLY, allowNull: false },
-      date_to: { type: DataTypes.DATEONLY, allowNull: false },
-      detail: { type: DataTypes.STRING(500), allowNull: false },
-      status: { type: DataTypes.ENUM("open", "resolved", "explained"), allowNull: false, defaultValue: "open" },
-      note: { type: DataTypes.TEXT, allowNull: true },
-      closed_by: { type: DataTypes.INTEGER, allowNull: true },
-      closed_at: { type: DataTypes.DATE(3), allowNull: true },
-      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-      created_at: now(),
-      updated_at: now(),
+      id: id(),
+      portfolio_id: notNull.ref("portfolios"),
+      kind: notNull.oneOf("missing_day", "stale_var", "pnl_without_var", "var_without_pnl", "outlier"),
+      date_from: notNull.dateOnly(),
+      date_to: notNull.dateOnly(),
+      detail: notNull.varchar(500),
+      status: { ...notNull.oneOf("open", "resolved", "explained"), defaultValue: "open" },
+      note: nullable.text(),
+      closed_by: nullable.integer(),
+      closed_at: nullable.dateTime(),
+      version: version(),
+      ...timestamps(),
     });
     await qi.addIndex("data_findings", ["portfolio_id", "kind", "date_from"], {
       unique: true,

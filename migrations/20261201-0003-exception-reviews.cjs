@@ -1,34 +1,22 @@
 "use strict";
 /** Exception reviews (cause, narrative, exclusion request and the supervisor's decision) and their evidence files. */
+const { id, now, timestamps, version, notNull, nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    const now = () => ({
-      type: DataTypes.DATE(3),
-      allowNull: false,
-      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-    });
+  async up(qi) {
     await qi.createTable("exception_reviews", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      portfolio_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "portfolios", key: "id" } },
-      business_date: { type: DataTypes.DATEONLY, allowNull: false },
-      cause: {
-        type: DataTypes.ENUM("market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"),
-        allowNull: false,
-      },
-      narrative: { type: DataTypes.TEXT, allowNull: false },
-      exclusion_status: {
-        type: DataTypes.ENUM("none", "requested", "approved", "rejected"),
-        allowNull: false,
-        defaultValue: "none",
-      },
-      decision_reference: { type: DataTypes.STRING(120), allowNull: true },
-      decision_date: { type: DataTypes.DATEONLY, allowNull: true },
-      decided_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
-      reviewed_by: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" } },
-      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-      created_at: now(),
-      updated_at: now(),
+      id: id(),
+      portfolio_id: notNull.ref("portfolios"),
+      business_date: notNull.dateOnly(),
+      cause: notNull.oneOf("market_move", "model_limitation", "data_issue", "intraday_trading", "pricing", "other"),
+      narrative: notNull.text(),
+      exclusion_status: { ...notNull.oneOf("none", "requested", "approved", "rejected"), defaultValue: "none" },
+      decision_reference: nullable.varchar(120),
+      decision_date: nullable.dateOnly(),
+      decided_by: nullable.ref("users"),
+      reviewed_by: notNull.ref("users"),
+      version: version(),
+      ...timestamps(),
     });
     await qi.addIndex("exception_reviews", ["portfolio_id", "business_date"], {
       unique: true,
@@ -36,14 +24,14 @@ module.exports = {
     });
 
     await qi.createTable("evidence_files", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      review_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "exception_reviews", key: "id" } },
-      file_name: { type: DataTypes.STRING(255), allowNull: false },
-      content_type: { type: DataTypes.STRING(100), allowNull: false },
-      size_bytes: { type: DataTypes.INTEGER, allowNull: false },
-      sha256: { type: DataTypes.CHAR(64), allowNull: false },
-      content: { type: DataTypes.BLOB("long"), allowNull: false },
-      uploaded_by: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" } },
+      id: id(),
+      review_id: notNull.ref("exception_reviews"),
+      file_name: notNull.varchar(255),
+      content_type: notNull.varchar(100),
+      size_bytes: notNull.integer(),
+      sha256: notNull.char(64),
+      content: notNull.blob("long"),
+      uploaded_by: notNull.ref("users"),
       created_at: now(),
     });
   },

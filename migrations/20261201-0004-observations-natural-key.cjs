@@ -6,6 +6,8 @@
  * rows are no longer stored: the commit uses the rows the preview kept in memory, or parses the
  * stored file again (server/modules/uploads/preview-cache.ts).
  */
+const { nullable } = require("./support/columns.cjs");
+
 module.exports = {
   async up(qi) {
     await qi.sequelize.query(
@@ -14,8 +16,8 @@ module.exports = {
     await qi.removeColumn("uploads", "checked_rows");
   },
 
-  async down(qi, Sequelize) {
-    await qi.addColumn("uploads", "checked_rows", { type: Sequelize.DataTypes.BLOB("long"), allowNull: true });
+  async down(qi) {
+    await qi.addColumn("uploads", "checked_rows", nullable.blob("long"));
     await qi.sequelize.query(
       "ALTER TABLE observations DROP PRIMARY KEY, ADD UNIQUE INDEX observations_version (portfolio_id, business_date, version), " +
         "ADD COLUMN id BIGINT NOT NULL AUTO_INCREMENT PRIMARY KEY FIRST",

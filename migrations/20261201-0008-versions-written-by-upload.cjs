@@ -8,6 +8,8 @@
  * neither for them: about an eighth less work for MariaDB per 100,000-row commit
  * (bench/ingest.bench.ts).
  */
+const { now, notNull } = require("./support/columns.cjs");
+
 module.exports = {
   async up(qi) {
     await qi.sequelize.query(
@@ -27,15 +29,10 @@ module.exports = {
     );
   },
 
-  async down(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async down(qi) {
     await qi.sequelize.query("ALTER TABLE observations ALTER version DROP DEFAULT, ALTER is_current DROP DEFAULT");
-    await qi.addColumn("observations", "created_by", { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 });
-    await qi.addColumn("observations", "created_at", {
-      type: DataTypes.DATE(3),
-      allowNull: false,
-      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-    });
+    await qi.addColumn("observations", "created_by", { ...notNull.integer(), defaultValue: 0 });
+    await qi.addColumn("observations", "created_at", now());
     await qi.sequelize.query(
       `UPDATE observations o JOIN uploads u ON u.id = o.upload_id
           SET o.created_by = COALESCE(u.committed_by, u.uploaded_by), o.created_at = COALESCE(u.committed_at, u.created_at)`,

@@ -4,13 +4,6 @@
  * stale one is refused (409), so two admins editing the same user cannot both win. Existing rows
  * start at 1. It is not the token version, which only counts session revocations.
  */
-module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    await qi.addColumn("users", "version", { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 });
-  },
+const { columnAdded, version } = require("./support/columns.cjs");
 
-  async down(qi) {
-    await qi.removeColumn("users", "version");
-  },
-};
+module.exports = columnAdded("users", "version", version());

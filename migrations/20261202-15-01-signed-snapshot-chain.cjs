@@ -8,36 +8,28 @@
  */
 const path = require("node:path");
 const { pathToFileURL } = require("node:url");
+const { id, now, notNull } = require("./support/columns.cjs");
 
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    const now = () => ({
-      type: DataTypes.DATE(3),
-      allowNull: false,
-      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-    });
+  async up(qi) {
     await qi.createTable("snapshot_chain_links", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" } },
-      seq: { type: DataTypes.INTEGER, allowNull: false },
-      snapshot_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "snapshots", key: "id" } },
-      kind: {
-        type: DataTypes.ENUM("sealed", "filed", "restated", "acknowledged", "backfilled"),
-        allowNull: false,
-      },
+      id: id(),
+      entity_id: notNull.ref("entities"),
+      seq: notNull.integer(),
+      snapshot_id: notNull.ref("snapshots"),
+      kind: notNull.oneOf("sealed", "filed", "restated", "acknowledged", "backfilled"),
       // The canonical JSON the mac signs (HMAC-SHA256 with the chain key).
-      body: { type: DataTypes.TEXT("long"), allowNull: false },
-      mac: { type: DataTypes.CHAR(64), allowNull: false },
+      body: notNull.text("long"),
+      mac: notNull.char(64),
       created_at: now(),
     });
     await qi.addIndex("snapshot_chain_links", ["entity_id", "seq"], { unique: true, name: "snapshot_chain_links_seq" });
     await qi.addIndex("snapshot_chain_links", ["snapshot_id"], { name: "snapshot_chain_links_snapshot" });
     await qi.createTable("snapshot_chain_heads", {
-      entity_id: { type: DataTypes.INTEGER, primaryKey: true, references: { model: "entities", key: "id" } },
-      seq: { type: DataTypes.INTEGER, allowNull: false },
-      mac: { type: DataTypes.CHAR(64), allowNull: false },
-      head_mac: { type: DataTypes.CHAR(64), allowNull: false },
+      entity_id: notNull.ref("entities", { primaryKey: true }),
+      seq: notNull.integer(),
+      mac: notNull.char(64),
+      head_mac: notNull.char(64),
       updated_at: now(),
     });
     const backfill = path.join(__dirname, "..", "server", "modules", "snapshot-chain", "backfill.ts");

@@ -7,20 +7,20 @@
  */
 const path = require("node:path");
 const { pathToFileURL } = require("node:url");
+const { notNull, nullable } = require("./support/columns.cjs");
 
 module.exports = {
   async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    await qi.addColumn("audit_events", "mac", { type: DataTypes.CHAR(64), allowNull: true });
-    await qi.addColumn("audit_events", "seq", { type: DataTypes.BIGINT, allowNull: true });
-    await qi.addColumn("audit_events", "chain_mac", { type: DataTypes.CHAR(64), allowNull: true });
+    await qi.addColumn("audit_events", "mac", nullable.char(64));
+    await qi.addColumn("audit_events", "seq", nullable.bigint());
+    await qi.addColumn("audit_events", "chain_mac", nullable.char(64));
     await qi.addIndex("audit_events", ["seq"], { unique: true, name: "audit_events_seq" });
     await qi.addIndex("audit_events", ["mac"], { name: "audit_events_mac" });
     await qi.createTable("audit_chain_head", {
-      id: { type: DataTypes.TINYINT, primaryKey: true },
-      seq: { type: DataTypes.BIGINT, allowNull: false },
-      chain_mac: { type: DataTypes.CHAR(64), allowNull: true },
-      head_mac: { type: DataTypes.CHAR(64), allowNull: false },
+      id: { type: Sequelize.DataTypes.TINYINT, primaryKey: true },
+      seq: notNull.bigint(),
+      chain_mac: nullable.char(64),
+      head_mac: notNull.char(64),
     });
     const backfill = path.join(__dirname, "..", "server", "modules", "snapshot-chain", "backfill.ts");
     const { backfillAuditChain } = await import(pathToFileURL(backfill).href);

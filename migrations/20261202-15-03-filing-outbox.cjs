@@ -8,48 +8,32 @@
  * and every filing a Message-ID.
  */
 const { randomBytes } = require("node:crypto");
+const { id, timestamps, notNull, nullable } = require("./support/columns.cjs");
+
+/** filings.delivery before and after this migration. */
+const delivery = (values, defaultValue) => ({ ...notNull.oneOf(...values), defaultValue });
 
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    const now = () => ({
-      type: DataTypes.DATE(3),
-      allowNull: false,
-      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-    });
+  async up(qi) {
     await qi.createTable("filing_deliveries", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      filing_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        references: { model: "filings", key: "id" },
-        onDelete: "CASCADE",
-      },
-      recipient: { type: DataTypes.STRING(254), allowNull: false },
-      status: {
-        type: DataTypes.ENUM("pending", "sending", "accepted", "refused", "unknown"),
-        allowNull: false,
-        defaultValue: "pending",
-      },
-      attempts: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-      claimed_at: { type: DataTypes.DATE(3), allowNull: true },
+      id: id(),
+      filing_id: notNull.ref("filings", { onDelete: "CASCADE" }),
+      recipient: notNull.varchar(254),
+      status: { ...notNull.oneOf("pending", "sending", "accepted", "refused", "unknown"), defaultValue: "pending" },
+      attempts: { ...notNull.integer(), defaultValue: 0 },
+      claimed_at: nullable.dateTime(),
       // The mail server's last answer for this recipient ("250 …", "550 …") or why it could not be reached.
-      detail: { type: DataTypes.STRING(500), allowNull: true },
-      accepted_at: { type: DataTypes.DATE(3), allowNull: true },
-      created_at: now(),
-      updated_at: now(),
+      detail: nullable.varchar(500),
+      accepted_at: nullable.dateTime(),
+      ...timestamps(),
     });
     await qi.addIndex("filing_deliveries", ["filing_id", "recipient"], {
       unique: true,
       name: "filing_deliveries_one_per_recipient",
     });
     await qi.addIndex("filing_deliveries", ["status"], { name: "filing_deliveries_status" });
-    await qi.changeColumn("filings", "delivery", {
-      type: DataTypes.ENUM("pending", "partial", "sent"),
-      allowNull: false,
-      defaultValue: "pending",
-    });
-    await qi.addColumn("filings", "acknowledged_sha256", { type: DataTypes.CHAR(64), allowNull: true });
+    await qi.changeColumn("filings", "delivery", delivery(["pending", "partial", "sent"], "pending"));
+    await qi.addColumn("filings", "acknowledged_sha256", nullable.char(64));
 
     const [filings] = await qi.sequelize.query(
       "SELECT id, recipients_json, delivery, message_id, sent_at, pack_sha256, acknowledged_at FROM filings",
@@ -76,15 +60,10 @@ module.exports = {
     }
   },
 
-  async down(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async down(qi) {
     await qi.removeColumn("filings", "acknowledged_sha256");
     await qi.sequelize.query("UPDATE filings SET delivery = 'sent' WHERE delivery = 'partial'");
-    await qi.changeColumn("filings", "delivery", {
-      type: DataTypes.ENUM("pending", "sent"),
-      allowNull: false,
-      defaultValue: "sent",
-    });
+    await qi.changeColumn("filings", "delivery", delivery(["pending", "sent"], "sent"));
     await qi.dropTable("filing_deliveries");
   },
 };

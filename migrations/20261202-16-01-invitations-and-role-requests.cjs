@@ -7,57 +7,40 @@
  * removal of the CRO or administrator role, proposed by one administrator and approved or
  * rejected by another; `pending_email` lets only one request per person wait at a time.
  */
+const { id, now, notNull, nullable } = require("./support/columns.cjs");
+
 const ROLES = ["analyst", "cro", "treasury", "regulator", "admin"];
 
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    await qi.changeColumn("users", "password_hash", { type: DataTypes.STRING(100), allowNull: true });
+  async up(qi) {
+    await qi.changeColumn("users", "password_hash", nullable.varchar(100));
 
     await qi.createTable("user_invitations", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      user_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        references: { model: "users", key: "id" },
-        onDelete: "CASCADE",
-      },
-      purpose: { type: DataTypes.ENUM("invite", "reset"), allowNull: false },
-      token_hash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },
-      created_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
-      created_at: {
-        type: DataTypes.DATE(3),
-        allowNull: false,
-        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-      },
-      expires_at: { type: DataTypes.DATE(3), allowNull: false },
-      used_at: { type: DataTypes.DATE(3), allowNull: true },
-      revoked_at: { type: DataTypes.DATE(3), allowNull: true },
+      id: id(),
+      user_id: notNull.ref("users", { onDelete: "CASCADE" }),
+      purpose: notNull.oneOf("invite", "reset"),
+      token_hash: { ...notNull.char(64), unique: true },
+      created_by: nullable.ref("users"),
+      created_at: now(),
+      expires_at: notNull.dateTime(),
+      used_at: nullable.dateTime(),
+      revoked_at: nullable.dateTime(),
     });
     await qi.addIndex("user_invitations", ["user_id", "created_at"], { name: "user_invitations_user_created" });
 
     await qi.createTable("role_requests", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      kind: { type: DataTypes.ENUM("invite", "change"), allowNull: false },
-      user_id: {
-        type: DataTypes.INTEGER,
-        allowNull: true,
-        references: { model: "users", key: "id" },
-        onDelete: "CASCADE",
-      },
-      email: { type: DataTypes.STRING(190), allowNull: false },
-      name: { type: DataTypes.STRING(120), allowNull: false },
-      from_role: { type: DataTypes.ENUM(...ROLES), allowNull: true },
-      to_role: { type: DataTypes.ENUM(...ROLES), allowNull: false },
-      status: { type: DataTypes.ENUM("pending", "approved", "rejected"), allowNull: false, defaultValue: "pending" },
-      proposed_by: { type: DataTypes.INTEGER, allowNull: false, references: { model: "users", key: "id" } },
-      proposed_at: {
-        type: DataTypes.DATE(3),
-        allowNull: false,
-        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-      },
-      decided_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
-      decided_at: { type: DataTypes.DATE(3), allowNull: true },
+      id: id(),
+      kind: notNull.oneOf("invite", "change"),
+      user_id: nullable.ref("users", { onDelete: "CASCADE" }),
+      email: notNull.varchar(190),
+      name: notNull.varchar(120),
+      from_role: nullable.oneOf(...ROLES),
+      to_role: notNull.oneOf(...ROLES),
+      status: { ...notNull.oneOf("pending", "approved", "rejected"), defaultValue: "pending" },
+      proposed_by: notNull.ref("users"),
+      proposed_at: now(),
+      decided_by: nullable.ref("users"),
+      decided_at: nullable.dateTime(),
     });
     await qi.sequelize.query(
       "ALTER TABLE role_requests ADD COLUMN pending_email VARCHAR(190) AS (IF(status = 'pending', email, NULL)) PERSISTENT, " +
@@ -65,12 +48,11 @@ module.exports = {
     );
   },
 
-  async down(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async down(qi) {
     await qi.dropTable("role_requests");
     await qi.dropTable("user_invitations");
     // Accounts still waiting for their first password get one nobody can match ("!" is no bcrypt hash).
     await qi.sequelize.query("UPDATE users SET password_hash = '!' WHERE password_hash IS NULL");
-    await qi.changeColumn("users", "password_hash", { type: DataTypes.STRING(100), allowNull: false });
+    await qi.changeColumn("users", "password_hash", notNull.varchar(100));
   },
 };

@@ -7,36 +7,27 @@
  * entity's current columns (pnl_basis, qualitative_addend) become its first approved record, in
  * force from the start, so no figure of the past changes.
  */
+const { id, timestamps, notNull, nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    const now = () => ({
-      type: DataTypes.DATE(3),
-      allowNull: false,
-      defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-    });
+  async up(qi) {
     await qi.createTable("supervisory_settings", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" } },
-      effective_from: { type: DataTypes.DATEONLY, allowNull: false },
-      reference: { type: DataTypes.STRING(200), allowNull: false },
-      pnl_basis: { type: DataTypes.ENUM("actual", "hypothetical", "max"), allowNull: false },
-      qualitative_addend: { type: DataTypes.DECIMAL(6, 4), allowNull: false },
-      qualitative_addend_svar: { type: DataTypes.DECIMAL(6, 4), allowNull: true },
-      multiplier_floor: { type: DataTypes.DECIMAL(6, 4), allowNull: true },
-      determination_frequency: {
-        type: DataTypes.ENUM("quarterly", "monthly"),
-        allowNull: false,
-        defaultValue: "quarterly",
-      },
-      status: { type: DataTypes.ENUM("proposed", "approved", "rejected"), allowNull: false },
-      proposed_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
-      proposed_at: { type: DataTypes.DATE(3), allowNull: true },
-      decided_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
-      decided_at: { type: DataTypes.DATE(3), allowNull: true },
-      decision_comment: { type: DataTypes.STRING(500), allowNull: true },
-      created_at: now(),
-      updated_at: now(),
+      id: id(),
+      entity_id: notNull.ref("entities"),
+      effective_from: notNull.dateOnly(),
+      reference: notNull.varchar(200),
+      pnl_basis: notNull.oneOf("actual", "hypothetical", "max"),
+      qualitative_addend: notNull.decimal(6, 4),
+      qualitative_addend_svar: nullable.decimal(6, 4),
+      multiplier_floor: nullable.decimal(6, 4),
+      determination_frequency: { ...notNull.oneOf("quarterly", "monthly"), defaultValue: "quarterly" },
+      status: notNull.oneOf("proposed", "approved", "rejected"),
+      proposed_by: nullable.ref("users"),
+      proposed_at: nullable.dateTime(),
+      decided_by: nullable.ref("users"),
+      decided_at: nullable.dateTime(),
+      decision_comment: nullable.varchar(500),
+      ...timestamps(),
     });
     await qi.addIndex("supervisory_settings", ["entity_id", "status", "effective_from"], {
       name: "supervisory_settings_in_force",

@@ -6,24 +6,19 @@
  * changes them refreshes them in its own transaction (server/modules/figures/stored-figures.ts).
  * A portfolio without a row (made before this table, or new) is computed on its first read.
  */
+const { notNull, nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async up(qi) {
     await qi.createTable("portfolio_figures", {
-      portfolio_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        primaryKey: true,
-        references: { model: "portfolios", key: "id" },
-        onDelete: "CASCADE",
-      },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" } },
-      engine_version: { type: DataTypes.STRING(20), allowNull: false },
-      as_of: { type: DataTypes.DATEONLY, allowNull: true },
-      backtest_json: { type: DataTypes.TEXT("long"), allowNull: true },
-      rolling_json: { type: DataTypes.TEXT("long"), allowNull: false },
-      overview_json: { type: DataTypes.TEXT, allowNull: true },
-      refreshed_at: { type: DataTypes.DATE(3), allowNull: false },
+      portfolio_id: notNull.ref("portfolios", { primaryKey: true, onDelete: "CASCADE" }),
+      entity_id: notNull.ref("entities"),
+      engine_version: notNull.varchar(20),
+      as_of: nullable.dateOnly(),
+      backtest_json: nullable.text("long"),
+      rolling_json: notNull.text("long"),
+      overview_json: nullable.text(),
+      refreshed_at: notNull.dateTime(),
     });
     await qi.addIndex("portfolio_figures", ["entity_id"], { name: "portfolio_figures_entity" });
   },

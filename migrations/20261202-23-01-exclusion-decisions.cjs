@@ -5,29 +5,20 @@
  * columns (exclusion_status, decision_reference, decision_date, decided_by) for the engine's reads.
  * Decisions recorded before this table existed are copied in once, as they stand.
  */
+const { id, notNull, nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async up(qi) {
     await qi.createTable("exclusion_decisions", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      review_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        references: { model: "exception_reviews", key: "id" },
-        onDelete: "CASCADE",
-      },
-      decision: { type: DataTypes.ENUM("approved", "rejected"), allowNull: false },
-      reference: { type: DataTypes.STRING(120), allowNull: false },
-      decided_on: { type: DataTypes.DATEONLY, allowNull: false },
-      decided_by: { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } },
-      recorded_at: { type: DataTypes.DATE(3), allowNull: false },
-      supersedes_id: {
-        type: DataTypes.INTEGER,
-        allowNull: true,
-        unique: true,
-        references: { model: "exclusion_decisions", key: "id" },
-      },
-      correction_reason: { type: DataTypes.STRING(500), allowNull: true },
+      id: id(),
+      review_id: notNull.ref("exception_reviews", { onDelete: "CASCADE" }),
+      decision: notNull.oneOf("approved", "rejected"),
+      reference: notNull.varchar(120),
+      decided_on: notNull.dateOnly(),
+      decided_by: nullable.ref("users"),
+      recorded_at: notNull.dateTime(),
+      supersedes_id: nullable.ref("exclusion_decisions", { unique: true }),
+      correction_reason: nullable.varchar(500),
     });
     await qi.addIndex("exclusion_decisions", ["review_id", "id"], { name: "exclusion_decisions_review" });
     await qi.sequelize.query(

@@ -5,16 +5,7 @@
  * risk charge) and, at the top of house, the standardised charge of the desks in the model
  * together. All optional, DECIMAL(20,2) like the other amounts.
  */
+const { columnsAdded } = require("./support/columns.cjs");
 const COLUMNS = ["ima_drc", "sbm", "rrao", "sa_drc", "sa_ga"];
 
-module.exports = {
-  async up(qi) {
-    await qi.sequelize.query(
-      `ALTER TABLE observations ${COLUMNS.map((c) => `ADD COLUMN ${c} DECIMAL(20,2) NULL`).join(", ")}`,
-    );
-  },
-
-  async down(qi) {
-    await qi.sequelize.query(`ALTER TABLE observations ${COLUMNS.map((c) => `DROP COLUMN ${c}`).join(", ")}`);
-  },
-};
+module.exports = columnsAdded("observations", COLUMNS, "DECIMAL(20,2) NULL");

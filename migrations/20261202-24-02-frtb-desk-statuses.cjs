@@ -5,30 +5,26 @@
  * backtesting counts and PLA zone that decided it. Refreshed with the determinations inside every
  * writing transaction (server/modules/determinations/determinations.store.ts).
  */
+const { id, notNull, nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async up(qi) {
     await qi.createTable("frtb_desk_statuses", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      entity_id: { type: DataTypes.INTEGER, allowNull: false, references: { model: "entities", key: "id" } },
-      portfolio_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        references: { model: "portfolios", key: "id" },
-        onDelete: "CASCADE",
-      },
-      period_end: { type: DataTypes.DATEONLY, allowNull: false },
-      as_of: { type: DataTypes.DATEONLY, allowNull: false },
-      effective_from: { type: DataTypes.DATEONLY, allowNull: false },
-      status: { type: DataTypes.ENUM("in-model", "amber", "out-of-model"), allowNull: false },
-      reason: { type: DataTypes.STRING(300), allowNull: false },
-      backtest99: { type: DataTypes.INTEGER, allowNull: false },
-      backtest975: { type: DataTypes.INTEGER, allowNull: false },
-      backtest_passes: { type: DataTypes.BOOLEAN, allowNull: false },
-      pla_zone: { type: DataTypes.ENUM("green", "amber", "red"), allowNull: true },
-      pla_observations: { type: DataTypes.INTEGER, allowNull: false },
-      spearman: { type: DataTypes.DOUBLE, allowNull: true },
-      ks: { type: DataTypes.DOUBLE, allowNull: true },
+      id: id(),
+      entity_id: notNull.ref("entities"),
+      portfolio_id: notNull.ref("portfolios", { onDelete: "CASCADE" }),
+      period_end: notNull.dateOnly(),
+      as_of: notNull.dateOnly(),
+      effective_from: notNull.dateOnly(),
+      status: notNull.oneOf("in-model", "amber", "out-of-model"),
+      reason: notNull.varchar(300),
+      backtest99: notNull.integer(),
+      backtest975: notNull.integer(),
+      backtest_passes: notNull.boolean(),
+      pla_zone: nullable.oneOf("green", "amber", "red"),
+      pla_observations: notNull.integer(),
+      spearman: nullable.double(),
+      ks: nullable.double(),
     });
     await qi.addIndex("frtb_desk_statuses", ["portfolio_id", "period_end"], {
       unique: true,

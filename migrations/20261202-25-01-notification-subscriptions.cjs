@@ -3,23 +3,14 @@
  * Which e-mail notifications a person has chosen to receive: one row per person and kind (only
  * kinds whose audience includes their role). Nobody is sent anything they did not choose.
  */
+const { now, notNull } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
+  async up(qi) {
     await qi.createTable("notification_subscriptions", {
-      user_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        primaryKey: true,
-        references: { model: "users", key: "id" },
-        onDelete: "CASCADE",
-      },
-      kind: { type: DataTypes.STRING(40), allowNull: false, primaryKey: true },
-      created_at: {
-        type: DataTypes.DATE(3),
-        allowNull: false,
-        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-      },
+      user_id: notNull.ref("users", { primaryKey: true, onDelete: "CASCADE" }),
+      kind: { ...notNull.varchar(40), primaryKey: true },
+      created_at: now(),
     });
   },
 

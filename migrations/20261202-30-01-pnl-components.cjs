@@ -4,16 +4,7 @@
  * fees and commissions, reserves and valuation adjustments, net interest income, intraday trading and
  * new-trade P&L. All optional and signed, DECIMAL(20,2) like the other amounts.
  */
+const { columnsAdded } = require("./support/columns.cjs");
 const COLUMNS = ["fees_commissions", "reserves_adjustments", "net_interest_income", "intraday_pnl", "new_trade_pnl"];
 
-module.exports = {
-  async up(qi) {
-    await qi.sequelize.query(
-      `ALTER TABLE observations ${COLUMNS.map((c) => `ADD COLUMN ${c} DECIMAL(20,2) NULL`).join(", ")}`,
-    );
-  },
-
-  async down(qi) {
-    await qi.sequelize.query(`ALTER TABLE observations ${COLUMNS.map((c) => `DROP COLUMN ${c}`).join(", ")}`);
-  },
-};
+module.exports = columnsAdded("observations", COLUMNS, "DECIMAL(20,2) NULL");

@@ -6,51 +6,36 @@
  * CRO sends it; a restatement that leaves the day no overshooting withdraws an unsent one (kept).
  * `reminded_at` is claimed once by whichever server process sends the "coming due" e-mail.
  */
+const { id, timestamps, version, notNull, nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    const money = { type: DataTypes.DECIMAL(20, 2), allowNull: true };
-    const who = { type: DataTypes.INTEGER, allowNull: true, references: { model: "users", key: "id" } };
+  async up(qi) {
     await qi.createTable("overshooting_notices", {
-      id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true },
-      portfolio_id: {
-        type: DataTypes.INTEGER,
-        allowNull: false,
-        references: { model: "portfolios", key: "id" },
-        onDelete: "CASCADE",
-      },
-      business_date: { type: DataTypes.DATEONLY, allowNull: false },
-      status: { type: DataTypes.ENUM("open", "sent", "withdrawn"), allowNull: false, defaultValue: "open" },
-      revealed_on: { type: DataTypes.DATEONLY, allowNull: false },
-      due_on: { type: DataTypes.DATEONLY, allowNull: false },
-      upload_id: { type: DataTypes.INTEGER, allowNull: true, references: { model: "uploads", key: "id" } },
-      series: { type: DataTypes.ENUM("actual", "hypothetical", "both"), allowNull: false },
-      actual_pnl: money,
-      hypothetical_pnl: money,
-      var_99: money,
-      excess: money,
-      cause: { type: DataTypes.TEXT, allowNull: true },
-      drafted_by: who,
-      drafted_at: { type: DataTypes.DATE(3), allowNull: true },
-      sent_by: who,
-      sent_at: { type: DataTypes.DATE(3), allowNull: true },
-      recipients_json: { type: DataTypes.TEXT, allowNull: true },
-      message_id: { type: DataTypes.STRING(200), allowNull: true },
-      pdf_sha256: { type: DataTypes.CHAR(64), allowNull: true },
-      withdrawn_at: { type: DataTypes.DATE(3), allowNull: true },
-      note: { type: DataTypes.STRING(500), allowNull: true },
-      reminded_at: { type: DataTypes.DATE(3), allowNull: true },
-      version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
-      created_at: {
-        type: DataTypes.DATE(3),
-        allowNull: false,
-        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-      },
-      updated_at: {
-        type: DataTypes.DATE(3),
-        allowNull: false,
-        defaultValue: Sequelize.literal("CURRENT_TIMESTAMP(3)"),
-      },
+      id: id(),
+      portfolio_id: notNull.ref("portfolios", { onDelete: "CASCADE" }),
+      business_date: notNull.dateOnly(),
+      status: { ...notNull.oneOf("open", "sent", "withdrawn"), defaultValue: "open" },
+      revealed_on: notNull.dateOnly(),
+      due_on: notNull.dateOnly(),
+      upload_id: nullable.ref("uploads"),
+      series: notNull.oneOf("actual", "hypothetical", "both"),
+      actual_pnl: nullable.money(),
+      hypothetical_pnl: nullable.money(),
+      var_99: nullable.money(),
+      excess: nullable.money(),
+      cause: nullable.text(),
+      drafted_by: nullable.ref("users"),
+      drafted_at: nullable.dateTime(),
+      sent_by: nullable.ref("users"),
+      sent_at: nullable.dateTime(),
+      recipients_json: nullable.text(),
+      message_id: nullable.varchar(200),
+      pdf_sha256: nullable.char(64),
+      withdrawn_at: nullable.dateTime(),
+      note: nullable.varchar(500),
+      reminded_at: nullable.dateTime(),
+      version: version(),
+      ...timestamps(),
     });
     await qi.addIndex("overshooting_notices", ["portfolio_id", "business_date"], {
       name: "overshooting_notices_day",

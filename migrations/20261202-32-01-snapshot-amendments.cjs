@@ -8,16 +8,12 @@
  * amendments: the one-per-quarter rule becomes one original per quarter (`amends_key` is 0 for an
  * original and the amended snapshot's id otherwise).
  */
+const { nullable } = require("./support/columns.cjs");
+
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    await qi.addColumn("snapshots", "amends_id", {
-      type: DataTypes.INTEGER,
-      allowNull: true,
-      unique: true,
-      references: { model: "snapshots", key: "id" },
-    });
-    await qi.addColumn("snapshots", "amendment_json", { type: DataTypes.TEXT("long"), allowNull: true });
+  async up(qi) {
+    await qi.addColumn("snapshots", "amends_id", nullable.ref("snapshots", { unique: true }));
+    await qi.addColumn("snapshots", "amendment_json", nullable.text("long"));
     await qi.sequelize.query("ALTER TABLE snapshots ADD COLUMN amends_key INT AS (COALESCE(amends_id, 0)) PERSISTENT");
     // The new unique index first: it starts with entity_id, so the foreign key keeps an index.
     await qi.addIndex("snapshots", ["entity_id", "quarter_end", "amends_key"], {

@@ -5,12 +5,6 @@
  * and exclusions that touch them, and the settings records. Refreshed in the same transaction as
  * the rest of the row; a row without it (made before this column) is computed on its first read.
  */
-module.exports = {
-  async up(qi, Sequelize) {
-    await qi.addColumn("portfolio_figures", "start_json", { type: Sequelize.DataTypes.TEXT("long"), allowNull: true });
-  },
+const { columnAdded, nullable } = require("./support/columns.cjs");
 
-  async down(qi) {
-    await qi.removeColumn("portfolio_figures", "start_json");
-  },
-};
+module.exports = columnAdded("portfolio_figures", "start_json", nullable.text("long"));

@@ -7,6 +7,8 @@
  * The country is derived from the currency where one currency means one country; a euro entity is left
  * without one until an admin chooses it on the entity form (the euro is the currency of many countries).
  */
+const { notNull, nullable } = require("./support/columns.cjs");
+
 const COUNTRY_OF_CURRENCY = {
   GBP: "GB",
   USD: "US",
@@ -22,17 +24,15 @@ const COUNTRY_OF_CURRENCY = {
 };
 
 module.exports = {
-  async up(qi, Sequelize) {
-    const { DataTypes } = Sequelize;
-    await qi.addColumn("entities", "country", { type: DataTypes.CHAR(2), allowNull: true, after: "currency" });
+  async up(qi) {
+    await qi.addColumn("entities", "country", { ...nullable.char(2), after: "currency" });
     for (const [currency, country] of Object.entries(COUNTRY_OF_CURRENCY)) {
       await qi.sequelize.query("UPDATE entities SET country = :country WHERE currency = :currency", {
         replacements: { country, currency },
       });
     }
     await qi.addColumn("holidays", "source", {
-      type: DataTypes.ENUM("bank", "library"),
-      allowNull: false,
+      ...notNull.oneOf("bank", "library"),
       defaultValue: "bank",
       after: "name",
     });

@@ -9,7 +9,8 @@ const require = createRequire(import.meta.url);
 
 /**
  * Schema changes live only in migrations/*.cjs, written in sequelize-cli's shape
- * (`up(queryInterface, Sequelize)`), so both sequelize-cli and this runner can apply them.
+ * (`up(queryInterface, Sequelize)`), so both sequelize-cli and this runner can apply them. The glob
+ * takes only the files directly in migrations/: their column kit (migrations/support/) is no migration.
  */
 export function createMigrator() {
   return new Umzug({

@@ -167,18 +167,22 @@ describe("input validation", () => {
   });
 });
 
+/** Up to `maxLength` days of small P&L, each with a `gap` drawn from 0 to `maxGap` (a low draw leaves a value out). */
+const pnlDays = (maxGap: number, maxLength: number) =>
+  fc.array(
+    fc.record({
+      pnl: fc.integer({ min: -30, max: 10 }),
+      hyp: fc.integer({ min: -30, max: 10 }),
+      gap: fc.integer({ min: 0, max: maxGap }),
+    }),
+    { minLength: 1, maxLength },
+  );
+
 describe("rolling backtest", () => {
   it("when computed over a series, then every row equals a backtest at that date (cross-check of the sliding count)", () => {
     fc.assert(
       fc.property(
-        fc.array(
-          fc.record({
-            pnl: fc.integer({ min: -30, max: 10 }),
-            hyp: fc.integer({ min: -30, max: 10 }),
-            gap: fc.integer({ min: 0, max: 40 }),
-          }),
-          { minLength: 1, maxLength: 60 },
-        ),
+        pnlDays(40, 60),
         fc.constantFrom("basel", "us", "eu", "frtb" as const),
         fc.integer({ min: 1, max: 20 }),
         fc.array(fc.nat(59), { maxLength: 5 }),
@@ -211,50 +215,38 @@ describe("rolling backtest", () => {
 
   it("when several rule sets and bases are computed in one pass, then each equals its own backtest at every date (cross-check of the shared pass)", () => {
     fc.assert(
-      fc.property(
-        fc.array(
-          fc.record({
-            pnl: fc.integer({ min: -30, max: 10 }),
-            hyp: fc.integer({ min: -30, max: 10 }),
-            gap: fc.integer({ min: 0, max: 30 }),
-          }),
-          { minLength: 1, maxLength: 50 },
-        ),
-        fc.integer({ min: 1, max: 15 }),
-        fc.boolean(),
-        (days, windowSize, withGaps) => {
-          const obs = buildSeries({ days: days.length, var99: 20 }).map((o, i) => ({
-            ...o,
-            actualPnl: withGaps && days[i].gap === 0 ? null : days[i].pnl,
-            hypotheticalPnl: days[i].hyp,
-          }));
-          const excludedDates = [obs[0].date];
-          const requests: RollingRequest[] = [
-            { regime: "basel" },
-            { regime: "us" },
-            { regime: "eu" },
-            { regime: "frtb" },
-            { regime: "eu", pnlBasis: "hypothetical" },
-            { regime: "us", pnlBasis: "max" },
-            { regime: "basel", pnlBasis: "actual" },
-            { regime: "frtb", pnlBasis: "actual", excludedDates },
-          ];
-          const result = rollingArrays(toSeries(obs), requests, windowSize);
-          requests.forEach((req, k) => {
-            const r = result.regimes[k];
-            obs.forEach((o, i) => {
-              const at = backtestAt(obs, { ...req, asOf: o.date, windowSize });
-              expect([r.actual[i], r.hypothetical[i], r.counted[i], zoneAt(r, i), plusFactorAt(r, i)]).toEqual([
-                at.exceptions.actual,
-                at.exceptions.hypothetical,
-                at.exceptions.counted,
-                at.zone,
-                at.plusFactor,
-              ]);
-            });
+      fc.property(pnlDays(30, 50), fc.integer({ min: 1, max: 15 }), fc.boolean(), (days, windowSize, withGaps) => {
+        const obs = buildSeries({ days: days.length, var99: 20 }).map((o, i) => ({
+          ...o,
+          actualPnl: withGaps && days[i].gap === 0 ? null : days[i].pnl,
+          hypotheticalPnl: days[i].hyp,
+        }));
+        const excludedDates = [obs[0].date];
+        const requests: RollingRequest[] = [
+          { regime: "basel" },
+          { regime: "us" },
+          { regime: "eu" },
+          { regime: "frtb" },
+          { regime: "eu", pnlBasis: "hypothetical" },
+          { regime: "us", pnlBasis: "max" },
+          { regime: "basel", pnlBasis: "actual" },
+          { regime: "frtb", pnlBasis: "actual", excludedDates },
+        ];
+        const result = rollingArrays(toSeries(obs), requests, windowSize);
+        requests.forEach((req, k) => {
+          const r = result.regimes[k];
+          obs.forEach((o, i) => {
+            const at = backtestAt(obs, { ...req, asOf: o.date, windowSize });
+            expect([r.actual[i], r.hypothetical[i], r.counted[i], zoneAt(r, i), plusFactorAt(r, i)]).toEqual([
+              at.exceptions.actual,
+              at.exceptions.hypothetical,
+              at.exceptions.counted,
+              at.zone,
+              at.plusFactor,
+            ]);
           });
-        },
-      ),
+        });
+      }),
       { numRuns: 60 },
     );
   });

@@ -149,6 +149,23 @@ describe("FRTB aggregation, properties", () => {
   });
 });
 
+/**
+ * 500 business days of one desk: 13 actual exceptions in the first 250 days, then clean days; RTPL
+ * equals HPL except on the days `noRtpl` names, which have none.
+ */
+function deskFailingFirstYear(noRtpl: (i: number) => boolean) {
+  const dates = businessDates(500);
+  const series: Observation[] = dates.map((date, i) => ({
+    date,
+    actualPnl: i < 13 ? -150 : 10 + (i % 7),
+    hypotheticalPnl: 10 + (i % 7),
+    var99: 100,
+    var975: 80,
+    rtpl: noRtpl(i) ? null : 10 + (i % 7),
+  }));
+  return { dates, series };
+}
+
 describe("FRTB desk eligibility (MAR32.19, 32.43–32.45)", () => {
   const passes = {
     passes: true,
@@ -208,30 +225,15 @@ describe("FRTB desk eligibility (MAR32.19, 32.43–32.45)", () => {
 
   it("when a desk fails backtesting in one quarter, then it is out at that determination and returns once within limits and green", () => {
     // 13 actual exceptions in the first 250 days, then 250 clean days; RTPL equals HPL (PLA green).
-    const dates = businessDates(500);
-    const series: Observation[] = dates.map((date, i) => ({
-      date,
-      actualPnl: i < 13 ? -150 : 10 + (i % 7),
-      hypotheticalPnl: 10 + (i % 7),
-      var99: 100,
-      var975: 80,
-      rtpl: 10 + (i % 7),
-    }));
+    const { dates, series } = deskFailingFirstYear(() => false);
     const history = deskStatusHistory([{ code: "FX", series }], [dates[249], dates[499]]);
     expect(history[0].desks[0]).toMatchObject({ status: "out-of-model", backtest99: 13, backtestPasses: false });
     expect(history[1].desks[0]).toMatchObject({ status: "in-model", backtest99: 0, plaZone: "green" });
   });
 
   it("when a signed-off quarter froze a desk's status, then that status stands and the next determination starts from it", () => {
-    const dates = businessDates(500);
-    const series: Observation[] = dates.map((date, i) => ({
-      date,
-      actualPnl: i < 13 ? -150 : 10 + (i % 7),
-      hypotheticalPnl: 10 + (i % 7),
-      var99: 100,
-      var975: 80,
-      rtpl: i >= 250 && i % 10 === 0 ? null : 10 + (i % 7), // the second year's PLA is provisional (225 days)
-    }));
+    // The second year's PLA is provisional (225 days).
+    const { dates, series } = deskFailingFirstYear((i) => i >= 250 && i % 10 === 0);
     const computed = deskStatusHistory([{ code: "FX", series }], [dates[249], dates[499]]);
     expect(computed.map((h) => h.desks[0].status)).toEqual(["out-of-model", "out-of-model"]);
     // Signed off with the desk in the model (as the data stood then): the next quarter keeps it in unless it fails.

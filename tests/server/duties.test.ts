@@ -6,6 +6,7 @@ import { AuditEventModel } from "../../server/models/audit-event";
 import { RoleRequestModel } from "../../server/models/role-request";
 import { UserInvitationModel } from "../../server/models/user-invitation";
 import { UserModel } from "../../server/models/user";
+import type { Role } from "../../shared/schemas/common";
 import { cookieFrom, createTestUser, sessionCookieFor, signIn, testApp, TEST_PASSWORD, unique } from "./helpers";
 import { latestLinkTokenFor, messagesTo } from "./mail-helpers";
 
@@ -31,6 +32,14 @@ async function invite(role: "analyst" | "treasury" | "cro" | "admin" = "analyst"
   const res = await request(app).post("/api/users").set("Cookie", by.cookie).send({ email, name: "Nadia Fern", role });
   return { email, res };
 }
+
+/** `by` proposes a change of someone's role, which another admin must decide; the caller checks the answer. */
+const proposeRole = (by: { cookie: string }, body: { userId: number; role: Role; version: number }) =>
+  request(app).post("/api/role-requests").set("Cookie", by.cookie).send(body);
+
+/** `by` approves or rejects a proposed role change; the caller checks the answer. */
+const decideRole = (by: { cookie: string }, requestId: number, decision: "approve" | "reject") =>
+  request(app).post(`/api/role-requests/${requestId}/${decision}`).set("Cookie", by.cookie);
 
 describe("creating a user by invitation (the admin never sets or learns a password)", () => {
   it("when an admin invites an analyst, then the e-mail carries a one-time link, only its hash is stored, and the invitee chooses a password and is signed in", async () => {
@@ -250,10 +259,7 @@ describe("granting or removing the CRO or admin role needs a second admin", () =
   it("when one admin proposes a CRO grant, then nothing changes until another approves; the proposer cannot approve (403); both steps are audited", async () => {
     const user = await createTestUser("analyst");
     const session = await sessionCookieFor(user.id);
-    const proposed = await request(app)
-      .post("/api/role-requests")
-      .set("Cookie", adminA.cookie)
-      .send({ userId: user.id, role: "cro", version: 1 });
+    const proposed = await proposeRole(adminA, { userId: user.id, role: "cro", version: 1 });
     expect(proposed.status).toBe(201);
     expect(proposed.body).toMatchObject({
       kind: "change",
@@ -266,14 +272,12 @@ describe("granting or removing the CRO or admin role needs a second admin", () =
     const list = await request(app).get("/api/role-requests").set("Cookie", adminB.cookie);
     expect(list.body.map((r: { id: number }) => r.id)).toContain(proposed.body.id);
 
-    const own = await request(app).post(`/api/role-requests/${proposed.body.id}/approve`).set("Cookie", adminA.cookie);
+    const own = await decideRole(adminA, proposed.body.id, "approve");
     expect(own.status).toBe(403);
     expect(own.body.error.code).toBe("four_eyes");
     expect((await UserModel.findByPk(user.id))!.role).toBe("analyst");
 
-    const approved = await request(app)
-      .post(`/api/role-requests/${proposed.body.id}/approve`)
-      .set("Cookie", adminB.cookie);
+    const approved = await decideRole(adminB, proposed.body.id, "approve");
     expect(approved.status).toBe(200);
     expect(approved.body).toMatchObject({ status: "approved", decidedBy: { id: adminB.id } });
     const row = (await UserModel.findByPk(user.id))!;
@@ -285,33 +289,22 @@ describe("granting or removing the CRO or admin role needs a second admin", () =
     expect(approve!.actorEmail).toBe(adminB.email);
     expect(JSON.parse(approve!.beforeJson!)).toEqual({ role: "analyst" });
 
-    const twice = await request(app)
-      .post(`/api/role-requests/${proposed.body.id}/approve`)
-      .set("Cookie", adminB.cookie);
+    const twice = await decideRole(adminB, proposed.body.id, "approve");
     expect(twice.status).toBe(409);
   });
 
   it("when the second admin rejects a removal of the CRO role, then the role stays and the rejection is audited", async () => {
     const user = await createTestUser("cro");
-    const proposed = await request(app)
-      .post("/api/role-requests")
-      .set("Cookie", adminA.cookie)
-      .send({ userId: user.id, role: "analyst", version: 1 })
-      .expect(201);
+    const proposed = await proposeRole(adminA, { userId: user.id, role: "analyst", version: 1 }).expect(201);
     // While it waits, no other change of the role gets in between.
     const between = await request(app)
       .patch(`/api/users/${user.id}`)
       .set("Cookie", adminB.cookie)
       .send({ role: "treasury", version: 1 });
     expect(between.status).toBe(403); // removing the CRO role needs approval, whichever way
-    const second = await request(app)
-      .post("/api/role-requests")
-      .set("Cookie", adminB.cookie)
-      .send({ userId: user.id, role: "treasury", version: 1 });
+    const second = await proposeRole(adminB, { userId: user.id, role: "treasury", version: 1 });
     expect(second.status).toBe(409);
-    const rejected = await request(app)
-      .post(`/api/role-requests/${proposed.body.id}/reject`)
-      .set("Cookie", adminB.cookie);
+    const rejected = await decideRole(adminB, proposed.body.id, "reject");
     expect(rejected.status).toBe(200);
     expect(rejected.body.status).toBe("rejected");
     expect((await UserModel.findByPk(user.id))!.role).toBe("cro");
@@ -320,27 +313,16 @@ describe("granting or removing the CRO or admin role needs a second admin", () =
 
   it("when the admin role itself is granted, then the person it is about cannot decide it, and a stale version is refused", async () => {
     const user = await createTestUser("treasury");
-    const stale = await request(app)
-      .post("/api/role-requests")
-      .set("Cookie", adminA.cookie)
-      .send({ userId: user.id, role: "admin", version: 7 });
+    const stale = await proposeRole(adminA, { userId: user.id, role: "admin", version: 7 });
     expect(stale.status).toBe(409);
     expect(stale.body.error.code).toBe("stale");
-    const notNeeded = await request(app)
-      .post("/api/role-requests")
-      .set("Cookie", adminA.cookie)
-      .send({ userId: user.id, role: "analyst", version: 1 });
+    const notNeeded = await proposeRole(adminA, { userId: user.id, role: "analyst", version: 1 });
     expect(notNeeded.status).toBe(422);
-    const removal = await request(app)
-      .post("/api/role-requests")
-      .set("Cookie", adminA.cookie)
-      .send({ userId: adminB.id, role: "analyst", version: 1 });
+    const removal = await proposeRole(adminA, { userId: adminB.id, role: "analyst", version: 1 });
     expect(removal.status).toBe(201);
-    const bySubject = await request(app)
-      .post(`/api/role-requests/${removal.body.id}/approve`)
-      .set("Cookie", adminB.cookie);
+    const bySubject = await decideRole(adminB, removal.body.id, "approve");
     expect(bySubject.status).toBe(403);
-    await request(app).post(`/api/role-requests/${removal.body.id}/reject`).set("Cookie", adminA.cookie).expect(200);
+    await decideRole(adminA, removal.body.id, "reject").expect(200);
     expect((await UserModel.findByPk(adminB.id))!.role).toBe("admin");
   });
 
@@ -357,9 +339,9 @@ describe("granting or removing the CRO or admin role needs a second admin", () =
     expect(again.status).toBe(409);
 
     const id = res.body.request.id;
-    expect((await request(app).post(`/api/role-requests/${id}/approve`).set("Cookie", adminA.cookie)).status).toBe(403);
+    expect((await decideRole(adminA, id, "approve")).status).toBe(403);
     expect(await UserModel.count({ where: { email } })).toBe(0);
-    const approved = await request(app).post(`/api/role-requests/${id}/approve`).set("Cookie", adminB.cookie);
+    const approved = await decideRole(adminB, id, "approve");
     expect(approved.status).toBe(200);
     const user = (await UserModel.findOne({ where: { email } }))!;
     expect({ role: user.role, passwordHash: user.passwordHash }).toEqual({ role: "cro", passwordHash: null });

@@ -17,6 +17,20 @@ async function observationCount(portfolioId: number) {
   return ObservationModel.count({ where: { portfolioId } });
 }
 
+/** Commits an upload that must be refused: the status, the message if given, and not one day of the portfolio written. */
+async function expectCommitRefused(
+  uploadId: number,
+  cookie: string,
+  portfolioId: number,
+  status: number,
+  message?: RegExp,
+) {
+  const commit = await request(app).post(`/api/uploads/${uploadId}/commit`).set("Cookie", cookie);
+  expect(commit.status).toBe(status);
+  if (message) expect(commit.body.error.message).toMatch(message);
+  expect(await observationCount(portfolioId)).toBe(0);
+}
+
 describe("uploading daily data", () => {
   it("when a clean file is uploaded, then the preview counts the rows and nothing is written until commit", async () => {
     const { portfolio, cookie } = await ingestFixture();
@@ -208,17 +222,21 @@ describe("uploading daily data", () => {
     expect(await observationCount(portfolio.id)).toBe(50);
   });
 
-  it("when a day of the preview becomes a holiday before the commit, then the commit is refused with 409 and nothing is written", async () => {
-    const { portfolio, entity, cookie } = await ingestFixture();
-    const dates = weekdays("2026-06-01", 5);
-    const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
-    expect(preview.body.invalid).toBe(0);
-    await HolidayModel.create({ entityId: entity.id, date: dates[2], name: "Unplanned closure" });
-    const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
-    expect(commit.status).toBe(409);
-    expect(commit.body.error.message).toMatch(/reference data changed/);
-    expect(await observationCount(portfolio.id)).toBe(0);
-  });
+  it.each([
+    { held: "still holds the preview's rows", start: "2026-06-01", holiday: 2, forget: false },
+    { held: "no longer holds the rows", start: "2026-08-03", holiday: 1, forget: true },
+  ])(
+    "when a day of the preview becomes a holiday before the commit and the server $held, then the commit is refused with 409 and nothing is written",
+    async ({ start, holiday, forget }) => {
+      const { portfolio, entity, cookie } = await ingestFixture();
+      const dates = weekdays(start, 5);
+      const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
+      expect(preview.body.invalid).toBe(0);
+      if (forget) forgetCheckedRows(preview.body.id);
+      await HolidayModel.create({ entityId: entity.id, date: dates[holiday], name: "Unplanned closure" });
+      await expectCommitRefused(preview.body.id, cookie, portfolio.id, 409, /reference data changed/);
+    },
+  );
 
   it("when the server no longer holds the preview's rows (a restart, another process), then the commit parses the stored file and writes the same rows", async () => {
     const { portfolio, cookie } = await ingestFixture();
@@ -241,25 +259,11 @@ describe("uploading daily data", () => {
     );
   });
 
-  it("when a day becomes a holiday before the commit and the server no longer holds the rows, then the commit is refused all the same", async () => {
-    const { portfolio, entity, cookie } = await ingestFixture();
-    const dates = weekdays("2026-08-03", 5);
-    const preview = await uploadCsv(app, cookie, csvFor(portfolio.code, dates));
-    forgetCheckedRows(preview.body.id);
-    await HolidayModel.create({ entityId: entity.id, date: dates[1], name: "Unplanned closure" });
-    const commit = await request(app).post(`/api/uploads/${preview.body.id}/commit`).set("Cookie", cookie);
-    expect(commit.status).toBe(409);
-    expect(commit.body.error.message).toMatch(/reference data changed/);
-    expect(await observationCount(portfolio.id)).toBe(0);
-  });
-
   it("when a preview is discarded, then it cannot be committed and nothing was written", async () => {
     const { portfolio, cookie } = await ingestFixture();
     const res = await uploadCsv(app, cookie, csvFor(portfolio.code, weekdays("2026-07-06", 2)));
     await request(app).delete(`/api/uploads/${res.body.id}`).set("Cookie", cookie).expect(204);
-    const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
-    expect(commit.status).toBe(409);
-    expect(await observationCount(portfolio.id)).toBe(0);
+    await expectCommitRefused(res.body.id, cookie, portfolio.id, 409);
     expect((await UploadModel.scope("withContent").findByPk(res.body.id))!.content).toBeNull();
   });
 
@@ -380,10 +384,7 @@ describe("bad input ends in a clear error and nothing written", () => {
     expect(res.body.errors).toEqual(
       expect.arrayContaining([expect.objectContaining({ line, column, message: expect.stringMatching(message) })]),
     );
-    const commit = await request(app).post(`/api/uploads/${res.body.id}/commit`).set("Cookie", cookie);
-    expect(commit.status).toBe(422);
-    expect(commit.body.error.message).toMatch(/Fix the file/);
-    expect(await observationCount(portfolio.id)).toBe(0);
+    await expectCommitRefused(res.body.id, cookie, portfolio.id, 422, /Fix the file/);
   }
 
   it("a byte-order mark and CRLF line ends are accepted", async () => {

@@ -1,9 +1,8 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
 import { FilingModel } from "../../server/models/filing";
-import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { SnapshotModel } from "../../server/models/snapshot";
-import { createTestUser } from "../server/helpers";
+import { createAssignedRegulator } from "../server/helpers";
 import {
   approve,
   approvedQuarter,
@@ -33,8 +32,7 @@ async function restatedFiledQuarter() {
   originalId = submitted.id;
   const day = book.exceptionDays[4];
   await uploadAndCommit(book.cookie, [HEADER, book.row(day, book.dates.indexOf(day), 50)].join("\n"));
-  const regulator = await createTestUser("regulator");
-  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  const regulator = await createAssignedRegulator(book.entity.id);
   regulatorEmail = regulator.email;
 }
 

@@ -1,7 +1,6 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
-import { PortfolioModel } from "../../server/models/portfolio";
-import { createTestEntity, createTestUser, sessionCookieFor, testApp } from "../server/helpers";
+import { createTestEntity, createTestPortfolio, createTestUser, sessionCookieFor, testApp } from "../server/helpers";
 import { uploadCsv, weekdays } from "../server/ingest-helpers";
 import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
@@ -18,9 +17,9 @@ async function loadBook() {
   const app = testApp();
   const entity = await createTestEntity({ regime: "frtb" });
   code = entity.code;
-  const top = await PortfolioModel.create({ entityId: entity.id, code: `${code}-TOP`, name: "Top", level: "top" });
-  const a = await PortfolioModel.create({ entityId: entity.id, code: `${code}-A`, name: "Desk A", level: "desk" });
-  const b = await PortfolioModel.create({ entityId: entity.id, code: `${code}-B`, name: "Desk B", level: "desk" });
+  const top = await createTestPortfolio(entity);
+  const a = await createTestPortfolio(entity, "A", "Desk A", "desk");
+  const b = await createTestPortfolio(entity, "B", "Desk B", "desk");
   const analyst = await createTestUser("analyst");
   analystEmail = analyst.email;
   const cookie = await sessionCookieFor(analyst.id);

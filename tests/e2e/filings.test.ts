@@ -1,7 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { FilingModel } from "../../server/models/filing";
-import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
-import { createTestUser } from "../server/helpers";
+import { createAssignedRegulator } from "../server/helpers";
 import { approvedBookFiledTo, type Book } from "../server/snapshot-helpers";
 import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, pageSignedInAs } from "./browser";
@@ -13,8 +12,7 @@ let regulatorEmail = "";
 /** An approved Q3 2026 snapshot of an entity with a supervisor contact and an assigned regulator, made through the API. */
 async function approvedQuarterWithRegulator() {
   ({ book, snapshotId } = await approvedBookFiledTo([`market-risk-${Date.now()}@bank-supervisor.test`]));
-  const regulator = await createTestUser("regulator");
-  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  const regulator = await createAssignedRegulator(book.entity.id);
   regulatorEmail = regulator.email;
 }
 

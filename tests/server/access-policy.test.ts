@@ -2,9 +2,8 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { POLICY, type Access } from "../../server/http/policy";
-import { PortfolioModel } from "../../server/models/portfolio";
 import { roleSchema, type Role } from "../../shared/schemas/common";
-import { createTestEntity, createTestUser, sessionCookieFor, testApp } from "./helpers";
+import { createTestEntity, createTestPortfolio, createTestUser, sessionCookieFor, testApp } from "./helpers";
 
 const app = testApp();
 const ROLES = roleSchema.options;
@@ -42,12 +41,7 @@ let params: Record<string, string>;
 beforeAll(async () => {
   for (const role of ROLES) cookies.set(role, (await createTestUser(role)).id);
   const entity = await createTestEntity();
-  const portfolio = await PortfolioModel.create({
-    entityId: entity.id,
-    code: `${entity.code}-P`,
-    name: "P",
-    level: "top",
-  });
+  const portfolio = await createTestPortfolio(entity, "P", "P");
   const someUser = await createTestUser("analyst");
   params = {
     code: entity.code,

@@ -4,11 +4,10 @@ import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { FilingModel } from "../../server/models/filing";
-import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { filingListSchema, filingSchema } from "../../shared/schemas/filing";
 import { snapshotSchema, type Snapshot } from "../../shared/schemas/snapshot";
-import { createTestUser, sessionCookieFor } from "./helpers";
+import { createAssignedRegulator, sessionCookieFor } from "./helpers";
 import {
   approve,
   type Book,
@@ -41,8 +40,7 @@ async function filedBook() {
   expect(approved.status, JSON.stringify(approved.body)).toBe(200);
   const filed = await request(app).post(`/api/snapshots/${submitted.id}/filings`).set("Cookie", book.croCookie);
   expect(filed.status, JSON.stringify(filed.body)).toBe(201);
-  const regulator = await createTestUser("regulator");
-  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  const regulator = await createAssignedRegulator(book.entity.id);
   return {
     book,
     originalId: submitted.id as number,

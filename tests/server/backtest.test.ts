@@ -6,6 +6,7 @@ import { EvidenceFileModel } from "../../server/models/evidence-file";
 import { ExceptionReviewModel } from "../../server/models/exception-review";
 import { createTestUser, sessionCookieFor, testApp } from "./helpers";
 import { HEADER, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
+import { putReview, putDecision } from "./support/exception-reviews";
 
 const app = testApp();
 afterAll(() => sequelize.close());
@@ -99,14 +100,11 @@ describe("the backtest of a portfolio", () => {
 describe("reviewing exceptions and recording exclusion decisions", () => {
   it("when an analyst explains an exception and asks to exclude it, and the CRO records the supervisor's approval, then the counted figure drops to 4, green, multiplier 3.00 (BCBS 1996 Table 2)", async () => {
     const day = book.exceptionDays[1];
-    const review = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-      .set("Cookie", book.cookie)
-      .send({
-        cause: "data_issue",
-        narrative: "A stale FX rate in the end-of-day snapshot overstated the loss.",
-        exclusion: true,
-      });
+    const review = await putReview(book.portfolio.code, day, book.cookie, {
+      cause: "data_issue",
+      narrative: "A stale FX rate in the end-of-day snapshot overstated the loss.",
+      exclusion: true,
+    });
     expect(review.status).toBe(200);
     expect(review.body).toMatchObject({ cause: "data_issue", exclusionStatus: "requested", version: 1 });
 
@@ -114,10 +112,12 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
     let bt = await request(app).get(`/api/portfolios/${book.portfolio.code}/backtest`).set("Cookie", book.cookie);
     expect(bt.body.exceptions.counted).toBe(5);
 
-    const decision = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/decision`)
-      .set("Cookie", book.croCookie)
-      .send({ decision: "approved", reference: "NBA/2026/117", decidedOn: "2026-10-20", version: 1 });
+    const decision = await putDecision(book.portfolio.code, day, book.croCookie, {
+      decision: "approved",
+      reference: "NBA/2026/117",
+      decidedOn: "2026-10-20",
+      version: 1,
+    });
     expect(decision.status).toBe(200);
     expect(decision.body).toMatchObject({
       exclusionStatus: "approved",
@@ -147,28 +147,11 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
       }),
     ).toBe(1);
 
-    // The analyst cannot quietly withdraw an approved exclusion.
-    const withdraw = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-      .set("Cookie", book.cookie)
-      .send({
-        cause: "data_issue",
-        narrative: "Changed my mind about this one entirely.",
-        exclusion: false,
-        version: 2,
-      });
-    expect(withdraw.status).toBe(409);
-    // Nor can the approved explanation be rewritten.
-    const rewrite = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-      .set("Cookie", book.cookie)
-      .send({
-        cause: "market_move",
-        narrative: "On reflection it was simply a market move.",
-        exclusion: true,
-        version: 2,
-      });
-    expect(rewrite.status).toBe(409);
+    // The analyst cannot quietly withdraw an approved exclusion, nor rewrite the approved explanation.
+    const withdraw = { cause: "data_issue", narrative: "Changed my mind about this one entirely.", exclusion: false };
+    const rewrite = { cause: "market_move", narrative: "On reflection it was simply a market move.", exclusion: true };
+    for (const change of [withdraw, rewrite])
+      expect((await putReview(book.portfolio.code, day, book.cookie, { ...change, version: 2 })).status).toBe(409);
     expect(
       (await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } }))!.cause,
     ).toBe("data_issue");
@@ -179,10 +162,7 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
     const other = await createTestUser("analyst");
     const otherCookie = await sessionCookieFor(other.id);
     const send = (cookie: string, narrative: string) =>
-      request(app)
-        .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-        .set("Cookie", cookie)
-        .send({ cause: "market_move", narrative, exclusion: false, version: 0 });
+      putReview(book.portfolio.code, day, cookie, { cause: "market_move", narrative, exclusion: false, version: 0 });
     const [a, b] = await Promise.all([
       send(book.cookie, "Rates gapped after the central bank surprise."),
       send(otherCookie, "A large move in long-dated swap spreads."),
@@ -195,21 +175,22 @@ describe("reviewing exceptions and recording exclusion decisions", () => {
   });
 
   it("when a day without an exception is reviewed, then 422 explains it", async () => {
-    const res = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${book.dates[3]}/review`)
-      .set("Cookie", book.cookie)
-      .send({ cause: "other", narrative: "Nothing happened on this day at all.", exclusion: false });
+    const res = await putReview(book.portfolio.code, book.dates[3], book.cookie, {
+      cause: "other",
+      narrative: "Nothing happened on this day at all.",
+      exclusion: false,
+    });
     expect(res.status).toBe(422);
     expect(res.body.error.code).toBe("not_an_exception");
   });
 
   it("when evidence is attached, then it is stored with its hash and always served as a download; an unknown binary is refused", async () => {
     const day = book.exceptionDays[3];
-    await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-      .set("Cookie", book.cookie)
-      .send({ cause: "pricing", narrative: "Vendor curve for the credit book arrived late.", exclusion: false })
-      .expect(200);
+    await putReview(book.portfolio.code, day, book.cookie, {
+      cause: "pricing",
+      narrative: "Vendor curve for the credit book arrived late.",
+      exclusion: false,
+    }).expect(200);
     const pdf = Buffer.from("%PDF-1.4\n1 0 obj <<>> endobj\ntrailer <<>>\n%%EOF\n");
     const added = await request(app)
       .post(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/evidence`)

@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { connectionsAskedInsideTransactions } from "../../server/db/transaction-context";
 import { approvedQuarter, type Book, Q2, Q3, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { putReview } from "./support/exception-reviews";
 
 afterAll(() => sequelize.close());
 
@@ -47,10 +48,11 @@ describe("one connection per transaction", () => {
     const file = () =>
       request(app).post(`/api/snapshots/${approvedId}/filings`).set("Cookie", filed.croCookie).send({});
     const review = (i: number) =>
-      request(app)
-        .put(`/api/portfolios/${filed.portfolio.code}/exceptions/${filed.exceptionDays[i % 5]}/review`)
-        .set("Cookie", i % 2 ? filed.cookie : filed.analyst2Cookie)
-        .send({ cause: "market_move", narrative: `A large market move on the day (edit ${i}).`, exclusion: false });
+      putReview(filed.portfolio.code, filed.exceptionDays[i % 5], i % 2 ? filed.cookie : filed.analyst2Cookie, {
+        cause: "market_move",
+        narrative: `A large market move on the day (edit ${i}).`,
+        exclusion: false,
+      });
 
     const writes = [
       ...Array.from({ length: 10 }, () => prepare()),

@@ -6,25 +6,17 @@ import { ExceptionReviewModel } from "../../server/models/exception-review";
 import { ExclusionDecisionModel } from "../../server/models/exclusion-decision";
 import { reviewSchema } from "../../shared/schemas/review";
 import { signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
+import { exclusionRequested, putDecision } from "./support/exception-reviews";
 
 afterAll(() => sequelize.close());
 
 const tomorrow = () => new Date(Date.now() + 86_400_000).toISOString().slice(0, 10);
 
-async function requestExclusion(book: Book, day: string) {
-  const res = await request(app)
-    .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-    .set("Cookie", book.cookie)
-    .send({ cause: "data_issue", narrative: "A stale FX rate overstated the loss on the day.", exclusion: true });
-  expect(res.status).toBe(200);
-  return res.body as { version: number };
-}
+const requestExclusion = (book: Book, day: string) =>
+  exclusionRequested(book, day, "A stale FX rate overstated the loss on the day.");
 
 const decide = (book: Book, day: string, body: Record<string, unknown>) =>
-  request(app)
-    .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/decision`)
-    .set("Cookie", book.croCookie)
-    .send(body);
+  putDecision(book.portfolio.code, day, book.croCookie, body);
 
 const countedNow = async (book: Book) =>
   (await request(app).get(`/api/portfolios/${book.portfolio.code}/backtest`).set("Cookie", book.croCookie)).body
@@ -69,23 +61,16 @@ describe("the supervisor's decision on an exclusion", () => {
     expect(await countedNow(book)).toBe(4);
 
     // A second decision without a reason would silently rewrite the first: refused, nothing written.
-    const bare = await decide(book, day, {
-      decision: "rejected",
-      reference: "SUP-2026-7a",
-      decidedOn: "2026-10-27",
-      version: 2,
-    });
+    const refusal = { decision: "rejected", reference: "SUP-2026-7a", decidedOn: "2026-10-27", version: 2 };
+    const bare = await decide(book, day, refusal);
     expect(bare.status).toBe(422);
     expect(bare.body.error.details.fields).toHaveProperty("correctionReason");
     const review = await ExceptionReviewModel.findOne({ where: { portfolioId: book.portfolio.id, businessDate: day } });
     expect(await ExclusionDecisionModel.count({ where: { reviewId: review!.id } })).toBe(1);
 
     const corrected = await decide(book, day, {
-      decision: "rejected",
-      reference: "SUP-2026-7a",
-      decidedOn: "2026-10-27",
+      ...refusal,
       correctionReason: "The supervisor withdrew its letter of 20 October",
-      version: 2,
     });
     expect(corrected.status, JSON.stringify(corrected.body)).toBe(200);
     const body = reviewSchema.parse(corrected.body);

@@ -7,13 +7,12 @@ import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { FilingModel } from "../../server/models/filing";
-import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { filingSchema, filingVerifySchema } from "../../shared/schemas/filing";
 import { useSmtpPort } from "../../server/mail/mailer";
 import { deliverPendingFilings } from "../../server/modules/filings/filings.service";
 import { startMailSink } from "../../scripts/lib/mail-sink";
-import { createTestUser, sessionCookieFor } from "./helpers";
+import { createAssignedRegulator, createTestUser, sessionCookieFor } from "./helpers";
 import { approvedBookFiledTo, signOffBook, snapshotApp as app, type Book } from "./snapshot-helpers";
 import { asBytes, pdfText } from "./pdf-helpers";
 import { freePort } from "./support/free-port";
@@ -41,8 +40,7 @@ function attachedPdf(raw: string): Buffer {
 }
 
 async function regulatorFor(book: Book) {
-  const regulator = await createTestUser("regulator");
-  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  const regulator = await createAssignedRegulator(book.entity.id);
   return { regulator, cookie: await sessionCookieFor(regulator.id) };
 }
 

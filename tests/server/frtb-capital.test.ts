@@ -2,10 +2,10 @@ import request from "supertest";
 import { QueryTypes } from "sequelize";
 import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
-import { PortfolioModel } from "../../server/models/portfolio";
 import { FrtbDeskStatusModel } from "../../server/models/frtb-desk-status";
-import { createTestEntity, createTestUser, sessionCookieFor, testApp } from "./helpers";
+import { createTestEntity, createTestPortfolio, createTestUser, sessionCookieFor, testApp } from "./helpers";
 import { uploadCsv, weekdays } from "./ingest-helpers";
+import { putReview } from "./support/exception-reviews";
 
 const app = testApp();
 afterAll(() => sequelize.close());
@@ -20,24 +20,9 @@ const HEADER = "portfolio,date,actual_pnl,hypothetical_pnl,var_99,var_975,es_975
  */
 async function frtbFixture() {
   const entity = await createTestEntity({ regime: "frtb" });
-  const top = await PortfolioModel.create({
-    entityId: entity.id,
-    code: `${entity.code}-TOP`,
-    name: "Top",
-    level: "top",
-  });
-  const a = await PortfolioModel.create({
-    entityId: entity.id,
-    code: `${entity.code}-A`,
-    name: "Desk A",
-    level: "desk",
-  });
-  const b = await PortfolioModel.create({
-    entityId: entity.id,
-    code: `${entity.code}-B`,
-    name: "Desk B",
-    level: "desk",
-  });
+  const top = await createTestPortfolio(entity);
+  const a = await createTestPortfolio(entity, "A", "Desk A", "desk");
+  const b = await createTestPortfolio(entity, "B", "Desk B", "desk");
   const analyst = await createTestUser("analyst");
   const cookie = await sessionCookieFor(analyst.id);
   const dates = weekdays("2025-04-01", 600).filter((d) => d <= "2026-03-31");
@@ -64,10 +49,11 @@ describe("FRTB desk backtests and approved exclusions", () => {
       (await FrtbDeskStatusModel.findOne({ where: { portfolioId: a.id, periodEnd: "2026-03-31" } }))!;
     expect(await statusAt()).toMatchObject({ status: "out-of-model", backtest99: 13 });
 
-    const review = await request(app)
-      .put(`/api/portfolios/${a.code}/exceptions/${q1[0]}/review`)
-      .set("Cookie", cookie)
-      .send({ cause: "data_issue", narrative: "A non-modellable basis moved; SES covers the loss.", exclusion: true });
+    const review = await putReview(a.code, q1[0], cookie, {
+      cause: "data_issue",
+      narrative: "A non-modellable basis moved; SES covers the loss.",
+      exclusion: true,
+    });
     expect(review.status).toBe(200);
     const cro = await createTestUser("cro");
     const decision = await request(app)
@@ -199,12 +185,7 @@ describe("FRTB capital on a date (MAR33.41–33.45)", () => {
 
   it("when the entity reports under another rule set, then the capital on a date carries no FRTB block", async () => {
     const entity = await createTestEntity({ regime: "eu" });
-    const top = await PortfolioModel.create({
-      entityId: entity.id,
-      code: `${entity.code}-TOP`,
-      name: "Top",
-      level: "top",
-    });
+    const top = await createTestPortfolio(entity);
     const analyst = await createTestUser("analyst");
     const cookie = await sessionCookieFor(analyst.id);
     const dates = weekdays("2026-01-05", 70);

@@ -4,8 +4,10 @@ import { randomBytes } from "node:crypto";
 import { createApp, type AppOptions } from "../../server/app";
 import { UserModel } from "../../server/models/user";
 import { EntityModel } from "../../server/models/entity";
+import { PortfolioModel } from "../../server/models/portfolio";
+import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
 import { signSessionToken, SESSION_COOKIE } from "../../server/modules/auth/tokens";
-import type { Role } from "../../shared/schemas/common";
+import type { PortfolioLevel, Role } from "../../shared/schemas/common";
 
 export const TEST_PASSWORD = "correct horse battery staple";
 let passwordHash: string | null = null;
@@ -62,6 +64,18 @@ export async function createTestEntity(
     supervisorName: null,
     supervisorEmails: [],
   });
+}
+
+/** A portfolio of the entity, coded `<entity code>-<suffix>`: a top of house unless told otherwise. */
+export function createTestPortfolio(entity: EntityModel, suffix = "TOP", name = "Top", level: PortfolioLevel = "top") {
+  return PortfolioModel.create({ entityId: entity.id, code: `${entity.code}-${suffix}`, name, level });
+}
+
+/** A regulator assigned to the entity, so that it may read the entity's filings. */
+export async function createAssignedRegulator(entityId: number) {
+  const regulator = await createTestUser("regulator");
+  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId });
+  return regulator;
 }
 
 export function cookieFrom(res: request.Response): string | undefined {

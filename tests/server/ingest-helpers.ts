@@ -1,18 +1,12 @@
 import request from "supertest";
 import { HolidayModel } from "../../server/models/holiday";
-import { PortfolioModel } from "../../server/models/portfolio";
-import { createTestEntity, createTestUser, sessionCookieFor } from "./helpers";
+import { createTestEntity, createTestPortfolio, createTestUser, sessionCookieFor } from "./helpers";
 import type { createApp } from "../../server/app";
 
 /** An entity with one portfolio and a holiday, and an analyst's cookie: the rows one test needs. */
 export async function ingestFixture() {
   const entity = await createTestEntity();
-  const portfolio = await PortfolioModel.create({
-    entityId: entity.id,
-    code: `${entity.code}-BOOK`,
-    name: "Book",
-    level: "top",
-  });
+  const portfolio = await createTestPortfolio(entity, "BOOK", "Book");
   await HolidayModel.create({ entityId: entity.id, date: "2026-12-25", name: "Christmas Day" });
   const analyst = await createTestUser("analyst");
   return { entity, portfolio, analyst, cookie: await sessionCookieFor(analyst.id) };

@@ -9,10 +9,9 @@ import { sequelize } from "../../server/db/sequelize";
 import { AuditEventModel } from "../../server/models/audit-event";
 import { HolidayModel } from "../../server/models/holiday";
 import { OvershootingNoticeModel } from "../../server/models/overshooting-notice";
-import { PortfolioModel } from "../../server/models/portfolio";
 import { remindNoticesComingDue } from "../../server/modules/notices/notices.reminders";
 import { CAUTION } from "../../shared/schemas/common";
-import { createTestEntity, createTestUser, sessionCookieFor, testApp, unique } from "./helpers";
+import { createTestEntity, createTestPortfolio, createTestUser, sessionCookieFor, testApp, unique } from "./helpers";
 import { csvFor, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
 import { messagesTo } from "./mail-helpers";
 import { fileText, flat } from "./pdf-helpers";
@@ -130,31 +129,21 @@ describe("overshooting notices (CRR Art. 366(5))", () => {
 
   it("when the overshooting is on a desk, older than the 250-day window, or the entity is not under the EU rule set, then no notice opens", async () => {
     const basel = await createTestEntity({ regime: "basel" });
-    const top = await PortfolioModel.create({
-      entityId: basel.id,
-      code: `${basel.code}-TOP`,
-      name: "Top",
-      level: "top",
-    });
+    const top = await createTestPortfolio(basel);
     const analyst = await createTestUser("analyst");
     const cookie = await sessionCookieFor(analyst.id);
     await commit(cookie, overshootingCsv(top.code));
     expect(await OvershootingNoticeModel.count({ where: { portfolioId: top.id } })).toBe(0);
 
     const eu = await createTestEntity({ regime: "eu" });
-    await PortfolioModel.create({ entityId: eu.id, code: `${eu.code}-TOP`, name: "Top", level: "top" });
-    const desk = await PortfolioModel.create({ entityId: eu.id, code: `${eu.code}-DESK`, name: "Desk", level: "desk" });
+    await createTestPortfolio(eu);
+    const desk = await createTestPortfolio(eu, "DESK", "Desk", "desk");
     await commit(cookie, overshootingCsv(desk.code));
     expect(await listOf(eu.code, cookie)).toEqual([]);
 
     // An EU top-of-house overshooting two years back lies outside the 250-day window: none either.
     const old = await createTestEntity({ regime: "eu" });
-    const oldTop = await PortfolioModel.create({
-      entityId: old.id,
-      code: `${old.code}-TOP`,
-      name: "Top",
-      level: "top",
-    });
+    const oldTop = await createTestPortfolio(old);
     const twoYearsBack = new Date(Date.now() - 730 * 86_400_000).toISOString().slice(0, 10);
     await commit(
       cookie,

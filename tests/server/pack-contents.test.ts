@@ -6,6 +6,7 @@ import { SnapshotModel } from "../../server/models/snapshot";
 import { CAUTION } from "../../shared/schemas/common";
 import { approve, type Book, prepare, signOffBook, snapshotApp as app, submit } from "./snapshot-helpers";
 import { download, flat, keepPages, pagesText } from "./pdf-helpers";
+import { exclusionDecided, putReview } from "./support/exception-reviews";
 
 /** A page's text without its page number (in -layout it sits beside the footer's lines). */
 const footerless = (s: string) => flat(s.replace(/Page \d+ of \d+/, ""));
@@ -23,26 +24,20 @@ beforeAll(async () => {
   await book.entity.update({ supervisorEmails: [`supervisor-${Date.now()}@bank-supervisor.test`] });
   // Every exception explained; the second asks for an exclusion that the supervisor refuses.
   for (const [i, day] of book.exceptionDays.entries()) {
-    const review = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-      .set("Cookie", book.cookie)
-      .send({
-        cause: i === 1 ? "data_issue" : "market_move",
-        narrative: `${NARRATIVE} (day ${i + 1})`,
-        exclusion: i === 1,
-      });
-    expect(review.status, JSON.stringify(review.body)).toBe(200);
+    const narrative = `${NARRATIVE} (day ${i + 1})`;
     if (i === 1) {
-      const decision = await request(app)
-        .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/decision`)
-        .set("Cookie", book.croCookie)
-        .send({
-          decision: "rejected",
-          reference: "SUP-2026-118",
-          decidedOn: "2026-09-25",
-          version: review.body.version,
-        });
-      expect(decision.status, JSON.stringify(decision.body)).toBe(200);
+      await exclusionDecided(book, day, narrative, {
+        decision: "rejected",
+        reference: "SUP-2026-118",
+        decidedOn: "2026-09-25",
+      });
+    } else {
+      const review = await putReview(book.portfolio.code, day, book.cookie, {
+        cause: "market_move",
+        narrative,
+        exclusion: false,
+      });
+      expect(review.status, JSON.stringify(review.body)).toBe(200);
     }
   }
   const draft = await prepare(book);

@@ -6,6 +6,7 @@ import { RoleRequestModel } from "../../server/models/role-request";
 import { queueSchema, type QueueItem } from "../../shared/schemas/queue";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { approve, prepare, preparedAndSubmitted, Q2, Q3, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { putReview } from "./support/exception-reviews";
 
 afterAll(() => sequelize.close());
 
@@ -41,10 +42,11 @@ describe("waiting for me", () => {
     const book = await signOffBook();
     const code = book.entity.code;
     const [first] = book.exceptionDays;
-    const review = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${first}/review`)
-      .set("Cookie", book.cookie)
-      .send({ cause: "market_move", narrative: "A sharp move in rates on the day.", exclusion: true });
+    const review = await putReview(book.portfolio.code, first, book.cookie, {
+      cause: "market_move",
+      narrative: "A sharp move in rates on the day.",
+      exclusion: true,
+    });
     expect(review.status, JSON.stringify(review.body)).toBe(200);
     const older = await preparedAndSubmitted(book, Q2);
     await DataFindingModel.create({

@@ -19,6 +19,7 @@ import { createTestUser, sessionCookieFor } from "./helpers";
 import { ingestFixture } from "./ingest-helpers";
 import {
   approve,
+  type Book,
   HEADER,
   prepare,
   preparedAndSubmitted,
@@ -32,8 +33,23 @@ import {
   weekdaysEndingOn,
   approvedQuarter,
 } from "./snapshot-helpers";
+import { exclusionDecided } from "./support/exception-reviews";
 
 afterAll(() => sequelize.close());
+
+/** An open data-quality finding (an outlier on 12 August 2026) inside the book's Q3. */
+function openFindingInQ3(book: Book) {
+  return DataFindingModel.create({
+    portfolioId: book.portfolio.id,
+    kind: "outlier",
+    dateFrom: "2026-08-12",
+    dateTo: "2026-08-12",
+    detail: "check",
+    note: null,
+    closedBy: null,
+    closedAt: null,
+  });
+}
 
 describe("preparing a quarter snapshot", () => {
   it("when an analyst prepares a past quarter, then the draft holds the engine's figures at the quarter's last business day, and the row and the audit say so", async () => {
@@ -180,16 +196,7 @@ describe("the four-eyes sign-off", () => {
 
   it("when open data-quality findings lie inside the quarter, then submit is refused until they are resolved", async () => {
     const book = await signOffBook();
-    const finding = await DataFindingModel.create({
-      portfolioId: book.portfolio.id,
-      kind: "outlier",
-      dateFrom: "2026-08-12",
-      dateTo: "2026-08-12",
-      detail: "check",
-      note: null,
-      closedBy: null,
-      closedAt: null,
-    });
+    const finding = await openFindingInQ3(book);
     const draft = await prepare(book);
     expect(draft.body.openFindings).toBe(1);
     const refused = await submit(draft.body.id, book.cookie);
@@ -321,16 +328,11 @@ describe("after sign-off", () => {
     const book = await signOffBook();
     const submitted = await approvedQuarter(book);
     const day = book.exceptionDays[3];
-    const review = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-      .set("Cookie", book.cookie)
-      .send({ cause: "data_issue", narrative: "The P&L feed double-counted a trade on this day.", exclusion: true });
-    expect(review.status, JSON.stringify(review.body)).toBe(200);
-    const decision = await request(app)
-      .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/decision`)
-      .set("Cookie", book.croCookie)
-      .send({ decision: "approved", reference: "SUP-2026-118", decidedOn: "2026-11-20", version: review.body.version });
-    expect(decision.status, JSON.stringify(decision.body)).toBe(200);
+    await exclusionDecided(book, day, "The P&L feed double-counted a trade on this day.", {
+      decision: "approved",
+      reference: "SUP-2026-118",
+      decidedOn: "2026-11-20",
+    });
     const after = await request(app).get(`/api/snapshots/${submitted.id}`).set("Cookie", book.cookie);
     expect(after.body).toMatchObject({ status: "approved", counted: 5 });
     expect(after.body.restatedAfterSignOff.detail).toMatch(
@@ -405,16 +407,7 @@ describe("after sign-off", () => {
 
   it("when an analyst lists snapshots, then each item carries the headline of its figures without the window's days, and the detail keeps everything", async () => {
     const book = await signOffBook();
-    await DataFindingModel.create({
-      portfolioId: book.portfolio.id,
-      kind: "outlier",
-      dateFrom: "2026-08-12",
-      dateTo: "2026-08-12",
-      detail: "check",
-      note: null,
-      closedBy: null,
-      closedAt: null,
-    });
+    await openFindingInQ3(book);
     const q3 = (await prepare(book)).body;
     const q2 = (await prepare(book, Q2)).body;
     const list = await request(app).get(`/api/snapshots?entity=${book.entity.code}`).set("Cookie", book.cookie);

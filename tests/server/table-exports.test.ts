@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { approve, type Book, preparedAndSubmitted, signOffBook, snapshotApp as app } from "./snapshot-helpers";
+import { putReview } from "./support/exception-reviews";
 
 /**
  * Every table a user reads downloads as CSV and XLSX. Each test reads the file back (papaparse,
@@ -75,10 +76,11 @@ function expectCell(cell: ExcelJS.Cell, v: unknown, kind: "date" | "datetime" | 
 beforeAll(async () => {
   book = await signOffBook();
   const day = book.exceptionDays[1];
-  const review = await request(app)
-    .put(`/api/portfolios/${book.portfolio.code}/exceptions/${day}/review`)
-    .set("Cookie", book.cookie)
-    .send({ cause: "data_issue", narrative: INJECTION, exclusion: false });
+  const review = await putReview(book.portfolio.code, day, book.cookie, {
+    cause: "data_issue",
+    narrative: INJECTION,
+    exclusion: false,
+  });
   expect(review.status, JSON.stringify(review.body)).toBe(200);
   const submitted = await preparedAndSubmitted(book);
   snapshotId = submitted.id;

@@ -8,8 +8,7 @@ import stableStringify from "fast-json-stable-stringify";
 import request from "supertest";
 import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
-import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
-import { createTestUser, sessionCookieFor } from "./helpers";
+import { createAssignedRegulator, createTestUser, sessionCookieFor } from "./helpers";
 import {
   approve,
   type Book,
@@ -238,8 +237,7 @@ describe("attacks on signed-off quarters", () => {
     const book = await signOffBook();
     const approved = await signedOff(book, Q3);
     const filing = await fileIt(book, approved.id);
-    const regulator = await createTestUser("regulator");
-    await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+    const regulator = await createAssignedRegulator(book.entity.id);
     const regulatorCookie = await sessionCookieFor(regulator.id);
     await request(app)
       .post(`/api/filings/${filing.id}/acknowledge`)

@@ -9,6 +9,7 @@ import { RegulatorAssignmentModel } from "../../server/models/regulator-assignme
 import { UserModel } from "../../server/models/user";
 import { UserInvitationModel } from "../../server/models/user-invitation";
 import { createTestEntity, createTestUser, sessionCookieFor, signIn, testApp, unique } from "./helpers";
+import { editUser } from "./support/user-edits";
 
 const app = testApp();
 let admin: string;
@@ -71,10 +72,7 @@ describe("managing users", () => {
 
   it("when an admin changes a role that needs no second admin, then it applies at once and the audit log keeps before and after", async () => {
     const user = await createTestUser("analyst");
-    const res = await request(app)
-      .patch(`/api/users/${user.id}`)
-      .set("Cookie", admin)
-      .send({ role: "treasury", version: 1 });
+    const res = await editUser(admin, user.id, { role: "treasury", version: 1 });
     expect(res.status).toBe(200);
     expect(res.body).toMatchObject({ role: "treasury", version: 2 });
     expect((await UserModel.findByPk(user.id))!.version).toBe(2);
@@ -86,10 +84,7 @@ describe("managing users", () => {
   it("when an admin tries to disable their own account, then 403 and they stay enabled", async () => {
     const self = await createTestUser("admin");
     const cookie = await sessionCookieFor(self.id);
-    const res = await request(app)
-      .patch(`/api/users/${self.id}`)
-      .set("Cookie", cookie)
-      .send({ disabled: true, version: 1 });
+    const res = await editUser(cookie, self.id, { disabled: true, version: 1 });
     expect(res.status).toBe(403);
     expect((await UserModel.findByPk(self.id))!.disabled).toBe(false);
   });
@@ -122,16 +117,9 @@ describe("two admins editing the same user (row version)", () => {
   it("when the second admin disables a user with the version both read, after the first renamed them, then 409 stale with the current user, and nothing of the second is written", async () => {
     const target = await createTestUser("analyst");
     const targetSession = await sessionCookieFor(target.id);
-    await request(app)
-      .patch(`/api/users/${target.id}`)
-      .set("Cookie", admin)
-      .send({ name: "Renamed by the first", version: 1 })
-      .expect(200);
+    await editUser(admin, target.id, { name: "Renamed by the first", version: 1 }).expect(200);
 
-    const late = await request(app)
-      .patch(`/api/users/${target.id}`)
-      .set("Cookie", otherAdmin)
-      .send({ disabled: true, version: 1 });
+    const late = await editUser(otherAdmin, target.id, { disabled: true, version: 1 });
 
     expect(late.status).toBe(409);
     expect(late.body.error.code).toBe("stale");
@@ -157,11 +145,7 @@ describe("two admins editing the same user (row version)", () => {
 
   it("when the second admin sends a set-password link with the old version, then 409 stale and no link is made", async () => {
     const target = await createTestUser("analyst");
-    await request(app)
-      .patch(`/api/users/${target.id}`)
-      .set("Cookie", admin)
-      .send({ role: "treasury", version: 1 })
-      .expect(200);
+    await editUser(admin, target.id, { role: "treasury", version: 1 }).expect(200);
 
     const late = await request(app)
       .post(`/api/users/${target.id}/password-link`)
@@ -181,8 +165,8 @@ describe("two admins editing the same user (row version)", () => {
   it("when both admins send the same version at once, then exactly one wins and the version moves once", async () => {
     const target = await createTestUser("analyst");
     const [a, b] = await Promise.all([
-      request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send({ role: "treasury", version: 1 }),
-      request(app).patch(`/api/users/${target.id}`).set("Cookie", otherAdmin).send({ role: "regulator", version: 1 }),
+      editUser(admin, target.id, { role: "treasury", version: 1 }),
+      editUser(otherAdmin, target.id, { role: "regulator", version: 1 }),
     ]);
     expect([a.status, b.status].sort()).toEqual([200, 409]);
     const winner = a.status === 200 ? a : b;
@@ -206,7 +190,7 @@ describe("two admins editing the same user (row version)", () => {
       { role: "treasury", version: 1.5 },
       { role: "treasury", version: null },
     ]) {
-      const res = await request(app).patch(`/api/users/${target.id}`).set("Cookie", admin).send(body);
+      const res = await editUser(admin, target.id, body);
       expect(res.status, JSON.stringify(body)).toBe(422);
       expect(Object.keys(res.body.error.details.fields)).toContain("version");
     }
@@ -382,16 +366,8 @@ describe("regulator assignments", () => {
 describe("the audit log screen's API", () => {
   it("when filtered by action, then only those events come back, newest first", async () => {
     const user = await createTestUser("analyst");
-    await request(app)
-      .patch(`/api/users/${user.id}`)
-      .set("Cookie", admin)
-      .send({ name: "Renamed once", version: 1 })
-      .expect(200);
-    await request(app)
-      .patch(`/api/users/${user.id}`)
-      .set("Cookie", admin)
-      .send({ name: "Renamed twice", version: 2 })
-      .expect(200);
+    await editUser(admin, user.id, { name: "Renamed once", version: 1 }).expect(200);
+    await editUser(admin, user.id, { name: "Renamed twice", version: 2 }).expect(200);
     const res = await request(app).get("/api/audit-events?action=user.update&limit=200").set("Cookie", admin);
     expect(res.status).toBe(200);
     expect(res.body.items.every((e: { action: string }) => e.action === "user.update")).toBe(true);

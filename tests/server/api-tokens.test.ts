@@ -11,6 +11,7 @@ import { apiTokenListSchema, createdApiTokenSchema } from "../../shared/schemas/
 import { capitalHistorySchema } from "../../shared/schemas/capital";
 import { createTestUser, sessionCookieFor, testApp, unique } from "./helpers";
 import { approvedQuarter, Q3, signOffBook, type Book } from "./snapshot-helpers";
+import { editUser } from "./support/user-edits";
 
 // The refusals are audited per client address: the app trusts the local proxy, as a deployment that
 // sets TRUST_PROXY does, so each test can speak for an address of its own through X-Forwarded-For.
@@ -399,11 +400,7 @@ describe("tokens that may not be used", () => {
     for (const change of [{ disabled: true }, { role: "analyst" }]) {
       const t = await treasurer();
       const token = await newToken(t.cookie);
-      const changed = await request(app)
-        .patch(`/api/users/${t.user.id}`)
-        .set("Cookie", adminCookie)
-        .send({ ...change, version: 1 })
-        .expect(200);
+      const changed = await editUser(adminCookie, t.user.id, { ...change, version: 1 }).expect(200);
       expect((await ApiTokenModel.findByPk(token.id))!.revokedAt).not.toBeNull();
       const [audit] = await auditOf("api_token.revoke_all", `user #${t.user.id}`);
       expect(JSON.parse(audit.afterJson!)).toEqual({
@@ -411,11 +408,11 @@ describe("tokens that may not be used", () => {
         reason: change.disabled ? "account disabled" : "role changed to analyst",
       });
       // Giving the role back does not revive the old token.
-      await request(app)
-        .patch(`/api/users/${t.user.id}`)
-        .set("Cookie", adminCookie)
-        .send({ disabled: false, role: "treasury", version: changed.body.version })
-        .expect(200);
+      await editUser(adminCookie, t.user.id, {
+        disabled: false,
+        role: "treasury",
+        version: changed.body.version,
+      }).expect(200);
       expect((await request(app).get("/api/auth/me").set("Authorization", bearer(token.secret))).status).toBe(401);
     }
   });

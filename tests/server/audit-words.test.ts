@@ -4,6 +4,7 @@ import { afterAll, describe, expect, it } from "vitest";
 import { sequelize } from "../../server/db/sequelize";
 import { createTestUser, sessionCookieFor } from "./helpers";
 import { prepare, signOffBook, snapshotApp as app, uploadAndCommit, HEADER } from "./snapshot-helpers";
+import { editUser } from "./support/user-edits";
 
 afterAll(() => sequelize.close());
 
@@ -33,10 +34,7 @@ describe("the audit log in words", () => {
     const admin = await createTestUser("admin", { name: "Ines Example" });
     const cookie = await sessionCookieFor(admin.id);
     const person = await createTestUser("analyst", { name: "Nadia Fern" });
-    await request(app)
-      .patch(`/api/users/${person.id}`)
-      .set("Cookie", cookie)
-      .send({ name: "Nadia Fern-Ash", version: 1 });
+    await editUser(cookie, person.id, { name: "Nadia Fern-Ash", version: 1 });
     const res = await request(app).get("/api/audit-events?action=user.update&limit=200").set("Cookie", cookie);
     const event = res.body.items.find((e: { target: string }) => e.target === person.email);
     expect(event).toMatchObject({ targetWords: "Nadia Fern-Ash", actorName: "Ines Example" });

@@ -7,6 +7,7 @@ import { AuditEventModel } from "../../server/models/audit-event";
 import { UserModel } from "../../server/models/user";
 import { SESSION_COOKIE } from "../../server/modules/auth/tokens";
 import { cookieFrom, createTestUser, sessionCookieFor, signIn, testApp, TEST_PASSWORD, unique } from "./helpers";
+import { editUser } from "./support/user-edits";
 
 const app = testApp();
 afterAll(() => sequelize.close());
@@ -127,16 +128,8 @@ describe("session tokens", () => {
     const c2 = await sessionCookieFor(target2.id);
     expect((await request(app).get("/api/auth/me").set("Cookie", c1)).status).toBe(200);
 
-    await request(app)
-      .patch(`/api/users/${target1.id}`)
-      .set("Cookie", adminCookie)
-      .send({ disabled: true, version: 1 })
-      .expect(200);
-    await request(app)
-      .patch(`/api/users/${target2.id}`)
-      .set("Cookie", adminCookie)
-      .send({ role: "treasury", version: 1 })
-      .expect(200);
+    await editUser(adminCookie, target1.id, { disabled: true, version: 1 }).expect(200);
+    await editUser(adminCookie, target2.id, { role: "treasury", version: 1 }).expect(200);
 
     expect((await request(app).get("/api/auth/me").set("Cookie", c1)).status).toBe(401);
     expect((await request(app).get("/api/auth/me").set("Cookie", c2)).status).toBe(401);

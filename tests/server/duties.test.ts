@@ -9,6 +9,7 @@ import { UserModel } from "../../server/models/user";
 import type { Role } from "../../shared/schemas/common";
 import { cookieFrom, createTestUser, sessionCookieFor, signIn, testApp, TEST_PASSWORD, unique } from "./helpers";
 import { latestLinkTokenFor, messagesTo } from "./mail-helpers";
+import { editUser } from "./support/user-edits";
 
 const app = testApp();
 const STRONG = "tulip-orbit-mosaic-41"; // zxcvbn-ts score 4 (checked by the library, tests/shared/password-policy.test.ts)
@@ -247,10 +248,7 @@ describe("changing one's own password", () => {
 describe("granting or removing the CRO or admin role needs a second admin", () => {
   it("when an admin sets a CRO role directly, then 403 and the role stays", async () => {
     const user = await createTestUser("analyst");
-    const res = await request(app)
-      .patch(`/api/users/${user.id}`)
-      .set("Cookie", adminA.cookie)
-      .send({ role: "cro", version: 1 });
+    const res = await editUser(adminA.cookie, user.id, { role: "cro", version: 1 });
     expect(res.status).toBe(403);
     expect(res.body.error.code).toBe("approval_required");
     expect((await UserModel.findByPk(user.id))!.role).toBe("analyst");
@@ -297,10 +295,7 @@ describe("granting or removing the CRO or admin role needs a second admin", () =
     const user = await createTestUser("cro");
     const proposed = await proposeRole(adminA, { userId: user.id, role: "analyst", version: 1 }).expect(201);
     // While it waits, no other change of the role gets in between.
-    const between = await request(app)
-      .patch(`/api/users/${user.id}`)
-      .set("Cookie", adminB.cookie)
-      .send({ role: "treasury", version: 1 });
+    const between = await editUser(adminB.cookie, user.id, { role: "treasury", version: 1 });
     expect(between.status).toBe(403); // removing the CRO role needs approval, whichever way
     const second = await proposeRole(adminB, { userId: user.id, role: "treasury", version: 1 });
     expect(second.status).toBe(409);

@@ -16,7 +16,7 @@ import { deliverPendingFilings } from "../../server/modules/filings/filings.serv
 import { startMailSink, type MailSinkOptions } from "../../scripts/lib/mail-sink";
 import { approvedBookFiledTo, snapshotApp as app } from "./snapshot-helpers";
 import { freePort } from "./support/free-port";
-import { outsideSession } from "./support/outside-session";
+import { otherConnectionRunning, outsideSession } from "./support/outside-session";
 
 afterAll(() => sequelize.close());
 
@@ -119,7 +119,6 @@ describe("the database dies right after the mail server took the pack", () => {
   it("fault: the post-send database write is cut off → the CRO is told the pack went out, and after restart reconciliation records it from the journal and sends nothing twice", async () => {
     const supervisor = `journal-${Date.now()}@bank-supervisor.test`;
     const admin = await outsideSession();
-    const [{ id: adminThread }] = (await admin.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
     const snapshotIdRef = { id: 0 };
     let filingRowHeld = false;
     let holdFailed: string | null = null;
@@ -146,22 +145,14 @@ describe("the database dies right after the mail server took the pack", () => {
         .set("Cookie", book.croCookie)
         .send({})
         .then((r) => r);
-      let killed = false;
-      for (const until = Date.now() + 20_000; Date.now() < until && !killed;) {
-        const procs: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
-        const victim = filingRowHeld
-          ? procs.find(
-              (p) =>
-                BigInt(p.Id) !== BigInt(adminThread) &&
-                /FROM `filings`/.test(p.Info ?? "") &&
-                /FOR UPDATE/.test(p.Info ?? ""),
-            )
-          : undefined;
-        if (victim) {
-          await admin.query(`KILL CONNECTION ${Number(victim.Id)}`);
-          killed = true;
-        } else await new Promise((r) => setTimeout(r, 5));
-      }
+      // Only once the filing row is held is the write waiting there the one that records the send.
+      const victim = await otherConnectionRunning(
+        admin,
+        (q) => filingRowHeld && /FROM `filings`/.test(q) && /FOR UPDATE/.test(q),
+        20_000,
+      );
+      if (victim !== undefined) await admin.query(`KILL CONNECTION ${victim}`);
+      const killed = victim !== undefined;
       const res = await filing;
       if (filingRowHeld) await admin.rollback();
       expect(holdFailed).toBeNull();

@@ -5,7 +5,7 @@ import { ObservationModel } from "../../server/models/observation";
 import { UploadModel } from "../../server/models/upload";
 import { testApp } from "./helpers";
 import { csvFor, ingestFixture, uploadCsv, weekdays } from "./ingest-helpers";
-import { outsideSession } from "./support/outside-session";
+import { otherConnectionRunning, outsideSession } from "./support/outside-session";
 
 const app = testApp();
 afterAll(() => sequelize.close());
@@ -14,17 +14,10 @@ afterAll(() => sequelize.close());
 async function killCommitConnection(deadlineMs: number): Promise<boolean> {
   const admin = await outsideSession();
   try {
-    const until = Date.now() + deadlineMs;
-    while (Date.now() < until) {
-      const rows: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
-      const victim = rows.find((r) => /INSERT INTO observations/.test(r.Info ?? ""));
-      if (victim) {
-        await admin.query(`KILL CONNECTION ${Number(victim.Id)}`);
-        return true;
-      }
-      await new Promise((r) => setTimeout(r, 2));
-    }
-    return false;
+    const victim = await otherConnectionRunning(admin, (q) => /INSERT INTO observations/.test(q), deadlineMs);
+    if (victim === undefined) return false;
+    await admin.query(`KILL CONNECTION ${victim}`);
+    return true;
   } finally {
     await admin.end();
   }

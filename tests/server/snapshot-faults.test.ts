@@ -5,7 +5,7 @@ import { AuditEventModel } from "../../server/models/audit-event";
 import { SnapshotModel } from "../../server/models/snapshot";
 import { uploadCsv } from "./ingest-helpers";
 import { approve, HEADER, preparedAndSubmitted, signOffBook, snapshotApp as app, verify } from "./snapshot-helpers";
-import { outsideSession } from "./support/outside-session";
+import { otherConnectionRunning, sessionHolding } from "./support/outside-session";
 
 afterAll(() => sequelize.close());
 
@@ -15,25 +15,15 @@ describe("the database goes away in the middle of an approval", () => {
     const submitted = await preparedAndSubmitted(book);
 
     // Another session holds the entity row, so the approval stops at its entity lock; then its connection is killed.
-    const admin = await outsideSession();
-    const [{ id: adminThread }] = (await admin.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
-    await admin.beginTransaction();
-    await admin.query("SELECT id FROM entities WHERE id = ? FOR UPDATE", [book.entity.id]);
+    const admin = await sessionHolding("SELECT id FROM entities WHERE id = ? FOR UPDATE", [book.entity.id]);
     const approving = approve(submitted.id, book.croCookie).then((r) => r);
-    let killed = false;
-    for (const until = Date.now() + 20_000; Date.now() < until && !killed;) {
-      const rows: { Id: number; Info: string | null }[] = await admin.query("SHOW FULL PROCESSLIST");
-      const victim = rows.find(
-        (r) =>
-          BigInt(r.Id) !== BigInt(adminThread) &&
-          /FROM `entities`/.test(r.Info ?? "") &&
-          /FOR UPDATE/.test(r.Info ?? ""),
-      );
-      if (victim) {
-        await admin.query(`KILL CONNECTION ${Number(victim.Id)}`);
-        killed = true;
-      } else await new Promise((r) => setTimeout(r, 5));
-    }
+    const victim = await otherConnectionRunning(
+      admin,
+      (q) => /FROM `entities`/.test(q) && /FOR UPDATE/.test(q),
+      20_000,
+    );
+    if (victim !== undefined) await admin.query(`KILL CONNECTION ${victim}`);
+    const killed = victim !== undefined;
     const res = await approving;
     await admin.rollback();
     await admin.end();
@@ -65,27 +55,21 @@ describe("an approval and an upload commit take turns on the entity's portfolios
     const submitted = await preparedAndSubmitted(book);
 
     // Another session locks the portfolio row exactly as an upload commit does.
-    const commitLike = await outsideSession();
-    const [{ id: ownThread }] = (await commitLike.query("SELECT CONNECTION_ID() AS id")) as { id: bigint }[];
-    await commitLike.beginTransaction();
-    await commitLike.query("SELECT id FROM portfolios WHERE id IN (?) ORDER BY id FOR UPDATE", [[book.portfolio.id]]);
+    const commitLike = await sessionHolding("SELECT id FROM portfolios WHERE id IN (?) ORDER BY id FOR UPDATE", [
+      [book.portfolio.id],
+    ]);
     let finished = false;
     const approving = approve(submitted.id, book.croCookie).then((r) => {
       finished = true;
       return r;
     });
-    let waitingAtPortfolios = false;
-    for (const until = Date.now() + 10_000; Date.now() < until && !waitingAtPortfolios && !finished;) {
-      const rows: { Id: number; Info: string | null; State: string | null }[] =
-        await commitLike.query("SHOW FULL PROCESSLIST");
-      waitingAtPortfolios = rows.some(
-        (r) =>
-          BigInt(r.Id) !== BigInt(ownThread) &&
-          /FROM portfolios/.test(r.Info ?? "") &&
-          /LOCK IN SHARE MODE/.test(r.Info ?? ""),
-      );
-      if (!waitingAtPortfolios) await new Promise((r) => setTimeout(r, 5));
-    }
+    const waiter = await otherConnectionRunning(
+      commitLike,
+      (q) => /FROM portfolios/.test(q) && /LOCK IN SHARE MODE/.test(q),
+      10_000,
+      () => !finished,
+    );
+    const waitingAtPortfolios = waiter !== undefined;
     const snapshotWhileWaiting = await SnapshotModel.findByPk(submitted.id);
     await commitLike.rollback();
     await commitLike.end();

@@ -1,13 +1,17 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
-import { PortfolioModel } from "../../server/models/portfolio";
-import { RegulatorAssignmentModel } from "../../server/models/regulator-assignment";
-import { createTestEntity, createTestUser } from "../server/helpers";
+import {
+  createAssignedRegulator,
+  createTestEntity,
+  createTestPortfolio,
+  createTestUser,
+  sessionCookieFor,
+  unique,
+} from "../server/helpers";
 import { HEADER } from "../server/ingest-helpers";
 import { approve, type Book, prepare, signOffBook, snapshotApp, submit } from "../server/snapshot-helpers";
 import { latestLinkTokenFor } from "../server/mail-helpers";
-import { sessionCookieFor, unique } from "../server/helpers";
 import { expectAccessible } from "./axe";
 import { browserSuite, keepScreenshot, pageSignedInAs, signInAs, watchConsole } from "./browser";
 
@@ -53,12 +57,9 @@ async function loadBooks() {
   const empty = await createTestEntity();
   await empty.update({ country: "GB" }); // its calendar offers the import of public holidays
   emptyEntity = empty.code;
-  emptyPortfolio = (
-    await PortfolioModel.create({ entityId: empty.id, code: `${empty.code}-BOOK`, name: "Empty book", level: "top" })
-  ).code;
+  emptyPortfolio = (await createTestPortfolio(empty, "BOOK", "Empty book")).code;
   emails.treasury = (await createTestUser("treasury")).email;
-  const regulator = await createTestUser("regulator");
-  await RegulatorAssignmentModel.create({ userId: regulator.id, entityId: book.entity.id });
+  const regulator = await createAssignedRegulator(book.entity.id);
   emails.regulator = regulator.email;
   const admin = await createTestUser("admin");
   emails.admin = admin.email;
@@ -88,6 +89,34 @@ async function settled(page: Page) {
   await page.waitForFunction(() => !/Loading…|Drawing the chart…|Opening Quartermark/.test(document.body.innerText));
 }
 
+/** The screens several roles open as they stand, each by its address and what shows it has drawn. */
+const screens = () =>
+  ({
+    Backtest: [`/backtest/${book.portfolio.code}`, ["heading", { name: /Where we stand/ }]],
+    Data: ["/data", ["heading", { name: /upload history/i }]],
+    "Quarter close": [`/quarters?entity=${book.entity.code}`, ["heading", { name: /Quarter close/ }]],
+    Capital: [`/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]],
+    Filings: [`/filings?filing=${q1Filing}`, ["heading", { name: /Filings/ }]],
+    "Waiting for me": ["/waiting", ["heading", { name: "Waiting for me" }]],
+  }) satisfies Record<string, [string, Parameters<Page["getByRole"]>]>;
+
+/** Opens each of these screens in turn and checks it, named "<role>: <screen>" in the report. */
+async function checkScreens(page: Page, role: string, names: Array<keyof ReturnType<typeof screens>>) {
+  for (const name of names) {
+    const [path, ready] = screens()[name];
+    await open(page, path, ready);
+    await expectAccessible(page, `${role}: ${name}`);
+  }
+}
+
+/** A new page signed in as `email`, its console watched, its Overview drawn and checked. */
+async function overviewOf(email: string, role: string) {
+  const signedIn = await pageSignedInAs(suite, email);
+  await settled(signedIn.page);
+  await expectAccessible(signedIn.page, `${role}: Overview`);
+  return signedIn;
+}
+
 describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real browser", () => {
   it("when signed out, the sign-in screen, with the wrong password's message shown, has no violation", async () => {
     const page = await suite.context.newPage();
@@ -106,9 +135,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   });
 
   it("when the analyst opens the Overview and the Backtest, with the charts' tables open, a review form with its errors and a portfolio without data, there is no violation", async () => {
-    const { page, errors } = await pageSignedInAs(suite, book.analyst.email);
-    await settled(page);
-    await expectAccessible(page, "analyst: Overview");
+    const { page, errors } = await overviewOf(book.analyst.email, "analyst");
 
     await open(page, `/backtest/${book.portfolio.code}`, ["heading", { name: /Where we stand/ }]);
     await page.getByText("Counted exceptions in the trailing window").first().waitFor({ timeout: 20_000 });
@@ -136,8 +163,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
 
   it("when the analyst opens Data, Quarter close, Capital and Filings, with a refused upload, a refused what-if and an entity without data, there is no violation", async () => {
     const { page, errors } = await pageSignedInAs(suite, book.analyst.email);
-    await open(page, "/data", ["heading", { name: /upload history/i }]);
-    await expectAccessible(page, "analyst: Data");
+    await checkScreens(page, "analyst", ["Data"]);
     const code = book.portfolio.code;
     await page.locator('input[type="file"]').setInputFiles({
       name: "with-weekend.csv",
@@ -151,8 +177,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await settled(page);
     await expectAccessible(page, "analyst: Data, upload refused with its errors");
 
-    await open(page, `/quarters?entity=${book.entity.code}`, ["heading", { name: /Quarter close/ }]);
-    await expectAccessible(page, "analyst: Quarter close");
+    await checkScreens(page, "analyst", ["Quarter close"]);
     await open(page, `/quarters?entity=${book.entity.code}&snapshot=${q3Submitted}`, [
       "heading",
       { name: "What next" },
@@ -161,8 +186,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await open(page, `/quarters?entity=${emptyEntity}`, ["heading", { name: /Quarter close/ }]);
     await expectAccessible(page, "analyst: Quarter close, entity without snapshots");
 
-    await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
-    await expectAccessible(page, "analyst: Capital");
+    await checkScreens(page, "analyst", ["Capital"]);
     const whatIf = page.getByRole("form", { name: "What-if scenario" });
     await whatIf.getByLabel(/Extra exceptions/).fill("-3");
     await whatIf.getByRole("button").click();
@@ -171,17 +195,14 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await open(page, `/capital?entity=${emptyEntity}`, ["heading", { level: 1 }]);
     await expectAccessible(page, "analyst: Capital, entity without data");
 
-    await open(page, `/filings?filing=${q1Filing}`, ["heading", { name: /Filings/ }]);
-    await expectAccessible(page, "analyst: Filings");
+    await checkScreens(page, "analyst", ["Filings"]);
     // The entity without data answers 404 to the figures it has not got, and the browser logs that.
     expect(errors.filter((e) => !/status of 404/.test(e))).toEqual([]);
     await page.close();
   }, 240_000);
 
   it("when the CRO returns a quarter without a comment, opens the filing confirmation and reads the filings, there is no violation", async () => {
-    const { page, errors } = await pageSignedInAs(suite, book.cro.email);
-    await settled(page);
-    await expectAccessible(page, "cro: Overview");
+    const { page, errors } = await overviewOf(book.cro.email, "cro");
     await open(page, `/quarters?entity=${book.entity.code}&snapshot=${q3Submitted}`, [
       "button",
       { name: "Approve and seal" },
@@ -200,26 +221,14 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "cro: Quarter close, filing confirmation open");
     await page.getByRole("button", { name: "Cancel" }).click();
 
-    await open(page, `/backtest/${book.portfolio.code}`, ["heading", { name: /Where we stand/ }]);
-    await expectAccessible(page, "cro: Backtest");
-    await open(page, "/data", ["heading", { name: /upload history/i }]);
-    await expectAccessible(page, "cro: Data");
-    await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
-    await expectAccessible(page, "cro: Capital");
-    await open(page, `/filings?filing=${q1Filing}`, ["heading", { name: /Filings/ }]);
-    await expectAccessible(page, "cro: Filings");
+    await checkScreens(page, "cro", ["Backtest", "Data", "Capital", "Filings"]);
     expect(errors).toEqual([]);
     await page.close();
   }, 240_000);
 
   it("when treasury reads its screens, creates a token with an error first and opens the revoke confirmation, there is no violation", async () => {
-    const { page, errors } = await pageSignedInAs(suite, emails.treasury);
-    await settled(page);
-    await expectAccessible(page, "treasury: Overview");
-    await open(page, `/quarters?entity=${book.entity.code}`, ["heading", { name: /Quarter close/ }]);
-    await expectAccessible(page, "treasury: Quarter close");
-    await open(page, `/capital?entity=${book.entity.code}`, ["form", { name: "What-if scenario" }]);
-    await expectAccessible(page, "treasury: Capital");
+    const { page, errors } = await overviewOf(emails.treasury, "treasury");
+    await checkScreens(page, "treasury", ["Quarter close", "Capital"]);
     await open(page, `/settings?entity=${book.entity.code}`, ["heading", { level: 1 }]);
     await expectAccessible(page, "treasury: Supervisory settings, read only");
 
@@ -246,9 +255,7 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
   }, 240_000);
 
   it("when the regulator reads and acknowledges a filing, there is no violation", async () => {
-    const { page, errors } = await pageSignedInAs(suite, emails.regulator);
-    await settled(page);
-    await expectAccessible(page, "regulator: Overview");
+    const { page, errors } = await overviewOf(emails.regulator, "regulator");
     await open(page, `/filings?filing=${q1Filing}`, ["button", { name: "Acknowledge receipt" }]);
     await expectAccessible(page, "regulator: Filings");
     await page.getByRole("button", { name: "Acknowledge receipt" }).click();
@@ -258,16 +265,13 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
       .waitFor({ timeout: 15_000 });
     await settled(page);
     await expectAccessible(page, "regulator: Filings, acknowledged");
-    await open(page, "/waiting", ["heading", { name: "Waiting for me" }]);
-    await expectAccessible(page, "regulator: Waiting for me");
+    await checkScreens(page, "regulator", ["Waiting for me"]);
     expect(errors).toEqual([]);
     await page.close();
   }, 240_000);
 
   it("when the administrator opens every admin screen and sends each form empty, there is no violation", async () => {
-    const { page, errors } = await pageSignedInAs(suite, emails.admin);
-    await settled(page);
-    await expectAccessible(page, "admin: Overview");
+    const { page, errors } = await overviewOf(emails.admin, "admin");
 
     await open(page, "/admin/users", ["heading", { name: "Invite a user" }]);
     await expectAccessible(page, "admin: Users");
@@ -298,14 +302,15 @@ describe("every screen meets WCAG 2.1 A and AA, checked with axe-core in a real 
     await expectAccessible(page, "admin: Entity, the holiday import's confirmation open");
     await page.getByRole("button", { name: "Cancel" }).click();
 
-    await open(page, "/admin/assignments", ["heading", { level: 1 }]);
-    await expectAccessible(page, "admin: Regulator access");
-    await open(page, "/admin/audit", ["heading", { level: 1 }]);
-    await expectAccessible(page, "admin: Audit log");
-    await open(page, "/admin/outbox", ["heading", { level: 1 }]);
-    await expectAccessible(page, "admin: Outbox");
-    await open(page, "/waiting", ["heading", { name: "Waiting for me" }]);
-    await expectAccessible(page, "admin: Waiting for me");
+    for (const [path, name] of [
+      ["/admin/assignments", "Regulator access"],
+      ["/admin/audit", "Audit log"],
+      ["/admin/outbox", "Outbox"],
+    ]) {
+      await open(page, path, ["heading", { level: 1 }]);
+      await expectAccessible(page, `admin: ${name}`);
+    }
+    await checkScreens(page, "admin", ["Waiting for me"]);
     expect(errors).toEqual([]);
     await page.close();
   }, 240_000);

@@ -1,5 +1,6 @@
 import request from "supertest";
 import { describe, expect, it } from "vitest";
+import type { Page } from "playwright-core";
 import { createApp } from "../../server/app";
 import { ObservationModel } from "../../server/models/observation";
 import { createTestUser, sessionCookieFor } from "../server/helpers";
@@ -30,25 +31,31 @@ async function loadBook() {
 const suite = browserSuite(loadBook);
 
 describe("the analyst's screens in a real browser", () => {
-  it("when the analyst opens the Backtest screen of a portfolio with six exceptions, then it shows the yellow zone by name, with no console errors", async () => {
-    const { page, errors } = await pageSignedInAs(suite, fixture.analyst.email, `/backtest/${fixture.portfolio.code}`);
-    await page
-      .getByText(/yellow/i)
-      .first()
-      .waitFor({ timeout: 20_000 });
+  it.each([
+    {
+      screen: "the Backtest screen of a portfolio with six exceptions",
+      then: "it shows the yellow zone by name",
+      path: () => `/backtest/${fixture.portfolio.code}`,
+      drawn: (page: Page) =>
+        page
+          .getByText(/yellow/i)
+          .first()
+          .waitFor({ timeout: 20_000 }),
+      shot: "backtest-analyst",
+    },
+    {
+      screen: "the Data screen",
+      then: "the upload panel and the history are there",
+      path: () => "/data",
+      drawn: (page: Page) => page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 }),
+      shot: "data-analyst",
+    },
+  ])("when the analyst opens $screen, then $then, with no console errors", async ({ path, drawn, shot }) => {
+    const { page, errors } = await pageSignedInAs(suite, fixture.analyst.email, path());
+    await drawn(page);
     await page.waitForLoadState("networkidle");
-    await expectAccessible(page, "backtest-analyst");
-    await keepScreenshot(page, "backtest-analyst");
-    expect(errors).toEqual([]);
-    await page.close();
-  });
-
-  it("when the analyst opens the Data screen, then the upload panel and the history are there, with no console errors", async () => {
-    const { page, errors } = await pageSignedInAs(suite, fixture.analyst.email, `/data`);
-    await page.getByRole("heading", { name: /upload history/i }).waitFor({ timeout: 15_000 });
-    await page.waitForLoadState("networkidle");
-    await expectAccessible(page, "data-analyst");
-    await keepScreenshot(page, "data-analyst");
+    await expectAccessible(page, shot);
+    await keepScreenshot(page, shot);
     expect(errors).toEqual([]);
     await page.close();
   });

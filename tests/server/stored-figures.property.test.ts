@@ -170,6 +170,10 @@ async function apply(run: Run, c: Command): Promise<void> {
       if (!(err instanceof AppError)) throw err;
     }
   };
+  /** The write on the one of `list` that `pick` names, when the list has any; a refusal is a legitimate outcome. */
+  const onPicked = async <T>(list: T[], pick: number, write: (item: T) => Promise<unknown>) => {
+    if (list.length) await ignoreRefusal(() => write(list[pick % list.length]));
+  };
 
   switch (c.kind) {
     case "commit": {
@@ -195,10 +199,7 @@ async function apply(run: Run, c: Command): Promise<void> {
       return;
     }
     case "review": {
-      const days = await exceptionDays();
-      if (!days.length) return;
-      const day = days[c.pick % days.length];
-      await ignoreRefusal(() =>
+      await onPicked(await exceptionDays(), c.pick, (day) =>
         saveReview(
           portfolio,
           day.date,
@@ -215,9 +216,7 @@ async function apply(run: Run, c: Command): Promise<void> {
     }
     case "decide": {
       const days = (await exceptionDays()).filter((d) => d.status === "requested" || d.status === "approved");
-      if (!days.length) return;
-      const day = days[c.pick % days.length];
-      await ignoreRefusal(() =>
+      await onPicked(days, c.pick, (day) =>
         recordDecision(
           portfolio,
           day.date,
@@ -237,8 +236,7 @@ async function apply(run: Run, c: Command): Promise<void> {
     case "addHoliday": {
       // A weekday in the last 60 days or the next 20 (roll-offs and forecasts look ahead).
       const span = [...run.dates.slice(-60), ...weekdays(run.dates[run.dates.length - 1], 21).slice(1)];
-      const date = span[c.pick % span.length];
-      await ignoreRefusal(() => addHoliday(run.entity.code, { date, name: "Bank holiday" }, run.admin));
+      await onPicked(span, c.pick, (date) => addHoliday(run.entity.code, { date, name: "Bank holiday" }, run.admin));
       return;
     }
     case "settings": {
@@ -271,13 +269,16 @@ async function apply(run: Run, c: Command): Promise<void> {
       return;
     }
     case "removeHoliday": {
-      const list = await holidays();
-      if (!list.length) return;
-      await ignoreRefusal(() => removeHoliday(run.entity.code, list[c.pick % list.length], run.admin));
+      await onPicked(await holidays(), c.pick, (date) => removeHoliday(run.entity.code, date, run.admin));
       return;
     }
   }
 }
+
+type DeterminationFields = Pick<
+  ReturnType<typeof determinationsFor>[number],
+  "periodEnd" | "effectiveFrom" | "effectiveTo" | "counted" | "plusFactor" | "multiplier"
+>;
 
 /** Every stored row of the entity against a fresh computation from the data as it now is. */
 async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
@@ -331,24 +332,18 @@ async function expectStoredEqualsRecomputed(entityId: number): Promise<void> {
     const read = await loadStartingPoint(entity, inputs.portfolio!.id, asOf);
     expect(read && storedStartingPoint(read)).toEqual(storedStartingPoint(start));
   }
-  const fresh = determinationsFor(inputs.series, inputs.options).map((d) => ({
+  // A determination's period, count, plus factor and multiplier, and the settings record it used: stored as computed.
+  const compared = (d: DeterminationFields, settingsId: number | null) => ({
     periodEnd: d.periodEnd,
     effectiveFrom: d.effectiveFrom,
     effectiveTo: d.effectiveTo,
     counted: d.counted,
     plusFactor: d.plusFactor,
     multiplier: d.multiplier,
-    settingsId: d.settings.id,
-  }));
-  const storedDets = (await storedDeterminations(entityId)).map((d) => ({
-    periodEnd: d.periodEnd,
-    effectiveFrom: d.effectiveFrom,
-    effectiveTo: d.effectiveTo,
-    counted: d.counted,
-    plusFactor: d.plusFactor,
-    multiplier: d.multiplier,
-    settingsId: d.settingsId,
-  }));
+    settingsId,
+  });
+  const fresh = determinationsFor(inputs.series, inputs.options).map((d) => compared(d, d.settings.id));
+  const storedDets = (await storedDeterminations(entityId)).map((d) => compared(d, d.settingsId));
   expect(storedDets).toEqual(fresh);
 }
 

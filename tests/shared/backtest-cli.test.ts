@@ -71,21 +71,35 @@ describe("backtest command", () => {
     expect(rates.multiplier).toBeCloseTo(1.7, 12); // MAR99 steps, from memory: 1.5 + 0.20
   });
 
-  it("when the header has an unknown column, then it exits 1 naming the column", () => {
-    const file = writeCsv(
-      "unknown.csv",
-      "portfolio,date,actual_pnl,hypothetical_pnl,var_99,desk\nA,2026-01-02,1,1,1,x\n",
-    );
-    const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-02"]);
+  it.each([
+    {
+      when: "the header has an unknown column",
+      then: "naming the column",
+      name: "unknown.csv",
+      csv: "portfolio,date,actual_pnl,hypothetical_pnl,var_99,desk\nA,2026-01-02,1,1,1,x\n",
+      asOf: "2026-01-02",
+      message: /Unknown column "desk"/,
+    },
+    {
+      when: "a required column is missing",
+      then: "listing it",
+      name: "missing.csv",
+      csv: "portfolio,date,actual_pnl,var_99\nA,2026-01-02,1,1\n",
+      asOf: "2026-01-02",
+      message: /line 1, column hypothetical_pnl: Required column "hypothetical_pnl" is missing/,
+    },
+    {
+      when: "a portfolio has the same date twice",
+      then: "naming the portfolio and the date",
+      name: "dup.csv",
+      csv: "portfolio,date,actual_pnl,hypothetical_pnl,var_99\nA,2026-01-02,1,1,1\nA,2026-01-02,2,2,1\n",
+      asOf: "2026-01-30",
+      message: /line 3, column date: A on 2026-01-02 already appears on line 2/,
+    },
+  ])("when $when, then it exits 1 $then", ({ name, csv, asOf, message }) => {
+    const { code, err } = run(["--file", writeCsv(name, csv), "--regime", "eu", "--as-of", asOf]);
     expect(code).toBe(1);
-    expect(err).toMatch(/Unknown column "desk"/);
-  });
-
-  it("when a required column is missing, then it exits 1 listing it", () => {
-    const file = writeCsv("missing.csv", "portfolio,date,actual_pnl,var_99\nA,2026-01-02,1,1\n");
-    const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-02"]);
-    expect(code).toBe(1);
-    expect(err).toMatch(/line 1, column hypothetical_pnl: Required column "hypothetical_pnl" is missing/);
+    expect(err).toMatch(message);
   });
 
   it("when rows hold a bad amount, a bad date or a negative VaR, then it exits 1 with the line and column of each", () => {
@@ -105,16 +119,6 @@ describe("backtest command", () => {
     expect(err).toMatch(/line 2, column actual_pnl: "1 234.5" is not a plain decimal amount/);
     expect(err).toMatch(/line 3, column date: 2026-02-30 is not a real calendar date/);
     expect(err).toMatch(/line 4, column var_99: var_99 must be a positive amount/);
-  });
-
-  it("when a portfolio has the same date twice, then it exits 1 naming the portfolio and the date", () => {
-    const file = writeCsv(
-      "dup.csv",
-      "portfolio,date,actual_pnl,hypothetical_pnl,var_99\nA,2026-01-02,1,1,1\nA,2026-01-02,2,2,1\n",
-    );
-    const { code, err } = run(["--file", file, "--regime", "eu", "--as-of", "2026-01-30"]);
-    expect(code).toBe(1);
-    expect(err).toMatch(/line 3, column date: A on 2026-01-02 already appears on line 2/);
   });
 
   it("when the arguments are wrong, then it explains; --help prints the usage and exits 0", () => {

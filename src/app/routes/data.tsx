@@ -173,7 +173,7 @@ export default function DataRoute() {
         <UploadHistoryTable
           uploads={uploads}
           selectedId={upload}
-          uploadHref={uploadHref}
+          hrefOf={uploadHref}
           onOpen={(id) => navigate(uploadHref(id))}
           canUpload={isAnalyst}
         />

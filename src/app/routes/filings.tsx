@@ -1,4 +1,4 @@
-import { Link, useNavigate, useSearchParams } from "react-router-dom";
+import { Link, useSearchParams } from "react-router-dom";
 import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { Role } from "@shared/schemas/common";
 import { paths } from "@/config/paths";
@@ -8,6 +8,7 @@ import { filingQueries } from "@/features/filings/api/filing-queries";
 import { FilingDetail } from "@/features/filings/components/filing-detail";
 import { FilingListTable } from "@/features/filings/components/filing-list-table";
 import { TableDownloads } from "@/components/ui/table-downloads";
+import { useRowOpening } from "@/components/ui/table";
 import { FilingsStanding } from "@/features/filings/components/filings-standing";
 import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
@@ -59,12 +60,12 @@ export default function FilingsRoute() {
   const { data: filings, isFetching } = useSuspenseQuery(filingQueries.list());
   const entities = useQuery(entityQueries.all());
   const [search] = useSearchParams();
-  const navigate = useNavigate();
   const params = screenParams(search);
   const role = user!.role;
   const regimeOf = (code: string) => entities.data?.find((e) => e.code === code)?.regime;
   const selected = params.filing !== undefined ? filings.find((f) => f.id === params.filing) : filings[0];
   const filingHref = (id: number) => paths.filings.href({ filing: id });
+  const opening = useRowOpening(filingHref, selected?.id);
 
   return (
     <section aria-labelledby="filings-title" className="flex flex-col gap-5">
@@ -82,14 +83,7 @@ export default function FilingsRoute() {
             {isFetching && " · loading…"}
           </p>
         </div>
-        <FilingListTable
-          filings={filings}
-          selectedId={selected?.id}
-          filingHref={filingHref}
-          onOpen={(id) => navigate(filingHref(id), { preventScrollReset: true })}
-          regimeOf={regimeOf}
-          empty={emptyFor(role)}
-        />
+        <FilingListTable filings={filings} {...opening} regimeOf={regimeOf} empty={emptyFor(role)} />
         {filings.length > 0 && <TableDownloads path="/api/filings" what="the filings" />}
       </section>
       {selected ? (

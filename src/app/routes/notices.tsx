@@ -1,4 +1,4 @@
-import { Link, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { Link, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useQuery, useSuspenseQuery, type QueryClient } from "@tanstack/react-query";
 import type { Role } from "@shared/schemas/common";
 import type { Entity } from "@shared/schemas/entity";
@@ -10,7 +10,7 @@ import { NoticeDetail } from "@/features/notices/components/notice-detail";
 import { NoticeListTable } from "@/features/notices/components/notice-list-table";
 import { FormMessage } from "@/components/ui/field";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
-import { EmptyState } from "@/components/ui/table";
+import { EmptyState, useRowOpening } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { entityOf } from "@/lib/entity-choice";
 import { plural } from "@/lib/format";
@@ -37,7 +37,6 @@ export default function NoticesRoute() {
   const { data: user } = useSuspenseQuery(authQueries.me());
   const { data: all } = useSuspenseQuery(entityQueries.all());
   const [search] = useSearchParams();
-  const navigate = useNavigate();
   const role = user!.role;
   const entities = euOf(all);
   const entity = entityOf(entities, search.get("entity"));
@@ -48,7 +47,7 @@ export default function NoticesRoute() {
   const selected = Number.isInteger(asked) && asked > 0 ? notices.find((n) => n.id === asked) : notices[0];
   const open = notices.filter((n) => n.status === "open");
   const late = notices.filter((n) => n.late && n.status === "open");
-  const noticeHref = (id: number) => paths.notices.href({ entity, notice: id });
+  const opening = useRowOpening((id: number) => paths.notices.href({ entity, notice: id }), selected?.id);
 
   return (
     <section aria-labelledby="notices-title" className="flex flex-col gap-5">
@@ -79,12 +78,7 @@ export default function NoticesRoute() {
                   late.length ? `, ${plural(late.length, "of them late", "of them late")}` : ""
                 }.`}
           </p>
-          <NoticeListTable
-            notices={notices}
-            selectedId={selected?.id}
-            noticeHref={noticeHref}
-            onOpen={(id) => navigate(noticeHref(id), { preventScrollReset: true })}
-          />
+          <NoticeListTable notices={notices} {...opening} />
           {selected ? (
             <NoticeDetail
               key={selected.id}

@@ -20,7 +20,7 @@ import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { FormMessage } from "@/components/ui/field";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
-import { EmptyState } from "@/components/ui/table";
+import { EmptyState, useRowOpening } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 
 function screenParams(search: URLSearchParams): { entity?: string; snapshot?: number } {
@@ -173,6 +173,7 @@ export default function SnapshotsRoute() {
   const snapshots = list.data ?? [];
   const selectedId = params.snapshot ?? snapshots[0]?.id;
   const snapshotHref = (id: number) => paths.snapshots.href({ entity, snapshot: id });
+  const opening = useRowOpening(snapshotHref, selectedId);
   const current = entities.find((e) => e.code === entity);
   const latest = snapshots[0];
   const capitalToday = useQuery({
@@ -269,13 +270,7 @@ export default function SnapshotsRoute() {
                 {isApiError(list.error) ? list.error.message : "The snapshots could not be read."}
               </FormMessage>
             ) : list.data ? (
-              <SnapshotListTable
-                snapshots={snapshots}
-                selectedId={selectedId}
-                snapshotHref={snapshotHref}
-                onOpen={(id) => navigate(snapshotHref(id), { preventScrollReset: true })}
-                empty={emptyFor(role, entity)}
-              />
+              <SnapshotListTable snapshots={snapshots} {...opening} empty={emptyFor(role, entity)} />
             ) : (
               <p className="text-sm text-ink-muted">Reading the snapshots…</p>
             )}

@@ -1,14 +1,4 @@
 import type { ReactNode } from "react";
-import { Th } from "@/components/ui/table";
-
-/** The header of the last column, where each row's buttons stand: named for screen readers only. */
-export function ActionsTh({ label = "Actions" }: { label?: string }) {
-  return (
-    <Th>
-      <span className="sr-only">{label}</span>
-    </Th>
-  );
-}
 
 /** A full-width row under a table row, holding what one of its buttons opened: a confirmation or a short form. */
 export function OpenedRow({ colSpan, children }: { colSpan: number; children: ReactNode }) {

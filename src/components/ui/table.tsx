@@ -1,4 +1,5 @@
 import type { HTMLAttributes, ReactNode, TdHTMLAttributes, ThHTMLAttributes } from "react";
+import { useNavigate } from "react-router-dom";
 import { cn } from "@/lib/cn";
 
 /** Dense table with hairline rules; `caption` names it for screen readers. */
@@ -27,23 +28,30 @@ export function Th({ numeric, className, ...rest }: ThHTMLAttributes<HTMLTableCe
   );
 }
 
-/** A column of a table's head: its name, or `{ numeric: name }` for a column of figures (right-aligned). */
-export type Column = string | { numeric: ReactNode };
+/**
+ * A column of a table's head: its name, `{ numeric: name }` for a column of figures (right-aligned), or
+ * `{ actions: name }` for the last column, where each row's buttons stand (named for screen readers only).
+ */
+export type Column = string | { numeric: ReactNode } | { actions: string };
+
+function ColumnTh({ column }: { column: Column }) {
+  if (typeof column === "string") return <Th>{column}</Th>;
+  if ("numeric" in column) return <Th numeric>{column.numeric}</Th>;
+  return (
+    <Th>
+      <span className="sr-only">{column.actions}</span>
+    </Th>
+  );
+}
 
 /** A table's head: one row naming each column, in order. */
 export function TableHead({ columns }: { columns: readonly Column[] }) {
   return (
     <thead>
       <tr>
-        {columns.map((column, i) =>
-          typeof column === "string" ? (
-            <Th key={i}>{column}</Th>
-          ) : (
-            <Th key={i} numeric>
-              {column.numeric}
-            </Th>
-          ),
-        )}
+        {columns.map((column, i) => (
+          <ColumnTh key={i} column={column} />
+        ))}
       </tr>
     </thead>
   );
@@ -79,6 +87,50 @@ export function SelectableTr({
       className={cn("cursor-pointer", selected && "bg-accent-soft/70 hover:bg-accent-soft", className)}
       {...rest}
     />
+  );
+}
+
+/** Which row of a list is open, where each row's link leads and what a click on a row does. */
+export type RowOpening<Id> = { selectedId?: Id; hrefOf: (id: Id) => string; onOpen: (id: Id) => void };
+
+/** The opening of a list whose records have addresses: a click on a row goes there, and the page keeps its scroll. */
+export function useRowOpening<Id>(hrefOf: (id: Id) => string, selectedId: Id | undefined): RowOpening<Id> {
+  const navigate = useNavigate();
+  return { selectedId, hrefOf, onOpen: (id) => navigate(hrefOf(id), { preventScrollReset: true }) };
+}
+
+/**
+ * A list of records, one a row, each opening its record below the table when clicked (the open one is
+ * marked); `empty` stands instead of a table without rows and says what the reader can do next.
+ */
+export function RecordTable<Id extends string | number, T extends { id: Id }>({
+  caption,
+  columns,
+  records,
+  selectedId,
+  onOpen,
+  empty,
+  children: cells,
+}: Omit<RowOpening<Id>, "hrefOf"> & {
+  caption: string;
+  columns: readonly Column[];
+  records: readonly T[];
+  empty: { title: string; next?: ReactNode };
+  /** The cells of one record's row. */
+  children: (record: T) => ReactNode;
+}) {
+  if (records.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
+  return (
+    <Table caption={caption}>
+      <TableHead columns={columns} />
+      <tbody>
+        {records.map((record) => (
+          <SelectableTr key={record.id} selected={record.id === selectedId} onOpen={() => onOpen(record.id)}>
+            {cells(record)}
+          </SelectableTr>
+        ))}
+      </tbody>
+    </Table>
   );
 }
 

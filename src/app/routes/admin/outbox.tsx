@@ -1,4 +1,4 @@
-import { useNavigate, useSearchParams } from "react-router-dom";
+import { useSearchParams } from "react-router-dom";
 import { useQuery, useQueryClient, type QueryClient } from "@tanstack/react-query";
 import { paths } from "@/config/paths";
 import { isOutboxUnavailable, outboxKeys, outboxQueries } from "@/features/outbox/api/outbox-queries";
@@ -7,6 +7,7 @@ import { OutboxMessageView } from "@/features/outbox/components/outbox-message-v
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { PageTitle } from "@/components/ui/page-title";
+import { useRowOpening } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 
@@ -26,7 +27,6 @@ function DevelopmentOnly() {
 
 export default function OutboxRoute() {
   const [search] = useSearchParams();
-  const navigate = useNavigate();
   const queryClient = useQueryClient();
   const list = useQuery(outboxQueries.list());
   const messages = list.data?.messages ?? [];
@@ -36,7 +36,7 @@ export default function OutboxRoute() {
     ...outboxQueries.message(selectedId ?? ""),
     enabled: selectedId !== undefined && list.isSuccess,
   });
-  const messageHref = (id: string) => paths.adminOutbox.href({ message: id });
+  const opening = useRowOpening((id: string) => paths.adminOutbox.href({ message: id }), selectedId);
   const newest = messages[0];
 
   return (
@@ -88,12 +88,7 @@ export default function OutboxRoute() {
             <p className="text-xs text-ink-muted">
               Kept as .eml files in <code className="break-all">{list.data.folder}</code>
             </p>
-            <OutboxListTable
-              messages={messages}
-              selectedId={selectedId}
-              messageHref={messageHref}
-              onOpen={(id) => navigate(messageHref(id), { preventScrollReset: true })}
-            />
+            <OutboxListTable messages={messages} {...opening} />
           </section>
           {selectedId !== undefined &&
             (message.data ? (

@@ -5,8 +5,7 @@ import type { User } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField } from "@/components/ui/field";
 import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { ActionsTh } from "@/components/ui/row-actions";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { formLevelMessage } from "@/lib/form";
 import { useAddAssignment, useRemoveAssignment } from "../api/assignment-queries";
@@ -100,14 +99,7 @@ export function AssignmentsPanel(props: Props) {
           </EmptyState>
         ) : (
           <Table caption="Regulator access by entity">
-            <thead>
-              <tr>
-                <Th>Regulator</Th>
-                <Th>E-mail</Th>
-                <Th>Entity</Th>
-                <ActionsTh />
-              </tr>
-            </thead>
+            <TableHead columns={["Regulator", "E-mail", "Entity", { actions: "Actions" }]} />
             <tbody>
               {sorted.map((a) => (
                 <Tr key={`${a.userId}-${a.entityCode}`}>

@@ -2,13 +2,13 @@ import { Fragment, useState } from "react";
 import type { RoleRequest } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
-import { Table, Td, Th, Tr } from "@/components/ui/table";
+import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
 import { useDecideRoleRequest } from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
-import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
+import { OpenedRow } from "@/components/ui/row-actions";
 
 type Decision = { id: number; decision: "approve" | "reject" };
 
@@ -54,15 +54,7 @@ export function RoleRequestsTable({ requests, currentUserId }: { requests: RoleR
       <FormMessage>{error}</FormMessage>
       <FormMessage tone="done">{notice}</FormMessage>
       <Table caption="Role changes waiting for approval">
-        <thead>
-          <tr>
-            <Th>Person</Th>
-            <Th>Change</Th>
-            <Th>Proposed by</Th>
-            <Th numeric>Proposed</Th>
-            <ActionsTh label="Decision" />
-          </tr>
-        </thead>
+        <TableHead columns={["Person", "Change", "Proposed by", { numeric: "Proposed" }, { actions: "Decision" }]} />
         <tbody>
           {requests.map((r) => {
             const mine = r.proposedBy.id === currentUserId;

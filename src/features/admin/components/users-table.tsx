@@ -3,7 +3,7 @@ import { needsSecondAdmin, type RoleRequest, type User } from "@shared/schemas/u
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleIds, roleLabels } from "@/lib/role-labels";
@@ -16,7 +16,7 @@ import {
   useUpdateUser,
 } from "../api/user-queries";
 import { Confirmation } from "@/components/ui/confirmation";
-import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
+import { OpenedRow } from "@/components/ui/row-actions";
 
 type Pending =
   | { userId: number; kind: "role"; role: Role }
@@ -144,16 +144,9 @@ export function UsersTable({
       <FormMessage>{error}</FormMessage>
       <FormMessage tone="done">{notice}</FormMessage>
       <Table caption="Users">
-        <thead>
-          <tr>
-            <Th>Name</Th>
-            <Th>E-mail</Th>
-            <Th>Role</Th>
-            <Th>Status</Th>
-            <Th numeric>Last sign-in</Th>
-            <ActionsTh />
-          </tr>
-        </thead>
+        <TableHead
+          columns={["Name", "E-mail", "Role", "Status", { numeric: "Last sign-in" }, { actions: "Actions" }]}
+        />
         <tbody>
           {sorted.map((u) => {
             const self = u.id === currentUserId;

@@ -3,8 +3,8 @@ import { flushSync } from "react-dom";
 import type { ApiToken, ApiTokenStatus } from "@shared/schemas/api-token";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
+import { OpenedRow } from "@/components/ui/row-actions";
 import { isApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
@@ -86,17 +86,17 @@ export function TokensTable({ tokens }: { tokens: ApiToken[] }) {
         {notice}
       </FormMessage>
       <Table caption="Your API tokens">
-        <thead>
-          <tr>
-            <Th>Name</Th>
-            <Th>Starts with</Th>
-            <Th numeric>Created</Th>
-            <Th numeric>Last used</Th>
-            <Th numeric>Expires</Th>
-            <Th>Status</Th>
-            <ActionsTh />
-          </tr>
-        </thead>
+        <TableHead
+          columns={[
+            "Name",
+            "Starts with",
+            { numeric: "Created" },
+            { numeric: "Last used" },
+            { numeric: "Expires" },
+            "Status",
+            { actions: "Actions" },
+          ]}
+        />
         <tbody>
           {tokens.map((t) => (
             <Fragment key={t.id}>

@@ -11,8 +11,7 @@ import { Button } from "@/components/ui/button";
 import { Confirmation } from "@/components/ui/confirmation";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { ActionsTh } from "@/components/ui/row-actions";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { isApiError, staleCurrent } from "@/lib/api-client";
 import { formLevelMessage } from "@/lib/form";
 import { formatBusinessDate } from "@/lib/format";
@@ -223,14 +222,7 @@ export function HolidaysPanel({
         </EmptyState>
       ) : (
         <Table caption={`Holidays of ${entityCode}`}>
-          <thead>
-            <tr>
-              <Th>Date</Th>
-              <Th>Name</Th>
-              <Th>Source</Th>
-              <ActionsTh />
-            </tr>
-          </thead>
+          <TableHead columns={["Date", "Name", "Source", { actions: "Actions" }]} />
           <tbody>
             {sorted.map((h) => (
               <Tr key={h.date}>

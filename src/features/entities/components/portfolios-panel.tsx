@@ -4,8 +4,7 @@ import type { PortfolioLevel } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
 import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { ActionsTh } from "@/components/ui/row-actions";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formLevelMessage, validate } from "@/lib/form";
 import { useCreatePortfolio, useRenamePortfolio } from "../api/entity-queries";
@@ -134,14 +133,7 @@ export function PortfoliosPanel({
         </EmptyState>
       ) : (
         <Table caption={`Portfolios of ${entityCode}`}>
-          <thead>
-            <tr>
-              <Th>Code</Th>
-              <Th>Name</Th>
-              <Th>Level</Th>
-              <ActionsTh />
-            </tr>
-          </thead>
+          <TableHead columns={["Code", "Name", "Level", { actions: "Actions" }]} />
           <tbody>
             {sorted.map((p) => (
               <Tr key={p.code}>

@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
 import { quarterLabel } from "@shared/backtest/quarters";
-import { EmptyState, SelectableTr, Table, TableHead, Td } from "@/components/ui/table";
+import { RecordTable, Td, type RowOpening } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";
 import { PersonName } from "@/lib/people";
@@ -10,93 +10,88 @@ import { PersonName } from "@/lib/people";
 /** The packs sent, newest first, with the figures each one carried; a row opens its filing. */
 export function FilingListTable({
   filings,
-  selectedId,
-  filingHref,
-  onOpen,
+  hrefOf,
   regimeOf,
   empty,
-}: {
+  ...opening
+}: RowOpening<number> & {
   filings: Filing[];
-  selectedId?: number;
-  filingHref: (id: number) => string;
-  onOpen: (id: number) => void;
   /** The entity's rule set, so an FRTB zone reads amber. */
   regimeOf: (entity: string) => string | undefined;
   empty: { title: string; next: ReactNode };
 }) {
-  if (filings.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
   return (
-    <Table caption="Filed packs, newest first">
-      <TableHead
-        columns={[
-          "Entity",
-          "Quarter",
-          "Zone",
-          { numeric: "Counted exceptions" },
-          { numeric: "Multiplier" },
-          "Sent",
-          "Recipients",
-          "Acknowledged",
-        ]}
-      />
-      <tbody>
-        {filings.map((f) => {
-          const selected = f.id === selectedId;
-          const quarter = quarterLabel(f.quarterEnd);
-          return (
-            <SelectableTr key={f.id} selected={selected} onOpen={() => onOpen(f.id)}>
-              <Td className="whitespace-nowrap">
-                <span className="figures font-medium">{f.entity}</span>
-                <span className="block text-2xs text-ink-muted">{f.entityName}</span>
-              </Td>
-              <Td className="whitespace-nowrap">
-                <Link to={filingHref(f.id)} aria-label={`Open ${f.entity} ${quarter}`} className="font-medium">
-                  {quarter}
-                </Link>
-                <span className="figures block text-2xs text-ink-muted">{f.quarterEnd}</span>
-                {f.amends !== null && (
-                  <span className="block text-2xs font-medium">Amendment of snapshot #{f.amends}</span>
-                )}
-                {f.amendedBy !== null && (
-                  <span className="block text-2xs font-medium">Amended by snapshot #{f.amendedBy}</span>
-                )}
-              </Td>
-              <Td>
-                <ZoneBadge zone={f.zone} regime={regimeOf(f.entity)} />
-              </Td>
-              <Td numeric>{f.counted}</Td>
-              <Td numeric>{formatFactor(f.multiplier)}</Td>
-              <Td className="whitespace-nowrap">
-                {f.sentAt ? (
-                  <span className="figures">{formatDateTime(f.sentAt)}</span>
-                ) : (
-                  <span className="font-medium">Waiting for the mail server</span>
-                )}
-                <span className="block text-2xs text-ink-muted">
-                  <PersonName email={f.sentBy} />
-                </span>
-              </Td>
-              <Td className="text-xs">
-                <ul>
-                  {f.recipients.map((r) => (
-                    <li key={r}>{r}</li>
-                  ))}
-                </ul>
-              </Td>
-              <Td className="whitespace-nowrap">
-                {f.acknowledgedAt ? (
-                  <>
-                    <span className="figures">{formatDateTime(f.acknowledgedAt)}</span>
-                    <span className="block text-2xs text-ink-muted">{f.acknowledgedBy}</span>
-                  </>
-                ) : (
-                  <span className="font-medium">Waiting</span>
-                )}
-              </Td>
-            </SelectableTr>
-          );
-        })}
-      </tbody>
-    </Table>
+    <RecordTable
+      caption="Filed packs, newest first"
+      columns={[
+        "Entity",
+        "Quarter",
+        "Zone",
+        { numeric: "Counted exceptions" },
+        { numeric: "Multiplier" },
+        "Sent",
+        "Recipients",
+        "Acknowledged",
+      ]}
+      records={filings}
+      empty={empty}
+      {...opening}
+    >
+      {(f) => {
+        const quarter = quarterLabel(f.quarterEnd);
+        return (
+          <>
+            <Td className="whitespace-nowrap">
+              <span className="figures font-medium">{f.entity}</span>
+              <span className="block text-2xs text-ink-muted">{f.entityName}</span>
+            </Td>
+            <Td className="whitespace-nowrap">
+              <Link to={hrefOf(f.id)} aria-label={`Open ${f.entity} ${quarter}`} className="font-medium">
+                {quarter}
+              </Link>
+              <span className="figures block text-2xs text-ink-muted">{f.quarterEnd}</span>
+              {f.amends !== null && (
+                <span className="block text-2xs font-medium">Amendment of snapshot #{f.amends}</span>
+              )}
+              {f.amendedBy !== null && (
+                <span className="block text-2xs font-medium">Amended by snapshot #{f.amendedBy}</span>
+              )}
+            </Td>
+            <Td>
+              <ZoneBadge zone={f.zone} regime={regimeOf(f.entity)} />
+            </Td>
+            <Td numeric>{f.counted}</Td>
+            <Td numeric>{formatFactor(f.multiplier)}</Td>
+            <Td className="whitespace-nowrap">
+              {f.sentAt ? (
+                <span className="figures">{formatDateTime(f.sentAt)}</span>
+              ) : (
+                <span className="font-medium">Waiting for the mail server</span>
+              )}
+              <span className="block text-2xs text-ink-muted">
+                <PersonName email={f.sentBy} />
+              </span>
+            </Td>
+            <Td className="text-xs">
+              <ul>
+                {f.recipients.map((r) => (
+                  <li key={r}>{r}</li>
+                ))}
+              </ul>
+            </Td>
+            <Td className="whitespace-nowrap">
+              {f.acknowledgedAt ? (
+                <>
+                  <span className="figures">{formatDateTime(f.acknowledgedAt)}</span>
+                  <span className="block text-2xs text-ink-muted">{f.acknowledgedBy}</span>
+                </>
+              ) : (
+                <span className="font-medium">Waiting</span>
+              )}
+            </Td>
+          </>
+        );
+      }}
+    </RecordTable>
   );
 }

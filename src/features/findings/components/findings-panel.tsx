@@ -3,8 +3,8 @@ import { useQuery } from "@tanstack/react-query";
 import { closeFindingBodySchema, findingKindSchema, type Finding, type FindingKind } from "@shared/schemas/finding";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField } from "@/components/ui/field";
-import { EmptyState, Table, Td, Th, Tr } from "@/components/ui/table";
-import { ActionsTh, OpenedRow } from "@/components/ui/row-actions";
+import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
+import { OpenedRow } from "@/components/ui/row-actions";
 import { isApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
@@ -207,18 +207,18 @@ export function FindingsPanel({
       ) : findings ? (
         <div className={isPlaceholderData ? "opacity-60" : undefined}>
           <Table caption="Data-quality findings">
-            <thead>
-              <tr>
-                <Th>Entity</Th>
-                <Th>Portfolio</Th>
-                <Th>What</Th>
-                <Th>Business dates</Th>
-                <Th>Detail</Th>
-                <Th>Status</Th>
-                <Th>Closed by</Th>
-                {canClose && <ActionsTh />}
-              </tr>
-            </thead>
+            <TableHead
+              columns={[
+                "Entity",
+                "Portfolio",
+                "What",
+                "Business dates",
+                "Detail",
+                "Status",
+                "Closed by",
+                ...(canClose ? [{ actions: "Actions" }] : []),
+              ]}
+            />
             <tbody>
               {list.map((f) => (
                 <Fragment key={f.id}>

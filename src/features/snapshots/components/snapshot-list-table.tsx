@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import { quarterLabel } from "@shared/backtest/quarters";
 import { type SnapshotListItem } from "@shared/schemas/snapshot";
-import { EmptyState, SelectableTr, Table, TableHead, Td } from "@/components/ui/table";
+import { RecordTable, Td, type RowOpening } from "@/components/ui/table";
 import { QuarterFigureCells, quarterFigureColumns } from "@/components/ui/quarter-figure-cells";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
@@ -12,64 +12,59 @@ import { PersonName } from "@/lib/people";
 /** The entity's quarters, newest first, with the headline figures each one froze; a row opens its snapshot. */
 export function SnapshotListTable({
   snapshots,
-  selectedId,
-  snapshotHref,
-  onOpen,
+  hrefOf,
   empty,
-}: {
+  ...opening
+}: RowOpening<number> & {
   snapshots: SnapshotListItem[];
-  selectedId?: number;
-  snapshotHref: (id: number) => string;
-  onOpen: (id: number) => void;
   empty: { title: string; next: ReactNode };
 }) {
-  if (snapshots.length === 0) return <EmptyState title={empty.title}>{empty.next}</EmptyState>;
   return (
-    <Table caption="Quarter snapshots, newest first">
-      <TableHead columns={["Quarter", "Status", "Zone", ...quarterFigureColumns, "Prepared by", "Approved by"]} />
-      <tbody>
-        {snapshots.map((s) => {
-          const selected = s.id === selectedId;
-          const label = quarterLabel(s.quarterEnd);
-          return (
-            <SelectableTr key={s.id} selected={selected} onOpen={() => onOpen(s.id)}>
-              <Td className="whitespace-nowrap">
-                <Link
-                  to={snapshotHref(s.id)}
-                  aria-label={`Open ${label}, ${snapshotStatusLabels[s.status].toLowerCase()}`}
-                  className="font-medium"
-                >
-                  {label}
-                </Link>
-                <span className="figures block text-2xs text-ink-muted">{s.quarterEnd}</span>
-                {s.amends !== null && <span className="block text-2xs font-medium">Amends #{s.amends}</span>}
-                {s.amendedBy !== null && (
-                  <span className="block text-2xs text-ink-muted">Amended by #{s.amendedBy}</span>
-                )}
-              </Td>
-              <Td
-                className={cn(
-                  "whitespace-nowrap",
-                  (s.status === "submitted" || s.status === "returned") && "font-medium",
-                )}
+    <RecordTable
+      caption="Quarter snapshots, newest first"
+      columns={["Quarter", "Status", "Zone", ...quarterFigureColumns, "Prepared by", "Approved by"]}
+      records={snapshots}
+      empty={empty}
+      {...opening}
+    >
+      {(s) => {
+        const label = quarterLabel(s.quarterEnd);
+        return (
+          <>
+            <Td className="whitespace-nowrap">
+              <Link
+                to={hrefOf(s.id)}
+                aria-label={`Open ${label}, ${snapshotStatusLabels[s.status].toLowerCase()}`}
+                className="font-medium"
               >
-                {snapshotStatusLabels[s.status]}
-              </Td>
-              <Td>
-                {/* A window short of 250 observations gives a provisional zone (docs/rules.md#window), here as in the snapshot's figures. */}
-                <ZoneBadge zone={s.zone} regime={s.figures.regime} provisional={!s.figures.window.complete} />
-              </Td>
-              <QuarterFigureCells quarter={s} currency={s.figures.currency} />
-              <Td className="text-xs">
-                <PersonName email={s.preparedBy} />
-              </Td>
-              <Td className="text-xs">
-                {s.approvedBy ? <PersonName email={s.approvedBy} /> : <span className="text-ink-faint">—</span>}
-              </Td>
-            </SelectableTr>
-          );
-        })}
-      </tbody>
-    </Table>
+                {label}
+              </Link>
+              <span className="figures block text-2xs text-ink-muted">{s.quarterEnd}</span>
+              {s.amends !== null && <span className="block text-2xs font-medium">Amends #{s.amends}</span>}
+              {s.amendedBy !== null && <span className="block text-2xs text-ink-muted">Amended by #{s.amendedBy}</span>}
+            </Td>
+            <Td
+              className={cn(
+                "whitespace-nowrap",
+                (s.status === "submitted" || s.status === "returned") && "font-medium",
+              )}
+            >
+              {snapshotStatusLabels[s.status]}
+            </Td>
+            <Td>
+              {/* A window short of 250 observations gives a provisional zone (docs/rules.md#window), here as in the snapshot's figures. */}
+              <ZoneBadge zone={s.zone} regime={s.figures.regime} provisional={!s.figures.window.complete} />
+            </Td>
+            <QuarterFigureCells quarter={s} currency={s.figures.currency} />
+            <Td className="text-xs">
+              <PersonName email={s.preparedBy} />
+            </Td>
+            <Td className="text-xs">
+              {s.approvedBy ? <PersonName email={s.approvedBy} /> : <span className="text-ink-faint">—</span>}
+            </Td>
+          </>
+        );
+      }}
+    </RecordTable>
   );
 }

@@ -1,4 +1,4 @@
-import { useRef, useState, type ReactNode } from "react";
+import { useRef, useState, type FormEvent, type ReactNode, type RefObject } from "react";
 import type { UseMutationResult } from "@tanstack/react-query";
 import type { z } from "zod";
 import { Button, type ButtonProps } from "@/components/ui/button";
@@ -60,6 +60,33 @@ export function useFormKit<V extends Values>(initial: V, { clearOnEdit = false }
   }
 
   return { formRef, values, setValues, errors, setErrors, done, setDone, fail, check, send, field };
+}
+
+/**
+ * A form headed by its own title, which names it for screen readers (`titleId`). The browser's own
+ * checks stay off (`noValidate`): the server's schema judges, and its messages stand beside the fields.
+ */
+export function HeadedForm({
+  formRef,
+  onSubmit,
+  titleId,
+  title,
+  className = "flex flex-col gap-3",
+  children,
+}: {
+  formRef: RefObject<HTMLFormElement | null>;
+  onSubmit: (e: FormEvent) => void;
+  titleId: string;
+  title: string;
+  className?: string;
+  children: ReactNode;
+}) {
+  return (
+    <form ref={formRef} onSubmit={onSubmit} noValidate aria-labelledby={titleId} className={className}>
+      <h2 id={titleId}>{title}</h2>
+      {children}
+    </form>
+  );
 }
 
 /** A form's submit button: it says what is happening while the request runs and cannot be pressed twice. */

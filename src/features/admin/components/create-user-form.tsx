@@ -2,7 +2,7 @@ import type { FormEvent } from "react";
 import { createUserBodySchema, needsSecondAdmin } from "@shared/schemas/user";
 import type { Role } from "@shared/schemas/common";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
-import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
+import { HeadedForm, SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { formLevelMessage } from "@/lib/form";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { formatDateTime } from "@/lib/format";
@@ -31,14 +31,7 @@ export function CreateUserForm() {
   }
 
   return (
-    <form
-      ref={formRef}
-      onSubmit={submit}
-      noValidate
-      aria-labelledby="create-user-title"
-      className="flex flex-col gap-3"
-    >
-      <h2 id="create-user-title">Invite a user</h2>
+    <HeadedForm formRef={formRef} onSubmit={submit} titleId="create-user-title" title="Invite a user">
       <p className="text-sm text-ink-muted">
         The person gets a one-time link by e-mail and chooses their own password; nobody else ever knows it.
       </p>
@@ -66,6 +59,6 @@ export function CreateUserForm() {
           Send invitation
         </SubmitButton>
       </div>
-    </form>
+    </HeadedForm>
   );
 }

@@ -6,7 +6,7 @@ import {
   type CreatedApiToken,
 } from "@shared/schemas/api-token";
 import { FormMessage, TextField } from "@/components/ui/field";
-import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
+import { HeadedForm, SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { formLevelMessage } from "@/lib/form";
 import { useCreateApiToken } from "../api/api-token-queries";
 
@@ -40,14 +40,7 @@ export function CreateTokenForm({ onCreated }: { onCreated: (token: CreatedApiTo
   }
 
   return (
-    <form
-      ref={formRef}
-      onSubmit={submit}
-      noValidate
-      aria-labelledby="create-token-title"
-      className="flex flex-col gap-3"
-    >
-      <h2 id="create-token-title">Create a token</h2>
+    <HeadedForm formRef={formRef} onSubmit={submit} titleId="create-token-title" title="Create a token">
       <FormMessage>{formLevelMessage(create.error)}</FormMessage>
       <div className="grid grid-cols-1 gap-3 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
         <TextField
@@ -71,6 +64,6 @@ export function CreateTokenForm({ onCreated }: { onCreated: (token: CreatedApiTo
           Create token
         </SubmitButton>
       </div>
-    </form>
+    </HeadedForm>
   );
 }

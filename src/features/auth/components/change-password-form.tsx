@@ -1,16 +1,16 @@
-import { useRef, useState, type FormEvent } from "react";
+import { useState, type FormEvent } from "react";
 import type { SessionUser } from "@shared/schemas/auth";
-import { FormMessage, TextField } from "@/components/ui/field";
-import { SubmitButton } from "@/components/ui/form-kit";
+import { FormMessage } from "@/components/ui/field";
+import { HeadedForm, SubmitButton } from "@/components/ui/form-kit";
 import { fieldErrorsOf } from "@/lib/api-client";
-import { focusFirstInvalid, formLevelMessage } from "@/lib/form";
+import { formLevelMessage } from "@/lib/form";
 import { useChangePassword } from "../api/auth-queries";
 import { NewPasswordFields, useNewPassword } from "./new-password-fields";
+import { PasswordField } from "./password-field";
 
 /** Changes one's own password: the current one, then the new one twice. Other sessions end. */
 export function ChangePasswordForm({ user }: { user: SessionUser }) {
   const change = useChangePassword();
-  const formRef = useRef<HTMLFormElement>(null);
   const [current, setCurrent] = useState("");
   const [currentError, setCurrentError] = useState<string>();
   const [done, setDone] = useState<string>();
@@ -22,8 +22,7 @@ export function ChangePasswordForm({ user }: { user: SessionUser }) {
     change.reset();
     const missing = current ? undefined : "Enter your current password";
     setCurrentError(missing);
-    const found = newPassword.check();
-    if (missing || Object.keys(found).length) return focusFirstInvalid(formRef.current);
+    if (newPassword.blocks() || missing) return newPassword.focusError();
     change.mutate(
       { currentPassword: current, newPassword: newPassword.password },
       {
@@ -35,39 +34,29 @@ export function ChangePasswordForm({ user }: { user: SessionUser }) {
         onError: (err) => {
           const f = fieldErrorsOf(err);
           setCurrentError(f.currentPassword);
-          newPassword.setErrors({ password: f.newPassword });
-          focusFirstInvalid(formRef.current);
+          newPassword.refuse(f.newPassword);
         },
       },
     );
   }
 
   return (
-    <form
-      ref={formRef}
+    <HeadedForm
+      formRef={newPassword.formRef}
       onSubmit={submit}
-      noValidate
-      aria-labelledby="change-password-title"
+      titleId="change-password-title"
+      title="Change your password"
       className="flex max-w-sm flex-col gap-3"
     >
-      <h2 id="change-password-title">Change your password</h2>
       <FormMessage>{formLevelMessage(change.error)}</FormMessage>
       <FormMessage tone="done">{done}</FormMessage>
-      <TextField
-        label="Current password"
-        name="current-password"
-        type="password"
-        autoComplete="current-password"
-        value={current}
-        onChange={(e) => setCurrent(e.target.value)}
-        error={currentError}
-      />
+      <PasswordField kind="current" value={current} onValue={setCurrent} error={currentError} />
       <NewPasswordFields {...newPassword.fields} />
       <div>
         <SubmitButton pending={change.isPending} busyLabel="Changing…">
           Change password
         </SubmitButton>
       </div>
-    </form>
+    </HeadedForm>
   );
 }

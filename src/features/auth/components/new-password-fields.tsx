@@ -1,9 +1,10 @@
-import { useState } from "react";
+import { useRef, useState } from "react";
 import type { PasswordOwner } from "@shared/password/policy";
-import { TextField } from "@/components/ui/field";
 import { cn } from "@/lib/cn";
+import { focusFirstInvalid } from "@/lib/form";
 import type { PasswordVerdict } from "../password-rule";
 import { usePasswordVerdict, verdictHint } from "../password-rule";
+import { PasswordField } from "./password-field";
 
 type NewPasswordErrors = { password?: string; repeat?: string };
 
@@ -25,13 +26,10 @@ export function NewPasswordFields({
 }) {
   return (
     <>
-      <TextField
-        label="New password"
-        name="new-password"
-        type="password"
-        autoComplete="new-password"
+      <PasswordField
+        kind="new"
         value={password}
-        onChange={(e) => onPassword(e.target.value)}
+        onValue={onPassword}
         error={errors.password}
         hint={
           <span
@@ -43,15 +41,7 @@ export function NewPasswordFields({
           </span>
         }
       />
-      <TextField
-        label="Repeat the new password"
-        name="repeat-password"
-        type="password"
-        autoComplete="new-password"
-        value={repeat}
-        onChange={(e) => onRepeat(e.target.value)}
-        error={errors.repeat}
-      />
+      <PasswordField kind="repeat" value={repeat} onValue={onRepeat} error={errors.repeat} />
     </>
   );
 }
@@ -65,22 +55,33 @@ export function newPasswordErrors(password: string, repeat: string, verdict: Pas
 }
 
 /**
- * The state behind NewPasswordFields: the two entries, the live verdict on the first and the errors
- * beside them. Typing into a field takes its error away: for the password the live verdict takes over again.
+ * The state behind NewPasswordFields: the two entries, the live verdict on the first, the errors
+ * beside them and the form that holds them (`formRef`), whose first error takes the focus.
+ * Typing into a field takes its error away: for the password the live verdict takes over again.
  */
 export function useNewPassword(owner: PasswordOwner | null) {
+  const formRef = useRef<HTMLFormElement>(null);
   const [password, setPassword] = useState("");
   const [repeat, setRepeat] = useState("");
   const [errors, setErrors] = useState<NewPasswordErrors>({});
   const verdict = usePasswordVerdict(password, owner);
   return {
+    formRef,
     password,
-    setErrors,
-    /** Shows and returns what stops the form before it is sent. */
-    check() {
+    /** Shows what stops the form before it is sent; true when something does. */
+    blocks() {
       const found = newPasswordErrors(password, repeat, verdict);
       setErrors(found);
-      return found;
+      return Object.keys(found).length > 0;
+    },
+    /** Moves the focus to the first field of the form that carries an error. */
+    focusError() {
+      focusFirstInvalid(formRef.current);
+    },
+    /** Shows the server's refusal of the new password, if it named one, and moves the focus to the first error. */
+    refuse(message: string | undefined) {
+      setErrors({ password: message });
+      focusFirstInvalid(formRef.current);
     },
     clear() {
       setPassword("");

@@ -1,9 +1,9 @@
-import { useRef, type FormEvent } from "react";
+import type { FormEvent } from "react";
 import type { Invitation } from "@shared/schemas/auth";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { SubmitButton } from "@/components/ui/form-kit";
 import { fieldErrorsOf } from "@/lib/api-client";
-import { focusFirstInvalid, formLevelMessage } from "@/lib/form";
+import { formLevelMessage } from "@/lib/form";
 import { useAcceptInvitation } from "../api/auth-queries";
 import { NewPasswordFields, useNewPassword } from "./new-password-fields";
 
@@ -18,28 +18,21 @@ export function SetPasswordForm({
   onDone: () => void;
 }) {
   const accept = useAcceptInvitation();
-  const formRef = useRef<HTMLFormElement>(null);
   const newPassword = useNewPassword(invitation);
 
   function submit(e: FormEvent) {
     e.preventDefault();
     accept.reset();
-    if (Object.keys(newPassword.check()).length) return focusFirstInvalid(formRef.current);
+    if (newPassword.blocks()) return newPassword.focusError();
     accept.mutate(
       { token, password: newPassword.password },
-      {
-        onSuccess: onDone,
-        onError: (err) => {
-          newPassword.setErrors({ password: fieldErrorsOf(err).password });
-          focusFirstInvalid(formRef.current);
-        },
-      },
+      { onSuccess: onDone, onError: (err) => newPassword.refuse(fieldErrorsOf(err).password) },
     );
   }
 
   return (
     <form
-      ref={formRef}
+      ref={newPassword.formRef}
       onSubmit={submit}
       noValidate
       aria-labelledby="set-password-title"

@@ -5,6 +5,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { useLogin } from "../api/auth-queries";
+import { PasswordField } from "./password-field";
 
 type Fields = { email?: string; password?: string };
 
@@ -61,14 +62,11 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
         onChange={(e) => setEmail(e.target.value)}
         error={fieldErrors.email}
       />
-      <TextField
+      <PasswordField
         id="sign-in-password"
-        label="Password"
-        type="password"
-        name="password"
-        autoComplete="current-password"
+        kind="sign-in"
         value={password}
-        onChange={(e) => setPassword(e.target.value)}
+        onValue={setPassword}
         error={fieldErrors.password}
       />
       <Button type="submit" disabled={login.isPending} className="mt-1 w-full">

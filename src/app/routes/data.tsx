@@ -13,7 +13,7 @@ import { UploadHistoryTable } from "@/features/uploads/components/upload-history
 import { FindingsPanel } from "@/features/findings/components/findings-panel";
 import { TableDownloads } from "@/components/ui/table-downloads";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 import { isApiError } from "@/lib/api-client";
 import { formatCount, formatDateTime, plural } from "@/lib/format";
 
@@ -166,10 +166,9 @@ export default function DataRoute() {
         what="these findings"
       />
       <section aria-labelledby="history-title" className="flex flex-col gap-2 border-t border-rule pt-4">
-        <div className="flex items-baseline justify-between gap-4">
-          <h2 id="history-title">Upload history</h2>
-          <p className="figures text-sm text-ink-muted">{plural(uploads.length, "file", "files")}</p>
-        </div>
+        <CountedHeading level={2} id="history-title" count={plural(uploads.length, "file", "files")}>
+          Upload history
+        </CountedHeading>
         <UploadHistoryTable
           uploads={uploads}
           selectedId={upload}

@@ -11,7 +11,7 @@ import { TableDownloads } from "@/components/ui/table-downloads";
 import { useRowOpening } from "@/components/ui/table";
 import { FilingsStanding } from "@/features/filings/components/filings-standing";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 import { plural } from "@/lib/format";
 
 function screenParams(search: URLSearchParams): { filing?: number } {
@@ -76,13 +76,14 @@ export default function FilingsRoute() {
       </header>
       <FilingsStanding filings={filings} role={role} />
       <section aria-labelledby="filing-list-title" className="flex flex-col gap-2 border-t border-rule pt-4">
-        <div className="flex items-baseline justify-between gap-4">
-          <h2 id="filing-list-title">Filed packs</h2>
-          <p className="figures text-sm text-ink-muted">
-            {plural(filings.length, "filing", "filings")}
-            {isFetching && " · loading…"}
-          </p>
-        </div>
+        <CountedHeading
+          level={2}
+          id="filing-list-title"
+          count={plural(filings.length, "filing", "filings")}
+          loading={isFetching}
+        >
+          Filed packs
+        </CountedHeading>
         <FilingListTable filings={filings} {...opening} regimeOf={regimeOf} empty={emptyFor(role)} />
         {filings.length > 0 && <TableDownloads path="/api/filings" what="the filings" />}
       </section>

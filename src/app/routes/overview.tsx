@@ -7,7 +7,7 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { EntityOverviewTable } from "@/features/entities/components/entity-overview-table";
 import { overviewQueries } from "@/features/overview/api/overview-queries";
 import { StandingTable } from "@/features/overview/components/standing-table";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 
 /** Only the reporting office and the CRO read the live figures; the others see the entity list. */
 const readsFigures = (role: Role | undefined) => role === "analyst" || role === "cro";
@@ -61,12 +61,9 @@ export default function OverviewRoute() {
   return (
     <section aria-labelledby="overview-title" className="flex flex-col gap-4">
       <PageTitle>Overview</PageTitle>
-      <div className="flex items-baseline justify-between gap-4">
-        <h1 id="overview-title">Overview</h1>
-        <p className="figures text-sm text-ink-muted">
-          {entities.length} {entities.length === 1 ? "entity" : "entities"}
-        </p>
-      </div>
+      <CountedHeading id="overview-title" count={`${entities.length} ${entities.length === 1 ? "entity" : "entities"}`}>
+        Overview
+      </CountedHeading>
       {readsFigures(role) ? (
         <Standing />
       ) : (

@@ -18,6 +18,7 @@ import { MultiplierStanding } from "@/features/snapshots/components/multiplier-s
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
+import { CountedHeading } from "@/components/ui/page-title";
 import { FormMessage } from "@/components/ui/field";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState, useRowOpening } from "@/components/ui/table";
@@ -258,13 +259,14 @@ export default function SnapshotsRoute() {
             </section>
           )}
           <section aria-labelledby="snapshots-title" className="flex flex-col gap-2 border-t border-rule pt-4">
-            <div className="flex items-baseline justify-between gap-4">
-              <h2 id="snapshots-title">Snapshots of {entity}</h2>
-              <p className="figures text-sm text-ink-muted">
-                {list.data ? plural(snapshots.length, "quarter", "quarters") : ""}
-                {list.isFetching && " · loading…"}
-              </p>
-            </div>
+            <CountedHeading
+              level={2}
+              id="snapshots-title"
+              count={list.data ? plural(snapshots.length, "quarter", "quarters") : ""}
+              loading={list.isFetching}
+            >
+              Snapshots of {entity}
+            </CountedHeading>
             {list.error ? (
               <FormMessage>
                 {isApiError(list.error) ? list.error.message : "The snapshots could not be read."}

@@ -7,7 +7,7 @@ import { CreateTokenForm } from "@/features/api-tokens/components/create-token-f
 import { NewTokenSecret } from "@/features/api-tokens/components/new-token-secret";
 import { TokensTable } from "@/features/api-tokens/components/tokens-table";
 import { entityQueries } from "@/features/entities/api/entity-queries";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 import { plural } from "@/lib/format";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
@@ -31,13 +31,18 @@ export default function TokensRoute() {
       <PageTitle>{paths.tokens.label}</PageTitle>
       <section aria-labelledby="tokens-title" className="flex flex-col gap-3">
         <header className="flex flex-col gap-1 border-b border-rule pb-3">
-          <div className="flex items-baseline justify-between gap-4">
-            <h1 id="tokens-title">API tokens</h1>
-            <p className="figures text-sm text-ink-muted" data-testid="tokens-standing">
-              {active === 0 ? "No active token" : `${plural(active, "active token", "active tokens")}`}
-              {tokens.length > active ? ` · ${tokens.length - active} expired or revoked` : ""}
-            </p>
-          </div>
+          <CountedHeading
+            id="tokens-title"
+            count={
+              <>
+                {active === 0 ? "No active token" : plural(active, "active token", "active tokens")}
+                {tokens.length > active ? ` · ${tokens.length - active} expired or revoked` : ""}
+              </>
+            }
+            countProps={{ "data-testid": "tokens-standing" }}
+          >
+            API tokens
+          </CountedHeading>
           <p className="text-sm text-ink-muted">
             A token lets a script read Quartermark as you: capital history, forecasts and what-if results, with your
             current role. Tokens only read: to change anything, sign in here. A token stops working when it expires,

@@ -9,7 +9,7 @@ import { queueQueries } from "@/features/queue/api/queue-queries";
 import { QueueList } from "@/features/queue/components/queue-list";
 import { SettingsDecision } from "@/features/queue/components/settings-decision";
 import { FormMessage } from "@/components/ui/field";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 import { focusWhenShown } from "@/lib/focus";
 import { plural } from "@/lib/format";
 
@@ -60,13 +60,9 @@ export default function WaitingRoute() {
     <section aria-labelledby="waiting-title" className="flex flex-col gap-4">
       <PageTitle>{paths.waiting.label}</PageTitle>
       <header className="flex flex-col gap-1 border-b border-rule pb-3">
-        <div className="flex items-baseline justify-between gap-4">
-          <h1 id="waiting-title">Waiting for me</h1>
-          <p className="figures text-sm text-ink-muted">
-            {plural(items.length, "item", "items")}
-            {isFetching && " · loading…"}
-          </p>
-        </div>
+        <CountedHeading id="waiting-title" count={plural(items.length, "item", "items")} loading={isFetching}>
+          Waiting for me
+        </CountedHeading>
         <p className="text-sm text-ink-muted">{intro[role]} Each line opens the place where it is done.</p>
       </header>
       <FormMessage tone="done" ref={focusWhenShown}>

@@ -13,7 +13,7 @@ import { AuditTable } from "@/features/admin/components/audit-table";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { isApiError } from "@/lib/api-client";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 
 const DAY = /^\d{4}-\d{2}-\d{2}$/;
 
@@ -70,15 +70,18 @@ export default function AuditRoute() {
   return (
     <section aria-labelledby="audit-title" className="flex flex-col gap-3">
       <PageTitle>Audit log</PageTitle>
-      <div className="flex items-baseline justify-between gap-4">
-        <h1 id="audit-title">Audit log</h1>
-        <p className="figures text-sm text-ink-muted" aria-live="polite">
-          {total === 0
+      <CountedHeading
+        id="audit-title"
+        count={
+          total === 0
             ? "No events"
-            : `${first.toLocaleString("en-GB")}–${last.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}`}
-          {isFetching && " · loading…"}
-        </p>
-      </div>
+            : `${first.toLocaleString("en-GB")}–${last.toLocaleString("en-GB")} of ${total.toLocaleString("en-GB")}`
+        }
+        loading={isFetching}
+        countProps={{ "aria-live": "polite" }}
+      >
+        Audit log
+      </CountedHeading>
       <p className="text-sm text-ink-muted">
         Every sign-in, failed sign-in and administrative change, newest first. Entries cannot be edited.
       </p>

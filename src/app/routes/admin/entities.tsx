@@ -4,7 +4,7 @@ import { paths } from "@/config/paths";
 import { entityQueries } from "@/features/entities/api/entity-queries";
 import { EntityForm } from "@/features/entities/components/entity-form";
 import { EntityListTable } from "@/features/entities/components/entity-list-table";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   await queryClient.ensureQueryData(entityQueries.all());
@@ -17,10 +17,9 @@ export default function EntitiesRoute() {
     <div className="flex flex-col gap-8">
       <section aria-labelledby="entities-title" className="flex flex-col gap-3">
         <PageTitle>Entities</PageTitle>
-        <div className="flex items-baseline justify-between gap-4">
-          <h1 id="entities-title">Entities</h1>
-          <p className="figures text-sm text-ink-muted">{entities.length} in total</p>
-        </div>
+        <CountedHeading id="entities-title" count={`${entities.length} in total`}>
+          Entities
+        </CountedHeading>
         <p className="text-sm text-ink-muted">
           Open an entity to edit it and to manage its portfolios and holiday calendar.
         </p>

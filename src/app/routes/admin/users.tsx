@@ -6,7 +6,7 @@ import { CreateUserForm } from "@/features/admin/components/create-user-form";
 import { PendingInvitationsTable } from "@/features/admin/components/pending-invitations-table";
 import { RoleRequestsTable } from "@/features/admin/components/role-requests-table";
 import { UsersTable } from "@/features/admin/components/users-table";
-import { PageTitle } from "@/components/ui/page-title";
+import { CountedHeading, PageTitle } from "@/components/ui/page-title";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   await Promise.all([
@@ -27,12 +27,9 @@ export default function UsersRoute() {
     <div className="flex flex-col gap-8">
       <section aria-labelledby="users-title" className="flex flex-col gap-3">
         <PageTitle>Users</PageTitle>
-        <div className="flex items-baseline justify-between gap-4">
-          <h1 id="users-title">Users</h1>
-          <p className="figures text-sm text-ink-muted">
-            {active} active of {users.length}
-          </p>
-        </div>
+        <CountedHeading id="users-title" count={`${active} active of ${users.length}`}>
+          Users
+        </CountedHeading>
         <p className="text-sm text-ink-muted">
           Changing a role or disabling a user ends that person's open sessions at once. Granting or removing the chief
           risk officer or administrator role needs a second administrator's approval. Nobody but the person knows their

@@ -25,18 +25,25 @@ export const authQueries = {
     }),
 };
 
-export function useLogin() {
+/**
+ * A call whose answer signs someone in: nothing cached for a previous user survives into their
+ * session, and the answer's user becomes the signed-in one. Keyed under "auth" so a 401 here reads
+ * as "wrong credentials", not as "session ended".
+ */
+function useSigningIn<B>(name: string, mutationFn: (body: B) => Promise<{ user: SessionUser }>) {
   const queryClient = useQueryClient();
   return useMutation({
-    // Keyed under "auth" so a 401 here reads as "wrong credentials", not as "session ended".
-    mutationKey: [...authQueries.all(), "login"],
-    mutationFn: (body: LoginBody) => api.post("/api/auth/login", body, meResponseSchema),
+    mutationKey: [...authQueries.all(), name],
+    mutationFn,
     onSuccess: ({ user }) => {
-      // Nothing cached for a previous user may survive into this session.
       queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authQueries.all()[0] });
       queryClient.setQueryData(authQueries.me().queryKey, user);
     },
   });
+}
+
+export function useLogin() {
+  return useSigningIn("login", (body: LoginBody) => api.post("/api/auth/login", body, meResponseSchema));
 }
 
 export function useLogout() {
@@ -74,13 +81,7 @@ export const invitationQueries = {
 
 /** Sets the password from the link; the server signs the person in. */
 export function useAcceptInvitation() {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationKey: [...authQueries.all(), "accept-invitation"],
-    mutationFn: (body: AcceptInvitationBody) => api.post("/api/invitations/accept", body, meResponseSchema),
-    onSuccess: ({ user }) => {
-      queryClient.removeQueries({ predicate: (q) => q.queryKey[0] !== authQueries.all()[0] });
-      queryClient.setQueryData(authQueries.me().queryKey, user);
-    },
-  });
+  return useSigningIn("accept-invitation", (body: AcceptInvitationBody) =>
+    api.post("/api/invitations/accept", body, meResponseSchema),
+  );
 }

@@ -1,4 +1,4 @@
-import { useMutation, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
 import { filingListSchema, filingSchema, filingVerifySchema, type Filing } from "@shared/schemas/filing";
 import { api, isApiError } from "@/lib/api-client";
 import { getQuery } from "@/lib/queries";
@@ -26,23 +26,41 @@ export const filingQueries = {
     getQuery(filingKeys.verify(id), `${base(id)}/verify`, filingVerifySchema, { staleTime: 0, gcTime: 0 }),
 };
 
-/** The supervisor confirms receipt; the answer carries who and when (asking twice changes nothing). */
-export function useAcknowledgeFiling(id: number) {
+/**
+ * A step on one filing (POST …/acknowledge, …/deliver) whose answer is the filing as it now stands:
+ * the cached list shows it at once, then `reread` reads again what the step may have changed.
+ */
+function useFilingStep(
+  id: number,
+  step: "acknowledge" | "deliver",
+  reread: (queryClient: QueryClient) => Promise<unknown>,
+  onError?: (error: Error, queryClient: QueryClient) => unknown,
+) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: () => api.post(`${base(id)}/acknowledge`, {}, filingSchema),
+    mutationFn: () => api.post(`${base(id)}/${step}`, {}, filingSchema),
     onSuccess: (filing) => {
       queryClient.setQueryData(filingKeys.list(), (list: Filing[] | undefined) =>
         list?.map((f) => (f.id === filing.id ? filing : f)),
       );
-      return queryClient.invalidateQueries({ queryKey: filingKeys.list() });
+      return reread(queryClient);
     },
+    onError: onError && ((error) => onError(error, queryClient)),
+  });
+}
+
+/** The supervisor confirms receipt; the answer carries who and when (asking twice changes nothing). */
+export function useAcknowledgeFiling(id: number) {
+  return useFilingStep(
+    id,
+    "acknowledge",
+    (queryClient) => queryClient.invalidateQueries({ queryKey: filingKeys.list() }),
     // A filing no longer visible (the assignment was withdrawn) is news about the list: read it again.
-    onError: (error) =>
+    (error, queryClient) =>
       isApiError(error) && error.status === 404
         ? queryClient.invalidateQueries({ queryKey: filingKeys.list() })
         : undefined,
-  });
+  );
 }
 
 /**
@@ -50,14 +68,5 @@ export function useAcknowledgeFiling(id: number) {
  * answer is the filing as it now stands. The snapshots follow (the first acceptance files the quarter).
  */
 export function useFinishFiling(id: number) {
-  const queryClient = useQueryClient();
-  return useMutation({
-    mutationFn: () => api.post(`${base(id)}/deliver`, {}, filingSchema),
-    onSuccess: (filing) => {
-      queryClient.setQueryData(filingKeys.list(), (list: Filing[] | undefined) =>
-        list?.map((f) => (f.id === filing.id ? filing : f)),
-      );
-      return queryClient.invalidateQueries();
-    },
-  });
+  return useFilingStep(id, "deliver", (queryClient) => queryClient.invalidateQueries());
 }

@@ -20,23 +20,28 @@ function useRefreshFigures(alsoInvalidate: readonly QueryKey[]) {
   return () => Promise.all(alsoInvalidate.map((queryKey) => queryClient.invalidateQueries({ queryKey })));
 }
 
-export function useSaveReview(code: string, date: string, alsoInvalidate: readonly QueryKey[] = []) {
+/** Writes the review or the supervisor's decision of one exception; the figures are read again after it. */
+function useReviewWrite<B>(
+  code: string,
+  date: string,
+  part: "review" | "decision",
+  alsoInvalidate: readonly QueryKey[],
+) {
   const refresh = useRefreshFigures(alsoInvalidate);
   return useMutation({
-    mutationFn: (body: ReviewBody) => api.put(`${exceptionBase(code, date)}/review`, body, reviewSchema),
+    mutationFn: (body: B) => api.put(`${exceptionBase(code, date)}/${part}`, body, reviewSchema),
     onSuccess: () => refresh(),
     // Someone else saved first: what they saved becomes the version the next save builds on.
     onError: (error) => (currentReviewOf(error) ? refresh() : undefined),
   });
 }
 
+export function useSaveReview(code: string, date: string, alsoInvalidate: readonly QueryKey[] = []) {
+  return useReviewWrite<ReviewBody>(code, date, "review", alsoInvalidate);
+}
+
 export function useRecordDecision(code: string, date: string, alsoInvalidate: readonly QueryKey[] = []) {
-  const refresh = useRefreshFigures(alsoInvalidate);
-  return useMutation({
-    mutationFn: (body: DecisionBody) => api.put(`${exceptionBase(code, date)}/decision`, body, reviewSchema),
-    onSuccess: () => refresh(),
-    onError: (error) => (currentReviewOf(error) ? refresh() : undefined),
-  });
+  return useReviewWrite<DecisionBody>(code, date, "decision", alsoInvalidate);
 }
 
 /** The server's limit on one evidence file (server/modules/exceptions: EVIDENCE_MAX_BYTES). */

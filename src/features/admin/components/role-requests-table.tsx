@@ -3,7 +3,7 @@ import type { RoleRequest } from "@shared/schemas/user";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { Table, TableHead, Td, Tr } from "@/components/ui/table";
-import { isApiError } from "@/lib/api-client";
+import { errorMessage } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleLabels } from "@/lib/role-labels";
 import { useDecideRoleRequest } from "../api/user-queries";
@@ -43,11 +43,7 @@ export function RoleRequestsTable({ requests, currentUserId }: { requests: RoleR
     );
   }
 
-  const error = isApiError(decide.error)
-    ? decide.error.message
-    : decide.error
-      ? "The decision was not saved."
-      : undefined;
+  const error = errorMessage(decide.error, "The decision was not saved.");
 
   return (
     <div className="flex flex-col gap-2">

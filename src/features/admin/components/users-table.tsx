@@ -4,7 +4,7 @@ import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
-import { isApiError } from "@/lib/api-client";
+import { errorMessage } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { roleIds, roleLabels } from "@/lib/role-labels";
 import { cn } from "@/lib/cn";
@@ -25,10 +25,7 @@ type Pending =
   | { userId: number; kind: "unlock" };
 
 function errorText(error: unknown): string | undefined {
-  return (
-    staleUserMessage(error) ??
-    (isApiError(error) ? error.message : error ? "The change could not be saved." : undefined)
-  );
+  return staleUserMessage(error) ?? errorMessage(error, "The change could not be saved.");
 }
 
 /** What a role change will do, said before it is done. */

@@ -5,7 +5,7 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
 import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { OpenedRow } from "@/components/ui/row-actions";
-import { isApiError } from "@/lib/api-client";
+import { errorMessage } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
 import { formatDateTime } from "@/lib/format";
@@ -21,11 +21,7 @@ function StatusCell({ token }: { token: ApiToken }) {
 /** Asks before revoking: scripts that use the token stop at once, and a revoked token cannot be brought back. */
 function RevokeConfirmation({ token, onClose }: { token: ApiToken; onClose: (message?: string) => void }) {
   const revoke = useRevokeApiToken();
-  const error = isApiError(revoke.error)
-    ? revoke.error.message
-    : revoke.error
-      ? "The token could not be revoked; try again."
-      : undefined;
+  const error = errorMessage(revoke.error, "The token could not be revoked; try again.");
   return (
     <div
       role="group"

@@ -13,7 +13,7 @@ import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextareaField, TextField } from "@/components/ui/field";
 import { Notice } from "@/components/ui/notice";
-import { fieldErrorsOf, isApiError } from "@/lib/api-client";
+import { errorMessage, fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formatAmount, formatBusinessDate, formatBytes, formatDateTime } from "@/lib/format";
 import { focusFirstInvalid, validate, type FieldErrors } from "@/lib/form";
 import {
@@ -181,9 +181,7 @@ function AnalystReviewForm({
       {conflict && (
         <SavedMeanwhile current={conflict} onTake={takeTheirs} mine="Your text is kept in the form below." />
       )}
-      <FormMessage>
-        {failed ? (isApiError(failed) ? failed.message : "The review could not be saved.") : undefined}
-      </FormMessage>
+      <FormMessage>{errorMessage(failed, "The review could not be saved.")}</FormMessage>
       <FormMessage tone="done">{saved ?? undefined}</FormMessage>
       <SelectField
         label="Cause"
@@ -410,9 +408,7 @@ function CroDecisionForm({
           mine="The review changed since you opened it; check it before you record the decision again."
         />
       )}
-      <FormMessage>
-        {failed ? (isApiError(failed) ? failed.message : "The decision could not be recorded.") : undefined}
-      </FormMessage>
+      <FormMessage>{errorMessage(failed, "The decision could not be recorded.")}</FormMessage>
       <fieldset aria-describedby={errors.decision ? `${groupId}-err` : undefined} className="flex flex-col gap-1">
         <legend className="text-xs font-medium text-ink-soft">Decision</legend>
         <div className="flex gap-5 text-sm">

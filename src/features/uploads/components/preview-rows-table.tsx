@@ -14,7 +14,7 @@ import { DataTable } from "@/components/ui/data-table";
 import { Button } from "@/components/ui/button";
 import { FormMessage, TextField } from "@/components/ui/field";
 import { EmptyState } from "@/components/ui/table";
-import { isApiError } from "@/lib/api-client";
+import { errorMessage } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { PREVIEW_PAGE_SIZE, uploadQueries, type UploadRowsParams } from "../api/upload-queries";
 import { formatCount } from "@/lib/format";
@@ -183,9 +183,7 @@ export function PreviewRowsTable({ uploadId, initial }: { uploadId: number; init
           {isFetching && " · loading…"}
         </p>
       </div>
-      <FormMessage>
-        {error ? (isApiError(error) ? error.message : "The rows of this file could not load.") : undefined}
-      </FormMessage>
+      <FormMessage>{errorMessage(error, "The rows of this file could not load.")}</FormMessage>
       {data && data.rows.length === 0 ? (
         <EmptyState title={params.invalidOnly ? "No row has an error" : "The file has no data rows"}>
           {params.invalidOnly

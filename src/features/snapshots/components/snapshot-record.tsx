@@ -1,8 +1,5 @@
-import { useState } from "react";
-import { useQuery } from "@tanstack/react-query";
 import type { Snapshot } from "@shared/schemas/snapshot";
-import { Button } from "@/components/ui/button";
-import { CheckVerdict } from "@/components/ui/check-verdict";
+import { ServerCheck } from "@/components/ui/check-verdict";
 import { Hash } from "@/components/ui/hash";
 import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
@@ -11,26 +8,13 @@ import { snapshotEventLabels } from "../words";
 
 /** Asks the server to check the snapshot's hash chain again; shows what it found, in its words. */
 function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
-  const [asked, setAsked] = useState(false);
-  const verify = useQuery({ ...snapshotQueries.verify(snapshot.id), enabled: asked });
-  const result = verify.data;
   return (
     <div className="flex flex-col gap-2">
-      <div className="flex items-center gap-3">
-        <Button
-          variant="secondary"
-          size="sm"
-          disabled={verify.isFetching}
-          onClick={() => (asked ? void verify.refetch() : setAsked(true))}
-        >
-          {verify.isFetching ? "Checking…" : result ? "Verify again" : "Verify the hash"}
-        </Button>
-        <span className="text-xs text-ink-muted">
-          Recomputes the hash from the stored figures and the previous quarter's hash.
-        </span>
-      </div>
-      <CheckVerdict
-        check={verify}
+      <ServerCheck
+        query={snapshotQueries.verify(snapshot.id)}
+        ask="Verify the hash"
+        askAgain="Verify again"
+        about="Recomputes the hash from the stored figures and the previous quarter's hash."
         label="Hash check"
         validText="Valid: the figures are as signed off."
         invalidText="Invalid: the stored snapshot does not match its hash."

@@ -66,6 +66,19 @@ export function Td({ numeric, className, ...rest }: TdHTMLAttributes<HTMLTableCe
   );
 }
 
+/** A cell listing short texts one a line, such as the e-mail addresses a message went to. */
+export function ListCell({ items }: { items: readonly string[] }) {
+  return (
+    <Td className="text-xs">
+      <ul>
+        {items.map((item) => (
+          <li key={item}>{item}</li>
+        ))}
+      </ul>
+    </Td>
+  );
+}
+
 export function Tr({ className, ...rest }: HTMLAttributes<HTMLTableRowElement>) {
   return <tr className={cn("hover:bg-paper-sunk/60", className)} {...rest} />;
 }

@@ -2,7 +2,7 @@ import type { ReactNode } from "react";
 import { Link } from "react-router-dom";
 import type { Filing } from "@shared/schemas/filing";
 import { quarterLabel } from "@shared/backtest/quarters";
-import { RecordTable, Td, type RowOpening } from "@/components/ui/table";
+import { ListCell, RecordTable, Td, type RowOpening } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { formatDateTime, formatFactor } from "@/lib/format";
 import { PersonName } from "@/lib/people";
@@ -72,13 +72,7 @@ export function FilingListTable({
                 <PersonName email={f.sentBy} />
               </span>
             </Td>
-            <Td className="text-xs">
-              <ul>
-                {f.recipients.map((r) => (
-                  <li key={r}>{r}</li>
-                ))}
-              </ul>
-            </Td>
+            <ListCell items={f.recipients} />
             <Td className="whitespace-nowrap">
               {f.acknowledgedAt ? (
                 <>

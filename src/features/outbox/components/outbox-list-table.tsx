@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import type { OutboxMessage } from "@shared/schemas/outbox";
-import { RecordTable, Td, type RowOpening } from "@/components/ui/table";
+import { ListCell, RecordTable, Td, type RowOpening } from "@/components/ui/table";
 import { formatDateTime, plural } from "@/lib/format";
 
 /** The messages the local mail sink holds, newest first; a row opens its message. */
@@ -23,13 +23,7 @@ export function OutboxListTable({ messages, hrefOf, ...opening }: RowOpening<str
           <Td className="figures whitespace-nowrap">{formatDateTime(m.storedAt)}</Td>
           {m.readable ? (
             <>
-              <Td className="text-xs">
-                <ul>
-                  {m.to.map((to) => (
-                    <li key={to}>{to}</li>
-                  ))}
-                </ul>
-              </Td>
+              <ListCell items={m.to} />
               <Td>
                 <Link to={hrefOf(m.id)} className="font-medium">
                   {m.subject || "(no subject)"}

@@ -428,19 +428,13 @@ export function SnapshotActions({
     setChanged(message);
   };
 
+  // What each step of the sign-off is given.
+  const step = { snapshot, findingsHref, onDone };
   let action: ReactNode = null;
   if (role === "analyst" && snapshot.status === "draft")
-    action = (
-      <SubmitForm
-        key={snapshot.version}
-        snapshot={snapshot}
-        findingsHref={findingsHref}
-        onDone={onDone}
-        onChanged={onChanged}
-      />
-    );
+    action = <SubmitForm key={snapshot.version} {...step} onChanged={onChanged} />;
   else if (role === "analyst" && snapshot.status === "returned")
-    action = <PrepareAgain snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />;
+    action = <PrepareAgain {...step} onPrepared={onPrepared} />;
   else if (
     role === "analyst" &&
     snapshot.status === "filed" &&
@@ -448,20 +442,9 @@ export function SnapshotActions({
     !snapshot.restatedAfterSignOff.resolvedBy &&
     snapshot.amendedBy === null
   )
-    action = (
-      <PrepareAmendment snapshot={snapshot} findingsHref={findingsHref} onDone={onDone} onPrepared={onPrepared} />
-    );
+    action = <PrepareAmendment {...step} onPrepared={onPrepared} />;
   else if (role === "cro" && snapshot.status === "submitted")
-    action = (
-      <SignOffForm
-        key={snapshot.version}
-        snapshot={snapshot}
-        userEmail={userEmail}
-        findingsHref={findingsHref}
-        onDone={onDone}
-        onChanged={onChanged}
-      />
-    );
+    action = <SignOffForm key={snapshot.version} {...step} userEmail={userEmail} onChanged={onChanged} />;
 
   return (
     <section aria-labelledby="next-title" className="flex flex-col gap-3">

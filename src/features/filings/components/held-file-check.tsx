@@ -2,6 +2,7 @@ import { useId, useState } from "react";
 import type { Filing } from "@shared/schemas/filing";
 import { FormMessage } from "@/components/ui/field";
 import { Hash } from "@/components/ui/hash";
+import { FilePicker } from "@/components/ui/file-picker";
 import { cn } from "@/lib/cn";
 import { canHashFiles, sameSha256, sha256OfFile } from "../sha256-of-file";
 
@@ -50,29 +51,16 @@ export function HeldFileCheck({ filing }: { filing: Filing }) {
       ) : (
         <>
           <div className="flex flex-wrap items-center gap-3">
-            <input
+            <FilePicker
               id={inputId}
-              type="file"
               accept=".pdf,application/pdf"
-              className="peer sr-only"
               disabled={busy}
-              aria-describedby={hintId}
-              onChange={(e) => {
-                const f = e.target.files?.[0];
-                e.target.value = ""; // the same file chosen again must check again
-                if (f) void check(f);
-              }}
-            />
-            <label
-              htmlFor={inputId}
-              className={cn(
-                "inline-flex h-7 cursor-pointer items-center rounded-sm border border-rule-strong bg-paper-raised px-2.5 text-sm font-medium text-ink hover:border-ink-muted",
-                "peer-focus-visible:outline-2 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-accent",
-                "peer-disabled:cursor-not-allowed peer-disabled:opacity-55",
-              )}
+              describedBy={hintId}
+              onFile={(f) => void check(f)}
+              look="secondary"
             >
               Check a file you hold
-            </label>
+            </FilePicker>
             <span id={hintId} className="text-xs text-ink-muted">
               Choose the PDF you received: your browser computes its SHA-256 and compares it with the filing's. The file
               is not uploaded.

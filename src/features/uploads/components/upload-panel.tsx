@@ -1,6 +1,7 @@
 import { useId, useRef, useState, type DragEvent } from "react";
 import { UPLOAD_MAX_LABEL, type UploadPreview } from "@shared/schemas/upload";
 import { ProgressBar } from "@/components/ui/progress-bar";
+import { FilePicker } from "@/components/ui/file-picker";
 import { cn } from "@/lib/cn";
 import { ApiError } from "@/lib/api-client";
 import { formatBytes } from "@/lib/format";
@@ -79,30 +80,17 @@ export function UploadPanel({
           )}
         >
           <p className="text-sm text-ink-soft">Drop a CSV file here, or</p>
-          <input
-            ref={inputRef}
+          <FilePicker
+            inputRef={inputRef}
             id={inputId}
-            type="file"
             accept=".csv,text/csv"
-            className="peer sr-only"
             disabled={busy}
-            aria-describedby={hintId}
-            onChange={(e) => {
-              const f = e.target.files?.[0];
-              e.target.value = ""; // choosing the same file again after fixing it must fire again
-              if (f) start(f);
-            }}
-          />
-          <label
-            htmlFor={inputId}
-            className={cn(
-              "inline-flex h-8.5 cursor-pointer items-center rounded-sm border border-accent bg-accent px-3.5 text-sm font-medium text-paper-raised hover:bg-accent-hover",
-              "peer-focus-visible:outline-2 peer-focus-visible:outline-offset-2 peer-focus-visible:outline-accent",
-              "peer-disabled:cursor-not-allowed peer-disabled:opacity-55",
-            )}
+            describedBy={hintId}
+            onFile={start}
+            look="primary"
           >
             Choose a CSV file
-          </label>
+          </FilePicker>
           <p id={hintId} className="text-2xs text-ink-muted">
             One file, at most {UPLOAD_MAX_LABEL}. Columns as in the template; nothing is stored until you commit the
             preview.

@@ -35,3 +35,25 @@ export function CountedHeading({
     </div>
   );
 }
+
+/** A part of a screen named by its own small heading (an h3, `titleId`), e.g. a snapshot's return data. */
+export function Subsection({
+  titleId,
+  title,
+  className = "flex flex-col gap-3",
+  children,
+}: {
+  titleId: string;
+  title: ReactNode;
+  className?: string;
+  children: ReactNode;
+}) {
+  return (
+    <section aria-labelledby={titleId} className={className}>
+      <h3 id={titleId} className="text-sm font-semibold">
+        {title}
+      </h3>
+      {children}
+    </section>
+  );
+}

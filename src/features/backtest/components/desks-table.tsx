@@ -2,6 +2,7 @@ import type { DeskResult } from "@shared/schemas/backtest";
 import { Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { ZoneBadge } from "@/components/ui/zone-badge";
 import { cn } from "@/lib/cn";
+import { Subsection } from "@/components/ui/page-title";
 
 function Count({
   count,
@@ -28,10 +29,11 @@ function Count({
 export function DesksTable({ desks }: { desks: DeskResult[] }) {
   if (desks.length === 0) return null;
   return (
-    <section aria-labelledby="desks-title" className="flex flex-col gap-2">
-      <h3 id="desks-title" className="text-sm font-semibold">
-        Trading desks: backtesting and P&amp;L attribution
-      </h3>
+    <Subsection
+      titleId="desks-title"
+      title={<>Trading desks: backtesting and P&amp;L attribution</>}
+      className="flex flex-col gap-2"
+    >
       <p className="text-xs text-ink-muted">
         A desk fails backtesting above 12 exceptions at 99% or above 30 at 97.5% in 250 days. The P&amp;L attribution
         test compares hypothetical with risk-theoretical P&amp;L. Exceptions whose exclusion the supervisor approved are
@@ -76,6 +78,6 @@ export function DesksTable({ desks }: { desks: DeskResult[] }) {
           ))}
         </tbody>
       </Table>
-    </section>
+    </Subsection>
   );
 }

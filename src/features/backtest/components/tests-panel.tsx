@@ -1,6 +1,7 @@
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatPValue, formatStatistic } from "../words";
+import { Subsection } from "@/components/ui/page-title";
 
 type SeriesTests = BacktestResponse["testsBySeries"]["actual"];
 
@@ -71,10 +72,7 @@ function SeriesTable({ caption, results }: { caption: string; results: SeriesTes
 export function TestsPanel({ bt }: { bt: BacktestResponse }) {
   const both = bt.pnlBasis === "max";
   return (
-    <section aria-labelledby="tests-title" className="flex flex-col gap-3">
-      <h3 id="tests-title" className="text-sm font-semibold">
-        What the statistics say about the model
-      </h3>
+    <Subsection titleId="tests-title" title="What the statistics say about the model">
       {both ? (
         <div className="flex flex-col gap-4">
           <div className="flex flex-col gap-1">
@@ -94,6 +92,6 @@ export function TestsPanel({ bt }: { bt: BacktestResponse }) {
           <SeriesTable caption={`Statistical tests on ${bt.testedSeries} P&L`} results={bt.tests} />
         </div>
       )}
-    </section>
+    </Subsection>
   );
 }

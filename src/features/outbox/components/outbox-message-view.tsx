@@ -4,6 +4,7 @@ import { FullHash } from "@/components/ui/hash";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatBytes, formatDateTime } from "@/lib/format";
 import { outboxAttachmentHref } from "../api/outbox-queries";
+import { Subsection } from "@/components/ui/page-title";
 
 function Field({ label, children }: { label: string; children: ReactNode }) {
   return (
@@ -51,10 +52,7 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
         </Field>
       </dl>
 
-      <section aria-labelledby="outbox-body-title" className="flex flex-col gap-1.5">
-        <h3 id="outbox-body-title" className="text-sm font-semibold">
-          Text of the message
-        </h3>
+      <Subsection titleId="outbox-body-title" title="Text of the message" className="flex flex-col gap-1.5">
         {message.text ? (
           <pre className="max-h-96 overflow-auto border border-rule bg-paper-raised px-3 py-2 font-sans text-sm whitespace-pre-wrap">
             {message.text}
@@ -62,12 +60,9 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
         ) : (
           <p className="text-sm text-ink-muted">The message has no plain-text part.</p>
         )}
-      </section>
+      </Subsection>
 
-      <section aria-labelledby="outbox-attachments-title" className="flex flex-col gap-1.5">
-        <h3 id="outbox-attachments-title" className="text-sm font-semibold">
-          Attachments
-        </h3>
+      <Subsection titleId="outbox-attachments-title" title="Attachments" className="flex flex-col gap-1.5">
         {message.attachments.length === 0 ? (
           <p className="text-sm text-ink-muted">None.</p>
         ) : (
@@ -119,7 +114,7 @@ export function OutboxMessageView({ message, folder }: { message: OutboxMessageD
             </Table>
           </>
         )}
-      </section>
+      </Subsection>
     </section>
   );
 }

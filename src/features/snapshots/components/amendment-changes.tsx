@@ -5,6 +5,7 @@ import { FullHash } from "@/components/ui/hash";
 import { Table, TableHead, Td } from "@/components/ui/table";
 import { zoneName } from "@/components/ui/zone-badge";
 import { formatAmount, formatDateTime, formatFactor } from "@/lib/format";
+import { Subsection } from "@/components/ui/page-title";
 
 /** A before or after value as the table shows it: amounts in the entity's currency, factors to two places, the zone by name. */
 function shown(c: AmendmentChange, v: AmendmentChange["before"], currency: string, regime: string): string {
@@ -36,10 +37,7 @@ export function AmendmentChanges({
   const o = amendment.original;
   const impact = amendment.capitalImpact;
   return (
-    <section aria-labelledby="amendment-title" className="flex flex-col gap-3">
-      <h3 id="amendment-title" className="text-sm font-semibold">
-        What this amendment changes
-      </h3>
+    <Subsection titleId="amendment-title" title="What this amendment changes">
       <p className="text-sm text-ink-soft">
         It amends <Link to={snapshotHref(o.snapshotId)}>snapshot #{o.snapshotId}</Link>, filed{" "}
         {o.filedAt ? <span className="figures">{formatDateTime(o.filedAt)}</span> : "earlier"}
@@ -95,6 +93,6 @@ export function AmendmentChanges({
           </tbody>
         </Table>
       )}
-    </section>
+    </Subsection>
   );
 }

@@ -22,6 +22,7 @@ import {
   useSubmitSnapshot,
 } from "../api/snapshot-queries";
 import { PersonName } from "@/lib/people";
+import { Subsection } from "@/components/ui/page-title";
 
 const sameUser = (a: string | null, b: string) => a !== null && a.trim().toLowerCase() === b.trim().toLowerCase();
 
@@ -447,10 +448,7 @@ export function SnapshotActions({
     action = <SignOffForm key={snapshot.version} {...step} userEmail={userEmail} onChanged={onChanged} />;
 
   return (
-    <section aria-labelledby="next-title" className="flex flex-col gap-3">
-      <h3 id="next-title" className="text-sm font-semibold">
-        What next
-      </h3>
+    <Subsection titleId="next-title" title="What next">
       <FormMessage tone="done" ref={focusWhenShown}>
         {done}
       </FormMessage>
@@ -459,6 +457,6 @@ export function SnapshotActions({
         <Standing snapshot={snapshot} role={role} />
       </p>
       {action}
-    </section>
+    </Subsection>
   );
 }

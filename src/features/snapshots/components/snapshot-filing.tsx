@@ -15,6 +15,7 @@ import { isApiError } from "@/lib/api-client";
 import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
 import { formatDateTime } from "@/lib/format";
 import { existingFilingOf, snapshotPackHref, useFileSnapshot } from "../api/snapshot-queries";
+import { Subsection } from "@/components/ui/page-title";
 
 /** The filed snapshot's filing as the screen found it in the filings list. */
 export type FilingLookup = { filing?: Filing; reading: boolean; error: unknown };
@@ -232,10 +233,7 @@ export function SnapshotFiling({
       );
 
   return (
-    <section aria-labelledby="pack-title" className="flex flex-col gap-3">
-      <h3 id="pack-title" className="text-sm font-semibold">
-        Pack and filing
-      </h3>
+    <Subsection titleId="pack-title" title="Pack and filing">
       <DownloadButton
         href={snapshotPackHref(snapshot.id)}
         fallbackName={`quartermark-${snapshot.entity.toLowerCase()}-${snapshot.quarterEnd}-pack.pdf`}
@@ -261,6 +259,6 @@ export function SnapshotFiling({
         </FormMessage>
       )}
       {filingPart}
-    </section>
+    </Subsection>
   );
 }

@@ -5,6 +5,7 @@ import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { formatDateTime } from "@/lib/format";
 import { snapshotQueries } from "../api/snapshot-queries";
 import { snapshotEventLabels } from "../words";
+import { Subsection } from "@/components/ui/page-title";
 
 /** Asks the server to check the snapshot's hash chain again; shows what it found, in its words. */
 function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
@@ -27,10 +28,7 @@ function VerifyHash({ snapshot }: { snapshot: Snapshot }) {
 /** Where the figures came from and the chain that seals them: inputs, engine, hash, previous hash. */
 export function SnapshotRecord({ snapshot }: { snapshot: Snapshot }) {
   return (
-    <section aria-labelledby="record-title" className="flex flex-col gap-3">
-      <h3 id="record-title" className="text-sm font-semibold">
-        Seal and provenance
-      </h3>
+    <Subsection titleId="record-title" title="Seal and provenance">
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="text-ink-muted">Inputs SHA-256</dt>
         <dd>
@@ -51,7 +49,7 @@ export function SnapshotRecord({ snapshot }: { snapshot: Snapshot }) {
         </dd>
       </dl>
       {snapshot.hash && <VerifyHash key={snapshot.id} snapshot={snapshot} />}
-    </section>
+    </Subsection>
   );
 }
 
@@ -59,10 +57,7 @@ export function SnapshotRecord({ snapshot }: { snapshot: Snapshot }) {
 export function SnapshotHistory({ snapshot }: { snapshot: Snapshot }) {
   const events = [...snapshot.history].sort((a, b) => a.at.localeCompare(b.at));
   return (
-    <section aria-labelledby="history-title" className="flex flex-col gap-2">
-      <h3 id="history-title" className="text-sm font-semibold">
-        History
-      </h3>
+    <Subsection titleId="history-title" title="History" className="flex flex-col gap-2">
       {events.length === 0 ? (
         <EmptyState title="Nothing recorded yet" />
       ) : (
@@ -82,6 +77,6 @@ export function SnapshotHistory({ snapshot }: { snapshot: Snapshot }) {
           </tbody>
         </Table>
       )}
-    </section>
+    </Subsection>
   );
 }

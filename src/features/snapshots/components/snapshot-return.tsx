@@ -10,6 +10,7 @@ import { isApiError } from "@/lib/api-client";
 import { focusWhenShown } from "@/lib/focus";
 import { formatAmount, formatFactor } from "@/lib/format";
 import { useSetReturnInputs } from "../api/snapshot-queries";
+import { Subsection } from "@/components/ui/page-title";
 
 function valueText(f: ReturnField): string {
   if (f.value === null) return f.analystInput ? "not entered" : "—";
@@ -92,10 +93,7 @@ export function SnapshotReturn({ snapshot, role }: { snapshot: Snapshot; role: R
   const inputs = data.fields.filter((f) => f.analystInput);
   const missing = inputs.filter((f) => f.value === null).length;
   return (
-    <section aria-labelledby="return-title" className="flex flex-col gap-3">
-      <h3 id="return-title" className="text-sm font-semibold">
-        Return data
-      </h3>
+    <Subsection titleId="return-title" title="Return data">
       <p className="text-sm text-ink-soft">
         What the quarter's supervisory return and disclosure take from these figures, with the template row where the
         standard names one.
@@ -126,6 +124,6 @@ export function SnapshotReturn({ snapshot, role }: { snapshot: Snapshot; role: R
           ))}
         </tbody>
       </Table>
-    </section>
+    </Subsection>
   );
 }

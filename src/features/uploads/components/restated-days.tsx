@@ -2,6 +2,7 @@ import type { SignedOffQuarter, UploadPreview } from "@shared/schemas/upload";
 import { quarterLabel } from "@shared/backtest/quarters";
 import { Table, Td, Th, Tr } from "@/components/ui/table";
 import { formatBusinessDate, formatCount, formatDecimal, plural } from "@/lib/format";
+import { Subsection } from "@/components/ui/page-title";
 
 const signedOffWords: Record<SignedOffQuarter["status"], string> = { approved: "approved", filed: "filed" };
 
@@ -20,10 +21,7 @@ export function RestatedDays({ preview }: { preview: UploadPreview }) {
   const days = preview.restatedDays;
   if (preview.restatements === 0 || days.length === 0) return null;
   return (
-    <section aria-labelledby="restated-title" className="flex flex-col gap-2">
-      <h3 id="restated-title" className="text-sm font-semibold">
-        Restated days
-      </h3>
+    <Subsection titleId="restated-title" title="Restated days" className="flex flex-col gap-2">
       <p className="text-sm text-ink-muted">
         {plural(preview.restatements, "day already stored changes", "days already stored change")}: the earlier version
         is kept and the new one counts from the commit.
@@ -70,6 +68,6 @@ export function RestatedDays({ preview }: { preview: UploadPreview }) {
           ))}
         </tbody>
       </Table>
-    </section>
+    </Subsection>
   );
 }

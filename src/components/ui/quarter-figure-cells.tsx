@@ -1,3 +1,6 @@
+import type { ReactNode } from "react";
+import { Link } from "react-router-dom";
+import { quarterLabel } from "@shared/backtest/quarters";
 import { formatAmount, formatFactor } from "@/lib/format";
 import { Td, type Column } from "./table";
 
@@ -32,5 +35,32 @@ export function QuarterFigureCells({ quarter, currency }: { quarter: QuarterFigu
         {formatAmount(quarter.addOn, currency)}
       </Td>
     </>
+  );
+}
+
+/**
+ * A list's cell that names a quarter and opens its record: the quarter as the link (`openLabel` names
+ * it for screen readers), its last day below it, then `children` (what amends what).
+ */
+export function QuarterLinkCell({
+  quarterEnd,
+  href,
+  openLabel,
+  children,
+}: {
+  quarterEnd: string;
+  href: string;
+  openLabel: (quarter: string) => string;
+  children?: ReactNode;
+}) {
+  const quarter = quarterLabel(quarterEnd);
+  return (
+    <Td className="whitespace-nowrap">
+      <Link to={href} aria-label={openLabel(quarter)} className="font-medium">
+        {quarter}
+      </Link>
+      <span className="figures block text-2xs text-ink-muted">{quarterEnd}</span>
+      {children}
+    </Td>
   );
 }

@@ -48,3 +48,17 @@ function NoticeIcon() {
     </svg>
   );
 }
+
+/**
+ * A filed pack the mail server has not taken yet: the filings screen and the snapshot's filing say
+ * it in the same words.
+ */
+export function FilingPendingNotice({ filing }: { filing: { sentBy: string; lastError: string | null } }) {
+  return (
+    <Notice role="status" testId="filing-pending">
+      Filed by {filing.sentBy} and kept, but the mail server did not take the message
+      {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers; the
+      quarter becomes filed then.
+    </Notice>
+  );
+}

@@ -2,7 +2,7 @@ import type { Filing } from "@shared/schemas/filing";
 import type { Role } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/ui/field";
-import { Notice } from "@/components/ui/notice";
+import { FilingPendingNotice, Notice } from "@/components/ui/notice";
 import { isApiError } from "@/lib/api-client";
 import { formatDateTime } from "@/lib/format";
 import { useFinishFiling } from "../api/filing-queries";
@@ -37,13 +37,7 @@ export function FilingDelivery({ filing, role }: { filing: Filing; role: Role })
           Partly delivered: {filing.summary}
         </Notice>
       )}
-      {filing.delivery === "pending" && (
-        <Notice role="status" testId="filing-pending">
-          Filed by {filing.sentBy} and kept, but the mail server did not take the message
-          {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers;
-          the quarter becomes filed then.
-        </Notice>
-      )}
+      {filing.delivery === "pending" && <FilingPendingNotice filing={filing} />}
       <table className="text-sm">
         <caption className="sr-only">Delivery to each recipient</caption>
         <thead>

@@ -9,7 +9,7 @@ import { Button } from "@/components/ui/button";
 import { DownloadButton } from "@/components/ui/download-button";
 import { FormMessage } from "@/components/ui/field";
 import { FullHash } from "@/components/ui/hash";
-import { Notice } from "@/components/ui/notice";
+import { FilingPendingNotice } from "@/components/ui/notice";
 import { formLevelMessage } from "@/lib/form";
 import { isApiError } from "@/lib/api-client";
 import { cancelOnEscape, focusWhenShown } from "@/lib/focus";
@@ -140,13 +140,7 @@ function FilingRecord({
 }) {
   return (
     <div className="flex flex-col gap-2" data-testid="snapshot-filing">
-      {!delivery && filing.delivery === "pending" && (
-        <Notice role="status" testId="filing-pending">
-          Filed by {filing.sentBy} and kept, but the mail server did not take the message
-          {filing.lastError ? ` (${filing.lastError})` : ""}. It is sent automatically as soon as the server answers;
-          the quarter becomes filed then.
-        </Notice>
-      )}
+      {!delivery && filing.delivery === "pending" && <FilingPendingNotice filing={filing} />}
       <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
         <dt className="text-ink-muted">Sent</dt>
         <dd>

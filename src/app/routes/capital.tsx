@@ -13,6 +13,7 @@ import { ZoneForecast } from "@/features/capital/components/zone-forecast";
 import { WhatIfForm } from "@/features/capital/components/what-if-form";
 import { FrtbAggregation } from "@/features/capital/components/frtb-aggregation";
 import { RollOffTable } from "@/components/ui/roll-off-table";
+import { Loaded } from "@/components/ui/query-state";
 import { FormMessage } from "@/components/ui/field";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState } from "@/components/ui/table";
@@ -150,23 +151,15 @@ export default function CapitalRoute() {
               />
             )}
 
-          {history.error ? (
-            <FormMessage>
-              {isApiError(history.error) ? history.error.message : "The capital history could not be read."}
-            </FormMessage>
-          ) : history.data ? (
-            <>
-              <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
-              {items.length > 0 && (
-                <TableDownloads
-                  path={`/api/entities/${entity}/capital/history`}
-                  what={`the capital history of ${entity}`}
-                />
-              )}
-            </>
-          ) : (
-            <p className="text-sm text-ink-muted">Reading the capital history…</p>
-          )}
+          <Loaded query={history} what="the capital history">
+            <CapitalHistory items={items} currency={currency} regime={regime} empty={historyEmpty(role, entity)} />
+            {items.length > 0 && (
+              <TableDownloads
+                path={`/api/entities/${entity}/capital/history`}
+                what={`the capital history of ${entity}`}
+              />
+            )}
+          </Loaded>
 
           {standing && (
             <>

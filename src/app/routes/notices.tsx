@@ -8,10 +8,10 @@ import { entityQueries } from "@/features/entities/api/entity-queries";
 import { noticeQueries } from "@/features/notices/api/notice-queries";
 import { NoticeDetail } from "@/features/notices/components/notice-detail";
 import { NoticeListTable } from "@/features/notices/components/notice-list-table";
+import { Loaded } from "@/components/ui/query-state";
 import { FormMessage } from "@/components/ui/field";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState, useRowOpening } from "@/components/ui/table";
-import { isApiError } from "@/lib/api-client";
 import { entityOf } from "@/lib/entity-choice";
 import { plural } from "@/lib/format";
 
@@ -65,12 +65,8 @@ export default function NoticesRoute() {
         <EmptyState title="No entity reports under the EU rule set">
           Overshooting notices concern EU entities only; the other rule sets ask for none.
         </EmptyState>
-      ) : list.error ? (
-        <FormMessage>{isApiError(list.error) ? list.error.message : "The notices could not be read."}</FormMessage>
-      ) : !list.data ? (
-        <p className="text-sm text-ink-muted">Reading the notices…</p>
       ) : (
-        <>
+        <Loaded query={list} what="the notices">
           <p className="text-sm" data-testid="notices-standing">
             {open.length === 0
               ? "No notice waits to be sent."
@@ -95,7 +91,7 @@ export default function NoticesRoute() {
               </FormMessage>
             )
           )}
-        </>
+        </Loaded>
       )}
     </section>
   );

@@ -9,10 +9,9 @@ import { SettingsTable } from "@/features/settings/components/settings-table";
 import { SettingsDecision } from "@/features/settings/components/settings-decision";
 import { ProposeSettingsForm } from "@/features/settings/components/propose-settings-form";
 import { settingsSummary } from "@/features/settings/words";
-import { FormMessage } from "@/components/ui/field";
+import { Loaded } from "@/components/ui/query-state";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState } from "@/components/ui/table";
-import { isApiError } from "@/lib/api-client";
 import { entityOf } from "@/lib/entity-choice";
 import { plural } from "@/lib/format";
 
@@ -56,12 +55,8 @@ export default function SettingsRoute() {
         <EmptyState title="No legal entities are set up yet">
           An administrator adds the entities; their supervisory settings are kept here.
         </EmptyState>
-      ) : list.error ? (
-        <FormMessage>{isApiError(list.error) ? list.error.message : "The settings could not be read."}</FormMessage>
-      ) : !list.data ? (
-        <p className="text-sm text-ink-muted">Reading the settings…</p>
       ) : (
-        <>
+        <Loaded query={list} what="the settings">
           <p className="text-sm" data-testid="settings-in-force">
             {inForce ? (
               <>
@@ -109,7 +104,7 @@ export default function SettingsRoute() {
               <ProposeSettingsForm key={entity} entity={entity} regime={current.regime} />
             </section>
           )}
-        </>
+        </Loaded>
       )}
     </section>
   );

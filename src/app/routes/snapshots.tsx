@@ -19,6 +19,7 @@ import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { plural } from "@/lib/format";
 import { snapshotStatusLabels } from "@/lib/snapshot-status-labels";
 import { CountedHeading } from "@/components/ui/page-title";
+import { Loaded } from "@/components/ui/query-state";
 import { FormMessage } from "@/components/ui/field";
 import { EntityScreenHeader } from "@/components/ui/entity-screen-header";
 import { EmptyState, useRowOpening } from "@/components/ui/table";
@@ -267,15 +268,9 @@ export default function SnapshotsRoute() {
             >
               Snapshots of {entity}
             </CountedHeading>
-            {list.error ? (
-              <FormMessage>
-                {isApiError(list.error) ? list.error.message : "The snapshots could not be read."}
-              </FormMessage>
-            ) : list.data ? (
+            <Loaded query={list} what="the snapshots">
               <SnapshotListTable snapshots={snapshots} {...opening} empty={emptyFor(role, entity)} />
-            ) : (
-              <p className="text-sm text-ink-muted">Reading the snapshots…</p>
-            )}
+            </Loaded>
             {snapshots.length > 0 && (
               <TableDownloads path="/api/snapshots" query={{ entity }} what={`the snapshots of ${entity}`} />
             )}

@@ -2,21 +2,14 @@ import { configure, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
-import { larkspurEU } from "./support/entities";
+import { larkspurEU, larkspurEUInitialSettings } from "./support/entities";
 
 const entities = [larkspurEU];
 
 /** The first record, made with the entity; in force from the start. */
 const initial = {
-  id: 1,
+  ...larkspurEUInitialSettings,
   entity: "LKS-EU",
-  effectiveFrom: "1900-01-01",
-  reference: "Settings entered when the entity was created",
-  pnlBasis: "max",
-  qualitativeAddend: 0,
-  qualitativeAddendSvar: null,
-  multiplierFloor: null,
-  determinationFrequency: "quarterly",
   status: "approved",
   proposedBy: null,
   proposedByName: null,

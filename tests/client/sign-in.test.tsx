@@ -10,11 +10,23 @@ async function signInWith(user: ReturnType<typeof userEvent.setup>, email: strin
   await user.click(screen.getByRole("button", { name: "Sign in" }));
 }
 
-/** The server refusing a sign-in with its status, code and message. */
-const loginRefused = (status: number, code: string, message: string) => ({
-  status,
-  body: { error: { code, message } },
-});
+/** Signed out, signs in with `email` and `password` to a server that refuses with its status, code and message. */
+async function signInRefused(
+  refusal: { status: number; code: string; message: string },
+  email: string,
+  password: string,
+) {
+  const api = fakeApi({
+    "GET /api/auth/session": signedOut,
+    "POST /api/auth/login": {
+      status: refusal.status,
+      body: { error: { code: refusal.code, message: refusal.message } },
+    },
+  });
+  renderApp("/sign-in");
+  await signInWith(userEvent.setup(), email, password);
+  return api;
+}
 
 describe("sign-in", () => {
   it("when the e-mail is left empty, then the field says so beside it and nothing is sent", async () => {
@@ -31,14 +43,11 @@ describe("sign-in", () => {
   });
 
   it("when the server answers 401, then its message is shown for the whole form", async () => {
-    const api = fakeApi({
-      "GET /api/auth/session": signedOut,
-      "POST /api/auth/login": loginRefused(401, "invalid_credentials", "E-mail or password is not right."),
-    });
-    const user = userEvent.setup();
-    renderApp("/sign-in");
-
-    await signInWith(user, "analyst@larkspur.test", "wrong password");
+    const api = await signInRefused(
+      { status: 401, code: "invalid_credentials", message: "E-mail or password is not right." },
+      "analyst@larkspur.test",
+      "wrong password",
+    );
 
     expect(await screen.findByRole("alert")).toHaveTextContent("E-mail or password is not right.");
     expect(api.callsTo("POST", "/api/auth/login")[0].body).toEqual({
@@ -49,14 +58,11 @@ describe("sign-in", () => {
   });
 
   it("when there were too many attempts (429), then the server's message says to wait", async () => {
-    fakeApi({
-      "GET /api/auth/session": signedOut,
-      "POST /api/auth/login": loginRefused(429, "rate_limited", "Too many sign-in attempts. Try again in 15 minutes."),
-    });
-    const user = userEvent.setup();
-    renderApp("/sign-in");
-
-    await signInWith(user, "cro@larkspur.test", "anything");
+    await signInRefused(
+      { status: 429, code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." },
+      "cro@larkspur.test",
+      "anything",
+    );
 
     expect(await screen.findByRole("alert")).toHaveTextContent("Try again in 15 minutes.");
   });

@@ -6,7 +6,7 @@ import { type Filing } from "@shared/schemas/filing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
 import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
-import { larkspurEU, larkspurUK } from "./support/entities";
+import { larkspurEU, larkspurEUInitialSettings, larkspurUK } from "./support/entities";
 import { approved, filingFixture, figures, HASH, PREV_HASH, snapshot, submitted } from "./support/snapshots";
 
 // The figures are display fixtures (support/snapshots.ts): the screen must show what the server froze, unchanged.
@@ -84,16 +84,7 @@ const q4Determination = {
   windowComplete: true,
   status: "approved",
   snapshotId: 12,
-  settings: {
-    id: 1,
-    effectiveFrom: "1900-01-01",
-    reference: "Settings entered when the entity was created",
-    pnlBasis: "max",
-    qualitativeAddend: 0,
-    qualitativeAddendSvar: null,
-    multiplierFloor: null,
-    determinationFrequency: "quarterly",
-  },
+  settings: larkspurEUInitialSettings,
 };
 
 describe("Quarter close › the analyst prepares and submits", () => {
@@ -691,6 +682,16 @@ const filingOf = (over: Partial<Filing> = {}): Filing =>
     ...over,
   });
 
+/** The CRO opens the approved Q4 2025, the server refusing its filing with `refusal`, and asks to file it. */
+async function fileRefusedBy(refusal: Reply) {
+  const opened = openSnapshot("cro", [approved()], { "POST /api/snapshots/12/filings": refusal });
+  const pack = await screen.findByRole("region", { name: "Pack and filing" });
+  await opened.user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+  return { ...opened, pack };
+}
+
+const NO_CONTACTS = error(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address.");
+
 describe("Quarter close › the pack and its filing", () => {
   it("when the chief risk officer files an approved quarter, then the pack is sent and the recipients, SHA-256 and a link to the filing show", async () => {
     const store = [approved()];
@@ -741,16 +742,13 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the mail server refuses the message for good (502 mail_not_sent), then its message shows and the quarter stays approved, ready to file again", async () => {
-    const { api, user } = openSnapshot("cro", [approved()], {
-      "POST /api/snapshots/12/filings": error(
+    const { api, user, pack } = await fileRefusedBy(
+      error(
         502,
         "mail_not_sent",
         "The mail server refused the message (550 5.1.1 <desk-officer@supervisor.test>: recipient unknown). Nothing was sent; check the supervisor contacts under Admin › Entities and file again.",
       ),
-    });
-
-    const pack = await screen.findByRole("region", { name: "Pack and filing" });
-    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    );
     const readsBefore = api.calls.filter((c) => c.method === "GET").length;
     await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
 
@@ -863,16 +861,7 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the confirmation opens, then focus is on Send the pack; Cancel gives it back to File with the supervisor; an error takes it to its message", async () => {
-    const { user } = openSnapshot("cro", [approved()], {
-      "POST /api/snapshots/12/filings": error(
-        422,
-        "no_supervisor_contacts",
-        "LKS-EU has no supervisor e-mail address.",
-      ),
-    });
-
-    const pack = await screen.findByRole("region", { name: "Pack and filing" });
-    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    const { user, pack } = await fileRefusedBy(NO_CONTACTS);
     expect(within(pack).getByRole("button", { name: "Send the pack" })).toHaveFocus();
 
     await user.click(within(pack).getByRole("button", { name: "Cancel" }));
@@ -899,16 +888,7 @@ describe("Quarter close › the pack and its filing", () => {
   });
 
   it("when the entity has no supervisor contacts (422), then the screen says an administrator adds them", async () => {
-    const { user } = openSnapshot("cro", [approved()], {
-      "POST /api/snapshots/12/filings": error(
-        422,
-        "no_supervisor_contacts",
-        "LKS-EU has no supervisor e-mail address.",
-      ),
-    });
-
-    const pack = await screen.findByRole("region", { name: "Pack and filing" });
-    await user.click(within(pack).getByRole("button", { name: "File with the supervisor" }));
+    const { user, pack } = await fileRefusedBy(NO_CONTACTS);
     await user.click(within(pack).getByRole("button", { name: "Send the pack" }));
     expect(await within(pack).findByRole("alert")).toHaveTextContent(
       "LKS-EU has no supervisor contacts, so there is nobody to send the pack to. An administrator adds them under Admin › Entities; then file it again.",

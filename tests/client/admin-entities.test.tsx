@@ -1,6 +1,6 @@
 import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs } from "./support/fake-api";
+import { fakeApi, signedInAs, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const entity = {
@@ -241,15 +241,7 @@ describe("Admin › Entities", () => {
       "GET /api/entities/LKS-UK/holidays": { status: 200, body: [] },
       "PATCH /api/entities/LKS-UK": ({ body }) =>
         conflict
-          ? {
-              status: 409,
-              body: {
-                error: {
-                  code: "stale",
-                  message: "Someone else changed LKS-UK since you opened it (now version 4).",
-                },
-              },
-            }
+          ? refusal(409, "stale", "Someone else changed LKS-UK since you opened it (now version 4).")
           : { status: 200, body: { ...entity, ...(body as object), version: 4 } },
     });
     const user = userEvent.setup();

@@ -1,7 +1,7 @@
 import { vi } from "vitest";
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs } from "./support/fake-api";
+import { fakeApi, signedInAs, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const users = [
@@ -120,16 +120,9 @@ describe("Admin › Users", () => {
       "GET /api/auth/session": signedInAs("admin"),
       "GET /api/users": { status: 200, body: users },
       ...emptyQueues,
-      "POST /api/users": {
-        status: 422,
-        body: {
-          error: {
-            code: "validation",
-            message: "Check the highlighted fields.",
-            details: { fields: { email: "This domain is not allowed" } },
-          },
-        },
-      },
+      "POST /api/users": refusal(422, "validation", "Check the highlighted fields.", {
+        fields: { email: "This domain is not allowed" },
+      }),
     });
     const user = userEvent.setup();
     renderApp("/admin/users");
@@ -203,17 +196,12 @@ describe("Admin › Users", () => {
       ...emptyQueues,
       "PATCH /api/users/2": () => {
         listed = users.map((u) => (u.id === 2 ? current : u));
-        return {
-          status: 409,
-          body: {
-            error: {
-              code: "stale",
-              message:
-                "Someone else changed Ana Lyst (analyst@larkspur.test) since you opened the list (now version 4).",
-              details: { current },
-            },
-          },
-        };
+        return refusal(
+          409,
+          "stale",
+          "Someone else changed Ana Lyst (analyst@larkspur.test) since you opened the list (now version 4).",
+          { current },
+        );
       },
     });
     const user = userEvent.setup();
@@ -250,16 +238,12 @@ describe("Admin › Users", () => {
       "GET /api/auth/session": adaSignedIn,
       "GET /api/users": { status: 200, body: users },
       ...emptyQueues,
-      "POST /api/users/2/password-link": {
-        status: 409,
-        body: {
-          error: {
-            code: "stale",
-            message: "Someone else changed Ana Lyst since you opened the list (now version 5).",
-            details: { current },
-          },
-        },
-      },
+      "POST /api/users/2/password-link": refusal(
+        409,
+        "stale",
+        "Someone else changed Ana Lyst since you opened the list (now version 5).",
+        { current },
+      ),
     });
     const user = userEvent.setup();
     renderApp("/admin/users");

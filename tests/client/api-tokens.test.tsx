@@ -1,6 +1,6 @@
 import { screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs, type Call } from "./support/fake-api";
+import { fakeApi, signedInAs, type Call, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU } from "./support/entities";
 
@@ -140,15 +140,11 @@ describe("API tokens screen", () => {
       "GET /api/auth/session": signedInAs("treasury"),
       "GET /api/entities": { status: 200, body: entities },
       "GET /api/tokens": { status: 200, body: [active] },
-      "POST /api/tokens": {
-        status: 409,
-        body: {
-          error: {
-            code: "conflict",
-            message: "You already hold 10 active API tokens, the most allowed. Revoke one you no longer use first.",
-          },
-        },
-      },
+      "POST /api/tokens": refusal(
+        409,
+        "conflict",
+        "You already hold 10 active API tokens, the most allowed. Revoke one you no longer use first.",
+      ),
     });
     const user = userEvent.setup();
     renderApp("/tokens");

@@ -10,7 +10,7 @@ import {
 } from "@shared/schemas/capital";
 import { binomialPmf } from "@shared/backtest/binomial";
 import { everyFigure } from "@/lib/query-scope";
-import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
+import { fakeApi, signedInAs, type Call, type Reply, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU, larkspurUK } from "./support/entities";
 
@@ -415,16 +415,9 @@ describe("Capital screen", { timeout: 20_000 }, () => {
       routes("analyst", {
         "GET /api/entities/LKS-EU/capital/forecast": (c) =>
           new URLSearchParams(c.search).get("date")
-            ? {
-                status: 422,
-                body: {
-                  error: {
-                    code: "validation_failed",
-                    message: "Invalid query",
-                    details: { fields: { date: "On or after 2026-11-27, the last day with data" } },
-                  },
-                },
-              }
+            ? refusal(422, "validation_failed", "Invalid query", {
+                fields: { date: "On or after 2026-11-27, the last day with data" },
+              })
             : { status: 200, body: forecast() },
       }),
     );
@@ -495,16 +488,12 @@ describe("Capital screen", { timeout: 20_000 }, () => {
   it("when the server refuses a what-if field (422), then its message shows under that field", async () => {
     const api = fakeApi(
       routes("cro", {
-        "POST /api/entities/LKS-EU/capital/what-if": {
-          status: 422,
-          body: {
-            error: {
-              code: "validation_failed",
-              message: "Check the highlighted fields.",
-              details: { fields: { svarScale: "No stressed VaR in the data to scale" } },
-            },
-          },
-        },
+        "POST /api/entities/LKS-EU/capital/what-if": refusal(
+          422,
+          "validation_failed",
+          "Check the highlighted fields.",
+          { fields: { svarScale: "No stressed VaR in the data to scale" } },
+        ),
       }),
     );
     const user = userEvent.setup();

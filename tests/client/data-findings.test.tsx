@@ -1,6 +1,6 @@
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs, type Call } from "./support/fake-api";
+import { fakeApi, signedInAs, type Call, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU, larkspurUS } from "./support/entities";
 
@@ -88,15 +88,7 @@ describe("Data › data-quality findings", () => {
       ...routes(() => ({ status: 200, body: [finding(1, { version })] })),
       "PUT /api/findings/1": () => {
         version = 4;
-        return {
-          status: 409,
-          body: {
-            error: {
-              code: "stale",
-              message: "Finding #1 was changed by someone else (now version 4); reload and try again.",
-            },
-          },
-        };
+        return refusal(409, "stale", "Finding #1 was changed by someone else (now version 4); reload and try again.");
       },
     });
     const user = userEvent.setup();

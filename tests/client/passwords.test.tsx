@@ -1,7 +1,7 @@
 import { vi } from "vitest";
 import { screen, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs, signedOut } from "./support/fake-api";
+import { fakeApi, signedInAs, signedOut, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 const TOKEN = "Qm".repeat(21) + "x"; // 43 base64url characters, as the server issues them
@@ -51,16 +51,12 @@ describe("Your account › change your password", () => {
   it("when the current password is wrong (422), then the message appears beside it", async () => {
     fakeApi({
       "GET /api/auth/session": signedInAs("analyst"),
-      "POST /api/auth/password": {
-        status: 422,
-        body: {
-          error: {
-            code: "validation_failed",
-            message: "Your current password is not correct. Nothing was changed.",
-            details: { fields: { currentPassword: "This is not your current password" } },
-          },
-        },
-      },
+      "POST /api/auth/password": refusal(
+        422,
+        "validation_failed",
+        "Your current password is not correct. Nothing was changed.",
+        { fields: { currentPassword: "This is not your current password" } },
+      ),
     });
     const user = userEvent.setup();
     renderApp("/account");
@@ -121,15 +117,11 @@ describe("the set-password screen (a link from an e-mail)", () => {
   it("when the link expired, then the screen says so and offers no password form", async () => {
     fakeApi({
       "GET /api/auth/session": signedOut,
-      "POST /api/invitations/lookup": {
-        status: 410,
-        body: {
-          error: {
-            code: "link_expired",
-            message: "This link expired on 2026-03-04 09:00 UTC. Ask your administrator to send a new one.",
-          },
-        },
-      },
+      "POST /api/invitations/lookup": refusal(
+        410,
+        "link_expired",
+        "This link expired on 2026-03-04 09:00 UTC. Ask your administrator to send a new one.",
+      ),
     });
     renderApp(`/set-password#${TOKEN}`);
 

@@ -1,6 +1,6 @@
 import { configure, screen, waitFor, within } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
+import { fakeApi, signedInAs, type Call, type Reply, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU, larkspurEUInitialSettings } from "./support/entities";
 
@@ -112,17 +112,12 @@ describe("Supervisory settings", { timeout: 20_000 }, () => {
   it("when the server refuses a date inside a signed-off quarter (422), then its message shows and the field is marked", async () => {
     fakeApi(
       routes("admin", [initial], {
-        "POST /api/entities/LKS-EU/settings": {
-          status: 422,
-          body: {
-            error: {
-              code: "validation_failed",
-              message:
-                "LKS-EU's quarter ending 2026-06-30 is signed off and its figures never change, so a settings change can take effect from 2026-06-30 + 1 day at the earliest.",
-              details: { fields: { effectiveFrom: "After 2026-06-30" } },
-            },
-          },
-        },
+        "POST /api/entities/LKS-EU/settings": refusal(
+          422,
+          "validation_failed",
+          "LKS-EU's quarter ending 2026-06-30 is signed off and its figures never change, so a settings change can take effect from 2026-06-30 + 1 day at the earliest.",
+          { fields: { effectiveFrom: "After 2026-06-30" } },
+        ),
       }),
     );
     const user = userEvent.setup();

@@ -1,6 +1,6 @@
 import { screen, waitFor } from "@testing-library/react";
 import userEvent from "@testing-library/user-event";
-import { fakeApi, signedInAs, signedOut } from "./support/fake-api";
+import { fakeApi, refusal, signedInAs, signedOut, type Reply } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 
 /** Types an e-mail address and a password into the sign-in form and sends it. */
@@ -10,19 +10,9 @@ async function signInWith(user: ReturnType<typeof userEvent.setup>, email: strin
   await user.click(screen.getByRole("button", { name: "Sign in" }));
 }
 
-/** Signed out, signs in with `email` and `password` to a server that refuses with its status, code and message. */
-async function signInRefused(
-  refusal: { status: number; code: string; message: string },
-  email: string,
-  password: string,
-) {
-  const api = fakeApi({
-    "GET /api/auth/session": signedOut,
-    "POST /api/auth/login": {
-      status: refusal.status,
-      body: { error: { code: refusal.code, message: refusal.message } },
-    },
-  });
+/** Signed out, signs in with `email` and `password` to a server that answers with `refused`. */
+async function signInRefused(refused: Reply, email: string, password: string) {
+  const api = fakeApi({ "GET /api/auth/session": signedOut, "POST /api/auth/login": refused });
   renderApp("/sign-in");
   await signInWith(userEvent.setup(), email, password);
   return api;
@@ -44,7 +34,7 @@ describe("sign-in", () => {
 
   it("when the server answers 401, then its message is shown for the whole form", async () => {
     const api = await signInRefused(
-      { status: 401, code: "invalid_credentials", message: "E-mail or password is not right." },
+      refusal(401, "invalid_credentials", "E-mail or password is not right."),
       "analyst@larkspur.test",
       "wrong password",
     );
@@ -59,7 +49,7 @@ describe("sign-in", () => {
 
   it("when there were too many attempts (429), then the server's message says to wait", async () => {
     await signInRefused(
-      { status: 429, code: "rate_limited", message: "Too many sign-in attempts. Try again in 15 minutes." },
+      refusal(429, "rate_limited", "Too many sign-in attempts. Try again in 15 minutes."),
       "cro@larkspur.test",
       "anything",
     );

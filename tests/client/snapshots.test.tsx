@@ -4,7 +4,7 @@ import { vi } from "vitest";
 import { snapshotVerifySchema, type Snapshot } from "@shared/schemas/snapshot";
 import { type Filing } from "@shared/schemas/filing";
 import { endedQuarterEnds } from "@/features/snapshots/quarter-ends";
-import { fakeApi, signedInAs, type Call, type Reply } from "./support/fake-api";
+import { fakeApi, signedInAs, type Call, type Reply, refusal } from "./support/fake-api";
 import { renderApp } from "./support/render-app";
 import { larkspurEU, larkspurEUInitialSettings, larkspurUK } from "./support/entities";
 import { approved, filingFixture, figures, HASH, PREV_HASH, snapshot, submitted } from "./support/snapshots";
@@ -15,11 +15,6 @@ const entities = [larkspurEU, larkspurUK];
 
 /** The traffic-light zone classes: kept for zones, never on a notice that is not one. */
 const ZONE_CLASS = /\b(bg|text|border)-zone-/;
-
-const error = (status: number, code: string, message: string): Reply => ({
-  status,
-  body: { error: { code, message } },
-});
 
 /** The server's snapshots held in one list: the list and each detail read from it, so a change shows everywhere. */
 function snapshotRoutes(store: Snapshot[], extra: Record<string, Reply | ((c: Call) => Reply)> = {}) {
@@ -36,7 +31,7 @@ function snapshotRoutes(store: Snapshot[], extra: Record<string, Reply | ((c: Ca
   for (const id of [11, 12, 13, 14, 15]) {
     routes[`GET /api/snapshots/${id}`] = () => {
       const s = store.find((x) => x.id === id);
-      return s ? { status: 200, body: s } : error(404, "not_found", `No snapshot #${id}.`);
+      return s ? { status: 200, body: s } : refusal(404, "not_found", `No snapshot #${id}.`);
     };
   }
   return { ...routes, ...extra };
@@ -154,7 +149,7 @@ describe("Quarter close › the analyst prepares and submits", () => {
       "analyst",
       store,
       {
-        "POST /api/snapshots/14/submit": error(
+        "POST /api/snapshots/14/submit": refusal(
           409,
           "open_findings",
           "2 open data-quality findings inside Q1 2026 block sign-off: resolve or explain them on the Data screen.",
@@ -197,7 +192,7 @@ describe("Quarter close › the analyst prepares and submits", () => {
             version: 5,
           });
           expect(c.body).toEqual({ comment: "Ready for the CRO.", version: 4 });
-          return error(
+          return refusal(
             409,
             "stale",
             "Snapshot #14 changed since you opened it (now version 5). Look at it again before acting.",
@@ -402,7 +397,7 @@ describe("Quarter close › the chief risk officer signs off", () => {
 
   it("when the daily data changed since submission (409 inputs_changed), then the server's message says so and suggests returning it", async () => {
     const { user } = openSnapshot("cro", [submitted()], {
-      "POST /api/snapshots/12/approve": error(
+      "POST /api/snapshots/12/approve": refusal(
         409,
         "inputs_changed",
         "The daily data inside Q4 2025 changed after it was submitted.",
@@ -563,8 +558,8 @@ describe("Quarter close › reading signed-off quarters", () => {
           detail: "The hash matches the stored figures and inputs.",
         }),
       },
-      error(503, "database_unavailable", "The database did not answer; try again in a moment."),
-      error(503, "database_unavailable", "The database did not answer; try again in a moment."),
+      refusal(503, "database_unavailable", "The database did not answer; try again in a moment."),
+      refusal(503, "database_unavailable", "The database did not answer; try again in a moment."),
     ];
     const { user } = openSnapshot("treasury", [approved()], { "GET /api/snapshots/12/verify": () => checks.shift()! });
 
@@ -690,7 +685,7 @@ async function fileRefusedBy(refusal: Reply) {
   return { ...opened, pack };
 }
 
-const NO_CONTACTS = error(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address.");
+const NO_CONTACTS = refusal(422, "no_supervisor_contacts", "LKS-EU has no supervisor e-mail address.");
 
 describe("Quarter close › the pack and its filing", () => {
   it("when the chief risk officer files an approved quarter, then the pack is sent and the recipients, SHA-256 and a link to the filing show", async () => {
@@ -743,7 +738,7 @@ describe("Quarter close › the pack and its filing", () => {
 
   it("when the mail server refuses the message for good (502 mail_not_sent), then its message shows and the quarter stays approved, ready to file again", async () => {
     const { api, user, pack } = await fileRefusedBy(
-      error(
+      refusal(
         502,
         "mail_not_sent",
         "The mail server refused the message (550 5.1.1 <desk-officer@supervisor.test>: recipient unknown). Nothing was sent; check the supervisor contacts under Admin › Entities and file again.",
@@ -830,16 +825,9 @@ describe("Quarter close › the pack and its filing", () => {
         filings.unshift(
           filingOf({ id: 33, sentBy: "cro2@larkspur.test", delivery: "pending", messageId: null, sentAt: null }),
         );
-        return {
-          status: 409,
-          body: {
-            error: {
-              code: "conflict",
-              message: "Snapshot #12 is already filed (filing #33, waiting for the mail server).",
-              details: { filingId: 33 },
-            },
-          },
-        };
+        return refusal(409, "conflict", "Snapshot #12 is already filed (filing #33, waiting for the mail server).", {
+          filingId: 33,
+        });
       },
     });
 
@@ -918,7 +906,7 @@ describe("Quarter close › the pack and its filing", () => {
     const api = fakeApi({
       "GET /api/auth/session": signedInAs("analyst"),
       ...snapshotRoutes([snapshot()], {
-        "GET /api/snapshots/12/pack.pdf": error(403, "forbidden", "Your role may not download this entity's pack."),
+        "GET /api/snapshots/12/pack.pdf": refusal(403, "forbidden", "Your role may not download this entity's pack."),
       }),
     });
     const created = vi.fn(() => "blob:quartermark.test/1");
@@ -1159,7 +1147,7 @@ describe("Quarter close › amending a filed quarter", () => {
     const store = [filed({ restatedAfterSignOff: RESTATED })];
     const { user } = openSnapshot("analyst", store, {
       "GET /api/filings": { status: 200, body: [filingOf()] },
-      "POST /api/snapshots": error(
+      "POST /api/snapshots": refusal(
         409,
         "amendment_open",
         "Snapshot #12 already has an amendment in sign-off (#13, submitted); finish or return that one first.",

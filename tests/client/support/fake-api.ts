@@ -43,6 +43,11 @@ export function fakeApi(routes: Record<string, Handler>) {
   };
 }
 
+/** The server refusing a call: its status and the one error shape, `{ error: { code, message, details? } }`. */
+export function refusal(status: number, code: string, message: string, details?: unknown): Reply {
+  return { status, body: { error: details === undefined ? { code, message } : { code, message, details } } };
+}
+
 /** What the session probe answers when nobody is signed in. */
 export const signedOut: Reply = { status: 200, body: { user: null } };
 

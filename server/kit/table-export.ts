@@ -18,7 +18,7 @@ type Cell = string | number | boolean | null | undefined;
 export interface Column<Row> {
   header: string;
   kind: ColumnKind;
-  value: (row: Row) => Cell;
+  value: Value<Row>;
   /** Decimals of a plain number (multipliers: 2; p-values: 4). Money always has 2. */
   decimals?: number;
 }
@@ -31,6 +31,29 @@ export interface Table<Row> {
   /** ISO 4217 code shown in the money format; omitted when rows are in different currencies. */
   currency?: string | null;
 }
+
+type Value<Row> = (row: Row) => Cell;
+
+function columnOf(kind: ColumnKind, decimals?: number) {
+  return <Row>(header: string, value: Value<Row>): Column<Row> =>
+    decimals === undefined ? { header, kind, value } : { header, kind, decimals, value };
+}
+
+/**
+ * A column of each kind, from its header and how a row gives its value:
+ * `col.money("Capital requirement", (h) => h.capital)`. `col.factor` is a number with 2 decimals
+ * (multipliers, plus factors).
+ */
+export const col = {
+  text: columnOf("text"),
+  integer: columnOf("integer"),
+  number: columnOf("number"),
+  factor: columnOf("number", 2),
+  money: columnOf("money"),
+  date: columnOf("date"),
+  datetime: columnOf("datetime"),
+  yesNo: columnOf("yes-no"),
+};
 
 const FORMULA_START = /^[=+\-@\t\r]/;
 

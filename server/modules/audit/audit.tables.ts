@@ -1,17 +1,17 @@
 import type { AuditEvent } from "../../../shared/schemas/audit";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 const json = (v: unknown) => (v === null || v === undefined ? null : JSON.stringify(v));
 
 const columns: Column<AuditEvent>[] = [
-  { header: "Event", kind: "integer", value: (e) => e.id },
-  { header: "At", kind: "datetime", value: (e) => e.at },
-  { header: "Who", kind: "text", value: (e) => e.actorEmail },
-  { header: "Action", kind: "text", value: (e) => e.action },
-  { header: "Target", kind: "text", value: (e) => e.target },
-  { header: "Address", kind: "text", value: (e) => e.ip },
-  { header: "Before", kind: "text", value: (e) => json(e.before) },
-  { header: "After", kind: "text", value: (e) => json(e.after) },
+  col.integer("Event", (e) => e.id),
+  col.datetime("At", (e) => e.at),
+  col.text("Who", (e) => e.actorEmail),
+  col.text("Action", (e) => e.action),
+  col.text("Target", (e) => e.target),
+  col.text("Address", (e) => e.ip),
+  col.text("Before", (e) => json(e.before)),
+  col.text("After", (e) => json(e.after)),
 ];
 
 /** The audit log with the screen's filter applied, newest first. */

@@ -1,27 +1,27 @@
 import type { BacktestResponse, RollingRowDto } from "../../../shared/schemas/backtest";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 type ExceptionDay = BacktestResponse["exceptionDays"][number];
 
 const exceptionColumns: Column<ExceptionDay>[] = [
-  { header: "Date", kind: "date", value: (d) => d.date },
-  { header: "Actual P&L", kind: "money", value: (d) => d.actualPnl },
-  { header: "Hypothetical P&L", kind: "money", value: (d) => d.hypotheticalPnl },
-  { header: "VaR 99%", kind: "money", value: (d) => d.var99 },
-  { header: "Exception on actual", kind: "yes-no", value: (d) => d.actual },
-  { header: "Exception on hypothetical", kind: "yes-no", value: (d) => d.hypothetical },
-  { header: "Excess on actual", kind: "money", value: (d) => d.excessActual },
-  { header: "Excess on hypothetical", kind: "money", value: (d) => d.excessHypothetical },
-  { header: "Excluded", kind: "yes-no", value: (d) => d.excluded },
-  { header: "Missing data", kind: "yes-no", value: (d) => d.missing },
-  { header: "Cause", kind: "text", value: (d) => d.review?.cause },
-  { header: "Explanation", kind: "text", value: (d) => d.review?.narrative },
-  { header: "Exclusion", kind: "text", value: (d) => d.review?.exclusionStatus },
-  { header: "Decision reference", kind: "text", value: (d) => d.review?.decisionReference },
-  { header: "Decision date", kind: "date", value: (d) => d.review?.decisionDate },
-  { header: "Decided by", kind: "text", value: (d) => d.review?.decidedBy },
-  { header: "Reviewed by", kind: "text", value: (d) => d.review?.reviewedBy },
-  { header: "Reviewed at", kind: "datetime", value: (d) => d.review?.reviewedAt },
+  col.date("Date", (d) => d.date),
+  col.money("Actual P&L", (d) => d.actualPnl),
+  col.money("Hypothetical P&L", (d) => d.hypotheticalPnl),
+  col.money("VaR 99%", (d) => d.var99),
+  col.yesNo("Exception on actual", (d) => d.actual),
+  col.yesNo("Exception on hypothetical", (d) => d.hypothetical),
+  col.money("Excess on actual", (d) => d.excessActual),
+  col.money("Excess on hypothetical", (d) => d.excessHypothetical),
+  col.yesNo("Excluded", (d) => d.excluded),
+  col.yesNo("Missing data", (d) => d.missing),
+  col.text("Cause", (d) => d.review?.cause),
+  col.text("Explanation", (d) => d.review?.narrative),
+  col.text("Exclusion", (d) => d.review?.exclusionStatus),
+  col.text("Decision reference", (d) => d.review?.decisionReference),
+  col.date("Decision date", (d) => d.review?.decisionDate),
+  col.text("Decided by", (d) => d.review?.decidedBy),
+  col.text("Reviewed by", (d) => d.review?.reviewedBy),
+  col.datetime("Reviewed at", (d) => d.review?.reviewedAt),
 ];
 
 /** The window's exception days with their reviews, as the Backtest screen lists them. */
@@ -35,13 +35,13 @@ export function exceptionsTable(backtest: BacktestResponse): Table<ExceptionDay>
 }
 
 const rollingColumns: Column<RollingRowDto>[] = [
-  { header: "Date", kind: "date", value: (r) => r.date },
-  { header: "Exceptions on actual (250 days)", kind: "integer", value: (r) => r.actual },
-  { header: "Exceptions on hypothetical (250 days)", kind: "integer", value: (r) => r.hypothetical },
-  { header: "Counted", kind: "integer", value: (r) => r.counted },
-  { header: "Zone", kind: "text", value: (r) => r.zone },
-  { header: "Plus factor", kind: "number", decimals: 2, value: (r) => r.plusFactor },
-  { header: "Full window", kind: "yes-no", value: (r) => r.complete },
+  col.date("Date", (r) => r.date),
+  col.integer("Exceptions on actual (250 days)", (r) => r.actual),
+  col.integer("Exceptions on hypothetical (250 days)", (r) => r.hypothetical),
+  col.integer("Counted", (r) => r.counted),
+  col.text("Zone", (r) => r.zone),
+  col.factor("Plus factor", (r) => r.plusFactor),
+  col.yesNo("Full window", (r) => r.complete),
 ];
 
 /** The rolling 250-day count of each day. */

@@ -1,18 +1,18 @@
 import type { CapitalHistoryItem } from "../../../shared/schemas/capital";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 const historyColumns: Column<CapitalHistoryItem>[] = [
-  { header: "Quarter end", kind: "date", value: (h) => h.quarterEnd },
-  { header: "Status", kind: "text", value: (h) => h.status },
-  { header: "Zone", kind: "text", value: (h) => h.zone },
-  { header: "Exceptions counted", kind: "integer", value: (h) => h.counted },
-  { header: "Plus factor", kind: "number", decimals: 2, value: (h) => h.plusFactor },
-  { header: "Multiplier", kind: "number", decimals: 2, value: (h) => h.multiplier },
-  { header: "Capital requirement", kind: "money", value: (h) => h.capital },
-  { header: "Add-on from exceptions", kind: "money", value: (h) => h.addOn },
-  { header: "Full window", kind: "yes-no", value: (h) => h.windowComplete },
-  { header: "Restated after sign-off", kind: "yes-no", value: (h) => h.restatedAfterSignOff },
-  { header: "Snapshot", kind: "integer", value: (h) => h.snapshotId },
+  col.date("Quarter end", (h) => h.quarterEnd),
+  col.text("Status", (h) => h.status),
+  col.text("Zone", (h) => h.zone),
+  col.integer("Exceptions counted", (h) => h.counted),
+  col.factor("Plus factor", (h) => h.plusFactor),
+  col.factor("Multiplier", (h) => h.multiplier),
+  col.money("Capital requirement", (h) => h.capital),
+  col.money("Add-on from exceptions", (h) => h.addOn),
+  col.yesNo("Full window", (h) => h.windowComplete),
+  col.yesNo("Restated after sign-off", (h) => h.restatedAfterSignOff),
+  col.integer("Snapshot", (h) => h.snapshotId),
 ];
 
 /** Each quarter's frozen capital figures, as the Capital screen's history lists them. */

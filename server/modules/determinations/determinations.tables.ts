@@ -1,23 +1,23 @@
 import type { DeterminationDto } from "../../../shared/schemas/determination";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 const columns: Column<DeterminationDto>[] = [
-  { header: "Period end", kind: "date", value: (d) => d.quarterEnd },
-  { header: "Counted on", kind: "date", value: (d) => d.asOf },
-  { header: "In force from", kind: "date", value: (d) => d.effectiveFrom },
-  { header: "In force until", kind: "date", value: (d) => d.effectiveTo },
-  { header: "Status", kind: "text", value: (d) => d.status },
-  { header: "Exceptions counted", kind: "integer", value: (d) => d.counted },
-  { header: "On actual P&L", kind: "integer", value: (d) => d.actual },
-  { header: "On hypothetical P&L", kind: "integer", value: (d) => d.hypothetical },
-  { header: "Zone", kind: "text", value: (d) => d.zoneLabel },
-  { header: "Plus factor", kind: "number", decimals: 2, value: (d) => d.plusFactor },
-  { header: "Multiplier (VaR)", kind: "number", decimals: 2, value: (d) => d.multiplier },
-  { header: "Multiplier (stressed VaR)", kind: "number", decimals: 2, value: (d) => d.multiplierSvar },
-  { header: "Full window", kind: "yes-no", value: (d) => d.windowComplete },
-  { header: "Settings reference", kind: "text", value: (d) => d.settings.reference },
-  { header: "Settings in force from", kind: "date", value: (d) => d.settings.effectiveFrom },
-  { header: "Snapshot", kind: "integer", value: (d) => d.snapshotId },
+  col.date("Period end", (d) => d.quarterEnd),
+  col.date("Counted on", (d) => d.asOf),
+  col.date("In force from", (d) => d.effectiveFrom),
+  col.date("In force until", (d) => d.effectiveTo),
+  col.text("Status", (d) => d.status),
+  col.integer("Exceptions counted", (d) => d.counted),
+  col.integer("On actual P&L", (d) => d.actual),
+  col.integer("On hypothetical P&L", (d) => d.hypothetical),
+  col.text("Zone", (d) => d.zoneLabel),
+  col.factor("Plus factor", (d) => d.plusFactor),
+  col.factor("Multiplier (VaR)", (d) => d.multiplier),
+  col.factor("Multiplier (stressed VaR)", (d) => d.multiplierSvar),
+  col.yesNo("Full window", (d) => d.windowComplete),
+  col.text("Settings reference", (d) => d.settings.reference),
+  col.date("Settings in force from", (d) => d.settings.effectiveFrom),
+  col.integer("Snapshot", (d) => d.snapshotId),
 ];
 
 /** An entity's determinations: the count, zone and multiplier each one put in force, and when. */

@@ -1,18 +1,18 @@
 import type { Finding } from "../../../shared/schemas/finding";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 const columns: Column<Finding>[] = [
-  { header: "Finding", kind: "integer", value: (f) => f.id },
-  { header: "Entity", kind: "text", value: (f) => f.entity },
-  { header: "Portfolio", kind: "text", value: (f) => f.portfolio },
-  { header: "Kind", kind: "text", value: (f) => f.kind },
-  { header: "From", kind: "date", value: (f) => f.from },
-  { header: "To", kind: "date", value: (f) => f.to },
-  { header: "Detail", kind: "text", value: (f) => f.detail },
-  { header: "Status", kind: "text", value: (f) => f.status },
-  { header: "Note", kind: "text", value: (f) => f.note },
-  { header: "Closed by", kind: "text", value: (f) => f.closedBy },
-  { header: "Closed at", kind: "datetime", value: (f) => f.closedAt },
+  col.integer("Finding", (f) => f.id),
+  col.text("Entity", (f) => f.entity),
+  col.text("Portfolio", (f) => f.portfolio),
+  col.text("Kind", (f) => f.kind),
+  col.date("From", (f) => f.from),
+  col.date("To", (f) => f.to),
+  col.text("Detail", (f) => f.detail),
+  col.text("Status", (f) => f.status),
+  col.text("Note", (f) => f.note),
+  col.text("Closed by", (f) => f.closedBy),
+  col.datetime("Closed at", (f) => f.closedAt),
 ];
 
 /** Data-quality findings with the filter of the Data screen applied. */

@@ -1,5 +1,5 @@
 import type { SnapshotListItem, SnapshotReturn } from "../../../shared/schemas/snapshot";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 /** The quarters' snapshots, as Quarter close lists them (several entities: the currency is a column). */
 export function snapshotsTable(
@@ -8,30 +8,30 @@ export function snapshotsTable(
   entity: string | undefined,
 ): Table<SnapshotListItem> {
   const columns: Column<SnapshotListItem>[] = [
-    { header: "Snapshot", kind: "integer", value: (s) => s.id },
-    { header: "Entity", kind: "text", value: (s) => s.entity },
-    { header: "Entity name", kind: "text", value: (s) => s.entityName },
-    { header: "Quarter end", kind: "date", value: (s) => s.quarterEnd },
-    { header: "Status", kind: "text", value: (s) => s.status },
-    { header: "Zone", kind: "text", value: (s) => s.zone },
-    { header: "Exceptions counted", kind: "integer", value: (s) => s.counted },
-    { header: "Plus factor", kind: "number", decimals: 2, value: (s) => s.plusFactor },
-    { header: "Multiplier", kind: "number", decimals: 2, value: (s) => s.multiplier },
-    { header: "Currency", kind: "text", value: (s) => currencies.get(s.entity) },
-    { header: "Capital requirement", kind: "money", value: (s) => s.capital },
-    { header: "Add-on from exceptions", kind: "money", value: (s) => s.addOn },
-    { header: "Prepared by", kind: "text", value: (s) => s.preparedBy },
-    { header: "Prepared at", kind: "datetime", value: (s) => s.preparedAt },
-    { header: "Submitted by", kind: "text", value: (s) => s.submittedBy },
-    { header: "Submitted at", kind: "datetime", value: (s) => s.submittedAt },
-    { header: "Approved by", kind: "text", value: (s) => s.approvedBy },
-    { header: "Approved at", kind: "datetime", value: (s) => s.approvedAt },
-    { header: "Restated after sign-off", kind: "text", value: (s) => s.restatedAfterSignOff?.detail },
-    { header: "Open findings", kind: "integer", value: (s) => s.openFindings },
-    { header: "Signature (hash)", kind: "text", value: (s) => s.hash },
-    { header: "Inputs sha256", kind: "text", value: (s) => s.inputsSha256 },
-    { header: "Amends snapshot", kind: "integer", value: (s) => s.amends },
-    { header: "Amended by snapshot", kind: "integer", value: (s) => s.amendedBy },
+    col.integer("Snapshot", (s) => s.id),
+    col.text("Entity", (s) => s.entity),
+    col.text("Entity name", (s) => s.entityName),
+    col.date("Quarter end", (s) => s.quarterEnd),
+    col.text("Status", (s) => s.status),
+    col.text("Zone", (s) => s.zone),
+    col.integer("Exceptions counted", (s) => s.counted),
+    col.factor("Plus factor", (s) => s.plusFactor),
+    col.factor("Multiplier", (s) => s.multiplier),
+    col.text("Currency", (s) => currencies.get(s.entity)),
+    col.money("Capital requirement", (s) => s.capital),
+    col.money("Add-on from exceptions", (s) => s.addOn),
+    col.text("Prepared by", (s) => s.preparedBy),
+    col.datetime("Prepared at", (s) => s.preparedAt),
+    col.text("Submitted by", (s) => s.submittedBy),
+    col.datetime("Submitted at", (s) => s.submittedAt),
+    col.text("Approved by", (s) => s.approvedBy),
+    col.datetime("Approved at", (s) => s.approvedAt),
+    col.text("Restated after sign-off", (s) => s.restatedAfterSignOff?.detail),
+    col.integer("Open findings", (s) => s.openFindings),
+    col.text("Signature (hash)", (s) => s.hash),
+    col.text("Inputs sha256", (s) => s.inputsSha256),
+    col.integer("Amends snapshot", (s) => s.amends),
+    col.integer("Amended by snapshot", (s) => s.amendedBy),
   ];
   // One currency in the format when every row shares it; otherwise the Currency column says it per row.
   const inRows = new Set(rows.map((s) => currencies.get(s.entity)));
@@ -42,13 +42,13 @@ export function snapshotsTable(
 type ReturnField = SnapshotReturn["fields"][number];
 
 const returnColumns: Column<ReturnField>[] = [
-  { header: "Template row", kind: "text", value: (f) => f.templateRow },
-  { header: "Item", kind: "text", value: (f) => f.label },
-  { header: "Value", kind: "number", value: (f) => f.value },
-  { header: "Unit", kind: "text", value: (f) => (f.unit === "amount" ? (f.currency ?? "amount") : f.unit) },
-  { header: "Source", kind: "text", value: (f) => f.source },
-  { header: "Entered by the analyst", kind: "yes-no", value: (f) => f.analystInput === true },
-  { header: "Key", kind: "text", value: (f) => f.key },
+  col.text("Template row", (f) => f.templateRow),
+  col.text("Item", (f) => f.label),
+  col.number("Value", (f) => f.value),
+  col.text("Unit", (f) => (f.unit === "amount" ? (f.currency ?? "amount") : f.unit)),
+  col.text("Source", (f) => f.source),
+  col.yesNo("Entered by the analyst", (f) => f.analystInput === true),
+  col.text("Key", (f) => f.key),
 ];
 
 /** A snapshot's return data: each value with the template row it goes to and where it comes from. */

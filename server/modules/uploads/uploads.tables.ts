@@ -1,24 +1,24 @@
 import type { UploadSummary } from "../../../shared/schemas/upload";
-import type { Column, Table } from "../../kit/table-export";
+import { col, type Column, type Table } from "../../kit/table-export";
 
 const columns: Column<UploadSummary>[] = [
-  { header: "Upload", kind: "integer", value: (u) => u.id },
-  { header: "File", kind: "text", value: (u) => u.fileName },
-  { header: "Status", kind: "text", value: (u) => u.status },
-  { header: "Rows", kind: "integer", value: (u) => u.rows },
-  { header: "Valid", kind: "integer", value: (u) => u.valid },
-  { header: "Invalid", kind: "integer", value: (u) => u.invalid },
-  { header: "New days", kind: "integer", value: (u) => u.newRows },
-  { header: "Restated days", kind: "integer", value: (u) => u.restatements },
-  { header: "Unchanged days", kind: "integer", value: (u) => u.unchanged },
-  { header: "Portfolios", kind: "text", value: (u) => u.portfolios.join("; ") },
-  { header: "First day", kind: "date", value: (u) => u.from },
-  { header: "Last day", kind: "date", value: (u) => u.to },
-  { header: "Uploaded by", kind: "text", value: (u) => u.uploadedBy },
-  { header: "Uploaded at", kind: "datetime", value: (u) => u.uploadedAt },
-  { header: "Committed by", kind: "text", value: (u) => u.committedBy },
-  { header: "Committed at", kind: "datetime", value: (u) => u.committedAt },
-  { header: "File sha256", kind: "text", value: (u) => u.sha256 },
+  col.integer("Upload", (u) => u.id),
+  col.text("File", (u) => u.fileName),
+  col.text("Status", (u) => u.status),
+  col.integer("Rows", (u) => u.rows),
+  col.integer("Valid", (u) => u.valid),
+  col.integer("Invalid", (u) => u.invalid),
+  col.integer("New days", (u) => u.newRows),
+  col.integer("Restated days", (u) => u.restatements),
+  col.integer("Unchanged days", (u) => u.unchanged),
+  col.text("Portfolios", (u) => u.portfolios.join("; ")),
+  col.date("First day", (u) => u.from),
+  col.date("Last day", (u) => u.to),
+  col.text("Uploaded by", (u) => u.uploadedBy),
+  col.datetime("Uploaded at", (u) => u.uploadedAt),
+  col.text("Committed by", (u) => u.committedBy),
+  col.datetime("Committed at", (u) => u.committedAt),
+  col.text("File sha256", (u) => u.sha256),
 ];
 
 /** The upload history, as the Data screen lists it. */

@@ -1,4 +1,6 @@
 import type { Response } from "express";
+import type { ExportFormat } from "../../shared/schemas/table-export";
+import { tableDownload, type Table } from "../kit/table-export";
 
 export interface Download {
   /** The name the browser saves it under. */
@@ -30,4 +32,9 @@ export function sendDownload(res: Response, download: Download): void {
   res.setHeader("Content-Disposition", contentDisposition(download.fileName));
   for (const [name, value] of Object.entries(download.headers ?? {})) res.setHeader(name, value);
   res.send(download.bytes);
+}
+
+/** A table (server/kit/table-export.ts) as the download of the format its address asks for. */
+export async function sendTable<Row>(res: Response, table: Table<Row>, format: ExportFormat): Promise<void> {
+  sendDownload(res, await tableDownload(table, format));
 }

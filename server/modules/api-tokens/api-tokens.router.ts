@@ -1,7 +1,6 @@
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { idOf, signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { idParamSchema } from "../../../shared/schemas/common";
 import { createApiTokenBodySchema } from "../../../shared/schemas/api-token";
 import { createApiToken, listApiTokens, revokeApiToken } from "./api-tokens.service";
 
@@ -18,8 +17,7 @@ export function apiTokensRouter() {
       );
   });
   r.delete("/api/tokens/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    await revokeApiToken(id, signedInActor(req));
+    await revokeApiToken(idOf(req), signedInActor(req));
     res.status(204).end();
   });
   return r.router;

@@ -1,9 +1,8 @@
+import { exportFormatOf } from "../../http/context";
 import { createGuardedRouter } from "../../http/routes";
 import { parseInput } from "../../errors";
 import { auditFilterSchema, auditQuerySchema } from "../../../shared/schemas/audit";
-import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
-import { tableDownload } from "../../kit/table-export";
-import { sendDownload } from "../../http/download";
+import { sendTable } from "../../http/download";
 import { auditTable } from "./audit.tables";
 import { auditEventsForExport, listAuditEvents, verifyAuditLog } from "./audit.service";
 
@@ -16,9 +15,9 @@ export function auditRouter() {
     res.json(await listAuditEvents(parseInput(auditQuerySchema, req.query, "query")));
   });
   r.get("/api/audit-events.:format", async (req, res) => {
-    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const format = exportFormatOf(req);
     const filter = parseInput(auditFilterSchema, req.query, "query");
-    sendDownload(res, await tableDownload(auditTable(await auditEventsForExport(filter), filter), format));
+    await sendTable(res, auditTable(await auditEventsForExport(filter), filter), format);
   });
   return r.router;
 }

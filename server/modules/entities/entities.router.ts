@@ -1,5 +1,5 @@
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { entityCodeOf, signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createEntityBodySchema,
@@ -12,7 +12,6 @@ import {
   updateEntityBodySchema,
   updatePortfolioBodySchema,
 } from "../../../shared/schemas/entity";
-import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import * as entities from "./entities.service";
 
 export function entitiesRouter() {
@@ -25,16 +24,15 @@ export function entitiesRouter() {
     res.status(201).json(await entities.createEntity(parseInput(createEntityBodySchema, req.body), signedInActor(req)));
   });
   r.patch("/api/entities/:code", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const code = entityCodeOf(req);
     res.json(await entities.updateEntity(code, parseInput(updateEntityBodySchema, req.body), signedInActor(req)));
   });
 
   r.get("/api/entities/:code/portfolios", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await entities.listPortfolios(code, signedInActor(req).user));
+    res.json(await entities.listPortfolios(entityCodeOf(req), signedInActor(req).user));
   });
   r.post("/api/entities/:code/portfolios", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const code = entityCodeOf(req);
     res
       .status(201)
       .json(await entities.createPortfolio(code, parseInput(createPortfolioBodySchema, req.body), signedInActor(req)));
@@ -46,11 +44,10 @@ export function entitiesRouter() {
   });
 
   r.get("/api/entities/:code/holidays", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await entities.listHolidays(code, signedInActor(req).user));
+    res.json(await entities.listHolidays(entityCodeOf(req), signedInActor(req).user));
   });
   r.post("/api/entities/:code/holidays", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const code = entityCodeOf(req);
     res
       .status(201)
       .json(await entities.addHoliday(code, parseInput(createHolidayBodySchema, req.body), signedInActor(req)));
@@ -63,12 +60,12 @@ export function entitiesRouter() {
 
   // The library's public holidays of a year: what an import would change, then the import itself.
   r.get("/api/entities/:code/holiday-import", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const code = entityCodeOf(req);
     const { year } = parseInput(holidayImportQuerySchema, req.query, "query");
     res.json(await entities.previewHolidayImport(code, year));
   });
   r.post("/api/entities/:code/holiday-import", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const code = entityCodeOf(req);
     const body = parseInput(holidayImportBodySchema, req.body);
     res.json(await entities.importLibraryHolidays(code, body, signedInActor(req)));
   });

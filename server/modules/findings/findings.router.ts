@@ -1,11 +1,8 @@
-import { idParamSchema } from "../../../shared/schemas/common";
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { exportFormatOf, idOf, signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import { closeFindingBodySchema, findingsQuerySchema } from "../../../shared/schemas/finding";
-import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
-import { tableDownload } from "../../kit/table-export";
-import { sendDownload } from "../../http/download";
+import { sendTable } from "../../http/download";
 import { closeFinding, listFindings } from "./findings.service";
 import { findingsTable } from "./findings.tables";
 
@@ -15,13 +12,12 @@ export function findingsRouter() {
     res.json(await listFindings(parseInput(findingsQuerySchema, req.query, "query")));
   });
   r.get("/api/findings.:format", async (req, res) => {
-    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const format = exportFormatOf(req);
     const filter = parseInput(findingsQuerySchema, req.query, "query");
-    sendDownload(res, await tableDownload(findingsTable(await listFindings(filter), filter), format));
+    await sendTable(res, findingsTable(await listFindings(filter), filter), format);
   });
   r.put("/api/findings/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await closeFinding(id, parseInput(closeFindingBodySchema, req.body), signedInActor(req)));
+    res.json(await closeFinding(idOf(req), parseInput(closeFindingBodySchema, req.body), signedInActor(req)));
   });
   return r.router;
 }

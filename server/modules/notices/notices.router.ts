@@ -1,7 +1,5 @@
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
-import { parseInput } from "../../errors";
-import { idParamSchema } from "../../../shared/schemas/common";
+import { idOf, signedInActor } from "../../http/context";
 import { sendDownload } from "../../http/download";
 import { draftNotice, listNotices, sendNotice, sentNoticePdf } from "./notices.service";
 
@@ -11,16 +9,13 @@ export function noticesRouter() {
     res.json(await listNotices(req.query));
   });
   r.put("/api/notices/:id/draft", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await draftNotice(id, req.body, signedInActor(req)));
+    res.json(await draftNotice(idOf(req), req.body, signedInActor(req)));
   });
   r.post("/api/notices/:id/send", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await sendNotice(id, req.body, signedInActor(req)));
+    res.json(await sendNotice(idOf(req), req.body, signedInActor(req)));
   });
   r.get("/api/notices/:id/notice.pdf", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    const pdf = await sentNoticePdf(id);
+    const pdf = await sentNoticePdf(idOf(req));
     sendDownload(res, {
       fileName: pdf.fileName,
       contentType: "application/pdf",

@@ -1,7 +1,6 @@
-import { idParamSchema } from "../../../shared/schemas/common";
 import multer from "multer";
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { idOf, signedInActor } from "../../http/context";
 import { BadRequestError, parseInput } from "../../errors";
 import { decisionBodySchema, exceptionParamSchema, reviewBodySchema } from "../../../shared/schemas/review";
 import { sendDownload } from "../../http/download";
@@ -41,8 +40,7 @@ export function reviewsRouter() {
   });
   // Always a download, never rendered by the browser: evidence is whatever someone uploaded.
   r.get("/api/evidence/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    const file = await getEvidence(id);
+    const file = await getEvidence(idOf(req));
     sendDownload(res, {
       fileName: file.fileName.replace(/[^\w.-]+/g, "_"),
       contentType: "application/octet-stream",

@@ -1,7 +1,6 @@
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { entityCodeOf, signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
-import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import {
   proposeSettingsSchema,
   settingsDecisionSchema,
@@ -12,11 +11,10 @@ import * as settings from "./settings.service";
 export function settingsRouter() {
   const r = createGuardedRouter();
   r.get("/api/entities/:code/settings", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await settings.listSettings(code));
+    res.json(await settings.listSettings(entityCodeOf(req)));
   });
   r.post("/api/entities/:code/settings", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
+    const code = entityCodeOf(req);
     const body = parseInput(proposeSettingsSchema, req.body ?? {});
     res.status(201).json(await settings.proposeSettings(code, body, signedInActor(req)));
   });

@@ -1,5 +1,5 @@
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { entityCodeOf, exportFormatOf, idOf, signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createSnapshotSchema,
@@ -8,14 +8,10 @@ import {
   snapshotActionSchema,
   snapshotListQuerySchema,
 } from "../../../shared/schemas/snapshot";
-import { idParamSchema } from "../../../shared/schemas/common";
-import { entityCodeParamSchema } from "../../../shared/schemas/common";
 import * as snapshots from "./snapshots.service";
 import { getSnapshot, listSnapshots, snapshotPack } from "./snapshots.read";
 import { verifyEntityChain, verifySnapshot } from "./snapshots.chain";
-import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
-import { tableDownload } from "../../kit/table-export";
-import { sendDownload } from "../../http/download";
+import { sendDownload, sendTable } from "../../http/download";
 import { getSnapshotReturn, setReturnInputs } from "./snapshots.return";
 import { prepareAmendment } from "./snapshots.amendments";
 import { currenciesByEntity } from "../../kit/lookups";
@@ -35,54 +31,48 @@ export function snapshotsRouter() {
     res.status(created ? 201 : 200).json(snapshot);
   });
   r.get("/api/snapshots.:format", async (req, res) => {
-    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const format = exportFormatOf(req);
     const query = parseInput(snapshotListQuerySchema, req.query, "query");
     const rows = await listSnapshots(query, signedInActor(req));
-    sendDownload(res, await tableDownload(snapshotsTable(rows, await currenciesByEntity(), query.entity), format));
+    await sendTable(res, snapshotsTable(rows, await currenciesByEntity(), query.entity), format);
   });
   r.get("/api/snapshots/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await getSnapshot(id, signedInActor(req)));
+    res.json(await getSnapshot(idOf(req), signedInActor(req)));
   });
   r.get("/api/snapshots/:id/pack.pdf", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    const pack = await snapshotPack(id, signedInActor(req));
+    const pack = await snapshotPack(idOf(req), signedInActor(req));
     sendDownload(res, { fileName: pack.fileName, contentType: "application/pdf", bytes: pack.bytes });
   });
   r.get("/api/snapshots/:id/return", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await getSnapshotReturn(id, signedInActor(req)));
+    res.json(await getSnapshotReturn(idOf(req), signedInActor(req)));
   });
   r.put("/api/snapshots/:id/return-inputs", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await setReturnInputs(id, parseInput(returnInputsBodySchema, req.body ?? {}), signedInActor(req)));
+    res.json(await setReturnInputs(idOf(req), parseInput(returnInputsBodySchema, req.body ?? {}), signedInActor(req)));
   });
   r.post("/api/snapshots/:id/submit", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
+    const id = idOf(req);
     res.json(await snapshots.submitSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
   });
   r.post("/api/snapshots/:id/approve", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
+    const id = idOf(req);
     res.json(await snapshots.approveSnapshot(id, parseInput(snapshotActionSchema, req.body ?? {}), signedInActor(req)));
   });
   r.get("/api/snapshots/:id/return.:format", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
+    const id = idOf(req);
+    const format = exportFormatOf(req);
     const actor = signedInActor(req);
     const snapshot = await getSnapshot(id, actor);
-    sendDownload(res, await tableDownload(returnTable(snapshot.entity, await getSnapshotReturn(id, actor)), format));
+    await sendTable(res, returnTable(snapshot.entity, await getSnapshotReturn(id, actor)), format);
   });
   r.post("/api/snapshots/:id/return", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
+    const id = idOf(req);
     res.json(await snapshots.returnSnapshot(id, parseInput(returnSnapshotSchema, req.body ?? {}), signedInActor(req)));
   });
   r.get("/api/snapshots/:id/verify", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await verifySnapshot(id, signedInActor(req)));
+    res.json(await verifySnapshot(idOf(req), signedInActor(req)));
   });
   r.get("/api/entities/:code/chain/verify", async (req, res) => {
-    const { code } = parseInput(entityCodeParamSchema, req.params, "address");
-    res.json(await verifyEntityChain(code));
+    res.json(await verifyEntityChain(entityCodeOf(req)));
   });
   return r.router;
 }

@@ -2,18 +2,15 @@ import multer from "multer";
 import type { RequestHandler } from "express";
 import { config } from "../../config";
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { exportFormatOf, idOf, signedInActor } from "../../http/context";
 import { BadRequestError, ServerBusyError, parseInput } from "../../errors";
 import { Semaphore, SemaphoreRefusal } from "../../semaphore";
 import { UPLOAD_MAX_BYTES, commitUploadBodySchema, uploadRowsQuerySchema } from "../../../shared/schemas/upload";
-import { idParamSchema } from "../../../shared/schemas/common";
 import * as uploads from "./uploads.service";
 import { commitUpload } from "./upload-commit";
 import { templateCsv, uploadStorage } from "./upload-files";
 import { getUploadRows } from "./upload-rows";
-import { exportFormatParamSchema } from "../../../shared/schemas/table-export";
-import { tableDownload } from "../../kit/table-export";
-import { sendDownload } from "../../http/download";
+import { sendDownload, sendTable } from "../../http/download";
 import { uploadsTable } from "./uploads.tables";
 
 // Every limit set (multer defaults to unlimited); mounted on the upload route only. The storage
@@ -92,24 +89,20 @@ export function uploadsRouter(limits: UploadLimits = defaultUploadLimits()) {
     res.json(await uploads.listUploads());
   });
   r.get("/api/uploads.:format", async (req, res) => {
-    const { format } = parseInput(exportFormatParamSchema, req.params, "address");
-    sendDownload(res, await tableDownload(uploadsTable(await uploads.listUploads()), format));
+    const format = exportFormatOf(req);
+    await sendTable(res, uploadsTable(await uploads.listUploads()), format);
   });
   r.get("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await uploads.getUpload(id));
+    res.json(await uploads.getUpload(idOf(req)));
   });
   r.get("/api/uploads/:id/rows", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await getUploadRows(id, parseInput(uploadRowsQuerySchema, req.query, "query")));
+    res.json(await getUploadRows(idOf(req), parseInput(uploadRowsQuerySchema, req.query, "query")));
   });
   r.post("/api/uploads/:id/commit", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await commitUpload(id, signedInActor(req), parseInput(commitUploadBodySchema, req.body ?? {})));
+    res.json(await commitUpload(idOf(req), signedInActor(req), parseInput(commitUploadBodySchema, req.body ?? {})));
   });
   r.delete("/api/uploads/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    await uploads.discardUpload(id, signedInActor(req));
+    await uploads.discardUpload(idOf(req), signedInActor(req));
     res.status(204).end();
   });
   return r.router;

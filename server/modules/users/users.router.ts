@@ -1,5 +1,5 @@
 import { createGuardedRouter } from "../../http/routes";
-import { signedInActor } from "../../http/context";
+import { idOf, signedInActor } from "../../http/context";
 import { parseInput } from "../../errors";
 import {
   createUserBodySchema,
@@ -7,7 +7,6 @@ import {
   proposeRoleBodySchema,
   updateUserBodySchema,
 } from "../../../shared/schemas/user";
-import { idParamSchema } from "../../../shared/schemas/common";
 import { createUser, listPeople, listUsers, sendPasswordLink, unlockUser, updateUser } from "./users.service";
 import {
   approveRoleRequest,
@@ -29,16 +28,13 @@ export function usersRouter() {
     res.status(result.outcome === "invited" ? 201 : 202).json(result);
   });
   r.patch("/api/users/:id", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await updateUser(id, parseInput(updateUserBodySchema, req.body), signedInActor(req)));
+    res.json(await updateUser(idOf(req), parseInput(updateUserBodySchema, req.body), signedInActor(req)));
   });
   r.post("/api/users/:id/unlock", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await unlockUser(id, signedInActor(req)));
+    res.json(await unlockUser(idOf(req), signedInActor(req)));
   });
   r.post("/api/users/:id/password-link", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await sendPasswordLink(id, parseInput(passwordLinkBodySchema, req.body), signedInActor(req)));
+    res.json(await sendPasswordLink(idOf(req), parseInput(passwordLinkBodySchema, req.body), signedInActor(req)));
   });
 
   // Granting or removing the CRO or administrator role: one admin proposes, another decides.
@@ -49,12 +45,10 @@ export function usersRouter() {
     res.status(201).json(await proposeRoleChange(parseInput(proposeRoleBodySchema, req.body), signedInActor(req)));
   });
   r.post("/api/role-requests/:id/approve", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await approveRoleRequest(id, signedInActor(req)));
+    res.json(await approveRoleRequest(idOf(req), signedInActor(req)));
   });
   r.post("/api/role-requests/:id/reject", async (req, res) => {
-    const { id } = parseInput(idParamSchema, req.params, "address");
-    res.json(await rejectRoleRequest(id, signedInActor(req)));
+    res.json(await rejectRoleRequest(idOf(req), signedInActor(req)));
   });
   return r.router;
 }

@@ -2,6 +2,7 @@ import { EngineInputError } from "./errors";
 import { dayNumber, fromDayNumber } from "./calendar";
 import type { Observation } from "./types";
 import { PNL_COMPONENTS } from "./pnl-definition";
+import { RISK_MEASURES } from "../schemas/common";
 
 /** Digits at positions [from, from + length) of s as a number, or −1 if any is not a digit. */
 function digits(s: string, from: number, length: number): number {
@@ -28,24 +29,15 @@ export function isIsoDate(value: unknown): value is string {
   return d <= (m === 2 && leap ? 29 : DAYS_IN_MONTH[m - 1]);
 }
 
-const NUMERIC_FIELDS = [
-  "actualPnl",
-  "hypotheticalPnl",
-  "var99",
-  "var975",
-  "svar99",
-  "var10d",
-  "svar10d",
-  "es975",
-  "ses",
-  "rtpl",
-  "imaDrc",
-  "sbm",
-  "rrao",
-  "saDrc",
-  "saGa",
-  ...PNL_COMPONENTS,
-] as const;
+const NUMERIC_FIELDS = ["actualPnl", "hypotheticalPnl", ...RISK_MEASURES, ...PNL_COMPONENTS] as const;
+
+/** The named amounts of a day, null where the file left one out. */
+export function amountsOf<K extends (typeof NUMERIC_FIELDS)[number]>(
+  observation: Observation,
+  keys: readonly K[],
+): Record<K, number | null> {
+  return Object.fromEntries(keys.map((key) => [key, observation[key] ?? null])) as Record<K, number | null>;
+}
 
 /**
  * Checks what the engine relies on: real ISO dates, strictly increasing (so no duplicates), and

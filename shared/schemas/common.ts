@@ -16,6 +16,30 @@ export const PNL_COMPONENTS = [
 ] as const;
 export const pnlComponentSchema = z.enum(PNL_COMPONENTS);
 
+/** The risk figures a day's file carries beside its P&L: VaR, stressed VaR, ES and the FRTB charges. */
+export const RISK_MEASURES = [
+  "var99",
+  "var975",
+  "svar99",
+  "var10d",
+  "svar10d",
+  "es975",
+  "ses",
+  "rtpl",
+  "imaDrc",
+  "sbm",
+  "rrao",
+  "saDrc",
+  "saGa",
+] as const;
+
+/** One `z.number().nullable()` field per key: an amount that may be missing. */
+export function nullableNumbers<K extends string>(keys: readonly K[]): { [P in K]: z.ZodNullable<z.ZodNumber> } {
+  return Object.fromEntries(keys.map((key) => [key, z.number().nullable()])) as {
+    [P in K]: z.ZodNullable<z.ZodNumber>;
+  };
+}
+
 export const pnlBasisSchema = z.enum(["actual", "hypothetical", "max"]);
 export type PnlBasis = z.infer<typeof pnlBasisSchema>;
 
@@ -31,19 +55,17 @@ export const isoDateSchema = z
     return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === s;
   }, "Not a real calendar date");
 
-export const entityCodeSchema = z
-  .string()
-  .trim()
-  .min(2, "At least 2 characters")
-  .max(20, "At most 20 characters")
-  .regex(/^[A-Z0-9][A-Z0-9-]*$/, "Capital letters, digits and hyphens only");
+/** A code people type: trimmed, 2 to `max` characters, capitals and digits first. */
+const codeSchema = (max: number, pattern: RegExp, rule: string) =>
+  z.string().trim().min(2, "At least 2 characters").max(max, `At most ${max} characters`).regex(pattern, rule);
 
-export const portfolioCodeSchema = z
-  .string()
-  .trim()
-  .min(2, "At least 2 characters")
-  .max(40, "At most 40 characters")
-  .regex(/^[A-Z0-9][A-Z0-9_-]*$/, "Capital letters, digits, hyphens and underscores only");
+export const entityCodeSchema = codeSchema(20, /^[A-Z0-9][A-Z0-9-]*$/, "Capital letters, digits and hyphens only");
+
+export const portfolioCodeSchema = codeSchema(
+  40,
+  /^[A-Z0-9][A-Z0-9_-]*$/,
+  "Capital letters, digits, hyphens and underscores only",
+);
 
 export const currencySchema = z
   .string()

@@ -20,6 +20,13 @@ export const settingsValuesSchema = z.object({
   determinationFrequency: determinationFrequencySchema,
 });
 
+/** The settings record in force on a figure's day (id null: the entity's own columns, before it had an approved record). */
+const settingsInForceSchema = settingsValuesSchema.extend({
+  id: z.number().int().nullable(),
+  effectiveFrom: z.string(),
+  reference: z.string(),
+});
+
 export const determinationSchema = z.object({
   /** The period end (a calendar quarter end under the quarterly frequency). */
   quarterEnd: z.string(),
@@ -40,27 +47,24 @@ export const determinationSchema = z.object({
   windowComplete: z.boolean(),
   status: determinationStatusSchema,
   snapshotId: z.number().int().nullable(),
-  settings: settingsValuesSchema.extend({
-    id: z.number().int().nullable(),
-    effectiveFrom: z.string(),
-    reference: z.string(),
-  }),
+  settings: settingsInForceSchema,
 });
 export type DeterminationDto = z.infer<typeof determinationSchema>;
 export const determinationListSchema = z.array(determinationSchema);
 
 export const capitalQuerySchema = z.object({ date: isoDateSchema.optional() }).strict();
 
-const indicativeSchema = z.object({
-  asOf: z.string(),
-  counted: z.number().int(),
-  zone: zoneSchema,
-  zoneLabel: z.string(),
-  plusFactor: z.number(),
-  multiplier: z.number(),
-  multiplierSvar: z.number(),
-  windowComplete: z.boolean(),
-});
+/** A count and what it sets: the zone, the plus factor and both multipliers. */
+const COUNT_AND_MULTIPLIERS = {
+  counted: true,
+  zone: true,
+  zoneLabel: true,
+  plusFactor: true,
+  multiplier: true,
+  multiplierSvar: true,
+} as const;
+
+const indicativeSchema = determinationSchema.pick({ asOf: true, ...COUNT_AND_MULTIPLIERS, windowComplete: true });
 
 /** Where a change (an exception on a day) would first count: the determination and the day it bites from. */
 export const bitesFromSchema = z.object({ quarterEnd: z.string(), asOf: z.string(), effectiveFrom: z.string() });
@@ -77,12 +81,7 @@ export const capitalOnDateSchema = z.object({
       asOf: true,
       effectiveFrom: true,
       effectiveTo: true,
-      counted: true,
-      zone: true,
-      zoneLabel: true,
-      plusFactor: true,
-      multiplier: true,
-      multiplierSvar: true,
+      ...COUNT_AND_MULTIPLIERS,
       status: true,
       snapshotId: true,
     })
@@ -97,11 +96,7 @@ export const capitalOnDateSchema = z.object({
   capitalNote: z.string().nullable(),
   /** The next determination: an exception after `date` changes the multiplier from its effectiveFrom. */
   nextDetermination: bitesFromSchema,
-  settings: settingsValuesSchema.extend({
-    id: z.number().int().nullable(),
-    effectiveFrom: z.string(),
-    reference: z.string(),
-  }),
+  settings: settingsInForceSchema,
   /**
    * FRTB entities: the MAR33 aggregation on `date` with m_c in force and the desks' statuses of the
    * determination in force (docs/rules.md#frtb-aggregation); null for other rule sets or without

@@ -94,18 +94,11 @@ export const createEntityBodySchema = z.strictObject({
   supervisorEmails: supervisorEmailsSchema.optional(),
 });
 export type CreateEntityBody = z.infer<typeof createEntityBodySchema>;
-export const updateEntityBodySchema = z
-  .strictObject({
-    name: plainNameSchema.optional(),
-    regime: regimeSchema.optional(),
-    pnlBasis: pnlBasisSchema.optional(),
-    currency: currencySchema.optional(),
-    country: countrySchema.optional(),
-    qualitativeAddend: z.number().min(0, "Cannot be negative").max(1, "At most 1").optional(),
-    supervisorName: plainNameSchema.nullable().optional(),
-    supervisorEmails: supervisorEmailsSchema.optional(),
-    version: z.number().int().positive("Send the entity's version as you read it"),
-  })
+/** Any of the fields of a creation but the code, with the version the admin read. */
+export const updateEntityBodySchema = createEntityBodySchema
+  .omit({ code: true })
+  .partial()
+  .extend({ version: z.number().int().positive("Send the entity's version as you read it") })
   .refine((b) => Object.keys(b).some((k) => k !== "version"), "Nothing to change");
 export type UpdateEntityBody = z.infer<typeof updateEntityBodySchema>;
 export const portfolioSchema = z.object({ code: z.string(), name: z.string(), level: portfolioLevelSchema });

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { isoDateSchema } from "./common";
+import { PNL_COMPONENTS, RISK_MEASURES, isoDateSchema, nullableNumbers } from "./common";
 
 /** The daily P&L and VaR as stored (the current version of each day), read back. */
 export const observationsQuerySchema = z.object({ from: isoDateSchema.optional(), to: isoDateSchema.optional() });
@@ -10,24 +10,8 @@ export const observationSchema = z.object({
   /** The actual P&L the entity's rule set backtests (docs/rules.md#pnl-definition): the same without parts. */
   backtestActualPnl: z.number().nullable(),
   hypotheticalPnl: z.number().nullable(),
-  var99: z.number().nullable(),
-  var975: z.number().nullable(),
-  svar99: z.number().nullable(),
-  var10d: z.number().nullable(),
-  svar10d: z.number().nullable(),
-  es975: z.number().nullable(),
-  ses: z.number().nullable(),
-  rtpl: z.number().nullable(),
-  imaDrc: z.number().nullable(),
-  sbm: z.number().nullable(),
-  rrao: z.number().nullable(),
-  saDrc: z.number().nullable(),
-  saGa: z.number().nullable(),
-  feesCommissions: z.number().nullable(),
-  reservesAdjustments: z.number().nullable(),
-  netInterestIncome: z.number().nullable(),
-  intradayPnl: z.number().nullable(),
-  newTradePnl: z.number().nullable(),
+  ...nullableNumbers(RISK_MEASURES),
+  ...nullableNumbers(PNL_COMPONENTS),
   version: z.number().int(),
 });
 export type ObservationDto = z.infer<typeof observationSchema>;

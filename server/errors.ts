@@ -25,41 +25,43 @@ export class AppError extends Error {
   }
 }
 
-export class BadRequestError extends AppError {
-  constructor(message: string, details?: unknown) {
-    super(400, "bad_request", message, details);
-  }
+/** An AppError of one status and code whose message the caller writes, with details where they help. */
+function errorWithDetails(status: number, code: string) {
+  return class extends AppError {
+    constructor(message: string, details?: unknown) {
+      super(status, code, message, details);
+    }
+  };
 }
-export class UnauthorizedError extends AppError {
-  constructor(message = "Sign in to continue.") {
-    super(401, "unauthorized", message);
-  }
+
+/** An AppError of one status and code with a message that fits most cases. */
+function errorWithMessage(status: number, code: string, defaultMessage: string) {
+  return class extends AppError {
+    constructor(message = defaultMessage) {
+      super(status, code, message);
+    }
+  };
 }
+
+export class BadRequestError extends errorWithDetails(400, "bad_request") {}
+export class UnauthorizedError extends errorWithMessage(401, "unauthorized", "Sign in to continue.") {}
 export class ForbiddenError extends AppError {
   constructor(message = "Your role does not allow this.", code = "forbidden") {
     super(403, code, message);
   }
 }
-export class NotFoundError extends AppError {
-  constructor(message = "Not found.") {
-    super(404, "not_found", message);
-  }
-}
-export class ConflictError extends AppError {
-  constructor(message: string, details?: unknown) {
-    super(409, "conflict", message, details);
-  }
-}
-export class TooManyRequestsError extends AppError {
-  constructor(message = "Too many attempts. Wait a few minutes and try again.") {
-    super(429, "too_many_requests", message);
-  }
-}
-export class ServiceUnavailableError extends AppError {
-  constructor(message = "The database is not reachable at the moment. Nothing was changed; try again shortly.") {
-    super(503, "database_unavailable", message);
-  }
-}
+export class NotFoundError extends errorWithMessage(404, "not_found", "Not found.") {}
+export class ConflictError extends errorWithDetails(409, "conflict") {}
+export class TooManyRequestsError extends errorWithMessage(
+  429,
+  "too_many_requests",
+  "Too many attempts. Wait a few minutes and try again.",
+) {}
+export class ServiceUnavailableError extends errorWithMessage(
+  503,
+  "database_unavailable",
+  "The database is not reachable at the moment. Nothing was changed; try again shortly.",
+) {}
 
 /** Too much at once: the request was not started; the client may try again after `retryAfterSeconds`. */
 export class ServerBusyError extends AppError {

@@ -1,4 +1,12 @@
-import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from "sequelize";
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+} from "sequelize";
+import type { UserModel } from "./user";
 
 /**
  * What every model repeats, written once. The migrations hold the schema; these only describe its
@@ -15,11 +23,42 @@ export abstract class RowModel<M extends Model> extends TableModel<M> {
   declare updatedAt: CreationOptional<Date>;
 }
 
+/** A table model whose rows are added, never updated: createdAt only (createdAtColumn(), `updatedAt: false`). */
+export abstract class AddedRowModel<M extends Model> extends TableModel<M> {
+  declare createdAt: CreationOptional<Date>;
+}
+
+/**
+ * A secret issued to a user (an API token, a set-password link): the SHA-256 of the secret, never
+ * the secret, and its life (issuedSecretColumns()).
+ */
+export abstract class IssuedSecretModel<M extends Model> extends AddedRowModel<M> {
+  declare id: CreationOptional<number>;
+  declare userId: number;
+  declare tokenHash: string;
+  declare expiresAt: Date;
+  declare revokedAt: Date | null;
+  declare user?: NonAttribute<UserModel>;
+}
+
 /** The INTEGER AUTO_INCREMENT primary key `id`. */
 export const idColumn = () => ({ id: { type: DataTypes.INTEGER, primaryKey: true, autoIncrement: true } });
 
 /** createdAt and updatedAt as DATETIME(3), set by Sequelize. */
 export const timestampColumns = () => ({ createdAt: DataTypes.DATE(3), updatedAt: DataTypes.DATE(3) });
+
+/** createdAt alone as DATETIME(3), set by Sequelize (the model says `updatedAt: false`). */
+export const createdAtColumn = () => ({ createdAt: DataTypes.DATE(3) });
+
+/** The columns of an IssuedSecretModel but its own: the key, its holder, the secret's hash and its life. */
+export const issuedSecretColumns = () => ({
+  ...idColumn(),
+  userId: notNull.integer(),
+  tokenHash: { ...notNull.char(64), unique: true },
+  ...createdAtColumn(),
+  expiresAt: notNull.dateTime(),
+  revokedAt: nullable.dateTime(),
+});
 
 /** The row version of optimistic locking (server/kit/stale.ts): 1 when created. */
 export const versionColumn = () => ({ version: { ...notNull.integer(), defaultValue: 1 } });

@@ -38,6 +38,14 @@ export const STANDARD_WINDOW = 250;
 
 const BCBS_1996_ZONES = "BCBS (1996) backtesting framework, Table 2: yellow from 5, red from 10 exceptions in 250";
 
+/**
+ * The plus factors and zones of BCBS (1996) Table 2, which the US (multiplication factor less 3.00)
+ * and EU (addend) tables repeat step for step; each rule set below cites its own text.
+ */
+const BCBS_1996_PLUS_FACTORS: readonly number[] = [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1.0];
+const BCBS_1996_BOUNDARIES = { yellowFrom: 5, redFrom: 10 };
+const MISSING_IS_A_GAP = "no rule; a missing value is a data gap";
+
 export const REGIMES: Record<RegimeId, RegimeRules> = {
   basel: {
     id: "basel",
@@ -48,13 +56,13 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
     defaultPnlBasis: "max", // bank's basis; Quartermark's default (docs/rules.md#pnl-basis)
     defaultPnlBasisCitation: "Quartermark default (docs/rules.md#pnl-basis)",
     // BCBS 1996 Table 2 (M): 0–4 → 0.00, 5 → 0.40, 6 → 0.50, 7 → 0.65, 8 → 0.75, 9 → 0.85, ≥10 → 1.00
-    plusFactors: [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1.0],
+    plusFactors: BCBS_1996_PLUS_FACTORS,
     plusFactorsCitation: "BCBS (1996) Table 2, applied to m_c and m_s by BCBS (2009) para 718(Lxxvi)",
     plusFactorsStatus: "M",
-    zoneBoundaries: { yellowFrom: 5, redFrom: 10 }, // BCBS 1996 Table 2 (V)
+    zoneBoundaries: BCBS_1996_BOUNDARIES,
     zoneBoundariesCitation: BCBS_1996_ZONES,
     missingCountsAsException: false,
-    missingCitation: "no rule; a missing value is a data gap",
+    missingCitation: MISSING_IS_A_GAP,
     capitalFormula: "var-svar",
     capitalCitation: "BCBS (2009) para 718(Lxxvi): max(VaR_{t-1}, m_c·VaR_avg) + max(sVaR_{t-1}, m_s·sVaR_avg)",
     middleZoneName: "yellow",
@@ -68,13 +76,13 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
     defaultPnlBasis: "actual", // 217.204(b): actual trading losses over the most recent 250 business days
     defaultPnlBasisCitation: "12 CFR 217.204(b)",
     // 12 CFR 217.204(b) Table 1 (M): multiplication factor 3.00 / 3.40 / 3.50 / 3.65 / 3.75 / 3.85 / 4.00, less the base 3
-    plusFactors: [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1.0],
+    plusFactors: BCBS_1996_PLUS_FACTORS,
     plusFactorsCitation: "12 CFR 217.204(b) Table 1 (multiplication factor less 3.00)",
     plusFactorsStatus: "M",
-    zoneBoundaries: { yellowFrom: 5, redFrom: 10 },
+    zoneBoundaries: BCBS_1996_BOUNDARIES,
     zoneBoundariesCitation: "12 CFR 217.204(b) Table 1 (same steps as " + BCBS_1996_ZONES + ")",
     missingCountsAsException: false,
-    missingCitation: "no rule; a missing value is a data gap",
+    missingCitation: MISSING_IS_A_GAP,
     capitalFormula: "var-svar",
     capitalCitation:
       "12 CFR 217.204(a)(2)(i): greater of previous day's measure and multiplication factor × 60-day average",
@@ -89,13 +97,13 @@ export const REGIMES: Record<RegimeId, RegimeRules> = {
     defaultPnlBasis: "max", // higher of hypothetical and actual overshootings: EBA Q&A 2016_2759 (V)
     defaultPnlBasisCitation: "EBA Q&A 2016_2759; CRR Art. 366(3)",
     // CRR Art. 366 Table 1 (M): addend 0.00 / 0.40 / 0.50 / 0.65 / 0.75 / 0.85 / 1.00
-    plusFactors: [0, 0, 0, 0, 0, 0.4, 0.5, 0.65, 0.75, 0.85, 1.0],
+    plusFactors: BCBS_1996_PLUS_FACTORS,
     plusFactorsCitation: "CRR Art. 366 Table 1 (addend)",
     plusFactorsStatus: "M",
-    zoneBoundaries: { yellowFrom: 5, redFrom: 10 },
+    zoneBoundaries: BCBS_1996_BOUNDARIES,
     zoneBoundariesCitation: "CRR Art. 366 Table 1 (same steps as " + BCBS_1996_ZONES + ")",
     missingCountsAsException: false,
-    missingCitation: "no rule; a missing value is a data gap",
+    missingCitation: MISSING_IS_A_GAP,
     capitalFormula: "var-svar",
     capitalCitation: "CRR Art. 364(1): max(VaR_{t-1}, m_c·VaR_avg) + max(sVaR_{t-1}, m_s·sVaR_avg)",
     middleZoneName: "yellow",

@@ -174,6 +174,18 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
     amountField(key, `${measure}: average of the previous 60 business days`, value ?? null, engine("60-day average"));
   const ms = f.multiplierSvar ?? f.multiplier;
   const count = `Engine, counted exceptions over the ${f.window.observations} business days to ${f.asOf} (docs/rules.md#exception)`;
+  /** US, Basel and FRTB: the window's counted exceptions (the EU return has its own row, overshootings). */
+  const exceptionsField = (scope = "") =>
+    plain(
+      "exceptions",
+      `Backtesting exceptions over the most recent 250 business days${scope}`,
+      f.exceptions.counted,
+      "count",
+      count,
+    );
+  /** Where a multiplier comes from: the determination at the quarter end, under `rule` where the return names it. */
+  const determined = (rule?: string) =>
+    `Determination at the quarter end${rule ? `, ${rule}` : ""} (docs/rules.md#multiplier)`;
 
   if (f.regime === "eu") {
     // C 24.00 (MKR IM), row 010 total positions (docs/rules.md#return-data).
@@ -245,7 +257,7 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       "VaR multiplication factor (m_c)",
       f.multiplier,
       "factor",
-      "Determination at the quarter end, CRR Art. 366 (docs/rules.md#multiplier)",
+      determined("CRR Art. 366"),
       "C 24.00 r010 c150",
     );
     plain(
@@ -253,7 +265,7 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       "SVaR multiplication factor (m_s)",
       ms,
       "factor",
-      "Determination at the quarter end, CRR Art. 366 (docs/rules.md#multiplier)",
+      determined("CRR Art. 366"),
       "C 24.00 r010 c160",
     );
   } else if (f.regime === "us") {
@@ -277,7 +289,7 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       "Multiplication factor (3.00 or higher, based on backtesting)",
       f.multiplier,
       "factor",
-      "Determination at the quarter end, 12 CFR 217.204(b) (docs/rules.md#multiplier)",
+      determined("12 CFR 217.204(b)"),
       "FFIEC 102 item 3",
     );
     amountField(
@@ -309,13 +321,7 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
       "FFIEC 102 item 7",
     );
     for (const d of US_INPUTS) inputField(d);
-    plain(
-      "exceptions",
-      "Backtesting exceptions over the most recent 250 business days",
-      f.exceptions.counted,
-      "count",
-      count,
-    );
+    exceptionsField();
   } else if (f.regime === "basel") {
     amountField(
       "varPrevious",
@@ -326,27 +332,9 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
     average60("varAverage", "VaR", c?.varAvg60);
     amountField("svarLatest", "Stressed VaR: latest", c?.svarPrev ?? null, engine("latest stressed VaR"));
     average60("svarAverage", "Stressed VaR", c?.svarAvg60);
-    plain(
-      "multiplierVar",
-      "Multiplication factor (m_c)",
-      f.multiplier,
-      "factor",
-      "Determination at the quarter end (docs/rules.md#multiplier)",
-    );
-    plain(
-      "multiplierSvar",
-      "Stressed multiplication factor (m_s)",
-      ms,
-      "factor",
-      "Determination at the quarter end (docs/rules.md#multiplier)",
-    );
-    plain(
-      "exceptions",
-      "Backtesting exceptions over the most recent 250 business days",
-      f.exceptions.counted,
-      "count",
-      count,
-    );
+    plain("multiplierVar", "Multiplication factor (m_c)", f.multiplier, "factor", determined());
+    plain("multiplierSvar", "Stressed multiplication factor (m_s)", ms, "factor", determined());
+    exceptionsField();
     amountField(
       "varSvarRequirement",
       "Requirement for VaR and stressed VaR",
@@ -364,20 +352,8 @@ export function returnData(figures: SnapshotFigures, quarterEnd: string): Return
     average60("imccAverage", "IMCC", c?.esAvg60);
     amountField("sesPrevious", "SES: previous day", c?.sesPrev ?? null, engine("SES of the previous day"));
     average60("sesAverage", "SES", c?.sesAvg60);
-    plain(
-      "multiplier",
-      "Multiplier (m_c)",
-      f.multiplier,
-      "factor",
-      "Determination at the quarter end, MAR33.41 with MAR99 (docs/rules.md#multiplier)",
-    );
-    plain(
-      "exceptions",
-      "Backtesting exceptions over the most recent 250 business days (top of house)",
-      f.exceptions.counted,
-      "count",
-      count,
-    );
+    plain("multiplier", "Multiplier (m_c)", f.multiplier, "factor", determined("MAR33.41 with MAR99"));
+    exceptionsField(" (top of house)");
     amountField(
       "imaRequirement",
       "Aggregate capital requirement for modellable risk factors (C_A)",

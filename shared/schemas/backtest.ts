@@ -13,7 +13,8 @@ export const testOutcomeSchema = z.object({
   reject: z.boolean(),
   verdict: z.string(),
 });
-const seriesTestsSchema = z.object({
+/** The statistical tests on one series (docs/rules.md#statistics). */
+export const seriesTestsSchema = z.object({
   kupiec: testOutcomeSchema,
   independence: testOutcomeSchema,
   conditionalCoverage: testOutcomeSchema,

@@ -21,7 +21,7 @@ export const settingsValuesSchema = z.object({
 });
 
 /** The settings record in force on a figure's day (id null: the entity's own columns, before it had an approved record). */
-const settingsInForceSchema = settingsValuesSchema.extend({
+export const settingsInForceSchema = settingsValuesSchema.extend({
   id: z.number().int().nullable(),
   effectiveFrom: z.string(),
   reference: z.string(),

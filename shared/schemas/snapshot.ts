@@ -4,9 +4,10 @@ import {
   backtestWindowSchema,
   exceptionAmountsSchema,
   exceptionCountsSchema,
-  testOutcomeSchema,
+  seriesTestsSchema,
   zoneSchema,
 } from "./backtest";
+import { settingsInForceSchema } from "./determination";
 import { exceptionCauseSchema, exclusionStatusSchema } from "./review";
 import { frtbFiguresSchema } from "./frtb";
 
@@ -130,18 +131,7 @@ export const snapshotFiguresSchema = z.object({
   /** m_s, the stressed VaR multiplier (absent in snapshots made before it was kept: then m_c). */
   multiplierSvar: z.number().optional(),
   /** The supervisory settings record the figures used (absent in older snapshots). */
-  settings: z
-    .object({
-      id: z.number().int().nullable(),
-      effectiveFrom: z.string(),
-      reference: z.string(),
-      pnlBasis: pnlBasisSchema,
-      qualitativeAddend: z.number(),
-      qualitativeAddendSvar: z.number().nullable(),
-      multiplierFloor: z.number().nullable(),
-      determinationFrequency: z.enum(["quarterly", "monthly"]),
-    })
-    .optional(),
+  settings: settingsInForceSchema.optional(),
   expected: z.number(),
   cumulativeProbability: z.number(),
   /** Capital requirement and the part the plus factor adds; null when the data holds no capital input. */
@@ -154,14 +144,7 @@ export const snapshotFiguresSchema = z.object({
   /** The multiplier before the plus factor and addend, and the day the determination is in force from. */
   determination: z.object({ baseMultiplier: z.number(), effectiveFrom: z.string() }).optional(),
   /** The statistical tests on the counted series (docs/rules.md#statistics). */
-  tests: z
-    .object({
-      series: z.enum(["actual", "hypothetical"]),
-      kupiec: testOutcomeSchema,
-      independence: testOutcomeSchema,
-      conditionalCoverage: testOutcomeSchema,
-    })
-    .optional(),
+  tests: z.object({ series: z.enum(["actual", "hypothetical"]), ...seriesTestsSchema.shape }).optional(),
   capitalDetail: snapshotCapitalDetailSchema.nullable().optional(),
   exceptionDetail: z.array(snapshotExceptionSchema).optional(),
   days: z.array(snapshotDaySchema).optional(),

@@ -1,4 +1,4 @@
-import type { Transaction } from "sequelize";
+import type { Model, ModelStatic, Transaction, WhereOptions } from "sequelize";
 import { NotFoundError } from "../errors";
 import { EntityModel } from "../models/entity";
 import { UserModel } from "../models/user";
@@ -15,6 +15,27 @@ export async function entityByCode(
     ...(lock && transaction ? { lock: transaction.LOCK.UPDATE } : {}),
   });
   if (!row) throw new NotFoundError(`No entity with code ${code}.`);
+  return row;
+}
+
+/** The one row `where` finds, locked for update in `transaction` (null when there is none). */
+export async function findLocked<M extends Model>(
+  model: ModelStatic<M>,
+  where: WhereOptions<M["_attributes"]>,
+  transaction: Transaction,
+): Promise<M | null> {
+  return model.findOne({ where, transaction, lock: transaction.LOCK.UPDATE });
+}
+
+/** The one row `where` finds, locked for update in `transaction`; 404 with `missing` when there is none. */
+export async function lockedRow<M extends Model>(
+  model: ModelStatic<M>,
+  where: WhereOptions<M["_attributes"]>,
+  transaction: Transaction,
+  missing: string,
+): Promise<M> {
+  const row = await findLocked(model, where, transaction);
+  if (!row) throw new NotFoundError(missing);
   return row;
 }
 

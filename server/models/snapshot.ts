@@ -38,6 +38,9 @@ export class SnapshotModel extends RowModel<SnapshotModel> {
   declare version: CreationOptional<number>;
 }
 
+/** The headline figures a snapshot keeps in columns beside figures_json (what lists and the chain read). */
+export const SNAPSHOT_HEADLINE_COLUMNS = ["zone", "counted", "plusFactor", "multiplier", "capital", "addOn"] as const;
+
 const decimal = (
   attribute: keyof InferAttributes<SnapshotModel>,
   precision: number,

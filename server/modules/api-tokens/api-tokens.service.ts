@@ -1,9 +1,10 @@
+import { lockedRow } from "../../kit/lookups";
 import { createHash, randomBytes } from "node:crypto";
 import { Op, type Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { ApiTokenModel } from "../../models/api-token";
 import { UserModel } from "../../models/user";
-import { ConflictError, NotFoundError } from "../../errors";
+import { ConflictError } from "../../errors";
 import { TOKEN_HOLDERS } from "../../kit/roles";
 import { recordAudit } from "../audit/audit.service";
 import { toSessionUser } from "../auth/auth.service";
@@ -111,12 +112,12 @@ export async function createApiToken(input: CreateInput, actor: SignedIn): Promi
 /** Revokes one of the caller's own tokens; another person's token is "not found" to them. Revoking twice changes nothing. */
 export async function revokeApiToken(id: number, actor: SignedIn): Promise<void> {
   await sequelize.transaction(async (transaction) => {
-    const row = await ApiTokenModel.findOne({
-      where: { id, userId: actor.user.id },
+    const row = await lockedRow(
+      ApiTokenModel,
+      { id, userId: actor.user.id },
       transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
-    if (!row) throw new NotFoundError(`You have no API token #${id}.`);
+      `You have no API token #${id}.`,
+    );
     if (row.revokedAt) return;
     const before = toApiToken(row);
     row.revokedAt = new Date();

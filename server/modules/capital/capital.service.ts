@@ -17,7 +17,7 @@ import type { SessionUser } from "../../../shared/schemas/auth";
 import { SIGNED_OFF } from "../../../shared/schemas/snapshot";
 import { quarterEndOf, quarterLabel } from "../../../shared/backtest/quarters";
 import type { CapitalHistoryItem } from "../../../shared/schemas/capital";
-import { SnapshotModel } from "../../models/snapshot";
+import { SNAPSHOT_HEADLINE_COLUMNS, SnapshotModel } from "../../models/snapshot";
 import { sequelize } from "../../db/sequelize";
 import { readsSignedOffOnly } from "../snapshots/snapshots.read";
 import type { SignedIn } from "../../kit/actor";
@@ -247,19 +247,7 @@ export async function getWhatIf(
   };
 }
 
-const HISTORY_COLUMNS = [
-  "id",
-  "quarterEnd",
-  "status",
-  "zone",
-  "counted",
-  "plusFactor",
-  "multiplier",
-  "capital",
-  "addOn",
-  "restatedAt",
-  "amendsId",
-] as const;
+const HISTORY_COLUMNS = ["id", "quarterEnd", "status", ...SNAPSHOT_HEADLINE_COLUMNS, "restatedAt", "amendsId"] as const;
 
 /** The entity's quarters as their snapshots hold them, oldest first (treasury: signed off only). */
 export async function capitalHistory(code: string, actor: SignedIn): Promise<CapitalHistoryItem[]> {

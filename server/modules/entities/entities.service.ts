@@ -25,7 +25,7 @@ import type {
   UpdateEntityBody,
 } from "../../../shared/schemas/entity";
 import { checkVersion, StaleError } from "../../kit/stale";
-import { entityByCode } from "../../kit/lookups";
+import { entityByCode, lockedRow } from "../../kit/lookups";
 import { countryName, publicHolidays } from "./holiday-library";
 import type { CalendarCountry } from "../../../shared/schemas/entity";
 
@@ -184,12 +184,12 @@ export async function renamePortfolio(
   const entity = await findEntity(code);
   return sequelize.transaction(async (transaction) => {
     await lockEntityPortfolios(entity.id, transaction);
-    const row = await PortfolioModel.findOne({
-      where: { entityId: entity.id, code: portfolioCode },
+    const row = await lockedRow(
+      PortfolioModel,
+      { entityId: entity.id, code: portfolioCode },
       transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
-    if (!row) throw new NotFoundError(`No portfolio ${portfolioCode} in entity ${code}.`);
+      `No portfolio ${portfolioCode} in entity ${code}.`,
+    );
     const before = toPortfolio(row);
     row.name = name;
     await row.save({ transaction });

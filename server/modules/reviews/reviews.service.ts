@@ -1,3 +1,4 @@
+import { findLocked, lockedRow } from "../../kit/lookups";
 import { createHash } from "node:crypto";
 import { sequelize } from "../../db/sequelize";
 import { lockEntityPortfolios } from "../../db/portfolio-locks";
@@ -82,11 +83,7 @@ export async function saveReview(code: string, date: string, body: ReviewBody, a
     // an upload restating the day waits (or is waited for) before the day is judged an exception.
     await lockEntityPortfolios(entity.id, transaction);
     await assertExceptionDay(code, date, portfolio, entity, transaction);
-    const row = await ExceptionReviewModel.findOne({
-      where: { portfolioId: portfolio.id, businessDate: date },
-      transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
+    const row = await findLocked(ExceptionReviewModel, { portfolioId: portfolio.id, businessDate: date }, transaction);
     await checkVersion(row?.version ?? 0, body.version ?? 0, async () => ({
       message: row
         ? `Someone else changed this review (now version ${row.version}). Here is the current one; apply your change to it.`
@@ -148,12 +145,12 @@ export async function recordDecision(code: string, date: string, body: DecisionB
   await sequelize.transaction(async (transaction) => {
     // The entity's books first (the order of every writer), then the review.
     await lockEntityPortfolios(entity.id, transaction);
-    const row = await ExceptionReviewModel.findOne({
-      where: { portfolioId: portfolio.id, businessDate: date },
+    const row = await lockedRow(
+      ExceptionReviewModel,
+      { portfolioId: portfolio.id, businessDate: date },
       transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
-    if (!row) throw new NotFoundError(`No review of ${code} on ${date}; an analyst explains the exception first.`);
+      `No review of ${code} on ${date}; an analyst explains the exception first.`,
+    );
     await checkVersion(row.version, body.version, async () => ({
       message: `The review changed since you opened it (now version ${row.version}).`,
       current: await currentReview(portfolio.id, date),

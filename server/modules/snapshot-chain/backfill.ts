@@ -9,7 +9,7 @@ import { Op, QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
 import { AuditEventModel } from "../../models/audit-event";
 import { FilingModel } from "../../models/filing";
-import { SnapshotModel } from "../../models/snapshot";
+import { SNAPSHOT_HEADLINE_COLUMNS, SnapshotModel } from "../../models/snapshot";
 import { UserModel } from "../../models/user";
 import { auditEventText, auditHeadText, auditLinkText } from "../audit/audit-chain";
 import { appendLink, type SnapshotFields } from "./snapshot-chain";
@@ -20,12 +20,7 @@ const SNAPSHOT_FIELDS: (keyof SnapshotFields)[] = [
   "entityId",
   "quarterEnd",
   "status",
-  "zone",
-  "counted",
-  "plusFactor",
-  "multiplier",
-  "capital",
-  "addOn",
+  ...SNAPSHOT_HEADLINE_COLUMNS,
   "windowStart",
   "asOf",
   "figuresJson",

@@ -10,10 +10,10 @@ import { amendmentChanges } from "../../../shared/backtest/amendment";
 import { quarterLabel } from "../../../shared/backtest/quarters";
 import type { AmendmentRecord, CreateSnapshotBody, Snapshot, SnapshotFigures } from "../../../shared/schemas/snapshot";
 import type { SignedIn } from "../../kit/actor";
-import { entityByCode } from "../../kit/lookups";
+import { entityByCode, findLocked } from "../../kit/lookups";
 import { snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
-import { draftOf, holdEntityData } from "./snapshots.service";
+import { NOT_SIGNED_OFF, draftOf, holdEntityData } from "./snapshots.service";
 
 // Amended filings (docs/api.md#amendments): a day inside a filed quarter was restated, so the
 // analyst prepares an amendment of that quarter's snapshot. It is a snapshot of its own — same
@@ -94,11 +94,7 @@ export async function prepareAmendment(
         `Snapshot #${original.id} is ${original.status}, not filed: only a filed snapshot is amended. ${original.status === "approved" ? "File it, or return" : "Prepare"} the quarter's figures through the usual sign-off instead.`,
         { snapshotId: original.id },
       );
-    const open = await SnapshotModel.findOne({
-      where: { amendsId: original.id },
-      transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
+    const open = await findLocked(SnapshotModel, { amendsId: original.id }, transaction);
     if (open && open.status !== "draft" && open.status !== "returned")
       throw refuse(
         409,
@@ -141,12 +137,7 @@ export async function prepareAmendment(
             entityId: entity.id,
             quarterEnd: body.quarterEnd,
             amendsId: original.id,
-            approvedBy: null,
-            approvedAt: null,
-            prevHash: null,
-            hash: null,
-            restatedAt: null,
-            restatementDetail: null,
+            ...NOT_SIGNED_OFF,
             historyJson: JSON.stringify([event(actor, "prepared", `Amends snapshot #${original.id}.`)]),
           },
           { transaction },

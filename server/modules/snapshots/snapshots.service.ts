@@ -21,7 +21,7 @@ import { snapshotEvent as event, withEvent } from "./snapshot-events";
 import { appendLink } from "../snapshot-chain/snapshot-chain";
 import type { SignedIn } from "../../kit/actor";
 import { checkVersion } from "../../kit/stale";
-import { entityByCode } from "../../kit/lookups";
+import { entityByCode, findLocked } from "../../kit/lookups";
 import { refreshDeterminations } from "../determinations/determinations.store";
 import { DeterminationModel } from "../../models/determination";
 
@@ -29,6 +29,16 @@ import { DeterminationModel } from "../../models/determination";
 // entity's hash chain) or returns it; filing then locks and marks it.
 
 const today = () => new Date().toISOString().slice(0, 10);
+
+/** A new snapshot's sign-off columns: not approved, not sealed in the chain, not restated. */
+export const NOT_SIGNED_OFF = {
+  approvedBy: null,
+  approvedAt: null,
+  prevHash: null,
+  hash: null,
+  restatedAt: null,
+  restatementDetail: null,
+} as const;
 
 /** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
 /**
@@ -134,11 +144,11 @@ export async function prepareSnapshot(
   const entity = await entityByCode(body.entity);
   return sequelize.transaction(async (transaction) => {
     await holdEntityData(entity.id, transaction);
-    const existing = await SnapshotModel.findOne({
-      where: { entityId: entity.id, quarterEnd: body.quarterEnd, amendsId: null },
+    const existing = await findLocked(
+      SnapshotModel,
+      { entityId: entity.id, quarterEnd: body.quarterEnd, amendsId: null },
       transaction,
-      lock: transaction.LOCK.UPDATE,
-    });
+    );
     if (existing && existing.status !== "draft" && existing.status !== "returned") {
       throw new ConflictError(
         `${entity.code} ${quarterLabel(body.quarterEnd)} is already ${existing.status}: it cannot be prepared again.${existing.status === "filed" && existing.restatedAt ? ` A day inside it was restated since: prepare an amendment of snapshot #${existing.id} instead.` : ""}`,
@@ -169,12 +179,7 @@ export async function prepareSnapshot(
             ...values,
             entityId: entity.id,
             quarterEnd: body.quarterEnd,
-            approvedBy: null,
-            approvedAt: null,
-            prevHash: null,
-            hash: null,
-            restatedAt: null,
-            restatementDetail: null,
+            ...NOT_SIGNED_OFF,
             amendsId: null,
             amendmentJson: null,
             historyJson: JSON.stringify([event(actor, "prepared")]),

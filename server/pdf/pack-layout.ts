@@ -63,6 +63,16 @@ export class PackLayout {
   }
 
   /** Starts a new page when less than `height` points are left on this one. */
+  /** A line across the text width at `y` (the current line by default). */
+  rule(lineWidth: number, colour: string, y = this.doc.y) {
+    this.doc
+      .moveTo(this.left, y)
+      .lineTo(this.left + this.width, y)
+      .lineWidth(lineWidth)
+      .strokeColor(colour)
+      .stroke();
+  }
+
   room(height: number) {
     if (this.doc.y + height > this.bottom) this.doc.addPage();
   }
@@ -71,12 +81,7 @@ export class PackLayout {
     const { doc } = this;
     this.room(keepWith + 30);
     doc.moveDown(0.8).font("semibold").fontSize(11.5).fillColor(INK).text(text, this.left);
-    doc
-      .moveTo(this.left, doc.y + 2)
-      .lineTo(this.left + this.width, doc.y + 2)
-      .lineWidth(0.5)
-      .strokeColor(RULE)
-      .stroke();
+    this.rule(0.5, RULE, doc.y + 2);
     doc.moveDown(0.5);
   }
 
@@ -139,12 +144,7 @@ export class PackLayout {
         x += c.width;
       }
       doc.y = y + h + 2;
-      doc
-        .moveTo(this.left, doc.y)
-        .lineTo(this.left + this.width, doc.y)
-        .lineWidth(0.75)
-        .strokeColor(INK)
-        .stroke();
+      this.rule(0.75, INK);
       doc.y += 3;
     };
     this.room(40);
@@ -175,12 +175,7 @@ export class PackLayout {
           .text(row.note, this.left + 18, doc.y, { width: this.width - 24 });
       }
       doc.y += 3;
-      doc
-        .moveTo(this.left, doc.y)
-        .lineTo(this.left + this.width, doc.y)
-        .lineWidth(0.4)
-        .strokeColor(RULE)
-        .stroke();
+      this.rule(0.4, RULE);
       doc.y += 3;
     }
   }

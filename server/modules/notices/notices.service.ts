@@ -4,7 +4,7 @@
  * officer's send: a PDF by e-mail to the entity's supervisor contacts, recorded with who and when.
  * The notices themselves are opened by the upload commit (notices.open.ts).
  */
-import { QueryTypes } from "sequelize";
+import { QueryTypes, type Transaction } from "sequelize";
 import { createHash, randomBytes } from "node:crypto";
 import { sequelize } from "../../db/sequelize";
 import { OvershootingNoticeModel } from "../../models/overshooting-notice";
@@ -128,6 +128,21 @@ const staleOf = (id: number) => async () => ({
   current: await noticeById(id),
 });
 
+/** Saves an edited notice with its version bumped and audits the action; the notice as it now stands. */
+async function saveNotice(
+  row: OvershootingNoticeModel,
+  actor: SignedIn,
+  action: string,
+  change: (notice: Notice) => { before: unknown; after: unknown },
+  transaction: Transaction,
+): Promise<Notice> {
+  row.version += 1;
+  await row.save({ transaction });
+  const notice = await noticeById(row.id);
+  await recordAudit(actor, action, `${notice.entity} ${notice.portfolio} ${notice.date}`, change(notice), transaction);
+  return notice;
+}
+
 /** The PDF of a sent notice exactly as the supervisor received it, with its sha256. */
 export async function sentNoticePdf(id: number): Promise<{ fileName: string; bytes: Buffer; sha256: string }> {
   const row = await OvershootingNoticeModel.scope("withPdf").findByPk(id);
@@ -152,17 +167,7 @@ export async function draftNotice(id: number, body: unknown, actor: SignedIn): P
     row.cause = input.cause;
     row.draftedBy = actor.user.id;
     row.draftedAt = new Date();
-    row.version += 1;
-    await row.save({ transaction });
-    const notice = await noticeById(id);
-    await recordAudit(
-      actor,
-      "notice.draft",
-      `${notice.entity} ${notice.portfolio} ${notice.date}`,
-      { before, after: { cause: input.cause } },
-      transaction,
-    );
-    return notice;
+    return saveNotice(row, actor, "notice.draft", () => ({ before, after: { cause: input.cause } }), transaction);
   });
 }
 
@@ -228,16 +233,15 @@ export async function sendNotice(id: number, body: unknown, actor: SignedIn): Pr
     row.messageId = messageId;
     row.pdfSha256 = pdfSha256;
     row.pdf = pdf;
-    row.version += 1;
-    await row.save({ transaction });
-    const notice = await noticeById(id);
-    await recordAudit(
+    return saveNotice(
+      row,
       actor,
       "notice.send",
-      `${notice.entity} ${notice.portfolio} ${notice.date}`,
-      { before: { status: "open" }, after: { recipients, sha256: pdfSha256, messageId, late: notice.late } },
+      (notice) => ({
+        before: { status: "open" },
+        after: { recipients, sha256: pdfSha256, messageId, late: notice.late },
+      }),
       transaction,
     );
-    return notice;
   });
 }

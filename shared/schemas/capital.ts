@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { isoDateSchema, regimeSchema } from "./common";
-import { rollOffSchema, zoneSchema } from "./backtest";
+import { inForceTodaySchema, rollOffSchema, zoneSchema } from "./backtest";
+import { bitesFromSchema } from "./determination";
 import { snapshotSchema } from "./snapshot";
 
 /**
@@ -11,11 +12,7 @@ import { snapshotSchema } from "./snapshot";
  */
 
 /** A determination point: the period end, its last business day, and the day its multiplier is in force from. */
-export const determinationPointSchema = z.object({
-  quarterEnd: z.string(),
-  asOf: z.string(),
-  effectiveFrom: z.string(),
-});
+export const determinationPointSchema = bitesFromSchema;
 
 /**
  * What the figures start from: today's data ("current", the reporting office), or the latest
@@ -30,17 +27,7 @@ export const startsFromSchema = z.object({
 });
 
 /** The determination in force on the as-of date (null before the first). */
-export const inForceSummarySchema = z
-  .object({
-    quarterEnd: z.string(),
-    effectiveFrom: z.string(),
-    counted: z.number().int(),
-    zone: zoneSchema,
-    plusFactor: z.number(),
-    multiplier: z.number(),
-    status: z.enum(["provisional", "approved", "filed"]),
-  })
-  .nullable();
+export const inForceSummarySchema = inForceTodaySchema.omit({ zoneLabel: true }).nullable();
 
 /** `date`: the future date to forecast (default: the end of the current quarter). */
 export const forecastQuerySchema = z.object({ date: isoDateSchema.optional() }).strict();

@@ -1,6 +1,6 @@
-import { UniqueConstraintError, type Transaction } from "sequelize";
+import type { Transaction } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { AppError, ConflictError } from "../../errors";
+import { AppError } from "../../errors";
 import { FilingModel } from "../../models/filing";
 import { SnapshotModel } from "../../models/snapshot";
 import { UserModel } from "../../models/user";
@@ -13,7 +13,7 @@ import type { SignedIn } from "../../kit/actor";
 import { entityByCode, findLocked } from "../../kit/lookups";
 import { snapshotDto } from "./snapshots.read";
 import { snapshotEvent as event, withEvent } from "./snapshot-events";
-import { NOT_SIGNED_OFF, draftOf, holdEntityData } from "./snapshots.service";
+import { createDraft, draftOf, holdEntityData } from "./snapshots.service";
 
 // Amended filings (docs/api.md#amendments): a day inside a filed quarter was restated, so the
 // analyst prepares an amendment of that quarter's snapshot. It is a snapshot of its own — same
@@ -130,25 +130,17 @@ export async function prepareAmendment(
       );
       row = open;
     } else {
-      try {
-        row = await SnapshotModel.create(
-          {
-            ...values,
-            entityId: entity.id,
-            quarterEnd: body.quarterEnd,
-            amendsId: original.id,
-            ...NOT_SIGNED_OFF,
-            historyJson: JSON.stringify([event(actor, "prepared", `Amends snapshot #${original.id}.`)]),
-          },
-          { transaction },
-        );
-      } catch (err) {
-        if (err instanceof UniqueConstraintError)
-          throw new ConflictError(
-            `Someone else prepared an amendment of snapshot #${original.id} a moment ago. Look at it again.`,
-          );
-        throw err;
-      }
+      row = await createDraft(
+        {
+          ...values,
+          entityId: entity.id,
+          quarterEnd: body.quarterEnd,
+          amendsId: original.id,
+          historyJson: JSON.stringify([event(actor, "prepared", `Amends snapshot #${original.id}.`)]),
+        },
+        `Someone else prepared an amendment of snapshot #${original.id} a moment ago. Look at it again.`,
+        transaction,
+      );
     }
     await recordAudit(
       actor,

@@ -1,4 +1,4 @@
-import { UniqueConstraintError, type Transaction } from "sequelize";
+import { UniqueConstraintError, type CreationAttributes, type Transaction } from "sequelize";
 import { notifySnapshotEvent } from "../notifications/notices";
 import { sequelize } from "../../db/sequelize";
 import { lockPortfolios } from "../../db/portfolio-locks";
@@ -30,8 +30,24 @@ import { DeterminationModel } from "../../models/determination";
 
 const today = () => new Date().toISOString().slice(0, 10);
 
-/** A new snapshot's sign-off columns: not approved, not sealed in the chain, not restated. */
-export const NOT_SIGNED_OFF = {
+/**
+ * A new draft: its columns, not yet approved, sealed in the chain or restated. `taken` is the 409
+ * message when someone else created the same snapshot a moment ago (a unique key lets one in).
+ */
+export async function createDraft(
+  columns: Omit<CreationAttributes<SnapshotModel>, keyof typeof NOT_SIGNED_OFF>,
+  taken: string,
+  transaction: Transaction,
+): Promise<SnapshotModel> {
+  try {
+    return await SnapshotModel.create({ ...columns, ...NOT_SIGNED_OFF }, { transaction });
+  } catch (err) {
+    if (err instanceof UniqueConstraintError) throw new ConflictError(taken);
+    throw err;
+  }
+}
+
+const NOT_SIGNED_OFF = {
   approvedBy: null,
   approvedAt: null,
   prevHash: null,
@@ -173,27 +189,19 @@ export async function prepareSnapshot(
         transaction,
       );
     } else {
-      try {
-        row = await SnapshotModel.create(
-          {
-            ...values,
-            entityId: entity.id,
-            quarterEnd: body.quarterEnd,
-            ...NOT_SIGNED_OFF,
-            amendsId: null,
-            amendmentJson: null,
-            historyJson: JSON.stringify([event(actor, "prepared")]),
-          },
-          { transaction },
-        );
-      } catch (err) {
-        // Two first preparations of one quarter at once: the unique (entity, quarter) lets one in.
-        if (err instanceof UniqueConstraintError)
-          throw new ConflictError(
-            `${entity.code} ${quarterLabel(body.quarterEnd)} was prepared by someone else a moment ago. Look at it again.`,
-          );
-        throw err;
-      }
+      // Two first preparations of one quarter at once: the unique (entity, quarter) lets one in.
+      row = await createDraft(
+        {
+          ...values,
+          entityId: entity.id,
+          quarterEnd: body.quarterEnd,
+          amendsId: null,
+          amendmentJson: null,
+          historyJson: JSON.stringify([event(actor, "prepared")]),
+        },
+        `${entity.code} ${quarterLabel(body.quarterEnd)} was prepared by someone else a moment ago. Look at it again.`,
+        transaction,
+      );
       await recordAudit(
         actor,
         "snapshot.prepare",

@@ -1,4 +1,4 @@
-import { logger } from "../../logger";
+import { everyRound } from "../../kit/rounds";
 import { deliverPendingFilings } from "./filings.service";
 
 /**
@@ -7,22 +7,13 @@ import { deliverPendingFilings } from "./filings.service";
  * journal, without sending them again. Each round is bounded by the mailer's timeouts; rounds never overlap.
  */
 export function startFilingDelivery(everyMs = 30_000): () => void {
-  let running = false;
-  const timer = setInterval(() => {
-    if (running) return;
-    running = true;
-    deliverPendingFilings()
-      .then((n) => {
-        if (n.sent || n.refused || n.reconciled)
-          logger.info(
-            `filing delivery: ${n.reconciled} settled from the mail journal, ${n.sent} delivered, ${n.refused} withdrawn, ${n.pending} still waiting`,
-          );
-      })
-      .catch((err) => logger.error(`filing delivery failed: ${(err as Error).message}`))
-      .finally(() => {
-        running = false;
-      });
-  }, everyMs);
-  timer.unref();
-  return () => clearInterval(timer);
+  return everyRound(
+    everyMs,
+    () => deliverPendingFilings(),
+    (n) =>
+      n.sent || n.refused || n.reconciled
+        ? `filing delivery: ${n.reconciled} settled from the mail journal, ${n.sent} delivered, ${n.refused} withdrawn, ${n.pending} still waiting`
+        : null,
+    "filing delivery failed",
+  );
 }

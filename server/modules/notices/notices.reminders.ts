@@ -7,7 +7,7 @@
  */
 import { QueryTypes } from "sequelize";
 import { sequelize } from "../../db/sequelize";
-import { logger } from "../../logger";
+import { everyRound } from "../../kit/rounds";
 import { holidaysOf } from "../figures/engine-inputs";
 import { notify } from "../notifications/notifications.service";
 import { noticeReminderOn } from "../../../shared/backtest/notice-deadline";
@@ -77,19 +77,10 @@ export async function remindNoticesComingDue(today: string = todayUtc()): Promis
 
 /** Runs a round every `everyMs` in this process; rounds never overlap. */
 export function startNoticeReminders(everyMs = 60_000): () => void {
-  let running = false;
-  const timer = setInterval(() => {
-    if (running) return;
-    running = true;
-    remindNoticesComingDue()
-      .then((n) => {
-        if (n) logger.info(`overshooting notices: ${n} coming-due reminder(s) sent`);
-      })
-      .catch((err) => logger.error(`overshooting notice reminders failed: ${(err as Error).message}`))
-      .finally(() => {
-        running = false;
-      });
-  }, everyMs);
-  timer.unref();
-  return () => clearInterval(timer);
+  return everyRound(
+    everyMs,
+    () => remindNoticesComingDue(),
+    (n) => (n ? `overshooting notices: ${n} coming-due reminder(s) sent` : null),
+    "overshooting notice reminders failed",
+  );
 }

@@ -12,6 +12,12 @@ import { TOKEN_HOLDERS } from "../kit/roles";
 export type Access = "public" | "signed-in" | readonly Role[];
 
 const STAFF: readonly Role[] = ["analyst", "cro", "treasury", "admin"];
+/** The reporting office: analysts prepare, the chief risk officer signs off. */
+const OFFICE: readonly Role[] = ["analyst", "cro"];
+/** The office and treasury, who plan capital with the figures. */
+const OFFICE_AND_TREASURY: readonly Role[] = ["analyst", "cro", "treasury"];
+/** The office and the supervisor's staff, who read the filings of their entities. */
+const OFFICE_AND_REGULATOR: readonly Role[] = ["analyst", "cro", "regulator"];
 
 export const POLICY = {
   "GET /api/health": "public",
@@ -76,55 +82,55 @@ export const POLICY = {
   // Daily data: analysts bring it in; the CRO reads it to understand the figures.
   "GET /api/uploads/template.csv": ["analyst", "cro", "admin"],
   "POST /api/uploads": ["analyst"],
-  "GET /api/uploads": ["analyst", "cro"],
-  "GET /api/uploads.:format": ["analyst", "cro"],
-  "GET /api/uploads/:id": ["analyst", "cro"],
-  "GET /api/uploads/:id/rows": ["analyst", "cro"],
+  "GET /api/uploads": OFFICE,
+  "GET /api/uploads.:format": OFFICE,
+  "GET /api/uploads/:id": OFFICE,
+  "GET /api/uploads/:id/rows": OFFICE,
   "POST /api/uploads/:id/commit": ["analyst"],
   "DELETE /api/uploads/:id": ["analyst"],
-  "GET /api/portfolios/:code/observations": ["analyst", "cro"],
-  "GET /api/findings": ["analyst", "cro"],
-  "GET /api/findings.:format": ["analyst", "cro"],
+  "GET /api/portfolios/:code/observations": OFFICE,
+  "GET /api/findings": OFFICE,
+  "GET /api/findings.:format": OFFICE,
   "PUT /api/findings/:id": ["analyst"],
 
   // Quarter snapshots: analysts prepare and submit, the CRO approves or returns (four eyes in the
   // service); treasury reads signed-off snapshots only (filtered in the service).
-  "GET /api/snapshots": ["analyst", "cro", "treasury"],
-  "GET /api/snapshots.:format": ["analyst", "cro", "treasury"],
+  "GET /api/snapshots": OFFICE_AND_TREASURY,
+  "GET /api/snapshots.:format": OFFICE_AND_TREASURY,
   "POST /api/snapshots": ["analyst"],
-  "GET /api/snapshots/:id": ["analyst", "cro", "treasury"],
+  "GET /api/snapshots/:id": OFFICE_AND_TREASURY,
   // The return data: read by whoever reads the snapshot; its analyst inputs entered before submitting.
-  "GET /api/snapshots/:id/return": ["analyst", "cro", "treasury"],
-  "GET /api/snapshots/:id/return.:format": ["analyst", "cro", "treasury"],
+  "GET /api/snapshots/:id/return": OFFICE_AND_TREASURY,
+  "GET /api/snapshots/:id/return.:format": OFFICE_AND_TREASURY,
   "PUT /api/snapshots/:id/return-inputs": ["analyst"],
   "POST /api/snapshots/:id/submit": ["analyst"],
   "POST /api/snapshots/:id/approve": ["cro"],
   "POST /api/snapshots/:id/return": ["cro"],
-  "GET /api/snapshots/:id/verify": ["analyst", "cro", "treasury"],
+  "GET /api/snapshots/:id/verify": OFFICE_AND_TREASURY,
   // The entity's whole signed chain: whoever may check one of its snapshots may check them all.
-  "GET /api/entities/:code/chain/verify": ["analyst", "cro", "treasury"],
-  "GET /api/entities/:code/capital/history": ["analyst", "cro", "treasury"],
-  "GET /api/entities/:code/capital/history.:format": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/chain/verify": OFFICE_AND_TREASURY,
+  "GET /api/entities/:code/capital/history": OFFICE_AND_TREASURY,
+  "GET /api/entities/:code/capital/history.:format": OFFICE_AND_TREASURY,
   // Packs and filings: the office reads packs, the CRO files; a regulator reads, acknowledges and
   // verifies the filings of the entities assigned to them (filtered in the service).
-  "GET /api/snapshots/:id/pack.pdf": ["analyst", "cro"],
+  "GET /api/snapshots/:id/pack.pdf": OFFICE,
   "POST /api/snapshots/:id/filings": ["cro"],
   // The CRO finishes a filing that did not reach every recipient (only those not yet accepted).
   "POST /api/filings/:id/deliver": ["cro"],
-  "GET /api/filings": ["analyst", "cro", "regulator"],
-  "GET /api/filings.:format": ["analyst", "cro", "regulator"],
-  "GET /api/filings/:id/pack.pdf": ["analyst", "cro", "regulator"],
+  "GET /api/filings": OFFICE_AND_REGULATOR,
+  "GET /api/filings.:format": OFFICE_AND_REGULATOR,
+  "GET /api/filings/:id/pack.pdf": OFFICE_AND_REGULATOR,
   "POST /api/filings/:id/acknowledge": ["regulator"],
-  "GET /api/filings/:id/verify": ["analyst", "cro", "regulator"],
+  "GET /api/filings/:id/verify": OFFICE_AND_REGULATOR,
   // Forecasts and what-ifs on current data: treasury plans capital with them (docs/architecture.md#roles).
-  "GET /api/entities/:code/capital/forecast": ["analyst", "cro", "treasury"],
-  "POST /api/entities/:code/capital/what-if": ["analyst", "cro", "treasury"],
+  "GET /api/entities/:code/capital/forecast": OFFICE_AND_TREASURY,
+  "POST /api/entities/:code/capital/what-if": OFFICE_AND_TREASURY,
 
   // Determinations of the multiplier (treasury sees the signed-off ones, filtered in the service) and
   // capital on a date with the multiplier in force beside the indicative one (current figures).
-  "GET /api/entities/:code/determinations": ["analyst", "cro", "treasury"],
-  "GET /api/entities/:code/determinations.:format": ["analyst", "cro", "treasury"],
-  "GET /api/entities/:code/capital": ["analyst", "cro"],
+  "GET /api/entities/:code/determinations": OFFICE_AND_TREASURY,
+  "GET /api/entities/:code/determinations.:format": OFFICE_AND_TREASURY,
+  "GET /api/entities/:code/capital": OFFICE,
   // Governed supervisory settings: everyone on staff reads them; an admin proposes a change and a CRO
   // approves or rejects it (four eyes in the service).
   "GET /api/entities/:code/settings": STAFF,
@@ -133,21 +139,21 @@ export const POLICY = {
   "POST /api/settings/:id/reject": ["cro"],
 
   // Current (unapproved) figures, reviews and evidence: the reporting office and the CRO only.
-  "GET /api/overview": ["analyst", "cro"],
-  "GET /api/portfolios/:code/backtest": ["analyst", "cro"],
-  "GET /api/portfolios/:code/rolling": ["analyst", "cro"],
-  "GET /api/portfolios/:code/rolling.:format": ["analyst", "cro"],
-  "GET /api/portfolios/:code/exceptions.:format": ["analyst", "cro"],
+  "GET /api/overview": OFFICE,
+  "GET /api/portfolios/:code/backtest": OFFICE,
+  "GET /api/portfolios/:code/rolling": OFFICE,
+  "GET /api/portfolios/:code/rolling.:format": OFFICE,
+  "GET /api/portfolios/:code/exceptions.:format": OFFICE,
   "PUT /api/portfolios/:code/exceptions/:date/review": ["analyst"],
   "PUT /api/portfolios/:code/exceptions/:date/decision": ["cro"],
   "POST /api/portfolios/:code/exceptions/:date/evidence": ["analyst"],
-  "GET /api/evidence/:id": ["analyst", "cro"],
+  "GET /api/evidence/:id": OFFICE,
   // Overshooting notices (EU): the office reads them; an analyst drafts the cause, the CRO sends it
   // to the supervisor (four eyes: the one who drafts is never the one who sends).
-  "GET /api/notices": ["analyst", "cro"],
+  "GET /api/notices": OFFICE,
   "PUT /api/notices/:id/draft": ["analyst"],
   "POST /api/notices/:id/send": ["cro"],
-  "GET /api/notices/:id/notice.pdf": ["analyst", "cro"],
+  "GET /api/notices/:id/notice.pdf": OFFICE,
 
   // Personal API tokens: each holder lists, creates and revokes their own (filtered in the service).
   "GET /api/tokens": TOKEN_HOLDERS,

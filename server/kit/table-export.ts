@@ -53,6 +53,12 @@ export const col = {
   date: columnOf("date"),
   datetime: columnOf("datetime"),
   yesNo: columnOf("yes-no"),
+  /** Several texts in one cell, separated by "; ". */
+  list: <Row>(header: string, value: (row: Row) => readonly string[]): Column<Row> => ({
+    header,
+    kind: "text",
+    value: (row) => value(row).join("; "),
+  }),
 };
 
 const FORMULA_START = /^[=+\-@\t\r]/;

@@ -155,26 +155,23 @@ export function capitalInputsAt(
     oneDay: number | null | undefined,
     scale: number,
   ): number | null => (tenDay != null ? tenDay * scale : oneDay != null ? oneDay * SQRT_10 * scale : null);
-  const v = pick(
-    observations,
-    start,
-    end,
-    (o) => capitalVar(o.var10d, o.var99, varScale),
-    (o) => o.var10d == null,
-  );
+  /** VaR or stressed VaR for capital at t−1 and on average: the 10-day figure, else the one-day one × √10. */
+  const pickCapital = (tenDay: "var10d" | "svar10d", oneDay: "var99" | "svar99", scale: number) =>
+    pick(
+      observations,
+      start,
+      end,
+      (o) => capitalVar(o[tenDay], o[oneDay], scale),
+      (o) => o[tenDay] == null,
+    );
+  const v = pickCapital("var10d", "var99", varScale);
   if (!v)
     throw new EngineInputError(`No VaR on or before ${asOf}, so there is no capital figure`, {
       date: asOf,
       field: "var99",
     });
   note("VaR", v);
-  const s = pick(
-    observations,
-    start,
-    end,
-    (o) => capitalVar(o.svar10d, o.svar99, svarScale),
-    (o) => o.svar10d == null,
-  );
+  const s = pickCapital("svar10d", "svar99", svarScale);
   if (rules.id === "us" && s) {
     // 12 CFR 217.204(a)(2)(ii) with 217.206(a), (b)(2): the stressed VaR-based measure is calculated
     // at least weekly; the requirement takes the most recent one and the average over 12 weeks.

@@ -31,14 +31,6 @@ export function isIsoDate(value: unknown): value is string {
 
 const NUMERIC_FIELDS = ["actualPnl", "hypotheticalPnl", ...RISK_MEASURES, ...PNL_COMPONENTS] as const;
 
-/** The named amounts of a day, null where the file left one out. */
-export function amountsOf<K extends (typeof NUMERIC_FIELDS)[number]>(
-  observation: Observation,
-  keys: readonly K[],
-): Record<K, number | null> {
-  return Object.fromEntries(keys.map((key) => [key, observation[key] ?? null])) as Record<K, number | null>;
-}
-
 /**
  * Checks what the engine relies on: real ISO dates, strictly increasing (so no duplicates), and
  * every amount either null/absent or a finite number. Throws EngineInputError naming the date.

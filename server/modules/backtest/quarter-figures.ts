@@ -1,4 +1,5 @@
 import { createHash } from "node:crypto";
+import { valuesOrNull } from "../../kit/values";
 import stableStringify from "fast-json-stable-stringify";
 import { NotFoundError } from "../../errors";
 import { PortfolioModel } from "../../models/portfolio";
@@ -253,19 +254,18 @@ function capitalDetailOf(
     formula: rules.capitalFormula === "es-ses" ? "es-ses" : "var-svar",
     previousDate: inputs.previousDate,
     averagedObservations: inputs.averagedObservations,
-    varPrev: inputs.varPrev ?? null,
-    varAvg60: inputs.varAvg60 ?? null,
-    svarPrev: inputs.svarPrev ?? null,
-    svarAvg60: inputs.svarAvg60 ?? null,
-    svarWeeks: inputs.svarWeeks ?? null,
-    esPrev: inputs.esPrev ?? null,
-    esAvg60: inputs.esAvg60 ?? null,
-    sesPrev: inputs.sesPrev ?? null,
-    sesAvg60: inputs.sesAvg60 ?? null,
-    varTerm: r.varTerm ?? null,
-    svarTerm: r.svarTerm ?? null,
-    esTerm: r.esTerm ?? null,
-    sesTerm: r.sesTerm ?? null,
+    ...valuesOrNull(inputs, [
+      "varPrev",
+      "varAvg60",
+      "svarPrev",
+      "svarAvg60",
+      "svarWeeks",
+      "esPrev",
+      "esAvg60",
+      "sesPrev",
+      "sesAvg60",
+    ]),
+    ...valuesOrNull(r, ["varTerm", "svarTerm", "esTerm", "sesTerm"]),
     binding: r.binding,
     warnings: inputs.warnings,
   };

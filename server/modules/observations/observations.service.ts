@@ -5,7 +5,7 @@ import { loadSeries } from "./observations.repository";
 import { backtestingActualPnl } from "../../../shared/backtest/pnl-definition";
 import type { ObservationDto } from "../../../shared/schemas/observation";
 import { PNL_COMPONENTS, RISK_MEASURES } from "../../../shared/schemas/common";
-import { amountsOf } from "../../../shared/backtest/window";
+import { valuesOrNull } from "../../kit/values";
 
 /** The current version of each stored day of one portfolio. */
 export async function listObservations(code: string, range: { from?: string; to?: string }): Promise<ObservationDto[]> {
@@ -19,8 +19,8 @@ export async function listObservations(code: string, range: { from?: string; to?
     // docs/rules.md#pnl-definition: what the entity's rule set compares with VaR (the supplied figure without parts).
     backtestActualPnl: backtestingActualPnl(o, regime),
     hypotheticalPnl: o.hypotheticalPnl,
-    ...amountsOf(o, RISK_MEASURES),
-    ...amountsOf(o, PNL_COMPONENTS),
+    ...valuesOrNull(o, RISK_MEASURES),
+    ...valuesOrNull(o, PNL_COMPONENTS),
     version: o.version,
   }));
 }

@@ -2,7 +2,7 @@ import { Op } from "sequelize";
 import { ExceptionReviewModel } from "../../models/exception-review";
 import { EvidenceFileModel } from "../../models/evidence-file";
 import { ExclusionDecisionModel } from "../../models/exclusion-decision";
-import type { Review } from "../../../shared/schemas/review";
+import type { Evidence, ExclusionDecision, Review } from "../../../shared/schemas/review";
 import { emailsById } from "../../kit/lookups";
 
 /** Reviews of a portfolio's exception days (with their evidence), keyed by date. */
@@ -27,6 +27,27 @@ export async function reviewsByDate(portfolioId: number, dates?: string[]): Prom
   }
   for (const e of evidence) userIds.add(e.uploadedBy);
   const emails = await emailsById(userIds);
+  const emailOf = (id: number | null) => (id ? (emails.get(id) ?? null) : null);
+  const toEvidence = (e: EvidenceFileModel): Evidence => ({
+    id: e.id,
+    fileName: e.fileName,
+    contentType: e.contentType,
+    sizeBytes: e.sizeBytes,
+    sha256: e.sha256,
+    uploadedBy: emails.get(e.uploadedBy) ?? "unknown",
+    uploadedAt: e.createdAt.toISOString(),
+  });
+  const toDecision = (d: ExclusionDecisionModel): ExclusionDecision => ({
+    id: d.id,
+    decision: d.decision,
+    reference: d.reference,
+    decidedOn: d.decidedOn,
+    recordedBy: emailOf(d.decidedBy),
+    recordedAt: d.recordedAt.toISOString(),
+    supersedes: d.supersedesId,
+    correctionReason: d.correctionReason,
+    superseded: supersededIds.has(d.id),
+  });
   const out = new Map<string, Review>();
   for (const r of rows) {
     out.set(r.businessDate, {
@@ -36,34 +57,12 @@ export async function reviewsByDate(portfolioId: number, dates?: string[]): Prom
       exclusionStatus: r.exclusionStatus,
       decisionReference: r.decisionReference,
       decisionDate: r.decisionDate,
-      decidedBy: r.decidedBy ? (emails.get(r.decidedBy) ?? null) : null,
+      decidedBy: emailOf(r.decidedBy),
       reviewedBy: emails.get(r.reviewedBy) ?? "unknown",
       reviewedAt: r.updatedAt.toISOString(),
       version: r.version,
-      evidence: evidence
-        .filter((e) => e.reviewId === r.id)
-        .map((e) => ({
-          id: e.id,
-          fileName: e.fileName,
-          contentType: e.contentType,
-          sizeBytes: e.sizeBytes,
-          sha256: e.sha256,
-          uploadedBy: emails.get(e.uploadedBy) ?? "unknown",
-          uploadedAt: e.createdAt.toISOString(),
-        })),
-      decisions: decisions
-        .filter((d) => d.reviewId === r.id)
-        .map((d) => ({
-          id: d.id,
-          decision: d.decision,
-          reference: d.reference,
-          decidedOn: d.decidedOn,
-          recordedBy: d.decidedBy ? (emails.get(d.decidedBy) ?? null) : null,
-          recordedAt: d.recordedAt.toISOString(),
-          supersedes: d.supersedesId,
-          correctionReason: d.correctionReason,
-          superseded: supersededIds.has(d.id),
-        })),
+      evidence: evidence.filter((e) => e.reviewId === r.id).map(toEvidence),
+      decisions: decisions.filter((d) => d.reviewId === r.id).map(toDecision),
     });
   }
   return out;

@@ -1,4 +1,5 @@
 import { useState, type ReactNode } from "react";
+import { Table, TableHead, Td, Tr, type Column } from "./table";
 
 /**
  * A chart's figures as a table, behind a disclosure beside the chart: the way to read them without
@@ -25,5 +26,41 @@ export function FiguresDisclosure({ label, children }: { label: string; children
         </div>
       )}
     </details>
+  );
+}
+
+/**
+ * A dated series' figures behind the disclosure: a table of one row a date, oldest first, the date
+ * in the first column and `cells` giving the rest of the row.
+ */
+export function DatedFiguresDisclosure<Row extends { date: string }>({
+  label,
+  caption,
+  columns,
+  rows,
+  cells,
+}: {
+  label: string;
+  caption: string;
+  columns: readonly Column[];
+  rows: readonly Row[];
+  cells: (row: Row) => ReactNode;
+}) {
+  return (
+    <FiguresDisclosure label={label}>
+      {() => (
+        <Table caption={caption}>
+          <TableHead columns={columns} />
+          <tbody>
+            {rows.map((row) => (
+              <Tr key={row.date}>
+                <Td className="figures whitespace-nowrap">{row.date}</Td>
+                {cells(row)}
+              </Tr>
+            ))}
+          </tbody>
+        </Table>
+      )}
+    </FiguresDisclosure>
   );
 }

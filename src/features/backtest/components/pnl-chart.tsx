@@ -13,8 +13,8 @@ import {
 import type { BacktestResponse } from "@shared/schemas/backtest";
 import type { ObservationDto } from "@shared/schemas/observation";
 import { ChartFigure, ChartKey, KeyItem, chartLook } from "@/components/ui/chart-frame";
-import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
-import { Table, TableHead, Td, Tr } from "@/components/ui/table";
+import { DatedFiguresDisclosure } from "@/components/ui/figures-disclosure";
+import { Td } from "@/components/ui/table";
 import { cn } from "@/lib/cn";
 import { compactAmount, formatAmount, plural } from "@/lib/format";
 import { chartColours } from "@/styles/palette";
@@ -222,32 +222,24 @@ export function PnlChart({
           Current backtesting window
         </KeyItem>
       </ChartKey>
-      <FiguresDisclosure label={`Daily ${label} and VaR, ${bt.entity.currency}`}>
-        {() => (
-          <Table caption={`Daily ${label} against VaR (99%, one day), ${bt.entity.currency}, oldest first`}>
-            <TableHead
-              columns={[
-                "Business date",
-                { numeric: series === "actual" ? "Actual P&L" : "Hypothetical P&L" },
-                { numeric: "VaR 99%" },
-                "Exception",
-              ]}
-            />
-            <tbody>
-              {points.map((p) => (
-                <Tr key={p.date}>
-                  <Td className="figures whitespace-nowrap">{p.date}</Td>
-                  <Td numeric>{formatAmount(p.pnl, bt.entity.currency)}</Td>
-                  <Td numeric>{formatAmount(p.negVar === null ? null : -p.negVar, bt.entity.currency)}</Td>
-                  <Td>
-                    {p.exception !== null ? "Exception" : p.excluded !== null ? "Excluded by the supervisor" : ""}
-                  </Td>
-                </Tr>
-              ))}
-            </tbody>
-          </Table>
+      <DatedFiguresDisclosure
+        label={`Daily ${label} and VaR, ${bt.entity.currency}`}
+        caption={`Daily ${label} against VaR (99%, one day), ${bt.entity.currency}, oldest first`}
+        columns={[
+          "Business date",
+          { numeric: series === "actual" ? "Actual P&L" : "Hypothetical P&L" },
+          { numeric: "VaR 99%" },
+          "Exception",
+        ]}
+        rows={points}
+        cells={(p) => (
+          <>
+            <Td numeric>{formatAmount(p.pnl, bt.entity.currency)}</Td>
+            <Td numeric>{formatAmount(p.negVar === null ? null : -p.negVar, bt.entity.currency)}</Td>
+            <Td>{p.exception !== null ? "Exception" : p.excluded !== null ? "Excluded by the supervisor" : ""}</Td>
+          </>
         )}
-      </FiguresDisclosure>
+      />
     </ChartFigure>
   );
 }

@@ -3,8 +3,8 @@ import type { RollingRowDto } from "@shared/schemas/backtest";
 import type { RegimeId } from "@shared/schemas/common";
 import { zoneBoundariesFor } from "@shared/backtest/regimes";
 import { ChartFigure, chartLook } from "@/components/ui/chart-frame";
-import { FiguresDisclosure } from "@/components/ui/figures-disclosure";
-import { Table, TableHead, Td, Tr } from "@/components/ui/table";
+import { DatedFiguresDisclosure } from "@/components/ui/figures-disclosure";
+import { Td } from "@/components/ui/table";
 import { zoneName } from "@/components/ui/zone-badge";
 import { chartColours } from "@/styles/palette";
 
@@ -95,35 +95,29 @@ export function RollingChart({
         </LineChart>
       }
     >
-      <FiguresDisclosure label="Counted exceptions on each date">
-        {() => (
-          <Table caption="Counted exceptions in the trailing window on each as-of date, oldest first">
-            <TableHead
-              columns={[
-                "As-of date",
-                { numeric: "Actual P&L exceptions" },
-                { numeric: "Hypothetical P&L exceptions" },
-                { numeric: "Counted" },
-                "Zone",
-              ]}
-            />
-            <tbody>
-              {rows.map((r) => (
-                <Tr key={r.date}>
-                  <Td className="figures whitespace-nowrap">{r.date}</Td>
-                  <Td numeric>{r.actual}</Td>
-                  <Td numeric>{r.hypothetical}</Td>
-                  <Td numeric>{r.counted}</Td>
-                  <Td>
-                    {zoneName(r.zone, regime)}
-                    {!r.complete && " (provisional: short window)"}
-                  </Td>
-                </Tr>
-              ))}
-            </tbody>
-          </Table>
+      <DatedFiguresDisclosure
+        label="Counted exceptions on each date"
+        caption="Counted exceptions in the trailing window on each as-of date, oldest first"
+        columns={[
+          "As-of date",
+          { numeric: "Actual P&L exceptions" },
+          { numeric: "Hypothetical P&L exceptions" },
+          { numeric: "Counted" },
+          "Zone",
+        ]}
+        rows={rows}
+        cells={(r) => (
+          <>
+            <Td numeric>{r.actual}</Td>
+            <Td numeric>{r.hypothetical}</Td>
+            <Td numeric>{r.counted}</Td>
+            <Td>
+              {zoneName(r.zone, regime)}
+              {!r.complete && " (provisional: short window)"}
+            </Td>
+          </>
         )}
-      </FiguresDisclosure>
+      />
     </ChartFigure>
   );
 }

@@ -71,6 +71,7 @@ export function HeadedForm({
   onSubmit,
   titleId,
   title,
+  level = 2,
   className = "flex flex-col gap-3",
   children,
 }: {
@@ -78,12 +79,20 @@ export function HeadedForm({
   onSubmit: (e: FormEvent) => void;
   titleId: string;
   title: string;
+  /** 3 for a form inside a panel that has its own heading: a small heading of the third level. */
+  level?: 2 | 3;
   className?: string;
   children: ReactNode;
 }) {
   return (
     <form ref={formRef} onSubmit={onSubmit} noValidate aria-labelledby={titleId} className={className}>
-      <h2 id={titleId}>{title}</h2>
+      {level === 2 ? (
+        <h2 id={titleId}>{title}</h2>
+      ) : (
+        <h3 id={titleId} className="text-sm font-semibold">
+          {title}
+        </h3>
+      )}
       {children}
     </form>
   );

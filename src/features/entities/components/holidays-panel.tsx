@@ -10,7 +10,7 @@ import {
 import { Button } from "@/components/ui/button";
 import { Confirmation } from "@/components/ui/confirmation";
 import { FormMessage, TextField } from "@/components/ui/field";
-import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
+import { HeadedForm, SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { isApiError, staleCurrent } from "@/lib/api-client";
 import { formLevelMessage } from "@/lib/form";
@@ -163,16 +163,14 @@ function AddHolidayForm({ entityCode }: { entityCode: string }) {
   }
 
   return (
-    <form
-      ref={formRef}
+    <HeadedForm
+      formRef={formRef}
       onSubmit={submit}
-      noValidate
-      aria-labelledby="add-holiday-title"
+      titleId="add-holiday-title"
+      title="Add a bank closing day"
+      level={3}
       className="flex flex-col gap-2"
     >
-      <h3 id="add-holiday-title" className="text-sm font-semibold">
-        Add a bank closing day
-      </h3>
       <FormMessage>{formLevelMessage(add.error)}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
         <TextField label="Date" type="date" {...field("date")} className="w-44" />
@@ -181,7 +179,7 @@ function AddHolidayForm({ entityCode }: { entityCode: string }) {
           Add holiday
         </SubmitButton>
       </div>
-    </form>
+    </HeadedForm>
   );
 }
 

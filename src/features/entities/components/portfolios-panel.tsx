@@ -3,7 +3,7 @@ import { createPortfolioBodySchema, updatePortfolioBodySchema, type Portfolio } 
 import type { PortfolioLevel } from "@shared/schemas/common";
 import { Button } from "@/components/ui/button";
 import { FormMessage, SelectField, TextField } from "@/components/ui/field";
-import { SubmitButton, useFormKit } from "@/components/ui/form-kit";
+import { HeadedForm, SubmitButton, useFormKit } from "@/components/ui/form-kit";
 import { EmptyState, Table, TableHead, Td, Tr } from "@/components/ui/table";
 import { fieldErrorsOf, isApiError } from "@/lib/api-client";
 import { formLevelMessage, validate } from "@/lib/form";
@@ -76,16 +76,14 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
   }
 
   return (
-    <form
-      ref={formRef}
+    <HeadedForm
+      formRef={formRef}
       onSubmit={submit}
-      noValidate
-      aria-labelledby="add-portfolio-title"
+      titleId="add-portfolio-title"
+      title="Add a portfolio"
+      level={3}
       className="flex flex-col gap-2"
     >
-      <h3 id="add-portfolio-title" className="text-sm font-semibold">
-        Add a portfolio
-      </h3>
       <FormMessage>{formLevelMessage(create.error)}</FormMessage>
       <div className="flex flex-wrap items-start gap-2">
         <TextField label="Code" {...field("code")} className="w-40" hint="e.g. LKS-UK-RATES" />
@@ -98,7 +96,7 @@ function AddPortfolioForm({ entityCode, hasTop }: { entityCode: string; hasTop: 
           Add portfolio
         </SubmitButton>
       </div>
-    </form>
+    </HeadedForm>
   );
 }
 

@@ -62,7 +62,6 @@ export class PackLayout {
     }
   }
 
-  /** Starts a new page when less than `height` points are left on this one. */
   /** A line across the text width at `y` (the current line by default). */
   rule(lineWidth: number, colour: string, y = this.doc.y) {
     this.doc
@@ -73,6 +72,7 @@ export class PackLayout {
       .stroke();
   }
 
+  /** Starts a new page when less than `height` points are left on this one. */
   room(height: number) {
     if (this.doc.y + height > this.bottom) this.doc.addPage();
   }

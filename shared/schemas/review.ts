@@ -38,10 +38,10 @@ export const reviewBodySchema = z.strictObject({
 });
 export type ReviewBody = z.infer<typeof reviewBodySchema>;
 
-/** The CRO records what the supervisor decided about an exclusion request. */
 /** Today's date in UTC, the calendar the server keeps. */
 const todayUtc = () => new Date().toISOString().slice(0, 10);
 
+/** The CRO records what the supervisor decided about an exclusion request. */
 export const decisionBodySchema = z.strictObject({
   decision: z.enum(["approved", "rejected"]),
   reference: z.string().trim().min(1, "Give the supervisor's reference for the decision").max(120),

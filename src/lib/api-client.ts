@@ -20,16 +20,16 @@ export function isApiError(e: unknown): e is ApiError {
   return e instanceof ApiError;
 }
 
-/**
- * Per-field messages from an error's details: either a `fields` map `{ name: "message" }` or a
- * zod treeified error `{ properties: { name: { errors: [...] } } }`.
- */
 /** What to say of a failed call: the server's own message, or `fallback` when none came; nothing without an error. */
 export function errorMessage(error: unknown, fallback: string): string | undefined {
   if (!error) return undefined;
   return isApiError(error) ? error.message : fallback;
 }
 
+/**
+ * Per-field messages from an error's details: either a `fields` map `{ name: "message" }` or a
+ * zod treeified error `{ properties: { name: { errors: [...] } } }`.
+ */
 export function fieldErrorsOf(e: unknown): Record<string, string> {
   if (!isApiError(e) || typeof e.details !== "object" || e.details === null) return {};
   const d = e.details as Record<string, unknown>;

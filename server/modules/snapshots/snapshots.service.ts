@@ -56,7 +56,6 @@ const NOT_SIGNED_OFF = {
   restatementDetail: null,
 } as const;
 
-/** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
 /**
  * The columns of a freshly prepared draft: the engine's figures, with the analyst's return values
  * carried over from `keptFrom` (the quarter prepared before, or the snapshot an amendment amends).
@@ -89,6 +88,7 @@ export function draftOf(
   return { figures, values };
 }
 
+/** Locks the entity's portfolios for share: an upload committing to them finishes first, and none starts until we are done. */
 export async function holdEntityData(entityId: number, transaction: Transaction): Promise<void> {
   const ids = (await PortfolioModel.findAll({ where: { entityId }, attributes: ["id"], transaction })).map((p) => p.id);
   await lockPortfolios(ids, "share", transaction);

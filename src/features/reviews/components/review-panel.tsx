@@ -29,7 +29,6 @@ import { PnlMakeUp } from "./pnl-make-up";
 import { causeIds, causeLabels, exclusionStatusLabels } from "@/lib/review-labels";
 import { PersonName } from "@/lib/people";
 
-/** A review as it stands: who explained it, why, and what the supervisor decided. */
 /** Every decision recorded, oldest first: a correction never replaces the record it supersedes. */
 function DecisionHistory({ decisions }: { decisions: ExclusionDecision[] }) {
   return (
@@ -46,6 +45,7 @@ function DecisionHistory({ decisions }: { decisions: ExclusionDecision[] }) {
   );
 }
 
+/** A review as it stands: who explained it, why, and what the supervisor decided. */
 export function ReviewRecord({ review }: { review: Review }) {
   return (
     <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">

@@ -7,6 +7,7 @@ import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import { pathToFileURL } from "node:url";
 import { CsvFileError, parseObservationCsv, splitCsv } from "../shared/ingest/parse-csv";
+import { seriesByPortfolio } from "../shared/ingest/series";
 import { EngineInputError } from "../shared/backtest/errors";
 import { backtestAt, type BacktestResult } from "../shared/backtest/exceptions";
 import { withPnlDefinition } from "../shared/backtest/pnl-definition";
@@ -135,31 +136,7 @@ export function parseObservationsCsv(text: string): Map<string, Observation[]> {
       `The file has ${parsed.errorCount} problem${parsed.errorCount > 1 ? "s" : ""}:\n${shown.join("\n")}`,
     );
   }
-  const byPortfolio = new Map<string, Observation[]>();
-  for (const r of parsed.rows) {
-    let list = byPortfolio.get(r.portfolio);
-    if (!list) byPortfolio.set(r.portfolio, (list = []));
-    list.push({
-      date: r.date,
-      actualPnl: r.actual_pnl ?? null,
-      hypotheticalPnl: r.hypothetical_pnl ?? null,
-      var99: r.var_99 ?? null,
-      var975: r.var_975 ?? null,
-      svar99: r.svar_99 ?? null,
-      var10d: r.var_10d ?? null,
-      svar10d: r.svar_10d ?? null,
-      es975: r.es_975 ?? null,
-      ses: r.ses ?? null,
-      rtpl: r.rtpl ?? null,
-      feesCommissions: r.fees_commissions ?? null,
-      reservesAdjustments: r.reserves_adjustments ?? null,
-      netInterestIncome: r.net_interest_income ?? null,
-      intradayPnl: r.intraday_pnl ?? null,
-      newTradePnl: r.new_trade_pnl ?? null,
-    });
-  }
-  for (const list of byPortfolio.values()) list.sort((a, b) => (a.date < b.date ? -1 : a.date > b.date ? 1 : 0));
-  return byPortfolio;
+  return seriesByPortfolio(parsed.rows);
 }
 
 const fmt = (x: number, digits: number): string => x.toFixed(digits);

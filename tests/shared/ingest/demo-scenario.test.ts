@@ -1,6 +1,7 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { demoDates, demoRowsFor, SCENARIO } from "../../../seeders/demo/scenario";
 import { parseObservationCsv, serialiseObservationCsv } from "../../../shared/ingest/parse-csv";
+import { seriesByPortfolio as parsedSeries } from "../../../shared/ingest/series";
 import { backtestAt } from "../../../shared/backtest/exceptions";
 import { withPnlDefinition } from "../../../shared/backtest/pnl-definition";
 import { plaTest } from "../../../shared/backtest/pla";
@@ -37,29 +38,7 @@ function seriesByPortfolio(entity: string, today: string) {
   );
   const parsed = parseObservationCsv(csv, { portfolios });
   expect(parsed.errors).toEqual([]); // the demo passes the same checks as any upload
-  const out = new Map<string, Observation[]>();
-  for (const r of parsed.rows) {
-    if (!out.has(r.portfolio)) out.set(r.portfolio, []);
-    out.get(r.portfolio)!.push({
-      date: r.date,
-      actualPnl: r.actual_pnl ?? null,
-      hypotheticalPnl: r.hypothetical_pnl ?? null,
-      var99: r.var_99 ?? null,
-      rtpl: r.rtpl ?? null,
-      var975: r.var_975 ?? null,
-      es975: r.es_975 ?? null,
-      ses: r.ses ?? null,
-      imaDrc: r.ima_drc ?? null,
-      sbm: r.sbm ?? null,
-      rrao: r.rrao ?? null,
-      saDrc: r.sa_drc ?? null,
-      feesCommissions: r.fees_commissions ?? null,
-      reservesAdjustments: r.reserves_adjustments ?? null,
-      netInterestIncome: r.net_interest_income ?? null,
-      intradayPnl: r.intraday_pnl ?? null,
-      newTradePnl: r.new_trade_pnl ?? null,
-    });
-  }
+  const out = parsedSeries(parsed.rows);
   // Each rule set backtests its own actual P&L, as the server's read does (docs/rules.md#pnl-definition).
   for (const [code, series] of out) out.set(code, withPnlDefinition(series, REGIME[entity]));
   return { dates, out };
